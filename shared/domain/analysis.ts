@@ -1,0 +1,337 @@
+/**
+ * API contract of the calculation engine: zod schemas (request parsing, response parsing in the
+ * web client, OpenAPI generation) and their inferred types. All quantities are SI; names carry
+ * their unit. Defaults for optional vehicle fields come from the 12 m battery bus class
+ * (see `shared/engine/vehicle-presets.ts` for their sources).
+ */
+import { z } from 'zod';
+import {
+  DEFAULT_ACCELERATION_MPS2,
+  DEFAULT_ASCENT_THRESHOLD_M,
+  DEFAULT_CURVATURE_WINDOW_M,
+  DEFAULT_DECELERATION_MPS2,
+  DEFAULT_DESCENT_GAP_TOLERANCE_M,
+  DEFAULT_DESCENT_GRADE_THRESHOLD_PERCENT,
+  DEFAULT_DESCENT_MIN_LENGTH_M,
+  DEFAULT_LATERAL_ACCELERATION_MPS2,
+  DEFAULT_MAX_GAP_FILL_M,
+  DEFAULT_SMOOTHING_WINDOW_M,
+  DEFAULT_SPACING_M,
+} from '../engine/constants';
+
+const efficiency = z.number().gt(0).lte(1);
+const share = z.number().min(0).max(1);
+
+/** Friction brake construction; selects the fade bands used for the risk level. */
+export const brakeTypeSchema = z.enum(['disc', 'drum']);
+export type BrakeType = z.infer<typeof brakeTypeSchema>;
+
+/** Where traction energy comes from and regenerated energy goes. */
+export const powerSourceSchema = z.enum(['battery', 'overhead-line']);
+export type PowerSource = z.infer<typeof powerSourceSchema>;
+
+/** Vehicle profile, all SI. */
+export const vehicleSchema = z
+  .object({
+    /** Mass of the empty vehicle ready for service, kg. */
+    curbMassKg: z.number().positive().max(200_000),
+    /** Passengers and load, kg. Vehicle mass m = curbMassKg + payloadKg. */
+    payloadKg: z.number().min(0).max(100_000),
+    frontalAreaM2: z.number().positive().max(30),
+    dragCoefficient: z.number().min(0).max(3),
+    rollingResistanceCoefficient: z.number().min(0).max(0.1),
+    /** Extra equivalent mass of rotating parts as a share of m: inertia = (1 + factor)·m·a. */
+    rotatingMassFactor: z.number().min(0).max(1),
+    /** Peak traction power at the wheel, W. */
+    tractionPowerW: z.number().positive().max(5e6),
+    /** Peak regenerative braking power at the wheel, W. 0 means no regeneration at all. */
+    regenPowerW: z.number().min(0).max(5e6),
+    /** Battery (or line) → wheel efficiency while motoring. */
+    drivetrainEfficiency: efficiency,
+    /** Wheel → battery (or line) efficiency while regenerating. */
+    regenEfficiency: efficiency,
+    /** Usable battery energy, Wh. May be 0 for overhead-line vehicles without storage. */
+    batteryCapacityWh: z.number().min(0).max(5e6),
+    /** Battery charge-power limit below the SOC taper, W. */
+    maxChargePowerW: z.number().min(0).max(5e6),
+    /** Auxiliary power (heating, cooling, lighting, compressors), drawn all the time, W. */
+    auxPowerW: z.number().min(0).max(500_000),
+    /** Tractive force limit at the wheel (motor torque), N. Also caps the regen force. */
+    maxTractionForceN: z.number().positive().max(1e6).default(35_000),
+    brakeType: brakeTypeSchema.default('disc'),
+    /** Thermal mass of all friction brakes taken together (discs/drums with hubs), J/K. */
+    brakeThermalMassJPerK: z.number().positive().max(1e8).default(92_000),
+    /** Cooled surface of all friction brakes taken together, m². */
+    brakeCoolingAreaM2: z.number().positive().max(100).default(1.6),
+    /** Share of friction-brake heat that goes into the discs or drums. */
+    brakeHeatShare: share.default(0.95),
+    brakeEmissivity: share.default(0.6),
+    /** Endurance brake (retarder or braking resistor) power limit at the wheel, W; 0 = none. */
+    retarderPowerW: z.number().min(0).max(5e6).default(0),
+    /** Overhead-line vehicles: share of regenerated power the line can take (receptivity). */
+    lineReceptivity: share.default(0.5),
+    powerSource: powerSourceSchema.default('battery'),
+    /** SOC above which the charge-power limit falls linearly. */
+    socTaperStart: share.default(0.85),
+    /** SOC at which the charge-power limit reaches zero; the battery never charges above it. */
+    socCeiling: share.default(0.95),
+    /** Speed below which regeneration fades out and the friction brakes take over, m/s. */
+    regenMinSpeedMps: z.number().min(0).max(10).default(5 / 3.6),
+  })
+  .superRefine((vehicle, ctx) => {
+    if (vehicle.socTaperStart > vehicle.socCeiling) {
+      ctx.addIssue({
+        code: 'custom',
+        path: ['socTaperStart'],
+        message: 'must not exceed socCeiling',
+      });
+    }
+    if (vehicle.powerSource === 'battery' && vehicle.batteryCapacityWh <= 0) {
+      ctx.addIssue({
+        code: 'custom',
+        path: ['batteryCapacityWh'],
+        message: 'must be > 0 for a battery vehicle',
+      });
+    }
+  });
+export type Vehicle = z.infer<typeof vehicleSchema>;
+export type VehicleInput = z.input<typeof vehicleSchema>;
+
+/** Conditions of one run. */
+export const conditionsSchema = z.object({
+  /** Ambient air temperature, °C. Absent: the ISA temperature at each point's altitude. */
+  ambientC: z.number().min(-60).max(60).optional(),
+  /** State of charge at the start of the route, 0–1. */
+  startSoc: share.default(0.8),
+  /** Brake temperature at the start, °C. Absent: ambient. */
+  initialBrakeTempC: z.number().min(-60).max(1_000).optional(),
+});
+export type Conditions = z.infer<typeof conditionsSchema>;
+
+/** One speed-limit stretch, metres along the route. */
+export const speedLimitStretchSchema = z
+  .object({
+    fromM: z.number().min(0),
+    toM: z.number().min(0),
+    speedKph: z.number().positive().max(300),
+  })
+  .refine((stretch) => stretch.toM > stretch.fromM, { message: 'toM must exceed fromM', path: ['toM'] });
+export type SpeedLimitStretch = z.infer<typeof speedLimitStretchSchema>;
+
+/** A stop with its dwell time. */
+export const stopSchema = z.object({
+  atM: z.number().min(0),
+  /** Dwell time, s (from memory: 15–30 s at an urban stop). */
+  dwellS: z.number().min(0).max(86_400).default(20),
+  name: z.string().max(200).optional(),
+});
+export type Stop = z.infer<typeof stopSchema>;
+
+/** Analysis options; every one has a documented default. */
+export const optionsSchema = z.object({
+  /** Resampling spacing, m. */
+  spacingM: z.number().min(1).max(200).default(DEFAULT_SPACING_M),
+  /** One speed limit for the whole route, or stretches (outside them: the largest given limit). */
+  speedLimitKph: z
+    .union([z.number().positive().max(300), z.array(speedLimitStretchSchema).min(1)])
+    .default(50),
+  stops: z.array(stopSchema).default([]),
+  /** Elevation smoothing window, m; 0 switches smoothing off. */
+  smoothingWindowM: z.number().min(0).max(5_000).default(DEFAULT_SMOOTHING_WINDOW_M),
+  smoothingMethod: z.enum(['moving-average', 'savitzky-golay']).default('moving-average'),
+  /** Speed cap applied where the grade is below `descentGradeThresholdPercent`, km/h. */
+  descentSpeedCapKph: z.number().positive().max(300).optional(),
+  /** Grade below which a stretch counts as descending, % (negative). */
+  descentGradeThresholdPercent: z.number().min(-30).max(0).default(DEFAULT_DESCENT_GRADE_THRESHOLD_PERCENT),
+  descentMinLengthM: z.number().min(0).max(100_000).default(DEFAULT_DESCENT_MIN_LENGTH_M),
+  /** Flats or short rises up to this length do not split a descent, m. */
+  descentGapToleranceM: z.number().min(0).max(5_000).default(DEFAULT_DESCENT_GAP_TOLERANCE_M),
+  lateralAccelerationMps2: z.number().positive().max(5).default(DEFAULT_LATERAL_ACCELERATION_MPS2),
+  accelerationMps2: z.number().positive().max(5).default(DEFAULT_ACCELERATION_MPS2),
+  decelerationMps2: z.number().positive().max(10).default(DEFAULT_DECELERATION_MPS2),
+  /** Limit the felt deceleration d + g·sin θ on descents to `decelerationMps2` (DOMAIN §7.2 option). */
+  slopeAwareDeceleration: z.boolean().default(false),
+  curvatureWindowM: z.number().min(0).max(1_000).default(DEFAULT_CURVATURE_WINDOW_M),
+  /** Hysteresis for total ascent/descent, m. */
+  ascentThresholdM: z.number().min(0).max(100).default(DEFAULT_ASCENT_THRESHOLD_M),
+  /** Longest terrain gap filled by linear interpolation, m; longer gaps are refused. */
+  maxGapFillM: z.number().min(0).max(10_000).default(DEFAULT_MAX_GAP_FILL_M),
+  /** Whether the vehicle starts and ends at rest (terminals). */
+  startAtRest: z.boolean().default(true),
+  endAtRest: z.boolean().default(true),
+});
+export type AnalysisOptions = z.infer<typeof optionsSchema>;
+export type AnalysisOptionsInput = z.input<typeof optionsSchema>;
+
+/** POST /api/analysis/road-load body. */
+export const roadLoadRequestSchema = z.object({
+  vehicle: vehicleSchema,
+  speedMps: z.number().min(0).max(150),
+  /** 100·tan θ, positive uphill. */
+  gradePercent: z.number().min(-100).max(100),
+  accelerationMps2: z.number().min(-20).max(20).default(0),
+  altitudeM: z.number().min(-1_000).max(11_000).default(0),
+  ambientC: z.number().min(-60).max(60).optional(),
+});
+export type RoadLoadRequest = z.infer<typeof roadLoadRequestSchema>;
+export type RoadLoadRequestInput = z.input<typeof roadLoadRequestSchema>;
+
+export const roadLoadResponseSchema = z.object({
+  rollingN: z.number(),
+  aeroN: z.number(),
+  gradeN: z.number(),
+  inertiaN: z.number(),
+  tractionN: z.number(),
+  tractionPowerW: z.number(),
+  airDensityKgM3: z.number(),
+});
+export type RoadLoadResponse = z.infer<typeof roadLoadResponseSchema>;
+
+const longitude = z.number().min(-180).max(180);
+const latitude = z.number().min(-90).max(90);
+/** GeoJSON position (RFC 7946): [lon, lat] or [lon, lat, elevation m]. */
+export const positionSchema = z.union([
+  z.tuple([longitude, latitude]),
+  z.tuple([longitude, latitude, z.number().min(-1_000).max(11_000)]),
+]);
+
+/** GeoJSON LineString (RFC 7946), WGS 84. */
+export const lineStringSchema = z.object({
+  type: z.literal('LineString'),
+  coordinates: z.array(positionSchema).min(2),
+  bbox: z.array(z.number()).optional(),
+});
+export type LineString = z.infer<typeof lineStringSchema>;
+
+/** POST /api/analysis/preview body. */
+export const previewRequestSchema = z.object({
+  route: lineStringSchema,
+  vehicle: vehicleSchema,
+  conditions: conditionsSchema.default({ startSoc: 0.8 }),
+  options: optionsSchema.default(optionsSchema.parse({})),
+});
+export type PreviewRequest = z.infer<typeof previewRequestSchema>;
+export type PreviewRequestInput = z.input<typeof previewRequestSchema>;
+
+export const riskLevelSchema = z.enum(['low', 'elevated', 'high', 'critical']);
+export type RiskLevel = z.infer<typeof riskLevelSchema>;
+
+/** Route totals for one direction. Energies in Wh. */
+export const summarySchema = z.object({
+  /** Geodesic (horizontal) length, m. */
+  lengthM: z.number(),
+  /** Length along the road surface (slope length), m. */
+  slopeLengthM: z.number(),
+  ascentM: z.number(),
+  descentM: z.number(),
+  durationS: z.number(),
+  /** Wheel energy while driving (positive wheel power only). */
+  tractionEnergyWh: z.number(),
+  /** Wheel energy while braking (all braking systems together). */
+  brakingEnergyWh: z.number(),
+  /** Energy into the battery (or line) from regeneration, after regenEfficiency. */
+  regenEnergyWh: z.number(),
+  /** Energy absorbed at the wheel by the friction brakes. */
+  frictionBrakeEnergyWh: z.number(),
+  /** Energy absorbed at the wheel by the retarder or braking resistor. */
+  retarderEnergyWh: z.number(),
+  auxEnergyWh: z.number(),
+  /** Energy drawn from the battery (or line) minus energy put back: traction/η + aux − regen. */
+  batteryNetEnergyWh: z.number(),
+  kWhPerKm: z.number(),
+  peakBrakeTempC: z.number(),
+  gsrsPeakBrakeTempC: z.number(),
+  startSoc: z.number(),
+  endSoc: z.number(),
+  /** Energy the battery could not supply because it was empty (SOC held at 0). */
+  energyShortfallWh: z.number(),
+  /** Length over which the needed tractive force exceeded the vehicle's traction envelope, m. */
+  tractionLimitedM: z.number(),
+});
+export type Summary = z.infer<typeof summarySchema>;
+
+/** Per-point arrays, all the same length (one entry per resampled point). */
+export const profileSchema = z.object({
+  distanceM: z.array(z.number()),
+  lon: z.array(z.number()),
+  lat: z.array(z.number()),
+  elevationM: z.array(z.number()),
+  gradePercent: z.array(z.number()),
+  speedMps: z.array(z.number()),
+  timeS: z.array(z.number()),
+  rollingN: z.array(z.number()),
+  aeroN: z.array(z.number()),
+  gradeN: z.array(z.number()),
+  inertiaN: z.array(z.number()),
+  tractionN: z.array(z.number()),
+  tractionPowerW: z.array(z.number()),
+  batteryPowerW: z.array(z.number()),
+  regenPowerW: z.array(z.number()),
+  frictionBrakePowerW: z.array(z.number()),
+  soc: z.array(z.number()),
+  brakeTempC: z.array(z.number()),
+  gsrsBrakeTempC: z.array(z.number()),
+  airDensityKgM3: z.array(z.number()),
+});
+export type Profile = z.infer<typeof profileSchema>;
+
+/** What the speed advice of a descent means. */
+export const speedAdviceSchema = z.enum(['limit', 'no-limit-needed', 'not-holdable']);
+
+export const descentSchema = z.object({
+  startM: z.number(),
+  endM: z.number(),
+  lengthM: z.number(),
+  /** Height lost, m (positive). */
+  dropM: z.number(),
+  /** Mean grade, % — negative on a descent (gradePercent is positive uphill). */
+  meanGradePercent: z.number(),
+  /** Steepest segment grade, % — the most negative value. */
+  maxGradePercent: z.number(),
+  /** m·g·drop, Wh. */
+  gravityEnergyWh: z.number(),
+  /** Wheel braking energy on the descent (all braking systems), Wh. */
+  brakingEnergyWh: z.number(),
+  regenEnergyWh: z.number(),
+  frictionBrakeEnergyWh: z.number(),
+  retarderEnergyWh: z.number(),
+  peakBrakeTempC: z.number(),
+  gsrsPeakBrakeTempC: z.number(),
+  risk: riskLevelSchema,
+  /** Brake temperature at which fade becomes likely for this brake type, °C. */
+  fadeThresholdC: z.number(),
+  /**
+   * Highest constant descent speed keeping the brakes at or below the fade threshold, km/h.
+   * null with `speedAdvice: 'no-limit-needed'` (every speed up to the search ceiling is fine) or
+   * `'not-holdable'` (even walking pace overheats the brakes).
+   */
+  maxSafeSpeedKph: z.number().nullable(),
+  speedAdvice: speedAdviceSchema,
+  /**
+   * Highest SOC at the top that still lets regeneration take the whole descent; null when
+   * regeneration cannot take it at any SOC (or the vehicle has no battery to fill).
+   */
+  maxTopSoc: z.number().nullable(),
+  socAtTop: z.number(),
+  /** Net braking energy exceeds the UN R13 Type-II reference descent for this mass. */
+  beyondTypeApprovalReference: z.boolean(),
+});
+export type Descent = z.infer<typeof descentSchema>;
+
+export const uncoveredStretchSchema = z.object({
+  fromM: z.number(),
+  toM: z.number(),
+  /** Whether the gap was filled by linear interpolation. */
+  filled: z.boolean(),
+});
+export type UncoveredStretchReport = z.infer<typeof uncoveredStretchSchema>;
+
+export const previewResponseSchema = z.object({
+  summary: summarySchema,
+  profile: profileSchema,
+  descents: z.array(descentSchema),
+  uncoveredStretches: z.array(uncoveredStretchSchema).optional(),
+  caution: z.string(),
+  engineVersion: z.string(),
+});
+export type PreviewResponse = z.infer<typeof previewResponseSchema>;

@@ -1,0 +1,151 @@
+/**
+ * Physical constants and engine-wide defaults. Every value carries its source; "from memory"
+ * marks an engineering default still to be confirmed against a maker's data or a standard.
+ */
+
+/** Version of the calculation engine; stored with saved results so they can be re-run. */
+export const ENGINE_VERSION = '1.0.0';
+
+/** Standard acceleration of gravity, m/s². Exact by definition (3rd CGPM, 1901). */
+export const STANDARD_GRAVITY_MPS2 = 9.80665;
+
+/** ISA sea-level temperature, K (U.S. Standard Atmosphere 1976). */
+export const ISA_SEA_LEVEL_TEMPERATURE_K = 288.15;
+
+/** ISA sea-level pressure, Pa (U.S. Standard Atmosphere 1976). */
+export const ISA_SEA_LEVEL_PRESSURE_PA = 101_325;
+
+/** ISA tropospheric temperature lapse rate, K/m (U.S. Standard Atmosphere 1976). */
+export const ISA_LAPSE_RATE_K_PER_M = 0.0065;
+
+/**
+ * ISA pressure exponent g0·M0/(R*·L) = 5.255876 (U.S. Standard Atmosphere 1976 constants
+ * R* = 8.31432 J/(mol·K), M0 = 0.0289644 kg/mol).
+ */
+export const ISA_PRESSURE_EXPONENT = 5.255876;
+
+/** Upper end of the ISA troposphere (geopotential altitude), m (U.S. Standard Atmosphere 1976). */
+export const ISA_TROPOPAUSE_ALTITUDE_M = 11_000;
+
+/** Lowest altitude the engine accepts, m (common practice: below the Dead Sea shore, −430 m). */
+export const MIN_ALTITUDE_M = -1_000;
+
+/**
+ * Specific gas constant of dry air used for ρ = p/(R·T), J/(kg·K). The product design fixes
+ * 287.05; U.S. Standard Atmosphere 1976 gives R* ÷ M0 = 287.053.
+ */
+export const SPECIFIC_GAS_CONSTANT_AIR_J_PER_KG_K = 287.05;
+
+/** Offset between the Celsius and Kelvin scales, K (SI definition). */
+export const CELSIUS_TO_KELVIN_K = 273.15;
+
+/** Stefan–Boltzmann constant, W/(m²·K⁴) (CODATA 2018, exact since the 2019 SI redefinition). */
+export const STEFAN_BOLTZMANN_W_PER_M2_K4 = 5.670374419e-8;
+
+/** WGS 84 semi-major axis, m (NIMA TR8350.2, WGS 84 definition). */
+export const WGS84_SEMI_MAJOR_AXIS_M = 6_378_137;
+
+/** WGS 84 flattening (NIMA TR8350.2, WGS 84 definition). */
+export const WGS84_FLATTENING = 1 / 298.257223563;
+
+/** Joules per watt-hour (SI definition). */
+export const JOULES_PER_WH = 3_600;
+
+/** Pounds-force per newton (exact: 1 lbf = 4.4482216152605 N). */
+export const NEWTONS_PER_POUND_FORCE = 4.4482216152605;
+
+/** Kilograms per avoirdupois pound (exact, international yard and pound agreement 1959). */
+export const KG_PER_POUND = 0.45359237;
+
+/** Metres per international mile (exact, 1959). */
+export const METRES_PER_MILE = 1_609.344;
+
+/** Watts per mechanical horsepower (550 ft·lbf/s = 745.6999 W). */
+export const WATTS_PER_HORSEPOWER = 745.69987158227022;
+
+/** Default resampling spacing along the route, m (product design: default 10 m). */
+export const DEFAULT_SPACING_M = 10;
+
+/**
+ * Default elevation smoothing window, m. DOMAIN notes §6.2/§6.3: grades from 25–30 m global
+ * terrain models need a 100–300 m baseline; 150 m is the middle of that range (common practice).
+ */
+export const DEFAULT_SMOOTHING_WINDOW_M = 150;
+
+/** Default lateral (curve) comfort acceleration for buses, m/s² (from memory: 1.0–1.5, 1.2 default). */
+export const DEFAULT_LATERAL_ACCELERATION_MPS2 = 1.2;
+
+/** Default comfort acceleration, m/s² (from memory: 0.8–1.2 m/s² for standing passengers). */
+export const DEFAULT_ACCELERATION_MPS2 = 1.0;
+
+/** Default comfort service deceleration, m/s² (from memory: 1.0–1.3 m/s² for buses). */
+export const DEFAULT_DECELERATION_MPS2 = 1.2;
+
+/** Curvature radius cap on straights, m (from memory: R capped at about 10 km). */
+export const MAX_CURVE_RADIUS_M = 10_000;
+
+/** Default window for smoothing curvature along the route, m (from memory: 20–50 m). */
+export const DEFAULT_CURVATURE_WINDOW_M = 30;
+
+/**
+ * Lowest speed the speed profile lets a vehicle fall to when its traction envelope cannot hold
+ * the grade, m/s. The stretch is reported as traction-limited instead of stalling (common practice).
+ */
+export const CRAWL_SPEED_MPS = 0.5;
+
+/** Default grade below which a stretch counts as descending, % (common practice). */
+export const DEFAULT_DESCENT_GRADE_THRESHOLD_PERCENT = -3;
+
+/** Default minimum length of a reported descent, m (common practice). */
+export const DEFAULT_DESCENT_MIN_LENGTH_M = 500;
+
+/** Default length of flats or short rises tolerated inside one descent, m (common practice). */
+export const DEFAULT_DESCENT_GAP_TOLERANCE_M = 150;
+
+/**
+ * Default hysteresis for counting total ascent and descent on the smoothed profile, m
+ * (from memory: 1–2 × the terrain model's vertical error, DOMAIN notes §6.2).
+ */
+export const DEFAULT_ASCENT_THRESHOLD_M = 2;
+
+/**
+ * Longest gap without terrain that the analysis fills by linear interpolation between the
+ * covered ends, m. Longer gaps, or gaps at either end of the route, are refused (common practice,
+ * the same treatment DOMAIN notes §6.4 give bridges and tunnels).
+ */
+export const DEFAULT_MAX_GAP_FILL_M = 100;
+
+/** Default brake-ambient heat-transfer law h = a + b·v: constant term, W/(m²·K) (DOMAIN §4.3, from memory). */
+export const BRAKE_CONVECTION_STILL_W_PER_M2_K = 12;
+
+/**
+ * Default brake heat-transfer speed term, W/(m²·K) per m/s. Linear in speed as measured by
+ * McPhee & Johnson, Int. J. Thermal Sciences 47 (2008) 458–467; coefficients from DOMAIN §4.3.
+ */
+export const BRAKE_CONVECTION_SPEED_W_PER_M2_K_PER_MPS = 4.5;
+
+/** Longest time step of the brake temperature update before it is sub-stepped, s (common practice). */
+export const BRAKE_MAX_SUBSTEP_S = 2;
+
+/** Speed of the UN R13 Type-II and Type-IIA reference descents, m/s (30 km/h, from memory, DOMAIN §5.1). */
+export const TYPE_II_SPEED_MPS = 30 / 3.6;
+
+/** Length of the UN R13 Type-II reference descent along the road, m (6 km, from memory, DOMAIN §5.1). */
+export const TYPE_II_LENGTH_M = 6_000;
+
+/** Grade of the UN R13 Type-II reference descent, % (Dir. 71/320/EEC Annex VII: at least 6 %). */
+export const TYPE_II_GRADE_PERCENT = 6;
+
+/** Grade of the UN R13 Type-IIA reference descent, % (Dir. 71/320/EEC Annex VII: at least 7 %). */
+export const TYPE_IIA_GRADE_PERCENT = 7;
+
+/** Sea-level ISA air density used for the reference descents, kg/m³ (U.S. Standard Atmosphere 1976). */
+export const ISA_SEA_LEVEL_DENSITY_KG_PER_M3 = 1.225;
+
+/**
+ * Text the UI and API show beside every safety-relevant figure (brake-fade risk, speed and SOC
+ * advice).
+ */
+export const ENGINEERING_CAUTION =
+  'Figures are engineering estimates; local codes, the vehicle maker\u2019s limits and licensed ' +
+  'engineering judgement decide.';

@@ -1,0 +1,80 @@
+/**
+ * Input checks for the engine. Invalid input throws an `EngineInputError` (a `RangeError`) that
+ * names the offending field, so the API can answer 400 and no result ever carries NaN.
+ */
+import type { z } from 'zod';
+
+/** A `RangeError` that names the input field it is about, e.g. `vehicle.curbMassKg`. */
+export class EngineInputError extends RangeError {
+  /** Dotted path of the offending field. */
+  readonly field: string;
+
+  constructor(field: string, message: string) {
+    super(`${field}: ${message}`);
+    this.name = 'EngineInputError';
+    this.field = field;
+  }
+}
+
+/** One stretch of the route without terrain, in metres along the route. */
+export interface UncoveredStretch {
+  fromM: number;
+  toM: number;
+}
+
+/** Raised when the terrain leaves stretches uncovered that the engine will not fill. */
+export class UncoveredTerrainError extends EngineInputError {
+  /** Every uncovered stretch, filled or not. */
+  readonly stretches: UncoveredStretch[];
+
+  constructor(stretches: UncoveredStretch[], refused: UncoveredStretch[], maxGapFillM: number) {
+    const list = refused.map((s) => `${s.fromM.toFixed(0)}–${s.toM.toFixed(0)} m`).join(', ');
+    super(
+      'route.coordinates',
+      `no terrain covers ${list}; gaps up to ${maxGapFillM} m between covered points are ` +
+        'interpolated, longer gaps and gaps at either end of the route are refused',
+    );
+    this.name = 'UncoveredTerrainError';
+    this.stretches = stretches;
+  }
+}
+
+/** Throws unless `value` is a finite number. */
+export function assertFinite(field: string, value: number): void {
+  if (typeof value !== 'number' || !Number.isFinite(value)) {
+    throw new EngineInputError(field, `must be a finite number, got ${String(value)}`);
+  }
+}
+
+/** Throws unless `value` is finite and within [min, max]. */
+export function assertInRange(field: string, value: number, min: number, max: number): void {
+  assertFinite(field, value);
+  if (value < min || value > max) {
+    throw new EngineInputError(field, `must be within [${min}, ${max}], got ${value}`);
+  }
+}
+
+/** Throws unless `value` is finite and ≥ 0. */
+export function assertNonNegative(field: string, value: number): void {
+  assertFinite(field, value);
+  if (value < 0) throw new EngineInputError(field, `must be ≥ 0, got ${value}`);
+}
+
+/** Throws unless `value` is finite and > 0. */
+export function assertPositive(field: string, value: number): void {
+  assertFinite(field, value);
+  if (value <= 0) throw new EngineInputError(field, `must be > 0, got ${value}`);
+}
+
+/**
+ * Parses `input` with a zod schema; on failure throws an `EngineInputError` naming the first
+ * offending field (prefixed with `root`, e.g. `vehicle.curbMassKg`).
+ */
+export function parseOrThrow<S extends z.ZodType>(schema: S, input: unknown, root = ''): z.output<S> {
+  const result = schema.safeParse(input);
+  if (result.success) return result.data;
+  const issue = result.error.issues[0];
+  const path = issue ? issue.path.map(String).join('.') : '';
+  const field = [root, path].filter((part) => part.length > 0).join('.') || 'input';
+  throw new EngineInputError(field, issue?.message ?? 'invalid input');
+}
