@@ -1,0 +1,53 @@
+import { existsSync } from 'node:fs';
+import { resolve } from 'node:path';
+import cookieParser from 'cookie-parser';
+import express, { Router, type Express } from 'express';
+import type { AppDeps } from './app-deps';
+import { authenticate } from './auth/authenticate';
+import { requireSameOrigin } from './auth/same-origin';
+import { allEndpoints } from './endpoints';
+import { mountEndpoint } from './http/endpoint';
+import { apiNotFound, errorHandler } from './http/error-handler';
+import { buildOpenApiDocument } from './openapi/openapi-document';
+
+/**
+ * Builds the Express application without listening, so tests drive it in-process with
+ * supertest and `main.ts` decides where it listens.
+ */
+export function createApp(deps: AppDeps): Express {
+  const app = express();
+  app.disable('x-powered-by');
+  app.set('trust proxy', 'loopback');
+
+  const endpoints = allEndpoints(deps);
+  const openApiDocument = buildOpenApiDocument(endpoints);
+
+  const api = Router();
+  api.use(express.json({ limit: '5mb' }));
+  api.use(cookieParser());
+  api.use(requireSameOrigin(deps.config.PUBLIC_URL));
+  api.use(authenticate(deps));
+  api.use((_req, res, next) => {
+    res.set('Cache-Control', 'no-store');
+    next();
+  });
+  api.get('/api/openapi.json', (_req, res) => {
+    res.json(openApiDocument);
+  });
+  for (const definition of endpoints) mountEndpoint(api, definition);
+  api.use('/api', apiNotFound);
+  app.use(api);
+
+  const webDir = resolve(deps.config.WEB_DIR);
+  if (deps.config.WEB_DIR && existsSync(resolve(webDir, 'index.html'))) {
+    app.use(express.static(webDir, { index: false, maxAge: '1h' }));
+    // The Angular router owns every other path.
+    app.get('/{*splat}', (_req, res) => {
+      res.set('Cache-Control', 'no-cache');
+      res.sendFile(resolve(webDir, 'index.html'));
+    });
+  }
+
+  app.use(errorHandler);
+  return app;
+}

@@ -1,0 +1,137 @@
+import { z } from 'zod';
+import {
+  changePasswordRequestSchema,
+  loginRequestSchema,
+  passwordResetRequestSchema,
+  setPasswordWithTokenRequestSchema,
+  tokenInfoRequestSchema,
+  tokenInfoResponseSchema,
+  userResponseSchema,
+} from '@shared/domain/auth';
+import type { AppDeps } from '../app-deps';
+import { endpoint } from '../http/endpoint';
+import { revokeSession } from './auth-repository';
+import * as authService from './auth-service';
+import { issueSessionCookie, sessionCookieOptions } from './authenticate';
+import { SESSION_COOKIE } from './session-tokens';
+
+export function authEndpoints(deps: AppDeps) {
+  const { db, config } = deps;
+  return [
+    endpoint({
+      method: 'post',
+      path: '/api/auth/login',
+      summary: 'Sign in; sets the HttpOnly session cookie',
+      tag: 'Sign-in',
+      access: 'public',
+      body: loginRequestSchema,
+      responses: {
+        200: { description: 'Signed in', schema: userResponseSchema },
+        401: { description: 'Wrong e-mail or password, or account disabled' },
+        429: { description: 'Too many failed attempts; see Retry-After' },
+      },
+      handler: async ({ body, req, res }) => {
+        const { session, user } = await authService.signIn(deps, body, {
+          ip: req.ip ?? 'unknown',
+          userAgent: req.get('user-agent'),
+        });
+        await issueSessionCookie(deps, req, res, session);
+        res.json({ user });
+      },
+    }),
+    endpoint({
+      method: 'post',
+      path: '/api/auth/logout',
+      summary: 'Sign out; the session is revoked on the server',
+      tag: 'Sign-in',
+      access: 'signed-in',
+      responses: { 204: { description: 'Signed out' } },
+      handler: async ({ req, res }) => {
+        await revokeSession(db, res.locals['sessionId'] as string);
+        res.clearCookie(SESSION_COOKIE, { ...sessionCookieOptions(req, config.SESSION_TTL_MINUTES), maxAge: undefined });
+        res.status(204).end();
+      },
+    }),
+    endpoint({
+      method: 'get',
+      path: '/api/auth/me',
+      summary: 'The signed-in person',
+      tag: 'Sign-in',
+      access: 'signed-in',
+      responses: { 200: { description: 'Signed in', schema: userResponseSchema } },
+      handler: ({ user, res }) => {
+        res.json({ user });
+      },
+    }),
+    endpoint({
+      method: 'post',
+      path: '/api/auth/password',
+      summary: 'Change one’s own password; ends every session of the account',
+      tag: 'Sign-in',
+      access: 'signed-in',
+      body: changePasswordRequestSchema,
+      responses: { 204: { description: 'Changed; sign in again' } },
+      handler: async ({ body, user, req, res }) => {
+        await authService.changePassword(deps, user!.id, body);
+        res.clearCookie(SESSION_COOKIE, { ...sessionCookieOptions(req, config.SESSION_TTL_MINUTES), maxAge: undefined });
+        res.status(204).end();
+      },
+    }),
+    endpoint({
+      method: 'post',
+      path: '/api/auth/token-info',
+      summary: 'Who an invitation or reset link is for (does not use the link)',
+      tag: 'Sign-in',
+      access: 'public',
+      body: tokenInfoRequestSchema,
+      responses: {
+        200: { description: 'Valid link', schema: tokenInfoResponseSchema },
+        404: { description: 'Unknown link' },
+        410: { description: 'Used or expired link' },
+      },
+      handler: async ({ body, res }) => {
+        const { row, user } = await authService.describeToken(deps, body.token);
+        res.json({ kind: row.kind, email: user.email, name: user.name });
+      },
+    }),
+    endpoint({
+      method: 'post',
+      path: '/api/auth/invitations/accept',
+      summary: 'Accept an invitation by choosing a password',
+      tag: 'Sign-in',
+      access: 'public',
+      body: setPasswordWithTokenRequestSchema,
+      responses: { 204: { description: 'Account active; sign in' } },
+      handler: async ({ body, res }) => {
+        await authService.setPasswordWithToken(deps, 'invite', body);
+        res.status(204).end();
+      },
+    }),
+    endpoint({
+      method: 'post',
+      path: '/api/auth/password-reset/request',
+      summary: 'E-mail a password-reset link (same answer whether or not the account exists)',
+      tag: 'Sign-in',
+      access: 'public',
+      body: passwordResetRequestSchema,
+      responses: { 202: { description: 'If the account exists, a message is on its way', schema: z.object({}) } },
+      handler: async ({ body, res }) => {
+        await authService.requestPasswordReset(deps, body.email);
+        res.status(202).json({});
+      },
+    }),
+    endpoint({
+      method: 'post',
+      path: '/api/auth/password-reset/confirm',
+      summary: 'Choose a new password through a reset link; ends every session',
+      tag: 'Sign-in',
+      access: 'public',
+      body: setPasswordWithTokenRequestSchema,
+      responses: { 204: { description: 'Password set; sign in' } },
+      handler: async ({ body, res }) => {
+        await authService.setPasswordWithToken(deps, 'reset', body);
+        res.status(204).end();
+      },
+    }),
+  ];
+}

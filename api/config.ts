@@ -1,0 +1,43 @@
+import { z } from 'zod';
+
+/**
+ * Process configuration, parsed once from the environment; a bad value stops start-up with a
+ * message naming the variable.
+ */
+const configSchema = z.object({
+  NODE_ENV: z.enum(['development', 'test', 'production']).default('development'),
+  PORT: z.coerce.number().int().min(1).max(65535).default(4300),
+  HOST: z.string().default('127.0.0.1'),
+  DATABASE_URL: z.string().min(1, 'DATABASE_URL is required'),
+  /** Secret for signing session tokens; at least 32 characters. */
+  SESSION_SECRET: z.string().min(32, 'SESSION_SECRET must be at least 32 characters'),
+  /** Session lifetime; renewed on activity. */
+  SESSION_TTL_MINUTES: z.coerce.number().int().min(1).max(24 * 60).default(30),
+  /** Public address of the app, used in links inside e-mails and for the Origin check. */
+  PUBLIC_URL: z.url().default('http://127.0.0.1:4300'),
+  SMTP_HOST: z.string().default('127.0.0.1'),
+  SMTP_PORT: z.coerce.number().int().min(1).max(65535).default(2525),
+  SMTP_USER: z.string().optional(),
+  SMTP_PASSWORD: z.string().optional(),
+  SMTP_SECURE: z.stringbool().default(false),
+  MAIL_FROM: z.string().default('Descentry <no-reply@descentry.example>'),
+  /** Start the local SMTP fake inside this process (development only). */
+  MAIL_FAKE: z.stringbool().default(false),
+  /** Folder for uploaded terrain and rendered tiles. */
+  DATA_DIR: z.string().default('.var/data'),
+  /** Folder with the built Angular app to serve; empty to serve the API only. */
+  WEB_DIR: z.string().default('dist/web/browser'),
+  /** Run the background workers (mail outbox, jobs) in this process. */
+  RUN_WORKERS: z.stringbool().default(true),
+});
+
+export type Config = z.infer<typeof configSchema>;
+
+export function loadConfig(env: NodeJS.ProcessEnv = process.env): Config {
+  const parsed = configSchema.safeParse(env);
+  if (!parsed.success) {
+    const problems = parsed.error.issues.map((issue) => `${issue.path.join('.')}: ${issue.message}`);
+    throw new Error(`Invalid configuration:\n  ${problems.join('\n  ')}`);
+  }
+  return parsed.data;
+}

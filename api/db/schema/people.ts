@@ -1,0 +1,78 @@
+import { sql } from 'drizzle-orm';
+import { index, jsonb, pgEnum, pgTable, text, timestamp, uniqueIndex, uuid } from 'drizzle-orm/pg-core';
+import { ROLES } from '@shared/domain/roles';
+import { PERSON_STATUSES } from '@shared/domain/people';
+import { timestamps } from './columns';
+
+export const roleEnum = pgEnum('role', ROLES);
+export const personStatusEnum = pgEnum('person_status', PERSON_STATUSES);
+
+export const users = pgTable(
+  'users',
+  {
+    id: uuid().primaryKey().defaultRandom(),
+    email: text().notNull(),
+    name: text().notNull(),
+    role: roleEnum().notNull(),
+    status: personStatusEnum().notNull().default('invited'),
+    /** argon2id hash; null until the invitation is accepted. */
+    passwordHash: text(),
+    passwordChangedAt: timestamp({ withTimezone: true }),
+    lastSignInAt: timestamp({ withTimezone: true }),
+    /** Which e-mail notifications the person wants (keys documented in shared/domain). */
+    notificationSettings: jsonb().$type<Record<string, boolean>>().notNull().default({}),
+    ...timestamps,
+  },
+  (table) => [uniqueIndex('users_email_key').on(sql`lower(${table.email})`)],
+);
+export type UserRow = typeof users.$inferSelect;
+
+/** One row per signed-in session; the JWT carries its id, so revoking the row ends the session. */
+export const sessions = pgTable(
+  'sessions',
+  {
+    id: uuid().primaryKey().defaultRandom(),
+    userId: uuid()
+      .notNull()
+      .references(() => users.id, { onDelete: 'cascade' }),
+    expiresAt: timestamp({ withTimezone: true }).notNull(),
+    revokedAt: timestamp({ withTimezone: true }),
+    userAgent: text(),
+    createdAt: timestamp({ withTimezone: true }).notNull().defaultNow(),
+  },
+  (table) => [index('sessions_user_id_idx').on(table.userId)],
+);
+
+export const accountTokenKindEnum = pgEnum('account_token_kind', ['invite', 'reset']);
+
+/** Single-use, expiring tokens sent by e-mail; only their SHA-256 is stored. */
+export const accountTokens = pgTable(
+  'account_tokens',
+  {
+    id: uuid().primaryKey().defaultRandom(),
+    userId: uuid()
+      .notNull()
+      .references(() => users.id, { onDelete: 'cascade' }),
+    kind: accountTokenKindEnum().notNull(),
+    tokenHash: text().notNull(),
+    expiresAt: timestamp({ withTimezone: true }).notNull(),
+    usedAt: timestamp({ withTimezone: true }),
+    createdAt: timestamp({ withTimezone: true }).notNull().defaultNow(),
+  },
+  (table) => [uniqueIndex('account_tokens_token_hash_key').on(table.tokenHash)],
+);
+
+/** Failed sign-ins, kept briefly for rate limiting across every API process. */
+export const loginFailures = pgTable(
+  'login_failures',
+  {
+    id: uuid().primaryKey().defaultRandom(),
+    email: text().notNull(),
+    ip: text().notNull(),
+    failedAt: timestamp({ withTimezone: true }).notNull().defaultNow(),
+  },
+  (table) => [
+    index('login_failures_email_idx').on(table.email, table.failedAt),
+    index('login_failures_ip_idx').on(table.ip, table.failedAt),
+  ],
+);

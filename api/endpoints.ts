@@ -1,0 +1,20 @@
+import type { AppDeps } from './app-deps';
+import { authEndpoints } from './auth/auth-endpoints';
+import { healthEndpoints } from './health/health-endpoints';
+import type { AnyEndpoint } from './http/endpoint';
+import { mailEndpoints } from './mail/mail-endpoints';
+import { peopleEndpoints } from './people/people-endpoints';
+
+/**
+ * Every endpoint of the API. A feature adds its list here; `createApp` mounts them behind
+ * `requireRole`, the OpenAPI document describes them, and the authorization matrix test checks
+ * each one.
+ */
+export function allEndpoints(deps: AppDeps): AnyEndpoint[] {
+  return [
+    ...healthEndpoints(deps),
+    ...authEndpoints(deps),
+    ...peopleEndpoints(deps),
+    ...mailEndpoints(deps),
+  ];
+}

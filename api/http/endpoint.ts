@@ -1,0 +1,86 @@
+import type { Request, RequestHandler, Response, Router } from 'express';
+import type { z } from 'zod';
+import type { Role } from '@shared/domain/roles';
+import type { User } from '@shared/domain/auth';
+import { requireRole, type Access } from '../auth/require-role';
+
+type HttpMethod = 'get' | 'post' | 'put' | 'patch' | 'delete';
+
+export interface EndpointResponse {
+  description: string;
+  /** JSON body schema; omit for empty answers (204) or non-JSON content. */
+  schema?: z.ZodType;
+  /** Non-JSON content such as image/png or text/csv. */
+  contentType?: string;
+}
+
+export interface EndpointInput<TBody, TQuery, TParams> {
+  body: TBody;
+  query: TQuery;
+  params: TParams;
+  /** The signed-in person; undefined only on public endpoints. */
+  user: User | undefined;
+  req: Request;
+  res: Response;
+}
+
+/**
+ * One API endpoint: its path, who may call it, its input schemas and its answers. The same
+ * definition mounts the Express handler (behind `requireRole`) and documents the endpoint in the
+ * OpenAPI document, so no endpoint exists without an access rule and a description.
+ */
+export interface Endpoint<TBody = unknown, TQuery = unknown, TParams = unknown> {
+  method: HttpMethod;
+  /** Express-style path, e.g. `/api/people/:personId`. */
+  path: string;
+  summary: string;
+  tag: string;
+  access: Access;
+  body?: z.ZodType<TBody>;
+  /** Documents a multipart/form-data body (parsed by `middleware`, e.g. multer). */
+  multipartBody?: z.ZodType;
+  query?: z.ZodType<TQuery>;
+  params?: z.ZodType<TParams>;
+  responses: Record<number, EndpointResponse>;
+  /** Runs after the access check and before input parsing (uploads, for instance). */
+  middleware?: RequestHandler[];
+  handler: (input: EndpointInput<TBody, TQuery, TParams>) => Promise<void> | void;
+}
+
+/** Helper that keeps each endpoint's input types inferred from its schemas. */
+export function endpoint<TBody = undefined, TQuery = undefined, TParams = undefined>(
+  definition: Endpoint<TBody, TQuery, TParams>,
+): Endpoint<TBody, TQuery, TParams> {
+  return definition;
+}
+
+// Endpoints of every input type live in one list; their handlers are only called with parsed input.
+// eslint-disable-next-line @typescript-eslint/no-explicit-any
+export type AnyEndpoint = Endpoint<any, any, any>;
+
+export function mountEndpoint(router: Router, definition: AnyEndpoint): void {
+  const handler: RequestHandler = async (req, res) => {
+    const input: EndpointInput<unknown, unknown, unknown> = {
+      params: definition.params ? definition.params.parse(req.params) : req.params,
+      query: definition.query ? definition.query.parse(req.query) : req.query,
+      body: definition.body ? definition.body.parse(req.body ?? {}) : undefined,
+      user: res.locals['user'] as User | undefined,
+      req,
+      res,
+    };
+    await definition.handler(input);
+  };
+  router[definition.method](
+    definition.path,
+    requireRole(definition.access),
+    ...(definition.middleware ?? []),
+    handler,
+  );
+}
+
+/** Roles allowed by an access rule (for documentation and the authorization matrix). */
+export function rolesFor(access: Access, allRoles: readonly Role[]): readonly Role[] | 'public' {
+  if (access === 'public') return 'public';
+  if (access === 'signed-in') return allRoles;
+  return access;
+}

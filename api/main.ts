@@ -1,0 +1,38 @@
+import { createServer } from 'node:http';
+import { loadConfig } from './config';
+import { createDatabase } from './db/client';
+import { migrateDatabase } from './db/migrate';
+import { createApp } from './app';
+import { createSmtpTransport, startMailWorker } from './mail/mail-worker';
+import { startSmtpFake } from './mail/smtp-fake';
+
+const config = loadConfig();
+await migrateDatabase(config.DATABASE_URL);
+const { db, close } = createDatabase(config.DATABASE_URL);
+
+const stoppers: Array<() => Promise<void> | void> = [];
+if (config.MAIL_FAKE) {
+  if (config.NODE_ENV === 'production') throw new Error('MAIL_FAKE must not be used in production');
+  const fake = await startSmtpFake(db, config.SMTP_PORT, config.SMTP_HOST);
+  stoppers.push(fake.close);
+  console.log(`[mail] local mail catcher on ${config.SMTP_HOST}:${fake.port}`);
+}
+if (config.RUN_WORKERS) {
+  const worker = startMailWorker(db, createSmtpTransport(config), config.MAIL_FROM);
+  stoppers.push(worker.stop);
+}
+
+const server = createServer(createApp({ db, config }));
+server.listen(config.PORT, config.HOST, () => {
+  console.log(`[api] Descentry listening on http://${config.HOST}:${config.PORT}`);
+});
+
+async function shutdown(signal: string) {
+  console.log(`[api] ${signal}: shutting down`);
+  server.close();
+  for (const stop of stoppers) await stop();
+  await close();
+  process.exit(0);
+}
+process.on('SIGTERM', () => void shutdown('SIGTERM'));
+process.on('SIGINT', () => void shutdown('SIGINT'));

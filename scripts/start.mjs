@@ -1,0 +1,64 @@
+#!/usr/bin/env node
+// `npm start`: everything a fresh machine needs, then the app on one port.
+//   installs npm packages and Debian's PostgreSQL + PostGIS when missing, starts the private
+//   cluster, migrates, loads the invented demo, builds the web app and the API, starts the local
+//   mail catcher, serves http://127.0.0.1:4300 (PORT to change) and prints the demo sign-ins.
+import { databaseUrl, startDatabase, stopDatabase } from './db.mjs';
+import {
+  ensureNodeModules,
+  localSessionSecret,
+  runStep,
+  startServer,
+  step,
+  stopChild,
+} from './stack.mjs';
+
+const port = Number(process.env.PORT ?? 4300);
+const smtpPort = Number(process.env.SMTP_PORT ?? 2525);
+
+ensureNodeModules();
+step('Starting PostgreSQL (private cluster on 127.0.0.1)');
+const pg = startDatabase(['descentry']);
+
+const env = {
+  NODE_ENV: 'development',
+  PORT: String(port),
+  PUBLIC_URL: process.env.PUBLIC_URL ?? `http://127.0.0.1:${port}`,
+  DATABASE_URL: process.env.DATABASE_URL ?? databaseUrl('descentry'),
+  SESSION_SECRET: process.env.SESSION_SECRET ?? localSessionSecret(),
+  MAIL_FAKE: process.env.MAIL_FAKE ?? 'true',
+  SMTP_PORT: String(smtpPort),
+};
+
+step('Building the web app and the API');
+if (runStep('npm', ['run', 'build']).status !== 0) process.exit(1);
+
+step('Migrating and loading the demo');
+if (runStep(process.execPath, ['--import', 'tsx', 'api/demo/seed-cli.ts'], { env }).status !== 0) process.exit(1);
+
+step('Starting the server');
+const server = await startServer(env);
+console.log(`
+  Descentry is running at ${env.PUBLIC_URL}
+  PostgreSQL: 127.0.0.1:${pg.port} (cluster in ${pg.dir})
+  Local mail catcher: 127.0.0.1:${smtpPort} (admin → Outgoing mail)
+  Press Ctrl+C to stop.
+`);
+
+let stopping = false;
+async function stop() {
+  if (stopping) return;
+  stopping = true;
+  await stopChild(server);
+  if (process.env.KEEP_DB !== 'true') stopDatabase();
+  process.exit(0);
+}
+process.on('SIGINT', stop);
+process.on('SIGTERM', stop);
+server.on('exit', (code) => {
+  if (!stopping) {
+    console.error(`The server stopped (exit code ${code}).`);
+    stopDatabase();
+    process.exit(code ?? 1);
+  }
+});
