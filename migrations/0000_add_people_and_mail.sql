@@ -70,5 +70,5 @@ CREATE UNIQUE INDEX "account_tokens_token_hash_key" ON "account_tokens" USING bt
 CREATE INDEX "login_failures_email_idx" ON "login_failures" USING btree ("email","failed_at");--> statement-breakpoint
 CREATE INDEX "login_failures_ip_idx" ON "login_failures" USING btree ("ip","failed_at");--> statement-breakpoint
 CREATE INDEX "sessions_user_id_idx" ON "sessions" USING btree ("user_id");--> statement-breakpoint
-CREATE UNIQUE INDEX "users_email_key" ON "users" USING btree (lower("email"));--> statement-breakpoint
+CREATE UNIQUE INDEX "users_email_key" ON "users" USING btree ("email");--> statement-breakpoint
 CREATE INDEX "mail_outbox_due_idx" ON "mail_outbox" USING btree ("status","next_attempt_at");

@@ -3,7 +3,7 @@ import type { Executor } from '../db/client';
 import { accountTokens, loginFailures, sessions, users } from '../db/schema/index';
 
 export function findUserByEmail(db: Executor, email: string) {
-  return db.query.users.findFirst({ where: sql`lower(${users.email}) = ${email.toLowerCase()}` });
+  return db.query.users.findFirst({ where: eq(users.email, email.toLowerCase()) });
 }
 
 export function findUserById(db: Executor, userId: string) {

@@ -1,4 +1,3 @@
-import { sql } from 'drizzle-orm';
 import type { Role } from '@shared/domain/roles';
 import { hashPassword } from '../auth/passwords';
 import type { Database } from '../db/client';
@@ -24,7 +23,7 @@ export async function seedDemoPeople(db: Database): Promise<void> {
       .insert(users)
       .values({ ...person, status: 'active', passwordHash, passwordChangedAt: new Date() })
       .onConflictDoUpdate({
-        target: sql`lower(${users.email})`,
+        target: users.email,
         set: { name: person.name, role: person.role, status: 'active', passwordHash },
       });
   }

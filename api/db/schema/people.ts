@@ -1,4 +1,3 @@
-import { sql } from 'drizzle-orm';
 import { index, jsonb, pgEnum, pgTable, text, timestamp, uniqueIndex, uuid } from 'drizzle-orm/pg-core';
 import { ROLES } from '@shared/domain/roles';
 import { PERSON_STATUSES } from '@shared/domain/people';
@@ -23,7 +22,8 @@ export const users = pgTable(
     notificationSettings: jsonb().$type<Record<string, boolean>>().notNull().default({}),
     ...timestamps,
   },
-  (table) => [uniqueIndex('users_email_key').on(sql`lower(${table.email})`)],
+  // E-mails are stored lower-cased (the shared email schema lower-cases them).
+  (table) => [uniqueIndex('users_email_key').on(table.email)],
 );
 export type UserRow = typeof users.$inferSelect;
 
