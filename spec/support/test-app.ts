@@ -1,0 +1,69 @@
+import type { Express } from 'express';
+import request from 'supertest';
+import type { Role } from '@shared/domain/roles';
+import { createApp } from '../../api/app';
+import type { AppDeps } from '../../api/app-deps';
+import { hashPassword } from '../../api/auth/passwords';
+import { loadConfig, type Config } from '../../api/config';
+import { createDatabase, type Database } from '../../api/db/client';
+import { users } from '../../api/db/schema/index';
+
+export const TEST_PASSWORD = 'test-password-for-specs';
+
+export function testConfig(overrides: Partial<Record<keyof Config, string>> = {}): Config {
+  const databaseUrl = process.env['DATABASE_URL'];
+  if (!databaseUrl) throw new Error('API specs need DATABASE_URL (run them through `npm test`)');
+  return loadConfig({
+    NODE_ENV: 'test',
+    DATABASE_URL: databaseUrl,
+    SESSION_SECRET: 'spec-secret-spec-secret-spec-secret-0000',
+    PUBLIC_URL: 'http://127.0.0.1:4300',
+    WEB_DIR: '',
+    DATA_DIR: '.var/spec-data',
+    RUN_WORKERS: 'false',
+    ...overrides,
+  });
+}
+
+export interface TestContext {
+  app: Express;
+  db: Database;
+  deps: AppDeps;
+  close: () => Promise<void>;
+}
+
+/** The real app on the real test database; call `close` in afterAll. */
+export function createTestContext(overrides: Partial<Record<keyof Config, string>> = {}): TestContext {
+  const config = testConfig(overrides);
+  const { db, close } = createDatabase(config.DATABASE_URL, { max: 5 });
+  const deps: AppDeps = { db, config };
+  return { app: createApp(deps), db, deps, close };
+}
+
+let passwordHash: Promise<string> | undefined;
+
+/** Inserts an active person with TEST_PASSWORD. */
+export async function aPerson(db: Database, overrides: { role?: Role; email?: string; name?: string; status?: 'active' | 'disabled' | 'invited' } = {}) {
+  passwordHash ??= hashPassword(TEST_PASSWORD);
+  const role = overrides.role ?? 'planner';
+  const [row] = await db
+    .insert(users)
+    .values({
+      email: overrides.email ?? `${role}-${Math.random().toString(36).slice(2, 10)}@spec.example`,
+      name: overrides.name ?? `Spec ${role}`,
+      role,
+      status: overrides.status ?? 'active',
+      passwordHash: await passwordHash,
+    })
+    .returning();
+  return row!;
+}
+
+/** A supertest agent that keeps cookies, signed in as a new person with the given role. */
+export async function signedInAgent(app: Express, db: Database, role: Role) {
+  const person = await aPerson(db, { role });
+  const agent = request.agent(app);
+  const response = await agent.post('/api/auth/login').send({ email: person.email, password: TEST_PASSWORD });
+  if (response.status !== 200) throw new Error(`sign-in as ${role} failed: ${response.status} ${response.text}`);
+  return { agent, person };
+}
