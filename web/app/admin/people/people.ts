@@ -1,0 +1,175 @@
+import { DatePipe } from '@angular/common';
+import {
+  ChangeDetectionStrategy,
+  Component,
+  computed,
+  effect,
+  inject,
+  signal,
+  viewChild,
+} from '@angular/core';
+import { toSignal } from '@angular/core/rxjs-interop';
+import { FormControl, FormGroup, ReactiveFormsModule } from '@angular/forms';
+import { MatButtonModule } from '@angular/material/button';
+import { MatDialog } from '@angular/material/dialog';
+import { MatFormFieldModule } from '@angular/material/form-field';
+import { MatIconModule } from '@angular/material/icon';
+import { MatInputModule } from '@angular/material/input';
+import { MatMenuModule } from '@angular/material/menu';
+import { MatPaginator, MatPaginatorModule } from '@angular/material/paginator';
+import { MatProgressBarModule } from '@angular/material/progress-bar';
+import { MatSelectModule } from '@angular/material/select';
+import { MatSnackBar } from '@angular/material/snack-bar';
+import { MatSort, MatSortModule } from '@angular/material/sort';
+import { MatTableDataSource, MatTableModule } from '@angular/material/table';
+import { PERSON_STATUSES, type Person } from '@shared/domain/people';
+import { ROLES, ROLE_LABELS, type Role } from '@shared/domain/roles';
+import { describeApiError } from '../../core/api-error-message';
+import { Session } from '../../core/session';
+import { InvitePersonDialog } from './invite-person-dialog';
+import { PeopleApi } from './people-api';
+import { NO_PEOPLE_FILTER, matchesPeopleFilter, type PeopleFilter } from './people-filter';
+
+type LoadState = { status: 'loading' } | { status: 'error'; message: string } | { status: 'ready' };
+
+const STATUS_LABELS: Readonly<Record<Person['status'], string>> = {
+  invited: 'Invited',
+  active: 'Active',
+  disabled: 'Disabled',
+};
+
+/** Administrators' list of everyone with a Descentry account. */
+@Component({
+  selector: 'app-people',
+  imports: [
+    DatePipe,
+    ReactiveFormsModule,
+    MatTableModule,
+    MatSortModule,
+    MatPaginatorModule,
+    MatFormFieldModule,
+    MatInputModule,
+    MatSelectModule,
+    MatButtonModule,
+    MatIconModule,
+    MatMenuModule,
+    MatProgressBarModule,
+  ],
+  templateUrl: './people.html',
+  styleUrl: './people.scss',
+  changeDetection: ChangeDetectionStrategy.OnPush,
+})
+export default class People {
+  private readonly peopleApi = inject(PeopleApi);
+  private readonly dialog = inject(MatDialog);
+  private readonly snackBar = inject(MatSnackBar);
+  private readonly session = inject(Session);
+
+  private readonly sort = viewChild.required(MatSort);
+  private readonly paginator = viewChild.required(MatPaginator);
+
+  protected readonly roles = ROLES;
+  protected readonly roleLabels = ROLE_LABELS;
+  protected readonly statuses = PERSON_STATUSES;
+  protected readonly statusLabels = STATUS_LABELS;
+  protected readonly columns = ['name', 'email', 'role', 'status', 'lastSignInAt', 'actions'];
+
+  protected readonly filterForm = new FormGroup({
+    text: new FormControl('', { nonNullable: true }),
+    role: new FormControl<Role | ''>('', { nonNullable: true }),
+    status: new FormControl<Person['status'] | ''>('', { nonNullable: true }),
+  });
+  private readonly filter = toSignal(this.filterForm.valueChanges, {
+    initialValue: NO_PEOPLE_FILTER as Partial<PeopleFilter>,
+  });
+
+  protected readonly people = signal<Person[]>([]);
+  protected readonly loadState = signal<LoadState>({ status: 'loading' });
+  protected readonly visiblePeople = computed(() => {
+    const filter = { ...NO_PEOPLE_FILTER, ...this.filter() };
+    return this.people().filter((person) => matchesPeopleFilter(person, filter));
+  });
+  protected readonly ownId = computed(() => this.session.user()?.id);
+  protected readonly dataSource = new MatTableDataSource<Person>([]);
+
+  constructor() {
+    // MatTableDataSource is not signal-based: hand it the sort, the pager and the filtered rows.
+    effect(() => {
+      this.dataSource.sort = this.sort();
+      this.dataSource.paginator = this.paginator();
+      this.dataSource.data = this.visiblePeople();
+    });
+    this.filterForm.valueChanges.subscribe(() => this.paginator().firstPage());
+    void this.load();
+  }
+
+  protected statusLabel(status: Person['status']): string {
+    return STATUS_LABELS[status];
+  }
+
+  protected async load(): Promise<void> {
+    this.loadState.set({ status: 'loading' });
+    try {
+      this.people.set(await this.peopleApi.list());
+      this.loadState.set({ status: 'ready' });
+    } catch (error: unknown) {
+      // Expected: server unreachable or an answer that fails the shared schema.
+      this.loadState.set({ status: 'error', message: describeApiError(error) });
+    }
+  }
+
+  protected clearFilter(): void {
+    this.filterForm.reset();
+  }
+
+  protected openInvite(): void {
+    this.dialog
+      .open(InvitePersonDialog, { width: '480px', maxWidth: '95vw' })
+      .afterClosed()
+      .subscribe((person: Person | undefined) => {
+        if (!person) return;
+        this.people.update((people) => [person, ...people.filter((p) => p.id !== person.id)]);
+        this.snackBar.open(`Invitation sent to ${person.email}.`, 'OK');
+      });
+  }
+
+  protected async changeRole(person: Person, role: Role): Promise<void> {
+    if (role === person.role) return;
+    await this.applyUpdate(person, { role }, `${person.name} is now: ${ROLE_LABELS[role]}.`);
+  }
+
+  protected async setEnabled(person: Person, enabled: boolean): Promise<void> {
+    const message = enabled
+      ? `${person.name} can sign in again.`
+      : `${person.name} can no longer sign in.`;
+    await this.applyUpdate(person, { status: enabled ? 'active' : 'disabled' }, message);
+  }
+
+  protected async sendPasswordReset(person: Person): Promise<void> {
+    try {
+      await this.peopleApi.sendPasswordReset(person.id);
+      this.snackBar.open(`A password reset link is on its way to ${person.email}.`, 'OK');
+    } catch {
+      // Expected: the interceptor has shown the API's reason in a snack bar.
+    }
+  }
+
+  private async applyUpdate(
+    person: Person,
+    update: { role?: Role; status?: 'active' | 'disabled' },
+    message: string,
+  ): Promise<void> {
+    try {
+      const updated = await this.peopleApi.update(person.id, update);
+      this.replacePerson(updated);
+      this.snackBar.open(message, 'OK');
+    } catch {
+      // Expected: the interceptor has shown the API's reason; put the row back as it was.
+      this.replacePerson(person);
+    }
+  }
+
+  private replacePerson(person: Person): void {
+    this.people.update((people) => people.map((p) => (p.id === person.id ? { ...person } : p)));
+  }
+}

@@ -1,0 +1,85 @@
+import { HttpClient, HttpContext, HttpErrorResponse } from '@angular/common/http';
+import { Injectable, computed, inject, signal } from '@angular/core';
+import { userResponseSchema, type LoginRequest, type User } from '@shared/domain/auth';
+import { ROLE_LABELS, type Role } from '@shared/domain/roles';
+import { firstValueFrom } from 'rxjs';
+import { ERRORS_SHOWN_INLINE } from './api-error-message';
+
+/** Whether the first `GET /api/auth/me` has answered yet. */
+export type SessionStatus = 'unknown' | 'signed-in' | 'signed-out';
+
+/** The person signed in to this browser, as the API last told us. */
+@Injectable({ providedIn: 'root' })
+export class Session {
+  private readonly http = inject(HttpClient);
+
+  private readonly _user = signal<User | null>(null);
+  private readonly _status = signal<SessionStatus>('unknown');
+  private loading: Promise<void> | null = null;
+
+  readonly user = this._user.asReadonly();
+  readonly status = this._status.asReadonly();
+  readonly role = computed<Role | null>(() => this._user()?.role ?? null);
+  readonly roleLabel = computed(() => {
+    const role = this.role();
+    return role ? ROLE_LABELS[role] : '';
+  });
+
+  /**
+   * Asks the API who is signed in, once per page load; guards await this before deciding.
+   * A 401 simply means nobody is signed in.
+   */
+  ensureLoaded(): Promise<void> {
+    this.loading ??= this.fetchCurrentUser();
+    return this.loading;
+  }
+
+  /** Signs in; rejects with the HttpErrorResponse so the form can explain 401 and 429. */
+  async signIn(credentials: LoginRequest): Promise<User> {
+    const body = await firstValueFrom(
+      this.http.post('/api/auth/login', credentials, {
+        context: new HttpContext().set(ERRORS_SHOWN_INLINE, true),
+      }),
+    );
+    const { user } = userResponseSchema.parse(body);
+    this.setUser(user);
+    return user;
+  }
+
+  /** Ends the session on the server, then forgets the user here whatever the answer. */
+  async signOut(): Promise<void> {
+    try {
+      await firstValueFrom(this.http.post('/api/auth/logout', null));
+    } finally {
+      this.clear();
+    }
+  }
+
+  /** Forgets the user locally (the server already ended the session, e.g. on a 401). */
+  clear(): void {
+    this._user.set(null);
+    this._status.set('signed-out');
+    this.loading = Promise.resolve();
+  }
+
+  private setUser(user: User): void {
+    this._user.set(user);
+    this._status.set('signed-in');
+    this.loading = Promise.resolve();
+  }
+
+  private async fetchCurrentUser(): Promise<void> {
+    try {
+      const body = await firstValueFrom(this.http.get('/api/auth/me'));
+      this.setUser(userResponseSchema.parse(body).user);
+    } catch (error: unknown) {
+      // Expected: 401 when nobody is signed in. Anything else (server down) also leaves us
+      // signed out; the interceptor has already told the person what went wrong.
+      if (!(error instanceof HttpErrorResponse) || error.status !== 401) {
+        console.warn('Could not read the current session', error);
+      }
+      this._user.set(null);
+      this._status.set('signed-out');
+    }
+  }
+}
