@@ -1,3 +1,4 @@
+import type { ElevationSampler } from '@shared/engine/analyse-route';
 import type { Config } from './config';
 import type { Database } from './db/client';
 
@@ -5,4 +6,6 @@ import type { Database } from './db/client';
 export interface AppDeps {
   db: Database;
   config: Config;
+  /** Terrain elevation lookup for routes whose coordinates carry no elevation. */
+  sampleElevations?: ElevationSampler;
 }

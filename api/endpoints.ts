@@ -1,3 +1,4 @@
+import { analysisEndpoints } from './analysis/analysis-endpoints';
 import type { AppDeps } from './app-deps';
 import { authEndpoints } from './auth/auth-endpoints';
 import { healthEndpoints } from './health/health-endpoints';
@@ -16,5 +17,6 @@ export function allEndpoints(deps: AppDeps): AnyEndpoint[] {
     ...authEndpoints(deps),
     ...peopleEndpoints(deps),
     ...mailEndpoints(deps),
+    ...analysisEndpoints(deps),
   ];
 }

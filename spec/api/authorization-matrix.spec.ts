@@ -26,6 +26,8 @@ const EXPECTED_ACCESS: Record<string, 'public' | 'signed-in' | readonly Role[]> 
   'POST /api/people/{personId}/password-reset': ['admin'],
   'GET /api/mail/outbox': ['admin'],
   'GET /api/mail/captured': ['admin'],
+  'POST /api/analysis/road-load': 'signed-in',
+  'POST /api/analysis/preview': 'signed-in',
 };
 
 const context = createTestContext();

@@ -1,0 +1,121 @@
+import request from 'supertest';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { previewResponseSchema } from '@shared/domain/analysis';
+import { createTestContext } from '../../support/test-app';
+import { sessionCookies } from '../../support/session-cookie';
+import { truncateAll } from '../../support/test-database';
+
+const context = createTestContext();
+const { app, db } = context;
+let cookie: string;
+
+/** 12 m battery bus of DOMAIN.md §1.4 (a): 19 t laden, Cr 0.007, Cd 0.7, A 8 m². */
+const laden12mBus = {
+  curbMassKg: 13_500,
+  payloadKg: 5_500,
+  frontalAreaM2: 8,
+  dragCoefficient: 0.7,
+  rollingResistanceCoefficient: 0.007,
+  rotatingMassFactor: 0.05,
+  tractionPowerW: 250_000,
+  regenPowerW: 200_000,
+  drivetrainEfficiency: 0.889,
+  regenEfficiency: 0.862,
+  batteryCapacityWh: 350_000,
+  maxChargePowerW: 200_000,
+  auxPowerW: 15_000,
+};
+
+beforeAll(async () => {
+  await truncateAll(db);
+  cookie = await sessionCookies(db, context.deps.config)('planner');
+});
+afterAll(() => context.close());
+
+describe('POST /api/analysis/road-load', () => {
+  it('matches the worked 6 % climb at 30 km/h and 1000 m (DOMAIN.md §1.4 a, hand-computed)', async () => {
+    const response = await request(app)
+      .post('/api/analysis/road-load')
+      .set('Cookie', cookie)
+      .send({ vehicle: laden12mBus, speedMps: 30 / 3.6, gradePercent: 6, altitudeM: 1000 });
+
+    expect(response.status).toBe(200);
+    expect(response.body.rollingN).toBeCloseTo(1301.9, 0);
+    expect(response.body.aeroN).toBeCloseTo(216.2, 0);
+    expect(response.body.gradeN).toBeCloseTo(11159.5, 0);
+    expect(response.body.inertiaN).toBe(0);
+    expect(response.body.tractionN).toBeCloseTo(12677.6, 0);
+    expect(response.body.tractionPowerW / 1000).toBeCloseTo(105.65, 1);
+    // ISA density at 1000 m, U.S. Standard Atmosphere 1976: 1.1116 kg/m³.
+    expect(response.body.airDensityKgM3).toBeCloseTo(1.1116, 3);
+  });
+
+  it('answers 400 naming the field when the mass is negative', async () => {
+    const response = await request(app)
+      .post('/api/analysis/road-load')
+      .set('Cookie', cookie)
+      .send({ vehicle: { ...laden12mBus, curbMassKg: -1 }, speedMps: 5, gradePercent: 0 });
+
+    expect(response.status).toBe(400);
+    expect(response.body.error.message).toMatch(/curbMassKg/);
+  });
+
+  it('answers 401 when not signed in', async () => {
+    const response = await request(app).post('/api/analysis/road-load').send({});
+
+    expect(response.status).toBe(401);
+  });
+});
+
+describe('POST /api/analysis/preview', () => {
+  it('analyses a route that carries its own elevations without any terrain uploaded', async () => {
+    const route = straightDescent({ lengthM: 3000, dropM: 240 });
+
+    const response = await request(app)
+      .post('/api/analysis/preview')
+      .set('Cookie', cookie)
+      .send({ route, vehicle: laden12mBus, conditions: { startSoc: 0.6 } });
+
+    expect(response.status).toBe(200);
+    const body = previewResponseSchema.parse(response.body);
+    expect(body.summary.lengthM).toBeGreaterThan(2950);
+    expect(body.summary.lengthM).toBeLessThan(3050);
+    expect(body.summary.descentM).toBeGreaterThan(200);
+    expect(body.summary.regenEnergyWh).toBeGreaterThan(0);
+    expect(body.profile.distanceM.length).toBe(body.profile.elevationM.length);
+    expect(body.descents.length).toBeGreaterThanOrEqual(1);
+  });
+
+  it('answers 400 naming the field when the route has a single point', async () => {
+    const response = await request(app)
+      .post('/api/analysis/preview')
+      .set('Cookie', cookie)
+      .send({ route: { type: 'LineString', coordinates: [[10, 46, 1000]] }, vehicle: laden12mBus });
+
+    expect(response.status).toBe(400);
+    expect(JSON.stringify(response.body.error)).toMatch(/route/);
+  });
+
+  it('answers 400 naming the field when an efficiency exceeds 1', async () => {
+    const response = await request(app)
+      .post('/api/analysis/preview')
+      .set('Cookie', cookie)
+      .send({ route: straightDescent({ lengthM: 1000, dropM: 50 }), vehicle: { ...laden12mBus, drivetrainEfficiency: 1.2 } });
+
+    expect(response.status).toBe(400);
+    expect(response.body.error.message).toMatch(/drivetrainEfficiency/);
+  });
+});
+
+// Helpers
+
+/** A straight north-bound line with elevation falling evenly, as GeoJSON with [lon, lat, z]. */
+function straightDescent({ lengthM, dropM }: { lengthM: number; dropM: number }) {
+  const startLat = 46.5;
+  const metresPerDegreeLat = 111_200;
+  const coordinates = Array.from({ length: 11 }, (_, index) => {
+    const share = index / 10;
+    return [10.2, startLat + (share * lengthM) / metresPerDegreeLat, 1500 - share * dropM];
+  });
+  return { type: 'LineString', coordinates };
+}
