@@ -1,0 +1,164 @@
+/**
+ * Powertrain, battery and overhead-line model for one segment of constant wheel power
+ * (DOMAIN notes §1.2, §3.1, §3.5).
+ *
+ * Sign and accounting conventions (the battery energy balance closes on these):
+ * - Wheel power P > 0 is traction, P < 0 braking demand B = −P.
+ * - Motoring: source power = P / drivetrainEfficiency + auxPowerW.
+ * - Braking: regeneration at the wheel is limited by regenPowerW (0 = none), by the motor's
+ *   force limit (regen force ≤ maxTractionForceN) and fades out below regenMinSpeedMps
+ *   (from memory: 3–8 km/h, DOMAIN §3.1). Regenerated power reaches the battery terminals as
+ *   P_regen,wheel·regenEfficiency; the auxiliaries are fed from it first, and only the rest charges
+ *   the cells (source power = auxPowerW − P_regen,wheel·regenEfficiency, negative = charging).
+ * - Battery vehicles: the net charging power is limited by
+ *   maxChargePowerW·f_SOC, f_SOC = 1 up to socTaperStart, falling linearly to 0 at socCeiling
+ *   (from memory, DOMAIN §3.1), and no step may charge above socCeiling.
+ * - Overhead-line vehicles: traction and auxiliaries come from the line; of the regenerated power
+ *   left after the auxiliaries the line takes the share lineReceptivity (DOMAIN §3.5). Their
+ *   on-board battery (off-wire running) is not modelled: SOC stays at the start value.
+ * - Braking the electrical path cannot take goes to the retarder or braking resistor up to
+ *   retarderPowerW (wheel power), then to the friction brakes.
+ *
+ * regenEnergy counts energy delivered to the battery (or line) terminals, i.e. after
+ * regenEfficiency. Battery balance: E_net = Σ traction/η + Σ aux − Σ regen, and
+ * SOC_end·capacity = SOC_start·capacity − E_net + E_shortfall (energy the empty battery could not give).
+ */
+import type { Vehicle } from '../domain/analysis';
+import { JOULES_PER_WH } from './constants';
+
+export interface PowertrainParams {
+  isOverheadLine: boolean;
+  drivetrainEfficiency: number;
+  regenEfficiency: number;
+  regenPowerW: number;
+  maxRegenForceN: number;
+  regenMinSpeedMps: number;
+  maxChargePowerW: number;
+  batteryCapacityJ: number;
+  socTaperStart: number;
+  socCeiling: number;
+  auxPowerW: number;
+  retarderPowerW: number;
+  lineReceptivity: number;
+}
+
+/** Powertrain parameters of a parsed vehicle. */
+export function powertrainParams(vehicle: Vehicle): PowertrainParams {
+  return {
+    isOverheadLine: vehicle.powerSource === 'overhead-line',
+    drivetrainEfficiency: vehicle.drivetrainEfficiency,
+    regenEfficiency: vehicle.regenEfficiency,
+    regenPowerW: vehicle.regenPowerW,
+    maxRegenForceN: vehicle.maxTractionForceN,
+    regenMinSpeedMps: vehicle.regenMinSpeedMps,
+    maxChargePowerW: vehicle.maxChargePowerW,
+    batteryCapacityJ: vehicle.batteryCapacityWh * JOULES_PER_WH,
+    socTaperStart: vehicle.socTaperStart,
+    socCeiling: vehicle.socCeiling,
+    auxPowerW: vehicle.auxPowerW,
+    retarderPowerW: vehicle.retarderPowerW,
+    lineReceptivity: vehicle.lineReceptivity,
+  };
+}
+
+/** Result of one step; reused between calls to keep hot loops allocation-free. */
+export interface PowerSplit {
+  /** Power drawn from the battery or line, W (negative while charging). */
+  sourcePowerW: number;
+  /** Electrical power drawn for traction, W. */
+  tractionElectricPowerW: number;
+  /** Braking power taken by regeneration at the wheel, W. */
+  regenWheelPowerW: number;
+  /** Regenerated power delivered to the battery or line terminals, W. */
+  regenElectricPowerW: number;
+  retarderPowerW: number;
+  frictionPowerW: number;
+  /** SOC after the step. */
+  soc: number;
+  /** Energy the battery could not deliver in this step because it was empty, J. */
+  shortfallJ: number;
+}
+
+export function emptyPowerSplit(): PowerSplit {
+  return {
+    sourcePowerW: 0,
+    tractionElectricPowerW: 0,
+    regenWheelPowerW: 0,
+    regenElectricPowerW: 0,
+    retarderPowerW: 0,
+    frictionPowerW: 0,
+    soc: 0,
+    shortfallJ: 0,
+  };
+}
+
+/** Share of the charge-power limit available at `soc` (linear taper, from memory, DOMAIN §3.1). */
+export function chargeTaperFactor(soc: number, taperStart: number, ceiling: number): number {
+  if (soc >= ceiling) return 0;
+  if (soc <= taperStart) return 1;
+  return (ceiling - soc) / (ceiling - taperStart);
+}
+
+/**
+ * Splits wheel power `wheelPowerW` held for `durationS` at mean speed `speedMps` between the
+ * battery/line, the retarder and the friction brakes, and integrates the SOC. Writes into `out`.
+ */
+export function splitWheelPower(
+  params: PowertrainParams,
+  wheelPowerW: number,
+  speedMps: number,
+  soc: number,
+  durationS: number,
+  out: PowerSplit,
+): void {
+  const aux = params.auxPowerW;
+  out.regenWheelPowerW = 0;
+  out.regenElectricPowerW = 0;
+  out.retarderPowerW = 0;
+  out.frictionPowerW = 0;
+  out.tractionElectricPowerW = 0;
+  out.shortfallJ = 0;
+
+  if (wheelPowerW >= 0) {
+    out.tractionElectricPowerW = wheelPowerW / params.drivetrainEfficiency;
+    out.sourcePowerW = out.tractionElectricPowerW + aux;
+  } else {
+    const demandW = -wheelPowerW;
+    let regenWheelW = 0;
+    if (params.regenPowerW > 0 && speedMps >= params.regenMinSpeedMps) {
+      regenWheelW = Math.min(demandW, params.regenPowerW, params.maxRegenForceN * speedMps);
+      const eta = params.regenEfficiency;
+      if (params.isOverheadLine) {
+        // Auxiliaries first, then the line's receptive share of the rest (DOMAIN §3.5).
+        const electricW = regenWheelW * eta;
+        const auxCoveredW = Math.min(aux, electricW);
+        const acceptedW = auxCoveredW + params.lineReceptivity * (electricW - auxCoveredW);
+        regenWheelW = acceptedW / eta;
+      } else {
+        const taperedW = params.maxChargePowerW * chargeTaperFactor(soc, params.socTaperStart, params.socCeiling);
+        const headroomW =
+          durationS > 0 ? (Math.max(0, params.socCeiling - soc) * params.batteryCapacityJ) / durationS : taperedW;
+        const acceptW = Math.min(taperedW, headroomW) + aux;
+        regenWheelW = Math.min(regenWheelW, acceptW / eta);
+      }
+    }
+    const restW = demandW - regenWheelW;
+    const retarderW = Math.min(restW, params.retarderPowerW);
+    out.regenWheelPowerW = regenWheelW;
+    out.regenElectricPowerW = regenWheelW * params.regenEfficiency;
+    out.retarderPowerW = retarderW;
+    out.frictionPowerW = restW - retarderW;
+    out.sourcePowerW = aux - out.regenElectricPowerW;
+  }
+
+  if (params.isOverheadLine || params.batteryCapacityJ <= 0) {
+    out.soc = soc;
+    return;
+  }
+  let next = soc - (out.sourcePowerW * durationS) / params.batteryCapacityJ;
+  if (next < 0) {
+    out.shortfallJ = -next * params.batteryCapacityJ;
+    next = 0;
+  }
+  out.soc = Math.min(1, next);
+}
