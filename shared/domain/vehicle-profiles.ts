@@ -1,0 +1,48 @@
+import { z } from 'zod';
+import { vehicleSchema } from './analysis';
+
+/**
+ * Vehicle profiles: the engine's vehicle parameters plus the load and season variants a
+ * scenario picks from. Presets (the generic vehicle classes) are read-only; analysts copy them.
+ */
+
+export const vehicleProfileIdParamsSchema = z.object({ vehicleProfileId: z.uuid() });
+
+export const LOAD_CASES = ['empty', 'seated', 'full-standing'] as const;
+export const loadCaseSchema = z.enum(LOAD_CASES);
+export type LoadCase = z.infer<typeof loadCaseSchema>;
+
+export const SEASONS = ['winter', 'mild', 'summer'] as const;
+export const seasonSchema = z.enum(SEASONS);
+export type Season = z.infer<typeof seasonSchema>;
+
+export const seasonConditionsSchema = z.object({
+  ambientC: z.number().min(-60).max(60),
+  /** Auxiliary power for this season (heating, cooling, lighting, compressors), W. */
+  auxPowerW: z.number().min(0).max(500_000),
+});
+
+export const vehicleProfileDraftSchema = z.object({
+  name: z.string().trim().min(1).max(120),
+  description: z.string().trim().max(2_000).default(''),
+  /** Id of the generic class this profile derives from (see shared/engine/vehicle-presets.ts). */
+  vehicleClass: z.string().max(60),
+  /** Engine parameters, SI; `payloadKg` here is ignored in favour of the load case. */
+  vehicle: vehicleSchema,
+  /** Payload per load case, kg. */
+  loadsKg: z.object({ empty: z.number().min(0), seated: z.number().min(0), 'full-standing': z.number().min(0) }),
+  /** Mass assumed per passenger, kg, when a scenario gives a passenger count. */
+  passengerMassKg: z.number().min(40).max(120).default(70),
+  seasons: z.object({ winter: seasonConditionsSchema, mild: seasonConditionsSchema, summer: seasonConditionsSchema }),
+});
+export type VehicleProfileDraft = z.infer<typeof vehicleProfileDraftSchema>;
+export type VehicleProfileDraftInput = z.input<typeof vehicleProfileDraftSchema>;
+
+export const vehicleProfileSchema = vehicleProfileDraftSchema.extend({
+  id: z.uuid(),
+  /** Whether this is a built-in generic class (read-only). */
+  isPreset: z.boolean(),
+  updatedAt: z.iso.datetime({ offset: true }),
+});
+export type VehicleProfile = z.infer<typeof vehicleProfileSchema>;
+export const vehicleProfileListSchema = z.object({ items: z.array(vehicleProfileSchema) });
