@@ -1,0 +1,96 @@
+import { z } from 'zod';
+import { riskLevelSchema } from './analysis';
+
+/**
+ * The board's one-page network summary, computed from scenarios marked "in service" with their
+ * routes' trips per day and service days, and the money and emission factors an admin sets.
+ */
+
+export const networkSettingsSchema = z.object({
+  /** Price of one kWh of traction energy, in `currency`. */
+  energyTariffPerKWh: z.number().min(0).max(10),
+  currency: z.string().trim().length(3).toUpperCase(),
+  tariffSource: z.string().trim().min(1).max(300),
+  /** Emissions of one kWh from the grid, kg CO₂ per kWh. */
+  gridEmissionFactorKgPerKWh: z.number().min(0).max(2),
+  emissionFactorSource: z.string().trim().min(1).max(300),
+});
+export type NetworkSettings = z.infer<typeof networkSettingsSchema>;
+
+export const routeYearSchema = z.object({
+  routeId: z.uuid(),
+  routeName: z.string(),
+  scenarioId: z.uuid(),
+  scenarioName: z.string(),
+  vehicleProfileName: z.string(),
+  tripsPerDay: z.number(),
+  serviceDaysPerYear: z.number(),
+  /** Distance driven in a year, km. */
+  annualKm: z.number(),
+  /** Energy regeneration puts back into the batteries (or the line) in a year, kWh. */
+  annualRegenKWh: z.number(),
+  /** Braking energy the friction brakes turn into heat in a year, kWh. */
+  annualFrictionBrakeKWh: z.number(),
+  /** Net energy drawn from batteries or the line in a year, kWh. */
+  annualNetKWh: z.number(),
+  kWhPerKm: z.number(),
+});
+export type RouteYear = z.infer<typeof routeYearSchema>;
+
+export const boardSummarySchema = z.object({
+  generatedAt: z.iso.datetime({ offset: true }),
+  settings: networkSettingsSchema,
+  routes: z.array(routeYearSchema),
+  totals: z.object({
+    annualKm: z.number(),
+    annualRegenKWh: z.number(),
+    annualFrictionBrakeKWh: z.number(),
+    annualNetKWh: z.number(),
+    /** annualRegenKWh × tariff. */
+    regenValue: z.number(),
+    /** annualRegenKWh × grid emission factor, kg. */
+    co2AvoidedKg: z.number(),
+  }),
+  openSafetyItems: z.object({
+    elevated: z.number().int(),
+    high: z.number().int(),
+    critical: z.number().int(),
+  }),
+  steepestDescents: z.array(
+    z.object({
+      reviewId: z.uuid().nullable(),
+      routeName: z.string(),
+      startM: z.number(),
+      endM: z.number(),
+      dropM: z.number(),
+      meanGradePercent: z.number(),
+      risk: riskLevelSchema,
+    }),
+  ),
+  caution: z.string(),
+});
+export type BoardSummary = z.infer<typeof boardSummarySchema>;
+
+export const batchRunIdParamsSchema = z.object({ batchRunId: z.uuid() });
+export const BATCH_ITEM_STATUSES = ['queued', 'running', 'done', 'failed'] as const;
+
+export const batchRunSchema = z.object({
+  id: z.uuid(),
+  status: z.enum(['queued', 'running', 'done']),
+  total: z.number().int(),
+  done: z.number().int(),
+  failed: z.number().int(),
+  startedBy: z.string(),
+  createdAt: z.iso.datetime({ offset: true }),
+  finishedAt: z.iso.datetime({ offset: true }).nullable(),
+  items: z.array(
+    z.object({
+      scenarioId: z.uuid(),
+      scenarioName: z.string(),
+      status: z.enum(BATCH_ITEM_STATUSES),
+      error: z.string().nullable(),
+    }),
+  ),
+});
+export type BatchRun = z.infer<typeof batchRunSchema>;
+export const batchRunListSchema = z.object({ items: z.array(batchRunSchema.omit({ items: true })) });
