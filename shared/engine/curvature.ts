@@ -4,13 +4,17 @@
  *   R = a·b·c / (4·Area)   circumradius of three consecutive points
  *   v_curve = √(a_lat·R)
  *
- * Curvature 1/R is computed per point in a local plane (WGS 84 radii of curvature), smoothed
- * over distance (from memory: 20–50 m) and R is capped on straights (from memory: 10 km).
+ * Curvature 1/R is computed per point in a local plane (WGS 84 radii of curvature) from the
+ * points about `CURVATURE_BASELINE_M` before and after it (so densely drawn arcs do not alias),
+ * smoothed over distance (from memory: 20–50 m) and R is capped on straights (from memory: 10 km).
  */
 import { MAX_CURVE_RADIUS_M } from './constants';
 import { metresPerDegree } from './geodesy';
 import { movingAverageOverDistance } from './smoothing';
 import { assertNonNegative, assertPositive } from './validation';
+
+/** Distance to the neighbours used for the three-point radius, m (common practice). */
+export const CURVATURE_BASELINE_M = 10;
 
 /** Circumradius of the triangle (x1,y1), (x2,y2), (x3,y3) in metres; Infinity when collinear. */
 export function circumradiusM(x1: number, y1: number, x2: number, y2: number, x3: number, y3: number): number {
@@ -42,12 +46,18 @@ export function curveRadiiM(
 ): Float64Array {
   const n = distanceM.length;
   const curvature = new Float64Array(n);
+  let before = 0;
+  let after = 0;
   for (let i = 1; i < n - 1; i++) {
+    const s = distanceM[i]!;
+    while (before + 1 < i && distanceM[before + 1]! <= s - CURVATURE_BASELINE_M) before++;
+    if (after <= i) after = i + 1;
+    while (after < n - 1 && distanceM[after]! < s + CURVATURE_BASELINE_M) after++;
     const { eastM, northM } = metresPerDegree(lat[i]!);
-    const x1 = (lon[i - 1]! - lon[i]!) * eastM;
-    const y1 = (lat[i - 1]! - lat[i]!) * northM;
-    const x3 = (lon[i + 1]! - lon[i]!) * eastM;
-    const y3 = (lat[i + 1]! - lat[i]!) * northM;
+    const x1 = (lon[before]! - lon[i]!) * eastM;
+    const y1 = (lat[before]! - lat[i]!) * northM;
+    const x3 = (lon[after]! - lon[i]!) * eastM;
+    const y3 = (lat[after]! - lat[i]!) * northM;
     const r = circumradiusM(x1, y1, 0, 0, x3, y3);
     curvature[i] = Number.isFinite(r) && r > 0 ? 1 / r : 0;
   }
