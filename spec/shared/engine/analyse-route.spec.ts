@@ -90,6 +90,23 @@ describe('analyseRoute', () => {
     );
   });
 
+  it('takes 1.979 MJ of kinetic energy out stopping from 50 km/h with δ 1.08 (DOMAIN §8 case 15)', async () => {
+    const detailed = await analyseRouteDetailed({
+      route: { type: 'LineString', coordinates: aStraightRoute(400, () => 600) },
+      vehicle: aWorkedExampleBus({ rotatingMassFactor: 0.08 }),
+      conditions: { ambientC: 15 },
+      options: { spacingM: 1, speedLimitKph: 50 },
+    });
+    let brakingInertiaJ = 0;
+    for (let k = 0; k < detailed.model.pointCount - 1; k++) {
+      const workJ = detailed.run.inertiaN[k]! * detailed.model.slopeLengthM[k]!;
+      if (workJ < 0) brakingInertiaJ -= workJ;
+    }
+
+    expect(Math.max(...detailed.run.speedMps)).toBeCloseTo(50 / 3.6, 9);
+    expect(relativeError(brakingInertiaJ, 1.979e6)).toBeLessThan(1e-3);
+  });
+
   it('returns a response that satisfies the API contract, with the engineering caution', async () => {
     const response = await analyseRoute(aMountainRequest());
 
