@@ -71,7 +71,6 @@ export default class SignIn {
     } catch (error: unknown) {
       // Expected: 401 (wrong e-mail or password), 429 (too many attempts), server unreachable.
       this.errorMessage.set(signInErrorMessage(error));
-      this.form.controls.password.reset();
     } finally {
       this.isSubmitting.set(false);
     }

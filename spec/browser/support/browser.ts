@@ -1,0 +1,76 @@
+import { mkdirSync, mkdtempSync, rmSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import { chromium, type BrowserContext, type Page } from 'playwright-core';
+
+/** Where the app under test runs: `npm start` serves web and API together on port 4300. */
+export const BASE_URL = (process.env['BASE_URL'] ?? 'http://127.0.0.1:4300').replace(/\/$/, '');
+
+/** Git-ignored; look at these after a run. */
+export const SCREENSHOT_DIR = join(process.cwd(), 'spec-artifacts', 'screenshots');
+
+export interface BrowserSession {
+  context: BrowserContext;
+  page: Page;
+  close(): Promise<void>;
+}
+
+/**
+ * A fresh Chromium profile per test file, launched the way Debian's chromium works headless
+ * here (see STACK.md): a persistent context on a new temporary folder, no sandbox, no
+ * background networking. Nothing outside BASE_URL is contacted.
+ */
+export async function openBrowser(viewport = { width: 1280, height: 800 }): Promise<BrowserSession> {
+  const profileDir = mkdtempSync(join(tmpdir(), 'descentry-browser-'));
+  const context = await chromium.launchPersistentContext(profileDir, {
+    executablePath: process.env['CHROMIUM_PATH'] ?? '/usr/bin/chromium',
+    headless: true,
+    viewport,
+    args: [
+      '--no-sandbox',
+      '--disable-gpu',
+      '--disable-quic',
+      '--no-first-run',
+      '--disable-background-networking',
+      '--disable-component-update',
+      '--disable-sync',
+    ],
+  });
+  context.setDefaultTimeout(15_000);
+  const page = context.pages()[0] ?? (await context.newPage());
+  return {
+    context,
+    page,
+    async close() {
+      await context.close();
+      rmSync(profileDir, { recursive: true, force: true });
+    },
+  };
+}
+
+/** Saves a full-page PNG as spec-artifacts/screenshots/<name>.png. */
+export async function screenshot(page: Page, name: string): Promise<void> {
+  mkdirSync(SCREENSHOT_DIR, { recursive: true });
+  await page.screenshot({ path: join(SCREENSHOT_DIR, `${name}.png`), fullPage: true });
+}
+
+/** Waits for running CSS animations (a sliding side navigation) to end before a screenshot. */
+export async function settleAnimations(page: Page): Promise<void> {
+  await page.waitForFunction(() =>
+    document.getAnimations().every((animation) => animation.playState !== 'running'),
+  );
+}
+
+/** Fails fast, with a useful message, when nothing answers at BASE_URL. */
+export async function assertServerIsUp(): Promise<void> {
+  try {
+    const response = await fetch(`${BASE_URL}/api/health`);
+    if (!response.ok) throw new Error(`GET /api/health answered ${response.status}`);
+  } catch (error: unknown) {
+    // Expected when the server was not started: say how to start it instead of timing out.
+    throw new Error(
+      `Descentry is not reachable at ${BASE_URL} (${String(error)}). Start it with \`npm start\` ` +
+        'or point BASE_URL at a running instance.',
+    );
+  }
+}

@@ -1,0 +1,45 @@
+import type { Page } from 'playwright-core';
+import { BASE_URL } from './browser';
+
+/** The demo password the API's seed gives every demo person. */
+export const DEMO_PASSWORD = 'descend-safely-2026';
+
+export type DemoRole = 'planner' | 'analyst' | 'safety' | 'board' | 'admin';
+
+/**
+ * What each role must see: the heading of its home page and exactly its side-navigation
+ * entries. A feature that adds an area for a role adds its label here too.
+ */
+export const ROLE_EXPECTATIONS: Readonly<Record<DemoRole, { homeHeading: string; navigation: string[] }>> = {
+  planner: { homeHeading: 'Routes and scenarios', navigation: ['Home'] },
+  analyst: { homeHeading: 'Terrain and vehicle profiles', navigation: ['Home'] },
+  safety: { homeHeading: 'Descent review', navigation: ['Home'] },
+  board: { homeHeading: 'Network summary', navigation: ['Home'] },
+  admin: { homeHeading: 'People and outgoing mail', navigation: ['Home', 'People', 'Outgoing mail'] },
+};
+
+export function demoEmail(role: DemoRole): string {
+  return `${role}@descentry.example`;
+}
+
+/** Signs in through the sign-in page and waits for the home page. */
+export async function signInAs(page: Page, role: DemoRole, password = DEMO_PASSWORD): Promise<void> {
+  await page.goto(`${BASE_URL}/sign-in`);
+  await page.getByLabel('E-mail address').fill(demoEmail(role));
+  await page.getByLabel('Password', { exact: true }).fill(password);
+  await page.getByRole('button', { name: 'Sign in' }).click();
+  await page.getByRole('heading', { level: 1, name: ROLE_EXPECTATIONS[role].homeHeading, exact: true }).waitFor();
+}
+
+/** Signs out through the account menu and waits for the sign-in page. */
+export async function signOut(page: Page): Promise<void> {
+  await page.getByRole('button', { name: 'Account menu' }).click();
+  await page.getByRole('menuitem', { name: 'Sign out' }).click();
+  await page.getByRole('heading', { level: 1, name: 'Sign in', exact: true }).waitFor();
+}
+
+/** The labels of the main navigation's links, in order. */
+export async function navigationLabels(page: Page): Promise<string[]> {
+  const links = page.getByRole('navigation', { name: 'Main' }).getByRole('link');
+  return (await links.allInnerTexts()).map((text) => text.replace(/^\S+\s*\n?/, '').trim());
+}

@@ -1,0 +1,39 @@
+import type { Routes } from '@angular/router';
+import { areaData, areasFor } from '../../../web/app/core/areas';
+import { routes } from '../../../web/app/app.routes';
+
+describe('areasFor', () => {
+  const config: Routes = [
+    { path: 'sign-in' },
+    {
+      path: '',
+      children: [
+        { path: '' },
+        {
+          path: 'routes',
+          data: areaData({ label: 'Routes', icon: 'route', summary: 'Draw routes', roles: ['planner', 'analyst'] }),
+        },
+        {
+          path: 'admin/people',
+          data: areaData({ label: 'People', icon: 'group', summary: 'Invite', roles: ['admin'], group: 'Administration' }),
+        },
+      ],
+    },
+  ];
+
+  it('lists only the areas the role may open, with absolute links', () => {
+    expect(areasFor(config, 'planner').map((area) => [area.label, area.path])).toEqual([
+      ['Routes', '/routes'],
+    ]);
+    expect(areasFor(config, 'admin').map((area) => area.path)).toEqual(['/admin/people']);
+  });
+
+  it('lists nothing when nobody is signed in', () => {
+    expect(areasFor(config, null)).toEqual([]);
+  });
+
+  it('gives administrators People and Outgoing mail from the real router table, and planners neither', () => {
+    expect(areasFor(routes, 'admin').map((area) => area.label)).toEqual(['People', 'Outgoing mail']);
+    expect(areasFor(routes, 'planner').map((area) => area.label)).not.toContain('People');
+  });
+});
