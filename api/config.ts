@@ -27,6 +27,16 @@ const configSchema = z.object({
   DATA_DIR: z.string().default('.var/data'),
   /** Folder with the built Angular app to serve; empty to serve the API only. */
   WEB_DIR: z.string().default('dist/web/browser'),
+  /** Largest terrain upload accepted, bytes (default 2 GiB); larger uploads get 413. */
+  TERRAIN_MAX_UPLOAD_BYTES: z.coerce.number().int().positive().default(2 * 1024 ** 3),
+  /** Largest terrain grid accepted, width × height pixels (guards against decompression bombs). */
+  TERRAIN_MAX_PIXELS: z.coerce.number().int().positive().default(1_000_000_000),
+  /** Largest single decoded tile or strip, bytes; bigger blocks would have to be held whole. */
+  TERRAIN_MAX_BLOCK_BYTES: z.coerce.number().int().positive().default(64 * 1024 ** 2),
+  /** Memory for decoded terrain blocks shared by sampling and tile rendering, MiB. */
+  TERRAIN_BLOCK_CACHE_MB: z.coerce.number().int().positive().default(256),
+  /** Worker threads that decode terrain blocks off the event loop. */
+  TERRAIN_DECODE_THREADS: z.coerce.number().int().min(1).max(16).default(2),
   /** Run the background workers (mail outbox, jobs) in this process. */
   RUN_WORKERS: z.stringbool().default(true),
 });

@@ -5,6 +5,7 @@ import { healthEndpoints } from './health/health-endpoints';
 import type { AnyEndpoint } from './http/endpoint';
 import { mailEndpoints } from './mail/mail-endpoints';
 import { peopleEndpoints } from './people/people-endpoints';
+import { terrainEndpoints } from './terrain/terrain-endpoints';
 
 /**
  * Every endpoint of the API. A feature adds its list here; `createApp` mounts them behind
@@ -18,5 +19,6 @@ export function allEndpoints(deps: AppDeps): AnyEndpoint[] {
     ...peopleEndpoints(deps),
     ...mailEndpoints(deps),
     ...analysisEndpoints(deps),
+    ...terrainEndpoints(deps),
   ];
 }

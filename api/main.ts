@@ -5,6 +5,7 @@ import { migrateDatabase } from './db/migrate';
 import { createApp } from './app';
 import { createSmtpTransport, startMailWorker } from './mail/mail-worker';
 import { startSmtpFake } from './mail/smtp-fake';
+import { startTerrain } from './terrain/terrain-startup';
 
 const config = loadConfig();
 await migrateDatabase(config.DATABASE_URL);
@@ -21,6 +22,7 @@ if (config.RUN_WORKERS) {
   const worker = startMailWorker(db, createSmtpTransport(config), config.MAIL_FROM);
   stoppers.push(worker.stop);
 }
+stoppers.push(await startTerrain({ db, config }));
 
 const server = createServer(createApp({ db, config }));
 server.listen(config.PORT, config.HOST, () => {

@@ -1,0 +1,179 @@
+import { existsSync } from 'node:fs';
+import { open } from 'node:fs/promises';
+import { join } from 'node:path';
+import { fileURLToPath } from 'node:url';
+import { LRUCache } from 'lru-cache';
+import { Piscina } from 'piscina';
+import type { TerrainOverviewLevel } from '../db/schema/terrain';
+
+/** A ready terrain model as sampling and rendering see it. */
+export interface TerrainSource {
+  id: string;
+  /** Changes when the model's file changes; part of every cache key. */
+  version: string;
+  /** Absolute path of the GeoTIFF. */
+  path: string;
+  /** Absolute folder of the reduced pyramid. */
+  overviewDir: string;
+  widthPx: number;
+  heightPx: number;
+  blockWidthPx: number;
+  blockHeightPx: number;
+  originX: number;
+  originY: number;
+  pixelSizeX: number;
+  pixelSizeY: number;
+  resolutionM: number;
+  proj4Definition: string;
+  isGeographic: boolean;
+  nodata: number | null;
+  dataType: 'Int16' | 'Int32' | 'Float32' | 'Float64';
+  verticalScaleToM: number;
+  overviews: TerrainOverviewLevel[];
+}
+
+/** A decoded block: elevations in metres, NaN for nodata, row-major `width` × `height`. */
+export interface Block {
+  values: Float32Array | Float64Array;
+  width: number;
+  height: number;
+}
+
+/** Tile size of the reduced pyramid files (raw little-endian Float32, 256 × 256 blocks). */
+export const OVERVIEW_BLOCK_PX = 256;
+
+/**
+ * Decoded terrain blocks for sampling and tile rendering: an LRU cache bounded in bytes in front
+ * of a pool of worker threads that decode GeoTIFF tiles/strips (geotiff.js inflates on the CPU,
+ * which would otherwise stall every other request). Concurrent requests for the same block share
+ * one decode.
+ */
+export class BlockStore {
+  private readonly cache: LRUCache<string, Block>;
+  private readonly inFlight = new Map<string, Promise<Block>>();
+  private readonly pool: Piscina;
+
+  constructor(options: { cacheBytes: number; threads: number }) {
+    this.cache = new LRUCache<string, Block>({
+      maxSize: options.cacheBytes,
+      sizeCalculation: (block) => Math.max(1, block.values.byteLength),
+    });
+    this.pool = new Piscina({
+      filename: decodeWorkerPath(),
+      minThreads: 1,
+      maxThreads: options.threads,
+      // Idle workers exit so a quiet API holds no decoder memory.
+      idleTimeout: 30_000,
+      // geotiff.js pulls in the `web-worker` package, which inside any worker thread destructures
+      // `workerData`; an empty object makes it behave as on the main thread.
+      workerData: {},
+    });
+  }
+
+  /** Number of blocks across and down at a level (0 = the GeoTIFF, k = overview k). */
+  blockGrid(source: TerrainSource, level: number): { blockWidth: number; blockHeight: number; across: number; down: number; widthPx: number; heightPx: number } {
+    if (level === 0) {
+      return {
+        blockWidth: source.blockWidthPx,
+        blockHeight: source.blockHeightPx,
+        across: Math.ceil(source.widthPx / source.blockWidthPx),
+        down: Math.ceil(source.heightPx / source.blockHeightPx),
+        widthPx: source.widthPx,
+        heightPx: source.heightPx,
+      };
+    }
+    const overview = source.overviews[level - 1]!;
+    return {
+      blockWidth: OVERVIEW_BLOCK_PX,
+      blockHeight: OVERVIEW_BLOCK_PX,
+      across: Math.ceil(overview.widthPx / OVERVIEW_BLOCK_PX),
+      down: Math.ceil(overview.heightPx / OVERVIEW_BLOCK_PX),
+      widthPx: overview.widthPx,
+      heightPx: overview.heightPx,
+    };
+  }
+
+  /** The cached block, if any, without waiting. */
+  peek(source: TerrainSource, level: number, blockX: number, blockY: number): Block | undefined {
+    return this.cache.get(blockKey(source, level, blockX, blockY));
+  }
+
+  async block(source: TerrainSource, level: number, blockX: number, blockY: number): Promise<Block> {
+    const key = blockKey(source, level, blockX, blockY);
+    const cached = this.cache.get(key);
+    if (cached) return cached;
+    let pending = this.inFlight.get(key);
+    if (!pending) {
+      pending = (level === 0 ? this.decodeGeoTiffBlock(source, blockX, blockY) : readOverviewBlock(source, level, blockX, blockY))
+        .then((block) => {
+          this.cache.set(key, block);
+          return block;
+        })
+        .finally(() => this.inFlight.delete(key));
+      this.inFlight.set(key, pending);
+    }
+    return pending;
+  }
+
+  /** Decodes any window of a model's GeoTIFF in a worker (ingestion reads row bands this way). */
+  async window(source: Pick<TerrainSource, 'path' | 'nodata' | 'dataType' | 'verticalScaleToM'>, window: [number, number, number, number]): Promise<Float32Array | Float64Array> {
+    return (await this.pool.run({
+      path: source.path,
+      window,
+      // Float32 files store nodata rounded to single precision; compare like with like.
+      nodata: source.nodata === null ? null : source.dataType === 'Float32' ? Math.fround(source.nodata) : source.nodata,
+      verticalScaleToM: source.verticalScaleToM,
+      wide: source.dataType === 'Int32' || source.dataType === 'Float64',
+    })) as Float32Array | Float64Array;
+  }
+
+  /** Forgets everything about a model (after deletion). */
+  async forget(source: Pick<TerrainSource, 'id' | 'path'>): Promise<void> {
+    for (const key of this.cache.keys()) if (key.startsWith(`${source.id}:`)) this.cache.delete(key);
+    const threads = this.pool.threads.length;
+    await Promise.all(Array.from({ length: threads }, () => this.pool.run({ path: source.path }, { name: 'forget' })));
+  }
+
+  async close(): Promise<void> {
+    await this.pool.destroy();
+  }
+
+  private async decodeGeoTiffBlock(source: TerrainSource, blockX: number, blockY: number): Promise<Block> {
+    const x0 = blockX * source.blockWidthPx;
+    const y0 = blockY * source.blockHeightPx;
+    const x1 = Math.min(x0 + source.blockWidthPx, source.widthPx);
+    const y1 = Math.min(y0 + source.blockHeightPx, source.heightPx);
+    const values = await this.window(source, [x0, y0, x1, y1]);
+    return { values, width: x1 - x0, height: y1 - y0 };
+  }
+}
+
+function blockKey(source: TerrainSource, level: number, blockX: number, blockY: number): string {
+  return `${source.id}:${source.version}:${level}:${blockX}:${blockY}`;
+}
+
+/** Overview files are raw tiled Float32: one positioned read per block (off-thread in libuv). */
+async function readOverviewBlock(source: TerrainSource, level: number, blockX: number, blockY: number): Promise<Block> {
+  const overview = source.overviews[level - 1]!;
+  const across = Math.ceil(overview.widthPx / OVERVIEW_BLOCK_PX);
+  const blockBytes = OVERVIEW_BLOCK_PX * OVERVIEW_BLOCK_PX * 4;
+  const buffer = Buffer.alloc(blockBytes);
+  const handle = await open(join(source.overviewDir, overview.fileName), 'r');
+  try {
+    await handle.read(buffer, 0, blockBytes, (blockY * across + blockX) * blockBytes);
+  } finally {
+    await handle.close();
+  }
+  const values = new Float32Array(buffer.buffer, buffer.byteOffset, OVERVIEW_BLOCK_PX * OVERVIEW_BLOCK_PX);
+  return { values, width: OVERVIEW_BLOCK_PX, height: OVERVIEW_BLOCK_PX };
+}
+
+/**
+ * The worker file sits next to this module; the bundled server (dist/api/main.mjs) runs from the
+ * repository root and finds it under api/terrain/.
+ */
+function decodeWorkerPath(): string {
+  const besideModule = fileURLToPath(new URL('./raster-decode-worker.mjs', import.meta.url));
+  if (existsSync(besideModule)) return besideModule;
+  return join(process.cwd(), 'api', 'terrain', 'raster-decode-worker.mjs');
+}

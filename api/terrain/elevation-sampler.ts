@@ -1,0 +1,158 @@
+import { setImmediate as yieldToEventLoop } from 'node:timers/promises';
+import type { SamplingMethod } from '@shared/domain/terrain';
+import type { AppDeps } from '../app-deps';
+import { NotFoundError } from '../http/http-error';
+import type { Block, BlockStore, TerrainSource } from './block-store';
+import { projectorFor } from './crs-registry';
+import { bilinearValue, nearestValue, type GridGeometry } from './terrain-grid';
+import { terrainRuntimeFor, type ReadyTerrain } from './terrain-runtime';
+
+export interface SampleOptions {
+  /** Bilinear (default) or nearest pixel. */
+  method?: SamplingMethod;
+  /** Restrict sampling to one model (404 when it is not a ready model). */
+  terrainId?: string;
+}
+
+/** [longitude, latitude] in WGS 84 degrees → elevation in metres, or null where nothing covers. */
+export type ElevationSampler = (points: [number, number][], options?: SampleOptions) => Promise<(number | null)[]>;
+
+/** Points handled between yields to the event loop: keeps a 100 000-point request from stalling others. */
+const CHUNK_POINTS = 4096;
+
+/**
+ * The elevation sampler of this process, for callers outside the terrain feature (the analysis
+ * preview samples routes without their own elevations with it):
+ *
+ *   const sample = elevationSamplerFor(deps);
+ *   const elevationsM = await sample([[lon, lat], …]);   // (number | null)[]
+ */
+export function elevationSamplerFor(deps: AppDeps): ElevationSampler {
+  return (points, options) => sampleElevations(deps, points, options);
+}
+
+/**
+ * Elevations at WGS 84 points from the ready terrain models. Each point is reprojected into each
+ * model's CRS; where several models cover it, the finest resolution that has data wins.
+ */
+export async function sampleElevations(
+  deps: AppDeps,
+  points: ReadonlyArray<readonly [number, number]>,
+  options: SampleOptions = {},
+): Promise<(number | null)[]> {
+  const runtime = terrainRuntimeFor(deps);
+  const catalogue = await runtime.readyCatalogue();
+  let models = catalogue.models;
+  if (options.terrainId) {
+    models = models.filter((model) => model.id === options.terrainId);
+    if (models.length === 0) throw new NotFoundError('A ready terrain model with that id');
+  }
+  return sampleFromModels(runtime.blocks, models, points, options.method ?? 'bilinear');
+}
+
+/** Sampling against an explicit list of models, finest first (exported for the benchmark). */
+export async function sampleFromModels(
+  blocks: BlockStore,
+  models: readonly ReadyTerrain[],
+  points: ReadonlyArray<readonly [number, number]>,
+  method: SamplingMethod,
+): Promise<(number | null)[]> {
+  const result: (number | null)[] = new Array<number | null>(points.length).fill(null);
+  for (let start = 0; start < points.length; start += CHUNK_POINTS) {
+    const end = Math.min(points.length, start + CHUNK_POINTS);
+    for (const model of models) {
+      const wanted: number[] = [];
+      const [west, south, east, north] = model.bbox;
+      for (let i = start; i < end; i++) {
+        if (result[i] !== null) continue;
+        const [lon, lat] = points[i]!;
+        if (lon >= west && lon <= east && lat >= south && lat <= north) wanted.push(i);
+      }
+      if (wanted.length === 0) continue;
+      const values = await sampleModel(blocks, model, wanted.map((i) => points[i]!), method);
+      for (let k = 0; k < wanted.length; k++) {
+        const value = values[k]!;
+        if (value === value) result[wanted[k]!] = value;
+      }
+    }
+    if (end < points.length) await yieldToEventLoop();
+  }
+  return result;
+}
+
+/** Samples one model at WGS 84 points; NaN where it has no data. */
+export async function sampleModel(
+  blocks: BlockStore,
+  model: TerrainSource,
+  points: ReadonlyArray<readonly [number, number]>,
+  method: SamplingMethod,
+): Promise<Float64Array> {
+  const projector = projectorFor(model.proj4Definition);
+  const cols = new Float64Array(points.length);
+  const rows = new Float64Array(points.length);
+  for (let i = 0; i < points.length; i++) {
+    const [x, y] = model.isGeographic ? (points[i] as [number, number]) : projector.forward(points[i]!);
+    cols[i] = (x - model.originX) / model.pixelSizeX;
+    rows[i] = (y - model.originY) / model.pixelSizeY;
+  }
+  return samplePixels(blocks, model, 0, cols, rows, method);
+}
+
+/**
+ * Values at continuous pixel coordinates of one level (0 = full resolution, k = overview k,
+ * whose coordinates are the level-0 ones divided by its factor). Fetches every block the points
+ * touch, in parallel, then interpolates.
+ */
+export async function samplePixels(
+  blocks: BlockStore,
+  model: TerrainSource,
+  level: number,
+  cols: Float64Array,
+  rows: Float64Array,
+  method: SamplingMethod,
+  out: Float64Array = new Float64Array(cols.length),
+): Promise<Float64Array> {
+  const grid = blocks.blockGrid(model, level);
+  const geometry: GridGeometry = { originX: 0, originY: 0, pixelSizeX: 1, pixelSizeY: 1, widthPx: grid.widthPx, heightPx: grid.heightPx };
+  const needed = new Set<number>();
+  const addBlockOf = (col: number, row: number) => {
+    if (col < 0 || row < 0 || col >= grid.widthPx || row >= grid.heightPx) return;
+    needed.add(Math.floor(row / grid.blockHeight) * grid.across + Math.floor(col / grid.blockWidth));
+  };
+  for (let i = 0; i < cols.length; i++) {
+    const col = cols[i]!;
+    const row = rows[i]!;
+    if (!(col >= 0 && row >= 0 && col <= grid.widthPx && row <= grid.heightPx)) continue;
+    if (method === 'nearest') {
+      addBlockOf(Math.min(Math.floor(col), grid.widthPx - 1), Math.min(Math.floor(row), grid.heightPx - 1));
+    } else {
+      const c0 = Math.floor(col - 0.5);
+      const r0 = Math.floor(row - 0.5);
+      addBlockOf(c0, r0);
+      addBlockOf(c0 + 1, r0);
+      addBlockOf(c0, r0 + 1);
+      addBlockOf(c0 + 1, r0 + 1);
+    }
+  }
+  const loaded = new Map<number, Block>();
+  await Promise.all(
+    [...needed].map(async (index) => {
+      const blockX = index % grid.across;
+      const blockY = Math.floor(index / grid.across);
+      loaded.set(index, blocks.peek(model, level, blockX, blockY) ?? (await blocks.block(model, level, blockX, blockY)));
+    }),
+  );
+
+  const { blockWidth, blockHeight, across } = grid;
+  const valueAt = (col: number, row: number): number => {
+    if (col < 0 || row < 0 || col >= grid.widthPx || row >= grid.heightPx) return NaN;
+    const blockX = Math.floor(col / blockWidth);
+    const blockY = Math.floor(row / blockHeight);
+    const block = loaded.get(blockY * across + blockX);
+    if (!block) return NaN;
+    return block.values[(row - blockY * blockHeight) * block.width + (col - blockX * blockWidth)]!;
+  };
+  const interpolate = method === 'nearest' ? nearestValue : bilinearValue;
+  for (let i = 0; i < cols.length; i++) out[i] = interpolate(geometry, cols[i]!, rows[i]!, valueAt);
+  return out;
+}

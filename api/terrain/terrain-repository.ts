@@ -1,0 +1,130 @@
+import { and, asc, eq, getTableColumns, sql } from 'drizzle-orm';
+import type { Polygon, TerrainModel } from '@shared/domain/terrain';
+import type { Executor } from '../db/client';
+import { terrainDependents, terrainModels, users, type TerrainModelRow } from '../db/schema/index';
+
+type NewTerrainRow = typeof terrainModels.$inferInsert;
+
+/** A row with its footprint as GeoJSON text and the uploader's name. */
+export type TerrainRowWithExtras = Omit<TerrainModelRow, 'footprint'> & {
+  footprintGeoJson: string | null;
+  uploaderName: string | null;
+};
+
+// The geometry column is read as GeoJSON text instead of its raw EWKB.
+const { footprint: _footprint, ...columnsWithoutFootprint } = getTableColumns(terrainModels);
+
+const selection = {
+  ...columnsWithoutFootprint,
+  footprintGeoJson: sql<string | null>`ST_AsGeoJSON(${terrainModels.footprint}, 9)`,
+  uploaderName: users.name,
+};
+
+export async function insertTerrainModel(db: Executor, row: NewTerrainRow): Promise<void> {
+  await db.insert(terrainModels).values(row);
+}
+
+export async function findTerrainModel(db: Executor, id: string): Promise<TerrainRowWithExtras | undefined> {
+  const [row] = await db
+    .select(selection)
+    .from(terrainModels)
+    .leftJoin(users, eq(users.id, terrainModels.uploadedById))
+    .where(eq(terrainModels.id, id));
+  return row;
+}
+
+export async function listTerrainModels(db: Executor): Promise<TerrainRowWithExtras[]> {
+  return db
+    .select(selection)
+    .from(terrainModels)
+    .leftJoin(users, eq(users.id, terrainModels.uploadedById))
+    .orderBy(asc(terrainModels.name), asc(terrainModels.createdAt));
+}
+
+export async function listReadyTerrainRows(db: Executor): Promise<TerrainRowWithExtras[]> {
+  return db
+    .select(selection)
+    .from(terrainModels)
+    .leftJoin(users, eq(users.id, terrainModels.uploadedById))
+    .where(eq(terrainModels.status, 'ready'))
+    .orderBy(asc(terrainModels.resolutionM), asc(terrainModels.createdAt));
+}
+
+export async function findTerrainBySha256(db: Executor, sha256: string): Promise<{ id: string; name: string } | undefined> {
+  const [row] = await db
+    .select({ id: terrainModels.id, name: terrainModels.name })
+    .from(terrainModels)
+    .where(eq(terrainModels.sha256, sha256));
+  return row;
+}
+
+export async function listProcessingTerrainIds(db: Executor): Promise<string[]> {
+  const rows = await db.select({ id: terrainModels.id }).from(terrainModels).where(eq(terrainModels.status, 'processing'));
+  return rows.map((row) => row.id);
+}
+
+export async function listStoredPaths(db: Executor): Promise<Array<{ id: string; storedPath: string }>> {
+  return db.select({ id: terrainModels.id, storedPath: terrainModels.storedPath }).from(terrainModels);
+}
+
+export async function updateTerrainModel(db: Executor, id: string, values: Partial<NewTerrainRow>): Promise<void> {
+  await db.update(terrainModels).set(values).where(eq(terrainModels.id, id));
+}
+
+export async function deleteTerrainRow(db: Executor, id: string): Promise<boolean> {
+  const deleted = await db.delete(terrainModels).where(eq(terrainModels.id, id)).returning({ id: terrainModels.id });
+  return deleted.length > 0;
+}
+
+/**
+ * How many saved scenarios use the terrain model. The scenarios feature registers each scenario
+ * that was computed on a model in `terrain_dependents` (kind "scenario"); until then this is 0.
+ */
+export async function countScenariosUsingTerrain(db: Executor, terrainId: string): Promise<number> {
+  const [row] = await db
+    .select({ count: sql<number>`count(*)::int` })
+    .from(terrainDependents)
+    .where(and(eq(terrainDependents.terrainId, terrainId), eq(terrainDependents.kind, 'scenario')));
+  return row?.count ?? 0;
+}
+
+/** Records that something (e.g. a saved scenario) depends on a terrain model. Idempotent. */
+export async function addTerrainDependent(db: Executor, terrainId: string, kind: string, dependentId: string): Promise<void> {
+  await db.insert(terrainDependents).values({ terrainId, kind, dependentId }).onConflictDoNothing();
+}
+
+export async function removeTerrainDependent(db: Executor, terrainId: string, kind: string, dependentId: string): Promise<void> {
+  await db
+    .delete(terrainDependents)
+    .where(and(eq(terrainDependents.terrainId, terrainId), eq(terrainDependents.kind, kind), eq(terrainDependents.dependentId, dependentId)));
+}
+
+/** The catalogue entry the API answers with. */
+export function toTerrainModel(row: TerrainRowWithExtras): TerrainModel {
+  return {
+    id: row.id,
+    name: row.name,
+    status: row.status,
+    failureReason: row.failureReason,
+    crs: row.crs,
+    crsName: row.crsName,
+    widthPx: row.widthPx,
+    heightPx: row.heightPx,
+    resolutionM: row.resolutionM,
+    nodata: row.nodata,
+    dataType: row.dataType,
+    pixelType: row.pixelType,
+    verticalUnit: row.verticalUnit,
+    fileSizeBytes: row.fileSizeBytes,
+    sha256: row.sha256,
+    minElevationM: row.minElevationM,
+    maxElevationM: row.maxElevationM,
+    nodataShare: row.nodataShare,
+    spikeCount: row.spikeCount,
+    qualityNotes: row.qualityNotes,
+    footprint: row.footprintGeoJson ? (JSON.parse(row.footprintGeoJson) as Polygon) : null,
+    uploadedBy: row.uploadedById && row.uploaderName ? { id: row.uploadedById, name: row.uploaderName } : null,
+    createdAt: row.createdAt.toISOString(),
+    readyAt: row.readyAt ? row.readyAt.toISOString() : null,
+  };
+}
