@@ -5,6 +5,7 @@ import { healthEndpoints } from './health/health-endpoints';
 import type { AnyEndpoint } from './http/endpoint';
 import { mailEndpoints } from './mail/mail-endpoints';
 import { peopleEndpoints } from './people/people-endpoints';
+import { roadRouteEndpoints } from './road-routes/road-routes-endpoints';
 import { terrainEndpoints } from './terrain/terrain-endpoints';
 
 /**
@@ -19,6 +20,7 @@ export function allEndpoints(deps: AppDeps): AnyEndpoint[] {
     ...peopleEndpoints(deps),
     ...mailEndpoints(deps),
     ...analysisEndpoints(deps),
+    ...roadRouteEndpoints(deps),
     ...terrainEndpoints(deps),
   ];
 }

@@ -74,3 +74,101 @@ export const roadRouteSummarySchema = z.object({
 });
 export type RoadRouteSummary = z.infer<typeof roadRouteSummarySchema>;
 export const roadRouteListSchema = z.object({ items: z.array(roadRouteSummarySchema) });
+
+/** Largest distance a stop may lie from its route line, m (common practice: a bay or kerb beside the lane). */
+export const STOP_MAX_OFFSET_M = 50;
+
+export const routeVersionParamsSchema = z.object({
+  routeId: z.uuid(),
+  version: z.coerce.number().int().min(1),
+});
+
+export const ROUTE_SORT_KEYS = ['name', 'updatedAt', 'lengthM', 'tripsPerDay'] as const;
+
+/**
+ * GET /api/routes query. Without `page` every route is returned (the screen's table pages
+ * itself); with `page` (1-based) one page of `pageSize` comes back and `total` counts all matches.
+ */
+export const routeListQuerySchema = z.object({
+  /** Case-insensitive part of the name or description. */
+  q: z.string().trim().max(120).optional(),
+  sort: z.enum(ROUTE_SORT_KEYS).default('name'),
+  order: z.enum(['asc', 'desc']).default('asc'),
+  page: z.coerce.number().int().min(1).optional(),
+  pageSize: z.coerce.number().int().min(1).max(200).default(50),
+});
+export type RouteListQuery = z.infer<typeof routeListQuerySchema>;
+
+/** Route list, with paging figures (extends `roadRouteListSchema`). */
+export const roadRoutePageSchema = roadRouteListSchema.extend({
+  total: z.number().int(),
+  page: z.number().int().nullable(),
+  pageSize: z.number().int().nullable(),
+});
+export type RoadRoutePage = z.infer<typeof roadRoutePageSchema>;
+
+/** Every saved version of a route, newest first. */
+export const roadRouteVersionListSchema = z.object({
+  items: z.array(
+    z.object({ version: z.number().int(), versionId: z.uuid(), lengthM: z.number(), createdBy: z.string(), createdAt: z.iso.datetime({ offset: true }) }),
+  ),
+});
+
+/** POST /api/routes/profile: a live elevation profile for the route editor. */
+export const routeProfileRequestSchema = z.object({ geometry: lineStringSchema });
+export type RouteProfileRequest = z.infer<typeof routeProfileRequestSchema>;
+
+export const routeProfileSchema = z.object({
+  /** Resampling spacing used, m (finer for short routes). */
+  spacingM: z.number(),
+  distanceM: z.array(z.number()),
+  /** null where no terrain covers the point (and the coordinates carry no elevation). */
+  elevationM: z.array(z.number().nullable()),
+  lengthM: z.number(),
+  ascentM: z.number(),
+  descentM: z.number(),
+  /** Where the elevations came from. */
+  elevationSource: z.enum(['coordinates', 'terrain', 'none']),
+});
+export type RouteProfile = z.infer<typeof routeProfileSchema>;
+
+export const ROUTE_EXPORT_FORMATS = ['geojson', 'gpx'] as const;
+export const routeExportQuerySchema = z.object({ format: z.enum(ROUTE_EXPORT_FORMATS).default('geojson') });
+
+/** Multipart body of the import endpoints (documentation only; multer parses it). */
+export const routeImportMultipartSchema = z.object({
+  file: z.string().describe('.geojson / .json (GeoJSON Feature or FeatureCollection with one LineString) or .gpx (GPX 1.1)'),
+  name: z.string().optional().describe('Route name; default: the name in the file, else the file name'),
+});
+export const gtfsImportMultipartSchema = z.object({
+  file: z.string().describe('GTFS feed as a .zip: shapes.txt, stops.txt, stop_times.txt, trips.txt, routes.txt, calendar.txt'),
+});
+export const roadRouteImportListSchema = z.object({ items: z.array(roadRouteSchema) });
+
+const lonLat = z.tuple([z.number().min(-180).max(180), z.number().min(-90).max(90)]);
+
+/** POST /api/road-network/path: a path along the reference road network. */
+export const roadNetworkPathRequestSchema = z.object({ from: lonLat, to: lonLat });
+export const roadNetworkPathSchema = z.object({
+  geometry: lineStringSchema,
+  lengthM: z.number(),
+  /** How far `from` and `to` were moved to reach the network, m. */
+  snapDistancesM: z.tuple([z.number(), z.number()]),
+});
+export type RoadNetworkPath = z.infer<typeof roadNetworkPathSchema>;
+
+/** The reference road network as GeoJSON (one Feature per line; MultiLineStrings are split). */
+export const roadNetworkSchema = z.object({
+  type: z.literal('FeatureCollection'),
+  features: z.array(
+    z.object({
+      type: z.literal('Feature'),
+      id: z.union([z.string(), z.number()]).optional(),
+      properties: z.record(z.string(), z.unknown()).nullable(),
+      geometry: lineStringSchema,
+    }),
+  ),
+});
+export type RoadNetwork = z.infer<typeof roadNetworkSchema>;
+export const roadNetworkUploadResultSchema = z.object({ featureCount: z.number().int(), lineCount: z.number().int() });
+export const roadNetworkMultipartSchema = z.object({ file: z.string().describe('GeoJSON FeatureCollection of LineString/MultiLineString roads') });

@@ -74,6 +74,15 @@ export const scenarioSchema = scenarioDraftSchema.extend({
   failureReason: z.string().nullable(),
   /** Whether the inputs or the engine changed since the stored result was computed. */
   isStale: z.boolean(),
+  /** What changed, in plain words (empty when not stale). */
+  staleReasons: z.array(z.string()),
+  /**
+   * Whether the draft named its route version: a pinned scenario always runs that version; an
+   * unpinned one moves to the route's latest version when it is saved or re-run.
+   */
+  routeVersionPinned: z.boolean(),
+  /** The route's latest version now. */
+  latestRouteVersion: z.number().int(),
   engineVersion: z.string().nullable(),
   computedAt: z.iso.datetime({ offset: true }).nullable(),
   /** Headline figures of the stored result (whole scenario: one direction or the round trip). */
@@ -107,3 +116,25 @@ export const scenarioResultSchema = z.object({
   caution: z.string(),
 });
 export type ScenarioResult = z.infer<typeof scenarioResultSchema>;
+
+/** GET /api/scenarios filters. */
+export const scenarioListQuerySchema = z.object({
+  routeId: z.uuid().optional(),
+  vehicleProfileId: z.uuid().optional(),
+  inService: z.stringbool().optional(),
+});
+export type ScenarioListQuery = z.infer<typeof scenarioListQuerySchema>;
+
+/** GET /api/scenarios/compare?ids=a,b[,c,d]: two to four distinct scenarios. */
+export const scenarioCompareQuerySchema = z.object({
+  ids: z
+    .string()
+    .transform((text) => text.split(',').map((id) => id.trim()).filter((id) => id.length > 0))
+    .pipe(z.array(z.uuid()).min(2, 'give 2 to 4 scenario ids').max(4, 'give 2 to 4 scenario ids')),
+});
+
+export const scenarioComparisonSchema = z.object({
+  items: z.array(z.object({ scenario: scenarioSchema, result: scenarioResultSchema.nullable() })),
+  caution: z.string(),
+});
+export type ScenarioComparison = z.infer<typeof scenarioComparisonSchema>;

@@ -46,3 +46,24 @@ export const vehicleProfileSchema = vehicleProfileDraftSchema.extend({
 });
 export type VehicleProfile = z.infer<typeof vehicleProfileSchema>;
 export const vehicleProfileListSchema = z.object({ items: z.array(vehicleProfileSchema) });
+
+/** GET /api/vehicles/:vehicleProfileId/capability query. */
+export const capabilityQuerySchema = z.object({
+  load: loadCaseSchema.default('seated'),
+  season: seasonSchema.default('mild'),
+  /** Altitude for the air density, m. */
+  altitudeM: z.coerce.number().min(-1_000).max(11_000).default(0),
+});
+export type CapabilityQuery = z.infer<typeof capabilityQuerySchema>;
+
+/** Capability chart data (shared/engine/capability-curves.ts). Forces in N, positive = traction. */
+export const capabilityCurvesSchema = z.object({
+  vehicleProfileId: z.uuid(),
+  load: loadCaseSchema,
+  massKg: z.number(),
+  speedsMps: z.array(z.number()),
+  tractionEnvelopeN: z.array(z.number()),
+  regenEnvelopeN: z.array(z.number()),
+  curves: z.array(z.object({ gradePercent: z.number(), accelerationMps2: z.number(), requiredForceN: z.array(z.number()) })),
+});
+export type CapabilityCurvesResponse = z.infer<typeof capabilityCurvesSchema>;

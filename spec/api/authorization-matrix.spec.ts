@@ -28,6 +28,20 @@ const EXPECTED_ACCESS: Record<string, 'public' | 'signed-in' | readonly Role[]> 
   'GET /api/mail/captured': ['admin'],
   'POST /api/analysis/road-load': 'signed-in',
   'POST /api/analysis/preview': 'signed-in',
+  'GET /api/routes': 'signed-in',
+  'POST /api/routes': ['planner'],
+  'POST /api/routes/profile': 'signed-in',
+  'POST /api/routes/import': ['planner'],
+  'POST /api/routes/import-gtfs': ['planner'],
+  'GET /api/routes/{routeId}': 'signed-in',
+  'PUT /api/routes/{routeId}': ['planner'],
+  'DELETE /api/routes/{routeId}': ['planner'],
+  'GET /api/routes/{routeId}/versions': 'signed-in',
+  'GET /api/routes/{routeId}/versions/{version}': 'signed-in',
+  'GET /api/routes/{routeId}/export': 'signed-in',
+  'POST /api/road-network': ['analyst'],
+  'GET /api/road-network': 'signed-in',
+  'POST /api/road-network/path': 'signed-in',
 };
 
 const context = createTestContext();

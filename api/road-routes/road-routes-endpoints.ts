@@ -1,0 +1,257 @@
+import {
+  gtfsImportMultipartSchema,
+  roadNetworkMultipartSchema,
+  roadNetworkPathRequestSchema,
+  roadNetworkPathSchema,
+  roadNetworkSchema,
+  roadNetworkUploadResultSchema,
+  roadRouteDraftSchema,
+  roadRouteImportListSchema,
+  roadRoutePageSchema,
+  roadRouteSchema,
+  roadRouteVersionListSchema,
+  routeExportQuerySchema,
+  routeIdParamsSchema,
+  routeImportMultipartSchema,
+  routeListQuerySchema,
+  routeProfileRequestSchema,
+  routeProfileSchema,
+  routeVersionParamsSchema,
+} from '@shared/domain/road-routes';
+import type { AppDeps } from '../app-deps';
+import { endpoint } from '../http/endpoint';
+import { BadRequestError, NotFoundError } from '../http/http-error';
+import * as repository from './road-routes-repository';
+import * as service from './road-routes-service';
+import { authorOf } from './road-routes-service';
+import { findNetworkPath, getRoadNetwork, parseRoadNetwork, replaceRoadNetwork } from './road-network-service';
+import { routeToGeoJson } from './route-geojson';
+import { routeToGpx } from './route-gpx';
+import { importGtfsFeed, importRouteFile } from './route-import';
+import { routeProfile } from './route-profile';
+import { attachmentName, requireFile, singleFileUpload } from './route-upload';
+
+const TAG = 'Routes';
+const PLANNERS = ['planner'] as const;
+const ANALYSTS = ['analyst'] as const;
+
+export function roadRouteEndpoints(deps: AppDeps) {
+  return [
+    endpoint({
+      method: 'get',
+      path: '/api/routes',
+      summary: 'Routes (current versions); search with q, sort, and page with page/pageSize (all when page is absent)',
+      tag: TAG,
+      access: 'signed-in',
+      query: routeListQuerySchema,
+      responses: { 200: { description: 'Routes', schema: roadRoutePageSchema } },
+      handler: async ({ query, res }) => {
+        const { items, total } = await repository.listRoutes(deps.db, query);
+        res.json({ items, total, page: query.page ?? null, pageSize: query.page ? query.pageSize : null });
+      },
+    }),
+    endpoint({
+      method: 'post',
+      path: '/api/routes',
+      summary: 'Create a route (version 1); stops are placed on the line',
+      tag: TAG,
+      access: PLANNERS,
+      body: roadRouteDraftSchema,
+      responses: {
+        201: { description: 'Created', schema: roadRouteSchema },
+        400: { description: 'Invalid draft, or a stop farther than 50 m from the line (named)' },
+      },
+      handler: async ({ body, user, res }) => {
+        const route = await service.createRoute(deps.db, authorOf(user!), body);
+        res.status(201).location(`/api/routes/${route.id}`).json(route);
+      },
+    }),
+    endpoint({
+      method: 'post',
+      path: '/api/routes/profile',
+      summary: 'Live elevation profile of a line for the route editor (nothing is stored)',
+      tag: TAG,
+      access: 'signed-in',
+      body: routeProfileRequestSchema,
+      responses: { 200: { description: 'Distances (m), elevations (m or null), length, ascent, descent', schema: routeProfileSchema } },
+      handler: async ({ body, res }) => {
+        res.json(await routeProfile(body.geometry, deps.sampleElevations));
+      },
+    }),
+    endpoint({
+      method: 'post',
+      path: '/api/routes/import',
+      summary: 'Import one route from a GeoJSON (.geojson/.json) or GPX 1.1 (.gpx) file',
+      tag: TAG,
+      access: PLANNERS,
+      multipartBody: routeImportMultipartSchema,
+      middleware: [singleFileUpload()],
+      responses: {
+        201: { description: 'Created', schema: roadRouteSchema },
+        400: { description: 'The file cannot be read; the message names the file, line and field. Nothing is created.' },
+      },
+      handler: async ({ req, user, res }) => {
+        const file = requireFile(req.file);
+        const name = typeof req.body?.name === 'string' ? req.body.name : undefined;
+        const route = await importRouteFile(deps.db, authorOf(user!), file, name);
+        res.status(201).location(`/api/routes/${route.id}`).json(route);
+      },
+    }),
+    endpoint({
+      method: 'post',
+      path: '/api/routes/import-gtfs',
+      summary: 'Import a GTFS feed (zip): one route per GTFS route, with stops, dwell and trips per day',
+      tag: TAG,
+      access: PLANNERS,
+      multipartBody: gtfsImportMultipartSchema,
+      middleware: [singleFileUpload()],
+      responses: {
+        201: { description: 'Created routes', schema: roadRouteImportListSchema },
+        400: { description: 'The feed cannot be read; the message names the file and line. Nothing is created.' },
+      },
+      handler: async ({ req, user, res }) => {
+        const items = await importGtfsFeed(deps.db, authorOf(user!), requireFile(req.file));
+        res.status(201).json({ items });
+      },
+    }),
+    endpoint({
+      method: 'get',
+      path: '/api/routes/:routeId',
+      summary: 'A route, latest version',
+      tag: TAG,
+      access: 'signed-in',
+      params: routeIdParamsSchema,
+      responses: { 200: { description: 'The route', schema: roadRouteSchema } },
+      handler: async ({ params, res }) => {
+        res.json(await service.getRoute(deps.db, params.routeId));
+      },
+    }),
+    endpoint({
+      method: 'put',
+      path: '/api/routes/:routeId',
+      summary: 'Save a new version of a route (earlier versions are kept for the scenarios that ran on them)',
+      tag: TAG,
+      access: PLANNERS,
+      params: routeIdParamsSchema,
+      body: roadRouteDraftSchema,
+      responses: { 200: { description: 'The new version', schema: roadRouteSchema } },
+      handler: async ({ params, body, user, res }) => {
+        res.json(await service.saveVersion(deps.db, authorOf(user!), params.routeId, body));
+      },
+    }),
+    endpoint({
+      method: 'delete',
+      path: '/api/routes/:routeId',
+      summary: 'Delete a route with all its versions; 409 while scenarios use it',
+      tag: TAG,
+      access: PLANNERS,
+      params: routeIdParamsSchema,
+      responses: { 204: { description: 'Deleted' }, 409: { description: 'Scenarios use the route (details.scenarioCount)' } },
+      handler: async ({ params, res }) => {
+        await service.deleteRoute(deps.db, params.routeId);
+        res.status(204).end();
+      },
+    }),
+    endpoint({
+      method: 'get',
+      path: '/api/routes/:routeId/versions',
+      summary: 'Every saved version of a route, newest first',
+      tag: TAG,
+      access: 'signed-in',
+      params: routeIdParamsSchema,
+      responses: { 200: { description: 'Versions', schema: roadRouteVersionListSchema } },
+      handler: async ({ params, res }) => {
+        const rows = await repository.listVersions(deps.db, params.routeId);
+        if (rows.length === 0) throw new NotFoundError('The route');
+        res.json({ items: rows.map((row) => ({ ...row, createdAt: row.createdAt.toISOString() })) });
+      },
+    }),
+    endpoint({
+      method: 'get',
+      path: '/api/routes/:routeId/versions/:version',
+      summary: 'One saved version of a route',
+      tag: TAG,
+      access: 'signed-in',
+      params: routeVersionParamsSchema,
+      responses: { 200: { description: 'The version', schema: roadRouteSchema } },
+      handler: async ({ params, res }) => {
+        res.json(await service.getRoute(deps.db, params.routeId, params.version));
+      },
+    }),
+    endpoint({
+      method: 'get',
+      path: '/api/routes/:routeId/export',
+      summary: 'Download the latest version as GeoJSON (Feature, stops in properties) or GPX 1.1',
+      tag: TAG,
+      access: 'signed-in',
+      params: routeIdParamsSchema,
+      query: routeExportQuerySchema,
+      responses: {
+        200: { description: 'The file (attachment)', contentType: 'application/geo+json | application/gpx+xml' },
+      },
+      handler: async ({ params, query, res }) => {
+        const route = await service.getRoute(deps.db, params.routeId);
+        if (query.format === 'gpx') {
+          res.attachment(attachmentName(route.name, 'gpx')).type('application/gpx+xml').send(routeToGpx(route));
+        } else {
+          res.attachment(attachmentName(route.name, 'geojson')).type('application/geo+json').send(JSON.stringify(routeToGeoJson(route), null, 1));
+        }
+      },
+    }),
+    endpoint({
+      method: 'post',
+      path: '/api/road-network',
+      summary: 'Replace the reference road network (GeoJSON FeatureCollection of LineString/MultiLineString roads, as JSON or multipart file)',
+      tag: TAG,
+      access: ANALYSTS,
+      multipartBody: roadNetworkMultipartSchema,
+      middleware: [singleFileUpload()],
+      responses: {
+        201: { description: 'Stored', schema: roadNetworkUploadResultSchema },
+        400: { description: 'Not a FeatureCollection of lines; the message names the feature index and field' },
+      },
+      handler: async ({ req, user, res }) => {
+        let document: unknown = req.body;
+        let fileName: string | undefined;
+        if (req.file) {
+          fileName = req.file.originalname || 'upload';
+          try {
+            document = JSON.parse(req.file.buffer.toString('utf8').replace(/^\uFEFF/, ''));
+          } catch (error) {
+            // A malformed upload is the analyst's to fix; say so instead of failing the server.
+            throw new BadRequestError(`${fileName}: not valid JSON (${error instanceof Error ? error.message : String(error)})`, { file: fileName });
+          }
+        }
+        const lines = parseRoadNetwork(document, fileName);
+        res.status(201).json(await replaceRoadNetwork(deps.db, user!.id, lines));
+      },
+    }),
+    endpoint({
+      method: 'get',
+      path: '/api/road-network',
+      summary: 'The reference road network as a GeoJSON FeatureCollection',
+      tag: TAG,
+      access: 'signed-in',
+      responses: { 200: { description: 'Road lines', schema: roadNetworkSchema } },
+      handler: async ({ res }) => {
+        res.json(await getRoadNetwork(deps.db));
+      },
+    }),
+    endpoint({
+      method: 'post',
+      path: '/api/road-network/path',
+      summary: 'Shortest path along the road network between two points (to snap a route)',
+      tag: TAG,
+      access: 'signed-in',
+      body: roadNetworkPathRequestSchema,
+      responses: {
+        200: { description: 'The path', schema: roadNetworkPathSchema },
+        404: { description: 'No network, or no path joins the two points' },
+      },
+      handler: async ({ body, res }) => {
+        res.json(await findNetworkPath(deps.db, body.from, body.to));
+      },
+    }),
+  ];
+}
+

@@ -1,0 +1,164 @@
+import { and, asc, desc, eq, ilike, or, sql, type SQL } from 'drizzle-orm';
+import type { LineString } from '@shared/domain/analysis';
+import type { RoadRoute, RoadRouteSummary, RouteListQuery } from '@shared/domain/road-routes';
+import type { Executor } from '../db/client';
+import { roadRoutes, roadRouteVersions, scenarios, type RoadRouteRow, type RoadRouteVersionRow } from '../db/schema/index';
+import { flatten } from './route-geometry';
+
+/** Every column of a version except the PostGIS geometry (the positions are in `coordinates`). */
+const versionColumns = {
+  id: roadRouteVersions.id,
+  routeId: roadRouteVersions.routeId,
+  version: roadRouteVersions.version,
+  name: roadRouteVersions.name,
+  description: roadRouteVersions.description,
+  mode: roadRouteVersions.mode,
+  coordinates: roadRouteVersions.coordinates,
+  stops: roadRouteVersions.stops,
+  speedLimits: roadRouteVersions.speedLimits,
+  defaultSpeedLimitKph: roadRouteVersions.defaultSpeedLimitKph,
+  tripsPerDay: roadRouteVersions.tripsPerDay,
+  serviceDaysPerYear: roadRouteVersions.serviceDaysPerYear,
+  lengthM: roadRouteVersions.lengthM,
+  createdById: roadRouteVersions.createdById,
+  createdByName: roadRouteVersions.createdByName,
+  createdAt: roadRouteVersions.createdAt,
+};
+export type RouteVersion = Omit<RoadRouteVersionRow, 'geometry'>;
+
+export type NewRouteVersion = Omit<RouteVersion, 'id' | 'createdAt' | 'routeId' | 'version'>;
+
+export async function insertRoute(db: Executor, values: { createdById: string | null; seedKey?: string | null }) {
+  const [row] = await db
+    .insert(roadRoutes)
+    .values({ createdById: values.createdById, seedKey: values.seedKey ?? null, currentVersion: 1 })
+    .returning();
+  return row!;
+}
+
+export async function insertVersion(db: Executor, routeId: string, version: number, values: NewRouteVersion): Promise<RouteVersion> {
+  const geometry: LineString = flatten({ type: 'LineString', coordinates: values.coordinates });
+  const [row] = await db
+    .insert(roadRouteVersions)
+    .values({ ...values, routeId, version, geometry })
+    .returning(versionColumns);
+  return row!;
+}
+
+/** Locks the route row for a new version, so two saves cannot both become version n + 1. */
+export async function lockRoute(db: Executor, routeId: string): Promise<RoadRouteRow | undefined> {
+  const [row] = await db.select().from(roadRoutes).where(eq(roadRoutes.id, routeId)).for('update');
+  return row;
+}
+
+export async function setCurrentVersion(db: Executor, routeId: string, version: number) {
+  await db.update(roadRoutes).set({ currentVersion: version }).where(eq(roadRoutes.id, routeId));
+}
+
+export async function findRoute(db: Executor, routeId: string) {
+  const [row] = await db.select().from(roadRoutes).where(eq(roadRoutes.id, routeId));
+  return row;
+}
+
+export async function findRouteBySeedKey(db: Executor, seedKey: string) {
+  const [row] = await db.select().from(roadRoutes).where(eq(roadRoutes.seedKey, seedKey));
+  return row;
+}
+
+export async function findVersion(db: Executor, routeId: string, version: number): Promise<RouteVersion | undefined> {
+  const [row] = await db
+    .select(versionColumns)
+    .from(roadRouteVersions)
+    .where(and(eq(roadRouteVersions.routeId, routeId), eq(roadRouteVersions.version, version)));
+  return row;
+}
+
+export function listVersions(db: Executor, routeId: string) {
+  return db
+    .select({
+      version: roadRouteVersions.version,
+      versionId: roadRouteVersions.id,
+      lengthM: roadRouteVersions.lengthM,
+      createdBy: roadRouteVersions.createdByName,
+      createdAt: roadRouteVersions.createdAt,
+    })
+    .from(roadRouteVersions)
+    .where(eq(roadRouteVersions.routeId, routeId))
+    .orderBy(desc(roadRouteVersions.version));
+}
+
+export async function deleteRoute(db: Executor, routeId: string) {
+  await db.delete(roadRoutes).where(eq(roadRoutes.id, routeId));
+}
+
+export async function countScenariosUsingRoute(db: Executor, routeId: string): Promise<number> {
+  const [row] = await db.select({ n: sql<number>`count(*)::int` }).from(scenarios).where(eq(scenarios.routeId, routeId));
+  return row?.n ?? 0;
+}
+
+const scenarioCount = sql<number>`(select count(*)::int from ${scenarios} where ${scenarios.routeId} = ${roadRoutes.id})`;
+
+/** Current versions of the routes matching the query, with the total count before paging. */
+export async function listRoutes(db: Executor, query: RouteListQuery): Promise<{ items: RoadRouteSummary[]; total: number }> {
+  const conditions: SQL[] = [];
+  if (query.q) {
+    const pattern = `%${query.q.replace(/[\\%_]/g, (c) => `\\${c}`)}%`;
+    conditions.push(or(ilike(roadRouteVersions.name, pattern), ilike(roadRouteVersions.description, pattern))!);
+  }
+  const where = and(eq(roadRouteVersions.version, roadRoutes.currentVersion), ...conditions);
+  const sortColumn = {
+    name: roadRouteVersions.name,
+    updatedAt: roadRoutes.updatedAt,
+    lengthM: roadRouteVersions.lengthM,
+    tripsPerDay: roadRouteVersions.tripsPerDay,
+  }[query.sort];
+  const direction = query.order === 'desc' ? desc : asc;
+  const base = db
+    .select({
+      id: roadRoutes.id,
+      name: roadRouteVersions.name,
+      mode: roadRouteVersions.mode,
+      version: roadRouteVersions.version,
+      lengthM: roadRouteVersions.lengthM,
+      stopCount: sql<number>`jsonb_array_length(${roadRouteVersions.stops})`,
+      tripsPerDay: roadRouteVersions.tripsPerDay,
+      scenarioCount,
+      updatedAt: roadRoutes.updatedAt,
+    })
+    .from(roadRoutes)
+    .innerJoin(roadRouteVersions, eq(roadRouteVersions.routeId, roadRoutes.id))
+    .where(where)
+    .orderBy(direction(sortColumn), asc(roadRoutes.id))
+    .$dynamic();
+  const rows = query.page ? await base.limit(query.pageSize).offset((query.page - 1) * query.pageSize) : await base;
+  const [count] = await db
+    .select({ n: sql<number>`count(*)::int` })
+    .from(roadRoutes)
+    .innerJoin(roadRouteVersions, eq(roadRouteVersions.routeId, roadRoutes.id))
+    .where(where);
+  return {
+    items: rows.map((row) => ({ ...row, updatedAt: row.updatedAt.toISOString() })),
+    total: count?.n ?? 0,
+  };
+}
+
+/** The API shape of one version of a route. */
+export function toRoadRoute(version: RouteVersion, updatedAt: Date = version.createdAt): RoadRoute {
+  return {
+    id: version.routeId,
+    version: version.version,
+    versionId: version.id,
+    name: version.name,
+    description: version.description,
+    mode: version.mode,
+    geometry: { type: 'LineString', coordinates: version.coordinates },
+    stops: version.stops,
+    speedLimits: version.speedLimits,
+    defaultSpeedLimitKph: version.defaultSpeedLimitKph,
+    tripsPerDay: version.tripsPerDay,
+    serviceDaysPerYear: version.serviceDaysPerYear,
+    lengthM: version.lengthM,
+    createdBy: version.createdByName,
+    updatedAt: updatedAt.toISOString(),
+  };
+}

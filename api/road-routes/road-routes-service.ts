@@ -1,0 +1,116 @@
+import type { User } from '@shared/domain/auth';
+import type { RoadRoute, RoadRouteDraft } from '@shared/domain/road-routes';
+import type { Database, Executor } from '../db/client';
+import { BadRequestError, ConflictError, NotFoundError } from '../http/http-error';
+import * as repository from './road-routes-repository';
+import { clipSpeedLimits, lineLengthM, placeStops, StopOffLineError } from './route-geometry';
+
+/** Shortest route the engine can analyse meaningfully, m (common practice: a few spacings). */
+const MIN_ROUTE_LENGTH_M = 20;
+
+/** Who saves: a signed-in person, or the demo seed (no account). */
+export interface Author {
+  id: string | null;
+  name: string;
+}
+
+export function authorOf(user: User): Author {
+  return { id: user.id, name: user.name };
+}
+
+/** Turns a draft into the stored content of a version: length, placed stops, clipped stretches. */
+export function prepareVersion(draft: RoadRouteDraft, author: Author): repository.NewRouteVersion {
+  const lengthM = lineLengthM(draft.geometry.coordinates);
+  if (!(lengthM >= MIN_ROUTE_LENGTH_M)) {
+    throw new BadRequestError(`geometry: the route is ${lengthM.toFixed(1)} m long; it needs at least ${MIN_ROUTE_LENGTH_M} m`, {
+      field: 'geometry',
+    });
+  }
+  let stops;
+  try {
+    stops = placeStops(draft.geometry.coordinates, draft.stops);
+  } catch (error) {
+    // A stop off the line is the planner's input to fix, not a server fault.
+    if (error instanceof StopOffLineError) {
+      throw new BadRequestError(error.message, { field: `stops.${error.index}`, stop: error.stopName, offsetM: error.offsetM });
+    }
+    throw error;
+  }
+  return {
+    name: draft.name,
+    description: draft.description,
+    mode: draft.mode,
+    coordinates: draft.geometry.coordinates,
+    stops,
+    speedLimits: clipSpeedLimits(draft.speedLimits, lengthM),
+    defaultSpeedLimitKph: draft.defaultSpeedLimitKph,
+    tripsPerDay: draft.tripsPerDay,
+    serviceDaysPerYear: draft.serviceDaysPerYear,
+    lengthM,
+    createdById: author.id,
+    createdByName: author.name,
+  };
+}
+
+/** Creates a route with its version 1. */
+export async function createRoute(db: Executor, author: Author, draft: RoadRouteDraft, seedKey?: string): Promise<RoadRoute> {
+  const content = prepareVersion(draft, author);
+  const run = async (tx: Executor) => {
+    const route = await repository.insertRoute(tx, { createdById: author.id, seedKey });
+    const version = await repository.insertVersion(tx, route.id, 1, content);
+    return repository.toRoadRoute(version, route.updatedAt);
+  };
+  return (db as Database).transaction(run);
+}
+
+/** Creates several routes at once: all or none. */
+export async function createRoutes(db: Database, author: Author, drafts: RoadRouteDraft[]): Promise<RoadRoute[]> {
+  const contents = drafts.map((draft) => prepareVersion(draft, author));
+  return db.transaction(async (tx) => {
+    const saved: RoadRoute[] = [];
+    for (const content of contents) {
+      const route = await repository.insertRoute(tx, { createdById: author.id });
+      const version = await repository.insertVersion(tx, route.id, 1, content);
+      saved.push(repository.toRoadRoute(version, route.updatedAt));
+    }
+    return saved;
+  });
+}
+
+/** Saves a new version; earlier versions stay as they were (scenarios may point at them). */
+export async function saveVersion(db: Database, author: Author, routeId: string, draft: RoadRouteDraft): Promise<RoadRoute> {
+  const content = prepareVersion(draft, author);
+  return db.transaction(async (tx) => {
+    const route = await repository.lockRoute(tx, routeId);
+    if (!route) throw new NotFoundError('The route');
+    const next = route.currentVersion + 1;
+    const version = await repository.insertVersion(tx, routeId, next, content);
+    await repository.setCurrentVersion(tx, routeId, next);
+    return repository.toRoadRoute(version);
+  });
+}
+
+export async function getRoute(db: Executor, routeId: string, version?: number): Promise<RoadRoute> {
+  const route = await repository.findRoute(db, routeId);
+  if (!route) throw new NotFoundError('The route');
+  const wanted = version ?? route.currentVersion;
+  const row = await repository.findVersion(db, routeId, wanted);
+  if (!row) throw new NotFoundError(`Version ${wanted} of the route`);
+  return repository.toRoadRoute(row, version === undefined ? route.updatedAt : row.createdAt);
+}
+
+export async function deleteRoute(db: Database, routeId: string): Promise<void> {
+  await db.transaction(async (tx) => {
+    const route = await repository.lockRoute(tx, routeId);
+    if (!route) throw new NotFoundError('The route');
+    const used = await repository.countScenariosUsingRoute(tx, routeId);
+    if (used > 0) {
+      throw new ConflictError(
+        `The route is used by ${used} scenario${used === 1 ? '' : 's'}; delete or move ${used === 1 ? 'it' : 'them'} first`,
+        'route_in_use',
+        { scenarioCount: used },
+      );
+    }
+    await repository.deleteRoute(tx, routeId);
+  });
+}

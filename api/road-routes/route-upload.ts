@@ -1,0 +1,46 @@
+import type { RequestHandler } from 'express';
+import multer from 'multer';
+import { BadRequestError, HttpError } from '../http/http-error';
+
+/** Largest route, GTFS or road-network file accepted, bytes (common practice: a feed of a mid-size network fits in 50 MB). */
+export const ROUTE_FILE_MAX_BYTES = 50 * 1024 * 1024;
+
+const upload = multer({ storage: multer.memoryStorage(), limits: { fileSize: ROUTE_FILE_MAX_BYTES, files: 1, fields: 10 } });
+
+/**
+ * Reads one multipart `file` into memory (route files are small; terrain uploads stream to disk
+ * elsewhere). Upload problems become 4xx answers: too large → 413, anything else → 400.
+ */
+export function singleFileUpload(): RequestHandler {
+  const middleware = upload.single('file');
+  return (req, res, next) => {
+    middleware(req, res, (error: unknown) => {
+      if (!error) return next();
+      if (error instanceof multer.MulterError) {
+        if (error.code === 'LIMIT_FILE_SIZE') {
+          return next(new HttpError(413, 'file_too_large', `The file is larger than ${ROUTE_FILE_MAX_BYTES / 1024 / 1024} MB`));
+        }
+        return next(new BadRequestError(`Upload refused: ${error.message}${error.field ? ` (field ${error.field})` : ''}`));
+      }
+      next(error);
+    });
+  };
+}
+
+/** The uploaded file, or a 400 naming the missing field. */
+export function requireFile(file: Express.Multer.File | undefined): Express.Multer.File {
+  if (!file) throw new BadRequestError('file: attach the file as multipart/form-data field "file"', { field: 'file' });
+  return file;
+}
+
+/** A safe attachment file name from a display name. */
+export function attachmentName(name: string, extension: string): string {
+  const slug = name
+    .normalize('NFKD')
+    .replace(/[^\w\s-]/g, '')
+    .trim()
+    .replace(/\s+/g, '-')
+    .toLowerCase()
+    .slice(0, 80);
+  return `${slug || 'export'}.${extension}`;
+}
