@@ -1,4 +1,5 @@
 import type { Routes } from '@angular/router';
+import { ROLES } from '@shared/domain/roles';
 import { areaData } from './core/areas';
 import { areaRoleGuard, signedInGuard } from './core/role-guard';
 
@@ -41,6 +42,35 @@ export const routes: Routes = [
         pathMatch: 'full',
         title: 'Home · Descentry',
         loadComponent: () => import('./home/home'),
+      },
+      {
+        path: 'reviews',
+        title: 'Descent review · Descentry',
+        canMatch: [areaRoleGuard],
+        data: areaData({
+          label: 'Descent review',
+          icon: 'fact_check',
+          summary: 'Long, steep descents where the brakes may fade: acknowledge, mitigate or accept each one.',
+          roles: ['safety', 'planner', 'analyst', 'board', 'admin'],
+          group: 'Safety',
+        }),
+        loadComponent: () => import('./reviews/review-queue'),
+      },
+      {
+        path: 'reviews/:reviewId',
+        title: 'Descent review item · Descentry',
+        loadComponent: () => import('./reviews/review-detail'),
+      },
+      {
+        path: 'routes',
+        canMatch: [areaRoleGuard],
+        data: areaData({
+          label: 'Routes',
+          icon: 'route',
+          summary: 'Draw and edit routes on the terrain map, with stops, speed limits and versions; import and export them.',
+          roles: ROLES,
+        }),
+        loadChildren: () => import('./road-routes/road-routes.routes'),
       },
       {
         path: 'admin/people',

@@ -1,0 +1,147 @@
+import { ChangeDetectionStrategy, Component, computed, inject, input, output, signal } from '@angular/core';
+import { toSignal } from '@angular/core/rxjs-interop';
+import { ReactiveFormsModule } from '@angular/forms';
+import { MatButtonModule } from '@angular/material/button';
+import { MatCheckboxModule } from '@angular/material/checkbox';
+import { MatFormFieldModule } from '@angular/material/form-field';
+import { MatIconModule } from '@angular/material/icon';
+import { MatInputModule } from '@angular/material/input';
+import { MatProgressBarModule } from '@angular/material/progress-bar';
+import { MatSlideToggleModule } from '@angular/material/slide-toggle';
+import {
+  allowedReviewActions,
+  type ReviewAction,
+  type ReviewItem,
+  type ReviewTransitionRequest,
+  type ReviewTransitionResult,
+} from '@shared/domain/reviews';
+import { describeApiError } from '../core/api-error-message';
+import {
+  ACCEPT_REASON_MIN_LENGTH,
+  acceptForm,
+  acceptRequest,
+  mitigateRequest,
+  mitigationForm,
+  reopenForm,
+  reopenRequest,
+} from './review-transition-forms';
+import { ReviewsApi } from './reviews-api';
+
+/** What a button does, in the words the safety officer reads. */
+const ACTION_LABELS: Readonly<Record<ReviewAction, { label: string; icon: string; hint: string }>> = {
+  acknowledge: {
+    label: 'Acknowledge',
+    icon: 'visibility',
+    hint: 'You have seen this descent and are looking into it.',
+  },
+  mitigate: {
+    label: 'Record mitigation',
+    icon: 'shield',
+    hint: 'Write down the measure taken; Descentry can re-run the scenario with it to show the new risk.',
+  },
+  accept: {
+    label: 'Accept risk',
+    icon: 'task_alt',
+    hint: 'The risk stays as it is, for a reason you give.',
+  },
+  reopen: {
+    label: 'Reopen',
+    icon: 'replay',
+    hint: 'The decision needs another look.',
+  },
+};
+
+/** The safety officer's moves on one review item; shown only to safety officers. */
+@Component({
+  selector: 'app-review-actions',
+  imports: [
+    ReactiveFormsModule,
+    MatButtonModule,
+    MatCheckboxModule,
+    MatFormFieldModule,
+    MatIconModule,
+    MatInputModule,
+    MatProgressBarModule,
+    MatSlideToggleModule,
+  ],
+  templateUrl: './review-actions.html',
+  styleUrl: './review-actions.scss',
+  changeDetection: ChangeDetectionStrategy.OnPush,
+})
+export class ReviewActions {
+  private readonly reviewsApi = inject(ReviewsApi);
+
+  readonly item = input.required<ReviewItem>();
+  /** Emits the server's answer after a move: the updated item and the audit event written. */
+  readonly transitioned = output<{ result: ReviewTransitionResult; rerunRequested: boolean }>();
+
+  protected readonly actionLabels = ACTION_LABELS;
+  protected readonly acceptMinLength = ACCEPT_REASON_MIN_LENGTH;
+  protected readonly allowed = computed(() => allowedReviewActions(this.item().state));
+  /** The form open below the buttons, if any. */
+  protected readonly openForm = signal<Exclude<ReviewAction, 'acknowledge'> | null>(null);
+  protected readonly busy = signal(false);
+  protected readonly error = signal<string | null>(null);
+
+  protected readonly mitigation = mitigationForm();
+  protected readonly accept = acceptForm();
+  protected readonly reopen = reopenForm();
+  /** Whether the mitigation form has been submitted once (show the "name a measure" message). */
+  protected readonly mitigationTried = signal(false);
+  private readonly mitigationStatus = toSignal(this.mitigation.statusChanges, { initialValue: this.mitigation.status });
+  protected readonly showNoMeasure = computed(
+    () => this.mitigationTried() && this.mitigationStatus() === 'INVALID' && this.mitigation.hasError('noMeasure'),
+  );
+
+  protected choose(action: ReviewAction): void {
+    this.error.set(null);
+    if (action === 'acknowledge') {
+      void this.send({ action: 'acknowledge' });
+      return;
+    }
+    this.openForm.set(this.openForm() === action ? null : action);
+  }
+
+  protected cancel(): void {
+    this.openForm.set(null);
+    this.error.set(null);
+  }
+
+  protected submitMitigation(): void {
+    this.mitigationTried.set(true);
+    this.mitigation.markAllAsTouched();
+    if (this.mitigation.invalid) return;
+    void this.send(mitigateRequest(this.mitigation));
+  }
+
+  protected submitAccept(): void {
+    this.accept.markAllAsTouched();
+    if (this.accept.invalid) return;
+    void this.send(acceptRequest(this.accept));
+  }
+
+  protected submitReopen(): void {
+    this.reopen.markAllAsTouched();
+    if (this.reopen.invalid) return;
+    void this.send(reopenRequest(this.reopen));
+  }
+
+  private async send(request: ReviewTransitionRequest): Promise<void> {
+    this.busy.set(true);
+    this.error.set(null);
+    try {
+      const result = await this.reviewsApi.transition(this.item().id, request);
+      this.transitioned.emit({ result, rerunRequested: request.action === 'mitigate' && request.rerun });
+      this.openForm.set(null);
+      this.mitigation.reset();
+      this.mitigationTried.set(false);
+      this.accept.reset();
+      this.reopen.reset();
+    } catch (error: unknown) {
+      // Expected: 409 when someone else moved the item first, 400 on a refused form, network errors.
+      this.error.set(describeApiError(error));
+    } finally {
+      this.busy.set(false);
+    }
+  }
+}

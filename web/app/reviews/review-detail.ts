@@ -1,0 +1,257 @@
+import {
+  ChangeDetectionStrategy,
+  Component,
+  DestroyRef,
+  computed,
+  effect,
+  inject,
+  input,
+  signal,
+  untracked,
+} from '@angular/core';
+import { MatButtonModule } from '@angular/material/button';
+import { MatIconModule } from '@angular/material/icon';
+import { MatProgressBarModule } from '@angular/material/progress-bar';
+import { MatSnackBar } from '@angular/material/snack-bar';
+import { RouterLink } from '@angular/router';
+import { REVIEW_STATE_LABELS, type AuditEvent, type ReviewDetail, type ReviewItem } from '@shared/domain/reviews';
+import { BRAKE_RISK_BANDS_C } from '@shared/engine/descents';
+import { DistanceChart, withAlpha, type ChartBand, type ChartSeries } from '../charts/distance-chart';
+import { describeApiError } from '../core/api-error-message';
+import { Session } from '../core/session';
+import { TerrainMap, type MapOverlay, type MapPosition } from '../map/terrain-map';
+import { EngineeringCaution } from '../ui/engineering-caution';
+import { RiskChip } from '../ui/risk-chip';
+import { RISK_STYLES, riskRank } from '../ui/risk-level';
+import { QuantityPipe } from '../units/quantity-pipe';
+import { toDisplay, unitLabel } from '../units/unit-format';
+import { UnitPreference } from '../units/unit-preference';
+import { AuditTrail } from './audit-trail';
+import { describeMitigation } from './audit-details';
+import { describeDescentAdvice } from './descent-advice';
+import { ReviewActions } from './review-actions';
+import { DIRECTION_LABELS } from './direction-labels';
+import { ReviewStateChip } from './review-state-chip';
+import { ReviewsApi } from './reviews-api';
+
+type LoadState = { status: 'loading' } | { status: 'error'; message: string } | { status: 'ready' };
+
+/** How often the page asks whether a mitigation re-run has finished, and for how long. */
+export const RERUN_POLL_INTERVAL_MS = 1_500;
+const RERUN_POLL_LIMIT = 60;
+
+/** One descent under review: where it is, how hot the brakes get, what to do, and who did what. */
+@Component({
+  selector: 'app-review-detail',
+  imports: [
+    RouterLink,
+    MatButtonModule,
+    MatIconModule,
+    MatProgressBarModule,
+    TerrainMap,
+    DistanceChart,
+    EngineeringCaution,
+    RiskChip,
+    ReviewStateChip,
+    ReviewActions,
+    AuditTrail,
+    QuantityPipe,
+  ],
+  templateUrl: './review-detail.html',
+  styleUrl: './review-detail.scss',
+  changeDetection: ChangeDetectionStrategy.OnPush,
+})
+export default class ReviewDetailPage {
+  private readonly reviewsApi = inject(ReviewsApi);
+  private readonly session = inject(Session);
+  private readonly snackBar = inject(MatSnackBar);
+
+  /** From the `:reviewId` route parameter (withComponentInputBinding). */
+  readonly reviewId = input.required<string>();
+
+  protected readonly units = inject(UnitPreference).system;
+  protected readonly riskStyles = RISK_STYLES;
+  protected readonly stateLabels = REVIEW_STATE_LABELS;
+  protected readonly directionLabels = DIRECTION_LABELS;
+  protected readonly canAct = computed(() => this.session.role() === 'safety');
+
+  protected readonly loadState = signal<LoadState>({ status: 'loading' });
+  protected readonly detail = signal<ReviewDetail | null>(null);
+  protected readonly item = signal<ReviewItem | null>(null);
+  protected readonly events = signal<AuditEvent[]>([]);
+  /** Whether a mitigation re-run has been asked for and its result is not back yet. */
+  protected readonly awaitingRerun = signal(false);
+  protected readonly cursorX = signal<number | null>(null);
+
+  protected readonly advice = computed(() => {
+    const item = this.item();
+    return item ? describeDescentAdvice(item, this.units()) : null;
+  });
+  protected readonly mitigationLines = computed(() => {
+    const mitigation = this.item()?.mitigation;
+    return mitigation ? describeMitigation(mitigation) : [];
+  });
+  protected readonly rerunImproved = computed(() => {
+    const item = this.item();
+    if (!item?.mitigatedRisk) return null;
+    return riskRank(item.mitigatedRisk) < riskRank(item.risk);
+  });
+
+  protected readonly mapLine = computed<readonly MapPosition[]>(() => {
+    const geometry = this.detail()?.geometry;
+    return geometry ? geometry.coordinates.map(([lon, lat]) => [lon, lat] as const) : [];
+  });
+  protected readonly overlays = computed<MapOverlay[]>(() => {
+    const line = this.mapLine();
+    const item = this.item();
+    if (line.length < 2 || !item) return [];
+    const color = RISK_STYLES[item.risk].accent;
+    return [
+      { kind: 'line', id: 'casing', positions: line, color: '#ffffff', weight: 10, opacity: 0.9 },
+      { kind: 'line', id: 'descent', positions: line, color, weight: 6, label: `Descent on ${item.routeName}` },
+      { kind: 'pin', id: 'top', at: line[0]!, color: '#0b5567', label: 'Top of the descent' },
+      { kind: 'pin', id: 'bottom', at: line[line.length - 1]!, color: color, label: 'Bottom of the descent' },
+    ];
+  });
+  protected readonly mapHighlight = computed<MapPosition | null>(() => {
+    const x = this.cursorX();
+    const profile = this.detail()?.profile;
+    const line = this.mapLine();
+    // The map line and the profile share points only when the API sends one position per sample.
+    if (x === null || !profile || line.length !== profile.distanceM.length) return null;
+    const index = nearestIndex(profile.distanceM.map((m) => toDisplay('distance', m, this.units())), x);
+    return line[index] ?? null;
+  });
+
+  protected readonly distanceLabel = computed(() => `Distance along the route (${unitLabel('distance', this.units())})`);
+  protected readonly elevationSeries = computed<ChartSeries[]>(() => {
+    const profile = this.detail()?.profile;
+    if (!profile) return [];
+    const units = this.units();
+    return [
+      {
+        label: `Elevation (${unitLabel('elevation', units)})`,
+        x: profile.distanceM.map((m) => toDisplay('distance', m, units)),
+        y: profile.elevationM.map((m) => toDisplay('elevation', m, units)),
+        color: '#0b5567',
+        fill: true,
+      },
+    ];
+  });
+  protected readonly temperatureSeries = computed<ChartSeries[]>(() => {
+    const profile = this.detail()?.profile;
+    const item = this.item();
+    if (!profile || !item) return [];
+    const units = this.units();
+    const x = profile.distanceM.map((m) => toDisplay('distance', m, units));
+    const fade = toDisplay('temperature', item.fadeThresholdC, units);
+    return [
+      {
+        label: 'Brake heat model',
+        x,
+        y: profile.brakeTempC.map((c) => toDisplay('temperature', c, units)),
+        color: '#b3261e',
+      },
+      {
+        label: 'FHWA GSRS estimate',
+        x,
+        y: profile.gsrsBrakeTempC.map((c) => toDisplay('temperature', c, units)),
+        color: '#5b3f8c',
+        dashed: true,
+      },
+      {
+        label: 'Fade threshold',
+        x: [x[0] ?? 0, x[x.length - 1] ?? 0],
+        y: [fade, fade],
+        color: '#1a1c1e',
+        dashed: true,
+      },
+    ];
+  });
+  protected readonly temperatureBands = computed<ChartBand[]>(() => {
+    const item = this.item();
+    if (!item) return [];
+    const units = this.units();
+    const bands = Object.values(BRAKE_RISK_BANDS_C).find((candidate) => candidate.high === item.fadeThresholdC);
+    if (!bands) return [];
+    const t = (c: number) => toDisplay('temperature', c, units);
+    return [
+      { from: t(bands.elevated), to: t(bands.high), color: withAlpha(RISK_STYLES.elevated.accent, 0.14), label: 'Elevated' },
+      { from: t(bands.high), to: t(bands.critical), color: withAlpha(RISK_STYLES.high.accent, 0.16), label: 'High: brakes fade' },
+      { from: t(bands.critical), to: t(bands.critical + 1_000), color: withAlpha(RISK_STYLES.critical.accent, 0.16), label: 'Critical' },
+    ];
+  });
+
+  private pollTimer: ReturnType<typeof setTimeout> | null = null;
+
+  constructor() {
+    effect(() => {
+      const reviewId = this.reviewId();
+      untracked(() => void this.load(reviewId));
+    });
+    inject(DestroyRef).onDestroy(() => this.stopPolling());
+  }
+
+  protected async load(reviewId = this.reviewId()): Promise<void> {
+    this.stopPolling();
+    this.loadState.set({ status: 'loading' });
+    try {
+      const [detail, events] = await Promise.all([this.reviewsApi.get(reviewId), this.reviewsApi.events(reviewId)]);
+      this.detail.set(detail);
+      this.item.set(detail.item);
+      this.events.set(events);
+      this.loadState.set({ status: 'ready' });
+    } catch (error: unknown) {
+      // Expected: unknown id (404), server unreachable, or an answer that fails the shared schema.
+      this.loadState.set({ status: 'error', message: describeApiError(error) });
+    }
+  }
+
+  protected applyTransition(change: { result: { item: ReviewItem; event: AuditEvent }; rerunRequested: boolean }): void {
+    const { item, event } = change.result;
+    this.item.set(item);
+    this.events.update((events) => [...events.filter((existing) => existing.id !== event.id), event]);
+    this.snackBar.open(`Saved: the item is now “${REVIEW_STATE_LABELS[item.state]}”.`, 'OK');
+    if (change.rerunRequested && item.mitigatedRisk === null) {
+      this.awaitingRerun.set(true);
+      this.pollRerun(item.id, 0);
+    }
+  }
+
+  protected hover(x: number | null): void {
+    this.cursorX.set(x);
+  }
+
+  /** Asks again until the re-run's risk is in (a queued scenario run can take a few seconds). */
+  private pollRerun(reviewId: string, attempt: number): void {
+    this.pollTimer = setTimeout(async () => {
+      try {
+        const detail = await this.reviewsApi.get(reviewId);
+        if (detail.item.mitigatedRisk !== null || attempt + 1 >= RERUN_POLL_LIMIT) {
+          this.detail.set(detail);
+          this.item.set(detail.item);
+          this.events.set(await this.reviewsApi.events(reviewId));
+          this.awaitingRerun.set(false);
+          return;
+        }
+      } catch {
+        // Expected now and then (a dropped connection); the interceptor has said so. Keep asking.
+      }
+      this.pollRerun(reviewId, attempt + 1);
+    }, RERUN_POLL_INTERVAL_MS);
+  }
+
+  private stopPolling(): void {
+    if (this.pollTimer !== null) clearTimeout(this.pollTimer);
+    this.pollTimer = null;
+    this.awaitingRerun.set(false);
+  }
+}
+
+function nearestIndex(values: readonly number[], target: number): number {
+  let best = 0;
+  for (let i = 1; i < values.length; i++) {
+    if (Math.abs(values[i]! - target) < Math.abs(values[best]! - target)) best = i;
+  }
+  return best;
+}

@@ -1,0 +1,177 @@
+import { DatePipe } from '@angular/common';
+import { ChangeDetectionStrategy, Component, computed, effect, inject, signal, viewChild } from '@angular/core';
+import { toSignal } from '@angular/core/rxjs-interop';
+import { FormControl, FormGroup, ReactiveFormsModule } from '@angular/forms';
+import { MatButtonModule } from '@angular/material/button';
+import { MatFormFieldModule } from '@angular/material/form-field';
+import { MatIconModule } from '@angular/material/icon';
+import { MatPaginator, MatPaginatorModule } from '@angular/material/paginator';
+import { MatProgressBarModule } from '@angular/material/progress-bar';
+import { MatSelectModule } from '@angular/material/select';
+import { MatSort, MatSortModule } from '@angular/material/sort';
+import { MatTableDataSource, MatTableModule } from '@angular/material/table';
+import { ActivatedRoute, Router, RouterLink } from '@angular/router';
+import type { RiskLevel } from '@shared/domain/analysis';
+import { REVIEW_STATES, REVIEW_STATE_LABELS, type ReviewItem, type ReviewState } from '@shared/domain/reviews';
+import { describeApiError } from '../core/api-error-message';
+import { Session } from '../core/session';
+import { EngineeringCaution } from '../ui/engineering-caution';
+import { RiskChip } from '../ui/risk-chip';
+import { RISK_LEVELS, RISK_STYLES, riskRank } from '../ui/risk-level';
+import { QuantityPipe } from '../units/quantity-pipe';
+import { UnitPreference } from '../units/unit-preference';
+import {
+  countByState,
+  filterFromQuery,
+  matchesReviewFilter,
+  NO_REVIEW_FILTER,
+  routeOptions,
+  vehicleOptions,
+  type ReviewFilter,
+} from './review-filter';
+import { DIRECTION_LABELS } from './direction-labels';
+import { ReviewStateChip } from './review-state-chip';
+import { ReviewsApi } from './reviews-api';
+
+type LoadState = { status: 'loading' } | { status: 'error'; message: string } | { status: 'ready' };
+
+/** Every descent at "elevated" risk or worse, to review; safety officers act, others read. */
+@Component({
+  selector: 'app-review-queue',
+  imports: [
+    DatePipe,
+    RouterLink,
+    ReactiveFormsModule,
+    MatTableModule,
+    MatSortModule,
+    MatPaginatorModule,
+    MatFormFieldModule,
+    MatSelectModule,
+    MatButtonModule,
+    MatIconModule,
+    MatProgressBarModule,
+    EngineeringCaution,
+    RiskChip,
+    ReviewStateChip,
+    QuantityPipe,
+  ],
+  templateUrl: './review-queue.html',
+  styleUrl: './review-queue.scss',
+  changeDetection: ChangeDetectionStrategy.OnPush,
+})
+export default class ReviewQueue {
+  private readonly reviewsApi = inject(ReviewsApi);
+  private readonly router = inject(Router);
+  private readonly activatedRoute = inject(ActivatedRoute);
+  private readonly session = inject(Session);
+
+  private readonly sort = viewChild.required(MatSort);
+  private readonly paginator = viewChild.required(MatPaginator);
+
+  protected readonly units = inject(UnitPreference).system;
+  protected readonly riskLevels = RISK_LEVELS;
+  protected readonly riskStyles = RISK_STYLES;
+  protected readonly states = REVIEW_STATES;
+  protected readonly stateLabels = REVIEW_STATE_LABELS;
+  protected readonly columns = ['risk', 'route', 'vehicle', 'stretch', 'drop', 'grade', 'peakBrakeTemp', 'state', 'updatedAt'];
+  protected readonly isSafetyOfficer = computed(() => this.session.role() === 'safety');
+
+  protected readonly filterForm = new FormGroup({
+    risk: new FormControl<RiskLevel | ''>('', { nonNullable: true }),
+    state: new FormControl<ReviewState | ''>('', { nonNullable: true }),
+    routeId: new FormControl('', { nonNullable: true }),
+    vehicleProfileId: new FormControl('', { nonNullable: true }),
+  });
+  private readonly filter = toSignal(this.filterForm.valueChanges, {
+    initialValue: NO_REVIEW_FILTER as Partial<ReviewFilter>,
+  });
+  private readonly fullFilter = computed<ReviewFilter>(() => ({ ...NO_REVIEW_FILTER, ...this.filter() }));
+
+  protected readonly items = signal<ReviewItem[]>([]);
+  protected readonly loadState = signal<LoadState>({ status: 'loading' });
+  protected readonly visibleItems = computed(() => {
+    const filter = this.fullFilter();
+    return this.items().filter((item) => matchesReviewFilter(item, filter));
+  });
+  protected readonly stateCounts = computed(() => countByState(this.items(), this.fullFilter()));
+  protected readonly routes = computed(() => routeOptions(this.items()));
+  protected readonly vehicles = computed(() => vehicleOptions(this.items()));
+  protected readonly dataSource = new MatTableDataSource<ReviewItem>([]);
+
+  constructor() {
+    const initial = filterFromQuery(this.activatedRoute.snapshot.queryParams as Record<string, string>);
+    this.filterForm.setValue(initial);
+
+    this.dataSource.sortingDataAccessor = (item, column) => sortValue(item, column);
+    // MatTableDataSource is not signal-based: hand it the sort, the pager and the filtered rows.
+    effect(() => {
+      this.dataSource.sort = this.sort();
+      this.dataSource.paginator = this.paginator();
+      this.dataSource.data = this.visibleItems();
+    });
+    this.filterForm.valueChanges.subscribe((filter) => {
+      this.paginator().firstPage();
+      // Keep the filter in the address so a filtered queue can be bookmarked or shared.
+      const queryParams = Object.fromEntries(Object.entries(filter).map(([key, value]) => [key, value || null]));
+      void this.router.navigate([], { queryParams, replaceUrl: true });
+    });
+    void this.load();
+  }
+
+  protected async load(): Promise<void> {
+    this.loadState.set({ status: 'loading' });
+    try {
+      this.items.set(await this.reviewsApi.list());
+      this.loadState.set({ status: 'ready' });
+    } catch (error: unknown) {
+      // Expected: server unreachable or an answer that fails the shared schema.
+      this.loadState.set({ status: 'error', message: describeApiError(error) });
+    }
+  }
+
+  protected showState(state: ReviewState | ''): void {
+    this.filterForm.controls.state.setValue(this.filterForm.controls.state.value === state ? '' : state);
+  }
+
+  protected raisedLabel(item: ReviewItem): string {
+    return `raised as ${RISK_STYLES[item.raisedRisk].label.toLowerCase()}`;
+  }
+
+  protected directionLabel(item: ReviewItem): string {
+    return DIRECTION_LABELS[item.direction];
+  }
+
+  protected open(item: ReviewItem): void {
+    void this.router.navigate(['/reviews', item.id]);
+  }
+
+  protected clearFilter(): void {
+    this.filterForm.reset();
+  }
+}
+
+function sortValue(item: ReviewItem, column: string): string | number {
+  switch (column) {
+    case 'risk':
+      return riskRank(item.risk);
+    case 'route':
+      return item.routeName.toLowerCase();
+    case 'vehicle':
+      return item.vehicleProfileName.toLowerCase();
+    case 'stretch':
+      return item.startM;
+    case 'drop':
+      return item.dropM;
+    case 'grade':
+      // Steepest first when descending: grades are negative downhill.
+      return -item.meanGradePercent;
+    case 'peakBrakeTemp':
+      return item.peakBrakeTempC;
+    case 'state':
+      return REVIEW_STATES.indexOf(item.state);
+    case 'updatedAt':
+      return Date.parse(item.updatedAt);
+    default:
+      return '';
+  }
+}
