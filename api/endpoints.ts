@@ -6,7 +6,9 @@ import type { AnyEndpoint } from './http/endpoint';
 import { mailEndpoints } from './mail/mail-endpoints';
 import { peopleEndpoints } from './people/people-endpoints';
 import { roadRouteEndpoints } from './road-routes/road-routes-endpoints';
+import { scenarioEndpoints } from './scenarios/scenarios-endpoints';
 import { terrainEndpoints } from './terrain/terrain-endpoints';
+import { vehicleProfileEndpoints } from './vehicle-profiles/vehicle-profiles-endpoints';
 
 /**
  * Every endpoint of the API. A feature adds its list here; `createApp` mounts them behind
@@ -21,6 +23,8 @@ export function allEndpoints(deps: AppDeps): AnyEndpoint[] {
     ...mailEndpoints(deps),
     ...analysisEndpoints(deps),
     ...roadRouteEndpoints(deps),
+    ...vehicleProfileEndpoints(deps),
+    ...scenarioEndpoints(deps),
     ...terrainEndpoints(deps),
   ];
 }

@@ -6,10 +6,13 @@ import { createApp } from './app';
 import { createSmtpTransport, startMailWorker } from './mail/mail-worker';
 import { startSmtpFake } from './mail/smtp-fake';
 import { startTerrain } from './terrain/terrain-startup';
+import { ensureVehiclePresets } from './vehicle-profiles/vehicle-presets-seed';
 
 const config = loadConfig();
 await migrateDatabase(config.DATABASE_URL);
 const { db, close } = createDatabase(config.DATABASE_URL);
+// The generic vehicle classes are read-only profiles every environment needs (idempotent).
+await ensureVehiclePresets(db);
 
 const stoppers: Array<() => Promise<void> | void> = [];
 if (config.MAIL_FAKE) {

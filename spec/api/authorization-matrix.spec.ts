@@ -42,6 +42,23 @@ const EXPECTED_ACCESS: Record<string, 'public' | 'signed-in' | readonly Role[]> 
   'POST /api/road-network': ['analyst'],
   'GET /api/road-network': 'signed-in',
   'POST /api/road-network/path': 'signed-in',
+  'GET /api/vehicles': 'signed-in',
+  'POST /api/vehicles': ['analyst'],
+  'GET /api/vehicles/{vehicleProfileId}': 'signed-in',
+  'PUT /api/vehicles/{vehicleProfileId}': ['analyst'],
+  'DELETE /api/vehicles/{vehicleProfileId}': ['analyst'],
+  'GET /api/vehicles/{vehicleProfileId}/capability': 'signed-in',
+  'GET /api/scenarios': 'signed-in',
+  'POST /api/scenarios': ['planner', 'analyst'],
+  'GET /api/scenarios/compare': 'signed-in',
+  'GET /api/scenarios/{scenarioId}': 'signed-in',
+  'PUT /api/scenarios/{scenarioId}': ['planner', 'analyst'],
+  'DELETE /api/scenarios/{scenarioId}': ['planner', 'analyst'],
+  'POST /api/scenarios/{scenarioId}/run': ['planner', 'analyst'],
+  'GET /api/scenarios/{scenarioId}/result': 'signed-in',
+  'GET /api/scenarios/{scenarioId}/export.csv': 'signed-in',
+  'GET /api/scenarios/{scenarioId}/export.geojson': 'signed-in',
+  'GET /api/scenarios/{scenarioId}/report.pdf': 'signed-in',
 };
 
 const context = createTestContext();

@@ -1,0 +1,175 @@
+import {
+  scenarioCompareQuerySchema,
+  scenarioComparisonSchema,
+  scenarioDraftSchema,
+  scenarioIdParamsSchema,
+  scenarioListQuerySchema,
+  scenarioListSchema,
+  scenarioResultSchema,
+  scenarioSchema,
+} from '@shared/domain/scenarios';
+import type { AppDeps } from '../app-deps';
+import { endpoint } from '../http/endpoint';
+import { attachmentName } from '../road-routes/route-upload';
+import * as profiles from '../vehicle-profiles/vehicle-profiles-repository';
+import * as repository from './scenarios-repository';
+import { scenarioCsv, scenarioGeoJson } from './scenario-exports';
+import { scenarioReportPdf } from './scenario-report-pdf';
+import * as service from './scenarios-service';
+
+const TAG = 'Scenarios';
+const EDITORS = ['planner', 'analyst'] as const;
+
+export function scenarioEndpoints(deps: AppDeps) {
+  return [
+    endpoint({
+      method: 'get',
+      path: '/api/scenarios',
+      summary: 'Saved scenarios with their headline figures; filter by route, vehicle profile, in service',
+      tag: TAG,
+      access: 'signed-in',
+      query: scenarioListQuerySchema,
+      responses: { 200: { description: 'Scenarios', schema: scenarioListSchema } },
+      handler: async ({ query, res }) => {
+        res.json({ items: (await repository.listScenarios(deps.db, query)).map(repository.toScenario) });
+      },
+    }),
+    endpoint({
+      method: 'post',
+      path: '/api/scenarios',
+      summary: 'Save a scenario and compute it (a run that fails, e.g. for missing terrain, is saved with status "failed" and the reason)',
+      tag: TAG,
+      access: EDITORS,
+      body: scenarioDraftSchema,
+      responses: {
+        201: { description: 'Saved and computed', schema: scenarioSchema },
+        400: { description: 'Invalid draft, or an unknown route, route version or vehicle profile (named)' },
+      },
+      handler: async ({ body, user, res }) => {
+        const scenario = await service.createScenario(deps, service.authorOf(user!), body);
+        res.status(201).location(`/api/scenarios/${scenario.id}`).json(scenario);
+      },
+    }),
+    endpoint({
+      method: 'get',
+      path: '/api/scenarios/compare',
+      summary: 'Two to four scenarios side by side with their results',
+      tag: TAG,
+      access: 'signed-in',
+      query: scenarioCompareQuerySchema,
+      responses: { 200: { description: 'Scenarios and results, in the order asked', schema: scenarioComparisonSchema } },
+      handler: async ({ query, res }) => {
+        res.json(await service.compareScenarios(deps.db, query.ids));
+      },
+    }),
+    endpoint({
+      method: 'get',
+      path: '/api/scenarios/:scenarioId',
+      summary: 'One scenario with its headline figures and staleness',
+      tag: TAG,
+      access: 'signed-in',
+      params: scenarioIdParamsSchema,
+      responses: { 200: { description: 'The scenario', schema: scenarioSchema } },
+      handler: async ({ params, res }) => {
+        res.json(await service.getScenario(deps.db, params.scenarioId));
+      },
+    }),
+    endpoint({
+      method: 'put',
+      path: '/api/scenarios/:scenarioId',
+      summary: 'Change a scenario and recompute it',
+      tag: TAG,
+      access: EDITORS,
+      params: scenarioIdParamsSchema,
+      body: scenarioDraftSchema,
+      responses: { 200: { description: 'Saved and computed', schema: scenarioSchema } },
+      handler: async ({ params, body, res }) => {
+        res.json(await service.updateScenario(deps, params.scenarioId, body));
+      },
+    }),
+    endpoint({
+      method: 'delete',
+      path: '/api/scenarios/:scenarioId',
+      summary: 'Delete a scenario and its result',
+      tag: TAG,
+      access: EDITORS,
+      params: scenarioIdParamsSchema,
+      responses: { 204: { description: 'Deleted' } },
+      handler: async ({ params, res }) => {
+        await service.deleteScenario(deps.db, params.scenarioId);
+        res.status(204).end();
+      },
+    }),
+    endpoint({
+      method: 'post',
+      path: '/api/scenarios/:scenarioId/run',
+      summary: 'Re-run now (an unpinned scenario moves to the route’s latest version); clears staleness',
+      tag: TAG,
+      access: EDITORS,
+      params: scenarioIdParamsSchema,
+      responses: { 200: { description: 'The scenario after the run (status done or failed)', schema: scenarioSchema } },
+      handler: async ({ params, res }) => {
+        res.json(await service.rerunScenario(deps, params.scenarioId));
+      },
+    }),
+    endpoint({
+      method: 'get',
+      path: '/api/scenarios/:scenarioId/result',
+      summary: 'The stored result: inputs, totals, per-direction profiles and descents, with the caution',
+      tag: TAG,
+      access: 'signed-in',
+      params: scenarioIdParamsSchema,
+      responses: {
+        200: { description: 'The result', schema: scenarioResultSchema },
+        404: { description: 'No such scenario, or no result (details.failureReason says why)' },
+      },
+      handler: async ({ params, res }) => {
+        res.json(await service.getResult(deps.db, params.scenarioId));
+      },
+    }),
+    endpoint({
+      method: 'get',
+      path: '/api/scenarios/:scenarioId/export.csv',
+      summary: 'Per-point CSV, one row per profile point per direction, units in the column names',
+      tag: TAG,
+      access: 'signed-in',
+      params: scenarioIdParamsSchema,
+      responses: { 200: { description: 'CSV (attachment)', contentType: 'text/csv' } },
+      handler: async ({ params, res }) => {
+        const scenario = await service.getScenario(deps.db, params.scenarioId);
+        const result = await service.getResult(deps.db, params.scenarioId);
+        res.attachment(attachmentName(scenario.name, 'csv')).type('text/csv; charset=utf-8').send(scenarioCsv(result));
+      },
+    }),
+    endpoint({
+      method: 'get',
+      path: '/api/scenarios/:scenarioId/export.geojson',
+      summary: 'Result as GeoJSON: per-segment LineStrings and descents with risk and advice',
+      tag: TAG,
+      access: 'signed-in',
+      params: scenarioIdParamsSchema,
+      responses: { 200: { description: 'GeoJSON FeatureCollection (attachment)', contentType: 'application/geo+json' } },
+      handler: async ({ params, res }) => {
+        const scenario = await service.getScenario(deps.db, params.scenarioId);
+        const result = await service.getResult(deps.db, params.scenarioId);
+        res.attachment(attachmentName(scenario.name, 'geojson')).type('application/geo+json').send(JSON.stringify(scenarioGeoJson(scenario, result)));
+      },
+    }),
+    endpoint({
+      method: 'get',
+      path: '/api/scenarios/:scenarioId/report.pdf',
+      summary: 'PDF report: inputs, summary, descents with risk and advice, caution, elevation and brake-temperature chart',
+      tag: TAG,
+      access: 'signed-in',
+      params: scenarioIdParamsSchema,
+      responses: { 200: { description: 'PDF (attachment)', contentType: 'application/pdf' } },
+      handler: async ({ params, res }) => {
+        const scenario = await service.getScenario(deps.db, params.scenarioId);
+        const result = await service.getResult(deps.db, params.scenarioId);
+        const profileRow = await profiles.findProfile(deps.db, scenario.vehicleProfileId);
+        const pdf = await scenarioReportPdf(scenario, result, profileRow ? profiles.toVehicleProfile(profileRow) : undefined);
+        res.attachment(attachmentName(scenario.name, 'pdf')).type('application/pdf').send(pdf);
+      },
+    }),
+  ];
+}

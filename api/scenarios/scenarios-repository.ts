@@ -1,0 +1,125 @@
+import { and, asc, eq, getTableColumns, inArray, type SQL } from 'drizzle-orm';
+import type { Scenario, ScenarioListQuery } from '@shared/domain/scenarios';
+import { ENGINE_VERSION } from '@shared/engine/constants';
+import type { Executor } from '../db/client';
+import { roadRoutes, roadRouteVersions, scenarios, vehicleProfiles, type ScenarioRow } from '../db/schema/index';
+
+/** Scenario columns without the (large) per-point results. */
+// eslint-disable-next-line @typescript-eslint/no-unused-vars
+const { directionResults: _directionResults, ...scenarioColumns } = getTableColumns(scenarios);
+
+export type ScenarioHead = Omit<ScenarioRow, 'directionResults'>;
+
+export interface ScenarioWithContext {
+  scenario: ScenarioHead;
+  routeName: string;
+  latestRouteVersion: number;
+  vehicleProfileName: string;
+  vehicleProfileUpdatedAt: Date;
+}
+
+function selectWithContext(db: Executor) {
+  return db
+    .select({
+      scenario: scenarioColumns,
+      routeName: roadRouteVersions.name,
+      latestRouteVersion: roadRoutes.currentVersion,
+      vehicleProfileName: vehicleProfiles.name,
+      vehicleProfileUpdatedAt: vehicleProfiles.updatedAt,
+    })
+    .from(scenarios)
+    .innerJoin(roadRoutes, eq(roadRoutes.id, scenarios.routeId))
+    .innerJoin(roadRouteVersions, and(eq(roadRouteVersions.routeId, scenarios.routeId), eq(roadRouteVersions.version, scenarios.routeVersion)))
+    .innerJoin(vehicleProfiles, eq(vehicleProfiles.id, scenarios.vehicleProfileId));
+}
+
+export async function listScenarios(db: Executor, query: ScenarioListQuery): Promise<ScenarioWithContext[]> {
+  const conditions: SQL[] = [];
+  if (query.routeId) conditions.push(eq(scenarios.routeId, query.routeId));
+  if (query.vehicleProfileId) conditions.push(eq(scenarios.vehicleProfileId, query.vehicleProfileId));
+  if (query.inService !== undefined) conditions.push(eq(scenarios.inService, query.inService));
+  return (await selectWithContext(db)
+    .where(and(...conditions))
+    .orderBy(asc(scenarios.name), asc(scenarios.id))) as ScenarioWithContext[];
+}
+
+export async function findScenarioWithContext(db: Executor, id: string): Promise<ScenarioWithContext | undefined> {
+  const [row] = await selectWithContext(db).where(eq(scenarios.id, id));
+  return row as ScenarioWithContext | undefined;
+}
+
+export async function findScenariosWithContext(db: Executor, ids: string[]): Promise<ScenarioWithContext[]> {
+  return (await selectWithContext(db).where(inArray(scenarios.id, ids))) as ScenarioWithContext[];
+}
+
+export async function findScenarioRow(db: Executor, id: string): Promise<ScenarioRow | undefined> {
+  const [row] = await db.select().from(scenarios).where(eq(scenarios.id, id));
+  return row;
+}
+
+export async function lockScenario(db: Executor, id: string): Promise<ScenarioHead | undefined> {
+  const [row] = await db.select(scenarioColumns).from(scenarios).where(eq(scenarios.id, id)).for('update');
+  return row as ScenarioHead | undefined;
+}
+
+export async function insertScenario(db: Executor, values: typeof scenarios.$inferInsert): Promise<ScenarioHead> {
+  const [row] = await db.insert(scenarios).values(values).returning(scenarioColumns);
+  return row as ScenarioHead;
+}
+
+export async function updateScenario(db: Executor, id: string, values: Partial<typeof scenarios.$inferInsert>) {
+  await db.update(scenarios).set({ ...values, updatedAt: new Date() }).where(eq(scenarios.id, id));
+}
+
+export async function deleteScenario(db: Executor, id: string) {
+  await db.delete(scenarios).where(eq(scenarios.id, id));
+}
+
+/** What changed since the stored result was computed, in plain words. */
+export function staleReasons(row: ScenarioWithContext): string[] {
+  const provenance = row.scenario.inputs?.provenance;
+  if (!provenance) return [];
+  const reasons: string[] = [];
+  if (provenance.engineVersion !== ENGINE_VERSION) {
+    reasons.push(`the calculation engine changed (${provenance.engineVersion} → ${ENGINE_VERSION})`);
+  }
+  if (!row.scenario.routeVersionPinned && row.latestRouteVersion !== provenance.routeVersion) {
+    reasons.push(`the route has a newer version (${row.latestRouteVersion}; the result is for version ${provenance.routeVersion})`);
+  }
+  if (provenance.vehicleProfileUpdatedAt !== row.vehicleProfileUpdatedAt.toISOString()) {
+    reasons.push('the vehicle profile changed after the run');
+  }
+  return reasons;
+}
+
+export function toScenario(row: ScenarioWithContext): Scenario {
+  const s = row.scenario;
+  const reasons = staleReasons(row);
+  return {
+    id: s.id,
+    name: s.name,
+    routeId: s.routeId,
+    routeVersion: s.routeVersion,
+    routeVersionPinned: s.routeVersionPinned,
+    latestRouteVersion: row.latestRouteVersion,
+    routeName: row.routeName,
+    direction: s.direction,
+    vehicleProfileId: s.vehicleProfileId,
+    vehicleProfileName: row.vehicleProfileName,
+    load: s.load,
+    season: s.season,
+    startSoc: s.startSoc,
+    options: s.options,
+    inService: s.inService,
+    status: s.status,
+    failureReason: s.failureReason,
+    isStale: reasons.length > 0,
+    staleReasons: reasons,
+    engineVersion: s.engineVersion,
+    computedAt: s.computedAt?.toISOString() ?? null,
+    summary: s.summary,
+    riskCounts: s.riskCounts,
+    createdBy: s.createdByName,
+    updatedAt: s.updatedAt.toISOString(),
+  };
+}

@@ -1,0 +1,200 @@
+import type { User } from '@shared/domain/auth';
+import type { RiskLevel } from '@shared/domain/analysis';
+import type { Scenario, ScenarioDraft, ScenarioResult } from '@shared/domain/scenarios';
+import type { ElevationSampler } from '@shared/engine/analyse-route';
+import { ENGINEERING_CAUTION } from '@shared/engine/constants';
+import type { AppDeps } from '../app-deps';
+import type { Database } from '../db/client';
+import { BadRequestError, HttpError, NotFoundError } from '../http/http-error';
+import * as routes from '../road-routes/road-routes-repository';
+import * as profiles from '../vehicle-profiles/vehicle-profiles-repository';
+import * as repository from './scenarios-repository';
+import { runScenario } from './scenario-run';
+
+/** Route version and vehicle profile a draft refers to; 400 naming the field when either is missing. */
+async function resolveReferences(db: Database, draft: ScenarioDraft) {
+  const route = await routes.findRoute(db, draft.routeId);
+  if (!route) throw new BadRequestError(`routeId: no route ${draft.routeId}`, { field: 'routeId' });
+  const version = draft.routeVersion ?? route.currentVersion;
+  const routeVersion = await routes.findVersion(db, draft.routeId, version);
+  if (!routeVersion) {
+    throw new BadRequestError(`routeVersion: the route has no version ${version} (latest is ${route.currentVersion})`, { field: 'routeVersion' });
+  }
+  const profileRow = await profiles.findProfile(db, draft.vehicleProfileId);
+  if (!profileRow) throw new BadRequestError(`vehicleProfileId: no vehicle profile ${draft.vehicleProfileId}`, { field: 'vehicleProfileId' });
+  return { routeVersion, profileRow, pinned: draft.routeVersion !== undefined };
+}
+
+/** Computes and stores the result of a saved scenario (synchronous: a 50 km route takes milliseconds). */
+async function computeAndStore(db: Database, scenarioId: string, sampleElevations?: ElevationSampler): Promise<void> {
+  const row = await repository.findScenarioRow(db, scenarioId);
+  if (!row) throw new NotFoundError('The scenario');
+  const routeVersion = await routes.findVersion(db, row.routeId, row.routeVersion);
+  const profileRow = await profiles.findProfile(db, row.vehicleProfileId);
+  if (!routeVersion || !profileRow) throw new NotFoundError('The scenario’s route version or vehicle profile');
+  const profile = profiles.toVehicleProfile(profileRow);
+  await repository.updateScenario(db, scenarioId, { status: 'running', failureReason: null });
+  const provenance = {
+    routeVersion: routeVersion.version,
+    routeVersionId: routeVersion.id,
+    vehicleProfileUpdatedAt: profileRow.updatedAt.toISOString(),
+    engineVersion: '',
+  };
+  let outcome;
+  try {
+    outcome = await runScenario(routeVersion, profile, row, sampleElevations);
+  } catch (error) {
+    // Anything else is a fault on our side: record it so the scenario does not stay "running".
+    console.error(`[scenarios] run of ${scenarioId} failed:`, error);
+    await repository.updateScenario(db, scenarioId, {
+      status: 'failed',
+      failureReason: 'the calculation stopped with an unexpected error; the administrators can find it in the server log',
+      computedAt: new Date(),
+    });
+    return;
+  }
+  provenance.engineVersion = outcome.engineVersion;
+  if (!outcome.ok) {
+    await repository.updateScenario(db, scenarioId, {
+      status: 'failed',
+      failureReason: outcome.failureReason,
+      engineVersion: outcome.engineVersion,
+      computedAt: new Date(),
+      inputs: { provenance, ...outcome.inputs },
+      summary: null,
+      riskCounts: null,
+      directionResults: null,
+    });
+    return;
+  }
+  const riskCounts: Record<RiskLevel, number> = { low: 0, elevated: 0, high: 0, critical: 0 };
+  for (const direction of outcome.directions) for (const descent of direction.descents) riskCounts[descent.risk]++;
+  await repository.updateScenario(db, scenarioId, {
+    status: 'done',
+    failureReason: null,
+    engineVersion: outcome.engineVersion,
+    computedAt: new Date(),
+    inputs: { provenance, ...outcome.inputs },
+    summary: outcome.summary,
+    riskCounts,
+    directionResults: outcome.directions,
+  });
+}
+
+export async function getScenario(db: Database, id: string): Promise<Scenario> {
+  const row = await repository.findScenarioWithContext(db, id);
+  if (!row) throw new NotFoundError('The scenario');
+  return repository.toScenario(row);
+}
+
+export async function createScenario(
+  deps: Pick<AppDeps, 'db' | 'sampleElevations'>,
+  author: { id: string | null; name: string },
+  draft: ScenarioDraft,
+  seedKey?: string,
+): Promise<Scenario> {
+  const { routeVersion, pinned } = await resolveReferences(deps.db, draft);
+  const row = await repository.insertScenario(deps.db, {
+    name: draft.name,
+    routeId: draft.routeId,
+    routeVersion: routeVersion.version,
+    routeVersionPinned: pinned,
+    direction: draft.direction,
+    vehicleProfileId: draft.vehicleProfileId,
+    load: draft.load,
+    season: draft.season,
+    startSoc: draft.startSoc,
+    options: draft.options,
+    inService: draft.inService,
+    status: 'queued',
+    createdById: author.id,
+    createdByName: author.name,
+    seedKey: seedKey ?? null,
+  });
+  await computeAndStore(deps.db, row.id, deps.sampleElevations);
+  return getScenario(deps.db, row.id);
+}
+
+/** Saves changed settings and recomputes. */
+export async function updateScenario(deps: Pick<AppDeps, 'db' | 'sampleElevations'>, id: string, draft: ScenarioDraft): Promise<Scenario> {
+  const existing = await repository.findScenarioWithContext(deps.db, id);
+  if (!existing) throw new NotFoundError('The scenario');
+  const { routeVersion, pinned } = await resolveReferences(deps.db, draft);
+  await repository.updateScenario(deps.db, id, {
+    name: draft.name,
+    routeId: draft.routeId,
+    routeVersion: routeVersion.version,
+    routeVersionPinned: pinned,
+    direction: draft.direction,
+    vehicleProfileId: draft.vehicleProfileId,
+    load: draft.load,
+    season: draft.season,
+    startSoc: draft.startSoc,
+    options: draft.options,
+    inService: draft.inService,
+  });
+  await computeAndStore(deps.db, id, deps.sampleElevations);
+  return getScenario(deps.db, id);
+}
+
+/**
+ * Re-runs on demand: an unpinned scenario moves to the route's latest version first; the
+ * profile and engine are always the current ones. This clears staleness.
+ */
+export async function rerunScenario(deps: Pick<AppDeps, 'db' | 'sampleElevations'>, id: string): Promise<Scenario> {
+  const existing = await repository.findScenarioWithContext(deps.db, id);
+  if (!existing) throw new NotFoundError('The scenario');
+  if (!existing.scenario.routeVersionPinned && existing.scenario.routeVersion !== existing.latestRouteVersion) {
+    await repository.updateScenario(deps.db, id, { routeVersion: existing.latestRouteVersion });
+  }
+  await computeAndStore(deps.db, id, deps.sampleElevations);
+  return getScenario(deps.db, id);
+}
+
+export async function deleteScenario(db: Database, id: string): Promise<void> {
+  const existing = await repository.findScenarioRow(db, id);
+  if (!existing) throw new NotFoundError('The scenario');
+  await repository.deleteScenario(db, id);
+}
+
+export async function getResult(db: Database, id: string): Promise<ScenarioResult> {
+  const row = await repository.findScenarioRow(db, id);
+  if (!row) throw new NotFoundError('The scenario');
+  if (row.status !== 'done' || !row.summary || !row.directionResults || !row.computedAt || !row.engineVersion) {
+    throw new HttpError(
+      404,
+      'no_result',
+      row.failureReason ? `The scenario has no result: ${row.failureReason}` : 'The scenario has no result yet; run it first',
+      { status: row.status, failureReason: row.failureReason },
+    );
+  }
+  return {
+    scenarioId: row.id,
+    engineVersion: row.engineVersion,
+    computedAt: row.computedAt.toISOString(),
+    inputs: row.inputs,
+    summary: row.summary,
+    directions: row.directionResults,
+    caution: ENGINEERING_CAUTION,
+  };
+}
+
+export async function compareScenarios(db: Database, ids: string[]) {
+  const unique = [...new Set(ids)];
+  if (unique.length !== ids.length) throw new BadRequestError('ids: each scenario may appear once', { field: 'ids' });
+  const rows = await repository.findScenariosWithContext(db, unique);
+  const missing = unique.filter((id) => !rows.some((row) => row.scenario.id === id));
+  if (missing.length > 0) throw new HttpError(404, 'not_found', `No scenario ${missing.join(', ')}`, { missing });
+  const items = [];
+  for (const id of unique) {
+    const row = rows.find((candidate) => candidate.scenario.id === id)!;
+    let result: ScenarioResult | null = null;
+    if (row.scenario.status === 'done') result = await getResult(db, id);
+    items.push({ scenario: repository.toScenario(row), result });
+  }
+  return { items, caution: ENGINEERING_CAUTION };
+}
+
+export function authorOf(user: User) {
+  return { id: user.id, name: user.name };
+}

@@ -1,0 +1,54 @@
+import type { User } from '@shared/domain/auth';
+import type { CapabilityCurvesResponse, CapabilityQuery, VehicleProfile, VehicleProfileDraft } from '@shared/domain/vehicle-profiles';
+import { capabilityCurves } from '@shared/engine/capability-curves';
+import type { Database } from '../db/client';
+import { ConflictError, NotFoundError } from '../http/http-error';
+import * as repository from './vehicle-profiles-repository';
+
+export async function getProfile(db: Database, id: string): Promise<VehicleProfile> {
+  const row = await repository.findProfile(db, id);
+  if (!row) throw new NotFoundError('The vehicle profile');
+  return repository.toVehicleProfile(row);
+}
+
+export async function createProfile(db: Database, user: User, draft: VehicleProfileDraft): Promise<VehicleProfile> {
+  return repository.toVehicleProfile(await repository.insertProfile(db, draft, user.id));
+}
+
+export async function updateProfile(db: Database, id: string, draft: VehicleProfileDraft): Promise<VehicleProfile> {
+  return db.transaction(async (tx) => {
+    const row = await repository.lockProfile(tx, id);
+    if (!row) throw new NotFoundError('The vehicle profile');
+    if (row.isPreset) throw presetConflict();
+    return repository.toVehicleProfile(await repository.updateProfile(tx, id, draft));
+  });
+}
+
+export async function deleteProfile(db: Database, id: string): Promise<void> {
+  await db.transaction(async (tx) => {
+    const row = await repository.lockProfile(tx, id);
+    if (!row) throw new NotFoundError('The vehicle profile');
+    if (row.isPreset) throw presetConflict();
+    const used = await repository.countScenariosUsingProfile(tx, id);
+    if (used > 0) {
+      throw new ConflictError(
+        `The vehicle profile is used by ${used} scenario${used === 1 ? '' : 's'}; delete them or give them another vehicle first`,
+        'vehicle_profile_in_use',
+        { scenarioCount: used },
+      );
+    }
+    await repository.deleteProfile(tx, id);
+  });
+}
+
+/** Capability chart for one load case, with the season's ambient temperature for the air density. */
+export async function profileCapability(db: Database, id: string, query: CapabilityQuery): Promise<CapabilityCurvesResponse> {
+  const profile = await getProfile(db, id);
+  const vehicle = { ...profile.vehicle, payloadKg: profile.loadsKg[query.load] };
+  const curves = capabilityCurves(vehicle, { altitudeM: query.altitudeM, ambientC: profile.seasons[query.season].ambientC });
+  return { vehicleProfileId: id, load: query.load, massKg: vehicle.curbMassKg + vehicle.payloadKg, ...curves };
+}
+
+function presetConflict() {
+  return new ConflictError('Presets are read-only; copy the preset into a profile of your own to change it', 'preset_read_only');
+}

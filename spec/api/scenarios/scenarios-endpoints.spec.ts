@@ -1,0 +1,353 @@
+import request from 'supertest';
+import { afterAll, beforeEach, describe, expect, it } from 'vitest';
+import { scenarioResultSchema, scenarioSchema, type ScenarioDraftInput } from '@shared/domain/scenarios';
+import { ENGINE_VERSION, ENGINEERING_CAUTION } from '@shared/engine/constants';
+import { createApp } from '../../../api/app';
+import { ensureVehiclePresets, presetProfileId } from '../../../api/vehicle-profiles/vehicle-presets-seed';
+import { createTestContext } from '../../support/test-app';
+import { sessionCookies } from '../../support/session-cookie';
+import { countRows, truncateAll } from '../../support/test-database';
+import { aRouteDraft, eastwardLine } from '../../support/road-route-builders';
+
+const context = createTestContext();
+const { app, db } = context;
+const BUS = presetProfileId('battery-bus-12m');
+let cookieFor: ReturnType<typeof sessionCookies>;
+let planner: string;
+
+beforeEach(async () => {
+  await truncateAll(db);
+  await ensureVehiclePresets(db);
+  cookieFor = sessionCookies(db, context.deps.config);
+  planner = await cookieFor('planner');
+});
+afterAll(() => context.close());
+
+describe('POST /api/scenarios', () => {
+  it('saves and computes the scenario, storing the engine version and the exact inputs', async () => {
+    const route = await aRoute();
+
+    const response = await request(app).post('/api/scenarios').set('Cookie', planner).send(aScenarioDraft(route.id));
+
+    expect(response.status).toBe(201);
+    const scenario = scenarioSchema.parse(response.body);
+    expect(scenario).toMatchObject({ status: 'done', engineVersion: ENGINE_VERSION, isStale: false, routeVersion: 1, routeName: 'Spec line 1' });
+    expect(scenario.summary!.lengthM).toBeCloseTo(2_000, 0);
+    const result = scenarioResultSchema.parse((await request(app).get(`/api/scenarios/${scenario.id}/result`).set('Cookie', planner)).body);
+    expect(result.caution).toBe(ENGINEERING_CAUTION);
+    const inputs = result.inputs as { provenance: { routeVersion: number; engineVersion: string }; directions: { request: { vehicle: { payloadKg: number; auxPowerW: number }; conditions: { ambientC: number }; options: { stops: { atM: number; dwellS: number }[]; speedLimitKph: unknown } } }[] };
+    expect(inputs.provenance).toMatchObject({ routeVersion: 1, engineVersion: ENGINE_VERSION });
+    const request0 = inputs.directions[0]!.request;
+    // Full standing load of the 12 m bus preset, winter auxiliaries and ambient.
+    expect(request0.vehicle.payloadKg).toBe(5_950);
+    expect(request0.vehicle.auxPowerW).toBe(22_000);
+    expect(request0.conditions.ambientC).toBe(-5);
+    expect(request0.options.stops.map((stop) => Math.round(stop.atM))).toEqual([600, 1_400]);
+    expect(request0.options.speedLimitKph).toEqual([
+      { fromM: 0, toM: 500, speedKph: 30 },
+      { fromM: 500, toM: expect.closeTo(2_000, 0), speedKph: 50 },
+    ]);
+  });
+
+  it('uses passengers × passenger mass when the load is a passenger count', async () => {
+    const route = await aRoute();
+
+    const response = await request(app)
+      .post('/api/scenarios')
+      .set('Cookie', await cookieFor('analyst'))
+      .send(aScenarioDraft(route.id, { load: { kind: 'passengers', passengers: 40 } }));
+
+    expect(response.status).toBe(201);
+    const result = (await request(app).get(`/api/scenarios/${response.body.id}/result`).set('Cookie', planner)).body;
+    expect(result.inputs.directions[0].request.vehicle.payloadKg).toBe(40 * 70);
+  });
+
+  it('answers 400 naming routeId for a route that does not exist, and writes nothing', async () => {
+    const response = await request(app)
+      .post('/api/scenarios')
+      .set('Cookie', planner)
+      .send(aScenarioDraft('00000000-0000-4000-8000-000000000000'));
+
+    expect(response.status).toBe(400);
+    expect(response.body.error.message).toMatch(/routeId/);
+    expect(await countRows(db, 'scenarios')).toBe(0);
+  });
+
+  it('answers 400 naming startSoc when it is above 1, and writes nothing', async () => {
+    const route = await aRoute();
+
+    const response = await request(app).post('/api/scenarios').set('Cookie', planner).send(aScenarioDraft(route.id, { startSoc: 1.5 }));
+
+    expect(response.status).toBe(400);
+    expect(response.body.error.message).toMatch(/startSoc/);
+    expect(await countRows(db, 'scenarios')).toBe(0);
+  });
+
+  it('answers 403 to a safety officer', async () => {
+    const route = await aRoute();
+
+    const response = await request(app).post('/api/scenarios').set('Cookie', await cookieFor('safety')).send(aScenarioDraft(route.id));
+
+    expect(response.status).toBe(403);
+  });
+
+  it('records a failed run that names the stretches without terrain', async () => {
+    const route = await aRoute({ geometry: eastwardLine({ lengthM: 6_000, withElevation: false }), stops: [], speedLimits: [] });
+    // A sampler that covers everything but 3.2–4.5 km along the line.
+    const sampled = createApp({
+      ...context.deps,
+      sampleElevations: async (points) => points.map(([lon]) => {
+        const alongM = (lon - 9.0) * 76_620;
+        return alongM > 3_200 && alongM < 4_500 ? null : 1_000;
+      }),
+    });
+
+    const response = await request(sampled).post('/api/scenarios').set('Cookie', planner).send(aScenarioDraft(route.id));
+
+    expect(response.status).toBe(201);
+    expect(response.body.status).toBe('failed');
+    expect(response.body.failureReason).toMatch(/no terrain covers 3\.2–4\.5 km/);
+    const result = await request(app).get(`/api/scenarios/${response.body.id}/result`).set('Cookie', planner);
+    expect(result.status).toBe(404);
+    expect(result.body.error.message).toMatch(/no terrain covers/);
+  });
+
+  it('records a failed run when the line has no elevations and no terrain is available', async () => {
+    const route = await aRoute({ geometry: eastwardLine({ withElevation: false }) });
+
+    const response = await request(app).post('/api/scenarios').set('Cookie', planner).send(aScenarioDraft(route.id));
+
+    expect(response.body.status).toBe('failed');
+    expect(response.body.failureReason).toMatch(/no elevation/);
+  });
+});
+
+describe('versions and staleness', () => {
+  it('keeps version 1’s geometry after a route edit, marks the scenario stale, and a re-run moves it to version 2', async () => {
+    const route = await aRoute();
+    const scenario = (await request(app).post('/api/scenarios').set('Cookie', planner).send(aScenarioDraft(route.id))).body;
+    await request(app).put(`/api/routes/${route.id}`).set('Cookie', planner).send(aRouteDraft({ geometry: eastwardLine({ lengthM: 1_000, dropM: 60 }), stops: [] }));
+
+    const stale = scenarioSchema.parse((await request(app).get(`/api/scenarios/${scenario.id}`).set('Cookie', planner)).body);
+    const oldResult = (await request(app).get(`/api/scenarios/${scenario.id}/result`).set('Cookie', planner)).body;
+    const rerun = await request(app).post(`/api/scenarios/${scenario.id}/run`).set('Cookie', planner);
+
+    expect(stale).toMatchObject({ routeVersion: 1, latestRouteVersion: 2, isStale: true });
+    expect(stale.staleReasons[0]).toMatch(/newer version/);
+    expect(oldResult.directions[0].summary.lengthM).toBeCloseTo(2_000, 0);
+    expect(rerun.status).toBe(200);
+    expect(rerun.body).toMatchObject({ routeVersion: 2, isStale: false, status: 'done' });
+    expect(rerun.body.summary.lengthM).toBeCloseTo(1_000, 0);
+  });
+
+  it('does not mark a scenario pinned to a version stale when the route changes', async () => {
+    const route = await aRoute();
+    const scenario = (await request(app).post('/api/scenarios').set('Cookie', planner).send(aScenarioDraft(route.id, { routeVersion: 1 }))).body;
+    await request(app).put(`/api/routes/${route.id}`).set('Cookie', planner).send(aRouteDraft({ name: 'Renamed' }));
+
+    const after = (await request(app).get(`/api/scenarios/${scenario.id}`).set('Cookie', planner)).body;
+
+    expect(after).toMatchObject({ routeVersionPinned: true, routeVersion: 1, latestRouteVersion: 2, isStale: false, routeName: 'Spec line 1' });
+  });
+
+  it('marks the scenario stale after a vehicle-profile edit, and a re-run clears it', async () => {
+    const analyst = await cookieFor('analyst');
+    const preset = (await request(app).get(`/api/vehicles/${BUS}`).set('Cookie', analyst)).body;
+    const own = (await request(app).post('/api/vehicles').set('Cookie', analyst).send({ ...preset, name: 'Own bus' })).body;
+    const route = await aRoute();
+    const scenario = (await request(app).post('/api/scenarios').set('Cookie', planner).send(aScenarioDraft(route.id, { vehicleProfileId: own.id }))).body;
+    await request(app).put(`/api/vehicles/${own.id}`).set('Cookie', analyst).send({ ...preset, name: 'Own bus', vehicle: { ...preset.vehicle, curbMassKg: 14_000 } });
+
+    const stale = (await request(app).get(`/api/scenarios/${scenario.id}`).set('Cookie', planner)).body;
+    const rerun = (await request(app).post(`/api/scenarios/${scenario.id}/run`).set('Cookie', planner)).body;
+
+    expect(stale.isStale).toBe(true);
+    expect(stale.staleReasons).toEqual(['the vehicle profile changed after the run']);
+    expect(rerun.isStale).toBe(false);
+    expect(rerun.summary.tractionEnergyWh).not.toBeCloseTo(scenario.summary.tractionEnergyWh, 3);
+  });
+});
+
+describe('round trips and inbound runs', () => {
+  it('combines both directions: round-trip energies are the sums of outbound and inbound', async () => {
+    const route = await aRoute();
+
+    const scenario = (await request(app).post('/api/scenarios').set('Cookie', planner).send(aScenarioDraft(route.id, { direction: 'round-trip' }))).body;
+    const result = scenarioResultSchema.parse((await request(app).get(`/api/scenarios/${scenario.id}/result`).set('Cookie', planner)).body);
+
+    const [outbound, inbound] = result.directions;
+    expect(result.directions.map((d) => d.direction)).toEqual(['outbound', 'inbound']);
+    expect(result.summary.batteryNetEnergyWh).toBeCloseTo(outbound!.summary.batteryNetEnergyWh + inbound!.summary.batteryNetEnergyWh, 6);
+    expect(result.summary.regenEnergyWh).toBeCloseTo(outbound!.summary.regenEnergyWh + inbound!.summary.regenEnergyWh, 6);
+    expect(result.summary.lengthM).toBeCloseTo(2 * outbound!.summary.lengthM, 3);
+    expect(inbound!.summary.startSoc).toBeCloseTo(outbound!.summary.endSoc, 9);
+    // Inbound climbs what outbound descends.
+    expect(outbound!.summary.descentM).toBeGreaterThan(100);
+    expect(inbound!.summary.ascentM).toBeGreaterThan(100);
+    const inputs = result.inputs as { layover: { durationS: number; brakeTempBeforeC: number; brakeTempAfterC: number } };
+    expect(inputs.layover.durationS).toBe(300);
+    expect(inputs.layover.brakeTempAfterC).toBeLessThanOrEqual(inputs.layover.brakeTempBeforeC);
+  });
+
+  it('mirrors stops and speed limits for the inbound direction', async () => {
+    const route = await aRoute();
+
+    const scenario = (await request(app).post('/api/scenarios').set('Cookie', planner).send(aScenarioDraft(route.id, { direction: 'inbound' }))).body;
+    const result = (await request(app).get(`/api/scenarios/${scenario.id}/result`).set('Cookie', planner)).body;
+
+    const options = result.inputs.directions[0].request.options;
+    expect(options.stops.map((stop: { atM: number }) => Math.round(stop.atM))).toEqual([600, 1_400]);
+    expect(options.stops.map((stop: { name: string }) => stop.name)).toEqual(['Mill bridge', 'Lower square']);
+    expect(options.speedLimitKph.at(-1)).toEqual({ fromM: expect.closeTo(1_500, 0), toM: expect.closeTo(2_000, 0), speedKph: 30 });
+  });
+});
+
+describe('exports', () => {
+  it('exports a CSV with the header and one row per profile point per direction', async () => {
+    const route = await aRoute();
+    const scenario = (await request(app).post('/api/scenarios').set('Cookie', planner).send(aScenarioDraft(route.id, { direction: 'round-trip' }))).body;
+    const result = (await request(app).get(`/api/scenarios/${scenario.id}/result`).set('Cookie', planner)).body;
+
+    const response = await request(app).get(`/api/scenarios/${scenario.id}/export.csv`).set('Cookie', await cookieFor('board'));
+
+    expect(response.status).toBe(200);
+    expect(response.headers['content-type']).toMatch(/text\/csv/);
+    expect(response.headers['content-disposition']).toMatch(/^attachment; filename="?spec-scenario\.csv"?$/);
+    const lines = response.text.trim().split('\r\n');
+    expect(lines[0]).toBe(`# ${ENGINEERING_CAUTION}`);
+    expect(lines[1]).toMatch(/^direction,distance_m,longitude_deg,latitude_deg,elevation_m,grade_percent,speed_kph/);
+    const points = result.directions[0].profile.distanceM.length + result.directions[1].profile.distanceM.length;
+    expect(lines).toHaveLength(2 + points);
+    expect(lines[2]).toMatch(/^outbound,0,/);
+    expect(lines.at(-1)).toMatch(/^inbound,/);
+  });
+
+  it('exports GeoJSON with one LineString per segment and the caution', async () => {
+    const route = await aRoute();
+    const scenario = (await request(app).post('/api/scenarios').set('Cookie', planner).send(aScenarioDraft(route.id))).body;
+    const result = (await request(app).get(`/api/scenarios/${scenario.id}/result`).set('Cookie', planner)).body;
+
+    const response = await request(app).get(`/api/scenarios/${scenario.id}/export.geojson`).set('Cookie', planner).buffer(true);
+
+    expect(response.status).toBe(200);
+    const collection = JSON.parse(response.text ?? response.body.toString());
+    expect(collection.type).toBe('FeatureCollection');
+    expect(collection.caution).toBe(ENGINEERING_CAUTION);
+    const segments = collection.features.filter((feature: { properties: { kind: string } }) => feature.properties.kind === 'segment');
+    expect(segments).toHaveLength(result.directions[0].profile.distanceM.length - 1);
+    expect(segments[0].geometry.type).toBe('LineString');
+  });
+
+  it('exports a PDF report', async () => {
+    const route = await aRoute();
+    const scenario = (await request(app).post('/api/scenarios').set('Cookie', planner).send(aScenarioDraft(route.id, { direction: 'round-trip' }))).body;
+
+    const response = await request(app)
+      .get(`/api/scenarios/${scenario.id}/report.pdf`)
+      .set('Cookie', planner)
+      .buffer(true)
+      .parse((res, callback) => {
+        const chunks: Buffer[] = [];
+        res.on('data', (chunk: Buffer) => chunks.push(chunk));
+        res.on('end', () => callback(null, Buffer.concat(chunks)));
+      });
+
+    expect(response.status).toBe(200);
+    expect(response.headers['content-type']).toBe('application/pdf');
+    expect(response.headers['content-disposition']).toMatch(/spec-scenario\.pdf/);
+    expect((response.body as Buffer).subarray(0, 5).toString()).toBe('%PDF-');
+  });
+});
+
+describe('GET /api/scenarios', () => {
+  it('filters by route, vehicle profile and in-service flag', async () => {
+    const first = await aRoute();
+    const second = await aRoute({ name: 'Spec line 2' });
+    await request(app).post('/api/scenarios').set('Cookie', planner).send(aScenarioDraft(first.id, { name: 'A', inService: true }));
+    await request(app).post('/api/scenarios').set('Cookie', planner).send(aScenarioDraft(second.id, { name: 'B' }));
+    await request(app).post('/api/scenarios').set('Cookie', planner).send(aScenarioDraft(second.id, { name: 'C', vehicleProfileId: presetProfileId('battery-midibus') }));
+    const board = await cookieFor('board');
+
+    const names = async (query: string) =>
+      ((await request(app).get(`/api/scenarios${query}`).set('Cookie', board)).body.items as { name: string }[]).map((item) => item.name);
+
+    expect(await names('')).toEqual(['A', 'B', 'C']);
+    expect(await names(`?routeId=${second.id}`)).toEqual(['B', 'C']);
+    expect(await names(`?vehicleProfileId=${presetProfileId('battery-midibus')}`)).toEqual(['C']);
+    expect(await names('?inService=true')).toEqual(['A']);
+  });
+});
+
+describe('GET /api/scenarios/compare', () => {
+  it('returns two to four scenarios with their results, in the order asked', async () => {
+    const route = await aRoute();
+    const ids: string[] = [];
+    for (const name of ['A', 'B', 'C']) {
+      ids.push((await request(app).post('/api/scenarios').set('Cookie', planner).send(aScenarioDraft(route.id, { name }))).body.id);
+    }
+
+    const response = await request(app).get(`/api/scenarios/compare?ids=${ids[2]},${ids[0]}`).set('Cookie', planner);
+
+    expect(response.status).toBe(200);
+    expect(response.body.items.map((item: { scenario: { name: string } }) => item.scenario.name)).toEqual(['C', 'A']);
+    expect(response.body.items[0].result.summary.lengthM).toBeGreaterThan(0);
+    expect(response.body.caution).toBe(ENGINEERING_CAUTION);
+  });
+
+  it('answers 400 naming ids for one id or five', async () => {
+    const one = await request(app).get('/api/scenarios/compare?ids=00000000-0000-4000-8000-000000000001').set('Cookie', planner);
+    const five = await request(app)
+      .get(`/api/scenarios/compare?ids=${[1, 2, 3, 4, 5].map((n) => `00000000-0000-4000-8000-00000000000${n}`).join(',')}`)
+      .set('Cookie', planner);
+
+    expect(one.status).toBe(400);
+    expect(one.body.error.message).toMatch(/ids/);
+    expect(five.status).toBe(400);
+  });
+});
+
+describe('deleting what scenarios use', () => {
+  it('refuses to delete a route used by scenarios, naming how many', async () => {
+    const route = await aRoute();
+    await request(app).post('/api/scenarios').set('Cookie', planner).send(aScenarioDraft(route.id));
+    await request(app).post('/api/scenarios').set('Cookie', planner).send(aScenarioDraft(route.id, { name: 'Second' }));
+
+    const response = await request(app).delete(`/api/routes/${route.id}`).set('Cookie', planner);
+
+    expect(response.status).toBe(409);
+    expect(response.body.error.message).toMatch(/2 scenarios/);
+    expect(await countRows(db, 'road_routes')).toBe(1);
+  });
+
+  it('deletes a scenario, after which its route can go', async () => {
+    const route = await aRoute();
+    const scenario = (await request(app).post('/api/scenarios').set('Cookie', planner).send(aScenarioDraft(route.id))).body;
+
+    const deleted = await request(app).delete(`/api/scenarios/${scenario.id}`).set('Cookie', await cookieFor('analyst'));
+    const routeDeleted = await request(app).delete(`/api/routes/${route.id}`).set('Cookie', planner);
+
+    expect(deleted.status).toBe(204);
+    expect(routeDeleted.status).toBe(204);
+  });
+});
+
+// Helpers
+
+async function aRoute(overrides: Parameters<typeof aRouteDraft>[0] = {}) {
+  const response = await request(app).post('/api/routes').set('Cookie', planner).send(aRouteDraft(overrides));
+  if (response.status !== 201) throw new Error(`route: ${response.status} ${response.text}`);
+  return response.body as { id: string };
+}
+
+function aScenarioDraft(routeId: string, overrides: Partial<ScenarioDraftInput> = {}): ScenarioDraftInput {
+  return {
+    name: 'Spec scenario',
+    routeId,
+    vehicleProfileId: BUS,
+    load: { kind: 'case', case: 'full-standing' },
+    season: { kind: 'season', season: 'winter' },
+    startSoc: 0.7,
+    ...overrides,
+  };
+}
+
