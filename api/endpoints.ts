@@ -4,7 +4,9 @@ import { authEndpoints } from './auth/auth-endpoints';
 import { healthEndpoints } from './health/health-endpoints';
 import type { AnyEndpoint } from './http/endpoint';
 import { mailEndpoints } from './mail/mail-endpoints';
+import { notificationSettingsEndpoints } from './notifications/notification-settings-endpoints';
 import { peopleEndpoints } from './people/people-endpoints';
+import { reviewsEndpoints } from './reviews/reviews-endpoints';
 import { roadRouteEndpoints } from './road-routes/road-routes-endpoints';
 import { scenarioEndpoints } from './scenarios/scenarios-endpoints';
 import { terrainEndpoints } from './terrain/terrain-endpoints';
@@ -22,6 +24,8 @@ export function allEndpoints(deps: AppDeps): AnyEndpoint[] {
     ...peopleEndpoints(deps),
     ...mailEndpoints(deps),
     ...analysisEndpoints(deps),
+    ...reviewsEndpoints(deps),
+    ...notificationSettingsEndpoints(deps),
     ...roadRouteEndpoints(deps),
     ...vehicleProfileEndpoints(deps),
     ...scenarioEndpoints(deps),

@@ -1,5 +1,6 @@
 import { z } from 'zod';
 import { riskLevelSchema } from './analysis';
+import { directionSchema } from './scenarios';
 
 /**
  * The board's one-page network summary, computed from scenarios marked "in service" with their
@@ -17,12 +18,28 @@ export const networkSettingsSchema = z.object({
 });
 export type NetworkSettings = z.infer<typeof networkSettingsSchema>;
 
+/** GET /api/settings/network: the settings and who last set them (null: the shipped placeholders). */
+export const networkSettingsViewSchema = networkSettingsSchema.extend({
+  /** Whether these are still the shipped illustrative placeholders nobody has replaced. */
+  isPlaceholder: z.boolean(),
+  updatedAt: z.iso.datetime({ offset: true }).nullable(),
+  updatedByName: z.string().nullable(),
+});
+export type NetworkSettingsView = z.infer<typeof networkSettingsViewSchema>;
+
 export const routeYearSchema = z.object({
   routeId: z.uuid(),
   routeName: z.string(),
   scenarioId: z.uuid(),
   scenarioName: z.string(),
   vehicleProfileName: z.string(),
+  /**
+   * The scenario's direction. A one-way scenario counts that direction once per round trip (the
+   * route's trips per day are round trips); mark a round-trip scenario in service for both ways.
+   */
+  direction: directionSchema,
+  /** When the scenario's result was computed (the latest in-service result of the route is used). */
+  computedAt: z.iso.datetime({ offset: true }),
   tripsPerDay: z.number(),
   serviceDaysPerYear: z.number(),
   /** Distance driven in a year, km. */

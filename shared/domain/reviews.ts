@@ -1,5 +1,5 @@
 import { z } from 'zod';
-import { riskLevelSchema, speedAdviceSchema } from './analysis';
+import { lineStringSchema, riskLevelSchema, speedAdviceSchema } from './analysis';
 import { directionSchema } from './scenarios';
 
 /**
@@ -62,6 +62,26 @@ export const reviewTransitionRequestSchema = z.discriminatedUnion('action', [
   z.object({ action: z.literal('reopen'), note: z.string().trim().min(3).max(2_000) }),
 ]);
 export type ReviewTransitionRequest = z.infer<typeof reviewTransitionRequestSchema>;
+export type ReviewAction = ReviewTransitionRequest['action'];
+
+/**
+ * The workflow: which states each action may leave and where it leads. Anything else is refused
+ * with 409. Reruns also reopen a mitigated or accepted item on their own when the descent gets
+ * worse (see the API's review sync).
+ */
+export const REVIEW_TRANSITIONS: Readonly<Record<ReviewAction, { from: readonly ReviewState[]; to: ReviewState }>> = {
+  acknowledge: { from: ['raised', 'reopened'], to: 'in-review' },
+  mitigate: { from: ['in-review'], to: 'mitigated' },
+  accept: { from: ['in-review'], to: 'accepted' },
+  reopen: { from: ['mitigated', 'accepted'], to: 'reopened' },
+};
+
+/** Actions open to a safety officer on an item in `state` (for the screens' buttons). */
+export function allowedReviewActions(state: ReviewState): ReviewAction[] {
+  return (Object.keys(REVIEW_TRANSITIONS) as ReviewAction[]).filter((action) =>
+    REVIEW_TRANSITIONS[action].from.includes(state),
+  );
+}
 
 export const reviewItemSchema = z.object({
   id: z.uuid(),
@@ -88,12 +108,51 @@ export const reviewItemSchema = z.object({
   speedAdvice: speedAdviceSchema,
   maxTopSoc: z.number().nullable(),
   mitigation: mitigationSchema.nullable(),
+  /**
+   * Risk and peak brake temperature of the descent when the scenario was re-run with the
+   * mitigation applied (the scenario itself keeps its own inputs); null until a mitigated re-run.
+   */
+  mitigatedRisk: riskLevelSchema.nullable(),
+  mitigatedPeakBrakeTempC: z.number().nullable(),
   acceptanceReason: z.string().nullable(),
   raisedAt: z.iso.datetime({ offset: true }),
   updatedAt: z.iso.datetime({ offset: true }),
 });
 export type ReviewItem = z.infer<typeof reviewItemSchema>;
-export const reviewListSchema = z.object({ items: z.array(reviewItemSchema) });
+export const reviewListSchema = z.object({ items: z.array(reviewItemSchema), caution: z.string() });
+
+/** States in which an item still needs a safety officer (counted as "open"). */
+export const OPEN_REVIEW_STATES = ['raised', 'in-review', 'reopened'] as const satisfies readonly ReviewState[];
+
+/** GET /api/reviews filters; each one narrows the list. */
+export const reviewListQuerySchema = z.object({
+  risk: riskLevelSchema.optional(),
+  state: reviewStateSchema.optional(),
+  routeId: z.uuid().optional(),
+  vehicleProfileId: z.uuid().optional(),
+});
+export type ReviewListQuery = z.infer<typeof reviewListQuerySchema>;
+
+/** The descent's stretch of the stored profile, for the review chart (equal-length arrays). */
+export const reviewProfileSliceSchema = z.object({
+  distanceM: z.array(z.number()),
+  elevationM: z.array(z.number()),
+  brakeTempC: z.array(z.number()),
+  gsrsBrakeTempC: z.array(z.number()),
+  speedMps: z.array(z.number()),
+});
+export type ReviewProfileSlice = z.infer<typeof reviewProfileSliceSchema>;
+
+/** GET /api/reviews/:reviewId: the item, its chart data and the map line of the descent. */
+export const reviewDetailSchema = z.object({
+  item: reviewItemSchema,
+  /** null when the scenario's stored result is gone (deleted or not yet re-run). */
+  profile: reviewProfileSliceSchema.nullable(),
+  /** The descent's stretch of the route, WGS 84; null when no stored profile has positions. */
+  geometry: lineStringSchema.nullable(),
+  caution: z.string(),
+});
+export type ReviewDetail = z.infer<typeof reviewDetailSchema>;
 
 export const auditEventSchema = z.object({
   id: z.uuid(),
@@ -108,6 +167,14 @@ export const auditEventSchema = z.object({
 });
 export type AuditEvent = z.infer<typeof auditEventSchema>;
 export const auditEventListSchema = z.object({ items: z.array(auditEventSchema) });
+
+/** POST /api/reviews/:reviewId/transitions answer: the item after the move and the event written. */
+export const reviewTransitionResultSchema = z.object({
+  item: reviewItemSchema,
+  event: auditEventSchema,
+  caution: z.string(),
+});
+export type ReviewTransitionResult = z.infer<typeof reviewTransitionResultSchema>;
 
 /** E-mail notifications a person can switch off. */
 export const notificationSettingsSchema = z.object({

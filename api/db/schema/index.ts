@@ -4,3 +4,6 @@ export * from './terrain';
 export * from './road-routes';
 export * from './vehicle-profiles';
 export * from './scenarios';
+export * from './reviews';
+export * from './network-settings';
+export * from './batch-runs';

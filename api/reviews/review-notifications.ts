@@ -1,0 +1,140 @@
+/**
+ * E-mails of the review workflow, queued through the outbox inside the transaction that makes
+ * the change: safety officers hear of new high or critical descents, scenario creators hear when
+ * an item on their scenario is resolved. Each person can switch either message off.
+ */
+import { and, eq, inArray } from 'drizzle-orm';
+import type { Descent } from '@shared/domain/analysis';
+import { ENGINEERING_CAUTION } from '@shared/engine/constants';
+import { notificationSettingsSchema, REVIEW_STATE_LABELS, type NotificationSettings } from '@shared/domain/reviews';
+import type { Executor } from '../db/client';
+import { users, type ReviewItemRow } from '../db/schema/index';
+import { enqueueMail } from '../mail/outbox';
+
+/** A person's switches, with the defaults (on) for keys never set. */
+export function notificationSettingsOf(stored: Record<string, boolean> | null | undefined): NotificationSettings {
+  return notificationSettingsSchema.parse(stored ?? {});
+}
+
+export function reviewLink(publicUrl: string, reviewId: string): string {
+  return `${publicUrl.replace(/\/+$/, '')}/reviews/${reviewId}`;
+}
+
+/** The descent in words and figures, as both e-mails show it. */
+export function describeDescent(item: Pick<ReviewItemRow, 'routeName' | 'direction' | 'vehicleProfileName' | 'scenarioName'>, descent: Descent): string[] {
+  return [
+    `Route: ${item.routeName} (${item.direction})`,
+    `Vehicle profile: ${item.vehicleProfileName}; scenario: ${item.scenarioName}`,
+    `Descent: km ${km(descent.startM)} to km ${km(descent.endM)}, drop ${Math.round(descent.dropM)} m, ` +
+      `mean grade ${grade(descent.meanGradePercent)}, steepest ${grade(descent.maxGradePercent)}`,
+    `Risk: ${descent.risk}; peak brake temperature ${Math.round(descent.peakBrakeTempC)} °C ` +
+      `(fade threshold ${Math.round(descent.fadeThresholdC)} °C; grade-severity estimate ${Math.round(descent.gsrsPeakBrakeTempC)} °C)`,
+    `Advice: ${speedAdviceText(descent)}; ${socAdviceText(descent)}`,
+  ];
+}
+
+function speedAdviceText(descent: Descent): string {
+  switch (descent.speedAdvice) {
+    case 'limit':
+      return `keep the descent speed at or below ${Math.floor(descent.maxSafeSpeedKph ?? 0)} km/h`;
+    case 'no-limit-needed':
+      return 'no descent speed limit needed for the brakes';
+    case 'not-holdable':
+      return 'no descent speed keeps the brakes below the fade threshold: an endurance brake or a vehicle restriction is needed';
+  }
+}
+
+function socAdviceText(descent: Descent): string {
+  return descent.maxTopSoc === null
+    ? 'regeneration cannot take the whole descent at any state of charge'
+    : `start the descent at or below ${Math.round(descent.maxTopSoc * 100)} % state of charge so regeneration can take it`;
+}
+
+/** Active safety officers who want to hear of new high-risk descents. */
+async function safetyRecipients(tx: Executor) {
+  const rows = await tx
+    .select({ email: users.email, name: users.name, notificationSettings: users.notificationSettings })
+    .from(users)
+    .where(and(eq(users.role, 'safety'), eq(users.status, 'active')));
+  return rows.filter((row) => notificationSettingsOf(row.notificationSettings).newHighRiskDescent);
+}
+
+/** Tells every safety officer (who has not opted out) that a high or critical descent needs review. */
+export async function notifyHighRiskDescent(tx: Executor, publicUrl: string, item: ReviewItemRow, reason: 'new' | 'reopened'): Promise<void> {
+  const recipients = await safetyRecipients(tx);
+  const headline =
+    reason === 'new'
+      ? `A rerun found a new ${item.risk}-risk descent that needs review.`
+      : `A rerun made a resolved descent worse (now ${item.risk} risk); the review item is reopened.`;
+  for (const recipient of recipients) {
+    await enqueueMail(tx, {
+      to: recipient.email,
+      subject: `${capitalise(item.risk)}-risk descent on ${item.routeName}: km ${km(item.descent.startM)}–${km(item.descent.endM)}`,
+      textBody: [
+        `Hello ${recipient.name},`,
+        '',
+        headline,
+        '',
+        ...describeDescent(item, item.descent),
+        '',
+        'Review it here:',
+        reviewLink(publicUrl, item.id),
+        '',
+        ENGINEERING_CAUTION,
+        '',
+        'You receive this because you are a safety officer; switch it off under your notification settings.',
+      ].join('\n'),
+    });
+  }
+}
+
+/** Tells the creators of the item's scenarios (who have not opted out) that it was resolved. */
+export async function notifyReviewResolved(
+  tx: Executor,
+  publicUrl: string,
+  item: ReviewItemRow,
+  resolution: { by: string; text: string },
+): Promise<void> {
+  const creatorIds = [...new Set(Object.values(item.sources).map((source) => source.createdById))].filter(
+    (id): id is string => id !== null,
+  );
+  if (creatorIds.length === 0) return;
+  const recipients = await tx
+    .select({ email: users.email, name: users.name, notificationSettings: users.notificationSettings })
+    .from(users)
+    .where(and(inArray(users.id, creatorIds), eq(users.status, 'active')));
+  for (const recipient of recipients) {
+    if (!notificationSettingsOf(recipient.notificationSettings).reviewResolved) continue;
+    await enqueueMail(tx, {
+      to: recipient.email,
+      subject: `Descent review ${REVIEW_STATE_LABELS[item.state].toLowerCase()}: ${item.routeName}, km ${km(item.descent.startM)}–${km(item.descent.endM)}`,
+      textBody: [
+        `Hello ${recipient.name},`,
+        '',
+        `${resolution.by} resolved a descent review item on your scenario: ${REVIEW_STATE_LABELS[item.state].toLowerCase()}.`,
+        resolution.text,
+        '',
+        ...describeDescent(item, item.descent),
+        '',
+        'Details and audit trail:',
+        reviewLink(publicUrl, item.id),
+        '',
+        ENGINEERING_CAUTION,
+        '',
+        'You receive this because you created the scenario; switch it off under your notification settings.',
+      ].join('\n'),
+    });
+  }
+}
+
+function km(metres: number): string {
+  return (metres / 1_000).toFixed(2);
+}
+
+function grade(percent: number): string {
+  return `${Math.abs(percent).toFixed(1)} % down`;
+}
+
+function capitalise(text: string): string {
+  return text.charAt(0).toUpperCase() + text.slice(1);
+}
