@@ -49,16 +49,24 @@ export function placeStops(coordinates: LineString['coordinates'], stops: readon
   if (stops.length === 0) return [];
   const line = lineString(coordinates.map(([lon, lat]) => [lon, lat]));
   const vertexM = vertexDistancesM(coordinates);
+  const turfM = [0];
+  for (let i = 1; i < coordinates.length; i++) {
+    const [lonA, latA] = coordinates[i - 1]!;
+    const [lonB, latB] = coordinates[i]!;
+    turfM.push(turfM[i - 1]! + distance(point([lonA, latA]), point([lonB, latB]), { units: 'meters' }));
+  }
   const placed = stops.map((stop, index) => {
     const nearest = nearestPointOnLine(line, point([stop.lon, stop.lat]), { units: 'meters' });
     const offsetM = nearest.properties.pointDistance;
     if (offsetM > STOP_MAX_OFFSET_M) throw new StopOffLineError(index, stop.name, offsetM);
-    const segment = Math.min(nearest.properties.segmentIndex, coordinates.length - 2);
-    const [lonA, latA] = coordinates[segment]!;
-    const [lonB, latB] = coordinates[segment + 1]!;
-    // Turf measures along the segment with the haversine formula; take the share on its terms.
-    const turfSegmentM = distance(point([lonA, latA]), point([lonB, latB]), { units: 'meters' });
-    const share = turfSegmentM > 0 ? Math.min(1, Math.max(0, nearest.properties.segmentDistance / turfSegmentM)) : 0;
+    // Turf measures along the line with the haversine formula; find the segment and the share
+    // along it on Turf's own cumulative distances (its segmentDistance is unreliable at vertices).
+    const alongTurfM = nearest.properties.lineDistance;
+    let segment = Math.min(Math.max(0, nearest.properties.segmentIndex), coordinates.length - 2);
+    while (segment > 0 && alongTurfM < turfM[segment]!) segment--;
+    while (segment < coordinates.length - 2 && alongTurfM > turfM[segment + 1]!) segment++;
+    const turfSegmentM = turfM[segment + 1]! - turfM[segment]!;
+    const share = turfSegmentM > 0 ? Math.min(1, Math.max(0, (alongTurfM - turfM[segment]!) / turfSegmentM)) : 0;
     const atM = vertexM[segment]! + share * (vertexM[segment + 1]! - vertexM[segment]!);
     return { name: stop.name, lon: stop.lon, lat: stop.lat, dwellS: stop.dwellS, atM: round3(atM) };
   });
