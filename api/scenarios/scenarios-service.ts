@@ -6,6 +6,7 @@ import { ENGINEERING_CAUTION } from '@shared/engine/constants';
 import type { AppDeps } from '../app-deps';
 import type { Database } from '../db/client';
 import { BadRequestError, HttpError, NotFoundError } from '../http/http-error';
+import { syncReviewItems } from '../reviews/review-sync';
 import * as routes from '../road-routes/road-routes-repository';
 import * as profiles from '../vehicle-profiles/vehicle-profiles-repository';
 import * as repository from './scenarios-repository';
@@ -69,15 +70,20 @@ async function computeAndStore(db: Database, scenarioId: string, sampleElevation
   }
   const riskCounts: Record<RiskLevel, number> = { low: 0, elevated: 0, high: 0, critical: 0 };
   for (const direction of outcome.directions) for (const descent of direction.descents) riskCounts[descent.risk]++;
-  await repository.updateScenario(db, scenarioId, {
-    status: 'done',
-    failureReason: null,
-    engineVersion: outcome.engineVersion,
-    computedAt: new Date(),
-    inputs: { provenance, ...outcome.inputs },
-    summary: outcome.summary,
-    riskCounts,
-    directionResults: outcome.directions,
+  const computedAt = new Date();
+  await db.transaction(async (tx) => {
+    await repository.updateScenario(tx, scenarioId, {
+      status: 'done',
+      failureReason: null,
+      engineVersion: outcome.engineVersion,
+      computedAt,
+      inputs: { provenance, ...outcome.inputs },
+      summary: outcome.summary,
+      riskCounts,
+      directionResults: outcome.directions,
+    });
+    // Descent review follows every stored result, in the same transaction (api/reviews/review-sync.ts).
+    await syncReviewItems(tx, row, { computedAt, directions: outcome.directions });
   });
 }
 

@@ -46,7 +46,7 @@ export async function aVehicleProfile(db: Executor, overrides: { name?: string }
     .values({
       name: overrides.name ?? 'Spec 12 m battery bus',
       vehicleClass: 'battery-bus-12m',
-      vehicle: presetVehicle('battery-bus-12m'),
+      vehicle: presetVehicle('battery-bus-12m', 'seated'),
       loadsKg: { empty: 0, seated: 2_500, 'full-standing': 6_000 },
       passengerMassKg: 70,
       seasons: { winter: { ambientC: -5, auxPowerW: 20_000 }, mild: { ambientC: 12, auxPowerW: 6_000 }, summer: { ambientC: 28, auxPowerW: 15_000 } },
