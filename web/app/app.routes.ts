@@ -1,7 +1,7 @@
 import type { Routes } from '@angular/router';
 import { ROLES } from '@shared/domain/roles';
 import { areaData } from './core/areas';
-import { areaRoleGuard, signedInGuard } from './core/role-guard';
+import { allowRoles, areaRoleGuard, signedInGuard } from './core/role-guard';
 
 /**
  * The router table. Pages outside the shell are public (sign-in and the e-mailed links).
@@ -44,24 +44,6 @@ export const routes: Routes = [
         loadComponent: () => import('./home/home'),
       },
       {
-        path: 'reviews',
-        title: 'Descent review · Descentry',
-        canMatch: [areaRoleGuard],
-        data: areaData({
-          label: 'Descent review',
-          icon: 'fact_check',
-          summary: 'Long, steep descents where the brakes may fade: acknowledge, mitigate or accept each one.',
-          roles: ['safety', 'planner', 'analyst', 'board', 'admin'],
-          group: 'Safety',
-        }),
-        loadComponent: () => import('./reviews/review-queue'),
-      },
-      {
-        path: 'reviews/:reviewId',
-        title: 'Descent review item · Descentry',
-        loadComponent: () => import('./reviews/review-detail'),
-      },
-      {
         path: 'routes',
         canMatch: [areaRoleGuard],
         data: areaData({
@@ -71,6 +53,53 @@ export const routes: Routes = [
           roles: ROLES,
         }),
         loadChildren: () => import('./road-routes/road-routes.routes'),
+      },
+      {
+        path: 'reviews',
+        title: 'Descent review · Descentry',
+        canMatch: [areaRoleGuard],
+        data: areaData({
+          label: 'Descent review',
+          icon: 'fact_check',
+          summary: 'Long, steep descents where the brakes may fade: acknowledge, mitigate or accept each one.',
+          roles: ['safety', 'planner', 'analyst', 'board', 'admin'],
+        }),
+        loadComponent: () => import('./reviews/review-queue'),
+      },
+      {
+        path: 'reviews/:reviewId',
+        title: 'Descent review item · Descentry',
+        loadComponent: () => import('./reviews/review-detail'),
+      },
+      {
+        path: 'board',
+        title: 'Network summary · Descentry',
+        canMatch: [areaRoleGuard],
+        data: areaData({
+          label: 'Network summary',
+          icon: 'summarize',
+          summary: 'One page on the whole network: energy recovered per year, its value and CO₂, open safety items. Printable.',
+          roles: ['board', 'planner', 'analyst', 'safety', 'admin'],
+        }),
+        loadComponent: () => import('./board/board-summary'),
+      },
+      {
+        path: 'batch-runs',
+        title: 'Network runs · Descentry',
+        canMatch: [areaRoleGuard],
+        data: areaData({
+          label: 'Network runs',
+          icon: 'model_training',
+          summary: 'Re-run every in-service scenario at once and follow each one to the end.',
+          roles: ['analyst'],
+        }),
+        loadComponent: () => import('./batch-runs/batch-runs'),
+      },
+      {
+        path: 'batch-runs/:batchRunId',
+        title: 'Network run · Descentry',
+        canMatch: [allowRoles(['analyst'])],
+        loadComponent: () => import('./batch-runs/batch-run-detail'),
       },
       {
         path: 'admin/people',
@@ -97,6 +126,19 @@ export const routes: Routes = [
           group: 'Administration',
         }),
         loadComponent: () => import('./admin/mail/outgoing-mail'),
+      },
+      {
+        path: 'admin/network',
+        title: 'Network settings · Descentry',
+        canMatch: [areaRoleGuard],
+        data: areaData({
+          label: 'Network settings',
+          icon: 'tune',
+          summary: 'Set the energy tariff, currency and grid emission factor the board summary uses, with their sources.',
+          roles: ['admin'],
+          group: 'Administration',
+        }),
+        loadComponent: () => import('./admin/network/network-settings'),
       },
       {
         path: '**',

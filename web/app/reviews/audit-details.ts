@@ -9,7 +9,7 @@ export interface AuditDetailLine {
 }
 
 /** Keys that are for machines (ids, event kinds) and say nothing to a reader. */
-const HIDDEN_KEYS = new Set(['kind', 'scenarioId', 'reviewId', 'routeId', 'vehicleProfileId', 'jobId']);
+const HIDDEN_KEYS = new Set(['kind', 'applied', 'scenarioId', 'reviewId', 'routeId', 'vehicleProfileId', 'jobId']);
 
 const KNOWN_LABELS: Readonly<Record<string, string>> = {
   risk: 'Risk',
@@ -23,6 +23,8 @@ const KNOWN_LABELS: Readonly<Record<string, string>> = {
   mitigatedPeakBrakeTempC: 'Peak brake temperature with the mitigation',
   scenarioName: 'Scenario',
   rerun: 'Re-run requested',
+  maxSafeSpeedAfterKph: 'Highest safe descent speed after',
+  belowElevated: 'Below elevated risk after the re-run',
   rerunStatus: 'Re-run',
   reason: 'Reason',
   error: 'Problem',

@@ -1,7 +1,6 @@
 import {
   ChangeDetectionStrategy,
   Component,
-  DestroyRef,
   computed,
   effect,
   inject,
@@ -35,10 +34,6 @@ import { ReviewStateChip } from './review-state-chip';
 import { ReviewsApi } from './reviews-api';
 
 type LoadState = { status: 'loading' } | { status: 'error'; message: string } | { status: 'ready' };
-
-/** How often the page asks whether a mitigation re-run has finished, and for how long. */
-export const RERUN_POLL_INTERVAL_MS = 1_500;
-const RERUN_POLL_LIMIT = 60;
 
 /** One descent under review: where it is, how hot the brakes get, what to do, and who did what. */
 @Component({
@@ -79,8 +74,8 @@ export default class ReviewDetailPage {
   protected readonly detail = signal<ReviewDetail | null>(null);
   protected readonly item = signal<ReviewItem | null>(null);
   protected readonly events = signal<AuditEvent[]>([]);
-  /** Whether a mitigation re-run has been asked for and its result is not back yet. */
-  protected readonly awaitingRerun = signal(false);
+  /** What the last mitigation re-run said, when it could not give a new risk (e.g. a restriction only). */
+  protected readonly rerunNote = signal<string | null>(null);
   protected readonly cursorX = signal<number | null>(null);
 
   protected readonly advice = computed(() => {
@@ -182,18 +177,15 @@ export default class ReviewDetailPage {
     ];
   });
 
-  private pollTimer: ReturnType<typeof setTimeout> | null = null;
-
   constructor() {
     effect(() => {
       const reviewId = this.reviewId();
       untracked(() => void this.load(reviewId));
     });
-    inject(DestroyRef).onDestroy(() => this.stopPolling());
   }
 
   protected async load(reviewId = this.reviewId()): Promise<void> {
-    this.stopPolling();
+    this.rerunNote.set(null);
     this.loadState.set({ status: 'loading' });
     try {
       const [detail, events] = await Promise.all([this.reviewsApi.get(reviewId), this.reviewsApi.events(reviewId)]);
@@ -212,40 +204,15 @@ export default class ReviewDetailPage {
     this.item.set(item);
     this.events.update((events) => [...events.filter((existing) => existing.id !== event.id), event]);
     this.snackBar.open(`Saved: the item is now “${REVIEW_STATE_LABELS[item.state]}”.`, 'OK');
-    if (change.rerunRequested && item.mitigatedRisk === null) {
-      this.awaitingRerun.set(true);
-      this.pollRerun(item.id, 0);
-    }
+    // The API re-runs while answering; when it could not (nothing it can model), it says why.
+    const status = event.details?.['rerunStatus'];
+    this.rerunNote.set(change.rerunRequested && item.mitigatedRisk === null && typeof status === 'string' ? status : null);
   }
 
   protected hover(x: number | null): void {
     this.cursorX.set(x);
   }
 
-  /** Asks again until the re-run's risk is in (a queued scenario run can take a few seconds). */
-  private pollRerun(reviewId: string, attempt: number): void {
-    this.pollTimer = setTimeout(async () => {
-      try {
-        const detail = await this.reviewsApi.get(reviewId);
-        if (detail.item.mitigatedRisk !== null || attempt + 1 >= RERUN_POLL_LIMIT) {
-          this.detail.set(detail);
-          this.item.set(detail.item);
-          this.events.set(await this.reviewsApi.events(reviewId));
-          this.awaitingRerun.set(false);
-          return;
-        }
-      } catch {
-        // Expected now and then (a dropped connection); the interceptor has said so. Keep asking.
-      }
-      this.pollRerun(reviewId, attempt + 1);
-    }, RERUN_POLL_INTERVAL_MS);
-  }
-
-  private stopPolling(): void {
-    if (this.pollTimer !== null) clearTimeout(this.pollTimer);
-    this.pollTimer = null;
-    this.awaitingRerun.set(false);
-  }
 }
 
 function nearestIndex(values: readonly number[], target: number): number {

@@ -79,6 +79,16 @@ export default class Shell {
       });
   }
 
+  protected async openNotificationSettings(): Promise<void> {
+    const { NotificationSettingsDialog } = await import('../account/notification-settings-dialog');
+    this.dialog
+      .open(NotificationSettingsDialog, { width: '520px', maxWidth: '95vw', autoFocus: 'first-tabbable' })
+      .afterClosed()
+      .subscribe((saved: unknown) => {
+        if (saved === true) this.snackBar.open('Notification settings saved.', 'OK');
+      });
+  }
+
   protected async signOut(): Promise<void> {
     try {
       await this.session.signOut();

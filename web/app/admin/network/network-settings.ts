@@ -1,0 +1,175 @@
+import { DatePipe } from '@angular/common';
+import { ChangeDetectionStrategy, Component, inject, signal } from '@angular/core';
+import { FormControl, FormGroup, ReactiveFormsModule, Validators } from '@angular/forms';
+import { MatButtonModule } from '@angular/material/button';
+import { MatFormFieldModule } from '@angular/material/form-field';
+import { MatIconModule } from '@angular/material/icon';
+import { MatInputModule } from '@angular/material/input';
+import { MatProgressBarModule } from '@angular/material/progress-bar';
+import { MatSnackBar } from '@angular/material/snack-bar';
+import { networkSettingsSchema, type NetworkSettingsView } from '@shared/domain/board-summary';
+import { describeApiError } from '../../core/api-error-message';
+import { NetworkSettingsApi } from './network-settings-api';
+
+type LoadState = { status: 'loading' } | { status: 'error'; message: string } | { status: 'ready' };
+
+/** The money and emission factors behind the board summary, each with where it comes from. */
+@Component({
+  selector: 'app-network-settings',
+  imports: [
+    DatePipe,
+    ReactiveFormsModule,
+    MatButtonModule,
+    MatFormFieldModule,
+    MatIconModule,
+    MatInputModule,
+    MatProgressBarModule,
+  ],
+  template: `
+    <section class="app-page" aria-labelledby="network-title">
+      <h1 id="network-title" class="app-page-title">Network settings</h1>
+      <p class="app-lead">
+        The board summary turns recovered braking energy into money and CO₂ with these two factors. Name the source of each:
+        it is printed with the summary.
+      </p>
+      @let state = loadState();
+      @if (state.status === 'loading') {
+        <mat-progress-bar mode="indeterminate" aria-label="Loading network settings" />
+      } @else if (state.status === 'error') {
+        <p class="app-inline-error" role="alert">
+          <mat-icon>error</mat-icon>{{ state.message }}
+          <button matButton type="button" (click)="load()">Try again</button>
+        </p>
+      }
+      @if (view(); as view) {
+        @if (view.isPlaceholder) {
+          <p class="app-caution" role="note">
+            <mat-icon>info</mat-icon>
+            <span>These are the illustrative values Descentry ships with. Replace them with your network's own tariff and grid factor.</span>
+          </p>
+        } @else if (view.updatedAt) {
+          <p class="meta">Last changed by {{ view.updatedByName }} on {{ view.updatedAt | date: 'd MMM y, HH:mm' }}.</p>
+        }
+        <form [formGroup]="form" (ngSubmit)="save()" class="form" aria-label="Network settings">
+          <fieldset>
+            <legend>Energy price</legend>
+            <div class="row">
+              <mat-form-field appearance="outline">
+                <mat-label>Tariff per kWh</mat-label>
+                <input matInput type="number" inputmode="decimal" step="0.001" min="0" max="10" formControlName="energyTariffPerKWh" required />
+                <mat-hint>What one kWh of traction energy costs the network.</mat-hint>
+                @if (form.controls.energyTariffPerKWh.invalid) { <mat-error>Between 0 and 10.</mat-error> }
+              </mat-form-field>
+              <mat-form-field appearance="outline" class="currency">
+                <mat-label>Currency</mat-label>
+                <input matInput formControlName="currency" maxlength="3" autocomplete="off" required />
+                <mat-hint>Three-letter code, e.g. EUR, CHF.</mat-hint>
+                @if (form.controls.currency.invalid) { <mat-error>Three letters, e.g. EUR.</mat-error> }
+              </mat-form-field>
+            </div>
+            <mat-form-field appearance="outline" class="wide">
+              <mat-label>Source of the tariff</mat-label>
+              <input matInput formControlName="tariffSource" maxlength="300" required />
+              <mat-hint>For example the supply contract or the regulator's published price.</mat-hint>
+              @if (form.controls.tariffSource.invalid) { <mat-error>Name the source.</mat-error> }
+            </mat-form-field>
+          </fieldset>
+          <fieldset>
+            <legend>Grid emissions</legend>
+            <mat-form-field appearance="outline">
+              <mat-label>Emission factor</mat-label>
+              <input matInput type="number" inputmode="decimal" step="0.001" min="0" max="2" formControlName="gridEmissionFactorKgPerKWh" required />
+              <span matTextSuffix>kg CO₂ per kWh</span>
+              <mat-hint>CO₂ emitted to generate one kWh on your grid.</mat-hint>
+              @if (form.controls.gridEmissionFactorKgPerKWh.invalid) { <mat-error>Between 0 and 2.</mat-error> }
+            </mat-form-field>
+            <mat-form-field appearance="outline" class="wide">
+              <mat-label>Source of the emission factor</mat-label>
+              <input matInput formControlName="emissionFactorSource" maxlength="300" required />
+              @if (form.controls.emissionFactorSource.invalid) { <mat-error>Name the source.</mat-error> }
+            </mat-form-field>
+          </fieldset>
+          @if (saveError(); as message) {
+            <p class="app-inline-error" role="alert"><mat-icon>error</mat-icon>{{ message }}</p>
+          }
+          <div class="buttons">
+            <button matButton="filled" type="submit" [disabled]="saving()">Save settings</button>
+          </div>
+        </form>
+      }
+    </section>
+  `,
+  styles: `
+    .meta { color: var(--mat-sys-on-surface-variant); }
+    .app-caution { margin: 0 0 16px; }
+    .form { max-width: 720px; display: grid; gap: 16px; }
+    fieldset { border: 1px solid var(--mat-sys-outline-variant); border-radius: var(--mat-sys-corner-medium); padding: 12px 16px 4px; margin: 0; display: grid; gap: 8px; }
+    legend { font: var(--mat-sys-title-medium); padding: 0 6px; }
+    .row { display: flex; gap: 12px; flex-wrap: wrap; }
+    .row mat-form-field { flex: 1 1 200px; }
+    .currency { max-width: 200px; }
+    .wide { width: 100%; }
+    .buttons { display: flex; justify-content: flex-end; }
+  `,
+  changeDetection: ChangeDetectionStrategy.OnPush,
+})
+export default class NetworkSettings {
+  private readonly api = inject(NetworkSettingsApi);
+  private readonly snackBar = inject(MatSnackBar);
+
+  protected readonly loadState = signal<LoadState>({ status: 'loading' });
+  protected readonly view = signal<NetworkSettingsView | null>(null);
+  protected readonly saving = signal(false);
+  protected readonly saveError = signal<string | null>(null);
+
+  protected readonly form = new FormGroup({
+    energyTariffPerKWh: new FormControl<number | null>(null, [Validators.required, Validators.min(0), Validators.max(10)]),
+    currency: new FormControl('', { nonNullable: true, validators: [Validators.required, Validators.pattern(/^\s*[A-Za-z]{3}\s*$/)] }),
+    tariffSource: new FormControl('', { nonNullable: true, validators: [Validators.required, Validators.pattern(/\S/)] }),
+    gridEmissionFactorKgPerKWh: new FormControl<number | null>(null, [Validators.required, Validators.min(0), Validators.max(2)]),
+    emissionFactorSource: new FormControl('', { nonNullable: true, validators: [Validators.required, Validators.pattern(/\S/)] }),
+  });
+
+  constructor() {
+    void this.load();
+  }
+
+  protected async load(): Promise<void> {
+    this.loadState.set({ status: 'loading' });
+    try {
+      this.show(await this.api.get());
+      this.loadState.set({ status: 'ready' });
+    } catch (error: unknown) {
+      // Expected: server unreachable or an answer that fails the shared schema.
+      this.loadState.set({ status: 'error', message: describeApiError(error) });
+    }
+  }
+
+  protected async save(): Promise<void> {
+    this.form.markAllAsTouched();
+    if (this.form.invalid) return;
+    this.saving.set(true);
+    this.saveError.set(null);
+    try {
+      const settings = networkSettingsSchema.parse(this.form.getRawValue());
+      this.show(await this.api.save(settings));
+      this.snackBar.open('Network settings saved. The board summary uses them from now on.', 'OK');
+    } catch (error: unknown) {
+      // Expected: the server refused a value (400) or could not be reached.
+      this.saveError.set(describeApiError(error));
+    } finally {
+      this.saving.set(false);
+    }
+  }
+
+  private show(view: NetworkSettingsView): void {
+    this.view.set(view);
+    this.form.setValue({
+      energyTariffPerKWh: view.energyTariffPerKWh,
+      currency: view.currency,
+      tariffSource: view.tariffSource,
+      gridEmissionFactorKgPerKWh: view.gridEmissionFactorKgPerKWh,
+      emissionFactorSource: view.emissionFactorSource,
+    });
+  }
+}

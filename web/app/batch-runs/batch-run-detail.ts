@@ -1,0 +1,141 @@
+import { DatePipe } from '@angular/common';
+import {
+  ChangeDetectionStrategy,
+  Component,
+  DestroyRef,
+  computed,
+  effect,
+  inject,
+  input,
+  signal,
+  untracked,
+} from '@angular/core';
+import { MatButtonModule } from '@angular/material/button';
+import { MatIconModule } from '@angular/material/icon';
+import { MatProgressBarModule } from '@angular/material/progress-bar';
+import { RouterLink } from '@angular/router';
+import type { BatchRun } from '@shared/domain/board-summary';
+import { describeApiError } from '../core/api-error-message';
+import { pollBatchRun, type BatchRunPoller } from './batch-run-poller';
+import { BATCH_STATUS_ICONS, BATCH_STATUS_LABELS, batchProgressPercent } from './batch-run-status';
+import { BatchRunsApi } from './batch-runs-api';
+
+type LoadState = { status: 'loading' } | { status: 'error'; message: string } | { status: 'ready' };
+
+/** One network run: progress while it runs (asked every 1.5 s), then each scenario's outcome. */
+@Component({
+  selector: 'app-batch-run-detail',
+  imports: [DatePipe, RouterLink, MatButtonModule, MatIconModule, MatProgressBarModule],
+  template: `
+    <section class="app-page" aria-labelledby="run-title">
+      <a routerLink="/batch-runs" class="back"><mat-icon>arrow_back</mat-icon>All network runs</a>
+      <h1 id="run-title" class="app-page-title">Network run</h1>
+      @let state = loadState();
+      @if (state.status === 'loading' && !run()) {
+        <mat-progress-bar mode="indeterminate" aria-label="Loading the network run" />
+      } @else if (state.status === 'error') {
+        <p class="app-inline-error" role="alert">
+          <mat-icon>error</mat-icon>{{ state.message }}
+          <button matButton type="button" (click)="load()">Try again</button>
+        </p>
+      }
+      @if (run(); as run) {
+        <p class="meta">Started by {{ run.startedBy }} on {{ run.createdAt | date: 'd MMM y, HH:mm:ss' }}
+          @if (run.finishedAt) { · finished {{ run.finishedAt | date: 'HH:mm:ss' }} }
+        </p>
+        <div class="progress-block">
+          <div class="progress-text" role="status" data-testid="batch-progress">
+            <strong>{{ labels[run.status] }}</strong>: {{ run.done }} of {{ run.total }} scenarios done
+            @if (run.failed > 0) { , <span class="failed">{{ run.failed }} failed</span> }
+            ({{ percent() }} %)
+          </div>
+          <mat-progress-bar mode="determinate" [value]="percent()" aria-label="Share of scenarios finished" />
+          @if (pollProblem(); as problem) {
+            <p class="hint">{{ problem }} Still trying.</p>
+          }
+        </div>
+        <table class="items" aria-label="Scenarios in this run">
+          <thead><tr><th scope="col">Scenario</th><th scope="col">Status</th><th scope="col">Problem</th></tr></thead>
+          <tbody>
+            @for (item of run.items; track item.scenarioId) {
+              <tr [attr.data-status]="item.status">
+                <th scope="row">{{ item.scenarioName }}</th>
+                <td><span class="status"><mat-icon aria-hidden="true">{{ icons[item.status] }}</mat-icon>{{ labels[item.status] }}</span></td>
+                <td class="error">{{ item.error ?? '' }}</td>
+              </tr>
+            } @empty {
+              <tr><td colspan="3" class="hint">No scenario is marked “in service”.</td></tr>
+            }
+          </tbody>
+        </table>
+      }
+    </section>
+  `,
+  styles: `
+    .back { display: inline-flex; align-items: center; gap: 4px; margin-bottom: 12px; font: var(--mat-sys-label-large); text-decoration: none; }
+    .meta { color: var(--mat-sys-on-surface-variant); margin: 0 0 16px; }
+    .progress-block { display: grid; gap: 8px; margin: 0 0 20px; max-width: 640px; }
+    .failed, .error { color: var(--mat-sys-error); }
+    .hint { font: var(--mat-sys-body-small); color: var(--mat-sys-on-surface-variant); margin: 0; }
+    .items { width: 100%; border-collapse: collapse; font: var(--mat-sys-body-medium); }
+    .items th, .items td { text-align: left; padding: 8px 12px; border-bottom: 1px solid var(--mat-sys-outline-variant); vertical-align: top; }
+    thead th { font: var(--mat-sys-label-large); color: var(--mat-sys-on-surface-variant); }
+    tbody th { font-weight: 500; }
+    .status { display: inline-flex; align-items: center; gap: 6px; }
+    .status mat-icon { font-size: 20px; width: 20px; height: 20px; }
+    tr[data-status='done'] .status { color: var(--mat-sys-primary); }
+    tr[data-status='failed'] .status { color: var(--mat-sys-error); }
+  `,
+  changeDetection: ChangeDetectionStrategy.OnPush,
+})
+export default class BatchRunDetail {
+  private readonly batchRunsApi = inject(BatchRunsApi);
+
+  /** From the `:batchRunId` route parameter. */
+  readonly batchRunId = input.required<string>();
+
+  protected readonly labels = BATCH_STATUS_LABELS;
+  protected readonly icons = BATCH_STATUS_ICONS;
+  protected readonly run = signal<BatchRun | null>(null);
+  protected readonly loadState = signal<LoadState>({ status: 'loading' });
+  protected readonly pollProblem = signal<string | null>(null);
+  protected readonly percent = computed(() => {
+    const run = this.run();
+    return run ? batchProgressPercent(run) : 0;
+  });
+
+  private poller: BatchRunPoller | null = null;
+
+  constructor() {
+    effect(() => {
+      const batchRunId = this.batchRunId();
+      untracked(() => void this.load(batchRunId));
+    });
+    inject(DestroyRef).onDestroy(() => this.poller?.stop());
+  }
+
+  protected async load(batchRunId = this.batchRunId()): Promise<void> {
+    this.poller?.stop();
+    this.loadState.set({ status: 'loading' });
+    try {
+      const run = await this.batchRunsApi.get(batchRunId);
+      this.run.set(run);
+      this.loadState.set({ status: 'ready' });
+      if (run.status !== 'done') this.follow(batchRunId);
+    } catch (error: unknown) {
+      // Expected: unknown id (404), server unreachable, or an answer that fails the shared schema.
+      this.loadState.set({ status: 'error', message: describeApiError(error) });
+    }
+  }
+
+  private follow(batchRunId: string): void {
+    this.poller = pollBatchRun(
+      () => this.batchRunsApi.get(batchRunId),
+      (run) => {
+        this.run.set(run);
+        this.pollProblem.set(null);
+      },
+      { failed: (error) => this.pollProblem.set(describeApiError(error)) },
+    );
+  }
+}
