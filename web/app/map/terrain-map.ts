@@ -1,0 +1,238 @@
+import {
+  ChangeDetectionStrategy,
+  Component,
+  DestroyRef,
+  ElementRef,
+  afterNextRender,
+  effect,
+  inject,
+  input,
+  output,
+  signal,
+  untracked,
+  ViewEncapsulation,
+} from '@angular/core';
+import * as L from 'leaflet';
+
+/** GeoJSON order: [longitude, latitude]. */
+export type MapPosition = readonly [number, number];
+
+/** Our own self-hosted terrain tiles (hillshade with elevation tint); nothing external. */
+export const TERRAIN_TILE_URL = '/api/tiles/terrain/{z}/{x}/{y}.png';
+
+/** Where the map looks before it has anything to show (overridden by `fitTo`). */
+const FALLBACK_VIEW = { center: L.latLng(46.6, 10.4), zoom: 10 };
+
+/** Something drawn over the terrain. Overlays are data: the map redraws them when they change. */
+export type MapOverlay =
+  | {
+      kind: 'line';
+      id: string;
+      positions: readonly MapPosition[];
+      color: string;
+      weight?: number;
+      opacity?: number;
+      dashed?: boolean;
+      /** Whether clicks on the line are reported (`overlayClicked`) instead of reaching the map. */
+      interactive?: boolean;
+      /** Tooltip text. */
+      label?: string;
+    }
+  | {
+      /** A square handle: a route vertex (draggable) or a segment midpoint (click to insert). */
+      kind: 'handle';
+      id: string;
+      at: MapPosition;
+      variant: 'vertex' | 'midpoint' | 'selected';
+      draggable: boolean;
+      label: string;
+    }
+  | {
+      /** A round marker with a short text, e.g. a stop. */
+      kind: 'pin';
+      id: string;
+      at: MapPosition;
+      color: string;
+      label: string;
+      draggable?: boolean;
+    };
+
+export interface MapOverlayEvent {
+  id: string;
+  at: MapPosition;
+}
+
+/**
+ * The one Leaflet wrapper: our terrain tiles plus vector overlays given as data. Created after the
+ * first render (Leaflet needs a sized element), removed on destroy; effects push input changes to
+ * the layers. Feature screens stay Leaflet-free.
+ */
+@Component({
+  selector: 'app-terrain-map',
+  template: '',
+  // Leaflet's stylesheet must reach the elements Leaflet creates: no encapsulation, and it is
+  // loaded only with the screens that show a map (never in the initial bundle).
+  styleUrls: ['../../../node_modules/leaflet/dist/leaflet.css', './terrain-map.scss'],
+  encapsulation: ViewEncapsulation.None,
+  host: { class: 'app-terrain-map', role: 'region', '[attr.aria-label]': 'ariaLabel()' },
+  changeDetection: ChangeDetectionStrategy.OnPush,
+})
+export class TerrainMap {
+  private readonly host = inject<ElementRef<HTMLElement>>(ElementRef);
+
+  /** What the map shows, for screen readers. */
+  readonly ariaLabel = input('Map');
+  /** Lines, handles and pins to draw. */
+  readonly overlays = input<readonly MapOverlay[]>([]);
+  /** A position to mark (e.g. the point under the pointer on a chart); null hides the marker. */
+  readonly highlight = input<MapPosition | null>(null);
+  /** Positions the view fits to whenever this array changes (not on every overlay change). */
+  readonly fitTo = input<readonly MapPosition[] | null>(null);
+  /** Map cursor, e.g. 'crosshair' while drawing. */
+  readonly cursor = input<string>('');
+
+  /** Emits where a person clicked on the map (not on an interactive overlay). */
+  readonly mapClicked = output<MapPosition>();
+  /** Emits when an interactive overlay (a line, a handle, a pin) is clicked. */
+  readonly overlayClicked = output<MapOverlayEvent>();
+  /** Emits when a draggable handle or pin is dropped somewhere else. */
+  readonly overlayMoved = output<MapOverlayEvent>();
+
+  private readonly map = signal<L.Map | null>(null);
+
+  constructor() {
+    afterNextRender(() => this.createMap());
+    inject(DestroyRef).onDestroy(() => this.map()?.remove());
+
+    const overlayLayer = L.layerGroup();
+    effect(() => {
+      const map = this.map();
+      if (!map) return;
+      const overlays = this.overlays();
+      untracked(() => this.drawOverlays(overlayLayer, overlays));
+      if (!map.hasLayer(overlayLayer)) overlayLayer.addTo(map);
+    });
+
+    const highlightMarker = L.circleMarker([0, 0], {
+      radius: 8,
+      color: '#ffffff',
+      weight: 3,
+      fillColor: '#b3261e',
+      fillOpacity: 1,
+      interactive: false,
+    });
+    effect(() => {
+      const map = this.map();
+      const at = this.highlight();
+      if (!map) return;
+      if (at) {
+        highlightMarker.setLatLng(toLatLng(at));
+        if (!map.hasLayer(highlightMarker)) highlightMarker.addTo(map);
+      } else {
+        highlightMarker.remove();
+      }
+    });
+
+    effect(() => {
+      const map = this.map();
+      const positions = this.fitTo();
+      if (!map || !positions || positions.length === 0) return;
+      if (positions.length === 1) {
+        map.setView(toLatLng(positions[0]!), Math.max(map.getZoom(), 14));
+      } else {
+        map.fitBounds(L.latLngBounds(positions.map(toLatLng)), { padding: [24, 24], maxZoom: 16 });
+      }
+    });
+
+    effect(() => {
+      const map = this.map();
+      if (map) map.getContainer().style.cursor = this.cursor();
+    });
+  }
+
+  private createMap(): void {
+    const element = this.host.nativeElement;
+    const map = L.map(element, { center: FALLBACK_VIEW.center, zoom: FALLBACK_VIEW.zoom, zoomControl: true });
+    L.tileLayer(TERRAIN_TILE_URL, {
+      maxZoom: 18,
+      attribution: 'Terrain: elevation models uploaded to Descentry',
+    }).addTo(map);
+    L.control.scale({ imperial: true, metric: true }).addTo(map);
+    map.on('click', (event: L.LeafletMouseEvent) => this.mapClicked.emit(fromLatLng(event.latlng)));
+    // The element may be sized by a grid that settles after the first frame.
+    const resizeObserver = new ResizeObserver(() => map.invalidateSize());
+    resizeObserver.observe(element);
+    map.on('unload', () => resizeObserver.disconnect());
+    this.map.set(map);
+  }
+
+  private drawOverlays(group: L.LayerGroup, overlays: readonly MapOverlay[]): void {
+    group.clearLayers();
+    for (const overlay of overlays) {
+      const layer = this.layerFor(overlay);
+      layer.addTo(group);
+    }
+  }
+
+  private layerFor(overlay: MapOverlay): L.Layer {
+    switch (overlay.kind) {
+      case 'line': {
+        const line = L.polyline(overlay.positions.map(toLatLng), {
+          color: overlay.color,
+          weight: overlay.weight ?? 4,
+          opacity: overlay.opacity ?? 0.95,
+          dashArray: overlay.dashed ? '8 6' : undefined,
+          interactive: overlay.interactive ?? false,
+          bubblingMouseEvents: false,
+        });
+        if (overlay.label) line.bindTooltip(overlay.label, { sticky: true });
+        if (overlay.interactive) {
+          line.on('click', (event: L.LeafletMouseEvent) =>
+            this.overlayClicked.emit({ id: overlay.id, at: fromLatLng(event.latlng) }),
+          );
+        }
+        return line;
+      }
+      case 'handle':
+      case 'pin': {
+        const isHandle = overlay.kind === 'handle';
+        const className = isHandle ? `app-map-handle app-map-handle-${overlay.variant}` : 'app-map-pin';
+        const size = isHandle ? (overlay.variant === 'midpoint' ? 12 : 16) : 22;
+        // Div icons carry no image: nothing to break once the build hashes file names.
+        const icon = L.divIcon({
+          className,
+          iconSize: [size, size],
+          html: isHandle ? '' : `<span style="background:${overlay.color}"></span>`,
+        });
+        const marker = L.marker(toLatLng(overlay.at), {
+          icon,
+          draggable: overlay.draggable ?? false,
+          keyboard: true,
+          title: overlay.label,
+          alt: overlay.label,
+          bubblingMouseEvents: false,
+          riseOnHover: true,
+        });
+        marker.on('click', () => this.overlayClicked.emit({ id: overlay.id, at: overlay.at }));
+        marker.on('keypress', (event: L.LeafletKeyboardEvent) => {
+          if (event.originalEvent.key === 'Enter') this.overlayClicked.emit({ id: overlay.id, at: overlay.at });
+        });
+        marker.on('dragend', () => this.overlayMoved.emit({ id: overlay.id, at: fromLatLng(marker.getLatLng()) }));
+        return marker;
+      }
+    }
+  }
+}
+
+function toLatLng(position: MapPosition): L.LatLng {
+  return L.latLng(position[1], position[0]);
+}
+
+function fromLatLng(latLng: L.LatLng): MapPosition {
+  return [round7(latLng.lng), round7(latLng.lat)];
+}
+
+/** 7 decimals ≈ 1 cm: enough for a route, and GeoJSON stays readable. */
+function round7(value: number): number {
+  return Math.round(value * 1e7) / 1e7;
+}

@@ -1,0 +1,114 @@
+import { HttpClient, HttpContext } from '@angular/common/http';
+import { Injectable, inject } from '@angular/core';
+import type { LineString } from '@shared/domain/analysis';
+import {
+  roadNetworkPathSchema,
+  roadNetworkSchema,
+  roadNetworkUploadResultSchema,
+  roadRouteImportListSchema,
+  roadRouteListSchema,
+  roadRouteSchema,
+  roadRouteVersionListSchema,
+  routeProfileSchema,
+  type RoadNetwork,
+  type RoadNetworkPath,
+  type RoadRoute,
+  type RoadRouteDraftInput,
+  type RoadRouteSummary,
+  type RouteProfile,
+} from '@shared/domain/road-routes';
+import { firstValueFrom, map, type Observable } from 'rxjs';
+import { z } from 'zod';
+import { ERRORS_SHOWN_INLINE } from '../core/api-error-message';
+
+export type RouteExportFormat = 'geojson' | 'gpx';
+export type RouteVersionInfo = z.infer<typeof roadRouteVersionListSchema>['items'][number];
+export type { RoadNetwork, RouteProfile };
+
+const inline = () => ({ context: new HttpContext().set(ERRORS_SHOWN_INLINE, true) });
+
+/** Road routes and the reference road network; every answer is parsed with the shared schemas. */
+@Injectable({ providedIn: 'root' })
+export class RoadRoutesApi {
+  private readonly http = inject(HttpClient);
+
+  async list(): Promise<RoadRouteSummary[]> {
+    return roadRouteListSchema.parse(await firstValueFrom(this.http.get('/api/routes'))).items;
+  }
+
+  async get(routeId: string, version?: number): Promise<RoadRoute> {
+    const path = version === undefined ? routePath(routeId) : `${routePath(routeId)}/versions/${version}`;
+    return roadRouteSchema.parse(await firstValueFrom(this.http.get(path)));
+  }
+
+  /** Creates a route (201). Errors are shown by the editor, inline. */
+  async create(draft: RoadRouteDraftInput): Promise<RoadRoute> {
+    return roadRouteSchema.parse(await firstValueFrom(this.http.post('/api/routes', draft, inline())));
+  }
+
+  /** Saves a new version of the route; the server recomputes the stops' `atM`. */
+  async saveVersion(routeId: string, draft: RoadRouteDraftInput): Promise<RoadRoute> {
+    return roadRouteSchema.parse(await firstValueFrom(this.http.put(routePath(routeId), draft, inline())));
+  }
+
+  /** Every saved version of the route, newest first. */
+  async versions(routeId: string): Promise<RouteVersionInfo[]> {
+    return roadRouteVersionListSchema.parse(await firstValueFrom(this.http.get(`${routePath(routeId)}/versions`))).items;
+  }
+
+  async remove(routeId: string): Promise<void> {
+    await firstValueFrom(this.http.delete(routePath(routeId)));
+  }
+
+  /** Length and elevation along a geometry being edited (not stored). Cancel by unsubscribing. */
+  profile(geometry: LineString): Observable<RouteProfile> {
+    return this.http
+      .post('/api/routes/profile', { geometry }, inline())
+      .pipe(map((body) => routeProfileSchema.parse(body)));
+  }
+
+  /** Download address of a route export (the browser saves the file). */
+  exportUrl(routeId: string, format: RouteExportFormat): string {
+    return `${routePath(routeId)}/export?format=${format}`;
+  }
+
+  /** Imports routes from a GeoJSON or GPX file. */
+  async importFile(file: File): Promise<RoadRoute[]> {
+    return this.upload('/api/routes/import', file);
+  }
+
+  /** Imports a GTFS feed's shapes, stops and trips per day from a zip. */
+  async importGtfs(file: File): Promise<RoadRoute[]> {
+    return this.upload('/api/routes/import-gtfs', file);
+  }
+
+  async roadNetwork(): Promise<RoadNetwork | null> {
+    const body = await firstValueFrom(this.http.get('/api/road-network', inline()));
+    const network = roadNetworkSchema.parse(body);
+    return network.features.length > 0 ? network : null;
+  }
+
+  /** Replaces the reference road network with a GeoJSON FeatureCollection of lines (analysts). */
+  async uploadRoadNetwork(file: File): Promise<{ featureCount: number; lineCount: number }> {
+    const form = new FormData();
+    form.append('file', file, file.name);
+    return roadNetworkUploadResultSchema.parse(await firstValueFrom(this.http.post('/api/road-network', form, inline())));
+  }
+
+  /** The path along the reference network between two points, for snapping a new vertex. */
+  pathAlongNetwork(from: readonly [number, number], to: readonly [number, number]): Observable<RoadNetworkPath> {
+    return this.http
+      .post('/api/road-network/path', { from, to }, inline())
+      .pipe(map((body) => roadNetworkPathSchema.parse(body)));
+  }
+
+  private async upload(path: string, file: File): Promise<RoadRoute[]> {
+    const form = new FormData();
+    form.append('file', file, file.name);
+    return roadRouteImportListSchema.parse(await firstValueFrom(this.http.post(path, form, inline()))).items;
+  }
+}
+
+function routePath(routeId: string): string {
+  return `/api/routes/${encodeURIComponent(routeId)}`;
+}

@@ -1,0 +1,297 @@
+/**
+ * The route editor's editing logic, kept free of Leaflet and Angular so it can be tested alone:
+ * the draft (vertices, stops, speed-limit stretches), the edits a planner makes on the map and in
+ * the tables, and undo/redo over them. Positions are GeoJSON order, [lon, lat].
+ */
+import { geodesicDistanceM, metresPerDegree } from '@shared/engine/geodesy';
+
+export type LonLat = readonly [number, number];
+
+export interface DraftStop {
+  name: string;
+  lon: number;
+  lat: number;
+  /** Dwell time, s. */
+  dwellS: number;
+  /** Distance along the route, m: the server's value after a save, an estimate while editing. */
+  atM: number;
+}
+
+export interface DraftSpeedLimit {
+  fromM: number;
+  toM: number;
+  speedKph: number;
+}
+
+export interface RouteDraftState {
+  readonly vertices: readonly LonLat[];
+  readonly stops: readonly DraftStop[];
+  readonly speedLimits: readonly DraftSpeedLimit[];
+}
+
+export const EMPTY_DRAFT: RouteDraftState = { vertices: [], stops: [], speedLimits: [] };
+
+/** Default dwell of a new stop, s (from memory: 15–30 s at an urban stop). */
+export const DEFAULT_DWELL_S = 20;
+
+/** Length of a polyline along the ellipsoid, m. */
+export function polylineLengthM(vertices: readonly LonLat[]): number {
+  let lengthM = 0;
+  for (let i = 1; i < vertices.length; i++) {
+    const a = vertices[i - 1]!;
+    const b = vertices[i]!;
+    lengthM += geodesicDistanceM(a[0], a[1], b[0], b[1]);
+  }
+  return lengthM;
+}
+
+/** Midpoint of every segment: the handles a planner clicks to insert a vertex there. */
+export function segmentMidpoints(vertices: readonly LonLat[]): LonLat[] {
+  const midpoints: LonLat[] = [];
+  for (let i = 1; i < vertices.length; i++) {
+    const a = vertices[i - 1]!;
+    const b = vertices[i]!;
+    midpoints.push([(a[0] + b[0]) / 2, (a[1] + b[1]) / 2]);
+  }
+  return midpoints;
+}
+
+/** The nearest point on the line to `point`, and its distance along the line. */
+export interface LineProjection {
+  at: LonLat;
+  atM: number;
+  /** Distance from `point` to the line, m. */
+  offsetM: number;
+}
+
+/**
+ * Projects `point` on the polyline. Each segment is treated as straight in a local plane around the
+ * point (fine at the scale of a stop beside a road), and the distance along the line is summed
+ * geodesically up to the projected point.
+ */
+export function projectOnLine(vertices: readonly LonLat[], point: LonLat): LineProjection | null {
+  if (vertices.length < 2) return null;
+  const scale = metresPerDegree(point[1]);
+  const toPlane = (p: LonLat) => [(p[0] - point[0]) * scale.eastM, (p[1] - point[1]) * scale.northM] as const;
+  let best: LineProjection | null = null;
+  let alongM = 0;
+  for (let i = 1; i < vertices.length; i++) {
+    const a = vertices[i - 1]!;
+    const b = vertices[i]!;
+    const [ax, ay] = toPlane(a);
+    const [bx, by] = toPlane(b);
+    const dx = bx - ax;
+    const dy = by - ay;
+    const lengthSq = dx * dx + dy * dy;
+    const t = lengthSq === 0 ? 0 : Math.min(1, Math.max(0, -(ax * dx + ay * dy) / lengthSq));
+    const px = ax + t * dx;
+    const py = ay + t * dy;
+    const offsetM = Math.hypot(px, py);
+    const segmentM = geodesicDistanceM(a[0], a[1], b[0], b[1]);
+    if (!best || offsetM < best.offsetM) {
+      best = { at: [a[0] + t * (b[0] - a[0]), a[1] + t * (b[1] - a[1])], atM: alongM + t * segmentM, offsetM };
+    }
+    alongM += segmentM;
+  }
+  return best;
+}
+
+/** The position `atM` metres along the line (clamped to its ends). */
+export function pointAlongLine(vertices: readonly LonLat[], atM: number): LonLat | null {
+  if (vertices.length === 0) return null;
+  let remainingM = Math.max(0, atM);
+  for (let i = 1; i < vertices.length; i++) {
+    const a = vertices[i - 1]!;
+    const b = vertices[i]!;
+    const segmentM = geodesicDistanceM(a[0], a[1], b[0], b[1]);
+    if (remainingM <= segmentM) {
+      const t = segmentM === 0 ? 0 : remainingM / segmentM;
+      return [a[0] + t * (b[0] - a[0]), a[1] + t * (b[1] - a[1])];
+    }
+    remainingM -= segmentM;
+  }
+  return vertices[vertices.length - 1]!;
+}
+
+/** The part of the line between two distances along it: how a speed-limit stretch is drawn. */
+export function sliceLine(vertices: readonly LonLat[], fromM: number, toM: number): LonLat[] {
+  if (vertices.length < 2 || toM <= fromM) return [];
+  const start = pointAlongLine(vertices, fromM)!;
+  const end = pointAlongLine(vertices, toM)!;
+  const inside: LonLat[] = [start];
+  let alongM = 0;
+  for (let i = 1; i < vertices.length; i++) {
+    const a = vertices[i - 1]!;
+    const b = vertices[i]!;
+    alongM += geodesicDistanceM(a[0], a[1], b[0], b[1]);
+    if (alongM > fromM && alongM < toM) inside.push(b);
+  }
+  inside.push(end);
+  return inside;
+}
+
+/**
+ * Keeps stops and speed limits consistent with a changed geometry: every stop moves to the nearest
+ * point of the new line (its `atM` re-estimated; the server's value replaces it after a save), and
+ * speed-limit stretches are cut to the new length (a stretch wholly beyond the end is dropped).
+ */
+export function reconcile(state: RouteDraftState): RouteDraftState {
+  const { vertices } = state;
+  if (vertices.length < 2) return state;
+  const lengthM = polylineLengthM(vertices);
+  const stops = state.stops.map((stop) => {
+    const projection = projectOnLine(vertices, [stop.lon, stop.lat]);
+    return projection
+      ? { ...stop, lon: projection.at[0], lat: projection.at[1], atM: projection.atM }
+      : stop;
+  });
+  stops.sort((a, b) => a.atM - b.atM);
+  const speedLimits = state.speedLimits
+    .filter((stretch) => stretch.fromM < lengthM)
+    .map((stretch) => ({ ...stretch, toM: Math.min(stretch.toM, roundM(lengthM)) }))
+    .filter((stretch) => stretch.toM > stretch.fromM);
+  return { vertices, stops, speedLimits };
+}
+
+function roundM(valueM: number): number {
+  return Math.round(valueM);
+}
+
+// ---- Edits: each returns a new state (the history keeps the old one) ----
+
+export function appendVertices(state: RouteDraftState, points: readonly LonLat[]): RouteDraftState {
+  return reconcile({ ...state, vertices: [...state.vertices, ...points] });
+}
+
+export function moveVertex(state: RouteDraftState, index: number, to: LonLat): RouteDraftState {
+  assertIndex(state, index);
+  return reconcile({ ...state, vertices: state.vertices.map((vertex, i) => (i === index ? to : vertex)) });
+}
+
+/** Inserts a vertex into segment `segmentIndex` (between vertices segmentIndex and segmentIndex + 1). */
+export function insertVertex(state: RouteDraftState, segmentIndex: number, at: LonLat): RouteDraftState {
+  if (segmentIndex < 0 || segmentIndex >= state.vertices.length - 1) {
+    throw new RangeError(`No segment ${segmentIndex} on a route of ${state.vertices.length} vertices`);
+  }
+  const vertices = [...state.vertices];
+  vertices.splice(segmentIndex + 1, 0, at);
+  return reconcile({ ...state, vertices });
+}
+
+export function deleteVertex(state: RouteDraftState, index: number): RouteDraftState {
+  assertIndex(state, index);
+  return reconcile({ ...state, vertices: state.vertices.filter((_, i) => i !== index) });
+}
+
+/** Places a stop on the line at the point nearest `near`. */
+export function addStopNear(state: RouteDraftState, near: LonLat, name: string, dwellS = DEFAULT_DWELL_S): RouteDraftState {
+  const projection = projectOnLine(state.vertices, near);
+  if (!projection) throw new RangeError('A stop needs a route of at least two vertices');
+  const stop: DraftStop = { name, lon: projection.at[0], lat: projection.at[1], atM: projection.atM, dwellS };
+  return { ...state, stops: [...state.stops, stop].sort((a, b) => a.atM - b.atM) };
+}
+
+/** Moves a stop to `atM` metres along the line (typed in the table). */
+export function moveStopTo(state: RouteDraftState, index: number, atM: number): RouteDraftState {
+  const at = pointAlongLine(state.vertices, atM);
+  if (!at) return state;
+  const lengthM = polylineLengthM(state.vertices);
+  return updateStop(state, index, { lon: at[0], lat: at[1], atM: Math.min(Math.max(0, atM), lengthM) });
+}
+
+export function updateStop(state: RouteDraftState, index: number, change: Partial<DraftStop>): RouteDraftState {
+  const stops = state.stops.map((stop, i) => (i === index ? { ...stop, ...change } : stop));
+  return { ...state, stops: stops.sort((a, b) => a.atM - b.atM) };
+}
+
+export function removeStop(state: RouteDraftState, index: number): RouteDraftState {
+  return { ...state, stops: state.stops.filter((_, i) => i !== index) };
+}
+
+export function addSpeedLimit(state: RouteDraftState, stretch: DraftSpeedLimit): RouteDraftState {
+  if (!(stretch.toM > stretch.fromM)) throw new RangeError('A speed-limit stretch must end after it starts');
+  const speedLimits = [...state.speedLimits, stretch].sort((a, b) => a.fromM - b.fromM);
+  return { ...state, speedLimits };
+}
+
+export function updateSpeedLimit(state: RouteDraftState, index: number, change: Partial<DraftSpeedLimit>): RouteDraftState {
+  const speedLimits = state.speedLimits.map((stretch, i) => (i === index ? { ...stretch, ...change } : stretch));
+  return { ...state, speedLimits };
+}
+
+export function removeSpeedLimit(state: RouteDraftState, index: number): RouteDraftState {
+  return { ...state, speedLimits: state.speedLimits.filter((_, i) => i !== index) };
+}
+
+function assertIndex(state: RouteDraftState, index: number): void {
+  if (index < 0 || index >= state.vertices.length) {
+    throw new RangeError(`No vertex ${index} on a route of ${state.vertices.length} vertices`);
+  }
+}
+
+/**
+ * Undo/redo over whole draft states. An edit after an undo drops the redo branch, as in every
+ * editor; the oldest states fall off past `limit`.
+ */
+export class RouteDraftHistory {
+  private past: RouteDraftState[] = [];
+  private future: RouteDraftState[] = [];
+  private current: RouteDraftState;
+
+  constructor(
+    initial: RouteDraftState = EMPTY_DRAFT,
+    private readonly limit = 200,
+  ) {
+    this.current = initial;
+  }
+
+  get state(): RouteDraftState {
+    return this.current;
+  }
+
+  /** Whether there is an edit to undo. */
+  get canUndo(): boolean {
+    return this.past.length > 0;
+  }
+
+  /** Whether there is an undone edit to redo. */
+  get canRedo(): boolean {
+    return this.future.length > 0;
+  }
+
+  /** Applies an edit; an edit that changes nothing is not recorded. */
+  apply(edit: (state: RouteDraftState) => RouteDraftState): RouteDraftState {
+    const next = edit(this.current);
+    if (next === this.current) return next;
+    this.past.push(this.current);
+    if (this.past.length > this.limit) this.past.shift();
+    this.future = [];
+    this.current = next;
+    return next;
+  }
+
+  undo(): RouteDraftState {
+    const previous = this.past.pop();
+    if (previous) {
+      this.future.push(this.current);
+      this.current = previous;
+    }
+    return this.current;
+  }
+
+  redo(): RouteDraftState {
+    const next = this.future.pop();
+    if (next) {
+      this.past.push(this.current);
+      this.current = next;
+    }
+    return this.current;
+  }
+
+  /** Starts over from `state` (a loaded or saved route): nothing to undo. */
+  reset(state: RouteDraftState): void {
+    this.past = [];
+    this.future = [];
+    this.current = state;
+  }
+}

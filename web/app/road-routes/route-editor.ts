@@ -1,0 +1,638 @@
+import { DatePipe } from '@angular/common';
+import {
+  ChangeDetectionStrategy,
+  Component,
+  computed,
+  effect,
+  inject,
+  input,
+  signal,
+  untracked,
+} from '@angular/core';
+import { toObservable, toSignal } from '@angular/core/rxjs-interop';
+import { FormControl, FormGroup, ReactiveFormsModule, Validators } from '@angular/forms';
+import { MatButtonModule } from '@angular/material/button';
+import { MatButtonToggleModule } from '@angular/material/button-toggle';
+import { MatFormFieldModule } from '@angular/material/form-field';
+import { MatIconModule } from '@angular/material/icon';
+import { MatInputModule } from '@angular/material/input';
+import { MatMenuModule } from '@angular/material/menu';
+import { MatProgressBarModule } from '@angular/material/progress-bar';
+import { MatSelectModule } from '@angular/material/select';
+import { MatSlideToggleModule } from '@angular/material/slide-toggle';
+import { MatSnackBar } from '@angular/material/snack-bar';
+import { MatTooltipModule } from '@angular/material/tooltip';
+import { Router, RouterLink } from '@angular/router';
+import { ROUTE_MODES, type RoadRoute, type RoadRouteDraftInput } from '@shared/domain/road-routes';
+import { catchError, debounceTime, firstValueFrom, map, of, startWith, switchMap } from 'rxjs';
+import { describeApiError } from '../core/api-error-message';
+import { Session } from '../core/session';
+import { DistanceChart, type ChartSeries } from '../charts/distance-chart';
+import { TerrainMap, type MapOverlay, type MapOverlayEvent, type MapPosition } from '../map/terrain-map';
+import { QuantityPipe } from '../units/quantity-pipe';
+import { fromDisplay, toDisplay, unitLabel } from '../units/unit-format';
+import { UnitPreference } from '../units/unit-preference';
+import { UnitSwitch } from '../units/unit-switch';
+import { RoadRoutesApi, type RoadNetwork, type RouteProfile, type RouteVersionInfo } from './road-routes-api';
+import {
+  EMPTY_DRAFT,
+  RouteDraftHistory,
+  addSpeedLimit,
+  addStopNear,
+  appendVertices,
+  deleteVertex,
+  insertVertex,
+  moveStopTo,
+  moveVertex,
+  pointAlongLine,
+  polylineLengthM,
+  projectOnLine,
+  removeSpeedLimit,
+  removeStop,
+  segmentMidpoints,
+  sliceLine,
+  updateSpeedLimit,
+  updateStop,
+  type LonLat,
+  type RouteDraftState,
+} from './route-draft';
+
+/** What a click on the map does. */
+export type EditorTool = 'draw' | 'stop' | 'limit';
+
+type ProfileState =
+  | { status: 'idle' }
+  | { status: 'loading' }
+  | { status: 'ready'; profile: RouteProfile }
+  | { status: 'error'; message: string };
+
+type LoadState = { status: 'loading' } | { status: 'ready' } | { status: 'error'; message: string };
+
+const MODE_LABELS: Readonly<Record<(typeof ROUTE_MODES)[number], string>> = {
+  bus: 'Bus',
+  trolleybus: 'Trolleybus',
+  tram: 'Tram',
+};
+
+// Our map palette: a deep teal route over the warm terrain tint, violet stops, amber limits.
+const ROUTE_COLOR = '#0b5567';
+const NETWORK_COLOR = '#5c6b70';
+const STOP_COLOR = '#6a2c91';
+const LIMIT_COLOR = '#c2570c';
+
+/** Planners draw and edit a route on the terrain map; everyone else reads it. */
+@Component({
+  selector: 'app-route-editor',
+  imports: [
+    DatePipe,
+    ReactiveFormsModule,
+    RouterLink,
+    MatButtonModule,
+    MatButtonToggleModule,
+    MatFormFieldModule,
+    MatIconModule,
+    MatInputModule,
+    MatMenuModule,
+    MatProgressBarModule,
+    MatSelectModule,
+    MatSlideToggleModule,
+    MatTooltipModule,
+    TerrainMap,
+    DistanceChart,
+    QuantityPipe,
+    UnitSwitch,
+  ],
+  templateUrl: './route-editor.html',
+  styleUrl: './route-editor.scss',
+  host: { '(document:keydown)': 'handleShortcut($event)' },
+  changeDetection: ChangeDetectionStrategy.OnPush,
+})
+export default class RouteEditor {
+  private readonly api = inject(RoadRoutesApi);
+  private readonly session = inject(Session);
+  private readonly router = inject(Router);
+  private readonly snackBar = inject(MatSnackBar);
+
+  /** Route being edited, from `routes/:routeId`; absent on `routes/new`. */
+  readonly routeId = input<string | undefined>();
+
+  protected readonly units = inject(UnitPreference).system;
+  protected readonly modes = ROUTE_MODES;
+  protected readonly modeLabels = MODE_LABELS;
+
+  private readonly history = new RouteDraftHistory();
+  protected readonly draft = signal<RouteDraftState>(EMPTY_DRAFT);
+  protected readonly canUndo = signal(false);
+  protected readonly canRedo = signal(false);
+  protected readonly tool = signal<EditorTool>('draw');
+  protected readonly selectedVertex = signal<number | null>(null);
+  protected readonly snapToNetwork = signal(false);
+  protected readonly isRouting = signal(false);
+  protected readonly network = signal<RoadNetwork | null>(null);
+  /** The route's current version as the server last answered it. */
+  protected readonly saved = signal<RoadRoute | null>(null);
+  /** An older version being looked at (read-only), or null for the current one. */
+  protected readonly olderVersion = signal<RoadRoute | null>(null);
+  protected readonly versions = signal<RouteVersionInfo[]>([]);
+  protected readonly loadState = signal<LoadState>({ status: 'ready' });
+  protected readonly isSaving = signal(false);
+  protected readonly saveError = signal<string | null>(null);
+  /** First end of a speed-limit stretch placed on the map, m along the route. */
+  protected readonly pendingLimitFromM = signal<number | null>(null);
+  protected readonly fitTo = signal<MapPosition[] | null>(null);
+  protected readonly hoverX = signal<number | null>(null);
+
+  protected readonly isPlanner = computed(() => this.session.role() === 'planner');
+  /** Whether this person may change what is on screen now. */
+  protected readonly canEdit = computed(() => this.isPlanner() && this.olderVersion() === null);
+  protected readonly vertices = computed(() => this.draft().vertices, { equal: (a, b) => a === b });
+  protected readonly lengthM = computed(() => polylineLengthM(this.vertices()));
+
+  protected readonly details = new FormGroup({
+    name: new FormControl('', { nonNullable: true, validators: [Validators.required, Validators.maxLength(120)] }),
+    mode: new FormControl<(typeof ROUTE_MODES)[number]>('bus', { nonNullable: true }),
+    description: new FormControl('', { nonNullable: true, validators: [Validators.maxLength(2000)] }),
+    defaultSpeedLimit: new FormControl(50, { nonNullable: true, validators: [Validators.required, Validators.min(3), Validators.max(130)] }),
+    tripsPerDay: new FormControl(0, { nonNullable: true, validators: [Validators.required, Validators.min(0), Validators.max(500)] }),
+    serviceDaysPerYear: new FormControl(360, { nonNullable: true, validators: [Validators.required, Validators.min(0), Validators.max(366)] }),
+  });
+
+  /** Speed given to a stretch placed on the map, in the displayed unit. */
+  protected readonly newLimitSpeed = new FormControl(30, { nonNullable: true, validators: [Validators.min(3), Validators.max(130)] });
+
+  /** Live elevation profile: settles 300 ms after the last change; a newer path cancels the request. */
+  protected readonly profile = toSignal(
+    toObservable(this.vertices).pipe(
+      debounceTime(300),
+      switchMap((vertices) => {
+        if (vertices.length < 2) return of<ProfileState>({ status: 'idle' });
+        return this.api.profile({ type: 'LineString', coordinates: vertices.map((v) => [v[0], v[1]] as [number, number]) }).pipe(
+          map((profile): ProfileState => ({ status: 'ready', profile })),
+          startWith<ProfileState>({ status: 'loading' }),
+          catchError((error: unknown) => of<ProfileState>({ status: 'error', message: describeApiError(error) })),
+        );
+      }),
+    ),
+    { initialValue: { status: 'idle' } as ProfileState },
+  );
+
+  protected readonly profileSeries = computed<ChartSeries[]>(() => {
+    const state = this.profile();
+    if (state.status !== 'ready') return [];
+    const system = this.units();
+    return [
+      {
+        label: 'Elevation',
+        x: state.profile.distanceM.map((m) => toDisplay('distance', m, system)),
+        y: state.profile.elevationM.map((m) => (m === null ? null : toDisplay('elevation', m, system))),
+        color: ROUTE_COLOR,
+        fill: true,
+      },
+    ];
+  });
+
+  protected readonly hasTerrainGaps = computed(() => {
+    const state = this.profile();
+    return state.status === 'ready' && state.profile.elevationM.some((value) => value === null);
+  });
+
+  protected readonly profileCursor = computed<MapPosition | null>(() => {
+    const x = this.hoverX();
+    if (x === null) return null;
+    const atM = fromDisplay('distance', x, this.units());
+    return pointAt(this.draft().vertices, atM);
+  });
+
+  protected readonly overlays = computed<MapOverlay[]>(() => {
+    const { vertices, stops, speedLimits } = this.olderVersion() ? toDraft(this.olderVersion()!) : this.draft();
+    const editing = this.canEdit();
+    const tool = this.tool();
+    const selected = this.selectedVertex();
+    const system = this.units();
+    const overlays: MapOverlay[] = [];
+    for (const [index, feature] of (this.network()?.features ?? []).entries()) {
+      overlays.push({ kind: 'line', id: `network:${index}`, positions: feature.geometry.coordinates.map(lonLatOf), color: NETWORK_COLOR, weight: 2, opacity: 0.7 });
+    }
+    speedLimits.forEach((stretch, index) => {
+      overlays.push({
+        kind: 'line',
+        id: `limit:${index}`,
+        positions: sliceLine(vertices, stretch.fromM, stretch.toM),
+        color: LIMIT_COLOR,
+        weight: 11,
+        opacity: 0.55,
+        label: `Speed limit ${formatSpeed(stretch.speedKph, system)}`,
+      });
+    });
+    if (vertices.length >= 2) {
+      overlays.push({
+        kind: 'line',
+        id: 'route',
+        positions: vertices,
+        color: ROUTE_COLOR,
+        weight: 5,
+        interactive: editing && tool !== 'draw',
+        label: editing && tool === 'stop' ? 'Click to place a stop here' : editing && tool === 'limit' ? 'Click the start, then the end of the stretch' : undefined,
+      });
+    }
+    if (editing && tool === 'draw') {
+      segmentMidpoints(vertices).forEach((at, index) =>
+        overlays.push({ kind: 'handle', id: `mid:${index}`, at, variant: 'midpoint', draggable: false, label: `Insert a vertex in segment ${index + 1}` }),
+      );
+    }
+    if (editing) {
+      vertices.forEach((at, index) =>
+        overlays.push({
+          kind: 'handle',
+          id: `vertex:${index}`,
+          at,
+          variant: index === selected ? 'selected' : 'vertex',
+          draggable: tool === 'draw',
+          label: `Vertex ${index + 1} of ${vertices.length}`,
+        }),
+      );
+    }
+    stops.forEach((stop, index) =>
+      overlays.push({ kind: 'pin', id: `stop:${index}`, at: [stop.lon, stop.lat], color: STOP_COLOR, label: `Stop: ${stop.name}` }),
+    );
+    const pendingFromM = this.pendingLimitFromM();
+    if (pendingFromM !== null) {
+      const at = pointAt(vertices, pendingFromM);
+      if (at) overlays.push({ kind: 'pin', id: 'limit-start', at, color: LIMIT_COLOR, label: 'Start of the new speed-limit stretch' });
+    }
+    return overlays;
+  });
+
+  protected readonly versionShown = computed(() => this.olderVersion()?.version ?? this.saved()?.version ?? null);
+
+  constructor() {
+    effect(() => {
+      const routeId = this.routeId();
+      untracked(() => void this.load(routeId));
+    });
+    effect(() => {
+      // Everyone reads; only planners change details. Older versions are read-only for all.
+      if (this.canEdit()) this.details.enable({ emitEvent: false });
+      else this.details.disable({ emitEvent: false });
+    });
+    void this.loadNetwork();
+  }
+
+  // ---- Map ----
+
+  protected async mapClicked(at: MapPosition): Promise<void> {
+    if (!this.canEdit()) return;
+    const tool = this.tool();
+    if (tool === 'draw') {
+      await this.addVertex(at);
+    } else if (this.draft().vertices.length >= 2) {
+      this.placeOnLine(at);
+    }
+  }
+
+  protected overlayClicked(event: MapOverlayEvent): void {
+    if (!this.canEdit()) return;
+    const [kind, indexText] = event.id.split(':');
+    const index = Number(indexText);
+    if (kind === 'route') this.placeOnLine(event.at);
+    else if (kind === 'mid') this.edit((state) => insertVertex(state, index, segmentMidpoints(state.vertices)[index]!));
+    else if (kind === 'vertex') this.selectedVertex.update((current) => (current === index ? null : index));
+  }
+
+  protected overlayMoved(event: MapOverlayEvent): void {
+    if (!this.canEdit()) return;
+    const [kind, indexText] = event.id.split(':');
+    if (kind === 'vertex') this.edit((state) => moveVertex(state, Number(indexText), event.at));
+  }
+
+  private async addVertex(at: MapPosition): Promise<void> {
+    const vertices = this.draft().vertices;
+    const last = vertices[vertices.length - 1];
+    if (!last || !this.snapToNetwork() || !this.network()) {
+      this.edit((state) => appendVertices(state, [at]));
+      return;
+    }
+    if (this.isRouting()) return;
+    this.isRouting.set(true);
+    try {
+      const path = await firstValueFrom(this.api.pathAlongNetwork(last, at));
+      const routed = path.geometry.coordinates.slice(1).map(lonLatOf);
+      this.edit((state) => appendVertices(state, routed.length > 0 ? routed : [at]));
+    } catch (error: unknown) {
+      // Expected when the two points are not connected by the network: add the point directly.
+      this.snackBar.open(`${describeApiError(error)} The point was added without snapping.`, 'Dismiss');
+      this.edit((state) => appendVertices(state, [at]));
+    } finally {
+      this.isRouting.set(false);
+    }
+  }
+
+  private placeOnLine(at: MapPosition): void {
+    const vertices = this.draft().vertices;
+    if (this.tool() === 'stop') {
+      const name = `Stop ${this.draft().stops.length + 1}`;
+      this.edit((state) => addStopNear(state, at, name));
+      return;
+    }
+    const projection = projectOnLine(vertices, at);
+    if (!projection) return;
+    const fromM = this.pendingLimitFromM();
+    if (fromM === null) {
+      this.pendingLimitFromM.set(Math.round(projection.atM));
+      return;
+    }
+    const toM = Math.round(projection.atM);
+    this.pendingLimitFromM.set(null);
+    if (Math.abs(toM - fromM) < 1 || this.newLimitSpeed.invalid) return;
+    const speedKph = this.speedKphFromDisplay(this.newLimitSpeed.value);
+    this.edit((state) => addSpeedLimit(state, { fromM: Math.min(fromM, toM), toM: Math.max(fromM, toM), speedKph }));
+  }
+
+  protected chooseTool(tool: EditorTool): void {
+    this.tool.set(tool);
+    this.pendingLimitFromM.set(null);
+    this.selectedVertex.set(null);
+  }
+
+  // ---- Edits, undo and redo ----
+
+  protected edit(change: (state: RouteDraftState) => RouteDraftState): void {
+    if (!this.canEdit()) return;
+    const next = this.history.apply(change);
+    this.publish(next);
+  }
+
+  protected undo(): void {
+    this.publish(this.history.undo());
+  }
+
+  protected redo(): void {
+    this.publish(this.history.redo());
+  }
+
+  protected deleteSelectedVertex(): void {
+    const index = this.selectedVertex();
+    if (index === null) return;
+    this.edit((state) => deleteVertex(state, index));
+    this.selectedVertex.set(null);
+  }
+
+  protected clearRoute(): void {
+    this.edit(() => EMPTY_DRAFT);
+  }
+
+  /** Ctrl+Z / Ctrl+Y (and Ctrl+Shift+Z) anywhere but in a text field; Delete removes the selected vertex. */
+  protected handleShortcut(event: KeyboardEvent): void {
+    const target = event.target as HTMLElement | null;
+    if (target && (target.closest('input, textarea, select, [contenteditable="true"]') || !this.canEdit())) return;
+    const key = event.key.toLowerCase();
+    if ((event.ctrlKey || event.metaKey) && key === 'z' && !event.shiftKey) {
+      event.preventDefault();
+      this.undo();
+    } else if ((event.ctrlKey || event.metaKey) && (key === 'y' || (key === 'z' && event.shiftKey))) {
+      event.preventDefault();
+      this.redo();
+    } else if ((key === 'delete' || key === 'backspace') && this.selectedVertex() !== null) {
+      event.preventDefault();
+      this.deleteSelectedVertex();
+    } else if (key === 'escape') {
+      this.pendingLimitFromM.set(null);
+      this.selectedVertex.set(null);
+    }
+  }
+
+  private publish(state: RouteDraftState): void {
+    this.draft.set(state);
+    this.canUndo.set(this.history.canUndo);
+    this.canRedo.set(this.history.canRedo);
+    const selected = this.selectedVertex();
+    if (selected !== null && selected >= state.vertices.length) this.selectedVertex.set(null);
+  }
+
+  // ---- Tables ----
+
+  protected renameStop(index: number, name: string): void {
+    if (name.trim()) this.edit((state) => updateStop(state, index, { name: name.trim() }));
+  }
+
+  protected setStopDwell(index: number, text: string): void {
+    const dwellS = Number(text);
+    if (Number.isFinite(dwellS) && dwellS >= 0 && dwellS <= 3600) this.edit((state) => updateStop(state, index, { dwellS }));
+  }
+
+  protected setStopPosition(index: number, text: string): void {
+    const shown = Number(text);
+    if (Number.isFinite(shown) && shown >= 0) this.edit((state) => moveStopTo(state, index, fromDisplay('distance', shown, this.units())));
+  }
+
+  protected removeStop(index: number): void {
+    this.edit((state) => removeStop(state, index));
+  }
+
+  protected setLimit(index: number, field: 'fromM' | 'toM' | 'speedKph', text: string): void {
+    const shown = Number(text);
+    if (!Number.isFinite(shown) || shown < 0) return;
+    const value = field === 'speedKph' ? this.speedKphFromDisplay(shown) : Math.round(fromDisplay('distance', shown, this.units()));
+    const current = this.draft().speedLimits[index];
+    if (!current) return;
+    const next = { ...current, [field]: value };
+    if (next.toM <= next.fromM || next.speedKph < 5 || next.speedKph > 130) {
+      this.snackBar.open('A stretch must end after it starts, at 5 to 130 km/h.', 'Dismiss');
+      return;
+    }
+    this.edit((state) => updateSpeedLimit(state, index, { [field]: value }));
+  }
+
+  protected addLimitFromTable(): void {
+    const lengthM = Math.round(this.lengthM());
+    if (lengthM < 2 || this.newLimitSpeed.invalid) return;
+    const last = this.draft().speedLimits.at(-1);
+    const fromM = last && last.toM < lengthM ? last.toM : 0;
+    const speedKph = this.speedKphFromDisplay(this.newLimitSpeed.value);
+    this.edit((state) => addSpeedLimit(state, { fromM, toM: lengthM, speedKph }));
+  }
+
+  protected removeLimit(index: number): void {
+    this.edit((state) => removeSpeedLimit(state, index));
+  }
+
+  protected distanceShown(valueM: number): string {
+    return toDisplay('distance', valueM, this.units()).toFixed(3).replace(/\.?0+$/, '');
+  }
+
+  protected speedShown(speedKph: number): string {
+    return String(Math.round(toDisplay('speed', speedKph / 3.6, this.units())));
+  }
+
+  protected unit(quantity: 'distance' | 'speed'): string {
+    return unitLabel(quantity, this.units());
+  }
+
+  private speedKphFromDisplay(shown: number): number {
+    return Math.round(fromDisplay('speed', shown, this.units()) * 3.6 * 10) / 10;
+  }
+
+  // ---- Loading and saving ----
+
+  protected async showVersion(version: number): Promise<void> {
+    const routeId = this.routeId();
+    const current = this.saved();
+    if (!routeId || !current) return;
+    if (version === current.version) {
+      this.olderVersion.set(null);
+      this.fitTo.set([...current.geometry.coordinates.map(lonLatOf)]);
+      return;
+    }
+    try {
+      const older = await this.api.get(routeId, version);
+      this.olderVersion.set(older);
+      this.fitTo.set(older.geometry.coordinates.map(lonLatOf));
+    } catch (error: unknown) {
+      this.snackBar.open(describeApiError(error), 'Dismiss');
+    }
+  }
+
+  protected async save(): Promise<void> {
+    if (!this.canEdit() || this.draft().vertices.length < 2) return;
+    this.details.markAllAsTouched();
+    if (this.details.invalid) {
+      this.saveError.set('Give the route a name and check the highlighted details.');
+      return;
+    }
+    this.isSaving.set(true);
+    this.saveError.set(null);
+    try {
+      const body = this.requestBody();
+      const routeId = this.routeId();
+      const route = routeId ? await this.api.saveVersion(routeId, body) : await this.api.create(body);
+      this.showSaved(route, false);
+      this.snackBar.open(`Saved version ${route.version} of “${route.name}”.`, 'Dismiss');
+      if (!routeId) await this.router.navigate(['/routes', route.id], { replaceUrl: true });
+      else void this.loadVersions(route.id);
+    } catch (error: unknown) {
+      this.saveError.set(describeApiError(error));
+    } finally {
+      this.isSaving.set(false);
+    }
+  }
+
+  protected async deleteRoute(): Promise<void> {
+    const route = this.saved();
+    if (!route || !window.confirm(`Delete the route “${route.name}” and every version of it?`)) return;
+    try {
+      await this.api.remove(route.id);
+      await this.router.navigate(['/routes']);
+    } catch (error: unknown) {
+      // The interceptor has shown why (e.g. scenarios still use the route).
+      console.warn('Route not deleted', error);
+    }
+  }
+
+  protected exportUrl(format: 'geojson' | 'gpx'): string | null {
+    const routeId = this.routeId();
+    return routeId ? this.api.exportUrl(routeId, format) : null;
+  }
+
+  /** The request body a save sends: SI units; the server recomputes the stops' `atM`. */
+  private requestBody(): RoadRouteDraftInput {
+    const { vertices, stops, speedLimits } = this.draft();
+    const details = this.details.getRawValue();
+    return {
+      name: details.name.trim(),
+      description: details.description.trim(),
+      mode: details.mode,
+      geometry: { type: 'LineString', coordinates: vertices.map((v) => [v[0], v[1]] as [number, number]) },
+      stops: stops.map((stop) => ({ name: stop.name, lon: stop.lon, lat: stop.lat, dwellS: stop.dwellS })),
+      speedLimits: speedLimits.map((stretch) => ({ ...stretch })),
+      defaultSpeedLimitKph: this.speedKphFromDisplay(details.defaultSpeedLimit),
+      tripsPerDay: details.tripsPerDay,
+      serviceDaysPerYear: details.serviceDaysPerYear,
+    };
+  }
+
+  private async load(routeId: string | undefined): Promise<void> {
+    this.olderVersion.set(null);
+    if (!routeId) {
+      this.saved.set(null);
+      this.history.reset(EMPTY_DRAFT);
+      this.publish(EMPTY_DRAFT);
+      void this.fitToTerrain();
+      return;
+    }
+    this.loadState.set({ status: 'loading' });
+    try {
+      const route = await this.api.get(routeId);
+      this.showSaved(route, true);
+      this.loadState.set({ status: 'ready' });
+      void this.loadVersions(routeId);
+    } catch (error: unknown) {
+      this.loadState.set({ status: 'error', message: describeApiError(error) });
+    }
+  }
+
+  private async loadVersions(routeId: string): Promise<void> {
+    try {
+      this.versions.set(await this.api.versions(routeId));
+    } catch {
+      // Expected while the version list is unavailable: the current version still shows.
+      this.versions.set([]);
+    }
+  }
+
+  /** Shows the server's answer (its `atM` for every stop) and starts a fresh undo history. */
+  private showSaved(route: RoadRoute, fit: boolean): void {
+    this.saved.set(route);
+    this.olderVersion.set(null);
+    const state = toDraft(route);
+    this.history.reset(state);
+    this.publish(state);
+    this.details.setValue({
+      name: route.name,
+      mode: route.mode,
+      description: route.description,
+      defaultSpeedLimit: Number(this.speedShown(route.defaultSpeedLimitKph)),
+      tripsPerDay: route.tripsPerDay,
+      serviceDaysPerYear: route.serviceDaysPerYear,
+    });
+    this.details.markAsPristine();
+    if (fit) this.fitTo.set(state.vertices.map((v) => [v[0], v[1]]));
+  }
+
+  private async loadNetwork(): Promise<void> {
+    try {
+      const network = await this.api.roadNetwork();
+      this.network.set(network);
+      if (network && this.isPlanner()) this.snapToNetwork.set(true);
+    } catch {
+      // Expected when no reference network has been uploaded yet: draw freely.
+      this.network.set(null);
+    }
+  }
+
+  /** A new route starts over the terrain that has been uploaded, or over the road network. */
+  private async fitToTerrain(): Promise<void> {
+    const network = this.network() ?? (await this.api.roadNetwork().catch(() => null));
+    const positions = network?.features.flatMap((feature) => feature.geometry.coordinates.map(lonLatOf)) ?? [];
+    if (positions.length > 0 && this.draft().vertices.length === 0) this.fitTo.set(positions);
+  }
+}
+
+function toDraft(route: RoadRoute): RouteDraftState {
+  return {
+    vertices: route.geometry.coordinates.map(lonLatOf),
+    stops: route.stops.map((stop) => ({ name: stop.name, lon: stop.lon, lat: stop.lat, dwellS: stop.dwellS, atM: stop.atM })),
+    speedLimits: route.speedLimits.map((stretch) => ({ ...stretch })),
+  };
+}
+
+function lonLatOf(position: readonly number[]): LonLat {
+  return [position[0]!, position[1]!];
+}
+
+function pointAt(vertices: readonly LonLat[], atM: number): MapPosition | null {
+  return pointAlongLine(vertices, atM);
+}
+
+function formatSpeed(speedKph: number, system: 'metric' | 'imperial'): string {
+  return `${Math.round(toDisplay('speed', speedKph / 3.6, system))} ${unitLabel('speed', system)}`;
+}

@@ -1,0 +1,133 @@
+import { DatePipe } from '@angular/common';
+import { ChangeDetectionStrategy, Component, computed, effect, inject, signal, viewChild } from '@angular/core';
+import { toSignal } from '@angular/core/rxjs-interop';
+import { FormControl, ReactiveFormsModule } from '@angular/forms';
+import { MatButtonModule } from '@angular/material/button';
+import { MatFormFieldModule } from '@angular/material/form-field';
+import { MatIconModule } from '@angular/material/icon';
+import { MatInputModule } from '@angular/material/input';
+import { MatPaginator, MatPaginatorModule } from '@angular/material/paginator';
+import { MatProgressBarModule } from '@angular/material/progress-bar';
+import { MatSnackBar } from '@angular/material/snack-bar';
+import { MatSort, MatSortModule } from '@angular/material/sort';
+import { MatTableDataSource, MatTableModule } from '@angular/material/table';
+import { Router, RouterLink } from '@angular/router';
+import type { RoadRouteSummary } from '@shared/domain/road-routes';
+import { describeApiError } from '../core/api-error-message';
+import { Session } from '../core/session';
+import { QuantityPipe } from '../units/quantity-pipe';
+import { UnitPreference } from '../units/unit-preference';
+import { RoadRoutesApi } from './road-routes-api';
+
+type LoadState = { status: 'loading' } | { status: 'error'; message: string } | { status: 'ready' };
+
+const MODE_LABELS: Readonly<Record<RoadRouteSummary['mode'], string>> = { bus: 'Bus', trolleybus: 'Trolleybus', tram: 'Tram' };
+
+/** Every route of the authority: search, sort, page; planners import, analysts load the road network. */
+@Component({
+  selector: 'app-route-list',
+  imports: [
+    DatePipe,
+    ReactiveFormsModule,
+    RouterLink,
+    MatTableModule,
+    MatSortModule,
+    MatPaginatorModule,
+    MatFormFieldModule,
+    MatInputModule,
+    MatButtonModule,
+    MatIconModule,
+    MatProgressBarModule,
+    QuantityPipe,
+  ],
+  templateUrl: './route-list.html',
+  styleUrl: './route-list.scss',
+  changeDetection: ChangeDetectionStrategy.OnPush,
+})
+export default class RouteList {
+  private readonly api = inject(RoadRoutesApi);
+  private readonly session = inject(Session);
+  private readonly router = inject(Router);
+  private readonly snackBar = inject(MatSnackBar);
+
+  private readonly sort = viewChild(MatSort);
+  private readonly paginator = viewChild(MatPaginator);
+
+  protected readonly units = inject(UnitPreference).system;
+  protected readonly columns = ['name', 'mode', 'version', 'lengthM', 'stopCount', 'tripsPerDay', 'scenarioCount', 'updatedAt'];
+  protected readonly dataSource = new MatTableDataSource<RoadRouteSummary>([]);
+  protected readonly loadState = signal<LoadState>({ status: 'loading' });
+  protected readonly routeCount = signal(0);
+  protected readonly isUploading = signal(false);
+  protected readonly uploadError = signal<string | null>(null);
+  protected readonly isPlanner = computed(() => this.session.role() === 'planner');
+  protected readonly isAnalyst = computed(() => this.session.role() === 'analyst');
+
+  protected readonly search = new FormControl('', { nonNullable: true });
+  private readonly searchText = toSignal(this.search.valueChanges, { initialValue: '' });
+  protected readonly shownCount = signal(0);
+
+  constructor() {
+    this.dataSource.filterPredicate = (route, filter) => route.name.toLowerCase().includes(filter);
+    effect(() => {
+      this.dataSource.sort = this.sort() ?? null;
+      this.dataSource.paginator = this.paginator() ?? null;
+    });
+    effect(() => {
+      this.dataSource.filter = this.searchText().trim().toLowerCase();
+      this.shownCount.set(this.dataSource.filteredData.length);
+    });
+    void this.load();
+  }
+
+  protected modeLabel(mode: RoadRouteSummary['mode']): string {
+    return MODE_LABELS[mode];
+  }
+
+  protected async importRoutes(input: HTMLInputElement, kind: 'file' | 'gtfs'): Promise<void> {
+    const file = input.files?.[0];
+    input.value = '';
+    if (!file) return;
+    this.isUploading.set(true);
+    this.uploadError.set(null);
+    try {
+      const routes = kind === 'gtfs' ? await this.api.importGtfs(file) : await this.api.importFile(file);
+      this.snackBar.open(`Imported ${routes.length} route${routes.length === 1 ? '' : 's'} from ${file.name}.`, 'Dismiss');
+      if (routes.length === 1) await this.router.navigate(['/routes', routes[0]!.id]);
+      else await this.load();
+    } catch (error: unknown) {
+      this.uploadError.set(describeApiError(error));
+    } finally {
+      this.isUploading.set(false);
+    }
+  }
+
+  protected async uploadNetwork(input: HTMLInputElement): Promise<void> {
+    const file = input.files?.[0];
+    input.value = '';
+    if (!file) return;
+    this.isUploading.set(true);
+    this.uploadError.set(null);
+    try {
+      const answer = await this.api.uploadRoadNetwork(file);
+      this.snackBar.open(`Road network loaded: ${answer.lineCount} lines. Planners can now snap routes to it.`, 'Dismiss');
+    } catch (error: unknown) {
+      this.uploadError.set(describeApiError(error));
+    } finally {
+      this.isUploading.set(false);
+    }
+  }
+
+  private async load(): Promise<void> {
+    this.loadState.set({ status: 'loading' });
+    try {
+      const routes = await this.api.list();
+      this.dataSource.data = routes;
+      this.routeCount.set(routes.length);
+      this.shownCount.set(this.dataSource.filteredData.length);
+      this.loadState.set({ status: 'ready' });
+    } catch (error: unknown) {
+      this.loadState.set({ status: 'error', message: describeApiError(error) });
+    }
+  }
+}

@@ -1,0 +1,110 @@
+/**
+ * Display units. Everything inside Descentry is SI; these functions convert only at the edge, for
+ * what a person reads: km, km/h, %, kWh, °C, t (metric) or mi, mph, %, kWh, °F, short tons (imperial).
+ */
+
+export const UNIT_SYSTEMS = ['metric', 'imperial'] as const;
+export type UnitSystem = (typeof UNIT_SYSTEMS)[number];
+
+/** A kind of quantity as the interface shows it; each names the SI unit it is given in. */
+export type Quantity =
+  | 'distance' // m → km / mi
+  | 'elevation' // m → m / ft
+  | 'speed' // m/s → km/h / mph
+  | 'temperature' // °C → °C / °F
+  | 'mass' // kg → t / short ton
+  | 'force' // N → kN / lbf
+  | 'energy' // Wh → kWh (both)
+  | 'energyPerDistance' // kWh/km → kWh/km / kWh/mi
+  | 'power' // W → kW (both: the trade rates electric machines in kW)
+  | 'grade' // % → % (both)
+  | 'soc'; // 0–1 → %
+
+const METRES_PER_MILE = 1_609.344;
+const METRES_PER_FOOT = 0.3048;
+const KG_PER_SHORT_TON = 907.18474;
+const NEWTONS_PER_POUND_FORCE = 4.4482216152605;
+
+interface Scale {
+  unit: string;
+  /** Converts the SI value to the displayed number. */
+  from: (si: number) => number;
+  /** Converts a displayed number back to SI (form input). */
+  to: (shown: number) => number;
+  /** Decimals shown by default. */
+  digits: number;
+}
+
+const linear = (unit: string, factor: number, digits: number): Scale => ({
+  unit,
+  from: (si) => si * factor,
+  to: (shown) => shown / factor,
+  digits,
+});
+
+const SCALES: Readonly<Record<UnitSystem, Readonly<Record<Quantity, Scale>>>> = {
+  metric: {
+    distance: linear('km', 1 / 1_000, 2),
+    elevation: linear('m', 1, 0),
+    speed: linear('km/h', 3.6, 0),
+    temperature: linear('°C', 1, 0),
+    mass: linear('t', 1 / 1_000, 1),
+    force: linear('kN', 1 / 1_000, 1),
+    energy: linear('kWh', 1 / 1_000, 1),
+    energyPerDistance: linear('kWh/km', 1, 2),
+    power: linear('kW', 1 / 1_000, 0),
+    grade: linear('%', 1, 1),
+    soc: linear('%', 100, 0),
+  },
+  imperial: {
+    distance: linear('mi', 1 / METRES_PER_MILE, 2),
+    elevation: linear('ft', 1 / METRES_PER_FOOT, 0),
+    speed: linear('mph', 3.6 / 1.609344, 0),
+    temperature: { unit: '°F', from: (c) => (c * 9) / 5 + 32, to: (f) => ((f - 32) * 5) / 9, digits: 0 },
+    mass: linear('tn', 1 / KG_PER_SHORT_TON, 1),
+    force: linear('lbf', 1 / NEWTONS_PER_POUND_FORCE, 0),
+    energy: linear('kWh', 1 / 1_000, 1),
+    energyPerDistance: linear('kWh/mi', 1.609344, 2),
+    power: linear('kW', 1 / 1_000, 0),
+    grade: linear('%', 1, 1),
+    soc: linear('%', 100, 0),
+  },
+};
+
+/** The unit symbol shown for `quantity`, e.g. "km/h" or "mph". */
+export function unitLabel(quantity: Quantity, system: UnitSystem): string {
+  return SCALES[system][quantity].unit;
+}
+
+/** The displayed number for an SI value (no rounding). */
+export function toDisplay(quantity: Quantity, siValue: number, system: UnitSystem): number {
+  return SCALES[system][quantity].from(siValue);
+}
+
+/** The SI value for a displayed number (what a person typed). */
+export function fromDisplay(quantity: Quantity, shownValue: number, system: UnitSystem): number {
+  return SCALES[system][quantity].to(shownValue);
+}
+
+/**
+ * "12.35 km", "1 250 m", "−3.4 %": the SI value in the chosen system, rounded, with its unit.
+ * Missing values read "—" so a table never shows "NaN".
+ */
+export function formatQuantity(
+  quantity: Quantity,
+  siValue: number | null | undefined,
+  system: UnitSystem,
+  digits?: number,
+): string {
+  if (siValue === null || siValue === undefined || !Number.isFinite(siValue)) return '—';
+  const scale = SCALES[system][quantity];
+  const shown = scale.from(siValue);
+  const decimals = digits ?? scale.digits;
+  const text = shown.toLocaleString('en-GB', {
+    minimumFractionDigits: decimals,
+    maximumFractionDigits: decimals,
+  });
+  // A true minus sign reads better than a hyphen beside a number; "-0" is just 0.
+  const signed = text.replace(/^-(?=[0-9.,]*$)/, '−').replace(/^−0(\.0+)?$/, '0$1');
+  return `${signed} ${scale.unit}`;
+}
