@@ -1,0 +1,267 @@
+import { DatePipe, PercentPipe } from '@angular/common';
+import {
+  ChangeDetectionStrategy,
+  Component,
+  DestroyRef,
+  computed,
+  effect,
+  inject,
+  input,
+  signal,
+  untracked,
+} from '@angular/core';
+import { MatButtonModule } from '@angular/material/button';
+import { MatButtonToggleModule } from '@angular/material/button-toggle';
+import { MatIconModule } from '@angular/material/icon';
+import { MatMenuModule } from '@angular/material/menu';
+import { MatProgressBarModule } from '@angular/material/progress-bar';
+import { MatTooltipModule } from '@angular/material/tooltip';
+import { RouterLink } from '@angular/router';
+import type { Descent, RiskLevel } from '@shared/domain/analysis';
+import type { DirectionResult, Scenario, ScenarioResult } from '@shared/domain/scenarios';
+import { DistanceChart, type ChartSeries } from '../charts/distance-chart';
+import { describeApiError, apiErrorBody } from '../core/api-error-message';
+import { Session } from '../core/session';
+import { TerrainMap, type MapOverlay, type MapPosition } from '../map/terrain-map';
+import { QuantityPipe } from '../units/quantity-pipe';
+import { formatQuantity, fromDisplay, toDisplay, unitLabel } from '../units/unit-format';
+import { UnitPreference } from '../units/unit-preference';
+import { UnitSwitch } from '../units/unit-switch';
+import {
+  GRADE_LEGEND,
+  batterySeries,
+  brakeTemperatureSeries,
+  elevationSeries,
+  fadeBands,
+  forceSeries,
+  nearestIndex,
+  speedSeries,
+} from './result-series';
+import { RISK_ORDER, RISK_STYLES, needsCaution } from './risk-levels';
+import { DIRECTION_LABELS, STATUS_LABELS, describeLoad, describeSeason } from './scenario-labels';
+import { ScenariosApi } from './scenarios-api';
+
+type ResultState =
+  | { status: 'loading' }
+  | { status: 'none' }
+  | { status: 'ready'; result: ScenarioResult }
+  | { status: 'error'; message: string };
+
+/** How often a queued or running scenario is asked for its status, ms. */
+const POLL_INTERVAL_MS = 1_500;
+
+/** One scenario's results: figures, linked charts along the route, the map and the descents. */
+@Component({
+  selector: 'app-scenario-result',
+  imports: [
+    DatePipe,
+    PercentPipe,
+    RouterLink,
+    MatButtonModule,
+    MatButtonToggleModule,
+    MatIconModule,
+    MatMenuModule,
+    MatProgressBarModule,
+    MatTooltipModule,
+    DistanceChart,
+    TerrainMap,
+    QuantityPipe,
+    UnitSwitch,
+  ],
+  templateUrl: './scenario-result.html',
+  styleUrl: './scenario-result.scss',
+  changeDetection: ChangeDetectionStrategy.OnPush,
+})
+export default class ScenarioResultScreen {
+  private readonly api = inject(ScenariosApi);
+  private readonly session = inject(Session);
+
+  /** From `scenarios/:scenarioId`. */
+  readonly scenarioId = input.required<string>();
+
+  protected readonly units = inject(UnitPreference).system;
+  protected readonly directionLabels = DIRECTION_LABELS;
+  protected readonly statusLabels = STATUS_LABELS;
+  protected readonly riskStyles = RISK_STYLES;
+  protected readonly riskOrder = RISK_ORDER;
+  protected readonly gradeLegend = GRADE_LEGEND;
+
+  protected readonly scenario = signal<Scenario | null>(null);
+  protected readonly loadError = signal<string | null>(null);
+  protected readonly resultState = signal<ResultState>({ status: 'loading' });
+  protected readonly isStarting = signal(false);
+  protected readonly directionIndex = signal(0);
+  /** Distance under the pointer on any chart, displayed unit. */
+  protected readonly hoverX = signal<number | null>(null);
+  protected readonly fitTo = signal<MapPosition[] | null>(null);
+
+  protected readonly canRun = computed(() => {
+    const role = this.session.role();
+    return role === 'planner' || role === 'analyst';
+  });
+
+  protected readonly result = computed(() => {
+    const state = this.resultState();
+    return state.status === 'ready' ? state.result : null;
+  });
+
+  protected readonly direction = computed<DirectionResult | null>(() => {
+    const result = this.result();
+    return result ? (result.directions[this.directionIndex()] ?? result.directions[0] ?? null) : null;
+  });
+
+  protected readonly descents = computed(() => this.direction()?.descents ?? []);
+
+  protected readonly riskCounts = computed<Record<RiskLevel, number>>(() => {
+    const counts: Record<RiskLevel, number> = { low: 0, elevated: 0, high: 0, critical: 0 };
+    for (const direction of this.result()?.directions ?? []) for (const descent of direction.descents) counts[descent.risk]++;
+    return counts;
+  });
+
+  /** Whether any descent is at elevated risk or worse: the caution is then shown at the top. */
+  protected readonly hasRiskyDescent = computed(() =>
+    (this.result()?.directions ?? []).some((direction) => direction.descents.some((descent) => needsCaution(descent.risk))),
+  );
+
+  protected readonly drawnWh = computed(() => {
+    const summary = this.result()?.summary;
+    return summary ? summary.batteryNetEnergyWh + summary.regenEnergyWh : null;
+  });
+
+  protected readonly charts = computed(() => {
+    const direction = this.direction();
+    if (!direction) return null;
+    const system = this.units();
+    const profile = direction.profile;
+    return {
+      elevation: [elevationSeries(profile, system)],
+      forces: forceSeries(profile, system),
+      speed: [speedSeries(profile, system)],
+      battery: batterySeries(profile, system),
+      brake: [brakeTemperatureSeries(profile, system)] as ChartSeries[],
+      bands: fadeBands(direction.descents[0]?.fadeThresholdC, system),
+    };
+  });
+
+  protected readonly overlays = computed<MapOverlay[]>(() => {
+    const direction = this.direction();
+    if (!direction) return [];
+    const { profile } = direction;
+    const positions = profile.lon.map((lon, i) => [lon, profile.lat[i]!] as MapPosition);
+    const overlays: MapOverlay[] = [{ kind: 'line', id: 'route', positions, color: '#0b5567', weight: 5 }];
+    direction.descents.forEach((descent, index) => {
+      const from = nearestIndex(profile.distanceM, descent.startM);
+      const to = nearestIndex(profile.distanceM, descent.endM);
+      overlays.push({
+        kind: 'line',
+        id: `descent:${index}`,
+        positions: positions.slice(from, to + 1),
+        color: RISK_STYLES[descent.risk].stroke,
+        weight: 8,
+        label: `Descent ${index + 1}: ${RISK_STYLES[descent.risk].label} risk`,
+      });
+    });
+    if (positions.length > 0) {
+      overlays.push({ kind: 'pin', id: 'start', at: positions[0]!, color: '#3f7f4f', label: 'Start' });
+      overlays.push({ kind: 'pin', id: 'end', at: positions.at(-1)!, color: '#1a1c1e', label: 'End' });
+    }
+    return overlays;
+  });
+
+  protected readonly highlight = computed<MapPosition | null>(() => {
+    const x = this.hoverX();
+    const profile = this.direction()?.profile;
+    if (x === null || !profile) return null;
+    const index = nearestIndex(profile.distanceM, fromDisplay('distance', x, this.units()));
+    return index < 0 ? null : [profile.lon[index]!, profile.lat[index]!];
+  });
+
+  constructor() {
+    const destroyRef = inject(DestroyRef);
+    let pollTimer: ReturnType<typeof setTimeout> | undefined;
+    destroyRef.onDestroy(() => clearTimeout(pollTimer));
+    effect(() => {
+      const scenarioId = this.scenarioId();
+      untracked(() => {
+        clearTimeout(pollTimer);
+        void this.load(scenarioId, (next) => (pollTimer = setTimeout(next, POLL_INTERVAL_MS)));
+      });
+    });
+    effect(() => {
+      const direction = this.direction();
+      if (direction) untracked(() => this.fitTo.set(direction.profile.lon.map((lon, i) => [lon, direction.profile.lat[i]!])));
+    });
+  }
+
+  protected async runAgain(): Promise<void> {
+    const scenario = this.scenario();
+    if (!scenario) return;
+    this.isStarting.set(true);
+    try {
+      this.scenario.set(await this.api.run(scenario.id));
+      await this.load(scenario.id, (next) => setTimeout(next, POLL_INTERVAL_MS));
+    } catch (error: unknown) {
+      this.loadError.set(describeApiError(error));
+    } finally {
+      this.isStarting.set(false);
+    }
+  }
+
+  protected exportUrl(kind: 'csv' | 'geojson' | 'pdf'): string {
+    return this.api.exportUrl(this.scenarioId(), kind);
+  }
+
+  protected readonly describeLoad = describeLoad;
+  protected readonly describeSeason = describeSeason;
+
+  protected unit(quantity: 'distance' | 'speed' | 'elevation' | 'force' | 'temperature'): string {
+    return unitLabel(quantity, this.units());
+  }
+
+  protected speedAdvice(descent: Descent): string {
+    if (descent.speedAdvice === 'no-limit-needed') return 'No limit needed';
+    if (descent.speedAdvice === 'not-holdable' || descent.maxSafeSpeedKph === null) return 'Not holdable on friction brakes';
+    return formatQuantity('speed', descent.maxSafeSpeedKph / 3.6, this.units());
+  }
+
+  protected showDescent(descent: Descent): void {
+    const profile = this.direction()?.profile;
+    if (!profile) return;
+    const from = nearestIndex(profile.distanceM, descent.startM);
+    const to = nearestIndex(profile.distanceM, descent.endM);
+    this.fitTo.set(profile.lon.slice(from, to + 1).map((lon, i) => [lon, profile.lat[from + i]!]));
+  }
+
+  protected markDescent(descent: Descent | null): void {
+    if (!descent) {
+      this.hoverX.set(null);
+      return;
+    }
+    this.hoverX.set(toDisplay('distance', descent.startM, this.units()));
+  }
+
+  private async load(scenarioId: string, poll: (next: () => void) => void): Promise<void> {
+    this.loadError.set(null);
+    try {
+      const scenario = await this.api.get(scenarioId);
+      if (scenarioId !== this.scenarioId()) return;
+      this.scenario.set(scenario);
+      if (scenario.status === 'queued' || scenario.status === 'running') {
+        poll(() => void this.load(scenarioId, poll));
+      }
+      if (scenario.computedAt === null) {
+        this.resultState.set({ status: 'none' });
+        return;
+      }
+      if (this.result()?.computedAt === scenario.computedAt) return;
+      this.resultState.set({ status: 'ready', result: await this.api.result(scenarioId) });
+    } catch (error: unknown) {
+      if (apiErrorBody(error)?.code === 'not_found' && this.scenario()) {
+        this.resultState.set({ status: 'none' });
+        return;
+      }
+      this.loadError.set(describeApiError(error));
+      this.resultState.set({ status: 'error', message: describeApiError(error) });
+    }
+  }
+}

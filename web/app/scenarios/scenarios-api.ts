@@ -1,0 +1,71 @@
+import { HttpClient, HttpContext } from '@angular/common/http';
+import { Injectable, inject } from '@angular/core';
+import {
+  scenarioComparisonSchema,
+  scenarioListSchema,
+  scenarioResultSchema,
+  scenarioSchema,
+  type Scenario,
+  type ScenarioComparison,
+  type ScenarioDraftInput,
+  type ScenarioResult,
+} from '@shared/domain/scenarios';
+import { firstValueFrom } from 'rxjs';
+import { ERRORS_SHOWN_INLINE } from '../core/api-error-message';
+
+export type ScenarioExportKind = 'csv' | 'geojson' | 'pdf';
+
+const inline = () => ({ context: new HttpContext().set(ERRORS_SHOWN_INLINE, true) });
+
+/** Scenarios, their runs and results; every answer is parsed with the shared schemas. */
+@Injectable({ providedIn: 'root' })
+export class ScenariosApi {
+  private readonly http = inject(HttpClient);
+
+  async list(filter: { routeId?: string; vehicleProfileId?: string } = {}): Promise<Scenario[]> {
+    const params: Record<string, string> = {};
+    if (filter.routeId) params['routeId'] = filter.routeId;
+    if (filter.vehicleProfileId) params['vehicleProfileId'] = filter.vehicleProfileId;
+    return scenarioListSchema.parse(await firstValueFrom(this.http.get('/api/scenarios', { params }))).items;
+  }
+
+  async get(scenarioId: string): Promise<Scenario> {
+    return scenarioSchema.parse(await firstValueFrom(this.http.get(scenarioPath(scenarioId))));
+  }
+
+  async create(draft: ScenarioDraftInput): Promise<Scenario> {
+    return scenarioSchema.parse(await firstValueFrom(this.http.post('/api/scenarios', draft, inline())));
+  }
+
+  async update(scenarioId: string, draft: ScenarioDraftInput): Promise<Scenario> {
+    return scenarioSchema.parse(await firstValueFrom(this.http.put(scenarioPath(scenarioId), draft, inline())));
+  }
+
+  async remove(scenarioId: string): Promise<void> {
+    await firstValueFrom(this.http.delete(scenarioPath(scenarioId)));
+  }
+
+  /** Starts (or restarts) a run; answers the scenario with its new status. */
+  async run(scenarioId: string): Promise<Scenario> {
+    return scenarioSchema.parse(await firstValueFrom(this.http.post(`${scenarioPath(scenarioId)}/run`, null, inline())));
+  }
+
+  async result(scenarioId: string): Promise<ScenarioResult> {
+    return scenarioResultSchema.parse(await firstValueFrom(this.http.get(`${scenarioPath(scenarioId)}/result`, inline())));
+  }
+
+  async compare(scenarioIds: readonly string[]): Promise<ScenarioComparison> {
+    const body = await firstValueFrom(this.http.get('/api/scenarios/compare', { params: { ids: scenarioIds.join(',') } }));
+    return scenarioComparisonSchema.parse(body);
+  }
+
+  /** Download address of a scenario export. */
+  exportUrl(scenarioId: string, kind: ScenarioExportKind): string {
+    const file = kind === 'csv' ? 'export.csv' : kind === 'geojson' ? 'export.geojson' : 'report.pdf';
+    return `${scenarioPath(scenarioId)}/${file}`;
+  }
+}
+
+function scenarioPath(scenarioId: string): string {
+  return `/api/scenarios/${encodeURIComponent(scenarioId)}`;
+}

@@ -1,0 +1,205 @@
+import { ChangeDetectionStrategy, Component, computed, effect, inject, input, signal, untracked } from '@angular/core';
+import { toSignal } from '@angular/core/rxjs-interop';
+import { FormControl, FormGroup, ReactiveFormsModule, Validators } from '@angular/forms';
+import { MatButtonModule } from '@angular/material/button';
+import { MatButtonToggleModule } from '@angular/material/button-toggle';
+import { MatFormFieldModule } from '@angular/material/form-field';
+import { MatIconModule } from '@angular/material/icon';
+import { MatInputModule } from '@angular/material/input';
+import { MatProgressBarModule } from '@angular/material/progress-bar';
+import { MatSelectModule } from '@angular/material/select';
+import { MatSnackBar } from '@angular/material/snack-bar';
+import { Router, RouterLink } from '@angular/router';
+import type { CapabilityCurvesResponse, LoadCase, VehicleProfile } from '@shared/domain/vehicle-profiles';
+import { describeApiError } from '../core/api-error-message';
+import { Session } from '../core/session';
+import { UnitPreference } from '../units/unit-preference';
+import { UnitSwitch } from '../units/unit-switch';
+import { CapabilityChart } from './capability-chart';
+import {
+  VEHICLE_FIELDS,
+  VEHICLE_FIELD_GROUPS,
+  crossFieldMessages,
+  fieldMessage,
+  toVehicleDraft,
+  toVehicleFormValue,
+  type VehicleField,
+  type VehicleFormValue,
+} from './vehicle-form-model';
+import { VehicleProfilesApi } from './vehicle-profiles-api';
+
+type NumberControls = Record<string, FormControl<number | null>>;
+
+/** One vehicle profile: every engine parameter, grouped; analysts edit their own, copy presets. */
+@Component({
+  selector: 'app-vehicle-profile-editor',
+  imports: [
+    ReactiveFormsModule,
+    RouterLink,
+    MatButtonModule,
+    MatButtonToggleModule,
+    MatFormFieldModule,
+    MatIconModule,
+    MatInputModule,
+    MatProgressBarModule,
+    MatSelectModule,
+    UnitSwitch,
+    CapabilityChart,
+  ],
+  templateUrl: './vehicle-profile-editor.html',
+  styleUrl: './vehicle-profile-editor.scss',
+  changeDetection: ChangeDetectionStrategy.OnPush,
+})
+export default class VehicleProfileEditor {
+  private readonly api = inject(VehicleProfilesApi);
+  private readonly session = inject(Session);
+  private readonly router = inject(Router);
+  private readonly snackBar = inject(MatSnackBar);
+
+  /** From `vehicles/:vehicleProfileId`; absent on `vehicles/new`. */
+  readonly vehicleProfileId = input<string | undefined>();
+  /** From `vehicles/new?copyOf=`: the profile a new one starts from. */
+  readonly copyOf = input<string | undefined>();
+
+  protected readonly units = inject(UnitPreference).system;
+  protected readonly groups = VEHICLE_FIELD_GROUPS.map((group) => ({ group, fields: VEHICLE_FIELDS.filter((field) => field.group === group) }));
+
+  protected readonly profile = signal<VehicleProfile | null>(null);
+  protected readonly source = signal<VehicleProfile | null>(null);
+  protected readonly isLoading = signal(true);
+  protected readonly isSaving = signal(false);
+  protected readonly error = signal<string | null>(null);
+  protected readonly capability = signal<CapabilityCurvesResponse | null>(null);
+  protected readonly capabilityLoad = signal<LoadCase>('seated');
+  protected readonly capabilityError = signal<string | null>(null);
+
+  protected readonly isNew = computed(() => !this.vehicleProfileId());
+  protected readonly canEdit = computed(() => this.session.role() === 'analyst' && (this.isNew() || this.profile()?.isPreset === false));
+  protected readonly isAnalyst = computed(() => this.session.role() === 'analyst');
+
+  protected readonly numbers = new FormGroup<NumberControls>(
+    Object.fromEntries(VEHICLE_FIELDS.map((field) => [field.key, new FormControl<number | null>(null, [Validators.required, rangeValidator(field)])])),
+  );
+  protected readonly form = new FormGroup({
+    name: new FormControl('', { nonNullable: true, validators: [Validators.required, Validators.maxLength(120)] }),
+    description: new FormControl('', { nonNullable: true, validators: [Validators.maxLength(2000)] }),
+    powerSource: new FormControl<'battery' | 'overhead-line'>('battery', { nonNullable: true }),
+    brakeType: new FormControl<'disc' | 'drum'>('disc', { nonNullable: true }),
+    numbers: this.numbers,
+  });
+
+  private readonly formValue = toSignal(this.form.valueChanges, { initialValue: this.form.getRawValue() });
+  protected readonly crossMessages = computed(() => {
+    this.formValue();
+    return crossFieldMessages(this.form.getRawValue() as VehicleFormValue);
+  });
+
+  constructor() {
+    effect(() => {
+      const id = this.vehicleProfileId();
+      const copyOf = this.copyOf();
+      untracked(() => void this.load(id, copyOf));
+    });
+    effect(() => {
+      if (this.canEdit()) this.form.enable({ emitEvent: false });
+      else this.form.disable({ emitEvent: false });
+    });
+    effect(() => {
+      const id = this.vehicleProfileId() ?? this.copyOf();
+      const load = this.capabilityLoad();
+      if (id) untracked(() => void this.loadCapability(id, load));
+    });
+  }
+
+  protected control(field: VehicleField): FormControl<number | null> {
+    return this.numbers.controls[field.key]!;
+  }
+
+  /** The message under a field: its own range first, then rules tying it to another field. */
+  protected message(field: VehicleField): string | null {
+    this.formValue();
+    const control = this.control(field);
+    return fieldMessage(field, control.value) ?? this.crossMessages()[field.key] ?? null;
+  }
+
+  protected showsError(field: VehicleField): boolean {
+    const control = this.control(field);
+    return (control.touched || control.dirty) && this.message(field) !== null;
+  }
+
+  protected async save(): Promise<void> {
+    this.form.markAllAsTouched();
+    const cross = crossFieldMessages(this.form.getRawValue() as VehicleFormValue);
+    if (this.form.invalid || Object.keys(cross).length > 0) {
+      this.error.set('Some values need attention; see the messages under the fields.');
+      return;
+    }
+    this.isSaving.set(true);
+    this.error.set(null);
+    try {
+      const vehicleClass = this.profile()?.vehicleClass ?? this.source()?.vehicleClass ?? 'custom';
+      const draft = toVehicleDraft(this.form.getRawValue() as VehicleFormValue, vehicleClass);
+      const id = this.vehicleProfileId();
+      const saved = id ? await this.api.update(id, draft) : await this.api.create(draft);
+      this.snackBar.open(`Saved “${saved.name}”.`, 'Dismiss');
+      if (!id) await this.router.navigate(['/vehicles', saved.id], { replaceUrl: true });
+      else this.show(saved);
+    } catch (error: unknown) {
+      this.error.set(describeApiError(error));
+    } finally {
+      this.isSaving.set(false);
+    }
+  }
+
+  protected async remove(): Promise<void> {
+    const profile = this.profile();
+    if (!profile || !window.confirm(`Delete the vehicle profile “${profile.name}”?`)) return;
+    try {
+      await this.api.remove(profile.id);
+      await this.router.navigate(['/vehicles']);
+    } catch (error: unknown) {
+      // The interceptor has shown why (e.g. scenarios still use the profile).
+      console.warn('Vehicle profile not deleted', error);
+    }
+  }
+
+  private async load(id: string | undefined, copyOf: string | undefined): Promise<void> {
+    this.isLoading.set(true);
+    this.error.set(null);
+    try {
+      if (id) {
+        this.show(await this.api.get(id));
+      } else if (copyOf) {
+        const source = await this.api.get(copyOf);
+        this.source.set(source);
+        this.profile.set(null);
+        this.form.setValue({ ...toVehicleFormValue(source), name: `${source.name} (copy)` });
+      }
+    } catch (error: unknown) {
+      this.error.set(describeApiError(error));
+    } finally {
+      this.isLoading.set(false);
+    }
+  }
+
+  private show(profile: VehicleProfile): void {
+    this.profile.set(profile);
+    this.form.setValue(toVehicleFormValue(profile));
+    this.form.markAsPristine();
+    this.form.markAsUntouched();
+  }
+
+  private async loadCapability(id: string, load: LoadCase): Promise<void> {
+    this.capabilityError.set(null);
+    try {
+      this.capability.set(await this.api.capability(id, load));
+    } catch (error: unknown) {
+      this.capability.set(null);
+      this.capabilityError.set(describeApiError(error));
+    }
+  }
+}
+
+function rangeValidator(field: VehicleField) {
+  return (control: { value: number | null }) => (fieldMessage(field, control.value) ? { range: true } : null);
+}
