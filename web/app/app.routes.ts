@@ -102,6 +102,28 @@ export const routes: Routes = [
         loadComponent: () => import('./batch-runs/batch-run-detail'),
       },
       {
+        path: 'scenarios',
+        canMatch: [areaRoleGuard],
+        data: areaData({
+          label: 'Scenarios',
+          icon: 'electric_bus',
+          summary: 'Run a route with a vehicle, load and season; see energy, regeneration, brake heat and risky descents; compare variants.',
+          roles: ROLES,
+        }),
+        loadChildren: () => import('./scenarios/scenarios.routes'),
+      },
+      {
+        path: 'vehicles',
+        canMatch: [areaRoleGuard],
+        data: areaData({
+          label: 'Vehicle profiles',
+          icon: 'directions_bus',
+          summary: 'The vehicle classes and the authority’s own profiles, with every engine parameter and the capability chart.',
+          roles: ROLES,
+        }),
+        loadChildren: () => import('./vehicles/vehicles.routes'),
+      },
+      {
         path: 'admin/people',
         title: 'People · Descentry',
         canMatch: [areaRoleGuard],
