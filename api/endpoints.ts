@@ -1,5 +1,6 @@
 import { analysisEndpoints } from './analysis/analysis-endpoints';
 import type { AppDeps } from './app-deps';
+import { boardEndpoints } from './board/board-endpoints';
 import { authEndpoints } from './auth/auth-endpoints';
 import { healthEndpoints } from './health/health-endpoints';
 import type { AnyEndpoint } from './http/endpoint';
@@ -26,6 +27,7 @@ export function allEndpoints(deps: AppDeps): AnyEndpoint[] {
     ...analysisEndpoints(deps),
     ...reviewsEndpoints(deps),
     ...notificationSettingsEndpoints(deps),
+    ...boardEndpoints(deps),
     ...roadRouteEndpoints(deps),
     ...vehicleProfileEndpoints(deps),
     ...scenarioEndpoints(deps),

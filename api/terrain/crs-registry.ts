@@ -45,7 +45,9 @@ export function lookupEpsg(code: number): CrsDefinition | null {
   } catch {
     return null;
   }
-  if (!entry.proj4) return null;
+  // Only horizontal grids: projected or 2-D geographic. Vertical, geocentric, compound and
+  // engineering systems cannot place a pixel on the map.
+  if (!entry.proj4 || !HORIZONTAL_KINDS.has(entry.kind)) return null;
   return {
     crs: `EPSG:${code}`,
     code,
@@ -54,6 +56,8 @@ export function lookupEpsg(code: number): CrsDefinition | null {
     isGeographic: /\+proj=longlat\b/.test(entry.proj4),
   };
 }
+
+const HORIZONTAL_KINDS = new Set(['CRS-PROJCRS', 'CRS-GEOGCRS']);
 
 const projectors = new Map<string, Projector>();
 

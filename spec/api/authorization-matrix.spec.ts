@@ -65,6 +65,10 @@ const EXPECTED_ACCESS: Record<string, 'public' | 'signed-in' | readonly Role[]> 
   'GET /api/reviews/{reviewId}/events': 'signed-in',
   'GET /api/me/notifications': 'signed-in',
   'PUT /api/me/notifications': 'signed-in',
+  'GET /api/board/summary': 'signed-in',
+  'GET /api/board/summary.pdf': 'signed-in',
+  'GET /api/settings/network': 'signed-in',
+  'PUT /api/settings/network': ['admin'],
 };
 
 const context = createTestContext();

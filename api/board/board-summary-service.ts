@@ -1,0 +1,154 @@
+/**
+ * The board's network summary: a year of regeneration, braking and net energy over the routes in
+ * service, what it is worth and what CO₂ it avoids, and the open safety items.
+ *
+ * Which result counts for a route: among the route's scenarios marked in service that have a
+ * stored result, the one computed last (ties: the one saved last). One scenario per route, so a
+ * route with a summer and a winter variant in service is not counted twice.
+ */
+import { and, desc, eq, inArray, isNotNull, sql } from 'drizzle-orm';
+import type { BoardSummary, RouteYear } from '@shared/domain/board-summary';
+import type { Descent } from '@shared/domain/analysis';
+import { OPEN_REVIEW_STATES } from '@shared/domain/reviews';
+import { ENGINEERING_CAUTION } from '@shared/engine/constants';
+import { annualise } from '@shared/engine/summary';
+import type { Executor } from '../db/client';
+import { reviewItems, roadRouteVersions, roadRoutes, scenarios, vehicleProfiles } from '../db/schema/index';
+import { matchStretches } from '../reviews/review-workflow';
+import { readNetworkSettings } from './network-settings';
+
+/** How many descents the summary lists, steepest mean grade first. */
+export const STEEPEST_DESCENT_COUNT = 5;
+
+export async function boardSummary(db: Executor, now: Date = new Date()): Promise<BoardSummary> {
+  const settings = await readNetworkSettings(db);
+  const chosen = await inServiceScenarios(db);
+
+  const routes: RouteYear[] = chosen.map((row) => {
+    const year = annualise(row.summary, { tripsPerDay: row.tripsPerDay, serviceDaysPerYear: row.serviceDaysPerYear });
+    return {
+      routeId: row.routeId,
+      routeName: row.routeName,
+      scenarioId: row.scenarioId,
+      scenarioName: row.scenarioName,
+      vehicleProfileName: row.vehicleProfileName,
+      direction: row.direction,
+      computedAt: row.computedAt.toISOString(),
+      tripsPerDay: row.tripsPerDay,
+      serviceDaysPerYear: row.serviceDaysPerYear,
+      annualKm: year.lengthKm,
+      annualRegenKWh: year.regenEnergyKWh,
+      annualFrictionBrakeKWh: year.frictionBrakeEnergyKWh,
+      annualNetKWh: year.batteryNetEnergyKWh,
+      kWhPerKm: row.summary.kWhPerKm,
+    };
+  });
+  const sum = (pick: (route: RouteYear) => number) => routes.reduce((total, route) => total + pick(route), 0);
+  const annualRegenKWh = sum((route) => route.annualRegenKWh);
+
+  return {
+    generatedAt: now.toISOString(),
+    settings: {
+      energyTariffPerKWh: settings.energyTariffPerKWh,
+      currency: settings.currency,
+      tariffSource: settings.tariffSource,
+      gridEmissionFactorKgPerKWh: settings.gridEmissionFactorKgPerKWh,
+      emissionFactorSource: settings.emissionFactorSource,
+    },
+    routes,
+    totals: {
+      annualKm: sum((route) => route.annualKm),
+      annualRegenKWh,
+      annualFrictionBrakeKWh: sum((route) => route.annualFrictionBrakeKWh),
+      annualNetKWh: sum((route) => route.annualNetKWh),
+      regenValue: annualRegenKWh * settings.energyTariffPerKWh,
+      co2AvoidedKg: annualRegenKWh * settings.gridEmissionFactorKgPerKWh,
+    },
+    openSafetyItems: await openItemCounts(db),
+    steepestDescents: await steepestDescents(db, chosen),
+    caution: ENGINEERING_CAUTION,
+  };
+}
+
+type ChosenScenario = Awaited<ReturnType<typeof inServiceScenarios>>[number];
+
+async function inServiceScenarios(db: Executor) {
+  const rows = await db
+    .selectDistinctOn([scenarios.routeId], {
+      scenarioId: scenarios.id,
+      scenarioName: scenarios.name,
+      routeId: scenarios.routeId,
+      vehicleProfileId: scenarios.vehicleProfileId,
+      direction: scenarios.direction,
+      computedAt: scenarios.computedAt,
+      summary: scenarios.summary,
+      directionResults: scenarios.directionResults,
+      vehicleProfileName: vehicleProfiles.name,
+      routeName: roadRouteVersions.name,
+      // The route's current schedule: trips per day change without changing the physics.
+      tripsPerDay: roadRouteVersions.tripsPerDay,
+      serviceDaysPerYear: roadRouteVersions.serviceDaysPerYear,
+    })
+    .from(scenarios)
+    .innerJoin(roadRoutes, eq(roadRoutes.id, scenarios.routeId))
+    .innerJoin(
+      roadRouteVersions,
+      and(eq(roadRouteVersions.routeId, scenarios.routeId), eq(roadRouteVersions.version, roadRoutes.currentVersion)),
+    )
+    .innerJoin(vehicleProfiles, eq(vehicleProfiles.id, scenarios.vehicleProfileId))
+    .where(and(eq(scenarios.inService, true), isNotNull(scenarios.summary), isNotNull(scenarios.computedAt)))
+    .orderBy(scenarios.routeId, desc(scenarios.computedAt), desc(scenarios.updatedAt));
+  return rows
+    .map((row) => ({ ...row, summary: row.summary!, computedAt: row.computedAt!, directionResults: row.directionResults ?? [] }))
+    .sort((a, b) => a.routeName.localeCompare(b.routeName));
+}
+
+async function openItemCounts(db: Executor): Promise<BoardSummary['openSafetyItems']> {
+  const rows = await db
+    .select({ risk: reviewItems.risk, count: sql<number>`count(*)::int` })
+    .from(reviewItems)
+    .where(inArray(reviewItems.state, [...OPEN_REVIEW_STATES]))
+    .groupBy(reviewItems.risk);
+  const counts = { elevated: 0, high: 0, critical: 0 };
+  for (const row of rows) if (row.risk !== 'low') counts[row.risk] = row.count;
+  return counts;
+}
+
+async function steepestDescents(db: Executor, chosen: ChosenScenario[]): Promise<BoardSummary['steepestDescents']> {
+  const candidates = chosen.flatMap((row) =>
+    row.directionResults.flatMap((direction) =>
+      direction.descents.map((descent) => ({ row, direction: direction.direction, descent })),
+    ),
+  );
+  // Grades are negative downhill: the steepest mean grade is the most negative.
+  const steepest = candidates.sort((a, b) => a.descent.meanGradePercent - b.descent.meanGradePercent).slice(0, STEEPEST_DESCENT_COUNT);
+  const items =
+    steepest.length === 0
+      ? []
+      : await db
+          .select({ id: reviewItems.id, routeId: reviewItems.routeId, vehicleProfileId: reviewItems.vehicleProfileId, direction: reviewItems.direction, startM: reviewItems.startM, endM: reviewItems.endM })
+          .from(reviewItems)
+          .where(inArray(reviewItems.routeId, [...new Set(steepest.map((entry) => entry.row.routeId))]));
+  return steepest.map(({ row, direction, descent }) => ({
+    reviewId: reviewIdFor(items, row, direction, descent),
+    routeName: row.routeName,
+    startM: descent.startM,
+    endM: descent.endM,
+    dropM: descent.dropM,
+    meanGradePercent: descent.meanGradePercent,
+    risk: descent.risk,
+  }));
+}
+
+function reviewIdFor(
+  items: Array<{ id: string; routeId: string; vehicleProfileId: string; direction: string; startM: number; endM: number }>,
+  row: ChosenScenario,
+  direction: string,
+  descent: Descent,
+): string | null {
+  const sameKey = items.filter(
+    (item) => item.routeId === row.routeId && item.vehicleProfileId === row.vehicleProfileId && item.direction === direction,
+  );
+  const [index] = matchStretches([descent], sameKey);
+  return index !== undefined && index >= 0 ? sameKey[index]!.id : null;
+}

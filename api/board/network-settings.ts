@@ -1,0 +1,48 @@
+import { eq } from 'drizzle-orm';
+import type { User } from '@shared/domain/auth';
+import type { NetworkSettings, NetworkSettingsView } from '@shared/domain/board-summary';
+import type { Executor } from '../db/client';
+import { networkSettings } from '../db/schema/index';
+
+/**
+ * What a fresh installation shows until an admin sets real figures; the same values as the
+ * migration guard_review_events_and_seed_settings inserts. Illustrative placeholders, not facts.
+ */
+export const PLACEHOLDER_NETWORK_SETTINGS: NetworkSettings = {
+  energyTariffPerKWh: 0.2,
+  currency: 'EUR',
+  tariffSource: 'Illustrative placeholder, not a real tariff: replace with the price per kWh of your electricity contract and name it here.',
+  gridEmissionFactorKgPerKWh: 0.3,
+  emissionFactorSource:
+    'Illustrative placeholder, from memory and not checked: grid averages in Europe are of the order of 0.2–0.4 kg CO2 per kWh. ' +
+    'Replace with your supplier’s or the national figure for the year and name its source here.',
+};
+
+export async function readNetworkSettings(db: Executor): Promise<NetworkSettingsView> {
+  const [row] = await db.select().from(networkSettings).where(eq(networkSettings.key, 'network'));
+  if (!row) return { ...PLACEHOLDER_NETWORK_SETTINGS, isPlaceholder: true, updatedAt: null, updatedByName: null };
+  return {
+    energyTariffPerKWh: row.energyTariffPerKWh,
+    currency: row.currency,
+    tariffSource: row.tariffSource,
+    gridEmissionFactorKgPerKWh: row.gridEmissionFactorKgPerKWh,
+    emissionFactorSource: row.emissionFactorSource,
+    isPlaceholder: row.updatedAt === null,
+    updatedAt: row.updatedAt?.toISOString() ?? null,
+    updatedByName: row.updatedByName ?? null,
+  };
+}
+
+export async function saveNetworkSettings(db: Executor, admin: User, settings: NetworkSettings): Promise<NetworkSettingsView> {
+  const values = { ...settings, updatedById: admin.id, updatedByName: admin.name, updatedAt: new Date() };
+  await db
+    .insert(networkSettings)
+    .values({ key: 'network', ...values })
+    .onConflictDoUpdate({ target: networkSettings.key, set: values });
+  return readNetworkSettings(db);
+}
+
+/** Puts the placeholders in place when no row exists (demo seed); never overwrites an admin's figures. */
+export async function ensureNetworkSettings(db: Executor): Promise<void> {
+  await db.insert(networkSettings).values({ key: 'network', ...PLACEHOLDER_NETWORK_SETTINGS }).onConflictDoNothing();
+}
