@@ -2,7 +2,6 @@ import type { AppDeps } from '../app-deps';
 import { seedDemoNetwork } from './demo-network';
 import { seedDemoPeople } from './demo-people';
 import { seedDemoTerrain } from './demo-terrain';
-import { seedDemoTerrain } from './demo-terrain';
 
 /**
  * Loads the invented demo scenario. Each part is idempotent, so a second start leaves one copy.
@@ -13,7 +12,6 @@ export async function seedDemo(deps: AppDeps): Promise<void> {
     throw new Error('The demo seed refuses to run with NODE_ENV=production');
   }
   await seedDemoPeople(deps.db);
-  await seedDemoTerrain(deps);
   await seedDemoTerrain(deps);
   // Routes, vehicle profiles and computed scenarios of the invented transit authority.
   await seedDemoNetwork(deps);
