@@ -51,23 +51,28 @@ export const OVERVIEW_BLOCK_PX = 256;
 export class BlockStore {
   private readonly cache: LRUCache<string, Block>;
   private readonly inFlight = new Map<string, Promise<Block>>();
-  private readonly pool: Piscina;
+  private poolInstance: Piscina | null = null;
 
-  constructor(options: { cacheBytes: number; threads: number }) {
+  constructor(private readonly options: { cacheBytes: number; threads: number }) {
     this.cache = new LRUCache<string, Block>({
       maxSize: options.cacheBytes,
       sizeCalculation: (block) => Math.max(1, block.values.byteLength),
     });
-    this.pool = new Piscina({
+  }
+
+  /** Decoder threads start on first use: a process that never decodes never starts them. */
+  private get pool(): Piscina {
+    this.poolInstance ??= new Piscina({
       filename: decodeWorkerPath(),
       minThreads: 1,
-      maxThreads: options.threads,
+      maxThreads: this.options.threads,
       // Idle workers exit so a quiet API holds no decoder memory.
       idleTimeout: 30_000,
       // geotiff.js pulls in the `web-worker` package, which inside any worker thread destructures
       // `workerData`; an empty object makes it behave as on the main thread.
       workerData: {},
     });
+    return this.poolInstance;
   }
 
   /** Number of blocks across and down at a level (0 = the GeoTIFF, k = overview k). */
@@ -130,12 +135,14 @@ export class BlockStore {
   /** Forgets everything about a model (after deletion). */
   async forget(source: Pick<TerrainSource, 'id' | 'path'>): Promise<void> {
     for (const key of this.cache.keys()) if (key.startsWith(`${source.id}:`)) this.cache.delete(key);
-    const threads = this.pool.threads.length;
-    await Promise.all(Array.from({ length: threads }, () => this.pool.run({ path: source.path }, { name: 'forget' })));
+    if (!this.poolInstance) return;
+    const pool = this.poolInstance;
+    await Promise.all(Array.from({ length: pool.threads.length }, () => pool.run({ path: source.path }, { name: 'forget' })));
   }
 
   async close(): Promise<void> {
-    await this.pool.destroy();
+    await this.poolInstance?.destroy();
+    this.poolInstance = null;
   }
 
   private async decodeGeoTiffBlock(source: TerrainSource, blockX: number, blockY: number): Promise<Block> {
