@@ -112,13 +112,13 @@ describe('POST /api/scenarios', () => {
     expect(result.body.error.message).toMatch(/no terrain covers/);
   });
 
-  it('records a failed run when the line has no elevations and no terrain is available', async () => {
+  it('records a failed run naming the stretches when the line has no elevations and no terrain covers it', async () => {
     const route = await aRoute({ geometry: eastwardLine({ withElevation: false }) });
 
     const response = await request(app).post('/api/scenarios').set('Cookie', planner).send(aScenarioDraft(route.id));
 
     expect(response.body.status).toBe('failed');
-    expect(response.body.failureReason).toMatch(/no elevation/);
+    expect(response.body.failureReason).toMatch(/no terrain covers 0\.0–2\.0 km/);
   });
 });
 
