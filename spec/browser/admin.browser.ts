@@ -1,10 +1,22 @@
 import assert from 'node:assert/strict';
 import { after, before, describe, it } from 'node:test';
-import { assertServerIsUp, openBrowser, screenshot, type BrowserSession } from './support/browser';
+import {
+  BASE_URL,
+  assertServerIsUp,
+  openBrowser,
+  screenshot,
+  settleAnimations,
+  type BrowserSession,
+} from './support/browser';
 import { demoEmail, signInAs, signOut } from './support/demo-people';
 
 describe('administration', () => {
   let browser: BrowserSession;
+  const invitee = {
+    email: `browser-check-${Date.now()}@descentry.example`,
+    name: 'Petra Lindqvist',
+    acceptPath: '',
+  };
 
   before(async () => {
     await assertServerIsUp();
@@ -35,19 +47,25 @@ describe('administration', () => {
     assert.equal(await table.getByRole('row').count(), 2); // header + one person
   });
 
-  it('opens the invite dialog with e-mail, name and role', async () => {
+  it('invites a person, who then appears in the table as invited', async () => {
     const { page } = browser;
 
+    await page.getByLabel('Search name or e-mail').fill('');
     await page.getByRole('button', { name: 'Invite a person' }).click();
     const dialog = page.getByRole('dialog', { name: 'Invite a person' });
     await dialog.waitFor();
+    await dialog.getByLabel('E-mail address').fill(invitee.email);
+    await dialog.getByLabel('Name').fill(invitee.name);
+    await dialog.getByRole('combobox', { name: 'Role' }).click();
+    await page.getByRole('option', { name: 'Safety officer' }).click();
+    await settleAnimations(page);
     await screenshot(page, 'admin-invite-dialog');
-
-    assert.equal(await dialog.getByLabel('E-mail address').count(), 1);
-    assert.equal(await dialog.getByLabel('Name').count(), 1);
-    assert.equal(await dialog.getByRole('combobox', { name: 'Role' }).count(), 1);
-    await dialog.getByRole('button', { name: 'Cancel' }).click();
+    await dialog.getByRole('button', { name: 'Send invitation' }).click();
     await dialog.waitFor({ state: 'detached' });
+
+    const row = page.getByRole('row', { name: new RegExp(invitee.email) });
+    await row.waitFor();
+    assert.match(await row.innerText(), /Invited/);
   });
 
   it('shows the outbox and the mail catcher on Outgoing mail', async () => {
@@ -55,14 +73,60 @@ describe('administration', () => {
 
     await page.getByRole('navigation', { name: 'Main' }).getByRole('link', { name: 'Outgoing mail' }).click();
     await page.getByRole('heading', { level: 1, name: 'Outgoing mail', exact: true }).waitFor();
-    await page.getByRole('table', { name: 'Outbox' }).waitFor();
+    const outbox = page.getByRole('table', { name: 'Outbox' });
+    await outbox.getByRole('cell', { name: invitee.email }).waitFor();
     await screenshot(page, 'admin-outgoing-mail');
 
+    assert.match(await outbox.getByRole('row', { name: new RegExp(invitee.email) }).innerText(), /You are invited/);
+
     await page.getByRole('tab', { name: 'Received by the local mail catcher' }).click();
-    await page.getByText('In development and test installations').waitFor();
+    const invitation = page.getByRole('button', { name: new RegExp(`To ${invitee.email}`) });
+    // The outbox worker delivers within seconds; refresh until the catcher has the message.
+    for (let attempt = 0; attempt < 20 && !(await invitation.isVisible()); attempt += 1) {
+      await page.waitForTimeout(500);
+      await page.getByRole('button', { name: 'Refresh' }).click();
+    }
+    await invitation.click();
+    const body = page.getByTestId('captured-body');
+    await body.waitFor();
+    await settleAnimations(page);
     await screenshot(page, 'admin-mail-catcher');
 
+    const link = /\/accept-invite\?token=\S+/.exec(await body.innerText());
+    assert.ok(link, 'the invitation carries an accept-invite link');
+    invitee.acceptPath = link[0];
     await page.getByRole('button', { name: 'Refresh' }).click();
     assert.equal(await page.getByRole('alert').count(), 0);
+  });
+
+  it('lets the invited person choose a password from the e-mailed link and sign in', async () => {
+    assert.ok(invitee.acceptPath, 'needs the link from the previous test');
+    const newcomer = await openBrowser();
+    try {
+      const { page } = newcomer;
+      const password = 'tarn-col-switchback-42';
+
+      await page.goto(`${BASE_URL}${invitee.acceptPath}`);
+      await page.getByText(`Welcome, ${invitee.name}.`).waitFor();
+      await page.getByLabel('New password', { exact: true }).fill('short');
+      assert.match(await page.getByTestId('password-strength').innerText(), /at least 12 characters/);
+      await page.getByLabel('New password', { exact: true }).fill(password);
+      await page.getByLabel('Repeat the new password').fill(password);
+      await screenshot(page, 'accept-invite');
+      await page.getByRole('button', { name: 'Create account' }).click();
+      await page.getByRole('heading', { level: 1, name: 'Sign in', exact: true }).waitFor();
+      assert.match(await page.getByRole('status').first().innerText(), /Your account is ready/);
+
+      await page.getByLabel('E-mail address').fill(invitee.email);
+      await page.getByLabel('Password', { exact: true }).fill(password);
+      await page.getByRole('button', { name: 'Sign in' }).click();
+      await page.getByRole('heading', { level: 1, name: 'Descent review', exact: true }).waitFor();
+
+      await page.goto(`${BASE_URL}${invitee.acceptPath}`);
+      await page.getByTestId('token-problem').waitFor();
+      assert.match(await page.getByTestId('token-problem').innerText(), /expired or was already used|not valid/);
+    } finally {
+      await newcomer.close();
+    }
   });
 });

@@ -33,7 +33,11 @@ describe('areasFor', () => {
   });
 
   it('gives administrators People and Outgoing mail from the real router table, and planners neither', () => {
-    expect(areasFor(routes, 'admin').map((area) => area.label)).toEqual(['People', 'Outgoing mail']);
-    expect(areasFor(routes, 'planner').map((area) => area.label)).not.toContain('People');
+    const adminLabels = areasFor(routes, 'admin').map((area) => area.label);
+    const plannerLabels = areasFor(routes, 'planner').map((area) => area.label);
+
+    expect(adminLabels).toEqual(expect.arrayContaining(['People', 'Outgoing mail']));
+    expect(plannerLabels).not.toContain('People');
+    expect(plannerLabels).not.toContain('Outgoing mail');
   });
 });

@@ -72,7 +72,7 @@ export default class People {
   protected readonly roleLabels = ROLE_LABELS;
   protected readonly statuses = PERSON_STATUSES;
   protected readonly statusLabels = STATUS_LABELS;
-  protected readonly columns = ['name', 'email', 'role', 'status', 'lastSignInAt', 'actions'];
+  protected readonly columns = ['name', 'role', 'status', 'lastSignInAt', 'actions'];
 
   protected readonly filterForm = new FormGroup({
     text: new FormControl('', { nonNullable: true }),
