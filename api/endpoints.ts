@@ -1,5 +1,6 @@
 import { analysisEndpoints } from './analysis/analysis-endpoints';
 import type { AppDeps } from './app-deps';
+import { batchRunsEndpoints } from './batch-runs/batch-runs-endpoints';
 import { boardEndpoints } from './board/board-endpoints';
 import { authEndpoints } from './auth/auth-endpoints';
 import { healthEndpoints } from './health/health-endpoints';
@@ -28,6 +29,7 @@ export function allEndpoints(deps: AppDeps): AnyEndpoint[] {
     ...reviewsEndpoints(deps),
     ...notificationSettingsEndpoints(deps),
     ...boardEndpoints(deps),
+    ...batchRunsEndpoints(deps),
     ...roadRouteEndpoints(deps),
     ...vehicleProfileEndpoints(deps),
     ...scenarioEndpoints(deps),

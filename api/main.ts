@@ -3,6 +3,7 @@ import { loadConfig } from './config';
 import { createDatabase } from './db/client';
 import { migrateDatabase } from './db/migrate';
 import { createApp } from './app';
+import { startBatchRunWorkers } from './batch-runs/batch-runs-service';
 import { createSmtpTransport, startMailWorker } from './mail/mail-worker';
 import { startSmtpFake } from './mail/smtp-fake';
 import { startTerrain } from './terrain/terrain-startup';
@@ -26,6 +27,7 @@ if (config.RUN_WORKERS) {
   stoppers.push(worker.stop);
 }
 stoppers.push(await startTerrain({ db, config }));
+await startBatchRunWorkers({ db, config });
 
 const server = createServer(createApp({ db, config }));
 server.listen(config.PORT, config.HOST, () => {

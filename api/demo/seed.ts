@@ -1,6 +1,7 @@
 import type { AppDeps } from '../app-deps';
 import { seedDemoNetwork } from './demo-network';
 import { seedDemoPeople } from './demo-people';
+import { seedDemoReviews } from './demo-reviews';
 import { seedDemoTerrain } from './demo-terrain';
 
 /**
@@ -15,4 +16,5 @@ export async function seedDemo(deps: AppDeps): Promise<void> {
   await seedDemoTerrain(deps);
   // Routes, vehicle profiles and computed scenarios of the invented transit authority.
   await seedDemoNetwork(deps);
+  await seedDemoReviews(deps);
 }

@@ -64,8 +64,8 @@ export async function notifyHighRiskDescent(tx: Executor, publicUrl: string, ite
   const recipients = await safetyRecipients(tx);
   const headline =
     reason === 'new'
-      ? `A rerun found a new ${item.risk}-risk descent that needs review.`
-      : `A rerun made a resolved descent worse (now ${item.risk} risk); the review item is reopened.`;
+      ? `A scenario run found a new ${item.risk}-risk descent that needs review.`
+      : `A scenario rerun made a resolved descent worse (now ${item.risk} risk); the review item is reopened.`;
   for (const recipient of recipients) {
     await enqueueMail(tx, {
       to: recipient.email,

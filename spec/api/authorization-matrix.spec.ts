@@ -75,6 +75,9 @@ const EXPECTED_ACCESS: Record<string, 'public' | 'signed-in' | readonly Role[]> 
   'GET /api/board/summary.pdf': 'signed-in',
   'GET /api/settings/network': 'signed-in',
   'PUT /api/settings/network': ['admin'],
+  'POST /api/batch-runs': ['analyst'],
+  'GET /api/batch-runs': 'signed-in',
+  'GET /api/batch-runs/{batchRunId}': 'signed-in',
 };
 
 const context = createTestContext();

@@ -1,0 +1,111 @@
+/**
+ * Network-wide runs: every in-service scenario re-run as one job each on the shared PostgreSQL
+ * job queue, so every worker process (API processes with RUN_WORKERS, or `api/worker.ts`) takes
+ * a share. A scenario that fails (say, a route leaving the terrain coverage) is recorded as
+ * failed with its reason; the others carry on.
+ */
+import { asc, eq } from 'drizzle-orm';
+import type { User } from '@shared/domain/auth';
+import type { BatchRun } from '@shared/domain/board-summary';
+import type { AppDeps } from '../app-deps';
+import { scenarios } from '../db/schema/index';
+import { ConflictError, NotFoundError } from '../http/http-error';
+import { createInlineJobQueue, jobQueueOf, type JobQueue } from '../jobs/job-queue';
+import * as repository from './batch-runs-repository';
+import { runScenarioForBatch, type BatchScenarioRunner } from './scenario-runner';
+
+export const BATCH_RUN_JOB = 'scenario-batch-run';
+
+export interface BatchRunJob {
+  batchRunId: string;
+  scenarioId: string;
+}
+
+export async function startBatchRun(deps: AppDeps, user: User): Promise<BatchRun> {
+  const inService = await deps.db
+    .select({ id: scenarios.id, name: scenarios.name })
+    .from(scenarios)
+    .where(eq(scenarios.inService, true))
+    .orderBy(asc(scenarios.name));
+  if (inService.length === 0) {
+    throw new ConflictError('No scenario is marked in service; mark scenarios in service before a network-wide run', 'nothing_in_service');
+  }
+  const { run, items } = await deps.db.transaction((tx) => repository.insertBatchRun(tx, user, inService));
+  const queue = await batchJobs(deps);
+  for (const item of items) {
+    await queue.send(BATCH_RUN_JOB, { batchRunId: run.id, scenarioId: item.scenarioId } satisfies BatchRunJob, { retryLimit: 0 });
+  }
+  return repository.toBatchRun(run, items);
+}
+
+export async function getBatchRun(deps: AppDeps, batchRunId: string): Promise<BatchRun> {
+  const found = await repository.findBatchRun(deps.db, batchRunId);
+  if (!found) throw new NotFoundError('Batch run');
+  return repository.toBatchRun(found.run, found.items);
+}
+
+export async function listBatchRuns(deps: AppDeps): Promise<Array<Omit<BatchRun, 'items'>>> {
+  return (await repository.listBatchRuns(deps.db)).map(({ run, items }) => {
+    const { items: _items, ...summary } = repository.toBatchRun(run, items.map((item) => ({ ...item, scenarioId: '', scenarioName: '' })));
+    return summary;
+  });
+}
+
+/**
+ * Runs one scenario of a batch. Idempotent: an item another worker already took or finished is
+ * left alone. The scenario's own failure is the item's result, not the job's, so the queue does
+ * not retry a route that cannot run.
+ */
+export async function runBatchItem(deps: AppDeps, job: BatchRunJob, runScenario: BatchScenarioRunner = runScenarioForBatch): Promise<void> {
+  const claimed = await repository.claimItem(deps.db, job.batchRunId, job.scenarioId);
+  if (!claimed) return;
+  let error: string | null = null;
+  try {
+    await runScenario(deps, job.scenarioId);
+  } catch (failure) {
+    // Expected: the scenario cannot run (no terrain under the route, deleted in the meantime,
+    // invalid inputs). Record why and let the rest of the batch go on.
+    error = failure instanceof Error ? failure.message : String(failure);
+  }
+  await repository.finishItem(deps.db, job.batchRunId, job.scenarioId, { error });
+  await repository.finishRunIfComplete(deps.db, job.batchRunId);
+}
+
+/** Registers the batch worker on a queue (api/main.ts and api/worker.ts when RUN_WORKERS). */
+export async function registerBatchRunWorkers(deps: AppDeps, queue: JobQueue, runScenario?: BatchScenarioRunner): Promise<void> {
+  await queue.registerWorker<BatchRunJob>(BATCH_RUN_JOB, (job) => runBatchItem(deps, job, runScenario), {
+    retryLimit: 0,
+    // A long mountain route at 10 m spacing takes seconds; ten minutes before a lost job is handed out again.
+    expireInSeconds: 10 * 60,
+  });
+}
+
+const inlineQueues = new WeakMap<object, ReturnType<typeof createInlineJobQueue>>();
+
+/** The app's job queue, or (tests, CLI tools) an in-process queue with the batch worker on it. */
+async function batchJobs(deps: AppDeps): Promise<JobQueue> {
+  const attached = jobQueueOf(deps.db);
+  if (attached) return attached;
+  let queue = inlineQueues.get(deps.db);
+  if (!queue) {
+    queue = createInlineJobQueue();
+    await registerBatchRunWorkers(deps, queue);
+    inlineQueues.set(deps.db, queue);
+  }
+  return queue;
+}
+
+/** Resolves when in-process batch jobs have finished (tests and the demo seed). */
+export async function waitForInlineBatchJobs(deps: AppDeps): Promise<void> {
+  await inlineQueues.get(deps.db)?.idle();
+}
+
+/**
+ * Puts the batch worker on the process's job queue when this process runs workers (api/main.ts
+ * after the queue is attached, and api/worker.ts).
+ */
+export async function startBatchRunWorkers(deps: AppDeps): Promise<void> {
+  const queue = jobQueueOf(deps.db);
+  if (!queue) throw new Error('Attach the job queue (startTerrain) before starting the batch workers');
+  if (deps.config.RUN_WORKERS) await registerBatchRunWorkers(deps, queue);
+}
