@@ -114,10 +114,18 @@ export async function samplePixels(
 ): Promise<Float64Array> {
   const grid = blocks.blockGrid(model, level);
   const geometry: GridGeometry = { originX: 0, originY: 0, pixelSizeX: 1, pixelSizeY: 1, widthPx: grid.widthPx, heightPx: grid.heightPx };
-  const needed = new Set<number>();
+  const { blockWidth, blockHeight, across } = grid;
+  // Which blocks the points touch: a bitmap over the block grid (cheaper than a Set for the
+  // 65 536 samples of a tile), then one fetch per block, all in parallel.
+  const wanted = new Uint8Array(across * grid.down);
+  const needed: number[] = [];
   const addBlockOf = (col: number, row: number) => {
     if (col < 0 || row < 0 || col >= grid.widthPx || row >= grid.heightPx) return;
-    needed.add(Math.floor(row / grid.blockHeight) * grid.across + Math.floor(col / grid.blockWidth));
+    const index = Math.floor(row / blockHeight) * across + Math.floor(col / blockWidth);
+    if (wanted[index] === 0) {
+      wanted[index] = 1;
+      needed.push(index);
+    }
   };
   for (let i = 0; i < cols.length; i++) {
     const col = cols[i]!;
@@ -136,21 +144,27 @@ export async function samplePixels(
   }
   const loaded = new Map<number, Block>();
   await Promise.all(
-    [...needed].map(async (index) => {
-      const blockX = index % grid.across;
-      const blockY = Math.floor(index / grid.across);
+    needed.map(async (index) => {
+      const blockX = index % across;
+      const blockY = Math.floor(index / across);
       loaded.set(index, blocks.peek(model, level, blockX, blockY) ?? (await blocks.block(model, level, blockX, blockY)));
     }),
   );
 
-  const { blockWidth, blockHeight, across } = grid;
+  // Neighbouring lookups mostly hit the same block: remember the last one.
+  let lastIndex = -1;
+  let lastBlock: Block | undefined;
   const valueAt = (col: number, row: number): number => {
     if (col < 0 || row < 0 || col >= grid.widthPx || row >= grid.heightPx) return NaN;
     const blockX = Math.floor(col / blockWidth);
     const blockY = Math.floor(row / blockHeight);
-    const block = loaded.get(blockY * across + blockX);
-    if (!block) return NaN;
-    return block.values[(row - blockY * blockHeight) * block.width + (col - blockX * blockWidth)]!;
+    const index = blockY * across + blockX;
+    if (index !== lastIndex) {
+      lastIndex = index;
+      lastBlock = loaded.get(index);
+    }
+    if (!lastBlock) return NaN;
+    return lastBlock.values[(row - blockY * blockHeight) * lastBlock.width + (col - blockX * blockWidth)]!;
   };
   const interpolate = method === 'nearest' ? nearestValue : bilinearValue;
   for (let i = 0; i < cols.length; i++) out[i] = interpolate(geometry, cols[i]!, rows[i]!, valueAt);
