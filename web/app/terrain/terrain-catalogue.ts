@@ -6,7 +6,7 @@ import { MatIconModule } from '@angular/material/icon';
 import { MatProgressBarModule } from '@angular/material/progress-bar';
 import { MatSnackBar } from '@angular/material/snack-bar';
 import { MatTableModule } from '@angular/material/table';
-import type { TerrainModel } from '@shared/domain/terrain';
+import type { TerrainModel, TerrainStatus } from '@shared/domain/terrain';
 import { apiErrorBody, describeApiError } from '../core/api-error-message';
 import { Session } from '../core/session';
 import { TerrainMap, type MapOverlay, type MapPosition } from '../map/terrain-map';
@@ -100,6 +100,10 @@ export default class TerrainCatalogue {
       // Expected: server unreachable or an answer that fails the shared schema.
       this.loadState.set({ status: 'error', message: describeApiError(error) });
     }
+  }
+
+  protected statusLabel(status: TerrainStatus): string {
+    return TERRAIN_STATUS_LABELS[status];
   }
 
   protected select(id: string): void {

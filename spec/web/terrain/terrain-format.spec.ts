@@ -1,0 +1,34 @@
+import {
+  formatElevationRange,
+  formatFileSize,
+  formatNodataShare,
+  formatPixelSize,
+  formatResolution,
+} from '../../../web/app/terrain/terrain-format';
+
+describe('terrain-format', () => {
+  it('writes file sizes in decimal units', () => {
+    expect(formatFileSize(512)).toBe('512 B');
+    expect(formatFileSize(927_172)).toBe('927 kB');
+    expect(formatFileSize(1_024_000_000)).toBe('1.0 GB');
+  });
+
+  it('writes the elevation range with thin-space thousands, or a dash while unknown', () => {
+    expect(formatElevationRange({ minElevationM: 684.7, maxElevationM: 2858.7 })).toBe('685 – 2\u2009859 m');
+    expect(formatElevationRange({ minElevationM: null, maxElevationM: null })).toBe('—');
+  });
+
+  it('writes resolution and grid size as analysts read them', () => {
+    expect(formatResolution(20)).toBe('20 m');
+    expect(formatResolution(30.92)).toBe('30.9 m');
+    expect(formatResolution(0.5)).toBe('0.50 m');
+    expect(formatPixelSize({ widthPx: 10_000, heightPx: 800 })).toBe('10\u2009000 × 800 px');
+  });
+
+  it('writes the nodata share as a percentage', () => {
+    expect(formatNodataShare(0)).toBe('none');
+    expect(formatNodataShare(0.0004)).toBe('< 0.1 %');
+    expect(formatNodataShare(0.0123)).toBe('1.2 %');
+    expect(formatNodataShare(null)).toBe('—');
+  });
+});
