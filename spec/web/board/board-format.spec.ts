@@ -27,9 +27,9 @@ describe('board number formatting', () => {
 
   it('writes money in the network currency without cents', () => {
     expect(formatBoardMoney(48_234.5, 'EUR')).toBe('€48,200');
-    expect(formatBoardMoney(512.4, 'CHF')).toBe('CHF 512');
+    expect(formatBoardMoney(512.4, 'CHF')).toBe('CHF\u00a0512');
     expect(formatBoardMoney(1_234_567, 'EUR')).toBe('€1.23 million');
-    expect(formatBoardMoney(3_400_000, 'CHF')).toBe('CHF 3.4 million');
+    expect(formatBoardMoney(3_400_000, 'CHF')).toBe('CHF\u00a03.4 million');
   });
 
   it('turns kilograms of CO₂ into tonnes', () => {

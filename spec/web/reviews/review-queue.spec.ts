@@ -39,8 +39,16 @@ describe('ReviewQueue', () => {
 
     const cells = await (await loader.getHarness(MatTableHarness)).getCellTextByColumnName();
 
-    expect(cells['risk']?.text.map((text) => text.split(' ')[0])).toEqual(['Critical', 'High', 'High', 'Elevated']);
+    expect(cells['risk']?.text.map((text) => text.replace(/raised as.*/, '').trim())).toEqual(['Critical', 'High', 'High', 'Elevated']);
     expect(cells['state']?.text.join(' ')).toContain('Risk accepted');
+  });
+
+  it('shows the risk an item was raised with when a mitigation changed it', async () => {
+    const { loader } = await renderWith(QUEUE);
+
+    const cells = await (await loader.getHarness(MatTableHarness)).getCellTextByColumnName();
+
+    expect(cells['risk']?.text.at(-1)).toContain('raised as high');
   });
 
   it('counts the items per state', async () => {
@@ -97,14 +105,14 @@ describe('ReviewQueue', () => {
 });
 
 const QUEUE: ReviewItem[] = [
-  aReviewItem({ risk: 'high', state: 'raised', ...ROUTE_PASS, ...BUS_12M }),
-  aReviewItem({ risk: 'critical', state: 'raised', ...ROUTE_PASS, ...TROLLEY }),
-  aReviewItem({ risk: 'elevated', state: 'mitigated', ...ROUTE_VALLEY, ...BUS_12M }),
-  aReviewItem({ risk: 'high', state: 'accepted', ...ROUTE_VALLEY, ...TROLLEY }),
+  aReviewItem({ risk: 'high', raisedRisk: 'high', state: 'raised', ...ROUTE_PASS, ...BUS_12M }),
+  aReviewItem({ risk: 'critical', raisedRisk: 'critical', state: 'raised', ...ROUTE_PASS, ...TROLLEY }),
+  aReviewItem({ risk: 'elevated', raisedRisk: 'high', state: 'mitigated', ...ROUTE_VALLEY, ...BUS_12M }),
+  aReviewItem({ risk: 'high', raisedRisk: 'high', state: 'accepted', ...ROUTE_VALLEY, ...TROLLEY }),
 ];
 
 function countText(root: HTMLElement, state: string): string {
-  return (root.querySelector(`[data-testid="count-${state}"]`)?.textContent ?? '').replace(/\s+/g, ' ').trim();
+  return root.querySelector(`[data-testid="count-${state}"]`)?.getAttribute('aria-label') ?? '';
 }
 
 async function routeNames(loader: HarnessLoader): Promise<string[]> {

@@ -25,7 +25,7 @@ export function formatBoardEnergy(kWh: number | null | undefined): string {
   return number === '—' ? number : `${number} kWh`;
 }
 
-/** Money in the network's currency, no cents: "€48,200", "CHF 1.2 million". */
+/** Money in the network's currency, no cents: "€48,200", "CHF 1.2 million" (no line break after a code). */
 export function formatBoardMoney(amount: number | null | undefined, currency: string): string {
   if (amount === null || amount === undefined || !Number.isFinite(amount)) return '—';
   const options: Intl.NumberFormatOptions = { style: 'currency', currency, maximumFractionDigits: 0, minimumFractionDigits: 0 };
@@ -33,7 +33,7 @@ export function formatBoardMoney(amount: number | null | undefined, currency: st
     // Currency symbol from Intl, "million" in words (compact notation would print "M").
     const symbol = new Intl.NumberFormat(LOCALE, options).formatToParts(0).find((part) => part.type === 'currency')?.value ?? currency;
     const millions = (amount / MILLION).toLocaleString(LOCALE, { maximumSignificantDigits: 3 });
-    return /^[A-Z]{3}$/.test(symbol) ? `${symbol} ${millions} million` : `${symbol}${millions} million`;
+    return /^[A-Z]{3}$/.test(symbol) ? `${symbol}\u00a0${millions} million` : `${symbol}${millions} million`;
   }
   return new Intl.NumberFormat(LOCALE, options).format(roundToSignificant(amount, 3));
 }

@@ -30,6 +30,22 @@ const KNOWN_LABELS: Readonly<Record<string, string>> = {
   error: 'Problem',
 };
 
+/** Keys shown first, in this order; the rest follow as the server sent them. */
+const KEY_ORDER = [
+  'mitigation',
+  'reason',
+  'risk',
+  'riskBefore',
+  'previousRisk',
+  'riskAfter',
+  'newRisk',
+  'mitigatedRisk',
+  'peakBrakeTempC',
+  'previousPeakBrakeTempC',
+  'mitigatedPeakBrakeTempC',
+  'maxSafeSpeedAfterKph',
+];
+
 /**
  * Turns an audit event's free-form details into labelled lines: risk levels in our words,
  * temperatures with °C, mitigation measures spelled out, unknown keys humanised.
@@ -37,7 +53,8 @@ const KNOWN_LABELS: Readonly<Record<string, string>> = {
 export function describeAuditDetails(details: Record<string, unknown> | null): AuditDetailLine[] {
   if (!details) return [];
   const lines: AuditDetailLine[] = [];
-  for (const [key, value] of Object.entries(details)) {
+  const entries = Object.entries(details).sort(([a], [b]) => orderOf(a) - orderOf(b));
+  for (const [key, value] of entries) {
     if (HIDDEN_KEYS.has(key) || value === null || value === undefined) continue;
     if (key === 'mitigation') {
       lines.push(...describeMitigation(value));
@@ -63,6 +80,11 @@ export function describeMitigation(value: unknown): AuditDetailLine[] {
   if (measures.vehicleRestriction) lines.push({ label: 'Vehicle restriction', value: measures.vehicleRestriction });
   if (measures.mandatoryRetarder) lines.push({ label: 'Retarder or regeneration mode', value: 'mandatory' });
   return lines;
+}
+
+function orderOf(key: string): number {
+  const index = KEY_ORDER.indexOf(key);
+  return index === -1 ? KEY_ORDER.length : index;
 }
 
 function describeValue(key: string, value: unknown): string {
