@@ -296,6 +296,7 @@ export default class RouteEditor {
     const index = Number(indexText);
     if (kind === 'route') this.placeOnLine(event.at);
     else if (kind === 'mid') this.edit((state) => insertVertex(state, index, segmentMidpoints(state.vertices)[index]!));
+    else if (kind === 'vertex' && this.tool() !== 'draw') this.placeOnLine(event.at);
     else if (kind === 'vertex') this.selectedVertex.update((current) => (current === index ? null : index));
   }
 

@@ -1,0 +1,154 @@
+import assert from 'node:assert/strict';
+import { readFileSync } from 'node:fs';
+import { after, before, describe, it } from 'node:test';
+import type { Page } from 'playwright-core';
+import { BASE_URL, assertServerIsUp, openBrowser, screenshot, type BrowserSession } from './support/browser';
+import { signInAs, signOut } from './support/demo-people';
+
+/** Clicks the map at a fraction of its width and height (the view fits the road network). */
+async function clickMap(page: Page, fx: number, fy: number): Promise<void> {
+  const map = page.getByTestId('route-map');
+  const box = await map.boundingBox();
+  if (!box) throw new Error('The route map is not on screen');
+  await page.mouse.click(box.x + box.width * fx, box.y + box.height * fy);
+}
+
+describe('routes and scenarios', () => {
+  let browser: BrowserSession;
+  const routeName = `Browser test route ${Date.now()}`;
+  const scenarioIds: string[] = [];
+
+  before(async () => {
+    await assertServerIsUp();
+    browser = await openBrowser({ width: 1366, height: 900 });
+    await signInAs(browser.page, 'planner');
+  });
+
+  after(async () => {
+    if (browser) await signOut(browser.page).catch(() => undefined);
+    await browser?.close();
+  });
+
+  it('lets a planner draw a route, add a stop and a speed limit, and save it', async () => {
+    const { page } = browser;
+    await page.goto(`${BASE_URL}/routes/new`);
+    await page.getByRole('heading', { level: 1, name: 'New route' }).waitFor();
+    await page.locator('.leaflet-tile-loaded').first().waitFor();
+    // Straight lines between the clicks keep the test independent of the road network's shape.
+    await page.getByRole('switch', { name: 'Snap to roads' }).uncheck().catch(() => undefined);
+
+    await clickMap(page, 0.35, 0.4);
+    await clickMap(page, 0.5, 0.5);
+    await clickMap(page, 0.65, 0.6);
+    await page.getByTestId('route-figures').getByText('Vertices 3').waitFor();
+
+    await page.getByRole('radio', { name: /Stop/ }).click();
+    await clickMap(page, 0.425, 0.45);
+    await page.getByTestId('stops-table').getByRole('textbox', { name: 'Name of stop 1' }).fill('Upper square');
+    await page.getByTestId('stops-table').getByRole('textbox', { name: 'Name of stop 1' }).press('Tab');
+
+    await page.getByRole('radio', { name: /Speed limit/ }).click();
+    await clickMap(page, 0.5, 0.5);
+    await clickMap(page, 0.6, 0.567);
+    await page.getByTestId('limits-table').waitFor();
+
+    await page.getByLabel('Name', { exact: true }).fill(routeName);
+    await page.getByRole('img', { name: /Elevation along the route/ }).waitFor();
+    await screenshot(page, 'route-editor-drawn');
+    await page.getByRole('button', { name: 'Save route' }).click();
+
+    await page.waitForURL(/\/routes\/[0-9a-f-]{36}$/);
+    await page.getByTestId('route-version').getByText('Version 1').waitFor();
+    assert.equal(await page.getByTestId('stops-table').getByRole('row').count(), 2);
+    assert.equal(await page.getByTestId('limits-table').getByRole('row').count(), 2);
+    await screenshot(page, 'route-editor-saved');
+  });
+
+  it('runs a scenario with a preset bus and shows the charts and descents', async () => {
+    const { page } = browser;
+    for (const [name, load] of [
+      [`${routeName} seated`, 'Seated load'],
+      [`${routeName} full`, 'Full standing load'],
+    ] as const) {
+      await page.goto(`${BASE_URL}/scenarios/new`);
+      await page.getByLabel('Scenario name').fill(name);
+      await page.getByRole('combobox', { name: 'Route', exact: true }).click();
+      // A seeded demo route: its positions carry elevation, so it runs without uploaded terrain.
+      await page.getByRole('option', { name: /Valley tram|Trolleybus|Pass/ }).first().click();
+      await page.getByRole('combobox', { name: 'Vehicle profile' }).click();
+      await page.getByRole('option').first().click();
+      await page.getByRole('combobox', { name: 'Load' }).click();
+      await page.getByRole('option', { name: load }).click();
+      await page.getByRole('button', { name: 'Save and run' }).click();
+      await page.waitForURL(/\/scenarios\/[0-9a-f-]{36}$/);
+      scenarioIds.push(page.url().split('/').pop()!);
+      await page.getByRole('img', { name: /Brake temperature and fade bands/ }).waitFor({ timeout: 60_000 });
+    }
+
+    await page.getByRole('img', { name: /Elevation and grade/ }).waitFor();
+    await page.getByRole('img', { name: /Forces at the wheel/ }).waitFor();
+    await page.getByRole('heading', { name: 'Descents' }).waitFor();
+    const chart = page.getByRole('img', { name: /Speed/ }).first();
+    const box = (await chart.boundingBox())!;
+    await page.mouse.move(box.x + box.width / 2, box.y + box.height / 2);
+    await page.locator('.leaflet-interactive').first().waitFor();
+    await screenshot(page, 'scenario-results');
+  });
+
+  it('downloads the segment CSV with a header line', async () => {
+    const { page } = browser;
+    await page.getByTestId('export-menu').click();
+    const [download] = await Promise.all([page.waitForEvent('download'), page.getByTestId('export-csv').click()]);
+    const lines = readFileSync((await download.path())!, 'utf8').split(/\r?\n/);
+
+    // The export opens with the engineering caution as a comment, then the column header.
+    assert.match(lines[0]!, /^# .*engineering estimates/i);
+    assert.match(lines.find((line) => !line.startsWith('#'))!, /distance/i);
+  });
+
+  it('compares two scenarios side by side', async () => {
+    const { page } = browser;
+    await page.goto(`${BASE_URL}/scenarios/compare?ids=${scenarioIds.join(',')}`);
+    await page.getByTestId('differences-table').waitFor();
+    await page.getByRole('img', { name: /SOC/ }).waitFor();
+
+    assert.equal(await page.getByTestId('differences-table').getByRole('columnheader').count(), 3);
+    await screenshot(page, 'scenario-compare');
+  });
+});
+
+describe('vehicle profiles', () => {
+  let browser: BrowserSession;
+
+  before(async () => {
+    await assertServerIsUp();
+    browser = await openBrowser();
+    await signInAs(browser.page, 'analyst');
+  });
+
+  after(async () => {
+    if (browser) await signOut(browser.page).catch(() => undefined);
+    await browser?.close();
+  });
+
+  it('lets an analyst copy a preset, see a field message and save the edited copy', async () => {
+    const { page } = browser;
+    await page.goto(`${BASE_URL}/vehicles`);
+    await page.getByRole('link', { name: /Copy to edit/ }).first().click();
+    await page.getByRole('heading', { level: 1, name: /^Copy of/ }).waitFor();
+
+    const efficiency = page.locator('[data-field="drivetrainEfficiency"]');
+    await efficiency.fill('120');
+    await efficiency.blur();
+    await page.getByText('At most 100 %.').waitFor();
+    await efficiency.fill('88');
+    await page.getByLabel('Name').fill(`Tuned bus ${Date.now()}`);
+    await page.getByRole('img', { name: /Capability/ }).waitFor();
+    await screenshot(page, 'vehicle-profile-copy');
+    await page.getByRole('button', { name: 'Create profile' }).click();
+
+    await page.waitForURL(/\/vehicles\/[0-9a-f-]{36}$/);
+    await page.waitForFunction(() => (document.querySelector('[data-field="drivetrainEfficiency"]') as HTMLInputElement | null)?.value === '88');
+    assert.equal(await page.locator('[data-field="drivetrainEfficiency"]').inputValue(), '88');
+  });
+});
