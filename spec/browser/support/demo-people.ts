@@ -10,12 +10,20 @@ export type DemoRole = 'planner' | 'analyst' | 'safety' | 'board' | 'admin';
  * What each role must see: the heading of its home page and exactly its side-navigation
  * entries. A feature that adds an area for a role adds its label here too.
  */
+const EVERY_ROLE_SEES = ['Home', 'Routes', 'Descent review', 'Network summary', 'Scenarios', 'Vehicle profiles'];
+
 export const ROLE_EXPECTATIONS: Readonly<Record<DemoRole, { homeHeading: string; navigation: string[] }>> = {
-  planner: { homeHeading: 'Routes and scenarios', navigation: ['Home'] },
-  analyst: { homeHeading: 'Terrain and vehicle profiles', navigation: ['Home'] },
-  safety: { homeHeading: 'Descent review', navigation: ['Home'] },
-  board: { homeHeading: 'Network summary', navigation: ['Home'] },
-  admin: { homeHeading: 'People and outgoing mail', navigation: ['Home', 'People', 'Outgoing mail'] },
+  planner: { homeHeading: 'Routes and scenarios', navigation: EVERY_ROLE_SEES },
+  analyst: {
+    homeHeading: 'Terrain and vehicle profiles',
+    navigation: ['Home', 'Routes', 'Descent review', 'Network summary', 'Network runs', 'Scenarios', 'Vehicle profiles', 'Terrain'],
+  },
+  safety: { homeHeading: 'Descent review', navigation: EVERY_ROLE_SEES },
+  board: { homeHeading: 'Network summary', navigation: EVERY_ROLE_SEES },
+  admin: {
+    homeHeading: 'People and outgoing mail',
+    navigation: [...EVERY_ROLE_SEES, 'Terrain', 'People', 'Outgoing mail', 'Network settings'],
+  },
 };
 
 export function demoEmail(role: DemoRole): string {

@@ -28,6 +28,13 @@ describe('areasFor', () => {
     expect(areasFor(config, 'admin').map((area) => area.path)).toEqual(['/admin/people']);
   });
 
+  it('lists a path once when two routes declare it', () => {
+    const terrain = areaData({ label: 'Terrain', icon: 'landscape', summary: 'Terrain', roles: ['analyst'] });
+    const twice: Routes = [{ path: 'terrain', data: terrain }, { path: 'terrain', data: terrain }];
+
+    expect(areasFor(twice, 'analyst').map((area) => area.path)).toEqual(['/terrain']);
+  });
+
   it('lists nothing when nobody is signed in', () => {
     expect(areasFor(config, null)).toEqual([]);
   });

@@ -51,7 +51,8 @@ export function areasFor(routes: Routes, role: Role | null, parentPath = ''): Ar
     if (area && area.roles.includes(role)) links.push({ ...area, path });
     if (route.children) links.push(...areasFor(route.children, role, path));
   }
-  return links;
+  // Two routes may declare the same path (alternatives chosen by canMatch); list it once.
+  return links.filter((link, index) => links.findIndex((other) => other.path === link.path) === index);
 }
 
 function joinPath(parent: string, child: string): string {
