@@ -15,7 +15,7 @@ export interface TerrainIngestJob {
 }
 
 /** Rows decoded per step: bounded memory (≈ rows × width × 4 bytes) whatever the grid size. */
-const BAND_ROWS = 512;
+const BAND_ROWS = 256;
 
 /**
  * Ingests one model: statistics and the reduced pyramid in a single pass over the grid, band by

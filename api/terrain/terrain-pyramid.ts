@@ -117,7 +117,7 @@ class LevelWriter {
     let data = rows.subarray(0, rowCount * sourceWidth);
     let count = rowCount;
     if (this.carry) {
-      const joined = new Float64Array((count + 1) * sourceWidth);
+      const joined = new Float32Array((count + 1) * sourceWidth);
       joined.set(this.carry, 0);
       joined.set(data, sourceWidth);
       data = joined;
@@ -126,7 +126,7 @@ class LevelWriter {
     }
     if (count % 2 === 1) {
       if (isLast) {
-        const padded = new Float64Array((count + 1) * sourceWidth).fill(NaN);
+        const padded = new Float32Array((count + 1) * sourceWidth).fill(NaN);
         padded.set(data, 0);
         data = padded;
         count += 1;
