@@ -17,7 +17,7 @@ import { RouterLink } from '@angular/router';
 import type { BatchRun } from '@shared/domain/board-summary';
 import { describeApiError } from '../core/api-error-message';
 import { pollBatchRun, type BatchRunPoller } from './batch-run-poller';
-import { BATCH_STATUS_ICONS, BATCH_STATUS_LABELS, batchProgressPercent } from './batch-run-status';
+import { BATCH_STATUS_ICONS, BATCH_STATUS_LABELS, RUN_STATUS_LABELS, batchProgressPercent } from './batch-run-status';
 import { BatchRunsApi } from './batch-runs-api';
 
 type LoadState = { status: 'loading' } | { status: 'error'; message: string } | { status: 'ready' };
@@ -45,8 +45,8 @@ type LoadState = { status: 'loading' } | { status: 'error'; message: string } | 
         </p>
         <div class="progress-block">
           <div class="progress-text" role="status" data-testid="batch-progress">
-            <strong>{{ labels[run.status] }}</strong>: {{ run.done }} of {{ run.total }} scenarios done
-            @if (run.failed > 0) { , <span class="failed">{{ run.failed }} failed</span> }
+            <strong>{{ runLabels[run.status] }}</strong>: {{ run.done }} of {{ run.total }} scenarios done{{ run.failed > 0 ? ',' : '' }}
+            @if (run.failed > 0) {<span class="failed">{{ run.failed }} failed</span>}
             ({{ percent() }} %)
           </div>
           <mat-progress-bar mode="determinate" [value]="percent()" aria-label="Share of scenarios finished" />
@@ -95,6 +95,7 @@ export default class BatchRunDetail {
   readonly batchRunId = input.required<string>();
 
   protected readonly labels = BATCH_STATUS_LABELS;
+  protected readonly runLabels = RUN_STATUS_LABELS;
   protected readonly icons = BATCH_STATUS_ICONS;
   protected readonly run = signal<BatchRun | null>(null);
   protected readonly loadState = signal<LoadState>({ status: 'loading' });

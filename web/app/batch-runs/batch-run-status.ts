@@ -8,6 +8,13 @@ export const BATCH_STATUS_LABELS: Readonly<Record<BatchRun['items'][number]['sta
   failed: 'Failed',
 };
 
+/** A whole run: "done" there means every scenario has finished, failed ones included. */
+export const RUN_STATUS_LABELS: Readonly<Record<BatchRun['status'], string>> = {
+  queued: 'Waiting to start',
+  running: 'Running',
+  done: 'Finished',
+};
+
 export const BATCH_STATUS_ICONS: Readonly<Record<BatchRun['items'][number]['status'], string>> = {
   queued: 'schedule',
   running: 'autorenew',

@@ -5,7 +5,7 @@ import { MatIconModule } from '@angular/material/icon';
 import { MatProgressBarModule } from '@angular/material/progress-bar';
 import { Router, RouterLink } from '@angular/router';
 import { describeApiError } from '../core/api-error-message';
-import { BATCH_STATUS_ICONS, BATCH_STATUS_LABELS, batchProgressPercent } from './batch-run-status';
+import { BATCH_STATUS_ICONS, RUN_STATUS_LABELS, batchProgressPercent } from './batch-run-status';
 import { BatchRunsApi, type BatchRunSummary } from './batch-runs-api';
 
 type LoadState = { status: 'loading' } | { status: 'error'; message: string } | { status: 'ready' };
@@ -51,7 +51,7 @@ type LoadState = { status: 'loading' } | { status: 'error'; message: string } | 
               <a class="run" [routerLink]="['/batch-runs', run.id]">
                 <mat-icon [class]="'status-' + run.status" aria-hidden="true">{{ icons[run.status] }}</mat-icon>
                 <span class="run-main">
-                  <span class="run-title">{{ run.createdAt | date: 'd MMM y, HH:mm' }} · {{ labels[run.status] }}</span>
+                  <span class="run-title">{{ run.createdAt | date: 'd MMM y, HH:mm' }} · {{ runLabels[run.status] }}</span>
                   <span class="run-meta">
                     Started by {{ run.startedBy }} · {{ run.done }} of {{ run.total }} done
                     @if (run.failed > 0) {
@@ -94,7 +94,7 @@ export default class BatchRuns {
   private readonly batchRunsApi = inject(BatchRunsApi);
   private readonly router = inject(Router);
 
-  protected readonly labels = BATCH_STATUS_LABELS;
+  protected readonly runLabels = RUN_STATUS_LABELS;
   protected readonly icons = BATCH_STATUS_ICONS;
   protected readonly runs = signal<BatchRunSummary[]>([]);
   protected readonly loadState = signal<LoadState>({ status: 'loading' });

@@ -54,38 +54,38 @@ type LoadState = { status: 'loading' } | { status: 'error'; message: string } | 
           <fieldset>
             <legend>Energy price</legend>
             <div class="row">
-              <mat-form-field appearance="outline">
+              <mat-form-field appearance="outline" subscriptSizing="dynamic">
                 <mat-label>Tariff per kWh</mat-label>
                 <input matInput type="number" inputmode="decimal" step="0.001" min="0" max="10" formControlName="energyTariffPerKWh" required />
                 <mat-hint>What one kWh of traction energy costs the network.</mat-hint>
                 @if (form.controls.energyTariffPerKWh.invalid) { <mat-error>Between 0 and 10.</mat-error> }
               </mat-form-field>
-              <mat-form-field appearance="outline" class="currency">
+              <mat-form-field appearance="outline" class="currency" subscriptSizing="dynamic">
                 <mat-label>Currency</mat-label>
                 <input matInput formControlName="currency" maxlength="3" autocomplete="off" required />
-                <mat-hint>Three-letter code, e.g. EUR, CHF.</mat-hint>
+                <mat-hint>Three letters, e.g. EUR.</mat-hint>
                 @if (form.controls.currency.invalid) { <mat-error>Three letters, e.g. EUR.</mat-error> }
               </mat-form-field>
             </div>
-            <mat-form-field appearance="outline" class="wide">
+            <mat-form-field appearance="outline" class="wide" subscriptSizing="dynamic">
               <mat-label>Source of the tariff</mat-label>
-              <input matInput formControlName="tariffSource" maxlength="300" required />
+              <textarea matInput formControlName="tariffSource" maxlength="300" rows="2" required></textarea>
               <mat-hint>For example the supply contract or the regulator's published price.</mat-hint>
               @if (form.controls.tariffSource.invalid) { <mat-error>Name the source.</mat-error> }
             </mat-form-field>
           </fieldset>
           <fieldset>
             <legend>Grid emissions</legend>
-            <mat-form-field appearance="outline">
+            <mat-form-field appearance="outline" subscriptSizing="dynamic">
               <mat-label>Emission factor</mat-label>
               <input matInput type="number" inputmode="decimal" step="0.001" min="0" max="2" formControlName="gridEmissionFactorKgPerKWh" required />
               <span matTextSuffix>kg CO₂ per kWh</span>
               <mat-hint>CO₂ emitted to generate one kWh on your grid.</mat-hint>
               @if (form.controls.gridEmissionFactorKgPerKWh.invalid) { <mat-error>Between 0 and 2.</mat-error> }
             </mat-form-field>
-            <mat-form-field appearance="outline" class="wide">
+            <mat-form-field appearance="outline" class="wide" subscriptSizing="dynamic">
               <mat-label>Source of the emission factor</mat-label>
-              <input matInput formControlName="emissionFactorSource" maxlength="300" required />
+              <textarea matInput formControlName="emissionFactorSource" maxlength="300" rows="2" required></textarea>
               @if (form.controls.emissionFactorSource.invalid) { <mat-error>Name the source.</mat-error> }
             </mat-form-field>
           </fieldset>
@@ -103,7 +103,7 @@ type LoadState = { status: 'loading' } | { status: 'error'; message: string } | 
     .meta { color: var(--mat-sys-on-surface-variant); }
     .app-caution { margin: 0 0 16px; }
     .form { max-width: 720px; display: grid; gap: 16px; }
-    fieldset { border: 1px solid var(--mat-sys-outline-variant); border-radius: var(--mat-sys-corner-medium); padding: 12px 16px 4px; margin: 0; display: grid; gap: 8px; }
+    fieldset { border: 1px solid var(--mat-sys-outline-variant); border-radius: var(--mat-sys-corner-medium); padding: 12px 16px 16px; margin: 0; display: grid; gap: 16px; }
     legend { font: var(--mat-sys-title-medium); padding: 0 6px; }
     .row { display: flex; gap: 12px; flex-wrap: wrap; }
     .row mat-form-field { flex: 1 1 200px; }

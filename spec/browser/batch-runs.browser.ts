@@ -1,0 +1,45 @@
+import assert from 'node:assert/strict';
+import { after, before, describe, it } from 'node:test';
+import { assertServerIsUp, openBrowser, screenshot, settleAnimations, type BrowserSession } from './support/browser';
+import { signInAs, signOut } from './support/demo-people';
+
+describe('network runs: analyst', () => {
+  let browser: BrowserSession;
+
+  before(async () => {
+    await assertServerIsUp();
+    browser = await openBrowser();
+    await signInAs(browser.page, 'analyst');
+  });
+
+  after(async () => {
+    if (browser) await signOut(browser.page).catch(() => undefined);
+    await browser?.close();
+  });
+
+  it('re-runs every in-service scenario and follows the progress to the end', async () => {
+    const { page } = browser;
+
+    await page.getByRole('navigation', { name: 'Main' }).getByRole('link', { name: 'Network runs' }).click();
+    await page.getByRole('heading', { level: 1, name: 'Network runs', exact: true }).waitFor();
+    await page.getByRole('button', { name: 'Re-run all in-service scenarios' }).click();
+    await page.getByRole('heading', { level: 1, name: 'Network run', exact: true }).waitFor();
+    const progress = page.getByTestId('batch-progress');
+    await progress.waitFor();
+    await screenshot(page, 'batch-run-progress');
+
+    await progress.getByText(/^Finished/).waitFor({ timeout: 120_000 });
+    await settleAnimations(page);
+    await screenshot(page, 'batch-run-done');
+
+    const text = await progress.innerText();
+    const [, done, total] = /(\d+) of (\d+) scenarios done/.exec(text) ?? [];
+    assert.ok(Number(total) > 0, text);
+    assert.match(text, /\(100 %\)/);
+    assert.equal(await page.getByRole('table', { name: 'Scenarios in this run' }).getByRole('row').count(), Number(total) + 1);
+    assert.ok(Number(done) <= Number(total));
+
+    await page.getByRole('link', { name: 'All network runs' }).click();
+    await page.getByRole('list', { name: 'Network runs' }).getByRole('listitem').first().waitFor();
+  });
+});
