@@ -7,6 +7,7 @@ import type { AppDeps } from '../app-deps';
 import type { Database } from '../db/client';
 import { BadRequestError, HttpError, NotFoundError } from '../http/http-error';
 import { syncReviewItems } from '../reviews/review-sync';
+import { replaceScenarioTerrainUse } from '../terrain/terrain-repository';
 import * as routes from '../road-routes/road-routes-repository';
 import * as profiles from '../vehicle-profiles/vehicle-profiles-repository';
 import * as repository from './scenarios-repository';
@@ -84,6 +85,9 @@ async function computeAndStore(db: Database, scenarioId: string, sampleElevation
     });
     // Descent review follows every stored result, in the same transaction (api/reviews/review-sync.ts).
     await syncReviewItems(tx, row, { computedAt, directions: outcome.directions });
+    // A terrain model a result was computed on cannot be deleted while the scenario exists.
+    const sampledTerrain = routeVersion.coordinates.some((position) => position.length < 3);
+    await replaceScenarioTerrainUse(tx, scenarioId, sampledTerrain ? routeVersion.id : null);
   });
 }
 
@@ -160,7 +164,10 @@ export async function rerunScenario(deps: Pick<AppDeps, 'db' | 'sampleElevations
 export async function deleteScenario(db: Database, id: string): Promise<void> {
   const existing = await repository.findScenarioRow(db, id);
   if (!existing) throw new NotFoundError('The scenario');
-  await repository.deleteScenario(db, id);
+  await db.transaction(async (tx) => {
+    await replaceScenarioTerrainUse(tx, id, null);
+    await repository.deleteScenario(tx, id);
+  });
 }
 
 export async function getResult(db: Database, id: string): Promise<ScenarioResult> {

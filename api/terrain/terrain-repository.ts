@@ -128,3 +128,25 @@ export function toTerrainModel(row: TerrainRowWithExtras): TerrainModel {
     readyAt: row.readyAt ? row.readyAt.toISOString() : null,
   };
 }
+
+/**
+ * Records which ready terrain models a scenario's result was computed on: those whose footprint
+ * meets the route version's line, when the elevations came from terrain rather than from the
+ * route's own coordinates. Replaces what the scenario's previous run recorded.
+ */
+export async function replaceScenarioTerrainUse(
+  db: Executor,
+  scenarioId: string,
+  routeVersionId: string | null,
+): Promise<void> {
+  await db
+    .delete(terrainDependents)
+    .where(and(eq(terrainDependents.kind, 'scenario'), eq(terrainDependents.dependentId, scenarioId)));
+  if (!routeVersionId) return;
+  await db.execute(sql`
+    insert into terrain_dependents (terrain_id, kind, dependent_id)
+    select t.id, 'scenario', ${scenarioId}::uuid
+    from terrain_models t join road_route_versions v on v.id = ${routeVersionId}::uuid
+    where t.status = 'ready' and ST_Intersects(t.footprint, v.geometry)
+    on conflict do nothing`);
+}
