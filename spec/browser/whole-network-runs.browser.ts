@@ -3,6 +3,8 @@ import { after, before, describe, it } from 'node:test';
 import { assertServerIsUp, openBrowser, screenshot, settleAnimations, type BrowserSession } from './support/browser';
 import { signInAs, signOut } from './support/demo-people';
 
+// Named to run last: a network run recomputes every in-service scenario, which the review and
+// board tests read.
 describe('network runs: analyst', () => {
   let browser: BrowserSession;
 
