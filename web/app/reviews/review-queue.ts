@@ -1,3 +1,4 @@
+import { BreakpointObserver } from '@angular/cdk/layout';
 import { DatePipe } from '@angular/common';
 import { ChangeDetectionStrategy, Component, computed, effect, inject, signal, viewChild } from '@angular/core';
 import { toSignal } from '@angular/core/rxjs-interop';
@@ -11,6 +12,7 @@ import { MatSelectModule } from '@angular/material/select';
 import { MatSort, MatSortModule } from '@angular/material/sort';
 import { MatTableDataSource, MatTableModule } from '@angular/material/table';
 import { ActivatedRoute, Router, RouterLink } from '@angular/router';
+import { map } from 'rxjs';
 import type { RiskLevel } from '@shared/domain/analysis';
 import { REVIEW_STATES, REVIEW_STATE_LABELS, type ReviewItem, type ReviewState } from '@shared/domain/reviews';
 import { describeApiError } from '../core/api-error-message';
@@ -32,6 +34,10 @@ import {
 import { DIRECTION_LABELS } from './direction-labels';
 import { ReviewStateChip } from './review-state-chip';
 import { ReviewsApi } from './reviews-api';
+
+const ALL_COLUMNS = ['risk', 'route', 'vehicle', 'stretch', 'drop', 'grade', 'peakBrakeTemp', 'state', 'updatedAt'];
+const NARROW_COLUMNS = ['risk', 'route', 'vehicle', 'grade', 'peakBrakeTemp', 'state'];
+const NARROW_QUERY = '(max-width: 1099.98px)';
 
 type LoadState = { status: 'loading' } | { status: 'error'; message: string } | { status: 'ready' };
 
@@ -73,7 +79,14 @@ export default class ReviewQueue {
   protected readonly riskStyles = RISK_STYLES;
   protected readonly states = REVIEW_STATES;
   protected readonly stateLabels = REVIEW_STATE_LABELS;
-  protected readonly columns = ['risk', 'route', 'vehicle', 'stretch', 'drop', 'grade', 'peakBrakeTemp', 'state', 'updatedAt'];
+  /** On a tablet the table keeps what a decision needs; stretch, drop and date are on the detail page. */
+  private readonly isNarrow = toSignal(
+    inject(BreakpointObserver)
+      .observe(NARROW_QUERY)
+      .pipe(map((state) => state.matches)),
+    { initialValue: false },
+  );
+  protected readonly columns = computed(() => (this.isNarrow() ? NARROW_COLUMNS : ALL_COLUMNS));
   protected readonly isSafetyOfficer = computed(() => this.session.role() === 'safety');
 
   protected readonly filterForm = new FormGroup({
