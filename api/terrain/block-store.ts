@@ -5,6 +5,7 @@ import { fileURLToPath } from 'node:url';
 import { LRUCache } from 'lru-cache';
 import { Piscina } from 'piscina';
 import type { TerrainOverviewLevel } from '../db/schema/terrain';
+import type { TileTask } from './tile-kernel.mjs';
 
 /** A ready terrain model as sampling and rendering see it. */
 export interface TerrainSource {
@@ -130,6 +131,23 @@ export class BlockStore {
       verticalScaleToM: source.verticalScaleToM,
       wide: source.dataType === 'Int32' || source.dataType === 'Float64',
     })) as Float32Array | Float64Array;
+  }
+
+  /**
+   * Renders one map tile in a worker thread (sampling, hillshade, tint, PNG), so the event loop
+   * stays free for other requests. The task's windows are handed over, not copied: the caller
+   * must not use them afterwards.
+   */
+  async renderTile(task: TileTask): Promise<Buffer> {
+    const transferList = task.layers.map((layer) => layer.window.buffer as ArrayBuffer);
+    const png = (await this.pool.run(task, { name: 'renderTile', transferList })) as Uint8Array;
+    return Buffer.from(png.buffer, png.byteOffset, png.byteLength);
+  }
+
+  /** Starts the worker threads now rather than on first use (the benchmark times work, not start-up). */
+  async startThreads(): Promise<void> {
+    const pool = this.pool;
+    await Promise.all(Array.from({ length: this.options.threads }, () => pool.run({ path: '' }, { name: 'forget' })));
   }
 
   /** Forgets everything about a model (after deletion). */

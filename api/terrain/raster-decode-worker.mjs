@@ -1,11 +1,16 @@
-// Worker thread (piscina) that decodes windows of terrain GeoTIFFs off the API's event loop.
+// Worker thread (piscina) for the terrain's CPU work off the API's event loop: decoding windows
+// of terrain GeoTIFFs (default task) and rendering map tiles (task `renderTile`).
 // Plain JavaScript on purpose: it loads the same way under tsx, vitest and the bundled server.
 //
-// Task: { path, window: [x0, y0, x1, y1], nodata, verticalScaleToM, wide }
+// Decode task: { path, window: [x0, y0, x1, y1], nodata, verticalScaleToM, wide }
 // Result: Float32Array (or Float64Array when `wide`) of (x1−x0)·(y1−y0) elevations in metres,
 // row-major, with NaN wherever the file holds nodata (or NaN).
+//
+// renderTile task: a TileTask (tile-kernel.d.mts); result: the PNG bytes (Uint8Array).
+import { inflateSync } from 'node:zlib';
 import Piscina from 'piscina';
-import { fromFile } from 'geotiff';
+import { BaseDecoder, fromFile } from 'geotiff';
+import { renderTilePng } from './tile-kernel.mjs';
 
 /** Open files stay open between tasks; a few suffice since requests cluster on few models. */
 const MAX_OPEN_FILES = 8;
@@ -18,7 +23,10 @@ async function imageFor(path) {
     openImages.set(path, entry);
     return entry;
   }
-  entry = fromFile(path).then(async (tiff) => ({ tiff, image: await tiff.getImage(0) }));
+  entry = fromFile(path).then(async (tiff) => {
+    const image = await tiff.getImage(0);
+    return { tiff, image, direct: await directReader(image) };
+  });
   openImages.set(path, entry);
   if (openImages.size > MAX_OPEN_FILES) {
     const [oldestPath, oldest] = openImages.entries().next().value;
@@ -34,15 +42,94 @@ async function imageFor(path) {
 }
 
 export default async function decodeWindow({ path, window, nodata, verticalScaleToM, wide }) {
-  const { image } = await imageFor(path);
-  const [raster] = await image.readRasters({ window, samples: [0] });
-  const out = wide ? new Float64Array(raster.length) : new Float32Array(raster.length);
-  const hasNodata = nodata !== null && nodata !== undefined;
-  for (let i = 0; i < raster.length; i++) {
-    const value = raster[i];
-    out[i] = (hasNodata && value === nodata) || value !== value ? NaN : value * verticalScaleToM;
+  const { image, direct } = await imageFor(path);
+  const out = wide ? new Float64Array((window[2] - window[0]) * (window[3] - window[1])) : new Float32Array((window[2] - window[0]) * (window[3] - window[1]));
+  const convert = { nodata: nodata ?? null, scale: verticalScaleToM };
+  if (direct) await readDirect(image, direct, window, out, convert);
+  else {
+    const [raster] = await image.readRasters({ window, samples: [0] });
+    convertInto(raster, 0, out, 0, raster.length, convert);
   }
   return Piscina.move(out);
+}
+
+/** Elevations in metres: nodata and NaN become NaN, the rest is scaled (feet → metres etc.). */
+function convertInto(source, from, out, to, count, { nodata, scale }) {
+  if (nodata === null) {
+    for (let k = 0; k < count; k++) out[to + k] = source[from + k] * scale;
+    return;
+  }
+  for (let k = 0; k < count; k++) {
+    const value = source[from + k];
+    out[to + k] = value === nodata ? NaN : value * scale;
+  }
+}
+
+const HOST_IS_LITTLE_ENDIAN = new Uint8Array(new Uint16Array([1]).buffer)[0] === 1;
+
+/**
+ * Uncompressed and DEFLATE files of one sample per pixel in the host's byte order (what GDAL
+ * writes for elevation grids) are read tile by tile straight into typed arrays, inflated by
+ * Node's native zlib. Anything else goes through geotiff.js's general (slower) readRasters.
+ */
+async function directReader(image) {
+  const directory = image.getFileDirectory();
+  const compression = directory.getValue('Compression') ?? 1;
+  if (compression !== 1 && compression !== 8 && compression !== 32946) return null;
+  if (image.getSamplesPerPixel() !== 1 || image.littleEndian !== HOST_IS_LITTLE_ENDIAN) return null;
+  const bits = image.getBitsPerSample(0);
+  const format = image.getSampleFormat(0);
+  if (![8, 16, 32, 64].includes(bits) || (format === 3 && bits < 32)) return null;
+  const isTiled = !directory.hasTag('StripOffsets');
+  const decoder = new NativeDecoder(compression, {
+    tileWidth: image.getTileWidth(),
+    tileHeight: image.getTileHeight(),
+    planarConfiguration: directory.getValue('PlanarConfiguration') ?? 1,
+    bitsPerSample: await directory.loadValue('BitsPerSample'),
+    predictor: (await directory.loadValue('Predictor')) || 1,
+  });
+  return { decoder, isTiled };
+}
+
+/** geotiff.js's decoder contract (it applies the predictor), inflating with zlib instead of pako. */
+class NativeDecoder extends BaseDecoder {
+  constructor(compression, parameters) {
+    super(parameters);
+    this.compression = compression;
+  }
+
+  decodeBlock(buffer) {
+    if (this.compression === 1) return buffer;
+    const inflated = inflateSync(new Uint8Array(buffer));
+    return inflated.byteOffset === 0 && inflated.byteLength === inflated.buffer.byteLength
+      ? inflated.buffer
+      : inflated.buffer.slice(inflated.byteOffset, inflated.byteOffset + inflated.byteLength);
+  }
+}
+
+async function readDirect(image, { decoder }, [x0, y0, x1, y1], out, convert) {
+  const tileWidth = image.getTileWidth();
+  const tileHeight = image.getTileHeight();
+  const width = x1 - x0;
+  for (let ty = Math.floor(y0 / tileHeight); ty * tileHeight < y1; ty++) {
+    for (let tx = Math.floor(x0 / tileWidth); tx * tileWidth < x1; tx++) {
+      const { data } = await image.getTileOrStrip(tx, ty, 0, decoder);
+      const values = image.getArrayForSample(0, data);
+      const tileX0 = tx * tileWidth;
+      const tileY0 = ty * tileHeight;
+      const c0 = Math.max(x0, tileX0);
+      const c1 = Math.min(x1, tileX0 + tileWidth);
+      const rows = Math.min(y1, tileY0 + image.getBlockHeight(ty));
+      for (let r = Math.max(y0, tileY0); r < rows; r++) {
+        convertInto(values, (r - tileY0) * tileWidth + (c0 - tileX0), out, (r - y0) * width + (c0 - x0), c1 - c0, convert);
+      }
+    }
+  }
+}
+
+/** One map tile: the windows arrive transferred, the PNG goes back transferred. */
+export function renderTile(task) {
+  return Piscina.move(renderTilePng(task));
 }
 
 /** Drops cached file handles (after a model is deleted and its file removed). */

@@ -1,10 +1,10 @@
 import { PNG } from 'pngjs';
-import type { BlockStore } from './block-store';
+import type { Block, BlockStore } from './block-store';
 import { projectorFor } from './crs-registry';
-import { samplePixels } from './elevation-sampler';
-import { tintInto } from './elevation-tint';
-import { shadeAt, sunTerms, type SunTerms } from './hillshade';
+import { ELEVATION_TINT_STOPS } from './elevation-tint';
+import { sunTerms, type SunTerms } from './hillshade';
 import type { ReadyTerrain } from './terrain-runtime';
+import { SAMPLES_PX, type TileLayer } from './tile-kernel.mjs';
 
 export const TILE_SIZE_PX = 256;
 /** WGS 84 / Web Mercator sphere radius (EPSG:3857), m. */
@@ -13,7 +13,14 @@ const WEB_MERCATOR_RADIUS_M = 6_378_137;
 const LATTICE_STEP_PX = 16;
 /** Hillshade weight in the blend: the tint keeps 30 % of its brightness in full shadow. */
 const SHADOW_FLOOR = 0.3;
+/** Hillshade's share of the light, slightly boosted so lit slopes brighten the tint. */
+const SHADE_GAIN = (1 - SHADOW_FLOOR) * 1.15;
 const SUN: SunTerms = sunTerms();
+const TINT_STOPS = Float64Array.from(ELEVATION_TINT_STOPS.flatMap((stop) => [stop.elevationM, ...stop.rgb]));
+/** zlib level 1: with the Sub filter, a few per cent larger than level 6 at a fraction of the time. */
+const DEFLATE_LEVEL = 1;
+/** Largest window gathered for one model and tile (4 MB of Float32). */
+const MAX_WINDOW_PX = 1024 * 1024;
 
 /** Web-Mercator XYZ tile bounds in WGS 84: [west, south, east, north] degrees. */
 export function tileBounds(z: number, x: number, y: number): [number, number, number, number] {
@@ -30,6 +37,10 @@ function tileLatitude(y: number, n: number): number {
  * data wins, the pyramid level matched to the tile's ground resolution), hillshade by Horn's
  * method with the sun at 315° / 45°, blended with our elevation tint; transparent where no model
  * has data. Null when no model touches the tile.
+ *
+ * This thread only reprojects a coarse lattice (proj4, every 16 pixels), gathers the decoded
+ * blocks under the tile into one window per model and hands the rest to a worker thread
+ * (tile-kernel.mjs), which does the per-pixel work in flat typed-array loops.
  */
 export async function renderTerrainTile(
   blocks: BlockStore,
@@ -42,50 +53,25 @@ export async function renderTerrainTile(
   const touching = models.filter((m) => m.bbox[0] <= east && m.bbox[2] >= west && m.bbox[1] <= north && m.bbox[3] >= south);
   if (touching.length === 0) return null;
 
-  // Samples at the centres of the tile's pixels plus a one-pixel border for the 3 × 3 window.
-  const size = TILE_SIZE_PX + 2;
-  const elevations = new Float64Array(size * size).fill(NaN);
   const worldPx = TILE_SIZE_PX * 2 ** z;
-  const lonAt = (i: number) => ((x * TILE_SIZE_PX + i - 1 + 0.5) / worldPx) * 360 - 180;
-  const latAt = (j: number) =>
-    (Math.atan(Math.sinh(Math.PI * (1 - (2 * (y * TILE_SIZE_PX + j - 1 + 0.5)) / worldPx))) * 180) / Math.PI;
   const centreLatRad = (((north + south) / 2) * Math.PI) / 180;
   const groundPxM = ((2 * Math.PI * WEB_MERCATOR_RADIUS_M) / worldPx) * Math.cos(centreLatRad);
 
+  const layers: TileLayer[] = [];
   for (const model of touching) {
-    const level = levelFor(model, groundPxM);
-    const factor = level === 0 ? 1 : model.overviews[level - 1]!.factor;
-    const { cols, rows, indices } = latticeToPixels(model, size, lonAt, latAt, factor, elevations);
-    if (indices.length === 0) break;
-    const values = await samplePixels(blocks, model, level, cols, rows, 'bilinear');
-    for (let k = 0; k < indices.length; k++) {
-      const value = values[k]!;
-      if (value === value) elevations[indices[k]!] = value;
-    }
+    const layer = await layerFor(blocks, model, x, y, worldPx, groundPxM);
+    if (layer) layers.push(layer);
   }
-
-  const png = new PNG({ width: TILE_SIZE_PX, height: TILE_SIZE_PX, colorType: 6 });
-  const rgba = png.data;
-  const rgb = new Uint8Array(3);
-  for (let j = 0; j < TILE_SIZE_PX; j++) {
-    for (let i = 0; i < TILE_SIZE_PX; i++) {
-      const out = (j * TILE_SIZE_PX + i) * 4;
-      const elevationM = elevations[(j + 1) * size + (i + 1)]!;
-      if (elevationM !== elevationM) {
-        rgba[out + 3] = 0;
-        continue;
-      }
-      const light = SHADOW_FLOOR + (1 - SHADOW_FLOOR) * 1.15 * shadeAt(elevations, size, size, i + 1, j + 1, groundPxM, groundPxM, SUN);
-      tintInto(elevationM, rgb, 0);
-      rgba[out] = Math.min(255, rgb[0]! * light);
-      rgba[out + 1] = Math.min(255, rgb[1]! * light);
-      rgba[out + 2] = Math.min(255, rgb[2]! * light);
-      rgba[out + 3] = 255;
-    }
-  }
-  // pngjs's default tries five filters per row; one fixed filter and a lighter deflate are ~10×
-  // faster for a few per cent more bytes (pngjs also mutates the options: a fresh object each time).
-  return PNG.sync.write(png, { colorType: 6, deflateLevel: 3, filterType: 1 });
+  if (layers.length === 0) return transparentTile();
+  return blocks.renderTile({
+    layers,
+    cellSizeM: groundPxM,
+    sun: SUN,
+    stops: TINT_STOPS,
+    shadowFloor: SHADOW_FLOOR,
+    shadeGain: SHADE_GAIN,
+    deflateLevel: DEFLATE_LEVEL,
+  });
 }
 
 /** Coarsest pyramid level whose pixels are still no larger than the tile's pixels. */
@@ -98,49 +84,113 @@ function levelFor(model: ReadyTerrain, groundPxM: number): number {
 }
 
 /**
- * Pixel coordinates (at the chosen level) of every still-empty sample: exact reprojection on a
- * lattice every 16 pixels, bilinear in between.
+ * One model's share of the tile: the lattice of the tile's samples in the model's grid (exact
+ * reprojection every 16 pixels; the kernel interpolates bilinearly in between) and the window of
+ * decoded values they fall on. Null when the tile misses the grid.
  */
-function latticeToPixels(
+async function layerFor(
+  blocks: BlockStore,
   model: ReadyTerrain,
-  size: number,
-  lonAt: (i: number) => number,
-  latAt: (j: number) => number,
-  factor: number,
-  elevations: Float64Array,
-): { cols: Float64Array; rows: Float64Array; indices: number[] } {
+  x: number,
+  y: number,
+  worldPx: number,
+  groundPxM: number,
+): Promise<TileLayer | null> {
   const projector = projectorFor(model.proj4Definition);
-  const nodes = Math.ceil((size - 1) / LATTICE_STEP_PX) + 1;
-  const nodeCol = new Float64Array(nodes * nodes);
-  const nodeRow = new Float64Array(nodes * nodes);
+  const nodes = Math.ceil((SAMPLES_PX - 1) / LATTICE_STEP_PX) + 1;
+  const modelX = new Float64Array(nodes * nodes);
+  const modelY = new Float64Array(nodes * nodes);
+  const point: [number, number] = [0, 0];
   for (let nj = 0; nj < nodes; nj++) {
+    const globalRow = y * TILE_SIZE_PX + nj * LATTICE_STEP_PX - 1 + 0.5;
+    const lat = (Math.atan(Math.sinh(Math.PI * (1 - (2 * globalRow) / worldPx))) * 180) / Math.PI;
     for (let ni = 0; ni < nodes; ni++) {
-      const point: [number, number] = [lonAt(ni * LATTICE_STEP_PX), latAt(nj * LATTICE_STEP_PX)];
+      point[0] = ((x * TILE_SIZE_PX + ni * LATTICE_STEP_PX - 1 + 0.5) / worldPx) * 360 - 180;
+      point[1] = lat;
       const [mx, my] = model.isGeographic ? point : projector.forward(point);
-      nodeCol[nj * nodes + ni] = (mx - model.originX) / model.pixelSizeX / factor;
-      nodeRow[nj * nodes + ni] = (my - model.originY) / model.pixelSizeY / factor;
+      modelX[nj * nodes + ni] = mx;
+      modelY[nj * nodes + ni] = my;
     }
   }
-  const indices: number[] = [];
-  for (let index = 0; index < elevations.length; index++) if (elevations[index] !== elevations[index]) indices.push(index);
-  const cols = new Float64Array(indices.length);
-  const rows = new Float64Array(indices.length);
-  for (let k = 0; k < indices.length; k++) {
-    const index = indices[k]!;
-    const i = index % size;
-    const j = (index - i) / size;
-    const ni = Math.min(Math.floor(i / LATTICE_STEP_PX), nodes - 2);
-    const nj = Math.min(Math.floor(j / LATTICE_STEP_PX), nodes - 2);
-    const fx = i / LATTICE_STEP_PX - ni;
-    const fy = j / LATTICE_STEP_PX - nj;
-    const n00 = nj * nodes + ni;
-    const n10 = n00 + 1;
-    const n01 = n00 + nodes;
-    const n11 = n01 + 1;
-    cols[k] = (nodeCol[n00]! * (1 - fx) + nodeCol[n10]! * fx) * (1 - fy) + (nodeCol[n01]! * (1 - fx) + nodeCol[n11]! * fx) * fy;
-    rows[k] = (nodeRow[n00]! * (1 - fx) + nodeRow[n10]! * fx) * (1 - fy) + (nodeRow[n01]! * (1 - fx) + nodeRow[n11]! * fx) * fy;
+
+  // A window larger than this (only for oddly shaped grids at low zoom) moves to a coarser level.
+  let level = levelFor(model, groundPxM);
+  for (;;) {
+    const factor = level === 0 ? 1 : model.overviews[level - 1]!.factor;
+    const grid = blocks.blockGrid(model, level);
+    const nodeCols = new Float64Array(nodes * nodes);
+    const nodeRows = new Float64Array(nodes * nodes);
+    let minCol = Infinity;
+    let maxCol = -Infinity;
+    let minRow = Infinity;
+    let maxRow = -Infinity;
+    for (let n = 0; n < nodeCols.length; n++) {
+      const col = (modelX[n]! - model.originX) / model.pixelSizeX / factor;
+      const row = (modelY[n]! - model.originY) / model.pixelSizeY / factor;
+      nodeCols[n] = col;
+      nodeRows[n] = row;
+      if (col < minCol) minCol = col;
+      if (col > maxCol) maxCol = col;
+      if (row < minRow) minRow = row;
+      if (row > maxRow) maxRow = row;
+    }
+    if (!(minCol <= maxCol && minRow <= maxRow)) return null;
+    // Every bilinear neighbour of a sample inside the lattice's hull, clipped to the grid plus a
+    // one-pixel NaN margin (neighbours off the grid count as nodata).
+    const x0 = Math.max(-1, Math.floor(minCol - 0.5));
+    const y0 = Math.max(-1, Math.floor(minRow - 0.5));
+    const x1 = Math.min(grid.widthPx, Math.floor(maxCol - 0.5) + 1);
+    const y1 = Math.min(grid.heightPx, Math.floor(maxRow - 0.5) + 1);
+    if (x1 < 0 || y1 < 0 || x0 >= grid.widthPx || y0 >= grid.heightPx || x1 <= x0 || y1 <= y0) return null;
+    const width = x1 - x0 + 1;
+    const height = y1 - y0 + 1;
+    if (width * height > MAX_WINDOW_PX && level < model.overviews.length) {
+      level++;
+      continue;
+    }
+    const window = await gatherWindow(blocks, model, level, x0, y0, width, height);
+    return { window, x0, y0, width, height, gridWidth: grid.widthPx, gridHeight: grid.heightPx, nodeCols, nodeRows, nodes, step: LATTICE_STEP_PX };
   }
-  return { cols, rows, indices };
+}
+
+/** Decoded values of grid pixels [x0, x0 + width) × [y0, y0 + height) at a level; NaN off the grid. */
+async function gatherWindow(
+  blocks: BlockStore,
+  model: ReadyTerrain,
+  level: number,
+  x0: number,
+  y0: number,
+  width: number,
+  height: number,
+): Promise<Float32Array | Float64Array> {
+  const grid = blocks.blockGrid(model, level);
+  const wide = level === 0 && (model.dataType === 'Int32' || model.dataType === 'Float64');
+  const window = (wide ? new Float64Array(width * height) : new Float32Array(width * height)).fill(NaN);
+  const cx0 = Math.max(0, x0);
+  const cy0 = Math.max(0, y0);
+  const cx1 = Math.min(grid.widthPx, x0 + width);
+  const cy1 = Math.min(grid.heightPx, y0 + height);
+  if (cx1 <= cx0 || cy1 <= cy0) return window;
+  const fetches: Array<Promise<void>> = [];
+  for (let by = Math.floor(cy0 / grid.blockHeight); by * grid.blockHeight < cy1; by++) {
+    for (let bx = Math.floor(cx0 / grid.blockWidth); bx * grid.blockWidth < cx1; bx++) {
+      const copy = (block: Block) => {
+        const bx0 = bx * grid.blockWidth;
+        const by0 = by * grid.blockHeight;
+        const c0 = Math.max(cx0, bx0);
+        const c1 = Math.min(cx1, bx0 + block.width);
+        for (let r = Math.max(cy0, by0); r < Math.min(cy1, by0 + block.height); r++) {
+          const from = (r - by0) * block.width + (c0 - bx0);
+          window.set(block.values.subarray(from, from + (c1 - c0)), (r - y0) * width + (c0 - x0));
+        }
+      };
+      const cached = blocks.peek(model, level, bx, by);
+      if (cached) copy(cached);
+      else fetches.push(blocks.block(model, level, bx, by).then(copy));
+    }
+  }
+  await Promise.all(fetches);
+  return window;
 }
 
 let transparent: Buffer | null = null;

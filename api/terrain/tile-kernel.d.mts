@@ -1,0 +1,55 @@
+/** Types of tile-kernel.mjs (plain JavaScript so worker threads load it without a TypeScript loader). */
+
+export declare const TILE_PX: number;
+export declare const SAMPLES_PX: number;
+
+/** One model's share of a tile: a window of its grid and where the tile's pixels fall on it. */
+export interface TileLayer {
+  /** Row-major `width` × `height` elevations in metres of grid pixels [x0, x0 + width) × [y0, y0 + height); NaN for nodata and off the grid. */
+  window: Float32Array | Float64Array;
+  x0: number;
+  y0: number;
+  width: number;
+  height: number;
+  /** Size of the grid level the window is cut from (continuous coordinates beyond it have no value). */
+  gridWidth: number;
+  gridHeight: number;
+  /** Continuous grid coordinates at lattice nodes, `nodes` × `nodes`, node (n, m) at sample (n·step, m·step). */
+  nodeCols: Float64Array;
+  nodeRows: Float64Array;
+  nodes: number;
+  step: number;
+}
+
+export interface KernelSun {
+  cosZenith: number;
+  sinZenith: number;
+  cosAzimuth: number;
+  sinAzimuth: number;
+  zFactor: number;
+}
+
+export interface TileTask {
+  /** Finest model first: later layers only fill samples the earlier ones left without data. */
+  layers: TileLayer[];
+  /** Ground size of a tile pixel, m. */
+  cellSizeM: number;
+  sun: KernelSun;
+  /** Tint stops flattened: elevation m, red, green, blue, … ascending by elevation. */
+  stops: Float64Array;
+  shadowFloor: number;
+  shadeGain: number;
+  deflateLevel: number;
+}
+
+export declare function sampleTileElevations(layers: readonly TileLayer[]): Float64Array;
+export declare function shadeAndTint(
+  elevations: Float64Array,
+  cellSizeM: number,
+  sun: KernelSun,
+  stops: Float64Array,
+  shadowFloor: number,
+  shadeGain: number,
+): Uint8Array;
+export declare function encodePng(scanlines: Uint8Array, width: number, height: number, deflateLevel?: number): Uint8Array;
+export declare function renderTilePng(task: TileTask): Uint8Array;

@@ -1,0 +1,141 @@
+import { join } from 'node:path';
+import { PNG } from 'pngjs';
+import { afterAll, describe, expect, it } from 'vitest';
+import { ELEVATION_TINT_STOPS, tintInto } from '../../../api/terrain/elevation-tint';
+import { hornGradient, shade, sunTerms } from '../../../api/terrain/hillshade';
+import { bilinearValue, guardedLookup } from '../../../api/terrain/terrain-grid';
+import { encodePng, sampleTileElevations, SAMPLES_PX, shadeAndTint, type TileLayer } from '../../../api/terrain/tile-kernel.mjs';
+import { gdal, hasGdal, python, tempDir, writeSyntheticGrid } from './support/gdal';
+
+const SUN = sunTerms({ azimuthDeg: 315, altitudeDeg: 45 });
+const NODES = 18;
+const STEP = 16;
+
+/** A lattice that maps sample (i, j) to grid coordinates (a + b·i + c·j, d + e·i + f·j): linear, so the kernel's interpolation is exact. */
+function affineLattice(a: number, b: number, c: number, d: number, e: number, f: number): Pick<TileLayer, 'nodeCols' | 'nodeRows' | 'nodes' | 'step'> {
+  const nodeCols = new Float64Array(NODES * NODES);
+  const nodeRows = new Float64Array(NODES * NODES);
+  for (let nj = 0; nj < NODES; nj++) {
+    for (let ni = 0; ni < NODES; ni++) {
+      nodeCols[nj * NODES + ni] = a + b * ni * STEP + c * nj * STEP;
+      nodeRows[nj * NODES + ni] = d + e * ni * STEP + f * nj * STEP;
+    }
+  }
+  return { nodeCols, nodeRows, nodes: NODES, step: STEP };
+}
+
+function relief(widthPx: number, heightPx: number, hole?: [number, number, number, number]): Float32Array {
+  const grid = new Float32Array(widthPx * heightPx);
+  for (let r = 0; r < heightPx; r++) {
+    for (let c = 0; c < widthPx; c++) {
+      const inHole = hole && c >= hole[0] && c < hole[2] && r >= hole[1] && r < hole[3];
+      grid[r * widthPx + c] = inHole ? NaN : 1100 + 600 * Math.sin(c / 23) * Math.cos(r / 17) + 3 * c - 2 * r;
+    }
+  }
+  return grid;
+}
+
+describe('tile kernel', () => {
+  it('samples bilinearly like terrain-grid, nodata and the grid edge included', () => {
+    const width = 200;
+    const height = 150;
+    const grid = relief(width, height, [60, 40, 75, 52]);
+    // The window is the whole grid with a one-pixel NaN margin, as the renderer cuts it.
+    const window = new Float32Array((width + 2) * (height + 2)).fill(NaN);
+    for (let r = 0; r < height; r++) window.set(grid.subarray(r * width, (r + 1) * width), (r + 1) * (width + 2) + 1);
+    const lattice = affineLattice(-20.31, 0.83, 0.11, -9.713, -0.07, 0.71);
+    const layer: TileLayer = { window, x0: -1, y0: -1, width: width + 2, height: height + 2, gridWidth: width, gridHeight: height, ...lattice };
+
+    const sampled = sampleTileElevations([layer]);
+
+    const geometry = { originX: 0, originY: 0, pixelSizeX: 1, pixelSizeY: 1, widthPx: width, heightPx: height };
+    const lookup = guardedLookup(geometry, (c, r) => grid[r * width + c]!);
+    let worst = 0;
+    let mismatchedNaN = 0;
+    let valid = 0;
+    for (let j = 0; j < SAMPLES_PX; j++) {
+      for (let i = 0; i < SAMPLES_PX; i++) {
+        const expected = bilinearValue(geometry, -20.31 + 0.83 * i + 0.11 * j, -9.713 - 0.07 * i + 0.71 * j, lookup);
+        const actual = sampled[j * SAMPLES_PX + i]!;
+        if (Number.isNaN(expected) !== Number.isNaN(actual)) mismatchedNaN++;
+        else if (!Number.isNaN(expected)) {
+          valid++;
+          worst = Math.max(worst, Math.abs(actual - expected));
+        }
+      }
+    }
+
+    expect(valid).toBeGreaterThan(30_000);
+    expect(mismatchedNaN).toBe(0);
+    expect(worst).toBeLessThan(1e-6);
+  });
+
+  it('shades and tints exactly like hillshade.ts and elevation-tint.ts, transparent where there is no data', () => {
+    const elevations = Float64Array.from(relief(SAMPLES_PX, SAMPLES_PX, [100, 120, 140, 150]));
+    const stops = Float64Array.from(ELEVATION_TINT_STOPS.flatMap((stop) => [stop.elevationM, ...stop.rgb]));
+    const cellSizeM = 7.5;
+
+    const png = PNG.sync.read(Buffer.from(encodePng(shadeAndTint(elevations, cellSizeM, SUN, stops, 0.3, 0.7 * 1.15), 256, 256, 1)));
+
+    let differing = 0;
+    const rgb = new Uint8Array(3);
+    for (let j = 0; j < 256; j++) {
+      for (let i = 0; i < 256; i++) {
+        const out = (j * 256 + i) * 4;
+        const e = elevations[(j + 1) * SAMPLES_PX + i + 1]!;
+        let expected = [0, 0, 0, 0];
+        if (!Number.isNaN(e)) {
+          const light = 0.3 + 0.7 * 1.15 * shade(hornGradient(elevations, SAMPLES_PX, SAMPLES_PX, i + 1, j + 1, cellSizeM, cellSizeM), SUN);
+          tintInto(e, rgb, 0);
+          expected = [...rgb].map((v) => Math.trunc(Math.min(255, v * light))).concat(255);
+        }
+        if (expected.some((v, k) => png.data[out + k] !== v)) differing++;
+      }
+    }
+
+    expect(differing).toBe(0);
+  });
+});
+
+/**
+ * The kernel's hillshade against `gdaldem hillshade` (sun 315°, 45°) on a 20 m UTM grid: with a
+ * flat tint of 254 and no shadow floor, a pixel's red is ⌊254 · illumination⌋, and gdaldem writes
+ * 1 + 254 · illumination. Interior pixels, within one grey level as in hillshade.spec.ts.
+ */
+describe.skipIf(!hasGdal)('tile kernel hillshade against gdaldem', () => {
+  const temp = tempDir();
+  const path = join(temp.dir, 'relief.tif');
+  afterAll(() => temp.remove());
+
+  it('matches gdaldem hillshade within one grey level', () => {
+    const width = 120;
+    const height = 90;
+    writeSyntheticGrid({ path, epsg: 32632, geoTransform: [600000, 20, 0, 5170000, 0, -20], widthPx: width, heightPx: height, dataType: 'Float32' });
+    gdal('gdaldem', ['hillshade', '-q', '-az', '315', '-alt', '45', path, join(temp.dir, 'shade.tif')]);
+    const { z, out } = python<{ z: number[]; out: number[] }>(
+      `
+import sys, json
+from osgeo import gdal
+a = gdal.Open(sys.argv[1]).ReadAsArray(); b = gdal.Open(sys.argv[2]).ReadAsArray()
+print(json.dumps({'z': a.astype(float).ravel().tolist(), 'out': b.astype(float).ravel().tolist()}))`,
+      [path, join(temp.dir, 'shade.tif')],
+    );
+    // Sample i, j sits on the centre of grid pixel (i − 1, j − 1); the window has the renderer's
+    // one-pixel NaN margin.
+    const window = new Float32Array((width + 2) * (height + 2)).fill(NaN);
+    for (let r = 0; r < height; r++) window.set(z.slice(r * width, (r + 1) * width), (r + 1) * (width + 2) + 1);
+    const layer: TileLayer = { window, x0: -1, y0: -1, width: width + 2, height: height + 2, gridWidth: width, gridHeight: height, ...affineLattice(-0.5, 1, 0, -0.5, 0, 1) };
+    const flat = Float64Array.from([0, 254, 254, 254]);
+
+    const png = PNG.sync.read(Buffer.from(encodePng(shadeAndTint(sampleTileElevations([layer]), 20, SUN, flat, 0, 1), 256, 256, 1)));
+
+    let worst = 0;
+    for (let r = 1; r < height - 1; r++) {
+      for (let c = 1; c < width - 1; c++) {
+        const red = png.data[(r * 256 + c) * 4]!;
+        worst = Math.max(worst, Math.abs(1 + red - out[r * width + c]!));
+      }
+    }
+    expect(worst).toBeLessThanOrEqual(1);
+  });
+});
