@@ -127,6 +127,7 @@ describe('descent review: planner reads only', () => {
     await screenshot(page, 'reviews-queue-planner-tablet');
     await page.getByRole('table', { name: 'Review items' }).getByRole('row').nth(1).getByRole('link').first().click();
     await page.getByRole('heading', { level: 2, name: 'Audit trail' }).waitFor();
+    await page.locator('app-terrain-map .leaflet-tile-loaded').first().waitFor({ state: 'attached' });
     await tallScreenshot(page, 'reviews-detail-planner-tablet');
 
     for (const name of ['Acknowledge', 'Record mitigation', 'Accept risk', 'Reopen']) {
