@@ -121,16 +121,29 @@ export class BlockStore {
     return pending;
   }
 
-  /** Decodes any window of a model's GeoTIFF in a worker (ingestion reads row bands this way). */
-  async window(source: Pick<TerrainSource, 'path' | 'nodata' | 'dataType' | 'verticalScaleToM'>, window: [number, number, number, number]): Promise<Float32Array | Float64Array> {
-    return (await this.pool.run({
-      path: source.path,
-      window,
-      // Float32 files store nodata rounded to single precision; compare like with like.
-      nodata: source.nodata === null ? null : source.dataType === 'Float32' ? Math.fround(source.nodata) : source.nodata,
-      verticalScaleToM: source.verticalScaleToM,
-      wide: source.dataType === 'Int32' || source.dataType === 'Float64',
-    })) as Float32Array | Float64Array;
+  /**
+   * Decodes any window of a model's GeoTIFF in a worker (ingestion reads row bands this way).
+   * `reuse`, an array from an earlier call that the caller no longer needs, is handed to the
+   * worker and filled again when it is large enough (the caller must not touch it afterwards).
+   */
+  async window(
+    source: Pick<TerrainSource, 'path' | 'nodata' | 'dataType' | 'verticalScaleToM'>,
+    window: [number, number, number, number],
+    reuse?: Float32Array | Float64Array,
+  ): Promise<Float32Array | Float64Array> {
+    const into = reuse?.buffer as ArrayBuffer | undefined;
+    return (await this.pool.run(
+      {
+        path: source.path,
+        window,
+        // Float32 files store nodata rounded to single precision; compare like with like.
+        nodata: source.nodata === null ? null : source.dataType === 'Float32' ? Math.fround(source.nodata) : source.nodata,
+        verticalScaleToM: source.verticalScaleToM,
+        wide: source.dataType === 'Int32' || source.dataType === 'Float64',
+        into,
+      },
+      into ? { transferList: [into] } : {},
+    )) as Float32Array | Float64Array;
   }
 
   /**

@@ -2,9 +2,10 @@
 // of terrain GeoTIFFs (default task) and rendering map tiles (task `renderTile`).
 // Plain JavaScript on purpose: it loads the same way under tsx, vitest and the bundled server.
 //
-// Decode task: { path, window: [x0, y0, x1, y1], nodata, verticalScaleToM, wide }
+// Decode task: { path, window: [x0, y0, x1, y1], nodata, verticalScaleToM, wide, into? }
 // Result: Float32Array (or Float64Array when `wide`) of (x1−x0)·(y1−y0) elevations in metres,
-// row-major, with NaN wherever the file holds nodata (or NaN).
+// row-major, with NaN wherever the file holds nodata (or NaN); written into the transferred
+// ArrayBuffer `into` when it is large enough.
 //
 // renderTile task: a TileTask (tile-kernel.d.mts); result: the PNG bytes (Uint8Array).
 import { inflateSync } from 'node:zlib';
@@ -41,9 +42,13 @@ async function imageFor(path) {
   }
 }
 
-export default async function decodeWindow({ path, window, nodata, verticalScaleToM, wide }) {
+export default async function decodeWindow({ path, window, nodata, verticalScaleToM, wide, into }) {
   const { image, direct } = await imageFor(path);
-  const out = wide ? new Float64Array((window[2] - window[0]) * (window[3] - window[1])) : new Float32Array((window[2] - window[0]) * (window[3] - window[1]));
+  const length = (window[2] - window[0]) * (window[3] - window[1]);
+  const Values = wide ? Float64Array : Float32Array;
+  // A buffer handed over by the caller is filled and handed back: a long scan reuses one buffer
+  // instead of leaving a new one per band for the garbage collector.
+  const out = into && into.byteLength >= length * Values.BYTES_PER_ELEMENT ? new Values(into, 0, length) : new Values(length);
   const convert = { nodata: nodata ?? null, scale: verticalScaleToM };
   if (direct) await readDirect(image, direct, window, out, convert);
   else {

@@ -59,13 +59,15 @@ async function scanGrid(deps: AppDeps, source: TerrainSource): Promise<{ statist
   try {
     // Bands follow the file's own block rows where it has them, so each block is decoded once.
     const bandRows = Math.max(1, Math.floor(BAND_ROWS / source.blockHeightPx)) * source.blockHeightPx;
+    // One band buffer travels to the decoder thread and back for the whole scan.
+    let band: Float32Array | Float64Array | undefined;
     for (let firstRow = 0; firstRow < source.heightPx; firstRow += bandRows) {
       const rowCount = Math.min(bandRows, source.heightPx - firstRow);
       const haloAbove = firstRow > 0;
       const haloBelow = firstRow + rowCount < source.heightPx;
       const top = firstRow - (haloAbove ? 1 : 0);
       const bottom = firstRow + rowCount + (haloBelow ? 1 : 0);
-      const band = await runtime.blocks.window(source, [0, top, source.widthPx, bottom]);
+      band = await runtime.blocks.window(source, [0, top, source.widthPx, bottom], band);
       statistics.addRows(band, firstRow, rowCount, haloAbove, haloBelow);
       const offset = haloAbove ? source.widthPx : 0;
       await pyramid.addRows(band.subarray(offset, offset + rowCount * source.widthPx), rowCount);

@@ -68,7 +68,7 @@ export class PyramidBuilder {
     const paired = target.pairWithCarry(rows, rowCount, sourceWidth, isLast);
     if (!paired) return;
     const { data, pairs } = paired;
-    const out = new Float32Array(pairs * width);
+    const out = target.halvedRows(pairs);
     const srcWidth = data.length / (pairs * 2);
     for (let p = 0; p < pairs; p++) {
       const top = 2 * p * srcWidth;
@@ -97,9 +97,12 @@ export class PyramidBuilder {
 class LevelWriter {
   private pending: Float32Array;
   private pendingRows = 0;
-  private blockRow = 0;
+  private blockRowIndex = 0;
   private carry: Float32Array | Float64Array | null = null;
   private readonly across: number;
+  /** Reused between bands (a scan of a large grid would otherwise leave tens of MB per band to the GC). */
+  private halved = new Float32Array(0);
+  private blockRow: Float32Array | null = null;
 
   constructor(
     readonly level: TerrainOverviewLevel,
@@ -139,6 +142,13 @@ class LevelWriter {
     return count > 0 ? { data, pairs: count / 2 } : null;
   }
 
+  /** Room for `pairs` rows of this level, valid until the next call. */
+  halvedRows(pairs: number): Float32Array {
+    const length = pairs * this.level.widthPx;
+    if (this.halved.length < length) this.halved = new Float32Array(length);
+    return this.halved.subarray(0, length);
+  }
+
   takeCarry(): Float32Array | Float64Array | null {
     const carried = this.carry;
     this.carry = null;
@@ -164,7 +174,8 @@ class LevelWriter {
     if (this.pendingRows === 0 || (!isLast && this.pendingRows < OVERVIEW_BLOCK_PX)) return;
     const width = this.level.widthPx;
     const blockValues = OVERVIEW_BLOCK_PX * OVERVIEW_BLOCK_PX;
-    const out = new Float32Array(this.across * blockValues).fill(NaN);
+    this.blockRow ??= new Float32Array(this.across * blockValues);
+    const out = this.blockRow.fill(NaN);
     for (let r = 0; r < this.pendingRows; r++) {
       for (let bx = 0; bx < this.across; bx++) {
         const c0 = bx * OVERVIEW_BLOCK_PX;
@@ -173,8 +184,8 @@ class LevelWriter {
       }
     }
     const bytes = Buffer.from(out.buffer, out.byteOffset, out.byteLength);
-    await this.file.write(bytes, 0, bytes.length, this.blockRow * bytes.length);
-    this.blockRow++;
+    await this.file.write(bytes, 0, bytes.length, this.blockRowIndex * bytes.length);
+    this.blockRowIndex++;
     this.pendingRows = 0;
   }
 
