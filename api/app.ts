@@ -9,16 +9,14 @@ import { allEndpoints } from './endpoints';
 import { mountEndpoint } from './http/endpoint';
 import { apiNotFound, errorHandler } from './http/error-handler';
 import { buildOpenApiDocument } from './openapi/openapi-document';
-import { elevationSamplerFor } from './terrain/elevation-sampler';
+import { withDefaultServices } from './app-services';
 
 /**
  * Builds the Express application without listening, so tests drive it in-process with
  * supertest and `main.ts` decides where it listens.
  */
 export function createApp(givenDeps: AppDeps): Express {
-  // Routes without their own elevations are sampled from the uploaded terrain unless a test
-  // passes its own sampler.
-  const deps: AppDeps = { ...givenDeps, sampleElevations: givenDeps.sampleElevations ?? elevationSamplerFor(givenDeps) };
+  const deps = withDefaultServices(givenDeps);
   const app = express();
   app.disable('x-powered-by');
   app.set('trust proxy', 'loopback');

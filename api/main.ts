@@ -3,6 +3,7 @@ import { loadConfig } from './config';
 import { createDatabase } from './db/client';
 import { migrateDatabase } from './db/migrate';
 import { createApp } from './app';
+import { withDefaultServices } from './app-services';
 import { startBatchRunWorkers } from './batch-runs/batch-runs-service';
 import { createSmtpTransport, startMailWorker } from './mail/mail-worker';
 import { startSmtpFake } from './mail/smtp-fake';
@@ -12,6 +13,7 @@ import { ensureVehiclePresets } from './vehicle-profiles/vehicle-presets-seed';
 const config = loadConfig();
 await migrateDatabase(config.DATABASE_URL);
 const { db, close } = createDatabase(config.DATABASE_URL);
+const deps = withDefaultServices({ db, config });
 // The generic vehicle classes are read-only profiles every environment needs (idempotent).
 await ensureVehiclePresets(db);
 
@@ -26,10 +28,10 @@ if (config.RUN_WORKERS) {
   const worker = startMailWorker(db, createSmtpTransport(config), config.MAIL_FROM);
   stoppers.push(worker.stop);
 }
-stoppers.push(await startTerrain({ db, config }));
-await startBatchRunWorkers({ db, config });
+stoppers.push(await startTerrain(deps));
+await startBatchRunWorkers(deps);
 
-const server = createServer(createApp({ db, config }));
+const server = createServer(createApp(deps));
 server.listen(config.PORT, config.HOST, () => {
   console.log(`[api] Descentry listening on http://${config.HOST}:${config.PORT}`);
 });

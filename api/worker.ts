@@ -8,6 +8,7 @@
  *
  * Each job is handed to one process at a time; the mail outbox is shared with SKIP LOCKED.
  */
+import { withDefaultServices } from './app-services';
 import { startBatchRunWorkers } from './batch-runs/batch-runs-service';
 import { loadConfig } from './config';
 import { createDatabase } from './db/client';
@@ -19,10 +20,11 @@ import { startTerrain } from './terrain/terrain-startup';
 const config = { ...loadConfig(), RUN_WORKERS: true };
 await migrateDatabase(config.DATABASE_URL);
 const { db, close } = createDatabase(config.DATABASE_URL);
+const deps = withDefaultServices({ db, config });
 
 const mail = startMailWorker(db, createSmtpTransport(config), config.MAIL_FROM);
-const stopTerrain = await startTerrain({ db, config });
-await startBatchRunWorkers({ db, config });
+const stopTerrain = await startTerrain(deps);
+await startBatchRunWorkers(deps);
 console.log('[worker] Descentry worker running: terrain ingestion, batch runs, mail outbox');
 
 async function shutdown(signal: string) {

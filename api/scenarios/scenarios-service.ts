@@ -51,22 +51,14 @@ async function computeAndStore(db: Database, scenarioId: string, sampleElevation
     await repository.updateScenario(db, scenarioId, {
       status: 'failed',
       failureReason: 'the calculation stopped with an unexpected error; the administrators can find it in the server log',
-      computedAt: new Date(),
     });
     return;
   }
   provenance.engineVersion = outcome.engineVersion;
   if (!outcome.ok) {
-    await repository.updateScenario(db, scenarioId, {
-      status: 'failed',
-      failureReason: outcome.failureReason,
-      engineVersion: outcome.engineVersion,
-      computedAt: new Date(),
-      inputs: { provenance, ...outcome.inputs },
-      summary: null,
-      riskCounts: null,
-      directionResults: null,
-    });
+    // A failed run keeps the last good result (with the inputs and engine version it was computed
+    // with): the board and the descent review go on reading it, and the reason is shown beside it.
+    await repository.updateScenario(db, scenarioId, { status: 'failed', failureReason: outcome.failureReason });
     return;
   }
   const riskCounts: Record<RiskLevel, number> = { low: 0, elevated: 0, high: 0, critical: 0 };
@@ -173,7 +165,7 @@ export async function deleteScenario(db: Database, id: string): Promise<void> {
 export async function getResult(db: Database, id: string): Promise<ScenarioResult> {
   const row = await repository.findScenarioRow(db, id);
   if (!row) throw new NotFoundError('The scenario');
-  if (row.status !== 'done' || !row.summary || !row.directionResults || !row.computedAt || !row.engineVersion) {
+  if (!row.summary || !row.directionResults || !row.computedAt || !row.engineVersion) {
     throw new HttpError(
       404,
       'no_result',
@@ -202,7 +194,7 @@ export async function compareScenarios(db: Database, ids: string[]) {
   for (const id of unique) {
     const row = rows.find((candidate) => candidate.scenario.id === id)!;
     let result: ScenarioResult | null = null;
-    if (row.scenario.status === 'done') result = await getResult(db, id);
+    if (row.scenario.summary) result = await getResult(db, id);
     items.push({ scenario: repository.toScenario(row), result });
   }
   return { items, caution: ENGINEERING_CAUTION };

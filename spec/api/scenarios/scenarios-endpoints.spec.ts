@@ -120,6 +120,24 @@ describe('POST /api/scenarios', () => {
     expect(response.body.status).toBe('failed');
     expect(response.body.failureReason).toMatch(/no terrain covers 0\.0–2\.0 km/);
   });
+
+  it('keeps the last good result beside the reason when a re-run fails', async () => {
+    const route = await aRoute();
+    const scenario = (await request(app).post('/api/scenarios').set('Cookie', planner).send(aScenarioDraft(route.id))).body;
+    await request(app)
+      .put(`/api/routes/${route.id}`)
+      .set('Cookie', planner)
+      .send(aRouteDraft({ geometry: eastwardLine({ withElevation: false }), stops: [] }));
+
+    const rerun = await request(app).post(`/api/scenarios/${scenario.id}/run`).set('Cookie', planner);
+    const result = await request(app).get(`/api/scenarios/${scenario.id}/result`).set('Cookie', planner);
+
+    expect(rerun.body.status).toBe('failed');
+    expect(rerun.body.failureReason).toMatch(/no terrain covers/);
+    expect(rerun.body.summary.lengthM).toBeCloseTo(scenario.summary.lengthM, 6);
+    expect(result.status).toBe(200);
+    expect(result.body.computedAt).toBe(scenario.computedAt);
+  });
 });
 
 describe('versions and staleness', () => {
