@@ -4,7 +4,7 @@
  * their unit. Defaults for optional vehicle fields come from the 12 m battery bus class
  * (see `shared/engine/vehicle-presets.ts` for their sources).
  */
-import { z } from 'zod';
+import * as z from 'zod';
 import {
   DEFAULT_ACCELERATION_MPS2,
   DEFAULT_ASCENT_THRESHOLD_M,

@@ -1,4 +1,4 @@
-import { z } from 'zod';
+import * as z from 'zod';
 
 /** Every error the API answers with has this shape, whatever the status code. */
 export const apiErrorSchema = z.object({

@@ -1,4 +1,4 @@
-import { z } from 'zod';
+import * as z from 'zod';
 import { MAX_PASSWORD_LENGTH, passwordWeakness } from './password-strength';
 import { roleSchema } from './roles';
 

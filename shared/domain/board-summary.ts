@@ -1,4 +1,4 @@
-import { z } from 'zod';
+import * as z from 'zod';
 import { riskLevelSchema } from './analysis';
 import { directionSchema } from './scenarios';
 

@@ -1,4 +1,4 @@
-import { z } from 'zod';
+import * as z from 'zod';
 
 /**
  * The five kinds of people who use Descentry. Each role may change only its own kind of data;

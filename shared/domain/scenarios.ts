@@ -1,4 +1,4 @@
-import { z } from 'zod';
+import * as z from 'zod';
 import { descentSchema, profileSchema, summarySchema, uncoveredStretchSchema } from './analysis';
 import { loadCaseSchema, seasonSchema } from './vehicle-profiles';
 

@@ -1,4 +1,4 @@
-import { z } from 'zod';
+import * as z from 'zod';
 
 /**
  * Terrain models: uploaded GeoTIFF elevation models, their catalogue entries and elevation

@@ -18,7 +18,7 @@ import {
   type RouteProfile,
 } from '@shared/domain/road-routes';
 import { firstValueFrom, map, type Observable } from 'rxjs';
-import { z } from 'zod';
+import * as z from 'zod';
 import { ERRORS_SHOWN_INLINE } from '../core/api-error-message';
 
 export type RouteExportFormat = 'geojson' | 'gpx';
