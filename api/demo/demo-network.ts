@@ -8,8 +8,9 @@
  * converted to WGS 84 through the grid's UTM zone 32N definition. The pass-road routes follow the
  * pass road's design vertices (designPassRoad); their elevations are the road's design elevations,
  * which the demo terrain is built to match. When the app has a terrain sampler (deps.sampleElevations)
- * the positions are stored without elevation and the terrain supplies it; otherwise they carry the
- * design elevations, so the demo works with or without the terrain.
+ * their positions are stored without elevation and the terrain supplies it; otherwise they carry the
+ * design elevations, so the demo works with or without the terrain. Valley routes always carry
+ * their designed profile (see `onPassRoad`).
  *
  * Idempotent: every row has a seed key; what exists is left as it is (a second start leaves one copy).
  */
@@ -57,9 +58,15 @@ function southValleyNorth(east: number): number {
 const pass = designPassRoad().vertices;
 const P = (index: number) => ({ at: pass[index]!.at, elevationM: pass[index]!.elevationM });
 
-const ROUTES: { key: string; draft: Omit<RoadRouteDraftInput, 'geometry' | 'stops'>; waypoints: Waypoint[] }[] = [
+/**
+ * `onPassRoad`: the route follows the pass road's design vertices, which the demo terrain is built
+ * to match, so its elevations may come from the terrain. The valley routes cut straight across
+ * the invented relief between their few vertices; they keep their designed (engineered) profile.
+ */
+const ROUTES: { key: string; onPassRoad: boolean; draft: Omit<RoadRouteDraftInput, 'geometry' | 'stops'>; waypoints: Waypoint[] }[] = [
   {
     key: 'demo-route:valley-line',
+    onPassRoad: false,
     draft: {
       name: '1 Valley line: Westgate – Korvel – Lindmoor',
       description: 'All-day trunk line along the floor of the Korvel valley; gentle grades.',
@@ -81,6 +88,7 @@ const ROUTES: { key: string; draft: Omit<RoadRouteDraftInput, 'geometry' | 'stop
   },
   {
     key: 'demo-route:pass-line',
+    onPassRoad: true,
     draft: {
       name: '4 Pass line: Korvel – Korvel Pass – Orren',
       description: 'Over the Korvel pass (1 900 m): four switchback legs of 6.5–9 % on the south face, 7–8 % down to Orren.',
@@ -106,6 +114,7 @@ const ROUTES: { key: string; draft: Omit<RoadRouteDraftInput, 'geometry' | 'stop
   },
   {
     key: 'demo-route:ski-shuttle',
+    onPassRoad: true,
     draft: {
       name: 'S Ski shuttle: Korvel Pass (Skarnfeld lifts) – Orren',
       description: 'Winter shuttle from the Skarnfeld lifts at the pass down 700 m to Orren; buses charge at the pass terminus.',
@@ -123,6 +132,7 @@ const ROUTES: { key: string; draft: Omit<RoadRouteDraftInput, 'geometry' | 'stop
   },
   {
     key: 'demo-route:trolleybus-line',
+    onPassRoad: true,
     draft: {
       name: 'T2 Trolleybus: Korvel – Upper Brenn',
       description: 'Trolleybus from the town square up the first switchback leg (7.5 %) to Upper Brenn.',
@@ -141,6 +151,7 @@ const ROUTES: { key: string; draft: Omit<RoadRouteDraftInput, 'geometry' | 'stop
   },
   {
     key: 'demo-route:tram-line',
+    onPassRoad: false,
     draft: {
       name: 'A Valley tram: Korvel Station – Lindmoor Upper',
       description: 'Tram along the south bank of the valley, ending with a 4 % ramp up to Lindmoor Upper.',
@@ -260,11 +271,11 @@ export async function seedDemoNetwork(deps: AppDeps): Promise<void> {
   await ensureVehiclePresets(db);
   const planner = await personWithRole(deps, 'planner');
   const analyst = await personWithRole(deps, 'analyst');
-  const withElevation = !deps.sampleElevations;
 
   const routeIds = new Map<string, string>();
   const routeLines: [number, number][][] = [];
   for (const route of ROUTES) {
+    const withElevation = !deps.sampleElevations || !route.onPassRoad;
     const coordinates = route.waypoints.map((point) => (withElevation ? [...lonLat(point.at), round(point.elevationM, 1)] : lonLat(point.at))) as
       | [number, number][]
       | [number, number, number][];
