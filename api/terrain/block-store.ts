@@ -1,5 +1,5 @@
 import { existsSync } from 'node:fs';
-import { open } from 'node:fs/promises';
+import { open, type FileHandle } from 'node:fs/promises';
 import { join } from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { LRUCache } from 'lru-cache';
@@ -42,6 +42,8 @@ export interface Block {
 
 /** Tile size of the reduced pyramid files (raw little-endian Float32, 256 × 256 blocks). */
 export const OVERVIEW_BLOCK_PX = 256;
+/** Overview files kept open for reading. */
+const MAX_OPEN_OVERVIEWS = 16;
 
 /**
  * Decoded terrain blocks for sampling and tile rendering: an LRU cache bounded in bytes in front
@@ -53,6 +55,7 @@ export class BlockStore {
   private readonly cache: LRUCache<string, Block>;
   private readonly inFlight = new Map<string, Promise<Block>>();
   private poolInstance: Piscina | null = null;
+  private readonly overviewFiles = new Map<string, Promise<FileHandle>>();
 
   constructor(private readonly options: { cacheBytes: number; threads: number }) {
     this.cache = new LRUCache<string, Block>({
@@ -110,7 +113,11 @@ export class BlockStore {
     if (cached) return cached;
     let pending = this.inFlight.get(key);
     if (!pending) {
-      pending = (level === 0 ? this.decodeGeoTiffBlock(source, blockX, blockY) : readOverviewBlock(source, level, blockX, blockY))
+      pending = (
+        level === 0
+          ? this.decodeGeoTiffBlock(source, blockX, blockY)
+          : this.overviewFile(source, level).then((handle) => readOverviewBlock(handle, source, level, blockX, blockY))
+      )
         .then((block) => {
           this.cache.set(key, block);
           return block;
@@ -163,15 +170,45 @@ export class BlockStore {
     await Promise.all(Array.from({ length: this.options.threads }, () => pool.run({ path: '' }, { name: 'forget' })));
   }
 
+  /** Overview files stay open between reads (a few, least recently used first out). */
+  private overviewFile(source: TerrainSource, level: number): Promise<FileHandle> {
+    const path = join(source.overviewDir, source.overviews[level - 1]!.fileName);
+    let handle = this.overviewFiles.get(path);
+    if (handle) {
+      this.overviewFiles.delete(path);
+    } else {
+      handle = open(path, 'r');
+      handle.catch(() => this.overviewFiles.delete(path));
+    }
+    this.overviewFiles.set(path, handle);
+    if (this.overviewFiles.size > MAX_OPEN_OVERVIEWS) {
+      const [oldestPath, oldest] = this.overviewFiles.entries().next().value!;
+      this.overviewFiles.delete(oldestPath);
+      // Reads already under way finish first: the handle closes once they have settled.
+      void oldest.then((file) => setTimeout(() => void file.close().catch(() => undefined), 1_000), () => undefined);
+    }
+    return handle;
+  }
+
+  private closeOverviewFiles(prefix?: string): void {
+    for (const [path, handle] of this.overviewFiles) {
+      if (prefix && !path.startsWith(prefix)) continue;
+      this.overviewFiles.delete(path);
+      void handle.then((file) => file.close(), () => undefined).catch(() => undefined);
+    }
+  }
+
   /** Forgets everything about a model (after deletion). */
-  async forget(source: Pick<TerrainSource, 'id' | 'path'>): Promise<void> {
+  async forget(source: Pick<TerrainSource, 'id' | 'path' | 'overviewDir'>): Promise<void> {
     for (const key of this.cache.keys()) if (key.startsWith(`${source.id}:`)) this.cache.delete(key);
+    this.closeOverviewFiles(join(source.overviewDir, '/'));
     if (!this.poolInstance) return;
     const pool = this.poolInstance;
     await Promise.all(Array.from({ length: pool.threads.length }, () => pool.run({ path: source.path }, { name: 'forget' })));
   }
 
   async close(): Promise<void> {
+    this.closeOverviewFiles();
     await this.poolInstance?.destroy();
     this.poolInstance = null;
   }
@@ -191,17 +228,13 @@ function blockKey(source: TerrainSource, level: number, blockX: number, blockY: 
 }
 
 /** Overview files are raw tiled Float32: one positioned read per block (off-thread in libuv). */
-async function readOverviewBlock(source: TerrainSource, level: number, blockX: number, blockY: number): Promise<Block> {
+async function readOverviewBlock(handle: FileHandle, source: TerrainSource, level: number, blockX: number, blockY: number): Promise<Block> {
   const overview = source.overviews[level - 1]!;
   const across = Math.ceil(overview.widthPx / OVERVIEW_BLOCK_PX);
   const blockBytes = OVERVIEW_BLOCK_PX * OVERVIEW_BLOCK_PX * 4;
-  const buffer = Buffer.alloc(blockBytes);
-  const handle = await open(join(source.overviewDir, overview.fileName), 'r');
-  try {
-    await handle.read(buffer, 0, blockBytes, (blockY * across + blockX) * blockBytes);
-  } finally {
-    await handle.close();
-  }
+  // Every byte is read over, so no zero-filling; a buffer of its own, not a slice of Node's pool.
+  const buffer = Buffer.allocUnsafeSlow(blockBytes);
+  await handle.read(buffer, 0, blockBytes, (blockY * across + blockX) * blockBytes);
   const values = new Float32Array(buffer.buffer, buffer.byteOffset, OVERVIEW_BLOCK_PX * OVERVIEW_BLOCK_PX);
   return { values, width: OVERVIEW_BLOCK_PX, height: OVERVIEW_BLOCK_PX };
 }

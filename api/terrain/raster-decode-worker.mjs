@@ -11,7 +11,9 @@
 import { inflateSync } from 'node:zlib';
 import Piscina from 'piscina';
 import { BaseDecoder, fromFile } from 'geotiff';
-import { renderTilePng } from './tile-kernel.mjs';
+import { renderTilePng, warmUpKernel } from './tile-kernel.mjs';
+
+warmUpKernel();
 
 /** Open files stay open between tasks; a few suffice since requests cluster on few models. */
 const MAX_OPEN_FILES = 8;

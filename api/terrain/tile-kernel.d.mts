@@ -51,5 +51,8 @@ export declare function shadeAndTint(
   shadowFloor: number,
   shadeGain: number,
 ): Uint8Array;
+/** RGB or RGBA, told apart by the length of the scanlines. */
 export declare function encodePng(scanlines: Uint8Array, width: number, height: number, deflateLevel?: number): Uint8Array;
 export declare function renderTilePng(task: TileTask): Uint8Array;
+/** Compiles the kernel ahead of real tiles (a worker thread calls it when it starts). */
+export declare function warmUpKernel(rounds?: number): void;

@@ -22,13 +22,19 @@ export function sampleTileElevations(layers) {
   const size = SAMPLES_PX;
   const out = new Float64Array(size * size).fill(NaN);
   let missing = size * size;
-  const rowCols = new Float64Array(64);
-  const rowRows = new Float64Array(64);
+  const cellOf = new Int32Array(size);
+  const fractionOf = new Float64Array(size);
   for (const layer of layers) {
     if (missing === 0) break;
     const { window, x0, y0, width, height, gridWidth, gridHeight, nodeCols, nodeRows, nodes, step } = layer;
-    const rowNodeCols = rowCols.length >= nodes ? rowCols : new Float64Array(nodes);
-    const rowNodeRows = rowRows.length >= nodes ? rowRows : new Float64Array(nodes);
+    const rowNodeCols = new Float64Array(nodes);
+    const rowNodeRows = new Float64Array(nodes);
+    for (let i = 0; i < size; i++) {
+      let ni = Math.floor(i / step);
+      if (ni > nodes - 2) ni = nodes - 2;
+      cellOf[i] = ni;
+      fractionOf[i] = i / step - ni;
+    }
     for (let j = 0; j < size; j++) {
       // The lattice interpolated down to this row, then along it.
       let nj = Math.floor(j / step);
@@ -44,9 +50,8 @@ export function sampleTileElevations(layers) {
       for (let i = 0; i < size; i++) {
         const index = base + i;
         if (out[index] === out[index]) continue;
-        let ni = Math.floor(i / step);
-        if (ni > nodes - 2) ni = nodes - 2;
-        const fx = i / step - ni;
+        const ni = cellOf[i];
+        const fx = fractionOf[i];
         const col = rowNodeCols[ni] * (1 - fx) + rowNodeCols[ni + 1] * fx;
         const row = rowNodeRows[ni] * (1 - fx) + rowNodeRows[ni + 1] * fx;
         if (!(col >= 0 && row >= 0 && col <= gridWidth && row <= gridHeight)) continue;
@@ -90,7 +95,8 @@ export function sampleTileElevations(layers) {
 }
 
 /**
- * PNG scanlines (filter byte + RGBA per row) of the shaded, tinted tile. Per pixel:
+ * PNG scanlines (filter byte + RGB per row, RGBA when part of the tile has no data) of the
+ * shaded, tinted tile. Per pixel:
  * Horn gradient over the 3 × 3 window (a NaN neighbour takes the centre value), illumination
  * = (cos zenith + sin zenith·(q·sin A − p·cos A)) / √(1 + p² + q²) clamped at 0 (as hillshade.ts),
  * light = shadowFloor + shadeGain·illumination, colour = tint byte × light capped at 255;
@@ -99,12 +105,15 @@ export function sampleTileElevations(layers) {
  */
 export function shadeAndTint(elevations, cellSizeM, sun, stops, shadowFloor, shadeGain) {
   const size = SAMPLES_PX;
-  const stride = 1 + TILE_PX * 4;
+  const opaque = isOpaque(elevations);
+  const channels = opaque ? 3 : 4;
+  const stride = 1 + TILE_PX * channels;
   const raw = new Uint8Array(TILE_PX * stride);
   const { cosZenith, sinZenith, cosAzimuth, sinAzimuth, zFactor } = sun;
   const scaleX = zFactor / (8 * cellSizeM);
   const scaleY = zFactor / (8 * cellSizeM);
   const lastStop = stops.length - 4;
+  let segment = 4;
   for (let j = 0; j < TILE_PX; j++) {
     let out = j * stride;
     raw[out++] = 1;
@@ -155,26 +164,31 @@ export function shadeAndTint(elevations, cellSizeM, sun, stops, shadowFloor, sha
           tg = stops[lastStop + 2];
           tb = stops[lastStop + 3];
         } else {
-          let k = 4;
-          while (e > stops[k]) k += 4;
+          // Neighbouring pixels mostly share a segment: start from the last one.
+          let k = segment;
+          if (!(e > stops[k - 4] && e <= stops[k])) {
+            k = 4;
+            while (e > stops[k]) k += 4;
+            segment = k;
+          }
           const l = k - 4;
           const t = (e - stops[l]) / (stops[k] - stops[l]);
           tr = (stops[l + 1] + (stops[k + 1] - stops[l + 1]) * t) | 0;
           tg = (stops[l + 2] + (stops[k + 2] - stops[l + 2]) * t) | 0;
           tb = (stops[l + 3] + (stops[k + 3] - stops[l + 3]) * t) | 0;
         }
-        r = tr * light;
-        r = r >= 255 ? 255 : r | 0;
-        g = tg * light;
-        g = g >= 255 ? 255 : g | 0;
-        b = tb * light;
-        b = b >= 255 ? 255 : b | 0;
+        const vr = tr * light;
+        const vg = tg * light;
+        const vb = tb * light;
+        r = vr >= 255 ? 255 : vr | 0;
+        g = vg >= 255 ? 255 : vg | 0;
+        b = vb >= 255 ? 255 : vb | 0;
         a = 255;
       }
       raw[out++] = r - lr;
       raw[out++] = g - lg;
       raw[out++] = b - lb;
-      raw[out++] = a - la;
+      if (!opaque) raw[out++] = a - la;
       lr = r;
       lg = g;
       lb = b;
@@ -184,14 +198,25 @@ export function shadeAndTint(elevations, cellSizeM, sun, stops, shadowFloor, sha
   return raw;
 }
 
+/** Whether every pixel of the tile has an elevation (then the PNG needs no alpha channel). */
+function isOpaque(elevations) {
+  for (let j = 1; j <= TILE_PX; j++) {
+    const end = j * SAMPLES_PX + TILE_PX;
+    for (let k = j * SAMPLES_PX + 1; k <= end; k++) if (elevations[k] !== elevations[k]) return false;
+  }
+  return true;
+}
+
 const PNG_SIGNATURE = [0x89, 0x50, 0x4e, 0x47, 0x0d, 0x0a, 0x1a, 0x0a];
 
 /**
- * An RGBA PNG (8 bits per channel) from ready scanlines: signature, IHDR, one IDAT, IEND. The
- * result owns its whole ArrayBuffer, so a worker can hand it over without a copy.
+ * An RGB or RGBA PNG (8 bits per channel, told apart by the scanlines' length) from ready
+ * scanlines: signature, IHDR, one IDAT, IEND. The result owns its whole ArrayBuffer, so a worker
+ * can hand it over without a copy.
  */
 export function encodePng(scanlines, width, height, deflateLevel = 1) {
-  const idat = deflateSync(scanlines, { level: deflateLevel });
+  const channels = (scanlines.length / height - 1) / width;
+  const idat = deflateSync(scanlines, { level: deflateLevel, memLevel: 9 });
   const total = PNG_SIGNATURE.length + (12 + 13) + (12 + idat.length) + 12;
   const png = new Uint8Array(total);
   const view = new DataView(png.buffer);
@@ -208,7 +233,7 @@ export function encodePng(scanlines, width, height, deflateLevel = 1) {
     view.setUint32(at, width);
     view.setUint32(at + 4, height);
     png[at + 8] = 8; // bit depth
-    png[at + 9] = 6; // colour type: RGBA
+    png[at + 9] = channels === 4 ? 6 : 2; // colour type: RGBA or RGB
     png[at + 10] = 0; // deflate
     png[at + 11] = 0; // adaptive filtering (per-row filter bytes)
     png[at + 12] = 0; // no interlace
@@ -223,4 +248,29 @@ export function renderTilePng(task) {
   const elevations = sampleTileElevations(task.layers);
   const scanlines = shadeAndTint(elevations, task.cellSizeM, task.sun, task.stops, task.shadowFloor, task.shadeGain);
   return encodePng(scanlines, TILE_PX, TILE_PX, task.deflateLevel);
+}
+
+/**
+ * Runs the kernel on a synthetic tile a few times so the JIT has compiled it before real tiles
+ * arrive: the first calls of a fresh thread otherwise take 3–5× longer. One tile is partly
+ * without data, so both PNG layouts and the renormalised interpolation are exercised. ≈ 50 ms.
+ */
+export function warmUpKernel(rounds = 12) {
+  const width = 200;
+  const window = new Float32Array(width * width);
+  for (let k = 0; k < window.length; k++) window[k] = 800 + 600 * Math.sin(k / 911) + (k % width);
+  const nodes = Math.ceil((SAMPLES_PX - 1) / 16) + 1;
+  const nodeCols = new Float64Array(nodes * nodes);
+  const nodeRows = new Float64Array(nodes * nodes);
+  for (let n = 0; n < nodeCols.length; n++) {
+    nodeCols[n] = 3 + (n % nodes) * 11.7;
+    nodeRows[n] = 3 + Math.floor(n / nodes) * 11.7;
+  }
+  const sun = { cosZenith: Math.SQRT1_2, sinZenith: Math.SQRT1_2, cosAzimuth: -Math.SQRT1_2, sinAzimuth: -Math.SQRT1_2, zFactor: 1 };
+  const stops = Float64Array.from([0, 90, 130, 100, 1000, 180, 180, 120, 2000, 240, 240, 240]);
+  for (let round = 0; round < rounds; round++) {
+    const partial = round % 3 === 2;
+    const layer = { window, x0: partial ? 40 : 0, y0: 0, width, height: width, gridWidth: 10_000, gridHeight: 10_000, nodeCols, nodeRows, nodes, step: 16 };
+    renderTilePng({ layers: [layer], cellSizeM: 10, sun, stops, shadowFloor: 0.3, shadeGain: 0.8, deflateLevel: 1 });
+  }
 }
