@@ -138,20 +138,6 @@ export const routes: Routes = [
         loadComponent: () => import('./terrain/terrain-catalogue'),
       },
       {
-        // Everyone signed in may open the catalogue; the navigation lists it for the roles that
-        // manage terrain.
-        path: 'terrain',
-        title: 'Terrain · Descentry',
-        canMatch: [signedInGuard],
-        data: areaData({
-          label: 'Terrain',
-          icon: 'landscape',
-          summary: 'Upload elevation models, check where they cover and how good they are, and see the terrain map.',
-          roles: ['analyst', 'admin'],
-        }),
-        loadComponent: () => import('./terrain/terrain-catalogue'),
-      },
-      {
         path: 'admin/people',
         title: 'People · Descentry',
         canMatch: [areaRoleGuard],
