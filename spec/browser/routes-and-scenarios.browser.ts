@@ -73,8 +73,8 @@ describe('routes and scenarios', () => {
       await page.goto(`${BASE_URL}/scenarios/new`);
       await page.getByLabel('Scenario name').fill(name);
       await page.getByRole('combobox', { name: 'Route', exact: true }).click();
-      // A seeded demo route: its positions carry elevation, so it runs without uploaded terrain.
-      await page.getByRole('option', { name: /Valley tram|Trolleybus|Pass/ }).first().click();
+      // The route drawn above: its elevations come from the demo terrain under it.
+      await page.getByRole('option', { name: new RegExp(routeName) }).click();
       await page.getByRole('combobox', { name: 'Vehicle profile' }).click();
       await page.getByRole('option').first().click();
       await page.getByRole('combobox', { name: 'Load' }).click();
