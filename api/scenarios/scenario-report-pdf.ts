@@ -58,7 +58,8 @@ export function scenarioReportPdf(scenario: Scenario, result: ScenarioResult, pr
     ['Net from battery/line', (s) => kWh(s.batteryNetEnergyWh)],
     ['Consumption', (s) => `${s.kWhPerKm.toFixed(2)} kWh/km`],
     ['Peak brake temperature', (s) => `${s.peakBrakeTempC.toFixed(0)} °C`],
-    ['SOC start → end', (s) => `${(s.startSoc * 100).toFixed(1)} → ${(s.endSoc * 100).toFixed(1)} %`],
+    // The built-in PDF fonts have no arrow glyph: say it in words.
+    ['SOC start to end', (s) => `${(s.startSoc * 100).toFixed(1)} % to ${(s.endSoc * 100).toFixed(1)} %`],
   ];
   grid(doc, width, [columns, ...rows.map(([label, format]) => [label, ...summaries.map(format)])]);
 
@@ -107,8 +108,12 @@ function heading(doc: PDFKit.PDFDocument, text: string) {
 }
 
 function caution(doc: PDFKit.PDFDocument, width: number) {
-  const y = doc.y;
+  // Measure with the font the text is drawn in, or the box comes out too short.
+  doc.font('Helvetica-Bold').fontSize(9);
   const height = doc.heightOfString(ENGINEERING_CAUTION, { width: width - 16 }) + 12;
+  // Keep the box whole: start a new page rather than split it.
+  if (doc.y + height > doc.page.height - doc.page.margins.bottom) doc.addPage();
+  const y = doc.y;
   doc.rect(MARGIN, y, width, height).fillAndStroke('#fff4e5', '#d84315');
   doc.fillColor('#000000').font('Helvetica-Bold').fontSize(9).text(ENGINEERING_CAUTION, MARGIN + 8, y + 6, { width: width - 16 });
   doc.y = y + height + 4;
