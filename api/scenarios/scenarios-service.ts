@@ -95,19 +95,8 @@ export async function createScenario(
   draft: ScenarioDraft,
   seedKey?: string,
 ): Promise<Scenario> {
-  const { routeVersion, pinned } = await resolveReferences(deps.db, draft);
   const row = await repository.insertScenario(deps.db, {
-    name: draft.name,
-    routeId: draft.routeId,
-    routeVersion: routeVersion.version,
-    routeVersionPinned: pinned,
-    direction: draft.direction,
-    vehicleProfileId: draft.vehicleProfileId,
-    load: draft.load,
-    season: draft.season,
-    startSoc: draft.startSoc,
-    options: draft.options,
-    inService: draft.inService,
+    ...(await draftColumns(deps.db, draft)),
     status: 'queued',
     createdById: author.id,
     createdByName: author.name,
@@ -117,12 +106,10 @@ export async function createScenario(
   return getScenario(deps.db, row.id);
 }
 
-/** Saves changed settings and recomputes. */
-export async function updateScenario(deps: Pick<AppDeps, 'db' | 'sampleElevations'>, id: string, draft: ScenarioDraft): Promise<Scenario> {
-  const existing = await repository.findScenarioWithContext(deps.db, id);
-  if (!existing) throw new NotFoundError('The scenario');
-  const { routeVersion, pinned } = await resolveReferences(deps.db, draft);
-  await repository.updateScenario(deps.db, id, {
+/** The stored columns for a scenario draft, with the route version it resolves to. */
+async function draftColumns(db: Database, draft: ScenarioDraft) {
+  const { routeVersion, pinned } = await resolveReferences(db, draft);
+  return {
     name: draft.name,
     routeId: draft.routeId,
     routeVersion: routeVersion.version,
@@ -134,7 +121,14 @@ export async function updateScenario(deps: Pick<AppDeps, 'db' | 'sampleElevation
     startSoc: draft.startSoc,
     options: draft.options,
     inService: draft.inService,
-  });
+  };
+}
+
+/** Saves changed settings and recomputes. */
+export async function updateScenario(deps: Pick<AppDeps, 'db' | 'sampleElevations'>, id: string, draft: ScenarioDraft): Promise<Scenario> {
+  const existing = await repository.findScenarioWithContext(deps.db, id);
+  if (!existing) throw new NotFoundError('The scenario');
+  await repository.updateScenario(deps.db, id, await draftColumns(deps.db, draft));
   await computeAndStore(deps.db, id, deps.sampleElevations);
   return getScenario(deps.db, id);
 }
