@@ -50,33 +50,38 @@ export async function sampleElevations(
   return sampleFromModels(runtime.blocks, models, points, options.method ?? 'bilinear');
 }
 
-/** Sampling against an explicit list of models, finest first (exported for the benchmark). */
+/** Blocks requested ahead of the points being interpolated: enough to keep every decoder thread busy. */
+const PREFETCH_BLOCKS = 32;
+
+/**
+ * Sampling against an explicit list of models, finest first (exported for the benchmark). Model
+ * by model: the points still without a value are reprojected, then interpolated chunk by chunk
+ * while the blocks of the following chunks are already being decoded on the decoder threads.
+ */
 export async function sampleFromModels(
   blocks: BlockStore,
   models: readonly ReadyTerrain[],
   points: ReadonlyArray<readonly [number, number]>,
   method: SamplingMethod,
 ): Promise<(number | null)[]> {
-  const result: (number | null)[] = new Array<number | null>(points.length).fill(null);
-  for (let start = 0; start < points.length; start += CHUNK_POINTS) {
-    const end = Math.min(points.length, start + CHUNK_POINTS);
-    for (const model of models) {
-      const wanted: number[] = [];
-      const [west, south, east, north] = model.bbox;
-      for (let i = start; i < end; i++) {
-        if (result[i] !== null) continue;
-        const [lon, lat] = points[i]!;
-        if (lon >= west && lon <= east && lat >= south && lat <= north) wanted.push(i);
-      }
-      if (wanted.length === 0) continue;
-      const values = await sampleModel(blocks, model, wanted.map((i) => points[i]!), method);
-      for (let k = 0; k < wanted.length; k++) {
-        const value = values[k]!;
-        if (value === value) result[wanted[k]!] = value;
-      }
+  const found = new Float64Array(points.length).fill(NaN);
+  for (const model of models) {
+    const [west, south, east, north] = model.bbox;
+    const wanted: number[] = [];
+    for (let i = 0; i < points.length; i++) {
+      if (found[i] === found[i]) continue;
+      const [lon, lat] = points[i]!;
+      if (lon >= west && lon <= east && lat >= south && lat <= north) wanted.push(i);
     }
-    if (end < points.length) await yieldToEventLoop();
+    if (wanted.length === 0) continue;
+    const values = await sampleModel(blocks, model, wanted.map((i) => points[i]!), method);
+    for (let k = 0; k < wanted.length; k++) {
+      const value = values[k]!;
+      if (value === value) found[wanted[k]!] = value;
+    }
   }
+  const result = new Array<number | null>(points.length);
+  for (let i = 0; i < points.length; i++) result[i] = found[i] === found[i] ? found[i]! : null;
   return result;
 }
 
@@ -90,12 +95,97 @@ export async function sampleModel(
   const projector = projectorFor(model.proj4Definition);
   const cols = new Float64Array(points.length);
   const rows = new Float64Array(points.length);
-  for (let i = 0; i < points.length; i++) {
-    const [x, y] = model.isGeographic ? (points[i] as [number, number]) : projector.forward(points[i]!);
-    cols[i] = (x - model.originX) / model.pixelSizeX;
-    rows[i] = (y - model.originY) / model.pixelSizeY;
+  for (let start = 0; start < points.length; start += CHUNK_POINTS) {
+    const end = Math.min(points.length, start + CHUNK_POINTS);
+    for (let i = start; i < end; i++) {
+      const [x, y] = model.isGeographic ? (points[i] as [number, number]) : projector.forward(points[i]!);
+      cols[i] = (x - model.originX) / model.pixelSizeX;
+      rows[i] = (y - model.originY) / model.pixelSizeY;
+    }
+    if (end < points.length) await yieldToEventLoop();
   }
-  return samplePixels(blocks, model, 0, cols, rows, method);
+  if (points.length <= CHUNK_POINTS) return samplePixels(blocks, model, 0, cols, rows, method);
+
+  // Which blocks each chunk needs, then the chunks in order with the decoder threads working ahead.
+  const grid = blocks.blockGrid(model, 0);
+  const chunkBlocks: number[][] = [];
+  for (let start = 0; start < points.length; start += CHUNK_POINTS) {
+    chunkBlocks.push(blocksTouched(grid, cols, rows, start, Math.min(points.length, start + CHUNK_POINTS), method));
+  }
+  const requested = new Set<number>();
+  let ahead = 0;
+  let nextChunk = 0;
+  let nextBlock = 0;
+  const requestAhead = (untilChunk: number) => {
+    while (nextChunk < chunkBlocks.length && (nextChunk <= untilChunk || ahead < PREFETCH_BLOCKS)) {
+      const list = chunkBlocks[nextChunk]!;
+      if (nextBlock >= list.length) {
+        nextChunk++;
+        nextBlock = 0;
+        continue;
+      }
+      const index = list[nextBlock++]!;
+      if (requested.has(index)) continue;
+      requested.add(index);
+      const blockX = index % grid.across;
+      const blockY = Math.floor(index / grid.across);
+      if (blocks.peek(model, 0, blockX, blockY)) continue;
+      ahead++;
+      // Errors surface when the chunk that needs the block asks for it again.
+      void blocks.block(model, 0, blockX, blockY).then(
+        () => ahead--,
+        () => ahead--,
+      );
+    }
+  };
+  const out = new Float64Array(points.length);
+  for (let chunk = 0; chunk < chunkBlocks.length; chunk++) {
+    requestAhead(chunk);
+    const start = chunk * CHUNK_POINTS;
+    const end = Math.min(points.length, start + CHUNK_POINTS);
+    await samplePixels(blocks, model, 0, cols.subarray(start, end), rows.subarray(start, end), method, out.subarray(start, end));
+    if (end < points.length) await yieldToEventLoop();
+  }
+  return out;
+}
+
+/** Indexes (blockY · across + blockX) of the blocks whose pixels points [from, to) read, in first-use order. */
+function blocksTouched(
+  grid: { blockWidth: number; blockHeight: number; across: number; down: number; widthPx: number; heightPx: number },
+  cols: Float64Array,
+  rows: Float64Array,
+  from: number,
+  to: number,
+  method: SamplingMethod,
+): number[] {
+  const { blockWidth, blockHeight, across } = grid;
+  // A bitmap over the block grid (cheaper than a Set for the 65 536 samples of a tile).
+  const wanted = new Uint8Array(across * grid.down);
+  const needed: number[] = [];
+  const addBlockOf = (col: number, row: number) => {
+    if (col < 0 || row < 0 || col >= grid.widthPx || row >= grid.heightPx) return;
+    const index = Math.floor(row / blockHeight) * across + Math.floor(col / blockWidth);
+    if (wanted[index] === 0) {
+      wanted[index] = 1;
+      needed.push(index);
+    }
+  };
+  for (let i = from; i < to; i++) {
+    const col = cols[i]!;
+    const row = rows[i]!;
+    if (!(col >= 0 && row >= 0 && col <= grid.widthPx && row <= grid.heightPx)) continue;
+    if (method === 'nearest') {
+      addBlockOf(Math.min(Math.floor(col), grid.widthPx - 1), Math.min(Math.floor(row), grid.heightPx - 1));
+    } else {
+      const c0 = Math.floor(col - 0.5);
+      const r0 = Math.floor(row - 0.5);
+      addBlockOf(c0, r0);
+      addBlockOf(c0 + 1, r0);
+      addBlockOf(c0, r0 + 1);
+      addBlockOf(c0 + 1, r0 + 1);
+    }
+  }
+  return needed;
 }
 
 /**
@@ -115,33 +205,7 @@ export async function samplePixels(
   const grid = blocks.blockGrid(model, level);
   const geometry: GridGeometry = { originX: 0, originY: 0, pixelSizeX: 1, pixelSizeY: 1, widthPx: grid.widthPx, heightPx: grid.heightPx };
   const { blockWidth, blockHeight, across } = grid;
-  // Which blocks the points touch: a bitmap over the block grid (cheaper than a Set for the
-  // 65 536 samples of a tile), then one fetch per block, all in parallel.
-  const wanted = new Uint8Array(across * grid.down);
-  const needed: number[] = [];
-  const addBlockOf = (col: number, row: number) => {
-    if (col < 0 || row < 0 || col >= grid.widthPx || row >= grid.heightPx) return;
-    const index = Math.floor(row / blockHeight) * across + Math.floor(col / blockWidth);
-    if (wanted[index] === 0) {
-      wanted[index] = 1;
-      needed.push(index);
-    }
-  };
-  for (let i = 0; i < cols.length; i++) {
-    const col = cols[i]!;
-    const row = rows[i]!;
-    if (!(col >= 0 && row >= 0 && col <= grid.widthPx && row <= grid.heightPx)) continue;
-    if (method === 'nearest') {
-      addBlockOf(Math.min(Math.floor(col), grid.widthPx - 1), Math.min(Math.floor(row), grid.heightPx - 1));
-    } else {
-      const c0 = Math.floor(col - 0.5);
-      const r0 = Math.floor(row - 0.5);
-      addBlockOf(c0, r0);
-      addBlockOf(c0 + 1, r0);
-      addBlockOf(c0, r0 + 1);
-      addBlockOf(c0 + 1, r0 + 1);
-    }
-  }
+  const needed = blocksTouched(grid, cols, rows, 0, cols.length, method);
   const loaded = new Map<number, Block>();
   await Promise.all(
     needed.map(async (index) => {

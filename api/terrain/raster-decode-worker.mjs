@@ -8,6 +8,7 @@
 // ArrayBuffer `into` when it is large enough.
 //
 // renderTile task: a TileTask (tile-kernel.d.mts); result: the PNG bytes (Uint8Array).
+import { closeSync, openSync, readSync } from 'node:fs';
 import { inflateSync } from 'node:zlib';
 import Piscina from 'piscina';
 import { BaseDecoder, fromFile } from 'geotiff';
@@ -28,13 +29,13 @@ async function imageFor(path) {
   }
   entry = fromFile(path).then(async (tiff) => {
     const image = await tiff.getImage(0);
-    return { tiff, image, direct: await directReader(image) };
+    return { tiff, image, direct: await directReader(image, path) };
   });
   openImages.set(path, entry);
   if (openImages.size > MAX_OPEN_FILES) {
     const [oldestPath, oldest] = openImages.entries().next().value;
     openImages.delete(oldestPath);
-    oldest.then(({ tiff }) => tiff.close?.()).catch(() => undefined);
+    oldest.then(closeImage).catch(() => undefined);
   }
   try {
     return await entry;
@@ -79,7 +80,7 @@ const HOST_IS_LITTLE_ENDIAN = new Uint8Array(new Uint16Array([1]).buffer)[0] ===
  * writes for elevation grids) are read tile by tile straight into typed arrays, inflated by
  * Node's native zlib. Anything else goes through geotiff.js's general (slower) readRasters.
  */
-async function directReader(image) {
+async function directReader(image, path) {
   const directory = image.getFileDirectory();
   const compression = directory.getValue('Compression') ?? 1;
   if (compression !== 1 && compression !== 8 && compression !== 32946) return null;
@@ -95,7 +96,44 @@ async function directReader(image) {
     bitsPerSample: await directory.loadValue('BitsPerSample'),
     predictor: (await directory.loadValue('Predictor')) || 1,
   });
-  return { decoder, isTiled };
+  const predictor = (await directory.loadValue('Predictor')) || 1;
+  const planar = directory.getValue('PlanarConfiguration') ?? 1;
+  // Without a predictor, a tile is just its inflated bytes: the offsets and byte counts are read
+  // once and each tile is one positioned read and one inflate, off geotiff.js's per-tile path.
+  let blocks = null;
+  if (predictor === 1 && planar === 1) {
+    const offsets = await directory.loadValue(isTiled ? 'TileOffsets' : 'StripOffsets');
+    const byteCounts = await directory.loadValue(isTiled ? 'TileByteCounts' : 'StripByteCounts');
+    blocks = { offsets, byteCounts, fd: openSync(path, 'r'), compression };
+  }
+  return { decoder, isTiled, blocks };
+}
+
+/** The samples of tile/strip (tx, ty) as a typed array of the file's sample type. */
+function readBlock(image, blocks, tx, ty, tileWidth) {
+  const index = ty * Math.ceil(image.getWidth() / tileWidth) + tx;
+  const bytesPerSample = image.getBitsPerSample(0) / 8;
+  const length = Number(blocks.byteCounts[index]);
+  let bytes;
+  if (length === 0) {
+    bytes = new Uint8Array(image.getBlockHeight(ty) * tileWidth * bytesPerSample);
+    const empty = image.getArrayForSample(0, bytes.buffer);
+    empty.fill(image.getGDALNoData() || 0);
+    return empty;
+  }
+  const raw = Buffer.allocUnsafeSlow(length);
+  readSync(blocks.fd, raw, 0, length, Number(blocks.offsets[index]));
+  bytes = blocks.compression === 1 ? raw : inflateSync(raw);
+  const buffer =
+    bytes.byteOffset === 0 && bytes.byteLength === bytes.buffer.byteLength && bytes.byteOffset % bytesPerSample === 0
+      ? bytes.buffer
+      : bytes.buffer.slice(bytes.byteOffset, bytes.byteOffset + bytes.byteLength);
+  return image.getArrayForSample(0, buffer);
+}
+
+function closeImage({ tiff, direct }) {
+  if (direct?.blocks) closeSync(direct.blocks.fd);
+  return tiff.close?.();
 }
 
 /** geotiff.js's decoder contract (it applies the predictor), inflating with zlib instead of pako. */
@@ -114,14 +152,15 @@ class NativeDecoder extends BaseDecoder {
   }
 }
 
-async function readDirect(image, { decoder }, [x0, y0, x1, y1], out, convert) {
+async function readDirect(image, { decoder, blocks }, [x0, y0, x1, y1], out, convert) {
   const tileWidth = image.getTileWidth();
   const tileHeight = image.getTileHeight();
   const width = x1 - x0;
   for (let ty = Math.floor(y0 / tileHeight); ty * tileHeight < y1; ty++) {
     for (let tx = Math.floor(x0 / tileWidth); tx * tileWidth < x1; tx++) {
-      const { data } = await image.getTileOrStrip(tx, ty, 0, decoder);
-      const values = image.getArrayForSample(0, data);
+      const values = blocks
+        ? readBlock(image, blocks, tx, ty, tileWidth)
+        : image.getArrayForSample(0, (await image.getTileOrStrip(tx, ty, 0, decoder)).data);
       const tileX0 = tx * tileWidth;
       const tileY0 = ty * tileHeight;
       const c0 = Math.max(x0, tileX0);
@@ -141,6 +180,8 @@ export function renderTile(task) {
 
 /** Drops cached file handles (after a model is deleted and its file removed). */
 export function forget({ path }) {
+  const entry = openImages.get(path);
   openImages.delete(path);
+  entry?.then(closeImage).catch(() => undefined);
   return true;
 }
