@@ -106,7 +106,7 @@ export const routes: Routes = [
         canMatch: [areaRoleGuard],
         data: areaData({
           label: 'Scenarios',
-          icon: 'electric_bus',
+          icon: 'analytics',
           summary: 'Run a route with a vehicle, load and season; see energy, regeneration, brake heat and risky descents; compare variants.',
           roles: ROLES,
         }),
