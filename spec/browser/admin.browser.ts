@@ -1,5 +1,6 @@
 import assert from 'node:assert/strict';
 import { after, before, describe, it } from 'node:test';
+import type { Locator } from 'playwright-core';
 import {
   BASE_URL,
   assertServerIsUp,
@@ -54,8 +55,11 @@ describe('administration', () => {
     await page.getByRole('button', { name: 'Invite a person' }).click();
     const dialog = page.getByRole('dialog', { name: 'Invite a person' });
     await dialog.waitFor();
-    await dialog.getByLabel('E-mail address').fill(invitee.email);
-    await dialog.getByLabel('Name').fill(invitee.name);
+    // Type only once the dialog has finished opening and moved focus into its first field;
+    // typing during the opening animation can lose keystrokes on a busy machine.
+    await settleAnimations(page);
+    await fillAndCheck(dialog.getByLabel('E-mail address'), invitee.email);
+    await fillAndCheck(dialog.getByLabel('Name'), invitee.name);
     await dialog.getByRole('combobox', { name: 'Role' }).click();
     await page.getByRole('option', { name: 'Safety officer' }).click();
     await settleAnimations(page);
@@ -130,3 +134,12 @@ describe('administration', () => {
     }
   });
 });
+
+// Helpers
+
+/** Fills a field and checks the value took, filling again once if the page swallowed it. */
+async function fillAndCheck(field: Locator, value: string): Promise<void> {
+  await field.fill(value);
+  if ((await field.inputValue()) !== value) await field.fill(value);
+  assert.equal(await field.inputValue(), value);
+}
