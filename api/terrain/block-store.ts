@@ -5,7 +5,7 @@ import { fileURLToPath } from 'node:url';
 import { LRUCache } from 'lru-cache';
 import { Piscina } from 'piscina';
 import type { TerrainOverviewLevel } from '../db/schema/terrain';
-import type { TileTask } from './tile-kernel.mjs';
+import { pngFromParts, TILE_PX, type TilePart, type TileTask } from './tile-kernel.mjs';
 
 /** A ready terrain model as sampling and rendering see it. */
 export interface TerrainSource {
@@ -55,6 +55,8 @@ export class BlockStore {
   private readonly cache: LRUCache<string, Block>;
   private readonly inFlight = new Map<string, Promise<Block>>();
   private poolInstance: Piscina | null = null;
+  /** Tasks of this store running or queued in the pool (a tile is split only when it is idle). */
+  private tasksRunning = 0;
   private readonly overviewFiles = new Map<string, Promise<FileHandle>>();
 
   constructor(private readonly options: { cacheBytes: number; threads: number }) {
@@ -139,7 +141,7 @@ export class BlockStore {
     reuse?: Float32Array | Float64Array,
   ): Promise<Float32Array | Float64Array> {
     const into = reuse?.buffer as ArrayBuffer | undefined;
-    return (await this.pool.run(
+    return (await this.runTask(
       {
         path: source.path,
         window,
@@ -154,14 +156,43 @@ export class BlockStore {
   }
 
   /**
-   * Renders one map tile in a worker thread (sampling, hillshade, tint, PNG), so the event loop
-   * stays free for other requests. The task's windows are handed over, not copied: the caller
-   * must not use them afterwards.
+   * Renders one map tile in worker threads (sampling, hillshade, tint, PNG), so the event loop
+   * stays free for other requests. When the pool has nothing else to do, the tile's top and
+   * bottom halves are rendered on two threads at once and their deflate streams joined (the
+   * same pixels; a tile half opaque, half not, is rendered again in one piece). Otherwise the
+   * task's windows are handed over, not copied: the caller must not use them afterwards.
    */
   async renderTile(task: TileTask): Promise<Buffer> {
+    const threads = this.poolInstance?.threads.length ?? 0;
+    if (this.options.threads >= 2 && threads >= 2 && this.tasksRunning === 0) {
+      const half = TILE_PX / 2;
+      // Both threads read the same windows: shared memory, copied once rather than once per thread.
+      const layers = task.layers.map((layer) => {
+        const Values = layer.window instanceof Float64Array ? Float64Array : Float32Array;
+        const window = new Values(new SharedArrayBuffer(layer.window.byteLength) as unknown as ArrayBuffer);
+        window.set(layer.window);
+        return { ...layer, window };
+      });
+      const shared = { ...task, layers };
+      const parts = (await Promise.all([
+        this.runTask({ task: shared, firstRow: 0, endRow: half, final: false }, { name: 'renderTileRows' }),
+        this.runTask({ task: shared, firstRow: half, endRow: TILE_PX, final: true }, { name: 'renderTileRows' }),
+      ])) as TilePart[];
+      const png = pngFromParts(parts);
+      if (png) return Buffer.from(png.buffer, png.byteOffset, png.byteLength);
+    }
     const transferList = task.layers.map((layer) => layer.window.buffer as ArrayBuffer);
-    const png = (await this.pool.run(task, { name: 'renderTile', transferList })) as Uint8Array;
+    const png = (await this.runTask(task, { name: 'renderTile', transferList })) as Uint8Array;
     return Buffer.from(png.buffer, png.byteOffset, png.byteLength);
+  }
+
+  private async runTask(task: unknown, options: Parameters<Piscina['run']>[1]): Promise<unknown> {
+    this.tasksRunning++;
+    try {
+      return await this.pool.run(task, options);
+    } finally {
+      this.tasksRunning--;
+    }
   }
 
   /** Starts the worker threads now rather than on first use (the benchmark times work, not start-up). */

@@ -8,11 +8,12 @@
 // ArrayBuffer `into` when it is large enough.
 //
 // renderTile task: a TileTask (tile-kernel.d.mts); result: the PNG bytes (Uint8Array).
+// renderTileRows task: { task, firstRow, endRow, final }; result: a TilePart (tile-kernel.d.mts).
 import { closeSync, openSync, readSync } from 'node:fs';
 import { inflateSync } from 'node:zlib';
 import Piscina from 'piscina';
 import { BaseDecoder, fromFile } from 'geotiff';
-import { renderTilePng, warmUpKernel } from './tile-kernel.mjs';
+import { renderTilePng, renderTileRows as renderTileRowsOf, warmUpKernel } from './tile-kernel.mjs';
 
 warmUpKernel();
 
@@ -176,6 +177,11 @@ async function readDirect(image, { decoder, blocks }, [x0, y0, x1, y1], out, con
 /** One map tile: the windows arrive transferred, the PNG goes back transferred. */
 export function renderTile(task) {
   return Piscina.move(renderTilePng(task));
+}
+
+/** Some rows of a map tile (a tile split over threads): { task, firstRow, endRow, final }. */
+export function renderTileRows({ task, firstRow, endRow, final }) {
+  return renderTileRowsOf(task, firstRow, endRow, final);
 }
 
 /** Drops cached file handles (after a model is deleted and its file removed). */

@@ -42,7 +42,8 @@ export interface TileTask {
   deflateLevel: number;
 }
 
-export declare function sampleTileElevations(layers: readonly TileLayer[]): Float64Array;
+/** Only sample rows [rowStart, rowEnd) are filled when given. */
+export declare function sampleTileElevations(layers: readonly TileLayer[], rowStart?: number, rowEnd?: number): Float64Array;
 export declare function shadeAndTint(
   elevations: Float64Array,
   cellSizeM: number,
@@ -50,9 +51,23 @@ export declare function shadeAndTint(
   stops: Float64Array,
   shadowFloor: number,
   shadeGain: number,
+  firstRow?: number,
+  endRow?: number,
+  opaque?: boolean,
 ): Uint8Array;
 /** RGB or RGBA, told apart by the length of the scanlines. */
 export declare function encodePng(scanlines: Uint8Array, width: number, height: number, deflateLevel?: number): Uint8Array;
 export declare function renderTilePng(task: TileTask): Uint8Array;
+/** Rows [firstRow, endRow) of a tile, deflated to join the other parts' (see renderTileRows in tile-kernel.mjs). */
+export interface TilePart {
+  data: Uint8Array;
+  adler: number;
+  length: number;
+  opaque: boolean;
+}
+export declare function renderTileRows(task: TileTask, firstRow: number, endRow: number, final: boolean): TilePart;
+/** The tile's PNG from its parts in order; null when they disagree on the alpha channel. */
+export declare function pngFromParts(parts: readonly TilePart[]): Uint8Array | null;
+export declare function isOpaque(elevations: Float64Array, firstRow?: number, endRow?: number): boolean;
 /** Compiles the kernel ahead of real tiles (a worker thread calls it when it starts). */
 export declare function warmUpKernel(rounds?: number): void;

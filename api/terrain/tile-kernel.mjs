@@ -6,7 +6,7 @@
 // The API thread prepares a task (tile-renderer.ts): for each model, in the order "finest first",
 // a window of its grid (decoded blocks copied side by side, NaN where the grid has no data or
 // ends) and a coarse lattice of grid coordinates of the tile's pixels, exact at the nodes.
-import { crc32, deflateSync } from 'node:zlib';
+import { constants, crc32, deflateRawSync, deflateSync } from 'node:zlib';
 
 export const TILE_PX = 256;
 /** Samples per side: the tile's pixels plus a one-pixel border for the 3 × 3 Horn window. */
@@ -18,10 +18,10 @@ export const SAMPLES_PX = TILE_PX + 2;
  * off the grid drops out and the remaining weights are renormalised (the same rule as
  * terrain-grid.ts's bilinearValue).
  */
-export function sampleTileElevations(layers) {
+export function sampleTileElevations(layers, rowStart = 0, rowEnd = SAMPLES_PX) {
   const size = SAMPLES_PX;
   const out = new Float64Array(size * size).fill(NaN);
-  let missing = size * size;
+  let missing = size * (rowEnd - rowStart);
   const cellOf = new Int32Array(size);
   const fractionOf = new Float64Array(size);
   for (const layer of layers) {
@@ -35,7 +35,7 @@ export function sampleTileElevations(layers) {
       cellOf[i] = ni;
       fractionOf[i] = i / step - ni;
     }
-    for (let j = 0; j < size; j++) {
+    for (let j = rowStart; j < rowEnd; j++) {
       // The lattice interpolated down to this row, then along it.
       let nj = Math.floor(j / step);
       if (nj > nodes - 2) nj = nodes - 2;
@@ -96,33 +96,46 @@ export function sampleTileElevations(layers) {
 
 /**
  * PNG scanlines (filter byte + RGB per row, RGBA when part of the tile has no data) of the
- * shaded, tinted tile. Per pixel:
+ * shaded, tinted tile (or of its rows [firstRow, endRow)). Per pixel:
  * Horn gradient over the 3 × 3 window (a NaN neighbour takes the centre value), illumination
  * = (cos zenith + sin zenith·(q·sin A − p·cos A)) / √(1 + p² + q²) clamped at 0 (as hillshade.ts),
  * light = shadowFloor + shadeGain·illumination, colour = tint byte × light capped at 255;
  * transparent black where the elevation is NaN. Rows use PNG's "Sub" filter (difference to the
  * pixel on the left), which makes smooth relief compress well at a fast deflate level.
  */
-export function shadeAndTint(elevations, cellSizeM, sun, stops, shadowFloor, shadeGain) {
+export function shadeAndTint(elevations, cellSizeM, sun, stops, shadowFloor, shadeGain, firstRow = 0, endRow = TILE_PX, opaque = isOpaque(elevations, firstRow, endRow)) {
   const size = SAMPLES_PX;
-  const opaque = isOpaque(elevations);
   const channels = opaque ? 3 : 4;
   const stride = 1 + TILE_PX * channels;
-  const raw = new Uint8Array(TILE_PX * stride);
+  const raw = new Uint8Array((endRow - firstRow) * stride);
   const { cosZenith, sinZenith, cosAzimuth, sinAzimuth, zFactor } = sun;
-  const scaleX = zFactor / (8 * cellSizeM);
-  const scaleY = zFactor / (8 * cellSizeM);
-  const lastStop = stops.length - 4;
-  let segment = 4;
-  for (let j = 0; j < TILE_PX; j++) {
-    let out = j * stride;
+  const scale = zFactor / (8 * cellSizeM);
+  // The stops split into one array per component, indexed by stop.
+  const stopCount = stops.length >> 2;
+  const stopE = new Float64Array(stopCount);
+  const stopR = new Float64Array(stopCount);
+  const stopG = new Float64Array(stopCount);
+  const stopB = new Float64Array(stopCount);
+  for (let k = 0; k < stopCount; k++) {
+    stopE[k] = stops[4 * k];
+    stopR[k] = stops[4 * k + 1];
+    stopG[k] = stops[4 * k + 2];
+    stopB[k] = stops[4 * k + 3];
+  }
+  const last = stopCount - 1;
+  const lowest = stopE[0];
+  const highest = stopE[last];
+  let segment = 1;
+  for (let j = firstRow; j < endRow; j++) {
+    let out = (j - firstRow) * stride;
     raw[out++] = 1;
     let lr = 0;
     let lg = 0;
     let lb = 0;
     let la = 0;
-    let centre = (j + 1) * size + 1;
-    for (let i = 0; i < TILE_PX; i++, centre++) {
+    const rowStart = (j + 1) * size + 1;
+    const rowEnd = rowStart + TILE_PX;
+    for (let centre = rowStart; centre < rowEnd; centre++) {
       const e = elevations[centre];
       let r = 0;
       let g = 0;
@@ -145,8 +158,8 @@ export function shadeAndTint(elevations, cellSizeM, sun, stops, shadowFloor, sha
         if (gv !== gv) gv = e;
         if (hv !== hv) hv = e;
         if (iv !== iv) iv = e;
-        const p = (cv + 2 * fv + iv - (av + 2 * dv + gv)) * scaleX;
-        const q = (gv + 2 * hv + iv - (av + 2 * bv + cv)) * scaleY;
+        const p = (cv + 2 * fv + iv - (av + 2 * dv + gv)) * scale;
+        const q = (gv + 2 * hv + iv - (av + 2 * bv + cv)) * scale;
         let illumination = (cosZenith + sinZenith * (-p * cosAzimuth + q * sinAzimuth)) / Math.sqrt(1 + p * p + q * q);
         if (!(illumination > 0)) illumination = 0;
         const light = shadowFloor + shadeGain * illumination;
@@ -155,27 +168,27 @@ export function shadeAndTint(elevations, cellSizeM, sun, stops, shadowFloor, sha
         let tr;
         let tg;
         let tb;
-        if (e <= stops[0]) {
-          tr = stops[1];
-          tg = stops[2];
-          tb = stops[3];
-        } else if (e > stops[lastStop]) {
-          tr = stops[lastStop + 1];
-          tg = stops[lastStop + 2];
-          tb = stops[lastStop + 3];
+        if (e <= lowest) {
+          tr = stopR[0];
+          tg = stopG[0];
+          tb = stopB[0];
+        } else if (e > highest) {
+          tr = stopR[last];
+          tg = stopG[last];
+          tb = stopB[last];
         } else {
           // Neighbouring pixels mostly share a segment: start from the last one.
           let k = segment;
-          if (!(e > stops[k - 4] && e <= stops[k])) {
-            k = 4;
-            while (e > stops[k]) k += 4;
+          if (!(e > stopE[k - 1] && e <= stopE[k])) {
+            k = 1;
+            while (e > stopE[k]) k++;
             segment = k;
           }
-          const l = k - 4;
-          const t = (e - stops[l]) / (stops[k] - stops[l]);
-          tr = (stops[l + 1] + (stops[k + 1] - stops[l + 1]) * t) | 0;
-          tg = (stops[l + 2] + (stops[k + 2] - stops[l + 2]) * t) | 0;
-          tb = (stops[l + 3] + (stops[k + 3] - stops[l + 3]) * t) | 0;
+          const l = k - 1;
+          const t = (e - stopE[l]) / (stopE[k] - stopE[l]);
+          tr = (stopR[l] + (stopR[k] - stopR[l]) * t) | 0;
+          tg = (stopG[l] + (stopG[k] - stopG[l]) * t) | 0;
+          tb = (stopB[l] + (stopB[k] - stopB[l]) * t) | 0;
         }
         const vr = tr * light;
         const vg = tg * light;
@@ -185,10 +198,15 @@ export function shadeAndTint(elevations, cellSizeM, sun, stops, shadowFloor, sha
         b = vb >= 255 ? 255 : vb | 0;
         a = 255;
       }
-      raw[out++] = r - lr;
-      raw[out++] = g - lg;
-      raw[out++] = b - lb;
-      if (!opaque) raw[out++] = a - la;
+      raw[out] = r - lr;
+      raw[out + 1] = g - lg;
+      raw[out + 2] = b - lb;
+      if (opaque) {
+        out += 3;
+      } else {
+        raw[out + 3] = a - la;
+        out += 4;
+      }
       lr = r;
       lg = g;
       lb = b;
@@ -198,9 +216,9 @@ export function shadeAndTint(elevations, cellSizeM, sun, stops, shadowFloor, sha
   return raw;
 }
 
-/** Whether every pixel of the tile has an elevation (then the PNG needs no alpha channel). */
-function isOpaque(elevations) {
-  for (let j = 1; j <= TILE_PX; j++) {
+/** Whether every pixel of tile rows [firstRow, endRow) has an elevation (then the PNG needs no alpha channel). */
+export function isOpaque(elevations, firstRow = 0, endRow = TILE_PX) {
+  for (let j = firstRow + 1; j <= endRow; j++) {
     const end = j * SAMPLES_PX + TILE_PX;
     for (let k = j * SAMPLES_PX + 1; k <= end; k++) if (elevations[k] !== elevations[k]) return false;
   }
@@ -216,7 +234,10 @@ const PNG_SIGNATURE = [0x89, 0x50, 0x4e, 0x47, 0x0d, 0x0a, 0x1a, 0x0a];
  */
 export function encodePng(scanlines, width, height, deflateLevel = 1) {
   const channels = (scanlines.length / height - 1) / width;
-  const idat = deflateSync(scanlines, { level: deflateLevel, memLevel: 9 });
+  return pngFromIdat(deflateSync(scanlines, { level: deflateLevel, memLevel: 9 }), width, height, channels);
+}
+
+function pngFromIdat(idat, width, height, channels) {
   const total = PNG_SIGNATURE.length + (12 + 13) + (12 + idat.length) + 12;
   const png = new Uint8Array(total);
   const view = new DataView(png.buffer);
@@ -243,6 +264,82 @@ export function encodePng(scanlines, width, height, deflateLevel = 1) {
   return png;
 }
 
+/**
+ * Tile rows [firstRow, endRow) on their own, for rendering a tile's parts on several threads:
+ * their scanlines as raw deflate data (ending on a byte boundary, not final unless `final`, so
+ * the parts concatenate into one stream), the scanlines' Adler-32 and length, and whether the
+ * rows are all opaque (the parts fit together only when they agree).
+ */
+export function renderTileRows(task, firstRow, endRow, final) {
+  const elevations = sampleTileElevations(task.layers, firstRow, endRow + 2);
+  const opaque = isOpaque(elevations, firstRow, endRow);
+  const scanlines = shadeAndTint(elevations, task.cellSizeM, task.sun, task.stops, task.shadowFloor, task.shadeGain, firstRow, endRow, opaque);
+  const deflated = deflateRawSync(scanlines, {
+    level: task.deflateLevel,
+    memLevel: 9,
+    finishFlush: final ? constants.Z_FINISH : constants.Z_SYNC_FLUSH,
+  });
+  const data = new Uint8Array(deflated.buffer, deflated.byteOffset, deflated.byteLength);
+  return { data, adler: adler32(scanlines), length: scanlines.length, opaque };
+}
+
+/**
+ * The PNG of a whole tile from its row parts in order (renderTileRows, the last one final); null
+ * when the parts disagree on the alpha channel (the caller then renders the tile in one piece).
+ */
+export function pngFromParts(parts) {
+  const opaque = parts[0].opaque;
+  if (parts.some((part) => part.opaque !== opaque)) return null;
+  let size = 2 + 4;
+  for (const part of parts) size += part.data.length;
+  const idat = new Uint8Array(size);
+  idat[0] = 0x78; // zlib header: deflate, 32 KB window
+  idat[1] = 0x01; // no preset dictionary, fastest (header check bits)
+  let offset = 2;
+  let adler = 1;
+  for (const part of parts) {
+    idat.set(part.data, offset);
+    offset += part.data.length;
+    adler = adler32Combine(adler, part.adler, part.length);
+  }
+  new DataView(idat.buffer).setUint32(offset, adler);
+  return pngFromIdat(idat, TILE_PX, TILE_PX, opaque ? 3 : 4);
+}
+
+const ADLER_BASE = 65521;
+
+function adler32(bytes) {
+  let a = 1;
+  let b = 0;
+  const n = bytes.length;
+  for (let start = 0; start < n; ) {
+    // 5552 bytes at most between reductions keep the sums below 2³².
+    const end = Math.min(n, start + 5552);
+    for (let k = start; k < end; k++) {
+      a += bytes[k];
+      b += a;
+    }
+    a %= ADLER_BASE;
+    b %= ADLER_BASE;
+    start = end;
+  }
+  return ((b << 16) | a) >>> 0;
+}
+
+/** Adler-32 of two byte runs one after the other, from each run's checksum and the second's length (as zlib's adler32_combine). */
+function adler32Combine(adler1, adler2, length2) {
+  const remainder = length2 % ADLER_BASE;
+  let sum1 = adler1 & 0xffff;
+  let sum2 = (remainder * sum1) % ADLER_BASE;
+  sum1 += (adler2 & 0xffff) + ADLER_BASE - 1;
+  sum2 += (adler1 >>> 16) + (adler2 >>> 16) + ADLER_BASE - remainder;
+  if (sum1 >= ADLER_BASE) sum1 -= ADLER_BASE;
+  if (sum1 >= ADLER_BASE) sum1 -= ADLER_BASE;
+  if (sum2 >= ADLER_BASE * 2) sum2 -= ADLER_BASE * 2;
+  if (sum2 >= ADLER_BASE) sum2 -= ADLER_BASE;
+  return ((sum2 << 16) | sum1) >>> 0;
+}
+
 /** The whole tile: sampling, hillshade and tint, PNG. */
 export function renderTilePng(task) {
   const elevations = sampleTileElevations(task.layers);
@@ -253,7 +350,8 @@ export function renderTilePng(task) {
 /**
  * Runs the kernel on a synthetic tile a few times so the JIT has compiled it before real tiles
  * arrive: the first calls of a fresh thread otherwise take 3–5× longer. One tile is partly
- * without data, so both PNG layouts and the renormalised interpolation are exercised. ≈ 50 ms.
+ * without data, so both PNG layouts and the renormalised interpolation are exercised; each round
+ * renders the tile whole and in two halves (as split over threads).
  */
 export function warmUpKernel(rounds = 12) {
   const width = 200;
@@ -271,6 +369,9 @@ export function warmUpKernel(rounds = 12) {
   for (let round = 0; round < rounds; round++) {
     const partial = round % 3 === 2;
     const layer = { window, x0: partial ? 40 : 0, y0: 0, width, height: width, gridWidth: 10_000, gridHeight: 10_000, nodeCols, nodeRows, nodes, step: 16 };
-    renderTilePng({ layers: [layer], cellSizeM: 10, sun, stops, shadowFloor: 0.3, shadeGain: 0.8, deflateLevel: 1 });
+    const task = { layers: [layer], cellSizeM: 10, sun, stops, shadowFloor: 0.3, shadeGain: 0.8, deflateLevel: 1 };
+    renderTilePng(task);
+    // A tile split over two threads: both halves, as the pool's threads render them.
+    pngFromParts([renderTileRows(task, 0, TILE_PX / 2, false), renderTileRows(task, TILE_PX / 2, TILE_PX, true)]);
   }
 }

@@ -4,7 +4,17 @@ import { afterAll, describe, expect, it } from 'vitest';
 import { ELEVATION_TINT_STOPS, tintInto } from '../../../api/terrain/elevation-tint';
 import { hornGradient, shade, sunTerms } from '../../../api/terrain/hillshade';
 import { bilinearValue, guardedLookup } from '../../../api/terrain/terrain-grid';
-import { encodePng, sampleTileElevations, SAMPLES_PX, shadeAndTint, type TileLayer } from '../../../api/terrain/tile-kernel.mjs';
+import {
+  encodePng,
+  pngFromParts,
+  renderTilePng,
+  renderTileRows,
+  sampleTileElevations,
+  SAMPLES_PX,
+  shadeAndTint,
+  type TileLayer,
+  type TileTask,
+} from '../../../api/terrain/tile-kernel.mjs';
 import { gdal, hasGdal, python, tempDir, writeSyntheticGrid } from './support/gdal';
 
 const SUN = sunTerms({ azimuthDeg: 315, altitudeDeg: 45 });
@@ -68,6 +78,40 @@ describe('tile kernel', () => {
     expect(valid).toBeGreaterThan(30_000);
     expect(mismatchedNaN).toBe(0);
     expect(worst).toBeLessThan(1e-6);
+  });
+
+  it('renders a tile split into row parts to the same pixels as in one piece, with and without alpha', () => {
+    for (const hole of [undefined, [150, 20, 400, 400], [0, 0, 400, 200] as [number, number, number, number]]) {
+      const width = 400;
+      const height = 400;
+      const layer: TileLayer = {
+        window: relief(width, height, hole),
+        x0: 0,
+        y0: 0,
+        width,
+        height,
+        gridWidth: width,
+        gridHeight: height,
+        ...affineLattice(5.5, 1.21, 0.07, 27.25, -0.05, 1.13),
+      };
+      const stops = Float64Array.from(ELEVATION_TINT_STOPS.flatMap((stop) => [stop.elevationM, ...stop.rgb]));
+      const task: TileTask = { layers: [layer], cellSizeM: 12, sun: SUN, stops, shadowFloor: 0.3, shadeGain: 0.805, deflateLevel: 1 };
+      const whole = PNG.sync.read(Buffer.from(renderTilePng(task)));
+      let joined = 0;
+      for (const cuts of [[0, 128, 256], [0, 1, 100, 255, 256]]) {
+        const parts = cuts.slice(1).map((end, k) => renderTileRows(task, cuts[k]!, end, k === cuts.length - 2));
+        const png = pngFromParts(parts);
+        if (!png) {
+          // Parts that disagree on the alpha channel are rendered in one piece instead.
+          expect(hole).toBeDefined();
+          continue;
+        }
+        const split = PNG.sync.read(Buffer.from(png));
+        expect(split.data.equals(whole.data)).toBe(true);
+        joined++;
+      }
+      if (!hole) expect(joined).toBe(2);
+    }
   });
 
   it('shades and tints exactly like hillshade.ts and elevation-tint.ts, transparent where there is no data', () => {
