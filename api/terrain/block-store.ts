@@ -159,7 +159,7 @@ export class BlockStore {
    * Renders one map tile in worker threads (sampling, hillshade, tint, PNG), so the event loop
    * stays free for other requests. When the pool has nothing else to do, the tile's top and
    * bottom halves are rendered on two threads at once and their deflate streams joined (the
-   * same pixels; a tile half opaque, half not, is rendered again in one piece). Otherwise the
+   * same pixels; the opaque half of a tile half without data is rendered again with alpha). Otherwise the
    * task's windows are handed over, not copied: the caller must not use them afterwards.
    */
   async renderTile(task: TileTask): Promise<Buffer> {
@@ -174,10 +174,19 @@ export class BlockStore {
         return { ...layer, window };
       });
       const shared = { ...task, layers };
-      const parts = (await Promise.all([
-        this.runTask({ task: shared, firstRow: 0, endRow: half, final: false }, { name: 'renderTileRows' }),
-        this.runTask({ task: shared, firstRow: half, endRow: TILE_PX, final: true }, { name: 'renderTileRows' }),
-      ])) as TilePart[];
+      const rows = [
+        { task: shared, firstRow: 0, endRow: half, final: false, alpha: false },
+        { task: shared, firstRow: half, endRow: TILE_PX, final: true, alpha: false },
+      ];
+      const parts = (await Promise.all(rows.map((part) => this.runTask(part, { name: 'renderTileRows' })))) as TilePart[];
+      // A tile partly without data needs the alpha channel in every part: the opaque ones again with it.
+      if (parts.some((part) => !part.opaque)) {
+        await Promise.all(
+          rows.map(async (part, k) => {
+            if (parts[k]!.opaque) parts[k] = (await this.runTask({ ...part, alpha: true }, { name: 'renderTileRows' })) as TilePart;
+          }),
+        );
+      }
       const png = pngFromParts(parts);
       if (png) return Buffer.from(png.buffer, png.byteOffset, png.byteLength);
     }

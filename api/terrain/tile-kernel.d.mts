@@ -65,7 +65,7 @@ export interface TilePart {
   length: number;
   opaque: boolean;
 }
-export declare function renderTileRows(task: TileTask, firstRow: number, endRow: number, final: boolean): TilePart;
+export declare function renderTileRows(task: TileTask, firstRow: number, endRow: number, final: boolean, alpha?: boolean): TilePart;
 /** The tile's PNG from its parts in order; null when they disagree on the alpha channel. */
 export declare function pngFromParts(parts: readonly TilePart[]): Uint8Array | null;
 export declare function isOpaque(elevations: Float64Array, firstRow?: number, endRow?: number): boolean;

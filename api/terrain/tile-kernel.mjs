@@ -268,11 +268,12 @@ function pngFromIdat(idat, width, height, channels) {
  * Tile rows [firstRow, endRow) on their own, for rendering a tile's parts on several threads:
  * their scanlines as raw deflate data (ending on a byte boundary, not final unless `final`, so
  * the parts concatenate into one stream), the scanlines' Adler-32 and length, and whether the
- * rows are all opaque (the parts fit together only when they agree).
+ * rows are all opaque (the parts fit together only when they agree; `alpha` asks for the alpha
+ * channel regardless).
  */
-export function renderTileRows(task, firstRow, endRow, final) {
+export function renderTileRows(task, firstRow, endRow, final, alpha = false) {
   const elevations = sampleTileElevations(task.layers, firstRow, endRow + 2);
-  const opaque = isOpaque(elevations, firstRow, endRow);
+  const opaque = !alpha && isOpaque(elevations, firstRow, endRow);
   const scanlines = shadeAndTint(elevations, task.cellSizeM, task.sun, task.stops, task.shadowFloor, task.shadeGain, firstRow, endRow, opaque);
   const deflated = deflateRawSync(scanlines, {
     level: task.deflateLevel,
@@ -285,7 +286,7 @@ export function renderTileRows(task, firstRow, endRow, final) {
 
 /**
  * The PNG of a whole tile from its row parts in order (renderTileRows, the last one final); null
- * when the parts disagree on the alpha channel (the caller then renders the tile in one piece).
+ * when the parts disagree on the alpha channel (the caller then renders the opaque ones again with it).
  */
 export function pngFromParts(parts) {
   const opaque = parts[0].opaque;
