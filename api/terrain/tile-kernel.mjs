@@ -272,6 +272,7 @@ function pngFromIdat(idat, width, height, channels) {
  * channel regardless).
  */
 export function renderTileRows(task, firstRow, endRow, final, alpha = false) {
+  task = uniformTask(task);
   const elevations = sampleTileElevations(task.layers, firstRow, endRow + 2);
   const opaque = !alpha && isOpaque(elevations, firstRow, endRow);
   const scanlines = shadeAndTint(elevations, task.cellSizeM, task.sun, task.stops, task.shadowFloor, task.shadeGain, firstRow, endRow, opaque);
@@ -341,8 +342,39 @@ function adler32Combine(adler1, adler2, length2) {
   return ((sum2 << 16) | sum1) >>> 0;
 }
 
+/**
+ * The task with its objects rebuilt as literals of one shape, whatever built them (a structured
+ * clone from the API thread, the warm-up): the kernel's compiled code then sees the shapes it was
+ * warmed up with rather than deoptimising on the first real tiles.
+ */
+function uniformTask(task) {
+  const { sun } = task;
+  return {
+    layers: task.layers.map((layer) => ({
+      window: layer.window,
+      x0: layer.x0,
+      y0: layer.y0,
+      width: layer.width,
+      height: layer.height,
+      gridWidth: layer.gridWidth,
+      gridHeight: layer.gridHeight,
+      nodeCols: layer.nodeCols,
+      nodeRows: layer.nodeRows,
+      nodes: layer.nodes,
+      step: layer.step,
+    })),
+    cellSizeM: task.cellSizeM,
+    sun: { cosZenith: sun.cosZenith, sinZenith: sun.sinZenith, cosAzimuth: sun.cosAzimuth, sinAzimuth: sun.sinAzimuth, zFactor: sun.zFactor },
+    stops: task.stops,
+    shadowFloor: task.shadowFloor,
+    shadeGain: task.shadeGain,
+    deflateLevel: task.deflateLevel,
+  };
+}
+
 /** The whole tile: sampling, hillshade and tint, PNG. */
 export function renderTilePng(task) {
+  task = uniformTask(task);
   const elevations = sampleTileElevations(task.layers);
   const scanlines = shadeAndTint(elevations, task.cellSizeM, task.sun, task.stops, task.shadowFloor, task.shadeGain);
   return encodePng(scanlines, TILE_PX, TILE_PX, task.deflateLevel);
@@ -358,6 +390,8 @@ export function warmUpKernel(rounds = 12) {
   const width = 200;
   const window = new Float32Array(width * width);
   for (let k = 0; k < window.length; k++) window[k] = 800 + 600 * Math.sin(k / 911) + (k % width);
+  const sharedWindow = new Float32Array(new SharedArrayBuffer(window.byteLength));
+  sharedWindow.set(window);
   const nodes = Math.ceil((SAMPLES_PX - 1) / 16) + 1;
   const nodeCols = new Float64Array(nodes * nodes);
   const nodeRows = new Float64Array(nodes * nodes);
@@ -372,7 +406,8 @@ export function warmUpKernel(rounds = 12) {
     const layer = { window, x0: partial ? 40 : 0, y0: 0, width, height: width, gridWidth: 10_000, gridHeight: 10_000, nodeCols, nodeRows, nodes, step: 16 };
     const task = { layers: [layer], cellSizeM: 10, sun, stops, shadowFloor: 0.3, shadeGain: 0.8, deflateLevel: 1 };
     renderTilePng(task);
-    // A tile split over two threads: both halves, as the pool's threads render them.
-    pngFromParts([renderTileRows(task, 0, TILE_PX / 2, false), renderTileRows(task, TILE_PX / 2, TILE_PX, true)]);
+    // A tile split over two threads: both halves, reading shared memory as the pool's threads do.
+    const split = { ...task, layers: [{ ...layer, window: sharedWindow }] };
+    pngFromParts([renderTileRows(split, 0, TILE_PX / 2, false, partial), renderTileRows(split, TILE_PX / 2, TILE_PX, true, partial)]);
   }
 }
