@@ -382,16 +382,25 @@ export function renderTilePng(task) {
 
 /**
  * Runs the kernel on a synthetic tile a few times so the JIT has compiled it before real tiles
- * arrive: the first calls of a fresh thread otherwise take 3–5× longer. One tile is partly
- * without data, so both PNG layouts and the renormalised interpolation are exercised; each round
+ * arrive: the first calls of a fresh thread otherwise take 3–5× longer. Every third tile is partly
+ * without data (off the grid and nodata inside), so both PNG layouts, the renormalised
+ * interpolation and the NaN neighbours of the hillshade are exercised; each round
  * renders the tile whole and in two halves (as split over threads).
  */
 export function warmUpKernel(rounds = 12) {
   const width = 200;
   const window = new Float32Array(width * width);
   for (let k = 0; k < window.length; k++) window[k] = 800 + 600 * Math.sin(k / 911) + (k % width);
-  const sharedWindow = new Float32Array(new SharedArrayBuffer(window.byteLength));
-  sharedWindow.set(window);
+  // Partly without data: off the window on the left (x0 below) and nodata inside (a NaN square).
+  const holed = window.slice();
+  for (let r = 80; r < 120; r++) holed.fill(NaN, r * width + 100, r * width + 140);
+  const shared = (values) => {
+    const copy = new Float32Array(new SharedArrayBuffer(values.byteLength));
+    copy.set(values);
+    return copy;
+  };
+  const sharedWindow = shared(window);
+  const sharedHoled = shared(holed);
   const nodes = Math.ceil((SAMPLES_PX - 1) / 16) + 1;
   const nodeCols = new Float64Array(nodes * nodes);
   const nodeRows = new Float64Array(nodes * nodes);
@@ -403,11 +412,11 @@ export function warmUpKernel(rounds = 12) {
   const stops = Float64Array.from([0, 90, 130, 100, 1000, 180, 180, 120, 2000, 240, 240, 240]);
   for (let round = 0; round < rounds; round++) {
     const partial = round % 3 === 2;
-    const layer = { window, x0: partial ? 40 : 0, y0: 0, width, height: width, gridWidth: 10_000, gridHeight: 10_000, nodeCols, nodeRows, nodes, step: 16 };
+    const layer = { window: partial ? holed : window, x0: partial ? 40 : 0, y0: 0, width, height: width, gridWidth: 10_000, gridHeight: 10_000, nodeCols, nodeRows, nodes, step: 16 };
     const task = { layers: [layer], cellSizeM: 10, sun, stops, shadowFloor: 0.3, shadeGain: 0.8, deflateLevel: 1 };
     renderTilePng(task);
     // A tile split over two threads: both halves, reading shared memory as the pool's threads do.
-    const split = { ...task, layers: [{ ...layer, window: sharedWindow }] };
+    const split = { ...task, layers: [{ ...layer, window: partial ? sharedHoled : sharedWindow }] };
     pngFromParts([renderTileRows(split, 0, TILE_PX / 2, false, partial), renderTileRows(split, TILE_PX / 2, TILE_PX, true, partial)]);
   }
 }
