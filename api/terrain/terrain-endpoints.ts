@@ -12,6 +12,7 @@ import {
   terrainUploadFieldsSchema,
   terrainUploadMultipartSchema,
   tileParamsSchema,
+  tileQuerySchema,
 } from '@shared/domain/terrain';
 import type { AppDeps } from '../app-deps';
 import { endpoint } from '../http/endpoint';
@@ -128,19 +129,26 @@ export function terrainEndpoints(deps: AppDeps) {
       tag: TAG,
       access: 'signed-in',
       params: tileParamsSchema,
+      query: tileQuerySchema,
       responses: {
         200: { description: '256 × 256 PNG, transparent where no model covers', contentType: 'image/png' },
         304: { description: 'Unchanged since the ETag the browser holds' },
       },
-      handler: async ({ params, req, res }) => {
+      handler: async ({ params, query, req, res }) => {
         const { z: zoom, x, y } = params;
         const limit = 2 ** zoom;
         if (x >= limit || y >= limit) throw new HttpError(404, 'not_found', `Tile ${zoom}/${x}/${y} is outside the map`);
         const catalogue = await runtime.readyCatalogue();
         const etag = `"${catalogue.version}-${zoom}-${x}-${y}"`;
-        // Tiles are private (signed-in only); the ETag changes with the catalogue, so browsers
-        // revalidate cheaply after a minute.
-        res.set({ 'Cache-Control': 'private, max-age=60', ETag: etag, 'Content-Type': 'image/png' });
+        // Tiles are private (signed-in only). A URL that names the current catalogue version never
+        // changes its content, so it may be kept for a day; other URLs revalidate after a minute
+        // (the ETag changes with the catalogue).
+        const isVersioned = query.v === catalogue.version;
+        res.set({
+          'Cache-Control': isVersioned ? 'private, max-age=86400, immutable' : 'private, max-age=60',
+          ETag: etag,
+          'Content-Type': 'image/png',
+        });
         if (req.get('if-none-match') === etag) {
           res.status(304).end();
           return;

@@ -120,3 +120,6 @@ export const tileParamsSchema = z.object({
   x: z.coerce.number().int().min(0),
   y: z.coerce.number().int().min(0),
 });
+
+/** `v`: the catalogue's `tilesVersion`; a tile asked for by the current version may be cached long. */
+export const tileQuerySchema = z.object({ v: z.string().max(100).optional() });

@@ -338,6 +338,19 @@ print('{}')`, [path]);
       expect(filesUnder(join(dataDir, 'tiles')).some((f) => f.endsWith(`14/${x}/${y}.png`))).toBe(true);
     });
 
+    it('lets the browser keep a tile for a day when the URL names the current catalogue version', async () => {
+      const { body } = await uploadTerrain(analyst, good, 'Versioned');
+      await waitUntilIngested(analyst, body.id);
+      const { tilesVersion } = (await analyst.get('/api/terrain')).body as { tilesVersion: string };
+      const [x, y] = tileOf(10.86, 46.56, 14);
+
+      const current = await analyst.get(`/api/tiles/terrain/14/${x}/${y}.png?v=${tilesVersion}`);
+      const outdated = await analyst.get(`/api/tiles/terrain/14/${x}/${y}.png?v=an-older-version`);
+
+      expect(current.headers['cache-control']).toBe('private, max-age=86400, immutable');
+      expect(outdated.headers['cache-control']).toBe('private, max-age=60');
+    });
+
     it('uses the reduced pyramid at low zoom and answers 404 off the map', async () => {
       const { body } = await uploadTerrain(analyst, good, 'Pyramid');
       const model = await waitUntilIngested(analyst, body.id);

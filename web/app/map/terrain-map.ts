@@ -13,12 +13,13 @@ import {
   ViewEncapsulation,
 } from '@angular/core';
 import * as L from 'leaflet';
+import { TerrainTilesVersion, terrainTileUrl } from './terrain-tiles-version';
 
 /** GeoJSON order: [longitude, latitude]. */
 export type MapPosition = readonly [number, number];
 
 /** Our own self-hosted terrain tiles (hillshade with elevation tint); nothing external. */
-export const TERRAIN_TILE_URL = '/api/tiles/terrain/{z}/{x}/{y}.png';
+export const TERRAIN_TILE_URL = terrainTileUrl(null);
 
 /** Where the map looks before it has anything to show (overridden by `fitTo`). */
 const FALLBACK_VIEW = { center: L.latLng(46.6, 10.4), zoom: 10 };
@@ -99,9 +100,20 @@ export class TerrainMap {
   readonly overlayMoved = output<MapOverlayEvent>();
 
   private readonly map = signal<L.Map | null>(null);
+  private readonly tilesVersion = inject(TerrainTilesVersion);
+  private readonly tileLayer = L.tileLayer(TERRAIN_TILE_URL, {
+    maxZoom: 18,
+    attribution: 'Terrain: elevation models uploaded to Descentry',
+  });
 
   constructor() {
+    this.tilesVersion.ensureLoaded();
     afterNextRender(() => this.createMap());
+    // New or removed terrain models change the version: the tiles are fetched again.
+    effect(() => {
+      const url = terrainTileUrl(this.tilesVersion.version());
+      untracked(() => this.tileLayer.setUrl(url));
+    });
     inject(DestroyRef).onDestroy(() => this.map()?.remove());
 
     const overlayLayer = L.layerGroup();
@@ -153,10 +165,7 @@ export class TerrainMap {
   private createMap(): void {
     const element = this.host.nativeElement;
     const map = L.map(element, { center: FALLBACK_VIEW.center, zoom: FALLBACK_VIEW.zoom, zoomControl: true });
-    L.tileLayer(TERRAIN_TILE_URL, {
-      maxZoom: 18,
-      attribution: 'Terrain: elevation models uploaded to Descentry',
-    }).addTo(map);
+    this.tileLayer.addTo(map);
     L.control.scale({ imperial: true, metric: true }).addTo(map);
     map.on('click', (event: L.LeafletMouseEvent) => this.mapClicked.emit(fromLatLng(event.latlng)));
     // The element may be sized by a grid that settles after the first frame.

@@ -10,6 +10,7 @@ import {
 } from '@shared/domain/terrain';
 import { Observable, filter, firstValueFrom, map } from 'rxjs';
 import { ERRORS_SHOWN_INLINE } from '../core/api-error-message';
+import { TerrainTilesVersion } from '../map/terrain-tiles-version';
 
 /** Progress of an upload: bytes sent so far, then the accepted model. */
 export type UploadProgress =
@@ -20,9 +21,12 @@ export type UploadProgress =
 @Injectable({ providedIn: 'root' })
 export class TerrainApi {
   private readonly http = inject(HttpClient);
+  private readonly tilesVersion = inject(TerrainTilesVersion);
 
   async list(): Promise<TerrainList> {
-    return terrainListSchema.parse(await firstValueFrom(this.http.get('/api/terrain')));
+    const list = terrainListSchema.parse(await firstValueFrom(this.http.get('/api/terrain')));
+    this.tilesVersion.report(list.tilesVersion);
+    return list;
   }
 
   async get(id: string): Promise<TerrainModel> {
