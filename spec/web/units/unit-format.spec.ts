@@ -56,6 +56,12 @@ describe('display conversions', () => {
     expect(fromDisplay('temperature', 14, 'imperial')).toBeCloseTo(-10, 9);
   });
 
+  it('shows light masses in kg or pounds (1 lb = 0.45359237 kg exactly)', () => {
+    expect(formatQuantity('lightMass', 0.45359237 * 150, 'imperial')).toBe('150 lb');
+    expect(formatQuantity('lightMass', 70, 'metric')).toBe('70 kg');
+    expect(fromDisplay('mass', 1, 'imperial')).toBeCloseTo(2_000 * 0.45359237, 9);
+  });
+
   it('names the unit of each system', () => {
     expect(unitLabel('elevation', 'imperial')).toBe('ft');
     expect(unitLabel('force', 'metric')).toBe('kN');

@@ -4,13 +4,16 @@ import {
   VEHICLE_FIELDS,
   crossFieldMessages,
   fieldMessage,
+  fieldUnit,
+  profileNumbersBasis,
+  switchUnits,
   toVehicleDraft,
   toVehicleFormValue,
 } from '../../../web/app/vehicles/vehicle-form-model';
 
 describe('vehicle form model', () => {
   it('shows SI values in natural units (t, kW, kWh, %, km/h)', () => {
-    const numbers = toVehicleFormValue(aProfile()).numbers;
+    const numbers = toVehicleFormValue(aProfile(), 'metric').numbers;
 
     expect(numbers['curbMass']).toBe(13.5);
     expect(numbers['tractionPower']).toBe(250);
@@ -20,7 +23,7 @@ describe('vehicle form model', () => {
   });
 
   it('maps the form back to a draft the contract accepts, in SI', () => {
-    const draft = toVehicleDraft(toVehicleFormValue(aProfile()), 'battery-bus-12m');
+    const draft = toVehicleDraft(toVehicleFormValue(aProfile(), 'metric'), 'battery-bus-12m', 'metric');
 
     expect(vehicleProfileDraftSchema.safeParse(draft).success).toBe(true);
     expect(draft.vehicle.curbMassKg).toBe(13_500);
@@ -31,7 +34,7 @@ describe('vehicle form model', () => {
   });
 
   it('covers every engine parameter of the contract', () => {
-    const draft = toVehicleDraft(toVehicleFormValue(aProfile()), 'battery-bus-12m');
+    const draft = toVehicleDraft(toVehicleFormValue(aProfile(), 'metric'), 'battery-bus-12m', 'metric');
 
     expect(Object.keys(draft.vehicle).sort()).toEqual(
       [
@@ -44,34 +47,150 @@ describe('vehicle form model', () => {
   });
 
   it('asks for a value when a field is empty', () => {
-    expect(fieldMessage(field('curbMass'), null)).toBe('Enter a value (0.1 to 200 t).');
+    expect(fieldMessage(field('curbMass'), null, 'metric')).toBe('Enter a value (0.1 to 200 t).');
   });
 
   it('says how high a value may go, with its unit', () => {
-    expect(fieldMessage(field('drivetrainEfficiency'), 120)).toBe('At most 100 %.');
+    expect(fieldMessage(field('drivetrainEfficiency'), 120, 'metric')).toBe('At most 100 %.');
   });
 
   it('refuses zero where the engine needs more than zero', () => {
-    expect(fieldMessage(field('tractionPower'), 0)).toBe('Must be more than 0 kW.');
+    expect(fieldMessage(field('tractionPower'), 0, 'metric')).toBe('Must be more than 0 kW.');
   });
 
   it('accepts a value inside the limits', () => {
-    expect(fieldMessage(field('rollingResistance'), 0.007)).toBeNull();
+    expect(fieldMessage(field('rollingResistance'), 0.007, 'metric')).toBeNull();
   });
 
   it('flags a charge taper that starts above the SOC ceiling', () => {
-    const value = toVehicleFormValue(aProfile());
+    const value = toVehicleFormValue(aProfile(), 'metric');
     value.numbers['socTaperStart'] = 97;
 
     expect(crossFieldMessages(value)['socTaperStart']).toBe('Must not be above the SOC at which charging stops.');
   });
 
   it('asks a battery vehicle for battery energy above 0', () => {
-    const value = toVehicleFormValue(aProfile());
+    const value = toVehicleFormValue(aProfile(), 'metric');
     value.numbers['batteryCapacity'] = 0;
 
     expect(crossFieldMessages(value)['batteryCapacity']).toMatch(/above 0 kWh/);
     expect(crossFieldMessages({ ...value, powerSource: 'overhead-line' })['batteryCapacity']).toBeUndefined();
+  });
+});
+
+describe('vehicle form model in imperial units', () => {
+  it('shows masses in short tons and pounds, forces in lbf, speeds in mph and temperatures in °F', () => {
+    const numbers = toVehicleFormValue(aProfile(), 'imperial').numbers;
+
+    // 13 500 kg ÷ 907.18474 kg/tn; 70 kg ÷ 0.45359237 kg/lb.
+    expect(numbers['curbMass']).toBeCloseTo(14.881203, 6);
+    expect(numbers['loadFull']).toBeCloseTo(6.558752, 6);
+    expect(numbers['passengerMass']).toBeCloseTo(154.323584, 6);
+    expect(numbers['maxTractionForce']).toBeCloseTo(35_000 / 4.4482216152605, 5);
+    expect(numbers['regenMinSpeed']).toBeCloseTo(3.106856, 6);
+    expect(numbers['winterAmbient']).toBe(14);
+    expect(fieldUnit(field('curbMass'), 'imperial')).toBe('tn');
+    expect(fieldUnit(field('passengerMass'), 'imperial')).toBe('lb');
+  });
+
+  it('leaves powers, energies, areas, coefficients and percentages as they are', () => {
+    const metric = toVehicleFormValue(aProfile(), 'metric').numbers;
+    const imperial = toVehicleFormValue(aProfile(), 'imperial').numbers;
+
+    for (const key of ['tractionPower', 'batteryCapacity', 'frontalArea', 'dragCoefficient', 'rollingResistance', 'drivetrainEfficiency', 'socCeiling', 'lineReceptivity']) {
+      expect(imperial[key]).toBe(metric[key]);
+      expect(fieldUnit(field(key), 'imperial')).toBe(fieldUnit(field(key), 'metric'));
+    }
+  });
+
+  it('maps values typed in imperial units to an SI request body', () => {
+    const value = toVehicleFormValue(aProfile(), 'metric');
+    value.numbers = {
+      ...value.numbers,
+      curbMass: 15,
+      loadEmpty: 0,
+      loadSeated: 2.5,
+      loadFull: 6,
+      passengerMass: 165,
+      maxTractionForce: 8_000,
+      regenMinSpeed: 3,
+      winterAmbient: 5,
+      mildAmbient: 50,
+      summerAmbient: 86,
+      tractionPower: 250,
+      drivetrainEfficiency: 90,
+    };
+
+    const draft = toVehicleDraft(value, 'battery-bus-12m', 'imperial');
+
+    expect(vehicleProfileDraftSchema.safeParse(draft).success).toBe(true);
+    expect(draft.vehicle.curbMassKg).toBeCloseTo(15 * 907.18474, 6);
+    expect(draft.loadsKg).toEqual({ empty: 0, seated: expect.closeTo(2_267.96185, 6), 'full-standing': expect.closeTo(5_443.10844, 6) });
+    expect(draft.vehicle.payloadKg).toBe(draft.loadsKg.seated);
+    expect(draft.passengerMassKg).toBeCloseTo(165 * 0.45359237, 9);
+    expect(draft.vehicle.maxTractionForceN).toBeCloseTo(8_000 * 4.4482216152605, 6);
+    expect(draft.vehicle.regenMinSpeedMps).toBeCloseTo(3 * 0.44704, 9);
+    expect(draft.seasons.winter.ambientC).toBeCloseTo(-15, 9);
+    expect(draft.seasons.mild.ambientC).toBeCloseTo(10, 9);
+    expect(draft.seasons.summer.ambientC).toBeCloseTo(30, 9);
+    expect(draft.vehicle.tractionPowerW).toBe(250_000);
+    expect(draft.vehicle.drivetrainEfficiency).toBeCloseTo(0.9, 9);
+  });
+
+  it('saves an untouched profile shown in imperial exactly as it was loaded', () => {
+    const profile = aProfile();
+    const basis = profileNumbersBasis(profile, 'imperial');
+
+    const draft = toVehicleDraft(toVehicleFormValue(profile, 'imperial'), 'battery-bus-12m', 'imperial', basis);
+
+    expect(draft.vehicle.curbMassKg).toBe(13_500);
+    expect(draft.loadsKg).toEqual(profile.loadsKg);
+    expect(draft.passengerMassKg).toBe(70);
+    expect(draft.vehicle.regenMinSpeedMps).toBe(5 / 3.6);
+    expect(draft.seasons).toEqual(profile.seasons);
+  });
+
+  it('converts the fields when units are switched and comes back to the same SI values', () => {
+    const profile = aProfile();
+    const loaded = profileNumbersBasis(profile, 'metric');
+
+    const imperial = switchUnits(loaded.shown, 'metric', 'imperial', loaded);
+    const metricAgain = switchUnits(imperial.shown, 'imperial', 'metric', imperial);
+
+    expect(imperial.shown['curbMass']).toBeCloseTo(14.881203, 6);
+    expect(imperial.shown['winterAmbient']).toBe(14);
+    expect(metricAgain.shown).toEqual(loaded.shown);
+    const draft = toVehicleDraft(toVehicleFormValue(profile, 'metric'), 'battery-bus-12m', 'metric', metricAgain);
+    expect(draft).toEqual(toVehicleDraft(toVehicleFormValue(profile, 'metric'), 'battery-bus-12m', 'metric', loaded));
+    expect(draft.vehicle.curbMassKg).toBe(13_500);
+  });
+
+  it('carries a value typed in one system into the other without loss', () => {
+    const loaded = profileNumbersBasis(aProfile(), 'imperial');
+    const typed = { ...loaded.shown, curbMass: 16, passengerMass: 180 };
+
+    const metric = switchUnits(typed, 'imperial', 'metric', loaded);
+    const imperialAgain = switchUnits(metric.shown, 'metric', 'imperial', metric);
+
+    expect(metric.shown['curbMass']).toBeCloseTo(14.514956, 6);
+    expect(metric.si['passengerMass']).toBeCloseTo(180 * 0.45359237, 9);
+    expect(imperialAgain.shown['curbMass']).toBe(16);
+    expect(imperialAgain.shown['passengerMass']).toBe(180);
+    expect(imperialAgain.si['curbMass']).toBeCloseTo(16 * 907.18474, 9);
+  });
+
+  it('keeps empty fields empty when units are switched', () => {
+    const empty = Object.fromEntries(VEHICLE_FIELDS.map((candidate) => [candidate.key, null]));
+
+    expect(Object.values(switchUnits(empty, 'metric', 'imperial').shown).every((value) => value === null)).toBe(true);
+  });
+
+  it('states the limits in the units shown, rounded inside the metric ones', () => {
+    expect(fieldMessage(field('curbMass'), null, 'imperial')).toBe('Enter a value (0.12 to 220.46 tn).');
+    expect(fieldMessage(field('passengerMass'), 300, 'imperial')).toBe('At most 264.55 lb.');
+    expect(fieldMessage(field('winterAmbient'), -80, 'imperial')).toBe('At least -76 °F.');
+    expect(fieldMessage(field('maxTractionForce'), 0, 'imperial')).toBe('Must be more than 0 lbf.');
+    expect(fieldMessage(field('curbMass'), 220.46, 'imperial')).toBeNull();
   });
 });
 

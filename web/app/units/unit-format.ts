@@ -13,6 +13,7 @@ export type Quantity =
   | 'speed' // m/s → km/h / mph
   | 'temperature' // °C → °C / °F
   | 'mass' // kg → t / short ton
+  | 'lightMass' // kg → kg / lb (a person, a part)
   | 'force' // N → kN / lbf
   | 'energy' // Wh → kWh (both)
   | 'energyPerDistance' // kWh/km → kWh/km / kWh/mi
@@ -22,7 +23,10 @@ export type Quantity =
 
 const METRES_PER_MILE = 1_609.344;
 const METRES_PER_FOOT = 0.3048;
-const KG_PER_SHORT_TON = 907.18474;
+/** Exact by definition (international pound, 1959): 1 lb = 0.45359237 kg. */
+const KG_PER_POUND = 0.45359237;
+/** Exact by definition: 1 short ton = 2 000 lb = 907.18474 kg. */
+const KG_PER_SHORT_TON = 2_000 * KG_PER_POUND;
 const NEWTONS_PER_POUND_FORCE = 4.4482216152605;
 
 interface Scale {
@@ -49,6 +53,7 @@ const SCALES: Readonly<Record<UnitSystem, Readonly<Record<Quantity, Scale>>>> = 
     speed: linear('km/h', 3.6, 0),
     temperature: linear('°C', 1, 0),
     mass: linear('t', 1 / 1_000, 1),
+    lightMass: linear('kg', 1, 0),
     force: linear('kN', 1 / 1_000, 1),
     energy: linear('kWh', 1 / 1_000, 1),
     energyPerDistance: linear('kWh/km', 1, 2),
@@ -62,6 +67,7 @@ const SCALES: Readonly<Record<UnitSystem, Readonly<Record<Quantity, Scale>>>> = 
     speed: linear('mph', 3.6 / 1.609344, 0),
     temperature: { unit: '°F', from: (c) => (c * 9) / 5 + 32, to: (f) => ((f - 32) * 5) / 9, digits: 0 },
     mass: linear('tn', 1 / KG_PER_SHORT_TON, 1),
+    lightMass: linear('lb', 1 / KG_PER_POUND, 0),
     force: linear('lbf', 1 / NEWTONS_PER_POUND_FORCE, 0),
     energy: linear('kWh', 1 / 1_000, 1),
     energyPerDistance: linear('kWh/mi', 1.609344, 2),

@@ -1,9 +1,12 @@
 /**
  * The vehicle-profile form: every engine parameter with its group, label, displayed unit, the
  * factor between that unit and SI, its limits and the message shown when a value breaks them.
- * Pure data and functions, so the mapping and the messages are tested without a browser.
+ * Masses, forces, speeds and temperatures follow the metric/imperial choice through unit-format;
+ * everything else (power and energy in kW/kWh, areas, coefficients, percentages) reads the same in
+ * both. Pure data and functions, so the mapping and the messages are tested without a browser.
  */
 import type { VehicleProfile, VehicleProfileDraftInput } from '@shared/domain/vehicle-profiles';
+import { fromDisplay, toDisplay, unitLabel, type Quantity, type UnitSystem } from '../units/unit-format';
 
 export const VEHICLE_FIELD_GROUPS = [
   'Mass and load',
@@ -21,11 +24,13 @@ export interface VehicleField {
   key: string;
   group: VehicleFieldGroup;
   label: string;
-  /** Unit shown beside the value ('' for plain numbers). */
+  /** Metric unit shown beside the value ('' for plain numbers). */
   unit: string;
-  /** SI value = displayed value × factor. */
+  /** SI value = metric displayed value × factor. */
   factor: number;
-  /** Limits in the displayed unit. */
+  /** When set, the imperial display converts through unit-format as this kind of quantity. */
+  quantity?: Quantity;
+  /** Limits in the metric displayed unit (see `fieldLimits` for the imperial ones). */
   min: number;
   max: number;
   /** Whether the minimum itself is refused (e.g. efficiencies must be above 0). */
@@ -39,11 +44,11 @@ export interface VehicleField {
 const v = (profile: VehicleProfileDraftInput) => profile.vehicle;
 
 export const VEHICLE_FIELDS: readonly VehicleField[] = [
-  { key: 'curbMass', group: 'Mass and load', label: 'Curb mass', unit: 't', factor: 1_000, min: 0.1, max: 200, step: 0.1, hint: 'Empty vehicle ready for service.', read: (p) => v(p).curbMassKg },
-  { key: 'loadEmpty', group: 'Mass and load', label: 'Payload, empty', unit: 't', factor: 1_000, min: 0, max: 100, step: 0.1, read: (p) => p.loadsKg.empty },
-  { key: 'loadSeated', group: 'Mass and load', label: 'Payload, seated', unit: 't', factor: 1_000, min: 0, max: 100, step: 0.1, read: (p) => p.loadsKg.seated },
-  { key: 'loadFull', group: 'Mass and load', label: 'Payload, full standing', unit: 't', factor: 1_000, min: 0, max: 100, step: 0.1, read: (p) => p.loadsKg['full-standing'] },
-  { key: 'passengerMass', group: 'Mass and load', label: 'Mass per passenger', unit: 'kg', factor: 1, min: 40, max: 120, step: 1, hint: 'Used when a scenario gives a passenger count.', read: (p) => p.passengerMassKg ?? 70 },
+  { key: 'curbMass', group: 'Mass and load', label: 'Curb mass', unit: 't', factor: 1_000, quantity: 'mass', min: 0.1, max: 200, step: 0.1, hint: 'Empty vehicle ready for service.', read: (p) => v(p).curbMassKg },
+  { key: 'loadEmpty', group: 'Mass and load', label: 'Payload, empty', unit: 't', factor: 1_000, quantity: 'mass', min: 0, max: 100, step: 0.1, read: (p) => p.loadsKg.empty },
+  { key: 'loadSeated', group: 'Mass and load', label: 'Payload, seated', unit: 't', factor: 1_000, quantity: 'mass', min: 0, max: 100, step: 0.1, read: (p) => p.loadsKg.seated },
+  { key: 'loadFull', group: 'Mass and load', label: 'Payload, full standing', unit: 't', factor: 1_000, quantity: 'mass', min: 0, max: 100, step: 0.1, read: (p) => p.loadsKg['full-standing'] },
+  { key: 'passengerMass', group: 'Mass and load', label: 'Mass per passenger', unit: 'kg', factor: 1, quantity: 'lightMass', min: 40, max: 120, step: 1, hint: 'Used when a scenario gives a passenger count.', read: (p) => p.passengerMassKg ?? 70 },
   { key: 'rotatingMassFactor', group: 'Mass and load', label: 'Rotating-mass factor', unit: '', factor: 1, min: 0, max: 1, step: 0.01, hint: 'Inertia = (1 + factor) · m · a.', read: (p) => v(p).rotatingMassFactor },
 
   { key: 'frontalArea', group: 'Aerodynamics and tyres', label: 'Frontal area', unit: 'm²', factor: 1, min: 0, max: 30, minExclusive: true, step: 0.1, read: (p) => v(p).frontalAreaM2 },
@@ -52,7 +57,7 @@ export const VEHICLE_FIELDS: readonly VehicleField[] = [
 
   { key: 'tractionPower', group: 'Powertrain', label: 'Peak traction power', unit: 'kW', factor: 1_000, min: 0, max: 5_000, minExclusive: true, step: 1, hint: 'At the wheel.', read: (p) => v(p).tractionPowerW },
   { key: 'regenPower', group: 'Powertrain', label: 'Peak regenerative power', unit: 'kW', factor: 1_000, min: 0, max: 5_000, step: 1, hint: '0 means no regeneration at all.', read: (p) => v(p).regenPowerW },
-  { key: 'maxTractionForce', group: 'Powertrain', label: 'Tractive force limit', unit: 'kN', factor: 1_000, min: 0, max: 1_000, minExclusive: true, step: 0.5, hint: 'Motor torque at the wheel; also caps the regen force.', read: (p) => v(p).maxTractionForceN ?? 35_000 },
+  { key: 'maxTractionForce', group: 'Powertrain', label: 'Tractive force limit', unit: 'kN', factor: 1_000, quantity: 'force', min: 0, max: 1_000, minExclusive: true, step: 0.5, hint: 'Motor torque at the wheel; also caps the regen force.', read: (p) => v(p).maxTractionForceN ?? 35_000 },
   { key: 'drivetrainEfficiency', group: 'Powertrain', label: 'Drivetrain efficiency', unit: '%', factor: 0.01, min: 0, max: 100, minExclusive: true, step: 0.1, hint: 'Battery (or line) → wheel while motoring.', read: (p) => v(p).drivetrainEfficiency },
   { key: 'regenEfficiency', group: 'Powertrain', label: 'Regeneration efficiency', unit: '%', factor: 0.01, min: 0, max: 100, minExclusive: true, step: 0.1, hint: 'Wheel → battery (or line) while braking.', read: (p) => v(p).regenEfficiency },
 
@@ -60,13 +65,13 @@ export const VEHICLE_FIELDS: readonly VehicleField[] = [
   { key: 'maxChargePower', group: 'Battery and regeneration limits', label: 'Charge-power limit', unit: 'kW', factor: 1_000, min: 0, max: 5_000, step: 1, read: (p) => v(p).maxChargePowerW },
   { key: 'socTaperStart', group: 'Battery and regeneration limits', label: 'Charge limit starts falling at', unit: '% SOC', factor: 0.01, min: 0, max: 100, step: 1, read: (p) => v(p).socTaperStart ?? 0.85 },
   { key: 'socCeiling', group: 'Battery and regeneration limits', label: 'No charging above', unit: '% SOC', factor: 0.01, min: 0, max: 100, step: 1, read: (p) => v(p).socCeiling ?? 0.95 },
-  { key: 'regenMinSpeed', group: 'Battery and regeneration limits', label: 'Regeneration fades out below', unit: 'km/h', factor: 1 / 3.6, min: 0, max: 36, step: 0.5, read: (p) => v(p).regenMinSpeedMps ?? 5 / 3.6 },
+  { key: 'regenMinSpeed', group: 'Battery and regeneration limits', label: 'Regeneration fades out below', unit: 'km/h', factor: 1 / 3.6, quantity: 'speed', min: 0, max: 36, step: 0.5, read: (p) => v(p).regenMinSpeedMps ?? 5 / 3.6 },
 
-  { key: 'winterAmbient', group: 'Auxiliary loads by season', label: 'Winter ambient', unit: '°C', factor: 1, min: -60, max: 60, step: 1, read: (p) => p.seasons.winter.ambientC },
+  { key: 'winterAmbient', group: 'Auxiliary loads by season', label: 'Winter ambient', unit: '°C', factor: 1, quantity: 'temperature', min: -60, max: 60, step: 1, read: (p) => p.seasons.winter.ambientC },
   { key: 'winterAux', group: 'Auxiliary loads by season', label: 'Winter auxiliary power', unit: 'kW', factor: 1_000, min: 0, max: 500, step: 0.5, read: (p) => p.seasons.winter.auxPowerW },
-  { key: 'mildAmbient', group: 'Auxiliary loads by season', label: 'Mild ambient', unit: '°C', factor: 1, min: -60, max: 60, step: 1, read: (p) => p.seasons.mild.ambientC },
+  { key: 'mildAmbient', group: 'Auxiliary loads by season', label: 'Mild ambient', unit: '°C', factor: 1, quantity: 'temperature', min: -60, max: 60, step: 1, read: (p) => p.seasons.mild.ambientC },
   { key: 'mildAux', group: 'Auxiliary loads by season', label: 'Mild auxiliary power', unit: 'kW', factor: 1_000, min: 0, max: 500, step: 0.5, read: (p) => p.seasons.mild.auxPowerW },
-  { key: 'summerAmbient', group: 'Auxiliary loads by season', label: 'Summer ambient', unit: '°C', factor: 1, min: -60, max: 60, step: 1, read: (p) => p.seasons.summer.ambientC },
+  { key: 'summerAmbient', group: 'Auxiliary loads by season', label: 'Summer ambient', unit: '°C', factor: 1, quantity: 'temperature', min: -60, max: 60, step: 1, read: (p) => p.seasons.summer.ambientC },
   { key: 'summerAux', group: 'Auxiliary loads by season', label: 'Summer auxiliary power', unit: 'kW', factor: 1_000, min: 0, max: 500, step: 0.5, read: (p) => p.seasons.summer.auxPowerW },
 
   { key: 'brakeThermalMass', group: 'Brakes and retarder', label: 'Brake thermal mass', unit: 'kJ/K', factor: 1_000, min: 0, max: 100_000, minExclusive: true, step: 1, hint: 'All discs or drums with hubs together.', read: (p) => v(p).brakeThermalMassJPerK ?? 92_000 },
@@ -88,26 +93,114 @@ export interface VehicleFormValue {
   numbers: VehicleNumbers;
 }
 
-/** Displayed values of a profile (SI ÷ factor, rounded to what a person would type). */
-export function toVehicleFormValue(profile: VehicleProfileDraftInput): VehicleFormValue {
-  const numbers: VehicleNumbers = {};
-  for (const field of VEHICLE_FIELDS) numbers[field.key] = roundTo(field.read(profile) / field.factor, 6);
+/** SI value of each number field, keyed like the form controls (null while a field is empty). */
+export type VehicleSiNumbers = Record<string, number | null>;
+
+/**
+ * Numbers as shown in one unit system, with the SI values they were rounded from. Saving or
+ * switching units starts from the SI value of every field the person has not changed since, so
+ * display rounding never accumulates and an untouched profile saves exactly as it was loaded.
+ */
+export interface VehicleNumbersBasis {
+  system: UnitSystem;
+  shown: VehicleNumbers;
+  si: VehicleSiNumbers;
+}
+
+/** Unit shown beside a field in the chosen system. */
+export function fieldUnit(field: VehicleField, system: UnitSystem): string {
+  return system === 'imperial' && field.quantity ? unitLabel(field.quantity, system) : field.unit;
+}
+
+/** The displayed number for an SI value, rounded to what a person would type. */
+export function toShownNumber(field: VehicleField, si: number, system: UnitSystem): number {
+  const shown = system === 'imperial' && field.quantity ? toDisplay(field.quantity, si, system) : si / field.factor;
+  return roundTo(shown, 6);
+}
+
+/** The SI value of a displayed number. */
+export function toSiNumber(field: VehicleField, shown: number, system: UnitSystem): number {
+  const si = system === 'imperial' && field.quantity ? fromDisplay(field.quantity, shown, system) : shown * field.factor;
+  return roundTo(si, 9);
+}
+
+/**
+ * A field's limits in the chosen system. Imperial limits are the metric ones converted and rounded
+ * inwards to two decimals, so every value accepted here is inside the metric limits too.
+ */
+export function fieldLimits(field: VehicleField, system: UnitSystem): { min: number; max: number } {
+  const quantity = field.quantity;
+  if (system === 'metric' || !quantity) return { min: field.min, max: field.max };
+  const shown = (metric: number) => toDisplay(quantity, metric * field.factor, system) * 100;
+  return { min: Math.ceil(shown(field.min) - 1e-6) / 100 || 0, max: Math.floor(shown(field.max) + 1e-6) / 100 || 0 };
+}
+
+/** The SI values of a profile's number fields and how they read in `system`. */
+export function profileNumbersBasis(profile: VehicleProfileDraftInput, system: UnitSystem): VehicleNumbersBasis {
+  const si: VehicleSiNumbers = {};
+  for (const field of VEHICLE_FIELDS) si[field.key] = field.read(profile);
+  return { system, si, shown: toShownNumbers(si, system) };
+}
+
+/** Displayed values of a profile in `system`. */
+export function toVehicleFormValue(profile: VehicleProfileDraftInput, system: UnitSystem): VehicleFormValue {
   return {
     name: profile.name,
     description: profile.description ?? '',
     powerSource: profile.vehicle.powerSource ?? 'battery',
     brakeType: profile.vehicle.brakeType ?? 'disc',
-    numbers,
+    numbers: profileNumbersBasis(profile, system).shown,
   };
 }
 
-/** The request body for POST/PUT /api/vehicles, in SI. */
-export function toVehicleDraft(value: VehicleFormValue, vehicleClass: string): VehicleProfileDraftInput {
+/**
+ * SI values of the shown numbers: a field still showing what `basis` showed keeps the basis's SI
+ * value; any other is converted from what was typed.
+ */
+export function toSiNumbers(shown: VehicleNumbers, system: UnitSystem, basis?: VehicleNumbersBasis | null): VehicleSiNumbers {
+  const si: VehicleSiNumbers = {};
+  for (const field of VEHICLE_FIELDS) {
+    const value = shown[field.key];
+    const kept = basis?.system === system && basis.shown[field.key] === value ? basis.si[field.key] : null;
+    if (value === null || value === undefined || Number.isNaN(value)) si[field.key] = null;
+    else si[field.key] = kept ?? toSiNumber(field, value, system);
+  }
+  return si;
+}
+
+/** The numbers to show for SI values in `system` (empty fields stay empty). */
+export function toShownNumbers(si: VehicleSiNumbers, system: UnitSystem): VehicleNumbers {
+  const shown: VehicleNumbers = {};
+  for (const field of VEHICLE_FIELDS) {
+    const value = si[field.key];
+    shown[field.key] = value === null || value === undefined ? null : toShownNumber(field, value, system);
+  }
+  return shown;
+}
+
+/** The form's numbers re-expressed after the person switches units, with the new basis. */
+export function switchUnits(
+  shown: VehicleNumbers,
+  from: UnitSystem,
+  to: UnitSystem,
+  basis?: VehicleNumbersBasis | null,
+): VehicleNumbersBasis {
+  const si = toSiNumbers(shown, from, basis);
+  return { system: to, si, shown: toShownNumbers(si, to) };
+}
+
+/** The request body for POST/PUT /api/vehicles, in SI, from a form shown in `system`. */
+export function toVehicleDraft(
+  value: VehicleFormValue,
+  vehicleClass: string,
+  system: UnitSystem,
+  basis?: VehicleNumbersBasis | null,
+): VehicleProfileDraftInput {
+  const numbers = toSiNumbers(value.numbers, system, basis);
   const si = (key: string) => {
-    const field = VEHICLE_FIELDS.find((candidate) => candidate.key === key);
-    const shown = value.numbers[key];
-    if (!field || shown === null || shown === undefined) throw new RangeError(`Missing value for ${key}`);
-    return roundTo(shown * field.factor, 9);
+    const found = numbers[key];
+    if (found === null || found === undefined) throw new RangeError(`Missing value for ${key}`);
+    return found;
   };
   const seasons = {
     winter: { ambientC: si('winterAmbient'), auxPowerW: si('winterAux') },
@@ -154,13 +247,15 @@ export function toVehicleDraft(value: VehicleFormValue, vehicleClass: string): V
 }
 
 /** The message under a field, or null when its value is acceptable. */
-export function fieldMessage(field: VehicleField, shown: number | null | undefined): string | null {
-  const range = `${field.min}${field.unit && !field.unit.startsWith('%') ? ' ' : ' '}to ${field.max}${field.unit ? ' ' + field.unit : ''}`.replace(/\s+/g, ' ');
+export function fieldMessage(field: VehicleField, shown: number | null | undefined, system: UnitSystem): string | null {
+  const { min, max } = fieldLimits(field, system);
+  const unit = fieldUnit(field, system);
+  const range = `${min} to ${max}${unit ? ' ' + unit : ''}`;
   if (shown === null || shown === undefined || Number.isNaN(shown)) return `Enter a value (${range}).`;
-  if (field.minExclusive ? shown <= field.min : shown < field.min) {
-    return field.minExclusive ? `Must be more than ${field.min}${field.unit ? ' ' + field.unit : ''}.` : `At least ${field.min}${field.unit ? ' ' + field.unit : ''}.`;
+  if (field.minExclusive ? shown <= min : shown < min) {
+    return field.minExclusive ? `Must be more than ${min}${unit ? ' ' + unit : ''}.` : `At least ${min}${unit ? ' ' + unit : ''}.`;
   }
-  if (shown > field.max) return `At most ${field.max}${field.unit ? ' ' + field.unit : ''}.`;
+  if (shown > max) return `At most ${max}${unit ? ' ' + unit : ''}.`;
   return null;
 }
 

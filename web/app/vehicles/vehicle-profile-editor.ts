@@ -13,6 +13,7 @@ import { Router, RouterLink } from '@angular/router';
 import type { CapabilityCurvesResponse, LoadCase, VehicleProfile } from '@shared/domain/vehicle-profiles';
 import { describeApiError } from '../core/api-error-message';
 import { Session } from '../core/session';
+import type { UnitSystem } from '../units/unit-format';
 import { UnitPreference } from '../units/unit-preference';
 import { UnitSwitch } from '../units/unit-switch';
 import { CapabilityChart } from './capability-chart';
@@ -21,10 +22,14 @@ import {
   VEHICLE_FIELD_GROUPS,
   crossFieldMessages,
   fieldMessage,
+  fieldUnit,
+  profileNumbersBasis,
+  switchUnits,
   toVehicleDraft,
   toVehicleFormValue,
   type VehicleField,
   type VehicleFormValue,
+  type VehicleNumbersBasis,
 } from './vehicle-form-model';
 import { VehicleProfilesApi } from './vehicle-profiles-api';
 
@@ -62,6 +67,10 @@ export default class VehicleProfileEditor {
   readonly copyOf = input<string | undefined>();
 
   protected readonly units = inject(UnitPreference).system;
+  /** Units the number fields currently hold; follows `units` once their values are converted. */
+  protected readonly shownUnits = signal(this.units());
+  /** SI values behind the shown numbers, so rounding for display never changes a saved value. */
+  private basis: VehicleNumbersBasis | null = null;
   protected readonly groups = VEHICLE_FIELD_GROUPS.map((group) => ({ group, fields: VEHICLE_FIELDS.filter((field) => field.group === group) }));
 
   protected readonly profile = signal<VehicleProfile | null>(null);
@@ -78,7 +87,7 @@ export default class VehicleProfileEditor {
   protected readonly isAnalyst = computed(() => this.session.role() === 'analyst');
 
   protected readonly numbers = new FormGroup<NumberControls>(
-    Object.fromEntries(VEHICLE_FIELDS.map((field) => [field.key, new FormControl<number | null>(null, [Validators.required, rangeValidator(field)])])),
+    Object.fromEntries(VEHICLE_FIELDS.map((field) => [field.key, new FormControl<number | null>(null, [Validators.required, rangeValidator(field, () => this.shownUnits())])])),
   );
   protected readonly form = new FormGroup({
     name: new FormControl('', { nonNullable: true, validators: [Validators.required, Validators.maxLength(120)] }),
@@ -109,6 +118,14 @@ export default class VehicleProfileEditor {
       const load = this.capabilityLoad();
       if (id) untracked(() => void this.loadCapability(id, load));
     });
+    effect(() => {
+      const system = this.units();
+      untracked(() => this.showNumbersIn(system));
+    });
+  }
+
+  protected unit(field: VehicleField): string {
+    return fieldUnit(field, this.shownUnits());
   }
 
   protected control(field: VehicleField): FormControl<number | null> {
@@ -119,7 +136,7 @@ export default class VehicleProfileEditor {
   protected message(field: VehicleField): string | null {
     this.formValue();
     const control = this.control(field);
-    return fieldMessage(field, control.value) ?? this.crossMessages()[field.key] ?? null;
+    return fieldMessage(field, control.value, this.shownUnits()) ?? this.crossMessages()[field.key] ?? null;
   }
 
   protected showsError(field: VehicleField): boolean {
@@ -138,7 +155,7 @@ export default class VehicleProfileEditor {
     this.error.set(null);
     try {
       const vehicleClass = this.profile()?.vehicleClass ?? this.source()?.vehicleClass ?? 'custom';
-      const draft = toVehicleDraft(this.form.getRawValue() as VehicleFormValue, vehicleClass);
+      const draft = toVehicleDraft(this.form.getRawValue() as VehicleFormValue, vehicleClass, this.shownUnits(), this.basis);
       const id = this.vehicleProfileId();
       const saved = id ? await this.api.update(id, draft) : await this.api.create(draft);
       this.snackBar.open(`Saved “${saved.name}”.`, 'Dismiss');
@@ -173,7 +190,9 @@ export default class VehicleProfileEditor {
         const source = await this.api.get(copyOf);
         this.source.set(source);
         this.profile.set(null);
-        this.form.setValue({ ...toVehicleFormValue(source), name: `${source.name} (copy)` });
+        this.shownUnits.set(this.units());
+        this.basis = profileNumbersBasis(source, this.shownUnits());
+        this.form.setValue({ ...toVehicleFormValue(source, this.shownUnits()), name: `${source.name} (copy)` });
       }
     } catch (error: unknown) {
       this.error.set(describeApiError(error));
@@ -184,9 +203,20 @@ export default class VehicleProfileEditor {
 
   private show(profile: VehicleProfile): void {
     this.profile.set(profile);
-    this.form.setValue(toVehicleFormValue(profile));
+    this.shownUnits.set(this.units());
+    this.basis = profileNumbersBasis(profile, this.shownUnits());
+    this.form.setValue(toVehicleFormValue(profile, this.shownUnits()));
     this.form.markAsPristine();
     this.form.markAsUntouched();
+  }
+
+  /** Converts the number fields to `system`, from the SI values behind them (typed values included). */
+  private showNumbersIn(system: UnitSystem): void {
+    const from = this.shownUnits();
+    if (system === from) return;
+    this.basis = switchUnits(this.numbers.getRawValue(), from, system, this.basis);
+    this.shownUnits.set(system);
+    this.numbers.setValue(this.basis.shown);
   }
 
   private async loadCapability(id: string, load: LoadCase): Promise<void> {
@@ -200,6 +230,6 @@ export default class VehicleProfileEditor {
   }
 }
 
-function rangeValidator(field: VehicleField) {
-  return (control: { value: number | null }) => (fieldMessage(field, control.value) ? { range: true } : null);
+function rangeValidator(field: VehicleField, system: () => UnitSystem) {
+  return (control: { value: number | null }) => (fieldMessage(field, control.value, system()) ? { range: true } : null);
 }
