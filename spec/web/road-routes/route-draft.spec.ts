@@ -1,4 +1,5 @@
 import {
+  APPENDED_VERTEX_STEP_M,
   EMPTY_DRAFT,
   RouteDraftHistory,
   addSpeedLimit,
@@ -6,10 +7,14 @@ import {
   appendVertices,
   deleteVertex,
   insertVertex,
+  insertVertexAfter,
   moveVertex,
+  parseCoordinate,
+  pointAfterVertex,
   polylineLengthM,
   projectOnLine,
   segmentMidpoints,
+  setVertexCoordinate,
   type LonLat,
 } from '../../../web/app/road-routes/route-draft';
 
@@ -92,6 +97,111 @@ describe('route draft editing', () => {
     const state = addSpeedLimit(appendVertices(EMPTY_DRAFT, [A, B, C]), { fromM: 1_500, toM: 2_000, speedKph: 30 });
 
     expect(deleteVertex(state, 2).speedLimits).toEqual([]);
+  });
+});
+
+describe('vertex table edits', () => {
+  it('reads typed degrees within WGS 84 ranges, rounded to six decimals', () => {
+    expect(parseCoordinate('10.12345678', 'lon')).toBe(10.123457);
+    expect(parseCoordinate(' -46.5 ', 'lat')).toBe(-46.5);
+    expect(parseCoordinate('180', 'lon')).toBe(180);
+    expect(parseCoordinate('-90', 'lat')).toBe(-90);
+  });
+
+  it('refuses typed degrees out of range or not a number', () => {
+    expect(parseCoordinate('180.000001', 'lon')).toBeNull();
+    expect(parseCoordinate('91', 'lat')).toBeNull();
+    expect(parseCoordinate('', 'lat')).toBeNull();
+    expect(parseCoordinate('north', 'lat')).toBeNull();
+  });
+
+  it('moves a vertex to a typed longitude, keeping its latitude', () => {
+    const state = setVertexCoordinate(appendVertices(EMPTY_DRAFT, [A, B, C]), 1, 'lon', 10.004);
+
+    expect(state.vertices).toEqual([A, [10.004, 46.01], C]);
+  });
+
+  it('keeps stops on the line when a typed coordinate moves a vertex', () => {
+    const withStop = addStopNear(appendVertices(EMPTY_DRAFT, [A, B, C]), B, 'Square');
+
+    const next = setVertexCoordinate(withStop, 1, 'lon', 10.005);
+    const projection = projectOnLine(next.vertices, [next.stops[0]!.lon, next.stops[0]!.lat]);
+
+    expect(next.stops[0]!.lon).not.toBe(10);
+    expect(projection!.offsetM).toBeLessThan(0.5);
+    expect(next.stops[0]!.atM).toBeCloseTo(projection!.atM, 3);
+  });
+
+  it('cuts speed-limit stretches when a typed latitude shortens the route', () => {
+    const state = addSpeedLimit(appendVertices(EMPTY_DRAFT, [A, B, C]), { fromM: 500, toM: 2_200, speedKph: 30 });
+
+    const next = setVertexCoordinate(state, 2, 'lat', 46.015);
+
+    expect(next.speedLimits[0]!.toM).toBe(Math.round(polylineLengthM(next.vertices)));
+  });
+
+  it('changes nothing when the typed value is the one shown, so undo gets no empty step', () => {
+    const history = new RouteDraftHistory(appendVertices(EMPTY_DRAFT, [[10.1234567, 46], B]));
+
+    history.apply((state) => setVertexCoordinate(state, 0, 'lon', 10.123457));
+
+    expect(history.canUndo).toBe(false);
+  });
+
+  it('refuses a coordinate outside WGS 84 or a vertex that does not exist', () => {
+    const state = appendVertices(EMPTY_DRAFT, [A, B]);
+
+    expect(() => setVertexCoordinate(state, 0, 'lat', 95)).toThrow(RangeError);
+    expect(() => setVertexCoordinate(state, 0, 'lon', Number.NaN)).toThrow(RangeError);
+    expect(() => setVertexCoordinate(state, 2, 'lon', 10)).toThrow(/No vertex 2/);
+  });
+
+  it('inserts after a vertex at the midpoint of the following segment', () => {
+    const state = appendVertices(EMPTY_DRAFT, [A, [10.02, 46.02]]);
+
+    const next = insertVertexAfter(state, 0);
+
+    expect(next.vertices).toEqual([A, [10.01, 46.01], [10.02, 46.02]]);
+  });
+
+  it('inserts after the last vertex a short step further along the last segment', () => {
+    const state = appendVertices(EMPTY_DRAFT, [A, B]);
+
+    const next = insertVertexAfter(state, 1);
+    const added = next.vertices[2]!;
+
+    expect(next.vertices).toHaveLength(3);
+    expect(added[0]).toBeCloseTo(10, 6);
+    expect(added[1]).toBeGreaterThan(B[1]);
+    expect(polylineLengthM([B, added])).toBeCloseTo(APPENDED_VERTEX_STEP_M, 0);
+  });
+
+  it('steps due east after a lone vertex', () => {
+    const added = pointAfterVertex([A], 0);
+
+    expect(added[1]).toBe(A[1]);
+    expect(added[0]).toBeGreaterThan(A[0]);
+    expect(polylineLengthM([A, added])).toBeCloseTo(APPENDED_VERTEX_STEP_M, 0);
+  });
+
+  it('keeps stops and speed limits when a vertex is inserted after a row', () => {
+    let state = addStopNear(appendVertices(EMPTY_DRAFT, [A, C]), B, 'Square');
+    state = addSpeedLimit(state, { fromM: 100, toM: 2_000, speedKph: 30 });
+
+    const next = insertVertexAfter(state, 0);
+
+    expect(next.stops).toHaveLength(1);
+    expect(next.stops[0]!.atM).toBeCloseTo(state.stops[0]!.atM, 0);
+    expect(next.speedLimits).toEqual(state.speedLimits);
+  });
+
+  it('undoes an insertion from the table in one step', () => {
+    const history = new RouteDraftHistory(appendVertices(EMPTY_DRAFT, [A, C]));
+
+    history.apply((state) => insertVertexAfter(state, 0));
+
+    expect(history.state.vertices).toHaveLength(3);
+    expect(history.undo().vertices).toEqual([A, C]);
   });
 });
 

@@ -157,6 +157,50 @@ function roundM(valueM: number): number {
   return Math.round(valueM);
 }
 
+/** Decimals a coordinate keeps when typed in the vertex table: 1e-6° is about 0.1 m. */
+export const COORDINATE_DECIMALS = 6;
+
+/** How far beyond the last vertex "insert after" puts a new one, m. */
+export const APPENDED_VERTEX_STEP_M = 50;
+
+/** Rounds WGS 84 degrees to the decimals the vertex table shows. */
+export function roundDegrees(value: number): number {
+  const factor = 10 ** COORDINATE_DECIMALS;
+  return Math.round(value * factor) / factor;
+}
+
+/**
+ * A longitude or latitude typed in the vertex table, in WGS 84 degrees and rounded to
+ * COORDINATE_DECIMALS; null when the text is not a number within ±180° (longitude) or ±90° (latitude).
+ */
+export function parseCoordinate(text: string, axis: 'lon' | 'lat'): number | null {
+  if (text.trim() === '') return null;
+  const value = Number(text);
+  const limit = axis === 'lon' ? 180 : 90;
+  return Number.isFinite(value) && Math.abs(value) <= limit ? roundDegrees(value) : null;
+}
+
+/**
+ * Where "insert after vertex `index`" puts the new vertex: the midpoint of the segment that follows
+ * it, or, after the last vertex, APPENDED_VERTEX_STEP_M further along the last segment's heading
+ * (due east when there is no segment to follow).
+ */
+export function pointAfterVertex(vertices: readonly LonLat[], index: number): LonLat {
+  const from = vertices[index];
+  if (!from) throw new RangeError(`No vertex ${index} on a route of ${vertices.length} vertices`);
+  const next = vertices[index + 1];
+  if (next) return [roundDegrees((from[0] + next[0]) / 2), roundDegrees((from[1] + next[1]) / 2)];
+  const scale = metresPerDegree(from[1]);
+  const previous = vertices[index - 1];
+  const eastM = previous ? (from[0] - previous[0]) * scale.eastM : 0;
+  const northM = previous ? (from[1] - previous[1]) * scale.northM : 0;
+  const lengthM = Math.hypot(eastM, northM);
+  const [unitEast, unitNorth] = lengthM > 0 ? [eastM / lengthM, northM / lengthM] : [1, 0];
+  const lon = from[0] + (unitEast * APPENDED_VERTEX_STEP_M) / scale.eastM;
+  const lat = from[1] + (unitNorth * APPENDED_VERTEX_STEP_M) / scale.northM;
+  return [roundDegrees(lon), roundDegrees(Math.min(90, Math.max(-90, lat)))];
+}
+
 // ---- Edits: each returns a new state (the history keeps the old one) ----
 
 export function appendVertices(state: RouteDraftState, points: readonly LonLat[]): RouteDraftState {
@@ -176,6 +220,28 @@ export function insertVertex(state: RouteDraftState, segmentIndex: number, at: L
   const vertices = [...state.vertices];
   vertices.splice(segmentIndex + 1, 0, at);
   return reconcile({ ...state, vertices });
+}
+
+/** Inserts a vertex after vertex `index` (from the vertex table), where pointAfterVertex puts it. */
+export function insertVertexAfter(state: RouteDraftState, index: number): RouteDraftState {
+  assertIndex(state, index);
+  const at = pointAfterVertex(state.vertices, index);
+  return index < state.vertices.length - 1 ? insertVertex(state, index, at) : appendVertices(state, [at]);
+}
+
+/**
+ * Sets one coordinate of vertex `index` to a value typed in the vertex table, keeping the other.
+ * Typing the value already shown changes nothing, so it leaves no step in the undo history.
+ */
+export function setVertexCoordinate(state: RouteDraftState, index: number, axis: 'lon' | 'lat', degrees: number): RouteDraftState {
+  assertIndex(state, index);
+  if (!(Math.abs(degrees) <= (axis === 'lon' ? 180 : 90))) {
+    throw new RangeError(`A ${axis === 'lon' ? 'longitude' : 'latitude'} of ${degrees}° is outside WGS 84`);
+  }
+  const [lon, lat] = state.vertices[index]!;
+  const current = axis === 'lon' ? lon : lat;
+  if (roundDegrees(current) === roundDegrees(degrees)) return state;
+  return moveVertex(state, index, axis === 'lon' ? [degrees, lat] : [lon, degrees]);
 }
 
 export function deleteVertex(state: RouteDraftState, index: number): RouteDraftState {

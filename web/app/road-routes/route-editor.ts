@@ -35,6 +35,7 @@ import { UnitPreference } from '../units/unit-preference';
 import { UnitSwitch } from '../units/unit-switch';
 import { RoadRoutesApi, type RoadNetwork, type RouteProfile, type RouteVersionInfo } from './road-routes-api';
 import {
+  COORDINATE_DECIMALS,
   EMPTY_DRAFT,
   RouteDraftHistory,
   addSpeedLimit,
@@ -42,14 +43,17 @@ import {
   appendVertices,
   deleteVertex,
   insertVertex,
+  insertVertexAfter,
   moveStopTo,
   moveVertex,
+  parseCoordinate,
   pointAlongLine,
   polylineLengthM,
   projectOnLine,
   removeSpeedLimit,
   removeStop,
   segmentMidpoints,
+  setVertexCoordinate,
   sliceLine,
   updateSpeedLimit,
   updateStop,
@@ -411,6 +415,32 @@ export default class RouteEditor {
   }
 
   // ---- Tables ----
+
+  /** A coordinate typed in the vertex table; a value out of range is refused and the field shows the vertex again. */
+  protected setVertexCoordinate(index: number, axis: 'lon' | 'lat', field: HTMLInputElement): void {
+    const degrees = parseCoordinate(field.value, axis);
+    if (degrees === null) {
+      this.snackBar.open(axis === 'lon' ? 'A longitude is between −180 and 180 degrees.' : 'A latitude is between −90 and 90 degrees.', 'Dismiss');
+    } else {
+      this.edit((state) => setVertexCoordinate(state, index, axis, degrees));
+    }
+    const vertex = this.draft().vertices[index];
+    if (vertex) field.value = this.degreesShown(vertex[axis === 'lon' ? 0 : 1]);
+  }
+
+  protected insertVertexAfter(index: number): void {
+    this.edit((state) => insertVertexAfter(state, index));
+    this.selectedVertex.set(null);
+  }
+
+  protected deleteVertex(index: number): void {
+    this.edit((state) => deleteVertex(state, index));
+    this.selectedVertex.set(null);
+  }
+
+  protected degreesShown(degrees: number): string {
+    return degrees.toFixed(COORDINATE_DECIMALS);
+  }
 
   protected renameStop(index: number, name: string): void {
     if (name.trim()) this.edit((state) => updateStop(state, index, { name: name.trim() }));
