@@ -1,34 +1,16 @@
 import assert from 'node:assert/strict';
-import { after, before, describe, it } from 'node:test';
+import { describe, it } from 'node:test';
 import type { Locator } from 'playwright-core';
-import {
-  BASE_URL,
-  assertServerIsUp,
-  openBrowser,
-  screenshot,
-  settleAnimations,
-  type BrowserSession,
-} from './support/browser';
-import { demoEmail, signInAs, signOut } from './support/demo-people';
+import { BASE_URL, openBrowser, screenshot, settleAnimations } from './support/browser';
+import { demoEmail, signedInBrowser } from './support/demo-people';
 
 describe('administration', () => {
-  let browser: BrowserSession;
+  const browser = signedInBrowser('admin');
   const invitee = {
     email: `browser-check-${Date.now()}@descentry.example`,
     name: 'Petra Lindqvist',
     acceptPath: '',
   };
-
-  before(async () => {
-    await assertServerIsUp();
-    browser = await openBrowser();
-    await signInAs(browser.page, 'admin');
-  });
-
-  after(async () => {
-    if (browser) await signOut(browser.page).catch(() => undefined);
-    await browser?.close();
-  });
 
   it('lists the demo people on the People page and filters them', async () => {
     const { page } = browser;

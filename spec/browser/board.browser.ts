@@ -1,21 +1,10 @@
 import assert from 'node:assert/strict';
-import { after, before, describe, it } from 'node:test';
-import { assertServerIsUp, openBrowser, screenshot, settleAnimations, type BrowserSession } from './support/browser';
-import { signInAs, signOut } from './support/demo-people';
+import { describe, it } from 'node:test';
+import { screenshot, settleAnimations } from './support/browser';
+import { signedInBrowser } from './support/demo-people';
 
 describe('network summary: board member', () => {
-  let browser: BrowserSession;
-
-  before(async () => {
-    await assertServerIsUp();
-    browser = await openBrowser();
-    await signInAs(browser.page, 'board');
-  });
-
-  after(async () => {
-    if (browser) await signOut(browser.page).catch(() => undefined);
-    await browser?.close();
-  });
+  const browser = signedInBrowser('board');
 
   it('shows the network figures, the factors with their sources and the chart', async () => {
     const { page } = browser;

@@ -1,8 +1,8 @@
 import assert from 'node:assert/strict';
-import { after, before, describe, it } from 'node:test';
+import { describe, it } from 'node:test';
 import type { Page } from 'playwright-core';
-import { BASE_URL, assertServerIsUp, openBrowser, screenshot, settleAnimations, type BrowserSession } from './support/browser';
-import { signInAs, signOut } from './support/demo-people';
+import { BASE_URL, screenshot, settleAnimations } from './support/browser';
+import { signedInBrowser } from './support/demo-people';
 
 /**
  * The pages scroll inside the shell, so a full-page screenshot shows one screen: take it on a
@@ -34,18 +34,7 @@ async function openHighRiskItem(page: Page): Promise<void> {
 }
 
 describe('descent review: safety officer', () => {
-  let browser: BrowserSession;
-
-  before(async () => {
-    await assertServerIsUp();
-    browser = await openBrowser();
-    await signInAs(browser.page, 'safety');
-  });
-
-  after(async () => {
-    if (browser) await signOut(browser.page).catch(() => undefined);
-    await browser?.close();
-  });
+  const browser = signedInBrowser('safety');
 
   it('opens the queue with counts per state and the caution', async () => {
     const { page } = browser;
@@ -106,18 +95,7 @@ describe('descent review: safety officer', () => {
 });
 
 describe('descent review: planner reads only', () => {
-  let browser: BrowserSession;
-
-  before(async () => {
-    await assertServerIsUp();
-    browser = await openBrowser({ width: 1024, height: 768 });
-    await signInAs(browser.page, 'planner');
-  });
-
-  after(async () => {
-    if (browser) await signOut(browser.page).catch(() => undefined);
-    await browser?.close();
-  });
+  const browser = signedInBrowser('planner', { width: 1024, height: 768 });
 
   it('sees the queue and an item with its audit trail but no action buttons', async () => {
     const { page } = browser;

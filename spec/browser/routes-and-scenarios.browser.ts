@@ -1,9 +1,9 @@
 import assert from 'node:assert/strict';
 import { readFileSync } from 'node:fs';
-import { after, before, describe, it } from 'node:test';
+import { describe, it } from 'node:test';
 import type { Page } from 'playwright-core';
-import { BASE_URL, assertServerIsUp, openBrowser, screenshot, type BrowserSession } from './support/browser';
-import { signInAs, signOut } from './support/demo-people';
+import { BASE_URL, screenshot } from './support/browser';
+import { signedInBrowser } from './support/demo-people';
 
 /** Clicks the map at a fraction of its width and height (the view fits the road network). */
 async function clickMap(page: Page, fx: number, fy: number): Promise<void> {
@@ -14,20 +14,9 @@ async function clickMap(page: Page, fx: number, fy: number): Promise<void> {
 }
 
 describe('routes and scenarios', () => {
-  let browser: BrowserSession;
+  const browser = signedInBrowser('planner', { width: 1366, height: 900 });
   const routeName = `Browser test route ${Date.now()}`;
   const scenarioIds: string[] = [];
-
-  before(async () => {
-    await assertServerIsUp();
-    browser = await openBrowser({ width: 1366, height: 900 });
-    await signInAs(browser.page, 'planner');
-  });
-
-  after(async () => {
-    if (browser) await signOut(browser.page).catch(() => undefined);
-    await browser?.close();
-  });
 
   it('lets a planner draw a route, add a stop and a speed limit, and save it', async () => {
     const { page } = browser;
@@ -118,18 +107,7 @@ describe('routes and scenarios', () => {
 });
 
 describe('vehicle profiles', () => {
-  let browser: BrowserSession;
-
-  before(async () => {
-    await assertServerIsUp();
-    browser = await openBrowser();
-    await signInAs(browser.page, 'analyst');
-  });
-
-  after(async () => {
-    if (browser) await signOut(browser.page).catch(() => undefined);
-    await browser?.close();
-  });
+  const browser = signedInBrowser('analyst');
 
   it('lets an analyst copy a preset, see a field message and save the edited copy', async () => {
     const { page } = browser;

@@ -4,27 +4,17 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { after, before, describe, it } from 'node:test';
 import { writeFloat32GeoTiff } from '../../api/terrain/geotiff-writer';
-import { assertServerIsUp, openBrowser, screenshot, settleAnimations, type BrowserSession } from './support/browser';
-import { signInAs, signOut } from './support/demo-people';
+import { screenshot, settleAnimations } from './support/browser';
+import { signedInBrowser } from './support/demo-people';
 
 describe('terrain', () => {
-  let browser: BrowserSession;
+  const browser = signedInBrowser('analyst', { width: 1400, height: 950 });
   const folder = mkdtempSync(join(tmpdir(), 'descentry-terrain-browser-'));
   const name = `Orren slope ${Date.now()}`;
   const file = join(folder, 'orren-slope.tif');
 
-  before(async () => {
-    await assertServerIsUp();
-    writeFileSync(file, smallGeoTiff());
-    browser = await openBrowser({ width: 1400, height: 950 });
-    await signInAs(browser.page, 'analyst');
-  });
-
-  after(async () => {
-    if (browser) await signOut(browser.page).catch(() => undefined);
-    await browser?.close();
-    rmSync(folder, { recursive: true, force: true });
-  });
+  before(() => writeFileSync(file, smallGeoTiff()));
+  after(() => rmSync(folder, { recursive: true, force: true }));
 
   it('shows the catalogue with the demo model and our own terrain tiles on the map', async () => {
     const { page } = browser;

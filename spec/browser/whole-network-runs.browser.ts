@@ -1,23 +1,12 @@
 import assert from 'node:assert/strict';
-import { after, before, describe, it } from 'node:test';
-import { assertServerIsUp, openBrowser, screenshot, settleAnimations, type BrowserSession } from './support/browser';
-import { signInAs, signOut } from './support/demo-people';
+import { describe, it } from 'node:test';
+import { screenshot, settleAnimations } from './support/browser';
+import { signedInBrowser } from './support/demo-people';
 
 // Named to run last: a network run recomputes every in-service scenario, which the review and
 // board tests read.
 describe('network runs: analyst', () => {
-  let browser: BrowserSession;
-
-  before(async () => {
-    await assertServerIsUp();
-    browser = await openBrowser();
-    await signInAs(browser.page, 'analyst');
-  });
-
-  after(async () => {
-    if (browser) await signOut(browser.page).catch(() => undefined);
-    await browser?.close();
-  });
+  const browser = signedInBrowser('analyst');
 
   it('re-runs every in-service scenario and follows the progress to the end', async () => {
     const { page } = browser;

@@ -1,5 +1,6 @@
+import { after, before } from 'node:test';
 import type { Page } from 'playwright-core';
-import { BASE_URL } from './browser';
+import { BASE_URL, assertServerIsUp, openBrowser, type BrowserSession } from './browser';
 
 /** The demo password the API's seed gives every demo person. */
 export const DEMO_PASSWORD = 'descend-safely-2026';
@@ -50,4 +51,27 @@ export async function signOut(page: Page): Promise<void> {
 export async function navigationLabels(page: Page): Promise<string[]> {
   const links = page.getByRole('navigation', { name: 'Main' }).getByRole('link');
   return (await links.allInnerTexts()).map((text) => text.replace(/^\S+\s*\n?/, '').trim());
+}
+
+/**
+ * A browser signed in as `role` for the enclosing `describe` block: opened in `before`, signed out
+ * and closed in `after`. Read `page` inside the tests, once the block has started.
+ */
+export function signedInBrowser(role: DemoRole, viewport?: { width: number; height: number }): { readonly page: Page } {
+  let session: BrowserSession | undefined;
+  before(async () => {
+    await assertServerIsUp();
+    session = await openBrowser(viewport);
+    await signInAs(session.page, role);
+  });
+  after(async () => {
+    if (session) await signOut(session.page).catch(() => undefined);
+    await session?.close();
+  });
+  return {
+    get page() {
+      if (!session) throw new Error(`The browser for ${role} is not open yet`);
+      return session.page;
+    },
+  };
 }
