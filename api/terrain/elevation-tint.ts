@@ -1,7 +1,9 @@
 /**
  * Descentry's own elevation tint for map tiles: valley greens through upland sage and ochre to
  * rock and snow, chosen so the 600–2 000 m band where transit routes climb spreads over the most
- * distinct hues. Colours are interpolated linearly between stops.
+ * distinct hues. Colours are interpolated linearly between stops, per whole metre: an elevation
+ * takes the colour of its metre (floored), a step far below one colour level, which lets the tile
+ * kernel look colours up in a table.
  */
 export const ELEVATION_TINT_STOPS: ReadonlyArray<{ elevationM: number; rgb: readonly [number, number, number] }> = [
   { elevationM: -100, rgb: [78, 122, 140] },
@@ -15,9 +17,10 @@ export const ELEVATION_TINT_STOPS: ReadonlyArray<{ elevationM: number; rgb: read
   { elevationM: 3400, rgb: [246, 246, 250] },
 ];
 
-/** Tint for an elevation, written into `out` at `offset` (RGB bytes). */
-export function tintInto(elevationM: number, out: Uint8Array, offset: number): void {
+/** Tint for an elevation (of its whole metre), written into `out` at `offset` (RGB bytes). */
+export function tintInto(elevation: number, out: Uint8Array, offset: number): void {
   const stops = ELEVATION_TINT_STOPS;
+  const elevationM = Math.floor(elevation);
   if (elevationM <= stops[0]!.elevationM) return writeRgb(stops[0]!.rgb, out, offset);
   for (let i = 1; i < stops.length; i++) {
     const upper = stops[i]!;

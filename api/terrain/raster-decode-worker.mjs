@@ -62,15 +62,20 @@ export default async function decodeWindow({ path, window, nodata, verticalScale
   return Piscina.move(out);
 }
 
-/** Elevations in metres: nodata and NaN become NaN, the rest is scaled (feet → metres etc.). */
+/**
+ * Elevations in metres: nodata and NaN become NaN, the rest is scaled (feet → metres etc.). The
+ * values are copied natively (converting the file's type), then nodata and the scale are applied
+ * in place: `out` is one of two array types whatever the file holds, which keeps the loop fast.
+ * (Every sample type converts exactly into `out`, so nodata compares the same after the copy.)
+ */
 function convertInto(source, from, out, to, count, { nodata, scale }) {
-  if (nodata === null) {
-    for (let k = 0; k < count; k++) out[to + k] = source[from + k] * scale;
-    return;
+  out.set(source.subarray(from, from + count), to);
+  const end = to + count;
+  if (nodata !== null) {
+    for (let k = to; k < end; k++) if (out[k] === nodata) out[k] = NaN;
   }
-  for (let k = 0; k < count; k++) {
-    const value = source[from + k];
-    out[to + k] = value === nodata ? NaN : value * scale;
+  if (scale !== 1) {
+    for (let k = to; k < end; k++) out[k] *= scale;
   }
 }
 
@@ -124,7 +129,10 @@ function readBlock(image, blocks, tx, ty, tileWidth) {
   }
   const raw = Buffer.allocUnsafeSlow(length);
   readSync(blocks.fd, raw, 0, length, Number(blocks.offsets[index]));
-  bytes = blocks.compression === 1 ? raw : inflateSync(raw);
+  // One output chunk the size of the block (and a little over, so zlib sees the stream end
+  // without a second chunk): no joining of 16 KB pieces.
+  const expected = image.getBlockHeight(ty) * tileWidth * bytesPerSample;
+  bytes = blocks.compression === 1 ? raw : inflateSync(raw, { chunkSize: Math.max(64 * 1024, expected + 1024) });
   const buffer =
     bytes.byteOffset === 0 && bytes.byteLength === bytes.buffer.byteLength && bytes.byteOffset % bytesPerSample === 0
       ? bytes.buffer

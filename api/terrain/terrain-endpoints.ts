@@ -153,12 +153,15 @@ export function terrainEndpoints(deps: AppDeps) {
           res.status(304).end();
           return;
         }
-        let png = await tileCache.read(catalogue.version, zoom, x, y);
-        if (!png) {
-          png = (await renderTerrainTile(runtime.blocks, catalogue.models, zoom, x, y)) ?? transparentTile();
-          await tileCache.write(catalogue.version, zoom, x, y, png);
+        const cached = await tileCache.read(catalogue.version, zoom, x, y);
+        if (cached) {
+          res.send(cached);
+          return;
         }
+        const png = (await renderTerrainTile(runtime.blocks, catalogue.models, zoom, x, y)) ?? transparentTile();
         res.send(png);
+        // The cache is written after the answer: the map does not wait for the disk.
+        tileCache.write(catalogue.version, zoom, x, y, png).catch((error: unknown) => console.error(`[terrain] caching tile ${zoom}/${x}/${y} failed:`, error));
       },
     }),
   ];

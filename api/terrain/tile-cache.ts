@@ -21,12 +21,20 @@ export class TileCache {
     return readFile(this.pathOf(version, z, x, y)).catch(() => null);
   }
 
-  /** Writes atomically (temp file + rename), so a reader never sees half a PNG. */
+  /**
+   * Writes atomically (temp file + rename), so a reader never sees half a PNG. The folder is made
+   * only when the write finds it missing (once per folder rather than once per tile).
+   */
   async write(version: string, z: number, x: number, y: number, png: Buffer): Promise<void> {
     const path = this.pathOf(version, z, x, y);
-    await mkdir(dirname(path), { recursive: true });
     const temp = `${path}.${randomUUID()}.tmp`;
-    await writeFile(temp, png);
+    try {
+      await writeFile(temp, png);
+    } catch (error) {
+      if ((error as NodeJS.ErrnoException).code !== 'ENOENT') throw error;
+      await mkdir(dirname(path), { recursive: true });
+      await writeFile(temp, png);
+    }
     await rename(temp, path);
   }
 

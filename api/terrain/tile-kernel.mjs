@@ -99,7 +99,8 @@ export function sampleTileElevations(layers, rowStart = 0, rowEnd = SAMPLES_PX) 
  * shaded, tinted tile (or of its rows [firstRow, endRow)). Per pixel:
  * Horn gradient over the 3 × 3 window (a NaN neighbour takes the centre value), illumination
  * = (cos zenith + sin zenith·(q·sin A − p·cos A)) / √(1 + p² + q²) clamped at 0 (as hillshade.ts),
- * light = shadowFloor + shadeGain·illumination, colour = tint byte × light capped at 255;
+ * light = shadowFloor + shadeGain·illumination, colour = tint byte × light capped at 255 (the
+ * tint of the elevation's whole metre, as elevation-tint.ts);
  * transparent black where the elevation is NaN. Rows use PNG's "Sub" filter (difference to the
  * pixel on the left), which makes smooth relief compress well at a fast deflate level.
  */
@@ -110,22 +111,7 @@ export function shadeAndTint(elevations, cellSizeM, sun, stops, shadowFloor, sha
   const raw = new Uint8Array((endRow - firstRow) * stride);
   const { cosZenith, sinZenith, cosAzimuth, sinAzimuth, zFactor } = sun;
   const scale = zFactor / (8 * cellSizeM);
-  // The stops split into one array per component, indexed by stop.
-  const stopCount = stops.length >> 2;
-  const stopE = new Float64Array(stopCount);
-  const stopR = new Float64Array(stopCount);
-  const stopG = new Float64Array(stopCount);
-  const stopB = new Float64Array(stopCount);
-  for (let k = 0; k < stopCount; k++) {
-    stopE[k] = stops[4 * k];
-    stopR[k] = stops[4 * k + 1];
-    stopG[k] = stops[4 * k + 2];
-    stopB[k] = stops[4 * k + 3];
-  }
-  const last = stopCount - 1;
-  const lowest = stopE[0];
-  const highest = stopE[last];
-  let segment = 1;
+  const { table: tint, base: tintBase, top: tintTop } = tintTable(stops);
   for (let j = firstRow; j < endRow; j++) {
     let out = (j - firstRow) * stride;
     raw[out++] = 1;
@@ -164,32 +150,12 @@ export function shadeAndTint(elevations, cellSizeM, sun, stops, shadowFloor, sha
         if (!(illumination > 0)) illumination = 0;
         const light = shadowFloor + shadeGain * illumination;
 
-        // Tint: linear between the stops around e, truncated to bytes (as elevation-tint.ts).
-        let tr;
-        let tg;
-        let tb;
-        if (e <= lowest) {
-          tr = stopR[0];
-          tg = stopG[0];
-          tb = stopB[0];
-        } else if (e > highest) {
-          tr = stopR[last];
-          tg = stopG[last];
-          tb = stopB[last];
-        } else {
-          // Neighbouring pixels mostly share a segment: start from the last one.
-          let k = segment;
-          if (!(e > stopE[k - 1] && e <= stopE[k])) {
-            k = 1;
-            while (e > stopE[k]) k++;
-            segment = k;
-          }
-          const l = k - 1;
-          const t = (e - stopE[l]) / (stopE[k] - stopE[l]);
-          tr = (stopR[l] + (stopR[k] - stopR[l]) * t) | 0;
-          tg = (stopG[l] + (stopG[k] - stopG[l]) * t) | 0;
-          tb = (stopB[l] + (stopB[k] - stopB[l]) * t) | 0;
-        }
+        // Tint: the table's entry for e's whole metre (as elevation-tint.ts).
+        const above = e - tintBase;
+        const m = 3 * (above <= 0 ? 0 : above >= tintTop ? tintTop : above | 0);
+        const tr = tint[m];
+        const tg = tint[m + 1];
+        const tb = tint[m + 2];
         const vr = tr * light;
         const vg = tg * light;
         const vb = tb * light;
@@ -214,6 +180,36 @@ export function shadeAndTint(elevations, cellSizeM, sun, stops, shadowFloor, sha
     }
   }
   return raw;
+}
+
+let lastStops = null;
+let lastTable = null;
+
+/**
+ * The tint of every whole metre from the lowest stop to the highest (RGB bytes, linear between the
+ * stops and truncated, exactly as elevation-tint.ts computes them), for the last stops seen: one
+ * lookup per pixel instead of a search and three interpolations.
+ */
+function tintTable(stops) {
+  if (lastStops !== null && lastStops.length === stops.length && lastStops.every((value, k) => value === stops[k])) return lastTable;
+  const count = stops.length >> 2;
+  const base = Math.floor(stops[0]);
+  const top = Math.ceil(stops[4 * (count - 1)]) - base;
+  const table = new Uint8Array((top + 1) * 3);
+  for (let m = 0; m <= top; m++) {
+    const e = base + m;
+    // Stops l and k around e (one stop alone: its colour throughout).
+    let k = Math.min(1, count - 1);
+    while (k < count - 1 && e > stops[4 * k]) k++;
+    const l = Math.max(0, k - 1);
+    let t = k === l ? 0 : (e - stops[4 * l]) / (stops[4 * k] - stops[4 * l]);
+    if (t < 0) t = 0;
+    else if (t > 1) t = 1;
+    for (let c = 1; c <= 3; c++) table[3 * m + c - 1] = stops[4 * l + c] + (stops[4 * k + c] - stops[4 * l + c]) * t;
+  }
+  lastStops = Float64Array.from(stops);
+  lastTable = { table, base, top };
+  return lastTable;
 }
 
 /** Whether every pixel of tile rows [firstRow, endRow) has an elevation (then the PNG needs no alpha channel). */

@@ -58,20 +58,56 @@ export async function renderTerrainTile(
   const groundPxM = ((2 * Math.PI * WEB_MERCATOR_RADIUS_M) / worldPx) * Math.cos(centreLatRad);
 
   const layers: TileLayer[] = [];
+  // A tile is opaque for certain when one model covers all of it without nodata.
+  let opaque = false;
   for (const model of touching) {
-    const layer = await layerFor(blocks, model, x, y, worldPx, groundPxM);
-    if (layer) layers.push(layer);
+    const share = await layerFor(blocks, model, x, y, worldPx, groundPxM);
+    if (!share) continue;
+    layers.push(share.layer);
+    opaque ||= share.complete;
   }
   if (layers.length === 0) return transparentTile();
-  return blocks.renderTile({
+  return blocks.renderTile(
+    {
     layers,
     cellSizeM: groundPxM,
     sun: SUN,
     stops: TINT_STOPS,
     shadowFloor: SHADOW_FLOOR,
     shadeGain: SHADE_GAIN,
-    deflateLevel: DEFLATE_LEVEL,
-  });
+      deflateLevel: DEFLATE_LEVEL,
+    },
+    opaque,
+    opaque ? TILE_SIZE_PX / 2 : balancedSplitRow(layers),
+  );
+}
+
+/**
+ * The tile row that halves the rendering work when the tile is split over two threads: pixels
+ * without data cost next to nothing, so a tile cut by a grid edge splits where the lattice nodes
+ * inside some grid are halved, not in the middle.
+ */
+function balancedSplitRow(layers: readonly TileLayer[]): number {
+  const { nodes, step } = layers[0]!;
+  const perRow = new Array<number>(nodes).fill(0);
+  for (let nj = 0; nj < nodes; nj++) {
+    for (let ni = 0; ni < nodes; ni++) {
+      const n = nj * nodes + ni;
+      const inside = layers.some((layer) => {
+        const col = layer.nodeCols[n]!;
+        const row = layer.nodeRows[n]!;
+        return col >= 0 && row >= 0 && col <= layer.gridWidth && row <= layer.gridHeight;
+      });
+      if (inside) perRow[nj]!++;
+    }
+  }
+  const total = perRow.reduce((sum, count) => sum + count, 0);
+  let seen = 0;
+  for (let nj = 0; nj < nodes; nj++) {
+    seen += perRow[nj]!;
+    if (seen >= total / 2) return Math.min(TILE_SIZE_PX - 16, Math.max(16, nj * step));
+  }
+  return TILE_SIZE_PX / 2;
 }
 
 /** Coarsest pyramid level whose pixels are still no larger than the tile's pixels. */
@@ -86,7 +122,9 @@ function levelFor(model: ReadyTerrain, groundPxM: number): number {
 /**
  * One model's share of the tile: the lattice of the tile's samples in the model's grid (exact
  * reprojection every 16 pixels; the kernel interpolates bilinearly in between) and the window of
- * decoded values they fall on. Null when the tile misses the grid.
+ * decoded values they fall on. `complete` when it gives every pixel a value: the lattice lies
+ * inside the grid (so do the samples, interpolated between its nodes) and the blocks under it
+ * hold no nodata. Null when the tile misses the grid.
  */
 async function layerFor(
   blocks: BlockStore,
@@ -95,7 +133,7 @@ async function layerFor(
   y: number,
   worldPx: number,
   groundPxM: number,
-): Promise<TileLayer | null> {
+): Promise<{ layer: TileLayer; complete: boolean } | null> {
   const projector = projectorFor(model.proj4Definition);
   const nodes = Math.ceil((SAMPLES_PX - 1) / LATTICE_STEP_PX) + 1;
   const modelX = new Float64Array(nodes * nodes);
@@ -148,12 +186,19 @@ async function layerFor(
       level++;
       continue;
     }
-    const window = await gatherWindow(blocks, model, level, x0, y0, width, height);
-    return { window, x0, y0, width, height, gridWidth: grid.widthPx, gridHeight: grid.heightPx, nodeCols, nodeRows, nodes, step: LATTICE_STEP_PX };
+    const { window, hasNoData } = await gatherWindow(blocks, model, level, x0, y0, width, height);
+    const insideGrid = minCol >= 0 && minRow >= 0 && maxCol <= grid.widthPx && maxRow <= grid.heightPx;
+    return {
+      layer: { window, x0, y0, width, height, gridWidth: grid.widthPx, gridHeight: grid.heightPx, nodeCols, nodeRows, nodes, step: LATTICE_STEP_PX },
+      complete: insideGrid && !hasNoData,
+    };
   }
 }
 
-/** Decoded values of grid pixels [x0, x0 + width) × [y0, y0 + height) at a level; NaN off the grid. */
+/**
+ * Decoded values of grid pixels [x0, x0 + width) × [y0, y0 + height) at a level, NaN off the grid,
+ * and whether any block they come from holds nodata.
+ */
 async function gatherWindow(
   blocks: BlockStore,
   model: ReadyTerrain,
@@ -162,7 +207,7 @@ async function gatherWindow(
   y0: number,
   width: number,
   height: number,
-): Promise<Float32Array | Float64Array> {
+): Promise<{ window: Float32Array | Float64Array; hasNoData: boolean }> {
   const grid = blocks.blockGrid(model, level);
   const wide = level === 0 && (model.dataType === 'Int32' || model.dataType === 'Float64');
   const window = (wide ? new Float64Array(width * height) : new Float32Array(width * height)).fill(NaN);
@@ -170,11 +215,13 @@ async function gatherWindow(
   const cy0 = Math.max(0, y0);
   const cx1 = Math.min(grid.widthPx, x0 + width);
   const cy1 = Math.min(grid.heightPx, y0 + height);
-  if (cx1 <= cx0 || cy1 <= cy0) return window;
+  if (cx1 <= cx0 || cy1 <= cy0) return { window, hasNoData: true };
+  let hasNoData = false;
   const fetches: Array<Promise<void>> = [];
   for (let by = Math.floor(cy0 / grid.blockHeight); by * grid.blockHeight < cy1; by++) {
     for (let bx = Math.floor(cx0 / grid.blockWidth); bx * grid.blockWidth < cx1; bx++) {
       const copy = (block: Block) => {
+        hasNoData ||= block.hasNoData;
         const bx0 = bx * grid.blockWidth;
         const by0 = by * grid.blockHeight;
         const c0 = Math.max(cx0, bx0);
@@ -190,7 +237,7 @@ async function gatherWindow(
     }
   }
   await Promise.all(fetches);
-  return window;
+  return { window, hasNoData };
 }
 
 let transparent: Buffer | null = null;
