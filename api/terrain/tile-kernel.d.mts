@@ -42,8 +42,8 @@ export interface TileTask {
   deflateLevel: number;
 }
 
-/** Only sample rows [rowStart, rowEnd) are filled when given. */
-export declare function sampleTileElevations(layers: readonly TileLayer[], rowStart?: number, rowEnd?: number): Float64Array;
+/** Only sample rows [rowStart, rowEnd) are filled when given; `into` (SAMPLES_PX² values) is filled instead of a new array. */
+export declare function sampleTileElevations(layers: readonly TileLayer[], rowStart?: number, rowEnd?: number, into?: Float64Array): Float64Array;
 export declare function shadeAndTint(
   elevations: Float64Array,
   cellSizeM: number,
@@ -54,6 +54,8 @@ export declare function shadeAndTint(
   firstRow?: number,
   endRow?: number,
   opaque?: boolean,
+  /** Written into (a view of its start is returned) instead of a new array. */
+  into?: Uint8Array | null,
 ): Uint8Array;
 /** RGB or RGBA, told apart by the length of the scanlines. */
 export declare function encodePng(scanlines: Uint8Array, width: number, height: number, deflateLevel?: number): Uint8Array;

@@ -18,9 +18,9 @@ export const SAMPLES_PX = TILE_PX + 2;
  * off the grid drops out and the remaining weights are renormalised (the same rule as
  * terrain-grid.ts's bilinearValue).
  */
-export function sampleTileElevations(layers, rowStart = 0, rowEnd = SAMPLES_PX) {
+export function sampleTileElevations(layers, rowStart = 0, rowEnd = SAMPLES_PX, into = new Float64Array(SAMPLES_PX * SAMPLES_PX)) {
   const size = SAMPLES_PX;
-  const out = new Float64Array(size * size).fill(NaN);
+  const out = into.fill(NaN);
   let missing = size * (rowEnd - rowStart);
   const cellOf = new Int32Array(size);
   const fractionOf = new Float64Array(size);
@@ -104,82 +104,121 @@ export function sampleTileElevations(layers, rowStart = 0, rowEnd = SAMPLES_PX) 
  * transparent black where the elevation is NaN. Rows use PNG's "Sub" filter (difference to the
  * pixel on the left), which makes smooth relief compress well at a fast deflate level.
  */
-export function shadeAndTint(elevations, cellSizeM, sun, stops, shadowFloor, shadeGain, firstRow = 0, endRow = TILE_PX, opaque = isOpaque(elevations, firstRow, endRow)) {
-  const size = SAMPLES_PX;
-  const channels = opaque ? 3 : 4;
-  const stride = 1 + TILE_PX * channels;
-  const raw = new Uint8Array((endRow - firstRow) * stride);
-  const { cosZenith, sinZenith, cosAzimuth, sinAzimuth, zFactor } = sun;
-  const scale = zFactor / (8 * cellSizeM);
-  const { table: tint, base: tintBase, top: tintTop } = tintTable(stops);
+export function shadeAndTint(elevations, cellSizeM, sun, stops, shadowFloor, shadeGain, firstRow = 0, endRow = TILE_PX, opaque = isOpaque(elevations, firstRow, endRow), into = null) {
+  const stride = 1 + TILE_PX * (opaque ? 3 : 4);
+  const length = (endRow - firstRow) * stride;
+  const raw = into === null ? new Uint8Array(length) : into.subarray(0, length);
+  const { table, base, top } = tintTable(stops);
+  const shading = {
+    scale: sun.zFactor / (8 * cellSizeM),
+    cosZenith: sun.cosZenith,
+    sinZenith: sun.sinZenith,
+    cosAzimuth: sun.cosAzimuth,
+    sinAzimuth: sun.sinAzimuth,
+    shadowFloor,
+    shadeGain,
+    tint: table,
+    tintBase: base,
+    tintTop: top,
+  };
+  // One call per row: small functions that the JIT compiles whole, rather than one long loop
+  // compiled mid-run.
   for (let j = firstRow; j < endRow; j++) {
-    let out = (j - firstRow) * stride;
-    raw[out++] = 1;
-    let lr = 0;
-    let lg = 0;
-    let lb = 0;
-    let la = 0;
-    const rowStart = (j + 1) * size + 1;
-    const rowEnd = rowStart + TILE_PX;
-    for (let centre = rowStart; centre < rowEnd; centre++) {
-      const e = elevations[centre];
-      let r = 0;
-      let g = 0;
-      let b = 0;
-      let a = 0;
-      if (e === e) {
-        let av = elevations[centre - size - 1];
-        let bv = elevations[centre - size];
-        let cv = elevations[centre - size + 1];
-        let dv = elevations[centre - 1];
-        let fv = elevations[centre + 1];
-        let gv = elevations[centre + size - 1];
-        let hv = elevations[centre + size];
-        let iv = elevations[centre + size + 1];
-        if (av !== av) av = e;
-        if (bv !== bv) bv = e;
-        if (cv !== cv) cv = e;
-        if (dv !== dv) dv = e;
-        if (fv !== fv) fv = e;
-        if (gv !== gv) gv = e;
-        if (hv !== hv) hv = e;
-        if (iv !== iv) iv = e;
-        const p = (cv + 2 * fv + iv - (av + 2 * dv + gv)) * scale;
-        const q = (gv + 2 * hv + iv - (av + 2 * bv + cv)) * scale;
-        let illumination = (cosZenith + sinZenith * (-p * cosAzimuth + q * sinAzimuth)) / Math.sqrt(1 + p * p + q * q);
-        if (!(illumination > 0)) illumination = 0;
-        const light = shadowFloor + shadeGain * illumination;
-
-        // Tint: the table's entry for e's whole metre (as elevation-tint.ts).
-        const above = e - tintBase;
-        const m = 3 * (above <= 0 ? 0 : above >= tintTop ? tintTop : above | 0);
-        const tr = tint[m];
-        const tg = tint[m + 1];
-        const tb = tint[m + 2];
-        const vr = tr * light;
-        const vg = tg * light;
-        const vb = tb * light;
-        r = vr >= 255 ? 255 : vr | 0;
-        g = vg >= 255 ? 255 : vg | 0;
-        b = vb >= 255 ? 255 : vb | 0;
-        a = 255;
-      }
-      raw[out] = r - lr;
-      raw[out + 1] = g - lg;
-      raw[out + 2] = b - lb;
-      if (opaque) {
-        out += 3;
-      } else {
-        raw[out + 3] = a - la;
-        out += 4;
-      }
-      lr = r;
-      lg = g;
-      lb = b;
-      la = a;
-    }
+    const out = (j - firstRow) * stride;
+    raw[out] = 1;
+    if (opaque) shadeRowRgb(elevations, (j + 1) * SAMPLES_PX + 1, raw, out + 1, shading);
+    else shadeRowRgba(elevations, (j + 1) * SAMPLES_PX + 1, raw, out + 1, shading);
   }
   return raw;
+}
+
+/** Horn illumination (0–1) at `centre`; a NaN neighbour takes the centre value e. */
+function illuminationAt(elevations, centre, e, s) {
+  const size = SAMPLES_PX;
+  let av = elevations[centre - size - 1];
+  let bv = elevations[centre - size];
+  let cv = elevations[centre - size + 1];
+  let dv = elevations[centre - 1];
+  let fv = elevations[centre + 1];
+  let gv = elevations[centre + size - 1];
+  let hv = elevations[centre + size];
+  let iv = elevations[centre + size + 1];
+  if (av !== av) av = e;
+  if (bv !== bv) bv = e;
+  if (cv !== cv) cv = e;
+  if (dv !== dv) dv = e;
+  if (fv !== fv) fv = e;
+  if (gv !== gv) gv = e;
+  if (hv !== hv) hv = e;
+  if (iv !== iv) iv = e;
+  const p = (cv + 2 * fv + iv - (av + 2 * dv + gv)) * s.scale;
+  const q = (gv + 2 * hv + iv - (av + 2 * bv + cv)) * s.scale;
+  const illumination = (s.cosZenith + s.sinZenith * (-p * s.cosAzimuth + q * s.sinAzimuth)) / Math.sqrt(1 + p * p + q * q);
+  return illumination > 0 ? illumination : 0;
+}
+
+function shadeRowRgb(elevations, rowStart, raw, out, s) {
+  const { tint, tintBase, tintTop, shadowFloor, shadeGain } = s;
+  let lr = 0;
+  let lg = 0;
+  let lb = 0;
+  const rowEnd = rowStart + TILE_PX;
+  for (let centre = rowStart; centre < rowEnd; centre++) {
+    const e = elevations[centre];
+    const light = shadowFloor + shadeGain * illuminationAt(elevations, centre, e, s);
+    const above = e - tintBase;
+    const m = 3 * (above <= 0 ? 0 : above >= tintTop ? tintTop : above | 0);
+    const vr = tint[m] * light;
+    const vg = tint[m + 1] * light;
+    const vb = tint[m + 2] * light;
+    const r = vr >= 255 ? 255 : vr | 0;
+    const g = vg >= 255 ? 255 : vg | 0;
+    const b = vb >= 255 ? 255 : vb | 0;
+    raw[out] = r - lr;
+    raw[out + 1] = g - lg;
+    raw[out + 2] = b - lb;
+    out += 3;
+    lr = r;
+    lg = g;
+    lb = b;
+  }
+}
+
+function shadeRowRgba(elevations, rowStart, raw, out, s) {
+  const { tint, tintBase, tintTop, shadowFloor, shadeGain } = s;
+  let lr = 0;
+  let lg = 0;
+  let lb = 0;
+  let la = 0;
+  const rowEnd = rowStart + TILE_PX;
+  for (let centre = rowStart; centre < rowEnd; centre++) {
+    const e = elevations[centre];
+    let r = 0;
+    let g = 0;
+    let b = 0;
+    let a = 0;
+    if (e === e) {
+      const light = shadowFloor + shadeGain * illuminationAt(elevations, centre, e, s);
+      const above = e - tintBase;
+      const m = 3 * (above <= 0 ? 0 : above >= tintTop ? tintTop : above | 0);
+      const vr = tint[m] * light;
+      const vg = tint[m + 1] * light;
+      const vb = tint[m + 2] * light;
+      r = vr >= 255 ? 255 : vr | 0;
+      g = vg >= 255 ? 255 : vg | 0;
+      b = vb >= 255 ? 255 : vb | 0;
+      a = 255;
+    }
+    raw[out] = r - lr;
+    raw[out + 1] = g - lg;
+    raw[out + 2] = b - lb;
+    raw[out + 3] = a - la;
+    out += 4;
+    lr = r;
+    lg = g;
+    lb = b;
+    la = a;
+  }
 }
 
 let lastStops = null;
@@ -269,9 +308,10 @@ function pngFromIdat(idat, width, height, channels) {
  */
 export function renderTileRows(task, firstRow, endRow, final, alpha = false) {
   task = uniformTask(task);
-  const elevations = sampleTileElevations(task.layers, firstRow, endRow + 2);
+  const { elevations: scratchElevations, scanlines: scratchScanlines } = scratch();
+  const elevations = sampleTileElevations(task.layers, firstRow, endRow + 2, scratchElevations);
   const opaque = !alpha && isOpaque(elevations, firstRow, endRow);
-  const scanlines = shadeAndTint(elevations, task.cellSizeM, task.sun, task.stops, task.shadowFloor, task.shadeGain, firstRow, endRow, opaque);
+  const scanlines = shadeAndTint(elevations, task.cellSizeM, task.sun, task.stops, task.shadowFloor, task.shadeGain, firstRow, endRow, opaque, scratchScanlines);
   const deflated = deflateRawSync(scanlines, {
     level: task.deflateLevel,
     memLevel: 9,
@@ -368,11 +408,24 @@ function uniformTask(task) {
   };
 }
 
+let scratchArrays = null;
+
+/**
+ * This thread's working arrays for a tile (its elevations and its scanlines), reused from tile to
+ * tile: fresh ones for every tile, three quarters of a megabyte, kept the garbage collector busy
+ * with pauses of several milliseconds. The scanlines are consumed (deflated) before the next tile.
+ */
+function scratch() {
+  scratchArrays ??= { elevations: new Float64Array(SAMPLES_PX * SAMPLES_PX), scanlines: new Uint8Array(TILE_PX * (1 + TILE_PX * 4)) };
+  return scratchArrays;
+}
+
 /** The whole tile: sampling, hillshade and tint, PNG. */
 export function renderTilePng(task) {
   task = uniformTask(task);
-  const elevations = sampleTileElevations(task.layers);
-  const scanlines = shadeAndTint(elevations, task.cellSizeM, task.sun, task.stops, task.shadowFloor, task.shadeGain);
+  const { elevations: scratchElevations, scanlines: scratchScanlines } = scratch();
+  const elevations = sampleTileElevations(task.layers, 0, SAMPLES_PX, scratchElevations);
+  const scanlines = shadeAndTint(elevations, task.cellSizeM, task.sun, task.stops, task.shadowFloor, task.shadeGain, 0, TILE_PX, isOpaque(elevations), scratchScanlines);
   return encodePng(scanlines, TILE_PX, TILE_PX, task.deflateLevel);
 }
 
