@@ -38,8 +38,6 @@ export interface Block {
   values: Float32Array | Float64Array;
   width: number;
   height: number;
-  /** Whether any value is NaN (nodata): a tile drawn only from blocks without it needs no alpha channel. */
-  hasNoData: boolean;
 }
 
 /** Tile size of the reduced pyramid files (raw little-endian Float32, 256 × 256 blocks). */
@@ -160,17 +158,15 @@ export class BlockStore {
   /**
    * Renders one map tile in worker threads (sampling, hillshade, tint, PNG), so the event loop
    * stays free for other requests. When the pool has nothing else to do, the tile's top and
-   * bottom halves are rendered on two threads at once and their deflate streams joined (the
-   * same pixels; the opaque half of a tile half without data is rendered again with alpha). Otherwise the
-   * task's windows are handed over, not copied: the caller must not use them afterwards.
-   * `opaque`, when the caller knows, says whether every pixel has data: the halves then agree on
-   * the alpha channel from the start. `splitRow` is where the halves meet (a tile half without
-   * data splits where the work halves, not in the middle).
+   * bottom parts are rendered on two threads at once and their deflate streams joined (the same
+   * pixels), meeting at `splitRow` (a tile half without data splits where the work halves, not in
+   * the middle). Otherwise the task's windows are handed over, not copied: the caller must not
+   * use them afterwards.
    */
-  async renderTile(task: TileTask, opaque?: boolean, splitRow = TILE_PX / 2): Promise<Buffer> {
+  async renderTile(task: TileTask, splitRow = TILE_PX / 2): Promise<Buffer> {
     const threads = this.poolInstance?.threads.length ?? 0;
     if (this.options.threads >= 2 && threads >= 2 && this.tasksRunning === 0) {
-      const half = Math.min(TILE_PX - 1, Math.max(1, Math.round(splitRow)));
+      const split = Math.min(TILE_PX - 1, Math.max(1, Math.round(splitRow)));
       // Both threads read the same windows: shared memory, copied once rather than once per thread.
       const layers = task.layers.map((layer) => {
         const Values = layer.window instanceof Float64Array ? Float64Array : Float32Array;
@@ -179,22 +175,13 @@ export class BlockStore {
         return { ...layer, window };
       });
       const shared = { ...task, layers };
-      const alpha = opaque === false;
       const rows = [
-        { task: shared, firstRow: 0, endRow: half, final: false, alpha },
-        { task: shared, firstRow: half, endRow: TILE_PX, final: true, alpha },
+        { task: shared, firstRow: 0, endRow: split, final: false },
+        { task: shared, firstRow: split, endRow: TILE_PX, final: true },
       ];
       const parts = (await Promise.all(rows.map((part) => this.runTask(part, { name: 'renderTileRows' })))) as TilePart[];
-      // A tile partly without data needs the alpha channel in every part: the opaque ones again with it.
-      if (parts.some((part) => !part.opaque)) {
-        await Promise.all(
-          rows.map(async (part, k) => {
-            if (parts[k]!.opaque) parts[k] = (await this.runTask({ ...part, alpha: true }, { name: 'renderTileRows' })) as TilePart;
-          }),
-        );
-      }
       const png = pngFromParts(parts);
-      if (png) return Buffer.from(png.buffer, png.byteOffset, png.byteLength);
+      return Buffer.from(png.buffer, png.byteOffset, png.byteLength);
     }
     const transferList = task.layers.map((layer) => layer.window.buffer as ArrayBuffer);
     const png = (await this.runTask(task, { name: 'renderTile', transferList })) as Uint8Array;
@@ -265,7 +252,7 @@ export class BlockStore {
     const x1 = Math.min(x0 + source.blockWidthPx, source.widthPx);
     const y1 = Math.min(y0 + source.blockHeightPx, source.heightPx);
     const values = await this.window(source, [x0, y0, x1, y1]);
-    return { values, width: x1 - x0, height: y1 - y0, hasNoData: hasNaN(values, x1 - x0) };
+    return { values, width: x1 - x0, height: y1 - y0 };
   }
 }
 
@@ -282,18 +269,7 @@ async function readOverviewBlock(handle: FileHandle, source: TerrainSource, leve
   const buffer = Buffer.allocUnsafeSlow(blockBytes);
   await handle.read(buffer, 0, blockBytes, (blockY * across + blockX) * blockBytes);
   const values = new Float32Array(buffer.buffer, buffer.byteOffset, OVERVIEW_BLOCK_PX * OVERVIEW_BLOCK_PX);
-  // The padding beyond the overview's edge is NaN by construction: only the part inside counts.
-  const inside = [Math.min(OVERVIEW_BLOCK_PX, overview.widthPx - blockX * OVERVIEW_BLOCK_PX), Math.min(OVERVIEW_BLOCK_PX, overview.heightPx - blockY * OVERVIEW_BLOCK_PX)] as const;
-  return { values, width: OVERVIEW_BLOCK_PX, height: OVERVIEW_BLOCK_PX, hasNoData: hasNaN(values, OVERVIEW_BLOCK_PX, ...inside) };
-}
-
-/** Whether the first `columns` × `rows` values of a row-major block `width` wide hold a NaN. */
-function hasNaN(values: Float32Array | Float64Array, width: number, columns = width, rows = values.length / width): boolean {
-  for (let r = 0; r < rows; r++) {
-    const end = r * width + columns;
-    for (let k = r * width; k < end; k++) if (values[k] !== values[k]) return true;
-  }
-  return false;
+  return { values, width: OVERVIEW_BLOCK_PX, height: OVERVIEW_BLOCK_PX };
 }
 
 /**

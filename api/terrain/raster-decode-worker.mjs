@@ -8,7 +8,7 @@
 // ArrayBuffer `into` when it is large enough.
 //
 // renderTile task: a TileTask (tile-kernel.d.mts); result: the PNG bytes (Uint8Array).
-// renderTileRows task: { task, firstRow, endRow, final, alpha }; result: a TilePart (tile-kernel.d.mts).
+// renderTileRows task: { task, firstRow, endRow, final }; result: a TilePart (tile-kernel.d.mts).
 import { closeSync, openSync, readSync } from 'node:fs';
 import { inflateSync } from 'node:zlib';
 import Piscina from 'piscina';
@@ -187,9 +187,9 @@ export function renderTile(task) {
   return Piscina.move(renderTilePng(task));
 }
 
-/** Some rows of a map tile (a tile split over threads): { task, firstRow, endRow, final, alpha }. */
-export function renderTileRows({ task, firstRow, endRow, final, alpha }) {
-  return renderTileRowsOf(task, firstRow, endRow, final, alpha);
+/** Some rows of a map tile (a tile split over threads): { task, firstRow, endRow, final }. */
+export function renderTileRows({ task, firstRow, endRow, final }) {
+  return renderTileRowsOf(task, firstRow, endRow, final);
 }
 
 /** Drops cached file handles (after a model is deleted and its file removed). */

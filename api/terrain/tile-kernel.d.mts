@@ -53,11 +53,10 @@ export declare function shadeAndTint(
   shadeGain: number,
   firstRow?: number,
   endRow?: number,
-  opaque?: boolean,
   /** Written into (a view of its start is returned) instead of a new array. */
   into?: Uint8Array | null,
 ): Uint8Array;
-/** RGB or RGBA, told apart by the length of the scanlines. */
+/** RGB with black transparent (tRNS). */
 export declare function encodePng(scanlines: Uint8Array, width: number, height: number, deflateLevel?: number): Uint8Array;
 export declare function renderTilePng(task: TileTask): Uint8Array;
 /** Rows [firstRow, endRow) of a tile, deflated to join the other parts' (see renderTileRows in tile-kernel.mjs). */
@@ -65,11 +64,9 @@ export interface TilePart {
   data: Uint8Array;
   adler: number;
   length: number;
-  opaque: boolean;
 }
-export declare function renderTileRows(task: TileTask, firstRow: number, endRow: number, final: boolean, alpha?: boolean): TilePart;
-/** The tile's PNG from its parts in order; null when they disagree on the alpha channel. */
-export declare function pngFromParts(parts: readonly TilePart[]): Uint8Array | null;
-export declare function isOpaque(elevations: Float64Array, firstRow?: number, endRow?: number): boolean;
+export declare function renderTileRows(task: TileTask, firstRow: number, endRow: number, final: boolean): TilePart;
+/** The tile's PNG from its parts in order. */
+export declare function pngFromParts(parts: readonly TilePart[]): Uint8Array;
 /** Compiles the kernel ahead of real tiles (a worker thread calls it when it starts). */
 export declare function warmUpKernel(rounds?: number): void;

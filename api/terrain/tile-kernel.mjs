@@ -11,6 +11,8 @@ import { constants, crc32, deflateRawSync, deflateSync } from 'node:zlib';
 export const TILE_PX = 256;
 /** Samples per side: the tile's pixels plus a one-pixel border for the 3 × 3 Horn window. */
 export const SAMPLES_PX = TILE_PX + 2;
+/** Bytes per PNG scanline: the filter byte and RGB per pixel. */
+const TILE_STRIDE = 1 + TILE_PX * 3;
 
 /**
  * Elevations at the centres of the SAMPLES_PX² sample points, row-major, NaN where no layer has
@@ -95,18 +97,19 @@ export function sampleTileElevations(layers, rowStart = 0, rowEnd = SAMPLES_PX, 
 }
 
 /**
- * PNG scanlines (filter byte + RGB per row, RGBA when part of the tile has no data) of the
- * shaded, tinted tile (or of its rows [firstRow, endRow)). Per pixel:
- * Horn gradient over the 3 × 3 window (a NaN neighbour takes the centre value), illumination
- * = (cos zenith + sin zenith·(q·sin A − p·cos A)) / √(1 + p² + q²) clamped at 0 (as hillshade.ts),
- * light = shadowFloor + shadeGain·illumination, colour = tint byte × light capped at 255 (the
- * tint of the elevation's whole metre, as elevation-tint.ts);
- * transparent black where the elevation is NaN. Rows use PNG's "Sub" filter (difference to the
- * pixel on the left), which makes smooth relief compress well at a fast deflate level.
+ * PNG scanlines (filter byte + RGB per row) of the shaded, tinted tile (or of its rows
+ * [firstRow, endRow)), written into `into` when given. Per pixel: Horn gradient over the 3 × 3
+ * window (a NaN neighbour takes the centre value), illumination = (cos zenith + sin zenith·
+ * (q·sin A − p·cos A)) / √(1 + p² + q²) clamped at 0 (as hillshade.ts), light = shadowFloor +
+ * shadeGain·illumination, colour = tint byte × light capped at 255 (the tint of the elevation's
+ * whole metre, as elevation-tint.ts). Where the elevation is NaN the pixel is black, the PNG's
+ * transparent colour (tRNS); a shaded pixel that would come out black is written (0, 0, 1)
+ * instead. Every tile is thus RGB, with or without gaps, a quarter less to shade and deflate than
+ * RGBA. Rows use PNG's "Sub" filter (difference to the pixel on the left), which makes smooth
+ * relief compress well at a fast deflate level.
  */
-export function shadeAndTint(elevations, cellSizeM, sun, stops, shadowFloor, shadeGain, firstRow = 0, endRow = TILE_PX, opaque = isOpaque(elevations, firstRow, endRow), into = null) {
-  const stride = 1 + TILE_PX * (opaque ? 3 : 4);
-  const length = (endRow - firstRow) * stride;
+export function shadeAndTint(elevations, cellSizeM, sun, stops, shadowFloor, shadeGain, firstRow = 0, endRow = TILE_PX, into = null) {
+  const length = (endRow - firstRow) * TILE_STRIDE;
   const raw = into === null ? new Uint8Array(length) : into.subarray(0, length);
   const { table, base, top } = tintTable(stops);
   const shading = {
@@ -121,13 +124,12 @@ export function shadeAndTint(elevations, cellSizeM, sun, stops, shadowFloor, sha
     tintBase: base,
     tintTop: top,
   };
-  // One call per row: small functions that the JIT compiles whole, rather than one long loop
+  // One call per row: a small function that the JIT compiles whole, rather than one long loop
   // compiled mid-run.
   for (let j = firstRow; j < endRow; j++) {
-    const out = (j - firstRow) * stride;
+    const out = (j - firstRow) * TILE_STRIDE;
     raw[out] = 1;
-    if (opaque) shadeRowRgb(elevations, (j + 1) * SAMPLES_PX + 1, raw, out + 1, shading);
-    else shadeRowRgba(elevations, (j + 1) * SAMPLES_PX + 1, raw, out + 1, shading);
+    shadeRow(elevations, (j + 1) * SAMPLES_PX + 1, raw, out + 1, shading);
   }
   return raw;
 }
@@ -157,46 +159,17 @@ function illuminationAt(elevations, centre, e, s) {
   return illumination > 0 ? illumination : 0;
 }
 
-function shadeRowRgb(elevations, rowStart, raw, out, s) {
+function shadeRow(elevations, rowStart, raw, out, s) {
   const { tint, tintBase, tintTop, shadowFloor, shadeGain } = s;
   let lr = 0;
   let lg = 0;
   let lb = 0;
-  const rowEnd = rowStart + TILE_PX;
-  for (let centre = rowStart; centre < rowEnd; centre++) {
-    const e = elevations[centre];
-    const light = shadowFloor + shadeGain * illuminationAt(elevations, centre, e, s);
-    const above = e - tintBase;
-    const m = 3 * (above <= 0 ? 0 : above >= tintTop ? tintTop : above | 0);
-    const vr = tint[m] * light;
-    const vg = tint[m + 1] * light;
-    const vb = tint[m + 2] * light;
-    const r = vr >= 255 ? 255 : vr | 0;
-    const g = vg >= 255 ? 255 : vg | 0;
-    const b = vb >= 255 ? 255 : vb | 0;
-    raw[out] = r - lr;
-    raw[out + 1] = g - lg;
-    raw[out + 2] = b - lb;
-    out += 3;
-    lr = r;
-    lg = g;
-    lb = b;
-  }
-}
-
-function shadeRowRgba(elevations, rowStart, raw, out, s) {
-  const { tint, tintBase, tintTop, shadowFloor, shadeGain } = s;
-  let lr = 0;
-  let lg = 0;
-  let lb = 0;
-  let la = 0;
   const rowEnd = rowStart + TILE_PX;
   for (let centre = rowStart; centre < rowEnd; centre++) {
     const e = elevations[centre];
     let r = 0;
     let g = 0;
     let b = 0;
-    let a = 0;
     if (e === e) {
       const light = shadowFloor + shadeGain * illuminationAt(elevations, centre, e, s);
       const above = e - tintBase;
@@ -207,17 +180,16 @@ function shadeRowRgba(elevations, rowStart, raw, out, s) {
       r = vr >= 255 ? 255 : vr | 0;
       g = vg >= 255 ? 255 : vg | 0;
       b = vb >= 255 ? 255 : vb | 0;
-      a = 255;
+      // Black is the transparent colour: a shaded pixel never takes it.
+      if ((r | g | b) === 0) b = 1;
     }
     raw[out] = r - lr;
     raw[out + 1] = g - lg;
     raw[out + 2] = b - lb;
-    raw[out + 3] = a - la;
-    out += 4;
+    out += 3;
     lr = r;
     lg = g;
     lb = b;
-    la = a;
   }
 }
 
@@ -251,29 +223,18 @@ function tintTable(stops) {
   return lastTable;
 }
 
-/** Whether every pixel of tile rows [firstRow, endRow) has an elevation (then the PNG needs no alpha channel). */
-export function isOpaque(elevations, firstRow = 0, endRow = TILE_PX) {
-  for (let j = firstRow + 1; j <= endRow; j++) {
-    const end = j * SAMPLES_PX + TILE_PX;
-    for (let k = j * SAMPLES_PX + 1; k <= end; k++) if (elevations[k] !== elevations[k]) return false;
-  }
-  return true;
-}
-
 const PNG_SIGNATURE = [0x89, 0x50, 0x4e, 0x47, 0x0d, 0x0a, 0x1a, 0x0a];
 
 /**
- * An RGB or RGBA PNG (8 bits per channel, told apart by the scanlines' length) from ready
- * scanlines: signature, IHDR, one IDAT, IEND. The result owns its whole ArrayBuffer, so a worker
- * can hand it over without a copy.
+ * An RGB PNG (8 bits per channel) from ready scanlines, black transparent: signature, IHDR, tRNS,
+ * one IDAT, IEND. The result owns its whole ArrayBuffer, so a worker can hand it over without a copy.
  */
 export function encodePng(scanlines, width, height, deflateLevel = 1) {
-  const channels = (scanlines.length / height - 1) / width;
-  return pngFromIdat(deflateSync(scanlines, { level: deflateLevel, memLevel: 9 }), width, height, channels);
+  return pngFromIdat(deflateSync(scanlines, { level: deflateLevel, memLevel: 9 }), width, height);
 }
 
-function pngFromIdat(idat, width, height, channels) {
-  const total = PNG_SIGNATURE.length + (12 + 13) + (12 + idat.length) + 12;
+function pngFromIdat(idat, width, height) {
+  const total = PNG_SIGNATURE.length + (12 + 13) + (12 + 6) + (12 + idat.length) + 12;
   const png = new Uint8Array(total);
   const view = new DataView(png.buffer);
   png.set(PNG_SIGNATURE, 0);
@@ -289,11 +250,13 @@ function pngFromIdat(idat, width, height, channels) {
     view.setUint32(at, width);
     view.setUint32(at + 4, height);
     png[at + 8] = 8; // bit depth
-    png[at + 9] = channels === 4 ? 6 : 2; // colour type: RGBA or RGB
+    png[at + 9] = 2; // colour type: RGB
     png[at + 10] = 0; // deflate
     png[at + 11] = 0; // adaptive filtering (per-row filter bytes)
     png[at + 12] = 0; // no interlace
   });
+  // The transparent colour, black (16-bit samples, as tRNS stores them for RGB): zero already.
+  chunk('tRNS', 6, () => undefined);
   chunk('IDAT', idat.length, (at) => png.set(idat, at));
   chunk('IEND', 0, () => undefined);
   return png;
@@ -302,32 +265,24 @@ function pngFromIdat(idat, width, height, channels) {
 /**
  * Tile rows [firstRow, endRow) on their own, for rendering a tile's parts on several threads:
  * their scanlines as raw deflate data (ending on a byte boundary, not final unless `final`, so
- * the parts concatenate into one stream), the scanlines' Adler-32 and length, and whether the
- * rows are all opaque (the parts fit together only when they agree; `alpha` asks for the alpha
- * channel regardless).
+ * the parts concatenate into one stream), and the scanlines' Adler-32 and length.
  */
-export function renderTileRows(task, firstRow, endRow, final, alpha = false) {
+export function renderTileRows(task, firstRow, endRow, final) {
   task = uniformTask(task);
   const { elevations: scratchElevations, scanlines: scratchScanlines } = scratch();
   const elevations = sampleTileElevations(task.layers, firstRow, endRow + 2, scratchElevations);
-  const opaque = !alpha && isOpaque(elevations, firstRow, endRow);
-  const scanlines = shadeAndTint(elevations, task.cellSizeM, task.sun, task.stops, task.shadowFloor, task.shadeGain, firstRow, endRow, opaque, scratchScanlines);
+  const scanlines = shadeAndTint(elevations, task.cellSizeM, task.sun, task.stops, task.shadowFloor, task.shadeGain, firstRow, endRow, scratchScanlines);
   const deflated = deflateRawSync(scanlines, {
     level: task.deflateLevel,
     memLevel: 9,
     finishFlush: final ? constants.Z_FINISH : constants.Z_SYNC_FLUSH,
   });
   const data = new Uint8Array(deflated.buffer, deflated.byteOffset, deflated.byteLength);
-  return { data, adler: adler32(scanlines), length: scanlines.length, opaque };
+  return { data, adler: adler32(scanlines), length: scanlines.length };
 }
 
-/**
- * The PNG of a whole tile from its row parts in order (renderTileRows, the last one final); null
- * when the parts disagree on the alpha channel (the caller then renders the opaque ones again with it).
- */
+/** The PNG of a whole tile from its row parts in order (renderTileRows, the last one final). */
 export function pngFromParts(parts) {
-  const opaque = parts[0].opaque;
-  if (parts.some((part) => part.opaque !== opaque)) return null;
   let size = 2 + 4;
   for (const part of parts) size += part.data.length;
   const idat = new Uint8Array(size);
@@ -341,7 +296,7 @@ export function pngFromParts(parts) {
     adler = adler32Combine(adler, part.adler, part.length);
   }
   new DataView(idat.buffer).setUint32(offset, adler);
-  return pngFromIdat(idat, TILE_PX, TILE_PX, opaque ? 3 : 4);
+  return pngFromIdat(idat, TILE_PX, TILE_PX);
 }
 
 const ADLER_BASE = 65521;
@@ -416,7 +371,7 @@ let scratchArrays = null;
  * with pauses of several milliseconds. The scanlines are consumed (deflated) before the next tile.
  */
 function scratch() {
-  scratchArrays ??= { elevations: new Float64Array(SAMPLES_PX * SAMPLES_PX), scanlines: new Uint8Array(TILE_PX * (1 + TILE_PX * 4)) };
+  scratchArrays ??= { elevations: new Float64Array(SAMPLES_PX * SAMPLES_PX), scanlines: new Uint8Array(TILE_PX * TILE_STRIDE) };
   return scratchArrays;
 }
 
@@ -425,7 +380,7 @@ export function renderTilePng(task) {
   task = uniformTask(task);
   const { elevations: scratchElevations, scanlines: scratchScanlines } = scratch();
   const elevations = sampleTileElevations(task.layers, 0, SAMPLES_PX, scratchElevations);
-  const scanlines = shadeAndTint(elevations, task.cellSizeM, task.sun, task.stops, task.shadowFloor, task.shadeGain, 0, TILE_PX, isOpaque(elevations), scratchScanlines);
+  const scanlines = shadeAndTint(elevations, task.cellSizeM, task.sun, task.stops, task.shadowFloor, task.shadeGain, 0, TILE_PX, scratchScanlines);
   return encodePng(scanlines, TILE_PX, TILE_PX, task.deflateLevel);
 }
 
@@ -466,6 +421,6 @@ export function warmUpKernel(rounds = 12) {
     renderTilePng(task);
     // A tile split over two threads: both halves, reading shared memory as the pool's threads do.
     const split = { ...task, layers: [{ ...layer, window: partial ? sharedHoled : sharedWindow }] };
-    pngFromParts([renderTileRows(split, 0, TILE_PX / 2, false, partial), renderTileRows(split, TILE_PX / 2, TILE_PX, true, partial)]);
+    pngFromParts([renderTileRows(split, 0, TILE_PX / 2, false), renderTileRows(split, TILE_PX / 2, TILE_PX, true)]);
   }
 }

@@ -58,13 +58,9 @@ export async function renderTerrainTile(
   const groundPxM = ((2 * Math.PI * WEB_MERCATOR_RADIUS_M) / worldPx) * Math.cos(centreLatRad);
 
   const layers: TileLayer[] = [];
-  // A tile is opaque for certain when one model covers all of it without nodata.
-  let opaque = false;
   for (const model of touching) {
-    const share = await layerFor(blocks, model, x, y, worldPx, groundPxM);
-    if (!share) continue;
-    layers.push(share.layer);
-    opaque ||= share.complete;
+    const layer = await layerFor(blocks, model, x, y, worldPx, groundPxM);
+    if (layer) layers.push(layer);
   }
   if (layers.length === 0) return transparentTile();
   return blocks.renderTile(
@@ -77,8 +73,7 @@ export async function renderTerrainTile(
     shadeGain: SHADE_GAIN,
       deflateLevel: DEFLATE_LEVEL,
     },
-    opaque,
-    opaque ? TILE_SIZE_PX / 2 : balancedSplitRow(layers),
+    balancedSplitRow(layers),
   );
 }
 
@@ -122,9 +117,7 @@ function levelFor(model: ReadyTerrain, groundPxM: number): number {
 /**
  * One model's share of the tile: the lattice of the tile's samples in the model's grid (exact
  * reprojection every 16 pixels; the kernel interpolates bilinearly in between) and the window of
- * decoded values they fall on. `complete` when it gives every pixel a value: the lattice lies
- * inside the grid (so do the samples, interpolated between its nodes) and the blocks under it
- * hold no nodata. Null when the tile misses the grid.
+ * decoded values they fall on. Null when the tile misses the grid.
  */
 async function layerFor(
   blocks: BlockStore,
@@ -133,7 +126,7 @@ async function layerFor(
   y: number,
   worldPx: number,
   groundPxM: number,
-): Promise<{ layer: TileLayer; complete: boolean } | null> {
+): Promise<TileLayer | null> {
   const projector = projectorFor(model.proj4Definition);
   const nodes = Math.ceil((SAMPLES_PX - 1) / LATTICE_STEP_PX) + 1;
   const modelX = new Float64Array(nodes * nodes);
@@ -186,19 +179,12 @@ async function layerFor(
       level++;
       continue;
     }
-    const { window, hasNoData } = await gatherWindow(blocks, model, level, x0, y0, width, height);
-    const insideGrid = minCol >= 0 && minRow >= 0 && maxCol <= grid.widthPx && maxRow <= grid.heightPx;
-    return {
-      layer: { window, x0, y0, width, height, gridWidth: grid.widthPx, gridHeight: grid.heightPx, nodeCols, nodeRows, nodes, step: LATTICE_STEP_PX },
-      complete: insideGrid && !hasNoData,
-    };
+    const window = await gatherWindow(blocks, model, level, x0, y0, width, height);
+    return { window, x0, y0, width, height, gridWidth: grid.widthPx, gridHeight: grid.heightPx, nodeCols, nodeRows, nodes, step: LATTICE_STEP_PX };
   }
 }
 
-/**
- * Decoded values of grid pixels [x0, x0 + width) × [y0, y0 + height) at a level, NaN off the grid,
- * and whether any block they come from holds nodata.
- */
+/** Decoded values of grid pixels [x0, x0 + width) × [y0, y0 + height) at a level; NaN off the grid. */
 async function gatherWindow(
   blocks: BlockStore,
   model: ReadyTerrain,
@@ -207,7 +193,7 @@ async function gatherWindow(
   y0: number,
   width: number,
   height: number,
-): Promise<{ window: Float32Array | Float64Array; hasNoData: boolean }> {
+): Promise<Float32Array | Float64Array> {
   const grid = blocks.blockGrid(model, level);
   const wide = level === 0 && (model.dataType === 'Int32' || model.dataType === 'Float64');
   const window = (wide ? new Float64Array(width * height) : new Float32Array(width * height)).fill(NaN);
@@ -215,13 +201,11 @@ async function gatherWindow(
   const cy0 = Math.max(0, y0);
   const cx1 = Math.min(grid.widthPx, x0 + width);
   const cy1 = Math.min(grid.heightPx, y0 + height);
-  if (cx1 <= cx0 || cy1 <= cy0) return { window, hasNoData: true };
-  let hasNoData = false;
+  if (cx1 <= cx0 || cy1 <= cy0) return window;
   const fetches: Array<Promise<void>> = [];
   for (let by = Math.floor(cy0 / grid.blockHeight); by * grid.blockHeight < cy1; by++) {
     for (let bx = Math.floor(cx0 / grid.blockWidth); bx * grid.blockWidth < cx1; bx++) {
       const copy = (block: Block) => {
-        hasNoData ||= block.hasNoData;
         const bx0 = bx * grid.blockWidth;
         const by0 = by * grid.blockHeight;
         const c0 = Math.max(cx0, bx0);
@@ -237,7 +221,7 @@ async function gatherWindow(
     }
   }
   await Promise.all(fetches);
-  return { window, hasNoData };
+  return window;
 }
 
 let transparent: Buffer | null = null;
