@@ -5,7 +5,7 @@ import { fileURLToPath } from 'node:url';
 import { LRUCache } from 'lru-cache';
 import { Piscina } from 'piscina';
 import type { TerrainOverviewLevel } from '../db/schema/terrain';
-import { pngFromParts, TILE_PX, type TilePart, type TileTask } from './tile-kernel.mjs';
+import { pngFromParts, renderTileRows, TILE_PX, warmUpKernel, type TilePart, type TileTask } from './tile-kernel.mjs';
 
 /** A ready terrain model as sampling and rendering see it. */
 export interface TerrainSource {
@@ -156,31 +156,35 @@ export class BlockStore {
   }
 
   /**
-   * Renders one map tile in worker threads (sampling, hillshade, tint, PNG), so the event loop
-   * stays free for other requests. When the pool has nothing else to do, the tile's top and
-   * bottom parts are rendered on two threads at once and their deflate streams joined (the same
-   * pixels), meeting at `splitRow` (a tile half without data splits where the work halves, not in
-   * the middle). Otherwise the task's windows are handed over, not copied: the caller must not
-   * use them afterwards.
+   * Renders one map tile (sampling, hillshade, tint, PNG) in the worker threads, so the event loop
+   * stays free for other requests. When the pool has nothing else to do, the tile is split in
+   * two at `splitRow` (where the work halves: a tile half without data splits off centre): a
+   * worker renders the top part while this thread renders the bottom one, and their deflate
+   * streams are joined (the same pixels). With two cores that keeps both busy; handing the second
+   * part to a second worker instead waits for this thread to go idle before that worker can run,
+   * and the event loop is held for one part of one tile only when no other terrain work is
+   * waiting. Otherwise the task's windows are handed over, not copied: the caller must not use
+   * them afterwards.
    */
   async renderTile(task: TileTask, splitRow = TILE_PX / 2): Promise<Buffer> {
-    const threads = this.poolInstance?.threads.length ?? 0;
-    if (this.options.threads >= 2 && threads >= 2 && this.tasksRunning === 0) {
+    if (this.options.threads >= 2 && this.tasksRunning === 0) {
       const split = Math.min(TILE_PX - 1, Math.max(1, Math.round(splitRow)));
-      // Both threads read the same windows: shared memory, copied once rather than once per thread.
+      // The worker reads the windows from shared memory: copied once, not serialised.
       const layers = task.layers.map((layer) => {
         const Values = layer.window instanceof Float64Array ? Float64Array : Float32Array;
         const window = new Values(new SharedArrayBuffer(layer.window.byteLength) as unknown as ArrayBuffer);
         window.set(layer.window);
         return { ...layer, window };
       });
-      const shared = { ...task, layers };
-      const rows = [
-        { task: shared, firstRow: 0, endRow: split, final: false },
-        { task: shared, firstRow: split, endRow: TILE_PX, final: true },
-      ];
-      const parts = (await Promise.all(rows.map((part) => this.runTask(part, { name: 'renderTileRows' })))) as TilePart[];
-      const png = pngFromParts(parts);
+      const top = this.runTask({ task: { ...task, layers }, firstRow: 0, endRow: split, final: false }, { name: 'renderTileRows' }) as Promise<TilePart>;
+      let bottom: TilePart;
+      try {
+        bottom = renderTileRows(task, split, TILE_PX, true);
+      } finally {
+        // The worker's part settles either way (no unhandled rejection when this one throws).
+        void top.catch(() => undefined);
+      }
+      const png = pngFromParts([await top, bottom]);
       return Buffer.from(png.buffer, png.byteOffset, png.byteLength);
     }
     const transferList = task.layers.map((layer) => layer.window.buffer as ArrayBuffer);
@@ -197,10 +201,14 @@ export class BlockStore {
     }
   }
 
-  /** Starts the worker threads now rather than on first use (the benchmark times work, not start-up). */
+  /**
+   * Starts the worker threads now rather than on first use, and compiles this thread's share of
+   * the tile kernel (the benchmark times work, not start-up).
+   */
   async startThreads(): Promise<void> {
     const pool = this.pool;
     await Promise.all(Array.from({ length: this.options.threads }, () => pool.run({ path: '' }, { name: 'forget' })));
+    warmUpKernel();
   }
 
   /** Overview files stay open between reads (a few, least recently used first out). */

@@ -223,6 +223,12 @@ function tintTable(stops) {
   return lastTable;
 }
 
+/**
+ * Deflate looks only for runs (matches one pixel back) in the Sub-filtered rows: as fast as the
+ * fastest level or faster, and a tenth smaller on smooth relief.
+ */
+const DEFLATE_STRATEGY = constants.Z_RLE;
+
 const PNG_SIGNATURE = [0x89, 0x50, 0x4e, 0x47, 0x0d, 0x0a, 0x1a, 0x0a];
 
 /**
@@ -230,7 +236,7 @@ const PNG_SIGNATURE = [0x89, 0x50, 0x4e, 0x47, 0x0d, 0x0a, 0x1a, 0x0a];
  * one IDAT, IEND. The result owns its whole ArrayBuffer, so a worker can hand it over without a copy.
  */
 export function encodePng(scanlines, width, height, deflateLevel = 1) {
-  return pngFromIdat(deflateSync(scanlines, { level: deflateLevel, memLevel: 9 }), width, height);
+  return pngFromIdat(deflateSync(scanlines, { level: deflateLevel, memLevel: 9, strategy: DEFLATE_STRATEGY }), width, height);
 }
 
 function pngFromIdat(idat, width, height) {
@@ -275,6 +281,7 @@ export function renderTileRows(task, firstRow, endRow, final) {
   const deflated = deflateRawSync(scanlines, {
     level: task.deflateLevel,
     memLevel: 9,
+    strategy: DEFLATE_STRATEGY,
     finishFlush: final ? constants.Z_FINISH : constants.Z_SYNC_FLUSH,
   });
   const data = new Uint8Array(deflated.buffer, deflated.byteOffset, deflated.byteLength);
