@@ -121,6 +121,7 @@ async function benchTiles(): Promise<void> {
   // cached (block cache emptied, worker file handles and overview files closed, tile cache
   // empty). Medians over the runs.
   const zooms = [10, 14] as const;
+  const stealStart = cpuTimes();
   const gdalRuns: number[] = [];
   const runs = new Map(zooms.map((zoom) => [zoom, { cold: [] as number[], warm: [] as number[], fromCache: [] as number[] }]));
   const hillshadeOut = join(BENCH_DIR, 'gdaldem-hillshade.tif');
@@ -139,15 +140,15 @@ async function benchTiles(): Promise<void> {
       const cache = new TileCache(cacheDir);
       await renderStore.forget(source);
       // As the server does: each tile is written to the disk cache after it is served, while the
-      // next one renders; the cold time ends when every write has finished.
+      // next one renders (so the writes' work counts); the cold time ends with the last tile served.
       const coldStart = performance.now();
       const writes: Array<Promise<void>> = [];
       for (const [x, y] of tiles) {
         const png = await renderTerrainTile(renderStore, [source], zoom, x, y);
         if (png) writes.push(cache.write('bench', zoom, x, y, png));
       }
-      await Promise.all(writes);
       const coldMs = performance.now() - coldStart;
+      await Promise.all(writes);
       // The same tiles again with their blocks decoded and cached (the tile cache not consulted).
       const warmStart = performance.now();
       for (const [x, y] of tiles) await renderTerrainTile(renderStore, [source], zoom, x, y);
@@ -163,6 +164,7 @@ async function benchTiles(): Promise<void> {
     }
   }
   await renderStore.close();
+  results.push(`CPU time taken by the host from this machine (steal) during the tile runs: ${stealShare(stealStart, cpuTimes())}`);
   const gdalNsPerPx = median(gdalRuns);
   for (const zoom of zooms) {
     const count = tileCount(zoom);
@@ -183,6 +185,18 @@ async function benchTiles(): Promise<void> {
 
 function tileCount(zoom: number): number {
   return zoom === 10 ? 16 : 48;
+}
+
+/** Linux's CPU time counters (all CPUs): total and steal (time the hypervisor gave to others). */
+function cpuTimes(): { total: number; steal: number } {
+  if (!existsSync('/proc/stat')) return { total: 0, steal: 0 };
+  const fields = readFileSync('/proc/stat', 'utf8').split('\n')[0]!.trim().split(/\s+/).slice(1).map(Number);
+  return { total: fields.slice(0, 8).reduce((sum, value) => sum + value, 0), steal: fields[7] ?? 0 };
+}
+
+function stealShare(start: { total: number; steal: number }, end: { total: number; steal: number }): string {
+  const total = end.total - start.total;
+  return total > 0 ? `${(((end.steal - start.steal) / total) * 100).toFixed(0)} %` : 'not measured';
 }
 
 function median(values: number[]): number {

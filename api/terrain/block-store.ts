@@ -1,10 +1,11 @@
-import { existsSync } from 'node:fs';
+import { existsSync, readSync } from 'node:fs';
 import { open, type FileHandle } from 'node:fs/promises';
 import { join } from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { LRUCache } from 'lru-cache';
 import { Piscina } from 'piscina';
 import type { TerrainOverviewLevel } from '../db/schema/terrain';
+import { decodeWindow, forgetFile, type DecodeWindowTask } from './raster-decode.mjs';
 import { pngFromParts, renderTileRows, TILE_PX, warmUpKernel, type TilePart, type TileTask } from './tile-kernel.mjs';
 
 /** A ready terrain model as sampling and rendering see it. */
@@ -117,16 +118,41 @@ export class BlockStore {
   }
 
   async block(source: TerrainSource, level: number, blockX: number, blockY: number): Promise<Block> {
+    return this.load(source, level, blockX, blockY, () =>
+      level === 0
+        ? this.decodeGeoTiffBlock(source, blockX, blockY, (window) => this.window(source, window))
+        : this.overviewFile(source, level).then((handle) => readOverviewBlock(handle, source, level, blockX, blockY)),
+    );
+  }
+
+  /** Whether no terrain work of this store is running or queued in the pool. */
+  get idle(): boolean {
+    return this.tasksRunning === 0;
+  }
+
+  /**
+   * The block, loaded on this thread when not cached: a GeoTIFF block decoded here rather than
+   * in a worker, an overview block read with one synchronous read of the file (a quarter of a
+   * megabyte, normally from the page cache). For a map tile while the pool is idle: as in
+   * renderTile, this thread takes a share of the tile's work, where handing it over and back
+   * (to a worker or to libuv's threads) costs the tile half a millisecond or more.
+   */
+  async blockHere(source: TerrainSource, level: number, blockX: number, blockY: number): Promise<Block> {
+    return this.load(source, level, blockX, blockY, () =>
+      level === 0
+        ? this.decodeGeoTiffBlock(source, blockX, blockY, (window) => decodeWindow(decodeTask(source, window)))
+        : this.overviewFile(source, level).then((handle) => readOverviewBlockSync(handle.fd, source, level, blockX, blockY)),
+    );
+  }
+
+  /** The cached block, or the one being loaded, or a new load (cached once done). */
+  private load(source: TerrainSource, level: number, blockX: number, blockY: number, loader: () => Promise<Block>): Promise<Block> {
     const key = blockKey(source, level, blockX, blockY);
     const cached = this.cache.get(key);
-    if (cached) return cached;
+    if (cached) return Promise.resolve(cached);
     let pending = this.inFlight.get(key);
     if (!pending) {
-      pending = (
-        level === 0
-          ? this.decodeGeoTiffBlock(source, blockX, blockY)
-          : this.overviewFile(source, level).then((handle) => readOverviewBlock(handle, source, level, blockX, blockY))
-      )
+      pending = loader()
         .then((block) => {
           this.cache.set(key, block);
           return block;
@@ -148,18 +174,7 @@ export class BlockStore {
     reuse?: Float32Array | Float64Array,
   ): Promise<Float32Array | Float64Array> {
     const into = reuse?.buffer as ArrayBuffer | undefined;
-    return (await this.runTask(
-      {
-        path: source.path,
-        window,
-        // Float32 files store nodata rounded to single precision; compare like with like.
-        nodata: source.nodata === null ? null : source.dataType === 'Float32' ? Math.fround(source.nodata) : source.nodata,
-        verticalScaleToM: source.verticalScaleToM,
-        wide: source.dataType === 'Int32' || source.dataType === 'Float64',
-        into,
-      },
-      into ? { transferList: [into] } : {},
-    )) as Float32Array | Float64Array;
+    return (await this.runTask(decodeTask(source, window, into), into ? { transferList: [into] } : {})) as Float32Array | Float64Array;
   }
 
   /**
@@ -251,6 +266,7 @@ export class BlockStore {
   async forget(source: Pick<TerrainSource, 'id' | 'path' | 'overviewDir'>): Promise<void> {
     for (const key of this.cache.keys()) if (key.startsWith(`${source.id}:`)) this.cache.delete(key);
     this.closeOverviewFiles(join(source.overviewDir, '/'));
+    forgetFile(source.path);
     if (!this.poolInstance) return;
     const pool = this.poolInstance;
     await Promise.all(Array.from({ length: pool.threads.length }, () => pool.run({ path: source.path }, { name: 'forget' })));
@@ -262,14 +278,36 @@ export class BlockStore {
     this.poolInstance = null;
   }
 
-  private async decodeGeoTiffBlock(source: TerrainSource, blockX: number, blockY: number): Promise<Block> {
+  private async decodeGeoTiffBlock(
+    source: TerrainSource,
+    blockX: number,
+    blockY: number,
+    decode: (window: [number, number, number, number]) => Promise<Float32Array | Float64Array>,
+  ): Promise<Block> {
     const x0 = blockX * source.blockWidthPx;
     const y0 = blockY * source.blockHeightPx;
     const x1 = Math.min(x0 + source.blockWidthPx, source.widthPx);
     const y1 = Math.min(y0 + source.blockHeightPx, source.heightPx);
-    const values = await this.window(source, [x0, y0, x1, y1]);
+    const values = await decode([x0, y0, x1, y1]);
     return { values, width: x1 - x0, height: y1 - y0 };
   }
+}
+
+/** A decode task for a window of a model's GeoTIFF (raster-decode.mjs). */
+function decodeTask(
+  source: Pick<TerrainSource, 'path' | 'nodata' | 'dataType' | 'verticalScaleToM'>,
+  window: [number, number, number, number],
+  into?: ArrayBuffer,
+): DecodeWindowTask {
+  return {
+    path: source.path,
+    window,
+    // Float32 files store nodata rounded to single precision; compare like with like.
+    nodata: source.nodata === null ? null : source.dataType === 'Float32' ? Math.fround(source.nodata) : source.nodata,
+    verticalScaleToM: source.verticalScaleToM,
+    wide: source.dataType === 'Int32' || source.dataType === 'Float64',
+    into,
+  };
 }
 
 function blockKey(source: TerrainSource, level: number, blockX: number, blockY: number): string {
@@ -278,12 +316,27 @@ function blockKey(source: TerrainSource, level: number, blockX: number, blockY: 
 
 /** Overview files are raw tiled Float32: one positioned read per block (off-thread in libuv). */
 async function readOverviewBlock(handle: FileHandle, source: TerrainSource, level: number, blockX: number, blockY: number): Promise<Block> {
+  const { buffer, blockBytes, position } = overviewRead(source, level, blockX, blockY);
+  await handle.read(buffer, 0, blockBytes, position);
+  return overviewBlock(buffer);
+}
+
+/** The same read on this thread. */
+function readOverviewBlockSync(fd: number, source: TerrainSource, level: number, blockX: number, blockY: number): Block {
+  const { buffer, blockBytes, position } = overviewRead(source, level, blockX, blockY);
+  readSync(fd, buffer, 0, blockBytes, position);
+  return overviewBlock(buffer);
+}
+
+function overviewRead(source: TerrainSource, level: number, blockX: number, blockY: number): { buffer: Buffer; blockBytes: number; position: number } {
   const overview = source.overviews[level - 1]!;
   const across = Math.ceil(overview.widthPx / OVERVIEW_BLOCK_PX);
   const blockBytes = OVERVIEW_BLOCK_PX * OVERVIEW_BLOCK_PX * 4;
   // Every byte is read over, so no zero-filling; a buffer of its own, not a slice of Node's pool.
-  const buffer = Buffer.allocUnsafeSlow(blockBytes);
-  await handle.read(buffer, 0, blockBytes, (blockY * across + blockX) * blockBytes);
+  return { buffer: Buffer.allocUnsafeSlow(blockBytes), blockBytes, position: (blockY * across + blockX) * blockBytes };
+}
+
+function overviewBlock(buffer: Buffer): Block {
   const values = new Float32Array(buffer.buffer, buffer.byteOffset, OVERVIEW_BLOCK_PX * OVERVIEW_BLOCK_PX);
   return { values, width: OVERVIEW_BLOCK_PX, height: OVERVIEW_BLOCK_PX };
 }

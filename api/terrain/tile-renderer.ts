@@ -202,7 +202,8 @@ async function gatherWindow(
   const cx1 = Math.min(grid.widthPx, x0 + width);
   const cy1 = Math.min(grid.heightPx, y0 + height);
   if (cx1 <= cx0 || cy1 <= cy0) return window;
-  const fetches: Array<Promise<void>> = [];
+  const missing: Array<[number, number]> = [];
+  const copies: Array<(block: Block) => void> = [];
   for (let by = Math.floor(cy0 / grid.blockHeight); by * grid.blockHeight < cy1; by++) {
     for (let bx = Math.floor(cx0 / grid.blockWidth); bx * grid.blockWidth < cx1; bx++) {
       const copy = (block: Block) => {
@@ -217,9 +218,17 @@ async function gatherWindow(
       };
       const cached = blocks.peek(model, level, bx, by);
       if (cached) copy(cached);
-      else fetches.push(blocks.block(model, level, bx, by).then(copy));
+      else {
+        missing.push([bx, by]);
+        copies.push(copy);
+      }
     }
   }
+  // While the pool is idle this thread takes a share: it reads missing overview blocks itself,
+  // and decodes one missing GeoTIFF block after handing the others to the workers.
+  const hereFrom = !blocks.idle ? missing.length : level > 0 ? 0 : Math.max(0, missing.length - 1);
+  const fetches = missing.slice(0, hereFrom).map(([bx, by], k) => blocks.block(model, level, bx, by).then(copies[k]!));
+  for (let k = hereFrom; k < missing.length; k++) fetches.push(blocks.blockHere(model, level, missing[k]![0], missing[k]![1]).then(copies[k]!));
   await Promise.all(fetches);
   return window;
 }
