@@ -185,19 +185,14 @@ export class BlockStore {
    * streams are joined (the same pixels). With two cores that keeps both busy; handing the second
    * part to a second worker instead waits for this thread to go idle before that worker can run,
    * and the event loop is held for one part of one tile only when no other terrain work is
-   * waiting. Otherwise the task's windows are handed over, not copied: the caller must not use
-   * them afterwards.
+   * waiting. Otherwise one worker renders it all. Windows in shared memory are read in place,
+   * others are handed over, not copied: the caller must not use them afterwards.
    */
   async renderTile(task: TileTask, splitRow = TILE_PX / 2): Promise<Buffer> {
     if (this.options.threads >= 2 && this.tasksRunning === 0) {
       const split = Math.min(TILE_PX - 16, Math.max(16, Math.round(splitRow) - HAND_OFF_ROWS));
       // The worker reads the windows from shared memory: copied once, not serialised.
-      const layers = task.layers.map((layer) => {
-        const Values = layer.window instanceof Float64Array ? Float64Array : Float32Array;
-        const window = new Values(new SharedArrayBuffer(layer.window.byteLength) as unknown as ArrayBuffer);
-        window.set(layer.window);
-        return { ...layer, window };
-      });
+      const layers = task.layers.map((layer) => ({ ...layer, window: sharedCopy(layer.window) }));
       const top = this.runTask({ task: { ...task, layers }, firstRow: 0, endRow: split, final: false }, { name: 'renderTileRows' }) as Promise<TilePart>;
       let bottom: TilePart;
       try {
@@ -210,7 +205,8 @@ export class BlockStore {
       const png = pngFromParts([topPart, bottom]);
       return Buffer.from(png.buffer, png.byteOffset, png.byteLength);
     }
-    const transferList = task.layers.map((layer) => layer.window.buffer as ArrayBuffer);
+    // Windows in shared memory are read in place; others are handed over.
+    const transferList = task.layers.map((layer) => layer.window.buffer).filter((buffer): buffer is ArrayBuffer => buffer instanceof ArrayBuffer);
     const png = (await this.runTask(task, { name: 'renderTile', transferList })) as Uint8Array;
     return Buffer.from(png.buffer, png.byteOffset, png.byteLength);
   }
@@ -291,6 +287,15 @@ export class BlockStore {
     const values = await decode([x0, y0, x1, y1]);
     return { values, width: x1 - x0, height: y1 - y0 };
   }
+}
+
+/** The values themselves when they are in shared memory already, else a copy in shared memory. */
+function sharedCopy(values: Float32Array | Float64Array): Float32Array | Float64Array {
+  if (typeof SharedArrayBuffer !== 'undefined' && values.buffer instanceof SharedArrayBuffer) return values;
+  const Values = values instanceof Float64Array ? Float64Array : Float32Array;
+  const copy = new Values(new SharedArrayBuffer(values.byteLength) as unknown as ArrayBuffer);
+  copy.set(values);
+  return copy;
 }
 
 /** A decode task for a window of a model's GeoTIFF (raster-decode.mjs). */

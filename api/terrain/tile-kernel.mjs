@@ -271,19 +271,23 @@ function pngFromIdat(idat, width, height) {
 /**
  * Tile rows [firstRow, endRow) on their own, for rendering a tile's parts on several threads:
  * their scanlines as raw deflate data (ending on a byte boundary, not final unless `final`, so
- * the parts concatenate into one stream), and the scanlines' Adler-32 and length.
+ * the parts concatenate into one stream), and the scanlines' Adler-32 and length. The final part
+ * is deflated with zlib's wrapper, whose trailer carries the Adler-32 zlib computed, rather than
+ * summing the bytes again here.
  */
 export function renderTileRows(task, firstRow, endRow, final) {
   task = uniformTask(task);
   const { elevations: scratchElevations, scanlines: scratchScanlines } = scratch();
   const elevations = sampleTileElevations(task.layers, firstRow, endRow + 2, scratchElevations);
   const scanlines = shadeAndTint(elevations, task.cellSizeM, task.sun, task.stops, task.shadowFloor, task.shadeGain, firstRow, endRow, scratchScanlines);
-  const deflated = deflateRawSync(scanlines, {
-    level: task.deflateLevel,
-    memLevel: 9,
-    strategy: DEFLATE_STRATEGY,
-    finishFlush: final ? constants.Z_FINISH : constants.Z_SYNC_FLUSH,
-  });
+  const options = { level: task.deflateLevel, memLevel: 9, strategy: DEFLATE_STRATEGY };
+  if (final) {
+    const wrapped = deflateSync(scanlines, options);
+    const adler = wrapped.readUInt32BE(wrapped.length - 4);
+    const data = new Uint8Array(wrapped.buffer, wrapped.byteOffset + 2, wrapped.byteLength - 6);
+    return { data, adler, length: scanlines.length };
+  }
+  const deflated = deflateRawSync(scanlines, { ...options, finishFlush: constants.Z_SYNC_FLUSH });
   const data = new Uint8Array(deflated.buffer, deflated.byteOffset, deflated.byteLength);
   return { data, adler: adler32(scanlines), length: scanlines.length };
 }

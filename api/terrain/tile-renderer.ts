@@ -196,7 +196,9 @@ async function gatherWindow(
 ): Promise<Float32Array | Float64Array> {
   const grid = blocks.blockGrid(model, level);
   const wide = level === 0 && (model.dataType === 'Int32' || model.dataType === 'Float64');
-  const window = (wide ? new Float64Array(width * height) : new Float32Array(width * height)).fill(NaN);
+  // Shared memory: the threads that render the tile read it without a copy.
+  const shared = new SharedArrayBuffer(width * height * (wide ? 8 : 4)) as unknown as ArrayBuffer;
+  const window = (wide ? new Float64Array(shared) : new Float32Array(shared)).fill(NaN);
   const cx0 = Math.max(0, x0);
   const cy0 = Math.max(0, y0);
   const cx1 = Math.min(grid.widthPx, x0 + width);
