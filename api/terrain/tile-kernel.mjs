@@ -22,7 +22,8 @@ const TILE_STRIDE = 1 + TILE_PX * 3;
  */
 export function sampleTileElevations(layers, rowStart = 0, rowEnd = SAMPLES_PX, into = new Float64Array(SAMPLES_PX * SAMPLES_PX)) {
   const size = SAMPLES_PX;
-  const out = into.fill(NaN);
+  // Only the rows asked for are filled (and read by the shading of those rows).
+  const out = into.fill(NaN, rowStart * size, rowEnd * size);
   let missing = size * (rowEnd - rowStart);
   const cellOf = new Int32Array(size);
   const fractionOf = new Float64Array(size);
