@@ -40,6 +40,8 @@ export interface TileTask {
   shadowFloor: number;
   shadeGain: number;
   deflateLevel: number;
+  /** Whether the tile is finer than the grids under it (smooth: deflate by runs); detailed tiles are Huffman-coded. Default true. */
+  magnified?: boolean;
 }
 
 /** Only sample rows [rowStart, rowEnd) are filled when given; `into` (SAMPLES_PX² values) is filled instead of a new array. */
@@ -57,7 +59,7 @@ export declare function shadeAndTint(
   into?: Uint8Array | null,
 ): Uint8Array;
 /** RGB with black transparent (tRNS). */
-export declare function encodePng(scanlines: Uint8Array, width: number, height: number, deflateLevel?: number): Uint8Array;
+export declare function encodePng(scanlines: Uint8Array, width: number, height: number, deflateLevel?: number, magnified?: boolean): Uint8Array;
 export declare function renderTilePng(task: TileTask): Uint8Array;
 /** Rows [firstRow, endRow) of a tile, deflated to join the other parts' (see renderTileRows in tile-kernel.mjs). */
 export interface TilePart {

@@ -17,7 +17,7 @@ const SHADOW_FLOOR = 0.3;
 const SHADE_GAIN = (1 - SHADOW_FLOOR) * 1.15;
 const SUN: SunTerms = sunTerms();
 const TINT_STOPS = Float64Array.from(ELEVATION_TINT_STOPS.flatMap((stop) => [stop.elevationM, ...stop.rgb]));
-/** zlib level 1: with the Sub filter, a few per cent larger than level 6 at a fraction of the time. */
+/** zlib level 1 (the kernel matches runs only, or none: see deflateOptions in tile-kernel.mjs). */
 const DEFLATE_LEVEL = 1;
 /** Largest window gathered for one model and tile (4 MB of Float32). */
 const MAX_WINDOW_PX = 1024 * 1024;
@@ -72,6 +72,7 @@ export async function renderTerrainTile(
     shadowFloor: SHADOW_FLOOR,
     shadeGain: SHADE_GAIN,
       deflateLevel: DEFLATE_LEVEL,
+      magnified: Math.min(...touching.map((model) => model.resolutionM)) > groundPxM,
     },
     balancedSplitRow(layers),
   );

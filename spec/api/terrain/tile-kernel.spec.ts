@@ -100,10 +100,13 @@ describe('tile kernel', () => {
       let transparent = 0;
       for (let k = 3; k < whole.data.length; k += 4) if (whole.data[k] === 0) transparent++;
       expect(transparent > 0).toBe(hole !== undefined);
-      for (const cuts of [[0, 128, 256], [0, 1, 100, 255, 256]]) {
-        const parts = cuts.slice(1).map((end, k) => renderTileRows(task, cuts[k]!, end, k === cuts.length - 2));
-        const split = PNG.sync.read(Buffer.from(pngFromParts(parts)));
-        expect(split.data.equals(whole.data)).toBe(true);
+      // Both deflate settings (runs for magnified tiles, Huffman only for detailed ones).
+      for (const magnified of [true, false]) {
+        for (const cuts of [[0, 128, 256], [0, 1, 100, 255, 256]]) {
+          const parts = cuts.slice(1).map((end, k) => renderTileRows({ ...task, magnified }, cuts[k]!, end, k === cuts.length - 2));
+          const split = PNG.sync.read(Buffer.from(pngFromParts(parts)));
+          expect(split.data.equals(whole.data)).toBe(true);
+        }
       }
     }
   });
