@@ -404,9 +404,9 @@ export function renderTilePng(task) {
 /**
  * Runs the kernel on a synthetic tile a few times so the JIT has compiled it before real tiles
  * arrive: the first calls of a fresh thread otherwise take 3–5× longer. Every third tile is partly
- * without data (off the grid and nodata inside), so both PNG layouts, the renormalised
- * interpolation and the NaN neighbours of the hillshade are exercised; each round
- * renders the tile whole and in two halves (as split over threads).
+ * without data (off the grid and nodata inside), so the transparent pixels, the renormalised
+ * interpolation and the NaN neighbours of the hillshade are exercised; rounds alternate the two
+ * deflate settings, and each renders the tile whole and in two halves (as split over threads).
  */
 export function warmUpKernel(rounds = 12) {
   const width = 200;

@@ -65,12 +65,12 @@ export async function renderTerrainTile(
   if (layers.length === 0) return transparentTile();
   return blocks.renderTile(
     {
-    layers,
-    cellSizeM: groundPxM,
-    sun: SUN,
-    stops: TINT_STOPS,
-    shadowFloor: SHADOW_FLOOR,
-    shadeGain: SHADE_GAIN,
+      layers,
+      cellSizeM: groundPxM,
+      sun: SUN,
+      stops: TINT_STOPS,
+      shadowFloor: SHADOW_FLOOR,
+      shadeGain: SHADE_GAIN,
       deflateLevel: DEFLATE_LEVEL,
       magnified: Math.min(...touching.map((model) => model.resolutionM)) > groundPxM,
     },
