@@ -53,6 +53,29 @@ describe('routes and scenarios', () => {
     await screenshot(page, 'route-editor-saved');
   });
 
+  it('lets a planner start a route and add vertices from the keyboard alone', async () => {
+    const { page } = browser;
+    await page.goto(`${BASE_URL}/routes/new`);
+    await page.getByRole('heading', { level: 1, name: 'New route' }).waitFor();
+    await page.locator('.leaflet-tile-loaded').first().waitFor();
+
+    await page.getByRole('button', { name: "Start at the map's centre" }).focus();
+    await page.keyboard.press('Enter');
+    const table = page.getByTestId('vertices-table');
+    await table.getByRole('spinbutton', { name: 'Longitude of vertex 1' }).fill('10.85');
+    await table.getByRole('spinbutton', { name: 'Longitude of vertex 1' }).press('Tab');
+    await table.getByRole('spinbutton', { name: 'Latitude of vertex 1' }).fill('46.55');
+    await table.getByRole('spinbutton', { name: 'Latitude of vertex 1' }).press('Tab');
+    await table.getByRole('button', { name: 'Insert a vertex after vertex 1' }).focus();
+    await page.keyboard.press('Enter');
+
+    await page.getByTestId('route-figures').getByText('Vertices 2').waitFor();
+    assert.equal(Number(await table.getByRole('spinbutton', { name: 'Longitude of vertex 1' }).inputValue()), 10.85);
+    assert.equal(Number(await table.getByRole('spinbutton', { name: 'Latitude of vertex 1' }).inputValue()), 46.55);
+    const second = Number(await table.getByRole('spinbutton', { name: 'Latitude of vertex 2' }).inputValue());
+    assert.ok(Math.abs(second - 46.55) < 0.01, `the appended vertex lies next to the first (latitude ${second})`);
+  });
+
   it('runs a scenario with a preset bus and shows the charts and descents', async () => {
     const { page } = browser;
     for (const [name, load] of [

@@ -162,6 +162,12 @@ export class TerrainMap {
     });
   }
 
+  /** The centre of the current view (null before the map exists), e.g. to place a first point from the keyboard. */
+  centre(): MapPosition | null {
+    const map = this.map();
+    return map ? fromLatLng(map.getCenter()) : null;
+  }
+
   private createMap(): void {
     const element = this.host.nativeElement;
     const map = L.map(element, { center: FALLBACK_VIEW.center, zoom: FALLBACK_VIEW.zoom, zoomControl: true });

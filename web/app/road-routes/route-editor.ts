@@ -8,6 +8,7 @@ import {
   input,
   signal,
   untracked,
+  viewChild,
 } from '@angular/core';
 import { toObservable, toSignal } from '@angular/core/rxjs-interop';
 import { FormControl, FormGroup, ReactiveFormsModule, Validators } from '@angular/forms';
@@ -48,6 +49,7 @@ import {
   moveVertex,
   parseCoordinate,
   pointAlongLine,
+  roundDegrees,
   polylineLengthM,
   projectOnLine,
   removeSpeedLimit,
@@ -130,6 +132,7 @@ export default class RouteEditor {
   protected readonly canRedo = signal(false);
   protected readonly tool = signal<EditorTool>('draw');
   protected readonly selectedVertex = signal<number | null>(null);
+  private readonly terrainMap = viewChild(TerrainMap);
   protected readonly snapToNetwork = signal(false);
   protected readonly isRouting = signal(false);
   protected readonly network = signal<RoadNetwork | null>(null);
@@ -330,6 +333,16 @@ export default class RouteEditor {
     } finally {
       this.isRouting.set(false);
     }
+  }
+
+  /**
+   * Starts a route without the mouse: its first vertex at the centre of the map's view, to be
+   * typed over in the vertex table, where "insert after" adds the next ones.
+   */
+  protected addFirstVertex(): void {
+    const centre = this.terrainMap()?.centre();
+    if (!centre || this.draft().vertices.length > 0) return;
+    this.edit((state) => appendVertices(state, [[roundDegrees(centre[0]), roundDegrees(centre[1])]]));
   }
 
   private placeOnLine(at: MapPosition): void {
