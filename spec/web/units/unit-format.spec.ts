@@ -33,6 +33,14 @@ describe('formatQuantity', () => {
     expect(formatQuantity('soc', 0.805, 'metric')).toBe('81 %');
   });
 
+  it('shows areas in m² or ft² and a thermal mass in kJ/K or BTU/°F', () => {
+    // 8 m² ÷ 0.09290304 m²/ft²; 92 000 J/K ÷ (1 055.05585262 J/BTU × 1.8 °F/K).
+    expect(formatQuantity('area', 8, 'metric')).toBe('8.0 m²');
+    expect(formatQuantity('area', 8, 'imperial')).toBe('86 ft²');
+    expect(formatQuantity('heatCapacity', 92_000, 'metric')).toBe('92 kJ/K');
+    expect(formatQuantity('heatCapacity', 92_000, 'imperial')).toBe('48 BTU/°F');
+  });
+
   it('writes negative grades with a true minus sign', () => {
     expect(formatQuantity('grade', -7.25, 'metric')).toBe('−7.3 %');
   });

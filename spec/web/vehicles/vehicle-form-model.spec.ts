@@ -93,11 +93,23 @@ describe('vehicle form model in imperial units', () => {
     expect(fieldUnit(field('passengerMass'), 'imperial')).toBe('lb');
   });
 
-  it('leaves powers, energies, areas, coefficients and percentages as they are', () => {
+  it('shows areas in square feet and the brakes\' thermal mass in BTU/°F', () => {
+    const numbers = toVehicleFormValue(aProfile(), 'imperial').numbers;
+
+    // 1 ft² = 0.09290304 m² exactly; 1 BTU/°F = 1 055.05585262 J × 1.8 per K (International Table BTU).
+    expect(numbers['frontalArea']).toBeCloseTo(8 / 0.09290304, 6);
+    expect(numbers['brakeCoolingArea']).toBeCloseTo(1.6 / 0.09290304, 6);
+    expect(numbers['brakeThermalMass']).toBeCloseTo(92_000 / 1_899.100534716, 6);
+    expect(fieldUnit(field('frontalArea'), 'imperial')).toBe('ft²');
+    expect(fieldUnit(field('brakeThermalMass'), 'imperial')).toBe('BTU/°F');
+    expect(fieldUnit(field('brakeThermalMass'), 'metric')).toBe('kJ/K');
+  });
+
+  it('leaves powers, energies, coefficients and percentages as they are', () => {
     const metric = toVehicleFormValue(aProfile(), 'metric').numbers;
     const imperial = toVehicleFormValue(aProfile(), 'imperial').numbers;
 
-    for (const key of ['tractionPower', 'batteryCapacity', 'frontalArea', 'dragCoefficient', 'rollingResistance', 'drivetrainEfficiency', 'socCeiling', 'lineReceptivity']) {
+    for (const key of ['tractionPower', 'batteryCapacity', 'dragCoefficient', 'rollingResistance', 'drivetrainEfficiency', 'socCeiling', 'lineReceptivity']) {
       expect(imperial[key]).toBe(metric[key]);
       expect(fieldUnit(field(key), 'imperial')).toBe(fieldUnit(field(key), 'metric'));
     }

@@ -1,6 +1,7 @@
 /**
  * Display units. Everything inside Descentry is SI; these functions convert only at the edge, for
- * what a person reads: km, km/h, %, kWh, °C, t (metric) or mi, mph, %, kWh, °F, short tons (imperial).
+ * what a person reads: km, km/h, %, kWh, °C, t, m², kJ/K (metric) or mi, mph, %, kWh, °F, short tons,
+ * ft², BTU/°F (imperial).
  */
 
 export const UNIT_SYSTEMS = ['metric', 'imperial'] as const;
@@ -19,7 +20,9 @@ export type Quantity =
   | 'energyPerDistance' // kWh/km → kWh/km / kWh/mi
   | 'power' // W → kW (both: the trade rates electric machines in kW)
   | 'grade' // % → % (both)
-  | 'soc'; // 0–1 → %
+  | 'soc' // 0–1 → %
+  | 'area' // m² → m² / ft²
+  | 'heatCapacity'; // J/K → kJ/K / BTU/°F (a brake's thermal mass)
 
 const METRES_PER_MILE = 1_609.344;
 const METRES_PER_FOOT = 0.3048;
@@ -28,6 +31,10 @@ const KG_PER_POUND = 0.45359237;
 /** Exact by definition: 1 short ton = 2 000 lb = 907.18474 kg. */
 const KG_PER_SHORT_TON = 2_000 * KG_PER_POUND;
 const NEWTONS_PER_POUND_FORCE = 4.4482216152605;
+/** Exact by definition: 1 ft = 0.3048 m, so 1 ft² = 0.09290304 m². */
+const SQUARE_METRES_PER_SQUARE_FOOT = METRES_PER_FOOT * METRES_PER_FOOT;
+/** International Table BTU = 1 055.05585262 J (exact by definition); per °F is per 5/9 K. */
+const JOULES_PER_KELVIN_PER_BTU_PER_FAHRENHEIT = 1_055.05585262 * 1.8;
 
 interface Scale {
   unit: string;
@@ -60,6 +67,8 @@ const SCALES: Readonly<Record<UnitSystem, Readonly<Record<Quantity, Scale>>>> = 
     power: linear('kW', 1 / 1_000, 0),
     grade: linear('%', 1, 1),
     soc: linear('%', 100, 0),
+    area: linear('m²', 1, 1),
+    heatCapacity: linear('kJ/K', 1 / 1_000, 0),
   },
   imperial: {
     distance: linear('mi', 1 / METRES_PER_MILE, 2),
@@ -74,6 +83,8 @@ const SCALES: Readonly<Record<UnitSystem, Readonly<Record<Quantity, Scale>>>> = 
     power: linear('kW', 1 / 1_000, 0),
     grade: linear('%', 1, 1),
     soc: linear('%', 100, 0),
+    area: linear('ft²', 1 / SQUARE_METRES_PER_SQUARE_FOOT, 0),
+    heatCapacity: linear('BTU/°F', 1 / JOULES_PER_KELVIN_PER_BTU_PER_FAHRENHEIT, 0),
   },
 };
 

@@ -1,9 +1,9 @@
 /**
  * The vehicle-profile form: every engine parameter with its group, label, displayed unit, the
  * factor between that unit and SI, its limits and the message shown when a value breaks them.
- * Masses, forces, speeds and temperatures follow the metric/imperial choice through unit-format;
- * everything else (power and energy in kW/kWh, areas, coefficients, percentages) reads the same in
- * both. Pure data and functions, so the mapping and the messages are tested without a browser.
+ * Masses, forces, speeds, temperatures, areas and the brakes' thermal mass follow the
+ * metric/imperial choice through unit-format; everything else (power and energy in kW/kWh,
+ * coefficients, percentages) reads the same in both. Pure data and functions, so the mapping and the messages are tested without a browser.
  */
 import type { VehicleProfile, VehicleProfileDraftInput } from '@shared/domain/vehicle-profiles';
 import { fromDisplay, toDisplay, unitLabel, type Quantity, type UnitSystem } from '../units/unit-format';
@@ -51,7 +51,7 @@ export const VEHICLE_FIELDS: readonly VehicleField[] = [
   { key: 'passengerMass', group: 'Mass and load', label: 'Mass per passenger', unit: 'kg', factor: 1, quantity: 'lightMass', min: 40, max: 120, step: 1, hint: 'Used when a scenario gives a passenger count.', read: (p) => p.passengerMassKg ?? 70 },
   { key: 'rotatingMassFactor', group: 'Mass and load', label: 'Rotating-mass factor', unit: '', factor: 1, min: 0, max: 1, step: 0.01, hint: 'Inertia = (1 + factor) · m · a.', read: (p) => v(p).rotatingMassFactor },
 
-  { key: 'frontalArea', group: 'Aerodynamics and tyres', label: 'Frontal area', unit: 'm²', factor: 1, min: 0, max: 30, minExclusive: true, step: 0.1, read: (p) => v(p).frontalAreaM2 },
+  { key: 'frontalArea', group: 'Aerodynamics and tyres', label: 'Frontal area', unit: 'm²', factor: 1, quantity: 'area', min: 0, max: 30, minExclusive: true, step: 0.1, read: (p) => v(p).frontalAreaM2 },
   { key: 'dragCoefficient', group: 'Aerodynamics and tyres', label: 'Drag coefficient', unit: '', factor: 1, min: 0, max: 3, step: 0.01, read: (p) => v(p).dragCoefficient },
   { key: 'rollingResistance', group: 'Aerodynamics and tyres', label: 'Rolling resistance coefficient', unit: '', factor: 1, min: 0, max: 0.1, step: 0.001, read: (p) => v(p).rollingResistanceCoefficient },
 
@@ -74,8 +74,8 @@ export const VEHICLE_FIELDS: readonly VehicleField[] = [
   { key: 'summerAmbient', group: 'Auxiliary loads by season', label: 'Summer ambient', unit: '°C', factor: 1, quantity: 'temperature', min: -60, max: 60, step: 1, read: (p) => p.seasons.summer.ambientC },
   { key: 'summerAux', group: 'Auxiliary loads by season', label: 'Summer auxiliary power', unit: 'kW', factor: 1_000, min: 0, max: 500, step: 0.5, read: (p) => p.seasons.summer.auxPowerW },
 
-  { key: 'brakeThermalMass', group: 'Brakes and retarder', label: 'Brake thermal mass', unit: 'kJ/K', factor: 1_000, min: 0, max: 100_000, minExclusive: true, step: 1, hint: 'All discs or drums with hubs together.', read: (p) => v(p).brakeThermalMassJPerK ?? 92_000 },
-  { key: 'brakeCoolingArea', group: 'Brakes and retarder', label: 'Brake cooling area', unit: 'm²', factor: 1, min: 0, max: 100, minExclusive: true, step: 0.1, read: (p) => v(p).brakeCoolingAreaM2 ?? 1.6 },
+  { key: 'brakeThermalMass', group: 'Brakes and retarder', label: 'Brake thermal mass', unit: 'kJ/K', factor: 1_000, quantity: 'heatCapacity', min: 0, max: 100_000, minExclusive: true, step: 1, hint: 'All discs or drums with hubs together.', read: (p) => v(p).brakeThermalMassJPerK ?? 92_000 },
+  { key: 'brakeCoolingArea', group: 'Brakes and retarder', label: 'Brake cooling area', unit: 'm²', factor: 1, quantity: 'area', min: 0, max: 100, minExclusive: true, step: 0.1, read: (p) => v(p).brakeCoolingAreaM2 ?? 1.6 },
   { key: 'brakeHeatShare', group: 'Brakes and retarder', label: 'Heat into discs or drums', unit: '%', factor: 0.01, min: 0, max: 100, step: 1, read: (p) => v(p).brakeHeatShare ?? 0.95 },
   { key: 'brakeEmissivity', group: 'Brakes and retarder', label: 'Brake surface emissivity', unit: '', factor: 1, min: 0, max: 1, step: 0.05, read: (p) => v(p).brakeEmissivity ?? 0.6 },
   { key: 'retarderPower', group: 'Brakes and retarder', label: 'Retarder or braking-resistor power', unit: 'kW', factor: 1_000, min: 0, max: 5_000, step: 1, hint: '0 when the vehicle has none.', read: (p) => v(p).retarderPowerW ?? 0 },
