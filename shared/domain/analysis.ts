@@ -75,7 +75,7 @@ export const vehicleSchema = z
     socTaperStart: share.default(0.85),
     /** SOC at which the charge-power limit reaches zero; the battery never charges above it. */
     socCeiling: share.default(0.95),
-    /** Speed below which regeneration fades out and the friction brakes take over, m/s. */
+    /** Speed below which regeneration fades out (linearly, to nothing at standstill) and the friction brakes take over, m/s. */
     regenMinSpeedMps: z.number().min(0).max(10).default(5 / 3.6),
   })
   .superRefine((vehicle, ctx) => {

@@ -2,13 +2,14 @@
  * Vehicle capability chart data: the tractive force needed against speed on a set of grades and
  * accelerations (road-load equation, DOMAIN notes §1.1), drawn over the motor envelope:
  *   traction F_max(v) = min(maxTractionForceN, tractionPowerW/v)
- *   regen    F_regen(v) = −min(maxTractionForceN, regenPowerW/v)   (0 below regenMinSpeedMps)
+ *   regen    F_regen(v) = −min(maxTractionForceN, regenPowerW/v) · fade(v)   (fade: v/regenMinSpeedMps below it, powertrain.ts)
  * Regen force shares the motor's torque limit (from memory: a motor brakes with about the torque
  * it drives with).
  */
 import { vehicleSchema, type VehicleInput } from '../domain/analysis';
 import { airDensityKgPerM3 } from './atmosphere';
 import { roadLoadForces } from './road-load';
+import { regenSpeedFactor } from './powertrain';
 import { parseOrThrow } from './validation';
 
 export interface CapabilityCurveOptions {
@@ -38,7 +39,7 @@ export function capabilityCurves(vehicleInput: VehicleInput, options: Capability
   const massKg = vehicle.curbMassKg + vehicle.payloadKg;
   const tractionEnvelopeN = speeds.map((v) => (v > 0 ? Math.min(vehicle.maxTractionForceN, vehicle.tractionPowerW / v) : vehicle.maxTractionForceN));
   const regenEnvelopeN = speeds.map((v) =>
-    v >= vehicle.regenMinSpeedMps && v > 0 && vehicle.regenPowerW > 0 ? -Math.min(vehicle.maxTractionForceN, vehicle.regenPowerW / v) : 0,
+    v > 0 && vehicle.regenPowerW > 0 ? -Math.min(vehicle.maxTractionForceN, vehicle.regenPowerW / v) * regenSpeedFactor(v, vehicle.regenMinSpeedMps) : 0,
   );
   const curves = grades.flatMap((gradePercent) =>
     accelerations.map((accelerationMps2) => ({

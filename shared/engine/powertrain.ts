@@ -6,8 +6,9 @@
  * - Wheel power P > 0 is traction, P < 0 braking demand B = −P.
  * - Motoring: source power = P / drivetrainEfficiency + auxPowerW.
  * - Braking: regeneration at the wheel is limited by regenPowerW (0 = none), by the motor's
- *   force limit (regen force ≤ maxTractionForceN) and fades out below regenMinSpeedMps
- *   (from memory: 3–8 km/h, DOMAIN §3.1). Regenerated power reaches the battery terminals as
+ *   force limit (regen force ≤ maxTractionForceN) and fades out below regenMinSpeedMps: the
+ *   machine's limit times v / regenMinSpeedMps, blending to the friction brakes as the vehicle
+ *   stops (from memory: fade-out at 3–8 km/h, DOMAIN §3.1; a linear fade is common practice). Regenerated power reaches the battery terminals as
  *   P_regen,wheel·regenEfficiency; the auxiliaries are fed from it first, and only the rest charges
  *   the cells (source power = auxPowerW − P_regen,wheel·regenEfficiency, negative = charging).
  * - Battery vehicles: the net charging power is limited by
@@ -125,8 +126,9 @@ export function splitWheelPower(
   } else {
     const demandW = -wheelPowerW;
     let regenWheelW = 0;
-    if (params.regenPowerW > 0 && speedMps >= params.regenMinSpeedMps) {
-      regenWheelW = Math.min(demandW, params.regenPowerW, params.maxRegenForceN * speedMps);
+    const fade = regenSpeedFactor(speedMps, params.regenMinSpeedMps);
+    if (params.regenPowerW > 0 && fade > 0) {
+      regenWheelW = Math.min(demandW, Math.min(params.regenPowerW, params.maxRegenForceN * speedMps) * fade);
       const eta = params.regenEfficiency;
       if (params.isOverheadLine) {
         // Auxiliaries first, then the line's receptive share of the rest (DOMAIN §3.5).
@@ -161,4 +163,14 @@ export function splitWheelPower(
     next = 0;
   }
   out.soc = Math.min(1, next);
+}
+
+/**
+ * Share of the machine's regeneration limit available at `speedMps`: 1 from regenMinSpeedMps up,
+ * falling linearly to 0 at standstill (1 throughout when no fade speed is set).
+ */
+export function regenSpeedFactor(speedMps: number, regenMinSpeedMps: number): number {
+  if (!(speedMps > 0)) return 0;
+  if (!(regenMinSpeedMps > 0) || speedMps >= regenMinSpeedMps) return 1;
+  return speedMps / regenMinSpeedMps;
 }

@@ -5,6 +5,7 @@
 import type { Descent, Summary } from '@shared/domain/analysis';
 import type { DirectionResult } from '@shared/domain/scenarios';
 import { presetVehicle } from '@shared/engine/vehicle-presets';
+import { ENGINE_VERSION } from '@shared/engine/constants';
 import type { Database, Executor } from '../../api/db/client';
 import { roadRouteVersions, roadRoutes, scenarios, vehicleProfiles, type ScenarioRow } from '../../api/db/schema/index';
 
@@ -170,7 +171,7 @@ export async function aScenario(
       options: { spacingM: 10, smoothingWindowM: 150, useStops: true, layoverS: 300 },
       inService: values.inService ?? false,
       status: 'done',
-      engineVersion: '1.0.0',
+      engineVersion: ENGINE_VERSION,
       computedAt: values.computedAt ?? new Date(),
       summary: values.summary ?? directionResults[0]!.summary,
       directionResults,

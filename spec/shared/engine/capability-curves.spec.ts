@@ -9,10 +9,11 @@ describe('capabilityCurves', () => {
     expect(chart.tractionEnvelopeN).toEqual([40_000, 40_000, 40_000, 20_000, 10_000]);
   });
 
-  it('draws the regen envelope negative and zero below the regen fade speed', () => {
-    const chart = capabilityCurves(aWorkedExampleBus({ regenPowerW: 100_000, maxTractionForceN: 40_000 }), { speedsMps: [0, 1, 5, 10] });
+  it('draws the regen envelope negative, fading linearly to zero below the fade-out speed', () => {
+    const chart = capabilityCurves(aWorkedExampleBus({ regenPowerW: 100_000, maxTractionForceN: 40_000, regenMinSpeedMps: 2 }), { speedsMps: [0, 1, 5, 10] });
 
-    expect(chart.regenEnvelopeN).toEqual([0, 0, -20_000, -10_000]);
+    // At 1 m/s the force limit (40 kN) is halved by the fade (1 of 2 m/s); above, the power limit P/v.
+    expect(chart.regenEnvelopeN).toEqual([0, -20_000, -20_000, -10_000]);
   });
 
   it('needs 12 677.6 N at 30 km/h on 6 % at 1000 m (DOMAIN §1.4 a)', () => {

@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import { vehicleSchema } from '../../../shared/domain/analysis';
-import { chargeTaperFactor, emptyPowerSplit, powertrainParams, splitWheelPower } from '../../../shared/engine/powertrain';
+import { chargeTaperFactor, emptyPowerSplit, powertrainParams, regenSpeedFactor, splitWheelPower } from '../../../shared/engine/powertrain';
 import { aWorkedExampleBus } from '../support/engine-builders';
 
 // DOMAIN §3.3 / §8 case 7: 19 t bus descending 8 % at 30 km/h, ρ 1.225 → 111.00 kW at the wheel;
@@ -82,6 +82,30 @@ describe('splitWheelPower', () => {
 
     expect(split.soc).toBe(0);
     expect(split.shortfallJ).toBeCloseTo(split.sourcePowerW * 60 - 0.01 * 1_000 * 3_600, 6);
+  });
+});
+
+describe('regeneration near standstill', () => {
+  it('fades the machine limit linearly below the fade-out speed and leaves it whole above', () => {
+    expect(regenSpeedFactor(0, 5 / 3.6)).toBe(0);
+    expect(regenSpeedFactor(2.5 / 3.6, 5 / 3.6)).toBeCloseTo(0.5, 12);
+    expect(regenSpeedFactor(5 / 3.6, 5 / 3.6)).toBe(1);
+    expect(regenSpeedFactor(30 / 3.6, 5 / 3.6)).toBe(1);
+    expect(regenSpeedFactor(1, 0)).toBe(1);
+  });
+
+  it('blends to the friction brakes as the bus slows to a stop', () => {
+    // The worked-example bus's force limit at 2.5 km/h is far below the braking demand, so the
+    // regenerated share is its force limit times v, halved by the fade.
+    const fadeSpeedMps = 5 / 3.6;
+    const slowMps = 2.5 / 3.6;
+    const vehicle = params({ regenMinSpeedMps: fadeSpeedMps });
+    const split = emptyPowerSplit();
+
+    splitWheelPower(vehicle, -BRAKING_W, slowMps, 0.5, 1, split);
+
+    expect(split.regenWheelPowerW).toBeCloseTo(Math.min(vehicle.regenPowerW, vehicle.maxRegenForceN * slowMps) * 0.5, 6);
+    expect(split.frictionPowerW).toBeCloseTo(BRAKING_W - split.regenWheelPowerW, 6);
   });
 });
 

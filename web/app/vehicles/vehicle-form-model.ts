@@ -65,7 +65,7 @@ export const VEHICLE_FIELDS: readonly VehicleField[] = [
   { key: 'maxChargePower', group: 'Battery and regeneration limits', label: 'Charge-power limit', unit: 'kW', factor: 1_000, min: 0, max: 5_000, step: 1, read: (p) => v(p).maxChargePowerW },
   { key: 'socTaperStart', group: 'Battery and regeneration limits', label: 'Charge limit starts falling at', unit: '% SOC', factor: 0.01, min: 0, max: 100, step: 1, read: (p) => v(p).socTaperStart ?? 0.85 },
   { key: 'socCeiling', group: 'Battery and regeneration limits', label: 'No charging above', unit: '% SOC', factor: 0.01, min: 0, max: 100, step: 1, read: (p) => v(p).socCeiling ?? 0.95 },
-  { key: 'regenMinSpeed', group: 'Battery and regeneration limits', label: 'Regeneration fades out below', unit: 'km/h', factor: 1 / 3.6, quantity: 'speed', min: 0, max: 36, step: 0.5, read: (p) => v(p).regenMinSpeedMps ?? 5 / 3.6 },
+  { key: 'regenMinSpeed', group: 'Battery and regeneration limits', label: 'Regeneration fades out below', unit: 'km/h', factor: 1 / 3.6, quantity: 'speed', min: 0, max: 36, step: 0.5, hint: 'Below this speed regeneration falls linearly to nothing at standstill; the friction brakes take the rest.', read: (p) => v(p).regenMinSpeedMps ?? 5 / 3.6 },
 
   { key: 'winterAmbient', group: 'Auxiliary loads by season', label: 'Winter ambient', unit: '°C', factor: 1, quantity: 'temperature', min: -60, max: 60, step: 1, read: (p) => p.seasons.winter.ambientC },
   { key: 'winterAux', group: 'Auxiliary loads by season', label: 'Winter auxiliary power', unit: 'kW', factor: 1_000, min: 0, max: 500, step: 0.5, read: (p) => p.seasons.winter.auxPowerW },
