@@ -77,6 +77,14 @@ export const vehicleSchema = z
     socCeiling: share.default(0.95),
     /** Speed below which regeneration fades out (linearly, to nothing at standstill) and the friction brakes take over, m/s. */
     regenMinSpeedMps: z.number().min(0).max(10).default(5 / 3.6),
+    /**
+     * Ambient temperature from which the battery takes its full charge power, °C; below it the
+     * charge-power limit falls linearly to `coldChargeShareAtMinus20C` at −20 °C (cells are
+     * protected from lithium plating when cold; DOMAIN §3.1).
+     */
+    coldChargeFullFromC: z.number().min(-20).max(40).default(10),
+    /** Share of the charge-power limit left at −20 °C and below; 1 = no derating (a pack kept warm). */
+    coldChargeShareAtMinus20C: share.default(1),
   })
   .superRefine((vehicle, ctx) => {
     if (vehicle.socTaperStart > vehicle.socCeiling) {

@@ -12,8 +12,9 @@
  *   P_regen,wheel·regenEfficiency; the auxiliaries are fed from it first, and only the rest charges
  *   the cells (source power = auxPowerW − P_regen,wheel·regenEfficiency, negative = charging).
  * - Battery vehicles: the net charging power is limited by
- *   maxChargePowerW·f_SOC, f_SOC = 1 up to socTaperStart, falling linearly to 0 at socCeiling
- *   (from memory, DOMAIN §3.1), and no step may charge above socCeiling.
+ *   maxChargePowerW·f_SOC·f_T, f_SOC = 1 up to socTaperStart, falling linearly to 0 at socCeiling
+ *   (from memory, DOMAIN §3.1), f_T the cold derating (coldChargeFactor), and no step may charge
+ *   above socCeiling.
  * - Overhead-line vehicles: traction and auxiliaries come from the line; of the regenerated power
  *   left after the auxiliaries the line takes the share lineReceptivity (DOMAIN §3.5). Their
  *   on-board battery (off-wire running) is not modelled: SOC stays at the start value.
@@ -38,6 +39,8 @@ export interface PowertrainParams {
   batteryCapacityJ: number;
   socTaperStart: number;
   socCeiling: number;
+  coldChargeFullFromC: number;
+  coldChargeShareAtMinus20C: number;
   auxPowerW: number;
   retarderPowerW: number;
   lineReceptivity: number;
@@ -56,6 +59,8 @@ export function powertrainParams(vehicle: Vehicle): PowertrainParams {
     batteryCapacityJ: vehicle.batteryCapacityWh * JOULES_PER_WH,
     socTaperStart: vehicle.socTaperStart,
     socCeiling: vehicle.socCeiling,
+    coldChargeFullFromC: vehicle.coldChargeFullFromC,
+    coldChargeShareAtMinus20C: vehicle.coldChargeShareAtMinus20C,
     auxPowerW: vehicle.auxPowerW,
     retarderPowerW: vehicle.retarderPowerW,
     lineReceptivity: vehicle.lineReceptivity,
@@ -101,8 +106,23 @@ export function chargeTaperFactor(soc: number, taperStart: number, ceiling: numb
 }
 
 /**
+ * Share of the charge-power limit available at ambient `ambientC`: 1 from `fullFromC` up,
+ * falling linearly to `shareAtMinus20C` at −20 °C and staying there below (from memory: packs
+ * without heating limit charging below about 0–10 °C, DOMAIN §3.1; the maker's data decides).
+ */
+export function coldChargeFactor(ambientC: number, fullFromC: number, shareAtMinus20C: number): number {
+  if (shareAtMinus20C >= 1 || ambientC >= fullFromC) return 1;
+  if (ambientC <= COLD_CHARGE_FLOOR_C || fullFromC <= COLD_CHARGE_FLOOR_C) return shareAtMinus20C;
+  return shareAtMinus20C + ((1 - shareAtMinus20C) * (ambientC - COLD_CHARGE_FLOOR_C)) / (fullFromC - COLD_CHARGE_FLOOR_C);
+}
+
+/** Temperature at which the cold charge derating reaches its floor, °C. */
+const COLD_CHARGE_FLOOR_C = -20;
+
+/**
  * Splits wheel power `wheelPowerW` held for `durationS` at mean speed `speedMps` between the
  * battery/line, the retarder and the friction brakes, and integrates the SOC. Writes into `out`.
+ * `ambientC`, when given, derates the battery's charge power in the cold (coldChargeFactor).
  */
 export function splitWheelPower(
   params: PowertrainParams,
@@ -111,6 +131,7 @@ export function splitWheelPower(
   soc: number,
   durationS: number,
   out: PowerSplit,
+  ambientC?: number,
 ): void {
   const aux = params.auxPowerW;
   out.regenWheelPowerW = 0;
@@ -137,7 +158,8 @@ export function splitWheelPower(
         const acceptedW = auxCoveredW + params.lineReceptivity * (electricW - auxCoveredW);
         regenWheelW = acceptedW / eta;
       } else {
-        const taperedW = params.maxChargePowerW * chargeTaperFactor(soc, params.socTaperStart, params.socCeiling);
+        const coldFactor = ambientC === undefined ? 1 : coldChargeFactor(ambientC, params.coldChargeFullFromC, params.coldChargeShareAtMinus20C);
+        const taperedW = params.maxChargePowerW * chargeTaperFactor(soc, params.socTaperStart, params.socCeiling) * coldFactor;
         const headroomW =
           durationS > 0 ? (Math.max(0, params.socCeiling - soc) * params.batteryCapacityJ) / durationS : taperedW;
         const acceptW = Math.min(taperedW, headroomW) + aux;

@@ -102,7 +102,7 @@ export function advanceSegment(
   const meanSpeedMps = lengthM / durationS;
   const wheelPowerW = (tractionN * lengthM) / durationS;
 
-  splitWheelPower(model.powertrain, wheelPowerW, meanSpeedMps, state.soc, durationS, out.split);
+  splitWheelPower(model.powertrain, wheelPowerW, meanSpeedMps, state.soc, durationS, out.split, model.ambientC[k]);
   state.soc = out.split.soc;
   state.shortfallJ += out.split.shortfallJ;
   if (trackBrakes) advanceBrakes(model, k, out.split.frictionPowerW, meanSpeedMps, durationS, state);
@@ -119,10 +119,10 @@ export function advanceSegment(
 
 /** Standing still at point `k` for `durationS` (a stop's dwell): auxiliaries only, brakes cool. */
 export function dwell(model: RouteModel, k: number, durationS: number, state: VehicleState, out: SegmentResult): void {
-  splitWheelPower(model.powertrain, 0, 0, state.soc, durationS, out.split);
+  const segment = Math.min(k, model.pointCount - 2);
+  splitWheelPower(model.powertrain, 0, 0, state.soc, durationS, out.split, model.ambientC[segment]);
   state.soc = out.split.soc;
   state.shortfallJ += out.split.shortfallJ;
-  const segment = Math.min(k, model.pointCount - 2);
   advanceBrakes(model, segment, 0, 0, durationS, state);
   out.durationS = durationS;
 }

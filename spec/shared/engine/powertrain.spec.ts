@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import { vehicleSchema } from '../../../shared/domain/analysis';
-import { chargeTaperFactor, emptyPowerSplit, powertrainParams, regenSpeedFactor, splitWheelPower } from '../../../shared/engine/powertrain';
+import { chargeTaperFactor, coldChargeFactor, emptyPowerSplit, powertrainParams, regenSpeedFactor, splitWheelPower } from '../../../shared/engine/powertrain';
 import { aWorkedExampleBus } from '../support/engine-builders';
 
 // DOMAIN §3.3 / §8 case 7: 19 t bus descending 8 % at 30 km/h, ρ 1.225 → 111.00 kW at the wheel;
@@ -106,6 +106,31 @@ describe('regeneration near standstill', () => {
 
     expect(split.regenWheelPowerW).toBeCloseTo(Math.min(vehicle.regenPowerW, vehicle.maxRegenForceN * slowMps) * 0.5, 6);
     expect(split.frictionPowerW).toBeCloseTo(BRAKING_W - split.regenWheelPowerW, 6);
+  });
+});
+
+describe('charging in the cold', () => {
+  it('keeps the full charge power from the set temperature up and falls linearly to the share at −20 °C', () => {
+    expect(coldChargeFactor(15, 10, 0.3)).toBe(1);
+    expect(coldChargeFactor(10, 10, 0.3)).toBe(1);
+    expect(coldChargeFactor(-5, 10, 0.3)).toBeCloseTo(0.65, 12);
+    expect(coldChargeFactor(-20, 10, 0.3)).toBeCloseTo(0.3, 12);
+    expect(coldChargeFactor(-35, 10, 0.3)).toBeCloseTo(0.3, 12);
+    expect(coldChargeFactor(-35, 10, 1)).toBe(1);
+  });
+
+  it('sends what a cold battery cannot take to the friction brakes', () => {
+    // Charge limit 200 kW × 0.3 at −20 °C = 60 kW, plus 15 kW of auxiliaries, at η 0.889.
+    const cold = params({ coldChargeShareAtMinus20C: 0.3 });
+    const split = emptyPowerSplit();
+
+    splitWheelPower(cold, -BRAKING_W, SPEED_MPS, 0.5, 1, split, -20);
+
+    expect(split.regenWheelPowerW).toBeCloseTo(75_000 / 0.889, 6);
+    expect(split.frictionPowerW).toBeCloseTo(BRAKING_W - 75_000 / 0.889, 6);
+
+    splitWheelPower(cold, -BRAKING_W, SPEED_MPS, 0.5, 1, split, 20);
+    expect(split.frictionPowerW).toBe(0);
   });
 });
 

@@ -42,6 +42,7 @@ describe('vehicle form model', () => {
         'tractionPowerW', 'regenPowerW', 'drivetrainEfficiency', 'regenEfficiency', 'batteryCapacityWh', 'maxChargePowerW',
         'auxPowerW', 'maxTractionForceN', 'brakeType', 'brakeThermalMassJPerK', 'brakeCoolingAreaM2', 'brakeHeatShare',
         'brakeEmissivity', 'retarderPowerW', 'lineReceptivity', 'powerSource', 'socTaperStart', 'socCeiling', 'regenMinSpeedMps',
+        'coldChargeFullFromC', 'coldChargeShareAtMinus20C',
       ].sort(),
     );
   });
