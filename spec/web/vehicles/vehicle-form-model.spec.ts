@@ -83,12 +83,13 @@ describe('vehicle form model in imperial units', () => {
   it('shows masses in short tons and pounds, forces in lbf, speeds in mph and temperatures in °F', () => {
     const numbers = toVehicleFormValue(aProfile(), 'imperial').numbers;
 
-    // 13 500 kg ÷ 907.18474 kg/tn; 70 kg ÷ 0.45359237 kg/lb.
-    expect(numbers['curbMass']).toBeCloseTo(14.881203, 6);
-    expect(numbers['loadFull']).toBeCloseTo(6.558752, 6);
-    expect(numbers['passengerMass']).toBeCloseTo(154.323584, 6);
-    expect(numbers['maxTractionForce']).toBeCloseTo(35_000 / 4.4482216152605, 5);
-    expect(numbers['regenMinSpeed']).toBeCloseTo(3.106856, 6);
+    // 13 500 kg ÷ 907.18474 kg/tn = 14.881…; 70 kg ÷ 0.45359237 kg/lb = 154.32…; shown with two
+    // decimals, three below 10.
+    expect(numbers['curbMass']).toBe(14.88);
+    expect(numbers['loadFull']).toBe(6.559);
+    expect(numbers['passengerMass']).toBe(154.32);
+    expect(numbers['maxTractionForce']).toBe(7_868.31);
+    expect(numbers['regenMinSpeed']).toBe(3.107);
     expect(numbers['winterAmbient']).toBe(14);
     expect(fieldUnit(field('curbMass'), 'imperial')).toBe('tn');
     expect(fieldUnit(field('passengerMass'), 'imperial')).toBe('lb');
@@ -98,9 +99,9 @@ describe('vehicle form model in imperial units', () => {
     const numbers = toVehicleFormValue(aProfile(), 'imperial').numbers;
 
     // 1 ft² = 0.09290304 m² exactly; 1 BTU/°F = 1 055.05585262 J × 1.8 per K (International Table BTU).
-    expect(numbers['frontalArea']).toBeCloseTo(8 / 0.09290304, 6);
-    expect(numbers['brakeCoolingArea']).toBeCloseTo(1.6 / 0.09290304, 6);
-    expect(numbers['brakeThermalMass']).toBeCloseTo(92_000 / 1_899.100534716, 6);
+    expect(numbers['frontalArea']).toBe(86.11); // 8 / 0.09290304 = 86.111…
+    expect(numbers['brakeCoolingArea']).toBe(17.22); // 1.6 / 0.09290304 = 17.222…
+    expect(numbers['brakeThermalMass']).toBe(48.44); // 92 000 / 1 899.100534716 = 48.443…
     expect(fieldUnit(field('frontalArea'), 'imperial')).toBe('ft²');
     expect(fieldUnit(field('brakeThermalMass'), 'imperial')).toBe('BTU/°F');
     expect(fieldUnit(field('brakeThermalMass'), 'metric')).toBe('kJ/K');
@@ -170,7 +171,7 @@ describe('vehicle form model in imperial units', () => {
     const imperial = switchUnits(loaded.shown, 'metric', 'imperial', loaded);
     const metricAgain = switchUnits(imperial.shown, 'imperial', 'metric', imperial);
 
-    expect(imperial.shown['curbMass']).toBeCloseTo(14.881203, 6);
+    expect(imperial.shown['curbMass']).toBe(14.88);
     expect(imperial.shown['winterAmbient']).toBe(14);
     expect(metricAgain.shown).toEqual(loaded.shown);
     const draft = toVehicleDraft(toVehicleFormValue(profile, 'metric'), 'battery-bus-12m', 'metric', metricAgain);

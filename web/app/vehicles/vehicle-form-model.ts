@@ -114,10 +114,17 @@ export function fieldUnit(field: VehicleField, system: UnitSystem): string {
   return system === 'imperial' && field.quantity ? unitLabel(field.quantity, system) : field.unit;
 }
 
-/** The displayed number for an SI value, rounded to what a person would type. */
+/**
+ * The displayed number for an SI value, rounded to what a person would type: metric values are
+ * the stored ones; converted imperial values keep two decimals (three below 10). A value left as
+ * shown still saves its exact SI value (see toSiNumbers).
+ */
 export function toShownNumber(field: VehicleField, si: number, system: UnitSystem): number {
-  const shown = system === 'imperial' && field.quantity ? toDisplay(field.quantity, si, system) : si / field.factor;
-  return roundTo(shown, 6);
+  if (system === 'imperial' && field.quantity) {
+    const shown = toDisplay(field.quantity, si, system);
+    return roundTo(shown, Math.abs(shown) < 10 ? 3 : 2);
+  }
+  return roundTo(si / field.factor, 6);
 }
 
 /** The SI value of a displayed number. */
