@@ -30,7 +30,7 @@ import { newPasswordValidator, passwordsMatchValidator } from '../ui/password-va
   ],
   template: `
     <h2 mat-dialog-title>Change password</h2>
-    <form [formGroup]="form" (ngSubmit)="changePassword()" novalidate>
+    <form class="app-form-dialog" [formGroup]="form" (ngSubmit)="changePassword()" novalidate>
       <mat-dialog-content>
         <p class="note">After the change you will be signed out everywhere and sign in again.</p>
         @if (errorMessage(); as message) {
@@ -65,10 +65,6 @@ import { newPasswordValidator, passwordsMatchValidator } from '../ui/password-va
         <button matButton="filled" type="submit" [disabled]="isSubmitting()">Change password</button>
       </mat-dialog-actions>
     </form>
-  `,
-  styles: `
-    mat-form-field { width: 100%; }
-    .note { margin-top: 0; color: var(--mat-sys-on-surface-variant); }
   `,
   changeDetection: ChangeDetectionStrategy.OnPush,
 })

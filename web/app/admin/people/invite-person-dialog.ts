@@ -25,7 +25,7 @@ import { PeopleApi } from './people-api';
   ],
   template: `
     <h2 mat-dialog-title>Invite a person</h2>
-    <form [formGroup]="form" (ngSubmit)="invite()" novalidate>
+    <form class="app-form-dialog" [formGroup]="form" (ngSubmit)="invite()" novalidate>
       <mat-dialog-content>
         <p class="note">They receive an e-mail with a link to choose their password.</p>
         @if (errorMessage(); as message) {
@@ -64,10 +64,6 @@ import { PeopleApi } from './people-api';
         <button matButton="filled" type="submit" [disabled]="isSubmitting()">Send invitation</button>
       </mat-dialog-actions>
     </form>
-  `,
-  styles: `
-    mat-form-field { width: 100%; }
-    .note { margin-top: 0; color: var(--mat-sys-on-surface-variant); }
   `,
   changeDetection: ChangeDetectionStrategy.OnPush,
 })
