@@ -1,6 +1,6 @@
 import { sql } from 'drizzle-orm';
 import request from 'supertest';
-import { afterAll, beforeAll, beforeEach, describe, expect, it } from 'vitest';
+import { afterAll, beforeEach, describe, expect, it } from 'vitest';
 import { roadRoutePageSchema, roadRouteSchema, routeProfileSchema } from '@shared/domain/road-routes';
 import { createTestContext } from '../../support/test-app';
 import { sessionCookies } from '../../support/session-cookie';
@@ -12,9 +12,6 @@ const { app, db } = context;
 let cookieFor: (role: 'planner' | 'analyst' | 'safety' | 'board' | 'admin') => Promise<string>;
 let planner: string;
 
-beforeAll(async () => {
-  await truncateAll(db);
-});
 beforeEach(async () => {
   await truncateAll(db);
   cookieFor = sessionCookies(db, context.deps.config);
