@@ -43,10 +43,13 @@ export function createApp(givenDeps: AppDeps): Express {
   const webDir = resolve(deps.config.WEB_DIR);
   if (deps.config.WEB_DIR && existsSync(resolve(webDir, 'index.html'))) {
     app.use(express.static(webDir, { index: false, maxAge: '1h' }));
-    // The Angular router owns every other path.
-    app.get('/{*splat}', (_req, res) => {
+    // The Angular router owns every other path. `root` makes `send` check only the file name
+    // for dot-segments, so an installation under a hidden folder (/home/x/.apps/…) still serves it.
+    app.get('/{*splat}', (_req, res, next) => {
       res.set('Cache-Control', 'no-cache');
-      res.sendFile(resolve(webDir, 'index.html'));
+      res.sendFile('index.html', { root: webDir }, (error) => {
+        if (error) next(error);
+      });
     });
   }
 
