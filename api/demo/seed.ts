@@ -1,5 +1,6 @@
 import type { AppDeps } from '../app-deps';
 import { seedDemoNetwork } from './demo-network';
+import { seedDemoNetworkRun } from './demo-network-run';
 import { seedDemoPeople } from './demo-people';
 import { seedDemoReviews } from './demo-reviews';
 import { seedDemoTerrain } from './demo-terrain';
@@ -17,4 +18,5 @@ export async function seedDemo(deps: AppDeps): Promise<void> {
   // Routes, vehicle profiles and computed scenarios of the invented transit authority.
   await seedDemoNetwork(deps);
   await seedDemoReviews(deps);
+  await seedDemoNetworkRun(deps);
 }
