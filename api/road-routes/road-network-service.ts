@@ -5,7 +5,7 @@
  * vertices), and how far they moved is returned.
  */
 import { asc } from 'drizzle-orm';
-import PathFinder from 'geojson-path-finder';
+import PathFinderModule from 'geojson-path-finder';
 import { distance, point } from '@turf/turf';
 import type { FeatureCollection, LineString as GeoJsonLineString } from 'geojson';
 import { positionSchema, type LineString } from '@shared/domain/analysis';
@@ -14,6 +14,13 @@ import type { Database } from '../db/client';
 import { roadNetworkLines } from '../db/schema/index';
 import { BadRequestError, NotFoundError } from '../http/http-error';
 import { flatten, lineLengthM } from './route-geometry';
+
+/**
+ * geojson-path-finder ships CommonJS with its class on `exports.default`. Under tsx and vitest the
+ * default import is the class; Node's own ESM loader, which runs the bundled server, hands over
+ * the whole `exports` object instead. Take the class from either.
+ */
+const PathFinder = ((PathFinderModule as unknown as { default?: typeof PathFinderModule }).default ?? PathFinderModule) as typeof PathFinderModule;
 
 /** Largest network accepted in one upload, lines (keeps path finding interactive). */
 const MAX_NETWORK_LINES = 50_000;

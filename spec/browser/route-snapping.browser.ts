@@ -1,0 +1,98 @@
+import assert from 'node:assert/strict';
+import { describe, it } from 'node:test';
+import type { Page } from 'playwright-core';
+import { BASE_URL, screenshot } from './support/browser';
+import { signedInBrowser } from './support/demo-people';
+import { PageWatch } from './support/page-watch';
+
+/**
+ * Snapping as shipped: on by default for a planner when a road network is loaded. What is checked
+ * is what a planner gets (the line follows the roads), not how the server finds the path.
+ */
+describe('route editor: snap to roads (on by default)', () => {
+  const browser = signedInBrowser('planner', { width: 1366, height: 900 });
+
+  it('draws along the roads of the network when the planner clicks near them', async () => {
+    const { page } = browser;
+    const watch = new PageWatch(page);
+    try {
+      const roads = await roadNetwork(page);
+      await page.goto(`${BASE_URL}/routes/new`);
+      await page.getByRole('heading', { level: 1, name: 'New route' }).waitFor();
+      await page.locator('.leaflet-tile-loaded').first().waitFor();
+      const snap = page.getByRole('switch', { name: 'Snap to roads' });
+      await page.waitForFunction(() => document.querySelector('[role="switch"][aria-checked="true"]') !== null);
+      assert.equal(await snap.getAttribute('aria-checked'), 'true', 'snapping is on by default');
+
+      // Two bends of the longest road, a few bends apart: a planner clicks on the road itself.
+      const road = roads.reduce((longest, line) => (line.length > longest.length ? line : longest));
+      await clickAt(page, road[1]!);
+      await clickAt(page, road[Math.min(road.length - 2, 5)]!);
+      await screenshot(page, 'route-editor-snapped');
+      await page.waitForFunction(() => /Vertices ([3-9]|\d\d+)/.test(document.querySelector('[data-testid="route-figures"]')?.textContent ?? ''));
+
+      const vertices = await vertexTable(page);
+      assert.ok(vertices.length > 2, `the second click adds a path along the roads (${vertices.length} vertices)`);
+      for (const [index, vertex] of vertices.slice(1).entries()) {
+        const offM = distanceToNetworkM(vertex, roads);
+        assert.ok(offM < 1, `vertex ${index + 2} lies on a road (${offM.toFixed(2)} m off)`);
+      }
+      assert.equal(await page.getByText('without snapping').count(), 0, 'no "added without snapping" message');
+      assert.deepEqual(watch.take(), []);
+    } finally {
+      watch.stop();
+    }
+  });
+});
+
+type LonLat = [number, number];
+
+async function roadNetwork(page: Page): Promise<LonLat[][]> {
+  const response = await page.request.get(`${BASE_URL}/api/road-network`);
+  assert.equal(response.status(), 200);
+  const network = (await response.json()) as { features: { geometry: { coordinates: number[][] } }[] };
+  assert.ok(network.features.length > 0, 'the demo has a road network');
+  return network.features.map((feature) => feature.geometry.coordinates.map(([lon, lat]) => [lon!, lat!] as LonLat));
+}
+
+/**
+ * Clicks the map at a longitude and latitude. Where that is on screen is read from a loaded
+ * terrain tile (its z/x/y in the address and its box on the page), so nothing of the map's code
+ * is needed: Web Mercator tile arithmetic (common practice, the XYZ tile scheme).
+ */
+async function clickAt(page: Page, [lon, lat]: LonLat): Promise<void> {
+  const tile = page.locator('.leaflet-tile-loaded[src*="/api/tiles/terrain/"]').first();
+  const [, z, x, y] = /\/api\/tiles\/terrain\/(\d+)\/(\d+)\/(\d+)\.png/.exec((await tile.getAttribute('src')) ?? '')!.map(Number) as number[];
+  const box = (await tile.boundingBox())!;
+  const scale = 2 ** z!;
+  const worldX = ((lon + 180) / 360) * scale;
+  const sinLat = Math.sin((lat * Math.PI) / 180);
+  const worldY = (0.5 - Math.log((1 + sinLat) / (1 - sinLat)) / (4 * Math.PI)) * scale;
+  await page.mouse.click(box.x + (worldX - x!) * box.width, box.y + (worldY - y!) * box.height);
+}
+
+/** The vertices as the vertex table shows them. */
+async function vertexTable(page: Page): Promise<LonLat[]> {
+  const table = page.getByTestId('vertices-table');
+  const longitudes = await table.getByRole('spinbutton', { name: /^Longitude of vertex/ }).evaluateAll((inputs) => inputs.map((input) => Number((input as HTMLInputElement).value)));
+  const latitudes = await table.getByRole('spinbutton', { name: /^Latitude of vertex/ }).evaluateAll((inputs) => inputs.map((input) => Number((input as HTMLInputElement).value)));
+  return longitudes.map((lon, index) => [lon, latitudes[index]!]);
+}
+
+/** Shortest distance from a point to any road segment, m (local equirectangular plane; fine at road scale). */
+function distanceToNetworkM([lon, lat]: LonLat, roads: LonLat[][]): number {
+  const northM = 111_320;
+  const eastM = 111_320 * Math.cos((lat * Math.PI) / 180);
+  const plane = ([x, y]: LonLat) => [(x - lon) * eastM, (y - lat) * northM] as const;
+  let best = Number.POSITIVE_INFINITY;
+  for (const road of roads) {
+    for (let i = 1; i < road.length; i++) {
+      const [ax, ay] = plane(road[i - 1]!);
+      const [bx, by] = plane(road[i]!);
+      const lengthSquared = (bx - ax) ** 2 + (by - ay) ** 2;
+      const t = lengthSquared === 0 ? 0 : Math.max(0, Math.min(1, -(ax * (bx - ax) + ay * (by - ay)) / lengthSquared));
+      best = Math.min(best, Math.hypot(ax + t * (bx - ax), ay + t * (by - ay)));
+    }
+  }
+  return best;
+}
