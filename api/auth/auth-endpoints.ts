@@ -6,6 +6,7 @@ import {
   setPasswordWithTokenRequestSchema,
   tokenInfoRequestSchema,
   tokenInfoResponseSchema,
+  sessionResponseSchema,
   userResponseSchema,
 } from '@shared/domain/auth';
 import type { AppDeps } from '../app-deps';
@@ -50,6 +51,17 @@ export function authEndpoints(deps: AppDeps) {
         await revokeSession(db, res.locals['sessionId'] as string);
         res.clearCookie(SESSION_COOKIE, { ...sessionCookieOptions(req, config.SESSION_TTL_MINUTES), maxAge: undefined });
         res.status(204).end();
+      },
+    }),
+    endpoint({
+      method: 'get',
+      path: '/api/auth/session',
+      summary: 'Who is signed in on this browser: the person, or null (never 401)',
+      tag: 'Sign-in',
+      access: 'public',
+      responses: { 200: { description: 'The signed-in person, or null when nobody is', schema: sessionResponseSchema } },
+      handler: ({ user, res }) => {
+        res.json({ user: user ?? null });
       },
     }),
     endpoint({

@@ -21,6 +21,13 @@ export type LoginRequest = z.infer<typeof loginRequestSchema>;
 export const userResponseSchema = z.object({ user: userSchema });
 export type UserResponse = z.infer<typeof userResponseSchema>;
 
+/**
+ * GET /api/auth/session: who is signed in on this browser, `null` when nobody is. Answers 200 either
+ * way, so the app's first look at the session is not logged as a failed request before sign-in.
+ */
+export const sessionResponseSchema = z.object({ user: userSchema.nullable() });
+export type SessionResponse = z.infer<typeof sessionResponseSchema>;
+
 /** A new password: checked with the same rules in the browser and on the server. */
 export const newPasswordSchema = z
   .string()

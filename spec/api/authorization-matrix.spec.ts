@@ -14,6 +14,7 @@ const EXPECTED_ACCESS: Record<string, 'public' | 'signed-in' | readonly Role[]> 
   'GET /api/health': 'public',
   'POST /api/auth/login': 'public',
   'POST /api/auth/logout': 'signed-in',
+  'GET /api/auth/session': 'public',
   'GET /api/auth/me': 'signed-in',
   'POST /api/auth/password': 'signed-in',
   'POST /api/auth/token-info': 'public',

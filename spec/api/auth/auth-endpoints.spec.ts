@@ -197,3 +197,31 @@ function signWith(secret: string, sessionId: string, userId: string, expiresInS:
     .setExpirationTime(nowS + expiresInS)
     .sign(new TextEncoder().encode(secret));
 }
+
+describe('GET /api/auth/session', () => {
+  it('answers 200 with a null person when nobody is signed in (issue 10: no failed request before sign-in)', async () => {
+    const response = await request(app).get('/api/auth/session');
+
+    expect(response.status).toBe(200);
+    expect(response.body).toEqual({ user: null });
+  });
+
+  it('answers the signed-in person when the session is live', async () => {
+    const { agent, person } = await signedInAgent(app, db, 'safety');
+
+    const response = await agent.get('/api/auth/session');
+
+    expect(response.status).toBe(200);
+    expect(response.body).toEqual({ user: { id: person.id, email: person.email, name: person.name, role: 'safety' } });
+  });
+
+  it('answers a null person once the session has ended', async () => {
+    const { agent } = await signedInAgent(app, db, 'planner');
+    await agent.post('/api/auth/logout');
+
+    const response = await agent.get('/api/auth/session');
+
+    expect(response.status).toBe(200);
+    expect(response.body.user).toBeNull();
+  });
+});

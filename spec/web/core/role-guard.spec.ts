@@ -38,8 +38,8 @@ describe('role guards', () => {
         url: '/admin/people',
       });
       httpTesting
-        .expectOne('/api/auth/me')
-        .flush({ error: { code: 'unauthenticated', message: 'Sign in' } }, { status: 401, statusText: 'Unauthorized' });
+        .expectOne('/api/auth/session')
+        .flush({ user: null });
 
       const result = await decision;
       expect(result).toBeInstanceOf(UrlTree);
@@ -87,7 +87,7 @@ describe('role guards', () => {
   });
 
   function answerMe(role: Role): void {
-    httpTesting.expectOne('/api/auth/me').flush({
+    httpTesting.expectOne('/api/auth/session').flush({
       user: { id: '0b7f5a52-8d0e-4d0a-9a55-0c1c1a7d2e10', email: `${role}@descentry.example`, name: 'Noor Haddad', role },
     });
   }

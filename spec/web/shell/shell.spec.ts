@@ -39,7 +39,7 @@ describe('Shell', () => {
   async function renderAs(role: Role, name: string) {
     const session = TestBed.inject(Session);
     void session.ensureLoaded();
-    httpTesting.expectOne('/api/auth/me').flush({
+    httpTesting.expectOne('/api/auth/session').flush({
       user: { id: '5a0d8a34-3f0e-4c55-9d7e-1b2c3d4e5f60', email: `${role}@descentry.example`, name, role },
     });
     await session.ensureLoaded();

@@ -93,8 +93,8 @@ describe('SignIn', () => {
     const fixture = TestBed.createComponent(SignIn);
     if (inputs.returnUrl) fixture.componentRef.setInput('returnUrl', inputs.returnUrl);
     httpTesting
-      .expectOne('/api/auth/me')
-      .flush({ error: { code: 'unauthenticated', message: 'Sign in first' } }, { status: 401, statusText: 'Unauthorized' });
+      .expectOne('/api/auth/session')
+      .flush({ user: null });
     await settle(fixture);
     return { fixture, loader: TestbedHarnessEnvironment.loader(fixture) };
   }

@@ -1,11 +1,11 @@
-import { HttpClient, HttpContext, HttpErrorResponse } from '@angular/common/http';
+import { HttpClient, HttpContext } from '@angular/common/http';
 import { Injectable, computed, inject, signal } from '@angular/core';
-import { userResponseSchema, type LoginRequest, type User } from '@shared/domain/auth';
+import { sessionResponseSchema, userResponseSchema, type LoginRequest, type User } from '@shared/domain/auth';
 import { ROLE_LABELS, type Role } from '@shared/domain/roles';
 import { firstValueFrom } from 'rxjs';
 import { ERRORS_SHOWN_INLINE } from './api-error-message';
 
-/** Whether the first `GET /api/auth/me` has answered yet. */
+/** Whether the first `GET /api/auth/session` has answered yet. */
 export type SessionStatus = 'unknown' | 'signed-in' | 'signed-out';
 
 /** The person signed in to this browser, as the API last told us. */
@@ -27,7 +27,7 @@ export class Session {
 
   /**
    * Asks the API who is signed in, once per page load; guards await this before deciding.
-   * A 401 simply means nobody is signed in.
+   * The answer is `null` when nobody is (200, so nothing is logged as a failed request).
    */
   ensureLoaded(): Promise<void> {
     this.loading ??= this.fetchCurrentUser();
@@ -70,14 +70,14 @@ export class Session {
 
   private async fetchCurrentUser(): Promise<void> {
     try {
-      const body = await firstValueFrom(this.http.get('/api/auth/me'));
-      this.setUser(userResponseSchema.parse(body).user);
+      const body = await firstValueFrom(this.http.get('/api/auth/session'));
+      const { user } = sessionResponseSchema.parse(body);
+      if (user) this.setUser(user);
+      else this.clear();
     } catch (error: unknown) {
-      // Expected: 401 when nobody is signed in. Anything else (server down) also leaves us
-      // signed out; the interceptor has already told the person what went wrong.
-      if (!(error instanceof HttpErrorResponse) || error.status !== 401) {
-        console.warn('Could not read the current session', error);
-      }
+      // Expected only when the server cannot be reached: leave the person signed out; the
+      // interceptor has already told them what went wrong.
+      console.warn('Could not read the current session', error);
       this._user.set(null);
       this._status.set('signed-out');
     }
