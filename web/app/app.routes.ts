@@ -2,6 +2,7 @@ import type { Routes } from '@angular/router';
 import { ROLES } from '@shared/domain/roles';
 import { areaData } from './core/areas';
 import { allowRoles, areaRoleGuard, signedInGuard } from './core/role-guard';
+import { uuidParams } from './core/uuid-params';
 
 /**
  * The router table. Pages outside the shell are public (sign-in and the e-mailed links).
@@ -69,6 +70,7 @@ export const routes: Routes = [
       {
         path: 'reviews/:reviewId',
         title: 'Descent review item · Descentry',
+        canMatch: [uuidParams],
         loadComponent: () => import('./reviews/review-detail'),
       },
       {
@@ -98,7 +100,7 @@ export const routes: Routes = [
       {
         path: 'batch-runs/:batchRunId',
         title: 'Network run · Descentry',
-        canMatch: [allowRoles(['analyst'])],
+        canMatch: [uuidParams, allowRoles(['analyst'])],
         loadComponent: () => import('./batch-runs/batch-run-detail'),
       },
       {

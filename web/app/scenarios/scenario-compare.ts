@@ -1,4 +1,5 @@
 import { ChangeDetectionStrategy, Component, computed, effect, inject, input, signal, untracked } from '@angular/core';
+import { MatButtonModule } from '@angular/material/button';
 import { MatIconModule } from '@angular/material/icon';
 import { MatProgressBarModule } from '@angular/material/progress-bar';
 import { RouterLink } from '@angular/router';
@@ -32,12 +33,16 @@ const SUMMARY_ROWS: readonly SummaryRow[] = [
   { label: 'Peak brake temperature', quantity: 'temperature', value: (s) => s.peakBrakeTempC },
 ];
 
-type LoadState = { status: 'loading' } | { status: 'ready'; comparison: ScenarioComparison } | { status: 'error'; message: string };
+type LoadState =
+  | { status: 'loading' }
+  | { status: 'choose'; chosen: number }
+  | { status: 'ready'; comparison: ScenarioComparison }
+  | { status: 'error'; message: string };
 
 /** Two to four scenarios side by side: the same charts overlaid and a table of differences. */
 @Component({
   selector: 'app-scenario-compare',
-  imports: [RouterLink, MatIconModule, MatProgressBarModule, DistanceChart, UnitSwitch],
+  imports: [RouterLink, MatButtonModule, MatIconModule, MatProgressBarModule, DistanceChart, UnitSwitch],
   templateUrl: './scenario-compare.html',
   styleUrl: './scenario-compare.scss',
   changeDetection: ChangeDetectionStrategy.OnPush,
@@ -45,8 +50,8 @@ type LoadState = { status: 'loading' } | { status: 'ready'; comparison: Scenario
 export default class ScenarioCompare {
   private readonly api = inject(ScenariosApi);
 
-  /** Comma-separated scenario ids, from `?ids=`. */
-  readonly ids = input<string>('');
+  /** Comma-separated scenario ids, from `?ids=` (undefined when the address has none). */
+  readonly ids = input<string | undefined>();
 
   protected readonly units = inject(UnitPreference).system;
   protected readonly colors = COMPARE_COLORS;
@@ -98,7 +103,7 @@ export default class ScenarioCompare {
 
   constructor() {
     effect(() => {
-      const ids = this.ids()
+      const ids = (this.ids() ?? '')
         .split(',')
         .map((id) => id.trim())
         .filter(Boolean);
@@ -123,7 +128,7 @@ export default class ScenarioCompare {
 
   private async load(ids: string[]): Promise<void> {
     if (ids.length < 2 || ids.length > 4) {
-      this.state.set({ status: 'error', message: 'Choose two to four scenarios on the Scenarios page to compare them.' });
+      this.state.set({ status: 'choose', chosen: ids.length });
       return;
     }
     this.state.set({ status: 'loading' });

@@ -1,5 +1,8 @@
 import type { Routes } from '@angular/router';
 import { allowRoles } from '../core/role-guard';
+import { uuidParams } from '../core/uuid-params';
+
+const EDITORS = ['planner', 'analyst'] as const;
 
 /** Scenarios area: everyone reads; planners and analysts create, edit and run. */
 export const SCENARIOS_ROUTES: Routes = [
@@ -8,15 +11,22 @@ export const SCENARIOS_ROUTES: Routes = [
   {
     path: 'new',
     title: 'New scenario · Descentry',
-    canMatch: [allowRoles(['planner', 'analyst'])],
+    canMatch: [allowRoles(EDITORS)],
     loadComponent: () => import('./scenario-form'),
+  },
+  {
+    // Every other role that bookmarked or typed the address: say who may create scenarios.
+    path: 'new',
+    title: 'New scenario · Descentry',
+    data: { title: 'New scenario', action: 'create scenarios', roles: EDITORS, back: '/scenarios', backLabel: 'Scenarios' },
+    loadComponent: () => import('../shell/role-required'),
   },
   {
     path: ':scenarioId/edit',
     title: 'Edit scenario · Descentry',
-    canMatch: [allowRoles(['planner', 'analyst'])],
+    canMatch: [uuidParams, allowRoles(EDITORS)],
     loadComponent: () => import('./scenario-form'),
   },
-  { path: ':scenarioId', title: 'Scenario results · Descentry', loadComponent: () => import('./scenario-result') },
+  { path: ':scenarioId', title: 'Scenario results · Descentry', canMatch: [uuidParams], loadComponent: () => import('./scenario-result') },
 ];
 export default SCENARIOS_ROUTES;

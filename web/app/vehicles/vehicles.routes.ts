@@ -1,5 +1,6 @@
 import type { Routes } from '@angular/router';
 import { allowRoles } from '../core/role-guard';
+import { uuidParams } from '../core/uuid-params';
 
 /** Vehicle profiles: everyone reads; analysts create, copy and edit. */
 export const VEHICLES_ROUTES: Routes = [
@@ -10,6 +11,18 @@ export const VEHICLES_ROUTES: Routes = [
     canMatch: [allowRoles(['analyst'])],
     loadComponent: () => import('./vehicle-profile-editor'),
   },
-  { path: ':vehicleProfileId', title: 'Vehicle profile · Descentry', loadComponent: () => import('./vehicle-profile-editor') },
+  {
+    // Every other role that bookmarked or typed the address: say who may create profiles.
+    path: 'new',
+    title: 'New vehicle profile · Descentry',
+    data: { title: 'New vehicle profile', action: 'create vehicle profiles', roles: ['analyst'], back: '/vehicles', backLabel: 'Vehicle profiles' },
+    loadComponent: () => import('../shell/role-required'),
+  },
+  {
+    path: ':vehicleProfileId',
+    title: 'Vehicle profile · Descentry',
+    canMatch: [uuidParams],
+    loadComponent: () => import('./vehicle-profile-editor'),
+  },
 ];
 export default VEHICLES_ROUTES;
