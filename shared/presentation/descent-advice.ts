@@ -1,0 +1,62 @@
+/**
+ * The engine's advice for one descent, in the sentences every output uses (the review screen,
+ * the scenario report, the e-mails to safety officers). Figures are rounded toward safety (see
+ * safety-rounding.ts), so a driver told "at or below 21 km/h" is within what the engine found.
+ */
+import type { Descent } from '../domain/analysis';
+import { formatSafeSpeed, formatSocLimit, formatTemperatureLimit } from './safety-rounding';
+import type { UnitSystem } from './units';
+
+export type AdviceFacts = Pick<Descent, 'speedAdvice' | 'maxSafeSpeedKph' | 'maxTopSoc' | 'fadeThresholdC'>;
+
+export interface DescentAdvice {
+  /** "Highest safe descent speed: 21 km/h". */
+  speedHeadline: string;
+  speedExplanation: string;
+  /** "Highest battery charge (SOC) at the top: 87 %". */
+  socHeadline: string;
+  socExplanation: string;
+  /** One line for tables and e-mails: "at or below 21 km/h; start at or below 87 % SOC". */
+  short: string;
+}
+
+export function describeDescentAdvice(descent: AdviceFacts, system: UnitSystem): DescentAdvice {
+  const fade = formatTemperatureLimit(descent.fadeThresholdC, system);
+  let speedHeadline: string;
+  let speedExplanation: string;
+  let speedShort: string;
+  switch (descent.speedAdvice) {
+    case 'limit': {
+      const speed = formatSafeSpeed(descent.maxSafeSpeedKph ?? 0, system);
+      speedHeadline = `Highest safe descent speed: ${speed}`;
+      speedShort = `descend at or below ${speed}`;
+      speedExplanation =
+        `Driven steadily at this speed or slower, the friction brakes stay below ${fade}, the temperature ` +
+        'at which they start to fade (lose stopping power). Slower means less heat per second and more time to cool.';
+      break;
+    }
+    case 'no-limit-needed':
+      speedHeadline = 'No lower speed needed';
+      speedShort = 'no lower descent speed needed for the brakes';
+      speedExplanation = `At the posted speed limits the friction brakes already stay below the fade temperature (${fade}).`;
+      break;
+    case 'not-holdable':
+      speedHeadline = 'No speed is slow enough';
+      speedShort = 'no descent speed keeps the brakes below fade: an endurance brake or a vehicle restriction is needed';
+      speedExplanation =
+        `Even at walking pace the friction brakes pass ${fade} on this descent. A lower speed alone cannot make it safe: ` +
+        'it needs more regeneration, a retarder, a lower battery charge at the top or a vehicle restriction.';
+      break;
+  }
+  const soc = descent.maxTopSoc === null ? null : formatSocLimit(descent.maxTopSoc);
+  const socHeadline = soc === null ? 'Battery charge is not the limit' : `Highest battery charge (SOC) at the top: ${soc}`;
+  const socShort = soc === null ? 'regeneration cannot take the whole descent at any state of charge' : `start the descent at or below ${soc} SOC`;
+  const socExplanation =
+    soc === null
+      ? 'At any state of charge, regeneration alone cannot take this whole descent (its power or a low speed limits it), ' +
+        'so the friction brakes always share the work; see the speed advice.'
+      : 'Regeneration turns braking energy back into battery charge, but a nearly full battery cannot take it. ' +
+        'Start the descent at or below this state of charge (SOC, how full the battery is) and the motor can do ' +
+        'the braking instead of the friction brakes.';
+  return { speedHeadline, speedExplanation, socHeadline, socExplanation, short: `${speedShort}; ${socShort}` };
+}

@@ -1,0 +1,11 @@
+/**
+ * How Descentry shows what it computes: labels, units, rounding (toward safety for advice), the
+ * figure catalogue, advice sentences and dates. Pure TypeScript for the browser and the server;
+ * the screens, both PDFs, the e-mails and the CSV headers all read from here.
+ */
+export * from './units';
+export * from './safety-rounding';
+export * from './labels';
+export * from './figures';
+export * from './descent-advice';
+export * from './dates';

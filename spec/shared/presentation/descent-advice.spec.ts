@@ -1,0 +1,33 @@
+import { describe, expect, it } from 'vitest';
+import { describeDescentAdvice } from '../../../shared/presentation/descent-advice';
+
+describe('describeDescentAdvice', () => {
+  const limited = { speedAdvice: 'limit' as const, maxSafeSpeedKph: 21.6, maxTopSoc: 0.879, fadeThresholdC: 350 };
+
+  it('advises the speed rounded down, the same number on every output (issue 10: 21 on screen, 20 in the e-mail)', () => {
+    const advice = describeDescentAdvice(limited, 'metric');
+
+    expect(advice.speedHeadline).toBe('Highest safe descent speed: 21 km/h');
+    expect(advice.short).toContain('at or below 21 km/h');
+  });
+
+  it('advises the SOC at the top rounded down', () => {
+    const advice = describeDescentAdvice(limited, 'metric');
+
+    expect(advice.socHeadline).toBe('Highest battery charge (SOC) at the top: 87 %');
+    expect(advice.short).toContain('at or below 87 % SOC');
+  });
+
+  it('says no speed is slow enough when the brakes fade even at walking pace', () => {
+    const advice = describeDescentAdvice({ ...limited, speedAdvice: 'not-holdable', maxSafeSpeedKph: null }, 'imperial');
+
+    expect(advice.speedHeadline).toBe('No speed is slow enough');
+    expect(advice.speedExplanation).toContain('662 °F');
+  });
+
+  it('says so when regeneration cannot take the descent at any SOC', () => {
+    const advice = describeDescentAdvice({ ...limited, maxTopSoc: null }, 'metric');
+
+    expect(advice.socHeadline).toBe('Battery charge is not the limit');
+  });
+});
