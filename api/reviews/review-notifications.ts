@@ -6,6 +6,15 @@
 import { and, eq, inArray } from 'drizzle-orm';
 import type { Descent } from '@shared/domain/analysis';
 import { ENGINEERING_CAUTION } from '@shared/engine/constants';
+import {
+  DIRECTION_LABELS,
+  RISK_LABELS,
+  describeDescentAdvice,
+  describeDescentPlace,
+  formatStretch,
+  formatTemperatureLimit,
+  formatTemperatureReached,
+} from '@shared/presentation/index';
 import { notificationSettingsSchema, REVIEW_STATE_LABELS, type NotificationSettings } from '@shared/domain/reviews';
 import type { Executor } from '../db/client';
 import { users, type ReviewItemRow } from '../db/schema/index';
@@ -20,34 +29,20 @@ export function reviewLink(publicUrl: string, reviewId: string): string {
   return `${publicUrl.replace(/\/+$/, '')}/reviews/${reviewId}`;
 }
 
-/** The descent in words and figures, as both e-mails show it. */
+/**
+ * The descent in words and figures, as both e-mails show it: the same labels, units and safety
+ * rounding as the screens and the PDF report (shared/presentation). Mail goes out in metric units.
+ */
 export function describeDescent(item: Pick<ReviewItemRow, 'routeName' | 'direction' | 'vehicleProfileName' | 'scenarioName'>, descent: Descent): string[] {
   return [
-    `Route: ${item.routeName} (${item.direction})`,
+    `Route: ${item.routeName} (${DIRECTION_LABELS[item.direction].toLowerCase()})`,
     `Vehicle profile: ${item.vehicleProfileName}; scenario: ${item.scenarioName}`,
-    `Descent: km ${km(descent.startM)} to km ${km(descent.endM)}, drop ${Math.round(descent.dropM)} m, ` +
-      `mean grade ${grade(descent.meanGradePercent)}, steepest ${grade(descent.maxGradePercent)}`,
-    `Risk: ${descent.risk}; peak brake temperature ${Math.round(descent.peakBrakeTempC)} °C ` +
-      `(fade threshold ${Math.round(descent.fadeThresholdC)} °C; grade-severity estimate ${Math.round(descent.gsrsPeakBrakeTempC)} °C)`,
-    `Advice: ${speedAdviceText(descent)}; ${socAdviceText(descent)}`,
+    `Descent: ${describeDescentPlace(descent, MAIL_UNITS)}`,
+    `Risk: ${RISK_LABELS[descent.risk]}; peak brake temperature ${formatTemperatureReached(descent.peakBrakeTempC, MAIL_UNITS)} ` +
+      `(fade threshold ${formatTemperatureLimit(descent.fadeThresholdC, MAIL_UNITS)}; grade-severity estimate ` +
+      `${formatTemperatureReached(descent.gsrsPeakBrakeTempC, MAIL_UNITS)})`,
+    `Advice: ${describeDescentAdvice(descent, MAIL_UNITS).short}`,
   ];
-}
-
-function speedAdviceText(descent: Descent): string {
-  switch (descent.speedAdvice) {
-    case 'limit':
-      return `keep the descent speed at or below ${Math.floor(descent.maxSafeSpeedKph ?? 0)} km/h`;
-    case 'no-limit-needed':
-      return 'no descent speed limit needed for the brakes';
-    case 'not-holdable':
-      return 'no descent speed keeps the brakes below the fade threshold: an endurance brake or a vehicle restriction is needed';
-  }
-}
-
-function socAdviceText(descent: Descent): string {
-  return descent.maxTopSoc === null
-    ? 'regeneration cannot take the whole descent at any state of charge'
-    : `start the descent at or below ${Math.round(descent.maxTopSoc * 100)} % state of charge so regeneration can take it`;
 }
 
 /** Active safety officers who want to hear of new high-risk descents. */
@@ -64,12 +59,12 @@ export async function notifyHighRiskDescent(tx: Executor, publicUrl: string, ite
   const recipients = await safetyRecipients(tx);
   const headline =
     reason === 'new'
-      ? `A scenario run found a new ${item.risk}-risk descent that needs review.`
-      : `A scenario rerun made a resolved descent worse (now ${item.risk} risk); the review item is reopened.`;
+      ? `A scenario run found a new ${RISK_LABELS[item.risk].toLowerCase()}-risk descent that needs review.`
+      : `A scenario rerun made a resolved descent worse (now ${RISK_LABELS[item.risk].toLowerCase()} risk); the review item is reopened.`;
   for (const recipient of recipients) {
     await enqueueMail(tx, {
       to: recipient.email,
-      subject: `${capitalise(item.risk)}-risk descent on ${item.routeName}: km ${km(item.descent.startM)}–${km(item.descent.endM)}`,
+      subject: `${RISK_LABELS[item.risk]}-risk descent on ${item.routeName}: ${stretch(item.descent)}`,
       textBody: [
         `Hello ${recipient.name},`,
         '',
@@ -107,7 +102,7 @@ export async function notifyReviewResolved(
     if (!notificationSettingsOf(recipient.notificationSettings).reviewResolved) continue;
     await enqueueMail(tx, {
       to: recipient.email,
-      subject: `Descent review ${REVIEW_STATE_LABELS[item.state].toLowerCase()}: ${item.routeName}, km ${km(item.descent.startM)}–${km(item.descent.endM)}`,
+      subject: `Descent review ${REVIEW_STATE_LABELS[item.state].toLowerCase()}: ${item.routeName}, ${stretch(item.descent)}`,
       textBody: [
         `Hello ${recipient.name},`,
         '',
@@ -127,14 +122,9 @@ export async function notifyReviewResolved(
   }
 }
 
-function km(metres: number): string {
-  return (metres / 1_000).toFixed(2);
-}
+/** E-mails have no unit switch: metric, as the authority's own documents. */
+const MAIL_UNITS = 'metric';
 
-function grade(percent: number): string {
-  return `${Math.abs(percent).toFixed(1)} % down`;
-}
-
-function capitalise(text: string): string {
-  return text.charAt(0).toUpperCase() + text.slice(1);
+function stretch(descent: Pick<Descent, 'startM' | 'endM'>): string {
+  return formatStretch(descent.startM, descent.endM, MAIL_UNITS);
 }

@@ -119,6 +119,14 @@ export const reviewItemSchema = z.object({
   updatedAt: z.iso.datetime({ offset: true }),
 });
 export type ReviewItem = z.infer<typeof reviewItemSchema>;
+
+/**
+ * The risk that stands for an item now: the one its recorded mitigation's re-run gave, when there
+ * is one, otherwise the scenario's own. A descent mitigated from critical to elevated is elevated.
+ */
+export function currentRisk(item: Pick<ReviewItem, 'risk' | 'mitigatedRisk' | 'state'>): ReviewItem['risk'] {
+  return item.state === 'mitigated' && item.mitigatedRisk ? item.mitigatedRisk : item.risk;
+}
 export const reviewListSchema = z.object({ items: z.array(reviewItemSchema), caution: z.string() });
 
 /** States in which an item still needs a safety officer (counted as "open"). */

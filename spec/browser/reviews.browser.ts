@@ -81,7 +81,11 @@ describe('descent review: safety officer', () => {
     await page.getByTestId('current-state').getByText('Mitigated').waitFor();
     const result = page.getByTestId('rerun-result');
     await result.waitFor();
-    assert.match(await result.innerText(), /With the mitigation, the re-run gives\s+Risk: (Low|Elevated|High|Critical)/);
+    const rerun = /With the mitigation, the re-run gives\s+Risk: (Low|Elevated|High|Critical)/.exec(await result.innerText());
+    assert.ok(rerun, await result.innerText());
+    // The header shows the risk that stands now, the mitigated one (issue 10: it kept "Critical").
+    const header = await page.getByTestId('current-risk').innerText();
+    assert.match(header, rerun[1] === 'High' ? /^Risk: High$/ : new RegExp(`^Risk with mitigation: ${rerun[1]}$`));
     await page.getByTestId('audit-event').nth(eventsBefore).waitFor();
     const lastEvent = page.getByTestId('audit-event').last();
     const lastEventText = await lastEvent.innerText();

@@ -1,5 +1,6 @@
 import request from 'supertest';
 import { afterAll, beforeAll, beforeEach, describe, expect, it } from 'vitest';
+import { describeDescentAdvice } from '@shared/presentation/descent-advice';
 import { ENGINEERING_CAUTION } from '@shared/engine/constants';
 import type { ScenarioRow } from '../../../api/db/schema/index';
 import { syncReviewItems } from '../../../api/reviews/review-sync';
@@ -38,10 +39,12 @@ describe('e-mail to safety officers about new high-risk descents', () => {
     expect(message?.subject).toContain('Critical-risk descent on Col road 12');
     const body = message!.textBody;
     expect(body).toContain('Route: Col road 12 (outbound)');
-    expect(body).toContain('km 1.25 to km 3.48, drop 182 m, mean grade 8.2 % down, steepest 11.4 % down');
-    expect(body).toContain('peak brake temperature 612 °C');
-    expect(body).toContain('keep the descent speed at or below 18 km/h');
-    expect(body).toContain('at or below 55 % state of charge');
+    expect(body).toContain('Descent: km 1.3–3.5, drop 182 m, mean grade 8.2 % down, steepest 11.4 %');
+    // Rounded toward safety, as on the screen and in the PDF (issue 10): temperatures up, speeds and SOC down.
+    expect(body).toContain('Risk: Critical; peak brake temperature 613 °C');
+    expect(body).toContain('descend at or below 18 km/h');
+    expect(body).toContain('start the descent at or below 55 % SOC');
+    expect(body).toContain(`Advice: ${describeDescentAdvice({ speedAdvice: 'limit', maxSafeSpeedKph: 18.7, maxTopSoc: 0.55, fadeThresholdC: 0 }, 'metric').short}`);
     expect(body).toContain(`https://descentry.transit.example/reviews/${report.raised[0]}`);
     expect(body).toContain(ENGINEERING_CAUTION);
     expect(await catcher.lastMessageTo(second.email)).toBeDefined();

@@ -13,7 +13,7 @@ import { MatIconModule } from '@angular/material/icon';
 import { MatProgressBarModule } from '@angular/material/progress-bar';
 import { MatSnackBar } from '@angular/material/snack-bar';
 import { RouterLink } from '@angular/router';
-import { REVIEW_STATE_LABELS, type AuditEvent, type ReviewDetail, type ReviewItem } from '@shared/domain/reviews';
+import { REVIEW_STATE_LABELS, currentRisk, type AuditEvent, type ReviewDetail, type ReviewItem } from '@shared/domain/reviews';
 import { BRAKE_RISK_BANDS_C } from '@shared/engine/descents';
 import { DistanceChart, withAlpha, type ChartBand, type ChartSeries } from '../charts/distance-chart';
 import { describeApiError } from '../core/api-error-message';
@@ -85,6 +85,11 @@ export default class ReviewDetailPage {
   protected readonly mitigationLines = computed(() => {
     const mitigation = this.item()?.mitigation;
     return mitigation ? describeMitigation(mitigation) : [];
+  });
+  /** The risk that stands now: after a mitigation's re-run, that run's (see currentRisk). */
+  protected readonly risk = computed(() => {
+    const item = this.item();
+    return item ? currentRisk(item) : 'low';
   });
   protected readonly rerunImproved = computed(() => {
     const item = this.item();
