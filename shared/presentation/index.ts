@@ -9,3 +9,4 @@ export * from './labels';
 export * from './figures';
 export * from './descent-advice';
 export * from './dates';
+export * from './worst-descent';

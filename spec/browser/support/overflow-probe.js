@@ -31,7 +31,7 @@
         .trim();
       const clipsX = style.overflowX === 'hidden' || style.overflowX === 'clip';
       const scrollsX = style.overflowX === 'auto' || style.overflowX === 'scroll';
-      if (scrollsX && element.scrollWidth > element.clientWidth + 1 && !element.closest('.app-scroll-x')) {
+      if (scrollsX && element.scrollWidth > element.clientWidth + 1 && !element.closest('.app-table-frame')) {
         problems.push({ text: (element.textContent ?? '').trim().slice(0, 60), where: describe(element), how: 'scrolls sideways without showing that it does' });
       }
       if (!ownText) continue;
@@ -42,7 +42,7 @@
       const range = document.createRange();
       range.selectNodeContents(element);
       const rect = range.getBoundingClientRect();
-      if (rect.width === 0 || element.closest('.app-scroll-x')) continue;
+      if (rect.width === 0 || element.closest('.app-table-frame')) continue;
       if (rect.right > viewportWidth + 1) {
         problems.push({ text: ownText.slice(0, 80), where: describe(element), how: `runs past the window's right edge (${Math.round(rect.right)} px of ${viewportWidth} px)` });
         continue;

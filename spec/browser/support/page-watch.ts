@@ -99,7 +99,7 @@ export interface OverflowProblem {
  * Finds text a person cannot read whole at the current width: the page itself scrolling sideways,
  * text cut off by its box (ellipsis or hidden overflow), or text running past the edge of the
  * window. A horizontally scrolling box is allowed only when it shows that it scrolls (the shared
- * `app-scroll-x` wrapper draws a shadow on the side that hides more); the map's own panes and
+ * `app-table-frame` wrapper draws a shadow on the side that hides more); the map's own panes and
  * chart canvases are not text and are skipped.
  */
 export async function findOverflowingText(page: Page): Promise<OverflowProblem[]> {

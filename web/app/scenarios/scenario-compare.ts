@@ -3,35 +3,29 @@ import { MatButtonModule } from '@angular/material/button';
 import { MatIconModule } from '@angular/material/icon';
 import { MatProgressBarModule } from '@angular/material/progress-bar';
 import { RouterLink } from '@angular/router';
-import type { Summary } from '@shared/domain/analysis';
 import type { ScenarioComparison } from '@shared/domain/scenarios';
 import { DistanceChart, type ChartSeries } from '../charts/distance-chart';
 import { describeApiError } from '../core/api-error-message';
-import { formatQuantity, unitLabel, type Quantity } from '../units/unit-format';
+import {
+  DIRECTION_LABELS as FIGURE_DIRECTIONS,
+  RISK_LABELS,
+  RISK_ORDER,
+  SUMMARY_FIGURES,
+  countByRisk,
+  describeDescentAdvice,
+  differenceTone,
+  formatFigure,
+  formatFigureDifference,
+  formatStretch,
+  formatTemperatureReached,
+  worstDescent,
+} from '@shared/presentation/index';
+import { unitLabel, type Quantity } from '../units/unit-format';
 import { UnitPreference } from '../units/unit-preference';
 import { UnitSwitch } from '../units/unit-switch';
 import { COMPARE_COLORS, brakeTemperatureSeries, elevationSeries, socSeries, speedSeries } from './result-series';
 import { DIRECTION_LABELS, describeLoad, describeSeason } from './scenario-labels';
 import { ScenariosApi } from './scenarios-api';
-
-/** A row of the differences table: one figure of the whole-scenario summary. */
-interface SummaryRow {
-  label: string;
-  quantity: Quantity;
-  value: (summary: Summary) => number;
-}
-
-const SUMMARY_ROWS: readonly SummaryRow[] = [
-  { label: 'Length', quantity: 'distance', value: (s) => s.lengthM },
-  { label: 'Energy drawn', quantity: 'energy', value: (s) => s.batteryNetEnergyWh + s.regenEnergyWh },
-  { label: 'Regenerated', quantity: 'energy', value: (s) => s.regenEnergyWh },
-  { label: 'Into friction brakes', quantity: 'energy', value: (s) => s.frictionBrakeEnergyWh },
-  { label: 'Auxiliary', quantity: 'energy', value: (s) => s.auxEnergyWh },
-  { label: 'Net from battery', quantity: 'energy', value: (s) => s.batteryNetEnergyWh },
-  { label: 'Per distance', quantity: 'energyPerDistance', value: (s) => s.kWhPerKm },
-  { label: 'End SOC', quantity: 'soc', value: (s) => s.endSoc },
-  { label: 'Peak brake temperature', quantity: 'temperature', value: (s) => s.peakBrakeTempC },
-];
 
 type LoadState =
   | { status: 'loading' }
@@ -81,19 +75,48 @@ export default class ScenarioCompare {
     };
   });
 
+  /**
+   * The differences table: every figure of the shared catalogue (the names and rounding of the
+   * result screen and the PDF), then the descents: the highest risk and the worst descent.
+   */
   protected readonly rows = computed(() => {
     const system = this.units();
-    const summaries = this.items().map((item) => item.result?.summary ?? null);
-    const base = summaries[0];
-    return SUMMARY_ROWS.map((row) => ({
-      label: row.label,
-      cells: summaries.map((summary, index) => {
-        if (!summary) return { value: '—', difference: '' };
-        const value = row.value(summary);
-        const difference = index > 0 && base ? this.difference(row.quantity, value - row.value(base)) : '';
-        return { value: formatQuantity(row.quantity, value, system), difference };
+    const results = this.items().map((item) => item.result);
+    const base = results[0]?.summary;
+    const figureRows = SUMMARY_FIGURES.map((figure) => ({
+      label: figure.label,
+      cells: results.map((result, index) => {
+        if (!result) return { value: '—', difference: '', tone: 'neutral' };
+        const difference = index > 0 && base ? formatFigureDifference(figure, result.summary, base, system) : '';
+        const tone = index > 0 && base ? differenceTone(figure, result.summary, base) : 'neutral';
+        return { value: formatFigure(figure, result.summary, system), difference, tone };
       }),
     }));
+    const riskRow = {
+      label: 'Highest descent risk',
+      cells: results.map((result) => {
+        if (!result) return { value: '—', difference: '', tone: 'neutral' };
+        const counts = countByRisk(result.directions);
+        const highest = [...RISK_ORDER].reverse().find((risk) => counts[risk] > 0);
+        if (!highest) return { value: 'No descent', difference: '', tone: 'neutral' };
+        const others = RISK_ORDER.filter((risk) => risk !== 'low' && counts[risk] > 0).map((risk) => `${counts[risk]} ${RISK_LABELS[risk].toLowerCase()}`);
+        return { value: RISK_LABELS[highest], difference: others.join(', '), tone: 'neutral', risk: highest };
+      }),
+    };
+    const worstRow = {
+      label: 'Worst descent',
+      cells: results.map((result) => {
+        const worst = result ? worstDescent(result.directions) : null;
+        if (!worst) return { value: '—', difference: '', tone: 'neutral' };
+        const { descent, direction } = worst;
+        return {
+          value: `${formatStretch(descent.startM, descent.endM, system)} ${FIGURE_DIRECTIONS[direction].toLowerCase()}`,
+          difference: `${formatTemperatureReached(descent.peakBrakeTempC, system)} peak; ${describeDescentAdvice(descent, system).short}`,
+          tone: 'neutral',
+        };
+      }),
+    };
+    return [...figureRows, riskRow, worstRow];
   });
 
   protected readonly caution = computed(() => {
@@ -113,17 +136,6 @@ export default class ScenarioCompare {
 
   protected unit(quantity: Quantity): string {
     return unitLabel(quantity, this.units());
-  }
-
-  /** "+1.2 kWh", "−3 °C": the change from the first scenario (temperatures as differences, no offset). */
-  private difference(quantity: Quantity, deltaSi: number): string {
-    if (Math.abs(deltaSi) < 1e-9) return '±0';
-    const text =
-      quantity === 'temperature'
-        ? `${Math.round(this.units() === 'metric' ? deltaSi : (deltaSi * 9) / 5)} ${unitLabel('temperature', this.units())}`
-        : formatQuantity(quantity, Math.abs(deltaSi), this.units());
-    const magnitude = text.replace(/^−/, '');
-    return quantity === 'temperature' ? (deltaSi > 0 ? `+${magnitude}` : `−${magnitude.replace(/^-/, '')}`) : `${deltaSi > 0 ? '+' : '−'}${magnitude}`;
   }
 
   private async load(ids: string[]): Promise<void> {

@@ -24,7 +24,8 @@ import { describeApiError, apiErrorBody } from '../core/api-error-message';
 import { Session } from '../core/session';
 import { TerrainMap, type MapOverlay, type MapPosition } from '../map/terrain-map';
 import { QuantityPipe } from '../units/quantity-pipe';
-import { formatQuantity, fromDisplay, toDisplay, unitLabel } from '../units/unit-format';
+import { fromDisplay, toDisplay, unitLabel } from '../units/unit-format';
+import { SUMMARY_FIGURES, formatFigure, formatSafeSpeed, formatSocLimit, formatTemperatureReached } from '@shared/presentation/index';
 import { UnitPreference } from '../units/unit-preference';
 import { UnitSwitch } from '../units/unit-switch';
 import {
@@ -51,6 +52,19 @@ type ResultState =
 const POLL_INTERVAL_MS = 1_500;
 
 /** One scenario's results: figures, linked charts along the route, the map and the descents. */
+/** The figures shown as cards, in the catalogue's order; length, ascent and descent sit under them. */
+const CARD_FIGURES: readonly string[] = [
+  'tractionEnergyWh',
+  'regenEnergyWh',
+  'frictionBrakeEnergyWh',
+  'retarderEnergyWh',
+  'auxEnergyWh',
+  'batteryNetEnergyWh',
+  'kWhPerKm',
+  'endSoc',
+  'peakBrakeTempC',
+];
+
 @Component({
   selector: 'app-scenario-result',
   imports: [
@@ -123,10 +137,21 @@ export default class ScenarioResultScreen {
     (this.result()?.directions ?? []).some((direction) => direction.descents.some((descent) => needsCaution(descent.risk))),
   );
 
-  protected readonly drawnWh = computed(() => {
+  /** The summary cards: the shared figure catalogue, the same names and values as the PDF report. */
+  protected readonly figures = computed(() => {
     const summary = this.result()?.summary;
-    return summary ? summary.batteryNetEnergyWh + summary.regenEnergyWh : null;
+    if (!summary) return [];
+    const system = this.units();
+    return SUMMARY_FIGURES.filter((figure) => CARD_FIGURES.includes(figure.key)).map((figure) => ({
+      label: figure.label,
+      meaning: figure.meaning,
+      value: formatFigure(figure, summary, system),
+      tone: figure.key === 'regenEnergyWh' ? 'good' : figure.key === 'frictionBrakeEnergyWh' ? 'warn' : null,
+    }));
   });
+
+  /** Whether any descent of the direction shown puts energy into a retarder or braking resistor. */
+  protected readonly hasRetarder = computed(() => this.descents().some((descent) => descent.retarderEnergyWh > 0.5));
 
   protected readonly charts = computed(() => {
     const direction = this.direction();
@@ -218,10 +243,19 @@ export default class ScenarioResultScreen {
     return unitLabel(quantity, this.units());
   }
 
+  /** Rounded down, as every output rounds advice (shared/presentation/safety-rounding). */
   protected speedAdvice(descent: Descent): string {
     if (descent.speedAdvice === 'no-limit-needed') return 'No limit needed';
     if (descent.speedAdvice === 'not-holdable' || descent.maxSafeSpeedKph === null) return 'Not holdable on friction brakes';
-    return formatQuantity('speed', descent.maxSafeSpeedKph / 3.6, this.units());
+    return formatSafeSpeed(descent.maxSafeSpeedKph, this.units());
+  }
+
+  protected socAdvice(descent: Descent): string {
+    return descent.maxTopSoc === null ? 'Regeneration cannot take it' : formatSocLimit(descent.maxTopSoc);
+  }
+
+  protected peakTemperature(descent: Descent): string {
+    return formatTemperatureReached(descent.peakBrakeTempC, this.units());
   }
 
   protected showDescent(descent: Descent): void {
