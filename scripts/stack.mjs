@@ -46,6 +46,8 @@ export function ensureDebianPackages(packages) {
 }
 
 export const CHROMIUM = { name: 'chromium', marker: '/usr/bin/chromium' };
+/** pdftotext -bbox and pdftoppm: the PDF layout tests read the word boxes of every rendered page. */
+export const POPPLER = { name: 'poppler-utils', marker: '/usr/bin/pdftotext' };
 export const GDAL = [
   { name: 'gdal-bin', marker: '/usr/bin/gdalinfo' },
   { name: 'python3-gdal', marker: '/usr/lib/python3/dist-packages/osgeo/__init__.py' },

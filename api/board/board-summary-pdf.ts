@@ -1,137 +1,169 @@
 /**
- * The board summary as a one-page A4 PDF: title and date, the totals, a bar chart of each route's
- * yearly regeneration and friction-brake energy drawn with vector paths, the open safety items,
- * the sources of the money and CO2 factors, and the engineering caution.
- *
- * Only PDFKit's built-in Helvetica is used (no font files, nothing fetched); it has no subscript
- * digits, so CO₂ is written CO2.
+ * The board summary as an A4 PDF: title and date, the headline figures (placeholder factors say
+ * so beside the figure), a bar chart of each route's yearly regeneration and friction-brake energy
+ * drawn with vector paths, the open and accepted safety items, the steepest descents, the sources
+ * of the money and CO₂ factors and the engineering caution. Wording and numbers come from the
+ * shared presentation module, as on the web page; the layout keeps every word inside the margins.
  */
-import PDFDocument from 'pdfkit';
 import type { BoardSummary } from '@shared/domain/board-summary';
+import {
+  DIRECTION_LABELS,
+  RISK_LABELS,
+  boardFigures,
+  boardSafetyCounts,
+  formatBoardNumber,
+  formatDateTime,
+  formatQuantity,
+  formatStretch,
+  formatTariff,
+} from '@shared/presentation/index';
+import { INK, MUTED, PdfLayout, printable } from '../pdf/pdf-layout';
 
-const PAGE_MARGIN_PT = 40;
-const INK = '#1d2730';
-const MUTED = '#5b6770';
 const REGEN_COLOUR = '#2f7d5b';
 const FRICTION_COLOUR = '#c0612b';
-/** Routes drawn in the chart; a network with more lists the rest by name under it. */
+const WARNING_INK = '#a23b12';
+/** Routes drawn in the chart; a network with more lists the rest by count under it. */
 const MAX_CHART_ROUTES = 12;
 
-/** Renders the summary; resolves with the whole file (a page is small). */
+/** Renders the summary; resolves with the whole file. */
 export function renderBoardSummaryPdf(summary: BoardSummary): Promise<Buffer> {
-  const doc = new PDFDocument({ size: 'A4', margin: PAGE_MARGIN_PT, info: { Title: 'Descentry network summary', Author: 'Descentry' } });
-  const chunks: Buffer[] = [];
-  doc.on('data', (chunk: Buffer) => chunks.push(chunk));
-  const finished = new Promise<Buffer>((resolve, reject) => {
-    doc.on('end', () => resolve(Buffer.concat(chunks)));
-    doc.on('error', reject);
-  });
+  const page = new PdfLayout({ Title: 'Descentry network summary' });
 
-  const width = doc.page.width - 2 * PAGE_MARGIN_PT;
-  const left = PAGE_MARGIN_PT;
-  const date = summary.generatedAt.slice(0, 10);
+  page.paragraph('Network summary: braking energy and descent safety', { size: 16, bold: true }, { gapAfter: 2 });
+  page.paragraph(
+    `Figures as of ${formatDateTime(summary.generatedAt)}, from the scenarios marked “in service” (one per route, the latest computed).`,
+    { size: 9, colour: MUTED },
+    { gapAfter: 10 },
+  );
 
-  doc.fillColor(INK).font('Helvetica-Bold').fontSize(20).text('Network summary: braking energy and descent safety', left, PAGE_MARGIN_PT, { width });
-  doc.font('Helvetica').fontSize(10).fillColor(MUTED).text(`Descentry, ${date}. In-service scenarios, one per route (the latest computed).`, { width });
-  doc.moveDown(0.8);
+  // Headline figures, two columns of label, value and (for placeholder factors) the warning.
+  const figures = boardFigures(summary);
+  const columnWidth = (page.width - 16) / 2;
+  for (let index = 0; index < figures.length; index += 2) {
+    const pair = figures.slice(index, index + 2);
+    const heights = pair.map((figure) => {
+      const placeholder = figure.placeholder ? page.measure(figure.placeholder, { size: 8, bold: true }, columnWidth) + 2 : 0;
+      return page.measure(figure.label, { size: 9 }, columnWidth) + page.measure(figure.value, { size: 14, bold: true }, columnWidth) + placeholder + 6;
+    });
+    const rowHeight = Math.max(...heights);
+    page.ensureSpace(rowHeight);
+    pair.forEach((figure, column) => {
+      const x = page.left + column * (columnWidth + 16);
+      let y = page.y;
+      page.apply({ size: 9, colour: MUTED });
+      page.doc.text(printable(figure.label), x, y, { width: columnWidth });
+      y += page.measure(figure.label, { size: 9 }, columnWidth);
+      page.apply({ size: 14, bold: true });
+      page.doc.text(figure.value, x, y, { width: columnWidth });
+      y += page.measure(figure.value, { size: 14, bold: true }, columnWidth);
+      if (figure.placeholder) {
+        page.apply({ size: 8, bold: true, colour: WARNING_INK });
+        page.doc.text(figure.placeholder, x, y, { width: columnWidth });
+      }
+    });
+    page.y += rowHeight;
+  }
+  page.paragraph(`Net energy drawn from batteries and overhead lines per year, after regeneration: ${formatBoardNumber(summary.totals.annualNetKWh)} kWh. Distance driven: ${formatBoardNumber(summary.totals.annualKm)} km per year.`, { size: 9 });
 
-  // Totals, two columns of label and figure.
-  const { totals, settings } = summary;
-  const figures: Array<[string, string]> = [
-    ['Recoverable by regeneration', `${formatNumber(totals.annualRegenKWh)} kWh per year`],
-    ['Its value', `${formatNumber(totals.regenValue)} ${settings.currency} per year`],
-    ['CO2 avoided', `${formatNumber(totals.co2AvoidedKg / 1_000, 1)} t per year`],
-    ['Into the friction brakes', `${formatNumber(totals.annualFrictionBrakeKWh)} kWh per year`],
-    ['Net energy drawn', `${formatNumber(totals.annualNetKWh)} kWh per year`],
-    ['Distance driven', `${formatNumber(totals.annualKm)} km per year`],
-  ];
-  const totalsTop = doc.y;
-  figures.forEach(([label, value], index) => {
-    const x = left + (index % 2) * (width / 2);
-    const y = totalsTop + Math.floor(index / 2) * 34;
-    doc.font('Helvetica').fontSize(9).fillColor(MUTED).text(label, x, y, { width: width / 2 - 10 });
-    doc.font('Helvetica-Bold').fontSize(13).fillColor(INK).text(value, x, y + 11, { width: width / 2 - 10 });
-  });
-  doc.y = totalsTop + Math.ceil(figures.length / 2) * 34 + 8;
+  routeChart(page, summary);
 
-  drawRouteChart(doc, summary, left, width);
-
-  // Open safety items and the steepest descents.
+  page.heading('Descent safety', 12, { gapBefore: 2 });
+  const counts = boardSafetyCounts(summary);
   const open = summary.openSafetyItems;
-  doc.x = left;
-  doc.moveDown(0.6);
-  doc.font('Helvetica-Bold').fontSize(12).fillColor(INK).text('Open descent safety items', left, doc.y, { width });
-  doc.font('Helvetica').fontSize(10).text(
-    `Critical: ${open.critical}    High: ${open.high}    Elevated: ${open.elevated}    (raised, in review or reopened)`,
-    { width },
+  page.paragraph(
+    `Open items, waiting for a safety officer: ${counts.open} (critical ${open.critical}, high ${open.high}, elevated ${open.elevated}).`,
+    { size: 10 },
+  );
+  page.paragraph(
+    counts.accepted > 0
+      ? `High or critical risks accepted: ${counts.accepted} (${counts.acceptedText}). Not open any more, but still in service at that risk.`
+      : 'High or critical risks accepted: none.',
+    { size: 10, bold: counts.accepted > 0, colour: counts.accepted > 0 ? WARNING_INK : INK },
   );
   if (summary.steepestDescents.length > 0) {
-    doc.moveDown(0.4);
-    doc.font('Helvetica-Bold').fontSize(10).text('Steepest descents in service', { width });
-    doc.font('Helvetica').fontSize(9);
-    for (const descent of summary.steepestDescents) {
-      doc.text(
-        `${descent.routeName}: km ${(descent.startM / 1_000).toFixed(2)}–${(descent.endM / 1_000).toFixed(2)}, ` +
-          `mean grade ${Math.abs(descent.meanGradePercent).toFixed(1)} % down, drop ${Math.round(descent.dropM)} m, risk ${descent.risk}`,
-        { width },
-      );
-    }
+    page.table(
+      [
+        { header: 'Steepest descents in service', weight: 2.6 },
+        { header: 'Risk', weight: 0.8 },
+        { header: 'Direction and stretch', weight: 1.6 },
+        { header: 'Drop', weight: 0.7, align: 'right' },
+        { header: 'Mean grade', weight: 0.9, align: 'right' },
+      ],
+      summary.steepestDescents.map((descent) => [
+        descent.routeName,
+        RISK_LABELS[descent.risk],
+        `${DIRECTION_LABELS[descent.direction]}, ${formatStretch(descent.startM, descent.endM, 'metric')}`,
+        formatQuantity('elevation', descent.dropM, 'metric'),
+        `${formatQuantity('grade', Math.abs(descent.meanGradePercent), 'metric')} down`,
+      ]),
+      { size: 8 },
+    );
   }
 
-  doc.moveDown(0.6);
-  doc.font('Helvetica').fontSize(8).fillColor(MUTED);
-  doc.text(`Tariff ${settings.energyTariffPerKWh} ${settings.currency}/kWh. Source: ${settings.tariffSource}`, { width });
-  doc.text(`Grid factor ${settings.gridEmissionFactorKgPerKWh} kg CO2/kWh. Source: ${settings.emissionFactorSource.replace(/₂/g, '2')}`, { width });
-  doc.moveDown(0.4);
-  doc.font('Helvetica-Bold').fontSize(9).fillColor(INK).text(`Caution: ${summary.caution}`, { width });
+  page.heading('Factors and sources', 10, { gapBefore: 0 });
+  const { settings } = summary;
+  if (settings.isPlaceholder) {
+    page.paragraph('The tariff and the grid emission factor are placeholders, not real figures: the money and CO2 figures above are illustrations only.', {
+      size: 8.5,
+      bold: true,
+      colour: WARNING_INK,
+    });
+  }
+  page.paragraph(`Tariff ${formatTariff(settings.energyTariffPerKWh, settings.currency)}. Source: ${settings.tariffSource}`, { size: 7.5, colour: MUTED }, { gapAfter: 2 });
+  page.paragraph(`Grid factor ${settings.gridEmissionFactorKgPerKWh} kg CO2 per kWh. Source: ${settings.emissionFactorSource}`, { size: 7.5, colour: MUTED });
+  page.cautionBox(`Caution: ${summary.caution}`, { size: 8 });
 
-  doc.end();
-  return finished;
+  return page.end();
 }
 
 /** Horizontal bars per route: regeneration and friction-brake energy per year, one scale. */
-function drawRouteChart(doc: PDFKit.PDFDocument, summary: BoardSummary, left: number, width: number): void {
+function routeChart(page: PdfLayout, summary: BoardSummary): void {
+  const { doc } = page;
+  page.heading('Energy per route and year (kWh)');
   const routes = summary.routes.slice(0, MAX_CHART_ROUTES);
-  doc.font('Helvetica-Bold').fontSize(12).fillColor(INK).text('Energy per route and year (kWh)', left, doc.y, { width });
   if (routes.length === 0) {
-    doc.font('Helvetica').fontSize(10).fillColor(MUTED).text('No scenario is marked in service yet.', { width });
+    page.paragraph('No scenario is marked in service yet.', { size: 10, colour: MUTED });
     return;
   }
-  const labelWidth = 150;
-  const barLeft = left + labelWidth;
-  const barSpace = width - labelWidth - 70;
+  const labelWidth = 180;
+  const valueWidth = 50;
+  const barLeft = page.left + labelWidth;
+  const barSpace = page.width - labelWidth - valueWidth;
   const rowHeight = 22;
   const largest = Math.max(1, ...routes.flatMap((route) => [route.annualRegenKWh, route.annualFrictionBrakeKWh]));
-  let y = doc.y + 6;
 
-  // Legend.
-  doc.rect(barLeft, y, 9, 9).fill(REGEN_COLOUR);
-  doc.font('Helvetica').fontSize(8).fillColor(INK).text('regeneration', barLeft + 13, y + 1);
-  doc.rect(barLeft + 90, y, 9, 9).fill(FRICTION_COLOUR);
-  doc.fillColor(INK).text('friction brakes', barLeft + 103, y + 1);
-  y += 16;
+  page.ensureSpace(16 + rowHeight * Math.min(routes.length, 4));
+  page.apply({ size: 8 });
+  doc.rect(barLeft, page.y, 9, 9).fill(REGEN_COLOUR);
+  page.apply({ size: 8 });
+  doc.text('regeneration', barLeft + 13, page.y + 1, { width: 80, lineBreak: false });
+  doc.rect(barLeft + 100, page.y, 9, 9).fill(FRICTION_COLOUR);
+  page.apply({ size: 8 });
+  doc.text('friction brakes', barLeft + 113, page.y + 1, { width: 100, lineBreak: false });
+  page.y += 16;
 
   for (const route of routes) {
-    doc.font('Helvetica').fontSize(8).fillColor(INK).text(route.routeName, left, y + 5, { width: labelWidth - 8, ellipsis: true, height: 10 });
+    page.ensureSpace(rowHeight);
+    const y = page.y;
+    // A route name wraps to two lines beside its bars; a longer one is shortened, whole in the table of the web summary.
+    page.apply({ size: 7.5 });
+    doc.text(route.routeName, page.left, y + (page.measure(route.routeName, { size: 7.5 }, labelWidth - 8) > 12 ? 0 : 5), {
+      width: labelWidth - 8,
+      height: 20,
+      ellipsis: true,
+    });
     const regenW = (route.annualRegenKWh / largest) * barSpace;
     const frictionW = (route.annualFrictionBrakeKWh / largest) * barSpace;
     doc.rect(barLeft, y, Math.max(regenW, 0.5), 9).fill(REGEN_COLOUR);
     doc.rect(barLeft, y + 10, Math.max(frictionW, 0.5), 9).fill(FRICTION_COLOUR);
-    doc.fontSize(7).fillColor(MUTED);
-    doc.text(formatNumber(route.annualRegenKWh), barLeft + regenW + 4, y + 1, { lineBreak: false });
-    doc.text(formatNumber(route.annualFrictionBrakeKWh), barLeft + frictionW + 4, y + 11, { lineBreak: false });
-    y += rowHeight;
+    page.apply({ size: 7, colour: MUTED });
+    doc.text(formatBoardNumber(route.annualRegenKWh), barLeft + regenW + 4, y + 1, { width: valueWidth - 4, lineBreak: false });
+    doc.text(formatBoardNumber(route.annualFrictionBrakeKWh), barLeft + frictionW + 4, y + 11, { width: valueWidth - 4, lineBreak: false });
+    doc.moveTo(barLeft, y - 2).lineTo(barLeft, y + rowHeight - 2).lineWidth(0.5).strokeColor(MUTED).stroke();
+    page.y += rowHeight;
   }
-  // Baseline of the bars.
-  doc.moveTo(barLeft, y - rowHeight * routes.length - 2).lineTo(barLeft, y).lineWidth(0.5).strokeColor(MUTED).stroke();
   if (summary.routes.length > routes.length) {
-    doc.font('Helvetica').fontSize(8).fillColor(MUTED).text(`… and ${summary.routes.length - routes.length} more routes (see the web summary).`, left, y, { width });
-    y += 12;
+    page.paragraph(`… and ${summary.routes.length - routes.length} more routes (see the web summary).`, { size: 8, colour: MUTED });
   }
-  doc.x = left;
-  doc.y = y + 4;
-}
-
-function formatNumber(value: number, fractionDigits = 0): string {
-  return value.toLocaleString('en-GB', { minimumFractionDigits: fractionDigits, maximumFractionDigits: fractionDigits });
+  page.y += 4;
 }

@@ -54,6 +54,7 @@ export async function boardSummary(db: Executor, now: Date = new Date()): Promis
       tariffSource: settings.tariffSource,
       gridEmissionFactorKgPerKWh: settings.gridEmissionFactorKgPerKWh,
       emissionFactorSource: settings.emissionFactorSource,
+      isPlaceholder: settings.isPlaceholder,
     },
     routes,
     totals: {
@@ -65,6 +66,7 @@ export async function boardSummary(db: Executor, now: Date = new Date()): Promis
       co2AvoidedKg: annualRegenKWh * settings.gridEmissionFactorKgPerKWh,
     },
     openSafetyItems: await openItemCounts(db),
+    acceptedRisks: await acceptedRiskCounts(db),
     steepestDescents: await steepestDescents(db, chosen),
     caution: ENGINEERING_CAUTION,
   };
@@ -114,14 +116,38 @@ async function openItemCounts(db: Executor): Promise<BoardSummary['openSafetyIte
   return counts;
 }
 
+async function acceptedRiskCounts(db: Executor): Promise<BoardSummary['acceptedRisks']> {
+  const rows = await db
+    .select({ risk: reviewItems.risk, count: sql<number>`count(*)::int` })
+    .from(reviewItems)
+    .where(and(eq(reviewItems.state, 'accepted'), inArray(reviewItems.risk, ['high', 'critical'])))
+    .groupBy(reviewItems.risk);
+  const counts = { high: 0, critical: 0 };
+  for (const row of rows) if (row.risk === 'high' || row.risk === 'critical') counts[row.risk] = row.count;
+  return counts;
+}
+
 async function steepestDescents(db: Executor, chosen: ChosenScenario[]): Promise<BoardSummary['steepestDescents']> {
   const candidates = chosen.flatMap((row) =>
     row.directionResults.flatMap((direction) =>
       direction.descents.map((descent) => ({ row, direction: direction.direction, descent })),
     ),
   );
-  // Grades are negative downhill: the steepest mean grade is the most negative.
-  const steepest = candidates.sort((a, b) => a.descent.meanGradePercent - b.descent.meanGradePercent).slice(0, STEEPEST_DESCENT_COUNT);
+  // Grades are negative downhill: the steepest mean grade is the most negative. A stretch of the
+  // same route in the same direction is listed once (its steepest reading), so two overlapping
+  // ranges never read as two descents.
+  const steepest: typeof candidates = [];
+  for (const candidate of candidates.sort((a, b) => a.descent.meanGradePercent - b.descent.meanGradePercent)) {
+    const overlapping = steepest.some(
+      (kept) =>
+        kept.row.routeId === candidate.row.routeId &&
+        kept.direction === candidate.direction &&
+        kept.descent.startM < candidate.descent.endM &&
+        candidate.descent.startM < kept.descent.endM,
+    );
+    if (!overlapping) steepest.push(candidate);
+    if (steepest.length === STEEPEST_DESCENT_COUNT) break;
+  }
   const items =
     steepest.length === 0
       ? []
@@ -132,6 +158,7 @@ async function steepestDescents(db: Executor, chosen: ChosenScenario[]): Promise
   return steepest.map(({ row, direction, descent }) => ({
     reviewId: reviewIdFor(items, row, direction, descent),
     routeName: row.routeName,
+    direction: direction as BoardSummary['steepestDescents'][number]['direction'],
     startM: descent.startM,
     endM: descent.endM,
     dropM: descent.dropM,

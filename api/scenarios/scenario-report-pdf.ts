@@ -1,169 +1,126 @@
 /**
- * The scenario report as PDF (pdfkit, its built-in Helvetica; nothing is fetched): title, inputs,
- * summary table, descents with risk and advice, the engineering caution, and a chart of elevation
- * and brake temperature along the route drawn with vector paths.
+ * The scenario report as an A4 PDF: title, inputs, the summary figures, descents with risk and
+ * advice, the engineering caution, and a chart of elevation and brake temperature per direction
+ * drawn with vector paths. Labels, units and rounding come from the shared presentation module,
+ * so the report says what the result screen says; the layout keeps every word inside the margins.
  */
-import PDFDocument from 'pdfkit';
-import type { Descent } from '@shared/domain/analysis';
 import type { Scenario, ScenarioResult } from '@shared/domain/scenarios';
 import type { VehicleProfile } from '@shared/domain/vehicle-profiles';
 import { ENGINEERING_CAUTION } from '@shared/engine/constants';
+import { VEHICLE_PRESETS } from '@shared/engine/vehicle-presets';
+import {
+  DIRECTION_LABELS,
+  RISK_LABELS,
+  SUMMARY_FIGURES,
+  describeDescentAdvice,
+  describeLoad,
+  describeSeason,
+  formatDateTime,
+  formatFigure,
+  formatNumber,
+  formatQuantity,
+  formatStretch,
+  formatTemperatureReached,
+  type UnitSystem,
+} from '@shared/presentation/index';
+import { INK, MUTED, PdfLayout } from '../pdf/pdf-layout';
 
-const MARGIN = 50;
-const RISK_COLOURS: Record<Descent['risk'], string> = { low: '#2e7d32', elevated: '#b58900', high: '#d84315', critical: '#b71c1c' };
+/** The report is printed in metric units, as the authority's own documents. */
+const UNITS: UnitSystem = 'metric';
+const RISK_INK: Record<string, string> = { low: '#2f6b43', elevated: '#7a5c00', high: '#a23b12', critical: '#8a1c4a' };
 
 export function scenarioReportPdf(scenario: Scenario, result: ScenarioResult, profile: VehicleProfile | undefined): Promise<Buffer> {
-  const doc = new PDFDocument({ size: 'A4', margin: MARGIN, info: { Title: `Descentry report – ${scenario.name}`, Creator: 'Descentry' } });
-  const chunks: Buffer[] = [];
-  doc.on('data', (chunk: Buffer) => chunks.push(chunk));
-  const done = new Promise<Buffer>((resolve, reject) => {
-    doc.on('end', () => resolve(Buffer.concat(chunks)));
-    doc.on('error', reject);
-  });
-  const width = doc.page.width - 2 * MARGIN;
+  const page = new PdfLayout({ Title: `Descentry report – ${scenario.name}` });
 
-  doc.font('Helvetica-Bold').fontSize(18).text(scenario.name);
-  doc.font('Helvetica').fontSize(9).fillColor('#555555')
-    .text(`Route ${scenario.routeName} (version ${scenario.routeVersion}) · ${scenario.vehicleProfileName} · engine ${result.engineVersion} · computed ${result.computedAt}`);
-  doc.moveDown(0.5);
-  caution(doc, width);
+  page.paragraph(scenario.name, { size: 18, bold: true }, { gapAfter: 2 });
+  page.paragraph(
+    `Route ${scenario.routeName} (version ${scenario.routeVersion}) · ${scenario.vehicleProfileName} · ` +
+      `computed ${formatDateTime(result.computedAt)} with engine ${result.engineVersion}`,
+    { size: 9, colour: MUTED },
+    { gapAfter: 8 },
+  );
+  page.cautionBox(ENGINEERING_CAUTION);
 
-  heading(doc, 'Inputs');
-  const load = scenario.load.kind === 'case' ? `${scenario.load.case} load` : `${scenario.load.passengers} passengers`;
-  const season = scenario.season.kind === 'season' ? `${scenario.season.season} season` : `custom (${scenario.season.ambientC} °C, ${(scenario.season.auxPowerW / 1000).toFixed(1)} kW auxiliaries)`;
-  table(doc, width, [
-    ['Direction', scenario.direction],
-    ['Vehicle', `${scenario.vehicleProfileName}${profile ? ` (${profile.vehicleClass})` : ''}`],
-    ['Load', load],
-    ['Season', season],
-    ['Start SOC', `${(scenario.startSoc * 100).toFixed(0)} %`],
-    ['Spacing / smoothing', `${scenario.options.spacingM} m / ${scenario.options.smoothingWindowM} m`],
-    ['Descent speed cap', scenario.options.descentSpeedCapKph === undefined ? 'none' : `${scenario.options.descentSpeedCapKph} km/h`],
-    ['Stops served', scenario.options.useStops ? 'yes' : 'no'],
-    ...(scenario.direction === 'round-trip' ? [['Layover', `${scenario.options.layoverS} s`] as [string, string]] : []),
+  page.heading('Inputs');
+  const vehicleClass = profile ? VEHICLE_PRESETS.find((preset) => preset.id === profile.vehicleClass)?.name : undefined;
+  const options = scenario.options;
+  page.keyValues([
+    ['Direction', DIRECTION_LABELS[scenario.direction]],
+    ['Vehicle profile', `${scenario.vehicleProfileName}${vehicleClass && vehicleClass !== scenario.vehicleProfileName ? ` (class: ${vehicleClass})` : ''}`],
+    ['Load', describeLoad(scenario.load)],
+    ['Season', describeSeason(scenario.season)],
+    ['SOC at the start', formatQuantity('soc', scenario.startSoc, UNITS)],
+    ['Spacing / smoothing', `${formatNumber(options.spacingM)} m / ${formatNumber(options.smoothingWindowM)} m`],
+    ['Descent speed cap', options.descentSpeedCapKph === undefined ? 'None' : `${formatNumber(options.descentSpeedCapKph)} km/h`],
+    ['Stops served', options.useStops ? 'Yes, with their dwell times' : 'No'],
+    ...(scenario.direction === 'round-trip' ? [['Layover between directions', formatQuantity('duration', options.layoverS, UNITS)] as const] : []),
   ]);
 
-  heading(doc, 'Summary');
-  const columns = ['', ...result.directions.map((d) => d.direction), ...(result.directions.length > 1 ? ['round trip'] : [])];
-  const summaries = [...result.directions.map((d) => d.summary), ...(result.directions.length > 1 ? [result.summary] : [])];
-  const rows: [string, (s: (typeof summaries)[number]) => string][] = [
-    ['Length', (s) => `${(s.lengthM / 1000).toFixed(2)} km`],
-    ['Ascent / descent', (s) => `${s.ascentM.toFixed(0)} / ${s.descentM.toFixed(0)} m`],
-    ['Duration', (s) => `${(s.durationS / 60).toFixed(1)} min`],
-    ['Traction energy', (s) => kWh(s.tractionEnergyWh)],
-    ['Regenerated (into battery/line)', (s) => kWh(s.regenEnergyWh)],
-    ['Friction brakes', (s) => kWh(s.frictionBrakeEnergyWh)],
-    ['Retarder / resistor', (s) => kWh(s.retarderEnergyWh)],
-    ['Auxiliaries', (s) => kWh(s.auxEnergyWh)],
-    ['Net from battery/line', (s) => kWh(s.batteryNetEnergyWh)],
-    ['Consumption', (s) => `${s.kWhPerKm.toFixed(2)} kWh/km`],
-    ['Peak brake temperature', (s) => `${s.peakBrakeTempC.toFixed(0)} °C`],
-    // The built-in PDF fonts have no arrow glyph: say it in words.
-    ['SOC start to end', (s) => `${(s.startSoc * 100).toFixed(1)} % to ${(s.endSoc * 100).toFixed(1)} %`],
-  ];
-  grid(doc, width, [columns, ...rows.map(([label, format]) => [label, ...summaries.map(format)])]);
+  page.heading('Summary');
+  const directions = result.directions;
+  const summaries = [...directions.map((direction) => direction.summary), ...(directions.length > 1 ? [result.summary] : [])];
+  const headers = [...directions.map((direction) => DIRECTION_LABELS[direction.direction]), ...(directions.length > 1 ? ['Round trip'] : [])];
+  page.table(
+    [{ header: 'Figure', weight: 2.2 }, ...headers.map((header) => ({ header, weight: 1, align: 'right' as const }))],
+    [
+      ...SUMMARY_FIGURES.map((figure) => [figure.label, ...summaries.map((summary) => formatFigure(figure, summary, UNITS))]),
+      ['SOC at the start', ...summaries.map((summary) => formatQuantity('soc', summary.startSoc, UNITS))],
+    ],
+    { size: 8.5 },
+  );
 
-  heading(doc, 'Descents');
-  const descents = result.directions.flatMap((d) => d.descents.map((descent) => ({ direction: d.direction, descent })));
+  page.heading('Descents');
+  const descents = directions.flatMap((direction) => direction.descents.map((descent) => ({ direction: direction.direction, descent })));
   if (descents.length === 0) {
-    doc.font('Helvetica').fontSize(9).fillColor('#000000').text('No descent steeper than the threshold and longer than the minimum length.');
+    page.paragraph('No descent steeper than the threshold and longer than the minimum length.', { size: 9 });
   } else {
-    grid(
-      doc,
-      width,
+    page.table(
       [
-        ['Direction', 'km', 'Drop', 'Mean / max grade', 'Peak brake', 'Risk', 'Max safe speed', 'Max SOC at top'],
-        ...descents.map(({ direction, descent }) => [
-          direction,
-          `${(descent.startM / 1000).toFixed(1)}–${(descent.endM / 1000).toFixed(1)}`,
-          `${descent.dropM.toFixed(0)} m`,
-          `${descent.meanGradePercent.toFixed(1)} / ${descent.maxGradePercent.toFixed(1)} %`,
-          `${descent.peakBrakeTempC.toFixed(0)} °C`,
-          descent.risk,
-          descent.speedAdvice === 'limit' && descent.maxSafeSpeedKph !== null
-            ? `${descent.maxSafeSpeedKph.toFixed(0)} km/h`
-            : descent.speedAdvice === 'no-limit-needed'
-              ? 'no limit needed'
-              : 'not holdable',
-          descent.maxTopSoc === null ? '—' : `${(descent.maxTopSoc * 100).toFixed(0)} %`,
-        ]),
+        { header: 'Direction and stretch', weight: 1.5 },
+        { header: 'Risk', weight: 0.8 },
+        { header: 'Drop, mean / steepest grade', weight: 1.5 },
+        { header: 'Peak brake temperature', weight: 1, align: 'right' },
+        { header: 'Advice (rounded toward safety)', weight: 3 },
       ],
-      (row) => (row > 0 ? RISK_COLOURS[descents[row - 1]!.descent.risk] : undefined),
+      descents.map(({ direction, descent }) => {
+        const advice = describeDescentAdvice(descent, UNITS);
+        return [
+          `${DIRECTION_LABELS[direction]}, ${formatStretch(descent.startM, descent.endM, UNITS)}`,
+          RISK_LABELS[descent.risk],
+          `${formatQuantity('elevation', descent.dropM, UNITS)}, ${formatQuantity('grade', Math.abs(descent.meanGradePercent), UNITS)} / ` +
+            `${formatQuantity('grade', Math.abs(descent.maxGradePercent), UNITS)} down`,
+          formatTemperatureReached(descent.peakBrakeTempC, UNITS),
+          `${advice.speedHeadline}. ${advice.socHeadline}.`,
+        ];
+      }),
+      { rowColour: (row) => RISK_INK[descents[row]!.descent.risk] },
     );
   }
 
-  for (const direction of result.directions) {
-    if (doc.y > doc.page.height - 280) doc.addPage();
-    heading(doc, `Elevation and brake temperature – ${direction.direction}`);
-    chart(doc, width, direction.profile.distanceM, direction.profile.elevationM, direction.profile.brakeTempC);
+  for (const direction of directions) {
+    page.heading(`Elevation and brake temperature, ${DIRECTION_LABELS[direction.direction]}`);
+    chart(page, direction.profile.distanceM, direction.profile.elevationM, direction.profile.brakeTempC);
   }
-  doc.moveDown(1);
-  caution(doc, width);
-  doc.end();
-  return done;
+  page.cautionBox(ENGINEERING_CAUTION);
+  return page.end();
 }
 
-function heading(doc: PDFKit.PDFDocument, text: string) {
-  doc.moveDown(0.8).font('Helvetica-Bold').fontSize(12).fillColor('#000000').text(text, MARGIN).moveDown(0.3);
-}
-
-function caution(doc: PDFKit.PDFDocument, width: number) {
-  // Measure with the font the text is drawn in, or the box comes out too short.
-  doc.font('Helvetica-Bold').fontSize(9);
-  const height = doc.heightOfString(ENGINEERING_CAUTION, { width: width - 16 }) + 12;
-  // Keep the box whole: start a new page rather than split it.
-  if (doc.y + height > doc.page.height - doc.page.margins.bottom) doc.addPage();
-  const y = doc.y;
-  doc.rect(MARGIN, y, width, height).fillAndStroke('#fff4e5', '#d84315');
-  doc.fillColor('#000000').font('Helvetica-Bold').fontSize(9).text(ENGINEERING_CAUTION, MARGIN + 8, y + 6, { width: width - 16 });
-  doc.y = y + height + 4;
-  doc.x = MARGIN;
-}
-
-function table(doc: PDFKit.PDFDocument, width: number, rows: [string, string][]) {
-  doc.fontSize(9).fillColor('#000000');
-  for (const [label, value] of rows) {
-    const y = doc.y;
-    doc.font('Helvetica-Bold').text(label, MARGIN, y, { width: 150 });
-    doc.font('Helvetica').text(value, MARGIN + 160, y, { width: width - 160 });
-    doc.y = Math.max(doc.y, y + 12);
-  }
-}
-
-function grid(doc: PDFKit.PDFDocument, width: number, rows: string[][], colourOf?: (row: number) => string | undefined) {
-  const columns = rows[0]!.length;
-  const first = Math.min(150, width / columns + 40);
-  const rest = (width - first) / Math.max(1, columns - 1);
-  doc.fontSize(8);
-  rows.forEach((row, index) => {
-    if (doc.y > doc.page.height - MARGIN - 20) doc.addPage();
-    const y = doc.y;
-    let rowHeight = 11;
-    row.forEach((cell, column) => {
-      const x = column === 0 ? MARGIN : MARGIN + first + (column - 1) * rest;
-      const cellWidth = (column === 0 ? first : rest) - 4;
-      doc.font(index === 0 || column === 0 ? 'Helvetica-Bold' : 'Helvetica').fillColor(colourOf?.(index) ?? '#000000');
-      doc.text(cell, x, y, { width: cellWidth });
-      rowHeight = Math.max(rowHeight, doc.y - y);
-    });
-    doc.y = y + rowHeight + 2;
-  });
-  doc.x = MARGIN;
-  doc.fillColor('#000000');
-}
-
-function chart(doc: PDFKit.PDFDocument, width: number, distanceM: number[], elevationM: number[], brakeTempC: number[]) {
-  const height = 170;
-  const top = doc.y + 5;
-  const left = MARGIN + 40;
-  const plotWidth = width - 80;
+/** Elevation (left axis) and brake temperature (right axis) along the route, kept on one page. */
+function chart(page: PdfLayout, distanceM: number[], elevationM: number[], brakeTempC: number[]) {
+  const { doc } = page;
+  const plotHeight = 160;
+  const axisWidth = 44;
+  page.ensureSpace(plotHeight + 44);
+  const top = page.y + 6;
+  const left = page.left + axisWidth;
+  const plotWidth = page.width - 2 * axisWidth;
   const maxDistance = Math.max(1, distanceM.at(-1) ?? 1);
   const [zMin, zMax] = paddedRange(elevationM);
   const [tMin, tMax] = paddedRange([...brakeTempC, 0]);
   const x = (s: number) => left + (s / maxDistance) * plotWidth;
-  const yz = (z: number) => top + height - ((z - zMin) / (zMax - zMin)) * height;
-  const yt = (t: number) => top + height - ((t - tMin) / (tMax - tMin)) * height;
-  doc.save().lineWidth(0.5).strokeColor('#999999').rect(left, top, plotWidth, height).stroke().restore();
+  const yz = (z: number) => top + plotHeight - ((z - zMin) / (zMax - zMin)) * plotHeight;
+  const yt = (t: number) => top + plotHeight - ((t - tMin) / (tMax - tMin)) * plotHeight;
+  doc.save().lineWidth(0.5).strokeColor('#999999').rect(left, top, plotWidth, plotHeight).stroke().restore();
   const step = Math.max(1, Math.floor(distanceM.length / 800));
   const path = (values: number[], y: (v: number) => number, colour: string) => {
     doc.save().lineWidth(1.2).strokeColor(colour);
@@ -172,20 +129,19 @@ function chart(doc: PDFKit.PDFDocument, width: number, distanceM: number[], elev
     doc.lineTo(x(distanceM.at(-1)!), y(values.at(-1)!)).stroke().restore();
   };
   path(elevationM, yz, '#1565c0');
-  path(brakeTempC, yt, '#d84315');
-  doc.fontSize(7).fillColor('#1565c0');
-  doc.text(`${zMax.toFixed(0)} m`, MARGIN, top - 3, { width: 38, align: 'right' });
-  doc.text(`${zMin.toFixed(0)} m`, MARGIN, top + height - 6, { width: 38, align: 'right' });
-  doc.fillColor('#d84315');
-  doc.text(`${tMax.toFixed(0)} °C`, left + plotWidth + 3, top - 3, { width: 38 });
-  doc.text(`${tMin.toFixed(0)} °C`, left + plotWidth + 3, top + height - 6, { width: 38 });
-  doc.fillColor('#000000');
-  doc.text('0 km', left - 10, top + height + 3, { width: 30 });
-  doc.text(`${(maxDistance / 1000).toFixed(1)} km`, left + plotWidth - 30, top + height + 3, { width: 40, align: 'right' });
-  doc.fillColor('#1565c0').text('— elevation', left, top + height + 14, { continued: true }).fillColor('#d84315').text('    — brake temperature');
-  doc.fillColor('#000000');
-  doc.y = top + height + 30;
-  doc.x = MARGIN;
+  path(brakeTempC, yt, '#c2570c');
+  const label = (text: string, atX: number, atY: number, width: number, align: 'left' | 'right', colour: string) => {
+    page.apply({ size: 7, colour });
+    doc.text(text, atX, atY, { width, align, lineBreak: false });
+  };
+  label(`${formatNumber(zMax)} m`, page.left, top - 3, axisWidth - 4, 'right', '#1565c0');
+  label(`${formatNumber(zMin)} m`, page.left, top + plotHeight - 6, axisWidth - 4, 'right', '#1565c0');
+  label(`${formatNumber(tMax)} °C`, left + plotWidth + 4, top - 3, axisWidth - 4, 'left', '#c2570c');
+  label(`${formatNumber(tMin)} °C`, left + plotWidth + 4, top + plotHeight - 6, axisWidth - 4, 'left', '#c2570c');
+  label('0 km', left, top + plotHeight + 3, 40, 'left', INK);
+  label(formatQuantity('distance', maxDistance, UNITS, 1), left + plotWidth - 60, top + plotHeight + 3, 60, 'right', INK);
+  label('Blue: elevation (left scale). Orange: brake temperature (right scale).', left, top + plotHeight + 15, plotWidth, 'left', MUTED);
+  page.y = top + plotHeight + 32;
 }
 
 function paddedRange(values: number[]): [number, number] {
@@ -199,8 +155,4 @@ function paddedRange(values: number[]): [number, number] {
   if (max - min < 1) return [min - 1, max + 1];
   const pad = (max - min) * 0.05;
   return [min - pad, max + pad];
-}
-
-function kWh(wh: number): string {
-  return `${(wh / 1000).toFixed(2)} kWh`;
 }

@@ -56,7 +56,11 @@ export type RouteYear = z.infer<typeof routeYearSchema>;
 
 export const boardSummarySchema = z.object({
   generatedAt: z.iso.datetime({ offset: true }),
-  settings: networkSettingsSchema,
+  /**
+   * The factors in use; `isPlaceholder` while they are still the shipped illustrative values
+   * nobody has replaced: every figure resting on them (value, CO₂) must say so where it is shown.
+   */
+  settings: networkSettingsSchema.extend({ isPlaceholder: z.boolean() }),
   routes: z.array(routeYearSchema),
   totals: z.object({
     annualKm: z.number(),
@@ -68,15 +72,26 @@ export const boardSummarySchema = z.object({
     /** annualRegenKWh × grid emission factor, kg. */
     co2AvoidedKg: z.number(),
   }),
+  /** Review items still waiting for a safety officer (raised, in review, reopened), by risk. */
   openSafetyItems: z.object({
     elevated: z.number().int(),
     high: z.number().int(),
     critical: z.number().int(),
   }),
+  /**
+   * High and critical descents whose risk a safety officer accepted: not open, but still in
+   * service at that risk, so the board sees them as a figure of their own.
+   */
+  acceptedRisks: z.object({
+    high: z.number().int(),
+    critical: z.number().int(),
+  }),
+  /** The steepest descents in service, one line per stretch of road and direction. */
   steepestDescents: z.array(
     z.object({
       reviewId: z.uuid().nullable(),
       routeName: z.string(),
+      direction: directionSchema,
       startM: z.number(),
       endM: z.number(),
       dropM: z.number(),

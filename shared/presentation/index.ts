@@ -10,3 +10,5 @@ export * from './figures';
 export * from './descent-advice';
 export * from './dates';
 export * from './worst-descent';
+export * from './board-format';
+export * from './board-figures';

@@ -3,7 +3,10 @@ import { afterAll, beforeEach, describe, expect, it } from 'vitest';
 import { boardSummarySchema, networkSettingsViewSchema } from '@shared/domain/board-summary';
 import { ENGINEERING_CAUTION } from '@shared/engine/constants';
 import { ensureNetworkSettings } from '../../../api/board/network-settings';
-import type { ScenarioRow } from '../../../api/db/schema/index';
+import { eq } from 'drizzle-orm';
+import { reviewItems, type ScenarioRow } from '../../../api/db/schema/index';
+import { MARGIN_PT } from '../../../api/pdf/pdf-layout';
+import { RAW_VALUE_PATTERNS, readPdfWords, wordsOutsideMargins } from '../../support/pdf-words';
 import { syncReviewItems } from '../../../api/reviews/review-sync';
 import { aDescent, aDirectionResult, aRoute, aScenario, aSummary, aVehicleProfile } from '../../support/scenario-fixtures';
 import { sessionCookies } from '../../support/session-cookie';
@@ -150,6 +153,103 @@ describe('GET /api/board/summary.pdf', () => {
     expect(pdf.match(/\/Type \/Page\b/g)).toHaveLength(1);
   });
 });
+
+describe('the board summary as printed and read (issue 10)', () => {
+  it('counts accepted high and critical risks as their own figure, not as open items', async () => {
+    const profile = await aVehicleProfile(db);
+    const route = await aRoute(db, { name: 'Pass road' });
+    const scenario = await aScenario(db, {
+      routeId: route.id,
+      vehicleProfileId: profile.id,
+      inService: true,
+      directionResults: [aDirectionResult('outbound', [aDescent({ startM: 100, endM: 2_000, risk: 'high', peakBrakeTempC: 420 })])],
+    });
+    await sync(scenario);
+    await db.update(reviewItems).set({ state: 'accepted', acceptanceReason: 'Retarder fitted to every vehicle on the line' });
+
+    const summary = boardSummarySchema.parse((await request(app).get('/api/board/summary').set('Cookie', await cookieFor('board'))).body);
+
+    expect(summary.openSafetyItems).toEqual({ elevated: 0, high: 0, critical: 0 });
+    expect(summary.acceptedRisks).toEqual({ high: 1, critical: 0 });
+  });
+
+  it('lists a stretch of road once per direction, with its direction', async () => {
+    const profile = await aVehicleProfile(db);
+    const route = await aRoute(db, { name: 'Pass road' });
+    await aScenario(db, {
+      routeId: route.id,
+      vehicleProfileId: profile.id,
+      direction: 'round-trip',
+      inService: true,
+      directionResults: [
+        aDirectionResult('outbound', [aDescent({ startM: 100, endM: 2_000, meanGradePercent: -7 }), aDescent({ startM: 1_500, endM: 2_600, meanGradePercent: -6.5 })]),
+        aDirectionResult('inbound', [aDescent({ startM: 300, endM: 2_200, meanGradePercent: -6 })]),
+      ],
+    });
+
+    const summary = boardSummarySchema.parse((await request(app).get('/api/board/summary').set('Cookie', await cookieFor('board'))).body);
+
+    expect(summary.steepestDescents.map((descent) => [descent.direction, descent.startM, descent.endM])).toEqual([
+      ['outbound', 100, 2_000],
+      ['inbound', 300, 2_200],
+    ]);
+  });
+
+  it('prints one A4 page inside its margins, with placeholder factors marked beside the money and CO2 figures', async () => {
+    await ensureNetworkSettings(db);
+    const profile = await aVehicleProfile(db, { name: 'Highpass 12 m mountain bus with braking resistor (2025 order)' });
+    for (const name of [
+      'S Ski shuttle: Korvel Pass (Skarnfeld lifts) – Orren Village Green via the old customs house',
+      '4 Pass line: Korvel – Korvel Pass – Orren, with the winter diversion over the upper switchbacks',
+    ]) {
+      const route = await aRoute(db, { name });
+      const scenario = await aScenario(db, {
+        routeId: route.id,
+        vehicleProfileId: profile.id,
+        direction: 'round-trip',
+        inService: true,
+        directionResults: [
+          aDirectionResult('outbound', [aDescent({ startM: 100, endM: 9_400, risk: 'high', meanGradePercent: -7.4 })]),
+          aDirectionResult('inbound', [aDescent({ startM: 9_400, endM: 25_300, risk: 'critical', meanGradePercent: -7.2 })]),
+        ],
+      });
+      await sync(scenario);
+    }
+    await db.update(reviewItems).set({ state: 'accepted', acceptanceReason: 'Accepted for the spec' }).where(eq(reviewItems.risk, 'high'));
+
+    const pdf = readPdfWords(await downloadPdf('/api/board/summary.pdf'));
+
+    expect(pdf.pages).toHaveLength(1);
+    expect([Math.round(pdf.pages[0]!.width), Math.round(pdf.pages[0]!.height)]).toEqual([595, 842]);
+    expect(wordsOutsideMargins(pdf, MARGIN_PT)).toEqual([]);
+    const text = pdf.text[0]!;
+    for (const raw of RAW_VALUE_PATTERNS) expect(text).not.toMatch(raw);
+    expect(text).toContain('Placeholder factor, not a real figure: an administrator has not yet set the network’s own tariff.');
+    expect(text).toContain('Placeholder factor, not a real figure: an administrator has not yet set the network’s own grid emission factor.');
+    // The note sits right under the money figure it qualifies, not in a footnote.
+    const money = pdf.words.find((word) => word.text.startsWith('€'))!;
+    const note = pdf.words.find((word) => word.text === 'tariff.')!;
+    expect(note.yMin).toBeGreaterThan(money.yMax);
+    expect(note.yMin - money.yMax).toBeLessThan(30);
+    expect(text).toContain('High or critical risks accepted: 2 (2 high)');
+    expect(text).toContain('Outbound, km 0.1–9.4');
+    expect(text).toMatch(/Figures as of \d{1,2} [A-Z][a-z]+ \d{4}, \d\d:\d\d/);
+  });
+});
+
+async function downloadPdf(path: string): Promise<Buffer> {
+  const response = await request(app)
+    .get(path)
+    .set('Cookie', await cookieFor('board'))
+    .buffer(true)
+    .parse((res, done) => {
+      const chunks: Buffer[] = [];
+      res.on('data', (chunk: Buffer) => chunks.push(chunk));
+      res.on('end', () => done(null, Buffer.concat(chunks)));
+    });
+  expect(response.status).toBe(200);
+  return response.body as Buffer;
+}
 
 // Helpers
 

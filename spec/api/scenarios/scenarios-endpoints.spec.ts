@@ -8,6 +8,9 @@ import { createTestContext } from '../../support/test-app';
 import { sessionCookies } from '../../support/session-cookie';
 import { countRows, truncateAll } from '../../support/test-database';
 import { aRouteDraft, eastwardLine } from '../../support/road-route-builders';
+import { RAW_VALUE_PATTERNS, readPdfWords, wordsOutsideMargins } from '../../support/pdf-words';
+import { MARGIN_PT } from '../../../api/pdf/pdf-layout';
+import { SUMMARY_FIGURES, formatFigure } from '@shared/presentation/figures';
 
 const context = createTestContext();
 const { app, db } = context;
@@ -277,6 +280,41 @@ describe('exports', () => {
   });
 });
 
+describe('the PDF report as printed (issue 10)', () => {
+  it('keeps every word inside the A4 margins, prints human labels and local dates, and keeps the caution whole', async () => {
+    const route = await aRoute({
+      name: 'Long pass road from the lower valley terminus over the Korvel saddle to the upper village green and back',
+      geometry: eastwardLine({ lengthM: 6_000, dropM: 480 }),
+    });
+    const scenario = (
+      await request(app)
+        .post('/api/scenarios')
+        .set('Cookie', planner)
+        .send(aScenarioDraft(route.id, { name: 'Round trip with a full standing load in winter, charged to the top before the descent', direction: 'round-trip', startSoc: 0.97 }))
+    ).body;
+    const result = scenarioResultSchema.parse((await request(app).get(`/api/scenarios/${scenario.id}/result`).set('Cookie', planner)).body);
+
+    const pdf = readPdfWords(await downloadPdf(`/api/scenarios/${scenario.id}/report.pdf`));
+
+    for (const page of pdf.pages) expect([Math.round(page.width), Math.round(page.height)]).toEqual([595, 842]);
+    expect(wordsOutsideMargins(pdf, MARGIN_PT)).toEqual([]);
+    const all = pdf.text.join(' ');
+    for (const raw of RAW_VALUE_PATTERNS) expect(all).not.toMatch(raw);
+    expect(all).toContain('Full standing load');
+    expect(all).toMatch(/computed \d{1,2} [A-Z][a-z]+ \d{4}, \d\d:\d\d/);
+    // The same names and values as the result screen (the shared figure catalogue).
+    for (const figure of SUMMARY_FIGURES) {
+      expect(all).toContain(figure.label);
+      expect(all).toContain(formatFigure(figure, result.summary, 'metric'));
+    }
+    // The caution never splits across pages, and no page is left almost empty by a spill.
+    const cautionStart = ENGINEERING_CAUTION.split(' ').slice(0, 6).join(' ');
+    const cautionEnd = ENGINEERING_CAUTION.split(' ').slice(-4).join(' ');
+    for (const text of pdf.text.filter((page) => page.includes(cautionStart))) expect(text).toContain(cautionEnd);
+    for (const text of pdf.text) expect(text.split(' ').length).toBeGreaterThan(40);
+  });
+});
+
 describe('GET /api/scenarios', () => {
   it('filters by route, vehicle profile and in-service flag', async () => {
     const first = await aRoute();
@@ -350,6 +388,20 @@ describe('deleting what scenarios use', () => {
 });
 
 // Helpers
+
+async function downloadPdf(path: string): Promise<Buffer> {
+  const response = await request(app)
+    .get(path)
+    .set('Cookie', planner)
+    .buffer(true)
+    .parse((res, callback) => {
+      const chunks: Buffer[] = [];
+      res.on('data', (chunk: Buffer) => chunks.push(chunk));
+      res.on('end', () => callback(null, Buffer.concat(chunks)));
+    });
+  expect(response.status).toBe(200);
+  return response.body as Buffer;
+}
 
 async function aRoute(overrides: Parameters<typeof aRouteDraft>[0] = {}) {
   const response = await request(app).post('/api/routes').set('Cookie', planner).send(aRouteDraft(overrides));

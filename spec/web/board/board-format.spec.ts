@@ -4,7 +4,7 @@ import {
   formatBoardMoney,
   formatBoardNumber,
   formatTariff,
-} from '../../../web/app/board/board-format';
+} from '../../../shared/presentation/board-format';
 
 describe('board number formatting', () => {
   it('writes whole numbers with thousands separators and rounds large ones to three significant digits', () => {

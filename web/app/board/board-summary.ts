@@ -14,6 +14,7 @@ import { UnitPreference } from '../units/unit-preference';
 import { BOARD_SUMMARY_PDF_URL, BoardApi } from './board-api';
 import { formatBoardCo2, formatBoardEnergy, formatBoardMoney, formatBoardNumber, formatTariff } from './board-format';
 import { RouteEnergyChart } from './route-energy-chart';
+import { DIRECTION_LABELS, boardFigures, boardSafetyCounts, formatStretch } from '@shared/presentation/index';
 
 type LoadState = { status: 'loading' } | { status: 'error'; message: string } | { status: 'ready'; summary: BoardSummary };
 
@@ -35,6 +36,7 @@ export default class BoardSummaryPage {
   protected readonly pdfUrl = BOARD_SUMMARY_PDF_URL;
   protected readonly openLevels = OPEN_ITEM_LEVELS;
   protected readonly riskStyles = RISK_STYLES;
+  protected readonly directionLabels = DIRECTION_LABELS;
   protected readonly state = signal<LoadState>({ status: 'loading' });
 
   protected readonly generatedAt = computed(() => {
@@ -55,8 +57,14 @@ export default class BoardSummaryPage {
       tariff: formatTariff(settings.energyTariffPerKWh, settings.currency),
       emissionFactor: `${settings.gridEmissionFactorKgPerKWh.toLocaleString('en-GB', { maximumFractionDigits: 4 })} kg CO₂ per kWh`,
       openTotal: openSafetyItems.elevated + openSafetyItems.high + openSafetyItems.critical,
-      recoveredShare: shareOfBraking(totals.annualRegenKWh, totals.annualFrictionBrakeKWh),
+      acceptedTotal: boardSafetyCounts(state.summary).accepted,
+      acceptedText: boardSafetyCounts(state.summary).acceptedText,
     };
+  });
+  /** The four headline figures, worded as in the PDF; placeholder factors say so beside the value. */
+  protected readonly headline = computed(() => {
+    const state = this.state();
+    return state.status === 'ready' ? boardFigures(state.summary) : [];
   });
 
   constructor() {
@@ -84,10 +92,8 @@ export default class BoardSummaryPage {
   protected number(value: number): string {
     return formatBoardNumber(value);
   }
-}
 
-/** Share of the braking energy that regeneration recovered, in whole percent; null without braking. */
-function shareOfBraking(recoveredKWh: number, frictionKWh: number): number | null {
-  const total = recoveredKWh + frictionKWh;
-  return total > 0 ? Math.round((recoveredKWh / total) * 100) : null;
+  protected stretch(fromM: number, toM: number): string {
+    return formatStretch(fromM, toM, this.units());
+  }
 }
