@@ -1,7 +1,9 @@
 import assert from 'node:assert/strict';
 import { describe, it } from 'node:test';
-import { screenshot, settleAnimations } from './support/browser';
-import { signedInBrowser } from './support/demo-people';
+import { MARGIN_PT } from '../../api/pdf/pdf-layout';
+import { RAW_VALUE_PATTERNS, readPdfWords, wordsOutsideMargins } from '../support/pdf-words';
+import { BASE_URL, openBrowser, screenshot, settleAnimations } from './support/browser';
+import { signInAs, signOut, signedInBrowser } from './support/demo-people';
 
 describe('network summary: board member', () => {
   const browser = signedInBrowser('board');
@@ -44,7 +46,22 @@ describe('network summary: board member', () => {
     assert.equal(await page.getByTestId('figure-recovered').isVisible(), true);
   });
 
-  it('downloads the summary as a PDF', async () => {
+  it('shows an accepted high risk as its own figure, not as "0 open" alone (issue 10)', async () => {
+    const { page } = browser;
+    await acceptFirstHighRiskAsSafetyOfficer();
+
+    await page.reload();
+    const accepted = page.getByTestId('accepted-risks');
+    await accepted.waitFor();
+
+    assert.match(await accepted.innerText(), /^[1-9]\d*\s+High or critical risks accepted/);
+    // Figures resting on the shipped placeholder tariff and grid factor say so where they are shown.
+    assert.match(await page.getByTestId('figure-value').innerText(), /Placeholder factor, not a real figure/);
+    assert.match(await page.getByTestId('figure-co2').innerText(), /Placeholder factor, not a real figure/);
+    await screenshot(page, 'board-summary-accepted-risk');
+  });
+
+  it('downloads the summary as a one-page A4 PDF that reads as the page does', async () => {
     const { page } = browser;
 
     const [download] = await Promise.all([
@@ -54,9 +71,35 @@ describe('network summary: board member', () => {
     const stream = await download.createReadStream();
     const chunks: Buffer[] = [];
     for await (const chunk of stream) chunks.push(chunk as Buffer);
-    const pdf = Buffer.concat(chunks);
+    const pdf = readPdfWords(Buffer.concat(chunks));
 
-    assert.equal(pdf.subarray(0, 4).toString('latin1'), '%PDF');
     assert.match(download.suggestedFilename(), /\.pdf$/);
+    assert.equal(pdf.pages.length, 1);
+    assert.deepEqual(wordsOutsideMargins(pdf, MARGIN_PT), []);
+    for (const raw of RAW_VALUE_PATTERNS) assert.doesNotMatch(pdf.text[0]!, raw);
+    assert.match(pdf.text[0]!, /High or critical risks accepted: [1-9]/);
+    assert.match(pdf.text[0]!, /Placeholder factor, not a real figure/);
   });
 });
+
+/** A safety officer accepts the demo's high-risk descent (left as it is when already accepted). */
+async function acceptFirstHighRiskAsSafetyOfficer(): Promise<void> {
+  const safety = await openBrowser();
+  try {
+    await signInAs(safety.page, 'safety');
+    const list = await safety.page.request.get(`${BASE_URL}/api/reviews?risk=high`);
+    const { items } = (await list.json()) as { items: { id: string; state: string }[] };
+    const item = items[0];
+    assert.ok(item, 'the demo has a high-risk descent');
+    const transition = async (data: Record<string, string>) => {
+      const answer = await safety.page.request.post(`${BASE_URL}/api/reviews/${item.id}/transitions`, { data, headers: { origin: BASE_URL } });
+      assert.equal(answer.status(), 200, await answer.text());
+    };
+    if (item.state === 'mitigated') await transition({ action: 'reopen', note: 'Board test: look at it again' });
+    if (item.state !== 'accepted' && item.state !== 'in-review') await transition({ action: 'acknowledge' });
+    if (item.state !== 'accepted') await transition({ action: 'accept', reason: 'Board test: retarder fitted and drivers briefed on the descent' });
+    await signOut(safety.page);
+  } finally {
+    await safety.close();
+  }
+}
