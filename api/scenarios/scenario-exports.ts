@@ -1,40 +1,22 @@
 /**
- * Scenario results as files: a per-point CSV (units in the column names, one row per profile point
+ * Scenario results as files: a per-point CSV (headers from the shared presentation module, units in brackets, one row per profile point
  * per direction, the caution on the first line as a "#" comment) and a GeoJSON FeatureCollection
  * (RFC 7946) of the route cut into per-segment LineStrings, plus one LineString per descent with
  * its risk and advice. The caution travels as a foreign member of the collection.
  */
 import type { Scenario, ScenarioResult } from '@shared/domain/scenarios';
 import { ENGINEERING_CAUTION } from '@shared/engine/constants';
-
-const CSV_COLUMNS = [
-  'direction',
-  'distance_m',
-  'longitude_deg',
-  'latitude_deg',
-  'elevation_m',
-  'grade_percent',
-  'speed_kph',
-  'time_s',
-  'traction_force_n',
-  'traction_power_kw',
-  'battery_power_kw',
-  'regen_power_kw',
-  'friction_brake_power_kw',
-  'soc_percent',
-  'brake_temp_c',
-  'gsrs_brake_temp_c',
-  'air_density_kg_m3',
-] as const;
+import { DIRECTION_LABELS, profileCsvHeader } from '@shared/presentation/index';
 
 export function scenarioCsv(result: ScenarioResult): string {
-  const lines = [`# ${ENGINEERING_CAUTION}`, CSV_COLUMNS.join(',')];
+  const lines = [`# ${ENGINEERING_CAUTION}`, profileCsvHeader()];
   for (const direction of result.directions) {
     const p = direction.profile;
     for (let i = 0; i < p.distanceM.length; i++) {
+      // In the order of PROFILE_COLUMNS.
       lines.push(
         [
-          direction.direction,
+          DIRECTION_LABELS[direction.direction],
           fixed(p.distanceM[i]!, 2),
           fixed(p.lon[i]!, 7),
           fixed(p.lat[i]!, 7),

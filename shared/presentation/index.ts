@@ -12,3 +12,4 @@ export * from './dates';
 export * from './worst-descent';
 export * from './board-format';
 export * from './board-figures';
+export * from './profile-columns';

@@ -2,6 +2,8 @@ import assert from 'node:assert/strict';
 import { readFileSync } from 'node:fs';
 import { describe, it } from 'node:test';
 import type { Page } from 'playwright-core';
+import { MARGIN_PT } from '../../api/pdf/pdf-layout';
+import { RAW_VALUE_PATTERNS, readPdfWords, wordsOutsideMargins } from '../support/pdf-words';
 import { BASE_URL, screenshot } from './support/browser';
 import { signedInBrowser } from './support/demo-people';
 
@@ -116,7 +118,25 @@ describe('routes and scenarios', () => {
 
     // The export opens with the engineering caution as a comment, then the column header.
     assert.match(lines[0]!, /^# .*engineering estimates/i);
-    assert.match(lines.find((line) => !line.startsWith('#'))!, /distance/i);
+    assert.match(lines.find((line) => !line.startsWith('#'))!, /^Direction,Distance \(m\),/);
+  });
+
+  it('downloads the PDF report: A4 pages inside their margins, with the names and values of the screen', async () => {
+    const { page } = browser;
+    const cards = await page.getByRole('region', { name: 'Summary' }).innerText();
+    await page.getByTestId('export-menu').click();
+    const [download] = await Promise.all([page.waitForEvent('download'), page.getByRole('menuitem', { name: 'Report (.pdf)' }).click()]);
+    const pdf = readPdfWords(readFileSync((await download.path())!));
+
+    assert.deepEqual(wordsOutsideMargins(pdf, MARGIN_PT), []);
+    const text = pdf.text.join(' ');
+    for (const raw of RAW_VALUE_PATTERNS) assert.doesNotMatch(text, raw);
+    // Each card's label and value, as the screen shows them, is in the report.
+    for (const label of ['Traction energy', 'Regenerated', 'Friction brakes', 'Retarder / braking resistor', 'Peak brake temperature']) {
+      const value = new RegExp(`${label.replace(/[/]/g, '\\/')}\\s+([^\\n]+)`).exec(cards)?.[1];
+      assert.ok(value, `the screen shows ${label}`);
+      assert.ok(text.includes(value.trim()), `the report shows ${label} ${value}`);
+    }
   });
 
   it('compares two scenarios side by side', async () => {

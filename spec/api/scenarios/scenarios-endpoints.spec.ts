@@ -11,6 +11,7 @@ import { aRouteDraft, eastwardLine } from '../../support/road-route-builders';
 import { RAW_VALUE_PATTERNS, readPdfWords, wordsOutsideMargins } from '../../support/pdf-words';
 import { MARGIN_PT } from '../../../api/pdf/pdf-layout';
 import { SUMMARY_FIGURES, formatFigure } from '@shared/presentation/figures';
+import { profileCsvHeader } from '@shared/presentation/profile-columns';
 
 const context = createTestContext();
 const { app, db } = context;
@@ -236,11 +237,14 @@ describe('exports', () => {
     expect(response.headers['content-disposition']).toMatch(/^attachment; filename="?spec-scenario\.csv"?$/);
     const lines = response.text.trim().split('\r\n');
     expect(lines[0]).toBe(`# ${ENGINEERING_CAUTION}`);
-    expect(lines[1]).toMatch(/^direction,distance_m,longitude_deg,latitude_deg,elevation_m,grade_percent,speed_kph/);
+    // Headers name each quantity as the screens do, with its unit (shared presentation module).
+    expect(lines[1]).toBe(profileCsvHeader());
+    expect(lines[1]).toMatch(/^Direction,Distance \(m\),Longitude \(°\),Latitude \(°\),Elevation \(m\),Grade \(%\),Speed \(km\/h\)/);
+    expect(lines[1]).toContain('"Brake temperature, grade-severity estimate (°C)"');
     const points = result.directions[0].profile.distanceM.length + result.directions[1].profile.distanceM.length;
     expect(lines).toHaveLength(2 + points);
-    expect(lines[2]).toMatch(/^outbound,0,/);
-    expect(lines.at(-1)).toMatch(/^inbound,/);
+    expect(lines[2]).toMatch(/^Outbound,0,/);
+    expect(lines.at(-1)).toMatch(/^Inbound,/);
   });
 
   it('exports GeoJSON with one LineString per segment and the caution', async () => {
