@@ -12,7 +12,9 @@ import {
   roadRouteVersionListSchema,
   routeExportQuerySchema,
   routeIdParamsSchema,
+  routeImportElevationsSchema,
   routeImportMultipartSchema,
+  routeImportResultSchema,
   routeListQuerySchema,
   routeProfileRequestSchema,
   routeProfileSchema,
@@ -87,14 +89,21 @@ export function roadRouteEndpoints(deps: AppDeps) {
       multipartBody: routeImportMultipartSchema,
       middleware: [singleFileUpload()],
       responses: {
-        201: { description: 'Created', schema: roadRouteSchema },
+        201: { description: 'Created: the route and where its elevations come from', schema: routeImportResultSchema },
         400: { description: 'The file cannot be read; the message names the file, line and field. Nothing is created.' },
+        409: { description: 'The very same file was imported before; details name that route. Nothing is created.' },
       },
       handler: async ({ req, user, res }) => {
         const file = requireFile(req.file);
-        const name = typeof req.body?.name === 'string' ? req.body.name : undefined;
-        const route = await importRouteFile(deps.db, authorOf(user!), file, name);
-        res.status(201).location(`/api/routes/${route.id}`).json(route);
+        const body = (req.body ?? {}) as Record<string, unknown>;
+        const name = typeof body['name'] === 'string' ? body['name'] : undefined;
+        const chosen = routeImportElevationsSchema.optional().safeParse(body['elevations'] === '' ? undefined : body['elevations']);
+        if (!chosen.success) {
+          throw new BadRequestError(`elevations: choose 'file' or 'terrain', got "${String(body['elevations'])}"`, { field: 'elevations' });
+        }
+        const elevations = chosen.data;
+        const imported = await importRouteFile(deps.db, authorOf(user!), file, { name, elevations });
+        res.status(201).location(`/api/routes/${imported.route.id}`).json(imported);
       },
     }),
     endpoint({

@@ -28,12 +28,22 @@ export type RouteVersion = Omit<RoadRouteVersionRow, 'geometry'>;
 
 export type NewRouteVersion = Omit<RouteVersion, 'id' | 'createdAt' | 'routeId' | 'version'>;
 
-export async function insertRoute(db: Executor, values: { createdById: string | null; seedKey?: string | null }) {
+export async function insertRoute(db: Executor, values: { createdById: string | null; seedKey?: string | null; importSha256?: string | null }) {
   const [row] = await db
     .insert(roadRoutes)
-    .values({ createdById: values.createdById, seedKey: values.seedKey ?? null, currentVersion: 1 })
+    .values({ createdById: values.createdById, seedKey: values.seedKey ?? null, importSha256: values.importSha256 ?? null, currentVersion: 1 })
     .returning();
   return row!;
+}
+
+/** The route imported from a file with this SHA-256, if any (with its current name). */
+export async function findRouteByImportSha256(db: Executor, importSha256: string) {
+  const [row] = await db
+    .select({ id: roadRoutes.id, name: roadRouteVersions.name })
+    .from(roadRoutes)
+    .innerJoin(roadRouteVersions, and(eq(roadRouteVersions.routeId, roadRoutes.id), eq(roadRouteVersions.version, roadRoutes.currentVersion)))
+    .where(eq(roadRoutes.importSha256, importSha256));
+  return row;
 }
 
 export async function insertVersion(db: Executor, routeId: string, version: number, values: NewRouteVersion): Promise<RouteVersion> {

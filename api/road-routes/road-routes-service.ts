@@ -63,13 +63,13 @@ export async function createRoute(db: Executor, author: Author, draft: RoadRoute
   return (db as Database).transaction(run);
 }
 
-/** Creates several routes at once: all or none. */
-export async function createRoutes(db: Database, author: Author, drafts: RoadRouteDraft[]): Promise<RoadRoute[]> {
+/** Creates several routes at once: all or none. `importSha256` marks a single route imported from a file. */
+export async function createRoutes(db: Database, author: Author, drafts: RoadRouteDraft[], { importSha256 }: { importSha256?: string } = {}): Promise<RoadRoute[]> {
   const contents = drafts.map((draft) => prepareVersion(draft, author));
   return db.transaction(async (tx) => {
     const saved: RoadRoute[] = [];
     for (const content of contents) {
-      const route = await repository.insertRoute(tx, { createdById: author.id });
+      const route = await repository.insertRoute(tx, { createdById: author.id, importSha256: drafts.length === 1 ? importSha256 : undefined });
       const version = await repository.insertVersion(tx, route.id, 1, content);
       saved.push(repository.toRoadRoute(version, route.updatedAt));
     }

@@ -1,15 +1,37 @@
-import { roadRouteDraftSchema, type RoadRoute, type RoadRouteDraft, type RoadRouteDraftInput } from '@shared/domain/road-routes';
+import { createHash } from 'node:crypto';
+import {
+  roadRouteDraftSchema,
+  type RoadRoute,
+  type RoadRouteDraft,
+  type RoadRouteDraftInput,
+  type RouteImportElevations,
+  type RouteImportResult,
+} from '@shared/domain/road-routes';
 import type { Database } from '../db/client';
-import { BadRequestError } from '../http/http-error';
+import { BadRequestError, ConflictError } from '../http/http-error';
+import { findRouteByImportSha256 } from './road-routes-repository';
 import { gtfsToDrafts } from './gtfs-import';
 import { ImportError } from './import-error';
 import { createRoutes, prepareVersion, type Author } from './road-routes-service';
 import { geoJsonToDraft } from './route-geojson';
 import { gpxToDraft } from './route-gpx';
 
-/** Imports one route from a GeoJSON or GPX file: all checks pass before anything is written. */
-export async function importRouteFile(db: Database, author: Author, file: { originalname: string; buffer: Buffer }, name?: string): Promise<RoadRoute> {
+/**
+ * Imports one route from a GeoJSON or GPX file: all checks pass before anything is written.
+ * Elevations: `'file'` keeps the file's own when every point has one (a GPS track's recorded
+ * heights), otherwise the terrain supplies them; `'terrain'` drops the file's. The very same file
+ * (byte for byte) imported again is refused with 409, naming the route it made.
+ */
+export async function importRouteFile(
+  db: Database,
+  author: Author,
+  file: { originalname: string; buffer: Buffer },
+  { name, elevations = 'file' }: { name?: string; elevations?: RouteImportElevations } = {},
+): Promise<RouteImportResult> {
   const fileName = file.originalname || 'upload';
+  const importSha256 = createHash('sha256').update(file.buffer).digest('hex');
+  const earlier = await findRouteByImportSha256(db, importSha256);
+  if (earlier) throw alreadyImported(fileName, earlier);
   const text = file.buffer.toString('utf8').replace(/^\uFEFF/, '');
   let draftInput: RoadRouteDraftInput;
   if (/\.gpx$/i.test(fileName) || (!/\.(geo)?json$/i.test(fileName) && text.trimStart().startsWith('<'))) {
@@ -20,9 +42,29 @@ export async function importRouteFile(db: Database, author: Author, file: { orig
     throw new ImportError({ file: fileName }, 'unknown format: send a .geojson, .json or .gpx file');
   }
   if (name?.trim()) draftInput = { ...draftInput, name: name.trim().slice(0, 120) };
+  const fileHasElevations = draftInput.geometry.coordinates.every((position) => position.length >= 3);
+  const elevationSource = elevations === 'file' && fileHasElevations ? 'file' : 'terrain';
+  if (elevationSource === 'terrain' && fileHasElevations) {
+    draftInput = { ...draftInput, geometry: { type: 'LineString', coordinates: draftInput.geometry.coordinates.map(([lon, lat]) => [lon!, lat!]) } };
+  }
   const draft = checkDraft(fileName, draftInput);
-  const [route] = await createRoutes(db, author, [draft]);
-  return route!;
+  try {
+    const [route] = await createRoutes(db, author, [draft], { importSha256 });
+    return { route: route!, elevationSource, fileHasElevations };
+  } catch (error) {
+    // Expected when the same file is imported twice at the same moment: the unique hash decides.
+    const again = await findRouteByImportSha256(db, importSha256);
+    if (again) throw alreadyImported(fileName, again);
+    throw error;
+  }
+}
+
+function alreadyImported(fileName: string, route: { id: string; name: string }): ConflictError {
+  return new ConflictError(
+    `${fileName} was imported before, as the route “${route.name}”: open that route, or change the file to import it again`,
+    'already_imported',
+    { routeId: route.id, routeName: route.name },
+  );
 }
 
 /** Imports one route per GTFS route of a feed; all or nothing. */

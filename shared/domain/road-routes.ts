@@ -135,11 +135,29 @@ export type RouteProfile = z.infer<typeof routeProfileSchema>;
 export const ROUTE_EXPORT_FORMATS = ['geojson', 'gpx'] as const;
 export const routeExportQuerySchema = z.object({ format: z.enum(ROUTE_EXPORT_FORMATS).default('geojson') });
 
+/** Where an imported route's elevations come from: the file's own points, or the uploaded terrain. */
+export const ROUTE_IMPORT_ELEVATIONS = ['file', 'terrain'] as const;
+export const routeImportElevationsSchema = z.enum(ROUTE_IMPORT_ELEVATIONS);
+export type RouteImportElevations = z.infer<typeof routeImportElevationsSchema>;
+
 /** Multipart body of the import endpoints (documentation only; multer parses it). */
 export const routeImportMultipartSchema = z.object({
   file: z.string().describe('.geojson / .json (GeoJSON Feature or FeatureCollection with one LineString) or .gpx (GPX 1.1)'),
   name: z.string().optional().describe('Route name; default: the name in the file, else the file name'),
+  elevations: routeImportElevationsSchema
+    .optional()
+    .describe("'file' (default): the file's own elevations when every point has one, else the terrain's; 'terrain': always the terrain's"),
 });
+
+/** POST /api/routes/import: the route created and where its elevations come from. */
+export const routeImportResultSchema = z.object({
+  route: roadRouteSchema,
+  /** 'file' when the route keeps the file's elevations; 'terrain' when the terrain supplies them. */
+  elevationSource: routeImportElevationsSchema,
+  /** Whether every point of the file carried an elevation. */
+  fileHasElevations: z.boolean(),
+});
+export type RouteImportResult = z.infer<typeof routeImportResultSchema>;
 export const gtfsImportMultipartSchema = z.object({
   file: z.string().describe('GTFS feed as a .zip: shapes.txt, stops.txt, stop_times.txt, trips.txt, routes.txt, calendar.txt'),
 });

@@ -18,6 +18,11 @@ export const roadRoutes = pgTable('road_routes', {
   currentVersion: integer().notNull().default(1),
   /** Stable key for data loaded by the demo seed (idempotent upserts); null for planners' routes. */
   seedKey: text().unique(),
+  /**
+   * SHA-256 (hex) of the GeoJSON or GPX file the route was imported from; null for drawn routes.
+   * Unique, so importing the very same file twice is refused instead of making a duplicate.
+   */
+  importSha256: text().unique(),
   createdById: uuid().references(() => users.id, { onDelete: 'set null' }),
   ...timestamps,
 });

@@ -28,9 +28,9 @@ describe('GET /api/routes/:routeId/export and POST /api/routes/import', () => {
 
     expect(exported.headers['content-disposition']).toMatch(/attachment; filename="?spec-line-1\.geojson"?/);
     expect(imported.status).toBe(201);
-    expect(imported.body.geometry).toEqual(original.geometry);
-    expect(imported.body.stops).toEqual(original.stops);
-    expect(imported.body).toMatchObject({ name: original.name, speedLimits: original.speedLimits, tripsPerDay: 20, version: 1 });
+    expect(imported.body.route.geometry).toEqual(original.geometry);
+    expect(imported.body.route.stops).toEqual(original.stops);
+    expect(imported.body.route).toMatchObject({ name: original.name, speedLimits: original.speedLimits, tripsPerDay: 20, version: 1 });
   });
 
   it('round-trips GPX 1.1: export → import gives the same geometry with elevations and the stops', async () => {
@@ -44,9 +44,9 @@ describe('GET /api/routes/:routeId/export and POST /api/routes/import', () => {
     expect(gpx).toMatch(/<trkpt lat="46.5" lon="9"><ele>1200<\/ele><\/trkpt>/);
     expect(gpx.match(/<wpt /g)).toHaveLength(2);
     expect(imported.status).toBe(201);
-    expect(imported.body.geometry).toEqual(original.geometry);
-    expect(imported.body.stops).toEqual(original.stops);
-    expect(imported.body.name).toBe(original.name);
+    expect(imported.body.route.geometry).toEqual(original.geometry);
+    expect(imported.body.route.stops).toEqual(original.stops);
+    expect(imported.body.route.name).toBe(original.name);
   });
 
   it('imports a GPX route (<rte>) without elevations', async () => {
@@ -61,8 +61,60 @@ describe('GET /api/routes/:routeId/export and POST /api/routes/import', () => {
     const response = await upload('/api/routes/import', gpx, 'lakeside.gpx');
 
     expect(response.status).toBe(201);
-    expect(response.body.name).toBe('Lakeside loop');
-    expect(response.body.geometry.coordinates).toEqual([[9, 46.5], [9.01, 46.5]]);
+    expect(response.body.route.name).toBe('Lakeside loop');
+    expect(response.body.route.geometry.coordinates).toEqual([[9, 46.5], [9.01, 46.5]]);
+  });
+
+  it('keeps a GPX track’s own elevations by default and says so (issue 10: they were replaced by terrain)', async () => {
+    const response = await upload('/api/routes/import', aGpxTrack(), 'recorded.gpx');
+
+    expect(response.status).toBe(201);
+    expect(response.body).toMatchObject({ elevationSource: 'file', fileHasElevations: true });
+    expect(response.body.route.geometry.coordinates).toEqual([[9, 46.5, 1210.5], [9.01, 46.5, 1195.25], [9.02, 46.5, 1180]]);
+  });
+
+  it("drops the file's elevations when the planner chooses the terrain's", async () => {
+    const response = await request(app)
+      .post('/api/routes/import')
+      .set('Cookie', planner)
+      .field('elevations', 'terrain')
+      .attach('file', Buffer.from(aGpxTrack()), 'recorded.gpx');
+
+    expect(response.status).toBe(201);
+    expect(response.body).toMatchObject({ elevationSource: 'terrain', fileHasElevations: true });
+    expect(response.body.route.geometry.coordinates).toEqual([[9, 46.5], [9.01, 46.5], [9.02, 46.5]]);
+  });
+
+  it('answers 400 naming the field for an unknown elevation choice, and creates nothing', async () => {
+    const response = await request(app)
+      .post('/api/routes/import')
+      .set('Cookie', planner)
+      .field('elevations', 'satellite')
+      .attach('file', Buffer.from(aGpxTrack()), 'recorded.gpx');
+
+    expect(response.status).toBe(400);
+    expect(response.body.error.message).toMatch(/^elevations: /);
+    expect(await countRows(db, 'road_routes')).toBe(0);
+  });
+
+  it('refuses the very same file a second time with 409 naming the route it made, and creates no duplicate', async () => {
+    const first = await upload('/api/routes/import', aGpxTrack(), 'recorded.gpx');
+
+    const again = await upload('/api/routes/import', aGpxTrack(), 'recorded-copy.gpx');
+
+    expect(again.status).toBe(409);
+    expect(again.body.error).toMatchObject({ code: 'already_imported', details: { routeId: first.body.route.id, routeName: 'Recorded run' } });
+    expect(again.body.error.message).toMatch(/^recorded-copy\.gpx was imported before, as the route “Recorded run”/);
+    expect(await countRows(db, 'road_routes')).toBe(1);
+  });
+
+  it('imports a changed file again', async () => {
+    await upload('/api/routes/import', aGpxTrack(), 'recorded.gpx');
+
+    const changed = await upload('/api/routes/import', aGpxTrack().replace('Recorded run', 'Recorded run, second try'), 'recorded.gpx');
+
+    expect(changed.status).toBe(201);
+    expect(await countRows(db, 'road_routes')).toBe(2);
   });
 
   it('answers 400 naming the file and line for malformed GPX, and creates nothing', async () => {
@@ -255,6 +307,18 @@ describe('the reference road network', () => {
 
 function upload(path: string, content: string | Buffer, fileName: string) {
   return request(app).post(path).set('Cookie', planner).attach('file', Buffer.isBuffer(content) ? content : Buffer.from(content), fileName);
+}
+
+/** A recorded GPS track: three points, each with its own elevation. */
+function aGpxTrack(): string {
+  return `<?xml version="1.0"?>
+<gpx version="1.1" creator="spec" xmlns="http://www.topografix.com/GPX/1/1">
+  <trk><name>Recorded run</name><trkseg>
+    <trkpt lat="46.5" lon="9.0"><ele>1210.5</ele></trkpt>
+    <trkpt lat="46.5" lon="9.01"><ele>1195.25</ele></trkpt>
+    <trkpt lat="46.5" lon="9.02"><ele>1180</ele></trkpt>
+  </trkseg></trk>
+</gpx>`;
 }
 
 function textOf(response: request.Response): string {

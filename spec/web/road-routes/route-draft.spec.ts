@@ -1,6 +1,9 @@
 import {
   APPENDED_VERTEX_STEP_M,
   EMPTY_DRAFT,
+  dropRecordedElevations,
+  recordedElevations,
+  type RouteDraftState,
   RouteDraftHistory,
   addSpeedLimit,
   addStopNear,
@@ -258,5 +261,24 @@ describe('RouteDraftHistory', () => {
 
     expect(history.canUndo).toBe(false);
     expect(history.state.vertices).toEqual([B, C]);
+  });
+});
+
+describe('recorded elevations (issue 10: an imported track kept its heights only until the editor saved)', () => {
+  const track: RouteDraftState = { vertices: [[9, 46.5, 1210], [9.01, 46.5, 1195], [9.02, 46.5, 1180]], stops: [], speedLimits: [] };
+
+  it('counts the vertices that carry their own elevation', () => {
+    expect(recordedElevations(track)).toEqual({ recorded: 3, total: 3 });
+  });
+
+  it('drops a moved vertex’s recorded elevation, keeping the others', () => {
+    const moved = moveVertex(track, 1, [9.011, 46.5]);
+
+    expect(moved.vertices).toEqual([[9, 46.5, 1210], [9.011, 46.5], [9.02, 46.5, 1180]]);
+    expect(recordedElevations(moved)).toEqual({ recorded: 2, total: 3 });
+  });
+
+  it('drops every recorded elevation when the planner chooses the terrain’s', () => {
+    expect(dropRecordedElevations(track).vertices).toEqual([[9, 46.5], [9.01, 46.5], [9.02, 46.5]]);
   });
 });

@@ -2,6 +2,9 @@ import { HttpClient, HttpContext } from '@angular/common/http';
 import { Injectable, inject } from '@angular/core';
 import type { LineString } from '@shared/domain/analysis';
 import {
+  routeImportResultSchema,
+  type RouteImportElevations,
+  type RouteImportResult,
   roadNetworkPathSchema,
   roadNetworkSchema,
   roadNetworkUploadResultSchema,
@@ -72,14 +75,19 @@ export class RoadRoutesApi {
     return `${routePath(routeId)}/export?format=${format}`;
   }
 
-  /** Imports routes from a GeoJSON or GPX file. */
-  async importFile(file: File): Promise<RoadRoute[]> {
-    return this.upload('/api/routes/import', file);
+  /** Imports one route from a GeoJSON or GPX file; the answer says where its elevations come from. */
+  async importFile(file: File, elevations: RouteImportElevations): Promise<RouteImportResult> {
+    const form = new FormData();
+    form.append('elevations', elevations);
+    form.append('file', file, file.name);
+    return routeImportResultSchema.parse(await firstValueFrom(this.http.post('/api/routes/import', form, inline())));
   }
 
   /** Imports a GTFS feed's shapes, stops and trips per day from a zip. */
   async importGtfs(file: File): Promise<RoadRoute[]> {
-    return this.upload('/api/routes/import-gtfs', file);
+    const form = new FormData();
+    form.append('file', file, file.name);
+    return roadRouteImportListSchema.parse(await firstValueFrom(this.http.post('/api/routes/import-gtfs', form, inline()))).items;
   }
 
   async roadNetwork(): Promise<RoadNetwork | null> {
@@ -96,17 +104,12 @@ export class RoadRoutesApi {
   }
 
   /** The path along the reference network between two points, for snapping a new vertex. */
-  pathAlongNetwork(from: readonly [number, number], to: readonly [number, number]): Observable<RoadNetworkPath> {
+  pathAlongNetwork(from: readonly [number, number, ...number[]], to: readonly [number, number, ...number[]]): Observable<RoadNetworkPath> {
     return this.http
-      .post('/api/road-network/path', { from, to }, inline())
+      .post('/api/road-network/path', { from: [from[0], from[1]], to: [to[0], to[1]] }, inline())
       .pipe(map((body) => roadNetworkPathSchema.parse(body)));
   }
 
-  private async upload(path: string, file: File): Promise<RoadRoute[]> {
-    const form = new FormData();
-    form.append('file', file, file.name);
-    return roadRouteImportListSchema.parse(await firstValueFrom(this.http.post(path, form, inline()))).items;
-  }
 }
 
 function routePath(routeId: string): string {

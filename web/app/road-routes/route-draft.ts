@@ -5,7 +5,12 @@
  */
 import { geodesicDistanceM, metresPerDegree } from '@shared/engine/geodesy';
 
-export type LonLat = readonly [number, number];
+/**
+ * A vertex: [lon, lat], or [lon, lat, elevation m] when the route carries its own elevation there
+ * (an imported GPS track). Moving or inserting a vertex gives it none, so the terrain then
+ * supplies the route's elevations (they are used only when every vertex has one).
+ */
+export type LonLat = readonly [number, number] | readonly [number, number, number];
 
 export interface DraftStop {
   name: string;
@@ -30,6 +35,17 @@ export interface RouteDraftState {
 }
 
 export const EMPTY_DRAFT: RouteDraftState = { vertices: [], stops: [], speedLimits: [] };
+
+/** How many vertices carry a recorded elevation, of how many. */
+export function recordedElevations(state: RouteDraftState): { recorded: number; total: number } {
+  return { recorded: state.vertices.filter((vertex) => vertex.length === 3).length, total: state.vertices.length };
+}
+
+/** Drops every recorded elevation: the terrain then supplies the route's elevations. */
+export function dropRecordedElevations(state: RouteDraftState): RouteDraftState {
+  if (state.vertices.every((vertex) => vertex.length === 2)) return state;
+  return { ...state, vertices: state.vertices.map(([lon, lat]) => [lon, lat] as const) };
+}
 
 /** Default dwell of a new stop, s (from memory: 15–30 s at an urban stop). */
 export const DEFAULT_DWELL_S = 20;
@@ -240,6 +256,7 @@ export function setVertexCoordinate(state: RouteDraftState, index: number, axis:
   }
   const [lon, lat] = state.vertices[index]!;
   const current = axis === 'lon' ? lon : lat;
+  // A vertex moved by typing keeps no recorded elevation: it no longer stands where that was measured.
   if (roundDegrees(current) === roundDegrees(degrees)) return state;
   return moveVertex(state, index, axis === 'lon' ? [degrees, lat] : [lon, degrees]);
 }

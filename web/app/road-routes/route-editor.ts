@@ -55,6 +55,8 @@ import {
   removeSpeedLimit,
   removeStop,
   segmentMidpoints,
+  dropRecordedElevations,
+  recordedElevations,
   setVertexCoordinate,
   sliceLine,
   updateSpeedLimit,
@@ -167,13 +169,21 @@ export default class RouteEditor {
   /** Speed given to a stretch placed on the map, in the displayed unit. */
   protected readonly newLimitSpeed = new FormControl(30, { nonNullable: true, validators: [Validators.min(3), Validators.max(130)] });
 
+  /** How many vertices carry their own recorded elevation (an imported track), of how many. */
+  protected readonly recorded = computed(() => recordedElevations(this.draft()));
+
+  /** Drops the route's recorded elevations (one undoable step): the terrain supplies them instead. */
+  protected useTerrainElevations(): void {
+    this.edit((state) => dropRecordedElevations(state));
+  }
+
   /** Live elevation profile: settles 300 ms after the last change; a newer path cancels the request. */
   protected readonly profile = toSignal(
     toObservable(this.vertices).pipe(
       debounceTime(300),
       switchMap((vertices) => {
         if (vertices.length < 2) return of<ProfileState>({ status: 'idle' });
-        return this.api.profile({ type: 'LineString', coordinates: vertices.map((v) => [v[0], v[1]] as [number, number]) }).pipe(
+        return this.api.profile({ type: 'LineString', coordinates: vertices.map(positionOf) }).pipe(
           map((profile): ProfileState => ({ status: 'ready', profile })),
           startWith<ProfileState>({ status: 'loading' }),
           catchError((error: unknown) => of<ProfileState>({ status: 'error', message: describeApiError(error) })),
@@ -224,7 +234,7 @@ export default class RouteEditor {
       overlays.push({
         kind: 'line',
         id: `limit:${index}`,
-        positions: sliceLine(vertices, stretch.fromM, stretch.toM),
+        positions: sliceLine(vertices, stretch.fromM, stretch.toM).map(lonLatOf),
         color: LIMIT_COLOR,
         weight: 11,
         opacity: 0.55,
@@ -235,7 +245,7 @@ export default class RouteEditor {
       overlays.push({
         kind: 'line',
         id: 'route',
-        positions: vertices,
+        positions: vertices.map(lonLatOf),
         color: ROUTE_COLOR,
         weight: 5,
         interactive: editing && tool !== 'draw',
@@ -244,15 +254,15 @@ export default class RouteEditor {
     }
     if (editing && tool === 'draw') {
       segmentMidpoints(vertices).forEach((at, index) =>
-        overlays.push({ kind: 'handle', id: `mid:${index}`, at, variant: 'midpoint', draggable: false, label: `Insert a vertex in segment ${index + 1}` }),
+        overlays.push({ kind: 'handle', id: `mid:${index}`, at: lonLatOf(at), variant: 'midpoint', draggable: false, label: `Insert a vertex in segment ${index + 1}` }),
       );
     }
     if (editing) {
-      vertices.forEach((at, index) =>
+      vertices.forEach((vertex, index) =>
         overlays.push({
           kind: 'handle',
           id: `vertex:${index}`,
-          at,
+          at: lonLatOf(vertex),
           variant: index === selected ? 'selected' : 'vertex',
           draggable: tool === 'draw',
           label: `Vertex ${index + 1} of ${vertices.length}`,
@@ -585,7 +595,7 @@ export default class RouteEditor {
       name: details.name.trim(),
       description: details.description.trim(),
       mode: details.mode,
-      geometry: { type: 'LineString', coordinates: vertices.map((v) => [v[0], v[1]] as [number, number]) },
+      geometry: { type: 'LineString', coordinates: vertices.map(positionOf) },
       stops: stops.map((stop) => ({ name: stop.name, lon: stop.lon, lat: stop.lat, dwellS: stop.dwellS })),
       speedLimits: speedLimits.map((stretch) => ({ ...stretch })),
       defaultSpeedLimitKph: this.speedKphFromDisplay(details.defaultSpeedLimit),
@@ -663,18 +673,24 @@ export default class RouteEditor {
 
 function toDraft(route: RoadRoute): RouteDraftState {
   return {
-    vertices: route.geometry.coordinates.map(lonLatOf),
+    vertices: route.geometry.coordinates.map((position) => (position.length >= 3 ? ([position[0]!, position[1]!, position[2]!] as const) : lonLatOf(position))),
     stops: route.stops.map((stop) => ({ name: stop.name, lon: stop.lon, lat: stop.lat, dwellS: stop.dwellS, atM: stop.atM })),
     speedLimits: route.speedLimits.map((stretch) => ({ ...stretch })),
   };
 }
 
-function lonLatOf(position: readonly number[]): LonLat {
+function lonLatOf(position: readonly number[]): readonly [number, number] {
   return [position[0]!, position[1]!];
 }
 
+/** A vertex as GeoJSON, with its recorded elevation when it has one. */
+function positionOf(vertex: LonLat): [number, number] | [number, number, number] {
+  return vertex.length === 3 ? [vertex[0], vertex[1], vertex[2]] : [vertex[0], vertex[1]];
+}
+
 function pointAt(vertices: readonly LonLat[], atM: number): MapPosition | null {
-  return pointAlongLine(vertices, atM);
+  const at = pointAlongLine(vertices, atM);
+  return at && lonLatOf(at);
 }
 
 function formatSpeed(speedKph: number, system: 'metric' | 'imperial'): string {

@@ -8,12 +8,13 @@ import { MatIconModule } from '@angular/material/icon';
 import { MatInputModule } from '@angular/material/input';
 import { MatPaginator, MatPaginatorModule } from '@angular/material/paginator';
 import { MatProgressBarModule } from '@angular/material/progress-bar';
+import { MatRadioModule } from '@angular/material/radio';
 import { MatSnackBar } from '@angular/material/snack-bar';
 import { MatSort, MatSortModule } from '@angular/material/sort';
 import { MatTableDataSource, MatTableModule } from '@angular/material/table';
-import { Router, RouterLink } from '@angular/router';
-import type { RoadRouteSummary } from '@shared/domain/road-routes';
-import { describeApiError } from '../core/api-error-message';
+import { RouterLink } from '@angular/router';
+import type { RoadRouteSummary, RouteImportElevations } from '@shared/domain/road-routes';
+import { apiErrorBody, describeApiError } from '../core/api-error-message';
 import { Session } from '../core/session';
 import { QuantityPipe } from '../units/quantity-pipe';
 import { UnitPreference } from '../units/unit-preference';
@@ -24,6 +25,14 @@ type LoadState = { status: 'loading' } | { status: 'error'; message: string } | 
 const MODE_LABELS: Readonly<Record<RoadRouteSummary['mode'], string>> = { bus: 'Bus', trolleybus: 'Trolleybus', tram: 'Tram' };
 
 /** Every route of the authority: search, sort, page; planners import, analysts load the road network. */
+/** Where an imported route's elevations came from, in a sentence. */
+function describeImportElevations(source: RouteImportElevations, fileHadThem: boolean): string {
+  if (source === 'file') return 'Elevations: the file’s own, at every point.';
+  return fileHadThem
+    ? 'Elevations: from the terrain models, as chosen (the file’s own were set aside).'
+    : 'Elevations: from the terrain models (the file does not give one at every point).';
+}
+
 @Component({
   selector: 'app-route-list',
   imports: [
@@ -38,6 +47,7 @@ const MODE_LABELS: Readonly<Record<RoadRouteSummary['mode'], string>> = { bus: '
     MatButtonModule,
     MatIconModule,
     MatProgressBarModule,
+    MatRadioModule,
     QuantityPipe,
   ],
   templateUrl: './route-list.html',
@@ -47,7 +57,6 @@ const MODE_LABELS: Readonly<Record<RoadRouteSummary['mode'], string>> = { bus: '
 export default class RouteList {
   private readonly api = inject(RoadRoutesApi);
   private readonly session = inject(Session);
-  private readonly router = inject(Router);
   private readonly snackBar = inject(MatSnackBar);
 
   private readonly sort = viewChild(MatSort);
@@ -60,6 +69,13 @@ export default class RouteList {
   protected readonly routeCount = signal(0);
   protected readonly isUploading = signal(false);
   protected readonly uploadError = signal<string | null>(null);
+  /** The route an earlier import of the same file made (409), to open instead. */
+  protected readonly existingRoute = signal<{ id: string; name: string } | null>(null);
+  /** Whether the import panel (file, elevation choice) is open. */
+  protected readonly importOpen = signal(false);
+  protected readonly importElevations = signal<RouteImportElevations>('file');
+  /** What the last import made, shown above the list with links to the new routes. */
+  protected readonly imported = signal<{ fileName: string; routes: { id: string; name: string }[]; elevations: string | null } | null>(null);
   protected readonly isPlanner = computed(() => this.session.role() === 'planner');
   protected readonly isAnalyst = computed(() => this.session.role() === 'analyst');
 
@@ -84,19 +100,40 @@ export default class RouteList {
     return MODE_LABELS[mode];
   }
 
+  /**
+   * Imports the chosen file: a GeoJSON or GPX route with the chosen elevations, or a GTFS feed.
+   * The new routes are listed above the table (which is reloaded), so a second click does not
+   * make a duplicate; the very same file again is refused by the server (409) with a link to the
+   * route it made.
+   */
   protected async importRoutes(input: HTMLInputElement, kind: 'file' | 'gtfs'): Promise<void> {
     const file = input.files?.[0];
     input.value = '';
     if (!file) return;
     this.isUploading.set(true);
     this.uploadError.set(null);
+    this.existingRoute.set(null);
+    this.imported.set(null);
     try {
-      const routes = kind === 'gtfs' ? await this.api.importGtfs(file) : await this.api.importFile(file);
-      this.snackBar.open(`Imported ${routes.length} route${routes.length === 1 ? '' : 's'} from ${file.name}.`, 'Dismiss');
-      if (routes.length === 1) await this.router.navigate(['/routes', routes[0]!.id]);
-      else await this.load();
+      if (kind === 'gtfs') {
+        const routes = await this.api.importGtfs(file);
+        this.imported.set({ fileName: file.name, routes: routes.map(({ id, name }) => ({ id, name })), elevations: null });
+      } else {
+        const result = await this.api.importFile(file, this.importElevations());
+        this.imported.set({
+          fileName: file.name,
+          routes: [{ id: result.route.id, name: result.route.name }],
+          elevations: describeImportElevations(result.elevationSource, result.fileHasElevations),
+        });
+        this.importOpen.set(false);
+      }
+      await this.load();
     } catch (error: unknown) {
       this.uploadError.set(describeApiError(error));
+      const details = apiErrorBody(error)?.details as { routeId?: unknown; routeName?: unknown } | undefined;
+      if (typeof details?.routeId === 'string' && typeof details.routeName === 'string') {
+        this.existingRoute.set({ id: details.routeId, name: details.routeName });
+      }
     } finally {
       this.isUploading.set(false);
     }
@@ -116,6 +153,10 @@ export default class RouteList {
     } finally {
       this.isUploading.set(false);
     }
+  }
+
+  protected chooseElevations(value: RouteImportElevations): void {
+    this.importElevations.set(value);
   }
 
   private async load(): Promise<void> {
