@@ -1,6 +1,7 @@
 import { and, asc, eq, getTableColumns, sql } from 'drizzle-orm';
 import type { Polygon, TerrainModel } from '@shared/domain/terrain';
 import type { Executor } from '../db/client';
+import { lookupEpsg } from './crs-registry';
 import { terrainDependents, terrainModels, users, type TerrainModelRow } from '../db/schema/index';
 
 type NewTerrainRow = typeof terrainModels.$inferInsert;
@@ -99,6 +100,16 @@ export async function removeTerrainDependent(db: Executor, terrainId: string, ki
     .where(and(eq(terrainDependents.terrainId, terrainId), eq(terrainDependents.kind, kind), eq(terrainDependents.dependentId, dependentId)));
 }
 
+/** The unit of a CRS's grid axes, from its EPSG definition. */
+function pixelUnitOf(crs: string): TerrainModel['pixelSize']['unit'] {
+  const definition = lookupEpsg(Number(crs.replace(/^EPSG:/, '')));
+  if (!definition) return 'metre';
+  if (definition.isGeographic) return 'degree';
+  if (/\+units=us-ft\b/.test(definition.proj4Definition)) return 'US survey foot';
+  if (/\+units=ft\b/.test(definition.proj4Definition)) return 'foot';
+  return 'metre';
+}
+
 /** The catalogue entry the API answers with. */
 export function toTerrainModel(row: TerrainRowWithExtras): TerrainModel {
   return {
@@ -111,6 +122,7 @@ export function toTerrainModel(row: TerrainRowWithExtras): TerrainModel {
     widthPx: row.widthPx,
     heightPx: row.heightPx,
     resolutionM: row.resolutionM,
+    pixelSize: { x: Math.abs(row.pixelSizeX), y: Math.abs(row.pixelSizeY), unit: pixelUnitOf(row.crs) },
     nodata: row.nodata,
     dataType: row.dataType,
     pixelType: row.pixelType,

@@ -33,7 +33,7 @@ export function presetProfileId(presetId: string): string {
 export function presetDraft(preset: VehiclePreset): VehicleProfileDraft {
   return {
     name: preset.name,
-    description: `Generic ${preset.name.toLowerCase()} class: ${preset.seats} seats, ${preset.standingPlaces} standing places. Typical values from memory (see the domain notes); copy it and enter your fleet’s figures.`,
+    description: `Generic ${preset.name.toLowerCase()} class: ${preset.seats} seats, ${preset.standingPlaces} standing places. Starting values for the class, not for a particular make or model: copy it and enter your own vehicles’ figures from the maker’s data sheets.`,
     vehicleClass: preset.id,
     vehicle: vehicleSchema.parse(preset.vehicle),
     loadsKg: { empty: preset.payloadKg.empty, seated: preset.payloadKg.seated, 'full-standing': preset.payloadKg.full },

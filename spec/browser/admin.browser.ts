@@ -65,7 +65,7 @@ describe('administration', () => {
 
     assert.match(await outbox.getByRole('row', { name: new RegExp(invitee.email) }).innerText(), /You are invited/);
 
-    await page.getByRole('tab', { name: 'Received by the local mail catcher' }).click();
+    await page.getByRole('tab', { name: 'Local mail catcher' }).click();
     const invitation = page.getByRole('button', { name: new RegExp(`To ${invitee.email}`) });
     // The outbox worker delivers within seconds; refresh until the catcher has the message.
     for (let attempt = 0; attempt < 20 && !(await invitation.isVisible()); attempt += 1) {

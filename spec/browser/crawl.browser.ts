@@ -167,6 +167,12 @@ async function settle(page: Page, watch: PageWatch): Promise<string[]> {
       undefined,
       { timeout: 5_000 },
     );
+    // Charts redraw a moment after the window changes width; wait until each fits its box again.
+    await page.waitForFunction(
+      () => [...document.querySelectorAll('canvas')].filter((canvas) => !canvas.closest('.leaflet-container')).every((canvas) => canvas.getBoundingClientRect().width <= (canvas.parentElement?.getBoundingClientRect().width ?? 0) + 1),
+      undefined,
+      { timeout: 5_000 },
+    );
     return [];
   } catch (error: unknown) {
     // Expected only when the page never finishes loading: report it and go on to the next page.

@@ -3,6 +3,7 @@ import {
   formatFileSize,
   formatNodataShare,
   formatPixelSize,
+  formatModelResolution,
   formatResolution,
 } from '../../../web/app/terrain/terrain-format';
 
@@ -23,6 +24,22 @@ describe('terrain-format', () => {
     expect(formatResolution(30.92)).toBe('30.9 m');
     expect(formatResolution(0.5)).toBe('0.50 m');
     expect(formatPixelSize({ widthPx: 10_000, heightPx: 800 })).toBe('10\u2009000 × 800 px');
+  });
+
+  it('writes a geographic grid in arc-seconds with its metres at the centre (issue 10: a 30″ grid read "744.5 m")', () => {
+    const model: Parameters<typeof formatModelResolution>[0] = {
+      resolutionM: 744.5,
+      pixelSize: { x: 30 / 3600, y: 30 / 3600, unit: 'degree' },
+      footprint: { type: 'Polygon', coordinates: [[[10, 44], [10, 46], [12, 46], [12, 44], [10, 44]]] },
+    };
+
+    // At 45°: 30″ of longitude ≈ 111 320 m × cos 45° / 120 ≈ 656 m; of latitude ≈ 926 m.
+    expect(formatModelResolution(model)).toBe('30″ (about 656 × 926 m at the centre)');
+  });
+
+  it('writes a projected grid in metres, and feet with metres beside them', () => {
+    expect(formatModelResolution({ resolutionM: 20, pixelSize: { x: 20, y: 20, unit: 'metre' }, footprint: null })).toBe('20 m');
+    expect(formatModelResolution({ resolutionM: 3.048, pixelSize: { x: 10, y: 10, unit: 'foot' }, footprint: null })).toBe('10 ft (3.0 m)');
   });
 
   it('writes the nodata share as a percentage', () => {

@@ -46,6 +46,8 @@ describe('TerrainUpload', () => {
 
     expect(text(fixture)).toContain('“Korvel valley” is ready.');
     expect(finished.map((model) => model.id)).toEqual([MODEL.id]);
+    // The same file is not offered for a second upload (issue 10); "Upload another" starts over.
+    expect(button(fixture, 'Upload').disabled).toBe(true);
   });
 
   it('shows the reason the server gives when it refuses a file', async () => {
@@ -73,6 +75,7 @@ const MODEL: TerrainModel = {
   widthPx: 800,
   heightPx: 600,
   resolutionM: 20,
+  pixelSize: { x: 20, y: 20, unit: 'metre' },
   nodata: -9999,
   dataType: 'Float32',
   pixelType: 'area',

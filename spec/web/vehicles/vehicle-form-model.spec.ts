@@ -2,6 +2,7 @@ import type { VehicleProfileDraftInput } from '@shared/domain/vehicle-profiles';
 import { vehicleProfileDraftSchema } from '@shared/domain/vehicle-profiles';
 import {
   VEHICLE_FIELDS,
+  toShownNumber,
   crossFieldMessages,
   fieldMessage,
   fieldUnit,
@@ -246,3 +247,11 @@ function aProfile(): VehicleProfileDraftInput {
     },
   };
 }
+
+describe('percentages shown (issue 10: an efficiency read "86.233 %")', () => {
+  it('shows an efficiency to the field’s step and still saves the exact value when left as shown', () => {
+    const field = VEHICLE_FIELDS.find((candidate) => candidate.key === 'drivetrainEfficiency')!;
+
+    expect(toShownNumber(field, 0.889 * 0.97, 'metric')).toBe(86.2);
+  });
+});

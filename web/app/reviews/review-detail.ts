@@ -22,6 +22,7 @@ import { TerrainMap, type MapOverlay, type MapPosition } from '../map/terrain-ma
 import { EngineeringCaution } from '../ui/engineering-caution';
 import { RiskChip } from '../ui/risk-chip';
 import { RISK_STYLES, riskRank } from '../ui/risk-level';
+import { ReachedTemperaturePipe } from '../units/reached-temperature-pipe';
 import { QuantityPipe } from '../units/quantity-pipe';
 import { toDisplay, unitLabel } from '../units/unit-format';
 import { UnitPreference } from '../units/unit-preference';
@@ -39,6 +40,7 @@ type LoadState = { status: 'loading' } | { status: 'error'; message: string } | 
 @Component({
   selector: 'app-review-detail',
   imports: [
+    ReachedTemperaturePipe,
     RouterLink,
     MatButtonModule,
     MatIconModule,

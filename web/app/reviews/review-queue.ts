@@ -14,12 +14,13 @@ import { MatTableDataSource, MatTableModule } from '@angular/material/table';
 import { ActivatedRoute, Router, RouterLink } from '@angular/router';
 import { map } from 'rxjs';
 import type { RiskLevel } from '@shared/domain/analysis';
-import { REVIEW_STATES, REVIEW_STATE_LABELS, type ReviewItem, type ReviewState } from '@shared/domain/reviews';
+import { REVIEW_STATES, REVIEW_STATE_LABELS, currentRisk, type ReviewItem, type ReviewState } from '@shared/domain/reviews';
 import { describeApiError } from '../core/api-error-message';
 import { Session } from '../core/session';
 import { EngineeringCaution } from '../ui/engineering-caution';
 import { RiskChip } from '../ui/risk-chip';
 import { RISK_LEVELS, RISK_STYLES, riskRank } from '../ui/risk-level';
+import { ReachedTemperaturePipe } from '../units/reached-temperature-pipe';
 import { QuantityPipe } from '../units/quantity-pipe';
 import { UnitPreference } from '../units/unit-preference';
 import {
@@ -45,6 +46,7 @@ type LoadState = { status: 'loading' } | { status: 'error'; message: string } | 
 @Component({
   selector: 'app-review-queue',
   imports: [
+    ReachedTemperaturePipe,
     DatePipe,
     RouterLink,
     ReactiveFormsModule,
@@ -146,6 +148,11 @@ export default class ReviewQueue {
     this.filterForm.controls.state.setValue(this.filterForm.controls.state.value === state ? '' : state);
   }
 
+  /** The risk that stands now: a mitigated item shows its re-run's risk (see currentRisk). */
+  protected current(item: ReviewItem): ReviewItem['risk'] {
+    return currentRisk(item);
+  }
+
   protected raisedLabel(item: ReviewItem): string {
     return `raised as ${RISK_STYLES[item.raisedRisk].label.toLowerCase()}`;
   }
@@ -166,7 +173,7 @@ export default class ReviewQueue {
 function sortValue(item: ReviewItem, column: string): string | number {
   switch (column) {
     case 'risk':
-      return riskRank(item.risk);
+      return riskRank(currentRisk(item));
     case 'route':
       return item.routeName.toLowerCase();
     case 'vehicle':

@@ -18,6 +18,7 @@ import {
   formatFileSize,
   formatNodataShare,
   formatPixelSize,
+  formatModelResolution,
   formatResolution,
 } from './terrain-format';
 import { TerrainUpload } from './terrain-upload';
@@ -49,7 +50,7 @@ export default class TerrainCatalogue {
 
   protected readonly columns = ['name', 'status', 'crs', 'resolution', 'size', 'elevation', 'uploaded'];
   protected readonly statusLabels = TERRAIN_STATUS_LABELS;
-  protected readonly format = { formatElevationRange, formatFileSize, formatNodataShare, formatPixelSize, formatResolution };
+  protected readonly format = { formatElevationRange, formatFileSize, formatNodataShare, formatPixelSize, formatResolution, formatModelResolution };
 
   protected readonly models = signal<TerrainModel[]>([]);
   protected readonly loadState = signal<LoadState>({ status: 'loading' });

@@ -26,7 +26,39 @@ export function formatElevationRange(model: Pick<TerrainModel, 'minElevationM' |
   return `${formatMetres(model.minElevationM)} – ${formatMetres(model.maxElevationM)} m`;
 }
 
-/** Resolution: "20 m", "30.9 m", "0.50 m". */
+/**
+ * A model's resolution in the grid's own unit and, where that is not metres, in metres at the
+ * model's centre: "20 m"; "30″ (about 655 × 927 m at the centre)" for a 30 arc-second grid at 45°;
+ * "10 ft (3.0 m)".
+ */
+export function formatModelResolution(model: Pick<TerrainModel, 'resolutionM' | 'pixelSize' | 'footprint'>): string {
+  const { x, y, unit } = model.pixelSize;
+  if (unit === 'metre') return formatResolution(model.resolutionM);
+  if (unit !== 'degree') {
+    const symbol = unit === 'foot' ? 'ft' : 'US ft';
+    return `${formatNumberShort(x)}${x === y ? '' : ` × ${formatNumberShort(y)}`} ${symbol} (${formatResolution(model.resolutionM)})`;
+  }
+  const angle = (degrees: number) => (degrees < 1 / 60 ? `${formatNumberShort(degrees * 3600)}″` : degrees < 1 ? `${formatNumberShort(degrees * 60)}′` : `${formatNumberShort(degrees)}°`);
+  const native = Math.abs(x - y) < 1e-12 ? angle(x) : `${angle(x)} × ${angle(y)}`;
+  const latitudes = model.footprint?.coordinates[0]?.map(([, lat]) => lat) ?? [];
+  if (latitudes.length === 0) return `${native} (about ${formatResolution(model.resolutionM)})`;
+  const centreLatRad = (((Math.min(...latitudes) + Math.max(...latitudes)) / 2) * Math.PI) / 180;
+  // Metres per degree on the WGS 84 ellipsoid near the centre latitude (common practice: 111 320 m
+  // per degree of longitude at the equator times cos φ; 110 574–111 694 m per degree of latitude).
+  const eastM = x * 111_320 * Math.cos(centreLatRad);
+  const northM = y * (111_132.954 - 559.822 * Math.cos(2 * centreLatRad));
+  return `${native} (about ${formatMetresShort(eastM)} × ${formatMetresShort(northM)} m at the centre)`;
+}
+
+function formatNumberShort(value: number): string {
+  return Number.isInteger(Math.round(value * 1000) / 1000) ? String(Math.round(value)) : String(Number(value.toPrecision(3)));
+}
+
+function formatMetresShort(metres: number): string {
+  return metres >= 10 ? groupThousands(Math.round(metres)) : metres.toFixed(1);
+}
+
+/** Resolution in metres: "20 m", "30.9 m", "0.50 m". */
 export function formatResolution(resolutionM: number): string {
   if (resolutionM >= 10) return `${Math.abs(resolutionM - Math.round(resolutionM)) < 0.05 ? Math.round(resolutionM) : resolutionM.toFixed(1)} m`;
   return `${resolutionM.toPrecision(2)} m`;

@@ -50,6 +50,8 @@ export class TerrainUpload {
     return state.status === 'uploading' && state.totalBytes > 0 ? Math.round((100 * state.sentBytes) / state.totalBytes) : 0;
   });
   protected readonly isBusy = computed(() => ['uploading', 'processing'].includes(this.state().status));
+  /** A chosen file not yet sent: after a model is in, the same file is not offered twice ("Upload another" starts over). */
+  protected readonly canUpload = computed(() => this.file() !== null && !this.isBusy() && this.state().status !== 'done');
   protected readonly formatFileSize = formatFileSize;
 
   private upload: Subscription | null = null;
@@ -84,7 +86,7 @@ export class TerrainUpload {
 
   protected startUpload(): void {
     const file = this.file();
-    if (!file || this.name.invalid || this.isBusy()) {
+    if (!file || this.name.invalid || !this.canUpload()) {
       this.name.markAsTouched();
       return;
     }

@@ -116,7 +116,8 @@ export function fieldUnit(field: VehicleField, system: UnitSystem): string {
 
 /**
  * The displayed number for an SI value, rounded to what a person would type: metric values are
- * the stored ones; converted imperial values keep two decimals (three below 10). A value left as
+ * the stored ones (percentages to their field's step); converted imperial values keep two
+ * decimals (three below 10). A value left as
  * shown still saves its exact SI value (see toSiNumbers).
  */
 export function toShownNumber(field: VehicleField, si: number, system: UnitSystem): number {
@@ -124,7 +125,13 @@ export function toShownNumber(field: VehicleField, si: number, system: UnitSyste
     const shown = toDisplay(field.quantity, si, system);
     return roundTo(shown, Math.abs(shown) < 10 ? 3 : 2);
   }
-  return roundTo(si / field.factor, 6);
+  // Percentages read to the field's step (an efficiency of 0.86233 shows 86.2 %, not 86.233 %);
+  // other metric values are the stored ones.
+  return roundTo(si / field.factor, field.unit === '%' ? stepDecimals(field.step) : 6);
+}
+
+function stepDecimals(step: number): number {
+  return Math.max(0, Math.ceil(-Math.log10(step) - 1e-9));
 }
 
 /** The SI value of a displayed number. */

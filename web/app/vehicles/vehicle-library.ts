@@ -46,7 +46,11 @@ type LoadState = { status: 'loading' } | { status: 'error'; message: string } | 
                   <dl>
                     <dt>Curb mass</dt><dd>{{ profile.vehicle.curbMassKg | quantity: 'mass' : units() }}</dd>
                     <dt>Traction / regen</dt><dd>{{ profile.vehicle.tractionPowerW | quantity: 'power' : units() }} / {{ profile.vehicle.regenPowerW | quantity: 'power' : units() }}</dd>
-                    <dt>Battery</dt><dd>{{ profile.vehicle.batteryCapacityWh | quantity: 'energy' : units() }}</dd>
+                    @if (profile.vehicle.batteryCapacityWh > 0) {
+                      <dt>Battery</dt><dd>{{ profile.vehicle.batteryCapacityWh | quantity: 'energy' : units() }}</dd>
+                    } @else {
+                      <dt>Power</dt><dd>{{ profile.vehicle.powerSource === 'overhead-line' ? 'Overhead line, no traction battery' : 'No traction battery' }}</dd>
+                    }
                     <dt>Retarder</dt><dd>{{ profile.vehicle.retarderPowerW ? (profile.vehicle.retarderPowerW | quantity: 'power' : units()) : 'none' }}</dd>
                   </dl>
                 </mat-card-content>
@@ -66,7 +70,7 @@ type LoadState = { status: 'loading' } | { status: 'error'; message: string } | 
   styles: `
     h2 { font: var(--mat-sys-title-large); margin: 24px 0 12px; }
     .hint { color: var(--mat-sys-on-surface-variant); }
-    .cards { display: grid; grid-template-columns: repeat(auto-fill, minmax(280px, 1fr)); gap: 16px; }
+    .cards { display: grid; grid-template-columns: repeat(auto-fill, minmax(min(280px, 100%), 1fr)); gap: 16px; }
     .avatar { display: grid; place-items: center; background: var(--mat-sys-primary-container); color: var(--mat-sys-on-primary-container); border-radius: 50%; }
     dl { display: grid; grid-template-columns: auto 1fr; gap: 4px 12px; margin: 8px 0 0; font: var(--mat-sys-body-medium); }
     dt { color: var(--mat-sys-on-surface-variant); }
