@@ -12,6 +12,29 @@ import { PageWatch } from './support/page-watch';
 describe('route editor: snap to roads (on by default)', () => {
   const browser = signedInBrowser('planner', { width: 1366, height: 900 });
 
+  it('asks for each terrain tile once, with the catalogue version in its address (issue 10: a dozen were fetched twice)', async () => {
+    const { page } = browser;
+    const tiles: string[] = [];
+    const collect = (request: { url(): string }) => {
+      if (request.url().includes('/api/tiles/terrain/')) tiles.push(new URL(request.url()).pathname + new URL(request.url()).search);
+    };
+    page.on('request', collect);
+    try {
+      await page.goto(`${BASE_URL}/routes/new`);
+      await page.locator('.leaflet-tile-loaded').first().waitFor();
+      await page.waitForLoadState('networkidle');
+    } finally {
+      page.off('request', collect);
+    }
+
+    assert.ok(tiles.length > 0);
+    const versions = new Set(tiles.map((tile) => new URL(tile, BASE_URL).searchParams.get('v')));
+    assert.deepEqual([...versions].length, 1, `one version for every tile: ${[...versions].join(', ')}`);
+    assert.ok(!versions.has(null), 'every tile address carries the catalogue version');
+    const paths = tiles.map((tile) => tile.split('?')[0]);
+    assert.equal(new Set(paths).size, paths.length, 'no tile is asked for twice');
+  });
+
   it('draws along the roads of the network when the planner clicks near them', async () => {
     const { page } = browser;
     const watch = new PageWatch(page);
@@ -42,6 +65,35 @@ describe('route editor: snap to roads (on by default)', () => {
     } finally {
       watch.stop();
     }
+  });
+
+  it('keeps the map where it is when the speed-limit tool is chosen (issue 10: it moved 64 px)', async () => {
+    const { page } = browser;
+    const before = (await page.getByTestId('route-map').boundingBox())!;
+
+    await page.getByRole('radio', { name: /Speed limit/ }).click();
+    await page.getByLabel(/New stretch/).waitFor();
+    const after = (await page.getByTestId('route-map').boundingBox())!;
+
+    assert.equal(after.y, before.y);
+    assert.equal(after.height, before.height);
+  });
+
+  it('names new stops by where they are, so the names read in order whatever order they are placed in', async () => {
+    const { page } = browser;
+    const vertices = await vertexTable(page);
+    await page.getByRole('radio', { name: /Stop/ }).click();
+
+    await clickAt(page, vertices.at(-2)!);
+    await page.getByTestId('stops-table').getByRole('textbox', { name: 'Name of stop 1' }).waitFor();
+    await clickAt(page, vertices[1]!);
+    await page.getByTestId('stops-table').getByRole('textbox', { name: 'Name of stop 2' }).waitFor();
+
+    const names = await page.getByTestId('stops-table').getByRole('textbox', { name: /^Name of stop/ }).evaluateAll((inputs) => inputs.map((input) => (input as HTMLInputElement).value));
+    const kilometres = names.map((name) => Number(/^Stop at ([\d.]+) km$/.exec(name)?.[1]));
+    assert.equal(names.length, 2, names.join(', '));
+    assert.ok(kilometres.every(Number.isFinite), names.join(', '));
+    assert.ok(kilometres[0]! < kilometres[1]!, `in order along the route: ${names.join(', ')}`);
   });
 });
 

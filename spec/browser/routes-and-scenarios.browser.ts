@@ -107,6 +107,9 @@ describe('routes and scenarios', () => {
     const box = (await chart.boundingBox())!;
     await page.mouse.move(box.x + box.width / 2, box.y + box.height / 2);
     await page.locator('.leaflet-interactive').first().waitFor();
+    // The map's start and end pins have their legend (issue 10).
+    await page.getByTestId('legend-start').getByText('Start').waitFor();
+    await page.getByTestId('legend-end').getByText('End').waitFor();
     await screenshot(page, 'scenario-results');
   });
 

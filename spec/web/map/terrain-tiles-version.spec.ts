@@ -26,6 +26,18 @@ describe('TerrainTilesVersion', () => {
     expect(version.version()).toBe('v7');
   });
 
+  it('is settled only once the first answer is in, so maps never fetch unversioned tiles first (issue 10)', async () => {
+    version.ensureLoaded();
+    expect(version.settled()).toBe(false);
+
+    http.expectOne('/api/terrain').flush({ items: [], tilesVersion: 'v7' });
+    await Promise.resolve();
+    await Promise.resolve();
+    await Promise.resolve();
+
+    expect(version.settled()).toBe(true);
+  });
+
   it('takes a newer version reported by the terrain screen without asking again', () => {
     version.report('v8');
     version.ensureLoaded();

@@ -109,10 +109,16 @@ export class TerrainMap {
   constructor() {
     this.tilesVersion.ensureLoaded();
     afterNextRender(() => this.createMap());
-    // New or removed terrain models change the version: the tiles are fetched again.
+    // Tiles are asked for once the catalogue version is known, with it in their URL; new or
+    // removed terrain models change the version and the tiles are fetched again.
     effect(() => {
+      const map = this.map();
+      if (!map || !this.tilesVersion.settled()) return;
       const url = terrainTileUrl(this.tilesVersion.version());
-      untracked(() => this.tileLayer.setUrl(url));
+      untracked(() => {
+        this.tileLayer.setUrl(url, map.hasLayer(this.tileLayer));
+        if (!map.hasLayer(this.tileLayer)) this.tileLayer.addTo(map);
+      });
     });
     inject(DestroyRef).onDestroy(() => this.map()?.remove());
 
@@ -171,7 +177,6 @@ export class TerrainMap {
   private createMap(): void {
     const element = this.host.nativeElement;
     const map = L.map(element, { center: FALLBACK_VIEW.center, zoom: FALLBACK_VIEW.zoom, zoomControl: true });
-    this.tileLayer.addTo(map);
     L.control.scale({ imperial: true, metric: true }).addTo(map);
     map.on('click', (event: L.LeafletMouseEvent) => this.mapClicked.emit(fromLatLng(event.latlng)));
     // The element may be sized by a grid that settles after the first frame.

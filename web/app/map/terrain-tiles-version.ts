@@ -12,8 +12,14 @@ import { terrainListSchema } from '@shared/domain/terrain';
 export class TerrainTilesVersion {
   private readonly http = inject(HttpClient);
   private readonly _version = signal<string | null>(null);
+  private readonly _settled = signal(false);
   /** Current catalogue version; null until known. */
   readonly version = this._version.asReadonly();
+  /**
+   * Whether the first answer is in (with a version, or none when the request failed). Maps ask for
+   * tiles only from then on, so they never fetch a first batch unversioned and then all again.
+   */
+  readonly settled = this._settled.asReadonly();
   private loading: Promise<void> | null = null;
 
   /** Asks the server for the version unless it is already known or being asked for. */
@@ -23,12 +29,16 @@ export class TerrainTilesVersion {
       .then((body) => this._version.set(terrainListSchema.parse(body).tilesVersion))
       // Without a version the map keeps unversioned tile URLs, which still revalidate; nothing to report.
       .catch(() => undefined)
-      .finally(() => (this.loading = null));
+      .finally(() => {
+        this.loading = null;
+        this._settled.set(true);
+      });
   }
 
   /** Records the version a fresher catalogue answer carried. */
   report(version: string): void {
     this._version.set(version);
+    this._settled.set(true);
   }
 }
 

@@ -31,7 +31,7 @@ import { Session } from '../core/session';
 import { DistanceChart, type ChartSeries } from '../charts/distance-chart';
 import { TerrainMap, type MapOverlay, type MapOverlayEvent, type MapPosition } from '../map/terrain-map';
 import { QuantityPipe } from '../units/quantity-pipe';
-import { fromDisplay, toDisplay, unitLabel } from '../units/unit-format';
+import { formatQuantity, fromDisplay, toDisplay, unitLabel } from '../units/unit-format';
 import { UnitPreference } from '../units/unit-preference';
 import { UnitSwitch } from '../units/unit-switch';
 import { RoadRoutesApi, type RoadNetwork, type RouteProfile, type RouteVersionInfo } from './road-routes-api';
@@ -236,8 +236,9 @@ export default class RouteEditor {
         id: `limit:${index}`,
         positions: sliceLine(vertices, stretch.fromM, stretch.toM).map(lonLatOf),
         color: LIMIT_COLOR,
-        weight: 11,
-        opacity: 0.55,
+        // Wider than the route line and nearly opaque: a saved stretch shows as a band either side of it.
+        weight: 15,
+        opacity: 0.9,
         label: `Speed limit ${formatSpeed(stretch.speedKph, system)}`,
       });
     });
@@ -358,7 +359,10 @@ export default class RouteEditor {
   private placeOnLine(at: MapPosition): void {
     const vertices = this.draft().vertices;
     if (this.tool() === 'stop') {
-      const name = `Stop ${this.draft().stops.length + 1}`;
+      // Named by where it is, so names read in order along the route whatever order they are placed in.
+      const placed = projectOnLine(vertices, at);
+      if (!placed) return;
+      const name = `Stop at ${formatQuantity('distance', placed.atM, this.units())}`;
       this.edit((state) => addStopNear(state, at, name));
       return;
     }

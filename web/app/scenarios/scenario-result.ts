@@ -52,6 +52,10 @@ type ResultState =
 const POLL_INTERVAL_MS = 1_500;
 
 /** One scenario's results: figures, linked charts along the route, the map and the descents. */
+/** Pins at the two ends of the direction shown, and their legend. */
+const START_COLOUR = '#3f7f4f';
+const END_COLOUR = '#1a1c1e';
+
 /** The figures shown as cards, in the catalogue's order; length, ascent and descent sit under them. */
 const CARD_FIGURES: readonly string[] = [
   'tractionEnergyWh',
@@ -98,6 +102,8 @@ export default class ScenarioResultScreen {
   protected readonly statusLabels = STATUS_LABELS;
   protected readonly riskStyles = RISK_STYLES;
   protected readonly riskOrder = RISK_ORDER;
+  protected readonly startColour = START_COLOUR;
+  protected readonly endColour = END_COLOUR;
   protected readonly gradeLegend = GRADE_LEGEND;
 
   protected readonly scenario = signal<Scenario | null>(null);
@@ -187,8 +193,8 @@ export default class ScenarioResultScreen {
       });
     });
     if (positions.length > 0) {
-      overlays.push({ kind: 'pin', id: 'start', at: positions[0]!, color: '#3f7f4f', label: 'Start' });
-      overlays.push({ kind: 'pin', id: 'end', at: positions.at(-1)!, color: '#1a1c1e', label: 'End' });
+      overlays.push({ kind: 'pin', id: 'start', at: positions[0]!, color: START_COLOUR, label: 'Start' });
+      overlays.push({ kind: 'pin', id: 'end', at: positions.at(-1)!, color: END_COLOUR, label: 'End' });
     }
     return overlays;
   });
