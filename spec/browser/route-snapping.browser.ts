@@ -45,6 +45,8 @@ describe('route editor: snap to roads (on by default)', () => {
       await page.locator('.leaflet-tile-loaded').first().waitFor();
       const snap = page.getByRole('switch', { name: 'Snap to roads' });
       await page.waitForFunction(() => document.querySelector('[role="switch"][aria-checked="true"]') !== null);
+      // The view fits the road network once it has loaded; click only when the map stands still.
+      await page.waitForLoadState('networkidle');
       assert.equal(await snap.getAttribute('aria-checked'), 'true', 'snapping is on by default');
 
       // Two bends of the longest road, a few bends apart: a planner clicks on the road itself.
@@ -113,14 +115,23 @@ async function roadNetwork(page: Page): Promise<LonLat[][]> {
  * is needed: Web Mercator tile arithmetic (common practice, the XYZ tile scheme).
  */
 async function clickAt(page: Page, [lon, lat]: LonLat): Promise<void> {
-  const tile = page.locator('.leaflet-tile-loaded[src*="/api/tiles/terrain/"]').first();
-  const [, z, x, y] = /\/api\/tiles\/terrain\/(\d+)\/(\d+)\/(\d+)\.png/.exec((await tile.getAttribute('src')) ?? '')!.map(Number) as number[];
-  const box = (await tile.boundingBox())!;
+  // A loaded tile of the level on show: Leaflet keeps older levels in containers of lower z-index.
+  const tile = await page.evaluate(() => {
+    const containers = [...document.querySelectorAll<HTMLElement>('[data-testid="route-map"] .leaflet-tile-container')]
+      .filter((container) => container.querySelector('img.leaflet-tile-loaded[src*="/api/tiles/terrain/"]'))
+      .sort((a, b) => Number(b.style.zIndex || 0) - Number(a.style.zIndex || 0));
+    const img = containers[0]?.querySelector<HTMLImageElement>('img.leaflet-tile-loaded[src*="/api/tiles/terrain/"]');
+    if (!img) return null;
+    const rect = img.getBoundingClientRect();
+    return { src: img.getAttribute('src') ?? '', x: rect.x, y: rect.y, width: rect.width, height: rect.height };
+  });
+  if (!tile) throw new Error('No terrain tile on show to place the click by');
+  const [, z, x, y] = /\/api\/tiles\/terrain\/(\d+)\/(\d+)\/(\d+)\.png/.exec(tile.src)!.map(Number) as number[];
   const scale = 2 ** z!;
   const worldX = ((lon + 180) / 360) * scale;
   const sinLat = Math.sin((lat * Math.PI) / 180);
   const worldY = (0.5 - Math.log((1 + sinLat) / (1 - sinLat)) / (4 * Math.PI)) * scale;
-  await page.mouse.click(box.x + (worldX - x!) * box.width, box.y + (worldY - y!) * box.height);
+  await page.mouse.click(tile.x + (worldX - x!) * tile.width, tile.y + (worldY - y!) * tile.height);
 }
 
 /** The vertices as the vertex table shows them. */

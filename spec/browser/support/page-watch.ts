@@ -59,7 +59,7 @@ export class PageWatch {
    * Resolves once no request has been in flight for `quietMs` (playwright's "networkidle" waits
    * 500 ms and only after a full page load; this also covers in-app navigation).
    */
-  async idle(quietMs = 250, timeoutMs = 15_000): Promise<void> {
+  async idle(quietMs = 150, timeoutMs = 15_000): Promise<void> {
     const deadline = Date.now() + timeoutMs;
     while (Date.now() < deadline) {
       if (this.inFlight === 0 && Date.now() - this.lastActivity >= quietMs) return;

@@ -19,7 +19,7 @@ import {
 } from 'chart.js';
 import type { RouteYear } from '@shared/domain/board-summary';
 import { BaseChartDirective, provideCharts } from 'ng2-charts';
-import { formatBoardEnergy } from './board-format';
+import { formatBoardEnergy, formatBoardNumber } from './board-format';
 
 /** Only the chart.js parts a grouped horizontal bar chart needs. */
 const BAR_CHART_PARTS: ChartComponentLike[] = [BarController, BarElement, CategoryScale, LinearScale, Tooltip, Legend];
@@ -70,7 +70,8 @@ export class RouteEnergyChart {
         .join('; '),
   );
   protected readonly data = computed<ChartConfiguration<'bar'>['data']>(() => ({
-    labels: this.routes().map((route) => route.routeName),
+    // Long route names wrap onto short lines so a narrow screen shows them whole.
+    labels: this.routes().map((route) => wrapLabel(route.routeName, 22)),
     datasets: [
       {
         label: 'Recovered by regeneration (kWh a year)',
@@ -96,7 +97,11 @@ export class RouteEnergyChart {
       tooltip: { callbacks: { label: (item) => `${item.dataset.label ?? ''}: ${formatBoardEnergy(item.parsed.x)}` } },
     },
     scales: {
-      x: { beginAtZero: true, title: { display: true, text: 'kWh per year' }, ticks: { callback: (value) => Number(value).toLocaleString('en-GB') } },
+      x: {
+        beginAtZero: true,
+        title: { display: true, text: 'kWh per year' },
+        ticks: { maxTicksLimit: 4, callback: (value) => formatBoardNumber(Number(value)) },
+      },
       y: { ticks: { autoSkip: false } },
     },
   };
@@ -111,4 +116,15 @@ export class RouteEnergyChart {
       window.removeEventListener('afterprint', resize);
     });
   }
+}
+
+/** Splits a label into lines of at most `width` characters at spaces (a word longer stays whole). */
+export function wrapLabel(label: string, width: number): string[] {
+  const lines: string[] = [];
+  for (const word of label.split(' ')) {
+    const last = lines.at(-1);
+    if (last !== undefined && last.length + 1 + word.length <= width) lines[lines.length - 1] = `${last} ${word}`;
+    else lines.push(word);
+  }
+  return lines;
 }
