@@ -35,6 +35,11 @@ export const terrainModelSchema = z.object({
   heightPx: z.number().int(),
   /** Ground size of one pixel, metres (geographic grids: at the model's centre latitude). */
   resolutionM: z.number(),
+  /**
+   * Size of one pixel in the grid's own unit, as the file states it: degrees for a geographic
+   * grid (a 30″ grid is 0.008333°), metres or feet for a projected one.
+   */
+  pixelSize: z.object({ x: z.number(), y: z.number(), unit: z.enum(['degree', 'metre', 'foot', 'US survey foot']) }),
   /** Value that marks "no data" in the file, or null when none is declared. */
   nodata: z.number().nullable(),
   dataType: terrainDataTypeSchema,
