@@ -150,7 +150,14 @@ async function check(page: Page, watch: PageWatch, path: string, width: number):
     // Chromium logs every 4xx as "Failed to load resource"; an expected answer is not an error.
     .filter((problem) => !(problem.kind === 'console error' && /^Failed to load resource/.test(problem.detail) && expected.some((answer) => problem.detail.includes(answer.split(' ')[1]!))))
     .map((problem) => `${where}: ${problem.kind}: ${problem.detail}`);
-  const overflow = (await findOverflowingText(page)).map((problem) => `${where}: text "${problem.text}" in ${problem.where}: ${problem.how}`);
+  let overflowing = await findOverflowingText(page);
+  if (overflowing.length > 0) {
+    // A layout can still be settling a frame after a resize or a navigation (fonts, a chart
+    // redrawing): look again once after a moment; what still does not fit then is a defect.
+    await page.waitForTimeout(600);
+    overflowing = await findOverflowingText(page);
+  }
+  const overflow = overflowing.map((problem) => `${where}: text "${problem.text}" in ${problem.where}: ${problem.how}`);
   return [...seen, ...overflow];
 }
 
