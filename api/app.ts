@@ -7,6 +7,7 @@ import { authenticate } from './auth/authenticate';
 import { requireSameOrigin } from './auth/same-origin';
 import { allEndpoints } from './endpoints';
 import { mountEndpoint } from './http/endpoint';
+import { HeavyRequestLimiter } from './http/heavy-requests';
 import { apiNotFound, errorHandler } from './http/error-handler';
 import { buildOpenApiDocument } from './openapi/openapi-document';
 import { withDefaultServices } from './app-services';
@@ -36,7 +37,8 @@ export function createApp(givenDeps: AppDeps): Express {
   api.get('/api/openapi.json', (_req, res) => {
     res.json(openApiDocument);
   });
-  for (const definition of endpoints) mountEndpoint(api, definition);
+  const heavyRequests = new HeavyRequestLimiter(deps.config.HEAVY_REQUESTS_PER_PERSON);
+  for (const definition of endpoints) mountEndpoint(api, definition, { heavyRequests });
   api.use('/api', apiNotFound);
   app.use(api);
 

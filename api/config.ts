@@ -39,6 +39,14 @@ const configSchema = z.object({
   TERRAIN_DECODE_THREADS: z.coerce.number().int().min(1).max(16).default(2),
   /** Run the background workers (mail outbox, jobs) in this process. */
   RUN_WORKERS: z.stringbool().default(true),
+  /** Worker threads that run route analyses off the event loop. */
+  ANALYSIS_THREADS: z.coerce.number().int().min(1).max(32).default(2),
+  /** Analyses that may wait for a thread; past it the API answers 503 with Retry-After. */
+  ANALYSIS_MAX_QUEUE: z.coerce.number().int().min(1).max(10_000).default(32),
+  /** Heap of one analysis thread, MiB; an analysis that needs more ends its thread, not the API. */
+  ANALYSIS_WORKER_HEAP_MB: z.coerce.number().int().min(64).max(16_384).default(512),
+  /** Analyses, imports and reports one person may have running at once; more get 429. */
+  HEAVY_REQUESTS_PER_PERSON: z.coerce.number().int().min(1).max(100).default(2),
 });
 
 export type Config = z.infer<typeof configSchema>;

@@ -4,6 +4,7 @@ import { createDatabase } from './db/client';
 import { migrateDatabase } from './db/migrate';
 import { createApp } from './app';
 import { withDefaultServices } from './app-services';
+import { closeAnalysisPool } from './analysis/analysis-pool';
 import { startBatchRunWorkers } from './batch-runs/batch-runs-service';
 import { createSmtpTransport, startMailWorker } from './mail/mail-worker';
 import { startSmtpFake } from './mail/smtp-fake';
@@ -29,6 +30,7 @@ if (config.RUN_WORKERS) {
   stoppers.push(worker.stop);
 }
 stoppers.push(await startTerrain(deps));
+stoppers.push(() => closeAnalysisPool(deps));
 await startBatchRunWorkers(deps);
 
 const server = createServer(createApp(deps));

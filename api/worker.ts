@@ -9,6 +9,7 @@
  * Each job is handed to one process at a time; the mail outbox is shared with SKIP LOCKED.
  */
 import { withDefaultServices } from './app-services';
+import { closeAnalysisPool } from './analysis/analysis-pool';
 import { startBatchRunWorkers } from './batch-runs/batch-runs-service';
 import { loadConfig } from './config';
 import { createDatabase } from './db/client';
@@ -31,6 +32,7 @@ async function shutdown(signal: string) {
   console.log(`[worker] ${signal}: shutting down`);
   await mail.stop();
   await stopTerrain();
+  await closeAnalysisPool(deps);
   await close();
   process.exit(0);
 }

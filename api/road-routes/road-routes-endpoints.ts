@@ -84,6 +84,7 @@ export function roadRouteEndpoints(deps: AppDeps) {
       summary: 'Import one route from a GeoJSON (.geojson/.json) or GPX 1.1 (.gpx) file',
       tag: TAG,
       access: PLANNERS,
+      heavy: true,
       multipartBody: routeImportMultipartSchema,
       middleware: [singleFileUpload()],
       responses: {
@@ -103,6 +104,7 @@ export function roadRouteEndpoints(deps: AppDeps) {
       summary: 'Import a GTFS feed (zip): one route per GTFS route, with stops, dwell and trips per day',
       tag: TAG,
       access: PLANNERS,
+      heavy: true,
       multipartBody: gtfsImportMultipartSchema,
       middleware: [singleFileUpload()],
       responses: {
@@ -204,6 +206,7 @@ export function roadRouteEndpoints(deps: AppDeps) {
       summary: 'Replace the reference road network (GeoJSON FeatureCollection of LineString/MultiLineString roads, as JSON or multipart file)',
       tag: TAG,
       access: ANALYSTS,
+      heavy: true,
       multipartBody: roadNetworkMultipartSchema,
       middleware: [singleFileUpload()],
       responses: {

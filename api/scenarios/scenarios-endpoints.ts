@@ -40,6 +40,7 @@ export function scenarioEndpoints(deps: AppDeps) {
       summary: 'Save a scenario and compute it (a run that fails, e.g. for missing terrain, is saved with status "failed" and the reason)',
       tag: TAG,
       access: EDITORS,
+      heavy: true,
       body: scenarioDraftSchema,
       responses: {
         201: { description: 'Saved and computed', schema: scenarioSchema },
@@ -80,6 +81,7 @@ export function scenarioEndpoints(deps: AppDeps) {
       summary: 'Change a scenario and recompute it',
       tag: TAG,
       access: EDITORS,
+      heavy: true,
       params: scenarioIdParamsSchema,
       body: scenarioDraftSchema,
       responses: { 200: { description: 'Saved and computed', schema: scenarioSchema } },
@@ -106,6 +108,7 @@ export function scenarioEndpoints(deps: AppDeps) {
       summary: 'Re-run now (an unpinned scenario moves to the route’s latest version); clears staleness',
       tag: TAG,
       access: EDITORS,
+      heavy: true,
       params: scenarioIdParamsSchema,
       responses: { 200: { description: 'The scenario after the run (status done or failed)', schema: scenarioSchema } },
       handler: async ({ params, res }) => {
@@ -161,6 +164,7 @@ export function scenarioEndpoints(deps: AppDeps) {
       summary: 'PDF report: inputs, summary, descents with risk and advice, caution, elevation and brake-temperature chart',
       tag: TAG,
       access: 'signed-in',
+      heavy: true,
       params: scenarioIdParamsSchema,
       responses: { 200: { description: 'PDF (attachment)', contentType: 'application/pdf' } },
       handler: async ({ params, res }) => {

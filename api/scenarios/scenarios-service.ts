@@ -1,9 +1,9 @@
 import type { User } from '@shared/domain/auth';
 import type { RiskLevel } from '@shared/domain/analysis';
 import type { Scenario, ScenarioDraft, ScenarioResult } from '@shared/domain/scenarios';
-import type { ElevationSampler } from '@shared/engine/analyse-route';
 import { ENGINEERING_CAUTION } from '@shared/engine/constants';
 import type { AppDeps } from '../app-deps';
+import { analyserOf } from '../app-services';
 import type { Database } from '../db/client';
 import { BadRequestError, HttpError, NotFoundError } from '../http/http-error';
 import { syncReviewItems } from '../reviews/review-sync';
@@ -28,7 +28,8 @@ async function resolveReferences(db: Database, draft: ScenarioDraft) {
 }
 
 /** Computes and stores the result of a saved scenario (synchronous: a 50 km route takes milliseconds). */
-async function computeAndStore(db: Database, scenarioId: string, sampleElevations?: ElevationSampler): Promise<void> {
+async function computeAndStore(deps: AppDeps, scenarioId: string): Promise<void> {
+  const { db } = deps;
   const row = await repository.findScenarioRow(db, scenarioId);
   if (!row) throw new NotFoundError('The scenario');
   const routeVersion = await routes.findVersion(db, row.routeId, row.routeVersion);
@@ -44,8 +45,13 @@ async function computeAndStore(db: Database, scenarioId: string, sampleElevation
   };
   let outcome;
   try {
-    outcome = await runScenario(routeVersion, profile, row, sampleElevations);
+    outcome = await runScenario(routeVersion, profile, row, analyserOf(deps));
   } catch (error) {
+    // Busy analysis threads: the run did not happen; say so and keep the last good result.
+    if (error instanceof HttpError && error.status === 503) {
+      await repository.updateScenario(db, scenarioId, { status: 'failed', failureReason: error.message });
+      return;
+    }
     // Anything else is a fault on our side: record it so the scenario does not stay "running".
     console.error(`[scenarios] run of ${scenarioId} failed:`, error);
     await repository.updateScenario(db, scenarioId, {
@@ -90,7 +96,7 @@ export async function getScenario(db: Database, id: string): Promise<Scenario> {
 }
 
 export async function createScenario(
-  deps: Pick<AppDeps, 'db' | 'sampleElevations'>,
+  deps: AppDeps,
   author: { id: string | null; name: string },
   draft: ScenarioDraft,
   seedKey?: string,
@@ -102,7 +108,7 @@ export async function createScenario(
     createdByName: author.name,
     seedKey: seedKey ?? null,
   });
-  await computeAndStore(deps.db, row.id, deps.sampleElevations);
+  await computeAndStore(deps, row.id);
   return getScenario(deps.db, row.id);
 }
 
@@ -125,11 +131,11 @@ async function draftColumns(db: Database, draft: ScenarioDraft) {
 }
 
 /** Saves changed settings and recomputes. */
-export async function updateScenario(deps: Pick<AppDeps, 'db' | 'sampleElevations'>, id: string, draft: ScenarioDraft): Promise<Scenario> {
+export async function updateScenario(deps: AppDeps, id: string, draft: ScenarioDraft): Promise<Scenario> {
   const existing = await repository.findScenarioWithContext(deps.db, id);
   if (!existing) throw new NotFoundError('The scenario');
   await repository.updateScenario(deps.db, id, await draftColumns(deps.db, draft));
-  await computeAndStore(deps.db, id, deps.sampleElevations);
+  await computeAndStore(deps, id);
   return getScenario(deps.db, id);
 }
 
@@ -137,13 +143,13 @@ export async function updateScenario(deps: Pick<AppDeps, 'db' | 'sampleElevation
  * Re-runs on demand: an unpinned scenario moves to the route's latest version first; the
  * profile and engine are always the current ones. This clears staleness.
  */
-export async function rerunScenario(deps: Pick<AppDeps, 'db' | 'sampleElevations'>, id: string): Promise<Scenario> {
+export async function rerunScenario(deps: AppDeps, id: string): Promise<Scenario> {
   const existing = await repository.findScenarioWithContext(deps.db, id);
   if (!existing) throw new NotFoundError('The scenario');
   if (!existing.scenario.routeVersionPinned && existing.scenario.routeVersion !== existing.latestRouteVersion) {
     await repository.updateScenario(deps.db, id, { routeVersion: existing.latestRouteVersion });
   }
-  await computeAndStore(deps.db, id, deps.sampleElevations);
+  await computeAndStore(deps, id);
   return getScenario(deps.db, id);
 }
 

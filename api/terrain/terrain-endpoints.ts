@@ -38,6 +38,7 @@ export function terrainEndpoints(deps: AppDeps) {
       summary: 'Upload a GeoTIFF elevation model; ingestion continues in the background',
       tag: TAG,
       access: ['analyst', 'admin'],
+      heavy: true,
       multipartBody: terrainUploadMultipartSchema,
       middleware: [terrainUpload(deps)],
       responses: {
@@ -81,6 +82,7 @@ export function terrainEndpoints(deps: AppDeps) {
       summary: 'Elevations at WGS 84 points from the ready terrain models',
       tag: TAG,
       access: 'signed-in',
+      heavy: true,
       body: elevationSampleRequestSchema,
       responses: {
         200: { description: 'One elevation (m) or null per point, in order', schema: elevationSampleResponseSchema },
