@@ -86,7 +86,7 @@ export function roadRouteEndpoints(deps: AppDeps) {
       access: PLANNERS,
       heavy: true,
       multipartBody: routeImportMultipartSchema,
-      middleware: [singleFileUpload()],
+      middleware: singleFileUpload(),
       responses: {
         201: { description: 'Created', schema: roadRouteSchema },
         400: { description: 'The file cannot be read; the message names the file, line and field. Nothing is created.' },
@@ -106,7 +106,7 @@ export function roadRouteEndpoints(deps: AppDeps) {
       access: PLANNERS,
       heavy: true,
       multipartBody: gtfsImportMultipartSchema,
-      middleware: [singleFileUpload()],
+      middleware: singleFileUpload(),
       responses: {
         201: { description: 'Created routes', schema: roadRouteImportListSchema },
         400: { description: 'The feed cannot be read; the message names the file and line. Nothing is created.' },
@@ -208,7 +208,7 @@ export function roadRouteEndpoints(deps: AppDeps) {
       access: ANALYSTS,
       heavy: true,
       multipartBody: roadNetworkMultipartSchema,
-      middleware: [singleFileUpload()],
+      middleware: singleFileUpload(),
       responses: {
         201: { description: 'Stored', schema: roadNetworkUploadResultSchema },
         400: { description: 'Not a FeatureCollection of lines; the message names the feature index and field' },

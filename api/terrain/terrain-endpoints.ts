@@ -17,6 +17,7 @@ import {
 import type { AppDeps } from '../app-deps';
 import { endpoint } from '../http/endpoint';
 import { BadRequestError, HttpError } from '../http/http-error';
+import { uploadLimit } from '../http/upload-limit';
 import { sampleElevations } from './elevation-sampler';
 import { acceptTerrainUpload, deleteTerrain, getTerrainModel, listTerrain } from './terrain-service';
 import { terrainRuntimeFor } from './terrain-runtime';
@@ -40,7 +41,7 @@ export function terrainEndpoints(deps: AppDeps) {
       access: ['analyst', 'admin'],
       heavy: true,
       multipartBody: terrainUploadMultipartSchema,
-      middleware: [terrainUpload(deps)],
+      middleware: terrainUpload(deps),
       responses: {
         201: { description: 'Accepted; status "processing" until ingestion finishes', schema: terrainUploadAcceptedSchema },
         400: { description: 'Missing file or name, truncated or corrupt TIFF, or no georeferencing' },
@@ -173,25 +174,25 @@ export function terrainEndpoints(deps: AppDeps) {
  * multer with the hashing disk storage and the configured size limit; its errors become API
  * errors here (413 for a file over the limit, 400 for a malformed form).
  */
-function terrainUpload(deps: AppDeps): RequestHandler {
+function terrainUpload(deps: AppDeps): RequestHandler[] {
+  const tooLarge = () =>
+    new HttpError(413, 'upload_too_large', `The file is larger than the ${formatBytes(deps.config.TERRAIN_MAX_UPLOAD_BYTES)} upload limit`);
+  const limit = uploadLimit(deps.config.TERRAIN_MAX_UPLOAD_BYTES, tooLarge);
   const upload = multer({
     storage: hashingDiskStorage(terrainRuntimeFor(deps).storage),
     limits: { fileSize: deps.config.TERRAIN_MAX_UPLOAD_BYTES, files: 1, fields: 5 },
-  }).single('file');
-  return (req, res, next) => {
+    streamHandler: limit.streamHandler,
+  } as multer.Options).single('file');
+  return [limit.precheck, (req, res, next) => {
     upload(req, res, (error: unknown) => {
       if (!error) return next();
       if (error instanceof multer.MulterError) {
-        if (error.code === 'LIMIT_FILE_SIZE') {
-          return next(
-            new HttpError(413, 'upload_too_large', `The file is larger than the ${formatBytes(deps.config.TERRAIN_MAX_UPLOAD_BYTES)} upload limit`),
-          );
-        }
+        if (error.code === 'LIMIT_FILE_SIZE') return next(tooLarge());
         return next(new BadRequestError(`The upload form is not valid: ${error.message}`, { field: error.field }, 'invalid_upload'));
       }
       next(error);
     });
-  };
+  }];
 }
 
 function formatBytes(bytes: number): string {
