@@ -37,6 +37,8 @@ const configSchema = z.object({
   TERRAIN_BLOCK_CACHE_MB: z.coerce.number().int().positive().default(256),
   /** Worker threads that decode terrain blocks off the event loop. */
   TERRAIN_DECODE_THREADS: z.coerce.number().int().min(1).max(16).default(2),
+  /** Disk space for rendered map tiles, MiB; the least recently used tiles go first. */
+  TILE_CACHE_MAX_MB: z.coerce.number().int().min(1).default(1024),
   /** Run the background workers (mail outbox, jobs) in this process. */
   RUN_WORKERS: z.stringbool().default(true),
   /** Worker threads that run route analyses off the event loop. */

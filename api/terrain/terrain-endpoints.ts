@@ -30,7 +30,7 @@ const TAG = 'Terrain';
 
 export function terrainEndpoints(deps: AppDeps) {
   const runtime = terrainRuntimeFor(deps);
-  const tileCache = new TileCache(runtime.storage.tilesDir);
+  const tileCache = new TileCache(runtime.storage.tilesDir, deps.config.TILE_CACHE_MAX_MB * 1024 * 1024);
 
   return [
     endpoint({
@@ -163,6 +163,8 @@ export function terrainEndpoints(deps: AppDeps) {
         }
         const png = (await renderTerrainTile(runtime.blocks, catalogue.models, zoom, x, y)) ?? transparentTile();
         res.send(png);
+        // Where no terrain is there is nothing to keep: every empty tile is the same shared PNG.
+        if (png === transparentTile()) return;
         // The cache is written after the answer: the map does not wait for the disk.
         tileCache.write(catalogue.version, zoom, x, y, png).catch((error: unknown) => console.error(`[terrain] caching tile ${zoom}/${x}/${y} failed:`, error));
       },
