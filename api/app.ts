@@ -20,7 +20,8 @@ export function createApp(givenDeps: AppDeps): Express {
   const deps = withDefaultServices(givenDeps);
   const app = express();
   app.disable('x-powered-by');
-  app.set('trust proxy', 'loopback');
+  // X-Forwarded-For and -Proto are believed only from the proxies TRUST_PROXY names (none by default).
+  app.set('trust proxy', deps.config.TRUST_PROXY);
 
   const endpoints = allEndpoints(deps);
   const openApiDocument = buildOpenApiDocument(endpoints);

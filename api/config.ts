@@ -13,6 +13,27 @@ const configSchema = z.object({
   SESSION_SECRET: z.string().min(32, 'SESSION_SECRET must be at least 32 characters'),
   /** Session lifetime; renewed on activity. */
   SESSION_TTL_MINUTES: z.coerce.number().int().min(1).max(24 * 60).default(30),
+  /**
+   * Which proxies may tell the client's address (X-Forwarded-For) and protocol: "false" (the
+   * default: nobody, the socket's address counts), a number of proxy hops, or a comma-separated
+   * list of addresses/subnets ("loopback", "10.0.0.0/8"). Set it only when a proxy you run sits
+   * in front; otherwise anyone could pick the address the sign-in limits count.
+   */
+  TRUST_PROXY: z
+    .string()
+    .default('false')
+    .transform((value, ctx): boolean | number | string[] => {
+      const text = value.trim();
+      if (text === '' || text === 'false') return false;
+      if (text === 'true') return true;
+      if (/^\d+$/.test(text)) return Number(text);
+      const list = text.split(',').map((part) => part.trim()).filter(Boolean);
+      if (list.some((part) => !/^[\w.:/]+$/.test(part))) {
+        ctx.addIssue({ code: 'custom', message: 'give false, a hop count, or a comma-separated list of addresses or subnets' });
+        return z.NEVER;
+      }
+      return list;
+    }),
   /** Public address of the app, used in links inside e-mails and for the Origin check. */
   PUBLIC_URL: z.url().default('http://127.0.0.1:4300'),
   SMTP_HOST: z.string().default('127.0.0.1'),

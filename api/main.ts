@@ -26,7 +26,7 @@ if (config.MAIL_FAKE) {
   console.log(`[mail] local mail catcher on ${config.SMTP_HOST}:${fake.port}`);
 }
 if (config.RUN_WORKERS) {
-  const worker = startMailWorker(db, createSmtpTransport(config), config.MAIL_FROM);
+  const worker = startMailWorker(db, createSmtpTransport(config), { from: config.MAIL_FROM, secret: config.SESSION_SECRET });
   stoppers.push(worker.stop);
 }
 stoppers.push(await startTerrain(deps));

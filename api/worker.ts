@@ -23,7 +23,7 @@ await migrateDatabase(config.DATABASE_URL);
 const { db, close } = createDatabase(config.DATABASE_URL);
 const deps = withDefaultServices({ db, config });
 
-const mail = startMailWorker(db, createSmtpTransport(config), config.MAIL_FROM);
+const mail = startMailWorker(db, createSmtpTransport(config), { from: config.MAIL_FROM, secret: config.SESSION_SECRET });
 const stopTerrain = await startTerrain(deps);
 await startBatchRunWorkers(deps);
 console.log('[worker] Descentry worker running: terrain ingestion, batch runs, mail outbox');

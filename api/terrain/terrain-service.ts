@@ -4,6 +4,7 @@ import type { User } from '@shared/domain/auth';
 import type { TerrainModel, TerrainUploadAccepted } from '@shared/domain/terrain';
 import type { AppDeps } from '../app-deps';
 import { ConflictError, ForbiddenError, HttpError, NotFoundError } from '../http/http-error';
+import { isUniqueViolation } from '../db/errors';
 import { createInlineJobQueue, jobQueueOf, type JobQueue } from '../jobs/job-queue';
 import { inspectGeoTiff } from './geotiff-inspection';
 import { ingestTerrainModel, TERRAIN_INGEST_JOB, type TerrainIngestJob } from './terrain-ingestion';
@@ -196,9 +197,3 @@ function duplicateError(existing: { id: string; name: string }): HttpError {
     existingName: existing.name,
   });
 }
-
-function isUniqueViolation(error: unknown): boolean {
-  return typeof error === 'object' && error !== null && (error as { code?: unknown }).code === '23505';
-}
-
-

@@ -23,6 +23,7 @@ const EXPECTED_ACCESS: Record<string, 'public' | 'signed-in' | readonly Role[]> 
   'GET /api/people': ['admin'],
   'POST /api/people': ['admin'],
   'PATCH /api/people/{personId}': ['admin'],
+  'POST /api/people/{personId}/unblock-sign-in': ['admin'],
   'POST /api/people/{personId}/password-reset': ['admin'],
   'GET /api/mail/outbox': ['admin'],
   'GET /api/mail/captured': ['admin'],

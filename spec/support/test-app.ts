@@ -9,6 +9,8 @@ import { createDatabase, type Database } from '../../api/db/client';
 import { users } from '../../api/db/schema/index';
 
 export const TEST_PASSWORD = 'test-password-for-specs';
+/** The SESSION_SECRET of the specs' configuration (mail links are sealed with it). */
+export const SPEC_SESSION_SECRET = 'spec-secret-spec-secret-spec-secret-0000';
 
 export function testConfig(overrides: Partial<Record<keyof Config, string>> = {}): Config {
   const databaseUrl = process.env['DATABASE_URL'];
@@ -16,7 +18,7 @@ export function testConfig(overrides: Partial<Record<keyof Config, string>> = {}
   return loadConfig({
     NODE_ENV: 'test',
     DATABASE_URL: databaseUrl,
-    SESSION_SECRET: 'spec-secret-spec-secret-spec-secret-0000',
+    SESSION_SECRET: SPEC_SESSION_SECRET,
     PUBLIC_URL: 'http://127.0.0.1:4300',
     WEB_DIR: '',
     DATA_DIR: '.var/spec-data',
