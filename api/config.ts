@@ -9,6 +9,10 @@ const configSchema = z.object({
   PORT: z.coerce.number().int().min(1).max(65535).default(4300),
   HOST: z.string().default('127.0.0.1'),
   DATABASE_URL: z.string().min(1, 'DATABASE_URL is required'),
+  /** Give up connecting to PostgreSQL after this long, s; requests meanwhile get 503 with Retry-After. */
+  DB_CONNECT_TIMEOUT_S: z.coerce.number().int().min(1).max(120).default(5),
+  /** PostgreSQL cancels a statement running longer than this, ms (the request gets 503). */
+  DB_STATEMENT_TIMEOUT_MS: z.coerce.number().int().min(100).max(3_600_000).default(30_000),
   /** Secret for signing session tokens; at least 32 characters. */
   SESSION_SECRET: z.string().min(32, 'SESSION_SECRET must be at least 32 characters'),
   /** Session lifetime; renewed on activity. */

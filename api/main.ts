@@ -6,6 +6,7 @@ import { createApp } from './app';
 import { withDefaultServices } from './app-services';
 import { closeAnalysisPool } from './analysis/analysis-pool';
 import { startBatchRunWorkers } from './batch-runs/batch-runs-service';
+import { startMaintenance } from './jobs/maintenance';
 import { createSmtpTransport, startMailWorker } from './mail/mail-worker';
 import { startSmtpFake } from './mail/smtp-fake';
 import { startTerrain } from './terrain/terrain-startup';
@@ -13,7 +14,10 @@ import { ensureVehiclePresets } from './vehicle-profiles/vehicle-presets-seed';
 
 const config = loadConfig();
 await migrateDatabase(config.DATABASE_URL);
-const { db, close } = createDatabase(config.DATABASE_URL);
+const { db, close } = createDatabase(config.DATABASE_URL, {
+  connectTimeoutS: config.DB_CONNECT_TIMEOUT_S,
+  statementTimeoutMs: config.DB_STATEMENT_TIMEOUT_MS,
+});
 const deps = withDefaultServices({ db, config });
 // The generic vehicle classes are read-only profiles every environment needs (idempotent).
 await ensureVehiclePresets(db);
@@ -32,6 +36,8 @@ if (config.RUN_WORKERS) {
 stoppers.push(await startTerrain(deps));
 stoppers.push(() => closeAnalysisPool(deps));
 await startBatchRunWorkers(deps);
+// After the workers: what a crash left half-done is queued again now and every minute.
+if (config.RUN_WORKERS) stoppers.unshift(startMaintenance(deps));
 
 const server = createServer(createApp(deps));
 server.listen(config.PORT, config.HOST, () => {

@@ -2,8 +2,25 @@ import { drizzle } from 'drizzle-orm/postgres-js';
 import postgres from 'postgres';
 import * as schema from './schema/index';
 
-export function createDatabase(databaseUrl: string, options: { max?: number } = {}) {
-  const client = postgres(databaseUrl, { max: options.max ?? 10, onnotice: () => undefined });
+export interface DatabaseOptions {
+  /** Connections in the pool. */
+  max?: number;
+  /** Give up connecting after this long, s: a request fails fast (503) instead of hanging while the database is away. */
+  connectTimeoutS?: number;
+  /** PostgreSQL cancels any statement running longer than this, ms (statement_timeout). */
+  statementTimeoutMs?: number;
+}
+
+/** Defaults that keep a request from waiting on an unreachable or stuck database (DB_CONNECT_TIMEOUT_S, DB_STATEMENT_TIMEOUT_MS). */
+export const DATABASE_TIMEOUTS = { connectTimeoutS: 5, statementTimeoutMs: 30_000 } as const;
+
+export function createDatabase(databaseUrl: string, options: DatabaseOptions = {}) {
+  const client = postgres(databaseUrl, {
+    max: options.max ?? 10,
+    onnotice: () => undefined,
+    connect_timeout: options.connectTimeoutS ?? DATABASE_TIMEOUTS.connectTimeoutS,
+    connection: { statement_timeout: options.statementTimeoutMs ?? DATABASE_TIMEOUTS.statementTimeoutMs },
+  });
   const db = drizzle({ client, schema, casing: 'snake_case' });
   return { db, client, close: () => client.end({ timeout: 5 }) };
 }

@@ -1,4 +1,4 @@
-import { and, asc, eq, getTableColumns, inArray, type SQL } from 'drizzle-orm';
+import { and, asc, eq, getTableColumns, inArray, lt, type SQL } from 'drizzle-orm';
 import type { Scenario, ScenarioListQuery } from '@shared/domain/scenarios';
 import { ENGINE_VERSION } from '@shared/engine/constants';
 import type { Executor } from '../db/client';
@@ -69,6 +69,19 @@ export async function insertScenario(db: Executor, values: typeof scenarios.$inf
 
 export async function updateScenario(db: Executor, id: string, values: Partial<typeof scenarios.$inferInsert>) {
   await db.update(scenarios).set({ ...values, updatedAt: new Date() }).where(eq(scenarios.id, id));
+}
+
+/**
+ * Scenarios left "running" since before `staleBefore`: their run stopped with its process (a run
+ * takes seconds). They are marked failed with a reason and keep their last good result.
+ */
+export async function failInterruptedRuns(db: Executor, staleBefore: Date): Promise<number> {
+  const failed = await db
+    .update(scenarios)
+    .set({ status: 'failed', failureReason: 'the run stopped before it finished (the server was restarted); run it again', updatedAt: new Date() })
+    .where(and(eq(scenarios.status, 'running'), lt(scenarios.updatedAt, staleBefore)))
+    .returning({ id: scenarios.id });
+  return failed.length;
 }
 
 export async function deleteScenario(db: Executor, id: string) {

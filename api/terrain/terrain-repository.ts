@@ -1,4 +1,4 @@
-import { and, asc, eq, getTableColumns, sql } from 'drizzle-orm';
+import { and, asc, eq, getTableColumns, isNull, lt, or, sql } from 'drizzle-orm';
 import type { Polygon, TerrainModel } from '@shared/domain/terrain';
 import type { Executor } from '../db/client';
 import { terrainDependents, terrainModels, users, type TerrainModelRow } from '../db/schema/index';
@@ -58,9 +58,48 @@ export async function findTerrainBySha256(db: Executor, sha256: string): Promise
   return row;
 }
 
-export async function listProcessingTerrainIds(db: Executor): Promise<string[]> {
-  const rows = await db.select({ id: terrainModels.id }).from(terrainModels).where(eq(terrainModels.status, 'processing'));
-  return rows.map((row) => row.id);
+/** Models still being ingested, with their job and heartbeat. */
+export async function listProcessingTerrain(db: Executor) {
+  return db
+    .select({ id: terrainModels.id, ingestJobId: terrainModels.ingestJobId, ingestHeartbeatAt: terrainModels.ingestHeartbeatAt })
+    .from(terrainModels)
+    .where(eq(terrainModels.status, 'processing'));
+}
+
+/**
+ * Takes a model's ingestion for `jobId`: true unless another job's ingestion of it is alive
+ * (heartbeat after `staleBefore`) or the model is no longer processing.
+ */
+export async function claimIngestion(db: Executor, id: string, jobId: string, staleBefore: Date): Promise<boolean> {
+  const claimed = await db
+    .update(terrainModels)
+    .set({ ingestJobId: jobId, ingestHeartbeatAt: new Date() })
+    .where(
+      and(
+        eq(terrainModels.id, id),
+        eq(terrainModels.status, 'processing'),
+        or(isNull(terrainModels.ingestHeartbeatAt), lt(terrainModels.ingestHeartbeatAt, staleBefore), eq(terrainModels.ingestJobId, jobId)),
+      ),
+    )
+    .returning({ id: terrainModels.id });
+  return claimed.length === 1;
+}
+
+export async function beatIngestion(db: Executor, id: string, jobId: string): Promise<void> {
+  await db
+    .update(terrainModels)
+    .set({ ingestHeartbeatAt: new Date() })
+    .where(and(eq(terrainModels.id, id), eq(terrainModels.ingestJobId, jobId), eq(terrainModels.status, 'processing')));
+}
+
+/** Swaps the model's ingestion job only if it is still `expected` (one sweeper re-queues it). */
+export async function replaceIngestJob(db: Executor, id: string, expected: string | null, jobId: string): Promise<boolean> {
+  const replaced = await db
+    .update(terrainModels)
+    .set({ ingestJobId: jobId, ingestHeartbeatAt: null })
+    .where(and(eq(terrainModels.id, id), expected === null ? isNull(terrainModels.ingestJobId) : eq(terrainModels.ingestJobId, expected)))
+    .returning({ id: terrainModels.id });
+  return replaced.length === 1;
 }
 
 export async function listStoredPaths(db: Executor): Promise<Array<{ id: string; storedPath: string }>> {

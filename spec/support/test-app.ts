@@ -37,7 +37,11 @@ export interface TestContext {
 /** The real app on the real test database; call `close` in afterAll. */
 export function createTestContext(overrides: Partial<Record<keyof Config, string>> = {}): TestContext {
   const config = testConfig(overrides);
-  const { db, close } = createDatabase(config.DATABASE_URL, { max: 5 });
+  const { db, close } = createDatabase(config.DATABASE_URL, {
+    max: 5,
+    connectTimeoutS: config.DB_CONNECT_TIMEOUT_S,
+    statementTimeoutMs: config.DB_STATEMENT_TIMEOUT_MS,
+  });
   const deps: AppDeps = { db, config };
   return { app: createApp(deps), db, deps, close };
 }

@@ -80,6 +80,10 @@ export const terrainModels = pgTable(
     footprint: polygon(),
     uploadedById: uuid().references(() => users.id, { onDelete: 'set null' }),
     readyAt: timestamp({ withTimezone: true }),
+    /** The queue's ingestion job for the model (the latest one when it was queued again). */
+    ingestJobId: text(),
+    /** Renewed while ingestion runs; a model whose ingestion stops beating is queued again. */
+    ingestHeartbeatAt: timestamp({ withTimezone: true }),
     ...timestamps,
   },
   (table) => [
