@@ -8,6 +8,7 @@ import { requireSameOrigin } from './auth/same-origin';
 import { allEndpoints } from './endpoints';
 import { mountEndpoint } from './http/endpoint';
 import { HeavyRequestLimiter } from './http/heavy-requests';
+import { WebIndex, cspNonce, securityHeaders } from './http/security-headers';
 import { apiNotFound, errorHandler } from './http/error-handler';
 import { buildOpenApiDocument } from './openapi/openapi-document';
 import { withDefaultServices } from './app-services';
@@ -20,6 +21,9 @@ export function createApp(givenDeps: AppDeps): Express {
   const deps = withDefaultServices(givenDeps);
   const app = express();
   app.disable('x-powered-by');
+  const webDir = resolve(deps.config.WEB_DIR);
+  const index = deps.config.WEB_DIR && existsSync(resolve(webDir, 'index.html')) ? WebIndex.load(resolve(webDir, 'index.html')) : null;
+  app.use(cspNonce, securityHeaders({ publicUrl: deps.config.PUBLIC_URL, index }));
   // X-Forwarded-For and -Proto are believed only from the proxies TRUST_PROXY names (none by default).
   app.set('trust proxy', deps.config.TRUST_PROXY);
 
@@ -43,13 +47,14 @@ export function createApp(givenDeps: AppDeps): Express {
   api.use('/api', apiNotFound);
   app.use(api);
 
-  const webDir = resolve(deps.config.WEB_DIR);
-  if (deps.config.WEB_DIR && existsSync(resolve(webDir, 'index.html'))) {
-    app.use(express.static(webDir, { index: false, maxAge: '1h' }));
+  if (index) {
+    // index.html itself is only ever answered with its nonce (below), never as a plain file.
+    const assets = express.static(webDir, { index: false, maxAge: '1h' });
+    app.use((req, res, next) => (req.path === '/index.html' ? next() : assets(req, res, next)));
     // The Angular router owns every other path.
     app.get('/{*splat}', (_req, res) => {
       res.set('Cache-Control', 'no-cache');
-      res.sendFile(resolve(webDir, 'index.html'));
+      res.type('html').send(index.render(res.locals['cspNonce'] as string));
     });
   }
 

@@ -13,8 +13,8 @@ const MULTIPART_OVERHEAD_BYTES = 64 * 1024;
  * - `streamHandler`, given to multer: counts the body as it arrives and, as soon as it passes the
  *   limit (a body without Content-Length, or one that lied), stops the upload and answers 413.
  *
- * Either way the answer goes out with `Connection: close` and the connection is closed once it is
- * sent, so the rest of the body is never read (multer alone would read it to the end first).
+ * Either way the connection is closed shortly after the answer is out, so the rest of the body is
+ * never read (multer, and Node's keep-alive handling, would otherwise read it to the end first).
  */
 export function uploadLimit(maxFileBytes: number, tooLarge: () => HttpError) {
   const maxBodyBytes = maxFileBytes + MULTIPART_OVERHEAD_BYTES;
@@ -42,15 +42,44 @@ export function uploadLimit(maxFileBytes: number, tooLarge: () => HttpError) {
   return { precheck, streamHandler };
 }
 
-/** Answers the 413 at once and closes the connection after it, leaving the body unread. */
+/**
+ * After a refusal the connection lingers briefly, discarding what the client still sends (as
+ * HTTP servers' "lingering close" does), so the client reads the whole 413 instead of a reset;
+ * then it is closed, however much body is left. Bounded in time and bytes. (A `Connection: close`
+ * answer would make Node close the socket the moment the answer is flushed, and a client still
+ * sending would see a reset before it read the answer.)
+ */
+const LINGER_MS = 1_000;
+const LINGER_BYTES = 4 * 1024 * 1024;
+
+/** Answers the 413 at once and closes the connection after it, leaving the rest of the body unread. */
 function refuse(req: Request, res: Response, error: HttpError): void {
   if (res.headersSent) {
     req.socket.destroy();
     return;
   }
-  res.once('finish', () => req.socket.destroy());
+  // Node would close a `Connection: close` request's socket the moment the answer is flushed;
+  // the connection is to close after lingering instead.
+  res.shouldKeepAlive = true;
+  res.once('finish', () => lingerThenClose(req));
   res
     .status(error.status)
-    .set({ ...error.headers, Connection: 'close' })
+    .set(error.headers)
     .json({ error: { code: error.code, message: error.message, details: error.details } } satisfies ApiError);
+}
+
+function lingerThenClose(req: Request): void {
+  const socket = req.socket;
+  let discarded = 0;
+  const close = () => {
+    clearTimeout(timer);
+    socket.destroy();
+  };
+  const timer = setTimeout(close, LINGER_MS);
+  req.on('data', (chunk: Buffer) => {
+    discarded += chunk.length;
+    if (discarded > LINGER_BYTES) close();
+  });
+  req.once('end', close);
+  req.resume();
 }
