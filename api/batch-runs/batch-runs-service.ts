@@ -5,7 +5,7 @@
  * failed with its reason; the others carry on.
  */
 import { randomUUID } from 'node:crypto';
-import { asc, eq } from 'drizzle-orm';
+import { and, asc, eq, isNull } from 'drizzle-orm';
 import type { User } from '@shared/domain/auth';
 import type { BatchRun } from '@shared/domain/board-summary';
 import type { AppDeps } from '../app-deps';
@@ -35,7 +35,7 @@ export async function startBatchRun(deps: AppDeps, user: User): Promise<BatchRun
   const inService = await deps.db
     .select({ id: scenarios.id, name: scenarios.name })
     .from(scenarios)
-    .where(eq(scenarios.inService, true))
+    .where(and(eq(scenarios.inService, true), isNull(scenarios.deletedAt)))
     .orderBy(asc(scenarios.name));
   if (inService.length === 0) {
     throw new ConflictError('No scenario is marked in service; mark scenarios in service before a network-wide run', 'nothing_in_service');

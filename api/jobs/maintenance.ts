@@ -6,13 +6,15 @@
  * - terrain models whose ingestion stopped are queued again, their dead job cancelled
  *   (terrain-service);
  * - scenarios left "running" by a process that died are marked failed with the reason;
- * - sign-in and reset counters idle for a day are removed.
+ * - sign-in and reset counters idle for a day are removed;
+ * - what was deleted more than 30 days ago is removed for good (api/deleted-items).
  *
  * Every step is safe with several processes sweeping at once (each row is taken by one).
  */
 import type { AppDeps } from '../app-deps';
 import { purgeIdleThrottles } from '../auth/attempt-throttle';
 import { requeueStaleBatchItems } from '../batch-runs/batch-runs-service';
+import { purgeExpiredDeletes } from '../deleted-items/deleted-items-service';
 import { failInterruptedRuns } from '../scenarios/scenarios-repository';
 import { requeueStaleIngestion } from '../terrain/terrain-service';
 
@@ -25,6 +27,7 @@ export interface MaintenanceReport {
   ingestionRequeued: number;
   ingestionFailed: number;
   scenarioRunsFailed: number;
+  deletedItemsPurged: number;
 }
 
 export async function runMaintenance(deps: AppDeps, now = new Date()): Promise<MaintenanceReport> {
@@ -32,7 +35,14 @@ export async function runMaintenance(deps: AppDeps, now = new Date()): Promise<M
   const ingestion = await requeueStaleIngestion(deps, now);
   const scenarioRunsFailed = await failInterruptedRuns(deps.db, new Date(now.getTime() - SCENARIO_RUN_STALE_MS));
   await purgeIdleThrottles(deps.db);
-  return { batchItemsRequeued, ingestionRequeued: ingestion.requeued.length, ingestionFailed: ingestion.failed.length, scenarioRunsFailed };
+  const deletedItemsPurged = await purgeExpiredDeletes(deps, now);
+  return {
+    batchItemsRequeued,
+    ingestionRequeued: ingestion.requeued.length,
+    ingestionFailed: ingestion.failed.length,
+    scenarioRunsFailed,
+    deletedItemsPurged,
+  };
 }
 
 /** Runs the sweep now and every minute until stopped; a failed sweep (database away) is logged and retried. */
@@ -43,11 +53,13 @@ export function startMaintenance(deps: AppDeps, intervalMs = MAINTENANCE_INTERVA
   const sweep = () => {
     running = runMaintenance(deps)
       .then((report) => {
-        const total = report.batchItemsRequeued + report.ingestionRequeued + report.ingestionFailed + report.scenarioRunsFailed;
+        const total =
+          report.batchItemsRequeued + report.ingestionRequeued + report.ingestionFailed + report.scenarioRunsFailed + report.deletedItemsPurged;
         if (total > 0) {
           console.log(
             `[maintenance] re-queued ${report.batchItemsRequeued} network-run item(s) and ${report.ingestionRequeued} terrain ingestion(s); ` +
-              `failed ${report.ingestionFailed} ingestion(s) without a file and ${report.scenarioRunsFailed} interrupted scenario run(s)`,
+              `failed ${report.ingestionFailed} ingestion(s) without a file and ${report.scenarioRunsFailed} interrupted scenario run(s); ` +
+              `removed ${report.deletedItemsPurged} deleted item(s) for good`,
           );
         }
       })

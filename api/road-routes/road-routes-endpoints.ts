@@ -144,14 +144,26 @@ export function roadRouteEndpoints(deps: AppDeps) {
     endpoint({
       method: 'delete',
       path: '/api/routes/:routeId',
-      summary: 'Delete a route with all its versions; 409 while scenarios use it',
+      summary: 'Delete a route with all its versions (restorable for 30 days); 409 while scenarios use it',
       tag: TAG,
       access: PLANNERS,
       params: routeIdParamsSchema,
       responses: { 204: { description: 'Deleted' }, 409: { description: 'Scenarios use the route (details.scenarioCount)' } },
-      handler: async ({ params, res }) => {
-        await service.deleteRoute(deps.db, params.routeId);
+      handler: async ({ params, user, res }) => {
+        await service.deleteRoute(deps.db, authorOf(user!), params.routeId);
         res.status(204).end();
+      },
+    }),
+    endpoint({
+      method: 'post',
+      path: '/api/routes/:routeId/restore',
+      summary: 'Restore a deleted route (within the retention period) as it was',
+      tag: TAG,
+      access: PLANNERS,
+      params: routeIdParamsSchema,
+      responses: { 200: { description: 'The route, back', schema: roadRouteSchema }, 404: { description: 'No deleted route with that id' } },
+      handler: async ({ params, user, res }) => {
+        res.json(await service.restoreRoute(deps.db, authorOf(user!), params.routeId));
       },
     }),
     endpoint({
@@ -163,8 +175,8 @@ export function roadRouteEndpoints(deps: AppDeps) {
       params: routeIdParamsSchema,
       responses: { 200: { description: 'Versions', schema: roadRouteVersionListSchema } },
       handler: async ({ params, res }) => {
+        if (!(await repository.findRoute(deps.db, params.routeId))) throw new NotFoundError('The route');
         const rows = await repository.listVersions(deps.db, params.routeId);
-        if (rows.length === 0) throw new NotFoundError('The route');
         res.json({ items: rows.map((row) => ({ ...row, createdAt: row.createdAt.toISOString() })) });
       },
     }),

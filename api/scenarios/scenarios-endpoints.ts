@@ -85,21 +85,37 @@ export function scenarioEndpoints(deps: AppDeps) {
       params: scenarioIdParamsSchema,
       body: scenarioDraftSchema,
       responses: { 200: { description: 'Saved and computed', schema: scenarioSchema } },
-      handler: async ({ params, body, res }) => {
-        res.json(await service.updateScenario(deps, params.scenarioId, body));
+      handler: async ({ params, body, user, res }) => {
+        res.json(await service.updateScenario(deps, service.authorOf(user!), params.scenarioId, body));
       },
     }),
     endpoint({
       method: 'delete',
       path: '/api/scenarios/:scenarioId',
-      summary: 'Delete a scenario and its result',
+      summary: 'Delete a scenario and its result (restorable for 30 days)',
       tag: TAG,
       access: EDITORS,
       params: scenarioIdParamsSchema,
       responses: { 204: { description: 'Deleted' } },
-      handler: async ({ params, res }) => {
-        await service.deleteScenario(deps.db, params.scenarioId);
+      handler: async ({ params, user, res }) => {
+        await service.deleteScenario(deps.db, service.authorOf(user!), params.scenarioId);
         res.status(204).end();
+      },
+    }),
+    endpoint({
+      method: 'post',
+      path: '/api/scenarios/:scenarioId/restore',
+      summary: 'Restore a deleted scenario (within the retention period) with its settings and last result',
+      tag: TAG,
+      access: EDITORS,
+      params: scenarioIdParamsSchema,
+      responses: {
+        200: { description: 'The scenario, back', schema: scenarioSchema },
+        404: { description: 'No deleted scenario with that id' },
+        409: { description: 'Its route or vehicle profile is deleted too (restore that first)' },
+      },
+      handler: async ({ params, user, res }) => {
+        res.json(await service.restoreScenario(deps.db, service.authorOf(user!), params.scenarioId));
       },
     }),
     endpoint({

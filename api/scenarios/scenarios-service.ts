@@ -5,7 +5,8 @@ import { ENGINEERING_CAUTION } from '@shared/engine/constants';
 import type { AppDeps } from '../app-deps';
 import { analyserOf } from '../app-services';
 import type { Database } from '../db/client';
-import { BadRequestError, HttpError, NotFoundError } from '../http/http-error';
+import { type Actor, recordAudit } from '../audit/audit-log';
+import { BadRequestError, ConflictError, HttpError, NotFoundError } from '../http/http-error';
 import { syncReviewItems } from '../reviews/review-sync';
 import { replaceScenarioTerrainUse } from '../terrain/terrain-repository';
 import * as routes from '../road-routes/road-routes-repository';
@@ -101,12 +102,16 @@ export async function createScenario(
   draft: ScenarioDraft,
   seedKey?: string,
 ): Promise<Scenario> {
-  const row = await repository.insertScenario(deps.db, {
-    ...(await draftColumns(deps.db, draft)),
-    status: 'queued',
-    createdById: author.id,
-    createdByName: author.name,
-    seedKey: seedKey ?? null,
+  const row = await deps.db.transaction(async (tx) => {
+    const inserted = await repository.insertScenario(tx, {
+      ...(await draftColumns(deps.db, draft)),
+      status: 'queued',
+      createdById: author.id,
+      createdByName: author.name,
+      seedKey: seedKey ?? null,
+    });
+    await recordAudit(tx, author, { action: 'create', kind: 'scenario', entityId: inserted.id, entityName: inserted.name });
+    return inserted;
   });
   await computeAndStore(deps, row.id);
   return getScenario(deps.db, row.id);
@@ -131,10 +136,14 @@ async function draftColumns(db: Database, draft: ScenarioDraft) {
 }
 
 /** Saves changed settings and recomputes. */
-export async function updateScenario(deps: AppDeps, id: string, draft: ScenarioDraft): Promise<Scenario> {
+export async function updateScenario(deps: AppDeps, actor: Actor, id: string, draft: ScenarioDraft): Promise<Scenario> {
   const existing = await repository.findScenarioWithContext(deps.db, id);
   if (!existing) throw new NotFoundError('The scenario');
-  await repository.updateScenario(deps.db, id, await draftColumns(deps.db, draft));
+  const columns = await draftColumns(deps.db, draft);
+  await deps.db.transaction(async (tx) => {
+    await repository.updateScenario(tx, id, columns);
+    await recordAudit(tx, actor, { action: 'update', kind: 'scenario', entityId: id, entityName: columns.name });
+  });
   await computeAndStore(deps, id);
   return getScenario(deps.db, id);
 }
@@ -153,13 +162,37 @@ export async function rerunScenario(deps: AppDeps, id: string): Promise<Scenario
   return getScenario(deps.db, id);
 }
 
-export async function deleteScenario(db: Database, id: string): Promise<void> {
-  const existing = await repository.findScenarioRow(db, id);
-  if (!existing) throw new NotFoundError('The scenario');
+/**
+ * Deletes a scenario, restorably: hidden everywhere (lists, the board, network runs) and removed
+ * for good after the retention period. What it recorded about terrain use stays with it, but a
+ * deleted scenario no longer holds terrain back from deletion.
+ */
+export async function deleteScenario(db: Database, actor: Actor, id: string): Promise<void> {
   await db.transaction(async (tx) => {
-    await replaceScenarioTerrainUse(tx, id, null);
-    await repository.deleteScenario(tx, id);
+    const existing = await repository.lockScenario(tx, id);
+    if (!existing) throw new NotFoundError('The scenario');
+    await repository.markScenarioDeleted(tx, id, actor);
+    await recordAudit(tx, actor, { action: 'delete', kind: 'scenario', entityId: id, entityName: existing.name });
   });
+}
+
+/** Brings a deleted scenario back with its settings and last result; its route and vehicle profile must exist. */
+export async function restoreScenario(db: Database, actor: Actor, id: string): Promise<Scenario> {
+  await db.transaction(async (tx) => {
+    const existing = await repository.lockScenario(tx, id, true);
+    if (!existing?.deletedAt) throw new NotFoundError('A deleted scenario with that id');
+    if (!(await routes.findRoute(tx, existing.routeId))) {
+      throw new ConflictError('Its route is deleted too; restore the route first', 'route_deleted', { routeId: existing.routeId });
+    }
+    if (!(await profiles.findProfile(tx, existing.vehicleProfileId))) {
+      throw new ConflictError('Its vehicle profile is deleted too; restore the profile first', 'vehicle_profile_deleted', {
+        vehicleProfileId: existing.vehicleProfileId,
+      });
+    }
+    await repository.markScenarioRestored(tx, id);
+    await recordAudit(tx, actor, { action: 'restore', kind: 'scenario', entityId: id, entityName: existing.name });
+  });
+  return getScenario(db, id);
 }
 
 export async function getResult(db: Database, id: string): Promise<ScenarioResult> {

@@ -19,7 +19,7 @@ import { endpoint } from '../http/endpoint';
 import { BadRequestError, HttpError } from '../http/http-error';
 import { uploadLimit } from '../http/upload-limit';
 import { sampleElevations } from './elevation-sampler';
-import { acceptTerrainUpload, deleteTerrain, getTerrainModel, listTerrain } from './terrain-service';
+import { acceptTerrainUpload, deleteTerrain, getTerrainModel, listTerrain, restoreTerrain } from './terrain-service';
 import { terrainRuntimeFor } from './terrain-runtime';
 import type { HashedUpload } from './terrain-storage';
 import { hashingDiskStorage } from './terrain-storage';
@@ -109,7 +109,7 @@ export function terrainEndpoints(deps: AppDeps) {
     endpoint({
       method: 'delete',
       path: '/api/terrain/:terrainId',
-      summary: 'Delete a terrain model and its files',
+      summary: 'Delete a terrain model (restorable for 30 days; its files are removed then)',
       tag: TAG,
       access: ['analyst', 'admin'],
       params: terrainIdParamsSchema,
@@ -123,6 +123,18 @@ export function terrainEndpoints(deps: AppDeps) {
       handler: async ({ params, query, user, res }) => {
         await deleteTerrain(deps, user!, params.terrainId, query.force);
         res.status(204).end();
+      },
+    }),
+    endpoint({
+      method: 'post',
+      path: '/api/terrain/:terrainId/restore',
+      summary: 'Restore a deleted terrain model (within the retention period) into the catalogue',
+      tag: TAG,
+      access: ['analyst', 'admin'],
+      params: terrainIdParamsSchema,
+      responses: { 200: { description: 'The model, back', schema: terrainModelSchema }, 404: { description: 'No deleted model with that id' } },
+      handler: async ({ params, user, res }) => {
+        res.json(await restoreTerrain(deps, user!, params.terrainId));
       },
     }),
     endpoint({

@@ -1,7 +1,7 @@
 import { and, asc, eq, getTableColumns, isNull, lt, or, sql } from 'drizzle-orm';
 import type { Polygon, TerrainModel } from '@shared/domain/terrain';
 import type { Executor } from '../db/client';
-import { terrainDependents, terrainModels, users, type TerrainModelRow } from '../db/schema/index';
+import { scenarios, terrainDependents, terrainModels, users, type TerrainModelRow } from '../db/schema/index';
 
 type NewTerrainRow = typeof terrainModels.$inferInsert;
 
@@ -24,12 +24,13 @@ export async function insertTerrainModel(db: Executor, row: NewTerrainRow): Prom
   await db.insert(terrainModels).values(row);
 }
 
-export async function findTerrainModel(db: Executor, id: string): Promise<TerrainRowWithExtras | undefined> {
+/** The model unless it is deleted (or, with `includeDeleted`, either way). */
+export async function findTerrainModel(db: Executor, id: string, includeDeleted = false): Promise<TerrainRowWithExtras | undefined> {
   const [row] = await db
     .select(selection)
     .from(terrainModels)
     .leftJoin(users, eq(users.id, terrainModels.uploadedById))
-    .where(eq(terrainModels.id, id));
+    .where(and(eq(terrainModels.id, id), includeDeleted ? undefined : isNull(terrainModels.deletedAt)));
   return row;
 }
 
@@ -38,6 +39,7 @@ export async function listTerrainModels(db: Executor): Promise<TerrainRowWithExt
     .select(selection)
     .from(terrainModels)
     .leftJoin(users, eq(users.id, terrainModels.uploadedById))
+    .where(isNull(terrainModels.deletedAt))
     .orderBy(asc(terrainModels.name), asc(terrainModels.createdAt));
 }
 
@@ -46,13 +48,14 @@ export async function listReadyTerrainRows(db: Executor): Promise<TerrainRowWith
     .select(selection)
     .from(terrainModels)
     .leftJoin(users, eq(users.id, terrainModels.uploadedById))
-    .where(eq(terrainModels.status, 'ready'))
+    .where(and(eq(terrainModels.status, 'ready'), isNull(terrainModels.deletedAt)))
     .orderBy(asc(terrainModels.resolutionM), asc(terrainModels.createdAt));
 }
 
-export async function findTerrainBySha256(db: Executor, sha256: string): Promise<{ id: string; name: string } | undefined> {
+/** The model holding a file, deleted or not (the same file may be in the catalogue only once). */
+export async function findTerrainBySha256(db: Executor, sha256: string): Promise<{ id: string; name: string; deletedAt: Date | null } | undefined> {
   const [row] = await db
-    .select({ id: terrainModels.id, name: terrainModels.name })
+    .select({ id: terrainModels.id, name: terrainModels.name, deletedAt: terrainModels.deletedAt })
     .from(terrainModels)
     .where(eq(terrainModels.sha256, sha256));
   return row;
@@ -63,7 +66,7 @@ export async function listProcessingTerrain(db: Executor) {
   return db
     .select({ id: terrainModels.id, ingestJobId: terrainModels.ingestJobId, ingestHeartbeatAt: terrainModels.ingestHeartbeatAt })
     .from(terrainModels)
-    .where(eq(terrainModels.status, 'processing'));
+    .where(and(eq(terrainModels.status, 'processing'), isNull(terrainModels.deletedAt)));
 }
 
 /**
@@ -110,6 +113,16 @@ export async function updateTerrainModel(db: Executor, id: string, values: Parti
   await db.update(terrainModels).set(values).where(eq(terrainModels.id, id));
 }
 
+/** Hides the model (restorable until the purge; its files stay). */
+export async function markTerrainDeleted(db: Executor, id: string, by: { id: string | null; name: string }) {
+  await db.update(terrainModels).set({ deletedAt: new Date(), deletedById: by.id, deletedByName: by.name }).where(eq(terrainModels.id, id));
+}
+
+export async function markTerrainRestored(db: Executor, id: string) {
+  await db.update(terrainModels).set({ deletedAt: null, deletedById: null, deletedByName: null }).where(eq(terrainModels.id, id));
+}
+
+/** Removes the row for good (the purge, after its files). */
 export async function deleteTerrainRow(db: Executor, id: string): Promise<boolean> {
   const deleted = await db.delete(terrainModels).where(eq(terrainModels.id, id)).returning({ id: terrainModels.id });
   return deleted.length > 0;
@@ -123,7 +136,8 @@ export async function countScenariosUsingTerrain(db: Executor, terrainId: string
   const [row] = await db
     .select({ count: sql<number>`count(*)::int` })
     .from(terrainDependents)
-    .where(and(eq(terrainDependents.terrainId, terrainId), eq(terrainDependents.kind, 'scenario')));
+    .innerJoin(scenarios, eq(scenarios.id, terrainDependents.dependentId))
+    .where(and(eq(terrainDependents.terrainId, terrainId), eq(terrainDependents.kind, 'scenario'), isNull(scenarios.deletedAt)));
   return row?.count ?? 0;
 }
 
@@ -186,6 +200,6 @@ export async function replaceScenarioTerrainUse(
     insert into terrain_dependents (terrain_id, kind, dependent_id)
     select t.id, 'scenario', ${scenarioId}::uuid
     from terrain_models t join road_route_versions v on v.id = ${routeVersionId}::uuid
-    where t.status = 'ready' and ST_Intersects(t.footprint, v.geometry)
+    where t.status = 'ready' and t.deleted_at is null and ST_Intersects(t.footprint, v.geometry)
     on conflict do nothing`);
 }

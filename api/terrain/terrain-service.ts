@@ -4,6 +4,7 @@ import type { User } from '@shared/domain/auth';
 import type { TerrainModel, TerrainUploadAccepted } from '@shared/domain/terrain';
 import type { AppDeps } from '../app-deps';
 import { ConflictError, ForbiddenError, HttpError, NotFoundError } from '../http/http-error';
+import { type Actor, recordAudit } from '../audit/audit-log';
 import { isUniqueViolation } from '../db/errors';
 import { createInlineJobQueue, jobQueueOf, type JobPolicy, type JobQueue } from '../jobs/job-queue';
 import { inspectGeoTiff } from './geotiff-inspection';
@@ -11,6 +12,8 @@ import { INGEST_STALE_MS, ingestTerrainModel, TERRAIN_INGEST_JOB, type TerrainIn
 import {
   countScenariosUsingTerrain,
   deleteTerrainRow,
+  markTerrainDeleted,
+  markTerrainRestored,
   findTerrainBySha256,
   findTerrainModel,
   insertTerrainModel,
@@ -86,6 +89,13 @@ export async function acceptTerrainUpload(deps: AppDeps, user: User, upload: Ter
       footprint: header.footprint,
       uploadedById: user.id,
     });
+    await recordAudit(deps.db, actorOf(user), {
+      action: 'create',
+      kind: 'terrain',
+      entityId: id,
+      entityName: upload.name,
+      details: { file: upload.originalFileName, bytes: file.size },
+    });
   } catch (error) {
     // Expected failures: a refused file (HttpError) or a lost race on the same SHA-256. Either
     // way nothing may stay behind.
@@ -114,8 +124,10 @@ export async function listTerrain(deps: AppDeps): Promise<{ items: TerrainModel[
 }
 
 /**
- * Deletes a model and its files. Refused with 409 while saved scenarios depend on it, unless an
- * admin forces it (their scenarios then lose their terrain and must be re-run on another).
+ * Deletes a model, restorably: it leaves the catalogue, the map and sampling at once; its files
+ * stay until the maintenance sweep removes it for good after the retention period. Refused with
+ * 409 while saved scenarios depend on it, unless an admin forces it (their scenarios then lose
+ * their terrain and must be re-run on another).
  */
 export async function deleteTerrain(deps: AppDeps, user: User, id: string, force: boolean): Promise<void> {
   const runtime = terrainRuntimeFor(deps);
@@ -130,11 +142,42 @@ export async function deleteTerrain(deps: AppDeps, user: User, id: string, force
       { scenarioCount: scenarios },
     );
   }
-  await deleteTerrainRow(deps.db, id);
+  await deps.db.transaction(async (tx) => {
+    await markTerrainDeleted(tx, id, actorOf(user));
+    await recordAudit(tx, actorOf(user), {
+      action: 'delete',
+      kind: 'terrain',
+      entityId: id,
+      entityName: row.name,
+      details: scenarios > 0 ? { forced: true, scenariosUsingIt: scenarios } : {},
+    });
+  });
   runtime.invalidateCatalogue();
-  const source = runtime.sourceFromRow(row);
-  await runtime.blocks.forget(source).catch(() => undefined);
+  // Expected failure: no decoder thread holds the file; nothing to forget.
+  await runtime.blocks.forget(runtime.sourceFromRow(row)).catch(() => undefined);
+}
+
+/** Brings a deleted model back into the catalogue (its files were kept). */
+export async function restoreTerrain(deps: AppDeps, user: User, id: string): Promise<TerrainModel> {
+  const row = await findTerrainModel(deps.db, id, true);
+  if (!row?.deletedAt) throw new NotFoundError('A deleted terrain model with that id');
+  await deps.db.transaction(async (tx) => {
+    await markTerrainRestored(tx, id);
+    await recordAudit(tx, actorOf(user), { action: 'restore', kind: 'terrain', entityId: id, entityName: row.name });
+  });
+  terrainRuntimeFor(deps).invalidateCatalogue();
+  return getTerrainModel(deps, id);
+}
+
+/** Removes a deleted model for good: its files, then its row (the purge). */
+export async function purgeTerrain(deps: AppDeps, id: string): Promise<void> {
+  const runtime = terrainRuntimeFor(deps);
   await runtime.storage.removeModelFiles(id);
+  await deleteTerrainRow(deps.db, id);
+}
+
+function actorOf(user: User): Actor {
+  return { id: user.id, name: user.name };
 }
 
 /**
@@ -216,7 +259,14 @@ export async function waitForInlineTerrainJobs(deps: AppDeps): Promise<void> {
   await inlineQueues.get(deps.db)?.idle();
 }
 
-function duplicateError(existing: { id: string; name: string }): HttpError {
+function duplicateError(existing: { id: string; name: string; deletedAt: Date | null }): HttpError {
+  if (existing.deletedAt) {
+    return new ConflictError(
+      `This file was deleted from the catalogue as “${existing.name}”; restore it under Recently deleted instead of uploading it again`,
+      'duplicate_terrain',
+      { existingId: existing.id, existingName: existing.name, deleted: true },
+    );
+  }
   return new ConflictError(`This file is already in the catalogue as “${existing.name}”`, 'duplicate_terrain', {
     existingId: existing.id,
     existingName: existing.name,
