@@ -136,8 +136,14 @@ export async function countScenariosUsingTerrain(db: Executor, terrainId: string
   const [row] = await db
     .select({ count: sql<number>`count(*)::int` })
     .from(terrainDependents)
-    .innerJoin(scenarios, eq(scenarios.id, terrainDependents.dependentId))
-    .where(and(eq(terrainDependents.terrainId, terrainId), eq(terrainDependents.kind, 'scenario'), isNull(scenarios.deletedAt)));
+    .where(
+      and(
+        eq(terrainDependents.terrainId, terrainId),
+        eq(terrainDependents.kind, 'scenario'),
+        // A deleted scenario (restorable, not yet purged) no longer holds the terrain back.
+        sql`not exists (select 1 from ${scenarios} s where s.id = ${terrainDependents.dependentId} and s.deleted_at is not null)`,
+      ),
+    );
   return row?.count ?? 0;
 }
 

@@ -83,7 +83,8 @@ async function pagesFor(page: Page, role: DemoRole): Promise<string[]> {
     '/board',
     ...(role === 'analyst' ? ['/batch-runs', ...(run ? [`/batch-runs/${run}`] : [])] : []),
     ...(role === 'analyst' || role === 'admin' ? ['/terrain'] : []),
-    ...(role === 'admin' ? ['/admin/people', '/admin/mail', '/admin/network'] : []),
+    ...(role === 'admin' ? ['/admin/people', '/admin/mail', '/admin/network', '/admin/audit'] : []),
+    ...(role === 'planner' || role === 'analyst' || role === 'admin' ? ['/deleted'] : []),
     '/no-such-page',
   ];
 }
