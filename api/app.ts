@@ -21,6 +21,9 @@ export function createApp(givenDeps: AppDeps): Express {
   const deps = withDefaultServices(givenDeps);
   const app = express();
   app.disable('x-powered-by');
+  // API answers are never cached (no-store), so hashing each body for an ETag would only cost the
+  // event loop time (megabytes for a long preview). Tiles set their own ETag; static files too.
+  app.set('etag', false);
   const webDir = resolve(deps.config.WEB_DIR);
   const index = deps.config.WEB_DIR && existsSync(resolve(webDir, 'index.html')) ? WebIndex.load(resolve(webDir, 'index.html')) : null;
   app.use(cspNonce, securityHeaders({ publicUrl: deps.config.PUBLIC_URL, index }));

@@ -44,7 +44,7 @@ export function analysisEndpoints(deps: AppDeps) {
         503: { description: 'Every analysis thread is busy and the queue is full; see Retry-After' },
       },
       handler: async ({ body, res }) => {
-        let json: string;
+        let json: Buffer;
         try {
           json = await analysisPoolFor(deps).analyseToJson(body, deps.sampleElevations);
         } catch (error) {

@@ -51,9 +51,10 @@ export class AnalysisPool {
     return (await this.run(request, sampleElevations, false)) as PreviewResponse;
   }
 
-  /** The engine's response already serialised as JSON by the worker (previews answered as they are). */
-  async analyseToJson(request: PreviewRequestInput, sampleElevations?: ElevationSampler): Promise<string> {
-    return (await this.run(request, sampleElevations, true)) as string;
+  /** The engine's response already serialised as UTF-8 JSON by the worker (previews answered as they are). */
+  async analyseToJson(request: PreviewRequestInput, sampleElevations?: ElevationSampler): Promise<Buffer> {
+    const bytes = (await this.run(request, sampleElevations, true)) as Uint8Array;
+    return Buffer.from(bytes.buffer, bytes.byteOffset, bytes.byteLength);
   }
 
   /** Analyses handed to the pool and not yet settled (running or queued). */
@@ -67,7 +68,7 @@ export class AnalysisPool {
     await pool?.destroy();
   }
 
-  private async run(request: PreviewRequestInput, sampleElevations: ElevationSampler | undefined, asJson: boolean): Promise<PreviewResponse | string> {
+  private async run(request: PreviewRequestInput, sampleElevations: ElevationSampler | undefined, asJson: boolean): Promise<PreviewResponse | Uint8Array> {
     const pool = this.pool;
     if (pool.queueSize >= this.options.maxQueue) throw busyError();
     let samplerFailure: unknown;
@@ -96,6 +97,7 @@ export class AnalysisPool {
       this.runningTasks--;
       channel?.port1.close();
     }
+    if (result instanceof Uint8Array) return result;
     if (!result.ok) throw reviveRefusal(result.refusal);
     return result.response;
   }

@@ -7,7 +7,9 @@
  * Results and refusals go back as plain data: an engine refusal is described (`refusal`) for the
  * API thread to raise again as the same error class; anything else rejects the task.
  */
+import { setPriority } from 'node:os';
 import type { MessagePort } from 'node:worker_threads';
+import { Piscina } from 'piscina';
 import type { PreviewRequestInput, PreviewResponse } from '@shared/domain/analysis';
 import { analyseRoute } from '@shared/engine/analyse-route';
 import { EngineInputError, RouteTooLargeError, UncoveredTerrainError } from '@shared/engine/validation';
@@ -16,7 +18,7 @@ export interface AnalysisTask {
   request: PreviewRequestInput;
   /** Port to the API thread's elevation sampler; absent when no terrain is available. */
   elevationPort?: MessagePort;
-  /** Answer the response as JSON text (serialised here rather than on the API thread). */
+  /** Answer the response as UTF-8 JSON bytes, serialised here and handed over without a copy. */
   asJson: boolean;
 }
 
@@ -35,9 +37,13 @@ export type EngineRefusal =
       maxPoints: number;
     };
 
-export type AnalysisTaskResult =
-  | { ok: true; response: PreviewResponse | string }
-  | { ok: false; refusal: EngineRefusal };
+/** The answer: the response, or (asJson) its UTF-8 JSON bytes moved to the API thread, or a refusal. */
+export type AnalysisTaskResult = { ok: true; response: PreviewResponse } | Uint8Array | { ok: false; refusal: EngineRefusal };
+
+// On Linux a nice value belongs to one thread: this analysis thread yields the CPU to the API
+// thread (which answers everyone else) whenever both want it, instead of sharing it evenly.
+// Nice 10 is the usual background-work setting (common practice).
+if (process.platform === 'linux') setPriority(0, 10);
 
 /** Elevation request on the port: points as [lon, lat] pairs flattened into one array. */
 export interface ElevationQuestion {
@@ -46,12 +52,14 @@ export interface ElevationQuestion {
 /** Elevation answer: NaN where no terrain covers the point, or why sampling failed. */
 export type ElevationAnswer = { ok: true; elevationsM: Float64Array } | { ok: false; message: string };
 
-export default async function analyse(task: AnalysisTask): Promise<AnalysisTaskResult> {
+export default async function analyse(task: AnalysisTask): Promise<AnalysisTaskResult | ReturnType<typeof Piscina.move>> {
   const port = task.elevationPort;
   try {
     const sampleElevations = port ? (points: [number, number][]) => askForElevations(port, points) : undefined;
     const response = await analyseRoute(task.request, { sampleElevations });
-    return { ok: true, response: task.asJson ? JSON.stringify(response) : response };
+    if (!task.asJson) return { ok: true, response };
+    // Moved, not copied: the bytes change owner without the API thread cloning megabytes.
+    return Piscina.move(new TextEncoder().encode(JSON.stringify(response)));
   } catch (error) {
     // Expected: the engine refuses the input (field named) or the terrain leaves gaps. Anything
     // else is a fault and rejects the task.
