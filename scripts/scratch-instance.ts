@@ -133,13 +133,18 @@ export async function waitForHealth(baseUrl: string, child?: ChildProcess, timeo
   throw new Error(`${baseUrl} did not answer within ${timeoutMs / 1000} s`);
 }
 
-/** Restarts the private PostgreSQL cluster (pg_ctl restart), as a database outage. */
-export function restartDatabaseCluster(): void {
+/** Stops the private PostgreSQL cluster for `downtimeMs`, then starts it again: a database outage. */
+export async function restartDatabaseCluster(downtimeMs: number): Promise<void> {
   const dataDir = join(pgSettings.dir, 'data');
   const asPostgres = process.getuid?.() === 0 ? ['runuser', '-u', 'postgres', '--'] : [];
-  const command = [...asPostgres, '/usr/lib/postgresql/15/bin/pg_ctl', '-D', dataDir, '-m', 'fast', '-w', 'restart', '-l', join(pgSettings.dir, 'server.log')];
-  const result = spawnSync(command[0]!, command.slice(1), { encoding: 'utf8' });
-  if (result.status !== 0) throw new Error(`pg_ctl restart failed: ${result.stderr}`);
+  const pgCtl = (...args: string[]) => {
+    const command = [...asPostgres, '/usr/lib/postgresql/15/bin/pg_ctl', '-D', dataDir, ...args];
+    const result = spawnSync(command[0]!, command.slice(1), { encoding: 'utf8' });
+    if (result.status !== 0) throw new Error(`pg_ctl ${args[0]} failed: ${result.stderr}`);
+  };
+  pgCtl('stop', '-m', 'fast', '-w');
+  await new Promise((resolve) => setTimeout(resolve, downtimeMs));
+  pgCtl('start', '-w', '-l', join(pgSettings.dir, 'server.log'));
 }
 
 function postgresAdmin() {

@@ -19,6 +19,11 @@ export function createDatabase(databaseUrl: string, options: DatabaseOptions = {
     max: options.max ?? 10,
     onnotice: () => undefined,
     connect_timeout: options.connectTimeoutS ?? DATABASE_TIMEOUTS.connectTimeoutS,
+    // After failed connection attempts the driver waits before trying again, by default up to
+    // 20 s, and requests queue behind that wait, so they hung long after the database was back.
+    // At most a second between attempts: while the database is away requests fail fast (503),
+    // and the first attempt after it returns succeeds.
+    backoff: (attempt: number) => Math.min(0.1 * 2 ** attempt, 1),
     connection: { statement_timeout: options.statementTimeoutMs ?? DATABASE_TIMEOUTS.statementTimeoutMs },
   });
   const db = drizzle({ client, schema, casing: 'snake_case' });
