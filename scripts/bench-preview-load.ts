@@ -29,7 +29,7 @@ async function main(): Promise<void> {
   const instance = await startScratchInstance('descentry_bench_load');
   try {
     const people = await addPeople(instance, 'planner', 21);
-    const cookies = [];
+    const cookies: string[] = [];
     for (const email of people) cookies.push(await signIn(instance, email));
     const body = JSON.stringify(previewBody());
 
