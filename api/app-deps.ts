@@ -1,4 +1,5 @@
 import type { ElevationSampler } from '@shared/engine/analyse-route';
+import type { RouteAnalyser } from './analysis/analysis-pool';
 import type { Config } from './config';
 import type { Database } from './db/client';
 
@@ -8,4 +9,6 @@ export interface AppDeps {
   config: Config;
   /** Terrain elevation lookup for routes whose coordinates carry no elevation. */
   sampleElevations?: ElevationSampler;
+  /** Runs one route analysis (on the worker threads unless a caller passes its own). */
+  analyse?: RouteAnalyser;
 }

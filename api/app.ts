@@ -7,6 +7,8 @@ import { authenticate } from './auth/authenticate';
 import { requireSameOrigin } from './auth/same-origin';
 import { allEndpoints } from './endpoints';
 import { mountEndpoint } from './http/endpoint';
+import { HeavyRequestLimiter } from './http/heavy-requests';
+import { WebIndex, cspNonce, securityHeaders } from './http/security-headers';
 import { apiNotFound, errorHandler } from './http/error-handler';
 import { buildOpenApiDocument } from './openapi/openapi-document';
 import { withDefaultServices } from './app-services';
@@ -19,7 +21,14 @@ export function createApp(givenDeps: AppDeps): Express {
   const deps = withDefaultServices(givenDeps);
   const app = express();
   app.disable('x-powered-by');
-  app.set('trust proxy', 'loopback');
+  // API answers are never cached (no-store), so hashing each body for an ETag would only cost the
+  // event loop time (megabytes for a long preview). Tiles set their own ETag; static files too.
+  app.set('etag', false);
+  const webDir = resolve(deps.config.WEB_DIR);
+  const index = deps.config.WEB_DIR && existsSync(resolve(webDir, 'index.html')) ? WebIndex.load(resolve(webDir, 'index.html')) : null;
+  app.use(cspNonce, securityHeaders({ publicUrl: deps.config.PUBLIC_URL, index }));
+  // X-Forwarded-For and -Proto are believed only from the proxies TRUST_PROXY names (none by default).
+  app.set('trust proxy', deps.config.TRUST_PROXY);
 
   const endpoints = allEndpoints(deps);
   const openApiDocument = buildOpenApiDocument(endpoints);
@@ -36,20 +45,19 @@ export function createApp(givenDeps: AppDeps): Express {
   api.get('/api/openapi.json', (_req, res) => {
     res.json(openApiDocument);
   });
-  for (const definition of endpoints) mountEndpoint(api, definition);
+  const heavyRequests = new HeavyRequestLimiter(deps.config.HEAVY_REQUESTS_PER_PERSON);
+  for (const definition of endpoints) mountEndpoint(api, definition, { heavyRequests });
   api.use('/api', apiNotFound);
   app.use(api);
 
-  const webDir = resolve(deps.config.WEB_DIR);
-  if (deps.config.WEB_DIR && existsSync(resolve(webDir, 'index.html'))) {
-    app.use(express.static(webDir, { index: false, maxAge: '1h' }));
-    // The Angular router owns every other path. `root` makes `send` check only the file name
-    // for dot-segments, so an installation under a hidden folder (/home/x/.apps/…) still serves it.
-    app.get('/{*splat}', (_req, res, next) => {
+  if (index) {
+    // index.html itself is only ever answered with its nonce (below), never as a plain file.
+    const assets = express.static(webDir, { index: false, maxAge: '1h' });
+    app.use((req, res, next) => (req.path === '/index.html' ? next() : assets(req, res, next)));
+    // The Angular router owns every other path.
+    app.get('/{*splat}', (_req, res) => {
       res.set('Cache-Control', 'no-cache');
-      res.sendFile('index.html', { root: webDir }, (error) => {
-        if (error) next(error);
-      });
+      res.type('html').send(index.render(res.locals['cspNonce'] as string));
     });
   }
 

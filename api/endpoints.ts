@@ -1,6 +1,8 @@
 import { analysisEndpoints } from './analysis/analysis-endpoints';
 import type { AppDeps } from './app-deps';
+import { auditEndpoints } from './audit/audit-endpoints';
 import { batchRunsEndpoints } from './batch-runs/batch-runs-endpoints';
+import { deletedItemsEndpoints } from './deleted-items/deleted-items-endpoints';
 import { boardEndpoints } from './board/board-endpoints';
 import { authEndpoints } from './auth/auth-endpoints';
 import { healthEndpoints } from './health/health-endpoints';
@@ -34,5 +36,7 @@ export function allEndpoints(deps: AppDeps): AnyEndpoint[] {
     ...vehicleProfileEndpoints(deps),
     ...scenarioEndpoints(deps),
     ...terrainEndpoints(deps),
+    ...deletedItemsEndpoints(deps),
+    ...auditEndpoints(deps),
   ];
 }

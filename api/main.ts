@@ -4,7 +4,9 @@ import { createDatabase } from './db/client';
 import { migrateDatabase } from './db/migrate';
 import { createApp } from './app';
 import { withDefaultServices } from './app-services';
+import { closeAnalysisPool } from './analysis/analysis-pool';
 import { startBatchRunWorkers } from './batch-runs/batch-runs-service';
+import { startMaintenance } from './jobs/maintenance';
 import { createSmtpTransport, startMailWorker } from './mail/mail-worker';
 import { startSmtpFake } from './mail/smtp-fake';
 import { startTerrain } from './terrain/terrain-startup';
@@ -12,7 +14,10 @@ import { ensureVehiclePresets } from './vehicle-profiles/vehicle-presets-seed';
 
 const config = loadConfig();
 await migrateDatabase(config.DATABASE_URL);
-const { db, close } = createDatabase(config.DATABASE_URL);
+const { db, close } = createDatabase(config.DATABASE_URL, {
+  connectTimeoutS: config.DB_CONNECT_TIMEOUT_S,
+  statementTimeoutMs: config.DB_STATEMENT_TIMEOUT_MS,
+});
 const deps = withDefaultServices({ db, config });
 // The generic vehicle classes are read-only profiles every environment needs (idempotent).
 await ensureVehiclePresets(db);
@@ -25,11 +30,14 @@ if (config.MAIL_FAKE) {
   console.log(`[mail] local mail catcher on ${config.SMTP_HOST}:${fake.port}`);
 }
 if (config.RUN_WORKERS) {
-  const worker = startMailWorker(db, createSmtpTransport(config), config.MAIL_FROM);
+  const worker = startMailWorker(db, createSmtpTransport(config), { from: config.MAIL_FROM, secret: config.SESSION_SECRET });
   stoppers.push(worker.stop);
 }
 stoppers.push(await startTerrain(deps));
+stoppers.push(() => closeAnalysisPool(deps));
 await startBatchRunWorkers(deps);
+// After the workers: what a crash left half-done is queued again now and every minute.
+if (config.RUN_WORKERS) stoppers.unshift(startMaintenance(deps));
 
 const server = createServer(createApp(deps));
 server.listen(config.PORT, config.HOST, () => {

@@ -9,7 +9,9 @@
  * Each job is handed to one process at a time; the mail outbox is shared with SKIP LOCKED.
  */
 import { withDefaultServices } from './app-services';
+import { closeAnalysisPool } from './analysis/analysis-pool';
 import { startBatchRunWorkers } from './batch-runs/batch-runs-service';
+import { startMaintenance } from './jobs/maintenance';
 import { loadConfig } from './config';
 import { createDatabase } from './db/client';
 import { migrateDatabase } from './db/migrate';
@@ -19,18 +21,24 @@ import { startTerrain } from './terrain/terrain-startup';
 // A worker process always works, whatever RUN_WORKERS says for the API processes.
 const config = { ...loadConfig(), RUN_WORKERS: true };
 await migrateDatabase(config.DATABASE_URL);
-const { db, close } = createDatabase(config.DATABASE_URL);
+const { db, close } = createDatabase(config.DATABASE_URL, {
+  connectTimeoutS: config.DB_CONNECT_TIMEOUT_S,
+  statementTimeoutMs: config.DB_STATEMENT_TIMEOUT_MS,
+});
 const deps = withDefaultServices({ db, config });
 
-const mail = startMailWorker(db, createSmtpTransport(config), config.MAIL_FROM);
+const mail = startMailWorker(db, createSmtpTransport(config), { from: config.MAIL_FROM, secret: config.SESSION_SECRET });
 const stopTerrain = await startTerrain(deps);
 await startBatchRunWorkers(deps);
+const stopMaintenance = startMaintenance(deps);
 console.log('[worker] Descentry worker running: terrain ingestion, batch runs, mail outbox');
 
 async function shutdown(signal: string) {
   console.log(`[worker] ${signal}: shutting down`);
+  await stopMaintenance();
   await mail.stop();
   await stopTerrain();
+  await closeAnalysisPool(deps);
   await close();
   process.exit(0);
 }

@@ -138,7 +138,7 @@ async function benchTiles(): Promise<void> {
     for (const zoom of zooms) {
       const tiles = tilesOver(zoom, tileCount(zoom));
       const cacheDir = join(BENCH_DIR, `tiles-${zoom}`);
-      const cache = new TileCache(cacheDir);
+      const cache = new TileCache(cacheDir, 16 * 1024 ** 3);
       // Each run renders the tiles PASSES times over (cold: from nothing each time), so that a
       // run lasts about as long as a gdaldem run rather than a tenth of a second.
       let coldMs = 0;

@@ -37,7 +37,7 @@ step('Migrating and loading the demo');
 if (runStep(process.execPath, ['--import', 'tsx', 'api/demo/seed-cli.ts'], { env }).status !== 0) process.exit(1);
 
 step('Starting the server');
-const server = await startServer(env);
+let server = await startServer(env);
 console.log(`
   Descentry is running at ${env.PUBLIC_URL}
   PostgreSQL: 127.0.0.1:${pg.port} (cluster in ${pg.dir})
@@ -55,10 +55,36 @@ async function stop() {
 }
 process.on('SIGINT', stop);
 process.on('SIGTERM', stop);
-server.on('exit', (code) => {
-  if (!stopping) {
-    console.error(`The server stopped (exit code ${code}).`);
-    stopDatabase();
-    process.exit(code ?? 1);
-  }
-});
+
+// A server that stops on its own is started again (the database keeps running): what it left
+// half-done is picked up by its start-up recovery. Five stops within ten minutes mean something
+// is wrong that a restart will not fix, so then everything stops.
+const RESTARTS_ALLOWED = 5;
+const RESTART_WINDOW_MS = 10 * 60_000;
+const recentStops = [];
+function superviseServer() {
+  server.on('exit', async (code, signal) => {
+    if (stopping) return;
+    const now = Date.now();
+    recentStops.push(now);
+    while (recentStops[0] < now - RESTART_WINDOW_MS) recentStops.shift();
+    console.error(`The server stopped (${signal ?? `exit code ${code}`}).`);
+    if (recentStops.length > RESTARTS_ALLOWED) {
+      console.error(`It stopped ${recentStops.length} times in ten minutes; stopping everything. See the messages above.`);
+      stopDatabase();
+      process.exit(code ?? 1);
+    }
+    console.error('Starting it again…');
+    await new Promise((resolve) => setTimeout(resolve, 2_000));
+    try {
+      server = await startServer(env);
+      superviseServer();
+      console.error(`Descentry is running again at ${env.PUBLIC_URL}`);
+    } catch (error) {
+      console.error(`It did not start again: ${error instanceof Error ? error.message : error}`);
+      stopDatabase();
+      process.exit(1);
+    }
+  });
+}
+superviseServer();

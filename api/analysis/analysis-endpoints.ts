@@ -4,12 +4,12 @@ import {
   roadLoadRequestSchema,
   roadLoadResponseSchema,
 } from '@shared/domain/analysis';
-import { analyseRoute } from '@shared/engine/analyse-route';
 import { computeRoadLoad } from '@shared/engine/road-load';
-import { UncoveredTerrainError } from '@shared/engine/validation';
+import { RouteTooLargeError, UncoveredTerrainError } from '@shared/engine/validation';
 import type { AppDeps } from '../app-deps';
 import { endpoint } from '../http/endpoint';
 import { HttpError } from '../http/http-error';
+import { analysisPoolFor } from './analysis-pool';
 
 export function analysisEndpoints(deps: AppDeps) {
   return [
@@ -32,21 +32,46 @@ export function analysisEndpoints(deps: AppDeps) {
       tag: 'Analysis',
       access: 'signed-in',
       body: previewRequestSchema,
+      heavy: true,
       responses: {
         200: { description: 'Summary, per-point profile and descents', schema: previewResponseSchema },
-        422: { description: 'The terrain does not cover the route; details list the stretches' },
+        422: {
+          description:
+            'The terrain does not cover the route (details list the stretches), or the route is longer or needs more ' +
+            'resampled points than one analysis takes (details name both limits)',
+        },
+        429: { description: 'The person already has as many heavy requests running as allowed; see Retry-After' },
+        503: { description: 'Every analysis thread is busy and the queue is full; see Retry-After' },
       },
       handler: async ({ body, res }) => {
+        let json: Buffer;
         try {
-          res.json(await analyseRoute(body, { sampleElevations: deps.sampleElevations }));
+          json = await analysisPoolFor(deps).analyseToJson(body, deps.sampleElevations);
         } catch (error) {
-          // Missing terrain is not a malformed request: say which stretches lack coverage.
-          if (error instanceof UncoveredTerrainError) {
-            throw new HttpError(422, 'terrain_not_covered', error.message, { stretches: error.stretches });
-          }
-          throw error;
+          throw asAnalysisRefusal(error);
         }
+        res.type('application/json').send(json);
       },
     }),
   ];
+}
+
+/**
+ * Engine refusals that are not malformed requests, as 422 answers naming what is wrong: terrain
+ * gaps (with the stretches) and routes too large for one analysis (with both limits).
+ */
+export function asAnalysisRefusal(error: unknown): unknown {
+  if (error instanceof UncoveredTerrainError) {
+    return new HttpError(422, 'terrain_not_covered', error.message, { stretches: error.stretches });
+  }
+  if (error instanceof RouteTooLargeError) {
+    return new HttpError(422, 'route_too_large', error.message, {
+      lengthM: error.lengthM,
+      pointCount: error.pointCount,
+      spacingM: error.spacingM,
+      maxLengthM: error.maxLengthM,
+      maxPoints: error.maxPoints,
+    });
+  }
+  return error;
 }

@@ -14,6 +14,7 @@ import { endpoint } from '../http/endpoint';
 import { revokeSession } from './auth-repository';
 import * as authService from './auth-service';
 import { issueSessionCookie, sessionCookieOptions } from './authenticate';
+import { knownDevice, rememberDevice } from './device-cookie';
 import { SESSION_COOKIE } from './session-tokens';
 
 export function authEndpoints(deps: AppDeps) {
@@ -29,14 +30,17 @@ export function authEndpoints(deps: AppDeps) {
       responses: {
         200: { description: 'Signed in', schema: userResponseSchema },
         401: { description: 'Wrong e-mail or password, or account disabled' },
-        429: { description: 'Too many failed attempts; see Retry-After' },
+        429: { description: 'Too many failed attempts for the account or from the address; see Retry-After' },
       },
       handler: async ({ body, req, res }) => {
+        const device = await knownDevice(config.SESSION_SECRET, req);
         const { session, user } = await authService.signIn(deps, body, {
           ip: req.ip ?? 'unknown',
           userAgent: req.get('user-agent'),
+          device,
         });
         await issueSessionCookie(deps, req, res, session);
+        await rememberDevice(config.SESSION_SECRET, req, res, user.email, device);
         res.json({ user });
       },
     }),
@@ -126,9 +130,12 @@ export function authEndpoints(deps: AppDeps) {
       tag: 'Sign-in',
       access: 'public',
       body: passwordResetRequestSchema,
-      responses: { 202: { description: 'If the account exists, a message is on its way', schema: z.object({}) } },
-      handler: async ({ body, res }) => {
-        await authService.requestPasswordReset(deps, body.email);
+      responses: {
+        202: { description: 'If the account exists, a message is on its way', schema: z.object({}) },
+        429: { description: 'Too many requests for this address or from this client; see Retry-After' },
+      },
+      handler: async ({ body, req, res }) => {
+        await authService.requestPasswordReset(deps, body.email, req.ip ?? 'unknown');
         res.status(202).json({});
       },
     }),

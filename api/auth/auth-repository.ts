@@ -1,6 +1,6 @@
-import { and, count, eq, gt, isNull, lt, sql } from 'drizzle-orm';
+import { and, eq, gt, isNull } from 'drizzle-orm';
 import type { Executor } from '../db/client';
-import { accountTokens, loginFailures, sessions, users } from '../db/schema/index';
+import { accountTokens, sessions, users } from '../db/schema/index';
 
 export function findUserByEmail(db: Executor, email: string) {
   return db.query.users.findFirst({ where: eq(users.email, email.toLowerCase()) });
@@ -46,27 +46,6 @@ export async function revokeAllSessions(db: Executor, userId: string) {
     .update(sessions)
     .set({ revokedAt: new Date() })
     .where(and(eq(sessions.userId, userId), isNull(sessions.revokedAt)));
-}
-
-export async function recordLoginFailure(db: Executor, email: string, ip: string) {
-  await db.insert(loginFailures).values({ email, ip });
-}
-
-export async function countRecentFailures(db: Executor, since: Date, by: { email: string } | { ip: string }) {
-  const condition = 'email' in by ? eq(loginFailures.email, by.email) : eq(loginFailures.ip, by.ip);
-  const [row] = await db
-    .select({ failures: count(), oldest: sql<string | null>`min(${loginFailures.failedAt})` })
-    .from(loginFailures)
-    .where(and(condition, gt(loginFailures.failedAt, since)));
-  return { failures: row?.failures ?? 0, oldest: row?.oldest ? new Date(row.oldest) : null };
-}
-
-export async function clearLoginFailures(db: Executor, email: string) {
-  await db.delete(loginFailures).where(eq(loginFailures.email, email));
-}
-
-export async function purgeOldLoginFailures(db: Executor, before: Date) {
-  await db.delete(loginFailures).where(lt(loginFailures.failedAt, before));
 }
 
 export async function insertAccountToken(

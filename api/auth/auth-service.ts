@@ -2,57 +2,58 @@ import type { User } from '@shared/domain/auth';
 import type { AppDeps } from '../app-deps';
 import type { Executor } from '../db/client';
 import { HttpError, UnauthorizedError } from '../http/http-error';
+import type { Config } from '../config';
 import { enqueueMail } from '../mail/outbox';
+import { MAIL_LINK_PLACEHOLDER, sealLink } from '../mail/sealed-link';
 import { RESET_TTL_MINUTES, hashAccountToken, newAccountToken } from './account-tokens';
+import {
+  ACCOUNT_RESET_POLICY,
+  ACCOUNT_SIGN_IN_POLICY,
+  ADDRESS_RESET_POLICY,
+  ADDRESS_SIGN_IN_POLICY,
+  TooManyAttemptsError,
+  accountKey,
+  clearKey,
+  returnAttempt,
+  takeAttempt,
+  type ThrottleKey,
+} from './attempt-throttle';
+import type { KnownDevice } from './device-cookie';
 import * as repository from './auth-repository';
 import { dummyPasswordHash, hashPassword, verifyPassword } from './passwords';
 
-/** Failed sign-ins allowed per account and per address within the window (OWASP: throttle). */
-export const LOGIN_WINDOW_MS = 15 * 60_000;
-export const MAX_FAILURES_PER_ACCOUNT = 5;
-export const MAX_FAILURES_PER_IP = 30;
-
-export class TooManyAttemptsError extends HttpError {
-  constructor(retryAfterS: number) {
-    super(
-      429,
-      'too_many_attempts',
-      `Too many failed sign-ins. Try again in ${Math.ceil(retryAfterS / 60)} minute(s).`,
-      { retryAfterS },
-      { 'Retry-After': String(retryAfterS) },
-    );
-  }
+/** Who is signing in, as far as throttling is concerned. */
+export interface SignInClient {
+  ip: string;
+  userAgent: string | undefined;
+  /** The browser's device cookie, when it has signed in before. */
+  device: KnownDevice | null;
 }
 
-async function assertNotThrottled(db: Executor, email: string, ip: string) {
-  const since = new Date(Date.now() - LOGIN_WINDOW_MS);
-  const byAccount = await repository.countRecentFailures(db, since, { email });
-  const byIp = await repository.countRecentFailures(db, since, { ip });
-  const blocked = [
-    byAccount.failures >= MAX_FAILURES_PER_ACCOUNT ? byAccount.oldest : null,
-    byIp.failures >= MAX_FAILURES_PER_IP ? byIp.oldest : null,
-  ].filter((oldest): oldest is Date => oldest !== null);
-  if (blocked.length > 0) {
-    const until = Math.max(...blocked.map((oldest) => oldest.getTime() + LOGIN_WINDOW_MS));
-    throw new TooManyAttemptsError(Math.max(1, Math.ceil((until - Date.now()) / 1000)));
-  }
-}
+/**
+ * Checks the credentials and opens a session; the same 401 for unknown e-mail and wrong password.
+ * The attempt is counted (per account or known device, and per address) before the password is
+ * checked; past the free attempts the answer is 429 with Retry-After (api/auth/attempt-throttle.ts).
+ */
+export async function signIn({ db, config }: AppDeps, credentials: { email: string; password: string }, client: SignInClient) {
+  const email = credentials.email.toLowerCase();
+  const device = client.device?.email === email ? client.device : null;
+  const accountSide: ThrottleKey = device
+    ? { key: `device:${device.id}`, policy: ACCOUNT_SIGN_IN_POLICY, email }
+    : { key: accountKey(email), policy: ACCOUNT_SIGN_IN_POLICY, email };
+  const addressSide: ThrottleKey = { key: `address:${client.ip}`, policy: ADDRESS_SIGN_IN_POLICY };
+  await takeAttempt(db, [accountSide, addressSide], (retryAfterS) => new TooManyAttemptsError(retryAfterS));
 
-/** Checks the credentials and opens a session; the same 401 for unknown e-mail and wrong password. */
-export async function signIn(
-  { db, config }: AppDeps,
-  credentials: { email: string; password: string },
-  client: { ip: string; userAgent: string | undefined },
-) {
-  await assertNotThrottled(db, credentials.email, client.ip);
-  const user = await repository.findUserByEmail(db, credentials.email);
+  const user = await repository.findUserByEmail(db, email);
   const passwordHash = user?.passwordHash ?? (await dummyPasswordHash());
   const matches = await verifyPassword(passwordHash, credentials.password);
   if (!user || !user.passwordHash || !matches || user.status !== 'active') {
-    await repository.recordLoginFailure(db, credentials.email, client.ip);
     throw new UnauthorizedError('E-mail or password is wrong, or the account is disabled', 'invalid_credentials');
   }
-  await repository.clearLoginFailures(db, credentials.email);
+  // A right password ends the account's count, and was no guess from this address.
+  await clearKey(db, accountSide.key);
+  if (device) await clearKey(db, accountKey(email));
+  await returnAttempt(db, addressSide.key, ADDRESS_SIGN_IN_POLICY);
   await repository.touchLastSignIn(db, user.id);
   const expiresAt = new Date(Date.now() + config.SESSION_TTL_MINUTES * 60_000);
   const session = await repository.createSession(db, user.id, expiresAt, client.userAgent);
@@ -109,21 +110,32 @@ export async function setPasswordWithToken(
 
 /**
  * Queues a reset e-mail when the address belongs to an active account. Answers the same either
- * way, so the form does not reveal who has an account.
+ * way, so the form does not reveal who has an account. Requests are counted per e-mail address
+ * and per client address, known accounts or not, and answered 429 past a few (so fifty requests
+ * in a second queue three e-mails, not fifty).
  */
-export async function requestPasswordReset({ db, config }: AppDeps, email: string) {
+export async function requestPasswordReset({ db, config }: AppDeps, email: string, ip: string) {
+  const address = email.toLowerCase();
+  await takeAttempt(
+    db,
+    [
+      { key: `reset:${address}`, policy: ACCOUNT_RESET_POLICY, email: address },
+      { key: `reset-address:${ip}`, policy: ADDRESS_RESET_POLICY },
+    ],
+    (retryAfterS) => new TooManyAttemptsError(retryAfterS, 'too_many_reset_requests', 'Too many password-reset requests'),
+  );
   const user = await repository.findUserByEmail(db, email);
   if (!user || user.status !== 'active') return;
-  await queuePasswordResetMail(db, config.PUBLIC_URL, user);
+  await queuePasswordResetMail(db, config, user);
 }
 
 export async function queuePasswordResetMail(
   db: Executor,
-  publicUrl: string,
+  config: Pick<Config, 'PUBLIC_URL' | 'SESSION_SECRET'>,
   user: { id: string; email: string; name: string },
 ) {
   const { token, tokenHash } = newAccountToken();
-  const link = new URL(`/reset-password?token=${token}`, publicUrl).toString();
+  const sealedLink = await sealLink(config.SESSION_SECRET, new URL(`/reset-password?token=${token}`, config.PUBLIC_URL).toString());
   await db.transaction(async (tx) => {
     await repository.insertAccountToken(tx, {
       userId: user.id,
@@ -138,10 +150,11 @@ export async function queuePasswordResetMail(
         `Hello ${user.name},`,
         '',
         'Someone asked to reset the password of your Descentry account. To choose a new password, open:',
-        link,
+        MAIL_LINK_PLACEHOLDER,
         '',
         `The link works once and expires in ${RESET_TTL_MINUTES} minutes. If you did not ask for it, ignore this message.`,
       ].join('\n'),
+      sealedLink,
     });
   });
 }

@@ -1,4 +1,4 @@
-import { and, desc, eq, inArray, isNull, notExists, sql } from 'drizzle-orm';
+import { and, desc, eq, inArray, isNull, lt, notExists, sql } from 'drizzle-orm';
 import type { BatchRun } from '@shared/domain/board-summary';
 import type { Executor } from '../db/client';
 import { batchRunItems, batchRuns, type BatchRunItemRow, type BatchRunRow } from '../db/schema/index';
@@ -16,21 +16,74 @@ export async function insertBatchRun(
   return { run: run!, items };
 }
 
-/** Claims a queued item for running; undefined when another worker already took or finished it. */
-export async function claimItem(db: Executor, batchRunId: string, scenarioId: string) {
+const itemOf = (batchRunId: string, scenarioId: string) =>
+  and(eq(batchRunItems.batchRunId, batchRunId), eq(batchRunItems.scenarioId, scenarioId));
+
+/**
+ * Claims a queued item for running under `claimToken`; undefined when another worker already
+ * took or finished it (a job handed out twice runs once).
+ */
+export async function claimItem(db: Executor, batchRunId: string, scenarioId: string, claimToken: string) {
+  const now = new Date();
   const [row] = await db
     .update(batchRunItems)
-    .set({ status: 'running', startedAt: new Date(), error: null })
-    .where(and(eq(batchRunItems.batchRunId, batchRunId), eq(batchRunItems.scenarioId, scenarioId), eq(batchRunItems.status, 'queued')))
+    .set({ status: 'running', startedAt: now, heartbeatAt: now, claimToken, error: null })
+    .where(and(itemOf(batchRunId, scenarioId), eq(batchRunItems.status, 'queued')))
     .returning();
   return row;
 }
 
-export async function finishItem(db: Executor, batchRunId: string, scenarioId: string, outcome: { error: string | null }) {
+/** Renews the heartbeat of an item this worker still holds. */
+export async function beatItem(db: Executor, batchRunId: string, scenarioId: string, claimToken: string) {
   await db
     .update(batchRunItems)
-    .set({ status: outcome.error === null ? 'done' : 'failed', error: outcome.error, finishedAt: new Date() })
-    .where(and(eq(batchRunItems.batchRunId, batchRunId), eq(batchRunItems.scenarioId, scenarioId)));
+    .set({ heartbeatAt: new Date() })
+    .where(and(itemOf(batchRunId, scenarioId), eq(batchRunItems.claimToken, claimToken), eq(batchRunItems.status, 'running')));
+}
+
+/** Records the outcome; false when the claim was lost (the item was queued again and taken by another). */
+export async function finishItem(db: Executor, batchRunId: string, scenarioId: string, claimToken: string, outcome: { error: string | null }) {
+  const finished = await db
+    .update(batchRunItems)
+    .set({ status: outcome.error === null ? 'done' : 'failed', error: outcome.error, finishedAt: new Date(), claimToken: null, heartbeatAt: null })
+    .where(and(itemOf(batchRunId, scenarioId), eq(batchRunItems.claimToken, claimToken), eq(batchRunItems.status, 'running')))
+    .returning({ id: batchRunItems.id });
+  return finished.length === 1;
+}
+
+export async function setItemJob(db: Executor, batchRunId: string, scenarioId: string, jobId: string) {
+  await db.update(batchRunItems).set({ jobId }).where(itemOf(batchRunId, scenarioId));
+}
+
+/**
+ * Puts back in the queue every running item whose heartbeat stopped before `staleBefore` (its
+ * worker died or hung); each row is taken by one sweeper only. Returns them with their old job.
+ */
+export async function releaseStaleItems(db: Executor, staleBefore: Date) {
+  return db
+    .update(batchRunItems)
+    .set({ status: 'queued', claimToken: null, heartbeatAt: null, startedAt: null })
+    .where(and(eq(batchRunItems.status, 'running'), lt(batchRunItems.heartbeatAt, staleBefore)))
+    .returning({ batchRunId: batchRunItems.batchRunId, scenarioId: batchRunItems.scenarioId, jobId: batchRunItems.jobId });
+}
+
+/** Queued items (of runs not yet finished) with the job that should run them. */
+export async function listQueuedItems(db: Executor) {
+  return db
+    .select({ batchRunId: batchRunItems.batchRunId, scenarioId: batchRunItems.scenarioId, jobId: batchRunItems.jobId })
+    .from(batchRunItems)
+    .innerJoin(batchRuns, eq(batchRuns.id, batchRunItems.batchRunId))
+    .where(and(eq(batchRunItems.status, 'queued'), isNull(batchRuns.finishedAt)));
+}
+
+/** Swaps an item's job for a new one only if it is still `expected` (one sweeper re-sends it). */
+export async function replaceItemJob(db: Executor, batchRunId: string, scenarioId: string, expected: string | null, jobId: string) {
+  const replaced = await db
+    .update(batchRunItems)
+    .set({ jobId })
+    .where(and(itemOf(batchRunId, scenarioId), expected === null ? isNull(batchRunItems.jobId) : eq(batchRunItems.jobId, expected)))
+    .returning({ id: batchRunItems.id });
+  return replaced.length === 1;
 }
 
 /**

@@ -24,6 +24,7 @@ export function boardEndpoints(deps: AppDeps) {
       summary: 'The network summary as a printable one-page PDF',
       tag: 'Board',
       access: 'signed-in',
+      heavy: true,
       responses: { 200: { description: 'A4 PDF', contentType: 'application/pdf' } },
       handler: async ({ res }) => {
         const summary = await boardSummary(deps.db);

@@ -6,7 +6,7 @@
  * stored result, the one computed last (ties: the one saved last). One scenario per route, so a
  * route with a summer and a winter variant in service is not counted twice.
  */
-import { and, desc, eq, inArray, isNotNull, sql } from 'drizzle-orm';
+import { and, desc, eq, inArray, isNotNull, isNull, sql } from 'drizzle-orm';
 import type { BoardSummary, RouteYear } from '@shared/domain/board-summary';
 import type { Descent } from '@shared/domain/analysis';
 import { OPEN_REVIEW_STATES } from '@shared/domain/reviews';
@@ -98,7 +98,7 @@ async function inServiceScenarios(db: Executor) {
       and(eq(roadRouteVersions.routeId, scenarios.routeId), eq(roadRouteVersions.version, roadRoutes.currentVersion)),
     )
     .innerJoin(vehicleProfiles, eq(vehicleProfiles.id, scenarios.vehicleProfileId))
-    .where(and(eq(scenarios.inService, true), isNotNull(scenarios.summary), isNotNull(scenarios.computedAt)))
+    .where(and(eq(scenarios.inService, true), isNull(scenarios.deletedAt), isNotNull(scenarios.summary), isNotNull(scenarios.computedAt)))
     .orderBy(scenarios.routeId, desc(scenarios.computedAt), desc(scenarios.updatedAt));
   return rows
     .map((row) => ({ ...row, summary: row.summary!, computedAt: row.computedAt!, directionResults: row.directionResults ?? [] }))

@@ -7,7 +7,10 @@ import { seedDemo } from './seed';
 
 const config = loadConfig();
 await migrateDatabase(config.DATABASE_URL);
-const { db, close } = createDatabase(config.DATABASE_URL);
+const { db, close } = createDatabase(config.DATABASE_URL, {
+  connectTimeoutS: config.DB_CONNECT_TIMEOUT_S,
+  statementTimeoutMs: config.DB_STATEMENT_TIMEOUT_MS,
+});
 try {
   // Demo routes without their own elevations take them from the demo terrain.
   await seedDemo(withDefaultServices({ db, config }));

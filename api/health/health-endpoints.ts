@@ -26,7 +26,7 @@ export function healthEndpoints({ db }: AppDeps) {
           res.json({ status: 'ok', db: 'ok' });
         } catch {
           // Any failure to reach the database within 2 s means "down" for the load balancer.
-          res.status(503).json({ status: 'degraded', db: 'down' });
+          res.status(503).set('Retry-After', '5').json({ status: 'degraded', db: 'down' });
         }
       },
     }),

@@ -44,6 +44,11 @@ export interface Endpoint<TBody = unknown, TQuery = unknown, TParams = unknown> 
   responses: Record<number, EndpointResponse>;
   /** Runs after the access check and before input parsing (uploads, for instance). */
   middleware?: RequestHandler[];
+  /**
+   * Whether the endpoint does heavy work (an analysis, an import, an upload, a report): each
+   * person may have only a few such requests in flight at once (HEAVY_REQUESTS_PER_PERSON).
+   */
+  heavy?: boolean;
   handler: (input: EndpointInput<TBody, TQuery, TParams>) => Promise<void> | void;
 }
 
@@ -58,7 +63,12 @@ export function endpoint<TBody = undefined, TQuery = undefined, TParams = undefi
 // eslint-disable-next-line @typescript-eslint/no-explicit-any
 export type AnyEndpoint = Endpoint<any, any, any>;
 
-export function mountEndpoint(router: Router, definition: AnyEndpoint): void {
+export interface MountOptions {
+  /** Guards endpoints marked `heavy`. */
+  heavyRequests?: { middleware(): RequestHandler };
+}
+
+export function mountEndpoint(router: Router, definition: AnyEndpoint, options: MountOptions = {}): void {
   const handler: RequestHandler = async (req, res) => {
     const input: EndpointInput<unknown, unknown, unknown> = {
       params: definition.params ? definition.params.parse(req.params) : req.params,
@@ -73,6 +83,7 @@ export function mountEndpoint(router: Router, definition: AnyEndpoint): void {
   router[definition.method](
     definition.path,
     requireRole(definition.access),
+    ...(definition.heavy && options.heavyRequests ? [options.heavyRequests.middleware()] : []),
     ...(definition.middleware ?? []),
     handler,
   );

@@ -1,7 +1,11 @@
 import type { ErrorRequestHandler, RequestHandler } from 'express';
 import { z } from 'zod';
 import type { ApiError } from '@shared/domain/api-error';
+import { databaseErrorCode, isDatabaseUnavailable } from '../db/errors';
 import { HttpError } from './http-error';
+
+/** Retry-After while the database is away, s (a PostgreSQL restart takes a few seconds). */
+const DATABASE_RETRY_AFTER_S = 5;
 
 /** 404 in the error shape for any /api path no router answered. */
 export const apiNotFound: RequestHandler = (req, res) => {
@@ -48,6 +52,19 @@ export const errorHandler: ErrorRequestHandler = (error: unknown, req, res, _nex
   if (isClientError(error)) {
     res.status(error.status).json({
       error: { code: error.type ?? 'bad_request', message: describeClientError(error) },
+    } satisfies ApiError);
+    return;
+  }
+  if (isDatabaseUnavailable(error)) {
+    // The database is restarting, unreachable or overloaded: the request may simply be repeated.
+    console.error(`[api] ${req.method} ${req.originalUrl}: database unavailable (${databaseErrorCode(error)})`);
+    res.set('Retry-After', String(DATABASE_RETRY_AFTER_S));
+    res.status(503).json({
+      error: {
+        code: 'database_unavailable',
+        message: 'The database is not reachable right now; try again in a few seconds.',
+        details: { retryAfterS: DATABASE_RETRY_AFTER_S },
+      },
     } satisfies ApiError);
     return;
   }

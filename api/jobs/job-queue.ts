@@ -1,3 +1,4 @@
+import { randomUUID } from 'node:crypto';
 import PgBoss from 'pg-boss';
 
 /**
@@ -9,38 +10,45 @@ import PgBoss from 'pg-boss';
  *
  * How a feature uses it:
  *
+ *   const POLICY = { retryLimit: 0, expireInSeconds: 600 };   // one per kind of job
  *   // once, where the feature wires itself (api/main.ts when RUN_WORKERS):
- *   await jobs.registerWorker<{ scenarioId: string }>('scenario-batch-run', async (data) => {
+ *   await jobs.registerWorker<{ scenarioId: string }>('scenario-batch-run', async (data, jobId) => {
  *     await runBatch(deps, data.scenarioId);   // throw to fail the attempt; it is retried
- *   });
+ *   }, POLICY);
  *   // wherever work is requested:
- *   await jobs.send('scenario-batch-run', { scenarioId });
+ *   const jobId = await jobs.send('scenario-batch-run', { scenarioId }, POLICY);
  *
  * Handlers must be idempotent: a job whose process died is handed out again after
- * `expireInSeconds`, and a failed attempt is retried up to `retryLimit` times.
+ * `expireInSeconds`, and a failed attempt is retried up to `retryLimit` times. Work that must
+ * not wait that long records a heartbeat while it runs, and the maintenance sweep
+ * (api/jobs/maintenance.ts) re-queues what has stopped beating.
  * Job names: kebab-case, the feature first (`terrain-ingest`, `scenario-batch-run`).
  */
 export interface JobQueue {
-  /** Queues a job; resolves once it is stored (or, inline, once it has run). */
-  send(name: string, data: object, options?: JobOptions): Promise<void>;
+  /** Queues a job with its kind's policy; resolves with the job's id once it is stored (or, inline, once it has started). */
+  send(name: string, data: object, policy: JobPolicy): Promise<string>;
   /** Runs `handler` for every job of that name, one at a time per process. */
-  registerWorker<TData extends object>(
-    name: string,
-    handler: (data: TData) => Promise<void>,
-    options?: JobOptions,
-  ): Promise<void>;
+  registerWorker<TData extends object>(name: string, handler: (data: TData, jobId: string) => Promise<void>, policy: JobPolicy): Promise<void>;
+  /** Where a job stands and when it started; null once the queue has forgotten it (archived long ago) or never had it. */
+  jobState(name: string, jobId: string): Promise<{ state: JobState; startedOn: Date | null } | null>;
+  /** Takes a job out of the queue (a job whose worker died while it was active). */
+  cancel(name: string, jobId: string): Promise<void>;
   stop(): Promise<void>;
 }
 
-export interface JobOptions {
-  /** Attempts after the first failure (default 2). */
-  retryLimit?: number;
-  /** Seconds before a running job counts as lost and is handed out again (default 1 hour). */
-  expireInSeconds?: number;
+export type JobState = 'created' | 'retry' | 'active' | 'completed' | 'cancelled' | 'failed';
+
+/**
+ * How the queue treats one kind of job. Every send and the worker use the same policy (stored on
+ * the queue too), so a job never runs on another kind's defaults.
+ */
+export interface JobPolicy {
+  /** Attempts after the first failure. */
+  retryLimit: number;
+  /** Seconds before a running job counts as lost: it is then retried, or failed past the retry limit. */
+  expireInSeconds: number;
 }
 
-const DEFAULT_RETRY_LIMIT = 2;
-const DEFAULT_EXPIRE_SECONDS = 60 * 60;
 /** The job queue's own schema; the application's migrations never touch it. */
 export const JOB_QUEUE_SCHEMA = 'pgboss';
 
@@ -53,35 +61,42 @@ export async function startJobQueue(databaseUrl: string): Promise<JobQueue> {
     // Look for new jobs every 2 s: ingestion should start promptly after an upload.
     pollingIntervalSeconds: 2,
   } as PgBoss.ConstructorOptions);
-  boss.on('error', (error) => console.error('[jobs] queue error:', error));
+  boss.on('error', (error) => console.error('[jobs] queue error:', error instanceof Error ? error.message : error));
   await boss.start();
 
-  const ensured = new Set<string>();
-  async function ensureQueue(name: string, options: JobOptions = {}) {
-    if (ensured.has(name)) return;
-    if (!(await boss.getQueue(name))) {
-      await boss.createQueue(name, {
-        name,
-        retryLimit: options.retryLimit ?? DEFAULT_RETRY_LIMIT,
-        expireInSeconds: options.expireInSeconds ?? DEFAULT_EXPIRE_SECONDS,
-      });
+  const ensured = new Map<string, JobPolicy>();
+  async function ensureQueue(name: string, policy: JobPolicy) {
+    const known = ensured.get(name);
+    if (known && known.retryLimit === policy.retryLimit && known.expireInSeconds === policy.expireInSeconds) return;
+    const existing = await boss.getQueue(name);
+    if (!existing) {
+      await boss.createQueue(name, { name, ...policy });
+    } else if (existing.retryLimit !== policy.retryLimit || existing.expireInSeconds !== policy.expireInSeconds) {
+      // A queue made under an older policy (pg-boss keeps it in its schema) follows the current one.
+      await boss.updateQueue(name, { name, ...policy });
     }
-    ensured.add(name);
+    ensured.set(name, policy);
   }
 
   return {
-    async send(name, data, options = {}) {
-      await ensureQueue(name, options);
-      await boss.send(name, data, {
-        retryLimit: options.retryLimit ?? DEFAULT_RETRY_LIMIT,
-        expireInSeconds: options.expireInSeconds ?? DEFAULT_EXPIRE_SECONDS,
+    async send(name, data, policy) {
+      await ensureQueue(name, policy);
+      const id = await boss.send(name, data, { ...policy });
+      if (!id) throw new Error(`The job queue did not accept a "${name}" job`);
+      return id;
+    },
+    async registerWorker(name, handler, policy) {
+      await ensureQueue(name, policy);
+      await boss.work<never>(name, { batchSize: 1, pollingIntervalSeconds: 2 }, async (jobs) => {
+        for (const job of jobs) await handler(job.data, job.id);
       });
     },
-    async registerWorker(name, handler, options = {}) {
-      await ensureQueue(name, options);
-      await boss.work<never>(name, { batchSize: 1, pollingIntervalSeconds: 2 }, async (jobs) => {
-        for (const job of jobs) await handler(job.data);
-      });
+    async jobState(name, jobId) {
+      const job = await boss.getJobById(name, jobId, { includeArchive: true });
+      return job ? { state: job.state, startedOn: job.startedOn ?? null } : null;
+    },
+    async cancel(name, jobId) {
+      await boss.cancel(name, jobId);
     },
     async stop() {
       await boss.stop({ graceful: true, timeout: 10_000 });
@@ -95,19 +110,36 @@ export async function startJobQueue(databaseUrl: string): Promise<JobQueue> {
  * `idle()` resolves when every job sent so far has finished.
  */
 export function createInlineJobQueue(): JobQueue & { idle(): Promise<void> } {
-  const handlers = new Map<string, (data: never) => Promise<void>>();
+  const handlers = new Map<string, (data: never, jobId: string) => Promise<void>>();
   const running = new Set<Promise<void>>();
+  const states = new Map<string, { state: JobState; startedOn: Date | null }>();
   return {
     async send(name, data) {
       const handler = handlers.get(name);
       if (!handler) throw new Error(`No worker registered for job "${name}"`);
-      const run = handler(data as never)
-        .catch((error: unknown) => console.error(`[jobs] inline job ${name} failed:`, error))
+      const id = randomUUID();
+      const startedOn = new Date();
+      states.set(id, { state: 'active', startedOn });
+      const run = handler(data as never, id)
+        .then(
+          () => void states.set(id, { state: 'completed', startedOn }),
+          (error: unknown) => {
+            states.set(id, { state: 'failed', startedOn });
+            console.error(`[jobs] inline job ${name} failed:`, error);
+          },
+        )
         .finally(() => running.delete(run));
       running.add(run);
+      return id;
     },
     async registerWorker(name, handler) {
-      handlers.set(name, handler as (data: never) => Promise<void>);
+      handlers.set(name, handler as (data: never, jobId: string) => Promise<void>);
+    },
+    async jobState(_name, jobId) {
+      return states.get(jobId) ?? null;
+    },
+    async cancel(_name, jobId) {
+      states.set(jobId, { state: 'cancelled', startedOn: states.get(jobId)?.startedOn ?? null });
     },
     async idle() {
       while (running.size > 0) await Promise.all([...running]);

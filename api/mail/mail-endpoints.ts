@@ -2,6 +2,7 @@ import { capturedMailListSchema, outgoingMailListSchema } from '@shared/domain/m
 import type { AppDeps } from '../app-deps';
 import { endpoint } from '../http/endpoint';
 import { listCapturedMail, listOutbox } from './outbox';
+import { maskLinkTokens } from './sealed-link';
 
 export function mailEndpoints({ db }: AppDeps) {
   return [
@@ -19,7 +20,8 @@ export function mailEndpoints({ db }: AppDeps) {
             id: row.id,
             to: row.toAddress,
             subject: row.subject,
-            textBody: row.textBody,
+            // Stored bodies hold no live link (sealed beside them); older rows are masked all the same.
+            textBody: maskLinkTokens(row.textBody),
             status: row.status,
             attempts: row.attempts,
             lastError: row.lastError,
@@ -44,7 +46,9 @@ export function mailEndpoints({ db }: AppDeps) {
             from: row.fromAddress,
             to: row.toAddress,
             subject: row.subject,
-            textBody: row.textBody,
+            // What the catcher received is the recipient's copy: its links would let an
+            // administrator act as that person, so their tokens are hidden here.
+            textBody: maskLinkTokens(row.textBody),
             receivedAt: row.receivedAt.toISOString(),
           })),
         });

@@ -8,7 +8,6 @@ import {
 } from '@shared/domain/people';
 import type { AppDeps } from '../app-deps';
 import { endpoint } from '../http/endpoint';
-import { listPeople, toPerson } from './people-repository';
 import * as peopleService from './people-service';
 
 export function peopleEndpoints(deps: AppDeps) {
@@ -21,7 +20,7 @@ export function peopleEndpoints(deps: AppDeps) {
       access: ['admin'],
       responses: { 200: { description: 'People', schema: personListSchema } },
       handler: async ({ res }) => {
-        res.json({ items: (await listPeople(deps.db)).map(toPerson) });
+        res.json({ items: await peopleService.listPeople(deps) });
       },
     }),
     endpoint({
@@ -51,6 +50,18 @@ export function peopleEndpoints(deps: AppDeps) {
       responses: { 200: { description: 'Updated', schema: personSchema } },
       handler: async ({ params, body, user, res }) => {
         res.json(await peopleService.updatePerson(deps, user!.id, params.personId, body));
+      },
+    }),
+    endpoint({
+      method: 'post',
+      path: '/api/people/:personId/unblock-sign-in',
+      summary: 'Lift the slow-down that failed sign-ins put on an account (and its reset-request count)',
+      tag: 'People',
+      access: ['admin'],
+      params: personIdParamsSchema,
+      responses: { 200: { description: 'The person, no longer slowed down', schema: personSchema } },
+      handler: async ({ params, res }) => {
+        res.json(await peopleService.liftSignInLimit(deps, params.personId));
       },
     }),
     endpoint({

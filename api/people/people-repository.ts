@@ -17,7 +17,7 @@ export async function updatePerson(db: Executor, personId: string, update: Parti
   return row;
 }
 
-export function toPerson(row: UserRow): Person {
+export function toPerson(row: UserRow, signIn: { failedAttempts: number; slowedUntil: Date | null } = NOT_THROTTLED): Person {
   return {
     id: row.id,
     email: row.email,
@@ -26,5 +26,8 @@ export function toPerson(row: UserRow): Person {
     status: row.status,
     createdAt: row.createdAt.toISOString(),
     lastSignInAt: row.lastSignInAt?.toISOString() ?? null,
+    signIn: { failedAttempts: signIn.failedAttempts, slowedUntil: signIn.slowedUntil?.toISOString() ?? null },
   };
 }
+
+const NOT_THROTTLED = { failedAttempts: 0, slowedUntil: null };

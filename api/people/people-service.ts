@@ -5,18 +5,45 @@ import { findUserByEmail, findUserById, insertAccountToken, revokeAllSessions } 
 import { queuePasswordResetMail } from '../auth/auth-service';
 import { ConflictError, HttpError, NotFoundError } from '../http/http-error';
 import { enqueueMail } from '../mail/outbox';
+import { MAIL_LINK_PLACEHOLDER, sealLink } from '../mail/sealed-link';
 import { ROLE_LABELS } from '@shared/domain/roles';
 import * as repository from './people-repository';
+import type { Person } from '@shared/domain/people';
+import type { Executor } from '../db/client';
+import type { UserRow } from '../db/schema/index';
+import { accountSignInStates, clearAccount } from '../auth/attempt-throttle';
+import { isUniqueViolation } from '../db/errors';
+
+/** Everyone with an account, with their sign-in slow-down if any. */
+export async function listPeople({ db }: AppDeps): Promise<Person[]> {
+  const rows = await repository.listPeople(db);
+  const states = await accountSignInStates(db, rows.map((row) => row.email));
+  return rows.map((row) => repository.toPerson(row, states.get(row.email)));
+}
+
+async function personWithState(db: Executor, row: UserRow): Promise<Person> {
+  return repository.toPerson(row, (await accountSignInStates(db, [row.email])).get(row.email));
+}
+
+/** Lifts the sign-in slow-down of an account (and its reset-request count). */
+export async function liftSignInLimit({ db }: AppDeps, personId: string): Promise<Person> {
+  const person = await findUserById(db, personId);
+  if (!person) throw new NotFoundError('Person');
+  await clearAccount(db, person.email);
+  return personWithState(db, person);
+}
 
 /** Creates the person and queues their invitation in one transaction. */
 export async function invitePerson({ db, config }: AppDeps, invitedBy: { name: string }, request: InviteRequest) {
-  if (await findUserByEmail(db, request.email)) {
-    throw new ConflictError(`${request.email} already has an account`, 'email_taken');
-  }
+  const taken = () => new ConflictError(`${request.email} already has an account`, 'email_taken');
+  if (await findUserByEmail(db, request.email)) throw taken();
   const { token, tokenHash } = newAccountToken();
-  const link = new URL(`/accept-invite?token=${token}`, config.PUBLIC_URL).toString();
+  const sealedLink = await sealLink(config.SESSION_SECRET, new URL(`/accept-invite?token=${token}`, config.PUBLIC_URL).toString());
   const row = await db.transaction(async (tx) => {
-    const person = await repository.insertPerson(tx, request);
+    // Two invitations for one address at the same moment: the unique e-mail index lets one in.
+    const person = await repository.insertPerson(tx, request).catch((error: unknown) => {
+      throw isUniqueViolation(error) ? taken() : error;
+    });
     await insertAccountToken(tx, {
       userId: person.id,
       kind: 'invite',
@@ -31,14 +58,15 @@ export async function invitePerson({ db, config }: AppDeps, invitedBy: { name: s
         '',
         `${invitedBy.name} has invited you to Descentry as ${ROLE_LABELS[person.role].toLowerCase()}.`,
         'To choose your password and sign in, open:',
-        link,
+        MAIL_LINK_PLACEHOLDER,
         '',
         `The link works once and expires in ${INVITE_TTL_HOURS} hours.`,
       ].join('\n'),
+      sealedLink,
     });
     return person;
   });
-  return repository.toPerson(row);
+  return personWithState(db, row);
 }
 
 export async function updatePerson({ db }: AppDeps, actorId: string, personId: string, update: UpdatePersonRequest) {
@@ -58,7 +86,7 @@ export async function updatePerson({ db }: AppDeps, actorId: string, personId: s
     }
     return updated!;
   });
-  return repository.toPerson(row);
+  return personWithState(db, row);
 }
 
 export async function sendPasswordReset({ db, config }: AppDeps, personId: string) {
@@ -67,5 +95,5 @@ export async function sendPasswordReset({ db, config }: AppDeps, personId: strin
   if (person.status !== 'active') {
     throw new ConflictError('Only active accounts can reset their password', 'not_active');
   }
-  await queuePasswordResetMail(db, config.PUBLIC_URL, person);
+  await queuePasswordResetMail(db, config, person);
 }

@@ -44,6 +44,7 @@ export function reviewsEndpoints(deps: AppDeps) {
       summary: 'Acknowledge, mitigate (and re-run), accept with a reason, or reopen a review item',
       tag: 'Descent review',
       access: ['safety'],
+      heavy: true,
       params: reviewIdParamsSchema,
       body: reviewTransitionRequestSchema,
       responses: {

@@ -6,6 +6,7 @@
  */
 import type { DirectionResult } from '@shared/domain/scenarios';
 import type { AppDeps } from '../app-deps';
+import { analyserOf } from '../app-services';
 import { ConflictError, NotFoundError } from '../http/http-error';
 import * as routes from '../road-routes/road-routes-repository';
 import { runScenario } from '../scenarios/scenario-run';
@@ -42,7 +43,7 @@ export const rerunWithMitigation: MitigatedRerun = async (deps, scenarioId, over
     startSoc: overrides.startSocCeiling === undefined ? row.startSoc : Math.min(row.startSoc, overrides.startSocCeiling),
     options: { ...row.options, ...(cap === undefined ? {} : { descentSpeedCapKph: cap }) },
   };
-  const outcome = await runScenario(routeVersion, profiles.toVehicleProfile(profileRow), settings, deps.sampleElevations);
+  const outcome = await runScenario(routeVersion, profiles.toVehicleProfile(profileRow), settings, analyserOf(deps));
   if (!outcome.ok) {
     throw new ConflictError(`The mitigated re-run could not be computed: ${outcome.failureReason}`, 'rerun_failed');
   }

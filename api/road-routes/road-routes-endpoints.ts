@@ -86,8 +86,9 @@ export function roadRouteEndpoints(deps: AppDeps) {
       summary: 'Import one route from a GeoJSON (.geojson/.json) or GPX 1.1 (.gpx) file',
       tag: TAG,
       access: PLANNERS,
+      heavy: true,
       multipartBody: routeImportMultipartSchema,
-      middleware: [singleFileUpload()],
+      middleware: singleFileUpload(),
       responses: {
         201: { description: 'Created: the route and where its elevations come from', schema: routeImportResultSchema },
         400: { description: 'The file cannot be read; the message names the file, line and field. Nothing is created.' },
@@ -112,8 +113,9 @@ export function roadRouteEndpoints(deps: AppDeps) {
       summary: 'Import a GTFS feed (zip): one route per GTFS route, with stops, dwell and trips per day',
       tag: TAG,
       access: PLANNERS,
+      heavy: true,
       multipartBody: gtfsImportMultipartSchema,
-      middleware: [singleFileUpload()],
+      middleware: singleFileUpload(),
       responses: {
         201: { description: 'Created routes', schema: roadRouteImportListSchema },
         400: { description: 'The feed cannot be read; the message names the file and line. Nothing is created.' },
@@ -151,14 +153,26 @@ export function roadRouteEndpoints(deps: AppDeps) {
     endpoint({
       method: 'delete',
       path: '/api/routes/:routeId',
-      summary: 'Delete a route with all its versions; 409 while scenarios use it',
+      summary: 'Delete a route with all its versions (restorable for 30 days); 409 while scenarios use it',
       tag: TAG,
       access: PLANNERS,
       params: routeIdParamsSchema,
       responses: { 204: { description: 'Deleted' }, 409: { description: 'Scenarios use the route (details.scenarioCount)' } },
-      handler: async ({ params, res }) => {
-        await service.deleteRoute(deps.db, params.routeId);
+      handler: async ({ params, user, res }) => {
+        await service.deleteRoute(deps.db, authorOf(user!), params.routeId);
         res.status(204).end();
+      },
+    }),
+    endpoint({
+      method: 'post',
+      path: '/api/routes/:routeId/restore',
+      summary: 'Restore a deleted route (within the retention period) as it was',
+      tag: TAG,
+      access: PLANNERS,
+      params: routeIdParamsSchema,
+      responses: { 200: { description: 'The route, back', schema: roadRouteSchema }, 404: { description: 'No deleted route with that id' } },
+      handler: async ({ params, user, res }) => {
+        res.json(await service.restoreRoute(deps.db, authorOf(user!), params.routeId));
       },
     }),
     endpoint({
@@ -170,8 +184,8 @@ export function roadRouteEndpoints(deps: AppDeps) {
       params: routeIdParamsSchema,
       responses: { 200: { description: 'Versions', schema: roadRouteVersionListSchema } },
       handler: async ({ params, res }) => {
+        if (!(await repository.findRoute(deps.db, params.routeId))) throw new NotFoundError('The route');
         const rows = await repository.listVersions(deps.db, params.routeId);
-        if (rows.length === 0) throw new NotFoundError('The route');
         res.json({ items: rows.map((row) => ({ ...row, createdAt: row.createdAt.toISOString() })) });
       },
     }),
@@ -213,8 +227,9 @@ export function roadRouteEndpoints(deps: AppDeps) {
       summary: 'Replace the reference road network (GeoJSON FeatureCollection of LineString/MultiLineString roads, as JSON or multipart file)',
       tag: TAG,
       access: ANALYSTS,
+      heavy: true,
       multipartBody: roadNetworkMultipartSchema,
-      middleware: [singleFileUpload()],
+      middleware: singleFileUpload(),
       responses: {
         201: { description: 'Stored', schema: roadNetworkUploadResultSchema },
         400: { description: 'Not a FeatureCollection of lines; the message names the feature index and field' },

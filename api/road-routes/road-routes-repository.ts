@@ -1,4 +1,4 @@
-import { and, asc, desc, eq, ilike, or, sql, type SQL } from 'drizzle-orm';
+import { and, asc, desc, eq, ilike, isNull, or, sql, type SQL } from 'drizzle-orm';
 import type { LineString } from '@shared/domain/analysis';
 import type { RoadRoute, RoadRouteSummary, RouteListQuery } from '@shared/domain/road-routes';
 import type { Executor } from '../db/client';
@@ -55,9 +55,16 @@ export async function insertVersion(db: Executor, routeId: string, version: numb
   return row!;
 }
 
-/** Locks the route row for a new version, so two saves cannot both become version n + 1. */
-export async function lockRoute(db: Executor, routeId: string): Promise<RoadRouteRow | undefined> {
-  const [row] = await db.select().from(roadRoutes).where(eq(roadRoutes.id, routeId)).for('update');
+/**
+ * Locks the route row for a new version, so two saves cannot both become version n + 1.
+ * A deleted route is found only with `includeDeleted` (to restore it).
+ */
+export async function lockRoute(db: Executor, routeId: string, includeDeleted = false): Promise<RoadRouteRow | undefined> {
+  const [row] = await db
+    .select()
+    .from(roadRoutes)
+    .where(and(eq(roadRoutes.id, routeId), includeDeleted ? undefined : isNull(roadRoutes.deletedAt)))
+    .for('update');
   return row;
 }
 
@@ -65,8 +72,9 @@ export async function setCurrentVersion(db: Executor, routeId: string, version: 
   await db.update(roadRoutes).set({ currentVersion: version }).where(eq(roadRoutes.id, routeId));
 }
 
+/** The route unless it is deleted. */
 export async function findRoute(db: Executor, routeId: string) {
-  const [row] = await db.select().from(roadRoutes).where(eq(roadRoutes.id, routeId));
+  const [row] = await db.select().from(roadRoutes).where(and(eq(roadRoutes.id, routeId), isNull(roadRoutes.deletedAt)));
   return row;
 }
 
@@ -97,16 +105,30 @@ export function listVersions(db: Executor, routeId: string) {
     .orderBy(desc(roadRouteVersions.version));
 }
 
-export async function deleteRoute(db: Executor, routeId: string) {
+/** Hides the route (restorable until the purge). */
+export async function markRouteDeleted(db: Executor, routeId: string, by: { id: string | null; name: string }) {
+  await db.update(roadRoutes).set({ deletedAt: new Date(), deletedById: by.id, deletedByName: by.name }).where(eq(roadRoutes.id, routeId));
+}
+
+export async function markRouteRestored(db: Executor, routeId: string) {
+  await db.update(roadRoutes).set({ deletedAt: null, deletedById: null, deletedByName: null }).where(eq(roadRoutes.id, routeId));
+}
+
+/** Removes the route with its versions for good (the purge). */
+export async function purgeRoute(db: Executor, routeId: string) {
   await db.delete(roadRoutes).where(eq(roadRoutes.id, routeId));
 }
 
+/** Scenarios (not deleted) that use the route. */
 export async function countScenariosUsingRoute(db: Executor, routeId: string): Promise<number> {
-  const [row] = await db.select({ n: sql<number>`count(*)::int` }).from(scenarios).where(eq(scenarios.routeId, routeId));
+  const [row] = await db
+    .select({ n: sql<number>`count(*)::int` })
+    .from(scenarios)
+    .where(and(eq(scenarios.routeId, routeId), isNull(scenarios.deletedAt)));
   return row?.n ?? 0;
 }
 
-const scenarioCount = sql<number>`(select count(*)::int from ${scenarios} where ${scenarios.routeId} = ${roadRoutes.id})`;
+const scenarioCount = sql<number>`(select count(*)::int from ${scenarios} where ${scenarios.routeId} = ${roadRoutes.id} and ${scenarios.deletedAt} is null)`;
 
 /** Current versions of the routes matching the query, with the total count before paging. */
 export async function listRoutes(db: Executor, query: RouteListQuery): Promise<{ items: RoadRouteSummary[]; total: number }> {
@@ -115,7 +137,7 @@ export async function listRoutes(db: Executor, query: RouteListQuery): Promise<{
     const pattern = `%${query.q.replace(/[\\%_]/g, (c) => `\\${c}`)}%`;
     conditions.push(or(ilike(roadRouteVersions.name, pattern), ilike(roadRouteVersions.description, pattern))!);
   }
-  const where = and(eq(roadRouteVersions.version, roadRoutes.currentVersion), ...conditions);
+  const where = and(eq(roadRouteVersions.version, roadRoutes.currentVersion), isNull(roadRoutes.deletedAt), ...conditions);
   const sortColumn = {
     name: roadRouteVersions.name,
     updatedAt: roadRoutes.updatedAt,

@@ -2,6 +2,7 @@ import type { User } from '@shared/domain/auth';
 import type { RoadRoute, RoadRouteDraft } from '@shared/domain/road-routes';
 import type { Database, Executor } from '../db/client';
 import { BadRequestError, ConflictError, NotFoundError } from '../http/http-error';
+import { recordAudit } from '../audit/audit-log';
 import * as repository from './road-routes-repository';
 import { clipSpeedLimits, lineLengthM, placeStops, StopOffLineError } from './route-geometry';
 
@@ -58,6 +59,7 @@ export async function createRoute(db: Executor, author: Author, draft: RoadRoute
   const run = async (tx: Executor) => {
     const route = await repository.insertRoute(tx, { createdById: author.id, seedKey });
     const version = await repository.insertVersion(tx, route.id, 1, content);
+    await recordAudit(tx, author, { action: 'create', kind: 'route', entityId: route.id, entityName: content.name, details: { version: 1 } });
     return repository.toRoadRoute(version, route.updatedAt);
   };
   return (db as Database).transaction(run);
@@ -71,6 +73,7 @@ export async function createRoutes(db: Database, author: Author, drafts: RoadRou
     for (const content of contents) {
       const route = await repository.insertRoute(tx, { createdById: author.id, importSha256: drafts.length === 1 ? importSha256 : undefined });
       const version = await repository.insertVersion(tx, route.id, 1, content);
+      await recordAudit(tx, author, { action: 'create', kind: 'route', entityId: route.id, entityName: content.name, details: { version: 1, imported: true } });
       saved.push(repository.toRoadRoute(version, route.updatedAt));
     }
     return saved;
@@ -86,6 +89,7 @@ export async function saveVersion(db: Database, author: Author, routeId: string,
     const next = route.currentVersion + 1;
     const version = await repository.insertVersion(tx, routeId, next, content);
     await repository.setCurrentVersion(tx, routeId, next);
+    await recordAudit(tx, author, { action: 'update', kind: 'route', entityId: routeId, entityName: content.name, details: { version: next } });
     return repository.toRoadRoute(version);
   });
 }
@@ -99,7 +103,8 @@ export async function getRoute(db: Executor, routeId: string, version?: number):
   return repository.toRoadRoute(row, version === undefined ? route.updatedAt : row.createdAt);
 }
 
-export async function deleteRoute(db: Database, routeId: string): Promise<void> {
+/** Deletes a route, restorably: it is hidden everywhere and removed for good after the retention period. */
+export async function deleteRoute(db: Database, actor: Author, routeId: string): Promise<void> {
   await db.transaction(async (tx) => {
     const route = await repository.lockRoute(tx, routeId);
     if (!route) throw new NotFoundError('The route');
@@ -111,6 +116,20 @@ export async function deleteRoute(db: Database, routeId: string): Promise<void> 
         { scenarioCount: used },
       );
     }
-    await repository.deleteRoute(tx, routeId);
+    const current = await repository.findVersion(tx, routeId, route.currentVersion);
+    await repository.markRouteDeleted(tx, routeId, actor);
+    await recordAudit(tx, actor, { action: 'delete', kind: 'route', entityId: routeId, entityName: current?.name ?? routeId });
   });
+}
+
+/** Brings a deleted route back as it was. */
+export async function restoreRoute(db: Database, actor: Author, routeId: string): Promise<RoadRoute> {
+  await db.transaction(async (tx) => {
+    const route = await repository.lockRoute(tx, routeId, true);
+    if (!route?.deletedAt) throw new NotFoundError('A deleted route with that id');
+    const current = await repository.findVersion(tx, routeId, route.currentVersion);
+    await repository.markRouteRestored(tx, routeId);
+    await recordAudit(tx, actor, { action: 'restore', kind: 'route', entityId: routeId, entityName: current?.name ?? routeId });
+  });
+  return getRoute(db, routeId);
 }

@@ -19,11 +19,11 @@
 import type { PreviewRequestInput, Summary } from '@shared/domain/analysis';
 import type { DirectionResult, ScenarioDraft } from '@shared/domain/scenarios';
 import type { VehicleProfile } from '@shared/domain/vehicle-profiles';
-import { analyseRoute, type ElevationSampler } from '@shared/engine/analyse-route';
 import { advanceBrakeTemperatureC, brakeConvectionWPerM2K } from '@shared/engine/brake-thermal';
 import { ENGINE_VERSION } from '@shared/engine/constants';
 import { combineDirections } from '@shared/engine/summary';
 import { EngineInputError, UncoveredTerrainError } from '@shared/engine/validation';
+import type { RouteAnalyser } from '../analysis/analysis-pool';
 import type { RouteVersion } from '../road-routes/road-routes-repository';
 import { engineSpeedLimits, mirrorRoute } from '../road-routes/route-geometry';
 
@@ -77,7 +77,7 @@ export async function runScenario(
   route: RouteVersion,
   profile: VehicleProfile,
   settings: ScenarioSettings,
-  sampleElevations?: ElevationSampler,
+  analyse: RouteAnalyser,
 ): Promise<RunOutcome> {
   const inputs: RunInputs = { directions: [] };
   const order: ('outbound' | 'inbound')[] =
@@ -107,7 +107,7 @@ export async function runScenario(
     const request = directionRequest(route, direction, profile, settings, startSoc, initialBrakeTempC);
     inputs.directions.push({ direction, request });
     try {
-      const response = await analyseRoute(request, { sampleElevations });
+      const response = await analyse(request);
       results.push({
         direction,
         summary: response.summary,

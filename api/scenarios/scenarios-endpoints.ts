@@ -40,6 +40,7 @@ export function scenarioEndpoints(deps: AppDeps) {
       summary: 'Save a scenario and compute it (a run that fails, e.g. for missing terrain, is saved with status "failed" and the reason)',
       tag: TAG,
       access: EDITORS,
+      heavy: true,
       body: scenarioDraftSchema,
       responses: {
         201: { description: 'Saved and computed', schema: scenarioSchema },
@@ -80,24 +81,41 @@ export function scenarioEndpoints(deps: AppDeps) {
       summary: 'Change a scenario and recompute it',
       tag: TAG,
       access: EDITORS,
+      heavy: true,
       params: scenarioIdParamsSchema,
       body: scenarioDraftSchema,
       responses: { 200: { description: 'Saved and computed', schema: scenarioSchema } },
-      handler: async ({ params, body, res }) => {
-        res.json(await service.updateScenario(deps, params.scenarioId, body));
+      handler: async ({ params, body, user, res }) => {
+        res.json(await service.updateScenario(deps, service.authorOf(user!), params.scenarioId, body));
       },
     }),
     endpoint({
       method: 'delete',
       path: '/api/scenarios/:scenarioId',
-      summary: 'Delete a scenario and its result',
+      summary: 'Delete a scenario and its result (restorable for 30 days)',
       tag: TAG,
       access: EDITORS,
       params: scenarioIdParamsSchema,
       responses: { 204: { description: 'Deleted' } },
-      handler: async ({ params, res }) => {
-        await service.deleteScenario(deps.db, params.scenarioId);
+      handler: async ({ params, user, res }) => {
+        await service.deleteScenario(deps.db, service.authorOf(user!), params.scenarioId);
         res.status(204).end();
+      },
+    }),
+    endpoint({
+      method: 'post',
+      path: '/api/scenarios/:scenarioId/restore',
+      summary: 'Restore a deleted scenario (within the retention period) with its settings and last result',
+      tag: TAG,
+      access: EDITORS,
+      params: scenarioIdParamsSchema,
+      responses: {
+        200: { description: 'The scenario, back', schema: scenarioSchema },
+        404: { description: 'No deleted scenario with that id' },
+        409: { description: 'Its route or vehicle profile is deleted too (restore that first)' },
+      },
+      handler: async ({ params, user, res }) => {
+        res.json(await service.restoreScenario(deps.db, service.authorOf(user!), params.scenarioId));
       },
     }),
     endpoint({
@@ -106,6 +124,7 @@ export function scenarioEndpoints(deps: AppDeps) {
       summary: 'Re-run now (an unpinned scenario moves to the route’s latest version); clears staleness',
       tag: TAG,
       access: EDITORS,
+      heavy: true,
       params: scenarioIdParamsSchema,
       responses: { 200: { description: 'The scenario after the run (status done or failed)', schema: scenarioSchema } },
       handler: async ({ params, res }) => {
@@ -161,6 +180,7 @@ export function scenarioEndpoints(deps: AppDeps) {
       summary: 'PDF report: inputs, summary, descents with risk and advice, caution, elevation and brake-temperature chart',
       tag: TAG,
       access: 'signed-in',
+      heavy: true,
       params: scenarioIdParamsSchema,
       responses: { 200: { description: 'PDF (attachment)', contentType: 'application/pdf' } },
       handler: async ({ params, res }) => {

@@ -1,4 +1,4 @@
-import { and, asc, eq, getTableColumns, inArray, type SQL } from 'drizzle-orm';
+import { and, asc, eq, getTableColumns, inArray, isNull, lt, type SQL } from 'drizzle-orm';
 import type { Scenario, ScenarioListQuery } from '@shared/domain/scenarios';
 import { ENGINE_VERSION } from '@shared/engine/constants';
 import type { Executor } from '../db/client';
@@ -34,7 +34,7 @@ function selectWithContext(db: Executor) {
 }
 
 export async function listScenarios(db: Executor, query: ScenarioListQuery): Promise<ScenarioWithContext[]> {
-  const conditions: SQL[] = [];
+  const conditions: SQL[] = [isNull(scenarios.deletedAt)];
   if (query.routeId) conditions.push(eq(scenarios.routeId, query.routeId));
   if (query.vehicleProfileId) conditions.push(eq(scenarios.vehicleProfileId, query.vehicleProfileId));
   if (query.inService !== undefined) conditions.push(eq(scenarios.inService, query.inService));
@@ -44,21 +44,29 @@ export async function listScenarios(db: Executor, query: ScenarioListQuery): Pro
 }
 
 export async function findScenarioWithContext(db: Executor, id: string): Promise<ScenarioWithContext | undefined> {
-  const [row] = await selectWithContext(db).where(eq(scenarios.id, id));
+  const [row] = await selectWithContext(db).where(and(eq(scenarios.id, id), isNull(scenarios.deletedAt)));
   return row as ScenarioWithContext | undefined;
 }
 
 export async function findScenariosWithContext(db: Executor, ids: string[]): Promise<ScenarioWithContext[]> {
-  return (await selectWithContext(db).where(inArray(scenarios.id, ids))) as ScenarioWithContext[];
+  return (await selectWithContext(db).where(and(inArray(scenarios.id, ids), isNull(scenarios.deletedAt)))) as ScenarioWithContext[];
 }
 
-export async function findScenarioRow(db: Executor, id: string): Promise<ScenarioRow | undefined> {
-  const [row] = await db.select().from(scenarios).where(eq(scenarios.id, id));
+/** The scenario unless it is deleted (or, with `includeDeleted`, either way). */
+export async function findScenarioRow(db: Executor, id: string, includeDeleted = false): Promise<ScenarioRow | undefined> {
+  const [row] = await db
+    .select()
+    .from(scenarios)
+    .where(and(eq(scenarios.id, id), includeDeleted ? undefined : isNull(scenarios.deletedAt)));
   return row;
 }
 
-export async function lockScenario(db: Executor, id: string): Promise<ScenarioHead | undefined> {
-  const [row] = await db.select(scenarioColumns).from(scenarios).where(eq(scenarios.id, id)).for('update');
+export async function lockScenario(db: Executor, id: string, includeDeleted = false): Promise<ScenarioHead | undefined> {
+  const [row] = await db
+    .select(scenarioColumns)
+    .from(scenarios)
+    .where(and(eq(scenarios.id, id), includeDeleted ? undefined : isNull(scenarios.deletedAt)))
+    .for('update');
   return row as ScenarioHead | undefined;
 }
 
@@ -71,7 +79,30 @@ export async function updateScenario(db: Executor, id: string, values: Partial<t
   await db.update(scenarios).set({ ...values, updatedAt: new Date() }).where(eq(scenarios.id, id));
 }
 
-export async function deleteScenario(db: Executor, id: string) {
+/**
+ * Scenarios left "running" since before `staleBefore`: their run stopped with its process (a run
+ * takes seconds). They are marked failed with a reason and keep their last good result.
+ */
+export async function failInterruptedRuns(db: Executor, staleBefore: Date): Promise<number> {
+  const failed = await db
+    .update(scenarios)
+    .set({ status: 'failed', failureReason: 'the run stopped before it finished (the server was restarted); run it again', updatedAt: new Date() })
+    .where(and(eq(scenarios.status, 'running'), lt(scenarios.updatedAt, staleBefore), isNull(scenarios.deletedAt)))
+    .returning({ id: scenarios.id });
+  return failed.length;
+}
+
+/** Hides the scenario (restorable until the purge). */
+export async function markScenarioDeleted(db: Executor, id: string, by: { id: string | null; name: string }) {
+  await db.update(scenarios).set({ deletedAt: new Date(), deletedById: by.id, deletedByName: by.name }).where(eq(scenarios.id, id));
+}
+
+export async function markScenarioRestored(db: Executor, id: string) {
+  await db.update(scenarios).set({ deletedAt: null, deletedById: null, deletedByName: null }).where(eq(scenarios.id, id));
+}
+
+/** Removes the scenario for good (the purge). */
+export async function purgeScenario(db: Executor, id: string) {
   await db.delete(scenarios).where(eq(scenarios.id, id));
 }
 

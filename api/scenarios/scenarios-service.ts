@@ -1,11 +1,12 @@
 import type { User } from '@shared/domain/auth';
 import type { RiskLevel } from '@shared/domain/analysis';
 import type { Scenario, ScenarioDraft, ScenarioResult } from '@shared/domain/scenarios';
-import type { ElevationSampler } from '@shared/engine/analyse-route';
 import { ENGINEERING_CAUTION } from '@shared/engine/constants';
 import type { AppDeps } from '../app-deps';
+import { analyserOf } from '../app-services';
 import type { Database } from '../db/client';
-import { BadRequestError, HttpError, NotFoundError } from '../http/http-error';
+import { type Actor, recordAudit } from '../audit/audit-log';
+import { BadRequestError, ConflictError, HttpError, NotFoundError } from '../http/http-error';
 import { syncReviewItems } from '../reviews/review-sync';
 import { replaceScenarioTerrainUse } from '../terrain/terrain-repository';
 import * as routes from '../road-routes/road-routes-repository';
@@ -28,7 +29,8 @@ async function resolveReferences(db: Database, draft: ScenarioDraft) {
 }
 
 /** Computes and stores the result of a saved scenario (synchronous: a 50 km route takes milliseconds). */
-async function computeAndStore(db: Database, scenarioId: string, sampleElevations?: ElevationSampler): Promise<void> {
+async function computeAndStore(deps: AppDeps, scenarioId: string): Promise<void> {
+  const { db } = deps;
   const row = await repository.findScenarioRow(db, scenarioId);
   if (!row) throw new NotFoundError('The scenario');
   const routeVersion = await routes.findVersion(db, row.routeId, row.routeVersion);
@@ -44,8 +46,13 @@ async function computeAndStore(db: Database, scenarioId: string, sampleElevation
   };
   let outcome;
   try {
-    outcome = await runScenario(routeVersion, profile, row, sampleElevations);
+    outcome = await runScenario(routeVersion, profile, row, analyserOf(deps));
   } catch (error) {
+    // Busy analysis threads: the run did not happen; say so and keep the last good result.
+    if (error instanceof HttpError && error.status === 503) {
+      await repository.updateScenario(db, scenarioId, { status: 'failed', failureReason: error.message });
+      return;
+    }
     // Anything else is a fault on our side: record it so the scenario does not stay "running".
     console.error(`[scenarios] run of ${scenarioId} failed:`, error);
     await repository.updateScenario(db, scenarioId, {
@@ -90,19 +97,23 @@ export async function getScenario(db: Database, id: string): Promise<Scenario> {
 }
 
 export async function createScenario(
-  deps: Pick<AppDeps, 'db' | 'sampleElevations'>,
+  deps: AppDeps,
   author: { id: string | null; name: string },
   draft: ScenarioDraft,
   seedKey?: string,
 ): Promise<Scenario> {
-  const row = await repository.insertScenario(deps.db, {
-    ...(await draftColumns(deps.db, draft)),
-    status: 'queued',
-    createdById: author.id,
-    createdByName: author.name,
-    seedKey: seedKey ?? null,
+  const row = await deps.db.transaction(async (tx) => {
+    const inserted = await repository.insertScenario(tx, {
+      ...(await draftColumns(deps.db, draft)),
+      status: 'queued',
+      createdById: author.id,
+      createdByName: author.name,
+      seedKey: seedKey ?? null,
+    });
+    await recordAudit(tx, author, { action: 'create', kind: 'scenario', entityId: inserted.id, entityName: inserted.name });
+    return inserted;
   });
-  await computeAndStore(deps.db, row.id, deps.sampleElevations);
+  await computeAndStore(deps, row.id);
   return getScenario(deps.db, row.id);
 }
 
@@ -125,11 +136,15 @@ async function draftColumns(db: Database, draft: ScenarioDraft) {
 }
 
 /** Saves changed settings and recomputes. */
-export async function updateScenario(deps: Pick<AppDeps, 'db' | 'sampleElevations'>, id: string, draft: ScenarioDraft): Promise<Scenario> {
+export async function updateScenario(deps: AppDeps, actor: Actor, id: string, draft: ScenarioDraft): Promise<Scenario> {
   const existing = await repository.findScenarioWithContext(deps.db, id);
   if (!existing) throw new NotFoundError('The scenario');
-  await repository.updateScenario(deps.db, id, await draftColumns(deps.db, draft));
-  await computeAndStore(deps.db, id, deps.sampleElevations);
+  const columns = await draftColumns(deps.db, draft);
+  await deps.db.transaction(async (tx) => {
+    await repository.updateScenario(tx, id, columns);
+    await recordAudit(tx, actor, { action: 'update', kind: 'scenario', entityId: id, entityName: columns.name });
+  });
+  await computeAndStore(deps, id);
   return getScenario(deps.db, id);
 }
 
@@ -137,23 +152,47 @@ export async function updateScenario(deps: Pick<AppDeps, 'db' | 'sampleElevation
  * Re-runs on demand: an unpinned scenario moves to the route's latest version first; the
  * profile and engine are always the current ones. This clears staleness.
  */
-export async function rerunScenario(deps: Pick<AppDeps, 'db' | 'sampleElevations'>, id: string): Promise<Scenario> {
+export async function rerunScenario(deps: AppDeps, id: string): Promise<Scenario> {
   const existing = await repository.findScenarioWithContext(deps.db, id);
   if (!existing) throw new NotFoundError('The scenario');
   if (!existing.scenario.routeVersionPinned && existing.scenario.routeVersion !== existing.latestRouteVersion) {
     await repository.updateScenario(deps.db, id, { routeVersion: existing.latestRouteVersion });
   }
-  await computeAndStore(deps.db, id, deps.sampleElevations);
+  await computeAndStore(deps, id);
   return getScenario(deps.db, id);
 }
 
-export async function deleteScenario(db: Database, id: string): Promise<void> {
-  const existing = await repository.findScenarioRow(db, id);
-  if (!existing) throw new NotFoundError('The scenario');
+/**
+ * Deletes a scenario, restorably: hidden everywhere (lists, the board, network runs) and removed
+ * for good after the retention period. What it recorded about terrain use stays with it, but a
+ * deleted scenario no longer holds terrain back from deletion.
+ */
+export async function deleteScenario(db: Database, actor: Actor, id: string): Promise<void> {
   await db.transaction(async (tx) => {
-    await replaceScenarioTerrainUse(tx, id, null);
-    await repository.deleteScenario(tx, id);
+    const existing = await repository.lockScenario(tx, id);
+    if (!existing) throw new NotFoundError('The scenario');
+    await repository.markScenarioDeleted(tx, id, actor);
+    await recordAudit(tx, actor, { action: 'delete', kind: 'scenario', entityId: id, entityName: existing.name });
   });
+}
+
+/** Brings a deleted scenario back with its settings and last result; its route and vehicle profile must exist. */
+export async function restoreScenario(db: Database, actor: Actor, id: string): Promise<Scenario> {
+  await db.transaction(async (tx) => {
+    const existing = await repository.lockScenario(tx, id, true);
+    if (!existing?.deletedAt) throw new NotFoundError('A deleted scenario with that id');
+    if (!(await routes.findRoute(tx, existing.routeId))) {
+      throw new ConflictError('Its route is deleted too; restore the route first', 'route_deleted', { routeId: existing.routeId });
+    }
+    if (!(await profiles.findProfile(tx, existing.vehicleProfileId))) {
+      throw new ConflictError('Its vehicle profile is deleted too; restore the profile first', 'vehicle_profile_deleted', {
+        vehicleProfileId: existing.vehicleProfileId,
+      });
+    }
+    await repository.markScenarioRestored(tx, id);
+    await recordAudit(tx, actor, { action: 'restore', kind: 'scenario', entityId: id, entityName: existing.name });
+  });
+  return getScenario(db, id);
 }
 
 export async function getResult(db: Database, id: string): Promise<ScenarioResult> {

@@ -17,8 +17,9 @@ import {
 import type { AppDeps } from '../app-deps';
 import { endpoint } from '../http/endpoint';
 import { BadRequestError, HttpError } from '../http/http-error';
+import { uploadLimit } from '../http/upload-limit';
 import { sampleElevations } from './elevation-sampler';
-import { acceptTerrainUpload, deleteTerrain, getTerrainModel, listTerrain } from './terrain-service';
+import { acceptTerrainUpload, deleteTerrain, getTerrainModel, listTerrain, restoreTerrain } from './terrain-service';
 import { terrainRuntimeFor } from './terrain-runtime';
 import type { HashedUpload } from './terrain-storage';
 import { hashingDiskStorage } from './terrain-storage';
@@ -29,7 +30,7 @@ const TAG = 'Terrain';
 
 export function terrainEndpoints(deps: AppDeps) {
   const runtime = terrainRuntimeFor(deps);
-  const tileCache = new TileCache(runtime.storage.tilesDir);
+  const tileCache = new TileCache(runtime.storage.tilesDir, deps.config.TILE_CACHE_MAX_MB * 1024 * 1024);
 
   return [
     endpoint({
@@ -38,8 +39,9 @@ export function terrainEndpoints(deps: AppDeps) {
       summary: 'Upload a GeoTIFF elevation model; ingestion continues in the background',
       tag: TAG,
       access: ['analyst', 'admin'],
+      heavy: true,
       multipartBody: terrainUploadMultipartSchema,
-      middleware: [terrainUpload(deps)],
+      middleware: terrainUpload(deps),
       responses: {
         201: { description: 'Accepted; status "processing" until ingestion finishes', schema: terrainUploadAcceptedSchema },
         400: { description: 'Missing file or name, truncated or corrupt TIFF, or no georeferencing' },
@@ -81,6 +83,7 @@ export function terrainEndpoints(deps: AppDeps) {
       summary: 'Elevations at WGS 84 points from the ready terrain models',
       tag: TAG,
       access: 'signed-in',
+      heavy: true,
       body: elevationSampleRequestSchema,
       responses: {
         200: { description: 'One elevation (m) or null per point, in order', schema: elevationSampleResponseSchema },
@@ -106,7 +109,7 @@ export function terrainEndpoints(deps: AppDeps) {
     endpoint({
       method: 'delete',
       path: '/api/terrain/:terrainId',
-      summary: 'Delete a terrain model and its files',
+      summary: 'Delete a terrain model (restorable for 30 days; its files are removed then)',
       tag: TAG,
       access: ['analyst', 'admin'],
       params: terrainIdParamsSchema,
@@ -120,6 +123,18 @@ export function terrainEndpoints(deps: AppDeps) {
       handler: async ({ params, query, user, res }) => {
         await deleteTerrain(deps, user!, params.terrainId, query.force);
         res.status(204).end();
+      },
+    }),
+    endpoint({
+      method: 'post',
+      path: '/api/terrain/:terrainId/restore',
+      summary: 'Restore a deleted terrain model (within the retention period) into the catalogue',
+      tag: TAG,
+      access: ['analyst', 'admin'],
+      params: terrainIdParamsSchema,
+      responses: { 200: { description: 'The model, back', schema: terrainModelSchema }, 404: { description: 'No deleted model with that id' } },
+      handler: async ({ params, user, res }) => {
+        res.json(await restoreTerrain(deps, user!, params.terrainId));
       },
     }),
     endpoint({
@@ -160,6 +175,8 @@ export function terrainEndpoints(deps: AppDeps) {
         }
         const png = (await renderTerrainTile(runtime.blocks, catalogue.models, zoom, x, y)) ?? transparentTile();
         res.send(png);
+        // Where no terrain is there is nothing to keep: every empty tile is the same shared PNG.
+        if (png === transparentTile()) return;
         // The cache is written after the answer: the map does not wait for the disk.
         tileCache.write(catalogue.version, zoom, x, y, png).catch((error: unknown) => console.error(`[terrain] caching tile ${zoom}/${x}/${y} failed:`, error));
       },
@@ -171,25 +188,25 @@ export function terrainEndpoints(deps: AppDeps) {
  * multer with the hashing disk storage and the configured size limit; its errors become API
  * errors here (413 for a file over the limit, 400 for a malformed form).
  */
-function terrainUpload(deps: AppDeps): RequestHandler {
+function terrainUpload(deps: AppDeps): RequestHandler[] {
+  const tooLarge = () =>
+    new HttpError(413, 'upload_too_large', `The file is larger than the ${formatBytes(deps.config.TERRAIN_MAX_UPLOAD_BYTES)} upload limit`);
+  const limit = uploadLimit(deps.config.TERRAIN_MAX_UPLOAD_BYTES, tooLarge);
   const upload = multer({
     storage: hashingDiskStorage(terrainRuntimeFor(deps).storage),
     limits: { fileSize: deps.config.TERRAIN_MAX_UPLOAD_BYTES, files: 1, fields: 5 },
-  }).single('file');
-  return (req, res, next) => {
+    streamHandler: limit.streamHandler,
+  } as multer.Options).single('file');
+  return [limit.precheck, (req, res, next) => {
     upload(req, res, (error: unknown) => {
       if (!error) return next();
       if (error instanceof multer.MulterError) {
-        if (error.code === 'LIMIT_FILE_SIZE') {
-          return next(
-            new HttpError(413, 'upload_too_large', `The file is larger than the ${formatBytes(deps.config.TERRAIN_MAX_UPLOAD_BYTES)} upload limit`),
-          );
-        }
+        if (error.code === 'LIMIT_FILE_SIZE') return next(tooLarge());
         return next(new BadRequestError(`The upload form is not valid: ${error.message}`, { field: error.field }, 'invalid_upload'));
       }
       next(error);
     });
-  };
+  }];
 }
 
 function formatBytes(bytes: number): string {

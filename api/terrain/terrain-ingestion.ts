@@ -4,12 +4,16 @@ import type { AppDeps } from '../app-deps';
 import type { TerrainOverviewLevel } from '../db/schema/terrain';
 import type { TerrainSource } from './block-store';
 import { PyramidBuilder } from './terrain-pyramid';
-import { findTerrainModel, updateTerrainModel } from './terrain-repository';
+import { beatIngestion, claimIngestion, findTerrainModel, updateTerrainModel } from './terrain-repository';
 import { terrainRuntimeFor } from './terrain-runtime';
 import { StatisticsAccumulator, spikeThresholdM, type TerrainStatistics } from './terrain-statistics';
 
 /** Name of the background job that ingests one uploaded model. */
 export const TERRAIN_INGEST_JOB = 'terrain-ingest';
+/** How often a running ingestion says it is alive, ms. */
+export const INGEST_HEARTBEAT_MS = 15_000;
+/** Silence after which an ingestion counts as abandoned and is queued again, ms. */
+export const INGEST_STALE_MS = 4 * INGEST_HEARTBEAT_MS;
 export interface TerrainIngestJob {
   terrainId: string;
 }
@@ -20,18 +24,25 @@ const BAND_ROWS = 256;
 /**
  * Ingests one model: statistics and the reduced pyramid in a single pass over the grid, band by
  * band, then the row becomes "ready" (or "failed" with the reason). Idempotent: a model that is
- * no longer "processing" is left alone, and a rerun after a crash simply overwrites the pyramid.
+ * no longer "processing", or whose ingestion another worker is running (its heartbeat is
+ * fresh), is left alone, and a rerun after a crash simply overwrites the pyramid.
  */
-export async function ingestTerrainModel(deps: AppDeps, terrainId: string): Promise<void> {
+export async function ingestTerrainModel(deps: AppDeps, terrainId: string, jobId: string): Promise<void> {
   const runtime = terrainRuntimeFor(deps);
+  if (!(await claimIngestion(deps.db, terrainId, jobId, new Date(Date.now() - INGEST_STALE_MS)))) return;
   const row = await findTerrainModel(deps.db, terrainId);
   if (!row || row.status !== 'processing') return;
   const source = runtime.sourceFromRow(row);
+  const heartbeat = setInterval(() => {
+    // A missed beat (database briefly away) is made up by the next one.
+    beatIngestion(deps.db, terrainId, jobId).catch(() => undefined);
+  }, INGEST_HEARTBEAT_MS);
   try {
     const { statistics, overviews } = await scanGrid(deps, source);
     await updateTerrainModel(deps.db, terrainId, {
       status: 'ready',
       failureReason: null,
+      ingestHeartbeatAt: null,
       minElevationM: statistics.minElevationM,
       maxElevationM: statistics.maxElevationM,
       nodataShare: statistics.nodataShare,
@@ -45,8 +56,11 @@ export async function ingestTerrainModel(deps: AppDeps, terrainId: string): Prom
     const message = error instanceof Error ? error.message : String(error);
     await updateTerrainModel(deps.db, terrainId, {
       status: 'failed',
+      ingestHeartbeatAt: null,
       failureReason: `The pixel data could not be read: ${message}`,
     });
+  } finally {
+    clearInterval(heartbeat);
   }
   runtime.invalidateCatalogue();
 }

@@ -1,8 +1,8 @@
-import { and, asc, eq, getTableColumns, sql } from 'drizzle-orm';
+import { and, asc, eq, getTableColumns, isNull, lt, or, sql } from 'drizzle-orm';
 import type { Polygon, TerrainModel } from '@shared/domain/terrain';
 import type { Executor } from '../db/client';
 import { lookupEpsg } from './crs-registry';
-import { terrainDependents, terrainModels, users, type TerrainModelRow } from '../db/schema/index';
+import { scenarios, terrainDependents, terrainModels, users, type TerrainModelRow } from '../db/schema/index';
 
 type NewTerrainRow = typeof terrainModels.$inferInsert;
 
@@ -25,12 +25,13 @@ export async function insertTerrainModel(db: Executor, row: NewTerrainRow): Prom
   await db.insert(terrainModels).values(row);
 }
 
-export async function findTerrainModel(db: Executor, id: string): Promise<TerrainRowWithExtras | undefined> {
+/** The model unless it is deleted (or, with `includeDeleted`, either way). */
+export async function findTerrainModel(db: Executor, id: string, includeDeleted = false): Promise<TerrainRowWithExtras | undefined> {
   const [row] = await db
     .select(selection)
     .from(terrainModels)
     .leftJoin(users, eq(users.id, terrainModels.uploadedById))
-    .where(eq(terrainModels.id, id));
+    .where(and(eq(terrainModels.id, id), includeDeleted ? undefined : isNull(terrainModels.deletedAt)));
   return row;
 }
 
@@ -39,6 +40,7 @@ export async function listTerrainModels(db: Executor): Promise<TerrainRowWithExt
     .select(selection)
     .from(terrainModels)
     .leftJoin(users, eq(users.id, terrainModels.uploadedById))
+    .where(isNull(terrainModels.deletedAt))
     .orderBy(asc(terrainModels.name), asc(terrainModels.createdAt));
 }
 
@@ -47,21 +49,61 @@ export async function listReadyTerrainRows(db: Executor): Promise<TerrainRowWith
     .select(selection)
     .from(terrainModels)
     .leftJoin(users, eq(users.id, terrainModels.uploadedById))
-    .where(eq(terrainModels.status, 'ready'))
+    .where(and(eq(terrainModels.status, 'ready'), isNull(terrainModels.deletedAt)))
     .orderBy(asc(terrainModels.resolutionM), asc(terrainModels.createdAt));
 }
 
-export async function findTerrainBySha256(db: Executor, sha256: string): Promise<{ id: string; name: string } | undefined> {
+/** The model holding a file, deleted or not (the same file may be in the catalogue only once). */
+export async function findTerrainBySha256(db: Executor, sha256: string): Promise<{ id: string; name: string; deletedAt: Date | null } | undefined> {
   const [row] = await db
-    .select({ id: terrainModels.id, name: terrainModels.name })
+    .select({ id: terrainModels.id, name: terrainModels.name, deletedAt: terrainModels.deletedAt })
     .from(terrainModels)
     .where(eq(terrainModels.sha256, sha256));
   return row;
 }
 
-export async function listProcessingTerrainIds(db: Executor): Promise<string[]> {
-  const rows = await db.select({ id: terrainModels.id }).from(terrainModels).where(eq(terrainModels.status, 'processing'));
-  return rows.map((row) => row.id);
+/** Models still being ingested, with their job and heartbeat. */
+export async function listProcessingTerrain(db: Executor) {
+  return db
+    .select({ id: terrainModels.id, ingestJobId: terrainModels.ingestJobId, ingestHeartbeatAt: terrainModels.ingestHeartbeatAt })
+    .from(terrainModels)
+    .where(and(eq(terrainModels.status, 'processing'), isNull(terrainModels.deletedAt)));
+}
+
+/**
+ * Takes a model's ingestion for `jobId`: true unless another job's ingestion of it is alive
+ * (heartbeat after `staleBefore`) or the model is no longer processing.
+ */
+export async function claimIngestion(db: Executor, id: string, jobId: string, staleBefore: Date): Promise<boolean> {
+  const claimed = await db
+    .update(terrainModels)
+    .set({ ingestJobId: jobId, ingestHeartbeatAt: new Date() })
+    .where(
+      and(
+        eq(terrainModels.id, id),
+        eq(terrainModels.status, 'processing'),
+        or(isNull(terrainModels.ingestHeartbeatAt), lt(terrainModels.ingestHeartbeatAt, staleBefore), eq(terrainModels.ingestJobId, jobId)),
+      ),
+    )
+    .returning({ id: terrainModels.id });
+  return claimed.length === 1;
+}
+
+export async function beatIngestion(db: Executor, id: string, jobId: string): Promise<void> {
+  await db
+    .update(terrainModels)
+    .set({ ingestHeartbeatAt: new Date() })
+    .where(and(eq(terrainModels.id, id), eq(terrainModels.ingestJobId, jobId), eq(terrainModels.status, 'processing')));
+}
+
+/** Swaps the model's ingestion job only if it is still `expected` (one sweeper re-queues it). */
+export async function replaceIngestJob(db: Executor, id: string, expected: string | null, jobId: string): Promise<boolean> {
+  const replaced = await db
+    .update(terrainModels)
+    .set({ ingestJobId: jobId, ingestHeartbeatAt: null })
+    .where(and(eq(terrainModels.id, id), expected === null ? isNull(terrainModels.ingestJobId) : eq(terrainModels.ingestJobId, expected)))
+    .returning({ id: terrainModels.id });
+  return replaced.length === 1;
 }
 
 export async function listStoredPaths(db: Executor): Promise<Array<{ id: string; storedPath: string }>> {
@@ -72,6 +114,16 @@ export async function updateTerrainModel(db: Executor, id: string, values: Parti
   await db.update(terrainModels).set(values).where(eq(terrainModels.id, id));
 }
 
+/** Hides the model (restorable until the purge; its files stay). */
+export async function markTerrainDeleted(db: Executor, id: string, by: { id: string | null; name: string }) {
+  await db.update(terrainModels).set({ deletedAt: new Date(), deletedById: by.id, deletedByName: by.name }).where(eq(terrainModels.id, id));
+}
+
+export async function markTerrainRestored(db: Executor, id: string) {
+  await db.update(terrainModels).set({ deletedAt: null, deletedById: null, deletedByName: null }).where(eq(terrainModels.id, id));
+}
+
+/** Removes the row for good (the purge, after its files). */
 export async function deleteTerrainRow(db: Executor, id: string): Promise<boolean> {
   const deleted = await db.delete(terrainModels).where(eq(terrainModels.id, id)).returning({ id: terrainModels.id });
   return deleted.length > 0;
@@ -85,7 +137,14 @@ export async function countScenariosUsingTerrain(db: Executor, terrainId: string
   const [row] = await db
     .select({ count: sql<number>`count(*)::int` })
     .from(terrainDependents)
-    .where(and(eq(terrainDependents.terrainId, terrainId), eq(terrainDependents.kind, 'scenario')));
+    .where(
+      and(
+        eq(terrainDependents.terrainId, terrainId),
+        eq(terrainDependents.kind, 'scenario'),
+        // A deleted scenario (restorable, not yet purged) no longer holds the terrain back.
+        sql`not exists (select 1 from ${scenarios} s where s.id = ${terrainDependents.dependentId} and s.deleted_at is not null)`,
+      ),
+    );
   return row?.count ?? 0;
 }
 
@@ -159,6 +218,6 @@ export async function replaceScenarioTerrainUse(
     insert into terrain_dependents (terrain_id, kind, dependent_id)
     select t.id, 'scenario', ${scenarioId}::uuid
     from terrain_models t join road_route_versions v on v.id = ${routeVersionId}::uuid
-    where t.status = 'ready' and ST_Intersects(t.footprint, v.geometry)
+    where t.status = 'ready' and t.deleted_at is null and ST_Intersects(t.footprint, v.geometry)
     on conflict do nothing`);
 }

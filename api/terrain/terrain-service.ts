@@ -4,16 +4,21 @@ import type { User } from '@shared/domain/auth';
 import type { TerrainModel, TerrainUploadAccepted } from '@shared/domain/terrain';
 import type { AppDeps } from '../app-deps';
 import { ConflictError, ForbiddenError, HttpError, NotFoundError } from '../http/http-error';
-import { createInlineJobQueue, jobQueueOf, type JobQueue } from '../jobs/job-queue';
+import { type Actor, recordAudit } from '../audit/audit-log';
+import { isUniqueViolation } from '../db/errors';
+import { createInlineJobQueue, jobQueueOf, type JobPolicy, type JobQueue } from '../jobs/job-queue';
 import { inspectGeoTiff } from './geotiff-inspection';
-import { ingestTerrainModel, TERRAIN_INGEST_JOB, type TerrainIngestJob } from './terrain-ingestion';
+import { INGEST_STALE_MS, ingestTerrainModel, TERRAIN_INGEST_JOB, type TerrainIngestJob } from './terrain-ingestion';
 import {
   countScenariosUsingTerrain,
   deleteTerrainRow,
+  markTerrainDeleted,
+  markTerrainRestored,
   findTerrainBySha256,
   findTerrainModel,
   insertTerrainModel,
-  listProcessingTerrainIds,
+  listProcessingTerrain,
+  replaceIngestJob,
   listStoredPaths,
   listTerrainModels,
   toTerrainModel,
@@ -84,6 +89,13 @@ export async function acceptTerrainUpload(deps: AppDeps, user: User, upload: Ter
       footprint: header.footprint,
       uploadedById: user.id,
     });
+    await recordAudit(deps.db, actorOf(user), {
+      action: 'create',
+      kind: 'terrain',
+      entityId: id,
+      entityName: upload.name,
+      details: { file: upload.originalFileName, bytes: file.size },
+    });
   } catch (error) {
     // Expected failures: a refused file (HttpError) or a lost race on the same SHA-256. Either
     // way nothing may stay behind.
@@ -95,7 +107,8 @@ export async function acceptTerrainUpload(deps: AppDeps, user: User, upload: Ter
     }
     throw error;
   }
-  await (await terrainJobs(deps)).send(TERRAIN_INGEST_JOB, { terrainId: id } satisfies TerrainIngestJob);
+  const jobs = await terrainJobs(deps);
+  await replaceIngestJob(deps.db, id, null, await jobs.send(TERRAIN_INGEST_JOB, { terrainId: id } satisfies TerrainIngestJob, TERRAIN_INGEST_POLICY));
   return { id, status: 'processing' };
 }
 
@@ -111,8 +124,10 @@ export async function listTerrain(deps: AppDeps): Promise<{ items: TerrainModel[
 }
 
 /**
- * Deletes a model and its files. Refused with 409 while saved scenarios depend on it, unless an
- * admin forces it (their scenarios then lose their terrain and must be re-run on another).
+ * Deletes a model, restorably: it leaves the catalogue, the map and sampling at once; its files
+ * stay until the maintenance sweep removes it for good after the retention period. Refused with
+ * 409 while saved scenarios depend on it, unless an admin forces it (their scenarios then lose
+ * their terrain and must be re-run on another).
  */
 export async function deleteTerrain(deps: AppDeps, user: User, id: string, force: boolean): Promise<void> {
   const runtime = terrainRuntimeFor(deps);
@@ -127,47 +142,101 @@ export async function deleteTerrain(deps: AppDeps, user: User, id: string, force
       { scenarioCount: scenarios },
     );
   }
-  await deleteTerrainRow(deps.db, id);
+  await deps.db.transaction(async (tx) => {
+    await markTerrainDeleted(tx, id, actorOf(user));
+    await recordAudit(tx, actorOf(user), {
+      action: 'delete',
+      kind: 'terrain',
+      entityId: id,
+      entityName: row.name,
+      details: scenarios > 0 ? { forced: true, scenariosUsingIt: scenarios } : {},
+    });
+  });
   runtime.invalidateCatalogue();
-  const source = runtime.sourceFromRow(row);
-  await runtime.blocks.forget(source).catch(() => undefined);
+  // Expected failure: no decoder thread holds the file; nothing to forget.
+  await runtime.blocks.forget(runtime.sourceFromRow(row)).catch(() => undefined);
+}
+
+/** Brings a deleted model back into the catalogue (its files were kept). */
+export async function restoreTerrain(deps: AppDeps, user: User, id: string): Promise<TerrainModel> {
+  const row = await findTerrainModel(deps.db, id, true);
+  if (!row?.deletedAt) throw new NotFoundError('A deleted terrain model with that id');
+  await deps.db.transaction(async (tx) => {
+    await markTerrainRestored(tx, id);
+    await recordAudit(tx, actorOf(user), { action: 'restore', kind: 'terrain', entityId: id, entityName: row.name });
+  });
+  terrainRuntimeFor(deps).invalidateCatalogue();
+  return getTerrainModel(deps, id);
+}
+
+/** Removes a deleted model for good: its files, then its row (the purge). */
+export async function purgeTerrain(deps: AppDeps, id: string): Promise<void> {
+  const runtime = terrainRuntimeFor(deps);
   await runtime.storage.removeModelFiles(id);
+  await deleteTerrainRow(deps.db, id);
+}
+
+function actorOf(user: User): Actor {
+  return { id: user.id, name: user.name };
 }
 
 /**
  * Start-up recovery, so a crash or kill leaves nothing half-done: half-received uploads and
- * folders without a catalogue row are removed; models still "processing" are queued again (or
- * failed when their file is gone).
+ * folders without a catalogue row are removed; models whose ingestion stopped are queued again
+ * (or failed when their file is gone), as the maintenance sweep then does every minute.
  */
 export async function recoverTerrain(deps: AppDeps): Promise<{ removed: string[]; requeued: string[]; failed: string[] }> {
   const runtime = terrainRuntimeFor(deps);
   const stored = await listStoredPaths(deps.db);
   const removed = await runtime.storage.sweep(new Set(stored.map((row) => row.id)));
+  return { removed, ...(await requeueStaleIngestion(deps)) };
+}
+
+/**
+ * Models still "processing" whose ingestion is not alive: no heartbeat for INGEST_STALE_MS while
+ * its job is active (the worker died; the job is cancelled so it does not linger as active), or
+ * a job the queue no longer holds as waiting or active. Each is queued again with a new job, or
+ * failed when its file is gone.
+ */
+export async function requeueStaleIngestion(deps: AppDeps, now = new Date()): Promise<{ requeued: string[]; failed: string[] }> {
+  const runtime = terrainRuntimeFor(deps);
+  const jobs = await terrainJobs(deps);
+  const staleBefore = now.getTime() - INGEST_STALE_MS;
   const requeued: string[] = [];
   const failed: string[] = [];
-  const jobs = await terrainJobs(deps);
-  for (const id of await listProcessingTerrainIds(deps.db)) {
-    const path = stored.find((row) => row.id === id)?.storedPath;
-    const exists = path ? await access(runtime.storage.absolute(path)).then(() => true, () => false) : false;
+  for (const model of await listProcessingTerrain(deps.db)) {
+    if (model.ingestHeartbeatAt && model.ingestHeartbeatAt.getTime() >= staleBefore) continue;
+    const job = model.ingestJobId ? await jobs.jobState(TERRAIN_INGEST_JOB, model.ingestJobId) : null;
+    if (job && (job.state === 'created' || job.state === 'retry')) continue;
+    // Just handed to a worker that has not stamped its first heartbeat yet.
+    if (job?.state === 'active' && !model.ingestHeartbeatAt && (job.startedOn?.getTime() ?? 0) >= staleBefore) continue;
+    const row = await findTerrainModel(deps.db, model.id);
+    const exists = row ? await access(runtime.storage.absolute(row.storedPath)).then(() => true, () => false) : false;
     if (!exists) {
-      await updateTerrainModel(deps.db, id, { status: 'failed', failureReason: 'The uploaded file was lost before ingestion finished; upload it again' });
-      failed.push(id);
+      await updateTerrainModel(deps.db, model.id, { status: 'failed', failureReason: 'The uploaded file was lost before ingestion finished; upload it again' });
+      failed.push(model.id);
       continue;
     }
-    await jobs.send(TERRAIN_INGEST_JOB, { terrainId: id } satisfies TerrainIngestJob);
-    requeued.push(id);
+    const placeholder = `requeueing:${randomUUID()}`;
+    if (!(await replaceIngestJob(deps.db, model.id, model.ingestJobId, placeholder))) continue;
+    if (model.ingestJobId && job?.state === 'active') await jobs.cancel(TERRAIN_INGEST_JOB, model.ingestJobId);
+    const jobId = await jobs.send(TERRAIN_INGEST_JOB, { terrainId: model.id } satisfies TerrainIngestJob, TERRAIN_INGEST_POLICY);
+    await replaceIngestJob(deps.db, model.id, placeholder, jobId);
+    requeued.push(model.id);
   }
   runtime.invalidateCatalogue();
-  return { removed, requeued, failed };
+  return { requeued, failed };
 }
+
+/**
+ * One retry for a file that failed to read; an hour before pg-boss itself gives up on a lost
+ * 2 GB ingestion. A worker that dies is found much sooner by its heartbeat.
+ */
+export const TERRAIN_INGEST_POLICY: JobPolicy = { retryLimit: 1, expireInSeconds: 60 * 60 };
 
 /** Registers the ingestion worker on a queue (api/main.ts does this when RUN_WORKERS). */
 export async function registerTerrainWorkers(deps: AppDeps, queue: JobQueue): Promise<void> {
-  await queue.registerWorker<TerrainIngestJob>(TERRAIN_INGEST_JOB, (job) => ingestTerrainModel(deps, job.terrainId), {
-    // A 2 GB model takes minutes; an hour before a lost job is handed out again.
-    expireInSeconds: 60 * 60,
-    retryLimit: 1,
-  });
+  await queue.registerWorker<TerrainIngestJob>(TERRAIN_INGEST_JOB, (job, jobId) => ingestTerrainModel(deps, job.terrainId, jobId), TERRAIN_INGEST_POLICY);
 }
 
 const inlineQueues = new WeakMap<object, ReturnType<typeof createInlineJobQueue>>();
@@ -190,15 +259,16 @@ export async function waitForInlineTerrainJobs(deps: AppDeps): Promise<void> {
   await inlineQueues.get(deps.db)?.idle();
 }
 
-function duplicateError(existing: { id: string; name: string }): HttpError {
+function duplicateError(existing: { id: string; name: string; deletedAt: Date | null }): HttpError {
+  if (existing.deletedAt) {
+    return new ConflictError(
+      `This file was deleted from the catalogue as “${existing.name}”; restore it under Recently deleted instead of uploading it again`,
+      'duplicate_terrain',
+      { existingId: existing.id, existingName: existing.name, deleted: true },
+    );
+  }
   return new ConflictError(`This file is already in the catalogue as “${existing.name}”`, 'duplicate_terrain', {
     existingId: existing.id,
     existingName: existing.name,
   });
 }
-
-function isUniqueViolation(error: unknown): boolean {
-  return typeof error === 'object' && error !== null && (error as { code?: unknown }).code === '23505';
-}
-
-

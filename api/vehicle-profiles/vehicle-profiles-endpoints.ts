@@ -61,21 +61,33 @@ export function vehicleProfileEndpoints(deps: AppDeps) {
       params: vehicleProfileIdParamsSchema,
       body: vehicleProfileDraftSchema,
       responses: { 200: { description: 'Updated', schema: vehicleProfileSchema }, 409: { description: 'A preset (read-only)' } },
-      handler: async ({ params, body, res }) => {
-        res.json(await service.updateProfile(deps.db, params.vehicleProfileId, body));
+      handler: async ({ params, body, user, res }) => {
+        res.json(await service.updateProfile(deps.db, user!, params.vehicleProfileId, body));
       },
     }),
     endpoint({
       method: 'delete',
       path: '/api/vehicles/:vehicleProfileId',
-      summary: 'Delete a vehicle profile; 409 for presets and while scenarios use it',
+      summary: 'Delete a vehicle profile (restorable for 30 days); 409 for presets and while scenarios use it',
       tag: TAG,
       access: ANALYSTS,
       params: vehicleProfileIdParamsSchema,
       responses: { 204: { description: 'Deleted' }, 409: { description: 'A preset, or scenarios use it (details.scenarioCount)' } },
-      handler: async ({ params, res }) => {
-        await service.deleteProfile(deps.db, params.vehicleProfileId);
+      handler: async ({ params, user, res }) => {
+        await service.deleteProfile(deps.db, user!, params.vehicleProfileId);
         res.status(204).end();
+      },
+    }),
+    endpoint({
+      method: 'post',
+      path: '/api/vehicles/:vehicleProfileId/restore',
+      summary: 'Restore a deleted vehicle profile (within the retention period) as it was',
+      tag: TAG,
+      access: ANALYSTS,
+      params: vehicleProfileIdParamsSchema,
+      responses: { 200: { description: 'The profile, back', schema: vehicleProfileSchema }, 404: { description: 'No deleted profile with that id' } },
+      handler: async ({ params, user, res }) => {
+        res.json(await service.restoreProfile(deps.db, user!, params.vehicleProfileId));
       },
     }),
     endpoint({

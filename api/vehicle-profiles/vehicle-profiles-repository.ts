@@ -1,19 +1,24 @@
-import { asc, desc, eq, sql } from 'drizzle-orm';
+import { and, asc, desc, eq, isNull, sql } from 'drizzle-orm';
 import type { VehicleProfile, VehicleProfileDraft } from '@shared/domain/vehicle-profiles';
 import type { Executor } from '../db/client';
 import { scenarios, vehicleProfiles, type VehicleProfileRow } from '../db/schema/index';
 
 export function listProfiles(db: Executor) {
-  return db.select().from(vehicleProfiles).orderBy(desc(vehicleProfiles.isPreset), asc(vehicleProfiles.name), asc(vehicleProfiles.id));
+  return db.select().from(vehicleProfiles).where(isNull(vehicleProfiles.deletedAt)).orderBy(desc(vehicleProfiles.isPreset), asc(vehicleProfiles.name), asc(vehicleProfiles.id));
 }
 
+/** The profile unless it is deleted. */
 export async function findProfile(db: Executor, id: string) {
-  const [row] = await db.select().from(vehicleProfiles).where(eq(vehicleProfiles.id, id));
+  const [row] = await db.select().from(vehicleProfiles).where(and(eq(vehicleProfiles.id, id), isNull(vehicleProfiles.deletedAt)));
   return row;
 }
 
-export async function lockProfile(db: Executor, id: string) {
-  const [row] = await db.select().from(vehicleProfiles).where(eq(vehicleProfiles.id, id)).for('update');
+export async function lockProfile(db: Executor, id: string, includeDeleted = false) {
+  const [row] = await db
+    .select()
+    .from(vehicleProfiles)
+    .where(and(eq(vehicleProfiles.id, id), includeDeleted ? undefined : isNull(vehicleProfiles.deletedAt)))
+    .for('update');
   return row;
 }
 
@@ -30,12 +35,26 @@ export async function updateProfile(db: Executor, id: string, draft: VehicleProf
   return row!;
 }
 
-export async function deleteProfile(db: Executor, id: string) {
+/** Hides the profile (restorable until the purge). */
+export async function markProfileDeleted(db: Executor, id: string, by: { id: string | null; name: string }) {
+  await db.update(vehicleProfiles).set({ deletedAt: new Date(), deletedById: by.id, deletedByName: by.name }).where(eq(vehicleProfiles.id, id));
+}
+
+export async function markProfileRestored(db: Executor, id: string) {
+  await db.update(vehicleProfiles).set({ deletedAt: null, deletedById: null, deletedByName: null }).where(eq(vehicleProfiles.id, id));
+}
+
+/** Removes the profile for good (the purge). */
+export async function purgeProfile(db: Executor, id: string) {
   await db.delete(vehicleProfiles).where(eq(vehicleProfiles.id, id));
 }
 
+/** Scenarios (not deleted) that use the profile. */
 export async function countScenariosUsingProfile(db: Executor, id: string): Promise<number> {
-  const [row] = await db.select({ n: sql<number>`count(*)::int` }).from(scenarios).where(eq(scenarios.vehicleProfileId, id));
+  const [row] = await db
+    .select({ n: sql<number>`count(*)::int` })
+    .from(scenarios)
+    .where(and(eq(scenarios.vehicleProfileId, id), isNull(scenarios.deletedAt)));
   return row?.n ?? 0;
 }
 

@@ -3,6 +3,7 @@ import type { CapabilityCurvesResponse, CapabilityQuery, VehicleProfile, Vehicle
 import { capabilityCurves } from '@shared/engine/capability-curves';
 import type { Database } from '../db/client';
 import { ConflictError, NotFoundError } from '../http/http-error';
+import { type Actor, recordAudit } from '../audit/audit-log';
 import * as repository from './vehicle-profiles-repository';
 
 export async function getProfile(db: Database, id: string): Promise<VehicleProfile> {
@@ -12,19 +13,26 @@ export async function getProfile(db: Database, id: string): Promise<VehicleProfi
 }
 
 export async function createProfile(db: Database, user: User, draft: VehicleProfileDraft): Promise<VehicleProfile> {
-  return repository.toVehicleProfile(await repository.insertProfile(db, draft, user.id));
+  return db.transaction(async (tx) => {
+    const row = await repository.insertProfile(tx, draft, user.id);
+    await recordAudit(tx, actorOf(user), { action: 'create', kind: 'vehicle-profile', entityId: row.id, entityName: row.name });
+    return repository.toVehicleProfile(row);
+  });
 }
 
-export async function updateProfile(db: Database, id: string, draft: VehicleProfileDraft): Promise<VehicleProfile> {
+export async function updateProfile(db: Database, user: User, id: string, draft: VehicleProfileDraft): Promise<VehicleProfile> {
   return db.transaction(async (tx) => {
     const row = await repository.lockProfile(tx, id);
     if (!row) throw new NotFoundError('The vehicle profile');
     if (row.isPreset) throw presetConflict();
-    return repository.toVehicleProfile(await repository.updateProfile(tx, id, draft));
+    const updated = await repository.updateProfile(tx, id, draft);
+    await recordAudit(tx, actorOf(user), { action: 'update', kind: 'vehicle-profile', entityId: id, entityName: updated.name });
+    return repository.toVehicleProfile(updated);
   });
 }
 
-export async function deleteProfile(db: Database, id: string): Promise<void> {
+/** Deletes a profile, restorably (hidden everywhere, removed for good after the retention period). */
+export async function deleteProfile(db: Database, user: User, id: string): Promise<void> {
   await db.transaction(async (tx) => {
     const row = await repository.lockProfile(tx, id);
     if (!row) throw new NotFoundError('The vehicle profile');
@@ -37,8 +45,24 @@ export async function deleteProfile(db: Database, id: string): Promise<void> {
         { scenarioCount: used },
       );
     }
-    await repository.deleteProfile(tx, id);
+    await repository.markProfileDeleted(tx, id, actorOf(user));
+    await recordAudit(tx, actorOf(user), { action: 'delete', kind: 'vehicle-profile', entityId: id, entityName: row.name });
   });
+}
+
+/** Brings a deleted profile back as it was. */
+export async function restoreProfile(db: Database, user: User, id: string): Promise<VehicleProfile> {
+  return db.transaction(async (tx) => {
+    const row = await repository.lockProfile(tx, id, true);
+    if (!row?.deletedAt) throw new NotFoundError('A deleted vehicle profile with that id');
+    await repository.markProfileRestored(tx, id);
+    await recordAudit(tx, actorOf(user), { action: 'restore', kind: 'vehicle-profile', entityId: id, entityName: row.name });
+    return repository.toVehicleProfile({ ...row, deletedAt: null, deletedById: null, deletedByName: null });
+  });
+}
+
+function actorOf(user: User): Actor {
+  return { id: user.id, name: user.name };
 }
 
 /** Capability chart for one load case, with the season's ambient temperature for the air density. */

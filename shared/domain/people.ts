@@ -14,6 +14,14 @@ export const personSchema = z.object({
   status: personStatusSchema,
   createdAt: z.iso.datetime({ offset: true }),
   lastSignInAt: z.iso.datetime({ offset: true }).nullable(),
+  /**
+   * Failed sign-ins counted against the account from browsers it has not signed in from, and
+   * until when such sign-ins must wait (null: not slowed down). An administrator can lift it.
+   */
+  signIn: z.object({
+    failedAttempts: z.number().int().min(0),
+    slowedUntil: z.iso.datetime({ offset: true }).nullable(),
+  }),
 });
 export type Person = z.infer<typeof personSchema>;
 

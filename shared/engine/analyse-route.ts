@@ -36,6 +36,8 @@ import {
   ENGINEERING_CAUTION,
   ISA_LAPSE_RATE_K_PER_M,
   ISA_SEA_LEVEL_TEMPERATURE_K,
+  MAX_RESAMPLED_POINTS,
+  MAX_ROUTE_LENGTH_M,
   STANDARD_GRAVITY_MPS2,
 } from './constants';
 
@@ -67,7 +69,10 @@ export async function analyseRouteDetailed(
   dependencies: AnalyseRouteDependencies = {},
 ): Promise<DetailedAnalysis> {
   const parsed = parseOrThrow(previewRequestSchema, request);
-  const resampled = resampleRoute(parsed.route.coordinates, parsed.options.spacingM);
+  const resampled = resampleRoute(parsed.route.coordinates, parsed.options.spacingM, {
+    maxLengthM: MAX_ROUTE_LENGTH_M,
+    maxPoints: MAX_RESAMPLED_POINTS,
+  });
   let elevationM = resampled.elevationM;
   let uncovered: UncoveredStretchReport[] | undefined;
   if (!elevationM) {

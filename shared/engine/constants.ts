@@ -67,6 +67,20 @@ export const WATTS_PER_HORSEPOWER = 745.69987158227022;
 export const DEFAULT_SPACING_M = 10;
 
 /**
+ * Longest route one analysis accepts, m. The longest mountain lines run well under 100 km one
+ * way; 300 km leaves room for long regional lines while keeping one analysis to seconds of CPU
+ * and tens of megabytes (common practice: bound work per request).
+ */
+export const MAX_ROUTE_LENGTH_M = 300_000;
+
+/**
+ * Most resampled points one analysis accepts: a 300 km route at 5 m spacing, or 60 km at 1 m.
+ * Each point costs about 0.7 kB in the engine and the answer (measured with
+ * scripts/bench-preview-load.ts), so the bound keeps one answer to tens of megabytes.
+ */
+export const MAX_RESAMPLED_POINTS = 60_000;
+
+/**
  * Default elevation smoothing window, m. DOMAIN notes §6.2/§6.3: grades from 25–30 m global
  * terrain models need a 100–300 m baseline; 150 m is the middle of that range (common practice).
  */

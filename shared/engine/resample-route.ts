@@ -7,7 +7,7 @@
  * Consecutive vertices closer than 1 mm are merged.
  */
 import { geodesicDirect, geodesicInverse } from './geodesy';
-import { assertInRange, EngineInputError } from './validation';
+import { assertInRange, EngineInputError, RouteTooLargeError } from './validation';
 
 const DUPLICATE_TOLERANCE_M = 1e-3;
 
@@ -22,8 +22,22 @@ export interface ResampledRoute {
   vertexIndex: number[];
 }
 
-/** Resamples `coordinates` ([lon, lat] or [lon, lat, z] positions) at spacing ≤ `spacingM`. */
-export function resampleRoute(coordinates: readonly (readonly number[])[], spacingM: number): ResampledRoute {
+/** Bounds on the size of a resampled route; checked before any point is built. */
+export interface ResampleLimits {
+  maxLengthM: number;
+  maxPoints: number;
+}
+
+/**
+ * Resamples `coordinates` ([lon, lat] or [lon, lat, z] positions) at spacing ≤ `spacingM`.
+ * With `limits`, a route longer than `maxLengthM` or needing more than `maxPoints` points throws a
+ * `RouteTooLargeError` after measuring the legs and before allocating anything per point.
+ */
+export function resampleRoute(
+  coordinates: readonly (readonly number[])[],
+  spacingM: number,
+  limits?: ResampleLimits,
+): ResampledRoute {
   assertInRange('options.spacingM', spacingM, 1e-3, 1e4);
   const hasElevation = coordinates.length > 0 && coordinates.every((position) => position.length >= 3);
 
@@ -65,6 +79,12 @@ export function resampleRoute(coordinates: readonly (readonly number[])[], spaci
     count += n;
     return n;
   });
+  if (limits) {
+    const totalM = legLengths.reduce((sum, length) => sum + length, 0);
+    if (totalM > limits.maxLengthM || count > limits.maxPoints) {
+      throw new RouteTooLargeError(totalM, count, spacingM, limits.maxLengthM, limits.maxPoints);
+    }
+  }
 
   const distanceM = new Float64Array(count);
   const lon = new Float64Array(count);

@@ -39,6 +39,29 @@ export class UncoveredTerrainError extends EngineInputError {
   }
 }
 
+/**
+ * Raised before any work when a route is longer, or would be resampled into more points, than one
+ * analysis accepts; the message names both limits so the caller can shorten the route or widen
+ * the spacing.
+ */
+export class RouteTooLargeError extends EngineInputError {
+  constructor(
+    readonly lengthM: number,
+    readonly pointCount: number,
+    readonly spacingM: number,
+    readonly maxLengthM: number,
+    readonly maxPoints: number,
+  ) {
+    super(
+      'route.coordinates',
+      `the route is ${(lengthM / 1_000).toFixed(1)} km long and would be resampled into ${pointCount} points at ` +
+        `${spacingM} m spacing; one analysis takes at most ${maxLengthM / 1_000} km and ${maxPoints} points. ` +
+        'Shorten the route or use a wider spacing.',
+    );
+    this.name = 'RouteTooLargeError';
+  }
+}
+
 /** Throws unless `value` is a finite number. */
 export function assertFinite(field: string, value: number): void {
   if (typeof value !== 'number' || !Number.isFinite(value)) {

@@ -24,6 +24,7 @@ const EXPECTED_ACCESS: Record<string, 'public' | 'signed-in' | readonly Role[]> 
   'GET /api/people': ['admin'],
   'POST /api/people': ['admin'],
   'PATCH /api/people/{personId}': ['admin'],
+  'POST /api/people/{personId}/unblock-sign-in': ['admin'],
   'POST /api/people/{personId}/password-reset': ['admin'],
   'GET /api/mail/outbox': ['admin'],
   'GET /api/mail/captured': ['admin'],
@@ -34,6 +35,7 @@ const EXPECTED_ACCESS: Record<string, 'public' | 'signed-in' | readonly Role[]> 
   'POST /api/terrain/sample': 'signed-in',
   'GET /api/terrain/{terrainId}': 'signed-in',
   'DELETE /api/terrain/{terrainId}': ['analyst', 'admin'],
+  'POST /api/terrain/{terrainId}/restore': ['analyst', 'admin'],
   'GET /api/tiles/terrain/{z}/{x}/{y}.png': 'signed-in',
   'GET /api/routes': 'signed-in',
   'POST /api/routes': ['planner'],
@@ -43,6 +45,7 @@ const EXPECTED_ACCESS: Record<string, 'public' | 'signed-in' | readonly Role[]> 
   'GET /api/routes/{routeId}': 'signed-in',
   'PUT /api/routes/{routeId}': ['planner'],
   'DELETE /api/routes/{routeId}': ['planner'],
+  'POST /api/routes/{routeId}/restore': ['planner'],
   'GET /api/routes/{routeId}/versions': 'signed-in',
   'GET /api/routes/{routeId}/versions/{version}': 'signed-in',
   'GET /api/routes/{routeId}/export': 'signed-in',
@@ -54,6 +57,7 @@ const EXPECTED_ACCESS: Record<string, 'public' | 'signed-in' | readonly Role[]> 
   'GET /api/vehicles/{vehicleProfileId}': 'signed-in',
   'PUT /api/vehicles/{vehicleProfileId}': ['analyst'],
   'DELETE /api/vehicles/{vehicleProfileId}': ['analyst'],
+  'POST /api/vehicles/{vehicleProfileId}/restore': ['analyst'],
   'GET /api/vehicles/{vehicleProfileId}/capability': 'signed-in',
   'GET /api/scenarios': 'signed-in',
   'POST /api/scenarios': ['planner', 'analyst'],
@@ -61,6 +65,7 @@ const EXPECTED_ACCESS: Record<string, 'public' | 'signed-in' | readonly Role[]> 
   'GET /api/scenarios/{scenarioId}': 'signed-in',
   'PUT /api/scenarios/{scenarioId}': ['planner', 'analyst'],
   'DELETE /api/scenarios/{scenarioId}': ['planner', 'analyst'],
+  'POST /api/scenarios/{scenarioId}/restore': ['planner', 'analyst'],
   'POST /api/scenarios/{scenarioId}/run': ['planner', 'analyst'],
   'GET /api/scenarios/{scenarioId}/result': 'signed-in',
   'GET /api/scenarios/{scenarioId}/export.csv': 'signed-in',
@@ -79,6 +84,8 @@ const EXPECTED_ACCESS: Record<string, 'public' | 'signed-in' | readonly Role[]> 
   'POST /api/batch-runs': ['analyst'],
   'GET /api/batch-runs': 'signed-in',
   'GET /api/batch-runs/{batchRunId}': 'signed-in',
+  'GET /api/deleted-items': ['planner', 'analyst', 'admin'],
+  'GET /api/audit-log': ['admin'],
 };
 
 const context = createTestContext();

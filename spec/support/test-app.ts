@@ -9,6 +9,8 @@ import { createDatabase, type Database } from '../../api/db/client';
 import { users } from '../../api/db/schema/index';
 
 export const TEST_PASSWORD = 'test-password-for-specs';
+/** The SESSION_SECRET of the specs' configuration (mail links are sealed with it). */
+export const SPEC_SESSION_SECRET = 'spec-secret-spec-secret-spec-secret-0000';
 
 export function testConfig(overrides: Partial<Record<keyof Config, string>> = {}): Config {
   const databaseUrl = process.env['DATABASE_URL'];
@@ -16,7 +18,7 @@ export function testConfig(overrides: Partial<Record<keyof Config, string>> = {}
   return loadConfig({
     NODE_ENV: 'test',
     DATABASE_URL: databaseUrl,
-    SESSION_SECRET: 'spec-secret-spec-secret-spec-secret-0000',
+    SESSION_SECRET: SPEC_SESSION_SECRET,
     PUBLIC_URL: 'http://127.0.0.1:4300',
     WEB_DIR: '',
     DATA_DIR: '.var/spec-data',
@@ -35,7 +37,11 @@ export interface TestContext {
 /** The real app on the real test database; call `close` in afterAll. */
 export function createTestContext(overrides: Partial<Record<keyof Config, string>> = {}): TestContext {
   const config = testConfig(overrides);
-  const { db, close } = createDatabase(config.DATABASE_URL, { max: 5 });
+  const { db, close } = createDatabase(config.DATABASE_URL, {
+    max: 5,
+    connectTimeoutS: config.DB_CONNECT_TIMEOUT_S,
+    statementTimeoutMs: config.DB_STATEMENT_TIMEOUT_MS,
+  });
   const deps: AppDeps = { db, config };
   return { app: createApp(deps), db, deps, close };
 }

@@ -140,6 +140,18 @@ export const routes: Routes = [
         loadComponent: () => import('./terrain/terrain-catalogue'),
       },
       {
+        path: 'deleted',
+        title: 'Recently deleted · Descentry',
+        canMatch: [areaRoleGuard],
+        data: areaData({
+          label: 'Recently deleted',
+          icon: 'restore_from_trash',
+          summary: 'Routes, scenarios, vehicle profiles and terrain deleted in the last 30 days: who deleted them, and restore them.',
+          roles: ['planner', 'analyst', 'admin'],
+        }),
+        loadComponent: () => import('./deleted-items/recently-deleted'),
+      },
+      {
         path: 'admin/people',
         title: 'People · Descentry',
         canMatch: [areaRoleGuard],
@@ -164,6 +176,19 @@ export const routes: Routes = [
           group: 'Administration',
         }),
         loadComponent: () => import('./admin/mail/outgoing-mail'),
+      },
+      {
+        path: 'admin/audit',
+        title: 'Audit log · Descentry',
+        canMatch: [areaRoleGuard],
+        data: areaData({
+          label: 'Audit log',
+          icon: 'history',
+          summary: 'Who created, changed, deleted or restored routes, scenarios, vehicle profiles and terrain, and when.',
+          roles: ['admin'],
+          group: 'Administration',
+        }),
+        loadComponent: () => import('./admin/audit/audit-log'),
       },
       {
         path: 'admin/network',

@@ -27,6 +27,12 @@ export const batchRunItems = pgTable(
     scenarioName: text().notNull(),
     status: text({ enum: BATCH_ITEM_STATUSES }).notNull().default('queued'),
     error: text(),
+    /** The queue's job for this item (the latest one when the item was queued again). */
+    jobId: text(),
+    /** Stamped by the worker that runs the item; only its holder records the outcome. */
+    claimToken: uuid(),
+    /** Renewed while the item runs; a running item whose heartbeat stops is queued again. */
+    heartbeatAt: timestamp({ withTimezone: true }),
     startedAt: timestamp({ withTimezone: true }),
     finishedAt: timestamp({ withTimezone: true }),
   },

@@ -1,5 +1,5 @@
 import { sql } from 'drizzle-orm';
-import { customType, timestamp } from 'drizzle-orm/pg-core';
+import { customType, text, timestamp, uuid } from 'drizzle-orm/pg-core';
 
 export const timestamps = {
   createdAt: timestamp({ withTimezone: true }).notNull().defaultNow(),
@@ -7,6 +7,16 @@ export const timestamps = {
     .notNull()
     .defaultNow()
     .$onUpdate(() => new Date()),
+};
+
+/**
+ * A restorable delete: the row stays, hidden from every list and lookup, until the maintenance
+ * sweep removes it for good DELETED_RETENTION_DAYS later (shared/domain/deleted-items.ts).
+ */
+export const deletion = {
+  deletedAt: timestamp({ withTimezone: true }),
+  deletedById: uuid(),
+  deletedByName: text(),
 };
 
 type GeoJsonGeometry = { type: string; coordinates: unknown };

@@ -13,11 +13,16 @@ export const mailOutbox = pgTable(
     id: uuid().primaryKey().defaultRandom(),
     toAddress: text().notNull(),
     subject: text().notNull(),
+    /** The message; a credential link in it is stored as MAIL_LINK_PLACEHOLDER (api/mail/sealed-link.ts). */
     textBody: text().notNull(),
+    /** The link that replaces the placeholder when sending, sealed; cleared once the message is sent. */
+    sealedLink: text(),
     status: outboxStatusEnum().notNull().default('queued'),
     attempts: integer().notNull().default(0),
     lastError: text(),
     nextAttemptAt: timestamp({ withTimezone: true }).notNull().defaultNow(),
+    /** The worker's claim on a message being sent: only its holder may extend it or record the outcome. */
+    claimToken: uuid(),
     createdAt: timestamp({ withTimezone: true }).notNull().defaultNow(),
     sentAt: timestamp({ withTimezone: true }),
   },

@@ -1,4 +1,4 @@
-import { index, jsonb, pgEnum, pgTable, text, timestamp, uniqueIndex, uuid } from 'drizzle-orm/pg-core';
+import { index, integer, jsonb, pgEnum, pgTable, text, timestamp, uniqueIndex, uuid } from 'drizzle-orm/pg-core';
 import { ROLES } from '@shared/domain/roles';
 import { PERSON_STATUSES } from '@shared/domain/people';
 import { timestamps } from './columns';
@@ -62,17 +62,24 @@ export const accountTokens = pgTable(
   (table) => [uniqueIndex('account_tokens_token_hash_key').on(table.tokenHash)],
 );
 
-/** Failed sign-ins, kept briefly for rate limiting across every API process. */
-export const loginFailures = pgTable(
-  'login_failures',
+/**
+ * Attempt counters for sign-in and password-reset requests, one row per key ("account:<e-mail>",
+ * "device:<id>", "address:<ip>", "reset:<e-mail>", "reset-address:<ip>"), shared by every API
+ * process. An attempt is counted (under a row lock) before the password is checked, so
+ * simultaneous guesses cannot all pass; past the free attempts each one must wait longer
+ * (api/auth/attempt-throttle.ts).
+ */
+export const attemptThrottles = pgTable(
+  'attempt_throttles',
   {
-    id: uuid().primaryKey().defaultRandom(),
-    email: text().notNull(),
-    ip: text().notNull(),
-    failedAt: timestamp({ withTimezone: true }).notNull().defaultNow(),
+    key: text().primaryKey(),
+    /** The account the key belongs to (account, device and reset keys), for the administrator's view. */
+    email: text(),
+    attempts: integer().notNull().default(0),
+    lastAttemptAt: timestamp({ withTimezone: true }).notNull().defaultNow(),
+    /** No attempt on this key is taken before this time. */
+    blockedUntil: timestamp({ withTimezone: true }),
   },
-  (table) => [
-    index('login_failures_email_idx').on(table.email, table.failedAt),
-    index('login_failures_ip_idx').on(table.ip, table.failedAt),
-  ],
+  (table) => [index('attempt_throttles_email_idx').on(table.email), index('attempt_throttles_last_attempt_idx').on(table.lastAttemptAt)],
 );
+export type AttemptThrottleRow = typeof attemptThrottles.$inferSelect;

@@ -3,7 +3,7 @@ import { check, doublePrecision, index, integer, jsonb, pgTable, text, timestamp
 import type { LineString } from '@shared/domain/analysis';
 import type { RouteSpeedLimit, RouteStop } from '@shared/domain/road-routes';
 import { ROUTE_MODES } from '@shared/domain/road-routes';
-import { geometryColumn, timestamps } from './columns';
+import { deletion, geometryColumn, timestamps } from './columns';
 import { users } from './people';
 
 /** 2-D line in WGS 84 for spatial queries and the map; the full positions (with z) live in jsonb. */
@@ -25,6 +25,7 @@ export const roadRoutes = pgTable('road_routes', {
   importSha256: text().unique(),
   createdById: uuid().references(() => users.id, { onDelete: 'set null' }),
   ...timestamps,
+  ...deletion,
 });
 export type RoadRouteRow = typeof roadRoutes.$inferSelect;
 

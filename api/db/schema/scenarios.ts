@@ -1,7 +1,7 @@
 import { boolean, doublePrecision, index, integer, jsonb, pgTable, text, timestamp, uuid } from 'drizzle-orm/pg-core';
 import type { Summary } from '@shared/domain/analysis';
 import { DIRECTIONS, RUN_STATUSES, type DirectionResult, type ScenarioLoad, type ScenarioOptions, type ScenarioSeason } from '@shared/domain/scenarios';
-import { timestamps } from './columns';
+import { deletion, timestamps } from './columns';
 import { users } from './people';
 import { roadRoutes } from './road-routes';
 import { vehicleProfiles } from './vehicle-profiles';
@@ -51,6 +51,7 @@ export const scenarios = pgTable(
     createdById: uuid().references(() => users.id, { onDelete: 'set null' }),
     createdByName: text().notNull(),
     ...timestamps,
+    ...deletion,
   },
   (table) => [
     index('scenarios_route_id_idx').on(table.routeId),

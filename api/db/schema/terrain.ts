@@ -15,7 +15,7 @@ import {
   uuid,
 } from 'drizzle-orm/pg-core';
 import { TERRAIN_DATA_TYPES, TERRAIN_STATUSES, type Polygon } from '@shared/domain/terrain';
-import { geometryColumn, timestamps } from './columns';
+import { deletion, geometryColumn, timestamps } from './columns';
 import { users } from './people';
 
 export const terrainStatusEnum = pgEnum('terrain_status', TERRAIN_STATUSES);
@@ -80,7 +80,12 @@ export const terrainModels = pgTable(
     footprint: polygon(),
     uploadedById: uuid().references(() => users.id, { onDelete: 'set null' }),
     readyAt: timestamp({ withTimezone: true }),
+    /** The queue's ingestion job for the model (the latest one when it was queued again). */
+    ingestJobId: text(),
+    /** Renewed while ingestion runs; a model whose ingestion stops beating is queued again. */
+    ingestHeartbeatAt: timestamp({ withTimezone: true }),
     ...timestamps,
+    ...deletion,
   },
   (table) => [
     // The same file twice is refused: its SHA-256 names the model that already holds it.

@@ -1,7 +1,7 @@
 import { boolean, doublePrecision, jsonb, pgTable, text, uuid } from 'drizzle-orm/pg-core';
 import type { VehicleInput } from '@shared/domain/analysis';
 import type { LoadCase, Season } from '@shared/domain/vehicle-profiles';
-import { timestamps } from './columns';
+import { deletion, timestamps } from './columns';
 import { users } from './people';
 
 /**
@@ -23,5 +23,6 @@ export const vehicleProfiles = pgTable('vehicle_profiles', {
   seedKey: text().unique(),
   createdById: uuid().references(() => users.id, { onDelete: 'set null' }),
   ...timestamps,
+  ...deletion,
 });
 export type VehicleProfileRow = typeof vehicleProfiles.$inferSelect;

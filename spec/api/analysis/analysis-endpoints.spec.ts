@@ -1,6 +1,8 @@
 import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { previewResponseSchema } from '@shared/domain/analysis';
+import { MAX_RESAMPLED_POINTS, MAX_ROUTE_LENGTH_M } from '@shared/engine/constants';
+import { analysisPoolFor, closeAnalysisPool } from '../../../api/analysis/analysis-pool';
 import { createTestContext } from '../../support/test-app';
 import { sessionCookies } from '../../support/session-cookie';
 import { truncateAll } from '../../support/test-database';
@@ -30,7 +32,10 @@ beforeAll(async () => {
   await truncateAll(db);
   cookie = await sessionCookies(db, context.deps.config)('planner');
 });
-afterAll(() => context.close());
+afterAll(async () => {
+  await closeAnalysisPool(context.deps);
+  await context.close();
+});
 
 describe('POST /api/analysis/road-load', () => {
   it('matches the worked 6 % climb at 30 km/h and 1000 m (DOMAIN.md §1.4 a, hand-computed)', async () => {
@@ -105,9 +110,72 @@ describe('POST /api/analysis/preview', () => {
     expect(response.status).toBe(400);
     expect(response.body.error.message).toMatch(/drivetrainEfficiency/);
   });
+
+  it('answers 422 naming both limits when the route is 2 000 km long at 1 m spacing (issue 11)', async () => {
+    const route = straightDescent({ lengthM: 2_000_000, dropM: 500 });
+
+    const response = await request(app)
+      .post('/api/analysis/preview')
+      .set('Cookie', cookie)
+      .send({ route, vehicle: laden12mBus, options: { spacingM: 1 } });
+
+    expect(response.status).toBe(422);
+    expect(response.body.error.code).toBe('route_too_large');
+    expect(response.body.error.message).toContain(`${MAX_ROUTE_LENGTH_M / 1000} km`);
+    expect(response.body.error.message).toContain(`${MAX_RESAMPLED_POINTS} points`);
+    expect(response.body.error.details).toMatchObject({ maxLengthM: MAX_ROUTE_LENGTH_M, maxPoints: MAX_RESAMPLED_POINTS });
+    expect(response.body.error.details.lengthM).toBeGreaterThan(1_990_000);
+  });
+
+  it('answers 422 when a route within the length limit needs too many resampled points (issue 11)', async () => {
+    const route = straightDescent({ lengthM: 100_000, dropM: 500 });
+
+    const response = await request(app)
+      .post('/api/analysis/preview')
+      .set('Cookie', cookie)
+      .send({ route, vehicle: laden12mBus, options: { spacingM: 1 } });
+
+    expect(response.status).toBe(422);
+    expect(response.body.error.details.pointCount).toBeGreaterThan(MAX_RESAMPLED_POINTS);
+  });
+
+  it('keeps answering other requests while an analysis runs on a worker thread (issue 11)', async () => {
+    const pool = analysisPoolFor(context.deps);
+    await request(app).post('/api/analysis/preview').set('Cookie', cookie).send({ route: straightDescent({ lengthM: 1_000, dropM: 50 }), vehicle: laden12mBus });
+    const longRoute = straightDescent({ lengthM: 59_000, dropM: 900 });
+
+    const preview = request(app).post('/api/analysis/preview').set('Cookie', cookie).send({ route: longRoute, vehicle: laden12mBus, options: { spacingM: 1 } }).then((r) => r);
+    await until(() => pool.running === 1);
+    const health = await request(app).get('/api/health');
+    const stillRunning = pool.running;
+    const previewResponse = await preview;
+
+    expect(health.status).toBe(200);
+    expect(stillRunning).toBe(1);
+    expect(previewResponse.status).toBe(200);
+    expect(previewResponse.body.profile.distanceM.length).toBeGreaterThan(50_000);
+  });
+
+  it('refuses a third concurrent heavy request of one person with 429 and Retry-After (issue 11)', async () => {
+    const route = straightDescent({ lengthM: 50_000, dropM: 900 });
+    const send = () =>
+      request(app).post('/api/analysis/preview').set('Cookie', cookie).send({ route, vehicle: laden12mBus, options: { spacingM: 1 } }).then((r) => r);
+
+    const responses = await Promise.all([send(), send(), send()]);
+
+    const statuses = responses.map((response) => response.status).sort();
+    expect(statuses).toEqual([200, 200, 429]);
+    const refused = responses.find((response) => response.status === 429)!;
+    expect(refused.body.error.code).toBe('too_many_heavy_requests');
+    expect(refused.headers['retry-after']).toBeDefined();
+  });
 });
 
 // Helpers
+
+async function until(condition: () => boolean): Promise<void> {
+  while (!condition()) await new Promise((resolve) => setTimeout(resolve, 5));
+}
 
 /** A straight north-bound line with elevation falling evenly, as GeoJSON with [lon, lat, z]. */
 function straightDescent({ lengthM, dropM }: { lengthM: number; dropM: number }) {

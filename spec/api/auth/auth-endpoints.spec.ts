@@ -2,9 +2,14 @@ import { eq } from 'drizzle-orm';
 import { SignJWT } from 'jose';
 import request from 'supertest';
 import { afterAll, beforeEach, describe, expect, it } from 'vitest';
-import { MAX_FAILURES_PER_ACCOUNT } from '../../../api/auth/auth-service';
+import {
+  ACCOUNT_RESET_POLICY,
+  ACCOUNT_SIGN_IN_POLICY,
+  ADDRESS_SIGN_IN_POLICY,
+  delayAfterS,
+} from '../../../api/auth/attempt-throttle';
 import { SESSION_COOKIE } from '../../../api/auth/session-tokens';
-import { loginFailures, sessions } from '../../../api/db/schema/index';
+import { attemptThrottles, mailOutbox, sessions } from '../../../api/db/schema/index';
 import { TEST_PASSWORD, aPerson, createTestContext, signedInAgent } from '../../support/test-app';
 import { truncateAll } from '../../support/test-database';
 
@@ -59,7 +64,7 @@ describe('POST /api/auth/login', () => {
 
   it('answers 429 with Retry-After once an account has too many failures, even for the right password', async () => {
     const person = await aPerson(db);
-    for (let attempt = 0; attempt < MAX_FAILURES_PER_ACCOUNT; attempt += 1) {
+    for (let attempt = 0; attempt < ACCOUNT_SIGN_IN_POLICY.freeAttempts; attempt += 1) {
       const failure = await request(app).post('/api/auth/login').send({ email: person.email, password: 'wrong-password' });
       expect(failure.status).toBe(401);
     }
@@ -73,16 +78,105 @@ describe('POST /api/auth/login', () => {
   });
 
   it('limits failures per address across different accounts', async () => {
-    await request(app).post('/api/auth/login').send({ email: 'spray-first@spec.example', password: 'guess' });
-    const [first] = await db.select().from(loginFailures);
-    await db.insert(loginFailures).values(
-      Array.from({ length: 29 }, (_, index) => ({ email: `spray-${index}@spec.example`, ip: first!.ip })),
-    );
+    for (let attempt = 0; attempt < ADDRESS_SIGN_IN_POLICY.freeAttempts; attempt += 1) {
+      await request(app).post('/api/auth/login').send({ email: `spray-${attempt}@spec.example`, password: 'guess' });
+    }
     const person = await aPerson(db);
 
     const blocked = await request(app).post('/api/auth/login').send({ email: person.email, password: TEST_PASSWORD });
 
     expect(blocked.status).toBe(429);
+  });
+
+  it('checks at most the free attempts when twenty wrong passwords arrive at once (issue 11)', async () => {
+    const person = await aPerson(db);
+
+    const responses = await Promise.all(
+      Array.from({ length: 20 }, () => request(app).post('/api/auth/login').send({ email: person.email, password: 'parallel-guess' })),
+    );
+
+    const statuses = responses.map((response) => response.status);
+    expect(statuses.filter((status) => status === 401)).toHaveLength(ACCOUNT_SIGN_IN_POLICY.freeAttempts);
+    expect(statuses.filter((status) => status === 429)).toHaveLength(20 - ACCOUNT_SIGN_IN_POLICY.freeAttempts);
+  });
+
+  it('slows each further guess down twice as long, up to a ceiling, instead of locking the account', () => {
+    const waits = [5, 6, 7, 8, 20].map((attempts) => delayAfterS(attempts, ACCOUNT_SIGN_IN_POLICY));
+
+    expect(waits).toEqual([30, 60, 120, 240, 15 * 60]);
+    expect(delayAfterS(4, ACCOUNT_SIGN_IN_POLICY)).toBe(0);
+  });
+
+  it('lets the owner sign in from a browser that signed in before while guesses from elsewhere are slowed (issue 11)', async () => {
+    const person = await aPerson(db);
+    const owner = request.agent(app);
+    expect((await owner.post('/api/auth/login').send({ email: person.email, password: TEST_PASSWORD })).status).toBe(200);
+    await owner.post('/api/auth/logout');
+    for (let attempt = 0; attempt < ACCOUNT_SIGN_IN_POLICY.freeAttempts; attempt += 1) {
+      await request(app).post('/api/auth/login').set('X-Forwarded-For', '203.0.113.9').send({ email: person.email, password: 'attacker-guess' });
+    }
+
+    const attacker = await request(app).post('/api/auth/login').send({ email: person.email, password: TEST_PASSWORD });
+    const ownerAgain = await owner.post('/api/auth/login').send({ email: person.email, password: TEST_PASSWORD });
+
+    expect(attacker.status).toBe(429);
+    expect(ownerAgain.status).toBe(200);
+  });
+
+  it('ignores X-Forwarded-For unless TRUST_PROXY names the proxy, so the address limit cannot be dodged (issue 11)', async () => {
+    for (let attempt = 0; attempt < ADDRESS_SIGN_IN_POLICY.freeAttempts; attempt += 1) {
+      await request(app)
+        .post('/api/auth/login')
+        .set('X-Forwarded-For', `198.51.100.${attempt}`)
+        .send({ email: `dodge-${attempt}@spec.example`, password: 'guess' });
+    }
+
+    const next = await request(app).post('/api/auth/login').set('X-Forwarded-For', '198.51.100.250').send({ email: 'dodge-last@spec.example', password: 'guess' });
+
+    expect(next.status).toBe(429);
+    const rows = await db.select().from(attemptThrottles);
+    expect(rows.filter((row) => row.key.startsWith('address:')).map((row) => row.key)).toEqual([expect.stringMatching(/^address:(::ffff:)?127\.0\.0\.1$|^address:::1$/)]);
+  });
+
+  it('takes the client address from X-Forwarded-For when TRUST_PROXY names the proxy', async () => {
+    const proxied = createTestContext({ TRUST_PROXY: 'loopback' });
+
+    await request(proxied.app).post('/api/auth/login').set('X-Forwarded-For', '192.0.2.44').send({ email: 'behind@spec.example', password: 'guess' });
+
+    const rows = await db.select().from(attemptThrottles);
+    expect(rows.map((row) => row.key)).toContain('address:192.0.2.44');
+    await proxied.close();
+  });
+});
+
+describe('POST /api/auth/password-reset/request', () => {
+  it('queues a few e-mails, not fifty, when fifty requests for one person arrive at once (issue 11)', async () => {
+    const person = await aPerson(db);
+
+    const responses = await Promise.all(
+      Array.from({ length: 50 }, () => request(app).post('/api/auth/password-reset/request').send({ email: person.email })),
+    );
+
+    const queued = await db.select().from(mailOutbox);
+    expect(queued).toHaveLength(ACCOUNT_RESET_POLICY.freeAttempts);
+    expect(responses.filter((response) => response.status === 202)).toHaveLength(ACCOUNT_RESET_POLICY.freeAttempts);
+    const refused = responses.find((response) => response.status === 429)!;
+    expect(refused.body.error.code).toBe('too_many_reset_requests');
+    expect(Number(refused.headers['retry-after'])).toBeGreaterThan(0);
+  });
+
+  it('answers an unknown address exactly as a known one, throttled alike', async () => {
+    const person = await aPerson(db);
+    const send = (email: string) => request(app).post('/api/auth/password-reset/request').send({ email });
+
+    const known = [];
+    const unknown = [];
+    for (let i = 0; i <= ACCOUNT_RESET_POLICY.freeAttempts; i++) {
+      known.push((await send(person.email)).status);
+      unknown.push((await send('nobody-here@spec.example')).status);
+    }
+
+    expect(unknown).toEqual(known);
   });
 });
 

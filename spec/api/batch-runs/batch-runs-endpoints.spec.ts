@@ -145,8 +145,13 @@ function createHoldingQueue() {
   const queue: JobQueue = {
     async send(name, data) {
       if (name === BATCH_RUN_JOB) jobs.push(data as BatchRunJob);
+      return `held-${jobs.length}`;
     },
     async registerWorker() {},
+    async jobState() {
+      return { state: 'created' as const, startedOn: null };
+    },
+    async cancel() {},
     async stop() {},
   };
   return { queue, jobs };

@@ -1,7 +1,8 @@
 import { sql } from 'drizzle-orm';
 import request from 'supertest';
 import { afterAll, beforeAll, beforeEach, describe, expect, it } from 'vitest';
-import { createTestContext, signedInAgent } from '../../support/test-app';
+import { ACCOUNT_SIGN_IN_POLICY } from '../../../api/auth/attempt-throttle';
+import { TEST_PASSWORD, aPerson, createTestContext, signedInAgent } from '../../support/test-app';
 import { countRows, truncateAll } from '../../support/test-database';
 import { startMailCatcher, tokenFromLink } from '../../support/mail-catcher';
 
@@ -155,5 +156,46 @@ describe('PATCH /api/people/:personId', () => {
 
     expect(unknown.status).toBe(404);
     expect(empty.status).toBe(400);
+  });
+
+  it('answers 201 to one and 409 to the other of two simultaneous invitations for one address (issue 11)', async () => {
+    const { agent: admin } = await signedInAgent(app, db, 'admin');
+    const invite = () => admin.post('/api/people').send({ email: 'twice@spec.example', name: 'Twice', role: 'planner' });
+
+    const [first, second] = await Promise.all([invite(), invite()]);
+
+    expect([first.status, second.status].sort()).toEqual([201, 409]);
+    expect([first, second].find((response) => response.status === 409)!.body.error.code).toBe('email_taken');
+    expect(await countRows(db, 'users')).toBe(2);
+  });
+});
+
+describe('sign-in slow-down as the administrator sees it (issue 11)', () => {
+  it('shows an account slowed by failed sign-ins and lets the administrator lift it', async () => {
+    const { agent: admin } = await signedInAgent(app, db, 'admin');
+    const person = await aPerson(db, { role: 'planner' });
+    for (let attempt = 0; attempt < ACCOUNT_SIGN_IN_POLICY.freeAttempts; attempt += 1) {
+      await request(app).post('/api/auth/login').send({ email: person.email, password: 'wrong-guess' });
+    }
+    const slowed = (await admin.get('/api/people')).body.items.find((item: { id: string }) => item.id === person.id);
+    const refused = await request(app).post('/api/auth/login').send({ email: person.email, password: TEST_PASSWORD });
+
+    const lifted = await admin.post(`/api/people/${person.id}/unblock-sign-in`);
+    const signedIn = await request(app).post('/api/auth/login').send({ email: person.email, password: TEST_PASSWORD });
+
+    expect(slowed.signIn.failedAttempts).toBe(ACCOUNT_SIGN_IN_POLICY.freeAttempts);
+    expect(Date.parse(slowed.signIn.slowedUntil)).toBeGreaterThan(Date.now());
+    expect(refused.status).toBe(429);
+    expect(lifted.status).toBe(200);
+    expect(lifted.body.signIn).toEqual({ failedAttempts: 0, slowedUntil: null });
+    expect(signedIn.status).toBe(200);
+  });
+
+  it('shows no slow-down for accounts nobody has guessed at', async () => {
+    const { agent: admin, person } = await signedInAgent(app, db, 'admin');
+
+    const listed = (await admin.get('/api/people')).body.items.find((item: { id: string }) => item.id === person.id);
+
+    expect(listed.signIn).toEqual({ failedAttempts: 0, slowedUntil: null });
   });
 });

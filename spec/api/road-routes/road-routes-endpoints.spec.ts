@@ -155,13 +155,16 @@ describe('GET /api/routes', () => {
 });
 
 describe('DELETE /api/routes/:routeId', () => {
-  it('deletes the route and its versions', async () => {
+  it('deletes the route and its versions from every list and lookup, keeping them to restore (issue 11)', async () => {
     const created = (await request(app).post('/api/routes').set('Cookie', planner).send(aRouteDraft())).body;
 
     const response = await request(app).delete(`/api/routes/${created.id}`).set('Cookie', planner);
 
     expect(response.status).toBe(204);
-    expect(await countRows(db, 'road_route_versions')).toBe(0);
+    expect((await request(app).get(`/api/routes/${created.id}`).set('Cookie', planner)).status).toBe(404);
+    expect((await request(app).get(`/api/routes/${created.id}/versions`).set('Cookie', planner)).status).toBe(404);
+    expect((await request(app).get('/api/routes').set('Cookie', planner)).body.items).toEqual([]);
+    expect(await countRows(db, 'road_route_versions')).toBe(1);
   });
 });
 

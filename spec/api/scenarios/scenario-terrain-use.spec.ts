@@ -1,13 +1,16 @@
 import { join } from 'node:path';
+import { eq } from 'drizzle-orm';
 import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { seedDemoPeople } from '../../../api/demo/demo-people';
 import { DEMO_ROADS, seedDemoTerrain } from '../../../api/demo/demo-terrain';
+import { terrainDependents } from '../../../api/db/schema/index';
+import { countScenariosUsingTerrain } from '../../../api/terrain/terrain-repository';
 import { closeTerrainRuntime } from '../../../api/terrain/terrain-runtime';
 import { ensureVehiclePresets } from '../../../api/vehicle-profiles/vehicle-presets-seed';
 import { createTestContext, type TestContext } from '../../support/test-app';
 import { sessionCookies } from '../../support/session-cookie';
-import { countRows, truncateAll } from '../../support/test-database';
+import { truncateAll } from '../../support/test-database';
 import { tempDir } from '../terrain/support/gdal';
 
 describe('scenarios computed on uploaded terrain', () => {
@@ -54,7 +57,8 @@ describe('scenarios computed on uploaded terrain', () => {
     expect(refused.body.error.code).toBe('terrain_in_use');
 
     await request(context.app).delete(`/api/scenarios/${scenario.body.id}`).set('Cookie', planner).expect(204);
-    expect(await countRows(context.db, 'terrain_dependents')).toBe(0);
+    // The deleted scenario (restorable) no longer holds the terrain back.
+    expect(await countScenariosUsingTerrain(context.db, terrainId)).toBe(0);
   });
 
   it('does not tie a scenario to terrain when the route carries its own elevations', async () => {
@@ -72,6 +76,7 @@ describe('scenarios computed on uploaded terrain', () => {
       .send({ name: 'Own heights', routeId: route.body.id, vehicleProfileId: vehicles.body.items[0].id });
 
     expect(scenario.body.status).toBe('done');
-    expect(await countRows(context.db, 'terrain_dependents')).toBe(0);
+    expect(await context.db.select().from(terrainDependents).where(eq(terrainDependents.dependentId, scenario.body.id))).toEqual([]);
   });
 });
+

@@ -262,15 +262,32 @@ print('{}')`, [path]);
   });
 
   describe('DELETE /api/terrain/:id', () => {
-    it('removes the row and the files with 204', async () => {
+    it('takes the model out of the catalogue with 204, keeping its files until it can no longer be restored (issue 11)', async () => {
       const { body } = await uploadTerrain(analyst, good, 'Doomed');
       await waitUntilIngested(analyst, body.id);
 
       const response = await analyst.delete(`/api/terrain/${body.id}`);
+      const reupload = await uploadTerrain(analyst, good, 'Doomed again');
+      const restored = await analyst.post(`/api/terrain/${body.id}/restore`);
 
       expect(response.status).toBe(204);
+      expect(reupload.status).toBe(409);
+      expect(reupload.body.error.message).toMatch(/deleted from the catalogue as “Doomed”; restore it/);
+      expect(filesUnder(dataDir).filter((f) => f.startsWith(`terrain/${body.id}/model.tif`))).toHaveLength(1);
+      expect(restored.status).toBe(200);
+      expect(restored.body).toMatchObject({ id: body.id, status: 'ready' });
+      expect((await analyst.get('/api/terrain')).body.items.map((item: { id: string }) => item.id)).toEqual([body.id]);
+    });
+
+    it('hides a deleted model from the catalogue and from sampling', async () => {
+      const { body } = await uploadTerrain(analyst, good, 'Gone');
+      await waitUntilIngested(analyst, body.id);
+
+      await analyst.delete(`/api/terrain/${body.id}`);
+
       expect((await analyst.get(`/api/terrain/${body.id}`)).status).toBe(404);
-      expect(filesUnder(dataDir).filter((f) => f.startsWith(`terrain/${body.id}`))).toEqual([]);
+      expect((await analyst.get('/api/terrain')).body.items).toEqual([]);
+      expect((await analyst.post('/api/terrain/sample').send({ points: [[10.86, 46.56]] })).body.elevationsM).toEqual([null]);
     });
 
     it('answers 409 while a saved scenario depends on it; analysts may not force; admins may', async () => {
@@ -286,7 +303,7 @@ print('{}')`, [path]);
       expect(refused.body.error.message).toMatch(/1 saved scenario/);
       expect(analystForce.status).toBe(403);
       expect(adminForce.status).toBe(204);
-      expect(await countRows(context.db, 'terrain_models')).toBe(0);
+      expect((await analyst.get('/api/terrain')).body.items).toEqual([]);
     });
   });
 

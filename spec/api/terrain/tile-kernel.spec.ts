@@ -81,7 +81,8 @@ describe('tile kernel', () => {
   });
 
   it('renders a tile split into row parts to the same pixels as in one piece, gaps transparent', () => {
-    for (const hole of [undefined, [150, 20, 400, 400], [0, 0, 400, 200] as [number, number, number, number]]) {
+    const holes: ([number, number, number, number] | undefined)[] = [undefined, [150, 20, 400, 400], [0, 0, 400, 200]];
+    for (const hole of holes) {
       const width = 400;
       const height = 400;
       const layer: TileLayer = {

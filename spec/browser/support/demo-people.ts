@@ -14,16 +14,16 @@ export type DemoRole = 'planner' | 'analyst' | 'safety' | 'board' | 'admin';
 const EVERY_ROLE_SEES = ['Home', 'Routes', 'Descent review', 'Network summary', 'Scenarios', 'Vehicle profiles'];
 
 export const ROLE_EXPECTATIONS: Readonly<Record<DemoRole, { homeHeading: string; navigation: string[] }>> = {
-  planner: { homeHeading: 'Routes and scenarios', navigation: EVERY_ROLE_SEES },
+  planner: { homeHeading: 'Routes and scenarios', navigation: [...EVERY_ROLE_SEES, 'Recently deleted'] },
   analyst: {
     homeHeading: 'Terrain and vehicle profiles',
-    navigation: ['Home', 'Routes', 'Descent review', 'Network summary', 'Network runs', 'Scenarios', 'Vehicle profiles', 'Terrain'],
+    navigation: ['Home', 'Routes', 'Descent review', 'Network summary', 'Network runs', 'Scenarios', 'Vehicle profiles', 'Terrain', 'Recently deleted'],
   },
   safety: { homeHeading: 'Descent review', navigation: EVERY_ROLE_SEES },
   board: { homeHeading: 'Network summary', navigation: EVERY_ROLE_SEES },
   admin: {
     homeHeading: 'People and outgoing mail',
-    navigation: [...EVERY_ROLE_SEES, 'Terrain', 'People', 'Outgoing mail', 'Network settings'],
+    navigation: [...EVERY_ROLE_SEES, 'Terrain', 'Recently deleted', 'People', 'Outgoing mail', 'Audit log', 'Network settings'],
   },
 };
 

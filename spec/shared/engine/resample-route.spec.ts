@@ -1,6 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import { Geodesic } from 'geographiclib-geodesic';
 import { resampleRoute } from '../../../shared/engine/resample-route';
+import { RouteTooLargeError } from '../../../shared/engine/validation';
 
 describe('resampleRoute', () => {
   const route: [number, number, number][] = [
@@ -19,6 +20,20 @@ describe('resampleRoute', () => {
     const resampled = resampleRoute(route, 10);
 
     expect(Math.abs(resampled.distanceM[resampled.distanceM.length - 1]! - expected)).toBeLessThan(1e-3);
+  });
+
+  it('refuses, naming both limits, a route whose point count passes the limit, before building points', () => {
+    const resampled = () => resampleRoute(route, 1, { maxLengthM: 100_000, maxPoints: 500 });
+
+    expect(resampled).toThrow(RouteTooLargeError);
+    expect(resampled).toThrow(/at most 100 km and 500 points/);
+  });
+
+  it('counts exactly the points it would build when it checks the limits', () => {
+    const built = resampleRoute(route, 10).distanceM.length;
+
+    expect(() => resampleRoute(route, 10, { maxLengthM: 100_000, maxPoints: built })).not.toThrow();
+    expect(() => resampleRoute(route, 10, { maxLengthM: 100_000, maxPoints: built - 1 })).toThrow(RouteTooLargeError);
   });
 
   it('keeps every original vertex and never spaces points further apart than Δs', () => {

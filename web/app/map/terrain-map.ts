@@ -218,12 +218,10 @@ export class TerrainMap {
         const isHandle = overlay.kind === 'handle';
         const className = isHandle ? `app-map-handle app-map-handle-${overlay.variant}` : 'app-map-pin';
         const size = isHandle ? (overlay.variant === 'midpoint' ? 12 : 16) : 22;
-        // Div icons carry no image: nothing to break once the build hashes file names.
-        const icon = L.divIcon({
-          className,
-          iconSize: [size, size],
-          html: isHandle ? '' : `<span style="background:${overlay.color}"></span>`,
-        });
+        // Div icons carry no image: nothing to break once the build hashes file names. The pin's
+        // colour is set on the element (not as a style attribute in markup, which the
+        // Content-Security-Policy refuses).
+        const icon = L.divIcon({ className, iconSize: [size, size], html: isHandle ? '' : pinDot(overlay.color) });
         const marker = L.marker(toLatLng(overlay.at), {
           icon,
           draggable: overlay.draggable ?? false,
@@ -255,4 +253,11 @@ function fromLatLng(latLng: L.LatLng): MapPosition {
 /** 7 decimals ≈ 1 cm: enough for a route, and GeoJSON stays readable. */
 function round7(value: number): number {
   return Math.round(value * 1e7) / 1e7;
+}
+
+/** The coloured dot inside a map pin. */
+function pinDot(color: string): HTMLElement {
+  const dot = document.createElement('span');
+  dot.style.background = color;
+  return dot;
 }

@@ -13,6 +13,7 @@ import {
 import { toObservable, toSignal } from '@angular/core/rxjs-interop';
 import { FormControl, FormGroup, ReactiveFormsModule, Validators } from '@angular/forms';
 import { MatButtonModule } from '@angular/material/button';
+import { MatDialog } from '@angular/material/dialog';
 import { MatButtonToggleModule } from '@angular/material/button-toggle';
 import { MatFormFieldModule } from '@angular/material/form-field';
 import { MatIconModule } from '@angular/material/icon';
@@ -27,6 +28,7 @@ import { Router, RouterLink } from '@angular/router';
 import { ROUTE_MODES, type RoadRoute, type RoadRouteDraftInput } from '@shared/domain/road-routes';
 import { catchError, debounceTime, firstValueFrom, map, of, startWith, switchMap } from 'rxjs';
 import { describeApiError } from '../core/api-error-message';
+import { confirmDelete } from '../ui/confirm-delete-dialog';
 import { Session } from '../core/session';
 import { DistanceChart, type ChartSeries } from '../charts/distance-chart';
 import { TerrainMap, type MapOverlay, type MapOverlayEvent, type MapPosition } from '../map/terrain-map';
@@ -117,6 +119,7 @@ const LIMIT_COLOR = '#c2570c';
 })
 export default class RouteEditor {
   private readonly api = inject(RoadRoutesApi);
+  private readonly dialog = inject(MatDialog);
   private readonly session = inject(Session);
   private readonly router = inject(Router);
   private readonly snackBar = inject(MatSnackBar);
@@ -576,7 +579,13 @@ export default class RouteEditor {
 
   protected async deleteRoute(): Promise<void> {
     const route = this.saved();
-    if (!route || !window.confirm(`Delete the route “${route.name}” and every version of it?`)) return;
+    if (!route) return;
+    const confirmed = await confirmDelete(this.dialog, {
+      what: 'route',
+      name: route.name,
+      consequence: 'The route and every saved version of it leave the route list. Scenarios that use it must be deleted first.',
+    });
+    if (!confirmed) return;
     try {
       await this.api.remove(route.id);
       await this.router.navigate(['/routes']);

@@ -11,17 +11,19 @@ import {
   untracked,
 } from '@angular/core';
 import { MatButtonModule } from '@angular/material/button';
+import { MatDialog } from '@angular/material/dialog';
 import { MatButtonToggleModule } from '@angular/material/button-toggle';
 import { MatIconModule } from '@angular/material/icon';
 import { MatMenuModule } from '@angular/material/menu';
 import { MatProgressBarModule } from '@angular/material/progress-bar';
 import { MatTooltipModule } from '@angular/material/tooltip';
-import { RouterLink } from '@angular/router';
+import { Router, RouterLink } from '@angular/router';
 import type { Descent, RiskLevel } from '@shared/domain/analysis';
 import type { DirectionResult, Scenario, ScenarioResult } from '@shared/domain/scenarios';
 import { DistanceChart, type ChartSeries } from '../charts/distance-chart';
 import { describeApiError, apiErrorBody } from '../core/api-error-message';
 import { Session } from '../core/session';
+import { confirmDelete } from '../ui/confirm-delete-dialog';
 import { TerrainMap, type MapOverlay, type MapPosition } from '../map/terrain-map';
 import { QuantityPipe } from '../units/quantity-pipe';
 import { fromDisplay, toDisplay, unitLabel } from '../units/unit-format';
@@ -92,7 +94,9 @@ const CARD_FIGURES: readonly string[] = [
 })
 export default class ScenarioResultScreen {
   private readonly api = inject(ScenariosApi);
+  private readonly dialog = inject(MatDialog);
   private readonly session = inject(Session);
+  private readonly router = inject(Router);
 
   /** From `scenarios/:scenarioId`. */
   readonly scenarioId = input.required<string>();
@@ -235,6 +239,25 @@ export default class ScenarioResultScreen {
       this.loadError.set(describeApiError(error));
     } finally {
       this.isStarting.set(false);
+    }
+  }
+
+  /** Deletes the scenario after asking (restorable under Recently deleted) and goes back to the list. */
+  protected async deleteScenario(): Promise<void> {
+    const scenario = this.scenario();
+    if (!scenario) return;
+    const confirmed = await confirmDelete(this.dialog, {
+      what: 'scenario',
+      name: scenario.name,
+      consequence: 'The scenario and its results leave the scenario list, the network summary and network-wide runs.',
+    });
+    if (!confirmed) return;
+    try {
+      await this.api.remove(scenario.id);
+      await this.router.navigate(['/scenarios']);
+    } catch (error: unknown) {
+      // Expected: the server refused (the interceptor has shown why) or cannot be reached.
+      this.loadError.set(describeApiError(error));
     }
   }
 

@@ -10,7 +10,7 @@ import type { TerrainModel, TerrainStatus } from '@shared/domain/terrain';
 import { apiErrorBody, describeApiError } from '../core/api-error-message';
 import { Session } from '../core/session';
 import { TerrainMap, type MapOverlay, type MapPosition } from '../map/terrain-map';
-import { DeleteTerrainDialog, type DeleteTerrainDialogData } from './delete-terrain-dialog';
+import { confirmDelete } from '../ui/confirm-delete-dialog';
 import { TerrainApi } from './terrain-api';
 import {
   TERRAIN_STATUS_LABELS,
@@ -127,17 +127,15 @@ export default class TerrainCatalogue {
     void this.load();
   }
 
-  protected confirmDelete(model: TerrainModel): void {
-    this.dialog
-      .open<DeleteTerrainDialog, DeleteTerrainDialogData, boolean>(DeleteTerrainDialog, {
-        data: { name: model.name },
-        width: '460px',
-        maxWidth: '95vw',
-      })
-      .afterClosed()
-      .subscribe((confirmed) => {
-        if (confirmed) void this.delete(model, false);
-      });
+  protected async confirmDelete(model: TerrainModel): Promise<void> {
+    const confirmed = await confirmDelete(this.dialog, {
+      what: 'terrain model',
+      name: model.name,
+      consequence:
+        'It leaves the catalogue, the map and elevation sampling at once. Routes sampled on it keep their stored ' +
+        'elevations; new samples use the remaining models. Its file is kept while it can be restored.',
+    });
+    if (confirmed) await this.delete(model, false);
   }
 
   private async delete(model: TerrainModel, force: boolean): Promise<void> {
@@ -145,7 +143,7 @@ export default class TerrainCatalogue {
       await this.terrainApi.delete(model.id, force);
       this.models.update((models) => models.filter((m) => m.id !== model.id));
       if (this.selectedId() === model.id) this.selectedId.set(null);
-      this.snackBar.open(`“${model.name}” was deleted.`, 'OK');
+      this.snackBar.open(`“${model.name}” was deleted; restore it under Recently deleted if that was a mistake.`, 'OK');
     } catch (error: unknown) {
       // Expected: 409 while saved scenarios use the model; administrators may force it.
       const body = apiErrorBody(error);

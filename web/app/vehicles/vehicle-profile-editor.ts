@@ -2,6 +2,7 @@ import { ChangeDetectionStrategy, Component, computed, effect, inject, input, si
 import { toSignal } from '@angular/core/rxjs-interop';
 import { FormControl, FormGroup, ReactiveFormsModule, Validators } from '@angular/forms';
 import { MatButtonModule } from '@angular/material/button';
+import { MatDialog } from '@angular/material/dialog';
 import { MatButtonToggleModule } from '@angular/material/button-toggle';
 import { MatFormFieldModule } from '@angular/material/form-field';
 import { MatIconModule } from '@angular/material/icon';
@@ -12,6 +13,7 @@ import { MatSnackBar } from '@angular/material/snack-bar';
 import { Router, RouterLink } from '@angular/router';
 import type { CapabilityCurvesResponse, LoadCase, VehicleProfile } from '@shared/domain/vehicle-profiles';
 import { describeApiError } from '../core/api-error-message';
+import { confirmDelete } from '../ui/confirm-delete-dialog';
 import { Session } from '../core/session';
 import type { UnitSystem } from '../units/unit-format';
 import { UnitPreference } from '../units/unit-preference';
@@ -57,6 +59,7 @@ type NumberControls = Record<string, FormControl<number | null>>;
 })
 export default class VehicleProfileEditor {
   private readonly api = inject(VehicleProfilesApi);
+  private readonly dialog = inject(MatDialog);
   private readonly session = inject(Session);
   private readonly router = inject(Router);
   private readonly snackBar = inject(MatSnackBar);
@@ -170,7 +173,13 @@ export default class VehicleProfileEditor {
 
   protected async remove(): Promise<void> {
     const profile = this.profile();
-    if (!profile || !window.confirm(`Delete the vehicle profile “${profile.name}”?`)) return;
+    if (!profile) return;
+    const confirmed = await confirmDelete(this.dialog, {
+      what: 'vehicle profile',
+      name: profile.name,
+      consequence: 'The profile leaves the vehicle library. Scenarios that use it must be deleted or moved to another profile first.',
+    });
+    if (!confirmed) return;
     try {
       await this.api.remove(profile.id);
       await this.router.navigate(['/vehicles']);

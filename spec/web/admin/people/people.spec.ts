@@ -92,6 +92,24 @@ describe('People', () => {
     expect(await roleSelect.getValueText()).toBe('Energy & terrain analyst');
   });
 
+  it('shows an account slowed down by failed sign-ins and lifts it from the row menu (issue 11)', async () => {
+    const slowed = { ...EVERYONE[0]!, signIn: { failedAttempts: 7, slowedUntil: '2026-03-02T10:45:00.000Z' } };
+    const { fixture, loader } = await renderWith([slowed, ...EVERYONE.slice(1)]);
+    const chip = (fixture.nativeElement as HTMLElement).querySelector('[data-testid="sign-in-slowed"]');
+
+    const menuButton = await loader.getHarness((await import('@angular/material/button/testing')).MatButtonHarness.with({ selector: '[aria-label="Actions for Ada Brennan"]' }));
+    await menuButton.click();
+    const { MatMenuHarness } = await import('@angular/material/menu/testing');
+    const menu = await TestbedHarnessEnvironment.documentRootLoader(fixture).getHarness(MatMenuHarness);
+    await menu.clickItem({ text: /Lift sign-in slow-down/ });
+    const request = httpTesting.expectOne({ method: 'POST', url: `/api/people/${slowed.id}/unblock-sign-in` });
+    request.flush({ ...slowed, signIn: { failedAttempts: 0, slowedUntil: null } });
+    await settle(fixture);
+
+    expect(chip?.textContent).toMatch(/Sign-in slowed until/);
+    expect((fixture.nativeElement as HTMLElement).querySelector('[data-testid="sign-in-slowed"]')).toBeNull();
+  });
+
   async function renderWith(people: Person[]) {
     const fixture = TestBed.createComponent(People);
     httpTesting.expectOne('/api/people').flush({ items: people });
@@ -129,6 +147,7 @@ function aPerson(overrides: Partial<Person>): Person {
     status: 'active',
     createdAt: '2026-03-01T08:00:00.000Z',
     lastSignInAt: null,
+    signIn: { failedAttempts: 0, slowedUntil: null },
     ...overrides,
   };
 }

@@ -36,6 +36,14 @@ export class PeopleApi {
     return personSchema.parse(body);
   }
 
+  /** Lifts the slow-down failed sign-ins put on the account; answers the person as they are now. */
+  async liftSignInLimit(personId: string): Promise<Person> {
+    const body = await firstValueFrom(
+      this.http.post(`/api/people/${encodeURIComponent(personId)}/unblock-sign-in`, null),
+    );
+    return personSchema.parse(body);
+  }
+
   /** Sends the person a password reset link (202). */
   async sendPasswordReset(personId: string): Promise<void> {
     await firstValueFrom(

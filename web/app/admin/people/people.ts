@@ -145,6 +145,16 @@ export default class People {
     await this.applyUpdate(person, { status: enabled ? 'active' : 'disabled' }, message);
   }
 
+  /** Ends the wait that failed sign-ins put on the account (the person may be locked out by someone else's guesses). */
+  protected async liftSignInLimit(person: Person): Promise<void> {
+    try {
+      this.replacePerson(await this.peopleApi.liftSignInLimit(person.id));
+      this.snackBar.open(`${person.name} can sign in again without waiting.`, 'OK');
+    } catch {
+      // Expected: the interceptor has shown the API's reason in a snack bar.
+    }
+  }
+
   protected async sendPasswordReset(person: Person): Promise<void> {
     try {
       await this.peopleApi.sendPasswordReset(person.id);
