@@ -1,5 +1,6 @@
 import { analysisEndpoints } from './analysis/analysis-endpoints';
 import type { AppDeps } from './app-deps';
+import { basemapEndpoints } from './basemap/basemap-endpoints';
 import { batchRunsEndpoints } from './batch-runs/batch-runs-endpoints';
 import { boardEndpoints } from './board/board-endpoints';
 import { authEndpoints } from './auth/auth-endpoints';
@@ -34,5 +35,6 @@ export function allEndpoints(deps: AppDeps): AnyEndpoint[] {
     ...vehicleProfileEndpoints(deps),
     ...scenarioEndpoints(deps),
     ...terrainEndpoints(deps),
+    ...basemapEndpoints(deps),
   ];
 }

@@ -8,6 +8,7 @@ import { startBatchRunWorkers } from './batch-runs/batch-runs-service';
 import { createSmtpTransport, startMailWorker } from './mail/mail-worker';
 import { startSmtpFake } from './mail/smtp-fake';
 import { startTerrain } from './terrain/terrain-startup';
+import { startBasemap } from './basemap/basemap-startup';
 import { ensureVehiclePresets } from './vehicle-profiles/vehicle-presets-seed';
 
 const config = loadConfig();
@@ -29,6 +30,7 @@ if (config.RUN_WORKERS) {
   stoppers.push(worker.stop);
 }
 stoppers.push(await startTerrain(deps));
+await startBasemap(deps);
 await startBatchRunWorkers(deps);
 
 const server = createServer(createApp(deps));

@@ -315,7 +315,7 @@ export async function seedDemoNetwork(deps: AppDeps): Promise<void> {
   // The reference road network: the valley road and the pass road, when none has been uploaded.
   const [anyLine] = await db.select({ id: roadNetworkLines.id }).from(roadNetworkLines).limit(1);
   if (!anyLine) {
-    await replaceRoadNetwork(db, analyst.id, [
+    await replaceRoadNetwork(deps, analyst.id, [
       { featureIndex: 0, partIndex: 0, properties: { name: 'Valley road (Westgate – Korvel – Lindmoor)' }, coordinates: routeLines[0]! },
       { featureIndex: 1, partIndex: 0, properties: { name: 'Korvel pass road (Korvel – Korvel Pass – Orren)' }, coordinates: routeLines[1]! },
     ]);

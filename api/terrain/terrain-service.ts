@@ -3,6 +3,7 @@ import { access, mkdir, rename, unlink } from 'node:fs/promises';
 import type { User } from '@shared/domain/auth';
 import type { TerrainModel, TerrainUploadAccepted } from '@shared/domain/terrain';
 import type { AppDeps } from '../app-deps';
+import { requestRoadGraphRegrade } from '../road-graph/road-graph-jobs';
 import { ConflictError, ForbiddenError, HttpError, NotFoundError } from '../http/http-error';
 import { createInlineJobQueue, jobQueueOf, type JobQueue } from '../jobs/job-queue';
 import { inspectGeoTiff } from './geotiff-inspection';
@@ -129,6 +130,7 @@ export async function deleteTerrain(deps: AppDeps, user: User, id: string, force
   }
   await deleteTerrainRow(deps.db, id);
   runtime.invalidateCatalogue();
+  await requestRoadGraphRegrade(deps);
   const source = runtime.sourceFromRow(row);
   await runtime.blocks.forget(source).catch(() => undefined);
   await runtime.storage.removeModelFiles(id);
