@@ -18,7 +18,12 @@ interface SnappedPoint {
   edgeId: number;
   fraction: number;
   distanceM: number;
+  /** The edge's end vertex when the point lies on it (pgr_withPoints needs points strictly inside an edge). */
+  vertex: string | null;
 }
+
+/** Closer than this to an edge's end, a point is taken to be that end vertex, m. */
+const AT_VERTEX_M = 0.01;
 
 interface LegPiece {
   coordinates: Position[];
@@ -134,17 +139,22 @@ function usableEdgesSql(base: ActiveBasemap | null): SQL {
 /** The closest point of the closest edge: candidates by the spatial index, ranked on the ellipsoid. */
 async function snapToGraph(db: Database, base: ActiveBasemap | null, [lon, lat]: Position): Promise<SnappedPoint | null> {
   const point = sql`ST_SetSRID(ST_MakePoint(${lon}::float8, ${lat}::float8), 4326)`;
-  const overlay = sql`(SELECT id, geometry AS geom FROM road_graph_overlay_edges WHERE ${baseCondition(base)} ORDER BY geometry <-> ${point} LIMIT 8)`;
+  const overlay = sql`(SELECT id, geometry AS geom, length_m, source, target FROM road_graph_overlay_edges WHERE ${baseCondition(base)} ORDER BY geometry <-> ${point} LIMIT 8)`;
   const candidates = base
-    ? sql`(SELECT e.id, e.geom FROM ${schemaIdentifier(base.schemaName)}.graph_edges e
+    ? sql`(SELECT e.id, e.geom, e.length_m, e.source, e.target FROM ${schemaIdentifier(base.schemaName)}.graph_edges e
           WHERE NOT EXISTS (SELECT 1 FROM road_graph_overlay_edges o WHERE o.base_import_id = ${base.importId} AND o.replaces_edge_id = e.id)
           ORDER BY e.geom <-> ${point} LIMIT 8) UNION ALL ${overlay}`
     : overlay;
-  const rows = await db.execute<{ id: number; fraction: number; distance_m: number }>(sql`
-    SELECT c.id::float8 AS id, ST_LineLocatePoint(c.geom, ${point}) AS fraction, ST_Distance(c.geom::geography, ${point}::geography) AS distance_m
+  const rows = await db.execute<{ id: number; fraction: number; distance_m: number; length_m: number; source: string; target: string }>(sql`
+    SELECT c.id::float8 AS id, ST_LineLocatePoint(c.geom, ${point}) AS fraction, ST_Distance(c.geom::geography, ${point}::geography) AS distance_m,
+      c.length_m, c.source::text AS source, c.target::text AS target
     FROM (${candidates}) c ORDER BY distance_m, c.id LIMIT 1`);
   const row = rows[0];
-  return row ? { edgeId: Number(row.id), fraction: clamp01(row.fraction), distanceM: row.distance_m } : null;
+  if (!row) return null;
+  const fraction = clamp01(row.fraction);
+  // Vertex ids use all 64 bits: they stay text on this side (a JS number would round them).
+  const vertex = fraction * row.length_m < AT_VERTEX_M ? row.source : (1 - fraction) * row.length_m < AT_VERTEX_M ? row.target : null;
+  return { edgeId: Number(row.id), fraction, distanceM: row.distance_m, vertex };
 }
 
 /** One leg: the edges within a box around its points first, the whole graph when no path lies inside. */
@@ -167,7 +177,8 @@ async function legWithin(
   end: SnappedPoint,
   box: [number, number, number, number] | null,
 ): Promise<LegPiece[] | null> {
-  if (start.edgeId === end.edgeId && start.fraction === end.fraction) {
+  const samePlace = start.vertex !== null ? start.vertex === end.vertex : start.edgeId === end.edgeId && start.fraction === end.fraction;
+  if (samePlace) {
     const [row] = await db.execute<{ geojson: string }>(
       sql`SELECT ST_AsGeoJSON(ST_LineInterpolatePoint(geom, ${start.fraction}::float8), 7) AS geojson FROM (${usableEdgesSql(base)}) e WHERE e.id = ${start.edgeId}`,
     );
@@ -180,11 +191,20 @@ async function legWithin(
       ? sql`SELECT id, source, target, cost, reverse_cost FROM (${usableEdgesSql(base)}) e WHERE e.geom && ST_MakeEnvelope(${box[0]}::float8, ${box[1]}::float8, ${box[2]}::float8, ${box[3]}::float8, 4326)`
       : sql`SELECT id, source, target, cost, reverse_cost FROM (${usableEdgesSql(base)}) e`,
   );
-  const pointsText = `SELECT * FROM (VALUES (1::bigint, ${start.edgeId}::bigint, ${start.fraction}::float8, 'b'::char), (2::bigint, ${end.edgeId}::bigint, ${end.fraction}::float8, 'b'::char)) AS p(pid, edge_id, fraction, side)`;
+  // Points inside an edge are pgRouting "points" (pids 1 and 2, nodes −1 and −2 in its answer);
+  // points on a vertex are that vertex.
+  const points = [
+    ...(start.vertex === null ? [`(1::bigint, ${start.edgeId}::bigint, ${start.fraction}::float8, 'b'::char)`] : []),
+    ...(end.vertex === null ? [`(2::bigint, ${end.edgeId}::bigint, ${end.fraction}::float8, 'b'::char)`] : []),
+  ];
+  const startNode = start.vertex ?? '-1';
+  const endNode = end.vertex ?? '-2';
+  const route =
+    points.length > 0
+      ? sql`SELECT path_seq, node, edge FROM pgr_withPoints(${edgesText}, ${`SELECT * FROM (VALUES ${points.join(', ')}) AS p(pid, edge_id, fraction, side)`}, ${startNode}::bigint, ${endNode}::bigint, directed => true, driving_side => 'b', details => false)`
+      : sql`SELECT path_seq, node, edge FROM pgr_dijkstra(${edgesText}, ${startNode}::bigint, ${endNode}::bigint, directed => true)`;
   const rows = await db.execute<{ geojson: string; length_m: number; ascent_m: number | null; descent_m: number | null }>(sql`
-    WITH route AS (
-      SELECT path_seq, node, edge FROM pgr_withPoints(${edgesText}, ${pointsText}, -1, -2, directed => true, driving_side => 'b', details => false)
-    ), steps AS (
+    WITH route AS (${route}), steps AS (
       SELECT path_seq, node, edge, lead(node) OVER (ORDER BY path_seq) AS next_node FROM route
     ), edges AS (
       SELECT * FROM (${usableEdgesSql(base)}) e WHERE e.id IN (SELECT edge FROM route WHERE edge > 0)

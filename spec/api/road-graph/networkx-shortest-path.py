@@ -10,9 +10,10 @@ paths or pedestrian streets), the access hierarchy access > vehicle > motor_vehi
 discouraged allow), one-way from oneway=yes/1/true/-1/reverse, junction=roundabout/circular and
 highway=motorway, overridden by oneway:psv then oneway:bus.
 
-Usage: networkx-shortest-path.py FILE.osm [FROM_NODE TO_NODE]
-Without node ids it picks the pair of junctions with the longest shortest path (ties: smallest
-ids) and prints that path; with them, the path between those two nodes.
+Usage: networkx-shortest-path.py FILE.osm [FROM_NODE TO_NODE | --one-way]
+Without node ids it picks the pair of junctions, each reachable from the other, with the
+longest shortest path (ties: smallest ids) and prints that path; with --one-way, the pair whose
+two directions differ most in length (one-way streets); with ids, the path between those nodes.
 Prints JSON: { from, to, fromNode, toNode, lengthM, coordinates, nodeCount, edgeCount }.
 """
 import json
@@ -89,18 +90,23 @@ def main():
             for u, v, ok in ((a, b, oneway >= 0), (b, a, oneway <= 0)):
                 if ok and (not graph.has_edge(u, v) or graph[u][v]['weight'] > metres):
                     graph.add_edge(u, v, weight=metres)
+    one_way = len(sys.argv) == 3 and sys.argv[2] == '--one-way'
     if len(sys.argv) >= 4:
         source, target = int(sys.argv[2]), int(sys.argv[3])
         length = nx.dijkstra_path_length(graph, source, target)
     else:
         junctions = sorted(node for node, count in uses.items() if count > 1 and node in graph)
+        lengths = {source: nx.single_source_dijkstra_path_length(graph, source) for source in junctions}
         best = (-1.0, 0, 0)
         for source in junctions:
-            lengths = nx.single_source_dijkstra_path_length(graph, source)
             for target in junctions:
-                if target != source and target in lengths and lengths[target] > best[0]:
-                    best = (lengths[target], source, target)
-        length, source, target = best
+                if target == source or target not in lengths[source] or source not in lengths[target]:
+                    continue
+                score = lengths[source][target] - lengths[target][source] if one_way else lengths[source][target]
+                if score > best[0]:
+                    best = (score, source, target)
+        _, source, target = best
+        length = lengths[source][target]
     path = nx.dijkstra_path(graph, source, target)
     print(json.dumps({
         'from': list(positions[source]), 'to': list(positions[target]), 'fromNode': source, 'toNode': target,
