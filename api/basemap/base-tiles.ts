@@ -79,7 +79,9 @@ export async function renderBaseTile(db: Database, schemaName: string, z: number
   );
   const places = layer(
     'places',
-    sql`SELECT kind, name, population, elevation_m AS ele, ST_AsMVTGeom(geom, ${env}, 4096, 64, true) AS geom FROM ${s}.places
+    sql`SELECT kind, name, population, elevation_m AS ele,
+          CASE WHEN kind IN ('peak', 'pass') AND elevation_m IS NOT NULL THEN name || ' ' || round(elevation_m)::int || ' m' ELSE name END AS label,
+          ST_AsMVTGeom(geom, ${env}, 4096, 64, true) AS geom FROM ${s}.places
         WHERE geom && ${clip} AND kind = ANY(${textArray(kindsAt(PLACE_MIN_ZOOM, z))})
         ORDER BY coalesce(population, 0) DESC, osm_id`,
   );

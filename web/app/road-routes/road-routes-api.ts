@@ -96,9 +96,10 @@ export class RoadRoutesApi {
   }
 
   /** The path along the reference network between two points, for snapping a new vertex. */
-  pathAlongNetwork(from: readonly [number, number], to: readonly [number, number]): Observable<RoadNetworkPath> {
+  /** The path a bus may drive from `from` through `via` to `to`, along the imported roads and the reference network. */
+  pathAlongNetwork(from: readonly [number, number], to: readonly [number, number], via: ReadonlyArray<readonly [number, number]> = []): Observable<RoadNetworkPath> {
     return this.http
-      .post('/api/road-network/path', { from, to }, inline())
+      .post('/api/road-network/path', { from, to, via }, inline())
       .pipe(map((body) => roadNetworkPathSchema.parse(body)));
   }
 

@@ -29,6 +29,7 @@ import { catchError, debounceTime, firstValueFrom, map, of, startWith, switchMap
 import { describeApiError } from '../core/api-error-message';
 import { Session } from '../core/session';
 import { DistanceChart, type ChartSeries } from '../charts/distance-chart';
+import { BasemapTilesVersion } from '../map/basemap-tiles-version';
 import { TerrainMap, type MapOverlay, type MapOverlayEvent, type MapPosition } from '../map/terrain-map';
 import { QuantityPipe } from '../units/quantity-pipe';
 import { fromDisplay, toDisplay, unitLabel } from '../units/unit-format';
@@ -48,6 +49,7 @@ import {
   moveStopTo,
   moveVertex,
   parseCoordinate,
+  replaceVertex,
   pointAlongLine,
   roundDegrees,
   polylineLengthM,
@@ -133,7 +135,11 @@ export default class RouteEditor {
   protected readonly tool = signal<EditorTool>('draw');
   protected readonly selectedVertex = signal<number | null>(null);
   private readonly terrainMap = viewChild(TerrainMap);
-  protected readonly snapToNetwork = signal(false);
+  /** Whether new and moved vertices follow the roads (on by default wherever there are roads). */
+  protected readonly snapToNetwork = signal(true);
+  private readonly basemap = inject(BasemapTilesVersion);
+  /** Whether there is a road graph to snap to: an imported extract or a reference network. */
+  protected readonly canSnap = computed(() => this.network() !== null || (this.basemap.state()?.version ?? null) !== null);
   protected readonly isRouting = signal(false);
   protected readonly network = signal<RoadNetwork | null>(null);
   /** The route's current version as the server last answered it. */
@@ -283,6 +289,7 @@ export default class RouteEditor {
       else this.details.disable({ emitEvent: false });
     });
     void this.loadNetwork();
+    this.basemap.ensureLoaded();
   }
 
   // ---- Map ----
@@ -307,16 +314,45 @@ export default class RouteEditor {
     else if (kind === 'vertex') this.selectedVertex.update((current) => (current === index ? null : index));
   }
 
-  protected overlayMoved(event: MapOverlayEvent): void {
+  protected async overlayMoved(event: MapOverlayEvent): Promise<void> {
     if (!this.canEdit()) return;
     const [kind, indexText] = event.id.split(':');
-    if (kind === 'vertex') this.edit((state) => moveVertex(state, Number(indexText), event.at));
+    if (kind !== 'vertex') return;
+    const index = Number(indexText);
+    const vertices = this.draft().vertices;
+    const previous = vertices[index - 1];
+    const next = vertices[index + 1];
+    if (!this.snapToNetwork() || !this.canSnap() || (!previous && !next) || this.isRouting()) {
+      this.edit((state) => moveVertex(state, index, event.at));
+      return;
+    }
+    // Snapped: the route runs along the roads from the vertex before, through where the vertex
+    // was dropped, to the vertex after.
+    this.isRouting.set(true);
+    try {
+      const path = await firstValueFrom(
+        previous && next
+          ? this.api.pathAlongNetwork(previous, next, [event.at])
+          : previous
+            ? this.api.pathAlongNetwork(previous, event.at)
+            : this.api.pathAlongNetwork(event.at, next!),
+      );
+      const coordinates = path.geometry.coordinates.map(lonLatOf);
+      const inner = coordinates.slice(previous ? 1 : 0, next ? -1 : undefined);
+      this.edit((state) => replaceVertex(state, index, inner.length > 0 ? inner : [event.at]));
+    } catch (error: unknown) {
+      // Expected when the dropped point is far from the roads or not connected: move it as dropped.
+      this.snackBar.open(`${describeApiError(error)} The vertex was moved without snapping.`, 'Dismiss');
+      this.edit((state) => moveVertex(state, index, event.at));
+    } finally {
+      this.isRouting.set(false);
+    }
   }
 
   private async addVertex(at: MapPosition): Promise<void> {
     const vertices = this.draft().vertices;
     const last = vertices[vertices.length - 1];
-    if (!last || !this.snapToNetwork() || !this.network()) {
+    if (!last || !this.snapToNetwork() || !this.canSnap()) {
       this.edit((state) => appendVertices(state, [at]));
       return;
     }
@@ -646,7 +682,6 @@ export default class RouteEditor {
     try {
       const network = await this.api.roadNetwork();
       this.network.set(network);
-      if (network && this.isPlanner()) this.snapToNetwork.set(true);
     } catch {
       // Expected when no reference network has been uploaded yet: draw freely.
       this.network.set(null);
