@@ -17,13 +17,13 @@ export const ROLE_EXPECTATIONS: Readonly<Record<DemoRole, { homeHeading: string;
   planner: { homeHeading: 'Routes and scenarios', navigation: EVERY_ROLE_SEES },
   analyst: {
     homeHeading: 'Terrain and vehicle profiles',
-    navigation: ['Home', 'Routes', 'Descent review', 'Network summary', 'Network runs', 'Scenarios', 'Vehicle profiles', 'Terrain'],
+    navigation: ['Home', 'Routes', 'Descent review', 'Network summary', 'Network runs', 'Scenarios', 'Vehicle profiles', 'Terrain', 'Base map'],
   },
   safety: { homeHeading: 'Descent review', navigation: EVERY_ROLE_SEES },
   board: { homeHeading: 'Network summary', navigation: EVERY_ROLE_SEES },
   admin: {
     homeHeading: 'People and outgoing mail',
-    navigation: [...EVERY_ROLE_SEES, 'Terrain', 'People', 'Outgoing mail', 'Network settings'],
+    navigation: [...EVERY_ROLE_SEES, 'Terrain', 'Base map', 'People', 'Outgoing mail', 'Network settings'],
   },
 };
 

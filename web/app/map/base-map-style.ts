@@ -141,6 +141,7 @@ export function baseMapLabelRules(): LabelRule[] {
         fill: PALETTE.label,
         stroke: PALETTE.halo,
         width: 2.5,
+        maxLineChars: 24,
       }),
       sort: (a, b) => (PLACE_RANK[String(a['kind'])] ?? 9) - (PLACE_RANK[String(b['kind'])] ?? 9),
     },

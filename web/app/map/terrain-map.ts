@@ -312,6 +312,9 @@ function createBaseLayers(version: string, attribution: string | null): L.Layer[
     tasks: fontsLoaded,
     attribution: '',
   }) as unknown as L.Layer;
+  // A label tile of another zoom, stretched while the new ones are drawn, shows letters many
+  // times their size: the labels layer keeps no tiles of other zooms (Leaflet's GridLayer hooks).
+  Object.assign(labels, { _retainParent: () => false, _retainChildren: () => undefined });
   return [painted, labels];
 }
 

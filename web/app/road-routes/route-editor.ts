@@ -352,15 +352,16 @@ export default class RouteEditor {
   private async addVertex(at: MapPosition): Promise<void> {
     const vertices = this.draft().vertices;
     const last = vertices[vertices.length - 1];
-    if (!last || !this.snapToNetwork() || !this.canSnap()) {
+    if (!this.snapToNetwork() || !this.canSnap()) {
       this.edit((state) => appendVertices(state, [at]));
       return;
     }
     if (this.isRouting()) return;
     this.isRouting.set(true);
     try {
-      const path = await firstValueFrom(this.api.pathAlongNetwork(last, at));
-      const routed = path.geometry.coordinates.slice(1).map(lonLatOf);
+      // The first vertex goes to the nearest road; the next ones follow the roads from the last.
+      const path = await firstValueFrom(this.api.pathAlongNetwork(last ?? at, at));
+      const routed = (last ? path.geometry.coordinates.slice(1) : path.geometry.coordinates.slice(0, 1)).map(lonLatOf);
       this.edit((state) => appendVertices(state, routed.length > 0 ? routed : [at]));
     } catch (error: unknown) {
       // Expected when the two points are not connected by the network: add the point directly.
