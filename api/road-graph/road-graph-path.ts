@@ -126,13 +126,18 @@ function baseCondition(base: ActiveBasemap | null): SQL {
 }
 
 /** The graph's edges as one relation (id, source, target, cost, reverse_cost, geom[, ascent/descent]) for SQL. */
-function usableEdgesSql(base: ActiveBasemap | null): SQL {
-  const overlay = sql`SELECT id, source, target, cost, reverse_cost, length_m, ascent_m, descent_m, geometry AS geom FROM road_graph_overlay_edges WHERE ${baseCondition(base)}`;
+/**
+ * `where` (over `e`) is repeated inside both parts, so each part uses its own indexes (a filter
+ * outside a UNION is not always pushed into it).
+ */
+function usableEdgesSql(base: ActiveBasemap | null, where: (geometry: SQL) => SQL = () => sql`true`): SQL {
+  const overlay = sql`SELECT e.id, e.source, e.target, e.cost, e.reverse_cost, e.length_m, e.ascent_m, e.descent_m, e.geometry AS geom
+    FROM road_graph_overlay_edges e WHERE e.${sql.raw(base ? 'base_import_id = ' : 'base_import_id IS NULL')}${base ? sql`${base.importId}` : sql``} AND ${where(sql`e.geometry`)}`;
   if (!base) return overlay;
   const s = schemaIdentifier(base.schemaName);
   return sql`
     SELECT e.id, e.source, e.target, e.cost, e.reverse_cost, e.length_m, e.ascent_m, e.descent_m, e.geom FROM ${s}.graph_edges e
-    WHERE NOT EXISTS (SELECT 1 FROM road_graph_overlay_edges o WHERE o.base_import_id = ${base.importId} AND o.replaces_edge_id = e.id)
+    WHERE ${where(sql`e.geom`)} AND NOT EXISTS (SELECT 1 FROM road_graph_overlay_edges o WHERE o.base_import_id = ${base.importId} AND o.replaces_edge_id = e.id)
     UNION ALL ${overlay}`;
 }
 
@@ -180,7 +185,7 @@ async function legWithin(
   const samePlace = start.vertex !== null ? start.vertex === end.vertex : start.edgeId === end.edgeId && start.fraction === end.fraction;
   if (samePlace) {
     const [row] = await db.execute<{ geojson: string }>(
-      sql`SELECT ST_AsGeoJSON(ST_LineInterpolatePoint(geom, ${start.fraction}::float8), 7) AS geojson FROM (${usableEdgesSql(base)}) e WHERE e.id = ${start.edgeId}`,
+      sql`SELECT ST_AsGeoJSON(ST_LineInterpolatePoint(geom, ${start.fraction}::float8), 7) AS geojson FROM (${usableEdgesSql(base, () => sql`e.id = ${start.edgeId}`)}) e`,
     );
     const at = (JSON.parse(row!.geojson) as { coordinates: Position }).coordinates;
     return [{ coordinates: [at], lengthM: 0, ascentM: 0, descentM: 0 }];
@@ -188,7 +193,7 @@ async function legWithin(
   // pgRouting takes its inputs as SQL text; every value in it is a number or an id of ours.
   const edgesText = sqlText(
     box
-      ? sql`SELECT id, source, target, cost, reverse_cost FROM (${usableEdgesSql(base)}) e WHERE e.geom && ST_MakeEnvelope(${box[0]}::float8, ${box[1]}::float8, ${box[2]}::float8, ${box[3]}::float8, 4326)`
+      ? sql`SELECT id, source, target, cost, reverse_cost FROM (${usableEdgesSql(base, (geometry) => sql`${geometry} && ST_MakeEnvelope(${box[0]}::float8, ${box[1]}::float8, ${box[2]}::float8, ${box[3]}::float8, 4326)`)}) e`
       : sql`SELECT id, source, target, cost, reverse_cost FROM (${usableEdgesSql(base)}) e`,
   );
   // Points inside an edge are pgRouting "points" (pids 1 and 2, nodes −1 and −2 in its answer);
@@ -199,15 +204,20 @@ async function legWithin(
   ];
   const startNode = start.vertex ?? '-1';
   const endNode = end.vertex ?? '-2';
-  const route =
+  const routeSql =
     points.length > 0
       ? sql`SELECT path_seq, node, edge FROM pgr_withPoints(${edgesText}, ${`SELECT * FROM (VALUES ${points.join(', ')}) AS p(pid, edge_id, fraction, side)`}, ${startNode}::bigint, ${endNode}::bigint, directed => true, driving_side => 'b', details => false)`
       : sql`SELECT path_seq, node, edge FROM pgr_dijkstra(${edgesText}, ${startNode}::bigint, ${endNode}::bigint, directed => true)`;
+  const route = [...(await db.execute<{ path_seq: number; node: string; edge: string }>(
+    sql`SELECT path_seq, node::text AS node, edge::text AS edge FROM (${routeSql}) r ORDER BY path_seq`,
+  ))];
+  if (route.length === 0) return null;
+  const edgeIds = route.map((step) => step.edge).filter((edge) => !edge.startsWith('-'));
+  const steps = route.map((step, i) => sql`(${step.path_seq}::int, ${step.node}::bigint, ${step.edge}::bigint, ${route[i + 1]?.node ?? null}::bigint)`);
   const rows = await db.execute<{ geojson: string; length_m: number; ascent_m: number | null; descent_m: number | null }>(sql`
-    WITH route AS (${route}), steps AS (
-      SELECT path_seq, node, edge, lead(node) OVER (ORDER BY path_seq) AS next_node FROM route
-    ), edges AS (
-      SELECT * FROM (${usableEdgesSql(base)}) e WHERE e.id IN (SELECT edge FROM route WHERE edge > 0)
+    WITH steps(path_seq, node, edge, next_node) AS (VALUES ${sql.join(steps, sql`, `)}),
+    edges AS (
+      SELECT * FROM (${usableEdgesSql(base, () => sql`e.id = ANY(${`{${edgeIds.join(',')}}`}::bigint[])`)}) e
     ), spans AS (
       SELECT st.path_seq, e.geom, e.length_m, e.ascent_m, e.descent_m,
         CASE WHEN st.node = -1 THEN ${start.fraction}::float8 WHEN st.node = -2 THEN ${end.fraction}::float8 WHEN st.node = e.source THEN 0 ELSE 1 END AS f_from,
