@@ -32,8 +32,12 @@ describe('base map and snapped routes', () => {
   it('shows the demo base map under the terrain and snaps a drawn route to its roads', async () => {
     const { page } = browser;
     const baseTiles: Response[] = [];
+    const outside: string[] = [];
     page.on('response', (response) => {
       if (response.url().includes('/api/tiles/base/')) baseTiles.push(response);
+    });
+    page.on('request', (request) => {
+      if (!request.url().startsWith(BASE_URL) && !request.url().startsWith('data:') && !request.url().startsWith('blob:')) outside.push(request.url());
     });
     await page.goto(`${BASE_URL}/routes/new`);
     await page.getByRole('heading', { level: 1, name: 'New route' }).waitFor();
@@ -51,6 +55,8 @@ describe('base map and snapped routes', () => {
     await page.getByRole('img', { name: /Elevation along the route/ }).waitFor();
     await screenshot(page, 'base-map-snapped-route');
 
+    // Tiles, fonts and scripts all come from Descentry itself.
+    assert.deepEqual(outside, []);
     const tiles = await Promise.all(baseTiles.filter((response) => response.status() === 200).map((response) => response.body().catch(() => Buffer.alloc(0))));
     assert.ok(tiles.some((body) => body.length > 0), 'the map drew base-map tiles with content');
     const drawn = await vertices(page);
