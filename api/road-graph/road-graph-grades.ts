@@ -23,15 +23,20 @@ export async function sampleEdgeElevations(deps: AppDeps, target: GradedEdges, o
   const geom = target.kind === 'imported' ? sql`geom` : sql`geometry`;
   const scope =
     target.kind === 'imported' ? sql`true` : target.baseImportId ? sql`base_import_id = ${target.baseImportId}` : sql`base_import_id IS NULL`;
-  await deps.db.execute(sql`UPDATE ${table} SET elevation_start_m = NULL, elevation_end_m = NULL, ascent_m = NULL, descent_m = NULL WHERE ${scope}`);
+  const clear = sql`UPDATE ${table} SET elevation_start_m = NULL, elevation_end_m = NULL, ascent_m = NULL, descent_m = NULL WHERE ${scope}`;
   const sample = deps.sampleElevations;
-  if (!sample) return 0;
-  const models = (await terrainRuntimeFor(deps).readyCatalogue()).models;
-  if (models.length === 0) return 0;
+  const models = sample ? (await terrainRuntimeFor(deps).readyCatalogue()).models : [];
+  if (!sample || models.length === 0) {
+    await deps.db.execute(clear);
+    return 0;
+  }
   const covered = sql.join(
     models.map(({ bbox: [w, s, e, n] }) => sql`${geom} && ST_MakeEnvelope(${w}::float8, ${s}::float8, ${e}::float8, ${n}::float8, 4326)`),
     sql` OR `,
   );
+  // Edges outside every model lose their elevations now; the others are overwritten batch by
+  // batch, so paths read the old values rather than none while a re-sampling runs.
+  await deps.db.execute(sql`${clear} AND NOT (${covered})`);
   const [{ total } = { total: 0 }] = await deps.db.execute<{ total: number }>(sql`SELECT count(*)::int AS total FROM ${table} WHERE ${scope} AND (${covered})`);
   let lastId = -1;
   let done = 0;
@@ -49,14 +54,12 @@ export async function sampleEdgeElevations(deps: AppDeps, target: GradedEdges, o
       const along = elevations.slice(offset, offset + line.coordinates.length);
       offset += line.coordinates.length;
       const profile = edgeProfile(along);
-      if (profile) values.push(sql`(${line.id}::bigint, ${profile.startM}::float8, ${profile.endM}::float8, ${profile.ascentM}::float8, ${profile.descentM}::float8)`);
+      values.push(sql`(${line.id}::bigint, ${profile?.startM ?? null}::float8, ${profile?.endM ?? null}::float8, ${profile?.ascentM ?? null}::float8, ${profile?.descentM ?? null}::float8)`);
+      if (profile) graded++;
     }
-    if (values.length > 0) {
-      await deps.db.execute(sql`
-        UPDATE ${table} t SET elevation_start_m = v.start_m, elevation_end_m = v.end_m, ascent_m = v.ascent_m, descent_m = v.descent_m
-        FROM (VALUES ${sql.join(values, sql`, `)}) AS v(id, start_m, end_m, ascent_m, descent_m) WHERE t.id = v.id`);
-      graded += values.length;
-    }
+    await deps.db.execute(sql`
+      UPDATE ${table} t SET elevation_start_m = v.start_m, elevation_end_m = v.end_m, ascent_m = v.ascent_m, descent_m = v.descent_m
+      FROM (VALUES ${sql.join(values, sql`, `)}) AS v(id, start_m, end_m, ascent_m, descent_m) WHERE t.id = v.id`);
     lastId = lines[lines.length - 1]!.id;
     done += lines.length;
     await onProgress?.(total > 0 ? Math.min(1, done / total) : 1);

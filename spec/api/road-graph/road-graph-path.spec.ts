@@ -7,6 +7,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { writeFloat32GeoTiff } from '../../../api/terrain/geotiff-writer';
 import { waitForInlineRoadGraphJobs } from '../../../api/road-graph/road-graph-jobs';
 import { closeTerrainRuntime } from '../../../api/terrain/terrain-runtime';
+import { waitForInlineTerrainJobs } from '../../../api/terrain/terrain-service';
 import { PYTHON, importExtract, westOaklandXml } from '../basemap/support/osm-extracts';
 import { uploadTerrain, waitUntilIngested } from '../terrain/support/terrain-fixtures';
 import { createTestContext, signedInAgent, type TestContext } from '../../support/test-app';
@@ -161,6 +162,8 @@ describe('POST /api/road-network/path (pgRouting on the imported roads)', () => 
     const before = await agent.post('/api/road-network/path').send({ from: longest.from, to: longest.to });
     const terrain = await uploadTerrain(agent, tiff, 'Plane over West Oakland');
     await waitUntilIngested(agent, terrain.body.id);
+    // Ingestion queues the re-sampling of the graph's grades as its last step.
+    await waitForInlineTerrainJobs(context.deps);
     await waitForInlineRoadGraphJobs(context.deps);
 
     const after = await agent.post('/api/road-network/path').send({ from: longest.from, to: longest.to });
