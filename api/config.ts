@@ -64,6 +64,14 @@ const configSchema = z.object({
   TERRAIN_DECODE_THREADS: z.coerce.number().int().min(1).max(16).default(2),
   /** Disk space for rendered map tiles, MiB; the least recently used tiles go first. */
   TILE_CACHE_MAX_MB: z.coerce.number().int().min(1).default(1024),
+  /** Largest OpenStreetMap extract accepted for the base map, bytes (default 4 GiB); larger uploads get 413. */
+  BASEMAP_MAX_UPLOAD_BYTES: z.coerce.number().int().positive().default(4 * 1024 ** 3),
+  /** Memory osm2pgsql may use for node positions during an import, MiB (beyond it they go to PostgreSQL). */
+  BASEMAP_IMPORT_CACHE_MB: z.coerce.number().int().min(16).max(65_536).default(256),
+  /** Processes osm2pgsql may use for an import (its indexing phase runs in parallel). */
+  BASEMAP_IMPORT_PROCESSES: z.coerce.number().int().min(1).max(16).default(1),
+  /** Memory for rendered base-map tiles, MiB (least recently used go first). */
+  BASEMAP_TILE_CACHE_MB: z.coerce.number().int().positive().default(64),
   /** Run the background workers (mail outbox, jobs) in this process. */
   RUN_WORKERS: z.stringbool().default(true),
   /** Worker threads that run route analyses off the event loop. */

@@ -1,6 +1,7 @@
 import { analysisEndpoints } from './analysis/analysis-endpoints';
 import type { AppDeps } from './app-deps';
 import { auditEndpoints } from './audit/audit-endpoints';
+import { basemapEndpoints } from './basemap/basemap-endpoints';
 import { batchRunsEndpoints } from './batch-runs/batch-runs-endpoints';
 import { deletedItemsEndpoints } from './deleted-items/deleted-items-endpoints';
 import { boardEndpoints } from './board/board-endpoints';
@@ -38,5 +39,6 @@ export function allEndpoints(deps: AppDeps): AnyEndpoint[] {
     ...terrainEndpoints(deps),
     ...deletedItemsEndpoints(deps),
     ...auditEndpoints(deps),
+    ...basemapEndpoints(deps),
   ];
 }

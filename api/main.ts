@@ -10,6 +10,7 @@ import { startMaintenance } from './jobs/maintenance';
 import { createSmtpTransport, startMailWorker } from './mail/mail-worker';
 import { startSmtpFake } from './mail/smtp-fake';
 import { startTerrain } from './terrain/terrain-startup';
+import { startBasemap } from './basemap/basemap-startup';
 import { ensureVehiclePresets } from './vehicle-profiles/vehicle-presets-seed';
 
 const config = loadConfig();
@@ -35,6 +36,7 @@ if (config.RUN_WORKERS) {
 }
 stoppers.push(await startTerrain(deps));
 stoppers.push(() => closeAnalysisPool(deps));
+await startBasemap(deps);
 await startBatchRunWorkers(deps);
 // After the workers: what a crash left half-done is queued again now and every minute.
 if (config.RUN_WORKERS) stoppers.unshift(startMaintenance(deps));

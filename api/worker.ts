@@ -17,6 +17,7 @@ import { createDatabase } from './db/client';
 import { migrateDatabase } from './db/migrate';
 import { createSmtpTransport, startMailWorker } from './mail/mail-worker';
 import { startTerrain } from './terrain/terrain-startup';
+import { startBasemap } from './basemap/basemap-startup';
 
 // A worker process always works, whatever RUN_WORKERS says for the API processes.
 const config = { ...loadConfig(), RUN_WORKERS: true };
@@ -29,9 +30,10 @@ const deps = withDefaultServices({ db, config });
 
 const mail = startMailWorker(db, createSmtpTransport(config), { from: config.MAIL_FROM, secret: config.SESSION_SECRET });
 const stopTerrain = await startTerrain(deps);
+await startBasemap(deps);
 await startBatchRunWorkers(deps);
 const stopMaintenance = startMaintenance(deps);
-console.log('[worker] Descentry worker running: terrain ingestion, batch runs, mail outbox');
+console.log('[worker] Descentry worker running: terrain ingestion, base-map imports, batch runs, mail outbox');
 
 async function shutdown(signal: string) {
   console.log(`[worker] ${signal}: shutting down`);

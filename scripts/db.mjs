@@ -2,7 +2,7 @@
 // The project's own PostgreSQL: a private cluster from Debian's packages, on 127.0.0.1 and a
 // port of its own, never touching a system cluster.
 //
-//   node scripts/db.mjs start   install if missing, init once, start, create databases + PostGIS
+//   node scripts/db.mjs start   install if missing, init once, start, create databases + PostGIS + pgRouting
 //   node scripts/db.mjs stop    stop the cluster this checkout started
 //   node scripts/db.mjs url     print the development DATABASE_URL
 //
@@ -69,6 +69,10 @@ function ensurePackages() {
   if (!existsSync(`${PG_BIN}/initdb`)) missing.push(`postgresql-${PG_VERSION}`);
   if (!existsSync(`/usr/share/postgresql/${PG_VERSION}/extension/postgis.control`)) {
     missing.push(`postgresql-${PG_VERSION}-postgis-3`);
+  }
+  // pgRouting: shortest paths on the road graph built from the imported extract.
+  if (!existsSync(`/usr/share/postgresql/${PG_VERSION}/extension/pgrouting.control`)) {
+    missing.push(`postgresql-${PG_VERSION}-pgrouting`);
   }
   if (missing.length > 0) aptInstall(missing);
 }
@@ -137,7 +141,7 @@ function psql(database, sql) {
   );
 }
 
-/** Creates the database if missing and enables PostGIS in it. */
+/** Creates the database if missing and enables PostGIS and pgRouting in it. */
 export function ensureDatabase(database) {
   const exists = psql('postgres', `SELECT 1 FROM pg_database WHERE datname = '${database}'`);
   if (exists.status !== 0) throw new Error(exists.stderr);
@@ -146,8 +150,10 @@ export function ensureDatabase(database) {
     if (created.status !== 0) throw new Error(created.stderr);
     log(`created database ${database}`);
   }
-  const postgis = psql(database, 'CREATE EXTENSION IF NOT EXISTS postgis');
-  if (postgis.status !== 0) throw new Error(postgis.stderr);
+  for (const extension of ['postgis', 'pgrouting']) {
+    const created = psql(database, `CREATE EXTENSION IF NOT EXISTS ${extension}`);
+    if (created.status !== 0) throw new Error(created.stderr);
+  }
 }
 
 /** Installs (if needed), initialises (once) and starts the cluster; returns its settings. */

@@ -53,6 +53,26 @@ export const GDAL = [
   { name: 'python3-gdal', marker: '/usr/lib/python3/dist-packages/osgeo/__init__.py' },
 ];
 
+/**
+ * The base map's importer: osm2pgsql reads OpenStreetMap extracts into PostGIS (pgRouting, the
+ * other engine, is installed with PostgreSQL by db.mjs); bzip2 unpacks .osm.bz2 extracts.
+ */
+export const OSM_IMPORT = [
+  { name: 'osm2pgsql', marker: '/usr/bin/osm2pgsql' },
+  { name: 'bzip2', marker: '/bin/bzip2' },
+];
+/**
+ * The base map's reference checks: real OpenStreetMap extracts (python-osmnx-doc), the
+ * independent shortest paths (python3-networkx, python3-geographiclib), and osmium-tool, which
+ * writes the benchmark's .osm.pbf files.
+ */
+export const OSM_CHECKS = [
+  { name: 'python-osmnx-doc', marker: '/usr/share/doc/python-osmnx-doc/examples/tests/input_data/West-Oakland.osm.bz2' },
+  { name: 'python3-networkx', marker: '/usr/lib/python3/dist-packages/networkx/__init__.py' },
+  { name: 'python3-geographiclib', marker: '/usr/lib/python3/dist-packages/geographiclib/__init__.py' },
+  { name: 'osmium-tool', marker: '/usr/bin/osmium' },
+];
+
 /** A secret kept in .var/ so sessions survive restarts of the development server. */
 export function localSessionSecret() {
   const path = join(rootDir, '.var', 'session-secret');

@@ -1,10 +1,12 @@
 #!/usr/bin/env node
 // `npm start`: everything a fresh machine needs, then the app on one port.
-//   installs npm packages and Debian's PostgreSQL + PostGIS when missing, starts the private
+//   installs npm packages and Debian's PostgreSQL + PostGIS + pgRouting and osm2pgsql when missing, starts the private
 //   cluster, migrates, loads the invented demo, builds the web app and the API, starts the local
 //   mail catcher, serves http://127.0.0.1:4300 (PORT to change) and prints the demo sign-ins.
 import { databaseUrl, startDatabase, stopDatabase } from './db.mjs';
 import {
+  OSM_IMPORT,
+  ensureDebianPackages,
   ensureNodeModules,
   localSessionSecret,
   runStep,
@@ -17,6 +19,7 @@ const port = Number(process.env.PORT ?? 4300);
 const smtpPort = Number(process.env.SMTP_PORT ?? 2525);
 
 ensureNodeModules();
+ensureDebianPackages(OSM_IMPORT);
 step('Starting PostgreSQL (private cluster on 127.0.0.1)');
 const pg = startDatabase(['descentry']);
 

@@ -1,6 +1,7 @@
 #!/usr/bin/env node
 // `npm test`: every test, on a fresh machine too. Installs what is missing (npm packages,
-// PostgreSQL + PostGIS, Chromium, GDAL, poppler-utils), starts the private PostgreSQL, recreates the test
+// PostgreSQL + PostGIS + pgRouting, osm2pgsql, Chromium, GDAL, poppler-utils, the OpenStreetMap
+// reference data and networkx), starts the private PostgreSQL, recreates the test
 // databases, then runs: the Node tests (engine + API, vitest), the Angular unit tests (ng test),
 // and the browser tests against a freshly built and seeded server. Prints one summary line.
 import { databaseUrl, ensureDatabase, startDatabase, stopDatabase, pgSettings } from './db.mjs';
@@ -9,6 +10,8 @@ import {
   CHROMIUM,
   GDAL,
   POPPLER,
+  OSM_CHECKS,
+  OSM_IMPORT,
   ensureDebianPackages,
   ensureNodeModules,
   freePort,
@@ -22,7 +25,7 @@ const started = Date.now();
 const results = [];
 
 ensureNodeModules();
-ensureDebianPackages([CHROMIUM, POPPLER, ...GDAL]);
+ensureDebianPackages([CHROMIUM, POPPLER, ...GDAL, ...OSM_IMPORT, ...OSM_CHECKS]);
 step('Starting PostgreSQL (private cluster on 127.0.0.1)');
 startDatabase([]);
 for (const database of ['descentry_test', 'descentry_e2e']) recreateDatabase(database);

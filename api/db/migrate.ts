@@ -10,7 +10,9 @@ const MIGRATIONS_FOLDER = resolve(process.env['MIGRATIONS_DIR'] ?? 'migrations')
 export async function migrateDatabase(databaseUrl: string): Promise<void> {
   const client = postgres(databaseUrl, { max: 1, onnotice: () => undefined });
   try {
+    // PostGIS for every geometry; pgRouting (Debian's postgresql-15-pgrouting) for the road graph.
     await client`CREATE EXTENSION IF NOT EXISTS postgis`;
+    await client`CREATE EXTENSION IF NOT EXISTS pgrouting`;
     await migrate(drizzle({ client }), { migrationsFolder: MIGRATIONS_FOLDER });
   } finally {
     await client.end({ timeout: 5 });

@@ -15,7 +15,6 @@
  * Idempotent: every row has a seed key; what exists is left as it is (a second start leaves one copy).
  */
 import { eq } from 'drizzle-orm';
-import proj4 from 'proj4';
 import { roadRouteDraftSchema, type RoadRouteDraftInput } from '@shared/domain/road-routes';
 import { scenarioDraftSchema, type ScenarioDraftInput } from '@shared/domain/scenarios';
 import { vehicleProfileDraftSchema, type VehicleProfileDraftInput } from '@shared/domain/vehicle-profiles';
@@ -27,32 +26,15 @@ import { replaceRoadNetwork } from '../road-routes/road-network-service';
 import { createScenario } from '../scenarios/scenarios-service';
 import { insertProfile } from '../vehicle-profiles/vehicle-profiles-repository';
 import { ensureVehiclePresets, presetProfileId, seededUuid } from '../vehicle-profiles/vehicle-presets-seed';
-import { DEMO_TERRAIN_GRID, designPassRoad } from './demo-terrain-model';
+import { lonLat, southFloorM, southValleyNorth } from './demo-geography';
+import { designPassRoad } from './demo-terrain-model';
 
-type Local = [number, number];
+import type { Local } from './demo-geography';
 interface Waypoint {
   at: Local;
   elevationM: number;
   /** A stop here, with its name and dwell (s). */
   stop?: { name: string; dwellS?: number };
-}
-
-/** UTM zone 32N on WGS 84 (EPSG:32632), the demo grid's CRS. */
-const UTM_32N = '+proj=utm +zone=32 +datum=WGS84 +units=m +no_defs';
-const toWgs84 = proj4(UTM_32N, 'EPSG:4326');
-
-function lonLat([east, north]: Local): [number, number] {
-  const { originX, originY, heightPx, pixelSizeM } = DEMO_TERRAIN_GRID;
-  const [lon, lat] = toWgs84.forward([originX + east, originY - heightPx * pixelSizeM + north]) as [number, number];
-  return [round(lon, 7), round(lat, 7)];
-}
-
-/** Valley floor south of the ridge (the demo model's own shape): 700 m at Korvel, rising 0.6 % east. */
-function southFloorM(east: number): number {
-  return 700 + 0.006 * (east - 2500);
-}
-function southValleyNorth(east: number): number {
-  return 3000 + 120 * Math.sin(east / 2200);
 }
 
 const pass = designPassRoad().vertices;
@@ -273,13 +255,11 @@ export async function seedDemoNetwork(deps: AppDeps): Promise<void> {
   const analyst = await personWithRole(deps, 'analyst');
 
   const routeIds = new Map<string, string>();
-  const routeLines: [number, number][][] = [];
   for (const route of ROUTES) {
     const withElevation = !deps.sampleElevations || !route.onPassRoad;
     const coordinates = route.waypoints.map((point) => (withElevation ? [...lonLat(point.at), round(point.elevationM, 1)] : lonLat(point.at))) as
       | [number, number][]
       | [number, number, number][];
-    routeLines.push(route.waypoints.map((point) => lonLat(point.at)));
     const [existing] = await db.select({ id: roadRoutes.id }).from(roadRoutes).where(eq(roadRoutes.seedKey, route.key));
     if (existing) {
       routeIds.set(route.key, existing.id);
@@ -312,15 +292,24 @@ export async function seedDemoNetwork(deps: AppDeps): Promise<void> {
     await createScenario(deps, scenario.vehicle.startsWith('demo-vehicle') ? analyst : planner, draft, scenario.key);
   }
 
-  // The reference road network: the valley road and the pass road, when none has been uploaded.
+  // The reference road network: a bypass the authority is studying, which the imported extract
+  // does not have; its ends join the valley road, so routes may be snapped along it.
   const [anyLine] = await db.select({ id: roadNetworkLines.id }).from(roadNetworkLines).limit(1);
   if (!anyLine) {
-    await replaceRoadNetwork(db, analyst.id, [
-      { featureIndex: 0, partIndex: 0, properties: { name: 'Valley road (Westgate – Korvel – Lindmoor)' }, coordinates: routeLines[0]! },
-      { featureIndex: 1, partIndex: 0, properties: { name: 'Korvel pass road (Korvel – Korvel Pass – Orren)' }, coordinates: routeLines[1]! },
+    await replaceRoadNetwork(deps, analyst.id, [
+      { featureIndex: 0, partIndex: 0, properties: { name: 'Korvel south bypass (planned)', status: 'planned' }, coordinates: KORVEL_BYPASS.map(lonLat) },
     ]);
   }
 }
+
+/** The planned bypass south of Korvel town, from Westgate to Mill Lane's end of Brenn Road. */
+const KORVEL_BYPASS: Local[] = [
+  [500, southValleyNorth(500)],
+  [1_500, southValleyNorth(1_500) - 230],
+  [3_000, southValleyNorth(3_000) - 240],
+  [3_800, southValleyNorth(3_800) - 60],
+  [4_000, 3_120],
+];
 
 async function personWithRole(deps: AppDeps, role: 'planner' | 'analyst') {
   const [person] = await deps.db.select({ id: users.id, name: users.name }).from(users).where(eq(users.role, role)).orderBy(users.createdAt).limit(1);

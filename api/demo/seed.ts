@@ -1,4 +1,5 @@
 import type { AppDeps } from '../app-deps';
+import { seedDemoBasemap } from './demo-basemap';
 import { seedDemoNetwork } from './demo-network';
 import { seedDemoNetworkRun } from './demo-network-run';
 import { seedDemoPeople } from './demo-people';
@@ -15,6 +16,8 @@ export async function seedDemo(deps: AppDeps): Promise<void> {
   }
   await seedDemoPeople(deps.db);
   await seedDemoTerrain(deps);
+  // The invented OpenStreetMap extract: base map and road graph (grades from the terrain above).
+  await seedDemoBasemap(deps);
   // Routes, vehicle profiles and computed scenarios of the invented transit authority.
   await seedDemoNetwork(deps);
   await seedDemoReviews(deps);

@@ -1,26 +1,21 @@
 /**
- * The reference road network: an analyst uploads GeoJSON lines; planners snap routes to it.
- * An upload replaces the whole network. Paths run along the network with geojson-path-finder;
- * `from` and `to` are first moved to the nearest network vertex (the finder routes between
- * vertices), and how far they moved is returned.
+ * The reference road network: an analyst uploads GeoJSON lines (for instance a planned road
+ * the imported extract does not have); planners snap routes to it. An upload replaces the whole
+ * network, and the road graph's overlay (api/road-graph/road-graph-build.ts) is rebuilt from it
+ * in the same transaction, so paths use the new lines at once, joined to the imported roads.
  */
-import { asc } from 'drizzle-orm';
-import PathFinderModule from 'geojson-path-finder';
-import { distance, point } from '@turf/turf';
-import type { FeatureCollection, LineString as GeoJsonLineString } from 'geojson';
+import { asc, sql } from 'drizzle-orm';
 import { positionSchema, type LineString } from '@shared/domain/analysis';
-import type { RoadNetwork, RoadNetworkPath } from '@shared/domain/road-routes';
+import type { RoadNetwork } from '@shared/domain/road-routes';
+import type { AppDeps } from '../app-deps';
 import type { Database } from '../db/client';
 import { roadNetworkLines } from '../db/schema/index';
-import { BadRequestError, NotFoundError } from '../http/http-error';
-import { flatten, lineLengthM } from './route-geometry';
-
-/**
- * geojson-path-finder ships CommonJS with its class on `exports.default`. Under tsx and vitest the
- * default import is the class; Node's own ESM loader, which runs the bundled server, hands over
- * the whole `exports` object instead. Take the class from either.
- */
-const PathFinder = ((PathFinderModule as unknown as { default?: typeof PathFinderModule }).default ?? PathFinderModule) as typeof PathFinderModule;
+import { BadRequestError } from '../http/http-error';
+import { activeBasemap } from '../basemap/active-basemap';
+import { rebuildOverlay } from '../road-graph/road-graph-build';
+import { sampleEdgeElevations } from '../road-graph/road-graph-grades';
+import { ROAD_GRAPH_LOCK } from '../road-graph/road-graph-lock';
+import { flatten } from './route-geometry';
 
 /** Largest network accepted in one upload, lines (keeps path finding interactive). */
 const MAX_NETWORK_LINES = 50_000;
@@ -71,8 +66,10 @@ export function parseRoadNetwork(document: unknown, fileName?: string): ParsedLi
   return lines;
 }
 
-export async function replaceRoadNetwork(db: Database, uploadedById: string | null, lines: ParsedLine[]) {
-  await db.transaction(async (tx) => {
+export async function replaceRoadNetwork(deps: AppDeps, uploadedById: string | null, lines: ParsedLine[]) {
+  const base = await activeBasemap(deps.db);
+  await deps.db.transaction(async (tx) => {
+    await tx.execute(sql`SELECT pg_advisory_xact_lock(${ROAD_GRAPH_LOCK})`);
     await tx.delete(roadNetworkLines);
     for (let i = 0; i < lines.length; i += 500) {
       await tx.insert(roadNetworkLines).values(
@@ -86,7 +83,9 @@ export async function replaceRoadNetwork(db: Database, uploadedById: string | nu
         })),
       );
     }
+    await rebuildOverlay(tx, base ? { importId: base.importId, schemaName: base.schemaName } : null);
   });
+  await sampleEdgeElevations(deps, { kind: 'overlay', baseImportId: base?.importId ?? null });
   return { featureCount: new Set(lines.map((line) => line.featureIndex)).size, lineCount: lines.length };
 }
 
@@ -104,41 +103,4 @@ export async function getRoadNetwork(db: Database): Promise<RoadNetwork> {
       geometry: { type: 'LineString', coordinates: row.coordinates },
     })),
   };
-}
-
-export async function findNetworkPath(db: Database, from: [number, number], to: [number, number]): Promise<RoadNetworkPath> {
-  const network = await getRoadNetwork(db);
-  if (network.features.length === 0) throw new NotFoundError('A road network (none has been uploaded)');
-  const flat: FeatureCollection<GeoJsonLineString> = {
-    type: 'FeatureCollection',
-    features: network.features.map((feature) => ({
-      type: 'Feature',
-      properties: {},
-      geometry: { type: 'LineString', coordinates: feature.geometry.coordinates.map(([lon, lat]) => [lon, lat]) },
-    })),
-  };
-  const start = nearestVertex(flat, from);
-  const end = nearestVertex(flat, to);
-  const finder = new PathFinder(flat);
-  const found = finder.findPath(point(start.position), point(end.position));
-  if (!found || found.path.length < 2) {
-    throw new NotFoundError('A path along the road network between these two points');
-  }
-  const coordinates = found.path.map((position) => [position[0]!, position[1]!] as [number, number]);
-  return {
-    geometry: { type: 'LineString', coordinates },
-    lengthM: lineLengthM(coordinates),
-    snapDistancesM: [start.distanceM, end.distanceM],
-  };
-}
-
-function nearestVertex(network: FeatureCollection<GeoJsonLineString>, target: [number, number]) {
-  let best = { position: target as [number, number], distanceM: Number.POSITIVE_INFINITY };
-  for (const feature of network.features) {
-    for (const position of feature.geometry.coordinates) {
-      const metres = distance(point(target), point(position), { units: 'meters' });
-      if (metres < best.distanceM) best = { position: [position[0]!, position[1]!], distanceM: metres };
-    }
-  }
-  return best;
 }

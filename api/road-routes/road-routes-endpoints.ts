@@ -26,7 +26,8 @@ import { BadRequestError, NotFoundError } from '../http/http-error';
 import * as repository from './road-routes-repository';
 import * as service from './road-routes-service';
 import { authorOf } from './road-routes-service';
-import { findNetworkPath, getRoadNetwork, parseRoadNetwork, replaceRoadNetwork } from './road-network-service';
+import { findRoadPath } from '../road-graph/road-graph-path';
+import { getRoadNetwork, parseRoadNetwork, replaceRoadNetwork } from './road-network-service';
 import { routeToGeoJson } from './route-geojson';
 import { routeToGpx } from './route-gpx';
 import { importGtfsFeed, importRouteFile } from './route-import';
@@ -247,7 +248,7 @@ export function roadRouteEndpoints(deps: AppDeps) {
           }
         }
         const lines = parseRoadNetwork(document, fileName);
-        res.status(201).json(await replaceRoadNetwork(deps.db, user!.id, lines));
+        res.status(201).json(await replaceRoadNetwork(deps, user!.id, lines));
       },
     }),
     endpoint({
@@ -264,16 +265,17 @@ export function roadRouteEndpoints(deps: AppDeps) {
     endpoint({
       method: 'post',
       path: '/api/road-network/path',
-      summary: 'Shortest path along the road network between two points (to snap a route)',
+      summary: 'Shortest path a bus may drive from one point through optional via points to another, along the imported roads and the reference network (to snap a route)',
       tag: TAG,
       access: 'signed-in',
       body: roadNetworkPathRequestSchema,
       responses: {
         200: { description: 'The path', schema: roadNetworkPathSchema },
-        404: { description: 'No network, or no path joins the two points' },
+        404: { description: 'No road network: no extract imported and no reference network uploaded' },
+        422: { description: 'A point is farther than the limit from any road a bus may use (`too_far_from_road`), or no path joins two points (`no_path`); details name the point' },
       },
       handler: async ({ body, res }) => {
-        res.json(await findNetworkPath(deps.db, body.from, body.to));
+        res.json(await findRoadPath(deps.db, body));
       },
     }),
   ];

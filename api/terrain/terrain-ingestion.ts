@@ -1,6 +1,7 @@
 import { readdir, rm } from 'node:fs/promises';
 import { join } from 'node:path';
 import type { AppDeps } from '../app-deps';
+import { requestRoadGraphRegrade } from '../road-graph/road-graph-jobs';
 import type { TerrainOverviewLevel } from '../db/schema/terrain';
 import type { TerrainSource } from './block-store';
 import { PyramidBuilder } from './terrain-pyramid';
@@ -63,6 +64,8 @@ export async function ingestTerrainModel(deps: AppDeps, terrainId: string, jobId
     clearInterval(heartbeat);
   }
   runtime.invalidateCatalogue();
+  // The road graph's grades come from the terrain: sample them again with this model.
+  await requestRoadGraphRegrade(deps);
 }
 
 async function scanGrid(deps: AppDeps, source: TerrainSource): Promise<{ statistics: TerrainStatistics; overviews: TerrainOverviewLevel[] }> {

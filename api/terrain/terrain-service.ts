@@ -3,6 +3,7 @@ import { access, mkdir, rename, unlink } from 'node:fs/promises';
 import type { User } from '@shared/domain/auth';
 import type { TerrainModel, TerrainUploadAccepted } from '@shared/domain/terrain';
 import type { AppDeps } from '../app-deps';
+import { requestRoadGraphRegrade } from '../road-graph/road-graph-jobs';
 import { ConflictError, ForbiddenError, HttpError, NotFoundError } from '../http/http-error';
 import { type Actor, recordAudit } from '../audit/audit-log';
 import { isUniqueViolation } from '../db/errors';
@@ -153,6 +154,7 @@ export async function deleteTerrain(deps: AppDeps, user: User, id: string, force
     });
   });
   runtime.invalidateCatalogue();
+  await requestRoadGraphRegrade(deps);
   // Expected failure: no decoder thread holds the file; nothing to forget.
   await runtime.blocks.forget(runtime.sourceFromRow(row)).catch(() => undefined);
 }
@@ -166,6 +168,7 @@ export async function restoreTerrain(deps: AppDeps, user: User, id: string): Pro
     await recordAudit(tx, actorOf(user), { action: 'restore', kind: 'terrain', entityId: id, entityName: row.name });
   });
   terrainRuntimeFor(deps).invalidateCatalogue();
+  await requestRoadGraphRegrade(deps);
   return getTerrainModel(deps, id);
 }
 

@@ -165,13 +165,30 @@ export const roadRouteImportListSchema = z.object({ items: z.array(roadRouteSche
 
 const lonLat = z.tuple([z.number().min(-180).max(180), z.number().min(-90).max(90)]);
 
-/** POST /api/road-network/path: a path along the reference road network. */
-export const roadNetworkPathRequestSchema = z.object({ from: lonLat, to: lonLat });
+/** Farthest a point may lie from a road a bus may use before a path is refused, m. */
+export const PATH_MAX_SNAP_DISTANCE_M = 250;
+/** Most intermediate points one path request may pass through. */
+export const PATH_MAX_VIA_POINTS = 25;
+
+/**
+ * POST /api/road-network/path: the shortest path a bus may drive along the road graph (the
+ * active OpenStreetMap extract's roads and the reference network), from `from` through each of
+ * `via` in order to `to`. One-way streets and access restrictions for buses are respected.
+ */
+export const roadNetworkPathRequestSchema = z.object({
+  from: lonLat,
+  to: lonLat,
+  via: z.array(lonLat).max(PATH_MAX_VIA_POINTS).default([]),
+});
+export type RoadNetworkPathRequest = z.input<typeof roadNetworkPathRequestSchema>;
 export const roadNetworkPathSchema = z.object({
   geometry: lineStringSchema,
   lengthM: z.number(),
-  /** How far `from` and `to` were moved to reach the network, m. */
-  snapDistancesM: z.tuple([z.number(), z.number()]),
+  /** How far each point was moved to reach a road, m: `from`, each `via` in order, then `to`. */
+  snapDistancesM: z.array(z.number()).min(2),
+  /** Climb and drop along the path from the terrain, m; null where part of it has no terrain. */
+  ascentM: z.number().nullable(),
+  descentM: z.number().nullable(),
 });
 export type RoadNetworkPath = z.infer<typeof roadNetworkPathSchema>;
 

@@ -1,8 +1,15 @@
 import { sql } from 'drizzle-orm';
 import type { Database } from '../../api/db/client';
 
-/** Empties every table of the application (PostGIS's own table and the job queue's schema excepted). */
+/**
+ * Empties every table of the application (PostGIS's own table and the job queue's schema
+ * excepted) and drops the schemas imported base maps live in.
+ */
 export async function truncateAll(db: Database): Promise<void> {
+  const schemas = await db.execute<{ name: string }>(
+    sql`select schema_name as name from information_schema.schemata where schema_name ~ '^basemap_[0-9a-f]{32}$'`,
+  );
+  for (const { name } of schemas) await db.execute(sql.raw(`drop schema "${name}" cascade`));
   const rows = await db.execute<{ tablename: string }>(
     sql`select tablename from pg_tables where schemaname = 'public' and tablename <> 'spatial_ref_sys'`,
   );

@@ -140,6 +140,19 @@ export const routes: Routes = [
         loadComponent: () => import('./terrain/terrain-catalogue'),
       },
       {
+        // Everyone signed in sees the base map on every map; analysts and administrators import it.
+        path: 'base-map',
+        title: 'Base map · Descentry',
+        canMatch: [signedInGuard],
+        data: areaData({
+          label: 'Base map',
+          icon: 'map',
+          summary: 'Import the region’s OpenStreetMap extract: the streets, water and place names under the terrain, and the roads routes snap to.',
+          roles: ['analyst', 'admin'],
+        }),
+        loadComponent: () => import('./basemap/basemap-catalogue'),
+      },
+      {
         path: 'deleted',
         title: 'Recently deleted · Descentry',
         canMatch: [areaRoleGuard],

@@ -8,3 +8,4 @@ export * from './reviews';
 export * from './network-settings';
 export * from './batch-runs';
 export * from './audit';
+export * from './basemap';

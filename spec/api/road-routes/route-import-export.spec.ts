@@ -264,7 +264,7 @@ describe('the reference road network', () => {
     expect(path.body.snapDistancesM[0]).toBeCloseTo(11.1, 0);
   });
 
-  it('answers 404 when no path joins the points', async () => {
+  it('answers 422 when no path joins the points', async () => {
     const a = pointNear(0);
     const b = pointNear(1_000);
     const c = pointNear(3_000);
@@ -280,7 +280,8 @@ describe('the reference road network', () => {
 
     const response = await request(app).post('/api/road-network/path').set('Cookie', planner).send({ from: [a.lon, a.lat], to: [e.lon, e.lat] });
 
-    expect(response.status).toBe(404);
+    expect(response.status).toBe(422);
+    expect(response.body.error.code).toBe('no_path');
   });
 
   it('answers 400 naming the feature index of a bad geometry, and keeps the old network', async () => {

@@ -17,13 +17,13 @@ export const ROLE_EXPECTATIONS: Readonly<Record<DemoRole, { homeHeading: string;
   planner: { homeHeading: 'Routes and scenarios', navigation: [...EVERY_ROLE_SEES, 'Recently deleted'] },
   analyst: {
     homeHeading: 'Terrain and vehicle profiles',
-    navigation: ['Home', 'Routes', 'Descent review', 'Network summary', 'Network runs', 'Scenarios', 'Vehicle profiles', 'Terrain', 'Recently deleted'],
+    navigation: ['Home', 'Routes', 'Descent review', 'Network summary', 'Network runs', 'Scenarios', 'Vehicle profiles', 'Terrain', 'Base map', 'Recently deleted'],
   },
   safety: { homeHeading: 'Descent review', navigation: EVERY_ROLE_SEES },
   board: { homeHeading: 'Network summary', navigation: EVERY_ROLE_SEES },
   admin: {
     homeHeading: 'People and outgoing mail',
-    navigation: [...EVERY_ROLE_SEES, 'Terrain', 'Recently deleted', 'People', 'Outgoing mail', 'Audit log', 'Network settings'],
+    navigation: [...EVERY_ROLE_SEES, 'Terrain', 'Base map', 'Recently deleted', 'People', 'Outgoing mail', 'Audit log', 'Network settings'],
   },
 };
 

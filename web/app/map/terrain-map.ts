@@ -13,6 +13,11 @@ import {
   ViewEncapsulation,
 } from '@angular/core';
 import * as L from 'leaflet';
+import { leafletLayer } from 'protomaps-leaflet';
+import { BASE_TILE_MAX_DATA_ZOOM } from '@shared/domain/basemap';
+import { BASE_MAP_BACKGROUND, baseMapLabelRules, baseMapPaintRules } from './base-map-style';
+import { BasemapTilesVersion, basemapTileUrl } from './basemap-tiles-version';
+import { MapLayerPreference, type MapLayers } from './map-layer-preference';
 import { TerrainTilesVersion, terrainTileUrl } from './terrain-tiles-version';
 
 /** GeoJSON order: [longitude, latitude]. */
@@ -64,9 +69,12 @@ export interface MapOverlayEvent {
 }
 
 /**
- * The one Leaflet wrapper: our terrain tiles plus vector overlays given as data. Created after the
- * first render (Leaflet needs a sized element), removed on destroy; effects push input changes to
- * the layers. Feature screens stay Leaflet-free.
+ * The one Leaflet wrapper: the base map (vector tiles of the imported OpenStreetMap extract,
+ * drawn by protomaps-leaflet in our own style), our terrain tiles (hillshade with elevation
+ * tint) and vector overlays given as data. A switch in the map's corner shows the base map, the
+ * terrain or both (the hillshade multiplied over the base map, labels on top). Created after the
+ * first render (Leaflet needs a sized element), removed on destroy; effects push input changes
+ * to the layers. Feature screens stay Leaflet-free.
  */
 @Component({
   selector: 'app-terrain-map',
@@ -105,19 +113,56 @@ export class TerrainMap {
     maxZoom: 18,
     attribution: 'Terrain: elevation models uploaded to Descentry',
   });
+  private readonly basemapVersion = inject(BasemapTilesVersion);
+  private readonly layerPreference = inject(MapLayerPreference);
+  /** What the map shows: the base map, the terrain or both. */
+  readonly layers = this.layerPreference.layers;
 
   constructor() {
     this.tilesVersion.ensureLoaded();
+    this.basemapVersion.ensureLoaded();
     afterNextRender(() => this.createMap());
+
+    // The base map's layers follow the active extract (a new one changes the tile version) and
+    // the layer switch.
+    let baseLayers: L.Layer[] = [];
+    let shownVersion: string | null = null;
+    effect(() => {
+      const map = this.map();
+      const state = this.basemapVersion.state();
+      const layers = this.layers();
+      if (!map) return;
+      untracked(() => {
+        const version = state?.version ?? null;
+        if (version !== shownVersion) {
+          for (const layer of baseLayers) layer.remove();
+          baseLayers = version ? createBaseLayers(version, state?.attribution ?? null) : [];
+          shownVersion = version;
+        }
+        const showBase = version !== null && layers !== 'terrain';
+        const showTerrain = version === null || layers !== 'base';
+        for (const layer of baseLayers) {
+          if (showBase && !map.hasLayer(layer)) layer.addTo(map);
+          if (!showBase) layer.remove();
+        }
+        // The terrain joins the map only once its tile URL carries the catalogue version (below).
+        if (showTerrain && this.tilesVersion.settled() && !map.hasLayer(this.tileLayer)) this.tileLayer.addTo(map);
+        if (!showTerrain) this.tileLayer.remove();
+        map.getContainer().classList.toggle('app-map-blended', showBase && showTerrain);
+        this.layerControl?.update(version !== null, layers);
+      });
+    });
     // Tiles are asked for once the catalogue version is known, with it in their URL; new or
     // removed terrain models change the version and the tiles are fetched again.
     effect(() => {
       const map = this.map();
       if (!map || !this.tilesVersion.settled()) return;
       const url = terrainTileUrl(this.tilesVersion.version());
+      const state = this.basemapVersion.state();
+      const showTerrain = (state?.version ?? null) === null || this.layers() !== 'base';
       untracked(() => {
         this.tileLayer.setUrl(url, map.hasLayer(this.tileLayer));
-        if (!map.hasLayer(this.tileLayer)) this.tileLayer.addTo(map);
+        if (showTerrain && !map.hasLayer(this.tileLayer)) this.tileLayer.addTo(map);
       });
     });
     inject(DestroyRef).onDestroy(() => this.map()?.remove());
@@ -174,10 +219,18 @@ export class TerrainMap {
     return map ? fromLatLng(map.getCenter()) : null;
   }
 
+  private layerControl: LayerSwitch | null = null;
+
   private createMap(): void {
     const element = this.host.nativeElement;
     const map = L.map(element, { center: FALLBACK_VIEW.center, zoom: FALLBACK_VIEW.zoom, zoomControl: true });
+    // Base map below the terrain's tile pane (200), its labels above the terrain and below the overlays (400).
+    map.createPane('app-basemap').style.zIndex = '150';
+    map.createPane('app-basemap-labels').style.zIndex = '350';
+    map.getPane('app-basemap-labels')!.style.pointerEvents = 'none';
     L.control.scale({ imperial: true, metric: true }).addTo(map);
+    this.layerControl = new LayerSwitch((layers) => this.layerPreference.set(layers));
+    this.layerControl.addTo(map);
     map.on('click', (event: L.LeafletMouseEvent) => this.mapClicked.emit(fromLatLng(event.latlng)));
     // The element may be sized by a grid that settles after the first frame.
     const resizeObserver = new ResizeObserver(() => map.invalidateSize());
@@ -239,6 +292,82 @@ export class TerrainMap {
         return marker;
       }
     }
+  }
+}
+
+/** Fonts the labels use, loaded before the first tile is drawn (the canvas cannot wait for them). */
+const LABEL_FONTS = ['500 11px "Noto Sans"', '700 15px "Noto Sans"', 'italic 400 11px "Noto Sans"'];
+
+/** The base map as two layers: the painted map under the terrain, its labels above it. */
+function createBaseLayers(version: string, attribution: string | null): L.Layer[] {
+  const url = basemapTileUrl(version);
+  const fontsLoaded = LABEL_FONTS.map((font) => document.fonts.load(font).then(() => ({ status: 'loaded', reason: new Error() })));
+  const common = { url, maxDataZoom: BASE_TILE_MAX_DATA_ZOOM, maxZoom: 19 };
+  const painted = leafletLayer({
+    ...common,
+    pane: 'app-basemap',
+    paintRules: baseMapPaintRules(),
+    labelRules: [],
+    backgroundColor: BASE_MAP_BACKGROUND,
+    attribution: `Base map: ${escapeHtml(attribution ?? 'imported OpenStreetMap extract')}`,
+  }) as unknown as L.Layer;
+  const labels = leafletLayer({
+    ...common,
+    pane: 'app-basemap-labels',
+    paintRules: [],
+    labelRules: baseMapLabelRules(),
+    tasks: fontsLoaded,
+    attribution: '',
+  }) as unknown as L.Layer;
+  // A label tile of another zoom, stretched while the new ones are drawn, shows letters many
+  // times their size: the labels layer keeps no tiles of other zooms (Leaflet's GridLayer hooks).
+  Object.assign(labels, { _retainParent: () => false, _retainChildren: () => undefined });
+  return [painted, labels];
+}
+
+function escapeHtml(text: string): string {
+  return text.replace(/&/g, '&amp;').replace(/</g, '&lt;').replace(/>/g, '&gt;');
+}
+
+const LAYER_CHOICES: ReadonlyArray<{ value: MapLayers; label: string }> = [
+  { value: 'both', label: 'Base map and terrain' },
+  { value: 'base', label: 'Base map' },
+  { value: 'terrain', label: 'Terrain' },
+];
+
+/** The map's layer switch: three radio buttons in a Leaflet control (keyboard and screen-reader friendly). */
+class LayerSwitch extends L.Control {
+  private readonly inputs = new Map<MapLayers, HTMLInputElement>();
+  private readonly element: HTMLFieldSetElement;
+
+  constructor(private readonly changed: (layers: MapLayers) => void) {
+    super({ position: 'topright' });
+    this.element = L.DomUtil.create('fieldset', 'app-map-layers leaflet-bar') as HTMLFieldSetElement;
+    const legend = L.DomUtil.create('legend', 'app-visually-hidden', this.element);
+    legend.textContent = 'Map layers';
+    const name = `app-map-layers-${Math.random().toString(36).slice(2, 8)}`;
+    for (const choice of LAYER_CHOICES) {
+      const label = L.DomUtil.create('label', '', this.element);
+      const input = L.DomUtil.create('input', '', label) as HTMLInputElement;
+      input.type = 'radio';
+      input.name = name;
+      input.value = choice.value;
+      input.addEventListener('change', () => input.checked && this.changed(choice.value));
+      label.append(choice.label);
+      this.inputs.set(choice.value, input);
+    }
+    L.DomEvent.disableClickPropagation(this.element);
+    L.DomEvent.disableScrollPropagation(this.element);
+  }
+
+  override onAdd(): HTMLElement {
+    return this.element;
+  }
+
+  /** Shows the switch only when there is a base map to switch to, with `layers` checked. */
+  update(hasBaseMap: boolean, layers: MapLayers): void {
+    this.element.hidden = !hasBaseMap;
+    for (const [value, input] of this.inputs) input.checked = value === layers;
   }
 }
 

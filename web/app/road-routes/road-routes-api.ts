@@ -104,9 +104,16 @@ export class RoadRoutesApi {
   }
 
   /** The path along the reference network between two points, for snapping a new vertex. */
-  pathAlongNetwork(from: readonly [number, number, ...number[]], to: readonly [number, number, ...number[]]): Observable<RoadNetworkPath> {
+  /** The path a bus may drive from `from` through `via` to `to`, along the imported roads and the reference network. */
+  pathAlongNetwork(
+    from: readonly [number, number, ...number[]],
+    to: readonly [number, number, ...number[]],
+    via: ReadonlyArray<readonly [number, number, ...number[]]> = [],
+  ): Observable<RoadNetworkPath> {
+    // Only longitude and latitude go to the server: a drawn point may carry an elevation.
+    const lngLat = (p: readonly [number, number, ...number[]]) => [p[0], p[1]];
     return this.http
-      .post('/api/road-network/path', { from: [from[0], from[1]], to: [to[0], to[1]] }, inline())
+      .post('/api/road-network/path', { from: lngLat(from), to: lngLat(to), via: via.map(lngLat) }, inline())
       .pipe(map((body) => roadNetworkPathSchema.parse(body)));
   }
 

@@ -261,6 +261,14 @@ export function setVertexCoordinate(state: RouteDraftState, index: number, axis:
   return moveVertex(state, index, axis === 'lon' ? [degrees, lat] : [lon, degrees]);
 }
 
+/** Replaces vertex `index` by `points` in order (a path along the roads through where it was dropped). */
+export function replaceVertex(state: RouteDraftState, index: number, points: readonly LonLat[]): RouteDraftState {
+  assertIndex(state, index);
+  const vertices = [...state.vertices];
+  vertices.splice(index, 1, ...points);
+  return reconcile({ ...state, vertices });
+}
+
 export function deleteVertex(state: RouteDraftState, index: number): RouteDraftState {
   assertIndex(state, index);
   return reconcile({ ...state, vertices: state.vertices.filter((_, i) => i !== index) });

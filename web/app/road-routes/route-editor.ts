@@ -31,6 +31,7 @@ import { describeApiError } from '../core/api-error-message';
 import { confirmDelete } from '../ui/confirm-delete-dialog';
 import { Session } from '../core/session';
 import { DistanceChart, type ChartSeries } from '../charts/distance-chart';
+import { BasemapTilesVersion } from '../map/basemap-tiles-version';
 import { TerrainMap, type MapOverlay, type MapOverlayEvent, type MapPosition } from '../map/terrain-map';
 import { QuantityPipe } from '../units/quantity-pipe';
 import { formatQuantity, fromDisplay, toDisplay, unitLabel } from '../units/unit-format';
@@ -50,6 +51,7 @@ import {
   moveStopTo,
   moveVertex,
   parseCoordinate,
+  replaceVertex,
   pointAlongLine,
   roundDegrees,
   polylineLengthM,
@@ -138,7 +140,11 @@ export default class RouteEditor {
   protected readonly tool = signal<EditorTool>('draw');
   protected readonly selectedVertex = signal<number | null>(null);
   private readonly terrainMap = viewChild(TerrainMap);
-  protected readonly snapToNetwork = signal(false);
+  /** Whether new and moved vertices follow the roads (on by default wherever there are roads). */
+  protected readonly snapToNetwork = signal(true);
+  private readonly basemap = inject(BasemapTilesVersion);
+  /** Whether there is a road graph to snap to: an imported extract or a reference network. */
+  protected readonly canSnap = computed(() => this.network() !== null || (this.basemap.state()?.version ?? null) !== null);
   protected readonly isRouting = signal(false);
   protected readonly network = signal<RoadNetwork | null>(null);
   /** The route's current version as the server last answered it. */
@@ -297,6 +303,7 @@ export default class RouteEditor {
       else this.details.disable({ emitEvent: false });
     });
     void this.loadNetwork();
+    this.basemap.ensureLoaded();
   }
 
   // ---- Map ----
@@ -321,24 +328,54 @@ export default class RouteEditor {
     else if (kind === 'vertex') this.selectedVertex.update((current) => (current === index ? null : index));
   }
 
-  protected overlayMoved(event: MapOverlayEvent): void {
+  protected async overlayMoved(event: MapOverlayEvent): Promise<void> {
     if (!this.canEdit()) return;
     const [kind, indexText] = event.id.split(':');
-    if (kind === 'vertex') this.edit((state) => moveVertex(state, Number(indexText), event.at));
+    if (kind !== 'vertex') return;
+    const index = Number(indexText);
+    const vertices = this.draft().vertices;
+    const previous = vertices[index - 1];
+    const next = vertices[index + 1];
+    if (!this.snapToNetwork() || !this.canSnap() || (!previous && !next) || this.isRouting()) {
+      this.edit((state) => moveVertex(state, index, event.at));
+      return;
+    }
+    // Snapped: the route runs along the roads from the vertex before, through where the vertex
+    // was dropped, to the vertex after.
+    this.isRouting.set(true);
+    try {
+      const path = await firstValueFrom(
+        previous && next
+          ? this.api.pathAlongNetwork(previous, next, [event.at])
+          : previous
+            ? this.api.pathAlongNetwork(previous, event.at)
+            : this.api.pathAlongNetwork(event.at, next!),
+      );
+      const coordinates = path.geometry.coordinates.map(lonLatOf);
+      const inner = coordinates.slice(previous ? 1 : 0, next ? -1 : undefined);
+      this.edit((state) => replaceVertex(state, index, inner.length > 0 ? inner : [event.at]));
+    } catch (error: unknown) {
+      // Expected when the dropped point is far from the roads or not connected: move it as dropped.
+      this.snackBar.open(`${describeApiError(error)} The vertex was moved without snapping.`, 'Dismiss');
+      this.edit((state) => moveVertex(state, index, event.at));
+    } finally {
+      this.isRouting.set(false);
+    }
   }
 
   private async addVertex(at: MapPosition): Promise<void> {
     const vertices = this.draft().vertices;
     const last = vertices[vertices.length - 1];
-    if (!last || !this.snapToNetwork() || !this.network()) {
+    if (!this.snapToNetwork() || !this.canSnap()) {
       this.edit((state) => appendVertices(state, [at]));
       return;
     }
     if (this.isRouting()) return;
     this.isRouting.set(true);
     try {
-      const path = await firstValueFrom(this.api.pathAlongNetwork(last, at));
-      const routed = path.geometry.coordinates.slice(1).map(lonLatOf);
+      // The first vertex goes to the nearest road; the next ones follow the roads from the last.
+      const path = await firstValueFrom(this.api.pathAlongNetwork(last ?? at, at));
+      const routed = (last ? path.geometry.coordinates.slice(1) : path.geometry.coordinates.slice(0, 1)).map(lonLatOf);
       this.edit((state) => appendVertices(state, routed.length > 0 ? routed : [at]));
     } catch (error: unknown) {
       // Expected when the two points are not connected by the network: add the point directly.
@@ -669,7 +706,6 @@ export default class RouteEditor {
     try {
       const network = await this.api.roadNetwork();
       this.network.set(network);
-      if (network && this.isPlanner()) this.snapToNetwork.set(true);
     } catch {
       // Expected when no reference network has been uploaded yet: draw freely.
       this.network.set(null);

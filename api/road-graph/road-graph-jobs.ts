@@ -1,0 +1,47 @@
+import { sql } from 'drizzle-orm';
+import type { AppDeps } from '../app-deps';
+import { activeBasemap, forgetActiveBasemap } from '../basemap/active-basemap';
+import { createInlineJobQueue, jobQueueOf, type JobPolicy, type JobQueue } from '../jobs/job-queue';
+import { sampleEdgeElevations } from './road-graph-grades';
+
+/** Re-samples the graph's elevations after the terrain changed (a model became ready or was deleted). */
+export const ROAD_GRAPH_GRADES_JOB = 'road-graph-grades';
+
+export async function regradeRoadGraph(deps: AppDeps): Promise<void> {
+  forgetActiveBasemap(deps.db);
+  const base = await activeBasemap(deps.db);
+  if (base) await sampleEdgeElevations(deps, { kind: 'imported', schemaName: base.schemaName });
+  await sampleEdgeElevations(deps, { kind: 'overlay', baseImportId: base?.importId ?? null });
+}
+
+export async function registerRoadGraphWorkers(deps: AppDeps, queue: JobQueue): Promise<void> {
+  await queue.registerWorker(ROAD_GRAPH_GRADES_JOB, () => regradeRoadGraph(deps), ROAD_GRAPH_GRADES_POLICY);
+}
+
+const ROAD_GRAPH_GRADES_POLICY: JobPolicy = { expireInSeconds: 60 * 60, retryLimit: 1 };
+
+const inlineQueues = new WeakMap<object, ReturnType<typeof createInlineJobQueue>>();
+
+/** Queues a re-sampling of the graph's elevations when there is a graph (in-process where no shared queue runs). */
+export async function requestRoadGraphRegrade(deps: AppDeps): Promise<void> {
+  forgetActiveBasemap(deps.db);
+  const base = await activeBasemap(deps.db);
+  const [overlay] = await deps.db.execute<{ found: boolean }>(sql`SELECT EXISTS (SELECT 1 FROM road_graph_overlay_edges) AS found`);
+  if (!base && !overlay?.found) return;
+  let queue = jobQueueOf(deps.db);
+  if (!queue) {
+    let inline = inlineQueues.get(deps.db);
+    if (!inline) {
+      inline = createInlineJobQueue();
+      await registerRoadGraphWorkers(deps, inline);
+      inlineQueues.set(deps.db, inline);
+    }
+    queue = inline;
+  }
+  await queue.send(ROAD_GRAPH_GRADES_JOB, {}, ROAD_GRAPH_GRADES_POLICY);
+}
+
+/** Resolves when in-process re-gradings have finished (tests and the demo seed). */
+export async function waitForInlineRoadGraphJobs(deps: AppDeps): Promise<void> {
+  await inlineQueues.get(deps.db)?.idle();
+}
