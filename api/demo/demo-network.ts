@@ -300,7 +300,7 @@ export async function seedDemoNetwork(deps: AppDeps): Promise<void> {
   for (const profile of OWN_PROFILES) {
     const id = seededUuid(profile.key);
     const [existing] = await db.select({ id: vehicleProfiles.id }).from(vehicleProfiles).where(eq(vehicleProfiles.seedKey, profile.key));
-    if (!existing) await insertProfile(db, vehicleProfileDraftSchema.parse(profile.draft), analyst.id, profile.key, id);
+    if (!existing) await insertProfile(db, vehicleProfileDraftSchema.parse(profile.draft), analyst, profile.key, id);
     profileIds.set(profile.key, existing?.id ?? id);
   }
 

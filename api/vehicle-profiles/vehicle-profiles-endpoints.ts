@@ -5,6 +5,7 @@ import {
   vehicleProfileIdParamsSchema,
   vehicleProfileListSchema,
   vehicleProfileSchema,
+  vehicleProfileVersionListSchema,
 } from '@shared/domain/vehicle-profiles';
 import type { AppDeps } from '../app-deps';
 import { endpoint } from '../http/endpoint';
@@ -61,8 +62,8 @@ export function vehicleProfileEndpoints(deps: AppDeps) {
       params: vehicleProfileIdParamsSchema,
       body: vehicleProfileDraftSchema,
       responses: { 200: { description: 'Updated', schema: vehicleProfileSchema }, 409: { description: 'A preset (read-only)' } },
-      handler: async ({ params, body, res }) => {
-        res.json(await service.updateProfile(deps.db, params.vehicleProfileId, body));
+      handler: async ({ params, body, user, res }) => {
+        res.json(await service.updateProfile(deps.db, params.vehicleProfileId, body, user!));
       },
     }),
     endpoint({
@@ -76,6 +77,18 @@ export function vehicleProfileEndpoints(deps: AppDeps) {
       handler: async ({ params, res }) => {
         await service.deleteProfile(deps.db, params.vehicleProfileId);
         res.status(204).end();
+      },
+    }),
+    endpoint({
+      method: 'get',
+      path: '/api/vehicles/:vehicleProfileId/versions',
+      summary: 'Saved versions of a profile, newest first: content, who saved it, and the logged trips a calibrated version was fitted on',
+      tag: TAG,
+      access: 'signed-in',
+      params: vehicleProfileIdParamsSchema,
+      responses: { 200: { description: 'Versions', schema: vehicleProfileVersionListSchema }, 404: { description: 'No such profile' } },
+      handler: async ({ params, res }) => {
+        res.json({ items: await service.listVersions(deps.db, params.vehicleProfileId) });
       },
     }),
     endpoint({

@@ -1,5 +1,5 @@
 import type { User } from '@shared/domain/auth';
-import type { CapabilityCurvesResponse, CapabilityQuery, VehicleProfile, VehicleProfileDraft } from '@shared/domain/vehicle-profiles';
+import type { CapabilityCurvesResponse, CapabilityQuery, VehicleProfile, VehicleProfileDraft, VehicleProfileVersion } from '@shared/domain/vehicle-profiles';
 import { capabilityCurves } from '@shared/engine/capability-curves';
 import type { Database } from '../db/client';
 import { ConflictError, NotFoundError } from '../http/http-error';
@@ -12,16 +12,23 @@ export async function getProfile(db: Database, id: string): Promise<VehicleProfi
 }
 
 export async function createProfile(db: Database, user: User, draft: VehicleProfileDraft): Promise<VehicleProfile> {
-  return repository.toVehicleProfile(await repository.insertProfile(db, draft, user.id));
+  return db.transaction(async (tx) => repository.toVehicleProfile(await repository.insertProfile(tx, draft, { id: user.id, name: user.name })));
 }
 
-export async function updateProfile(db: Database, id: string, draft: VehicleProfileDraft): Promise<VehicleProfile> {
+/** Saves a change as the profile's next version (scenarios using it become stale). */
+export async function updateProfile(db: Database, id: string, draft: VehicleProfileDraft, user: User): Promise<VehicleProfile> {
   return db.transaction(async (tx) => {
     const row = await repository.lockProfile(tx, id);
     if (!row) throw new NotFoundError('The vehicle profile');
     if (row.isPreset) throw presetConflict();
-    return repository.toVehicleProfile(await repository.updateProfile(tx, id, draft));
+    return repository.toVehicleProfile(await repository.saveProfileVersion(tx, row, draft, { id: user.id, name: user.name }));
   });
+}
+
+/** Every recorded version of a profile, newest first (presets have none). */
+export async function listVersions(db: Database, id: string): Promise<VehicleProfileVersion[]> {
+  await getProfile(db, id);
+  return repository.listVersions(db, id);
 }
 
 export async function deleteProfile(db: Database, id: string): Promise<void> {
@@ -29,6 +36,14 @@ export async function deleteProfile(db: Database, id: string): Promise<void> {
     const row = await repository.lockProfile(tx, id);
     if (!row) throw new NotFoundError('The vehicle profile');
     if (row.isPreset) throw presetConflict();
+    const measured = await repository.countCalibrationData(tx, id);
+    if (measured > 0) {
+      throw new ConflictError(
+        'The vehicle profile has logged trips or calibrations; delete its logged trips first (calibrations go with them)',
+        'vehicle_profile_has_logged_trips',
+        { count: measured },
+      );
+    }
     const used = await repository.countScenariosUsingProfile(tx, id);
     if (used > 0) {
       throw new ConflictError(

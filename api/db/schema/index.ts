@@ -7,3 +7,4 @@ export * from './scenarios';
 export * from './reviews';
 export * from './network-settings';
 export * from './batch-runs';
+export * from './logged-trips';
