@@ -2,9 +2,11 @@ import { analysisEndpoints } from './analysis/analysis-endpoints';
 import type { AppDeps } from './app-deps';
 import { batchRunsEndpoints } from './batch-runs/batch-runs-endpoints';
 import { boardEndpoints } from './board/board-endpoints';
+import { calibrationEndpoints } from './calibrations/calibrations-endpoints';
 import { authEndpoints } from './auth/auth-endpoints';
 import { healthEndpoints } from './health/health-endpoints';
 import type { AnyEndpoint } from './http/endpoint';
+import { loggedTripEndpoints } from './logged-trips/logged-trips-endpoints';
 import { mailEndpoints } from './mail/mail-endpoints';
 import { notificationSettingsEndpoints } from './notifications/notification-settings-endpoints';
 import { peopleEndpoints } from './people/people-endpoints';
@@ -32,6 +34,8 @@ export function allEndpoints(deps: AppDeps): AnyEndpoint[] {
     ...batchRunsEndpoints(deps),
     ...roadRouteEndpoints(deps),
     ...vehicleProfileEndpoints(deps),
+    ...loggedTripEndpoints(deps),
+    ...calibrationEndpoints(deps),
     ...scenarioEndpoints(deps),
     ...terrainEndpoints(deps),
   ];

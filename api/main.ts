@@ -5,6 +5,7 @@ import { migrateDatabase } from './db/migrate';
 import { createApp } from './app';
 import { withDefaultServices } from './app-services';
 import { startBatchRunWorkers } from './batch-runs/batch-runs-service';
+import { startCalibrationWorkers } from './calibrations/calibrations-service';
 import { createSmtpTransport, startMailWorker } from './mail/mail-worker';
 import { startSmtpFake } from './mail/smtp-fake';
 import { startTerrain } from './terrain/terrain-startup';
@@ -30,6 +31,7 @@ if (config.RUN_WORKERS) {
 }
 stoppers.push(await startTerrain(deps));
 await startBatchRunWorkers(deps);
+await startCalibrationWorkers(deps);
 
 const server = createServer(createApp(deps));
 server.listen(config.PORT, config.HOST, () => {

@@ -10,6 +10,7 @@
  */
 import { withDefaultServices } from './app-services';
 import { startBatchRunWorkers } from './batch-runs/batch-runs-service';
+import { startCalibrationWorkers } from './calibrations/calibrations-service';
 import { loadConfig } from './config';
 import { createDatabase } from './db/client';
 import { migrateDatabase } from './db/migrate';
@@ -25,7 +26,8 @@ const deps = withDefaultServices({ db, config });
 const mail = startMailWorker(db, createSmtpTransport(config), config.MAIL_FROM);
 const stopTerrain = await startTerrain(deps);
 await startBatchRunWorkers(deps);
-console.log('[worker] Descentry worker running: terrain ingestion, batch runs, mail outbox');
+await startCalibrationWorkers(deps);
+console.log('[worker] Descentry worker running: terrain ingestion, batch runs, calibrations, mail outbox');
 
 async function shutdown(signal: string) {
   console.log(`[worker] ${signal}: shutting down`);

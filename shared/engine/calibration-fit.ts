@@ -23,8 +23,12 @@
  * 10⁸); both are reported as warnings with the parameters named. Classic case: trips run at
  * one speed cannot separate rolling resistance (∝ v) from drag (∝ v³) in the traction power.
  *
- * Brake thermal parameters (thermal mass, cooled area) are fitted afterwards, with the powertrain
- * parameters held at their fitted values, on the logged brake temperatures, by the same method.
+ * Brake thermal parameters (thermal mass, cooled area) are fitted on the logged brake
+ * temperatures: first alone, with the powertrain held at its fit, then jointly with the
+ * powertrain parameters on both residuals, each scaled by its own scatter (σ̂ of the separate
+ * fits). The friction heat depends on how much braking regeneration takes, so the joint fit lets
+ * the brake intervals carry the uncertainty of the regeneration efficiency, and the brake
+ * temperatures inform it in turn.
  */
 import { levenbergMarquardt } from 'ml-levenberg-marquardt';
 import { EigenvalueDecomposition, Matrix, inverse } from 'ml-matrix';
@@ -199,11 +203,14 @@ export async function fitCalibration(input: CalibrationInput, options: FitOption
     },
     options,
   );
-  const fittedPower = record(powerKeys, power.theta);
+  let fittedPower = record(powerKeys, power.theta);
   warnings.push(...power.warnings);
 
   let brake: CalibrationOutcome['brake'] = null;
   let fittedBrake: Partial<Record<FitParameter, number>> = {};
+  let parameters = power.parameters;
+  let correlation: CalibrationOutcome['correlation'] = power.correlation ? { keys: [...powerKeys], matrix: power.correlation } : null;
+  let statistics = power.statistics;
   if (brakeKeys.length > 0) {
     const withBrakes = trips.filter((trip) => trip.trip.brakeTempC?.some((value) => value !== null));
     if (withBrakes.length === 0) {
@@ -212,9 +219,8 @@ export async function fitCalibration(input: CalibrationInput, options: FitOption
       const measuredC: number[] = [];
       const pointsOf = withBrakes.map((trip) => trip.trip.brakeTempC!.map((value, i) => (value === null ? -1 : i)).filter((i) => i >= 0));
       withBrakes.forEach((trip, t) => pointsOf[t]!.forEach((i) => measuredC.push(trip.trip.brakeTempC![i]!)));
-      const brakeGroups = concat(pointsOf.map((points, t) => new Float64Array(points.length).fill(t)));
-      const modelledC = (theta: number[]) => {
-        const values = { ...fittedPower, ...record(brakeKeys, theta) };
+      const brakeGroups = concat(pointsOf.map((points, t) => new Float64Array(points.length).fill(trips.length + t)));
+      const brakeTemperatures = (values: Partial<Record<FitParameter, number>>) => {
         const out: number[] = [];
         withBrakes.forEach((trip, t) => {
           const run = runTrip(trip, values);
@@ -223,7 +229,9 @@ export async function fitCalibration(input: CalibrationInput, options: FitOption
         return Float64Array.from(out);
       };
       const measuredArray = Float64Array.from(measuredC);
-      const fit = await boundedLeastSquares(
+      // Brake parameters alone first, the powertrain held at its fit: a start for the joint fit
+      // and the scatter of the brake temperatures.
+      const alone = await boundedLeastSquares(
         {
           keys: brakeKeys,
           initial: initialValues(brakeKeys),
@@ -231,18 +239,49 @@ export async function fitCalibration(input: CalibrationInput, options: FitOption
           weights: new Float64Array(measuredC.length).fill(1),
           groups: brakeGroups,
           responseScale: 10,
-          evaluate: modelledC,
+          evaluate: (theta) => brakeTemperatures({ ...fittedPower, ...record(brakeKeys, theta) }),
         },
         options,
       );
-      warnings.push(...fit.warnings);
-      fittedBrake = record(brakeKeys, fit.theta);
+      // Then everything together, each kind of residual scaled by its own scatter, so the brake
+      // intervals carry the uncertainty of the regeneration that decides the friction heat.
+      const keys = [...powerKeys, ...brakeKeys];
+      const sigmaPowerW = Math.max(power.statistics.residualStdW, 1);
+      const sigmaBrakeC = Math.max(alone.statistics.residualStdW, 0.01);
+      const meanDuration = durations.reduce((a, b) => a + b, 0) / Math.max(1, durations.length);
+      const joint = await boundedLeastSquares(
+        {
+          keys,
+          initial: [...power.theta, ...alone.theta],
+          measured: concat([measured, measuredArray]),
+          weights: concat([
+            Float64Array.from(durations, (d) => d / meanDuration / sigmaPowerW ** 2),
+            new Float64Array(measuredC.length).fill(1 / sigmaBrakeC ** 2),
+          ]),
+          groups: concat([groups, brakeGroups]),
+          responseScale: 1,
+          evaluate: (theta) => {
+            const values = record(keys, theta);
+            return concat([concat(trips.map((trip) => stepsOf(trip, values).modelledW)), brakeTemperatures(values)]);
+          },
+        },
+        options,
+      );
+      warnings.length = 0;
+      warnings.push(...joint.warnings.filter((warning) => warning.code !== 'few_samples' || power.warnings.some((w) => w.code === 'few_samples')));
+      fittedPower = record(powerKeys, joint.theta.slice(0, powerKeys.length));
+      fittedBrake = record(brakeKeys, joint.theta.slice(powerKeys.length));
+      parameters = joint.parameters.slice(0, powerKeys.length);
+      correlation = joint.correlation ? { keys, matrix: joint.correlation } : null;
+      statistics = { ...power.statistics, conditionNumber: joint.statistics.conditionNumber, iterations: power.statistics.iterations + alone.statistics.iterations + joint.statistics.iterations, tQuantile: joint.statistics.tQuantile };
       const stats = (values: Float64Array) => comparePointValues(Array.from(measuredArray), values)!;
+      const brakeIndex = (key: FitParameter) => keys.indexOf(key);
       brake = {
-        parameters: fit.parameters,
-        before: stats(modelledC(initialValues(brakeKeys))),
-        after: stats(fit.modelled),
-        correlation: fit.correlation ? fit.correlation[0]![1] ?? null : null,
+        parameters: joint.parameters.slice(powerKeys.length),
+        before: stats(brakeTemperatures({})),
+        after: stats(brakeTemperatures({ ...fittedPower, ...fittedBrake })),
+        correlation:
+          joint.correlation && brakeKeys.length === 2 ? joint.correlation[brakeIndex(brakeKeys[0]!)]![brakeIndex(brakeKeys[1]!)]! : null,
       };
     }
   }
@@ -284,14 +323,14 @@ export async function fitCalibration(input: CalibrationInput, options: FitOption
   }, 0) / trips.length;
   const fittedReference = vehicleWithParameters(reference, allFitted, true);
   return {
-    parameters: power.parameters,
-    correlation: power.correlation ? { keys: [...powerKeys], matrix: power.correlation } : null,
+    parameters,
+    correlation,
     warnings,
     before: comparePower(beforeSteps),
     after: comparePower(afterSteps),
     trips: tripFits,
     brake,
-    statistics: power.statistics,
+    statistics,
     roadLoad: {
       massKg: meanMassKg,
       aN: fittedReference.rollingResistanceCoefficient * meanMassKg * STANDARD_GRAVITY_MPS2,

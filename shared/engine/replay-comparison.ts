@@ -22,7 +22,7 @@ import type { RouteRun } from './route-run';
 import type { AlignedTrip } from './trip-alignment';
 
 /** Shortest run of segments compared as one step, s (measured time). */
-export const REPLAY_STEP_S = 5;
+export const REPLAY_STEP_S = 10;
 
 /** One step of a replay with measured and modelled battery power. */
 export interface ReplaySteps {

@@ -9,9 +9,9 @@
  * segment's mean; SOC and brake temperature are interpolated in time. Noise is Gaussian from a
  * seeded generator (the same seed gives the same file).
  */
-import type { PreviewRequestInput } from '@shared/domain/analysis';
-import { analyseRouteDetailed } from '@shared/engine/analyse-route';
-import { geodesicDirect, geodesicInverse } from '@shared/engine/geodesy';
+import type { PreviewRequestInput } from '../domain/analysis';
+import { analyseRouteDetailed } from './analyse-route';
+import { geodesicDirect, geodesicInverse } from './geodesy';
 
 export interface SynthesisNoise {
   /** Standard deviation of the logged battery power, W. */
