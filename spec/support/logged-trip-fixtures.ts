@@ -67,3 +67,15 @@ function round(value: number, digits: number): number {
   const f = 10 ** digits;
   return Math.round(value * f) / f;
 }
+
+/** A vehicle profile draft for the checks: the generic 12 m class, mild season at 8 °C. */
+export function aProfileDraft(name = 'Spec mountain bus') {
+  return {
+    name,
+    vehicleClass: 'battery-bus-12m',
+    vehicle: { ...presetVehicle('battery-bus-12m'), payloadKg: 0 },
+    loadsKg: { empty: 0, seated: 2_240, 'full-standing': 6_000 },
+    passengerMassKg: 70,
+    seasons: { winter: { ambientC: -5, auxPowerW: 20_000 }, mild: { ambientC: 8, auxPowerW: 6_000 }, summer: { ambientC: 25, auxPowerW: 14_000 } },
+  };
+}
