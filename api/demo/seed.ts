@@ -1,4 +1,5 @@
 import type { AppDeps } from '../app-deps';
+import { seedDemoLoggedTrips } from './demo-logged-trips';
 import { seedDemoNetwork } from './demo-network';
 import { seedDemoPeople } from './demo-people';
 import { seedDemoReviews } from './demo-reviews';
@@ -17,4 +18,6 @@ export async function seedDemo(deps: AppDeps): Promise<void> {
   // Routes, vehicle profiles and computed scenarios of the invented transit authority.
   await seedDemoNetwork(deps);
   await seedDemoReviews(deps);
+  // Invented logged trips of the mountain bus, ready to fit its profile to.
+  await seedDemoLoggedTrips(deps);
 }
