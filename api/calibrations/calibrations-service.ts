@@ -34,7 +34,7 @@ export const DEFAULT_FIT: FitParameter[] = ['rollingResistanceCoefficient', 'dra
 export const FIT_METHOD =
   'Bounded Levenberg–Marquardt least squares (ml-levenberg-marquardt) on battery power over the replay steps of all trips, weighted by step duration; ' +
   '95 % intervals from the Jacobian at the solution, σ̂²·(JᵀWJ)⁻¹, inflated by (1 + ρ₁)/(1 − ρ₁) for the lag-1 autocorrelation ρ₁ of the residuals, with Student-t quantiles; ' +
-  'brake thermal parameters fitted afterwards on logged brake temperatures the same way.';
+  'brake thermal parameters fitted on logged brake temperatures, then jointly with the powertrain, each residual scaled by its own scatter.';
 
 export async function requestCalibration(deps: AppDeps, user: User, vehicleProfileId: string, request: CalibrationRequest): Promise<Calibration> {
   const profileRow = await profiles.findProfile(deps.db, vehicleProfileId);

@@ -15,7 +15,7 @@ import { UnitPreference } from '../units/unit-preference';
 import { UnitSwitch } from '../units/unit-switch';
 import { VehicleProfilesApi } from '../vehicles/vehicle-profiles-api';
 import { CalibrationApi } from './calibration-api';
-import { FIT_PARAMETER_LABELS, formatChange, formatParameter, residualSeries } from './calibration-format';
+import { FIT_PARAMETER_LABELS, formatChange, formatParameter, residualSeries, signedPercent } from './calibration-format';
 
 /** How often a queued or running fit is asked for its status, ms. */
 const POLL_INTERVAL_MS = 1_500;
@@ -40,6 +40,7 @@ export default class CalibrationDetail {
   readonly calibrationId = input.required<string>();
 
   protected readonly units = inject(UnitPreference).system;
+  protected readonly signedPercent = signedPercent;
   protected readonly labels = FIT_PARAMETER_LABELS;
   protected readonly formatParameter = formatParameter;
   protected readonly formatChange = formatChange;

@@ -38,6 +38,13 @@ export function formatChange(initial: number, fitted: number): string {
   return `${percent >= 0 ? '+' : '−'}${Math.abs(percent).toFixed(1)} %`;
 }
 
+/** "−34.3 %", "+1.1 %": a signed percentage with a true minus sign, or "—". */
+export function signedPercent(value: number | null | undefined, digits = 1): string {
+  if (value === null || value === undefined || !Number.isFinite(value)) return '—';
+  const text = Math.abs(value).toFixed(digits);
+  return `${value < 0 && Number(text) !== 0 ? '−' : value > 0 && Number(text) !== 0 ? '+' : ''}${text} %`;
+}
+
 export type ComparisonAxis = 'distance' | 'time';
 
 export const MEASURED_COLOR = '#1a1c1e';

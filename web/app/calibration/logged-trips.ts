@@ -22,6 +22,7 @@ import { QuantityPipe } from '../units/quantity-pipe';
 import { UnitPreference } from '../units/unit-preference';
 import { UnitSwitch } from '../units/unit-switch';
 import { VehicleProfilesApi } from '../vehicles/vehicle-profiles-api';
+import { signedPercent } from './calibration-format';
 import { CalibrationApi, type CalibrationSummary } from './calibration-api';
 
 type UploadState =
@@ -68,6 +69,7 @@ export default class LoggedTrips {
   readonly vehicleProfileId = input.required<string>();
 
   protected readonly units = inject(UnitPreference).system;
+  protected readonly signedPercent = signedPercent;
   protected readonly labels = FIT_PARAMETER_LABELS;
   protected readonly formatFileSize = formatFileSize;
   protected readonly profile = signal<VehicleProfile | null>(null);

@@ -14,7 +14,7 @@ import { unitLabel } from '../units/unit-format';
 import { UnitPreference } from '../units/unit-preference';
 import { UnitSwitch } from '../units/unit-switch';
 import { CalibrationApi } from './calibration-api';
-import { comparisonCharts, comparisonX, type ComparisonAxis } from './calibration-format';
+import { comparisonCharts, comparisonX, type ComparisonAxis, signedPercent } from './calibration-format';
 
 /**
  * One logged trip against the model: the engine replays it on its measured speed, and the
@@ -37,6 +37,7 @@ export default class TripComparison {
   readonly calibrationId = input<string | undefined>();
 
   protected readonly units = inject(UnitPreference).system;
+  protected readonly signedPercent = signedPercent;
   protected readonly trip = signal<LoggedTrip | null>(null);
   protected readonly comparison = signal<ReplayComparison | null>(null);
   protected readonly error = signal<string | null>(null);
