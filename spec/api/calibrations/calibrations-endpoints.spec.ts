@@ -51,8 +51,9 @@ describe('POST /api/vehicles/:vehicleProfileId/calibrations and GET /api/calibra
       drivetrainEfficiency: TRUE_VEHICLE.drivetrainEfficiency,
       regenEfficiency: TRUE_VEHICLE.regenEfficiency,
     };
+    const intervals = calibration.intervals as Record<string, [number, number] | null>;
     for (const [key, value] of Object.entries(truth)) {
-      const [low, high] = calibration.intervals![key as keyof typeof calibration.intervals]!;
+      const [low, high] = intervals[key]!;
       expect(value, key).toBeGreaterThanOrEqual(low);
       expect(value, key).toBeLessThanOrEqual(high);
     }
