@@ -5,9 +5,11 @@ import { basemapEndpoints } from './basemap/basemap-endpoints';
 import { batchRunsEndpoints } from './batch-runs/batch-runs-endpoints';
 import { deletedItemsEndpoints } from './deleted-items/deleted-items-endpoints';
 import { boardEndpoints } from './board/board-endpoints';
+import { calibrationEndpoints } from './calibrations/calibrations-endpoints';
 import { authEndpoints } from './auth/auth-endpoints';
 import { healthEndpoints } from './health/health-endpoints';
 import type { AnyEndpoint } from './http/endpoint';
+import { loggedTripEndpoints } from './logged-trips/logged-trips-endpoints';
 import { mailEndpoints } from './mail/mail-endpoints';
 import { notificationSettingsEndpoints } from './notifications/notification-settings-endpoints';
 import { peopleEndpoints } from './people/people-endpoints';
@@ -35,6 +37,8 @@ export function allEndpoints(deps: AppDeps): AnyEndpoint[] {
     ...batchRunsEndpoints(deps),
     ...roadRouteEndpoints(deps),
     ...vehicleProfileEndpoints(deps),
+    ...loggedTripEndpoints(deps),
+    ...calibrationEndpoints(deps),
     ...scenarioEndpoints(deps),
     ...terrainEndpoints(deps),
     ...deletedItemsEndpoints(deps),

@@ -7,6 +7,7 @@ import { withDefaultServices } from './app-services';
 import { closeAnalysisPool } from './analysis/analysis-pool';
 import { startBatchRunWorkers } from './batch-runs/batch-runs-service';
 import { startMaintenance } from './jobs/maintenance';
+import { startCalibrationWorkers } from './calibrations/calibrations-service';
 import { createSmtpTransport, startMailWorker } from './mail/mail-worker';
 import { startSmtpFake } from './mail/smtp-fake';
 import { startTerrain } from './terrain/terrain-startup';
@@ -38,6 +39,7 @@ stoppers.push(await startTerrain(deps));
 stoppers.push(() => closeAnalysisPool(deps));
 await startBasemap(deps);
 await startBatchRunWorkers(deps);
+await startCalibrationWorkers(deps);
 // After the workers: what a crash left half-done is queued again now and every minute.
 if (config.RUN_WORKERS) stoppers.unshift(startMaintenance(deps));
 

@@ -12,6 +12,7 @@ import { withDefaultServices } from './app-services';
 import { closeAnalysisPool } from './analysis/analysis-pool';
 import { startBatchRunWorkers } from './batch-runs/batch-runs-service';
 import { startMaintenance } from './jobs/maintenance';
+import { startCalibrationWorkers } from './calibrations/calibrations-service';
 import { loadConfig } from './config';
 import { createDatabase } from './db/client';
 import { migrateDatabase } from './db/migrate';
@@ -32,8 +33,9 @@ const mail = startMailWorker(db, createSmtpTransport(config), { from: config.MAI
 const stopTerrain = await startTerrain(deps);
 await startBasemap(deps);
 await startBatchRunWorkers(deps);
+await startCalibrationWorkers(deps);
 const stopMaintenance = startMaintenance(deps);
-console.log('[worker] Descentry worker running: terrain ingestion, base-map imports, batch runs, mail outbox');
+console.log('[worker] Descentry worker running: terrain ingestion, base-map imports, batch runs, calibrations, mail outbox');
 
 async function shutdown(signal: string) {
   console.log(`[worker] ${signal}: shutting down`);

@@ -5,10 +5,11 @@ import { batchRunItems, batchRuns, type BatchRunItemRow, type BatchRunRow } from
 
 export async function insertBatchRun(
   db: Executor,
-  startedBy: { id: string; name: string },
+  startedBy: { id: string | null; name: string },
   scenarioList: Array<{ id: string; name: string }>,
+  reason: string | null = null,
 ): Promise<{ run: BatchRunRow; items: BatchRunItemRow[] }> {
-  const [run] = await db.insert(batchRuns).values({ startedById: startedBy.id, startedByName: startedBy.name }).returning();
+  const [run] = await db.insert(batchRuns).values({ startedById: startedBy.id, startedByName: startedBy.name, reason }).returning();
   const items = await db
     .insert(batchRunItems)
     .values(scenarioList.map((scenario) => ({ batchRunId: run!.id, scenarioId: scenario.id, scenarioName: scenario.name })))
@@ -138,6 +139,7 @@ export function toBatchRun(run: BatchRunRow, items: Array<Pick<BatchRunItemRow, 
     done,
     failed,
     startedBy: run.startedByName,
+    reason: run.reason ?? null,
     createdAt: run.createdAt.toISOString(),
     finishedAt: run.finishedAt?.toISOString() ?? null,
     items: items.map((item) => ({

@@ -40,7 +40,20 @@ export async function startBatchRun(deps: AppDeps, user: User): Promise<BatchRun
   if (inService.length === 0) {
     throw new ConflictError('No scenario is marked in service; mark scenarios in service before a network-wide run', 'nothing_in_service');
   }
-  const { run, items } = await deps.db.transaction((tx) => repository.insertBatchRun(tx, user, inService));
+  return startScenarioReruns(deps, user, inService, null);
+}
+
+/**
+ * Re-runs the given scenarios as one batch (one queued job each), e.g. every scenario of a
+ * vehicle profile after a new version of it; `reason` says why.
+ */
+export async function startScenarioReruns(
+  deps: AppDeps,
+  startedBy: { id: string | null; name: string },
+  scenarioList: Array<{ id: string; name: string }>,
+  reason: string | null,
+): Promise<BatchRun> {
+  const { run, items } = await deps.db.transaction((tx) => repository.insertBatchRun(tx, startedBy, scenarioList, reason));
   const queue = await batchJobs(deps);
   for (const item of items) {
     const jobId = await queue.send(BATCH_RUN_JOB, { batchRunId: run.id, scenarioId: item.scenarioId } satisfies BatchRunJob, BATCH_RUN_JOB_POLICY);

@@ -247,6 +247,33 @@ const SCENARIOS: ScenarioSeed[] = [
   },
 ];
 
+/**
+ * A demo route's designed line with elevations, its stops (distance along the line, dwell) and
+ * its speed limits, for the invented logged trips (scripts/make-demo-logged-trips.ts).
+ */
+export function demoRouteDesign(key: string) {
+  const route = ROUTES.find((candidate) => candidate.key === key);
+  if (!route) throw new Error(`No demo route ${key}`);
+  return {
+    coordinates: route.waypoints.map((point) => [...lonLat(point.at), round(point.elevationM, 1)] as [number, number, number]),
+    stopsAtWaypoints: route.waypoints.map((point) => (point.stop ? (point.stop.dwellS ?? 20) : null)),
+    speedLimits: route.draft.speedLimits ?? [],
+    defaultSpeedLimitKph: route.draft.defaultSpeedLimitKph ?? 50,
+  };
+}
+
+/** The draft of one of the authority's own demo profiles. */
+export function demoProfileDraft(key: string): VehicleProfileDraftInput {
+  const profile = OWN_PROFILES.find((candidate) => candidate.key === key);
+  if (!profile) throw new Error(`No demo vehicle profile ${key}`);
+  return profile.draft;
+}
+
+/** Id of a demo profile (seeded with a fixed id). */
+export function demoProfileId(key: string): string {
+  return seededUuid(key);
+}
+
 /** Loads the demo network; needs the demo people (the planner and analyst are the authors). */
 export async function seedDemoNetwork(deps: AppDeps): Promise<void> {
   const { db } = deps;
@@ -280,7 +307,7 @@ export async function seedDemoNetwork(deps: AppDeps): Promise<void> {
   for (const profile of OWN_PROFILES) {
     const id = seededUuid(profile.key);
     const [existing] = await db.select({ id: vehicleProfiles.id }).from(vehicleProfiles).where(eq(vehicleProfiles.seedKey, profile.key));
-    if (!existing) await insertProfile(db, vehicleProfileDraftSchema.parse(profile.draft), analyst.id, profile.key, id);
+    if (!existing) await insertProfile(db, vehicleProfileDraftSchema.parse(profile.draft), analyst, profile.key, id);
     profileIds.set(profile.key, existing?.id ?? id);
   }
 

@@ -1,5 +1,6 @@
 import type { AppDeps } from '../app-deps';
 import { seedDemoBasemap } from './demo-basemap';
+import { seedDemoLoggedTrips } from './demo-logged-trips';
 import { seedDemoNetwork } from './demo-network';
 import { seedDemoNetworkRun } from './demo-network-run';
 import { seedDemoPeople } from './demo-people';
@@ -22,4 +23,6 @@ export async function seedDemo(deps: AppDeps): Promise<void> {
   await seedDemoNetwork(deps);
   await seedDemoReviews(deps);
   await seedDemoNetworkRun(deps);
+  // Invented logged trips of the mountain bus, ready to fit its profile to.
+  await seedDemoLoggedTrips(deps);
 }

@@ -5,6 +5,7 @@ import {
   vehicleProfileIdParamsSchema,
   vehicleProfileListSchema,
   vehicleProfileSchema,
+  vehicleProfileVersionListSchema,
 } from '@shared/domain/vehicle-profiles';
 import type { AppDeps } from '../app-deps';
 import { endpoint } from '../http/endpoint';
@@ -88,6 +89,18 @@ export function vehicleProfileEndpoints(deps: AppDeps) {
       responses: { 200: { description: 'The profile, back', schema: vehicleProfileSchema }, 404: { description: 'No deleted profile with that id' } },
       handler: async ({ params, user, res }) => {
         res.json(await service.restoreProfile(deps.db, user!, params.vehicleProfileId));
+      },
+    }),
+    endpoint({
+      method: 'get',
+      path: '/api/vehicles/:vehicleProfileId/versions',
+      summary: 'Saved versions of a profile, newest first: content, who saved it, and the logged trips a calibrated version was fitted on',
+      tag: TAG,
+      access: 'signed-in',
+      params: vehicleProfileIdParamsSchema,
+      responses: { 200: { description: 'Versions', schema: vehicleProfileVersionListSchema }, 404: { description: 'No such profile' } },
+      handler: async ({ params, res }) => {
+        res.json({ items: await service.listVersions(deps.db, params.vehicleProfileId) });
       },
     }),
     endpoint({

@@ -1,5 +1,5 @@
 import type { User } from '@shared/domain/auth';
-import type { CapabilityCurvesResponse, CapabilityQuery, VehicleProfile, VehicleProfileDraft } from '@shared/domain/vehicle-profiles';
+import type { CapabilityCurvesResponse, CapabilityQuery, VehicleProfile, VehicleProfileDraft, VehicleProfileVersion } from '@shared/domain/vehicle-profiles';
 import { capabilityCurves } from '@shared/engine/capability-curves';
 import type { Database } from '../db/client';
 import { ConflictError, NotFoundError } from '../http/http-error';
@@ -14,21 +14,28 @@ export async function getProfile(db: Database, id: string): Promise<VehicleProfi
 
 export async function createProfile(db: Database, user: User, draft: VehicleProfileDraft): Promise<VehicleProfile> {
   return db.transaction(async (tx) => {
-    const row = await repository.insertProfile(tx, draft, user.id);
+    const row = await repository.insertProfile(tx, draft, { id: user.id, name: user.name });
     await recordAudit(tx, actorOf(user), { action: 'create', kind: 'vehicle-profile', entityId: row.id, entityName: row.name });
     return repository.toVehicleProfile(row);
   });
 }
 
+/** Saves a change as the profile's next version (scenarios using it become stale). */
 export async function updateProfile(db: Database, user: User, id: string, draft: VehicleProfileDraft): Promise<VehicleProfile> {
   return db.transaction(async (tx) => {
     const row = await repository.lockProfile(tx, id);
     if (!row) throw new NotFoundError('The vehicle profile');
     if (row.isPreset) throw presetConflict();
-    const updated = await repository.updateProfile(tx, id, draft);
+    const updated = await repository.saveProfileVersion(tx, row, draft, { id: user.id, name: user.name });
     await recordAudit(tx, actorOf(user), { action: 'update', kind: 'vehicle-profile', entityId: id, entityName: updated.name });
     return repository.toVehicleProfile(updated);
   });
+}
+
+/** Every recorded version of a profile, newest first (presets have none). */
+export async function listVersions(db: Database, id: string): Promise<VehicleProfileVersion[]> {
+  await getProfile(db, id);
+  return repository.listVersions(db, id);
 }
 
 /** Deletes a profile, restorably (hidden everywhere, removed for good after the retention period). */
@@ -37,6 +44,14 @@ export async function deleteProfile(db: Database, user: User, id: string): Promi
     const row = await repository.lockProfile(tx, id);
     if (!row) throw new NotFoundError('The vehicle profile');
     if (row.isPreset) throw presetConflict();
+    const measured = await repository.countCalibrationData(tx, id);
+    if (measured > 0) {
+      throw new ConflictError(
+        'The vehicle profile has logged trips or calibrations; delete its logged trips first (calibrations go with them)',
+        'vehicle_profile_has_logged_trips',
+        { count: measured },
+      );
+    }
     const used = await repository.countScenariosUsingProfile(tx, id);
     if (used > 0) {
       throw new ConflictError(

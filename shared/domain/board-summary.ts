@@ -113,6 +113,8 @@ export const batchRunSchema = z.object({
   done: z.number().int(),
   failed: z.number().int(),
   startedBy: z.string(),
+  /** Why the run was started when not by hand (e.g. an accepted calibration of a vehicle profile). */
+  reason: z.string().nullable(),
   createdAt: z.iso.datetime({ offset: true }),
   finishedAt: z.iso.datetime({ offset: true }).nullable(),
   items: z.array(

@@ -38,10 +38,24 @@ export const vehicleProfileDraftSchema = z.object({
 export type VehicleProfileDraft = z.infer<typeof vehicleProfileDraftSchema>;
 export type VehicleProfileDraftInput = z.input<typeof vehicleProfileDraftSchema>;
 
+/** Where a profile version came from when it was fitted to logged trips. */
+export const profileCalibrationSourceSchema = z.object({
+  calibrationId: z.uuid(),
+  acceptedAt: z.iso.datetime({ offset: true }),
+  acceptedBy: z.string(),
+  /** The logged trips the version was fitted on (names kept if a trip is deleted later). */
+  loggedTrips: z.array(z.object({ id: z.string(), name: z.string() })),
+});
+export type ProfileCalibrationSource = z.infer<typeof profileCalibrationSourceSchema>;
+
 export const vehicleProfileSchema = vehicleProfileDraftSchema.extend({
   id: z.uuid(),
   /** Whether this is a built-in generic class (read-only). */
   isPreset: z.boolean(),
+  /** Saved version number: every save and every accepted calibration adds one. */
+  version: z.number().int().min(1),
+  /** When the current version is an accepted calibration: which fit and which logged trips. */
+  calibration: profileCalibrationSourceSchema.nullable(),
   updatedAt: z.iso.datetime({ offset: true }),
 });
 export type VehicleProfile = z.infer<typeof vehicleProfileSchema>;
@@ -67,3 +81,15 @@ export const capabilityCurvesSchema = z.object({
   curves: z.array(z.object({ gradePercent: z.number(), accelerationMps2: z.number(), requiredForceN: z.array(z.number()) })),
 });
 export type CapabilityCurvesResponse = z.infer<typeof capabilityCurvesSchema>;
+
+/** One saved version of a profile (GET /api/vehicles/:vehicleProfileId/versions). */
+export const vehicleProfileVersionSchema = z.object({
+  version: z.number().int(),
+  source: z.enum(['created', 'edited', 'calibration', 'before-history']),
+  calibration: profileCalibrationSourceSchema.nullable(),
+  savedBy: z.string(),
+  savedAt: z.iso.datetime({ offset: true }),
+  content: vehicleProfileDraftSchema,
+});
+export type VehicleProfileVersion = z.infer<typeof vehicleProfileVersionSchema>;
+export const vehicleProfileVersionListSchema = z.object({ items: z.array(vehicleProfileVersionSchema) });

@@ -48,6 +48,18 @@ export interface AnalyseRouteDependencies {
   sampleElevations?: ElevationSampler;
 }
 
+/**
+ * A measured speed trace to replay instead of the minimum-time speed profile: speed against
+ * distance along the route (non-decreasing distances, interpolated linearly at the resampled
+ * points). Standstills are given as the request's stops (their dwell is the time stood there),
+ * so a replay moves through exactly the same engine as a planned run: same forces, powertrain,
+ * battery and brake models, only the speed at each point comes from the log.
+ */
+export interface SpeedTrace {
+  distanceM: readonly number[];
+  speedMps: readonly number[];
+}
+
 /** Everything the analysis produced, for callers (and checks) that need more than the response. */
 export interface DetailedAnalysis {
   response: PreviewResponse;
@@ -67,6 +79,7 @@ export async function analyseRoute(request: PreviewRequestInput, dependencies: A
 export async function analyseRouteDetailed(
   request: PreviewRequestInput,
   dependencies: AnalyseRouteDependencies = {},
+  speedTrace?: SpeedTrace,
 ): Promise<DetailedAnalysis> {
   const parsed = parseOrThrow(previewRequestSchema, request);
   const resampled = resampleRoute(parsed.route.coordinates, parsed.options.spacingM, {
@@ -90,7 +103,7 @@ export async function analyseRouteDetailed(
     elevationM = filled.elevationM;
     uncovered = filled.stretches;
   }
-  return analyseResampledRoute(parsed.vehicle, parsed.conditions, parsed.options, resampled, elevationM, uncovered);
+  return analyseResampledRoute(parsed.vehicle, parsed.conditions, parsed.options, resampled, elevationM, uncovered, speedTrace);
 }
 
 /**
@@ -208,14 +221,8 @@ export function prepareRouteModel(
   if (options.startAtRest) limitMps[0] = 0;
   if (options.endAtRest) limitMps[n - 1] = 0;
 
-  const massKg = vehicle.curbMassKg + vehicle.payloadKg;
   return {
-    vehicle,
-    massKg,
-    weightN: massKg * STANDARD_GRAVITY_MPS2,
-    effectiveMassKg: (1 + vehicle.rotatingMassFactor) * massKg,
-    dragAreaM2: vehicle.dragCoefficient * vehicle.frontalAreaM2,
-    powertrain: powertrainParams(vehicle),
+    ...vehicleTerms(vehicle),
     pointCount: n,
     distanceM,
     lon: resampled.lon,
@@ -231,6 +238,55 @@ export function prepareRouteModel(
     postedLimitMps,
     dwellS,
   };
+}
+
+/** The parts of a route model that depend on the vehicle alone. */
+function vehicleTerms(vehicle: Vehicle) {
+  const massKg = vehicle.curbMassKg + vehicle.payloadKg;
+  return {
+    vehicle,
+    massKg,
+    weightN: massKg * STANDARD_GRAVITY_MPS2,
+    effectiveMassKg: (1 + vehicle.rotatingMassFactor) * massKg,
+    dragAreaM2: vehicle.dragCoefficient * vehicle.frontalAreaM2,
+    powertrain: powertrainParams(vehicle),
+  };
+}
+
+/**
+ * The same prepared route for another vehicle (geometry, grades, air and limits kept). Lets a
+ * caller that runs one route many times with changed vehicle parameters (the calibration fit)
+ * skip the resampling and smoothing; the vehicle is taken as already parsed.
+ */
+export function withVehicle(model: RouteModel, vehicle: Vehicle): RouteModel {
+  return { ...model, ...vehicleTerms(vehicle) };
+}
+
+/** Speed at every point of `model` from a measured trace (linear in distance, clamped at the ends). */
+export function traceSpeedAtPoints(model: RouteModel, trace: SpeedTrace): Float64Array {
+  const { distanceM, speedMps } = trace;
+  if (distanceM.length === 0 || distanceM.length !== speedMps.length) {
+    throw new EngineInputError('speedTrace', `needs equal, non-empty distance and speed arrays (got ${distanceM.length} and ${speedMps.length})`);
+  }
+  const out = new Float64Array(model.pointCount);
+  let j = 0;
+  for (let i = 0; i < model.pointCount; i++) {
+    const s = model.distanceM[i]!;
+    while (j < distanceM.length - 2 && distanceM[j + 1]! < s) j++;
+    const s0 = distanceM[j]!;
+    const s1 = distanceM[Math.min(j + 1, distanceM.length - 1)]!;
+    const v0 = speedMps[j]!;
+    const v1 = speedMps[Math.min(j + 1, speedMps.length - 1)]!;
+    let v: number;
+    if (s <= s0 || s1 <= s0) v = s <= s0 ? v0 : v1;
+    else if (s >= s1) v = v1;
+    else v = v0 + ((v1 - v0) * (s - s0)) / (s1 - s0);
+    if (!Number.isFinite(v) || v < 0) throw new EngineInputError(`speedTrace.speedMps.${j}`, `must be a finite speed ≥ 0, got ${v}`);
+    out[i] = v;
+  }
+  // Standstills (the stops' dwell points) are at rest.
+  for (let i = 0; i < model.pointCount; i++) if (model.dwellS[i]! > 0) out[i] = 0;
+  return out;
 }
 
 function postedLimits(distanceM: Float64Array, options: AnalysisOptions, lengthM: number): Float64Array {
@@ -281,36 +337,10 @@ export function analyseResampledRoute(
   resampled: ResampledRoute,
   rawElevationM: Float64Array,
   uncovered?: UncoveredStretchReport[],
+  speedTrace?: SpeedTrace,
 ): DetailedAnalysis {
   const model = prepareRouteModel(vehicle, conditions, options, resampled, rawElevationM);
-  const segments = model.pointCount - 1;
-  let deceleration: number | Float64Array = options.decelerationMps2;
-  if (options.slopeAwareDeceleration) {
-    // Felt deceleration d + g·sin θ on descents held to the comfort limit (DOMAIN notes §7.2).
-    const perSegment = new Float64Array(segments);
-    for (let k = 0; k < segments; k++) {
-      const downhill = Math.max(0, -model.sinTheta[k]!);
-      perSegment[k] = Math.max(0.1 * options.decelerationMps2, options.decelerationMps2 - STANDARD_GRAVITY_MPS2 * downhill);
-    }
-    deceleration = perSegment;
-  }
-  const speedMps = computeSpeedProfile({
-    segmentLengthM: model.slopeLengthM,
-    limitMps: model.limitMps,
-    accelerationMps2: options.accelerationMps2,
-    decelerationMps2: deceleration,
-    traction: {
-      massKg: model.massKg,
-      rotatingMassFactor: vehicle.rotatingMassFactor,
-      rollingResistanceCoefficient: vehicle.rollingResistanceCoefficient,
-      dragAreaM2: model.dragAreaM2,
-      maxTractionForceN: vehicle.maxTractionForceN,
-      tractionPowerW: vehicle.tractionPowerW,
-      airDensityKgPerM3: model.airDensityKgPerM3,
-      sinTheta: model.sinTheta,
-      cosTheta: model.cosTheta,
-    },
-  });
+  const speedMps = speedTrace ? traceSpeedAtPoints(model, speedTrace) : minimumTimeSpeeds(model, vehicle, options);
   const initialBrakeTempC = conditions.initialBrakeTempC ?? model.ambientC[0]!;
   const run = runRoute(model, speedMps, conditions.startSoc, initialBrakeTempC);
   const summary = summariseRun(model, run, options.ascentThresholdM);
@@ -351,4 +381,36 @@ export function analyseResampledRoute(
   };
   if (uncovered) response.uncoveredStretches = uncovered;
   return { response, model, run, vehicle, conditions, options };
+}
+
+/** The minimum-time speed profile (forward–backward pass) of a prepared route. */
+function minimumTimeSpeeds(model: RouteModel, vehicle: Vehicle, options: AnalysisOptions): Float64Array {
+  const segments = model.pointCount - 1;
+  let deceleration: number | Float64Array = options.decelerationMps2;
+  if (options.slopeAwareDeceleration) {
+    // Felt deceleration d + g·sin θ on descents held to the comfort limit (DOMAIN notes §7.2).
+    const perSegment = new Float64Array(segments);
+    for (let k = 0; k < segments; k++) {
+      const downhill = Math.max(0, -model.sinTheta[k]!);
+      perSegment[k] = Math.max(0.1 * options.decelerationMps2, options.decelerationMps2 - STANDARD_GRAVITY_MPS2 * downhill);
+    }
+    deceleration = perSegment;
+  }
+  return computeSpeedProfile({
+    segmentLengthM: model.slopeLengthM,
+    limitMps: model.limitMps,
+    accelerationMps2: options.accelerationMps2,
+    decelerationMps2: deceleration,
+    traction: {
+      massKg: model.massKg,
+      rotatingMassFactor: vehicle.rotatingMassFactor,
+      rollingResistanceCoefficient: vehicle.rollingResistanceCoefficient,
+      dragAreaM2: model.dragAreaM2,
+      maxTractionForceN: vehicle.maxTractionForceN,
+      tractionPowerW: vehicle.tractionPowerW,
+      airDensityKgPerM3: model.airDensityKgPerM3,
+      sinTheta: model.sinTheta,
+      cosTheta: model.cosTheta,
+    },
+  });
 }

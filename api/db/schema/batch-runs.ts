@@ -6,6 +6,8 @@ export const batchRuns = pgTable('batch_runs', {
   id: uuid().primaryKey().defaultRandom(),
   startedById: uuid(),
   startedByName: text().notNull(),
+  /** Why the run was started when not by hand, e.g. an accepted calibration of a vehicle profile. */
+  reason: text(),
   createdAt: timestamp({ withTimezone: true }).notNull().defaultNow(),
   /** Set by the worker that finishes the last item. */
   finishedAt: timestamp({ withTimezone: true }),

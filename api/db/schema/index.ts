@@ -9,3 +9,4 @@ export * from './network-settings';
 export * from './batch-runs';
 export * from './audit';
 export * from './basemap';
+export * from './logged-trips';

@@ -1,6 +1,6 @@
-import { boolean, doublePrecision, jsonb, pgTable, text, uuid } from 'drizzle-orm/pg-core';
+import { boolean, doublePrecision, integer, jsonb, pgTable, text, timestamp, uniqueIndex, uuid } from 'drizzle-orm/pg-core';
 import type { VehicleInput } from '@shared/domain/analysis';
-import type { LoadCase, Season } from '@shared/domain/vehicle-profiles';
+import type { LoadCase, ProfileCalibrationSource, Season, VehicleProfileDraft } from '@shared/domain/vehicle-profiles';
 import { deletion, timestamps } from './columns';
 import { users } from './people';
 
@@ -19,6 +19,10 @@ export const vehicleProfiles = pgTable('vehicle_profiles', {
   passengerMassKg: doublePrecision().notNull(),
   seasons: jsonb().$type<Record<Season, { ambientC: number; auxPowerW: number }>>().notNull(),
   isPreset: boolean().notNull().default(false),
+  /** Saved version number; every save and every accepted calibration adds one. */
+  version: integer().notNull().default(1),
+  /** When the current version is an accepted calibration: its fit and logged trips; null otherwise. */
+  calibration: jsonb().$type<ProfileCalibrationSource>(),
   /** Stable key of seeded rows (presets, demo profiles) for idempotent upserts; null otherwise. */
   seedKey: text().unique(),
   createdById: uuid().references(() => users.id, { onDelete: 'set null' }),
@@ -26,3 +30,29 @@ export const vehicleProfiles = pgTable('vehicle_profiles', {
   ...deletion,
 });
 export type VehicleProfileRow = typeof vehicleProfiles.$inferSelect;
+
+/**
+ * One saved version of an authority's vehicle profile, never changed once written: what it
+ * held, and whether it came from an edit or an accepted calibration (with the logged trips it
+ * was fitted on). The profile row holds the current version's content as well.
+ */
+export const vehicleProfileVersions = pgTable(
+  'vehicle_profile_versions',
+  {
+    id: uuid().primaryKey().defaultRandom(),
+    vehicleProfileId: uuid()
+      .notNull()
+      .references(() => vehicleProfiles.id, { onDelete: 'cascade' }),
+    version: integer().notNull(),
+    content: jsonb().$type<VehicleProfileDraft>().notNull(),
+    source: text({ enum: ['created', 'edited', 'calibration', 'before-history'] }).notNull(),
+    calibrationId: uuid(),
+    /** Logged trips a calibration version was fitted on. */
+    loggedTrips: jsonb().$type<{ id: string; name: string }[]>().notNull().default([]),
+    createdById: uuid().references(() => users.id, { onDelete: 'set null' }),
+    createdByName: text().notNull(),
+    createdAt: timestamp({ withTimezone: true }).notNull().defaultNow(),
+  },
+  (table) => [uniqueIndex('vehicle_profile_versions_profile_version_key').on(table.vehicleProfileId, table.version)],
+);
+export type VehicleProfileVersionRow = typeof vehicleProfileVersions.$inferSelect;

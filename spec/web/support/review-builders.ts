@@ -68,6 +68,7 @@ export function aBatchRun(overrides: Partial<BatchRun> = {}): BatchRun {
     done: 1,
     failed: 0,
     startedBy: 'Ada Brennan',
+    reason: null,
     createdAt: '2026-11-30T10:00:00.000Z',
     finishedAt: null,
     items: [
