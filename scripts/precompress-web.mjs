@@ -8,7 +8,7 @@ import { extname, join, relative, resolve } from 'node:path';
 import { brotliCompressSync, constants, gzipSync } from 'node:zlib';
 
 /** Text formats worth compressing; fonts (woff2) and images (png) are compressed already. */
-const COMPRESSIBLE = new Set(['.js', '.mjs', '.css', '.svg', '.json', '.txt', '.map', '.ttf', '.woff', '.ico', '.webmanifest', '.xml', '.html']);
+const COMPRESSIBLE = new Set(['.js', '.mjs', '.css', '.svg', '.json', '.txt', '.map', '.ttf', '.ico', '.webmanifest', '.xml', '.html']);
 /** Below this a compressed copy saves less than the headers cost (the compression middleware's default threshold). */
 const MIN_BYTES = 1024;
 
