@@ -6,7 +6,8 @@
  * With autocannon (one process, keep-alive, the demo planner's session cookie, gzip accepted as a
  * browser would): the list endpoints (routes, scenarios, vehicle profiles) at 20 and 50
  * connections, a 20 km preview at 20 connections (20 people, one connection each, since one
- * person may have only two analyses running), once with the full profile and once with the
+ * person may have only two analyses running; analyses past the threads and their queue are refused
+ * with 503 at once, counted apart from errors), once with the full profile and once with the
  * profile a chart draws (`profileStepM=25&series=…`), a terrain tile and a base-map tile (both
  * already in the server's caches) at 50 connections. Each load runs `runs` times (default 3) for
  * `seconds` (default 10); the table gives the range over the runs. The server's resident memory
@@ -60,15 +61,18 @@ try {
   console.log(`server RSS before: ${rssBefore.toFixed(0)} MB; load average ${loadBefore.map((v) => v.toFixed(2)).join(' ')} on ${cpus().length} cores`);
   const rows: string[] = [];
   for (const load of loads) {
+    // One answer while the server is idle, for its size on the wire.
+    const bytes = await answerBytes(instance.baseUrl, load, load.perPerson ? previewers[0]! : cookie);
     const results: autocannon.Result[] = [];
     for (let run = 0; run < RUNS; run++) {
       results.push(load.perPerson ? await crowd(instance.baseUrl, load, previewers) : await cannon(instance.baseUrl, load, cookie));
     }
-    const bytes = await answerBytes(instance.baseUrl, load, load.perPerson ? previewers[0]! : cookie);
+    const refused = results.reduce((sum, r) => sum + statusCount(r, 429) + statusCount(r, 503), 0);
+    const failed = results.reduce((sum, r) => sum + r.errors + r.timeouts + r.non2xx, 0) - refused;
     rows.push(
-      `| ${load.name} | ${load.connections} | ${range(results.map((r) => r.requests.average), 0)} | ` +
+      `| ${load.name} | ${load.connections} | ${range(results.map((r) => r['2xx'] / SECONDS), 0)} | ` +
         `${range(results.map((r) => r.latency.p50), 0)} ms | ${range(results.map((r) => r.latency.p99), 0)} ms | ` +
-        `${results.reduce((sum, r) => sum + r.errors + r.timeouts + r.non2xx, 0)} | ${bytes} |`,
+        `${failed} | ${refused} | ${bytes} |`,
     );
     console.log(rows.at(-1));
   }
@@ -77,8 +81,8 @@ try {
 
   console.log(`\n${RUNS} runs of ${SECONDS} s each; this machine: ${cpus().length} cores; ` +
     `load average ${loadBefore[0]!.toFixed(1)} before, ${loadAfter[0]!.toFixed(1)} after`);
-  console.log('| load | connections | requests/s | p50 | p99 | errors (all runs) | answer on the wire |');
-  console.log('| --- | ---: | ---: | ---: | ---: | ---: | ---: |');
+  console.log('| load | connections | answered/s (2xx) | p50 | p99 | errors (all runs) | refused 429/503 (all runs) | answer on the wire |');
+  console.log('| --- | ---: | ---: | ---: | ---: | ---: | ---: | ---: |');
   for (const row of rows) console.log(row);
   console.log(`\nServer RSS: ${rssBefore.toFixed(0)} MB before, ${rssAfter.toFixed(0)} MB after.`);
 } finally {
@@ -117,6 +121,14 @@ async function crowd(baseUrl: string, load: Load, cookies: string[]): Promise<au
   merged.errors = results.reduce((sum, r) => sum + r.errors, 0);
   merged.timeouts = results.reduce((sum, r) => sum + r.timeouts, 0);
   merged.non2xx = results.reduce((sum, r) => sum + r.non2xx, 0);
+  merged['2xx'] = results.reduce((sum, r) => sum + r['2xx'], 0);
+  const codes = merged.statusCodeStats as unknown as Record<string, { count: number }>;
+  for (const key of Object.keys(codes)) delete codes[key];
+  for (const result of results) {
+    for (const [code, { count }] of Object.entries(result.statusCodeStats as unknown as Record<string, { count: number }>)) {
+      codes[code] = { count: (codes[code]?.count ?? 0) + count };
+    }
+  }
   return merged;
 }
 
@@ -201,6 +213,10 @@ function previewBody() {
     },
     options: { spacingM: 1 },
   };
+}
+
+function statusCount(result: autocannon.Result, status: number): number {
+  return (result.statusCodeStats as unknown as Record<string, { count: number } | undefined>)[String(status)]?.count ?? 0;
 }
 
 function median(values: number[]): number {
