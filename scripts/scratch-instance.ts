@@ -150,3 +150,17 @@ export async function restartDatabaseCluster(downtimeMs: number): Promise<void> 
 function postgresAdmin() {
   return postgres(databaseUrl('postgres'), { max: 1, onnotice: () => undefined });
 }
+
+/**
+ * Loads the invented demo into the scratch instance (about a minute) and starts the server again,
+ * so it picks up the terrain and base map the seed imported.
+ */
+export async function loadDemo(instance: ScratchInstance): Promise<void> {
+  const seed = spawnSync(process.execPath, ['--import', 'tsx', 'api/demo/seed-cli.ts'], {
+    env: { ...process.env, ...instance.env },
+    encoding: 'utf8',
+  });
+  if (seed.status !== 0) throw new Error(`demo seed failed: ${seed.stderr}`);
+  await instance.kill('SIGTERM');
+  await instance.restart();
+}

@@ -1,6 +1,7 @@
 import {
   previewRequestSchema,
-  previewResponseSchema,
+  previewViewResponseSchema,
+  profileViewQuerySchema,
   roadLoadRequestSchema,
   roadLoadResponseSchema,
 } from '@shared/domain/analysis';
@@ -32,9 +33,14 @@ export function analysisEndpoints(deps: AppDeps) {
       tag: 'Analysis',
       access: 'signed-in',
       body: previewRequestSchema,
+      query: profileViewQuerySchema,
       heavy: true,
       responses: {
-        200: { description: 'Summary, per-point profile and descents', schema: previewResponseSchema },
+        200: {
+          description: 'Summary, per-point profile (all of it unless profileStepM or series ask for less) and descents',
+          schema: previewViewResponseSchema,
+        },
+        400: { description: 'Invalid route, vehicle, conditions or options, or an unknown series or step out of range (named)' },
         422: {
           description:
             'The terrain does not cover the route (details list the stretches), or the route is longer or needs more ' +
@@ -43,10 +49,10 @@ export function analysisEndpoints(deps: AppDeps) {
         429: { description: 'The person already has as many heavy requests running as allowed; see Retry-After' },
         503: { description: 'Every analysis thread is busy and the queue is full; see Retry-After' },
       },
-      handler: async ({ body, res }) => {
+      handler: async ({ body, query, res }) => {
         let json: Buffer;
         try {
-          json = await analysisPoolFor(deps).analyseToJson(body, deps.sampleElevations);
+          json = await analysisPoolFor(deps).analyseToJson(body, deps.sampleElevations, query);
         } catch (error) {
           throw asAnalysisRefusal(error);
         }

@@ -3,7 +3,7 @@ import { join } from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { MessageChannel } from 'node:worker_threads';
 import { Piscina } from 'piscina';
-import type { PreviewRequestInput, PreviewResponse } from '@shared/domain/analysis';
+import type { PreviewRequestInput, PreviewResponse, ProfileView } from '@shared/domain/analysis';
 import type { ElevationSampler } from '@shared/engine/analyse-route';
 import { EngineInputError, RouteTooLargeError, UncoveredTerrainError } from '@shared/engine/validation';
 import { HttpError } from '../http/http-error';
@@ -51,9 +51,12 @@ export class AnalysisPool {
     return (await this.run(request, sampleElevations, false)) as PreviewResponse;
   }
 
-  /** The engine's response already serialised as UTF-8 JSON by the worker (previews answered as they are). */
-  async analyseToJson(request: PreviewRequestInput, sampleElevations?: ElevationSampler): Promise<Buffer> {
-    const bytes = (await this.run(request, sampleElevations, true)) as Uint8Array;
+  /**
+   * The engine's response already serialised as UTF-8 JSON by the worker (previews answered as
+   * they are), its profile thinned there first when the client asked for a `profileView`.
+   */
+  async analyseToJson(request: PreviewRequestInput, sampleElevations?: ElevationSampler, profileView?: ProfileView): Promise<Buffer> {
+    const bytes = (await this.run(request, sampleElevations, true, profileView)) as Uint8Array;
     return Buffer.from(bytes.buffer, bytes.byteOffset, bytes.byteLength);
   }
 
@@ -68,7 +71,12 @@ export class AnalysisPool {
     await pool?.destroy();
   }
 
-  private async run(request: PreviewRequestInput, sampleElevations: ElevationSampler | undefined, asJson: boolean): Promise<PreviewResponse | Uint8Array> {
+  private async run(
+    request: PreviewRequestInput,
+    sampleElevations: ElevationSampler | undefined,
+    asJson: boolean,
+    profileView?: ProfileView,
+  ): Promise<PreviewResponse | Uint8Array> {
     const pool = this.pool;
     if (pool.queueSize >= this.options.maxQueue) throw busyError();
     let samplerFailure: unknown;
@@ -82,7 +90,7 @@ export class AnalysisPool {
         },
       );
     });
-    const task: AnalysisTask = { request, asJson, ...(channel ? { elevationPort: channel.port2 } : {}) };
+    const task: AnalysisTask = { request, asJson, ...(profileView ? { profileView } : {}), ...(channel ? { elevationPort: channel.port2 } : {}) };
     let result: AnalysisTaskResult;
     this.runningTasks++;
     try {

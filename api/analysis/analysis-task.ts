@@ -10,8 +10,9 @@
 import { setPriority } from 'node:os';
 import type { MessagePort } from 'node:worker_threads';
 import { Piscina } from 'piscina';
-import type { PreviewRequestInput, PreviewResponse } from '@shared/domain/analysis';
+import type { PreviewRequestInput, PreviewResponse, ProfileView } from '@shared/domain/analysis';
 import { analyseRoute } from '@shared/engine/analyse-route';
+import { viewProfile } from '@shared/engine/profile-view';
 import { EngineInputError, RouteTooLargeError, UncoveredTerrainError } from '@shared/engine/validation';
 
 export interface AnalysisTask {
@@ -20,6 +21,8 @@ export interface AnalysisTask {
   elevationPort?: MessagePort;
   /** Answer the response as UTF-8 JSON bytes, serialised here and handed over without a copy. */
   asJson: boolean;
+  /** With asJson: the profile as the client asked for it (all of it when absent). */
+  profileView?: ProfileView;
 }
 
 /** An engine refusal as data, enough to raise the same error again on the API thread. */
@@ -59,7 +62,8 @@ export default async function analyse(task: AnalysisTask): Promise<AnalysisTaskR
     const response = await analyseRoute(task.request, { sampleElevations });
     if (!task.asJson) return { ok: true, response };
     // Moved, not copied: the bytes change owner without the API thread cloning megabytes.
-    return Piscina.move(new TextEncoder().encode(JSON.stringify(response)));
+    const answer = task.profileView ? { ...response, profile: viewProfile(response.profile, task.profileView) } : response;
+    return Piscina.move(new TextEncoder().encode(JSON.stringify(answer)));
   } catch (error) {
     // Expected: the engine refuses the input (field named) or the terrain leaves gaps. Anything
     // else is a fault and rejects the task.

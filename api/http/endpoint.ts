@@ -66,6 +66,8 @@ export type AnyEndpoint = Endpoint<any, any, any>;
 export interface MountOptions {
   /** Guards endpoints marked `heavy`. */
   heavyRequests?: { middleware(): RequestHandler };
+  /** The path the router is mounted at (e.g. `/api`): cut from the endpoint's documented path. */
+  mountedAt?: string;
 }
 
 export function mountEndpoint(router: Router, definition: AnyEndpoint, options: MountOptions = {}): void {
@@ -80,8 +82,10 @@ export function mountEndpoint(router: Router, definition: AnyEndpoint, options: 
     };
     await definition.handler(input);
   };
+  const prefix = options.mountedAt ?? '';
+  if (!definition.path.startsWith(`${prefix}/`)) throw new Error(`Endpoint ${definition.path} lies outside ${prefix}`);
   router[definition.method](
-    definition.path,
+    definition.path.slice(prefix.length),
     requireRole(definition.access),
     ...(definition.heavy && options.heavyRequests ? [options.heavyRequests.middleware()] : []),
     ...(definition.middleware ?? []),

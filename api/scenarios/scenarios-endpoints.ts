@@ -5,9 +5,11 @@ import {
   scenarioIdParamsSchema,
   scenarioListQuerySchema,
   scenarioListSchema,
-  scenarioResultSchema,
+  scenarioResultViewSchema,
   scenarioSchema,
 } from '@shared/domain/scenarios';
+import { profileViewQuerySchema } from '@shared/domain/analysis';
+import { viewProfile } from '@shared/engine/profile-view';
 import type { AppDeps } from '../app-deps';
 import { endpoint } from '../http/endpoint';
 import { attachmentName } from '../road-routes/route-upload';
@@ -138,12 +140,18 @@ export function scenarioEndpoints(deps: AppDeps) {
       tag: TAG,
       access: 'signed-in',
       params: scenarioIdParamsSchema,
+      query: profileViewQuerySchema,
       responses: {
-        200: { description: 'The result', schema: scenarioResultSchema },
+        200: {
+          description: 'The result; each direction’s profile whole unless profileStepM or series ask for less',
+          schema: scenarioResultViewSchema,
+        },
+        400: { description: 'An unknown series or a step out of range (named)' },
         404: { description: 'No such scenario, or no result (details.failureReason says why)' },
       },
-      handler: async ({ params, res }) => {
-        res.json(await service.getResult(deps.db, params.scenarioId));
+      handler: async ({ params, query, res }) => {
+        const result = await service.getResult(deps.db, params.scenarioId);
+        res.json({ ...result, directions: result.directions.map((direction) => ({ ...direction, profile: viewProfile(direction.profile, query) })) });
       },
     }),
     endpoint({

@@ -283,6 +283,39 @@ export const profileSchema = z.object({
 });
 export type Profile = z.infer<typeof profileSchema>;
 
+/** The name of one per-point series of the profile. */
+export const profileSeriesSchema = profileSchema.keyof();
+export type ProfileSeries = z.infer<typeof profileSeriesSchema>;
+
+/**
+ * The per-point profile as a client asked for it (`ProfileView`): possibly only some series and
+ * fewer points; `distanceM` is always there, so every value can be placed along the route.
+ */
+export const profileSubsetSchema = profileSchema.partial().required({ distanceM: true });
+export type ProfileSubset = z.infer<typeof profileSubsetSchema>;
+
+/**
+ * Query options of the endpoints that answer a per-point profile (preview, scenario result):
+ * `profileStepM` keeps about one point per that many metres (each step's first, hottest and
+ * fastest points, and the last point); `series` keeps only the named series (comma-separated).
+ * Without them the answer is the full profile, as before.
+ */
+export const profileViewQuerySchema = z.object({
+  profileStepM: z.coerce
+    .number()
+    .min(1, 'profileStepM must be at least 1 m')
+    .max(10_000, 'profileStepM must be at most 10 000 m')
+    .optional()
+    .meta({ description: 'Keep about one point per this many metres (1–10 000); the hottest and fastest point of each step stay in' }),
+  series: z
+    .string()
+    .transform((text) => text.split(',').map((name) => name.trim()).filter((name) => name.length > 0))
+    .pipe(z.array(profileSeriesSchema).min(1, 'name at least one series'))
+    .optional()
+    .meta({ description: `Only these per-point series, comma-separated (distanceM is always included): ${profileSchema.keyof().options.join(', ')}` }),
+});
+export type ProfileView = z.infer<typeof profileViewQuerySchema>;
+
 /** What the speed advice of a descent means. */
 export const speedAdviceSchema = z.enum(['limit', 'no-limit-needed', 'not-holdable']);
 
@@ -343,3 +376,6 @@ export const previewResponseSchema = z.object({
   engineVersion: z.string(),
 });
 export type PreviewResponse = z.infer<typeof previewResponseSchema>;
+
+/** The preview as answered with a ProfileView (the full profileSchema without one). */
+export const previewViewResponseSchema = previewResponseSchema.extend({ profile: profileSubsetSchema });

@@ -1,5 +1,5 @@
 import * as z from 'zod';
-import { descentSchema, profileSchema, summarySchema, uncoveredStretchSchema } from './analysis';
+import { descentSchema, profileSchema, profileSubsetSchema, summarySchema, uncoveredStretchSchema } from './analysis';
 import { loadCaseSchema, seasonSchema } from './vehicle-profiles';
 
 /**
@@ -116,6 +116,11 @@ export const scenarioResultSchema = z.object({
   caution: z.string(),
 });
 export type ScenarioResult = z.infer<typeof scenarioResultSchema>;
+
+/** The result as answered with a ProfileView (each direction's profile possibly thinned). */
+export const scenarioResultViewSchema = scenarioResultSchema.extend({
+  directions: z.array(directionResultSchema.extend({ profile: profileSubsetSchema })).min(1),
+});
 
 /** GET /api/scenarios filters. */
 export const scenarioListQuerySchema = z.object({

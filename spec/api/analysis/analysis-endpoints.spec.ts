@@ -171,6 +171,47 @@ describe('POST /api/analysis/preview', () => {
   });
 });
 
+describe('POST /api/analysis/preview with a profile view', () => {
+  const route = straightDescent({ lengthM: 5_000, dropM: 350 });
+
+  it('answers the full profile when no view is asked for, as before', async () => {
+    const response = await request(app).post('/api/analysis/preview').set('Cookie', cookie).send({ route, vehicle: laden12mBus });
+
+    expect(Object.keys(response.body.profile).sort()).toEqual(Object.keys(previewResponseSchema.shape.profile.shape).sort());
+    expect(response.body.profile.distanceM.length).toBeGreaterThan(400);
+  });
+
+  it('answers only the asked series, about one point per step, with the same summary and descents', async () => {
+    const full = (await request(app).post('/api/analysis/preview').set('Cookie', cookie).send({ route, vehicle: laden12mBus })).body;
+
+    const response = await request(app)
+      .post('/api/analysis/preview?profileStepM=250&series=elevationM,brakeTempC')
+      .set('Cookie', cookie)
+      .send({ route, vehicle: laden12mBus });
+
+    expect(response.status).toBe(200);
+    const profile = response.body.profile as Record<string, number[]>;
+    expect(Object.keys(profile).sort()).toEqual(['brakeTempC', 'distanceM', 'elevationM']);
+    // 20 steps of 250 m: at most four points each (first, two hottest, fastest) and the last point.
+    expect(profile['distanceM']!.length).toBeGreaterThanOrEqual(20);
+    expect(profile['distanceM']!.length).toBeLessThanOrEqual(20 * 4 + 1);
+    expect(profile['distanceM']!.at(-1)).toBe(full.profile.distanceM.at(-1));
+    expect(Math.max(...profile['brakeTempC']!)).toBe(Math.max(...(full.profile.brakeTempC as number[])));
+    expect(response.body.summary).toEqual(full.summary);
+    expect(response.body.descents).toEqual(full.descents);
+  });
+
+  it('answers 400 naming the option for an unknown series or a step out of range', async () => {
+    const unknownSeries = await request(app).post('/api/analysis/preview?series=elevationM,colour').set('Cookie', cookie).send({ route, vehicle: laden12mBus });
+    const zeroStep = await request(app).post('/api/analysis/preview?profileStepM=0').set('Cookie', cookie).send({ route, vehicle: laden12mBus });
+
+    expect(unknownSeries.status).toBe(400);
+    expect(unknownSeries.body.error.message).toMatch(/series/);
+    expect(zeroStep.status).toBe(400);
+    expect(zeroStep.body.error.message).toMatch(/profileStepM/);
+  });
+});
+
 // Helpers
 
 async function until(condition: () => boolean): Promise<void> {

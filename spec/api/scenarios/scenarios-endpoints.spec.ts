@@ -53,6 +53,22 @@ describe('POST /api/scenarios', () => {
     ]);
   });
 
+  it('answers the stored result with a thinned profile of only the asked series when a view is asked for', async () => {
+    const route = await aRoute();
+    const scenario = (await request(app).post('/api/scenarios').set('Cookie', planner).send(aScenarioDraft(route.id))).body;
+    const full = (await request(app).get(`/api/scenarios/${scenario.id}/result`).set('Cookie', planner)).body;
+
+    const response = await request(app).get(`/api/scenarios/${scenario.id}/result?profileStepM=100&series=speedMps`).set('Cookie', planner);
+
+    expect(response.status).toBe(200);
+    const profile = response.body.directions[0].profile as Record<string, number[]>;
+    expect(Object.keys(profile).sort()).toEqual(['distanceM', 'speedMps']);
+    expect(profile['distanceM']!.length).toBeLessThan(full.directions[0].profile.distanceM.length);
+    expect(Math.max(...profile['speedMps']!)).toBe(Math.max(...(full.directions[0].profile.speedMps as number[])));
+    expect(response.body.summary).toEqual(full.summary);
+    expect(Object.keys(full.directions[0].profile)).toContain('brakeTempC');
+  });
+
   it('uses passengers × passenger mass when the load is a passenger count', async () => {
     const route = await aRoute();
 

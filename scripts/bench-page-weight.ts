@@ -1,0 +1,150 @@
+/**
+ * What a browser downloads: `node --import tsx scripts/bench-page-weight.ts [runs]` (needs
+ * `npm run build`; starts a scratch instance of this checkout serving the built app, loads the
+ * invented demo into it, then drives Debian's Chromium headless with playwright-core).
+ *
+ * For the sign-in page, the route editor (the demo's first route) and a scenario result (the
+ * demo's first computed scenario), signed in as the demo planner where the page needs it:
+ * - first visit: a fresh browser profile (empty cache) opens the page;
+ * - repeat visit: a new tab of the same profile opens it again later (as after a restart of the
+ *   browser: nothing in the memory cache of the tab, the disk cache as the first visit left it).
+ * Bytes are what came over the wire (Chromium's encodedDataLength: headers and compressed bodies);
+ * requests count everything the page asked for, those answered from the browser cache included;
+ * LCP is the largest contentful paint the page reports. `runs` (default 3) of each; the table
+ * gives the range. Loopback, so the figures are the server's and the browser's, not a network's.
+ */
+import { mkdtempSync, rmSync } from 'node:fs';
+import { cpus, loadavg, tmpdir } from 'node:os';
+import { join, resolve } from 'node:path';
+import { chromium, type BrowserContext } from 'playwright-core';
+import { DEMO_PASSWORD, DEMO_PEOPLE } from '../api/demo/demo-people';
+import { loadDemo, startScratchInstance } from './scratch-instance';
+
+const RUNS = Number(process.argv[2] ?? 3);
+const CHROMIUM_ARGS = ['--no-sandbox', '--disable-gpu', '--disable-quic', '--no-first-run', '--disable-background-networking', '--disable-component-update', '--disable-sync'];
+
+interface Visit {
+  bytes: number;
+  /** Bytes of the app's own files (index.html, scripts, styles, fonts, images), of API answers and of map tiles. */
+  appBytes: number;
+  apiBytes: number;
+  tileBytes: number;
+  requests: number;
+  fromCache: number;
+  lcpMs: number;
+}
+
+const instance = await startScratchInstance('descentry_bench_pages', { WEB_DIR: resolve('dist/web/browser') });
+try {
+  console.log('loading the demo into the scratch instance…');
+  await loadDemo(instance);
+  const planner = DEMO_PEOPLE.find((person) => person.role === 'planner')!;
+  const cookie = await signIn(instance.baseUrl, planner.email);
+  const routes = (await getJson(instance.baseUrl, '/api/routes', cookie)) as { items: { id: string }[] };
+  const scenarios = (await getJson(instance.baseUrl, '/api/scenarios', cookie)) as { items: { id: string; status: string }[] };
+  const scenario = scenarios.items.find((item) => item.status === 'done');
+  if (!routes.items[0] || !scenario) throw new Error('the demo has no route or no computed scenario');
+  const pages = [
+    { name: 'sign-in page', path: '/sign-in', signedIn: false },
+    { name: 'route editor', path: `/routes/${routes.items[0].id}`, signedIn: true },
+    { name: 'scenario result', path: `/scenarios/${scenario.id}`, signedIn: true },
+  ];
+
+  const rows: string[] = [];
+  const load = loadavg()[0]!;
+  for (const page of pages) {
+    const first: Visit[] = [];
+    const repeat: Visit[] = [];
+    for (let run = 0; run < RUNS; run++) {
+      const profile = mkdtempSync(join(tmpdir(), 'descentry-bench-browser-'));
+      const context = await chromium.launchPersistentContext(profile, { executablePath: '/usr/bin/chromium', headless: true, args: CHROMIUM_ARGS });
+      try {
+        if (page.signedIn) {
+          const [name, value] = cookie.split('=') as [string, string];
+          await context.addCookies([{ name, value, url: instance.baseUrl, httpOnly: true, sameSite: 'Strict' }]);
+        }
+        first.push(await visit(context, `${instance.baseUrl}${page.path}`));
+        repeat.push(await visit(context, `${instance.baseUrl}${page.path}`));
+      } finally {
+        await context.close();
+        rmSync(profile, { recursive: true, force: true });
+      }
+    }
+    for (const [kind, visits] of [['first', first], ['repeat', repeat]] as const) {
+      rows.push(
+        `| ${page.name} | ${kind} | ${range(visits.map((v) => v.bytes / 1024), 1)} kB | ${range(visits.map((v) => v.requests), 0)} ` +
+          `(${range(visits.map((v) => v.fromCache), 0)} from cache) | ${range(visits.map((v) => v.appBytes / 1024), 1)} kB | ` +
+          `${range(visits.map((v) => v.apiBytes / 1024), 1)} kB | ${range(visits.map((v) => v.tileBytes / 1024), 1)} kB | ` +
+          `${range(visits.map((v) => v.lcpMs), 0)} ms |`,
+      );
+      console.log(rows.at(-1));
+    }
+  }
+  console.log(`\n${RUNS} runs each; headless Chromium on loopback; this machine: ${cpus().length} cores, load average ${load.toFixed(1)} at the start, ${loadavg()[0]!.toFixed(1)} at the end`);
+  console.log('| page | visit | transferred | requests | of which app files | API answers | map tiles | largest contentful paint |');
+  console.log('| --- | --- | ---: | ---: | ---: | ---: | ---: | ---: |');
+  for (const row of rows) console.log(row);
+} finally {
+  await instance.stop();
+}
+
+/** Opens `url` in a new tab until the network is idle; what it transferred, asked for and painted. */
+async function visit(context: BrowserContext, url: string): Promise<Visit> {
+  const page = await context.newPage();
+  const cdp = await context.newCDPSession(page);
+  await cdp.send('Network.enable');
+  await cdp.send('Network.setCacheDisabled', { cacheDisabled: false });
+  const totals = { bytes: 0, appBytes: 0, apiBytes: 0, tileBytes: 0, requests: 0, fromCache: 0 };
+  const urls = new Map<string, string>();
+  cdp.on('Network.requestWillBeSent', (event: { requestId: string; request: { url: string } }) => {
+    totals.requests += 1;
+    urls.set(event.requestId, new URL(event.request.url).pathname);
+  });
+  cdp.on('Network.requestServedFromCache', () => (totals.fromCache += 1));
+  cdp.on('Network.responseReceived', (event: { response: { fromDiskCache?: boolean } }) => {
+    if (event.response.fromDiskCache) totals.fromCache += 1;
+  });
+  cdp.on('Network.loadingFinished', (event: { requestId: string; encodedDataLength: number }) => {
+    const path = urls.get(event.requestId) ?? '';
+    totals.bytes += event.encodedDataLength;
+    if (path.startsWith('/api/tiles/')) totals.tileBytes += event.encodedDataLength;
+    else if (path.startsWith('/api/')) totals.apiBytes += event.encodedDataLength;
+    else totals.appBytes += event.encodedDataLength;
+  });
+  await page.goto(url, { waitUntil: 'networkidle' });
+  const lcpMs = await page.evaluate(
+    () =>
+      new Promise<number>((done) => {
+        new PerformanceObserver((list) => done(list.getEntries().at(-1)!.startTime)).observe({ type: 'largest-contentful-paint', buffered: true });
+        setTimeout(() => done(Number.NaN), 3_000);
+      }),
+  );
+  await page.close();
+  return { ...totals, lcpMs };
+}
+
+async function signIn(baseUrl: string, email: string): Promise<string> {
+  const response = await fetch(`${baseUrl}/api/auth/login`, {
+    method: 'POST',
+    headers: { 'Content-Type': 'application/json' },
+    body: JSON.stringify({ email, password: DEMO_PASSWORD }),
+  });
+  if (!response.ok) throw new Error(`sign-in as ${email}: ${response.status}`);
+  const session = response.headers.getSetCookie().map((c) => c.split(';')[0]!).find((c) => c.startsWith('descentry_session='));
+  if (!session) throw new Error('no session cookie');
+  return session;
+}
+
+async function getJson(baseUrl: string, path: string, cookie: string): Promise<unknown> {
+  const response = await fetch(`${baseUrl}${path}`, { headers: { Cookie: cookie } });
+  if (!response.ok) throw new Error(`${path}: ${response.status}`);
+  return response.json();
+}
+
+function range(values: number[], digits: number): string {
+  const finite = values.filter((v) => Number.isFinite(v));
+  if (finite.length === 0) return '–';
+  const low = Math.min(...finite);
+  const high = Math.max(...finite);
+  return low.toFixed(digits) === high.toFixed(digits) ? low.toFixed(digits) : `${low.toFixed(digits)}–${high.toFixed(digits)}`;
+}
