@@ -388,7 +388,7 @@ function minimumTimeSpeeds(model: RouteModel, vehicle: Vehicle, options: Analysi
   const segments = model.pointCount - 1;
   let deceleration: number | Float64Array = options.decelerationMps2;
   if (options.slopeAwareDeceleration) {
-    // Felt deceleration d + g·sin θ on descents held to the comfort limit (DOMAIN notes §7.2).
+    // Felt deceleration d + g·sin θ on descents held to the comfort limit (engine README §7.2).
     const perSegment = new Float64Array(segments);
     for (let k = 0; k < segments; k++) {
       const downhill = Math.max(0, -model.sinTheta[k]!);

@@ -4,7 +4,7 @@
  *   T(h) = T0 − L·h,  p(h) = p0·(T(h)/T0)^5.255876,  ρ = p/(R·T)
  *
  * h is geopotential altitude; terrain heights are used directly (the difference is 0.015 % in
- * density at 3000 m, DOMAIN notes §2.2). When an ambient temperature is given, ρ uses the ISA
+ * density at 3000 m, engine README §2.2). When an ambient temperature is given, ρ uses the ISA
  * pressure at that altitude with the given temperature (ideal gas), as the product design fixes.
  */
 import {

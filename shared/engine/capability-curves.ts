@@ -1,6 +1,6 @@
 /**
  * Vehicle capability chart data: the tractive force needed against speed on a set of grades and
- * accelerations (road-load equation, DOMAIN notes §1.1), drawn over the motor envelope:
+ * accelerations (road-load equation, engine README §1.1), drawn over the motor envelope:
  *   traction F_max(v) = min(maxTractionForceN, tractionPowerW/v)
  *   regen    F_regen(v) = −min(maxTractionForceN, regenPowerW/v) · fade(v)   (fade: v/regenMinSpeedMps below it, powertrain.ts)
  * Regen force shares the motor's torque limit (from memory: a motor brakes with about the torque

@@ -1,5 +1,5 @@
 /**
- * Road-load (longitudinal force) equation, DOMAIN notes §1.1:
+ * Road-load (longitudinal force) equation, engine README §1.1:
  *
  *   F_t = F_roll + F_aero + F_grade + F_inertia
  *   F_roll    = Cr·m·g·cos θ          (0 at standstill: it only opposes motion)
@@ -57,7 +57,7 @@ export function roadLoadForces(input: RoadLoadForcesInput): RoadLoadForces {
 
   const { massKg, speedMps } = input;
   const gradeFraction = input.gradePercent / 100;
-  // cos θ = 1/√(1+G²), sin θ = G/√(1+G²) with G = tan θ (DOMAIN §1.1).
+  // cos θ = 1/√(1+G²), sin θ = G/√(1+G²) with G = tan θ (engine README §1.1).
   const secant = Math.sqrt(1 + gradeFraction * gradeFraction);
   const weightN = massKg * STANDARD_GRAVITY_MPS2;
   const rollingN = speedMps > 0 ? (input.rollingResistanceCoefficient * weightN) / secant : 0;

@@ -1,5 +1,5 @@
 /**
- * Minimum-time speed profile by the forward–backward pass (DOMAIN notes §7.4):
+ * Minimum-time speed profile by the forward–backward pass (engine README §7.4):
  *
  *   forward   a_k = min(a_comfort, (F_trac,max(v_k) − F_res(v_k, θ_k)) / ((1+δ)·m))
  *             v_{k+1} = min(v_lim,{k+1}, √(v_k² + 2·a_k·ℓ_k))
