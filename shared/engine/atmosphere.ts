@@ -35,7 +35,7 @@ export function isaPressurePa(altitudeM: number): number {
  * Air density ρ = p_ISA(h)/(287.05·T), kg/m³, where T is `ambientC` when given and the ISA
  * temperature at `altitudeM` otherwise.
  */
-export function airDensityKgPerM3(altitudeM: number, ambientC?: number): number {
+export function airDensityKgM3(altitudeM: number, ambientC?: number): number {
   const pressurePa = isaPressurePa(altitudeM);
   let temperatureK: number;
   if (ambientC === undefined) {

@@ -21,7 +21,7 @@ export interface TractionEnvelopeInput {
   maxTractionForceN: number;
   tractionPowerW: number;
   /** Per segment. */
-  airDensityKgPerM3: Float64Array;
+  airDensityKgM3: Float64Array;
   /** Per segment: sin θ and cos θ of the grade. */
   sinTheta: Float64Array;
   cosTheta: Float64Array;
@@ -55,7 +55,7 @@ export function computeSpeedProfile(input: SpeedProfileInput): Float64Array {
       const forceLimitN = v > 0 ? Math.min(traction.maxTractionForceN, traction.tractionPowerW / v) : traction.maxTractionForceN;
       const resistanceN =
         (v > 0 ? traction.rollingResistanceCoefficient * weightN * traction.cosTheta[k]! : 0) +
-        0.5 * traction.airDensityKgPerM3[k]! * traction.dragAreaM2 * v * v +
+        0.5 * traction.airDensityKgM3[k]! * traction.dragAreaM2 * v * v +
         weightN * traction.sinTheta[k]!;
       a = Math.min(a, (forceLimitN - resistanceN) / effectiveMassKg);
     }

@@ -104,11 +104,11 @@ describe('computeRoadLoad', () => {
 // Helpers
 
 function car() {
-  return { massKg: 1800, rollingResistanceCoefficient: 0.01, dragCoefficient: 0.3, frontalAreaM2: 2.2, airDensityKgPerM3: 1.225 };
+  return { massKg: 1800, rollingResistanceCoefficient: 0.01, dragCoefficient: 0.3, frontalAreaM2: 2.2, airDensityKgM3: 1.225 };
 }
 
 function bus() {
-  return { massKg: 19_000, rollingResistanceCoefficient: 0.007, dragCoefficient: 0.7, frontalAreaM2: 8, airDensityKgPerM3: 1.225, rotatingMassFactor: 0 };
+  return { massKg: 19_000, rollingResistanceCoefficient: 0.007, dragCoefficient: 0.7, frontalAreaM2: 8, airDensityKgM3: 1.225, rotatingMassFactor: 0 };
 }
 
 function busVehicle(): VehicleInput {

@@ -50,7 +50,7 @@ describe('computeSpeedProfile', () => {
         dragAreaM2: 5.6,
         maxTractionForceN: 60_000,
         tractionPowerW: 150_000,
-        airDensityKgPerM3: new Float64Array(n - 1).fill(1.225),
+        airDensityKgM3: new Float64Array(n - 1).fill(1.225),
         sinTheta: sin,
         cosTheta: cos,
       },
