@@ -13,7 +13,6 @@
  * the grade, and so the power, noisy. Nothing is stored from a refused file.
  */
 import { simplify } from '@turf/turf';
-import type { User } from '@shared/domain/auth';
 import type { LoggedTrip, LoggedTripAlignment, LoggedTripUploadFields, ReplayComparison } from '@shared/domain/logged-trips';
 import type { VehicleProfile } from '@shared/domain/vehicle-profiles';
 import { fillElevationGaps } from '@shared/engine/analyse-route';

@@ -61,7 +61,7 @@ export const KG_PER_POUND = 0.45359237;
 export const METRES_PER_MILE = 1_609.344;
 
 /** Watts per mechanical horsepower (550 ft·lbf/s = 745.6999 W). */
-export const WATTS_PER_HORSEPOWER = 745.69987158227022;
+export const WATTS_PER_HORSEPOWER = 745.6998715822702;
 
 /** Default resampling spacing along the route, m (product design: default 10 m). */
 export const DEFAULT_SPACING_M = 10;
