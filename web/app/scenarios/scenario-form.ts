@@ -29,7 +29,7 @@ import {
   type ScenarioFormValue,
   type SeasonChoice,
 } from './scenario-form-model';
-import { DIRECTION_LABELS, LOAD_LABELS, SEASON_LABELS } from './scenario-labels';
+import { DIRECTION_LABELS, LOAD_LABELS, SEASON_LABELS } from '@shared/presentation/index';
 import { ScenariosApi } from './scenarios-api';
 
 /** Planners and analysts set up a scenario: route, direction, vehicle, load, season, SOC, options. */

@@ -14,7 +14,7 @@ import { Session } from '../core/session';
 import { QuantityPipe } from '../units/quantity-pipe';
 import { UnitPreference } from '../units/unit-preference';
 import { RISK_ORDER, RISK_STYLES } from '@shared/presentation/index';
-import { DIRECTION_LABELS, STATUS_LABELS, describeLoad, describeSeason } from './scenario-labels';
+import { DIRECTION_LABELS, SCENARIO_STATUS_LABELS, describeLoad, describeSeason } from '@shared/presentation/index';
 import { ScenariosApi } from './scenarios-api';
 
 type LoadState = { status: 'loading' } | { status: 'error'; message: string } | { status: 'ready' };
@@ -78,7 +78,7 @@ export default class ScenarioList {
   }
 
   protected statusLabel(scenario: Scenario): string {
-    return STATUS_LABELS[scenario.status];
+    return SCENARIO_STATUS_LABELS[scenario.status];
   }
 
   protected isSelected(id: string): boolean {

@@ -49,7 +49,7 @@ import {
   speedSeries,
 } from './result-series';
 import { brakeRiskBands } from '../charts/risk-bands';
-import { DIRECTION_LABELS, STATUS_LABELS, describeLoad, describeSeason } from './scenario-labels';
+import { DIRECTION_LABELS, SCENARIO_STATUS_LABELS, describeLoad, describeSeason } from '@shared/presentation/index';
 import { ScenariosApi } from './scenarios-api';
 
 type ResultState =
@@ -111,7 +111,7 @@ export default class ScenarioResultScreen {
 
   protected readonly units = inject(UnitPreference).system;
   protected readonly directionLabels = DIRECTION_LABELS;
-  protected readonly statusLabels = STATUS_LABELS;
+  protected readonly statusLabels = SCENARIO_STATUS_LABELS;
   protected readonly riskStyles = RISK_STYLES;
   protected readonly riskOrder = RISK_ORDER;
   protected readonly startColour = START_COLOUR;
