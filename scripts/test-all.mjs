@@ -2,7 +2,7 @@
 // `npm test`: every test, on a fresh machine too. Installs what is missing (npm packages,
 // PostgreSQL + PostGIS + pgRouting, osm2pgsql, Chromium, GDAL, poppler-utils, the OpenStreetMap
 // reference data and networkx), starts the private PostgreSQL, recreates the test
-// databases, then runs: the Node tests (engine + API, vitest), the Angular unit tests (ng test),
+// databases, then runs: ESLint (must report no problem), the Node tests (engine + API, vitest), the Angular unit tests (ng test),
 // and the browser tests against a freshly built and seeded server. Prints one summary line.
 import { databaseUrl, ensureDatabase, startDatabase, stopDatabase, pgSettings } from './db.mjs';
 import { spawnSync } from 'node:child_process';
@@ -35,6 +35,9 @@ const testEnv = {
   DATABASE_URL: databaseUrl('descentry_test'),
   SESSION_SECRET: 'test-secret-test-secret-test-secret-0000',
 };
+
+step('Lint (ESLint, eslint.config.mjs)');
+recordLint(await runStep('npx', ['eslint', '.', '--max-warnings', '0'], { capture: true }));
 
 step('Node tests: calculation engine and API (vitest)');
 record('node', await runStep('npx', ['vitest', 'run', '--config', 'spec/vitest.config.ts'], { env: testEnv, capture: true }));
@@ -91,6 +94,12 @@ async function runBrowserTests() {
   }
 }
 
+/** ESLint counts as one passed check when clean; otherwise each reported problem is a failure. */
+function recordLint({ status, output }) {
+  const problems = Number(/(\d+) problems?/.exec(output)?.[1] ?? 0);
+  results.push({ name: 'lint', status, passed: status === 0 ? 1 : 0, failed: status === 0 ? 0 : Math.max(1, problems) });
+}
+
 function recreateDatabase(database) {
   const sql = `DROP DATABASE IF EXISTS "${database}" WITH (FORCE)`;
   const dropped = spawnSync(
@@ -104,6 +113,8 @@ function recreateDatabase(database) {
 
 /** Reads the runner's own closing counts: vitest "Tests  N passed", node:test "pass N". */
 function record(name, { status, output }) {
+  // Strips ANSI colour codes, which start with the ESC control character.
+  // eslint-disable-next-line no-control-regex
   const plain = output.replace(/\x1b\[[0-9;]*m/g, '');
   let passed = 0;
   let failed = 0;

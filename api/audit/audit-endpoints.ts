@@ -1,3 +1,4 @@
+import { rolesWith } from '@shared/domain/permissions';
 import { auditLogPageSchema, auditLogQuerySchema } from '@shared/domain/audit';
 import type { AppDeps } from '../app-deps';
 import { endpoint } from '../http/endpoint';
@@ -10,7 +11,7 @@ export function auditEndpoints(deps: AppDeps) {
       path: '/api/audit-log',
       summary: 'Every create, change, delete, restore and purge of routes, scenarios, vehicle profiles and terrain, newest first',
       tag: 'Audit',
-      access: ['admin'],
+      access: rolesWith('audit.read'),
       query: auditLogQuerySchema,
       responses: { 200: { description: 'One page of the log', schema: auditLogPageSchema } },
       handler: async ({ query, res }) => {

@@ -1,3 +1,4 @@
+import { rolesWith } from '@shared/domain/permissions';
 import { unlink } from 'node:fs/promises';
 import type { RequestHandler } from 'express';
 import multer from 'multer';
@@ -28,7 +29,7 @@ export function basemapEndpoints(deps: AppDeps) {
       path: '/api/basemap',
       summary: 'Upload an OpenStreetMap extract for the base map and the road graph; the import runs in the background',
       tag: TAG,
-      access: ['analyst', 'admin'],
+      access: rolesWith('basemap.manage'),
       multipartBody: basemapUploadMultipartSchema,
       middleware: [extractUpload(deps)],
       responses: {

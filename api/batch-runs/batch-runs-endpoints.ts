@@ -1,3 +1,4 @@
+import { rolesWith } from '@shared/domain/permissions';
 import { batchRunIdParamsSchema, batchRunListSchema, batchRunSchema } from '@shared/domain/board-summary';
 import type { AppDeps } from '../app-deps';
 import { endpoint } from '../http/endpoint';
@@ -10,7 +11,7 @@ export function batchRunsEndpoints(deps: AppDeps) {
       path: '/api/batch-runs',
       summary: 'Re-run every in-service scenario, one queued job per scenario',
       tag: 'Network-wide runs',
-      access: ['analyst'],
+      access: rolesWith('batch-runs.start'),
       responses: {
         202: { description: 'Queued; poll the run for progress', schema: batchRunSchema },
         409: { description: 'No scenario is marked in service' },

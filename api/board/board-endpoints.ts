@@ -1,3 +1,4 @@
+import { rolesWith } from '@shared/domain/permissions';
 import { boardSummarySchema, networkSettingsSchema, networkSettingsViewSchema } from '@shared/domain/board-summary';
 import type { AppDeps } from '../app-deps';
 import { endpoint } from '../http/endpoint';
@@ -52,7 +53,7 @@ export function boardEndpoints(deps: AppDeps) {
       path: '/api/settings/network',
       summary: 'Set the tariff and the grid emission factor, each with its source',
       tag: 'Board',
-      access: ['admin'],
+      access: rolesWith('network-settings.edit'),
       body: networkSettingsSchema,
       responses: { 200: { description: 'Saved settings', schema: networkSettingsViewSchema } },
       handler: async ({ body, user, res }) => {

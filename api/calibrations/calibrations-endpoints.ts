@@ -1,8 +1,8 @@
+import { rolesWith } from '@shared/domain/permissions';
 import { calibrationIdParamsSchema, calibrationListSchema, calibrationRequestSchema, calibrationSchema } from '@shared/domain/calibrations';
 import { vehicleProfileIdParamsSchema } from '@shared/domain/vehicle-profiles';
 import type { AppDeps } from '../app-deps';
 import { endpoint } from '../http/endpoint';
-import { CALIBRATION_WRITERS } from '../logged-trips/logged-trips-endpoints';
 import * as service from './calibrations-service';
 
 const TAG = 'Calibrations';
@@ -14,7 +14,7 @@ export function calibrationEndpoints(deps: AppDeps) {
       path: '/api/vehicles/:vehicleProfileId/calibrations',
       summary: 'Fit the profile to logged trips (bounded nonlinear least squares on battery power, in the job queue); poll the calibration for the result',
       tag: TAG,
-      access: CALIBRATION_WRITERS,
+      access: rolesWith('calibration.edit'),
       params: vehicleProfileIdParamsSchema,
       body: calibrationRequestSchema,
       responses: {
@@ -57,7 +57,7 @@ export function calibrationEndpoints(deps: AppDeps) {
       path: '/api/calibrations/:calibrationId/accept',
       summary: 'Accept a finished fit: it becomes the profile’s next version (naming its logged trips) and the profile’s scenarios are re-run',
       tag: TAG,
-      access: CALIBRATION_WRITERS,
+      access: rolesWith('calibration.edit'),
       params: calibrationIdParamsSchema,
       responses: {
         200: { description: 'Accepted', schema: calibrationSchema },
@@ -73,7 +73,7 @@ export function calibrationEndpoints(deps: AppDeps) {
       path: '/api/calibrations/:calibrationId/reject',
       summary: 'Reject a fit: it stays on record, the profile stays as it is',
       tag: TAG,
-      access: CALIBRATION_WRITERS,
+      access: rolesWith('calibration.edit'),
       params: calibrationIdParamsSchema,
       responses: {
         200: { description: 'Rejected', schema: calibrationSchema },

@@ -1,3 +1,4 @@
+import { rolesWith } from '@shared/domain/permissions';
 import {
   comparisonQuerySchema,
   loggedTripCreatedSchema,
@@ -17,7 +18,6 @@ import * as service from './logged-trips-service';
 
 const TAG = 'Logged trips';
 /** Measured data of vehicles is the analysts' (and administrators') to add and remove. */
-export const CALIBRATION_WRITERS = ['analyst', 'admin'] as const;
 
 export function loggedTripEndpoints(deps: AppDeps) {
   return [
@@ -26,7 +26,7 @@ export function loggedTripEndpoints(deps: AppDeps) {
       path: '/api/vehicles/:vehicleProfileId/logged-trips',
       summary: 'Upload a logged trip of this vehicle (CSV); it is matched to a saved route or makes a new one, and laid on it for replay',
       tag: TAG,
-      access: CALIBRATION_WRITERS,
+      access: rolesWith('calibration.edit'),
       params: vehicleProfileIdParamsSchema,
       multipartBody: loggedTripMultipartSchema,
       middleware: [loggedTripFileUpload()],
@@ -89,7 +89,7 @@ export function loggedTripEndpoints(deps: AppDeps) {
       path: '/api/logged-trips/:loggedTripId',
       summary: 'Delete a logged trip; 409 while an accepted profile version was fitted on it',
       tag: TAG,
-      access: CALIBRATION_WRITERS,
+      access: rolesWith('calibration.edit'),
       params: loggedTripIdParamsSchema,
       responses: { 204: { description: 'Deleted' }, 404: { description: 'No such trip' }, 409: { description: 'An accepted calibration was fitted on it' } },
       handler: async ({ params, res }) => {

@@ -6,7 +6,6 @@ import { calibrations, loggedTrips, roadRoutes, roadRouteVersions, type LoggedTr
 export type NewLoggedTrip = typeof loggedTrips.$inferInsert;
 
 /** Trip columns without the (large) alignment. */
-// eslint-disable-next-line @typescript-eslint/no-unused-vars
 const { alignment: _alignment, ...headColumns } = getTableColumns(loggedTrips);
 export type LoggedTripHead = Omit<LoggedTripRow, 'alignment'>;
 

@@ -13,7 +13,6 @@
  * the grade, and so the power, noisy. Nothing is stored from a refused file.
  */
 import { simplify } from '@turf/turf';
-import type { User } from '@shared/domain/auth';
 import type { LoggedTrip, LoggedTripAlignment, LoggedTripUploadFields, ReplayComparison } from '@shared/domain/logged-trips';
 import type { VehicleProfile } from '@shared/domain/vehicle-profiles';
 import { fillElevationGaps } from '@shared/engine/analyse-route';
@@ -33,6 +32,8 @@ import { LoggedTripFileError, parseLoggedTripCsv, type ParsedTrip } from './logg
 import * as repository from './logged-trips-repository';
 import { alignedTrip, replayTrip, tripVehicle } from './trip-replay';
 import { eq } from 'drizzle-orm';
+import { SPEED_LIMIT_KPH } from '@shared/domain/limits';
+import { mpsToKph } from '@shared/engine/unit-conversions';
 
 /** Largest logged-trip file, bytes (a day of 10 Hz logging with every channel is about 15 MB). */
 export const LOGGED_TRIP_MAX_BYTES = 20 * 1024 * 1024;
@@ -143,7 +144,7 @@ export async function uploadLoggedTrip(
     let routeId = route.routeId;
     let routeVersion = route.version;
     if (route.how === 'created') {
-      const maxKph = Math.max(...parsed.samples.speedMps) * 3.6;
+      const maxKph = mpsToKph(Math.max(...parsed.samples.speedMps));
       const created = await createRoute(tx, author, {
         name: route.name,
         description: `Made from the GPS track of the logged trip “${name}” (${fileName}); check it and add stops and speed limits before planning with it.`,
@@ -151,7 +152,7 @@ export async function uploadLoggedTrip(
         geometry: { type: 'LineString', coordinates: route.coordinates as [number, number][] },
         stops: [],
         speedLimits: [],
-        defaultSpeedLimitKph: Math.min(130, Math.max(20, Math.ceil(maxKph / 10) * 10)),
+        defaultSpeedLimitKph: Math.min(SPEED_LIMIT_KPH.max, Math.max(20, Math.ceil(maxKph / 10) * 10)),
         tripsPerDay: 0,
         serviceDaysPerYear: 360,
       });

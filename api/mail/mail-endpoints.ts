@@ -1,3 +1,4 @@
+import { rolesWith } from '@shared/domain/permissions';
 import { capturedMailListSchema, outgoingMailListSchema } from '@shared/domain/mail';
 import type { AppDeps } from '../app-deps';
 import { endpoint } from '../http/endpoint';
@@ -11,7 +12,7 @@ export function mailEndpoints({ db }: AppDeps) {
       path: '/api/mail/outbox',
       summary: 'Messages queued, sent or failed (newest first)',
       tag: 'Mail',
-      access: ['admin'],
+      access: rolesWith('mail.read'),
       responses: { 200: { description: 'Outbox', schema: outgoingMailListSchema } },
       handler: async ({ res }) => {
         const rows = await listOutbox(db);
@@ -36,7 +37,7 @@ export function mailEndpoints({ db }: AppDeps) {
       path: '/api/mail/captured',
       summary: 'Messages the local mail catcher received (development and tests)',
       tag: 'Mail',
-      access: ['admin'],
+      access: rolesWith('mail.read'),
       responses: { 200: { description: 'Captured messages', schema: capturedMailListSchema } },
       handler: async ({ res }) => {
         const rows = await listCapturedMail(db);

@@ -1,3 +1,4 @@
+import { rolesWith } from '@shared/domain/permissions';
 import { z } from 'zod';
 import {
   inviteRequestSchema,
@@ -17,7 +18,7 @@ export function peopleEndpoints(deps: AppDeps) {
       path: '/api/people',
       summary: 'Everyone with an account',
       tag: 'People',
-      access: ['admin'],
+      access: rolesWith('people.manage'),
       responses: { 200: { description: 'People', schema: personListSchema } },
       handler: async ({ res }) => {
         res.json({ items: await peopleService.listPeople(deps) });
@@ -28,7 +29,7 @@ export function peopleEndpoints(deps: AppDeps) {
       path: '/api/people',
       summary: 'Invite a person by e-mail with a role',
       tag: 'People',
-      access: ['admin'],
+      access: rolesWith('people.manage'),
       body: inviteRequestSchema,
       responses: {
         201: { description: 'Invited; the e-mail is queued', schema: personSchema },
@@ -44,7 +45,7 @@ export function peopleEndpoints(deps: AppDeps) {
       path: '/api/people/:personId',
       summary: 'Change a person’s role, name or status (disable / enable)',
       tag: 'People',
-      access: ['admin'],
+      access: rolesWith('people.manage'),
       params: personIdParamsSchema,
       body: updatePersonRequestSchema,
       responses: { 200: { description: 'Updated', schema: personSchema } },
@@ -57,7 +58,7 @@ export function peopleEndpoints(deps: AppDeps) {
       path: '/api/people/:personId/unblock-sign-in',
       summary: 'Lift the slow-down that failed sign-ins put on an account (and its reset-request count)',
       tag: 'People',
-      access: ['admin'],
+      access: rolesWith('people.manage'),
       params: personIdParamsSchema,
       responses: { 200: { description: 'The person, no longer slowed down', schema: personSchema } },
       handler: async ({ params, res }) => {
@@ -69,7 +70,7 @@ export function peopleEndpoints(deps: AppDeps) {
       path: '/api/people/:personId/password-reset',
       summary: 'E-mail the person a password-reset link',
       tag: 'People',
-      access: ['admin'],
+      access: rolesWith('people.manage'),
       params: personIdParamsSchema,
       responses: { 202: { description: 'Queued', schema: z.object({}) } },
       handler: async ({ params, res }) => {

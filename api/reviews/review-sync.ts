@@ -10,7 +10,8 @@ import type { DirectionResult } from '@shared/domain/scenarios';
 import type { Executor } from '../db/client';
 import { reviewEvents, reviewItems, roadRouteVersions, vehicleProfiles, type ReviewItemRow, type ReviewSource } from '../db/schema/index';
 import { notifyHighRiskDescent } from './review-notifications';
-import { compareWorstFirst, isHighRisk, isWorse, matchStretches, needsReview, riskRank } from './review-workflow';
+import { isHighRisk, riskRank } from '@shared/presentation/risk-styles';
+import { compareWorstFirst, isWorse, matchStretches, needsReview } from './review-workflow';
 
 /** The scenario fields the sync needs (a scenarios row fits). */
 export interface ReviewSyncScenario {

@@ -4,22 +4,12 @@
  */
 import type { Descent, RiskLevel } from '@shared/domain/analysis';
 import { REVIEW_TRANSITIONS, type ReviewAction, type ReviewState } from '@shared/domain/reviews';
+import { needsCaution, riskRank } from '@shared/presentation/risk-styles';
 import { ConflictError } from '../http/http-error';
 
-const RISK_RANK: Readonly<Record<RiskLevel, number>> = { low: 0, elevated: 1, high: 2, critical: 3 };
-
-export function riskRank(risk: RiskLevel): number {
-  return RISK_RANK[risk];
-}
-
-/** Whether a descent becomes a review item: "elevated" or worse. */
+/** Whether a descent becomes a review item: "elevated" or worse, the levels that carry a caution. */
 export function needsReview(descent: Pick<Descent, 'risk'>): boolean {
-  return riskRank(descent.risk) >= RISK_RANK.elevated;
-}
-
-/** Whether a new item is urgent enough to e-mail the safety officers at once. */
-export function isHighRisk(risk: RiskLevel): boolean {
-  return riskRank(risk) >= RISK_RANK.high;
+  return needsCaution(descent.risk);
 }
 
 /**

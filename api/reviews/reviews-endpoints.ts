@@ -1,3 +1,4 @@
+import { rolesWith } from '@shared/domain/permissions';
 import {
   auditEventListSchema,
   reviewDetailSchema,
@@ -43,7 +44,7 @@ export function reviewsEndpoints(deps: AppDeps) {
       path: '/api/reviews/:reviewId/transitions',
       summary: 'Acknowledge, mitigate (and re-run), accept with a reason, or reopen a review item',
       tag: 'Descent review',
-      access: ['safety'],
+      access: rolesWith('reviews.act'),
       heavy: true,
       params: reviewIdParamsSchema,
       body: reviewTransitionRequestSchema,

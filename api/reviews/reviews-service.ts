@@ -15,7 +15,8 @@ import { ENGINEERING_CAUTION } from '@shared/engine/constants';
 import type { AppDeps } from '../app-deps';
 import { NotFoundError } from '../http/http-error';
 import { notifyReviewResolved } from './review-notifications';
-import { matchStretches, nextState, riskRank } from './review-workflow';
+import { riskRank } from '@shared/presentation/risk-styles';
+import { matchStretches, nextState } from './review-workflow';
 import * as repository from './reviews-repository';
 import { rerunWithMitigation, type MitigatedRerun } from './scenario-rerun';
 

@@ -1,3 +1,4 @@
+import { rolesWith } from '@shared/domain/permissions';
 import {
   gtfsImportMultipartSchema,
   roadNetworkMultipartSchema,
@@ -35,8 +36,6 @@ import { routeProfile } from './route-profile';
 import { attachmentName, requireFile, singleFileUpload } from './route-upload';
 
 const TAG = 'Routes';
-const PLANNERS = ['planner'] as const;
-const ANALYSTS = ['analyst'] as const;
 
 export function roadRouteEndpoints(deps: AppDeps) {
   return [
@@ -58,7 +57,7 @@ export function roadRouteEndpoints(deps: AppDeps) {
       path: '/api/routes',
       summary: 'Create a route (version 1); stops are placed on the line',
       tag: TAG,
-      access: PLANNERS,
+      access: rolesWith('routes.edit'),
       body: roadRouteDraftSchema,
       responses: {
         201: { description: 'Created', schema: roadRouteSchema },
@@ -86,7 +85,7 @@ export function roadRouteEndpoints(deps: AppDeps) {
       path: '/api/routes/import',
       summary: 'Import one route from a GeoJSON (.geojson/.json) or GPX 1.1 (.gpx) file',
       tag: TAG,
-      access: PLANNERS,
+      access: rolesWith('routes.edit'),
       heavy: true,
       multipartBody: routeImportMultipartSchema,
       middleware: singleFileUpload(),
@@ -113,7 +112,7 @@ export function roadRouteEndpoints(deps: AppDeps) {
       path: '/api/routes/import-gtfs',
       summary: 'Import a GTFS feed (zip): one route per GTFS route, with stops, dwell and trips per day',
       tag: TAG,
-      access: PLANNERS,
+      access: rolesWith('routes.edit'),
       heavy: true,
       multipartBody: gtfsImportMultipartSchema,
       middleware: singleFileUpload(),
@@ -143,7 +142,7 @@ export function roadRouteEndpoints(deps: AppDeps) {
       path: '/api/routes/:routeId',
       summary: 'Save a new version of a route (earlier versions are kept for the scenarios that ran on them)',
       tag: TAG,
-      access: PLANNERS,
+      access: rolesWith('routes.edit'),
       params: routeIdParamsSchema,
       body: roadRouteDraftSchema,
       responses: { 200: { description: 'The new version', schema: roadRouteSchema } },
@@ -156,7 +155,7 @@ export function roadRouteEndpoints(deps: AppDeps) {
       path: '/api/routes/:routeId',
       summary: 'Delete a route with all its versions (restorable for 30 days); 409 while scenarios use it',
       tag: TAG,
-      access: PLANNERS,
+      access: rolesWith('routes.edit'),
       params: routeIdParamsSchema,
       responses: { 204: { description: 'Deleted' }, 409: { description: 'Scenarios use the route (details.scenarioCount)' } },
       handler: async ({ params, user, res }) => {
@@ -169,7 +168,7 @@ export function roadRouteEndpoints(deps: AppDeps) {
       path: '/api/routes/:routeId/restore',
       summary: 'Restore a deleted route (within the retention period) as it was',
       tag: TAG,
-      access: PLANNERS,
+      access: rolesWith('routes.edit'),
       params: routeIdParamsSchema,
       responses: { 200: { description: 'The route, back', schema: roadRouteSchema }, 404: { description: 'No deleted route with that id' } },
       handler: async ({ params, user, res }) => {
@@ -227,7 +226,7 @@ export function roadRouteEndpoints(deps: AppDeps) {
       path: '/api/road-network',
       summary: 'Replace the reference road network (GeoJSON FeatureCollection of LineString/MultiLineString roads, as JSON or multipart file)',
       tag: TAG,
-      access: ANALYSTS,
+      access: rolesWith('road-network.upload'),
       heavy: true,
       multipartBody: roadNetworkMultipartSchema,
       middleware: singleFileUpload(),

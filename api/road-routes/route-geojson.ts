@@ -7,6 +7,7 @@ import { z } from 'zod';
 import { lineStringSchema, positionSchema } from '@shared/domain/analysis';
 import { ROUTE_MODES, type RoadRoute, type RoadRouteDraftInput } from '@shared/domain/road-routes';
 import { ImportError, lineAt } from './import-error';
+import { speedLimitKphSchema } from '@shared/domain/limits';
 
 export function routeToGeoJson(route: RoadRoute) {
   return {
@@ -45,7 +46,7 @@ const settingsSchema = z
     name: z.string().trim().min(1).max(120),
     description: z.string().max(2_000),
     mode: z.enum(ROUTE_MODES),
-    defaultSpeedLimitKph: z.number().min(5).max(130),
+    defaultSpeedLimitKph: speedLimitKphSchema,
     speedLimits: z.array(z.object({ fromM: z.number(), toM: z.number(), speedKph: z.number() })),
     tripsPerDay: z.number().min(0).max(500),
     serviceDaysPerYear: z.number().int().min(0).max(366),

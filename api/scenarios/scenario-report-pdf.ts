@@ -11,6 +11,7 @@ import { VEHICLE_PRESETS } from '@shared/engine/vehicle-presets';
 import {
   DIRECTION_LABELS,
   RISK_LABELS,
+  RISK_STYLES,
   SUMMARY_FIGURES,
   describeDescentAdvice,
   describeLoad,
@@ -27,7 +28,6 @@ import { INK, MUTED, PdfLayout } from '../pdf/pdf-layout';
 
 /** The report is printed in metric units, as the authority's own documents. */
 const UNITS: UnitSystem = 'metric';
-const RISK_INK: Record<string, string> = { low: '#2f6b43', elevated: '#7a5c00', high: '#a23b12', critical: '#8a1c4a' };
 
 export function scenarioReportPdf(scenario: Scenario, result: ScenarioResult, profile: VehicleProfile | undefined): Promise<Buffer> {
   const page = new PdfLayout({ Title: `Descentry report – ${scenario.name}` });
@@ -93,7 +93,7 @@ export function scenarioReportPdf(scenario: Scenario, result: ScenarioResult, pr
           `${advice.speedHeadline}. ${advice.socHeadline}.`,
         ];
       }),
-      { rowColour: (row) => RISK_INK[descents[row]!.descent.risk] },
+      { rowColour: (row) => RISK_STYLES[descents[row]!.descent.risk].ink },
     );
   }
 

@@ -1,3 +1,4 @@
+import { rolesWith } from '@shared/domain/permissions';
 import {
   scenarioCompareQuerySchema,
   scenarioComparisonSchema,
@@ -20,7 +21,6 @@ import { scenarioReportPdf } from './scenario-report-pdf';
 import * as service from './scenarios-service';
 
 const TAG = 'Scenarios';
-const EDITORS = ['planner', 'analyst'] as const;
 
 export function scenarioEndpoints(deps: AppDeps) {
   return [
@@ -41,7 +41,7 @@ export function scenarioEndpoints(deps: AppDeps) {
       path: '/api/scenarios',
       summary: 'Save a scenario and compute it (a run that fails, e.g. for missing terrain, is saved with status "failed" and the reason)',
       tag: TAG,
-      access: EDITORS,
+      access: rolesWith('scenarios.edit'),
       heavy: true,
       body: scenarioDraftSchema,
       responses: {
@@ -82,7 +82,7 @@ export function scenarioEndpoints(deps: AppDeps) {
       path: '/api/scenarios/:scenarioId',
       summary: 'Change a scenario and recompute it',
       tag: TAG,
-      access: EDITORS,
+      access: rolesWith('scenarios.edit'),
       heavy: true,
       params: scenarioIdParamsSchema,
       body: scenarioDraftSchema,
@@ -96,7 +96,7 @@ export function scenarioEndpoints(deps: AppDeps) {
       path: '/api/scenarios/:scenarioId',
       summary: 'Delete a scenario and its result (restorable for 30 days)',
       tag: TAG,
-      access: EDITORS,
+      access: rolesWith('scenarios.edit'),
       params: scenarioIdParamsSchema,
       responses: { 204: { description: 'Deleted' } },
       handler: async ({ params, user, res }) => {
@@ -109,7 +109,7 @@ export function scenarioEndpoints(deps: AppDeps) {
       path: '/api/scenarios/:scenarioId/restore',
       summary: 'Restore a deleted scenario (within the retention period) with its settings and last result',
       tag: TAG,
-      access: EDITORS,
+      access: rolesWith('scenarios.edit'),
       params: scenarioIdParamsSchema,
       responses: {
         200: { description: 'The scenario, back', schema: scenarioSchema },
@@ -125,7 +125,7 @@ export function scenarioEndpoints(deps: AppDeps) {
       path: '/api/scenarios/:scenarioId/run',
       summary: 'Re-run now (an unpinned scenario moves to the route’s latest version); clears staleness',
       tag: TAG,
-      access: EDITORS,
+      access: rolesWith('scenarios.edit'),
       heavy: true,
       params: scenarioIdParamsSchema,
       responses: { 200: { description: 'The scenario after the run (status done or failed)', schema: scenarioSchema } },

@@ -5,7 +5,6 @@ import type { Executor } from '../db/client';
 import { roadRoutes, roadRouteVersions, scenarios, vehicleProfiles, type ScenarioRow } from '../db/schema/index';
 
 /** Scenario columns without the (large) per-point results. */
-// eslint-disable-next-line @typescript-eslint/no-unused-vars
 const { directionResults: _directionResults, ...scenarioColumns } = getTableColumns(scenarios);
 
 export type ScenarioHead = Omit<ScenarioRow, 'directionResults'>;

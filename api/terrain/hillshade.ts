@@ -9,7 +9,7 @@
  *   dz/dx = ((c + 2f + i) − (a + 2d + g)) / (8·Δx)      (east positive)
  *   dz/dy = ((g + 2h + i) − (a + 2b + c)) / (8·Δy)      (south positive)
  *
- * (DOMAIN notes §6.5; the same weights as GDAL's default slope algorithm.) Hillshade is the
+ * (shared/engine/README.md §6.5; the same weights as GDAL's default slope algorithm.) Hillshade is the
  * cosine of the angle between the surface normal and the sun:
  *
  *   shade = cos(zenith)·cos(slope) + sin(zenith)·sin(slope)·cos(azimuth_math − aspect)

@@ -1,3 +1,4 @@
+import { rolesWith } from '@shared/domain/permissions';
 import { unlink } from 'node:fs/promises';
 import type { RequestHandler } from 'express';
 import multer from 'multer';
@@ -38,7 +39,7 @@ export function terrainEndpoints(deps: AppDeps) {
       path: '/api/terrain',
       summary: 'Upload a GeoTIFF elevation model; ingestion continues in the background',
       tag: TAG,
-      access: ['analyst', 'admin'],
+      access: rolesWith('terrain.manage'),
       heavy: true,
       multipartBody: terrainUploadMultipartSchema,
       middleware: terrainUpload(deps),
@@ -111,7 +112,7 @@ export function terrainEndpoints(deps: AppDeps) {
       path: '/api/terrain/:terrainId',
       summary: 'Delete a terrain model (restorable for 30 days; its files are removed then)',
       tag: TAG,
-      access: ['analyst', 'admin'],
+      access: rolesWith('terrain.manage'),
       params: terrainIdParamsSchema,
       query: terrainDeleteQuerySchema,
       responses: {
@@ -130,7 +131,7 @@ export function terrainEndpoints(deps: AppDeps) {
       path: '/api/terrain/:terrainId/restore',
       summary: 'Restore a deleted terrain model (within the retention period) into the catalogue',
       tag: TAG,
-      access: ['analyst', 'admin'],
+      access: rolesWith('terrain.manage'),
       params: terrainIdParamsSchema,
       responses: { 200: { description: 'The model, back', schema: terrainModelSchema }, 404: { description: 'No deleted model with that id' } },
       handler: async ({ params, user, res }) => {

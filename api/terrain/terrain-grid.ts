@@ -46,7 +46,7 @@ export function nearestValue(grid: GridGeometry, col: number, row: number, value
 }
 
 /**
- * Bilinear interpolation between the four pixel centres around the point (DOMAIN §6.1):
+ * Bilinear interpolation between the four pixel centres around the point (shared/engine/README.md §6.1):
  * z = z00(1−fx)(1−fy) + z10·fx(1−fy) + z01(1−fx)fy + z11·fx·fy.
  *
  * A neighbour that is nodata or outside the grid drops out and the remaining weights are

@@ -82,10 +82,22 @@ export class PyramidBuilder {
         const b = c1 !== c0 ? data[top + c1]! : NaN;
         const d = data[bottom + c0]!;
         const e = c1 !== c0 ? data[bottom + c1]! : NaN;
-        if (a === a) (sum += a), count++;
-        if (b === b) (sum += b), count++;
-        if (d === d) (sum += d), count++;
-        if (e === e) (sum += e), count++;
+        if (a === a) {
+          sum += a;
+          count++;
+        }
+        if (b === b) {
+          sum += b;
+          count++;
+        }
+        if (d === d) {
+          sum += d;
+          count++;
+        }
+        if (e === e) {
+          sum += e;
+          count++;
+        }
         out[p * width + c] = count > 0 ? sum / count : NaN;
       }
     }

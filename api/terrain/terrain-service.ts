@@ -1,3 +1,4 @@
+import { can } from '@shared/domain/permissions';
 import { randomUUID } from 'node:crypto';
 import { access, mkdir, rename, unlink } from 'node:fs/promises';
 import type { User } from '@shared/domain/auth';
@@ -134,7 +135,7 @@ export async function deleteTerrain(deps: AppDeps, user: User, id: string, force
   const runtime = terrainRuntimeFor(deps);
   const row = await findTerrainModel(deps.db, id);
   if (!row) throw new NotFoundError('The terrain model');
-  if (force && user.role !== 'admin') throw new ForbiddenError('Only an administrator may force the deletion of terrain in use');
+  if (force && !can(user.role, 'terrain.force-delete')) throw new ForbiddenError('Only an administrator may force the deletion of terrain in use');
   const scenarios = await countScenariosUsingTerrain(deps.db, id);
   if (scenarios > 0 && !force) {
     throw new ConflictError(

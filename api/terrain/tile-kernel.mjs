@@ -79,13 +79,25 @@ export function sampleTileElevations(layers, rowStart = 0, rowEnd = SAMPLES_PX, 
           let sum = 0;
           let weight = 0;
           let w = (1 - fxp) * (1 - fyp);
-          if (w > 0 && z00 === z00) (sum += z00 * w), (weight += w);
+          if (w > 0 && z00 === z00) {
+            sum += z00 * w;
+            weight += w;
+          }
           w = fxp * (1 - fyp);
-          if (w > 0 && z10 === z10) (sum += z10 * w), (weight += w);
+          if (w > 0 && z10 === z10) {
+            sum += z10 * w;
+            weight += w;
+          }
           w = (1 - fxp) * fyp;
-          if (w > 0 && z01 === z01) (sum += z01 * w), (weight += w);
+          if (w > 0 && z01 === z01) {
+            sum += z01 * w;
+            weight += w;
+          }
           w = fxp * fyp;
-          if (w > 0 && z11 === z11) (sum += z11 * w), (weight += w);
+          if (w > 0 && z11 === z11) {
+            sum += z11 * w;
+            weight += w;
+          }
           if (weight === 0) continue;
           value = sum / weight;
         }

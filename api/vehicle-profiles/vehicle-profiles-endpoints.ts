@@ -1,3 +1,4 @@
+import { rolesWith } from '@shared/domain/permissions';
 import {
   capabilityCurvesSchema,
   capabilityQuerySchema,
@@ -13,7 +14,6 @@ import * as repository from './vehicle-profiles-repository';
 import * as service from './vehicle-profiles-service';
 
 const TAG = 'Vehicle profiles';
-const ANALYSTS = ['analyst'] as const;
 
 export function vehicleProfileEndpoints(deps: AppDeps) {
   return [
@@ -33,7 +33,7 @@ export function vehicleProfileEndpoints(deps: AppDeps) {
       path: '/api/vehicles',
       summary: 'Create a vehicle profile',
       tag: TAG,
-      access: ANALYSTS,
+      access: rolesWith('vehicles.edit'),
       body: vehicleProfileDraftSchema,
       responses: { 201: { description: 'Created', schema: vehicleProfileSchema } },
       handler: async ({ body, user, res }) => {
@@ -58,7 +58,7 @@ export function vehicleProfileEndpoints(deps: AppDeps) {
       path: '/api/vehicles/:vehicleProfileId',
       summary: 'Change a vehicle profile (scenarios using it become stale); presets answer 409',
       tag: TAG,
-      access: ANALYSTS,
+      access: rolesWith('vehicles.edit'),
       params: vehicleProfileIdParamsSchema,
       body: vehicleProfileDraftSchema,
       responses: { 200: { description: 'Updated', schema: vehicleProfileSchema }, 409: { description: 'A preset (read-only)' } },
@@ -71,7 +71,7 @@ export function vehicleProfileEndpoints(deps: AppDeps) {
       path: '/api/vehicles/:vehicleProfileId',
       summary: 'Delete a vehicle profile (restorable for 30 days); 409 for presets and while scenarios use it',
       tag: TAG,
-      access: ANALYSTS,
+      access: rolesWith('vehicles.edit'),
       params: vehicleProfileIdParamsSchema,
       responses: { 204: { description: 'Deleted' }, 409: { description: 'A preset, or scenarios use it (details.scenarioCount)' } },
       handler: async ({ params, user, res }) => {
@@ -84,7 +84,7 @@ export function vehicleProfileEndpoints(deps: AppDeps) {
       path: '/api/vehicles/:vehicleProfileId/restore',
       summary: 'Restore a deleted vehicle profile (within the retention period) as it was',
       tag: TAG,
-      access: ANALYSTS,
+      access: rolesWith('vehicles.edit'),
       params: vehicleProfileIdParamsSchema,
       responses: { 200: { description: 'The profile, back', schema: vehicleProfileSchema }, 404: { description: 'No deleted profile with that id' } },
       handler: async ({ params, user, res }) => {

@@ -80,7 +80,7 @@ export const vehicleSchema = z
     /**
      * Ambient temperature from which the battery takes its full charge power, °C; below it the
      * charge-power limit falls linearly to `coldChargeShareAtMinus20C` at −20 °C (cells are
-     * protected from lithium plating when cold; DOMAIN §3.1).
+     * protected from lithium plating when cold; shared/engine/README.md §3.1).
      */
     coldChargeFullFromC: z.number().min(-20).max(40).default(10),
     /** Share of the charge-power limit left at −20 °C and below; 1 = no derating (a pack kept warm). */
@@ -157,7 +157,7 @@ export const optionsSchema = z.object({
   lateralAccelerationMps2: z.number().positive().max(5).default(DEFAULT_LATERAL_ACCELERATION_MPS2),
   accelerationMps2: z.number().positive().max(5).default(DEFAULT_ACCELERATION_MPS2),
   decelerationMps2: z.number().positive().max(10).default(DEFAULT_DECELERATION_MPS2),
-  /** Limit the felt deceleration d + g·sin θ on descents to `decelerationMps2` (DOMAIN §7.2 option). */
+  /** Limit the felt deceleration d + g·sin θ on descents to `decelerationMps2` (shared/engine/README.md §7.2 option). */
   slopeAwareDeceleration: z.boolean().default(false),
   curvatureWindowM: z.number().min(0).max(1_000).default(DEFAULT_CURVATURE_WINDOW_M),
   /** Hysteresis for total ascent/descent, m. */

@@ -1,6 +1,7 @@
 import * as z from 'zod';
 import { lineStringSchema, riskLevelSchema, speedAdviceSchema } from './analysis';
 import { directionSchema } from './scenarios';
+import { speedLimitKphSchema } from './limits';
 
 /**
  * Descent review: every descent at "elevated" risk or worse in a saved scenario becomes a review
@@ -28,7 +29,7 @@ export const REVIEW_STATE_LABELS: Readonly<Record<ReviewState, string>> = {
 export const mitigationSchema = z
   .object({
     /** Lower descent speed, km/h (applied as the scenario's descent speed cap on re-run). */
-    descentSpeedCapKph: z.number().min(5).max(130).optional(),
+    descentSpeedCapKph: speedLimitKphSchema.optional(),
     /** Highest SOC at the depot / top of the descent, 0–1 (applied as the scenario's start SOC cap). */
     socCeiling: z.number().min(0.05).max(1).optional(),
     /** Vehicles this stretch is restricted to or from, in words. */

@@ -1,5 +1,6 @@
 import * as z from 'zod';
 import { lineStringSchema } from './analysis';
+import { DEFAULT_SPEED_LIMIT_KPH, speedLimitKphSchema } from './limits';
 
 /**
  * Road routes as planners edit them. A route is versioned: every save of its geometry, stops or
@@ -25,7 +26,7 @@ export const routeSpeedLimitSchema = z
   .object({
     fromM: z.number().min(0),
     toM: z.number().min(0),
-    speedKph: z.number().min(5).max(130),
+    speedKph: speedLimitKphSchema,
   })
   .refine((stretch) => stretch.toM > stretch.fromM, { message: 'toM must exceed fromM', path: ['toM'] });
 export type RouteSpeedLimit = z.infer<typeof routeSpeedLimitSchema>;
@@ -42,7 +43,7 @@ export const roadRouteDraftSchema = z.object({
   stops: z.array(routeStopSchema).max(500).default([]),
   speedLimits: z.array(routeSpeedLimitSchema).max(500).default([]),
   /** Default limit outside the stretches, km/h. */
-  defaultSpeedLimitKph: z.number().min(5).max(130).default(50),
+  defaultSpeedLimitKph: speedLimitKphSchema.default(DEFAULT_SPEED_LIMIT_KPH),
   /** Round trips per service day (for annual figures). */
   tripsPerDay: z.number().min(0).max(500).default(0),
   serviceDaysPerYear: z.number().int().min(0).max(366).default(360),

@@ -2,7 +2,8 @@ import * as z from 'zod';
 
 /**
  * The five kinds of people who use Descentry. Each role may change only its own kind of data;
- * every role may read what it needs (see DESIGN.md, "Who uses it").
+ * every role may read what it needs. Each endpoint's `access` (api/endpoints.ts) states who may
+ * call it, and spec/api/authorization-matrix.spec.ts checks it as every role.
  */
 export const ROLES = ['planner', 'analyst', 'safety', 'board', 'admin'] as const;
 export const roleSchema = z.enum(ROLES);

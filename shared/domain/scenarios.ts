@@ -1,6 +1,7 @@
 import * as z from 'zod';
 import { descentSchema, profileSchema, profileSubsetSchema, summarySchema, uncoveredStretchSchema } from './analysis';
 import { loadCaseSchema, seasonSchema } from './vehicle-profiles';
+import { speedLimitKphSchema } from './limits';
 
 /**
  * A scenario: one route version run with one vehicle profile, load, season, start SOC and
@@ -29,7 +30,7 @@ export type ScenarioSeason = z.infer<typeof scenarioSeasonSchema>;
 export const scenarioOptionsSchema = z.object({
   spacingM: z.number().min(1).max(200).default(10),
   smoothingWindowM: z.number().min(0).max(5_000).default(150),
-  descentSpeedCapKph: z.number().min(5).max(130).optional(),
+  descentSpeedCapKph: speedLimitKphSchema.optional(),
   /** Whether the route's stops (with dwell) are served. */
   useStops: z.boolean().default(true),
   /** Layover at the far terminal on a round trip, s. */

@@ -232,7 +232,7 @@ export function prepareRouteModel(
     gradePercent,
     sinTheta,
     cosTheta,
-    airDensityKgPerM3: airDensity,
+    airDensityKgM3: airDensity,
     ambientC,
     limitMps,
     postedLimitMps,
@@ -373,7 +373,7 @@ export function analyseResampledRoute(
       soc: Array.from(run.soc),
       brakeTempC: Array.from(run.brakeTempC),
       gsrsBrakeTempC: Array.from(run.gsrsBrakeTempC),
-      airDensityKgM3: perSegment(model.airDensityKgPerM3),
+      airDensityKgM3: perSegment(model.airDensityKgM3),
     },
     descents,
     caution: ENGINEERING_CAUTION,
@@ -388,7 +388,7 @@ function minimumTimeSpeeds(model: RouteModel, vehicle: Vehicle, options: Analysi
   const segments = model.pointCount - 1;
   let deceleration: number | Float64Array = options.decelerationMps2;
   if (options.slopeAwareDeceleration) {
-    // Felt deceleration d + g·sin θ on descents held to the comfort limit (DOMAIN notes §7.2).
+    // Felt deceleration d + g·sin θ on descents held to the comfort limit (engine README §7.2).
     const perSegment = new Float64Array(segments);
     for (let k = 0; k < segments; k++) {
       const downhill = Math.max(0, -model.sinTheta[k]!);
@@ -408,7 +408,7 @@ function minimumTimeSpeeds(model: RouteModel, vehicle: Vehicle, options: Analysi
       dragAreaM2: model.dragAreaM2,
       maxTractionForceN: vehicle.maxTractionForceN,
       tractionPowerW: vehicle.tractionPowerW,
-      airDensityKgPerM3: model.airDensityKgPerM3,
+      airDensityKgM3: model.airDensityKgM3,
       sinTheta: model.sinTheta,
       cosTheta: model.cosTheta,
     },

@@ -4,7 +4,7 @@
  *   T(h) = T0 − L·h,  p(h) = p0·(T(h)/T0)^5.255876,  ρ = p/(R·T)
  *
  * h is geopotential altitude; terrain heights are used directly (the difference is 0.015 % in
- * density at 3000 m, DOMAIN notes §2.2). When an ambient temperature is given, ρ uses the ISA
+ * density at 3000 m, engine README §2.2). When an ambient temperature is given, ρ uses the ISA
  * pressure at that altitude with the given temperature (ideal gas), as the product design fixes.
  */
 import {
@@ -35,7 +35,7 @@ export function isaPressurePa(altitudeM: number): number {
  * Air density ρ = p_ISA(h)/(287.05·T), kg/m³, where T is `ambientC` when given and the ISA
  * temperature at `altitudeM` otherwise.
  */
-export function airDensityKgPerM3(altitudeM: number, ambientC?: number): number {
+export function airDensityKgM3(altitudeM: number, ambientC?: number): number {
   const pressurePa = isaPressurePa(altitudeM);
   let temperatureK: number;
   if (ambientC === undefined) {

@@ -1,5 +1,5 @@
 /**
- * Lumped-capacitance brake temperature model (DOMAIN notes §4.3):
+ * Lumped-capacitance brake temperature model (engine README §4.3):
  *
  *   C·dT/dt = φ·P_friction − h(v)·A·(T − T_amb) − ε·σ·A·(T⁴ − T_amb⁴)
  *
@@ -18,7 +18,7 @@ import {
   STEFAN_BOLTZMANN_W_PER_M2_K4,
 } from './constants';
 
-/** Brake-to-air heat-transfer coefficient h(v) = 12 + 4.5·v, W/(m²·K) (DOMAIN §4.3, from memory). */
+/** Brake-to-air heat-transfer coefficient h(v) = 12 + 4.5·v, W/(m²·K) (engine README §4.3: linear in speed as McPhee & Johnson 2008 measured; coefficients from memory). */
 export function brakeConvectionWPerM2K(speedMps: number): number {
   return BRAKE_CONVECTION_STILL_W_PER_M2_K + BRAKE_CONVECTION_SPEED_W_PER_M2_K_PER_MPS * speedMps;
 }

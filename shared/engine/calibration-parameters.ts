@@ -21,8 +21,9 @@ export type FitParameter = (typeof FIT_PARAMETERS)[number];
 
 /**
  * Search bounds of each parameter: wide enough for any bus, trolleybus or tram, tight enough to
- * keep the fit physical (from memory: rolling coefficients 0.001 steel wheel to 0.03 on snow;
- * drag areas 1–15 m²; efficiencies well above one half in any electric drive).
+ * keep the fit physical (rolling coefficients from 0.001, steel wheel on rail in Engineering ToolBox "Rolling
+ * Resistance", to 0.03 on snow; from memory: the snow figure, drag areas 1–15 m², efficiencies
+ * well above one half in any electric drive; engine README §9).
  */
 export const FIT_BOUNDS: Readonly<Record<FitParameter, readonly [number, number]>> = {
   rollingResistanceCoefficient: [0.001, 0.04],

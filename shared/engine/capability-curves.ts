@@ -1,13 +1,13 @@
 /**
  * Vehicle capability chart data: the tractive force needed against speed on a set of grades and
- * accelerations (road-load equation, DOMAIN notes §1.1), drawn over the motor envelope:
+ * accelerations (road-load equation, engine README §1.1), drawn over the motor envelope:
  *   traction F_max(v) = min(maxTractionForceN, tractionPowerW/v)
  *   regen    F_regen(v) = −min(maxTractionForceN, regenPowerW/v) · fade(v)   (fade: v/regenMinSpeedMps below it, powertrain.ts)
  * Regen force shares the motor's torque limit (from memory: a motor brakes with about the torque
  * it drives with).
  */
 import { vehicleSchema, type VehicleInput } from '../domain/analysis';
-import { airDensityKgPerM3 } from './atmosphere';
+import { airDensityKgM3 } from './atmosphere';
 import { roadLoadForces } from './road-load';
 import { regenSpeedFactor } from './powertrain';
 import { parseOrThrow } from './validation';
@@ -35,7 +35,7 @@ export function capabilityCurves(vehicleInput: VehicleInput, options: Capability
   const grades = options.gradesPercent ?? [-10, -8, -6, -4, -2, 0, 2, 4, 6, 8, 10, 12];
   const accelerations = options.accelerationsMps2 ?? [0, 0.5, 1];
   const speeds = options.speedsMps ?? Array.from({ length: 51 }, (_, i) => i * 0.5);
-  const airDensity = airDensityKgPerM3(options.altitudeM ?? 0, options.ambientC);
+  const airDensity = airDensityKgM3(options.altitudeM ?? 0, options.ambientC);
   const massKg = vehicle.curbMassKg + vehicle.payloadKg;
   const tractionEnvelopeN = speeds.map((v) => (v > 0 ? Math.min(vehicle.maxTractionForceN, vehicle.tractionPowerW / v) : vehicle.maxTractionForceN));
   const regenEnvelopeN = speeds.map((v) =>
@@ -56,7 +56,7 @@ export function capabilityCurves(vehicleInput: VehicleInput, options: Capability
             rollingResistanceCoefficient: vehicle.rollingResistanceCoefficient,
             dragCoefficient: vehicle.dragCoefficient,
             frontalAreaM2: vehicle.frontalAreaM2,
-            airDensityKgPerM3: airDensity,
+            airDensityKgM3: airDensity,
           }).tractionN,
       ),
     })),

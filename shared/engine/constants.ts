@@ -61,7 +61,7 @@ export const KG_PER_POUND = 0.45359237;
 export const METRES_PER_MILE = 1_609.344;
 
 /** Watts per mechanical horsepower (550 ft·lbf/s = 745.6999 W). */
-export const WATTS_PER_HORSEPOWER = 745.69987158227022;
+export const WATTS_PER_HORSEPOWER = 745.6998715822702;
 
 /** Default resampling spacing along the route, m (product design: default 10 m). */
 export const DEFAULT_SPACING_M = 10;
@@ -81,15 +81,18 @@ export const MAX_ROUTE_LENGTH_M = 300_000;
 export const MAX_RESAMPLED_POINTS = 60_000;
 
 /**
- * Default elevation smoothing window, m. DOMAIN notes §6.2/§6.3: grades from 25–30 m global
+ * Default elevation smoothing window, m (engine README §6.2, §6.3): grades from 25–30 m global
  * terrain models need a 100–300 m baseline; 150 m is the middle of that range (common practice).
  */
 export const DEFAULT_SMOOTHING_WINDOW_M = 150;
 
-/** Default lateral (curve) comfort acceleration for buses, m/s² (from memory: 1.0–1.5, 1.2 default). */
+/** Default lateral (curve) comfort acceleration for buses, m/s² (from memory: 1.0–1.5; engine README §7.1). */
 export const DEFAULT_LATERAL_ACCELERATION_MPS2 = 1.2;
 
-/** Default comfort acceleration, m/s² (from memory: 0.8–1.2 m/s² for standing passengers). */
+/**
+ * Default comfort acceleration, m/s² (from memory: 0.8–1.2 m/s² for standing passengers; Powell &
+ * Palacín, Urban Rail Transit 1(2) 2015, review the limits used on rail; engine README §7.2).
+ */
 export const DEFAULT_ACCELERATION_MPS2 = 1.0;
 
 /** Default comfort service deceleration, m/s² (from memory: 1.0–1.3 m/s² for buses). */
@@ -118,33 +121,33 @@ export const DEFAULT_DESCENT_GAP_TOLERANCE_M = 150;
 
 /**
  * Default hysteresis for counting total ascent and descent on the smoothed profile, m
- * (from memory: 1–2 × the terrain model's vertical error, DOMAIN notes §6.2).
+ * (from memory: 1–2 × the terrain model's vertical error, engine README §6.2).
  */
 export const DEFAULT_ASCENT_THRESHOLD_M = 2;
 
 /**
  * Longest gap without terrain that the analysis fills by linear interpolation between the
  * covered ends, m. Longer gaps, or gaps at either end of the route, are refused (common practice,
- * the same treatment DOMAIN notes §6.4 give bridges and tunnels).
+ * the same treatment engine README §6.4 gives bridges and tunnels).
  */
 export const DEFAULT_MAX_GAP_FILL_M = 100;
 
-/** Default brake-ambient heat-transfer law h = a + b·v: constant term, W/(m²·K) (DOMAIN §4.3, from memory). */
+/** Default brake-ambient heat-transfer law h = a + b·v: constant term, W/(m²·K) (engine README §4.3, from memory). */
 export const BRAKE_CONVECTION_STILL_W_PER_M2_K = 12;
 
 /**
  * Default brake heat-transfer speed term, W/(m²·K) per m/s. Linear in speed as measured by
- * McPhee & Johnson, Int. J. Thermal Sciences 47 (2008) 458–467; coefficients from DOMAIN §4.3.
+ * McPhee & Johnson, Int. J. Thermal Sciences 47 (2008) 458–467; coefficients from memory, engine README §4.3.
  */
 export const BRAKE_CONVECTION_SPEED_W_PER_M2_K_PER_MPS = 4.5;
 
 /** Longest time step of the brake temperature update before it is sub-stepped, s (common practice). */
 export const BRAKE_MAX_SUBSTEP_S = 2;
 
-/** Speed of the UN R13 Type-II and Type-IIA reference descents, m/s (30 km/h, from memory, DOMAIN §5.1). */
+/** Speed of the UN R13 Type-II and Type-IIA reference descents, m/s (30 km/h, from memory; engine README §5.1). */
 export const TYPE_II_SPEED_MPS = 30 / 3.6;
 
-/** Length of the UN R13 Type-II reference descent along the road, m (6 km, from memory, DOMAIN §5.1). */
+/** Length of the UN R13 Type-II reference descent along the road, m (6 km, from memory; engine README §5.1). */
 export const TYPE_II_LENGTH_M = 6_000;
 
 /** Grade of the UN R13 Type-II reference descent, % (Dir. 71/320/EEC Annex VII: at least 6 %). */

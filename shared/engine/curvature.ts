@@ -1,5 +1,5 @@
 /**
- * Horizontal curvature of a route and the speed a curve allows (DOMAIN notes §7.1):
+ * Horizontal curvature of a route and the speed a curve allows (engine README §7.1):
  *
  *   R = a·b·c / (4·Area)   circumradius of three consecutive points
  *   v_curve = √(a_lat·R)

@@ -7,8 +7,8 @@
  * Grades are reported with the product's sign: negative downhill; `maxGradePercent` is the
  * steepest (most negative) segment grade.
  *
- * Risk (bulk disc/drum temperature of the lumped model, engineering judgement / from memory,
- * DOMAIN notes §4.4): drum — elevated from 200 °C, high from 260 °C (GSRS 500 °F), critical from
+ * Risk (bulk disc/drum temperature of the lumped model; sources of each edge in engine README §4.4
+ * and BRAKE_RISK_BANDS_C below, the rest engineering judgement from memory): drum — elevated from 200 °C, high from 260 °C (GSRS 500 °F), critical from
  * 340 °C (≈ 650 °F, top of the resin-odour band); disc — elevated from 300 °C, high from 450 °C,
  * critical from 550 °C (bulk rotor 500–600 °C). The fade threshold for the speed advice is the
  * "high" edge.
@@ -27,7 +27,7 @@
  *   or the vehicle has no battery to fill (overhead line, no regeneration).
  * - beyondTypeApprovalReference: the descent's wheel braking energy exceeds the net braking
  *   energy of the UN R13 Type-II reference descent (6 %, 6 km, 30 km/h) for this vehicle
- *   (DOMAIN notes §5.1 heuristic, from memory).
+ *   (a heuristic of ours, from memory; engine README §5.1).
  */
 import type { AnalysisOptions, BrakeType, Descent, RiskLevel, Vehicle } from '../domain/analysis';
 import {
@@ -44,7 +44,12 @@ import type { RouteRun } from './route-run';
 /** Walking pace, the lowest speed the speed advice considers, m/s (from memory: about 5 km/h). */
 export const WALKING_PACE_MPS = 5 / 3.6;
 
-/** Risk band edges, °C (engineering judgement, from memory; DOMAIN notes §4.4). */
+/**
+ * Risk band edges, °C (engine README §4.4): drum high = the GSRS 500 °F limit (Wyoming DOT WY-1901F,
+ * 2018); drum critical ≈ 650 °F, top of the resin-odour band (Carlisle Brake & Friction, "Brake
+ * temperature signals"); disc edges below the ≈ 700 °C of pad fade (Textar, "Fading"); the rest is
+ * engineering judgement, from memory.
+ */
 export const BRAKE_RISK_BANDS_C: Record<BrakeType, { elevated: number; high: number; critical: number }> = {
   drum: { elevated: 200, high: 260, critical: 340 },
   disc: { elevated: 300, high: 450, critical: 550 },
@@ -139,7 +144,7 @@ export function replayDescent(
   return { peakBrakeTempC: peak, brakingJ, nonRegenBrakingJ };
 }
 
-/** Net braking energy of the UN R13 Type-II reference descent for `vehicle`, J (DOMAIN §5.1). */
+/** Net braking energy of the UN R13 Type-II reference descent for `vehicle`, J (engine README §5.1). */
 export function typeIiReferenceBrakingJ(vehicle: Vehicle): number {
   const massKg = vehicle.curbMassKg + vehicle.payloadKg;
   const g = TYPE_II_GRADE_PERCENT / 100;

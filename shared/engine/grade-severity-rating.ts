@@ -1,6 +1,6 @@
 /**
  * FHWA Grade Severity Rating System (GSRS) brake-temperature model, in the updated form of
- * Wyoming DOT report WY-1901F (2018), DOMAIN notes §4.2. US customary units:
+ * Wyoming DOT report WY-1901F (2018), engine README §4.2. US customary units:
  *
  *   T_f   = T_0 + (T_∞ − T_0 + K2·HP_B)·(1 − exp(−K1·L/V))
  *   HP_B  = (W·θ − F_drag)·V/375 − HP_eng

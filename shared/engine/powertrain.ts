@@ -1,6 +1,6 @@
 /**
  * Powertrain, battery and overhead-line model for one segment of constant wheel power
- * (DOMAIN notes §1.2, §3.1, §3.5).
+ * (engine README §1.2, §3.1, §3.5).
  *
  * Sign and accounting conventions (the battery energy balance closes on these):
  * - Wheel power P > 0 is traction, P < 0 braking demand B = −P.
@@ -8,15 +8,15 @@
  * - Braking: regeneration at the wheel is limited by regenPowerW (0 = none), by the motor's
  *   force limit (regen force ≤ maxTractionForceN) and fades out below regenMinSpeedMps: the
  *   machine's limit times v / regenMinSpeedMps, blending to the friction brakes as the vehicle
- *   stops (from memory: fade-out at 3–8 km/h, DOMAIN §3.1; a linear fade is common practice). Regenerated power reaches the battery terminals as
+ *   stops (from memory: fade-out at 3–8 km/h, engine README §3.1; a linear fade is common practice). Regenerated power reaches the battery terminals as
  *   P_regen,wheel·regenEfficiency; the auxiliaries are fed from it first, and only the rest charges
  *   the cells (source power = auxPowerW − P_regen,wheel·regenEfficiency, negative = charging).
  * - Battery vehicles: the net charging power is limited by
  *   maxChargePowerW·f_SOC·f_T, f_SOC = 1 up to socTaperStart, falling linearly to 0 at socCeiling
- *   (from memory, DOMAIN §3.1), f_T the cold derating (coldChargeFactor), and no step may charge
+ *   (from memory, engine README §3.1), f_T the cold derating (coldChargeFactor), and no step may charge
  *   above socCeiling.
  * - Overhead-line vehicles: traction and auxiliaries come from the line; of the regenerated power
- *   left after the auxiliaries the line takes the share lineReceptivity (DOMAIN §3.5). Their
+ *   left after the auxiliaries the line takes the share lineReceptivity (engine README §3.5). Their
  *   on-board battery (off-wire running) is not modelled: SOC stays at the start value.
  * - Braking the electrical path cannot take goes to the retarder or braking resistor up to
  *   retarderPowerW (wheel power), then to the friction brakes.
@@ -98,7 +98,7 @@ export function emptyPowerSplit(): PowerSplit {
   };
 }
 
-/** Share of the charge-power limit available at `soc` (linear taper, from memory, DOMAIN §3.1). */
+/** Share of the charge-power limit available at `soc` (linear taper, from memory, engine README §3.1). */
 export function chargeTaperFactor(soc: number, taperStart: number, ceiling: number): number {
   if (soc >= ceiling) return 0;
   if (soc <= taperStart) return 1;
@@ -108,7 +108,7 @@ export function chargeTaperFactor(soc: number, taperStart: number, ceiling: numb
 /**
  * Share of the charge-power limit available at ambient `ambientC`: 1 from `fullFromC` up,
  * falling linearly to `shareAtMinus20C` at −20 °C and staying there below (from memory: packs
- * without heating limit charging below about 0–10 °C, DOMAIN §3.1; the maker's data decides).
+ * without heating limit charging below about 0–10 °C, engine README §3.1; the maker's data decides).
  */
 export function coldChargeFactor(ambientC: number, fullFromC: number, shareAtMinus20C: number): number {
   if (shareAtMinus20C >= 1 || ambientC >= fullFromC) return 1;
@@ -152,7 +152,7 @@ export function splitWheelPower(
       regenWheelW = Math.min(demandW, Math.min(params.regenPowerW, params.maxRegenForceN * speedMps) * fade);
       const eta = params.regenEfficiency;
       if (params.isOverheadLine) {
-        // Auxiliaries first, then the line's receptive share of the rest (DOMAIN §3.5).
+        // Auxiliaries first, then the line's receptive share of the rest (engine README §3.5).
         const electricW = regenWheelW * eta;
         const auxCoveredW = Math.min(aux, electricW);
         const acceptedW = auxCoveredW + params.lineReceptivity * (electricW - auxCoveredW);

@@ -1,5 +1,5 @@
 /**
- * Road-load (longitudinal force) equation, DOMAIN notes §1.1:
+ * Road-load (longitudinal force) equation, engine README §1.1:
  *
  *   F_t = F_roll + F_aero + F_grade + F_inertia
  *   F_roll    = Cr·m·g·cos θ          (0 at standstill: it only opposes motion)
@@ -16,7 +16,7 @@ import {
   type RoadLoadResponse,
 } from '../domain/analysis';
 import { STANDARD_GRAVITY_MPS2 } from './constants';
-import { airDensityKgPerM3 } from './atmosphere';
+import { airDensityKgM3 } from './atmosphere';
 import { assertFinite, assertNonNegative, parseOrThrow } from './validation';
 
 export interface RoadLoadForcesInput {
@@ -31,7 +31,7 @@ export interface RoadLoadForcesInput {
   rollingResistanceCoefficient: number;
   dragCoefficient: number;
   frontalAreaM2: number;
-  airDensityKgPerM3: number;
+  airDensityKgM3: number;
 }
 
 export interface RoadLoadForces {
@@ -53,15 +53,15 @@ export function roadLoadForces(input: RoadLoadForcesInput): RoadLoadForces {
   assertNonNegative('rollingResistanceCoefficient', input.rollingResistanceCoefficient);
   assertNonNegative('dragCoefficient', input.dragCoefficient);
   assertNonNegative('frontalAreaM2', input.frontalAreaM2);
-  assertNonNegative('airDensityKgPerM3', input.airDensityKgPerM3);
+  assertNonNegative('airDensityKgM3', input.airDensityKgM3);
 
   const { massKg, speedMps } = input;
   const gradeFraction = input.gradePercent / 100;
-  // cos θ = 1/√(1+G²), sin θ = G/√(1+G²) with G = tan θ (DOMAIN §1.1).
+  // cos θ = 1/√(1+G²), sin θ = G/√(1+G²) with G = tan θ (engine README §1.1).
   const secant = Math.sqrt(1 + gradeFraction * gradeFraction);
   const weightN = massKg * STANDARD_GRAVITY_MPS2;
   const rollingN = speedMps > 0 ? (input.rollingResistanceCoefficient * weightN) / secant : 0;
-  const aeroN = 0.5 * input.airDensityKgPerM3 * input.dragCoefficient * input.frontalAreaM2 * speedMps * speedMps;
+  const aeroN = 0.5 * input.airDensityKgM3 * input.dragCoefficient * input.frontalAreaM2 * speedMps * speedMps;
   const gradeN = (weightN * gradeFraction) / secant;
   const inertiaN = (1 + input.rotatingMassFactor) * massKg * input.accelerationMps2;
   const tractionN = rollingN + aeroN + gradeN + inertiaN;
@@ -76,7 +76,7 @@ export function roadLoadForces(input: RoadLoadForcesInput): RoadLoadForces {
 export function computeRoadLoad(request: RoadLoadRequestInput): RoadLoadResponse {
   const parsed = parseOrThrow(roadLoadRequestSchema, request);
   const { vehicle } = parsed;
-  const airDensity = airDensityKgPerM3(parsed.altitudeM, parsed.ambientC);
+  const airDensity = airDensityKgM3(parsed.altitudeM, parsed.ambientC);
   const forces = roadLoadForces({
     massKg: vehicle.curbMassKg + vehicle.payloadKg,
     speedMps: parsed.speedMps,
@@ -86,7 +86,7 @@ export function computeRoadLoad(request: RoadLoadRequestInput): RoadLoadResponse
     rollingResistanceCoefficient: vehicle.rollingResistanceCoefficient,
     dragCoefficient: vehicle.dragCoefficient,
     frontalAreaM2: vehicle.frontalAreaM2,
-    airDensityKgPerM3: airDensity,
+    airDensityKgM3: airDensity,
   });
   return { ...forces, airDensityKgM3: airDensity };
 }

@@ -38,7 +38,7 @@ export interface RouteModel {
   gradePercent: Float64Array;
   sinTheta: Float64Array;
   cosTheta: Float64Array;
-  airDensityKgPerM3: Float64Array;
+  airDensityKgM3: Float64Array;
   ambientC: Float64Array;
   /** Per point. */
   limitMps: Float64Array;
@@ -95,7 +95,7 @@ export function advanceSegment(
   const durationS = segmentTimeS(lengthM, v1Mps, v2Mps);
   const moving = v1Mps + v2Mps > 0;
   const rollingN = moving ? model.vehicle.rollingResistanceCoefficient * model.weightN * model.cosTheta[k]! : 0;
-  const aeroN = 0.25 * model.airDensityKgPerM3[k]! * model.dragAreaM2 * (v1Mps * v1Mps + v2Mps * v2Mps);
+  const aeroN = 0.25 * model.airDensityKgM3[k]! * model.dragAreaM2 * (v1Mps * v1Mps + v2Mps * v2Mps);
   const gradeN = model.weightN * model.sinTheta[k]!;
   const inertiaN = (0.5 * model.effectiveMassKg * (v2Mps * v2Mps - v1Mps * v1Mps)) / lengthM;
   const tractionN = rollingN + aeroN + gradeN + inertiaN;

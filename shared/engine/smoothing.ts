@@ -1,5 +1,5 @@
 /**
- * Smoothing of a profile over distance (never over sample index), DOMAIN notes §6.3.
+ * Smoothing of a profile over distance (never over sample index), engine README §6.3.
  *
  * Window: centred on each point with half-width min(W/2, s, L − s), so it shrinks symmetrically
  * at the route's ends. Both end values are therefore kept as given and a straight ramp passes
@@ -90,7 +90,7 @@ export function savitzkyGolayOverDistance(distanceM: Float64Array, values: Float
 
 /**
  * Total ascent and descent with a hysteresis threshold: a change counts only once the profile
- * has moved `thresholdM` from the last counted level (common practice; DOMAIN notes §6.2). The
+ * has moved `thresholdM` from the last counted level (common practice; engine README §6.2). The
  * remainder at the end is added, so ascent − descent equals the net elevation change exactly.
  */
 export function ascentDescentM(elevationM: Float64Array, thresholdM: number): { ascentM: number; descentM: number } {

@@ -1,5 +1,5 @@
 /**
- * Minimum-time speed profile by the forward–backward pass (DOMAIN notes §7.4):
+ * Minimum-time speed profile by the forward–backward pass (engine README §7.4):
  *
  *   forward   a_k = min(a_comfort, (F_trac,max(v_k) − F_res(v_k, θ_k)) / ((1+δ)·m))
  *             v_{k+1} = min(v_lim,{k+1}, √(v_k² + 2·a_k·ℓ_k))
@@ -21,7 +21,7 @@ export interface TractionEnvelopeInput {
   maxTractionForceN: number;
   tractionPowerW: number;
   /** Per segment. */
-  airDensityKgPerM3: Float64Array;
+  airDensityKgM3: Float64Array;
   /** Per segment: sin θ and cos θ of the grade. */
   sinTheta: Float64Array;
   cosTheta: Float64Array;
@@ -55,7 +55,7 @@ export function computeSpeedProfile(input: SpeedProfileInput): Float64Array {
       const forceLimitN = v > 0 ? Math.min(traction.maxTractionForceN, traction.tractionPowerW / v) : traction.maxTractionForceN;
       const resistanceN =
         (v > 0 ? traction.rollingResistanceCoefficient * weightN * traction.cosTheta[k]! : 0) +
-        0.5 * traction.airDensityKgPerM3[k]! * traction.dragAreaM2 * v * v +
+        0.5 * traction.airDensityKgM3[k]! * traction.dragAreaM2 * v * v +
         weightN * traction.sinTheta[k]!;
       a = Math.min(a, (forceLimitN - resistanceN) / effectiveMassKg);
     }

@@ -1,15 +1,15 @@
 /**
  * Generic vehicle-class presets (never a maker's model). Values are the typical figures of
- * DOMAIN notes §1.3, all from memory unless tagged there, to be replaced by fleet data:
+ * engine README §1.3, all from memory unless a source is named there, to be replaced by fleet data:
  * curb mass, frontal area, Cd, Cr, rotating-mass factor, motor power, battery size, charge rate,
- * auxiliary loads. Efficiencies: drivetrain 0.97·0.94·0.975 = 0.889 wheel↔DC bus (DOMAIN §3.2),
+ * auxiliary loads. Efficiencies: drivetrain 0.97·0.94·0.975 = 0.889 wheel↔DC bus (engine README §3.2),
  * times a one-way battery efficiency of 0.97 for battery vehicles (0.862). Brake thermal mass:
- * 50 kg of cast iron per corner at 460 J/(kg·K) (Engineering ToolBox, DOMAIN §4.3); cooled area
+ * 50 kg of cast iron per corner at 460 J/(kg·K) (Engineering ToolBox, "Metals – Specific Heats"; engine README §4.3); cooled area
  * 0.4 m² per corner (from memory).
  *
  * Passenger mass: 70 kg per passenger (from memory; common planning figures are 68–75 kg).
  * Load variants: empty, all seats taken, full standing load at 6 standing passengers per m²
- * (from memory, DOMAIN §1.3 for trams: 6–8 /m²).
+ * (from memory: 6–8 /m² is the crush-load range for trams; engine README §1.3).
  */
 import type { VehicleInput } from '../domain/analysis';
 
@@ -41,8 +41,8 @@ function loads(seats: number, standingPlaces: number): Record<LoadVariant, numbe
   };
 }
 
-const BATTERY_REGEN_EFFICIENCY = 0.889 * 0.97; // wheel → DC bus → cells (DOMAIN §3.2)
-const LINE_EFFICIENCY = 0.889; // wheel ↔ DC bus, no storage (DOMAIN §3.2)
+const BATTERY_REGEN_EFFICIENCY = 0.889 * 0.97; // wheel → DC bus → cells (engine README §3.2)
+const LINE_EFFICIENCY = 0.889; // wheel ↔ DC bus, no storage (engine README §3.2)
 
 export const VEHICLE_PRESETS: readonly VehiclePreset[] = [
   {
@@ -51,7 +51,7 @@ export const VEHICLE_PRESETS: readonly VehiclePreset[] = [
     seats: 30,
     standingPlaces: 55,
     payloadKg: loads(30, 55),
-    // Winter: 10–30 kW resistive heating + ~5 kW other loads; summer: 5–15 kW cooling + ~5 kW (DOMAIN §1.3).
+    // Winter: 10–30 kW resistive heating + ~5 kW other loads; summer: 5–15 kW cooling + ~5 kW (engine README §1.3).
     auxPowerW: { winter: 22_000, summer: 14_000, mild: 6_000 },
     vehicle: {
       curbMassKg: 13_500,
@@ -172,7 +172,7 @@ export const VEHICLE_PRESETS: readonly VehiclePreset[] = [
       brakeCoolingAreaM2: 1.6,
       brakeHeatShare: 0.95,
       brakeEmissivity: 0.6,
-      retarderPowerW: 160_000, // on-board braking resistor ≈ motor rating (from memory, DOMAIN §3.5)
+      retarderPowerW: 160_000, // on-board braking resistor ≈ motor rating (from memory, engine README §3.5)
       lineReceptivity: 0.5, // from memory: 0.3–0.6 without reversible substations
       powerSource: 'overhead-line',
       socTaperStart: 0.85,

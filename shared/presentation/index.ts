@@ -4,8 +4,10 @@
  * the screens, both PDFs, the e-mails and the CSV headers all read from here.
  */
 export * from './units';
+export * from './field-limits';
 export * from './safety-rounding';
 export * from './labels';
+export * from './risk-styles';
 export * from './figures';
 export * from './descent-advice';
 export * from './dates';

@@ -54,6 +54,14 @@ export const RISK_MEANINGS: Readonly<Record<RiskLevel, string>> = {
 /** Lowest to highest. */
 export const RISK_ORDER: readonly RiskLevel[] = ['low', 'elevated', 'high', 'critical'];
 
+/** Where a scenario's run stands. */
+export const SCENARIO_STATUS_LABELS: Readonly<Record<Scenario['status'], string>> = {
+  queued: 'Waiting to run',
+  running: 'Running',
+  done: 'Done',
+  failed: 'Failed',
+};
+
 /** "Seated load", "45 passengers". */
 export function describeLoad(load: Scenario['load']): string {
   return load.kind === 'case' ? LOAD_LABELS[load.case] : `${formatNumber(load.passengers)} passengers`;

@@ -4,6 +4,8 @@
  * ft², BTU/°F (imperial).
  */
 
+import { kphToMps, mpsToKph } from '../engine/unit-conversions';
+
 export const UNIT_SYSTEMS = ['metric', 'imperial'] as const;
 export type UnitSystem = (typeof UNIT_SYSTEMS)[number];
 
@@ -107,6 +109,16 @@ export function toDisplay(quantity: Quantity, siValue: number, system: UnitSyste
 /** The SI value for a displayed number (what a person typed). */
 export function fromDisplay(quantity: Quantity, shownValue: number, system: UnitSystem): number {
   return SCALES[system][quantity].to(shownValue);
+}
+
+/** A speed given in km/h (the contract's `…Kph` fields) as displayed: km/h or mph (no rounding). */
+export function kphToDisplay(speedKph: number, system: UnitSystem): number {
+  return toDisplay('speed', kphToMps(speedKph), system);
+}
+
+/** The km/h value of a displayed speed (what a person typed in km/h or mph). */
+export function displayToKph(shownSpeed: number, system: UnitSystem): number {
+  return mpsToKph(fromDisplay('speed', shownSpeed, system));
 }
 
 /**

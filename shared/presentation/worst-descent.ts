@@ -4,11 +4,7 @@
  */
 import type { Descent, RiskLevel } from '../domain/analysis';
 import type { Direction } from '../domain/scenarios';
-import { RISK_ORDER } from './labels';
-
-export function riskRank(risk: RiskLevel): number {
-  return RISK_ORDER.indexOf(risk);
-}
+import { riskRank } from './risk-styles';
 
 export interface DescentInDirection {
   direction: Direction;

@@ -11,7 +11,7 @@ const context = createTestContext();
 const { app, db } = context;
 let cookie: string;
 
-/** 12 m battery bus of DOMAIN.md §1.4 (a): 19 t laden, Cr 0.007, Cd 0.7, A 8 m². */
+/** 12 m battery bus of engine README §1.4 (a): 19 t laden, Cr 0.007, Cd 0.7, A 8 m². */
 const laden12mBus = {
   curbMassKg: 13_500,
   payloadKg: 5_500,
@@ -38,7 +38,7 @@ afterAll(async () => {
 });
 
 describe('POST /api/analysis/road-load', () => {
-  it('matches the worked 6 % climb at 30 km/h and 1000 m (DOMAIN.md §1.4 a, hand-computed)', async () => {
+  it('matches the worked 6 % climb at 30 km/h and 1000 m (engine README §1.4 a, hand-computed)', async () => {
     const response = await request(app)
       .post('/api/analysis/road-load')
       .set('Cookie', cookie)

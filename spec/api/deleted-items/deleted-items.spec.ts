@@ -2,7 +2,6 @@ import { existsSync, mkdirSync, mkdtempSync, rmSync, writeFileSync } from 'node:
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { eq } from 'drizzle-orm';
-import request from 'supertest';
 import { afterAll, beforeEach, describe, expect, it } from 'vitest';
 import { DELETED_RETENTION_DAYS } from '@shared/domain/deleted-items';
 import { auditLog, roadRoutes, terrainModels } from '../../../api/db/schema/index';

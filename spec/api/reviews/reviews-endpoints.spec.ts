@@ -1,5 +1,4 @@
 import { sql } from 'drizzle-orm';
-import request from 'supertest';
 import { afterAll, beforeEach, describe, expect, it } from 'vitest';
 import { ENGINEERING_CAUTION } from '@shared/engine/constants';
 import { reviewDetailSchema, reviewListSchema } from '@shared/domain/reviews';

@@ -4,7 +4,7 @@ import { hornGradient, shade, shadeByte, slopeDeg, sunTerms } from '../../../api
 import { gdal, hasGdal, python, tempDir, writeSyntheticGrid } from './support/gdal';
 
 describe('hornGradient and slopeDeg', () => {
-  it('gives 6.017° (10.54 %) on the DOMAIN §6.5 worked example', () => {
+  it('gives 6.017° (10.54 %) on the engine README §6.5 worked example', () => {
     // a…i = 100 101 102 / 103 104 105 / 106 107 108, Δ = 30 m (rows run north → south)
     const grid = [100, 101, 102, 103, 104, 105, 106, 107, 108];
 

@@ -17,8 +17,8 @@ export interface BrowserSession {
 
 /**
  * A fresh Chromium profile per test file, launched the way Debian's chromium works headless
- * here (see STACK.md): a persistent context on a new temporary folder, no sandbox, no
- * background networking. Nothing outside BASE_URL is contacted.
+ * here: a persistent context on a new temporary folder (Chromium refuses --user-data-dir
+ * among the launch arguments), no sandbox, no GPU, no background networking. Nothing outside BASE_URL is contacted.
  */
 export async function openBrowser(viewport = { width: 1280, height: 800 }): Promise<BrowserSession> {
   const profileDir = mkdtempSync(join(tmpdir(), 'descentry-browser-'));

@@ -13,7 +13,7 @@ import { aStraightRoute, aWorkedExampleBus, relativeError } from '../support/eng
 
 
 describe('analyseRoute', () => {
-  describe('the full-battery descent of DOMAIN §3.4 / §8 case 16', () => {
+  describe('the full-battery descent of engine README §3.4 / §8 case 16', () => {
     // 800 m drop over 12 km of road at 30 km/h; horizontal length √(12 000² − 800²).
     const horizontalM = Math.sqrt(12_000 ** 2 - 800 ** 2);
     const request: PreviewRequestInput = {
@@ -35,7 +35,7 @@ describe('analyseRoute', () => {
 
       const storedWh = summary.regenEnergyWh - summary.auxEnergyWh;
       expect(summary.endSoc - summary.startSoc).toBeCloseTo(storedWh / 350_000, 9);
-      // DOMAIN gives 25.46 kWh / 7.27 %, taking the auxiliaries off before the cells' 3 % loss;
+      // the engine README gives 25.46 kWh / 7.27 %, taking the auxiliaries off before the cells' 3 % loss;
       // the engine nets them at the battery terminals (η 0.862 wheel → battery), 0.7 % lower.
       expect(relativeError(storedWh, 25_460)).toBeLessThan(0.01);
       expect(relativeError(summary.endSoc - summary.startSoc, 0.0727)).toBeLessThan(0.01);
@@ -90,7 +90,7 @@ describe('analyseRoute', () => {
     );
   });
 
-  it('takes 1.979 MJ of kinetic energy out stopping from 50 km/h with δ 1.08 (DOMAIN §8 case 15)', async () => {
+  it('takes 1.979 MJ of kinetic energy out stopping from 50 km/h with δ 1.08 (engine README §8 case 15)', async () => {
     const detailed = await analyseRouteDetailed({
       route: { type: 'LineString', coordinates: aStraightRoute(400, () => 600) },
       vehicle: aWorkedExampleBus({ rotatingMassFactor: 0.08 }),

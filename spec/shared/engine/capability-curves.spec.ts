@@ -16,7 +16,7 @@ describe('capabilityCurves', () => {
     expect(chart.regenEnvelopeN).toEqual([0, -20_000, -20_000, -10_000]);
   });
 
-  it('needs 12 677.6 N at 30 km/h on 6 % at 1000 m (DOMAIN §1.4 a)', () => {
+  it('needs 12 677.6 N at 30 km/h on 6 % at 1000 m (engine README §1.4 a)', () => {
     const chart = capabilityCurves(aWorkedExampleBus(), { speedsMps: [30 / 3.6], gradesPercent: [6], accelerationsMps2: [0], altitudeM: 1_000 });
 
     expect(relativeError(chart.curves[0]!.requiredForceN[0]!, 12_677.6)).toBeLessThan(1e-3);

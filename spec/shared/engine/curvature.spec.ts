@@ -4,11 +4,11 @@ import { resampleRoute } from '../../../shared/engine/resample-route';
 import { geodesicDirect } from '../../../shared/engine/geodesy';
 
 describe('curveSpeedLimitMps', () => {
-  it('gives 8.660 m/s for R 50 m at 1.5 m/s² (DOMAIN §8 case 9)', () => {
+  it('gives 8.660 m/s for R 50 m at 1.5 m/s² (engine README §8 case 9)', () => {
     expect(curveSpeedLimitMps(50, 1.5)).toBeCloseTo(8.66025, 4);
   });
 
-  it('gives 6.928 m/s for R 40 m at 1.2 m/s² (DOMAIN §7 case B)', () => {
+  it('gives 6.928 m/s for R 40 m at 1.2 m/s² (engine README §7 case B)', () => {
     expect(curveSpeedLimitMps(40, 1.2)).toBeCloseTo(Math.sqrt(48), 9);
   });
 });

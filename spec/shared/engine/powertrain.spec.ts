@@ -3,25 +3,25 @@ import { vehicleSchema } from '../../../shared/domain/analysis';
 import { chargeTaperFactor, coldChargeFactor, emptyPowerSplit, powertrainParams, regenSpeedFactor, splitWheelPower } from '../../../shared/engine/powertrain';
 import { aWorkedExampleBus } from '../support/engine-builders';
 
-// DOMAIN §3.3 / §8 case 7: 19 t bus descending 8 % at 30 km/h, ρ 1.225 → 111.00 kW at the wheel;
+// engine README §3.3 / §8 case 7: 19 t bus descending 8 % at 30 km/h, ρ 1.225 → 111.00 kW at the wheel;
 // charge limit 200 kW tapering linearly from SOC 0.80 to 0.95; aux 15 kW; η 0.889.
 const BRAKING_W = 111_000;
 const SPEED_MPS = 30 / 3.6;
 
 describe('splitWheelPower', () => {
-  it('regenerates 91.86 kW and leaves 19.14 kW to friction at SOC 0.90 (DOMAIN §8 case 7)', () => {
+  it('regenerates 91.86 kW and leaves 19.14 kW to friction at SOC 0.90 (engine README §8 case 7)', () => {
     const split = step(0.9);
 
     expect(Math.abs(split.regenWheelPowerW - 91_860)).toBeLessThan(0.001 * 91_860);
     expect(Math.abs(split.frictionPowerW - 19_140)).toBeLessThan(0.002 * 19_140);
   });
 
-  it('regenerates everything at SOC 0.50 and 0.85 (DOMAIN §3.3 table)', () => {
+  it('regenerates everything at SOC 0.50 and 0.85 (engine README §3.3 table)', () => {
     expect(step(0.5).frictionPowerW).toBe(0);
     expect(step(0.85).frictionPowerW).toBe(0);
   });
 
-  it('regenerates only what the auxiliaries take at SOC 0.95: 16.9 kW, friction 94.1 kW (DOMAIN §3.3 table)', () => {
+  it('regenerates only what the auxiliaries take at SOC 0.95: 16.9 kW, friction 94.1 kW (engine README §3.3 table)', () => {
     const split = step(0.95);
 
     expect(split.regenWheelPowerW).toBeCloseTo(15_000 / 0.889, 6);
@@ -29,7 +29,7 @@ describe('splitWheelPower', () => {
     expect(split.sourcePowerW).toBeCloseTo(0, 6);
   });
 
-  it('draws 133.84 kW from the battery for 105.65 kW at the wheel (DOMAIN §8 case 6)', () => {
+  it('draws 133.84 kW from the battery for 105.65 kW at the wheel (engine README §8 case 6)', () => {
     const split = emptyPowerSplit();
 
     splitWheelPower(params(), 105_650, SPEED_MPS, 0.5, 1, split);
@@ -56,7 +56,7 @@ describe('splitWheelPower', () => {
     expect(split.frictionPowerW).toBeCloseTo(BRAKING_W - 15_000 / 0.889 - 50_000, 6);
   });
 
-  it('lets an overhead line take its receptive share after the auxiliaries (DOMAIN §3.5)', () => {
+  it('lets an overhead line take its receptive share after the auxiliaries (engine README §3.5)', () => {
     const split = emptyPowerSplit();
     const line = params({ powerSource: 'overhead-line', lineReceptivity: 0.4, batteryCapacityWh: 0 });
 

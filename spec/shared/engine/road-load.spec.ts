@@ -3,7 +3,7 @@ import { computeRoadLoad, roadLoadForces } from '../../../shared/engine/road-loa
 import type { VehicleInput } from '../../../shared/domain/analysis';
 
 describe('roadLoadForces', () => {
-  it('gives 1800 N of inertia and no rolling force at standstill (DOMAIN §8 case 1)', () => {
+  it('gives 1800 N of inertia and no rolling force at standstill (engine README §8 case 1)', () => {
     const forces = roadLoadForces({ ...car(), speedMps: 0, gradePercent: 0, accelerationMps2: 1, rotatingMassFactor: 0 });
 
     expect(forces.inertiaN).toBeCloseTo(1800, 9);
@@ -11,7 +11,7 @@ describe('roadLoadForces', () => {
     expect(forces.tractionN).toBeCloseTo(1800, 9);
   });
 
-  it('has drag equal to rolling at 20.896 m/s for a car, both 176.52 N (DOMAIN §8 case 2)', () => {
+  it('has drag equal to rolling at 20.896 m/s for a car, both 176.52 N (engine README §8 case 2)', () => {
     const forces = roadLoadForces({ ...car(), speedMps: 20.896, gradePercent: 0, accelerationMps2: 0, rotatingMassFactor: 0 });
 
     expect(relativeError(forces.rollingN, 176.52)).toBeLessThan(1e-3);
@@ -44,7 +44,7 @@ describe('roadLoadForces', () => {
     }
   });
 
-  it('gives 14 858.6 N of grade force on 8 % for 19 t (DOMAIN §8 case 5)', () => {
+  it('gives 14 858.6 N of grade force on 8 % for 19 t (engine README §8 case 5)', () => {
     const { gradeN } = roadLoadForces({ ...bus(), speedMps: 0, gradePercent: 8, accelerationMps2: 0 });
 
     expect(relativeError(gradeN, 14_858.6)).toBeLessThan(1e-3);
@@ -56,7 +56,7 @@ describe('roadLoadForces', () => {
     expect(relativeError(gradeN, -14_858.6)).toBeLessThan(1e-3);
   });
 
-  it('gives 17 826 N and 99.0 kW accelerating at 0.8 m/s² through 20 km/h (DOMAIN §1.4 b)', () => {
+  it('gives 17 826 N and 99.0 kW accelerating at 0.8 m/s² through 20 km/h (engine README §1.4 b)', () => {
     const forces = roadLoadForces({ ...bus(), speedMps: 20 / 3.6, gradePercent: 0, accelerationMps2: 0.8, rotatingMassFactor: 0.08 });
 
     expect(forces.inertiaN).toBeCloseTo(16_416, 6);
@@ -72,7 +72,7 @@ describe('roadLoadForces', () => {
 });
 
 describe('computeRoadLoad', () => {
-  it('gives the 6 % climb at 30 km/h and 1000 m of DOMAIN §1.4 a / §8 case 6', () => {
+  it('gives the 6 % climb at 30 km/h and 1000 m of engine README §1.4 a / §8 case 6', () => {
     const response = computeRoadLoad({ vehicle: busVehicle(), speedMps: 30 / 3.6, gradePercent: 6, altitudeM: 1000 });
 
     expect(relativeError(response.airDensityKgM3, 1.1116)).toBeLessThan(1e-3);
@@ -104,11 +104,11 @@ describe('computeRoadLoad', () => {
 // Helpers
 
 function car() {
-  return { massKg: 1800, rollingResistanceCoefficient: 0.01, dragCoefficient: 0.3, frontalAreaM2: 2.2, airDensityKgPerM3: 1.225 };
+  return { massKg: 1800, rollingResistanceCoefficient: 0.01, dragCoefficient: 0.3, frontalAreaM2: 2.2, airDensityKgM3: 1.225 };
 }
 
 function bus() {
-  return { massKg: 19_000, rollingResistanceCoefficient: 0.007, dragCoefficient: 0.7, frontalAreaM2: 8, airDensityKgPerM3: 1.225, rotatingMassFactor: 0 };
+  return { massKg: 19_000, rollingResistanceCoefficient: 0.007, dragCoefficient: 0.7, frontalAreaM2: 8, airDensityKgM3: 1.225, rotatingMassFactor: 0 };
 }
 
 function busVehicle(): VehicleInput {

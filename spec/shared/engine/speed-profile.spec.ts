@@ -2,7 +2,7 @@ import { describe, expect, it } from 'vitest';
 import { computeSpeedProfile, segmentTimeS } from '../../../shared/engine/speed-profile';
 
 describe('computeSpeedProfile', () => {
-  it('runs 400 m stop to stop at 50 km/h, a 1.0, d 1.2 in 41.53 s (DOMAIN §7 case A, ±0.05 s at 1 m)', () => {
+  it('runs 400 m stop to stop at 50 km/h, a 1.0, d 1.2 in 41.53 s (engine README §7 case A, ±0.05 s at 1 m)', () => {
     const { lengths, limits } = stopToStop(400, 1, () => 50 / 3.6);
 
     const speed = computeSpeedProfile({ segmentLengthM: lengths, limitMps: limits, accelerationMps2: 1, decelerationMps2: 1.2 });
@@ -11,14 +11,14 @@ describe('computeSpeedProfile', () => {
     expect(Math.max(...speed)).toBeCloseTo(50 / 3.6, 9);
   });
 
-  it('takes 47.62 s with a 40 m radius curve on 180–220 m at 1.2 m/s² (DOMAIN §7 case B, ±0.05 s)', () => {
+  it('takes 47.62 s with a 40 m radius curve on 180–220 m at 1.2 m/s² (engine README §7 case B, ±0.05 s)', () => {
     const curveMps = Math.sqrt(1.2 * 40);
     const { lengths, limits } = stopToStop(400, 1, (s) => (s >= 180 && s <= 220 ? curveMps : 50 / 3.6));
 
     const speed = computeSpeedProfile({ segmentLengthM: lengths, limitMps: limits, accelerationMps2: 1, decelerationMps2: 1.2 });
 
     expect(Math.abs(totalTimeS(lengths, speed) - 47.62)).toBeLessThan(0.05);
-    // Braking for the curve starts near 119.62 m (DOMAIN §7 case B).
+    // Braking for the curve starts near 119.62 m (engine README §7 case B).
     expect(speed[118]).toBeCloseTo(50 / 3.6, 9);
     expect(speed[121]!).toBeLessThan(50 / 3.6);
   });
@@ -50,7 +50,7 @@ describe('computeSpeedProfile', () => {
         dragAreaM2: 5.6,
         maxTractionForceN: 60_000,
         tractionPowerW: 150_000,
-        airDensityKgPerM3: new Float64Array(n - 1).fill(1.225),
+        airDensityKgM3: new Float64Array(n - 1).fill(1.225),
         sinTheta: sin,
         cosTheta: cos,
       },

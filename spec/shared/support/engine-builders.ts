@@ -3,7 +3,7 @@ import type { VehicleInput } from '../../../shared/domain/analysis';
 import { geodesicDirect } from '../../../shared/engine/geodesy';
 
 /**
- * The 19 t bus of the DOMAIN notes' worked examples (§1.4, §3.3, §8 cases 6–8, 16):
+ * The 19 t bus of the engine README's worked examples (§1.4, §3.3, §8 cases 6–8, 16):
  * m 19 000 kg, Cr 0.007, Cd 0.7, A 8 m², η 0.889, aux 15 kW, δ = 1.
  */
 export function aWorkedExampleBus(overrides: Partial<VehicleInput> = {}): VehicleInput {

@@ -9,6 +9,7 @@ import { MatSelectHarness } from '@angular/material/select/testing';
 import { MatTableHarness } from '@angular/material/table/testing';
 import { provideRouter } from '@angular/router';
 import type { ReviewItem } from '@shared/domain/reviews';
+import { can, type Permission } from '@shared/domain/permissions';
 import type { Role } from '@shared/domain/roles';
 import { apiErrorInterceptor } from '../../../web/app/core/api-error-interceptor';
 import { Session } from '../../../web/app/core/session';
@@ -26,7 +27,7 @@ describe('ReviewQueue', () => {
         provideRouter([]),
         provideHttpClient(withInterceptors([apiErrorInterceptor])),
         provideHttpClientTesting(),
-        { provide: Session, useValue: { role, user: signal(null), clear: () => undefined } },
+        { provide: Session, useValue: { role, can: (permission: Permission) => can(role(), permission), user: signal(null), clear: () => undefined } },
       ],
     });
     httpTesting = TestBed.inject(HttpTestingController);

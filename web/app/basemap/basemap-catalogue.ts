@@ -47,7 +47,7 @@ export default class BasemapCatalogue {
 
   protected readonly imports = signal<BasemapImport[]>([]);
   protected readonly loadState = signal<LoadState>({ status: 'loading' });
-  protected readonly canManage = computed(() => ['analyst', 'admin'].includes(this.session.role() ?? ''));
+  protected readonly canManage = computed(() => this.session.can('basemap.manage'));
   protected readonly active = computed(() => this.imports().find((item) => item.active) ?? null);
   protected readonly running = computed(() => this.imports().filter((item) => item.status === 'queued' || item.status === 'importing'));
   protected readonly chosenFile = signal<File | null>(null);

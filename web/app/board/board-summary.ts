@@ -8,7 +8,7 @@ import type { RiskLevel } from '@shared/domain/analysis';
 import type { BoardSummary } from '@shared/domain/board-summary';
 import { describeApiError } from '../core/api-error-message';
 import { RiskChip } from '../ui/risk-chip';
-import { RISK_STYLES } from '../ui/risk-level';
+import { RISK_STYLES } from '@shared/presentation/index';
 import { QuantityPipe } from '../units/quantity-pipe';
 import { UnitPreference } from '../units/unit-preference';
 import { BOARD_SUMMARY_PDF_URL, BoardApi } from './board-api';

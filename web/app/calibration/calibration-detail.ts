@@ -52,7 +52,7 @@ export default class CalibrationDetail {
 
   protected readonly canDecide = computed(() => {
     const c = this.calibration();
-    return ['analyst', 'admin'].includes(this.session.role() ?? '') && c?.decision === null && c.status !== 'queued' && c.status !== 'running';
+    return this.session.can('calibration.edit') && c?.decision === null && c.status !== 'queued' && c.status !== 'running';
   });
   protected readonly isStaleFit = computed(() => {
     const c = this.calibration();

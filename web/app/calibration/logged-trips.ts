@@ -79,7 +79,7 @@ export default class LoggedTrips {
   protected readonly loadError = signal<string | null>(null);
   protected readonly isLoading = signal(true);
 
-  protected readonly canWrite = computed(() => ['analyst', 'admin'].includes(this.session.role() ?? ''));
+  protected readonly canWrite = computed(() => this.session.can('calibration.edit'));
 
   // Upload
   protected readonly file = signal<File | null>(null);

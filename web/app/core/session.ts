@@ -1,6 +1,7 @@
 import { HttpClient, HttpContext } from '@angular/common/http';
 import { Injectable, computed, inject, signal } from '@angular/core';
 import { sessionResponseSchema, userResponseSchema, type LoginRequest, type User } from '@shared/domain/auth';
+import { can, type Permission } from '@shared/domain/permissions';
 import { ROLE_LABELS, type Role } from '@shared/domain/roles';
 import { firstValueFrom } from 'rxjs';
 import { ERRORS_SHOWN_INLINE } from './api-error-message';
@@ -20,6 +21,14 @@ export class Session {
   readonly user = this._user.asReadonly();
   readonly status = this._status.asReadonly();
   readonly role = computed<Role | null>(() => this._user()?.role ?? null);
+  /**
+   * Whether the signed-in person holds `permission` (shared/domain/permissions.ts, the policy the
+   * API enforces). Reads the role signal, so it tracks sign-in and sign-out inside `computed`.
+   */
+  can(permission: Permission): boolean {
+    return can(this.role(), permission);
+  }
+
   readonly roleLabel = computed(() => {
     const role = this.role();
     return role ? ROLE_LABELS[role] : '';

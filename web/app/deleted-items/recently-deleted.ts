@@ -16,7 +16,8 @@ import { ROLE_LABELS } from '@shared/domain/roles';
 import { describeApiError } from '../core/api-error-message';
 import { Session } from '../core/session';
 import { DeletedItemsApi } from './deleted-items-api';
-import { RESTORERS, appLinkOf } from './restorers';
+import { RESTORE_PERMISSION, can, rolesWith } from '@shared/domain/permissions';
+import { appLinkOf } from './restorers';
 
 type LoadState = { status: 'loading' } | { status: 'error'; message: string } | { status: 'ready' };
 
@@ -58,8 +59,7 @@ export default class RecentlyDeleted {
 
   /** Whether the signed-in person may restore this kind. */
   protected mayRestore(item: DeletedItem): boolean {
-    const role = this.session.role();
-    return role !== null && RESTORERS[item.kind].includes(role);
+    return can(this.session.role(), RESTORE_PERMISSION[item.kind]);
   }
 
   protected kindLabel(item: DeletedItem): string {
@@ -68,7 +68,7 @@ export default class RecentlyDeleted {
 
   /** The roles that may restore the item, in words. */
   protected whoRestores(item: DeletedItem): string {
-    return RESTORERS[item.kind].map((role) => `${ROLE_LABELS[role].toLowerCase()}s`).join(' and ');
+    return rolesWith(RESTORE_PERMISSION[item.kind]).map((role) => `${ROLE_LABELS[role].toLowerCase()}s`).join(' and ');
   }
 
   protected async restore(item: DeletedItem): Promise<void> {

@@ -1,13 +1,4 @@
 import type { AuditedKind } from '@shared/domain/audit';
-import type { Role } from '@shared/domain/roles';
-
-/** Who may restore each kind: the roles that may change it (the API checks the same). */
-export const RESTORERS: Readonly<Record<AuditedKind, readonly Role[]>> = {
-  route: ['planner'],
-  scenario: ['planner', 'analyst'],
-  'vehicle-profile': ['analyst'],
-  terrain: ['analyst', 'admin'],
-};
 
 /** Where the restored thing is shown in the app. */
 export function appLinkOf(kind: AuditedKind, id: string): string[] {

@@ -1,6 +1,6 @@
 import { riskLevelSchema } from '@shared/domain/analysis';
 import { mitigationSchema } from '@shared/domain/reviews';
-import { RISK_STYLES } from '../ui/risk-level';
+import { RISK_STYLES } from '@shared/presentation/index';
 
 /** One line of an audit event's details, as a person reads it. */
 export interface AuditDetailLine {

@@ -1,3 +1,4 @@
+import { speedLimitRange } from '@shared/presentation/index';
 import { ChangeDetectionStrategy, Component, computed, inject, input, output, signal } from '@angular/core';
 import { toSignal } from '@angular/core/rxjs-interop';
 import { ReactiveFormsModule } from '@angular/forms';
@@ -77,6 +78,8 @@ export class ReviewActions {
 
   protected readonly actionLabels = ACTION_LABELS;
   protected readonly acceptMinLength = ACCEPT_REASON_MIN_LENGTH;
+  /** The speed cap is typed in km/h here, within the contract's range. */
+  protected readonly speedRange = speedLimitRange('metric');
   protected readonly allowed = computed(() => allowedReviewActions(this.item().state));
   /** The form open below the buttons, if any. */
   protected readonly openForm = signal<Exclude<ReviewAction, 'acknowledge'> | null>(null);

@@ -14,14 +14,14 @@ import { MatProgressBarModule } from '@angular/material/progress-bar';
 import { MatSnackBar } from '@angular/material/snack-bar';
 import { RouterLink } from '@angular/router';
 import { REVIEW_STATE_LABELS, currentRisk, type AuditEvent, type ReviewDetail, type ReviewItem } from '@shared/domain/reviews';
-import { BRAKE_RISK_BANDS_C } from '@shared/engine/descents';
-import { DistanceChart, withAlpha, type ChartBand, type ChartSeries } from '../charts/distance-chart';
+import { DistanceChart, type ChartBand, type ChartSeries } from '../charts/distance-chart';
 import { describeApiError } from '../core/api-error-message';
 import { Session } from '../core/session';
 import { TerrainMap, type MapOverlay, type MapPosition } from '../map/terrain-map';
 import { EngineeringCaution } from '../ui/engineering-caution';
 import { RiskChip } from '../ui/risk-chip';
-import { RISK_STYLES, riskRank } from '../ui/risk-level';
+import { RISK_STYLES, riskRank } from '@shared/presentation/index';
+import { brakeRiskBands } from '../charts/risk-bands';
 import { ReachedTemperaturePipe } from '../units/reached-temperature-pipe';
 import { QuantityPipe } from '../units/quantity-pipe';
 import { toDisplay, unitLabel } from '../units/unit-format';
@@ -70,7 +70,7 @@ export default class ReviewDetailPage {
   protected readonly riskStyles = RISK_STYLES;
   protected readonly stateLabels = REVIEW_STATE_LABELS;
   protected readonly directionLabels = DIRECTION_LABELS;
-  protected readonly canAct = computed(() => this.session.role() === 'safety');
+  protected readonly canAct = computed(() => this.session.can('reviews.act'));
 
   protected readonly loadState = signal<LoadState>({ status: 'loading' });
   protected readonly detail = signal<ReviewDetail | null>(null);
@@ -173,15 +173,7 @@ export default class ReviewDetailPage {
   protected readonly temperatureBands = computed<ChartBand[]>(() => {
     const item = this.item();
     if (!item) return [];
-    const units = this.units();
-    const bands = Object.values(BRAKE_RISK_BANDS_C).find((candidate) => candidate.high === item.fadeThresholdC);
-    if (!bands) return [];
-    const t = (c: number) => toDisplay('temperature', c, units);
-    return [
-      { from: t(bands.elevated), to: t(bands.high), color: withAlpha(RISK_STYLES.elevated.accent, 0.14), label: 'Elevated' },
-      { from: t(bands.high), to: t(bands.critical), color: withAlpha(RISK_STYLES.high.accent, 0.16), label: 'High: brakes fade' },
-      { from: t(bands.critical), to: t(bands.critical + 1_000), color: withAlpha(RISK_STYLES.critical.accent, 0.16), label: 'Critical' },
-    ];
+    return brakeRiskBands(item.fadeThresholdC, this.units());
   });
 
   constructor() {

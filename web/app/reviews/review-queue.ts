@@ -19,7 +19,7 @@ import { describeApiError } from '../core/api-error-message';
 import { Session } from '../core/session';
 import { EngineeringCaution } from '../ui/engineering-caution';
 import { RiskChip } from '../ui/risk-chip';
-import { RISK_LEVELS, RISK_STYLES, riskRank } from '../ui/risk-level';
+import { RISK_ORDER, RISK_STYLES, riskRank } from '@shared/presentation/index';
 import { ReachedTemperaturePipe } from '../units/reached-temperature-pipe';
 import { QuantityPipe } from '../units/quantity-pipe';
 import { UnitPreference } from '../units/unit-preference';
@@ -77,7 +77,7 @@ export default class ReviewQueue {
   private readonly paginator = viewChild.required(MatPaginator);
 
   protected readonly units = inject(UnitPreference).system;
-  protected readonly riskLevels = RISK_LEVELS;
+  protected readonly riskLevels = RISK_ORDER;
   protected readonly riskStyles = RISK_STYLES;
   protected readonly states = REVIEW_STATES;
   protected readonly stateLabels = REVIEW_STATE_LABELS;
@@ -89,7 +89,7 @@ export default class ReviewQueue {
     { initialValue: false },
   );
   protected readonly columns = computed(() => (this.isNarrow() ? NARROW_COLUMNS : ALL_COLUMNS));
-  protected readonly isSafetyOfficer = computed(() => this.session.role() === 'safety');
+  protected readonly isSafetyOfficer = computed(() => this.session.can('reviews.act'));
 
   protected readonly filterForm = new FormGroup({
     risk: new FormControl<RiskLevel | ''>('', { nonNullable: true }),

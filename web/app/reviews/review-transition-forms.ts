@@ -6,6 +6,7 @@ import {
   type ValidationErrors,
   type ValidatorFn,
 } from '@angular/forms';
+import { SPEED_LIMIT_KPH } from '@shared/domain/limits';
 import { reviewTransitionRequestSchema, type ReviewTransitionRequest } from '@shared/domain/reviews';
 
 /** Shortest reason a safety officer may give for accepting a risk (the contract's rule). */
@@ -39,7 +40,7 @@ export type MitigationForm = ReturnType<typeof mitigationForm>;
 export function mitigationForm() {
   return new FormGroup(
     {
-      descentSpeedCapKph: new FormControl<number | null>(null, [Validators.min(5), Validators.max(130)]),
+      descentSpeedCapKph: new FormControl<number | null>(null, [Validators.min(SPEED_LIMIT_KPH.min), Validators.max(SPEED_LIMIT_KPH.max)]),
       socCeilingPercent: new FormControl<number | null>(null, [Validators.min(5), Validators.max(100)]),
       vehicleRestriction: new FormControl('', { nonNullable: true, validators: [Validators.maxLength(500)] }),
       mandatoryRetarder: new FormControl(false, { nonNullable: true }),

@@ -35,6 +35,9 @@ import { BasemapTilesVersion } from '../map/basemap-tiles-version';
 import { TerrainMap, type MapOverlay, type MapOverlayEvent, type MapPosition } from '../map/terrain-map';
 import { QuantityPipe } from '../units/quantity-pipe';
 import { formatQuantity, fromDisplay, toDisplay, unitLabel } from '../units/unit-format';
+import { speedLimitValidator } from '../units/speed-limit-validator';
+import { DEFAULT_SPEED_LIMIT_KPH } from '@shared/domain/limits';
+import { displayToKph, isSpeedLimitKphAllowed, kphToDisplay, speedLimitRange } from '@shared/presentation/index';
 import { UnitPreference } from '../units/unit-preference';
 import { UnitSwitch } from '../units/unit-switch';
 import { RoadRoutesApi, type RoadNetwork, type RouteProfile, type RouteVersionInfo } from './road-routes-api';
@@ -160,7 +163,7 @@ export default class RouteEditor {
   protected readonly fitTo = signal<MapPosition[] | null>(null);
   protected readonly hoverX = signal<number | null>(null);
 
-  protected readonly isPlanner = computed(() => this.session.role() === 'planner');
+  protected readonly isPlanner = computed(() => this.session.can('routes.edit'));
   /** Whether this person may change what is on screen now. */
   protected readonly canEdit = computed(() => this.isPlanner() && this.olderVersion() === null);
   protected readonly vertices = computed(() => this.draft().vertices, { equal: (a, b) => a === b });
@@ -170,13 +173,16 @@ export default class RouteEditor {
     name: new FormControl('', { nonNullable: true, validators: [Validators.required, Validators.maxLength(120)] }),
     mode: new FormControl<(typeof ROUTE_MODES)[number]>('bus', { nonNullable: true }),
     description: new FormControl('', { nonNullable: true, validators: [Validators.maxLength(2000)] }),
-    defaultSpeedLimit: new FormControl(50, { nonNullable: true, validators: [Validators.required, Validators.min(3), Validators.max(130)] }),
+    defaultSpeedLimit: new FormControl(DEFAULT_SPEED_LIMIT_KPH, { nonNullable: true, validators: [Validators.required, speedLimitValidator(() => this.units())] }),
     tripsPerDay: new FormControl(0, { nonNullable: true, validators: [Validators.required, Validators.min(0), Validators.max(500)] }),
     serviceDaysPerYear: new FormControl(360, { nonNullable: true, validators: [Validators.required, Validators.min(0), Validators.max(366)] }),
   });
 
   /** Speed given to a stretch placed on the map, in the displayed unit. */
-  protected readonly newLimitSpeed = new FormControl(30, { nonNullable: true, validators: [Validators.min(3), Validators.max(130)] });
+  protected readonly newLimitSpeed = new FormControl(30, { nonNullable: true, validators: [speedLimitValidator(() => this.units())] });
+
+  /** The contract's speed-limit range in the displayed unit, for the inputs and their messages. */
+  protected readonly speedRange = computed(() => speedLimitRange(this.units()));
 
   /** How many vertices carry their own recorded elevation (an imported track), of how many. */
   protected readonly recorded = computed(() => recordedElevations(this.draft()));
@@ -534,8 +540,8 @@ export default class RouteEditor {
     const current = this.draft().speedLimits[index];
     if (!current) return;
     const next = { ...current, [field]: value };
-    if (next.toM <= next.fromM || next.speedKph < 5 || next.speedKph > 130) {
-      this.snackBar.open('A stretch must end after it starts, at 5 to 130 km/h.', 'Dismiss');
+    if (next.toM <= next.fromM || !isSpeedLimitKphAllowed(next.speedKph)) {
+      this.snackBar.open(`A stretch must end after it starts, at ${this.speedRange().span}.`, 'Dismiss');
       return;
     }
     this.edit((state) => updateSpeedLimit(state, index, { [field]: value }));
@@ -559,7 +565,7 @@ export default class RouteEditor {
   }
 
   protected speedShown(speedKph: number): string {
-    return String(Math.round(toDisplay('speed', speedKph / 3.6, this.units())));
+    return String(Math.round(kphToDisplay(speedKph, this.units())));
   }
 
   protected unit(quantity: 'distance' | 'speed'): string {
@@ -567,7 +573,7 @@ export default class RouteEditor {
   }
 
   private speedKphFromDisplay(shown: number): number {
-    return Math.round(fromDisplay('speed', shown, this.units()) * 3.6 * 10) / 10;
+    return Math.round(displayToKph(shown, this.units()) * 10) / 10;
   }
 
   // ---- Loading and saving ----
@@ -743,5 +749,5 @@ function pointAt(vertices: readonly LonLat[], atM: number): MapPosition | null {
 }
 
 function formatSpeed(speedKph: number, system: 'metric' | 'imperial'): string {
-  return `${Math.round(toDisplay('speed', speedKph / 3.6, system))} ${unitLabel('speed', system)}`;
+  return `${Math.round(kphToDisplay(speedKph, system))} ${unitLabel('speed', system)}`;
 }

@@ -3,10 +3,8 @@
  * results and compare screens draw the same quantities the same way.
  */
 import type { Profile } from '@shared/domain/analysis';
-import { BRAKE_RISK_BANDS_C } from '@shared/engine/descents';
-import type { ChartBand, ChartSeries } from '../charts/distance-chart';
+import type { ChartSeries } from '../charts/distance-chart';
 import { toDisplay, type UnitSystem } from '../units/unit-format';
-import { RISK_STYLES } from './risk-levels';
 
 /** Grade classes for the elevation shading, % (positive uphill). */
 const GRADE_SHADES: readonly { below: number; color: string }[] = [
@@ -76,25 +74,6 @@ export function socSeries(profile: Profile, system: UnitSystem, label: string, c
 
 export function brakeTemperatureSeries(profile: Profile, system: UnitSystem, label = 'Brake temperature', color = '#8e1b2c'): ChartSeries {
   return { label, x: distanceAxis(profile, system), y: profile.brakeTempC.map((c) => toDisplay('temperature', c, system)), color };
-}
-
-/**
- * Shaded brake-temperature risk bands. The brake type is read from the descents' fade threshold
- * (the "high" band edge); disc brakes when there is no descent to tell.
- */
-export function fadeBands(fadeThresholdC: number | undefined, system: UnitSystem): ChartBand[] {
-  const bands = fadeThresholdC === BRAKE_RISK_BANDS_C.drum.high ? BRAKE_RISK_BANDS_C.drum : BRAKE_RISK_BANDS_C.disc;
-  const t = (c: number) => toDisplay('temperature', c, system);
-  return [
-    { from: t(bands.elevated), to: t(bands.high), color: withOpacity(RISK_STYLES.elevated.background, 0.7), label: 'Elevated' },
-    { from: t(bands.high), to: t(bands.critical), color: withOpacity(RISK_STYLES.high.background, 0.8), label: 'High: fade likely' },
-    { from: t(bands.critical), to: t(bands.critical + 400), color: 'rgba(142, 27, 44, 0.22)', label: 'Critical' },
-  ];
-}
-
-function withOpacity(hex: string, alpha: number): string {
-  const value = Number.parseInt(hex.slice(1), 16);
-  return `rgba(${(value >> 16) & 255}, ${(value >> 8) & 255}, ${value & 255}, ${alpha})`;
 }
 
 /** Index of the profile point nearest `distanceM` (binary search; distances increase). */

@@ -24,7 +24,7 @@ import { unitLabel, type Quantity } from '../units/unit-format';
 import { UnitPreference } from '../units/unit-preference';
 import { UnitSwitch } from '../units/unit-switch';
 import { COMPARE_COLORS, brakeTemperatureSeries, elevationSeries, socSeries, speedSeries } from './result-series';
-import { DIRECTION_LABELS, describeLoad, describeSeason } from './scenario-labels';
+import { DIRECTION_LABELS, describeLoad, describeSeason } from '@shared/presentation/index';
 import { ScenariosApi } from './scenarios-api';
 
 type LoadState =

@@ -4,7 +4,7 @@
  */
 import type { Direction, Scenario, ScenarioDraftInput } from '@shared/domain/scenarios';
 import type { LoadCase, Season } from '@shared/domain/vehicle-profiles';
-import { fromDisplay, toDisplay, type UnitSystem } from '../units/unit-format';
+import { displayToKph, fromDisplay, kphToDisplay, toDisplay, type UnitSystem } from '../units/unit-format';
 
 export type LoadChoice = LoadCase | 'passengers';
 export type SeasonChoice = Season | 'custom';
@@ -73,7 +73,7 @@ export function toScenarioDraft(value: ScenarioFormValue, system: UnitSystem): S
       spacingM: value.spacingM,
       smoothingWindowM: value.smoothingWindowM,
       useStops: value.useStops,
-      ...(value.descentSpeedCap === null ? {} : { descentSpeedCapKph: round(fromDisplay('speed', value.descentSpeedCap, system) * 3.6, 1) }),
+      ...(value.descentSpeedCap === null ? {} : { descentSpeedCapKph: round(displayToKph(value.descentSpeedCap, system), 1) }),
     },
     inService: value.inService,
   };
@@ -99,7 +99,7 @@ export function toFormValue(scenario: Scenario, system: UnitSystem): ScenarioFor
     startSocPercent: round(scenario.startSoc * 100, 1),
     spacingM: scenario.options.spacingM,
     smoothingWindowM: scenario.options.smoothingWindowM,
-    descentSpeedCap: cap === undefined ? null : Math.round(toDisplay('speed', cap / 3.6, system)),
+    descentSpeedCap: cap === undefined ? null : Math.round(kphToDisplay(cap, system)),
     useStops: scenario.options.useStops,
     inService: scenario.inService,
   };

@@ -16,7 +16,9 @@ import { DIRECTIONS, type Direction } from '@shared/domain/scenarios';
 import type { VehicleProfile } from '@shared/domain/vehicle-profiles';
 import { describeApiError } from '../core/api-error-message';
 import { RoadRoutesApi, type RouteVersionInfo } from '../road-routes/road-routes-api';
+import { speedLimitRange } from '@shared/presentation/index';
 import { unitLabel } from '../units/unit-format';
+import { speedLimitValidator } from '../units/speed-limit-validator';
 import { UnitPreference } from '../units/unit-preference';
 import { VehicleProfilesApi } from '../vehicles/vehicle-profiles-api';
 import {
@@ -27,7 +29,7 @@ import {
   type ScenarioFormValue,
   type SeasonChoice,
 } from './scenario-form-model';
-import { DIRECTION_LABELS, LOAD_LABELS, SEASON_LABELS } from './scenario-labels';
+import { DIRECTION_LABELS, LOAD_LABELS, SEASON_LABELS } from '@shared/presentation/index';
 import { ScenariosApi } from './scenarios-api';
 
 /** Planners and analysts set up a scenario: route, direction, vehicle, load, season, SOC, options. */
@@ -62,6 +64,8 @@ export default class ScenarioForm {
   readonly routeId = input<string | undefined>();
 
   protected readonly units = inject(UnitPreference).system;
+  /** The contract's speed-limit range in the displayed unit, for the speed cap and its message. */
+  protected readonly speedRange = computed(() => speedLimitRange(this.units()));
   protected readonly directions = DIRECTIONS;
   protected readonly directionLabels = DIRECTION_LABELS;
   protected readonly loadChoices: readonly { value: LoadChoice; label: string }[] = [
@@ -98,7 +102,7 @@ export default class ScenarioForm {
     startSocPercent: new FormControl(DEFAULT_SCENARIO_FORM.startSocPercent, { nonNullable: true, validators: [Validators.required, Validators.min(0), Validators.max(100)] }),
     spacingM: new FormControl(DEFAULT_SCENARIO_FORM.spacingM, { nonNullable: true, validators: [Validators.required, Validators.min(1), Validators.max(200)] }),
     smoothingWindowM: new FormControl(DEFAULT_SCENARIO_FORM.smoothingWindowM, { nonNullable: true, validators: [Validators.required, Validators.min(0), Validators.max(5000)] }),
-    descentSpeedCap: new FormControl<number | null>(DEFAULT_SCENARIO_FORM.descentSpeedCap, { validators: [Validators.min(3), Validators.max(130)] }),
+    descentSpeedCap: new FormControl<number | null>(DEFAULT_SCENARIO_FORM.descentSpeedCap, { validators: [speedLimitValidator(() => this.units())] }),
     useStops: new FormControl(DEFAULT_SCENARIO_FORM.useStops, { nonNullable: true }),
     inService: new FormControl(DEFAULT_SCENARIO_FORM.inService, { nonNullable: true }),
   });

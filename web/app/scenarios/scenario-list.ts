@@ -13,8 +13,8 @@ import { describeApiError } from '../core/api-error-message';
 import { Session } from '../core/session';
 import { QuantityPipe } from '../units/quantity-pipe';
 import { UnitPreference } from '../units/unit-preference';
-import { RISK_ORDER, RISK_STYLES } from './risk-levels';
-import { DIRECTION_LABELS, STATUS_LABELS, describeLoad, describeSeason } from './scenario-labels';
+import { RISK_ORDER, RISK_STYLES } from '@shared/presentation/index';
+import { DIRECTION_LABELS, SCENARIO_STATUS_LABELS, describeLoad, describeSeason } from '@shared/presentation/index';
 import { ScenariosApi } from './scenarios-api';
 
 type LoadState = { status: 'loading' } | { status: 'error'; message: string } | { status: 'ready' };
@@ -49,7 +49,7 @@ export default class ScenarioList {
   protected readonly dataSource = new MatTableDataSource<Scenario>([]);
   protected readonly loadState = signal<LoadState>({ status: 'loading' });
   protected readonly selected = signal<readonly string[]>([]);
-  protected readonly canCreate = computed(() => ['planner', 'analyst'].includes(this.session.role() ?? ''));
+  protected readonly canCreate = computed(() => this.session.can('scenarios.edit'));
   protected readonly canCompare = computed(() => this.selected().length >= 2 && this.selected().length <= MAX_COMPARED);
 
   constructor() {
@@ -78,7 +78,7 @@ export default class ScenarioList {
   }
 
   protected statusLabel(scenario: Scenario): string {
-    return STATUS_LABELS[scenario.status];
+    return SCENARIO_STATUS_LABELS[scenario.status];
   }
 
   protected isSelected(id: string): boolean {

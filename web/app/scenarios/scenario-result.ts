@@ -27,7 +27,16 @@ import { confirmDelete } from '../ui/confirm-delete-dialog';
 import { TerrainMap, type MapOverlay, type MapPosition } from '../map/terrain-map';
 import { QuantityPipe } from '../units/quantity-pipe';
 import { fromDisplay, toDisplay, unitLabel } from '../units/unit-format';
-import { SUMMARY_FIGURES, formatFigure, formatSafeSpeed, formatSocLimit, formatTemperatureReached } from '@shared/presentation/index';
+import {
+  RISK_ORDER,
+  RISK_STYLES,
+  SUMMARY_FIGURES,
+  formatFigure,
+  formatSafeSpeed,
+  formatSocLimit,
+  formatTemperatureReached,
+  needsCaution,
+} from '@shared/presentation/index';
 import { UnitPreference } from '../units/unit-preference';
 import { UnitSwitch } from '../units/unit-switch';
 import {
@@ -35,13 +44,12 @@ import {
   batterySeries,
   brakeTemperatureSeries,
   elevationSeries,
-  fadeBands,
   forceSeries,
   nearestIndex,
   speedSeries,
 } from './result-series';
-import { RISK_ORDER, RISK_STYLES, needsCaution } from './risk-levels';
-import { DIRECTION_LABELS, STATUS_LABELS, describeLoad, describeSeason } from './scenario-labels';
+import { brakeRiskBands } from '../charts/risk-bands';
+import { DIRECTION_LABELS, SCENARIO_STATUS_LABELS, describeLoad, describeSeason } from '@shared/presentation/index';
 import { ScenariosApi } from './scenarios-api';
 
 type ResultState =
@@ -103,7 +111,7 @@ export default class ScenarioResultScreen {
 
   protected readonly units = inject(UnitPreference).system;
   protected readonly directionLabels = DIRECTION_LABELS;
-  protected readonly statusLabels = STATUS_LABELS;
+  protected readonly statusLabels = SCENARIO_STATUS_LABELS;
   protected readonly riskStyles = RISK_STYLES;
   protected readonly riskOrder = RISK_ORDER;
   protected readonly startColour = START_COLOUR;
@@ -119,10 +127,7 @@ export default class ScenarioResultScreen {
   protected readonly hoverX = signal<number | null>(null);
   protected readonly fitTo = signal<MapPosition[] | null>(null);
 
-  protected readonly canRun = computed(() => {
-    const role = this.session.role();
-    return role === 'planner' || role === 'analyst';
-  });
+  protected readonly canRun = computed(() => this.session.can('scenarios.edit'));
 
   protected readonly result = computed(() => {
     const state = this.resultState();
@@ -174,7 +179,7 @@ export default class ScenarioResultScreen {
       speed: [speedSeries(profile, system)],
       battery: batterySeries(profile, system),
       brake: [brakeTemperatureSeries(profile, system)] as ChartSeries[],
-      bands: fadeBands(direction.descents[0]?.fadeThresholdC, system),
+      bands: brakeRiskBands(direction.descents[0]?.fadeThresholdC, system),
     };
   });
 
@@ -191,7 +196,7 @@ export default class ScenarioResultScreen {
         kind: 'line',
         id: `descent:${index}`,
         positions: positions.slice(from, to + 1),
-        color: RISK_STYLES[descent.risk].stroke,
+        color: RISK_STYLES[descent.risk].accent,
         weight: 8,
         label: `Descent ${index + 1}: ${RISK_STYLES[descent.risk].label} risk`,
       });

@@ -57,8 +57,8 @@ export default class TerrainCatalogue {
   protected readonly selectedId = signal<string | null>(null);
   protected readonly selected = computed(() => this.models().find((model) => model.id === this.selectedId()) ?? null);
   /** Whether this person may upload and delete (analysts, administrators). */
-  protected readonly canManage = computed(() => ['analyst', 'admin'].includes(this.session.role() ?? ''));
-  protected readonly isAdmin = computed(() => this.session.role() === 'admin');
+  protected readonly canManage = computed(() => this.session.can('terrain.manage'));
+  protected readonly isAdmin = computed(() => this.session.can('terrain.force-delete'));
   protected readonly overlays = computed<MapOverlay[]>(() =>
     this.models()
       .filter((model) => model.footprint)

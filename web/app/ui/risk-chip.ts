@@ -1,6 +1,6 @@
 import { ChangeDetectionStrategy, Component, computed, input } from '@angular/core';
 import type { RiskLevel } from '@shared/domain/analysis';
-import { RISK_STYLES } from './risk-level';
+import { RISK_STYLES } from '@shared/presentation/index';
 
 /** A brake-fade risk level as a small coloured label; the word is always there, not just colour. */
 @Component({

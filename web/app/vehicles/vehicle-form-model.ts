@@ -5,7 +5,7 @@
  * metric/imperial choice through unit-format; everything else (power and energy in kW/kWh,
  * coefficients, percentages) reads the same in both. Pure data and functions, so the mapping and the messages are tested without a browser.
  */
-import type { VehicleProfile, VehicleProfileDraftInput } from '@shared/domain/vehicle-profiles';
+import type { VehicleProfileDraftInput } from '@shared/domain/vehicle-profiles';
 import { fromDisplay, toDisplay, unitLabel, type Quantity, type UnitSystem } from '../units/unit-format';
 
 export const VEHICLE_FIELD_GROUPS = [

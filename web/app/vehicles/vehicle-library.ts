@@ -83,7 +83,7 @@ export default class VehicleLibrary {
   private readonly session = inject(Session);
 
   protected readonly units = inject(UnitPreference).system;
-  protected readonly isAnalyst = computed(() => this.session.role() === 'analyst');
+  protected readonly isAnalyst = computed(() => this.session.can('vehicles.edit'));
   protected readonly profiles = signal<VehicleProfile[]>([]);
   protected readonly state = signal<LoadState>({ status: 'loading' });
   protected readonly sections = computed(() => [

@@ -88,8 +88,8 @@ export default class VehicleProfileEditor {
   protected readonly capabilityError = signal<string | null>(null);
 
   protected readonly isNew = computed(() => !this.vehicleProfileId());
-  protected readonly canEdit = computed(() => this.session.role() === 'analyst' && (this.isNew() || this.profile()?.isPreset === false));
-  protected readonly isAnalyst = computed(() => this.session.role() === 'analyst');
+  protected readonly canEdit = computed(() => this.session.can('vehicles.edit') && (this.isNew() || this.profile()?.isPreset === false));
+  protected readonly isAnalyst = computed(() => this.session.can('vehicles.edit'));
 
   protected readonly numbers = new FormGroup<NumberControls>(
     Object.fromEntries(VEHICLE_FIELDS.map((field) => [field.key, new FormControl<number | null>(null, [Validators.required, rangeValidator(field, () => this.shownUnits())])])),
