@@ -3,7 +3,7 @@
  * descent finds its existing item, when a rerun counts as worse, and which moves are allowed.
  */
 import type { Descent, RiskLevel } from '@shared/domain/analysis';
-import { REVIEW_TRANSITIONS, type ReviewAction, type ReviewState } from '@shared/domain/reviews';
+import { REVIEW_TRANSITIONS, governingRisk, type ReviewAction, type ReviewState } from '@shared/domain/reviews';
 import { ConflictError } from '../http/http-error';
 
 const RISK_RANK: Readonly<Record<RiskLevel, number>> = { low: 0, elevated: 1, high: 2, critical: 3 };
@@ -12,9 +12,9 @@ export function riskRank(risk: RiskLevel): number {
   return RISK_RANK[risk];
 }
 
-/** Whether a descent becomes a review item: "elevated" or worse. */
-export function needsReview(descent: Pick<Descent, 'risk'>): boolean {
-  return riskRank(descent.risk) >= RISK_RANK.elevated;
+/** Whether a descent becomes a review item: "elevated" or worse (its governing risk). */
+export function needsReview(descent: Parameters<typeof governingRisk>[0]): boolean {
+  return riskRank(governingRisk(descent)) >= RISK_RANK.elevated;
 }
 
 /** Whether a new item is urgent enough to e-mail the safety officers at once. */

@@ -10,7 +10,7 @@ import { RAW_VALUE_PATTERNS, readPdfWords, wordsOutsideMargins } from '../../sup
 import { syncReviewItems } from '../../../api/reviews/review-sync';
 import { aDescent, aDirectionResult, aRoute, aScenario, aSummary, aVehicleProfile } from '../../support/scenario-fixtures';
 import { sessionCookies } from '../../support/session-cookie';
-import { createTestContext } from '../../support/test-app';
+import { createTestContext, signedInAgent } from '../../support/test-app';
 import { truncateAll } from '../../support/test-database';
 
 const context = createTestContext();
@@ -84,6 +84,8 @@ describe('GET /api/board/summary', () => {
     const items = (await request(app).get('/api/reviews').query({ risk: 'elevated' }).set('Cookie', safety)).body.items;
     await request(app).post(`/api/reviews/${items[0].id}/transitions`).set('Cookie', safety).send({ action: 'acknowledge' });
     await request(app).post(`/api/reviews/${items[0].id}/transitions`).set('Cookie', safety).send({ action: 'accept', reason: 'Short stretch, drivers briefed' });
+    const second = await signedInAgent(app, db, 'safety');
+    await second.agent.post(`/api/reviews/${items[0].id}/transitions`).send({ action: 'sign-off' });
 
     const summary = boardSummarySchema.parse((await request(app).get('/api/board/summary').set('Cookie', await cookieFor('board'))).body);
 

@@ -77,18 +77,24 @@ describe('e-mail to safety officers about new high-risk descents', () => {
 });
 
 describe('e-mail to the planner when their scenario’s item is resolved', () => {
-  it('tells the scenario’s creator that the risk was accepted, with the reason and the link', async () => {
+  it('tells the scenario’s creator once the risk acceptance is signed off, with both officers, the reason and the link', async () => {
     const planner = await aPerson(db, { role: 'planner', name: 'Paul Planner' });
     const reviewId = await aRaisedItemOf(planner.id);
     const safetyCookie = await cookieOf((await aPerson(db, { role: 'safety', name: 'Sara Safety' })).id);
+    const secondCookie = await cookieOf((await aPerson(db, { role: 'safety', name: 'Sam Second' })).id);
 
     await transition(reviewId, safetyCookie, { action: 'acknowledge' });
     await transition(reviewId, safetyCookie, { action: 'accept', reason: 'Retarder fitted on every vehicle of this line' });
     await catcher.deliver();
+    const beforeSignOff = await catcher.lastMessageTo(planner.email);
+    await transition(reviewId, secondCookie, { action: 'sign-off' });
+    await catcher.deliver();
 
+    expect(beforeSignOff).toBeUndefined();
     const message = await catcher.lastMessageTo(planner.email);
     expect(message?.subject).toContain('Descent review risk accepted: Col road 12');
-    expect(message?.textBody).toContain('Sara Safety resolved a descent review item on your scenario');
+    expect(message?.textBody).toContain('Sam Second resolved a descent review item on your scenario');
+    expect(message?.textBody).toContain('proposed by Sara Safety and signed off by Sam Second');
     expect(message?.textBody).toContain('Retarder fitted on every vehicle of this line');
     expect(message?.textBody).toContain(`https://descentry.transit.example/reviews/${reviewId}`);
     expect(message?.textBody).toContain(ENGINEERING_CAUTION);
@@ -101,7 +107,8 @@ describe('e-mail to the planner when their scenario’s item is resolved', () =>
     const safetyCookie = await cookieOf((await aPerson(db, { role: 'safety' })).id);
 
     await transition(reviewId, safetyCookie, { action: 'acknowledge' });
-    await transition(reviewId, safetyCookie, { action: 'mitigate', mitigation: { vehicleRestriction: 'Midibuses only' } });
+    await transition(reviewId, safetyCookie, { action: 'accept', reason: 'Midibuses only on this line from May' });
+    await transition(reviewId, await cookieOf((await aPerson(db, { role: 'safety' })).id), { action: 'sign-off' });
     await catcher.deliver();
 
     expect(await catcher.lastMessageTo(planner.email)).toBeUndefined();

@@ -85,6 +85,25 @@ describe('review items from scenario runs', () => {
     expect(response.body.event.details.mitigatedPeakBrakeTempC).toBeLessThan(response.body.event.details.previousPeakBrakeTempC);
   });
 
+  it('refuses with 422 a mitigation whose re-run stays high, returns the re-run’s figures and leaves the item in review', async () => {
+    await aSavedScenario();
+    const [item] = await reviews();
+    const safety = await cookieFor('safety');
+    await request(app).post(`/api/reviews/${item!.id}/transitions`).set('Cookie', safety).send({ action: 'acknowledge' });
+
+    const response = await request(app)
+      .post(`/api/reviews/${item!.id}/transitions`)
+      .set('Cookie', safety)
+      .send({ action: 'mitigate', mitigation: { descentSpeedCapKph: 120, mandatoryRetarder: true } });
+
+    expect(response.status).toBe(422);
+    expect(response.body.error.code).toBe('mitigation_insufficient');
+    expect(response.body.error.message).toMatch(/still gives high risk/);
+    expect(response.body.error.details).toMatchObject({ riskBefore: 'high', riskAfter: 'high', belowElevated: false });
+    const [after] = await reviews();
+    expect(after).toMatchObject({ state: 'in-review', mitigation: null, mitigatedRisk: null });
+  });
+
   it('keeps a mitigated item closed on an unchanged rerun and reopens it when the planner makes the scenario harsher', async () => {
     const scenario = await aSavedScenario({ load: { kind: 'case', case: 'seated' } });
     const [item] = await reviews();

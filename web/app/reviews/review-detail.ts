@@ -8,6 +8,7 @@ import {
   signal,
   untracked,
 } from '@angular/core';
+import { DatePipe } from '@angular/common';
 import { MatButtonModule } from '@angular/material/button';
 import { MatIconModule } from '@angular/material/icon';
 import { MatProgressBarModule } from '@angular/material/progress-bar';
@@ -40,6 +41,7 @@ type LoadState = { status: 'loading' } | { status: 'error'; message: string } | 
 @Component({
   selector: 'app-review-detail',
   imports: [
+    DatePipe,
     ReachedTemperaturePipe,
     RouterLink,
     MatButtonModule,
