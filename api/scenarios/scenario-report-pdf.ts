@@ -12,6 +12,8 @@ import {
   DIRECTION_LABELS,
   RISK_LABELS,
   SUMMARY_FIGURES,
+  ADVICE_CAUTIONS,
+  ADVICE_CAUTIONS_TITLE,
   describeDescentAdvice,
   describeLoad,
   describeSeason,
@@ -95,6 +97,7 @@ export function scenarioReportPdf(scenario: Scenario, result: ScenarioResult, pr
       }),
       { rowColour: (row) => RISK_INK[descents[row]!.descent.risk] },
     );
+    page.cautionList(ADVICE_CAUTIONS_TITLE, ADVICE_CAUTIONS);
   }
 
   for (const direction of directions) {

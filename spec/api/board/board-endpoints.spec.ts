@@ -7,6 +7,7 @@ import { eq } from 'drizzle-orm';
 import { reviewItems, type ScenarioRow } from '../../../api/db/schema/index';
 import { MARGIN_PT } from '../../../api/pdf/pdf-layout';
 import { RAW_VALUE_PATTERNS, readPdfWords, wordsOutsideMargins } from '../../support/pdf-words';
+import { ADVICE_CAUTIONS } from '@shared/presentation/index';
 import { syncReviewItems } from '../../../api/reviews/review-sync';
 import { aDescent, aDirectionResult, aRoute, aScenario, aSummary, aVehicleProfile } from '../../support/scenario-fixtures';
 import { sessionCookies } from '../../support/session-cookie';
@@ -236,6 +237,7 @@ describe('the board summary as printed and read (issue 10)', () => {
     expect(text).toContain('High or critical risks accepted: 2 (2 high)');
     expect(text).toContain('Outbound, km 0.1–9.4');
     expect(text).toMatch(/Figures as of \d{1,2} [A-Z][a-z]+ \d{4}, \d\d:\d\d/);
+    for (const caution of ADVICE_CAUTIONS) expect(text).toContain(caution);
   });
 });
 

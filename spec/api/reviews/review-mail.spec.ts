@@ -1,7 +1,7 @@
 import request from 'supertest';
 import { afterAll, beforeAll, beforeEach, describe, expect, it } from 'vitest';
 import { describeDescentAdvice } from '@shared/presentation/descent-advice';
-import { ENGINEERING_CAUTION } from '@shared/engine/constants';
+import { adviceCautionsText } from '@shared/presentation/advice-cautions';
 import type { ScenarioRow } from '../../../api/db/schema/index';
 import { syncReviewItems } from '../../../api/reviews/review-sync';
 import { startMailCatcher } from '../../support/mail-catcher';
@@ -46,7 +46,8 @@ describe('e-mail to safety officers about new high-risk descents', () => {
     expect(body).toContain('start the descent at or below 55 % SOC');
     expect(body).toContain(`Advice: ${describeDescentAdvice({ speedAdvice: 'limit', maxSafeSpeedKph: 18.7, maxTopSoc: 0.55, fadeThresholdC: 0 }, 'metric').short}`);
     expect(body).toContain(`https://descentry.transit.example/reviews/${report.raised[0]}`);
-    expect(body).toContain(ENGINEERING_CAUTION);
+    expect(body).toContain(adviceCautionsText());
+    expect(body).toContain('Regeneration is not a fail-safe brake');
     expect(await catcher.lastMessageTo(second.email)).toBeDefined();
     expect(await catcher.lastMessageTo(disabled.email)).toBeUndefined();
     expect(await catcher.lastMessageTo(planner.email)).toBeUndefined();
@@ -97,7 +98,7 @@ describe('e-mail to the planner when their scenario’s item is resolved', () =>
     expect(message?.textBody).toContain('proposed by Sara Safety and signed off by Sam Second');
     expect(message?.textBody).toContain('Retarder fitted on every vehicle of this line');
     expect(message?.textBody).toContain(`https://descentry.transit.example/reviews/${reviewId}`);
-    expect(message?.textBody).toContain(ENGINEERING_CAUTION);
+    expect(message?.textBody).toContain(adviceCautionsText());
   });
 
   it('stays quiet for a planner who switched it off', async () => {

@@ -9,6 +9,7 @@ import { sessionCookies } from '../../support/session-cookie';
 import { countRows, truncateAll } from '../../support/test-database';
 import { aRouteDraft, eastwardLine } from '../../support/road-route-builders';
 import { RAW_VALUE_PATTERNS, readPdfWords, wordsOutsideMargins } from '../../support/pdf-words';
+import { ADVICE_CAUTIONS, ADVICE_CAUTIONS_TITLE } from '@shared/presentation/index';
 import { MARGIN_PT } from '../../../api/pdf/pdf-layout';
 import { SUMMARY_FIGURES, formatFigure } from '@shared/presentation/figures';
 import { profileCsvHeader } from '@shared/presentation/profile-columns';
@@ -316,6 +317,11 @@ describe('the PDF report as printed (issue 10)', () => {
     const cautionEnd = ENGINEERING_CAUTION.split(' ').slice(-4).join(' ');
     for (const text of pdf.text.filter((page) => page.includes(cautionStart))) expect(text).toContain(cautionEnd);
     for (const text of pdf.text) expect(text.split(' ').length).toBeGreaterThan(40);
+    // The advice cautions stand whole under the descents table, on one page.
+    const advicePage = pdf.text.find((page) => page.includes(ADVICE_CAUTIONS_TITLE));
+    expect(advicePage).toBeDefined();
+    for (const caution of ADVICE_CAUTIONS) expect(advicePage).toContain(caution);
+    expect(all.indexOf(ADVICE_CAUTIONS_TITLE)).toBeGreaterThan(all.indexOf('Advice (rounded toward safety)'));
   });
 });
 

@@ -20,6 +20,7 @@ import { DistanceChart, withAlpha, type ChartBand, type ChartSeries } from '../c
 import { describeApiError } from '../core/api-error-message';
 import { Session } from '../core/session';
 import { TerrainMap, type MapOverlay, type MapPosition } from '../map/terrain-map';
+import { AdviceCautions } from '../ui/advice-cautions';
 import { EngineeringCaution } from '../ui/engineering-caution';
 import { RiskChip } from '../ui/risk-chip';
 import { RISK_STYLES, riskRank } from '../ui/risk-level';
@@ -50,6 +51,7 @@ type LoadState = { status: 'loading' } | { status: 'error'; message: string } | 
     TerrainMap,
     DistanceChart,
     EngineeringCaution,
+    AdviceCautions,
     RiskChip,
     ReviewStateChip,
     ReviewActions,

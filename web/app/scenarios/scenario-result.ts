@@ -24,6 +24,7 @@ import { DistanceChart, type ChartSeries } from '../charts/distance-chart';
 import { describeApiError, apiErrorBody } from '../core/api-error-message';
 import { Session } from '../core/session';
 import { confirmDelete } from '../ui/confirm-delete-dialog';
+import { AdviceCautions } from '../ui/advice-cautions';
 import { TerrainMap, type MapOverlay, type MapPosition } from '../map/terrain-map';
 import { QuantityPipe } from '../units/quantity-pipe';
 import { fromDisplay, toDisplay, unitLabel } from '../units/unit-format';
@@ -74,6 +75,7 @@ const CARD_FIGURES: readonly string[] = [
 @Component({
   selector: 'app-scenario-result',
   imports: [
+    AdviceCautions,
     DatePipe,
     PercentPipe,
     RouterLink,
