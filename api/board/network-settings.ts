@@ -59,6 +59,23 @@ export async function saveNetworkSettings(db: Executor, admin: User, settings: N
   return readNetworkSettings(db);
 }
 
+/** The safety settings every scenario and network run analyses with (engine `options.safety`). */
+export async function readSafetySettings(db: Executor): Promise<NetworkSafetySettings> {
+  const settings = await readNetworkSettings(db);
+  return {
+    worstCaseAmbientC: settings.worstCaseAmbientC,
+    fadeMarginK: settings.fadeMarginK,
+    maxRoadGradePercent: settings.maxRoadGradePercent,
+    crawlSpeedKph: settings.crawlSpeedKph,
+    crawlDistanceM: settings.crawlDistanceM,
+  };
+}
+
+export type NetworkSafetySettings = Pick<
+  NetworkSettings,
+  'worstCaseAmbientC' | 'fadeMarginK' | 'maxRoadGradePercent' | 'crawlSpeedKph' | 'crawlDistanceM'
+>;
+
 /** Puts the placeholders in place when no row exists (demo seed); never overwrites an admin's figures. */
 export async function ensureNetworkSettings(db: Executor): Promise<void> {
   await db.insert(networkSettings).values({ key: 'network', ...PLACEHOLDER_NETWORK_SETTINGS }).onConflictDoNothing();

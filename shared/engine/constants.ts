@@ -4,7 +4,7 @@
  */
 
 /** Version of the calculation engine; stored with saved results so they can be re-run. */
-export const ENGINE_VERSION = '1.1.0';
+export const ENGINE_VERSION = '1.2.0';
 
 /** Standard acceleration of gravity, m/s². Exact by definition (3rd CGPM, 1901). */
 export const STANDARD_GRAVITY_MPS2 = 9.80665;
