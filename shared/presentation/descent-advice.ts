@@ -47,6 +47,13 @@ export function describeDescentAdvice(descent: AdviceFacts, system: UnitSystem):
         `Even at walking pace the friction brakes pass ${fade} on this descent. A lower speed alone cannot make it safe: ` +
         'it needs more regeneration, a retarder, a lower battery charge at the top or a vehicle restriction.';
       break;
+    case 'not-drivable':
+      speedHeadline = 'No speed advice: not drivable as drawn';
+      speedShort = 'no speed advice: part of the descent is not drivable as drawn';
+      speedExplanation =
+        'Part of this descent is steeper than the road design limit or the vehicle can climb or hold, or the vehicle ' +
+        'would crawl for a long stretch. The model does not hold there, so it gives no speed. Check the route and the terrain.';
+      break;
   }
   const soc = descent.maxTopSoc === null ? null : formatSocLimit(descent.maxTopSoc);
   const socHeadline = soc === null ? 'Battery charge is not the limit' : `Highest battery charge (SOC) at the top: ${soc}`;
