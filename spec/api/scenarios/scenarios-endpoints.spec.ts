@@ -9,7 +9,7 @@ import { sessionCookies } from '../../support/session-cookie';
 import { countRows, truncateAll } from '../../support/test-database';
 import { aRouteDraft, eastwardLine } from '../../support/road-route-builders';
 import { RAW_VALUE_PATTERNS, readPdfWords, wordsOutsideMargins } from '../../support/pdf-words';
-import { ADVICE_CAUTIONS, ADVICE_CAUTIONS_TITLE } from '@shared/presentation/index';
+import { ADVICE_CAUTIONS, ADVICE_CAUTIONS_TITLE, RISK_LABELS, formatSafeSpeed } from '@shared/presentation/index';
 import { MARGIN_PT } from '../../../api/pdf/pdf-layout';
 import { SUMMARY_FIGURES, formatFigure } from '@shared/presentation/figures';
 import { profileCsvHeader } from '@shared/presentation/profile-columns';
@@ -284,6 +284,56 @@ describe('exports', () => {
     expect(response.headers['content-type']).toBe('application/pdf');
     expect(response.headers['content-disposition']).toMatch(/spec-scenario\.pdf/);
     expect((response.body as Buffer).subarray(0, 5).toString()).toBe('%PDF-');
+  });
+});
+
+describe('GET /api/scenarios/:scenarioId/descent-cards.pdf', () => {
+  it('prints one A4 page per descent inside the margins, with worst-case advice, cautions, sign-off fields and the drivers warning', async () => {
+    const route = await aRoute({ name: 'Summit descent', geometry: eastwardLine({ lengthM: 6_000, dropM: 480 }) });
+    const scenario = (
+      await request(app).post('/api/scenarios').set('Cookie', planner).send(aScenarioDraft(route.id, { direction: 'round-trip', startSoc: 0.95 }))
+    ).body;
+    const result = scenarioResultSchema.parse((await request(app).get(`/api/scenarios/${scenario.id}/result`).set('Cookie', planner)).body);
+    const descents = result.directions.flatMap((direction) => direction.descents);
+
+    const pdf = readPdfWords(await downloadPdf(`/api/scenarios/${scenario.id}/descent-cards.pdf`));
+
+    expect(descents.length).toBeGreaterThan(0);
+    expect(pdf.pages).toHaveLength(descents.length);
+    for (const page of pdf.pages) expect([Math.round(page.width), Math.round(page.height)]).toEqual([595, 842]);
+    expect(wordsOutsideMargins(pdf, MARGIN_PT)).toEqual([]);
+    const first = descents[0]!;
+    const text = pdf.text[0]!;
+    for (const raw of RAW_VALUE_PATTERNS) expect(text).not.toMatch(raw);
+    expect(text).toContain('Descent card: Summit descent');
+    expect(text).toContain('Not for drivers without engineering sign-off.');
+    expect(text).toContain('Advice under the worst credible case');
+    expect(text).toContain(`Risk ${RISK_LABELS[first.risk]} (worst case)`);
+    if (first.worstCase?.speedAdvice === 'limit') {
+      expect(text).toContain(`At or below ${formatSafeSpeed(first.worstCase.maxSafeSpeedKph!, 'metric')} on the whole descent, even with regeneration lost.`);
+    }
+    expect(text).toContain('regeneration unavailable');
+    expect(text).toContain('Where to stop to cool');
+    expect(text).toMatch(/\d+ (m|km)/); // the scale bar
+    for (const caution of ADVICE_CAUTIONS) expect(text).toContain(caution);
+    for (const field of ['Checked by (licensed engineer)', 'Approved by (safety officer)', 'Issued to the depot by']) expect(text).toContain(field);
+  });
+
+  it('prints the one descent of a direction that covers a point, and answers 404 where there is none and 400 for half a choice', async () => {
+    const route = await aRoute({ name: 'Summit descent', geometry: eastwardLine({ lengthM: 6_000, dropM: 480 }) });
+    const scenario = (await request(app).post('/api/scenarios').set('Cookie', planner).send(aScenarioDraft(route.id, { startSoc: 0.95 }))).body;
+    const result = scenarioResultSchema.parse((await request(app).get(`/api/scenarios/${scenario.id}/result`).set('Cookie', planner)).body);
+    const descent = result.directions[0]!.descents[0]!;
+
+    const one = readPdfWords(await downloadPdf(`/api/scenarios/${scenario.id}/descent-cards.pdf?direction=outbound&atM=${(descent.startM + descent.endM) / 2}`));
+    const none = await request(app).get(`/api/scenarios/${scenario.id}/descent-cards.pdf`).query({ direction: 'inbound', atM: 10 }).set('Cookie', planner);
+    const half = await request(app).get(`/api/scenarios/${scenario.id}/descent-cards.pdf`).query({ direction: 'outbound' }).set('Cookie', planner);
+
+    expect(one.pages).toHaveLength(1);
+    expect(none.status).toBe(404);
+    expect(none.body.error.message).toContain('inbound descent');
+    expect(half.status).toBe(400);
+    expect(JSON.stringify(half.body.error)).toContain('atM');
   });
 });
 

@@ -35,6 +35,7 @@ import { ReviewActions } from './review-actions';
 import { DIRECTION_LABELS } from './direction-labels';
 import { ReviewStateChip } from './review-state-chip';
 import { ReviewsApi } from './reviews-api';
+import { descentCardsUrl } from '../scenarios/scenarios-api';
 
 type LoadState = { status: 'loading' } | { status: 'error'; message: string } | { status: 'ready' };
 
@@ -92,7 +93,15 @@ export default class ReviewDetailPage {
     const mitigation = this.item()?.mitigation;
     return mitigation ? describeMitigation(mitigation) : [];
   });
-  /** The risk that stands now: after a mitigation's re-run, that run's (see currentRisk). */
+  /** The printable card of this descent, from the scenario the item shows. */
+  protected readonly cardUrl = computed(() => {
+    const item = this.item();
+    if (!item) return '';
+    // Review items are kept per travelled direction; a round trip has no single card.
+    const direction = item.direction === 'inbound' ? 'inbound' : 'outbound';
+    return descentCardsUrl(item.scenarioId, { direction, atM: (item.startM + item.endM) / 2 });
+  });
+    /** The risk that stands now: after a mitigation's re-run, that run's (see currentRisk). */
   protected readonly risk = computed(() => {
     const item = this.item();
     return item ? currentRisk(item) : 'low';

@@ -43,7 +43,7 @@ import {
 } from './result-series';
 import { RISK_ORDER, RISK_STYLES, needsCaution } from './risk-levels';
 import { DIRECTION_LABELS, STATUS_LABELS, describeLoad, describeSeason } from './scenario-labels';
-import { ScenariosApi } from './scenarios-api';
+import { ScenariosApi, descentCardsUrl } from './scenarios-api';
 
 type ResultState =
   | { status: 'loading' }
@@ -261,6 +261,10 @@ export default class ScenarioResultScreen {
       // Expected: the server refused (the interceptor has shown why) or cannot be reached.
       this.loadError.set(describeApiError(error));
     }
+  }
+
+  protected cardsUrl(): string {
+    return descentCardsUrl(this.scenarioId());
   }
 
   protected exportUrl(kind: 'csv' | 'geojson' | 'pdf'): string {
