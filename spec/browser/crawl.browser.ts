@@ -21,7 +21,7 @@ const WIDE = { width: 1400, height: 900 };
 const NARROW = { width: 390, height: 844 };
 
 /** Router path (as written in the route files, joined with its parents) → an address to open. */
-type Ids = Record<'routeId' | 'reviewId' | 'batchRunId' | 'scenarioId' | 'vehicleProfileId', string>;
+type Ids = Record<'routeId' | 'reviewId' | 'batchRunId' | 'scenarioId' | 'vehicleProfileId' | 'tripVehicleId' | 'loggedTripId' | 'calibrationId', string>;
 const SIGNED_IN_PAGES: Record<string, (ids: Ids) => string> = {
   '': () => '/',
   routes: () => '/routes',
@@ -40,9 +40,15 @@ const SIGNED_IN_PAGES: Record<string, (ids: Ids) => string> = {
   vehicles: () => '/vehicles',
   'vehicles/new': () => '/vehicles/new',
   'vehicles/:vehicleProfileId': (ids) => `/vehicles/${ids.vehicleProfileId}`,
+  'vehicles/:vehicleProfileId/logged-trips': (ids) => `/vehicles/${ids.tripVehicleId}/logged-trips`,
+  'vehicles/:vehicleProfileId/logged-trips/:loggedTripId': (ids) => `/vehicles/${ids.tripVehicleId}/logged-trips/${ids.loggedTripId}`,
+  'vehicles/:vehicleProfileId/calibrations/:calibrationId': (ids) => `/vehicles/${ids.tripVehicleId}/calibrations/${ids.calibrationId}`,
   terrain: () => '/terrain',
+  'base-map': () => '/base-map',
+  deleted: () => '/deleted',
   'admin/people': () => '/admin/people',
   'admin/mail': () => '/admin/mail',
+  'admin/audit': () => '/admin/audit',
   'admin/network': () => '/admin/network',
   '**': () => '/no-such-page',
 };
@@ -199,12 +205,39 @@ async function demoIds(): Promise<Ids> {
       assert.ok(items[0], `the demo has something at ${path}`);
       return items[0].id;
     };
+    const list = async (path: string): Promise<{ id: string }[]> => {
+      const response = await browser.page.request.get(`${BASE_URL}${path}`);
+      assert.equal(response.status(), 200, `GET ${path}`);
+      return ((await response.json()) as { items: { id: string }[] }).items;
+    };
+    // The demo's logged trips belong to one vehicle; its calibration page needs a calibration,
+    // so the analyst asks for one when none exists yet (as a person would from that screen).
+    let trip: { tripVehicleId: string; loggedTripId: string } | undefined;
+    for (const vehicle of await list('/api/vehicles')) {
+      const trips = await list(`/api/vehicles/${vehicle.id}/logged-trips`);
+      if (trips[0]) {
+        trip = { tripVehicleId: vehicle.id, loggedTripId: trips[0].id };
+        break;
+      }
+    }
+    assert.ok(trip, 'the demo has a vehicle with logged trips');
+    let calibrationId = (await list(`/api/vehicles/${trip.tripVehicleId}/calibrations`))[0]?.id;
+    if (!calibrationId) {
+      const response = await browser.page.request.post(`${BASE_URL}/api/vehicles/${trip.tripVehicleId}/calibrations`, {
+        data: { loggedTripIds: [trip.loggedTripId] },
+        headers: { Origin: BASE_URL },
+      });
+      assert.equal(response.status(), 202, 'POST a calibration');
+      calibrationId = ((await response.json()) as { id: string }).id;
+    }
     return {
       routeId: await first('/api/routes'),
       reviewId: await first('/api/reviews'),
       batchRunId: await first('/api/batch-runs'),
       scenarioId: await first('/api/scenarios'),
       vehicleProfileId: await first('/api/vehicles'),
+      ...trip,
+      calibrationId,
     };
   } finally {
     await signOut(browser.page).catch(() => undefined);
