@@ -146,7 +146,9 @@ export class TerrainMap {
           if (!showBase) layer.remove();
         }
         // The terrain joins the map only once its tile URL carries the catalogue version (below).
-        if (showTerrain && this.tilesVersion.settled() && !map.hasLayer(this.tileLayer)) this.tileLayer.addTo(map);
+        if (showTerrain && this.tilesVersion.settled() && !map.hasLayer(this.tileLayer)) {
+          this.tileLayer.setUrl(terrainTileUrl(this.tilesVersion.version()), true).addTo(map);
+        }
         if (!showTerrain) this.tileLayer.remove();
         map.getContainer().classList.toggle('app-map-blended', showBase && showTerrain);
         this.layerControl?.update(version !== null, layers);
