@@ -221,17 +221,13 @@ export function descentAdhesion(model: RouteModel, run: RouteRun, range: Descent
     }
   }
   return {
-    surface: surfaceOf(model),
+    surface: model.surface,
     availableMu: mu,
     requiredMu: required,
     requiredAtM,
     sufficient: required <= mu,
     regenLimitedByAdhesion: regenLimited,
   };
-}
-
-function surfaceOf(model: RouteModel): Adhesion['surface'] {
-  return model.surface;
 }
 
 /** Stretches of the whole route that are not drivable as drawn (module comment). */

@@ -173,6 +173,19 @@ describe('versions and staleness', () => {
     expect(after).toMatchObject({ routeVersionPinned: true, routeVersion: 1, latestRouteVersion: 2, isStale: false, routeName: 'Spec line 1' });
   });
 
+  it('refuses with 400 a passenger count that takes the bus above its 19.5 t permissible gross mass, and writes nothing', async () => {
+    const route = await aRoute();
+    // 13 500 kg curb + 90 × 70 kg = 19 800 kg > 19 500 kg (two-axle bus limit of the preset).
+    const response = await request(app)
+      .post('/api/scenarios')
+      .set('Cookie', planner)
+      .send(aScenarioDraft(route.id, { load: { kind: 'passengers', passengers: 90 } }));
+
+    expect(response.status).toBe(400);
+    expect(response.body.error.message).toMatch(/load\.passengers: this load takes .* to 19800 kg, above its permissible gross mass of 19500 kg/);
+    expect(await countRows(db, 'scenarios')).toBe(0);
+  });
+
   it('marks the scenario stale after a vehicle-profile edit, and a re-run clears it', async () => {
     const analyst = await cookieFor('analyst');
     const preset = (await request(app).get(`/api/vehicles/${BUS}`).set('Cookie', analyst)).body;

@@ -281,12 +281,24 @@ export default class ScenarioResultScreen {
   /** Rounded down, as every output rounds advice (shared/presentation/safety-rounding). */
   protected speedAdvice(descent: Descent): string {
     if (descent.speedAdvice === 'no-limit-needed') return 'No limit needed';
+    if (descent.speedAdvice === 'not-drivable') return 'No advice: not drivable as drawn';
     if (descent.speedAdvice === 'not-holdable' || descent.maxSafeSpeedKph === null) return 'Not holdable on friction brakes';
     return formatSafeSpeed(descent.maxSafeSpeedKph, this.units());
   }
 
   protected socAdvice(descent: Descent): string {
-    return descent.maxTopSoc === null ? 'Regeneration cannot take it' : formatSocLimit(descent.maxTopSoc);
+    if (descent.maxTopSoc !== null) return formatSocLimit(descent.maxTopSoc);
+    switch (descent.maxTopSocReason) {
+      case 'no-soc-keeps-brakes-cool':
+        return 'None low enough';
+      case 'no-battery':
+      case 'no-regeneration':
+        return 'Plays no part';
+      case 'not-drivable':
+        return 'No advice';
+      default:
+        return 'Regeneration cannot take it';
+    }
   }
 
   protected peakTemperature(descent: Descent): string {
