@@ -89,11 +89,14 @@ describe('network summary: board member', () => {
  */
 async function acceptFirstHighRiskAsSafetyOfficer(): Promise<void> {
   const list = await withSafetyOfficer(signInAs, async (page) => {
-    const answer = await page.request.get(`${BASE_URL}/api/reviews?risk=high`);
-    return ((await answer.json()) as { items: { id: string; state: string }[] }).items;
+    // With the worst case, the demo's pass descents read critical rather than high.
+    const answer = await page.request.get(`${BASE_URL}/api/reviews`);
+    return ((await answer.json()) as { items: { id: string; state: string; risk: string }[] }).items.filter(
+      (candidate) => candidate.risk === 'high' || candidate.risk === 'critical',
+    );
   });
   const item = list[0];
-  assert.ok(item, 'the demo has a high-risk descent');
+  assert.ok(item, 'the demo has a high or critical descent');
   if (item.state === 'accepted') return;
   await withSafetyOfficer(signInAs, async (page) => {
     const transition = transitionOn(page, item.id);

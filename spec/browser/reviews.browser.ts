@@ -24,10 +24,10 @@ async function openQueue(page: Page): Promise<void> {
   await page.getByRole('table', { name: 'Review items' }).getByRole('row').nth(1).waitFor();
 }
 
-/** Opens the first high-risk item of the queue (the demo network has one on the ski shuttle). */
+/** Opens the first critical item of the queue (with regeneration lost, the demo's pass descents are critical). */
 async function openHighRiskItem(page: Page): Promise<void> {
   await page.getByRole('combobox', { name: 'Risk' }).click();
-  await page.getByRole('option', { name: 'High', exact: true }).click();
+  await page.getByRole('option', { name: 'Critical', exact: true }).click();
   const table = page.getByRole('table', { name: 'Review items' });
   await table.getByRole('row').nth(1).getByRole('link').first().click();
   await page.getByRole('heading', { level: 2, name: 'Audit trail' }).waitFor();
@@ -92,7 +92,7 @@ describe('descent review: safety officer', () => {
     assert.match(lastEventText, /Ilse Rautenberg/);
     assert.match(lastEventText, /In review[\s\S]*Mitigated/);
     assert.match(lastEventText, /Descent speed cap\s*10 km\/h/);
-    assert.match(lastEventText, /Risk before\s*High/);
+    assert.match(lastEventText, /Risk before\s*(High|Critical)/);
     await tallScreenshot(page, 'reviews-detail-after-mitigation');
   });
 
