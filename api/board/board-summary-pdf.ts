@@ -7,6 +7,8 @@
  */
 import type { BoardSummary } from '@shared/domain/board-summary';
 import {
+  ADVICE_CAUTIONS,
+  ADVICE_CAUTIONS_TITLE,
   DIRECTION_LABELS,
   RISK_LABELS,
   boardFigures,
@@ -111,7 +113,7 @@ export function renderBoardSummaryPdf(summary: BoardSummary): Promise<Buffer> {
   }
   page.paragraph(`Tariff ${formatTariff(settings.energyTariffPerKWh, settings.currency)}. Source: ${settings.tariffSource}`, { size: 7.5, colour: MUTED }, { gapAfter: 2 });
   page.paragraph(`Grid factor ${settings.gridEmissionFactorKgPerKWh} kg CO2 per kWh. Source: ${settings.emissionFactorSource}`, { size: 7.5, colour: MUTED });
-  page.cautionBox(`Caution: ${summary.caution}`, { size: 8 });
+  page.cautionList(ADVICE_CAUTIONS_TITLE, ADVICE_CAUTIONS, { size: 7.5 });
 
   return page.end();
 }

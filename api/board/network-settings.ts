@@ -2,6 +2,13 @@ import { eq } from 'drizzle-orm';
 import type { User } from '@shared/domain/auth';
 import type { NetworkSettings, NetworkSettingsView } from '@shared/domain/board-summary';
 import type { Executor } from '../db/client';
+import {
+  DEFAULT_CRAWL_DISTANCE_M,
+  DEFAULT_CRAWL_SPEED_KPH,
+  DEFAULT_FADE_MARGIN_K,
+  DEFAULT_MAX_ROAD_GRADE_PERCENT,
+  DEFAULT_WORST_CASE_AMBIENT_C,
+} from '@shared/engine/constants';
 import { networkSettings } from '../db/schema/index';
 
 /**
@@ -16,6 +23,11 @@ export const PLACEHOLDER_NETWORK_SETTINGS: NetworkSettings = {
   emissionFactorSource:
     'Illustrative placeholder, from memory and not checked: grid averages in Europe are of the order of 0.2–0.4 kg CO2 per kWh. ' +
     'Replace with your supplier’s or the national figure for the year and name its source here.',
+  worstCaseAmbientC: DEFAULT_WORST_CASE_AMBIENT_C,
+  fadeMarginK: DEFAULT_FADE_MARGIN_K,
+  maxRoadGradePercent: DEFAULT_MAX_ROAD_GRADE_PERCENT,
+  crawlSpeedKph: DEFAULT_CRAWL_SPEED_KPH,
+  crawlDistanceM: DEFAULT_CRAWL_DISTANCE_M,
 };
 
 export async function readNetworkSettings(db: Executor): Promise<NetworkSettingsView> {
@@ -27,6 +39,11 @@ export async function readNetworkSettings(db: Executor): Promise<NetworkSettings
     tariffSource: row.tariffSource,
     gridEmissionFactorKgPerKWh: row.gridEmissionFactorKgPerKWh,
     emissionFactorSource: row.emissionFactorSource,
+    worstCaseAmbientC: row.worstCaseAmbientC,
+    fadeMarginK: row.fadeMarginK,
+    maxRoadGradePercent: row.maxRoadGradePercent,
+    crawlSpeedKph: row.crawlSpeedKph,
+    crawlDistanceM: row.crawlDistanceM,
     isPlaceholder: row.updatedAt === null,
     updatedAt: row.updatedAt?.toISOString() ?? null,
     updatedByName: row.updatedByName ?? null,
@@ -41,6 +58,23 @@ export async function saveNetworkSettings(db: Executor, admin: User, settings: N
     .onConflictDoUpdate({ target: networkSettings.key, set: values });
   return readNetworkSettings(db);
 }
+
+/** The safety settings every scenario and network run analyses with (engine `options.safety`). */
+export async function readSafetySettings(db: Executor): Promise<NetworkSafetySettings> {
+  const settings = await readNetworkSettings(db);
+  return {
+    worstCaseAmbientC: settings.worstCaseAmbientC,
+    fadeMarginK: settings.fadeMarginK,
+    maxRoadGradePercent: settings.maxRoadGradePercent,
+    crawlSpeedKph: settings.crawlSpeedKph,
+    crawlDistanceM: settings.crawlDistanceM,
+  };
+}
+
+export type NetworkSafetySettings = Pick<
+  NetworkSettings,
+  'worstCaseAmbientC' | 'fadeMarginK' | 'maxRoadGradePercent' | 'crawlSpeedKph' | 'crawlDistanceM'
+>;
 
 /** Puts the placeholders in place when no row exists (demo seed); never overwrites an admin's figures. */
 export async function ensureNetworkSettings(db: Executor): Promise<void> {

@@ -6,7 +6,7 @@
  */
 import { and, desc, eq, isNotNull, lt, sql } from 'drizzle-orm';
 import type { AnyPgColumn } from 'drizzle-orm/pg-core';
-import type { AuditedKind } from '@shared/domain/audit';
+import type { RestorableKind } from '@shared/domain/audit';
 import { DELETED_RETENTION_DAYS, type DeletedItem } from '@shared/domain/deleted-items';
 import type { AppDeps } from '../app-deps';
 import { SYSTEM_ACTOR, recordAudit } from '../audit/audit-log';
@@ -20,7 +20,7 @@ import { purgeProfile } from '../vehicle-profiles/vehicle-profiles-repository';
 const DAY_MS = 86_400_000;
 
 interface DeletedRow {
-  kind: AuditedKind;
+  kind: RestorableKind;
   id: string;
   name: string;
   deletedAt: Date;
@@ -69,7 +69,7 @@ async function deletedRows(db: Executor, deletedBefore?: Date): Promise<DeletedR
     .select({ id: terrainModels.id, name: terrainModels.name, deletedAt: terrainModels.deletedAt, deletedBy: terrainModels.deletedByName })
     .from(terrainModels)
     .where(deletedCondition(terrainModels.deletedAt));
-  const plain = (kind: AuditedKind) => (row: { id: string; name: string; deletedAt: Date | null; deletedBy: string | null }): DeletedRow => ({
+  const plain = (kind: RestorableKind) => (row: { id: string; name: string; deletedAt: Date | null; deletedBy: string | null }): DeletedRow => ({
     kind,
     id: row.id,
     name: row.name,
@@ -98,7 +98,7 @@ async function deletedRows(db: Executor, deletedBefore?: Date): Promise<DeletedR
  */
 export async function purgeExpiredDeletes(deps: AppDeps, now = new Date()): Promise<number> {
   const expired = await deletedRows(deps.db, new Date(now.getTime() - DELETED_RETENTION_DAYS * DAY_MS));
-  const order: AuditedKind[] = ['scenario', 'route', 'vehicle-profile', 'terrain'];
+  const order: RestorableKind[] = ['scenario', 'route', 'vehicle-profile', 'terrain'];
   expired.sort((a, b) => order.indexOf(a.kind) - order.indexOf(b.kind));
   let purged = 0;
   for (const item of expired) {

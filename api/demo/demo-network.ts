@@ -73,7 +73,7 @@ const ROUTES: { key: string; onPassRoad: boolean; draft: Omit<RoadRouteDraftInpu
     onPassRoad: true,
     draft: {
       name: '4 Pass line: Korvel – Korvel Pass – Orren',
-      description: 'Over the Korvel pass (1 900 m): four switchback legs of 6.5–9 % on the south face, 7–8 % down to Orren.',
+      description: 'Over the Korvel pass (1 900 m): four switchback legs of 6–8 % on the south face, 7–8 % down to Orren.',
       mode: 'bus',
       defaultSpeedLimitKph: 60,
       speedLimits: [{ fromM: 0, toM: 1_500, speedKph: 30 }],
@@ -160,8 +160,16 @@ const OWN_PROFILES: { key: string; draft: VehicleProfileDraftInput }[] = [
       name: 'Highpass 12 m mountain bus (2025 order)',
       description: 'The authority’s 12 m battery bus with the larger 450 kWh pack and 200 kW regeneration ordered for the pass routes.',
       vehicleClass: 'battery-bus-12m',
-      vehicle: { ...presetVehicle('battery-bus-12m'), curbMassKg: 14_100, batteryCapacityWh: 450_000, maxChargePowerW: 225_000, regenPowerW: 200_000 },
-      loadsKg: { empty: 0, seated: 32 * 70, 'full-standing': 88 * 70 },
+      vehicle: {
+        ...presetVehicle('battery-bus-12m'),
+        curbMassKg: 14_100,
+        batteryCapacityWh: 450_000,
+        maxChargePowerW: 225_000,
+        regenPowerW: 200_000,
+        regenContinuousPowerW: 140_000,
+      },
+      // 19.5 t permissible (two-axle bus) − 14.1 t curb leaves 5.4 t: 77 passengers at 70 kg.
+      loadsKg: { empty: 0, seated: 32 * 70, 'full-standing': 77 * 70 },
       passengerMassKg: 70,
       // Korvel valley seasons (invented; from memory for an alpine valley at 700–1 900 m).
       seasons: { winter: { ambientC: -8, auxPowerW: 24_000 }, mild: { ambientC: 8, auxPowerW: 6_000 }, summer: { ambientC: 24, auxPowerW: 13_000 } },
@@ -173,7 +181,7 @@ const OWN_PROFILES: { key: string; draft: VehicleProfileDraftInput }[] = [
       name: 'Highpass midibus with braking resistor',
       description: 'Battery midibus retrofitted with a 90 kW braking resistor for the Skarnfeld shuttle.',
       vehicleClass: 'battery-midibus',
-      vehicle: { ...presetVehicle('battery-midibus'), retarderPowerW: 90_000 },
+      vehicle: { ...presetVehicle('battery-midibus'), retarderPowerW: 90_000, retarderType: 'braking-resistor' },
       loadsKg: { empty: 0, seated: 22 * 70, 'full-standing': 52 * 70 },
       passengerMassKg: 70,
       seasons: { winter: { ambientC: -8, auxPowerW: 13_000 }, mild: { ambientC: 8, auxPowerW: 3_500 }, summer: { ambientC: 24, auxPowerW: 8_000 } },

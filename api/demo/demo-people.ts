@@ -6,11 +6,15 @@ import { users } from '../db/schema/index';
 /** Demo sign-in password for every demo person. Demo data only: never in production. */
 export const DEMO_PASSWORD = 'descend-safely-2026';
 
-/** One invented person per role at the invented Highpass Valley Transit Authority. */
+/**
+ * One invented person per role at the invented Highpass Valley Transit Authority, and a second
+ * safety officer: accepting a risk takes two (one proposes, another signs off).
+ */
 export const DEMO_PEOPLE: ReadonlyArray<{ email: string; name: string; role: Role }> = [
   { email: 'planner@descentry.example', name: 'Mira Talvik', role: 'planner' },
   { email: 'analyst@descentry.example', name: 'Oskar Brenner', role: 'analyst' },
   { email: 'safety@descentry.example', name: 'Ilse Rautenberg', role: 'safety' },
+  { email: 'second.safety@descentry.example', name: 'Tomas Venzl', role: 'safety' },
   { email: 'board@descentry.example', name: 'Jonas Feldmoser', role: 'board' },
   { email: 'admin@descentry.example', name: 'Agnes Wyler', role: 'admin' },
 ];

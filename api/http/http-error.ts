@@ -42,3 +42,10 @@ export class ConflictError extends HttpError {
     super(409, code, message, details);
   }
 }
+
+/** The request is well-formed but what it asks for cannot be done (the message says why). */
+export class UnprocessableError extends HttpError {
+  constructor(message: string, code = 'unprocessable', details?: unknown) {
+    super(422, code, message, details);
+  }
+}

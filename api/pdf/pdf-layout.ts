@@ -167,6 +167,32 @@ export class PdfLayout {
     this.y += height + 8;
   }
 
+  /**
+   * A caution box with a bold title and one bulleted line per caution (the advice cautions of
+   * shared/presentation), kept whole on one page.
+   */
+  cautionList(title: string, cautions: readonly string[], { size = 8.5 } = {}): void {
+    const padding = 8;
+    const bulletIndent = 9;
+    const innerWidth = this.width - 2 * padding;
+    const titleHeight = this.measure(title, { size, bold: true }, innerWidth);
+    const itemHeights = cautions.map((caution) => this.measure(caution, { size }, innerWidth - bulletIndent));
+    const height = 2 * padding + titleHeight + itemHeights.reduce((sum, itemHeight) => sum + itemHeight + 2, 0);
+    this.ensureSpace(height);
+    this.doc.save().rect(this.left, this.y, this.width, height).lineWidth(1).fillAndStroke('#fff4e5', '#c2570c').restore();
+    let y = this.y + padding;
+    this.apply({ size, bold: true, colour: INK });
+    this.doc.text(printable(title), this.left + padding, y, { width: innerWidth });
+    y += titleHeight + 2;
+    cautions.forEach((caution, index) => {
+      this.apply({ size, colour: INK });
+      this.doc.text('\u2022', this.left + padding, y, { width: bulletIndent });
+      this.doc.text(printable(caution), this.left + padding + bulletIndent, y, { width: innerWidth - bulletIndent });
+      y += itemHeights[index]! + 2;
+    });
+    this.y += height + 8;
+  }
+
   /** Applies a text style to the document. */
   apply({ size = 10, bold = false, colour = INK }: TextStyle): void {
     this.doc.font(bold ? 'bold' : 'regular').fontSize(size).fillColor(colour);

@@ -5,10 +5,10 @@
  */
 import { and, eq, inArray } from 'drizzle-orm';
 import type { Descent } from '@shared/domain/analysis';
-import { ENGINEERING_CAUTION } from '@shared/engine/constants';
 import {
   DIRECTION_LABELS,
   RISK_LABELS,
+  adviceCautionsText,
   describeDescentAdvice,
   describeDescentPlace,
   formatStretch,
@@ -75,7 +75,7 @@ export async function notifyHighRiskDescent(tx: Executor, publicUrl: string, ite
         'Review it here:',
         reviewLink(publicUrl, item.id),
         '',
-        ENGINEERING_CAUTION,
+        adviceCautionsText(),
         '',
         'You receive this because you are a safety officer; switch it off under your notification settings.',
       ].join('\n'),
@@ -114,7 +114,7 @@ export async function notifyReviewResolved(
         'Details and audit trail:',
         reviewLink(publicUrl, item.id),
         '',
-        ENGINEERING_CAUTION,
+        adviceCautionsText(),
         '',
         'You receive this because you created the scenario; switch it off under your notification settings.',
       ].join('\n'),

@@ -41,7 +41,8 @@ export interface ReviewSyncReport {
 
 /** Actor name of events written by reruns rather than by a person. */
 export const RERUN_ACTOR = 'Descentry (scenario run)';
-const RESOLVED: readonly ReviewState[] = ['mitigated', 'accepted'];
+/** States a worse rerun reopens: decided ones, and an acceptance still waiting for its sign-off. */
+const RESOLVED: readonly ReviewState[] = ['mitigated', 'awaiting-sign-off', 'accepted'];
 
 /**
  * Raises, updates or reopens the review items of one scenario's result:

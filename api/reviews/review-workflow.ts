@@ -2,14 +2,16 @@
  * The rules of descent review, free of HTTP and SQL: which descents need review, how a rerun's
  * descent finds its existing item, when a rerun counts as worse, and which moves are allowed.
  */
-import type { Descent, RiskLevel } from '@shared/domain/analysis';
-import { REVIEW_TRANSITIONS, type ReviewAction, type ReviewState } from '@shared/domain/reviews';
-import { needsCaution, riskRank } from '@shared/presentation/risk-styles';
+import type { RiskLevel } from '@shared/domain/analysis';
+import { REVIEW_TRANSITIONS, governingRisk, type ReviewAction, type ReviewState } from '@shared/domain/reviews';
+import { isHighRisk, needsCaution, riskRank } from '@shared/presentation/risk-styles';
 import { ConflictError } from '../http/http-error';
 
-/** Whether a descent becomes a review item: "elevated" or worse, the levels that carry a caution. */
-export function needsReview(descent: Pick<Descent, 'risk'>): boolean {
-  return needsCaution(descent.risk);
+export { isHighRisk, riskRank };
+
+/** Whether a descent becomes a review item: "elevated" or worse (its governing risk), the levels that carry a caution. */
+export function needsReview(descent: Parameters<typeof governingRisk>[0]): boolean {
+  return needsCaution(governingRisk(descent));
 }
 
 /**

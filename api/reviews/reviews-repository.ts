@@ -78,6 +78,11 @@ export function toReviewItem(row: ReviewItemRow): ReviewItem {
     mitigatedRisk: row.mitigatedRisk ?? null,
     mitigatedPeakBrakeTempC: row.mitigatedPeakBrakeTempC ?? null,
     acceptanceReason: row.acceptanceReason ?? null,
+    acceptanceProposedById: row.acceptanceProposedById ?? null,
+    acceptanceProposedByName: row.acceptanceProposedByName ?? null,
+    acceptanceProposedAt: row.acceptanceProposedAt?.toISOString() ?? null,
+    acceptanceSignedOffByName: row.acceptanceSignedOffByName ?? null,
+    acceptanceSignedOffAt: row.acceptanceSignedOffAt?.toISOString() ?? null,
     raisedAt: row.raisedAt.toISOString(),
     updatedAt: row.updatedAt.toISOString(),
   };

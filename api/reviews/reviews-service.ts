@@ -10,10 +10,13 @@ import type {
   ReviewTransitionRequest,
   ReviewTransitionResult,
 } from '@shared/domain/reviews';
+import { MITIGATED_RISK_CEILING, currentRisk, governingRisk, hasModelledMeasure } from '@shared/domain/reviews';
+import { formatStretch } from '@shared/presentation/index';
 import type { DirectionResult } from '@shared/domain/scenarios';
 import { ENGINEERING_CAUTION } from '@shared/engine/constants';
 import type { AppDeps } from '../app-deps';
-import { NotFoundError } from '../http/http-error';
+import { recordAudit } from '../audit/audit-log';
+import { ForbiddenError, NotFoundError, UnprocessableError } from '../http/http-error';
 import { notifyReviewResolved } from './review-notifications';
 import { riskRank } from '@shared/presentation/risk-styles';
 import { matchStretches, nextState } from './review-workflow';
@@ -40,10 +43,17 @@ export async function listEvents(deps: AppDeps, reviewId: string): Promise<Audit
 }
 
 /**
- * Moves an item through the workflow and writes its audit event in one transaction. A
- * mitigation first re-runs the scenario with the measures applied (outside the transaction: the
- * engine takes a while) and records the risk before and after; the scenario itself keeps its own
- * inputs and stored result.
+ * Moves an item through the workflow and writes its audit event (and an audit-log entry) in one
+ * transaction. The rules that keep danger visible:
+ *
+ * - a mitigation must contain a measure the engine represents (speed cap, SOC ceiling); it is
+ *   re-run with the measures in place (outside the transaction: the engine takes a while), and
+ *   recorded only when the re-run's governing risk (the worst case's when the result has one)
+ *   is elevated or lower; otherwise 422 with the re-run's figures and nothing changes;
+ * - accepting a risk is a proposal with a reason; a second safety officer, never the proposer,
+ *   signs it off (or declines it back to review).
+ *
+ * The scenario itself keeps its own inputs and stored result.
  */
 export async function transitionReview(
   deps: AppDeps,
@@ -56,10 +66,19 @@ export async function transitionReview(
   if (!before) throw new NotFoundError('Review item');
   // Refuse an invalid move before spending time on a re-run.
   nextState(before.state, request.action);
+  if (request.action === 'mitigate' && !hasModelledMeasure(request.mitigation)) throw measureNotModelled();
+  if (request.action === 'sign-off') assertSecondOfficer(before, actor);
   const rerunOutcome =
-    request.action === 'mitigate' && request.rerun
-      ? await mitigatedRerunOutcome(deps, before, request.mitigation, rerun)
-      : undefined;
+    request.action === 'mitigate' ? await mitigatedRerunOutcome(deps, before, request.mitigation, rerun) : undefined;
+  if (rerunOutcome && riskRank(rerunOutcome.riskAfter) > riskRank(MITIGATED_RISK_CEILING)) {
+    throw new UnprocessableError(
+      `With this mitigation the re-run still gives ${rerunOutcome.riskAfter} risk; an item is mitigated only when the ` +
+        `re-run gives ${MITIGATED_RISK_CEILING} risk or lower. Strengthen the measure, or propose accepting the risk ` +
+        'with a reason for a second safety officer to sign off.',
+      'mitigation_insufficient',
+      mitigationDetails((request as Extract<ReviewTransitionRequest, { action: 'mitigate' }>).mitigation, rerunOutcome),
+    );
+  }
 
   return deps.db.transaction(async (tx) => {
     const item = await repository.findReviewItem(tx, reviewId, { lock: true });
@@ -78,51 +97,128 @@ export async function transitionReview(
         updated = await repository.updateReviewItem(tx, reviewId, {
           state: toState,
           mitigation: request.mitigation,
-          mitigatedRisk: rerunOutcome?.riskAfter ?? null,
-          mitigatedPeakBrakeTempC: rerunOutcome?.peakBrakeTempAfterC ?? null,
-          acceptanceReason: null,
+          mitigatedRisk: rerunOutcome!.riskAfter,
+          mitigatedPeakBrakeTempC: rerunOutcome!.peakBrakeTempAfterC,
+          ...NO_ACCEPTANCE,
         });
         event = await repository.insertReviewEvent(tx, {
           ...base,
           note: request.note ?? null,
-          details: mitigationDetails(request.mitigation, request.rerun, rerunOutcome),
+          details: mitigationDetails(request.mitigation, rerunOutcome!),
         });
         await notifyReviewResolved(tx, deps.config.PUBLIC_URL, updated, {
           by: actor.name,
-          text: [
-            `Mitigation: ${describeMitigation(request.mitigation)}.`,
-            rerunOutcome?.message ? `Re-run: ${rerunOutcome.message}` : '',
-          ]
-            .filter(Boolean)
-            .join('\n'),
+          text: [`Mitigation: ${describeMitigation(request.mitigation)}.`, `Re-run: ${rerunOutcome!.message}`].join('\n'),
         });
         break;
       case 'accept':
-        updated = await repository.updateReviewItem(tx, reviewId, { state: toState, acceptanceReason: request.reason });
-        event = await repository.insertReviewEvent(tx, { ...base, note: request.reason, details: { reason: request.reason } });
-        await notifyReviewResolved(tx, deps.config.PUBLIC_URL, updated, { by: actor.name, text: `Risk accepted: ${request.reason}` });
+        updated = await repository.updateReviewItem(tx, reviewId, {
+          state: toState,
+          ...NO_ACCEPTANCE,
+          acceptanceReason: request.reason,
+          acceptanceProposedById: actor.id,
+          acceptanceProposedByName: actor.name,
+          acceptanceProposedAt: new Date(),
+        });
+        event = await repository.insertReviewEvent(tx, {
+          ...base,
+          note: request.reason,
+          details: { reason: request.reason, awaiting: 'A second safety officer must sign off this acceptance' },
+        });
+        break;
+      case 'sign-off':
+        // Checked again under the lock: the proposal may have changed since the first read.
+        assertSecondOfficer(item, actor);
+        updated = await repository.updateReviewItem(tx, reviewId, {
+          state: toState,
+          acceptanceSignedOffById: actor.id,
+          acceptanceSignedOffByName: actor.name,
+          acceptanceSignedOffAt: new Date(),
+        });
+        event = await repository.insertReviewEvent(tx, {
+          ...base,
+          note: request.note ?? null,
+          details: { reason: item.acceptanceReason, proposedBy: item.acceptanceProposedByName, signedOffBy: actor.name },
+        });
+        await notifyReviewResolved(tx, deps.config.PUBLIC_URL, updated, {
+          by: actor.name,
+          text:
+            `Risk accepted, proposed by ${item.acceptanceProposedByName ?? 'a safety officer'} and signed off by ${actor.name}: ` +
+            `${item.acceptanceReason ?? ''}`,
+        });
+        break;
+      case 'decline':
+        updated = await repository.updateReviewItem(tx, reviewId, { state: toState, ...NO_ACCEPTANCE });
+        event = await repository.insertReviewEvent(tx, {
+          ...base,
+          note: request.note,
+          details: { declinedReason: item.acceptanceReason, proposedBy: item.acceptanceProposedByName },
+        });
         break;
       case 'reopen':
         updated = await repository.updateReviewItem(tx, reviewId, { state: toState });
         event = await repository.insertReviewEvent(tx, { ...base, note: request.note, details: null });
         break;
     }
+    await recordAudit(tx, actor, {
+      action: 'review-decision',
+      kind: 'review-item',
+      entityId: reviewId,
+      entityName: `${updated.routeName}, ${formatStretch(updated.startM, updated.endM, 'metric')}`,
+      details: {
+        move: request.action,
+        fromState: item.state,
+        toState,
+        risk: currentRisk(repository.toReviewItem(updated)),
+        note: event.note ?? null,
+      },
+    });
     return { item: repository.toReviewItem(updated), event: repository.toAuditEvent(event), caution: ENGINEERING_CAUTION };
   });
 }
 
+/** Clears a proposed or signed-off acceptance (a mitigation or a decline replaces it). */
+const NO_ACCEPTANCE = {
+  acceptanceReason: null,
+  acceptanceProposedById: null,
+  acceptanceProposedByName: null,
+  acceptanceProposedAt: null,
+  acceptanceSignedOffById: null,
+  acceptanceSignedOffByName: null,
+  acceptanceSignedOffAt: null,
+} as const;
+
+function measureNotModelled(): UnprocessableError {
+  return new UnprocessableError(
+    'A vehicle restriction or a mandatory retarder is not represented by the model, so a re-run cannot show that it ' +
+      'makes the descent safe. Add a descent speed cap or an SOC ceiling to re-run with, or propose accepting the risk ' +
+      'with a reason for a second safety officer to sign off.',
+    'measure_not_modelled',
+  );
+}
+
+/** A risk acceptance needs two people: the proposer cannot sign it off. */
+function assertSecondOfficer(item: { acceptanceProposedById: string | null }, actor: User): void {
+  if (item.acceptanceProposedById === actor.id) {
+    throw new ForbiddenError(
+      'You proposed this acceptance; a second safety officer must sign it off',
+      'second_officer_required',
+    );
+  }
+}
+
 export interface RerunOutcome {
-  performed: boolean;
-  scenarioId?: string;
+  scenarioId: string;
   /** Measures the engine applied; the others (restriction, retarder) are recorded, not modelled. */
-  applied?: { descentSpeedCapKph?: number; startSocCeiling?: number };
-  riskBefore?: RiskLevel;
-  riskAfter?: RiskLevel | null;
-  peakBrakeTempBeforeC?: number;
-  peakBrakeTempAfterC?: number | null;
-  maxSafeSpeedAfterKph?: number | null;
+  applied: { descentSpeedCapKph?: number; startSocCeiling?: number };
+  /** Governing risks (the worst case's where the result has one) before and after. */
+  riskBefore: RiskLevel;
+  riskAfter: RiskLevel;
+  peakBrakeTempBeforeC: number;
+  peakBrakeTempAfterC: number | null;
+  maxSafeSpeedAfterKph: number | null;
   /** Whether the mitigated re-run brings the descent below "elevated". */
-  belowElevated?: boolean;
+  belowElevated: boolean;
   message: string;
 }
 
@@ -136,21 +232,15 @@ async function mitigatedRerunOutcome(
     ...(mitigation.descentSpeedCapKph !== undefined ? { descentSpeedCapKph: mitigation.descentSpeedCapKph } : {}),
     ...(mitigation.socCeiling !== undefined ? { startSocCeiling: mitigation.socCeiling } : {}),
   };
-  if (Object.keys(applied).length === 0) {
-    return {
-      performed: false,
-      message: 'Not re-run: a vehicle restriction or a mandatory retarder is not modelled by the scenario; the measure is recorded as given',
-    };
-  }
+  if (Object.keys(applied).length === 0) throw measureNotModelled();
   const directions = await rerun(deps, item.scenarioId, applied);
   const direction = directions.find((candidate) => candidate.direction === item.direction);
   const [index] = matchStretches([item.descent], direction?.descents ?? []);
   const after: Descent | undefined = index !== undefined && index >= 0 ? direction!.descents[index] : undefined;
   const base = {
-    performed: true,
     scenarioId: item.scenarioId,
     applied,
-    riskBefore: item.risk,
+    riskBefore: governingRisk(item.descent),
     peakBrakeTempBeforeC: item.peakBrakeTempC,
   };
   if (!after) {
@@ -163,25 +253,25 @@ async function mitigatedRerunOutcome(
       message: 'With the mitigation the stretch no longer shows as a descent; the risk is below elevated',
     };
   }
-  const belowElevated = riskRank(after.risk) < riskRank('elevated');
+  const riskAfter = governingRisk(after);
+  const belowElevated = riskRank(riskAfter) < riskRank('elevated');
   return {
     ...base,
-    riskAfter: after.risk,
+    riskAfter,
     peakBrakeTempAfterC: after.peakBrakeTempC,
     maxSafeSpeedAfterKph: after.maxSafeSpeedKph,
     belowElevated,
     message:
-      `Risk ${item.risk} → ${after.risk}; peak brake temperature ${Math.round(item.peakBrakeTempC)} °C → ${Math.round(after.peakBrakeTempC)} °C. ` +
+      `Risk ${base.riskBefore} → ${riskAfter}; peak brake temperature ${Math.round(item.peakBrakeTempC)} °C → ${Math.round(after.peakBrakeTempC)} °C. ` +
       (belowElevated ? 'The mitigation brings the risk below elevated.' : 'The risk stays at elevated or above.'),
   };
 }
 
 /** Flat keys, so the audit trail reads as labelled lines (risk before/after, temperatures). */
-function mitigationDetails(mitigation: Mitigation, rerunRequested: boolean, outcome: RerunOutcome | undefined): Record<string, unknown> {
-  if (!outcome) return { mitigation, rerun: rerunRequested, rerunStatus: 'Not re-run: the safety officer asked for no re-run' };
+function mitigationDetails(mitigation: Mitigation, outcome: RerunOutcome): Record<string, unknown> {
   return {
     mitigation,
-    rerun: rerunRequested,
+    rerun: true,
     rerunStatus: outcome.message,
     scenarioId: outcome.scenarioId,
     riskBefore: outcome.riskBefore,

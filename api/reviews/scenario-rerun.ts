@@ -9,6 +9,7 @@ import type { AppDeps } from '../app-deps';
 import { analyserOf } from '../app-services';
 import { ConflictError, NotFoundError } from '../http/http-error';
 import * as routes from '../road-routes/road-routes-repository';
+import { readSafetySettings } from '../board/network-settings';
 import { runScenario } from '../scenarios/scenario-run';
 import { findScenarioRow } from '../scenarios/scenarios-repository';
 import * as profiles from '../vehicle-profiles/vehicle-profiles-repository';
@@ -43,7 +44,7 @@ export const rerunWithMitigation: MitigatedRerun = async (deps, scenarioId, over
     startSoc: overrides.startSocCeiling === undefined ? row.startSoc : Math.min(row.startSoc, overrides.startSocCeiling),
     options: { ...row.options, ...(cap === undefined ? {} : { descentSpeedCapKph: cap }) },
   };
-  const outcome = await runScenario(routeVersion, profiles.toVehicleProfile(profileRow), settings, analyserOf(deps));
+  const outcome = await runScenario(routeVersion, profiles.toVehicleProfile(profileRow), settings, analyserOf(deps), await readSafetySettings(deps.db));
   if (!outcome.ok) {
     throw new ConflictError(`The mitigated re-run could not be computed: ${outcome.failureReason}`, 'rerun_failed');
   }

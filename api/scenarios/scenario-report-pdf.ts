@@ -13,6 +13,8 @@ import {
   RISK_LABELS,
   RISK_STYLES,
   SUMMARY_FIGURES,
+  ADVICE_CAUTIONS,
+  ADVICE_CAUTIONS_TITLE,
   describeDescentAdvice,
   describeLoad,
   describeSeason,
@@ -95,6 +97,7 @@ export function scenarioReportPdf(scenario: Scenario, result: ScenarioResult, pr
       }),
       { rowColour: (row) => RISK_STYLES[descents[row]!.descent.risk].ink },
     );
+    page.cautionList(ADVICE_CAUTIONS_TITLE, ADVICE_CAUTIONS);
   }
 
   for (const direction of directions) {

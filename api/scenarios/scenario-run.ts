@@ -24,6 +24,7 @@ import { ENGINE_VERSION } from '@shared/engine/constants';
 import { combineDirections } from '@shared/engine/summary';
 import { EngineInputError, UncoveredTerrainError } from '@shared/engine/validation';
 import type { RouteAnalyser } from '../analysis/analysis-pool';
+import type { NetworkSafetySettings } from '../board/network-settings';
 import type { RouteVersion } from '../road-routes/road-routes-repository';
 import { engineSpeedLimits, mirrorRoute } from '../road-routes/route-geometry';
 
@@ -53,6 +54,7 @@ export function directionRequest(
   settings: ScenarioSettings,
   startSoc: number,
   initialBrakeTempC?: number,
+  safety?: NetworkSafetySettings,
 ): PreviewRequestInput {
   const line = direction === 'outbound' ? route : mirrorRoute(route);
   const { payloadKg, ambientC, auxPowerW } = resolveLoadAndSeason(profile, settings);
@@ -69,8 +71,18 @@ export function directionRequest(
       stops: options.useStops
         ? line.stops.filter((stop) => stop.atM <= route.lengthM).map((stop) => ({ atM: stop.atM, dwellS: stop.dwellS, name: stop.name }))
         : [],
+      safety: { ...(safety ?? {}), worstCaseMassKg: heaviestMassKg(profile) },
     },
   };
+}
+
+/**
+ * Heaviest mass of a profile's worst credible case, kg: its permissible gross mass when stated,
+ * and never less than its own heaviest load case.
+ */
+export function heaviestMassKg(profile: VehicleProfile): number {
+  const heaviestLoad = Math.max(profile.loadsKg.empty, profile.loadsKg.seated, profile.loadsKg['full-standing']);
+  return Math.max(profile.vehicle.permissibleGrossMassKg ?? 0, profile.vehicle.curbMassKg + heaviestLoad);
 }
 
 export async function runScenario(
@@ -78,6 +90,7 @@ export async function runScenario(
   profile: VehicleProfile,
   settings: ScenarioSettings,
   analyse: RouteAnalyser,
+  safety?: NetworkSafetySettings,
 ): Promise<RunOutcome> {
   const inputs: RunInputs = { directions: [] };
   const order: ('outbound' | 'inbound')[] =
@@ -104,7 +117,7 @@ export async function runScenario(
       inputs.layover = { durationS: settings.options.layoverS, brakeTempBeforeC: before, brakeTempAfterC: after, ambientC };
       initialBrakeTempC = after;
     }
-    const request = directionRequest(route, direction, profile, settings, startSoc, initialBrakeTempC);
+    const request = directionRequest(route, direction, profile, settings, startSoc, initialBrakeTempC, safety);
     inputs.directions.push({ direction, request });
     try {
       const response = await analyse(request);

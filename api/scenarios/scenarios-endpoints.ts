@@ -1,5 +1,6 @@
 import { rolesWith } from '@shared/domain/permissions';
 import {
+  descentCardsQuerySchema,
   scenarioCompareQuerySchema,
   scenarioComparisonSchema,
   scenarioDraftSchema,
@@ -18,6 +19,8 @@ import * as profiles from '../vehicle-profiles/vehicle-profiles-repository';
 import * as repository from './scenarios-repository';
 import { scenarioCsv, scenarioGeoJson } from './scenario-exports';
 import { scenarioReportPdf } from './scenario-report-pdf';
+import { cardDescentsOf, descentCardsPdf } from './descent-card-pdf';
+import { NotFoundError } from '../http/http-error';
 import * as service from './scenarios-service';
 
 const TAG = 'Scenarios';
@@ -197,6 +200,38 @@ export function scenarioEndpoints(deps: AppDeps) {
         const profileRow = await profiles.findProfile(deps.db, scenario.vehicleProfileId);
         const pdf = await scenarioReportPdf(scenario, result, profileRow ? profiles.toVehicleProfile(profileRow) : undefined);
         res.attachment(attachmentName(scenario.name, 'pdf')).type('application/pdf').send(pdf);
+      },
+    }),
+    endpoint({
+      method: 'get',
+      path: '/api/scenarios/:scenarioId/descent-cards.pdf',
+      summary:
+        'Descent cards for the depot, one A4 page per descent: the line, its profile, worst-case speed and retarder advice, ' +
+        'where to stop to cool, cautions and sign-off fields (not for drivers without engineering sign-off)',
+      tag: TAG,
+      access: 'signed-in',
+      heavy: true,
+      params: scenarioIdParamsSchema,
+      query: descentCardsQuerySchema,
+      responses: {
+        200: { description: 'PDF (attachment)', contentType: 'application/pdf' },
+        404: { description: 'No such scenario, no stored result, or no descent there' },
+      },
+      handler: async ({ params, query, res }) => {
+        const scenario = await service.getScenario(deps.db, params.scenarioId);
+        const result = await service.getResult(deps.db, params.scenarioId);
+        const profileRow = await profiles.findProfile(deps.db, scenario.vehicleProfileId);
+        const all = cardDescentsOf(result.directions);
+        const cards =
+          query.direction === undefined
+            ? all
+            : all.filter((card) => card.direction === query.direction && card.descent.startM <= query.atM! && query.atM! <= card.descent.endM);
+        if (cards.length === 0) {
+          throw new NotFoundError(query.direction === undefined ? 'A descent in this scenario’s result' : `A ${query.direction} descent at ${Math.round(query.atM!)} m`);
+        }
+        const retarderType = (profileRow ? profiles.toVehicleProfile(profileRow).vehicle.retarderType : undefined) ?? 'none';
+        const pdf = await descentCardsPdf({ scenario, result, retarderType }, cards);
+        res.attachment(attachmentName(`${scenario.name} descent cards`, 'pdf')).type('application/pdf').send(pdf);
       },
     }),
   ];

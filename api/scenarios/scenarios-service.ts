@@ -1,6 +1,7 @@
 import type { User } from '@shared/domain/auth';
 import type { RiskLevel } from '@shared/domain/analysis';
 import type { Scenario, ScenarioDraft, ScenarioResult } from '@shared/domain/scenarios';
+import type { VehicleProfile } from '@shared/domain/vehicle-profiles';
 import { ENGINEERING_CAUTION } from '@shared/engine/constants';
 import type { AppDeps } from '../app-deps';
 import { analyserOf } from '../app-services';
@@ -12,7 +13,8 @@ import { replaceScenarioTerrainUse } from '../terrain/terrain-repository';
 import * as routes from '../road-routes/road-routes-repository';
 import * as profiles from '../vehicle-profiles/vehicle-profiles-repository';
 import * as repository from './scenarios-repository';
-import { runScenario } from './scenario-run';
+import { readSafetySettings } from '../board/network-settings';
+import { resolveLoadAndSeason, runScenario } from './scenario-run';
 
 /** Route version and vehicle profile a draft refers to; 400 naming the field when either is missing. */
 async function resolveReferences(db: Database, draft: ScenarioDraft) {
@@ -25,7 +27,23 @@ async function resolveReferences(db: Database, draft: ScenarioDraft) {
   }
   const profileRow = await profiles.findProfile(db, draft.vehicleProfileId);
   if (!profileRow) throw new BadRequestError(`vehicleProfileId: no vehicle profile ${draft.vehicleProfileId}`, { field: 'vehicleProfileId' });
+  assertWithinPermissibleMass(profiles.toVehicleProfile(profileRow), draft);
   return { routeVersion, profileRow, pinned: draft.routeVersion !== undefined };
+}
+
+/** 400 naming the load when the scenario's load takes the vehicle above its permissible gross mass. */
+function assertWithinPermissibleMass(profile: VehicleProfile, draft: ScenarioDraft): void {
+  const limitKg = profile.vehicle.permissibleGrossMassKg;
+  if (limitKg === undefined) return;
+  const { payloadKg } = resolveLoadAndSeason(profile, draft);
+  const massKg = profile.vehicle.curbMassKg + payloadKg;
+  if (massKg <= limitKg + 1e-6) return;
+  const field = draft.load.kind === 'passengers' ? 'load.passengers' : 'load.case';
+  throw new BadRequestError(
+    `${field}: this load takes ${profile.name} to ${Math.round(massKg)} kg, above its permissible gross mass of ` +
+      `${Math.round(limitKg)} kg; carry fewer passengers or choose a lighter load case`,
+    { field, massKg, permissibleGrossMassKg: limitKg },
+  );
 }
 
 /** Computes and stores the result of a saved scenario (synchronous: a 50 km route takes milliseconds). */
@@ -46,7 +64,7 @@ async function computeAndStore(deps: AppDeps, scenarioId: string): Promise<void>
   };
   let outcome;
   try {
-    outcome = await runScenario(routeVersion, profile, row, analyserOf(deps));
+    outcome = await runScenario(routeVersion, profile, row, analyserOf(deps), await readSafetySettings(db));
   } catch (error) {
     // Busy analysis threads: the run did not happen; say so and keep the last good result.
     if (error instanceof HttpError && error.status === 503) {

@@ -17,6 +17,11 @@ import {
   DEFAULT_MAX_GAP_FILL_M,
   DEFAULT_SMOOTHING_WINDOW_M,
   DEFAULT_SPACING_M,
+  DEFAULT_CRAWL_DISTANCE_M,
+  DEFAULT_CRAWL_SPEED_KPH,
+  DEFAULT_FADE_MARGIN_K,
+  DEFAULT_MAX_ROAD_GRADE_PERCENT,
+  DEFAULT_WORST_CASE_AMBIENT_C,
 } from '../engine/constants';
 
 const efficiency = z.number().gt(0).lte(1);
@@ -25,6 +30,18 @@ const share = z.number().min(0).max(1);
 /** Friction brake construction; selects the fade bands used for the risk level. */
 export const brakeTypeSchema = z.enum(['disc', 'drum']);
 export type BrakeType = z.infer<typeof brakeTypeSchema>;
+
+/**
+ * The endurance brake besides regeneration. A braking resistor is fed by the traction motor, so it
+ * shares the motor's force and power envelope; a hydrodynamic or eddy-current retarder is a
+ * machine of its own with a force that falls away at low speed.
+ */
+export const retarderTypeSchema = z.enum(['none', 'braking-resistor', 'hydrodynamic', 'eddy-current']);
+export type RetarderType = z.infer<typeof retarderTypeSchema>;
+
+/** Road vehicles run on tyres, rail vehicles on steel wheels; selects the adhesion table. */
+export const runningGearSchema = z.enum(['road', 'rail']);
+export type RunningGear = z.infer<typeof runningGearSchema>;
 
 /** Where traction energy comes from and regenerated energy goes. */
 export const powerSourceSchema = z.enum(['battery', 'overhead-line']);
@@ -68,6 +85,27 @@ export const vehicleSchema = z
     brakeEmissivity: share.default(0.6),
     /** Endurance brake (retarder or braking resistor) power limit at the wheel, W; 0 = none. */
     retarderPowerW: z.number().min(0).max(5e6).default(0),
+    /**
+     * Kind of endurance brake. Absent: a braking resistor when `retarderPowerW` > 0, else none
+     * (a resistor is the cautious reading: it can never brake beyond the motor).
+     */
+    retarderType: retarderTypeSchema.optional(),
+    /**
+     * Regenerative braking power the machine can hold indefinitely, W. Absent: the peak rating
+     * `regenPowerW` (no derating). Must not exceed `regenPowerW`.
+     */
+    regenContinuousPowerW: z.number().min(0).max(5e6).optional(),
+    /** How long the peak regeneration rating may be held before the continuous rating applies, s. */
+    regenPeakHoldS: z.number().min(0).max(3_600).default(60),
+    /** Share of the vehicle's weight on the driven (motored) axles; caps regeneration by adhesion. */
+    drivenAxleLoadShare: share.default(0.6),
+    /** Share of the friction braking done by the rear brake group. */
+    rearBrakeShare: share.default(0.6),
+    /** Share of the brakes' thermal mass and cooled surface in the rear group. */
+    rearBrakeThermalMassShare: z.number().gt(0).lt(1).default(0.5),
+    /** Permissible (technically and legally allowed) gross mass, kg. Absent: not stated. */
+    permissibleGrossMassKg: z.number().positive().max(300_000).optional(),
+    runningGear: runningGearSchema.default('road'),
     /** Overhead-line vehicles: share of regenerated power the line can take (receptivity). */
     lineReceptivity: share.default(0.5),
     powerSource: powerSourceSchema.default('battery'),
@@ -94,6 +132,22 @@ export const vehicleSchema = z
         message: 'must not exceed socCeiling',
       });
     }
+    if (vehicle.regenContinuousPowerW !== undefined && vehicle.regenContinuousPowerW > vehicle.regenPowerW) {
+      ctx.addIssue({
+        code: 'custom',
+        path: ['regenContinuousPowerW'],
+        message: 'must not exceed the peak rating regenPowerW',
+      });
+    }
+    if (vehicle.permissibleGrossMassKg !== undefined && vehicle.curbMassKg + vehicle.payloadKg > vehicle.permissibleGrossMassKg + 1e-6) {
+      ctx.addIssue({
+        code: 'custom',
+        path: ['payloadKg'],
+        message:
+          `vehicle mass ${Math.round(vehicle.curbMassKg + vehicle.payloadKg)} kg (curb + payload) exceeds the permissible ` +
+          `gross mass of ${Math.round(vehicle.permissibleGrossMassKg)} kg`,
+      });
+    }
     if (vehicle.powerSource === 'battery' && vehicle.batteryCapacityWh <= 0) {
       ctx.addIssue({
         code: 'custom',
@@ -105,6 +159,10 @@ export const vehicleSchema = z
 export type Vehicle = z.infer<typeof vehicleSchema>;
 export type VehicleInput = z.input<typeof vehicleSchema>;
 
+/** Running surface of a run. */
+export const surfaceSchema = z.enum(['dry', 'wet', 'snow', 'ice']);
+export type Surface = z.infer<typeof surfaceSchema>;
+
 /** Conditions of one run. */
 export const conditionsSchema = z.object({
   /** Ambient air temperature, °C. Absent: the ISA temperature at each point's altitude. */
@@ -113,6 +171,11 @@ export const conditionsSchema = z.object({
   startSoc: share.default(0.8),
   /** Brake temperature at the start, °C. Absent: ambient. */
   initialBrakeTempC: z.number().min(-60).max(1_000).optional(),
+  /**
+   * Running surface. Rail vehicles read these as dry rail, wet rail, contaminated rail (leaves,
+   * grease) and the worst rail.
+   */
+  surface: surfaceSchema.default('dry'),
 });
 export type Conditions = z.infer<typeof conditionsSchema>;
 
@@ -134,6 +197,29 @@ export const stopSchema = z.object({
   name: z.string().max(200).optional(),
 });
 export type Stop = z.infer<typeof stopSchema>;
+
+/**
+ * Safety settings of an analysis (a network run takes them from the network settings): the worst
+ * credible case, the margin advice keeps below fade, and where the model stops holding.
+ */
+export const safetySettingsSchema = z.object({
+  /** Ambient temperature of the worst credible case, °C. */
+  worstCaseAmbientC: z.number().min(-20).max(60).default(DEFAULT_WORST_CASE_AMBIENT_C),
+  /** Margin the advice keeps below the fade threshold, K. */
+  fadeMarginK: z.number().min(0).max(300).default(DEFAULT_FADE_MARGIN_K),
+  /** Road design limit: steeper stretches are not drivable as drawn, % (absolute grade). */
+  maxRoadGradePercent: z.number().min(1).max(60).default(DEFAULT_MAX_ROAD_GRADE_PERCENT),
+  /** A speed profile below this speed … km/h … */
+  crawlSpeedKph: z.number().min(0).max(30).default(DEFAULT_CRAWL_SPEED_KPH),
+  /** … for at least this distance marks a stretch not drivable as drawn, m. */
+  crawlDistanceM: z.number().min(10).max(10_000).default(DEFAULT_CRAWL_DISTANCE_M),
+  /**
+   * Heaviest mass of the worst credible case, kg. Absent: the vehicle's permissible gross mass,
+   * or its run mass when none is stated (the result then says so).
+   */
+  worstCaseMassKg: z.number().positive().max(300_000).optional(),
+});
+export type SafetySettings = z.infer<typeof safetySettingsSchema>;
 
 /** Analysis options; every one has a documented default. */
 export const optionsSchema = z.object({
@@ -167,6 +253,7 @@ export const optionsSchema = z.object({
   /** Whether the vehicle starts and ends at rest (terminals). */
   startAtRest: z.boolean().default(true),
   endAtRest: z.boolean().default(true),
+  safety: safetySettingsSchema.default(safetySettingsSchema.parse({})),
 });
 export type AnalysisOptions = z.infer<typeof optionsSchema>;
 export type AnalysisOptionsInput = z.input<typeof optionsSchema>;
@@ -215,7 +302,7 @@ export type LineString = z.infer<typeof lineStringSchema>;
 export const previewRequestSchema = z.object({
   route: lineStringSchema,
   vehicle: vehicleSchema,
-  conditions: conditionsSchema.default({ startSoc: 0.8 }),
+  conditions: conditionsSchema.default({ startSoc: 0.8, surface: 'dry' }),
   options: optionsSchema.default(optionsSchema.parse({})),
 });
 export type PreviewRequest = z.infer<typeof previewRequestSchema>;
@@ -316,8 +403,107 @@ export const profileViewQuerySchema = z.object({
 });
 export type ProfileView = z.infer<typeof profileViewQuerySchema>;
 
-/** What the speed advice of a descent means. */
-export const speedAdviceSchema = z.enum(['limit', 'no-limit-needed', 'not-holdable']);
+/**
+ * What the speed advice of a descent means. `'not-drivable'`: part of the descent is not drivable
+ * as drawn (see `drivability`), so the model does not hold there and no speed is advised.
+ */
+export const speedAdviceSchema = z.enum(['limit', 'no-limit-needed', 'not-holdable', 'not-drivable']);
+
+/** Why a descent has no highest SOC at the top. */
+export const maxTopSocReasonSchema = z.enum([
+  /** Even with an empty battery the brakes pass the advisory limit (threshold − margin). */
+  'no-soc-keeps-brakes-cool',
+  /** Overhead-line vehicle: the SOC of an on-board battery does not change what regeneration takes. */
+  'no-battery',
+  /** The vehicle has no regeneration. */
+  'no-regeneration',
+  /** Part of the descent is not drivable as drawn; no advice is given. */
+  'not-drivable',
+]);
+export type MaxTopSocReason = z.infer<typeof maxTopSocReasonSchema>;
+
+/** Hotter axle group: front and rear friction-brake temperatures, °C. */
+export const axleTemperaturesSchema = z.object({ front: z.number(), rear: z.number() });
+
+/** The adverse conditions the worst credible case takes together. */
+export const worstCaseConditionsSchema = z.object({
+  /** Regeneration is unavailable (battery or inverter trip, full pack, line over-voltage, dewirement). */
+  regenerationAvailable: z.literal(false),
+  /** Whether a braking resistor (fed by the motor) is lost with it; independent retarders stay. */
+  brakingResistorAvailable: z.boolean(),
+  /** Whether an independent retarder (hydrodynamic, eddy-current) keeps working. */
+  retarderAvailable: z.boolean(),
+  /** SOC at the top: the battery's ceiling (null: no battery). */
+  socAtTop: z.number().nullable(),
+  /** Vehicle mass, kg, and where it comes from. */
+  massKg: z.number(),
+  massBasis: z.enum(['stated', 'permissible-gross-mass', 'run-mass']),
+  ambientC: z.number(),
+  /** Brake temperature at the top of the descent: carried from the worst-case run before it, °C. */
+  brakeTempAtTopC: z.number(),
+  surface: surfaceSchema,
+});
+export type WorstCaseConditions = z.infer<typeof worstCaseConditionsSchema>;
+
+export const worstCaseSchema = z.object({
+  /** Peak temperature of the hotter brake group, °C. */
+  peakBrakeTempC: z.number(),
+  peakBrakeTempByAxleC: axleTemperaturesSchema.optional(),
+  risk: riskLevelSchema,
+  /** Highest constant speed keeping the hotter brake group under threshold − margin, whole km/h rounded down. */
+  maxSafeSpeedKph: z.number().nullable(),
+  speedAdvice: speedAdviceSchema,
+  conditions: worstCaseConditionsSchema,
+});
+export type WorstCase = z.infer<typeof worstCaseSchema>;
+
+export const SENSITIVITY_INPUTS = ['soc', 'mass', 'brake-cooling', 'brake-thermal-mass', 'regen-continuous'] as const;
+export const sensitivityInputSchema = z.enum(SENSITIVITY_INPUTS);
+export type SensitivityInput = z.infer<typeof sensitivityInputSchema>;
+
+/**
+ * Peak brake temperature (hotter group, regeneration working) with one input moved down and up:
+ * SOC ±5 points, mass ±10 %, brake cooling ±30 %, brake thermal mass ±20 %; regen-continuous
+ * compares the peak rating (low) with the continuous rating held all the way (high).
+ */
+export const sensitivityEntrySchema = z.object({
+  input: sensitivityInputSchema,
+  lowPeakBrakeTempC: z.number(),
+  highPeakBrakeTempC: z.number(),
+});
+export type SensitivityEntry = z.infer<typeof sensitivityEntrySchema>;
+
+export const DRIVABILITY_REASONS = ['steeper-than-road-limit', 'beyond-traction', 'beyond-braking-adhesion', 'crawl'] as const;
+export const drivabilityStretchSchema = z.object({
+  fromM: z.number(),
+  toM: z.number(),
+  reason: z.enum(DRIVABILITY_REASONS),
+  /** Plain words: what was exceeded and by how much. */
+  detail: z.string(),
+});
+export type DrivabilityStretch = z.infer<typeof drivabilityStretchSchema>;
+
+export const drivabilitySchema = z.object({
+  /** False when any stretch is not drivable as drawn. */
+  drivable: z.boolean(),
+  stretches: z.array(drivabilityStretchSchema),
+});
+export type Drivability = z.infer<typeof drivabilitySchema>;
+
+export const adhesionSchema = z.object({
+  surface: surfaceSchema,
+  /** Adhesion coefficient the surface gives (see shared/engine/adhesion.ts for the sources). */
+  availableMu: z.number(),
+  /** Highest adhesion needed to hold the descent's speed and make a service stop, on all wheels. */
+  requiredMu: z.number(),
+  /** Where it occurs, m along the route. */
+  requiredAtM: z.number(),
+  /** False: holding speed plus a service stop needs more adhesion than the surface gives. */
+  sufficient: z.boolean(),
+  /** Whether adhesion on the driven axle capped regeneration somewhere on the descent. */
+  regenLimitedByAdhesion: z.boolean(),
+});
+export type Adhesion = z.infer<typeof adhesionSchema>;
 
 export const descentSchema = z.object({
   startM: z.number(),
@@ -336,23 +522,49 @@ export const descentSchema = z.object({
   regenEnergyWh: z.number(),
   frictionBrakeEnergyWh: z.number(),
   retarderEnergyWh: z.number(),
+  /** Peak of the whole-vehicle brake lump on the run (regeneration working), °C. */
   peakBrakeTempC: z.number(),
+  /**
+   * Heavy-truck grade-rating reference temperature (GSRS constants for 5-axle trucks), °C. Shown
+   * only as what it is; never used for the risk or the advice.
+   */
   gsrsPeakBrakeTempC: z.number(),
+  /**
+   * Risk shown for the descent: the worst credible case's (`worstCase.risk`) when present; the
+   * nominal run's risk is `nominalRisk`. Results stored before the worst case existed hold the
+   * nominal risk here.
+   */
   risk: riskLevelSchema,
+  /** Risk of the nominal run (hotter brake group, regeneration working). */
+  nominalRisk: riskLevelSchema.optional(),
   /** Brake temperature at which fade becomes likely for this brake type, °C. */
   fadeThresholdC: z.number(),
+  /** Margin the advice keeps below the fade threshold, K (advice holds the brakes at or below fadeThresholdC − fadeMarginK). */
+  fadeMarginK: z.number().optional(),
+  /** Peak temperature of each brake group on the nominal run, °C. */
+  peakBrakeTempByAxleC: axleTemperaturesSchema.optional(),
   /**
-   * Highest constant descent speed keeping the brakes at or below the fade threshold, km/h.
-   * null with `speedAdvice: 'no-limit-needed'` (every speed up to the search ceiling is fine) or
-   * `'not-holdable'` (even walking pace overheats the brakes).
+   * Highest constant descent speed keeping the brakes at or below the fade threshold minus the
+   * margin, regeneration working, in whole km/h rounded down. null with `speedAdvice:
+   * 'no-limit-needed'` (every speed up to the search ceiling is fine), `'not-holdable'` (even
+   * walking pace overheats the brakes) or `'not-drivable'`.
    */
   maxSafeSpeedKph: z.number().nullable(),
   speedAdvice: speedAdviceSchema,
   /**
-   * Highest SOC at the top that still lets regeneration take the whole descent; null when
-   * regeneration cannot take it at any SOC (or the vehicle has no battery to fill).
+   * Highest SOC at the top (whole percent, rounded down) that keeps the hotter brake group at or
+   * below the fade threshold minus the margin with regeneration working; null with a
+   * `maxTopSocReason` when no SOC does (or SOC plays no part).
    */
   maxTopSoc: z.number().nullable(),
+  maxTopSocReason: maxTopSocReasonSchema.nullable().optional(),
+  /** The same descent under the worst credible case (see `worstCaseConditionsSchema`). */
+  worstCase: worstCaseSchema.optional(),
+  sensitivity: z.array(sensitivityEntrySchema).optional(),
+  /** The input whose low–high spread of peak temperature is the widest. */
+  sensitivityDominantInput: sensitivityInputSchema.optional(),
+  drivability: drivabilitySchema.optional(),
+  adhesion: adhesionSchema.optional(),
   socAtTop: z.number(),
   /** Net braking energy exceeds the UN R13 Type-II reference descent for this mass. */
   beyondTypeApprovalReference: z.boolean(),
@@ -372,6 +584,8 @@ export const previewResponseSchema = z.object({
   profile: profileSchema,
   descents: z.array(descentSchema),
   uncoveredStretches: z.array(uncoveredStretchSchema).optional(),
+  /** Stretches of the whole route that are not drivable as drawn. */
+  drivability: drivabilitySchema.optional(),
   caution: z.string(),
   engineVersion: z.string(),
 });

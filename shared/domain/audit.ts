@@ -1,11 +1,17 @@
 import * as z from 'zod';
 
 /** What the audit log records: every change to the work people share. */
-export const AUDITED_KINDS = ['route', 'scenario', 'vehicle-profile', 'terrain'] as const;
+export const AUDITED_KINDS = ['route', 'scenario', 'vehicle-profile', 'terrain', 'review-item'] as const;
 export const auditedKindSchema = z.enum(AUDITED_KINDS);
 export type AuditedKind = z.infer<typeof auditedKindSchema>;
 
-export const AUDIT_ACTIONS = ['create', 'update', 'delete', 'restore', 'purge'] as const;
+/** The kinds that are deleted restorably (review items are never deleted: their record stays). */
+export const RESTORABLE_KINDS = ['route', 'scenario', 'vehicle-profile', 'terrain'] as const satisfies readonly AuditedKind[];
+export const restorableKindSchema = z.enum(RESTORABLE_KINDS);
+export type RestorableKind = z.infer<typeof restorableKindSchema>;
+
+/** `review-decision`: a safety officer's move on a descent review item (details name the move). */
+export const AUDIT_ACTIONS = ['create', 'update', 'delete', 'restore', 'purge', 'review-decision'] as const;
 export const auditActionSchema = z.enum(AUDIT_ACTIONS);
 export type AuditAction = z.infer<typeof auditActionSchema>;
 
@@ -14,6 +20,7 @@ export const AUDITED_KIND_LABELS: Readonly<Record<AuditedKind, string>> = {
   scenario: 'Scenario',
   'vehicle-profile': 'Vehicle profile',
   terrain: 'Terrain model',
+  'review-item': 'Descent review item',
 };
 
 export const AUDIT_ACTION_LABELS: Readonly<Record<AuditAction, string>> = {
@@ -22,6 +29,7 @@ export const AUDIT_ACTION_LABELS: Readonly<Record<AuditAction, string>> = {
   delete: 'Deleted',
   restore: 'Restored',
   purge: 'Removed for good',
+  'review-decision': 'Review decision',
 };
 
 /** One recorded change. `actor` is null for changes the system made (the demo data, the 30-day purge). */

@@ -1,5 +1,5 @@
 import * as z from 'zod';
-import { riskLevelSchema } from './analysis';
+import { riskLevelSchema, safetySettingsSchema } from './analysis';
 import { directionSchema } from './scenarios';
 
 /**
@@ -15,6 +15,15 @@ export const networkSettingsSchema = z.object({
   /** Emissions of one kWh from the grid, kg CO₂ per kWh. */
   gridEmissionFactorKgPerKWh: z.number().min(0).max(2),
   emissionFactorSource: z.string().trim().min(1).max(300),
+  /** Ambient temperature of every descent's worst credible case, °C. */
+  worstCaseAmbientC: safetySettingsSchema.shape.worstCaseAmbientC,
+  /** Margin the speed and SOC advice keeps below the brakes' fade threshold, K. */
+  fadeMarginK: safetySettingsSchema.shape.fadeMarginK,
+  /** Road design limit: stretches drawn steeper are not drivable as drawn, %. */
+  maxRoadGradePercent: safetySettingsSchema.shape.maxRoadGradePercent,
+  /** A speed profile below this speed for `crawlDistanceM` is not drivable as drawn, km/h. */
+  crawlSpeedKph: safetySettingsSchema.shape.crawlSpeedKph,
+  crawlDistanceM: safetySettingsSchema.shape.crawlDistanceM,
 });
 export type NetworkSettings = z.infer<typeof networkSettingsSchema>;
 
@@ -60,7 +69,9 @@ export const boardSummarySchema = z.object({
    * The factors in use; `isPlaceholder` while they are still the shipped illustrative values
    * nobody has replaced: every figure resting on them (value, CO₂) must say so where it is shown.
    */
-  settings: networkSettingsSchema.extend({ isPlaceholder: z.boolean() }),
+  settings: networkSettingsSchema
+    .pick({ energyTariffPerKWh: true, currency: true, tariffSource: true, gridEmissionFactorKgPerKWh: true, emissionFactorSource: true })
+    .extend({ isPlaceholder: z.boolean() }),
   routes: z.array(routeYearSchema),
   totals: z.object({
     annualKm: z.number(),

@@ -1,12 +1,12 @@
 import * as z from 'zod';
-import { auditedKindSchema } from './audit';
+import { restorableKindSchema } from './audit';
 
 /** How long a deleted route, scenario, vehicle profile or terrain model can be restored, days. */
 export const DELETED_RETENTION_DAYS = 30;
 
 /** Something deleted within the last DELETED_RETENTION_DAYS, restorable until `removedAfter`. */
 export const deletedItemSchema = z.object({
-  kind: auditedKindSchema,
+  kind: restorableKindSchema,
   id: z.uuid(),
   name: z.string(),
   deletedAt: z.iso.datetime({ offset: true }),
@@ -21,4 +21,4 @@ export type DeletedItem = z.infer<typeof deletedItemSchema>;
 export const deletedItemListSchema = z.object({ items: z.array(deletedItemSchema), retentionDays: z.number().int() });
 export type DeletedItemList = z.infer<typeof deletedItemListSchema>;
 
-export const deletedItemParamsSchema = z.object({ kind: auditedKindSchema, id: z.uuid() });
+export const deletedItemParamsSchema = z.object({ kind: restorableKindSchema, id: z.uuid() });

@@ -1,4 +1,4 @@
-import type { AuditedKind } from './audit';
+import type { RestorableKind } from './audit';
 import type { Role } from './roles';
 
 /**
@@ -55,7 +55,7 @@ export function can(role: Role | null | undefined, permission: Permission): bool
 }
 
 /** The permission that restores each kind of deleted thing: the one that changes it. */
-export const RESTORE_PERMISSION: Readonly<Record<AuditedKind, Permission>> = {
+export const RESTORE_PERMISSION: Readonly<Record<RestorableKind, Permission>> = {
   route: 'routes.edit',
   scenario: 'scenarios.edit',
   'vehicle-profile': 'vehicles.edit',

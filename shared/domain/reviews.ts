@@ -1,5 +1,5 @@
 import * as z from 'zod';
-import { lineStringSchema, riskLevelSchema, speedAdviceSchema } from './analysis';
+import { lineStringSchema, riskLevelSchema, speedAdviceSchema, type RiskLevel } from './analysis';
 import { directionSchema } from './scenarios';
 import { speedLimitKphSchema } from './limits';
 
@@ -12,8 +12,11 @@ import { speedLimitKphSchema } from './limits';
 
 export const reviewIdParamsSchema = z.object({ reviewId: z.uuid() });
 
-/** Our own state names: raised → in review → mitigated | accepted; reopened when a rerun is worse. */
-export const REVIEW_STATES = ['raised', 'in-review', 'mitigated', 'accepted', 'reopened'] as const;
+/**
+ * Our own state names: raised → in review → mitigated, or → awaiting sign-off → accepted (a second
+ * safety officer signs off an acceptance); reopened when a rerun is worse.
+ */
+export const REVIEW_STATES = ['raised', 'in-review', 'mitigated', 'awaiting-sign-off', 'accepted', 'reopened'] as const;
 export const reviewStateSchema = z.enum(REVIEW_STATES);
 export type ReviewState = z.infer<typeof reviewStateSchema>;
 
@@ -21,6 +24,7 @@ export const REVIEW_STATE_LABELS: Readonly<Record<ReviewState, string>> = {
   raised: 'Raised',
   'in-review': 'In review',
   mitigated: 'Mitigated',
+  'awaiting-sign-off': 'Acceptance awaiting sign-off',
   accepted: 'Risk accepted',
   reopened: 'Reopened',
 };
@@ -47,19 +51,38 @@ export const mitigationSchema = z
   );
 export type Mitigation = z.infer<typeof mitigationSchema>;
 
+/**
+ * Whether the engine represents a measure in a re-run: a descent speed cap and an SOC ceiling
+ * change its inputs; a vehicle restriction or a mandatory retarder do not. Only a re-run with a
+ * modelled measure can show that a mitigation works, so only those may close an item as mitigated.
+ */
+export function hasModelledMeasure(mitigation: Mitigation): boolean {
+  return mitigation.descentSpeedCapKph !== undefined || mitigation.socCeiling !== undefined;
+}
+
 export const reviewTransitionRequestSchema = z.discriminatedUnion('action', [
   z.object({ action: z.literal('acknowledge'), note: z.string().trim().max(2_000).optional() }),
   z.object({
     action: z.literal('mitigate'),
     mitigation: mitigationSchema,
     note: z.string().trim().max(2_000).optional(),
-    /** Re-run the scenario with the mitigation applied and record the new risk. */
-    rerun: z.boolean().default(true),
+    /**
+     * A mitigation is always re-run with the measure in place (kept for clients that send it):
+     * an item is recorded as mitigated only on the strength of that re-run.
+     */
+    rerun: z
+      .literal(true, { error: 'A mitigation is recorded only with a re-run; a measure that is not re-run goes to risk acceptance' })
+      .default(true),
   }),
+  /** Proposes to accept the risk as it is; a second safety officer must sign off. */
   z.object({
     action: z.literal('accept'),
     reason: z.string().trim().min(10, 'Give a reason of at least 10 characters').max(2_000),
   }),
+  /** A second safety officer (not the one who proposed it) agrees to the proposed acceptance. */
+  z.object({ action: z.literal('sign-off'), note: z.string().trim().max(2_000).optional() }),
+  /** Sends a proposed acceptance back to review, saying why. */
+  z.object({ action: z.literal('decline'), note: z.string().trim().min(3).max(2_000) }),
   z.object({ action: z.literal('reopen'), note: z.string().trim().min(3).max(2_000) }),
 ]);
 export type ReviewTransitionRequest = z.infer<typeof reviewTransitionRequestSchema>;
@@ -73,9 +96,26 @@ export type ReviewAction = ReviewTransitionRequest['action'];
 export const REVIEW_TRANSITIONS: Readonly<Record<ReviewAction, { from: readonly ReviewState[]; to: ReviewState }>> = {
   acknowledge: { from: ['raised', 'reopened'], to: 'in-review' },
   mitigate: { from: ['in-review'], to: 'mitigated' },
-  accept: { from: ['in-review'], to: 'accepted' },
+  accept: { from: ['in-review'], to: 'awaiting-sign-off' },
+  'sign-off': { from: ['awaiting-sign-off'], to: 'accepted' },
+  decline: { from: ['awaiting-sign-off'], to: 'in-review' },
   reopen: { from: ['mitigated', 'accepted'], to: 'reopened' },
 };
+
+/**
+ * The highest risk a mitigation's re-run may leave for the item to count as mitigated. Above it,
+ * the measure has not made the descent safe enough and the item stays in review (or goes to a
+ * signed-off risk acceptance).
+ */
+export const MITIGATED_RISK_CEILING = 'elevated' as const satisfies RiskLevel;
+
+/**
+ * The risk that governs a descent: its worst credible case's where the result carries one, the
+ * nominal run's otherwise. Review decisions (a mitigation's re-run) are judged on it.
+ */
+export function governingRisk(descent: { risk: RiskLevel; worstCase?: { risk: RiskLevel } | null }): RiskLevel {
+  return descent.worstCase?.risk ?? descent.risk;
+}
 
 /** Actions open to a safety officer on an item in `state` (for the screens' buttons). */
 export function allowedReviewActions(state: ReviewState): ReviewAction[] {
@@ -116,6 +156,13 @@ export const reviewItemSchema = z.object({
   mitigatedRisk: riskLevelSchema.nullable(),
   mitigatedPeakBrakeTempC: z.number().nullable(),
   acceptanceReason: z.string().nullable(),
+  /** Who proposed accepting the risk, and when (null when no acceptance is proposed or standing). */
+  acceptanceProposedById: z.uuid().nullable(),
+  acceptanceProposedByName: z.string().nullable(),
+  acceptanceProposedAt: z.iso.datetime({ offset: true }).nullable(),
+  /** The second safety officer who signed the acceptance off, and when. */
+  acceptanceSignedOffByName: z.string().nullable(),
+  acceptanceSignedOffAt: z.iso.datetime({ offset: true }).nullable(),
   raisedAt: z.iso.datetime({ offset: true }),
   updatedAt: z.iso.datetime({ offset: true }),
 });
@@ -130,8 +177,11 @@ export function currentRisk(item: Pick<ReviewItem, 'risk' | 'mitigatedRisk' | 's
 }
 export const reviewListSchema = z.object({ items: z.array(reviewItemSchema), caution: z.string() });
 
-/** States in which an item still needs a safety officer (counted as "open"). */
-export const OPEN_REVIEW_STATES = ['raised', 'in-review', 'reopened'] as const satisfies readonly ReviewState[];
+/**
+ * States in which an item still needs a safety officer (counted as "open"); a proposed acceptance
+ * stays open until a second safety officer signs it off.
+ */
+export const OPEN_REVIEW_STATES = ['raised', 'in-review', 'awaiting-sign-off', 'reopened'] as const satisfies readonly ReviewState[];
 
 /** GET /api/reviews filters; each one narrows the list. */
 export const reviewListQuerySchema = z.object({

@@ -11,6 +11,20 @@ import { speedLimitKphSchema } from './limits';
 
 export const scenarioIdParamsSchema = z.object({ scenarioId: z.uuid() });
 
+/**
+ * GET /api/scenarios/:scenarioId/descent-cards.pdf: every descent of the result, or the one of
+ * `direction` that covers `atM` (m along the route) when both are given.
+ */
+export const descentCardsQuerySchema = z
+  .object({
+    direction: z.enum(['outbound', 'inbound']).optional(),
+    atM: z.coerce.number().min(0).optional(),
+  })
+  .refine((query) => (query.direction === undefined) === (query.atM === undefined), {
+    message: 'Give both direction and atM to pick one descent, or neither for all of them',
+    path: ['atM'],
+  });
+
 export const DIRECTIONS = ['outbound', 'inbound', 'round-trip'] as const;
 export const directionSchema = z.enum(DIRECTIONS);
 export type Direction = z.infer<typeof directionSchema>;

@@ -22,7 +22,7 @@ export const seasonConditionsSchema = z.object({
   auxPowerW: z.number().min(0).max(500_000),
 });
 
-export const vehicleProfileDraftSchema = z.object({
+const vehicleProfileDraftShape = z.object({
   name: z.string().trim().min(1).max(120),
   description: z.string().trim().max(2_000).default(''),
   /** Id of the generic class this profile derives from (see shared/engine/vehicle-presets.ts). */
@@ -35,6 +35,24 @@ export const vehicleProfileDraftSchema = z.object({
   passengerMassKg: z.number().min(40).max(120).default(70),
   seasons: z.object({ winter: seasonConditionsSchema, mild: seasonConditionsSchema, summer: seasonConditionsSchema }),
 });
+
+export const vehicleProfileDraftSchema = vehicleProfileDraftShape.superRefine(loadsWithinPermissibleMass);
+
+/** Refuses load cases that take the vehicle above its permissible gross mass, naming the load case. */
+function loadsWithinPermissibleMass(draft: { vehicle: { curbMassKg: number; permissibleGrossMassKg?: number | undefined }; loadsKg: Record<LoadCase, number> }, ctx: z.RefinementCtx): void {
+  const limitKg = draft.vehicle.permissibleGrossMassKg;
+  if (limitKg === undefined) return;
+  for (const loadCase of LOAD_CASES) {
+    const massKg = draft.vehicle.curbMassKg + draft.loadsKg[loadCase];
+    if (massKg > limitKg + 1e-6) {
+      ctx.addIssue({
+        code: 'custom',
+        path: ['loadsKg', loadCase],
+        message: `the ${loadCase} load takes the vehicle to ${Math.round(massKg)} kg, above its permissible gross mass of ${Math.round(limitKg)} kg`,
+      });
+    }
+  }
+}
 export type VehicleProfileDraft = z.infer<typeof vehicleProfileDraftSchema>;
 export type VehicleProfileDraftInput = z.input<typeof vehicleProfileDraftSchema>;
 
@@ -48,7 +66,7 @@ export const profileCalibrationSourceSchema = z.object({
 });
 export type ProfileCalibrationSource = z.infer<typeof profileCalibrationSourceSchema>;
 
-export const vehicleProfileSchema = vehicleProfileDraftSchema.extend({
+export const vehicleProfileSchema = vehicleProfileDraftShape.extend({
   id: z.uuid(),
   /** Whether this is a built-in generic class (read-only). */
   isPreset: z.boolean(),

@@ -20,6 +20,8 @@ import {
 } from '../domain/analysis';
 import { airDensityUnchecked } from './atmosphere';
 import { curveRadiiM } from './curvature';
+import { adhesionCoefficient } from './adhesion';
+import { drivabilityStretches, runWorstCase, sensitivityVariants } from './descent-safety';
 import { describeDescents } from './descents';
 import { powertrainParams } from './powertrain';
 import { resampleRoute, type ResampledRoute } from './resample-route';
@@ -237,6 +239,8 @@ export function prepareRouteModel(
     limitMps,
     postedLimitMps,
     dwellS,
+    surface: conditions.surface,
+    adhesionMu: adhesionCoefficient(vehicle.runningGear, conditions.surface),
   };
 }
 
@@ -344,7 +348,12 @@ export function analyseResampledRoute(
   const initialBrakeTempC = conditions.initialBrakeTempC ?? model.ambientC[0]!;
   const run = runRoute(model, speedMps, conditions.startSoc, initialBrakeTempC);
   const summary = summariseRun(model, run, options.ascentThresholdM);
-  const descents = describeDescents(model, run, options);
+  const drivability = drivabilityStretches(model, run, options);
+  const descents = describeDescents(model, run, options, {
+    worst: runWorstCase(model, run, conditions, options.safety),
+    drivability,
+    sensitivity: sensitivityVariants(model),
+  });
   const n = model.pointCount;
   const perSegment = (values: Float64Array) => {
     const out = new Array<number>(n);
@@ -376,6 +385,7 @@ export function analyseResampledRoute(
       airDensityKgM3: perSegment(model.airDensityKgM3),
     },
     descents,
+    drivability: { drivable: drivability.length === 0, stretches: drivability },
     caution: ENGINEERING_CAUTION,
     engineVersion: ENGINE_VERSION,
   };

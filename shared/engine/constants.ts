@@ -4,7 +4,7 @@
  */
 
 /** Version of the calculation engine; stored with saved results so they can be re-run. */
-export const ENGINE_VERSION = '1.1.0';
+export const ENGINE_VERSION = '1.2.0';
 
 /** Standard acceleration of gravity, m/s². Exact by definition (3rd CGPM, 1901). */
 export const STANDARD_GRAVITY_MPS2 = 9.80665;
@@ -158,6 +158,28 @@ export const TYPE_IIA_GRADE_PERCENT = 7;
 
 /** Sea-level ISA air density used for the reference descents, kg/m³ (U.S. Standard Atmosphere 1976). */
 export const ISA_SEA_LEVEL_DENSITY_KG_PER_M3 = 1.225;
+
+/**
+ * Default ambient temperature of the worst credible case, °C: a hot summer afternoon in the
+ * valleys (common practice: design for the hot day, when brakes cool worst).
+ */
+export const DEFAULT_WORST_CASE_AMBIENT_C = 35;
+
+/** Default margin the advice keeps below the fade threshold, K (engineering judgement). */
+export const DEFAULT_FADE_MARGIN_K = 50;
+
+/**
+ * Default road design limit, % (absolute grade). From memory: mountain road design guidelines
+ * keep main roads to about 10–12 %, short stretches of minor roads reach 15–20 %; a route drawn
+ * steeper than 15 % is more likely a terrain or routing error than a bus road.
+ */
+export const DEFAULT_MAX_ROAD_GRADE_PERCENT = 15;
+
+/** Default crawl speed below which a long stretch is not drivable as drawn, km/h (walking pace, from memory). */
+export const DEFAULT_CRAWL_SPEED_KPH = 5;
+
+/** Default length of crawling that marks a stretch not drivable as drawn, m (engineering judgement). */
+export const DEFAULT_CRAWL_DISTANCE_M = 200;
 
 /**
  * Text the UI and API show beside every safety-relevant figure (brake-fade risk, speed and SOC

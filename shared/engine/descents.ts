@@ -29,7 +29,8 @@
  *   energy of the UN R13 Type-II reference descent (6 %, 6 km, 30 km/h) for this vehicle
  *   (a heuristic of ours, from memory; engine README §5.1).
  */
-import type { AnalysisOptions, BrakeType, Descent, RiskLevel, Vehicle } from '../domain/analysis';
+import type { AnalysisOptions, BrakeType, Descent, DrivabilityStretch, MaxTopSocReason, RiskLevel, Vehicle } from '../domain/analysis';
+import { describeWorstCase, descentAdhesion, descentSensitivity, type SensitivityVariants, type WorstCaseRun } from './descent-safety';
 import {
   ISA_SEA_LEVEL_DENSITY_KG_PER_M3,
   JOULES_PER_WH,
@@ -38,7 +39,14 @@ import {
   TYPE_II_LENGTH_M,
   TYPE_II_SPEED_MPS,
 } from './constants';
-import { advanceSegment, emptySegmentResult, type RouteModel, type VehicleState } from './route-simulation';
+import {
+  advanceSegment,
+  emptySegmentResult,
+  governingBrakeTempC,
+  initialVehicleState,
+  type RouteModel,
+  type VehicleState,
+} from './route-simulation';
 import type { RouteRun } from './route-run';
 
 /** Walking pace, the lowest speed the speed advice considers, m/s (from memory: about 5 km/h). */
@@ -101,17 +109,36 @@ export function findDescentRanges(model: RouteModel, options: AnalysisOptions): 
 
 /** Outcome of replaying a descent. */
 export interface DescentReplay {
+  /** Peak of the whole-vehicle brake lump, °C. */
   peakBrakeTempC: number;
+  /** Peak of the governing temperature (hotter of the lump and the two brake groups), °C. */
+  peakGoverningC: number;
+  peakFrontC: number;
+  peakRearC: number;
   brakingJ: number;
   nonRegenBrakingJ: number;
+}
+
+/** The vehicle's state at point `i` of a run (brake groups, SOC, regeneration overload). */
+export function stateAt(run: RouteRun, i: number): VehicleState {
+  return {
+    soc: run.soc[i]!,
+    brakeTempC: run.brakeTempC[i]!,
+    frontBrakeTempC: run.frontBrakeTempC[i]!,
+    rearBrakeTempC: run.rearBrakeTempC[i]!,
+    gsrsBrakeTempC: run.gsrsBrakeTempC[i]!,
+    shortfallJ: 0,
+    regenOverloadJ: run.regenOverloadJ[i]!,
+  };
 }
 
 /**
  * Replays segments of `range` from the given SOC and brake temperature, at constant
  * `constantSpeedMps` or (when null) on the run's own speeds. The replay stops early once the
- * brake temperature exceeds `stopAboveC` or the non-regenerated braking exceeds
+ * governing brake temperature exceeds `stopAboveC` or the non-regenerated braking exceeds
  * `stopAboveNonRegenJ` (the solvers only need to know that a limit was crossed); brake
- * temperatures are not tracked when `trackBrakes` is false.
+ * temperatures are not tracked when `trackBrakes` is false. `start` gives the brake groups'
+ * and the regeneration overload's starting values (default: every brake at startBrakeTempC).
  */
 export function replayDescent(
   model: RouteModel,
@@ -120,14 +147,19 @@ export function replayDescent(
   constantSpeedMps: number | null,
   startSoc: number,
   startBrakeTempC: number,
-  limits: { stopAboveC?: number; stopAboveNonRegenJ?: number; trackBrakes?: boolean } = {},
+  limits: { stopAboveC?: number; stopAboveNonRegenJ?: number; trackBrakes?: boolean; start?: VehicleState } = {},
 ): DescentReplay {
   const stopAboveC = limits.stopAboveC ?? Number.POSITIVE_INFINITY;
   const stopAboveNonRegenJ = limits.stopAboveNonRegenJ ?? Number.POSITIVE_INFINITY;
   const trackBrakes = limits.trackBrakes ?? true;
-  const state: VehicleState = { soc: startSoc, brakeTempC: startBrakeTempC, gsrsBrakeTempC: startBrakeTempC, shortfallJ: 0 };
+  const state: VehicleState = limits.start
+    ? { ...limits.start, soc: startSoc, brakeTempC: startBrakeTempC, shortfallJ: 0 }
+    : initialVehicleState(startSoc, startBrakeTempC);
   const result = emptySegmentResult();
-  let peak = startBrakeTempC;
+  let peak = state.brakeTempC;
+  let peakFront = state.frontBrakeTempC;
+  let peakRear = state.rearBrakeTempC;
+  let peakGoverning = governingBrakeTempC(state);
   let brakingJ = 0;
   let nonRegenBrakingJ = 0;
   for (let k = range.firstSegment; k <= range.lastSegment; k++) {
@@ -135,13 +167,17 @@ export function replayDescent(
     const v2 = constantSpeedMps ?? run.speedMps[k + 1]!;
     advanceSegment(model, k, v1, v2, state, result, trackBrakes);
     if (state.brakeTempC > peak) peak = state.brakeTempC;
+    if (state.frontBrakeTempC > peakFront) peakFront = state.frontBrakeTempC;
+    if (state.rearBrakeTempC > peakRear) peakRear = state.rearBrakeTempC;
+    const governing = governingBrakeTempC(state);
+    if (governing > peakGoverning) peakGoverning = governing;
     if (result.wheelPowerW < 0) {
       brakingJ -= result.wheelPowerW * result.durationS;
       nonRegenBrakingJ += (result.split.frictionPowerW + result.split.retarderPowerW) * result.durationS;
     }
-    if (peak > stopAboveC || nonRegenBrakingJ > stopAboveNonRegenJ) break;
+    if (peakGoverning > stopAboveC || nonRegenBrakingJ > stopAboveNonRegenJ) break;
   }
-  return { peakBrakeTempC: peak, brakingJ, nonRegenBrakingJ };
+  return { peakBrakeTempC: peak, peakGoverningC: peakGoverning, peakFrontC: peakFront, peakRearC: peakRear, brakingJ, nonRegenBrakingJ };
 }
 
 /** Net braking energy of the UN R13 Type-II reference descent for `vehicle`, J (engine README §5.1). */
@@ -156,56 +192,98 @@ export function typeIiReferenceBrakingJ(vehicle: Vehicle): number {
   return Math.max(0, (gravityN - rollingN - aeroN) * TYPE_II_LENGTH_M);
 }
 
-/** Highest safe constant speed over a descent, with its meaning. */
+/** Rounds a speed advice down to the whole km/h (floating-point noise forgiven). */
+export function speedDownToWholeKph(speedKph: number): number {
+  return Math.floor(speedKph + 1e-9);
+}
+
+/** Rounds an SOC advice down to the whole percent (floating-point noise forgiven). */
+export function socDownToWholePercent(soc: number): number {
+  return Math.floor(soc * 100 + 1e-9) / 100;
+}
+
+/**
+ * Highest safe constant speed over a descent, with its meaning: the governing brake temperature
+ * stays at or below `limitC` (the fade threshold minus the margin), rounded down to the whole km/h.
+ * `start` is the state at the top (default: the run's own).
+ */
 export function solveMaxSafeSpeed(
   model: RouteModel,
   run: RouteRun,
   range: DescentRange,
+  limitC: number = fadeThresholdC(model.vehicle.brakeType),
+  start: VehicleState = stateAt(run, range.firstSegment),
 ): { maxSafeSpeedKph: number | null; speedAdvice: Descent['speedAdvice'] } {
-  const threshold = fadeThresholdC(model.vehicle.brakeType);
-  const socAtTop = run.soc[range.firstSegment]!;
-  const tempAtTop = run.brakeTempC[range.firstSegment]!;
   const peakAt = (v: number) =>
-    replayDescent(model, run, range, v, socAtTop, tempAtTop, { stopAboveC: threshold }).peakBrakeTempC;
+    replayDescent(model, run, range, v, start.soc, start.brakeTempC, { stopAboveC: limitC, start }).peakGoverningC;
   let ceiling = WALKING_PACE_MPS;
   for (let i = range.firstSegment; i <= range.lastSegment + 1; i++) ceiling = Math.max(ceiling, model.postedLimitMps[i]!);
-  if (peakAt(ceiling) <= threshold) return { maxSafeSpeedKph: null, speedAdvice: 'no-limit-needed' };
-  if (peakAt(WALKING_PACE_MPS) > threshold) return { maxSafeSpeedKph: null, speedAdvice: 'not-holdable' };
-  let lo = WALKING_PACE_MPS;
-  let hi = ceiling;
-  while ((hi - lo) * 3.6 > 0.01) {
-    const mid = 0.5 * (lo + hi);
-    if (peakAt(mid) <= threshold) lo = mid;
+  if (peakAt(ceiling) <= limitC) return { maxSafeSpeedKph: null, speedAdvice: 'no-limit-needed' };
+  if (peakAt(WALKING_PACE_MPS) > limitC) return { maxSafeSpeedKph: null, speedAdvice: 'not-holdable' };
+  // The answer is shown in whole km/h rounded down, so search the whole km/h directly: the
+  // highest whole speed whose peak stays within the limit (peak temperature rises with speed).
+  let lo = Math.ceil(WALKING_PACE_MPS * 3.6 - 1e-9);
+  let hi = speedDownToWholeKph(ceiling * 3.6) + 1;
+  while (hi - lo > 1) {
+    const mid = (lo + hi) >> 1;
+    if (peakAt(mid / 3.6) <= limitC) lo = mid;
     else hi = mid;
   }
-  return { maxSafeSpeedKph: lo * 3.6, speedAdvice: 'limit' };
+  return { maxSafeSpeedKph: lo, speedAdvice: 'limit' };
 }
 
-/** Highest SOC at the top that still lets regeneration take the whole descent, or null. */
-export function solveMaxTopSoc(model: RouteModel, run: RouteRun, range: DescentRange): number | null {
+/**
+ * Highest SOC at the top (rounded down to the whole percent) at which the governing brake
+ * temperature stays at or below `limitC` on the run's own speeds with regeneration working; null
+ * with the reason when no SOC does or SOC plays no part.
+ */
+export function solveMaxTopSoc(
+  model: RouteModel,
+  run: RouteRun,
+  range: DescentRange,
+  limitC: number = fadeThresholdC(model.vehicle.brakeType),
+): { maxTopSoc: number | null; reason: MaxTopSocReason | null } {
   const params = model.powertrain;
-  if (params.isOverheadLine || params.batteryCapacityJ <= 0 || params.regenPowerW <= 0) return null;
-  const tempAtTop = run.brakeTempC[range.firstSegment]!;
-  const empty = replayDescent(model, run, range, null, 0, tempAtTop, { trackBrakes: false });
-  if (empty.brakingJ <= 0) return params.socCeiling;
-  if (empty.nonRegenBrakingJ > 0.02 * empty.brakingJ + JOULES_PER_WH) return null;
-  const allowedJ = empty.nonRegenBrakingJ + 0.001 * empty.brakingJ + JOULES_PER_WH;
-  const nonRegenAt = (soc: number) =>
-    replayDescent(model, run, range, null, soc, tempAtTop, { trackBrakes: false, stopAboveNonRegenJ: allowedJ });
-  if (nonRegenAt(params.socCeiling).nonRegenBrakingJ <= allowedJ) return params.socCeiling;
+  if (params.isOverheadLine || params.batteryCapacityJ <= 0) return { maxTopSoc: null, reason: 'no-battery' };
+  if (params.regenPowerW <= 0) return { maxTopSoc: null, reason: 'no-regeneration' };
+  const start = stateAt(run, range.firstSegment);
+  const peakAt = (soc: number) =>
+    replayDescent(model, run, range, null, soc, start.brakeTempC, { stopAboveC: limitC, start }).peakGoverningC;
+  if (peakAt(0) > limitC) return { maxTopSoc: null, reason: 'no-soc-keeps-brakes-cool' };
+  const top = socDownToWholePercent(params.socCeiling);
+  if (peakAt(top) <= limitC) return { maxTopSoc: top, reason: null };
+  // Whole percent, rounded down: the highest whole percent whose peak stays within the limit.
   let lo = 0;
-  let hi = params.socCeiling;
-  while (hi - lo > 1e-4) {
-    const mid = 0.5 * (lo + hi);
-    if (nonRegenAt(mid).nonRegenBrakingJ <= allowedJ) lo = mid;
+  let hi = Math.round(top * 100);
+  while (hi - lo > 1) {
+    const mid = (lo + hi) >> 1;
+    if (peakAt(mid / 100) <= limitC) lo = mid;
     else hi = mid;
   }
-  return lo;
+  return { maxTopSoc: lo / 100, reason: null };
+}
+
+/** What the descent records need besides the nominal model and run. */
+export interface DescentSafetyInputs {
+  /** The worst credible case: its model and its whole-route run on the same speeds. */
+  worst?: WorstCaseRun;
+  /** Stretches of the route that are not drivable as drawn. */
+  drivability?: DrivabilityStretch[];
+  /** Sensitivity variants of the nominal model. */
+  sensitivity?: SensitivityVariants;
 }
 
 /** Full descent records for a run. */
-export function describeDescents(model: RouteModel, run: RouteRun, options: AnalysisOptions): Descent[] {
+export function describeDescents(
+  model: RouteModel,
+  run: RouteRun,
+  options: AnalysisOptions,
+  safety: DescentSafetyInputs = {},
+): Descent[] {
   const referenceJ = typeIiReferenceBrakingJ(model.vehicle);
+  const fadeC = fadeThresholdC(model.vehicle.brakeType);
+  const marginK = options.safety.fadeMarginK;
+  const limitC = fadeC - marginK;
   return findDescentRanges(model, options).map((range) => {
     const first = range.firstSegment;
     const endPoint = range.lastSegment + 1;
@@ -223,16 +301,29 @@ export function describeDescents(model: RouteModel, run: RouteRun, options: Anal
     }
     let peak = Number.NEGATIVE_INFINITY;
     let gsrsPeak = Number.NEGATIVE_INFINITY;
+    let frontPeak = Number.NEGATIVE_INFINITY;
+    let rearPeak = Number.NEGATIVE_INFINITY;
     for (let i = first; i <= endPoint; i++) {
       peak = Math.max(peak, run.brakeTempC[i]!);
       gsrsPeak = Math.max(gsrsPeak, run.gsrsBrakeTempC[i]!);
+      frontPeak = Math.max(frontPeak, run.frontBrakeTempC[i]!);
+      rearPeak = Math.max(rearPeak, run.rearBrakeTempC[i]!);
     }
+    const nominalGoverningC = Math.max(peak, frontPeak, rearPeak);
     const startM = model.distanceM[first]!;
     const endM = model.distanceM[endPoint]!;
     const dropM = model.elevationM[first]! - model.elevationM[endPoint]!;
     const lengthM = endM - startM;
-    const advice = solveMaxSafeSpeed(model, run, range);
-    return {
+    const stretches = (safety.drivability ?? []).filter((stretch) => stretch.toM > startM && stretch.fromM < endM);
+    const drivable = stretches.length === 0;
+    const advice = drivable
+      ? solveMaxSafeSpeed(model, run, range, limitC)
+      : { maxSafeSpeedKph: null, speedAdvice: 'not-drivable' as const };
+    const soc = drivable ? solveMaxTopSoc(model, run, range, limitC) : { maxTopSoc: null, reason: 'not-drivable' as const };
+    const nominalRisk = brakeRiskLevel(nominalGoverningC, model.vehicle.brakeType);
+    const worstCase = safety.worst ? describeWorstCase(safety.worst, range, nominalGoverningC, limitC, drivable) : undefined;
+    const sensitivity = safety.sensitivity ? descentSensitivity(model, run, range, safety.sensitivity) : undefined;
+    const descent: Descent = {
       startM,
       endM,
       lengthM,
@@ -246,13 +337,25 @@ export function describeDescents(model: RouteModel, run: RouteRun, options: Anal
       retarderEnergyWh: retarderJ / JOULES_PER_WH,
       peakBrakeTempC: peak,
       gsrsPeakBrakeTempC: gsrsPeak,
-      risk: brakeRiskLevel(peak, model.vehicle.brakeType),
-      fadeThresholdC: fadeThresholdC(model.vehicle.brakeType),
+      risk: worstCase ? worstCase.risk : nominalRisk,
+      nominalRisk,
+      fadeThresholdC: fadeC,
+      fadeMarginK: marginK,
+      peakBrakeTempByAxleC: { front: frontPeak, rear: rearPeak },
       maxSafeSpeedKph: advice.maxSafeSpeedKph,
       speedAdvice: advice.speedAdvice,
-      maxTopSoc: solveMaxTopSoc(model, run, range),
+      maxTopSoc: soc.maxTopSoc,
+      maxTopSocReason: soc.reason,
       socAtTop: run.soc[first]!,
       beyondTypeApprovalReference: brakingJ > referenceJ,
+      drivability: { drivable, stretches },
+      adhesion: descentAdhesion(model, run, range, options.decelerationMps2),
     };
+    if (worstCase) descent.worstCase = worstCase;
+    if (sensitivity) {
+      descent.sensitivity = sensitivity.entries;
+      descent.sensitivityDominantInput = sensitivity.dominant;
+    }
+    return descent;
   });
 }

@@ -19,3 +19,6 @@ export * from './summary';
 export * from './capability-curves';
 export * from './vehicle-presets';
 export * from './analyse-route';
+export * from './adhesion';
+export * from './endurance-brake';
+export * from './descent-safety';

@@ -18,15 +18,23 @@
  * - Overhead-line vehicles: traction and auxiliaries come from the line; of the regenerated power
  *   left after the auxiliaries the line takes the share lineReceptivity (engine README §3.5). Their
  *   on-board battery (off-wire running) is not modelled: SOC stays at the start value.
- * - Braking the electrical path cannot take goes to the retarder or braking resistor up to
- *   retarderPowerW (wheel power), then to the friction brakes.
+ * - The motor's braking envelope is min(regen rating, maxTractionForceN·v)·fade(v), with the
+ *   regen rating the peak `regenPowerW` until the peak has been held for `regenPeakHoldS`, then
+ *   `regenContinuousPowerW` (the caller passes the rating in force, see route-simulation.ts).
+ *   On the road or rail, the driven axles can pass at most μ·(driven-axle load) of braking force
+ *   (`adhesionForceN`, adhesion.ts); regeneration and any driveline retarder share that cap.
+ * - Braking the electrical path cannot take goes to the endurance brake (endurance-brake.ts): a
+ *   braking resistor takes it up to retarderPowerW but only inside what is left of the motor's
+ *   envelope; an independent retarder up to its own force–speed curve. The rest goes to the
+ *   friction brakes, which act on all axles.
  *
  * regenEnergy counts energy delivered to the battery (or line) terminals, i.e. after
  * regenEfficiency. Battery balance: E_net = Σ traction/η + Σ aux − Σ regen, and
  * SOC_end·capacity = SOC_start·capacity − E_net + E_shortfall (energy the empty battery could not give).
  */
-import type { Vehicle } from '../domain/analysis';
+import type { RetarderType, Vehicle } from '../domain/analysis';
 import { JOULES_PER_WH } from './constants';
+import { independentRetarderPowerW, resolvedRetarderType } from './endurance-brake';
 
 export interface PowertrainParams {
   isOverheadLine: boolean;
@@ -43,6 +51,11 @@ export interface PowertrainParams {
   coldChargeShareAtMinus20C: number;
   auxPowerW: number;
   retarderPowerW: number;
+  retarderType: RetarderType;
+  /** Continuous regeneration rating at the wheel, W (≤ regenPowerW). */
+  regenContinuousPowerW: number;
+  /** How long the peak rating may be held, s. */
+  regenPeakHoldS: number;
   lineReceptivity: number;
 }
 
@@ -63,6 +76,9 @@ export function powertrainParams(vehicle: Vehicle): PowertrainParams {
     coldChargeShareAtMinus20C: vehicle.coldChargeShareAtMinus20C,
     auxPowerW: vehicle.auxPowerW,
     retarderPowerW: vehicle.retarderPowerW,
+    retarderType: resolvedRetarderType(vehicle),
+    regenContinuousPowerW: Math.min(vehicle.regenPowerW, vehicle.regenContinuousPowerW ?? vehicle.regenPowerW),
+    regenPeakHoldS: vehicle.regenPeakHoldS,
     lineReceptivity: vehicle.lineReceptivity,
   };
 }
@@ -132,6 +148,8 @@ export function splitWheelPower(
   durationS: number,
   out: PowerSplit,
   ambientC?: number,
+  regenRatingW: number = params.regenPowerW,
+  adhesionForceN: number = Number.POSITIVE_INFINITY,
 ): void {
   const aux = params.auxPowerW;
   out.regenWheelPowerW = 0;
@@ -148,8 +166,13 @@ export function splitWheelPower(
     const demandW = -wheelPowerW;
     let regenWheelW = 0;
     const fade = regenSpeedFactor(speedMps, params.regenMinSpeedMps);
-    if (params.regenPowerW > 0 && fade > 0) {
-      regenWheelW = Math.min(demandW, Math.min(params.regenPowerW, params.maxRegenForceN * speedMps) * fade);
+    // The motor's braking envelope (regeneration and a braking resistor share it), and what the
+    // driven axles can pass on this surface (regeneration and any driveline retarder share it).
+    const motorW = params.regenPowerW > 0 ? Math.min(regenRatingW, params.maxRegenForceN * speedMps) * fade : 0;
+    const adhesionW = adhesionForceN * Math.max(0, speedMps);
+    const electricLimitW = Math.min(motorW, adhesionW);
+    if (electricLimitW > 0) {
+      regenWheelW = Math.min(demandW, electricLimitW);
       const eta = params.regenEfficiency;
       if (params.isOverheadLine) {
         // Auxiliaries first, then the line's receptive share of the rest (engine README §3.5).
@@ -166,8 +189,13 @@ export function splitWheelPower(
         regenWheelW = Math.min(regenWheelW, acceptW / eta);
       }
     }
-    const restW = demandW - regenWheelW;
-    const retarderW = Math.min(restW, params.retarderPowerW);
+    const restW = Math.max(0, demandW - regenWheelW);
+    let retarderLimitW = 0;
+    if (params.retarderType === 'braking-resistor') retarderLimitW = Math.min(params.retarderPowerW, electricLimitW - regenWheelW);
+    else if (params.retarderType !== 'none') {
+      retarderLimitW = Math.min(independentRetarderPowerW(params.retarderType, params.retarderPowerW, speedMps), adhesionW - regenWheelW);
+    }
+    const retarderW = Math.max(0, Math.min(restW, retarderLimitW));
     out.regenWheelPowerW = regenWheelW;
     out.regenElectricPowerW = regenWheelW * params.regenEfficiency;
     out.retarderPowerW = retarderW;

@@ -7,14 +7,18 @@
  * density at index i describe the segment from point i to point i+1; the last point repeats the
  * last segment. Powers are segment means (energy/duration).
  */
-import { advanceSegment, dwell, emptySegmentResult, type RouteModel, type VehicleState } from './route-simulation';
+import { advanceSegment, dwell, emptySegmentResult, initialVehicleState, type RouteModel, type VehicleState } from './route-simulation';
 
 export interface RouteRun {
   speedMps: Float64Array;
   timeS: Float64Array;
   soc: Float64Array;
   brakeTempC: Float64Array;
+  frontBrakeTempC: Float64Array;
+  rearBrakeTempC: Float64Array;
   gsrsBrakeTempC: Float64Array;
+  /** Regeneration overload on arrival at each point, J (route-simulation.ts). */
+  regenOverloadJ: Float64Array;
   /** Per segment, forward convention (last point repeats the last segment). */
   rollingN: Float64Array;
   aeroN: Float64Array;
@@ -45,6 +49,12 @@ export interface RouteRun {
 
 /** Runs the vehicle along `model` at `speedMps` from `startSoc` and `initialBrakeTempC`. */
 export function runRoute(model: RouteModel, speedMps: Float64Array, startSoc: number, initialBrakeTempC: number): RouteRun {
+  return runRouteFrom(model, speedMps, initialVehicleState(startSoc, initialBrakeTempC));
+}
+
+/** Like `runRoute`, from a full starting state (brake groups at their own temperatures). */
+export function runRouteFrom(model: RouteModel, speedMps: Float64Array, start: VehicleState): RouteRun {
+  const startSoc = start.soc;
   const n = model.pointCount;
   const segments = n - 1;
   const run: RouteRun = {
@@ -52,7 +62,10 @@ export function runRoute(model: RouteModel, speedMps: Float64Array, startSoc: nu
     timeS: new Float64Array(n),
     soc: new Float64Array(n),
     brakeTempC: new Float64Array(n),
+    frontBrakeTempC: new Float64Array(n),
+    rearBrakeTempC: new Float64Array(n),
     gsrsBrakeTempC: new Float64Array(n),
+    regenOverloadJ: new Float64Array(n),
     rollingN: new Float64Array(n),
     aeroN: new Float64Array(n),
     gradeN: new Float64Array(n),
@@ -77,7 +90,7 @@ export function runRoute(model: RouteModel, speedMps: Float64Array, startSoc: nu
     startSoc,
     endSoc: startSoc,
   };
-  const state: VehicleState = { soc: startSoc, brakeTempC: initialBrakeTempC, gsrsBrakeTempC: initialBrakeTempC, shortfallJ: 0 };
+  const state: VehicleState = { ...start };
   const result = emptySegmentResult();
   const auxW = model.powertrain.auxPowerW;
   let timeS = 0;
@@ -87,6 +100,9 @@ export function runRoute(model: RouteModel, speedMps: Float64Array, startSoc: nu
     run.timeS[i] = timeS;
     run.soc[i] = state.soc;
     run.brakeTempC[i] = state.brakeTempC;
+    run.frontBrakeTempC[i] = state.frontBrakeTempC;
+    run.rearBrakeTempC[i] = state.rearBrakeTempC;
+    run.regenOverloadJ[i] = state.regenOverloadJ;
     run.gsrsBrakeTempC[i] = state.gsrsBrakeTempC;
     const dwellS = model.dwellS[i]!;
     if (dwellS > 0) {

@@ -11,7 +11,7 @@
  * distance, ½·ρ·Cd·A·(v_k² + v_{k+1}²)/2, the inertia work is ½·(1+δ)·m·(v_{k+1}² − v_k²), and
  * Δt = 2ℓ/(v_k + v_{k+1}).
  */
-import type { Vehicle } from '../domain/analysis';
+import type { Surface, Vehicle } from '../domain/analysis';
 import { STANDARD_GRAVITY_MPS2 } from './constants';
 import { brakeConvectionWPerM2K, brakeTemperatureStepC } from './brake-thermal';
 import { gsrsAdvanceTemperatureC } from './grade-severity-rating';
@@ -44,14 +44,51 @@ export interface RouteModel {
   limitMps: Float64Array;
   postedLimitMps: Float64Array;
   dwellS: Float64Array;
+  /** Running surface of the run and its adhesion coefficient (adhesion.ts). */
+  surface: Surface;
+  adhesionMu: number;
 }
 
 /** Mutable state carried from segment to segment. */
 export interface VehicleState {
   soc: number;
+  /** Whole-vehicle brake lump, °C. */
   brakeTempC: number;
+  /** Front and rear brake groups, °C (see advanceBrakes). */
+  frontBrakeTempC: number;
+  rearBrakeTempC: number;
   gsrsBrakeTempC: number;
   shortfallJ: number;
+  /**
+   * Regenerated energy above the continuous rating not yet given back by running below it, J.
+   * While it is under (peak − continuous)·regenPeakHoldS the peak rating applies.
+   */
+  regenOverloadJ: number;
+}
+
+/** A state at rest with every brake at `brakeTempC`. */
+export function initialVehicleState(soc: number, brakeTempC: number, axles?: { front: number; rear: number }): VehicleState {
+  return {
+    soc,
+    brakeTempC,
+    frontBrakeTempC: axles?.front ?? brakeTempC,
+    rearBrakeTempC: axles?.rear ?? brakeTempC,
+    gsrsBrakeTempC: brakeTempC,
+    shortfallJ: 0,
+    regenOverloadJ: 0,
+  };
+}
+
+/** The temperature that governs risk and advice: the hotter of the lump and the two brake groups, °C. */
+export function governingBrakeTempC(state: Pick<VehicleState, 'brakeTempC' | 'frontBrakeTempC' | 'rearBrakeTempC'>): number {
+  return Math.max(state.brakeTempC, state.frontBrakeTempC, state.rearBrakeTempC);
+}
+
+/** Regeneration rating in force: the peak until it has been held for regenPeakHoldS, then the continuous one, W. */
+export function regenRatingW(model: RouteModel, state: VehicleState): number {
+  const p = model.powertrain;
+  const budgetJ = (p.regenPowerW - p.regenContinuousPowerW) * p.regenPeakHoldS;
+  return state.regenOverloadJ < budgetJ ? p.regenPowerW : p.regenContinuousPowerW;
 }
 
 /** Per-segment results, reused between calls. */
@@ -102,9 +139,21 @@ export function advanceSegment(
   const meanSpeedMps = lengthM / durationS;
   const wheelPowerW = (tractionN * lengthM) / durationS;
 
-  splitWheelPower(model.powertrain, wheelPowerW, meanSpeedMps, state.soc, durationS, out.split, model.ambientC[k]);
+  const adhesionForceN = model.adhesionMu * model.vehicle.drivenAxleLoadShare * model.weightN * model.cosTheta[k]!;
+  splitWheelPower(
+    model.powertrain,
+    wheelPowerW,
+    meanSpeedMps,
+    state.soc,
+    durationS,
+    out.split,
+    model.ambientC[k],
+    regenRatingW(model, state),
+    adhesionForceN,
+  );
   state.soc = out.split.soc;
   state.shortfallJ += out.split.shortfallJ;
+  state.regenOverloadJ = Math.max(0, state.regenOverloadJ + (out.split.regenWheelPowerW - model.powertrain.regenContinuousPowerW) * durationS);
   if (trackBrakes) advanceBrakes(model, k, out.split.frictionPowerW, meanSpeedMps, durationS, state);
 
   out.durationS = durationS;
@@ -123,6 +172,7 @@ export function dwell(model: RouteModel, k: number, durationS: number, state: Ve
   splitWheelPower(model.powertrain, 0, 0, state.soc, durationS, out.split, model.ambientC[segment]);
   state.soc = out.split.soc;
   state.shortfallJ += out.split.shortfallJ;
+  state.regenOverloadJ = Math.max(0, state.regenOverloadJ - model.powertrain.regenContinuousPowerW * durationS);
   advanceBrakes(model, segment, 0, 0, durationS, state);
   out.durationS = durationS;
 }
@@ -137,13 +187,32 @@ function advanceBrakes(
 ): void {
   const vehicle = model.vehicle;
   const ambientC = model.ambientC[k]!;
-  state.brakeTempC = brakeTemperatureStepC(
-    state.brakeTempC,
+  const heatW = vehicle.brakeHeatShare * frictionPowerW;
+  const convection = brakeConvectionWPerM2K(speedMps);
+  const area = vehicle.brakeCoolingAreaM2;
+  const mass = vehicle.brakeThermalMassJPerK;
+  const rearShare = vehicle.rearBrakeShare;
+  const rearPart = vehicle.rearBrakeThermalMassShare;
+  state.brakeTempC = brakeTemperatureStepC(state.brakeTempC, ambientC, heatW, convection, area, mass, vehicle.brakeEmissivity, durationS);
+  // Brake groups: the rear group takes rearBrakeShare of the heat into its share of the thermal
+  // mass and cooled surface, the front group the rest.
+  state.rearBrakeTempC = brakeTemperatureStepC(
+    state.rearBrakeTempC,
     ambientC,
-    vehicle.brakeHeatShare * frictionPowerW,
-    brakeConvectionWPerM2K(speedMps),
-    vehicle.brakeCoolingAreaM2,
-    vehicle.brakeThermalMassJPerK,
+    rearShare * heatW,
+    convection,
+    rearPart * area,
+    rearPart * mass,
+    vehicle.brakeEmissivity,
+    durationS,
+  );
+  state.frontBrakeTempC = brakeTemperatureStepC(
+    state.frontBrakeTempC,
+    ambientC,
+    (1 - rearShare) * heatW,
+    convection,
+    (1 - rearPart) * area,
+    (1 - rearPart) * mass,
     vehicle.brakeEmissivity,
     durationS,
   );

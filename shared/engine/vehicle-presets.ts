@@ -8,8 +8,26 @@
  * 0.4 m² per corner (from memory).
  *
  * Passenger mass: 70 kg per passenger (from memory; common planning figures are 68–75 kg).
- * Load variants: empty, all seats taken, full standing load at 6 standing passengers per m²
- * (from memory: 6–8 /m² is the crush-load range for trams; engine README §1.3).
+ * Load variants: empty, all seats taken, full standing load.
+ *
+ * Permissible gross mass (the worst credible case's heaviest mass, and the ceiling every load must
+ * stay under), for buses from Directive 96/53/EC as amended by Directive (EU) 2015/719 and
+ * Regulation (EU) 2019/1242 (EUR-Lex summary of the directive): two-axle buses 19.5 t (the 2015
+ * amendment's +1.5 t); three-axle articulated buses 28 t, plus the zero-emission allowance of up to
+ * 1 t for three-axle articulated buses, 29 t in all. The zero-emission tonne is not given to
+ * two-axle buses, so those stay at 19.5 t. Full standing loads are set so the full bus fits. The
+ * midibus's 13 t is a technically permissible mass typical of the class (from memory: 12–14 t),
+ * well under the legal 19.5 t. Trams follow the design-mass convention of EN 15663 (from memory):
+ * the exceptional payload puts every seat and 8 standing passengers per m² of standing area on
+ * board at 70 kg each, and that design mass is the permissible mass.
+ *
+ * Continuous regeneration rating: 70 % of the peak, held for 60 s (from memory: traction motors'
+ * continuous ratings are commonly 60–75 % of their short-time peak).
+ * Friction-brake split: 60 % of the braking on the rear axle of a two-axle bus (from memory:
+ * 55–65 %), the brake groups' thermal mass and cooled area split by the number of braked axles.
+ * Driven-axle load: the rear (driven) axle of a two-axle bus carries about 60 % of the weight;
+ * an articulated pusher bus about 40 % on its driven rear axle; a tram with two of three bogies
+ * motored about 2/3 (from memory).
  */
 import type { VehicleInput } from '../domain/analysis';
 
@@ -77,14 +95,22 @@ export const VEHICLE_PRESETS: readonly VehiclePreset[] = [
       powerSource: 'battery',
       socTaperStart: 0.85,
       socCeiling: 0.95,
+      retarderType: 'none',
+      regenContinuousPowerW: 126_000,
+      regenPeakHoldS: 60,
+      drivenAxleLoadShare: 0.6,
+      rearBrakeShare: 0.6,
+      rearBrakeThermalMassShare: 0.5,
+      permissibleGrossMassKg: 19_500,
     },
   },
   {
     id: 'battery-bus-18m-articulated',
     name: '18 m articulated battery bus',
     seats: 45,
-    standingPlaces: 100,
-    payloadKg: loads(45, 100),
+    // 29 t permissible − 19.5 t curb = 9.5 t: 135 passengers at 70 kg (45 seated, 90 standing).
+    standingPlaces: 90,
+    payloadKg: loads(45, 90),
     auxPowerW: { winter: 32_000, summer: 20_000, mild: 8_000 },
     vehicle: {
       curbMassKg: 19_500,
@@ -110,6 +136,14 @@ export const VEHICLE_PRESETS: readonly VehiclePreset[] = [
       powerSource: 'battery',
       socTaperStart: 0.85,
       socCeiling: 0.95,
+      retarderType: 'none',
+      regenContinuousPowerW: 168_000,
+      regenPeakHoldS: 60,
+      drivenAxleLoadShare: 0.4,
+      // Front axle one group; middle and rear axles the other (two of three braked axles).
+      rearBrakeShare: 0.7,
+      rearBrakeThermalMassShare: 2 / 3,
+      permissibleGrossMassKg: 29_000,
     },
   },
   {
@@ -143,6 +177,13 @@ export const VEHICLE_PRESETS: readonly VehiclePreset[] = [
       powerSource: 'battery',
       socTaperStart: 0.85,
       socCeiling: 0.95,
+      retarderType: 'none',
+      regenContinuousPowerW: 77_000,
+      regenPeakHoldS: 60,
+      drivenAxleLoadShare: 0.6,
+      rearBrakeShare: 0.6,
+      rearBrakeThermalMassShare: 0.5,
+      permissibleGrossMassKg: 13_000,
     },
   },
   {
@@ -177,14 +218,22 @@ export const VEHICLE_PRESETS: readonly VehiclePreset[] = [
       powerSource: 'overhead-line',
       socTaperStart: 0.85,
       socCeiling: 0.95,
+      retarderType: 'braking-resistor',
+      regenContinuousPowerW: 112_000,
+      regenPeakHoldS: 60,
+      drivenAxleLoadShare: 0.6,
+      rearBrakeShare: 0.6,
+      rearBrakeThermalMassShare: 0.5,
+      permissibleGrossMassKg: 19_500,
     },
   },
   {
     id: 'light-rail-vehicle',
     name: 'Light-rail vehicle / tram (28–35 m)',
     seats: 60,
-    standingPlaces: 160,
-    payloadKg: loads(60, 160),
+    // 40 m² of standing area at 8 passengers per m² (EN 15663 exceptional payload, from memory).
+    standingPlaces: 320,
+    payloadKg: loads(60, 320),
     auxPowerW: { winter: 50_000, summer: 40_000, mild: 12_000 },
     vehicle: {
       curbMassKg: 40_000,
@@ -202,8 +251,9 @@ export const VEHICLE_PRESETS: readonly VehiclePreset[] = [
       auxPowerW: 12_000,
       maxTractionForceN: 90_000,
       brakeType: 'disc',
-      brakeThermalMassJPerK: 368_000, // 16 braked wheels' discs, 50 kg each × 460 J/(kg·K)
-      brakeCoolingAreaM2: 6.4,
+      // Three two-axle bogies, one disc per wheel: 12 discs × 50 kg × 460 J/(kg·K), 0.4 m² each.
+      brakeThermalMassJPerK: 276_000,
+      brakeCoolingAreaM2: 4.8,
       brakeHeatShare: 0.95,
       brakeEmissivity: 0.6,
       retarderPowerW: 500_000, // braking resistors (from memory)
@@ -211,6 +261,16 @@ export const VEHICLE_PRESETS: readonly VehiclePreset[] = [
       powerSource: 'overhead-line',
       socTaperStart: 0.85,
       socCeiling: 0.95,
+      retarderType: 'braking-resistor',
+      regenContinuousPowerW: 350_000,
+      regenPeakHoldS: 60,
+      drivenAxleLoadShare: 2 / 3,
+      // Leading and trailing halves of the bogies share the braking evenly.
+      rearBrakeShare: 0.5,
+      rearBrakeThermalMassShare: 0.5,
+      runningGear: 'rail',
+      // Curb 40 t + (60 seated + 320 standing) × 70 kg = 66.6 t design mass under exceptional payload.
+      permissibleGrossMassKg: 66_600,
     },
   },
 ];

@@ -15,3 +15,4 @@ export * from './worst-descent';
 export * from './board-format';
 export * from './board-figures';
 export * from './profile-columns';
+export * from './advice-cautions';

@@ -85,6 +85,7 @@ const EXPECTED_ACCESS: Record<string, 'public' | 'signed-in' | readonly Role[]> 
   'GET /api/scenarios/{scenarioId}/export.csv': 'signed-in',
   'GET /api/scenarios/{scenarioId}/export.geojson': 'signed-in',
   'GET /api/scenarios/{scenarioId}/report.pdf': 'signed-in',
+  'GET /api/scenarios/{scenarioId}/descent-cards.pdf': 'signed-in',
   'GET /api/reviews': 'signed-in',
   'GET /api/reviews/{reviewId}': 'signed-in',
   'POST /api/reviews/{reviewId}/transitions': ['safety'],

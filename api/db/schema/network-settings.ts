@@ -15,6 +15,12 @@ export const networkSettings = pgTable(
     tariffSource: text().notNull(),
     gridEmissionFactorKgPerKWh: doublePrecision().notNull(),
     emissionFactorSource: text().notNull(),
+    /** Safety settings of every analysis (shared/domain/analysis.ts safetySettingsSchema). */
+    worstCaseAmbientC: doublePrecision().notNull().default(35),
+    fadeMarginK: doublePrecision().notNull().default(50),
+    maxRoadGradePercent: doublePrecision().notNull().default(15),
+    crawlSpeedKph: doublePrecision().notNull().default(5),
+    crawlDistanceM: doublePrecision().notNull().default(200),
     /** Null while the shipped placeholders have not been replaced. */
     updatedById: uuid(),
     updatedByName: text(),

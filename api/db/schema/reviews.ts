@@ -49,6 +49,13 @@ export const reviewItems = pgTable(
     mitigatedRisk: text({ enum: ['low', 'elevated', 'high', 'critical'] }).$type<RiskLevel>(),
     mitigatedPeakBrakeTempC: doublePrecision(),
     acceptanceReason: text(),
+    /** The safety officer who proposed accepting the risk; a different one must sign it off. */
+    acceptanceProposedById: uuid(),
+    acceptanceProposedByName: text(),
+    acceptanceProposedAt: timestamp({ withTimezone: true }),
+    acceptanceSignedOffById: uuid(),
+    acceptanceSignedOffByName: text(),
+    acceptanceSignedOffAt: timestamp({ withTimezone: true }),
     raisedAt: timestamp({ withTimezone: true }).notNull().defaultNow(),
     updatedAt: timestamp({ withTimezone: true }).notNull().defaultNow(),
   },

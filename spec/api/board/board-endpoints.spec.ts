@@ -7,10 +7,11 @@ import { eq } from 'drizzle-orm';
 import { reviewItems, type ScenarioRow } from '../../../api/db/schema/index';
 import { MARGIN_PT } from '../../../api/pdf/pdf-layout';
 import { RAW_VALUE_PATTERNS, readPdfWords, wordsOutsideMargins } from '../../support/pdf-words';
+import { ADVICE_CAUTIONS } from '@shared/presentation/index';
 import { syncReviewItems } from '../../../api/reviews/review-sync';
 import { aDescent, aDirectionResult, aRoute, aScenario, aSummary, aVehicleProfile } from '../../support/scenario-fixtures';
 import { sessionCookies } from '../../support/session-cookie';
-import { createTestContext } from '../../support/test-app';
+import { createTestContext, signedInAgent } from '../../support/test-app';
 import { truncateAll } from '../../support/test-database';
 
 const context = createTestContext();
@@ -84,6 +85,8 @@ describe('GET /api/board/summary', () => {
     const items = (await request(app).get('/api/reviews').query({ risk: 'elevated' }).set('Cookie', safety)).body.items;
     await request(app).post(`/api/reviews/${items[0].id}/transitions`).set('Cookie', safety).send({ action: 'acknowledge' });
     await request(app).post(`/api/reviews/${items[0].id}/transitions`).set('Cookie', safety).send({ action: 'accept', reason: 'Short stretch, drivers briefed' });
+    const second = await signedInAgent(app, db, 'safety');
+    await second.agent.post(`/api/reviews/${items[0].id}/transitions`).send({ action: 'sign-off' });
 
     const summary = boardSummarySchema.parse((await request(app).get('/api/board/summary').set('Cookie', await cookieFor('board'))).body);
 
@@ -113,6 +116,20 @@ describe('PUT /api/settings/network', () => {
 
     expect(response.status).toBe(200);
     expect(response.body).toMatchObject({ currency: 'EUR', energyTariffPerKWh: 0.18, isPlaceholder: false, updatedByName: 'Spec admin' });
+  });
+
+  it('saves the safety settings every analysis uses, with their defaults when left out', async () => {
+    const admin = await cookieFor('admin');
+    const factors = { energyTariffPerKWh: 0.18, currency: 'EUR', tariffSource: 'Contract', gridEmissionFactorKgPerKWh: 0.12, emissionFactorSource: 'Supplier' };
+
+    const defaults = (await request(app).put('/api/settings/network').set('Cookie', admin).send(factors)).body;
+    const saved = (await request(app).put('/api/settings/network').set('Cookie', admin).send({ ...factors, worstCaseAmbientC: 38, fadeMarginK: 80 })).body;
+    const refused = await request(app).put('/api/settings/network').set('Cookie', admin).send({ ...factors, fadeMarginK: -5 });
+
+    expect(defaults).toMatchObject({ worstCaseAmbientC: 35, fadeMarginK: 50, maxRoadGradePercent: 15, crawlSpeedKph: 5, crawlDistanceM: 200 });
+    expect(saved).toMatchObject({ worstCaseAmbientC: 38, fadeMarginK: 80 });
+    expect(refused.status).toBe(400);
+    expect(JSON.stringify(refused.body)).toContain('fadeMarginK');
   });
 
   it('answers 400 naming the field and keeps the old factors when the source is missing', async () => {
@@ -234,6 +251,7 @@ describe('the board summary as printed and read (issue 10)', () => {
     expect(text).toContain('High or critical risks accepted: 2 (2 high)');
     expect(text).toContain('Outbound, km 0.1–9.4');
     expect(text).toMatch(/Figures as of \d{1,2} [A-Z][a-z]+ \d{4}, \d\d:\d\d/);
+    for (const caution of ADVICE_CAUTIONS) expect(text).toContain(caution);
   });
 });
 

@@ -1,7 +1,7 @@
 import request from 'supertest';
 import { afterAll, beforeAll, beforeEach, describe, expect, it } from 'vitest';
 import { describeDescentAdvice } from '@shared/presentation/descent-advice';
-import { ENGINEERING_CAUTION } from '@shared/engine/constants';
+import { adviceCautionsText } from '@shared/presentation/advice-cautions';
 import type { ScenarioRow } from '../../../api/db/schema/index';
 import { syncReviewItems } from '../../../api/reviews/review-sync';
 import { startMailCatcher } from '../../support/mail-catcher';
@@ -46,7 +46,8 @@ describe('e-mail to safety officers about new high-risk descents', () => {
     expect(body).toContain('start the descent at or below 55 % SOC');
     expect(body).toContain(`Advice: ${describeDescentAdvice({ speedAdvice: 'limit', maxSafeSpeedKph: 18.7, maxTopSoc: 0.55, fadeThresholdC: 0 }, 'metric').short}`);
     expect(body).toContain(`https://descentry.transit.example/reviews/${report.raised[0]}`);
-    expect(body).toContain(ENGINEERING_CAUTION);
+    expect(body).toContain(adviceCautionsText());
+    expect(body).toContain('Regeneration is not a fail-safe brake');
     expect(await catcher.lastMessageTo(second.email)).toBeDefined();
     expect(await catcher.lastMessageTo(disabled.email)).toBeUndefined();
     expect(await catcher.lastMessageTo(planner.email)).toBeUndefined();
@@ -77,21 +78,27 @@ describe('e-mail to safety officers about new high-risk descents', () => {
 });
 
 describe('e-mail to the planner when their scenario’s item is resolved', () => {
-  it('tells the scenario’s creator that the risk was accepted, with the reason and the link', async () => {
+  it('tells the scenario’s creator once the risk acceptance is signed off, with both officers, the reason and the link', async () => {
     const planner = await aPerson(db, { role: 'planner', name: 'Paul Planner' });
     const reviewId = await aRaisedItemOf(planner.id);
     const safetyCookie = await cookieOf((await aPerson(db, { role: 'safety', name: 'Sara Safety' })).id);
+    const secondCookie = await cookieOf((await aPerson(db, { role: 'safety', name: 'Sam Second' })).id);
 
     await transition(reviewId, safetyCookie, { action: 'acknowledge' });
     await transition(reviewId, safetyCookie, { action: 'accept', reason: 'Retarder fitted on every vehicle of this line' });
     await catcher.deliver();
+    const beforeSignOff = await catcher.lastMessageTo(planner.email);
+    await transition(reviewId, secondCookie, { action: 'sign-off' });
+    await catcher.deliver();
 
+    expect(beforeSignOff).toBeUndefined();
     const message = await catcher.lastMessageTo(planner.email);
     expect(message?.subject).toContain('Descent review risk accepted: Col road 12');
-    expect(message?.textBody).toContain('Sara Safety resolved a descent review item on your scenario');
+    expect(message?.textBody).toContain('Sam Second resolved a descent review item on your scenario');
+    expect(message?.textBody).toContain('proposed by Sara Safety and signed off by Sam Second');
     expect(message?.textBody).toContain('Retarder fitted on every vehicle of this line');
     expect(message?.textBody).toContain(`https://descentry.transit.example/reviews/${reviewId}`);
-    expect(message?.textBody).toContain(ENGINEERING_CAUTION);
+    expect(message?.textBody).toContain(adviceCautionsText());
   });
 
   it('stays quiet for a planner who switched it off', async () => {
@@ -101,7 +108,8 @@ describe('e-mail to the planner when their scenario’s item is resolved', () =>
     const safetyCookie = await cookieOf((await aPerson(db, { role: 'safety' })).id);
 
     await transition(reviewId, safetyCookie, { action: 'acknowledge' });
-    await transition(reviewId, safetyCookie, { action: 'mitigate', mitigation: { vehicleRestriction: 'Midibuses only' } });
+    await transition(reviewId, safetyCookie, { action: 'accept', reason: 'Midibuses only on this line from May' });
+    await transition(reviewId, await cookieOf((await aPerson(db, { role: 'safety' })).id), { action: 'sign-off' });
     await catcher.deliver();
 
     expect(await catcher.lastMessageTo(planner.email)).toBeUndefined();

@@ -33,7 +33,8 @@ describe('review items from scenario runs', () => {
 
     const items = await reviews();
     expect(items).toHaveLength(1);
-    expect(items[0]).toMatchObject({ scenarioId: scenario.id, risk: 'high', state: 'raised', direction: 'outbound', routeName: 'Summit descent' });
+    // The risk is the worst credible case's: with regeneration lost the descent is critical.
+    expect(items[0]).toMatchObject({ scenarioId: scenario.id, risk: 'critical', state: 'raised', direction: 'outbound', routeName: 'Summit descent' });
     expect(await countRows(db, 'mail_outbox')).toBe(1);
   });
 
@@ -50,7 +51,7 @@ describe('review items from scenario runs', () => {
   });
 
   it('re-runs with the mitigation, records the risk before and after, and leaves the planner’s scenario as it was', async () => {
-    const scenario = await aSavedScenario();
+    const scenario = await aSavedScenario({}, SHORT_DESCENT);
     const [item] = await reviews();
     const safety = await cookieFor('safety');
     await request(app).post(`/api/reviews/${item!.id}/transitions`).set('Cookie', safety).send({ action: 'acknowledge' });
@@ -58,17 +59,19 @@ describe('review items from scenario runs', () => {
     const response = await request(app)
       .post(`/api/reviews/${item!.id}/transitions`)
       .set('Cookie', safety)
-      .send({ action: 'mitigate', mitigation: { socCeiling: 0.5 }, note: 'Depot charges to 50 % before the summit run' });
+      .send({ action: 'mitigate', mitigation: { descentSpeedCapKph: await worstCaseSpeedKph(scenario.id) }, note: 'Signs at the worst-case speed on the summit run' });
 
     expect(response.status).toBe(200);
-    expect(response.body.item).toMatchObject({ state: 'mitigated', risk: 'high', mitigatedRisk: 'low', mitigation: { socCeiling: 0.5 } });
-    expect(response.body.event.details).toMatchObject({ riskBefore: 'high', riskAfter: 'low', belowElevated: true });
-    expect(response.body.event.details.rerunStatus).toContain('below elevated');
+    expect(response.body.item.state).toBe('mitigated');
+    expect(['high', 'critical']).toContain(response.body.item.risk);
+    expect(['low', 'elevated']).toContain(response.body.item.mitigatedRisk);
+    expect(response.body.event.details.riskBefore).toBe(response.body.item.risk);
+    expect(response.body.event.details.mitigatedPeakBrakeTempC).toBeLessThan(response.body.event.details.previousPeakBrakeTempC);
     const stored = await request(app).get(`/api/scenarios/${scenario.id}`).set('Cookie', safety);
     expect(stored.body).toMatchObject({ startSoc: 0.95, riskCounts: { high: 1 } });
   });
 
-  it('says so when the mitigation does not bring the risk below elevated', async () => {
+  it('refuses an SOC ceiling alone: the worst case has no regeneration, so the charge at the top cannot help', async () => {
     await aSavedScenario();
     const [item] = await reviews();
     const safety = await cookieFor('safety');
@@ -77,21 +80,42 @@ describe('review items from scenario runs', () => {
     const response = await request(app)
       .post(`/api/reviews/${item!.id}/transitions`)
       .set('Cookie', safety)
-      .send({ action: 'mitigate', mitigation: { descentSpeedCapKph: 20 } });
+      .send({ action: 'mitigate', mitigation: { socCeiling: 0.5 } });
 
-    expect(response.status).toBe(200);
-    expect(response.body.item.mitigatedRisk).toBe('elevated');
-    expect(response.body.event.details).toMatchObject({ riskBefore: 'high', riskAfter: 'elevated', belowElevated: false });
-    expect(response.body.event.details.mitigatedPeakBrakeTempC).toBeLessThan(response.body.event.details.previousPeakBrakeTempC);
+    expect(response.status).toBe(422);
+    expect(response.body.error.details).toMatchObject({ riskBefore: 'critical', riskAfter: 'critical', belowElevated: false });
+  });
+
+  it('refuses with 422 a mitigation whose re-run stays high, returns the re-run’s figures and leaves the item in review', async () => {
+    await aSavedScenario();
+    const [item] = await reviews();
+    const safety = await cookieFor('safety');
+    await request(app).post(`/api/reviews/${item!.id}/transitions`).set('Cookie', safety).send({ action: 'acknowledge' });
+
+    const response = await request(app)
+      .post(`/api/reviews/${item!.id}/transitions`)
+      .set('Cookie', safety)
+      .send({ action: 'mitigate', mitigation: { descentSpeedCapKph: 120, mandatoryRetarder: true } });
+
+    expect(response.status).toBe(422);
+    expect(response.body.error.code).toBe('mitigation_insufficient');
+    expect(response.body.error.message).toMatch(/still gives critical risk/);
+    expect(response.body.error.details).toMatchObject({ riskBefore: 'critical', riskAfter: 'critical', belowElevated: false });
+    const [after] = await reviews();
+    expect(after).toMatchObject({ state: 'in-review', mitigation: null, mitigatedRisk: null });
   });
 
   it('keeps a mitigated item closed on an unchanged rerun and reopens it when the planner makes the scenario harsher', async () => {
-    const scenario = await aSavedScenario({ load: { kind: 'case', case: 'seated' } });
+    const scenario = await aSavedScenario({ load: { kind: 'case', case: 'seated' } }, SHORT_DESCENT);
     const [item] = await reviews();
     const safety = await cookieFor('safety');
     const planner = await cookieFor('planner');
     await request(app).post(`/api/reviews/${item!.id}/transitions`).set('Cookie', safety).send({ action: 'acknowledge' });
-    await request(app).post(`/api/reviews/${item!.id}/transitions`).set('Cookie', safety).send({ action: 'mitigate', mitigation: { socCeiling: 0.5 } });
+    const mitigated = await request(app)
+      .post(`/api/reviews/${item!.id}/transitions`)
+      .set('Cookie', safety)
+      .send({ action: 'mitigate', mitigation: { descentSpeedCapKph: await worstCaseSpeedKph(scenario.id) } });
+    expect(mitigated.status).toBe(200);
 
     await request(app).post(`/api/scenarios/${scenario.id}/run`).set('Cookie', planner);
     const afterRerun = (await reviews())[0]!;
@@ -111,12 +135,18 @@ describe('review items from scenario runs', () => {
 
 // Helpers
 
-async function aSavedScenario(overrides: Partial<ScenarioDraftInput> = {}) {
+/**
+ * A 3 km descent falling 240 m (8 %): with regeneration lost it still gets hot, but a lower
+ * speed can hold it, so a speed cap can mitigate it (the 6 km summit descent is past any speed).
+ */
+const SHORT_DESCENT = { lengthM: 3_000, dropM: 240 };
+
+async function aSavedScenario(overrides: Partial<ScenarioDraftInput> = {}, line: { lengthM: number; dropM: number } = { lengthM: 6_000, dropM: 480 }) {
   const planner = await cookieFor('planner');
   const route = await request(app)
     .post('/api/routes')
     .set('Cookie', planner)
-    .send(aRouteDraft({ name: 'Summit descent', geometry: eastwardLine({ lengthM: 6_000, dropM: 480 }), stops: [], speedLimits: [] }));
+    .send(aRouteDraft({ name: 'Summit descent', geometry: eastwardLine(line), stops: [], speedLimits: [] }));
   if (route.status !== 201) throw new Error(`route: ${route.status} ${route.text}`);
   const response = await request(app).post('/api/scenarios').set('Cookie', planner).send(aDraft(route.body.id, overrides));
   if (response.status !== 201) throw new Error(`scenario: ${response.status} ${response.text}`);
@@ -133,6 +163,14 @@ function aDraft(routeId: string, overrides: Partial<ScenarioDraftInput> = {}): S
     startSoc: 0.95,
     ...overrides,
   };
+}
+
+/** The worst case's advised speed on the scenario's first descent (keeps the brakes under fade less the margin). */
+async function worstCaseSpeedKph(scenarioId: string): Promise<number> {
+  const result = await request(app).get(`/api/scenarios/${scenarioId}/result`).set('Cookie', await cookieFor('safety'));
+  const speed = result.body.directions[0].descents[0].worstCase.maxSafeSpeedKph as number | null;
+  if (speed === null) throw new Error('the summit descent has no worst-case speed advice');
+  return Math.max(5, speed);
 }
 
 async function reviews() {

@@ -134,6 +134,22 @@ describe('reopening after a worse rerun', () => {
     expect(await stateOf(reviewId)).toBe('reopened');
   });
 
+  it('reopens an acceptance still waiting for its sign-off when a rerun makes the descent worse, so nobody signs off old figures', async () => {
+    const { scenario } = await aScenarioWith([aDescent({ risk: 'elevated', peakBrakeTempC: 330 })]);
+    await sync(scenario);
+    const reviewId = (await listItems())[0]!.id;
+    const { agent } = await signedInAgent(app, db, 'safety');
+    await agent.post(`/api/reviews/${reviewId}/transitions`).send({ action: 'acknowledge' });
+    await agent.post(`/api/reviews/${reviewId}/transitions`).send({ action: 'accept', reason: 'Drivers trained for this descent' });
+
+    await sync(scenario, [aDescent({ risk: 'critical', peakBrakeTempC: 610 })]);
+
+    expect(await stateOf(reviewId)).toBe('reopened');
+    const second = await signedInAgent(app, db, 'safety');
+    const signOff = await second.agent.post(`/api/reviews/${reviewId}/transitions`).send({ action: 'sign-off' });
+    expect(signOff.status).toBe(409);
+  });
+
   it('leaves a resolved item alone when a rerun is milder', async () => {
     const { scenario, reviewId } = await anAcceptedItem(aDescent({ risk: 'high', peakBrakeTempC: 470 }));
 
@@ -144,27 +160,112 @@ describe('reopening after a worse rerun', () => {
 });
 
 describe('POST /api/reviews/:reviewId/transitions', () => {
-  it('lets a safety officer acknowledge, then accept with a reason, writing one event per move', async () => {
+  it('lets a safety officer acknowledge and propose acceptance, and a second one sign it off, writing one event per move', async () => {
     const reviewId = await aRaisedItem();
     const { agent, person } = await signedInAgent(app, db, 'safety');
+    const second = await signedInAgent(app, db, 'safety');
 
     const acknowledged = await agent.post(`/api/reviews/${reviewId}/transitions`).send({ action: 'acknowledge', note: 'Looking at it' });
-    const accepted = await agent
+    const proposed = await agent
       .post(`/api/reviews/${reviewId}/transitions`)
       .send({ action: 'accept', reason: 'Retarder fitted on every vehicle of this line' });
+    const signedOff = await second.agent.post(`/api/reviews/${reviewId}/transitions`).send({ action: 'sign-off' });
 
     expect(acknowledged.status).toBe(200);
     expect(acknowledged.body.item.state).toBe('in-review');
-    expect(accepted.status).toBe(200);
-    expect(accepted.body.item).toMatchObject({ state: 'accepted', acceptanceReason: 'Retarder fitted on every vehicle of this line' });
-    expect(accepted.body.caution).toBe(ENGINEERING_CAUTION);
+    expect(proposed.status).toBe(200);
+    expect(proposed.body.item).toMatchObject({
+      state: 'awaiting-sign-off',
+      acceptanceReason: 'Retarder fitted on every vehicle of this line',
+      acceptanceProposedByName: person.name,
+      acceptanceSignedOffByName: null,
+    });
+    expect(signedOff.status).toBe(200);
+    expect(signedOff.body.item).toMatchObject({
+      state: 'accepted',
+      acceptanceReason: 'Retarder fitted on every vehicle of this line',
+      acceptanceProposedByName: person.name,
+      acceptanceSignedOffByName: second.person.name,
+    });
+    expect(signedOff.body.caution).toBe(ENGINEERING_CAUTION);
     const events = (await agent.get(`/api/reviews/${reviewId}/events`)).body.items;
     expect(events.map((event: { fromState: string | null; toState: string }) => [event.fromState, event.toState])).toEqual([
       [null, 'raised'],
       ['raised', 'in-review'],
-      ['in-review', 'accepted'],
+      ['in-review', 'awaiting-sign-off'],
+      ['awaiting-sign-off', 'accepted'],
     ]);
     expect(events[1]).toMatchObject({ actorName: person.name, note: 'Looking at it' });
+    expect(events[3]).toMatchObject({ actorName: second.person.name, details: { proposedBy: person.name, signedOffBy: second.person.name } });
+  });
+
+  it('answers 403 when the safety officer who proposed an acceptance signs it off, and keeps it waiting', async () => {
+    const reviewId = await aRaisedItem();
+    const { agent } = await signedInAgent(app, db, 'safety');
+    await agent.post(`/api/reviews/${reviewId}/transitions`).send({ action: 'acknowledge' });
+    await agent.post(`/api/reviews/${reviewId}/transitions`).send({ action: 'accept', reason: 'Drivers trained for this descent' });
+
+    const response = await agent.post(`/api/reviews/${reviewId}/transitions`).send({ action: 'sign-off' });
+
+    expect(response.status).toBe(403);
+    expect(response.body.error).toMatchObject({ code: 'second_officer_required' });
+    expect(response.body.error.message).toMatch(/second safety officer/);
+    expect(await stateOf(reviewId)).toBe('awaiting-sign-off');
+    expect(await countRows(db, 'review_events')).toBe(3);
+  });
+
+  it('sends a proposed acceptance back to review when a second safety officer declines it', async () => {
+    const reviewId = await aRaisedItem();
+    const { agent } = await signedInAgent(app, db, 'safety');
+    const second = await signedInAgent(app, db, 'safety');
+    await agent.post(`/api/reviews/${reviewId}/transitions`).send({ action: 'acknowledge' });
+    await agent.post(`/api/reviews/${reviewId}/transitions`).send({ action: 'accept', reason: 'Drivers trained for this descent' });
+
+    const response = await second.agent
+      .post(`/api/reviews/${reviewId}/transitions`)
+      .send({ action: 'decline', note: 'Training alone does not keep the brakes cool' });
+
+    expect(response.status).toBe(200);
+    expect(response.body.item).toMatchObject({ state: 'in-review', acceptanceReason: null, acceptanceProposedByName: null });
+  });
+
+  it('counts a proposed acceptance as open on the board until it is signed off, then as an accepted risk', async () => {
+    const reviewId = await aRaisedItem();
+    const { agent } = await signedInAgent(app, db, 'safety');
+    const second = await signedInAgent(app, db, 'safety');
+    const { agent: board } = await signedInAgent(app, db, 'board');
+    await agent.post(`/api/reviews/${reviewId}/transitions`).send({ action: 'acknowledge' });
+    await agent.post(`/api/reviews/${reviewId}/transitions`).send({ action: 'accept', reason: 'Drivers trained for this descent' });
+
+    const waiting = (await board.get('/api/board/summary')).body;
+    await second.agent.post(`/api/reviews/${reviewId}/transitions`).send({ action: 'sign-off' });
+    const signed = (await board.get('/api/board/summary')).body;
+
+    expect(waiting.openSafetyItems).toEqual({ elevated: 0, high: 1, critical: 0 });
+    expect(waiting.acceptedRisks).toEqual({ high: 0, critical: 0 });
+    expect(signed.openSafetyItems).toEqual({ elevated: 0, high: 0, critical: 0 });
+    expect(signed.acceptedRisks).toEqual({ high: 1, critical: 0 });
+  });
+
+  it('writes every review decision to the audit log with the move, the states and the current risk', async () => {
+    const reviewId = await aRaisedItem();
+    const { agent, person } = await signedInAgent(app, db, 'safety');
+    const { agent: admin } = await signedInAgent(app, db, 'admin');
+
+    await agent.post(`/api/reviews/${reviewId}/transitions`).send({ action: 'acknowledge' });
+    await agent.post(`/api/reviews/${reviewId}/transitions`).send({ action: 'accept', reason: 'Drivers trained for this descent' });
+
+    const log = await admin.get('/api/audit-log').query({ kind: 'review-item', entityId: reviewId });
+    expect(log.status).toBe(200);
+    expect(log.body.items.map((entry: { action: string; details: { move: string } }) => [entry.action, entry.details.move])).toEqual([
+      ['review-decision', 'accept'],
+      ['review-decision', 'acknowledge'],
+    ]);
+    expect(log.body.items[0]).toMatchObject({
+      actor: { name: person.name },
+      entityName: expect.stringContaining('Pass road 7'),
+      details: { fromState: 'in-review', toState: 'awaiting-sign-off', risk: 'high', note: 'Drivers trained for this descent' },
+    });
   });
 
   it.each(['planner', 'analyst', 'board', 'admin'] as const)('answers 403 to a %s and changes nothing', async (role) => {
@@ -215,7 +316,7 @@ describe('POST /api/reviews/:reviewId/transitions', () => {
     expect(await stateOf(reviewId)).toBe('in-review');
   });
 
-  it('records a measure the engine cannot model without a re-run', async () => {
+  it('answers 422 for a mitigation with only measures the model does not represent, pointing to risk acceptance', async () => {
     const reviewId = await aRaisedItem();
     const { agent } = await signedInAgent(app, db, 'safety');
     await agent.post(`/api/reviews/${reviewId}/transitions`).send({ action: 'acknowledge' });
@@ -224,9 +325,25 @@ describe('POST /api/reviews/:reviewId/transitions', () => {
       .post(`/api/reviews/${reviewId}/transitions`)
       .send({ action: 'mitigate', mitigation: { vehicleRestriction: 'No articulated buses', mandatoryRetarder: true } });
 
-    expect(response.status).toBe(200);
-    expect(response.body.item).toMatchObject({ state: 'mitigated', mitigation: { vehicleRestriction: 'No articulated buses' }, mitigatedRisk: null });
-    expect(response.body.event.details.rerunStatus).toMatch(/^Not re-run/);
+    expect(response.status).toBe(422);
+    expect(response.body.error.code).toBe('measure_not_modelled');
+    expect(response.body.error.message).toMatch(/accepting the risk/);
+    expect(await stateOf(reviewId)).toBe('in-review');
+    expect(await countRows(db, 'review_events')).toBe(2);
+  });
+
+  it('answers 400 when a mitigation asks to be recorded without a re-run', async () => {
+    const reviewId = await aRaisedItem();
+    const { agent } = await signedInAgent(app, db, 'safety');
+    await agent.post(`/api/reviews/${reviewId}/transitions`).send({ action: 'acknowledge' });
+
+    const response = await agent
+      .post(`/api/reviews/${reviewId}/transitions`)
+      .send({ action: 'mitigate', mitigation: { descentSpeedCapKph: 20 }, rerun: false });
+
+    expect(response.status).toBe(400);
+    expect(JSON.stringify(response.body.error)).toContain('re-run');
+    expect(await stateOf(reviewId)).toBe('in-review');
   });
 
   it('lets a safety officer reopen a resolved item with a note', async () => {
@@ -366,6 +483,8 @@ async function anAcceptedItem(descent: ReturnType<typeof aDescent>) {
   const { agent } = await signedInAgent(app, db, 'safety');
   await agent.post(`/api/reviews/${reviewId}/transitions`).send({ action: 'acknowledge' });
   await agent.post(`/api/reviews/${reviewId}/transitions`).send({ action: 'accept', reason: 'Drivers trained for this descent' });
+  const second = await signedInAgent(app, db, 'safety');
+  await second.agent.post(`/api/reviews/${reviewId}/transitions`).send({ action: 'sign-off' });
   return { scenario, reviewId };
 }
 

@@ -9,6 +9,7 @@ import { sessionCookies } from '../../support/session-cookie';
 import { countRows, truncateAll } from '../../support/test-database';
 import { aRouteDraft, eastwardLine } from '../../support/road-route-builders';
 import { RAW_VALUE_PATTERNS, readPdfWords, wordsOutsideMargins } from '../../support/pdf-words';
+import { ADVICE_CAUTIONS, ADVICE_CAUTIONS_TITLE, RISK_LABELS, formatSafeSpeed } from '@shared/presentation/index';
 import { MARGIN_PT } from '../../../api/pdf/pdf-layout';
 import { SUMMARY_FIGURES, formatFigure } from '@shared/presentation/figures';
 import { profileCsvHeader } from '@shared/presentation/profile-columns';
@@ -188,13 +189,28 @@ describe('versions and staleness', () => {
     expect(after).toMatchObject({ routeVersionPinned: true, routeVersion: 1, latestRouteVersion: 2, isStale: false, routeName: 'Spec line 1' });
   });
 
+  it('refuses with 400 a passenger count that takes the bus above its 19.5 t permissible gross mass, and writes nothing', async () => {
+    const route = await aRoute();
+    // 13 500 kg curb + 90 × 70 kg = 19 800 kg > 19 500 kg (two-axle bus limit of the preset).
+    const response = await request(app)
+      .post('/api/scenarios')
+      .set('Cookie', planner)
+      .send(aScenarioDraft(route.id, { load: { kind: 'passengers', passengers: 90 } }));
+
+    expect(response.status).toBe(400);
+    expect(response.body.error.message).toMatch(/load\.passengers: this load takes .* to 19800 kg, above its permissible gross mass of 19500 kg/);
+    expect(await countRows(db, 'scenarios')).toBe(0);
+  });
+
   it('marks the scenario stale after a vehicle-profile edit, and a re-run clears it', async () => {
     const analyst = await cookieFor('analyst');
     const preset = (await request(app).get(`/api/vehicles/${BUS}`).set('Cookie', analyst)).body;
     const own = (await request(app).post('/api/vehicles').set('Cookie', analyst).send({ ...preset, name: 'Own bus' })).body;
     const route = await aRoute();
     const scenario = (await request(app).post('/api/scenarios').set('Cookie', planner).send(aScenarioDraft(route.id, { vehicleProfileId: own.id }))).body;
-    await request(app).put(`/api/vehicles/${own.id}`).set('Cookie', analyst).send({ ...preset, name: 'Own bus', vehicle: { ...preset.vehicle, curbMassKg: 14_000 } });
+    // 13 t curb: lighter, so every load case stays within the 19.5 t permissible gross mass.
+    const edit = await request(app).put(`/api/vehicles/${own.id}`).set('Cookie', analyst).send({ ...preset, name: 'Own bus', vehicle: { ...preset.vehicle, curbMassKg: 13_000 } });
+    expect(edit.status).toBe(200);
 
     const stale = (await request(app).get(`/api/scenarios/${scenario.id}`).set('Cookie', planner)).body;
     const rerun = (await request(app).post(`/api/scenarios/${scenario.id}/run`).set('Cookie', planner)).body;
@@ -300,6 +316,56 @@ describe('exports', () => {
   });
 });
 
+describe('GET /api/scenarios/:scenarioId/descent-cards.pdf', () => {
+  it('prints one A4 page per descent inside the margins, with worst-case advice, cautions, sign-off fields and the drivers warning', async () => {
+    const route = await aRoute({ name: 'Summit descent', geometry: eastwardLine({ lengthM: 6_000, dropM: 480 }) });
+    const scenario = (
+      await request(app).post('/api/scenarios').set('Cookie', planner).send(aScenarioDraft(route.id, { direction: 'round-trip', startSoc: 0.95 }))
+    ).body;
+    const result = scenarioResultSchema.parse((await request(app).get(`/api/scenarios/${scenario.id}/result`).set('Cookie', planner)).body);
+    const descents = result.directions.flatMap((direction) => direction.descents);
+
+    const pdf = readPdfWords(await downloadPdf(`/api/scenarios/${scenario.id}/descent-cards.pdf`));
+
+    expect(descents.length).toBeGreaterThan(0);
+    expect(pdf.pages).toHaveLength(descents.length);
+    for (const page of pdf.pages) expect([Math.round(page.width), Math.round(page.height)]).toEqual([595, 842]);
+    expect(wordsOutsideMargins(pdf, MARGIN_PT)).toEqual([]);
+    const first = descents[0]!;
+    const text = pdf.text[0]!;
+    for (const raw of RAW_VALUE_PATTERNS) expect(text).not.toMatch(raw);
+    expect(text).toContain('Descent card: Summit descent');
+    expect(text).toContain('Not for drivers without engineering sign-off.');
+    expect(text).toContain('Advice under the worst credible case');
+    expect(text).toContain(`Risk ${RISK_LABELS[first.risk]} (worst case)`);
+    if (first.worstCase?.speedAdvice === 'limit') {
+      expect(text).toContain(`At or below ${formatSafeSpeed(first.worstCase.maxSafeSpeedKph!, 'metric')} on the whole descent, even with regeneration lost.`);
+    }
+    expect(text).toContain('regeneration unavailable');
+    expect(text).toContain('Where to stop to cool');
+    expect(text).toMatch(/\d+ (m|km)/); // the scale bar
+    for (const caution of ADVICE_CAUTIONS) expect(text).toContain(caution);
+    for (const field of ['Checked by (licensed engineer)', 'Approved by (safety officer)', 'Issued to the depot by']) expect(text).toContain(field);
+  });
+
+  it('prints the one descent of a direction that covers a point, and answers 404 where there is none and 400 for half a choice', async () => {
+    const route = await aRoute({ name: 'Summit descent', geometry: eastwardLine({ lengthM: 6_000, dropM: 480 }) });
+    const scenario = (await request(app).post('/api/scenarios').set('Cookie', planner).send(aScenarioDraft(route.id, { startSoc: 0.95 }))).body;
+    const result = scenarioResultSchema.parse((await request(app).get(`/api/scenarios/${scenario.id}/result`).set('Cookie', planner)).body);
+    const descent = result.directions[0]!.descents[0]!;
+
+    const one = readPdfWords(await downloadPdf(`/api/scenarios/${scenario.id}/descent-cards.pdf?direction=outbound&atM=${(descent.startM + descent.endM) / 2}`));
+    const none = await request(app).get(`/api/scenarios/${scenario.id}/descent-cards.pdf`).query({ direction: 'inbound', atM: 10 }).set('Cookie', planner);
+    const half = await request(app).get(`/api/scenarios/${scenario.id}/descent-cards.pdf`).query({ direction: 'outbound' }).set('Cookie', planner);
+
+    expect(one.pages).toHaveLength(1);
+    expect(none.status).toBe(404);
+    expect(none.body.error.message).toContain('inbound descent');
+    expect(half.status).toBe(400);
+    expect(JSON.stringify(half.body.error)).toContain('atM');
+  });
+});
+
 describe('the PDF report as printed (issue 10)', () => {
   it('keeps every word inside the A4 margins, prints human labels and local dates, and keeps the caution whole', async () => {
     const route = await aRoute({
@@ -332,6 +398,11 @@ describe('the PDF report as printed (issue 10)', () => {
     const cautionEnd = ENGINEERING_CAUTION.split(' ').slice(-4).join(' ');
     for (const text of pdf.text.filter((page) => page.includes(cautionStart))) expect(text).toContain(cautionEnd);
     for (const text of pdf.text) expect(text.split(' ').length).toBeGreaterThan(40);
+    // The advice cautions stand whole under the descents table, on one page.
+    const advicePage = pdf.text.find((page) => page.includes(ADVICE_CAUTIONS_TITLE));
+    expect(advicePage).toBeDefined();
+    for (const caution of ADVICE_CAUTIONS) expect(advicePage).toContain(caution);
+    expect(all.indexOf(ADVICE_CAUTIONS_TITLE)).toBeGreaterThan(all.indexOf('Advice (rounded toward safety)'));
   });
 });
 

@@ -61,6 +61,20 @@ describe('POST /api/vehicles', () => {
     expect(await countRows(db, 'vehicle_profiles')).toBe(VEHICLE_PRESETS.length);
   });
 
+  it('answers 400 naming the load case that exceeds the permissible gross mass, and writes nothing', async () => {
+    const draft = aProfileDraft();
+    // 13 200 kg curb + 6 500 kg full standing load = 19 700 kg > 19 500 kg permissible.
+    const response = await request(app)
+      .post('/api/vehicles')
+      .set('Cookie', analyst)
+      .send({ ...draft, vehicle: { ...draft.vehicle, permissibleGrossMassKg: 19_500 }, loadsKg: { ...draft.loadsKg, 'full-standing': 6_500 } });
+
+    expect(response.status).toBe(400);
+    expect(response.body.error.message).toMatch(/loadsKg\.full-standing/);
+    expect(response.body.error.message).toMatch(/19700 kg, above its permissible gross mass of 19500 kg/);
+    expect(await countRows(db, 'vehicle_profiles')).toBe(VEHICLE_PRESETS.length);
+  });
+
   it('answers 403 to a planner', async () => {
     const response = await request(app).post('/api/vehicles').set('Cookie', await cookieFor('planner')).send(aProfileDraft());
 

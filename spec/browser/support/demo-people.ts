@@ -31,6 +31,18 @@ export function demoEmail(role: DemoRole): string {
   return `${role}@descentry.example`;
 }
 
+/** The demo's second safety officer, who signs off risk acceptances the first one proposes. */
+export const SECOND_SAFETY_EMAIL = 'second.safety@descentry.example';
+
+/** Signs the second safety officer in through the sign-in page (home: the descent review). */
+export async function signInAsSecondSafetyOfficer(page: Page): Promise<void> {
+  await page.goto(`${BASE_URL}/sign-in`);
+  await page.getByLabel('E-mail address').fill(SECOND_SAFETY_EMAIL);
+  await page.getByLabel('Password', { exact: true }).fill(DEMO_PASSWORD);
+  await page.getByRole('button', { name: 'Sign in' }).click();
+  await page.getByRole('heading', { level: 1, name: ROLE_EXPECTATIONS.safety.homeHeading, exact: true }).waitFor();
+}
+
 /** Signs in through the sign-in page and waits for the home page. */
 export async function signInAs(page: Page, role: DemoRole, password = DEMO_PASSWORD): Promise<void> {
   await page.goto(`${BASE_URL}/sign-in`);

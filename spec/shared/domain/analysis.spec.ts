@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { optionsSchema, previewRequestSchema, vehicleSchema } from '../../../shared/domain/analysis';
+import { descentSchema, optionsSchema, previewRequestSchema, vehicleSchema } from '../../../shared/domain/analysis';
 import { aWorkedExampleBus } from '../support/engine-builders';
 
 describe('vehicleSchema', () => {
@@ -52,5 +52,66 @@ describe('previewRequestSchema', () => {
     const result = previewRequestSchema.safeParse({ route: { type: 'LineString', coordinates: [[8, 91], [8, 46]] }, vehicle: aWorkedExampleBus() });
 
     expect(result.success).toBe(false);
+  });
+});
+
+describe('descentSchema on results stored before the safety-grade assessment', () => {
+  // A descent as engine 1.1.0 stored it: no worst case, sensitivity, axle groups, adhesion,
+  // drivability or SOC reason.
+  const stored = {
+    startM: 9_417,
+    endM: 25_289,
+    lengthM: 15_872,
+    dropM: 1_147,
+    meanGradePercent: -7.2,
+    maxGradePercent: -8.1,
+    gravityEnergyWh: 61_000,
+    brakingEnergyWh: 50_000,
+    regenEnergyWh: 38_000,
+    frictionBrakeEnergyWh: 6_000,
+    retarderEnergyWh: 0,
+    peakBrakeTempC: 116,
+    gsrsPeakBrakeTempC: 34,
+    risk: 'low',
+    fadeThresholdC: 450,
+    maxSafeSpeedKph: null,
+    speedAdvice: 'no-limit-needed',
+    maxTopSoc: null,
+    socAtTop: 0.88,
+    beyondTypeApprovalReference: true,
+  };
+
+  it('still loads, with the new fields absent', () => {
+    const descent = descentSchema.parse(stored);
+
+    expect(descent.worstCase).toBeUndefined();
+    expect(descent.nominalRisk).toBeUndefined();
+    expect(descent.risk).toBe('low');
+  });
+
+  it('refuses a worst case that claims regeneration was available', () => {
+    const worstCase = {
+      peakBrakeTempC: 600,
+      risk: 'critical',
+      maxSafeSpeedKph: 6,
+      speedAdvice: 'limit',
+      conditions: { regenerationAvailable: true, brakingResistorAvailable: false, retarderAvailable: false, socAtTop: 0.95, massKg: 19_500, massBasis: 'permissible-gross-mass', ambientC: 35, brakeTempAtTopC: 35, surface: 'dry' },
+    };
+
+    expect(() => descentSchema.parse({ ...stored, worstCase })).toThrow(/regenerationAvailable/);
+  });
+});
+
+describe('vehicleSchema permissible gross mass', () => {
+  it('refuses a payload above the permissible gross mass, naming payloadKg', () => {
+    // 13 500 + 6 100 = 19 600 kg > 19 500 kg.
+    expect(() => vehicleSchema.parse(aWorkedExampleBus({ curbMassKg: 13_500, payloadKg: 6_100, permissibleGrossMassKg: 19_500 }))).toThrow(
+      /payloadKg[\s\S]*19600 kg \(curb \+ payload\) exceeds the permissible gross mass of 19500 kg/,
+    );
+    expect(() => vehicleSchema.parse(aWorkedExampleBus({ curbMassKg: 13_500, payloadKg: 6_000, permissibleGrossMassKg: 19_500 }))).not.toThrow();
+  });
+
+  it('refuses a continuous regeneration rating above the peak', () => {
+    expect(() => vehicleSchema.parse(aWorkedExampleBus({ regenPowerW: 100_000, regenContinuousPowerW: 120_000 }))).toThrow(/regenContinuousPowerW/);
   });
 });

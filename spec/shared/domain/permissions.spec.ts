@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { AUDITED_KINDS } from '@shared/domain/audit';
+import { RESTORABLE_KINDS } from '@shared/domain/audit';
 import { PERMISSIONS, RESTORE_PERMISSION, can, rolesWith, type Permission } from '@shared/domain/permissions';
 import { ROLES } from '@shared/domain/roles';
 
@@ -38,7 +38,7 @@ describe('the permission policy', () => {
   });
 
   it('restores each deleted kind with the permission that changes it', () => {
-    for (const kind of AUDITED_KINDS) expect(rolesWith(RESTORE_PERMISSION[kind]).length).toBeGreaterThan(0);
+    for (const kind of RESTORABLE_KINDS) expect(rolesWith(RESTORE_PERMISSION[kind]).length).toBeGreaterThan(0);
     expect(rolesWith(RESTORE_PERMISSION.route)).toEqual(['planner']);
     expect(rolesWith(RESTORE_PERMISSION.terrain)).toEqual(['analyst', 'admin']);
   });

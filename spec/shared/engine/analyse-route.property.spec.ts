@@ -72,6 +72,29 @@ const requests: fc.Arbitrary<PreviewRequestInput> = fc
     };
   });
 
+/**
+ * The same random vehicles, conditions and options on a route that surely descends: a flat
+ * approach, then 0.6–6 km at 3.5–12 %, then a flat run-out.
+ */
+const descentRequests: fc.Arbitrary<PreviewRequestInput> = fc
+  .tuple(requests, fc.double({ min: 0.035, max: 0.12, noNaN: true }), fc.double({ min: 600, max: 6_000, noNaN: true }))
+  .map(([request, grade, lengthM]) => ({
+    ...request,
+    route: {
+      type: 'LineString' as const,
+      coordinates: [
+        [8, 46, 1_800],
+        [8, 46.002, 1_800],
+        ...Array.from({ length: 11 }, (_, i) => {
+          const s = (i + 1) / 11;
+          return [8, 46.002 + (s * lengthM) / 111_200, 1_800 - grade * s * lengthM] as [number, number, number];
+        }),
+        [8, 46.004 + lengthM / 111_200, 1_800 - grade * lengthM],
+      ],
+    },
+    options: { ...request.options, stops: [] },
+  }));
+
 describe('analyseRoute over random routes and vehicles (property-based)', () => {
   it('never yields NaN, keeps SOC in [0, 1], brakes at or above ambient, friction ≥ 0 and speed within every limit', async () => {
     await fc.assert(
@@ -102,4 +125,64 @@ describe('analyseRoute over random routes and vehicles (property-based)', () => 
       { numRuns: 60, seed: 20_261_202 },
     );
   });
+
+  it('never reports a worst case cooler than the nominal run, the worst-case run itself included', async () => {
+    let descents = 0;
+    await fc.assert(
+      fc.asyncProperty(descentRequests, async (request) => {
+        const { response } = await analyseRouteDetailed(request);
+
+        descents += response.descents.length;
+        for (const descent of response.descents) {
+          const nominal = Math.max(descent.peakBrakeTempC, descent.peakBrakeTempByAxleC!.front, descent.peakBrakeTempByAxleC!.rear);
+          const worst = descent.worstCase!;
+          expect(worst.peakBrakeTempC).toBeGreaterThanOrEqual(nominal - 1e-6);
+          // The worst-case run's own brake groups (before any floor at the nominal peak).
+          expect(worst.peakBrakeTempByAxleC!.front).toBeGreaterThanOrEqual(descent.peakBrakeTempByAxleC!.front - 1e-6);
+          expect(worst.peakBrakeTempByAxleC!.rear).toBeGreaterThanOrEqual(descent.peakBrakeTempByAxleC!.rear - 1e-6);
+          expect(RISK_ORDER.indexOf(descent.risk)).toBeGreaterThanOrEqual(RISK_ORDER.indexOf(descent.nominalRisk!));
+        }
+      }),
+      { numRuns: 40, seed: 20_261_203 },
+    );
+    expect(descents).toBeGreaterThan(20);
+  });
+
+  it('never raises the speed or SOC advice when the margin below fade grows', async () => {
+    let limits = 0;
+    const margins = fc.tuple(fc.double({ min: 0, max: 150, noNaN: true }), fc.double({ min: 0, max: 150, noNaN: true }));
+    await fc.assert(
+      fc.asyncProperty(descentRequests, margins, async (request, [a, b]) => {
+        const [small, large] = a <= b ? [a, b] : [b, a];
+        const withMargin = (fadeMarginK: number) =>
+          analyseRouteDetailed({ ...request, options: { ...request.options, safety: { fadeMarginK } } });
+        const [loose, tight] = await Promise.all([withMargin(small), withMargin(large)]);
+
+        loose.response.descents.forEach((descent, i) => {
+          const other = tight.response.descents[i]!;
+          if (descent.speedAdvice === 'limit' || descent.maxTopSoc !== null) limits++;
+          expect(speedRank(other)).toBeLessThanOrEqual(speedRank(descent));
+          expect(speedRank(other.worstCase!)).toBeLessThanOrEqual(speedRank(descent.worstCase!));
+          expect(socRank(other)).toBeLessThanOrEqual(socRank(descent));
+        });
+      }),
+      { numRuns: 25, seed: 20_261_204 },
+    );
+    expect(limits).toBeGreaterThan(5);
+  });
 });
+
+const RISK_ORDER = ['low', 'elevated', 'high', 'critical'];
+
+/** Speed advice as a number: no limit needed is any speed, not holdable none. */
+function speedRank(advice: { speedAdvice: string; maxSafeSpeedKph: number | null }): number {
+  if (advice.speedAdvice === 'no-limit-needed') return Number.POSITIVE_INFINITY;
+  if (advice.speedAdvice === 'limit') return advice.maxSafeSpeedKph!;
+  return 0;
+}
+
+/** SOC advice as a number: no SOC keeps the brakes cool is none; SOC playing no part stays apart. */
+function socRank(descent: { maxTopSoc: number | null; maxTopSocReason?: string | null }): number {
+  if (descent.maxTopSoc !== null) return descent.maxTopSoc;
+  return descent.maxTopSocReason === 'no-soc-keeps-brakes-cool' ? -1 : Number.NEGATIVE_INFINITY;
+}

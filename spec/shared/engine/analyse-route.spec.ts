@@ -6,6 +6,7 @@ import {
   ENGINEERING_CAUTION,
   replayDescent,
   STANDARD_GRAVITY_MPS2,
+  stateAt,
   UncoveredTerrainError,
   type DetailedAnalysis,
 } from '../../../shared/engine/index';
@@ -129,33 +130,38 @@ describe('analyseRoute', () => {
   });
 
   describe('advice', () => {
-    it('finds a maxSafeSpeedKph whose peak brake temperature stays at the threshold and 0.05 km/h more exceeds it', async () => {
+    it('finds a maxSafeSpeedKph in whole km/h whose peak stays 50 K under the fade threshold and 1 km/h more does not', async () => {
       const detailed = await analyseRouteDetailed(aMountainRequest());
       const descent = detailed.response.descents[0]!;
       const range = rangeOf(detailed, descent.startM, descent.endM);
       const top = range.firstSegment;
-
+      const start = stateAt(detailed.run, top);
+      // The advice keeps the hotter brake group at or below 450 °C (disc fade) − 50 K = 400 °C.
+      const limitC = descent.fadeThresholdC - descent.fadeMarginK!;
       const peakAt = (kph: number) =>
-        replayDescent(detailed.model, detailed.run, range, kph / 3.6, detailed.run.soc[top]!, detailed.run.brakeTempC[top]!).peakBrakeTempC;
+        replayDescent(detailed.model, detailed.run, range, kph / 3.6, start.soc, start.brakeTempC, { start }).peakGoverningC;
 
+      expect(limitC).toBe(400);
       expect(descent.speedAdvice).toBe('limit');
-      expect(descent.maxSafeSpeedKph).not.toBeNull();
-      expect(peakAt(descent.maxSafeSpeedKph!)).toBeLessThanOrEqual(descent.fadeThresholdC);
-      expect(peakAt(descent.maxSafeSpeedKph! + 0.05)).toBeGreaterThan(descent.fadeThresholdC);
+      expect(Number.isInteger(descent.maxSafeSpeedKph)).toBe(true);
+      expect(peakAt(descent.maxSafeSpeedKph!)).toBeLessThanOrEqual(limitC);
+      expect(peakAt(descent.maxSafeSpeedKph! + 1)).toBeGreaterThan(limitC);
     });
 
-    it('finds a maxTopSoc at which regeneration takes the whole descent and 0.005 more SOC does not', async () => {
+    it('finds a maxTopSoc in whole percent whose peak stays 50 K under fade with regeneration working, and 1 point more does not', async () => {
       const detailed = await analyseRouteDetailed(aMountainRequest({ regenPowerW: 300_000 }));
       const descent = detailed.response.descents[0]!;
       const range = rangeOf(detailed, descent.startM, descent.endM);
-      const replay = (soc: number) => replayDescent(detailed.model, detailed.run, range, null, soc, 20, { trackBrakes: false });
-      const empty = replay(0);
-      const allowedJ = empty.nonRegenBrakingJ + 0.001 * empty.brakingJ + 3_600;
+      const start = stateAt(detailed.run, range.firstSegment);
+      const limitC = descent.fadeThresholdC - descent.fadeMarginK!;
+      const peakAt = (soc: number) => replayDescent(detailed.model, detailed.run, range, null, soc, start.brakeTempC, { start }).peakGoverningC;
 
       expect(descent.maxTopSoc).not.toBeNull();
+      expect(descent.maxTopSocReason).toBeNull();
+      expect(Math.round(descent.maxTopSoc! * 100)).toBeCloseTo(descent.maxTopSoc! * 100, 9);
       expect(descent.maxTopSoc!).toBeGreaterThan(0.5);
-      expect(replay(descent.maxTopSoc!).nonRegenBrakingJ).toBeLessThanOrEqual(allowedJ);
-      expect(replay(descent.maxTopSoc! + 0.005).nonRegenBrakingJ).toBeGreaterThan(allowedJ);
+      expect(peakAt(descent.maxTopSoc!)).toBeLessThanOrEqual(limitC);
+      expect(peakAt(descent.maxTopSoc! + 0.01)).toBeGreaterThan(limitC);
     });
 
     it('says no limit is needed when the brakes never approach fade', async () => {

@@ -17,7 +17,15 @@ describe('describeAuditDetails', () => {
       { label: 'Risk before', value: 'High' },
       { label: 'Risk after', value: 'Elevated' },
       { label: 'Peak brake temperature with the mitigation', value: '402.4 °C' },
-      { label: 'Re-run requested', value: 'yes' },
+      { label: 'Re-run with the measure', value: 'yes' },
+    ]);
+  });
+
+  it('names both safety officers of a signed-off acceptance', () => {
+    expect(describeAuditDetails({ reason: 'Drivers trained', proposedBy: 'Ada Officer', signedOffBy: 'Ben Officer' })).toEqual([
+      { label: 'Reason', value: 'Drivers trained' },
+      { label: 'Proposed by', value: 'Ada Officer' },
+      { label: 'Signed off by', value: 'Ben Officer' },
     ]);
   });
 

@@ -8,6 +8,7 @@ import { MatInputHarness } from '@angular/material/input/testing';
 import { provideRouter } from '@angular/router';
 import type { ReviewItem, ReviewTransitionResult } from '@shared/domain/reviews';
 import { apiErrorInterceptor } from '../../../web/app/core/api-error-interceptor';
+import { Session } from '../../../web/app/core/session';
 import { ReviewActions } from '../../../web/app/reviews/review-actions';
 import { aReviewItem, anAuditEvent } from '../support/review-builders';
 import { settle } from '../support/settle';
@@ -34,7 +35,34 @@ describe('ReviewActions', () => {
 
     fixture.componentRef.setInput('item', aReviewItem({ state: 'in-review' }));
     await fixture.whenStable();
-    expect(await buttonTexts(loader)).toEqual(['Record mitigation', 'Accept risk']);
+    expect(await buttonTexts(loader)).toEqual(['Record mitigation', 'Propose risk acceptance']);
+  });
+
+  it('offers the sign-off to a second safety officer, and only the send-back to the one who proposed it', async () => {
+    const session = TestBed.inject(Session);
+    vi.spyOn(session, 'user').mockReturnValue(aUser({ id: PROPOSER_ID }));
+    const { fixture, loader } = await render(aReviewItem({ state: 'awaiting-sign-off', acceptanceProposedById: OTHER_ID }));
+    expect(await buttonTexts(loader)).toEqual(['Sign off acceptance', 'Send back']);
+
+    fixture.componentRef.setInput('item', aReviewItem({ state: 'awaiting-sign-off', acceptanceProposedById: PROPOSER_ID }));
+    await fixture.whenStable();
+    expect(await buttonTexts(loader)).toEqual(['Send back']);
+    expect(fixture.nativeElement.querySelector('[data-testid="awaiting-second-officer"]')?.textContent).toContain(
+      'Another safety officer must sign it off',
+    );
+  });
+
+  it('signs off with one click', async () => {
+    const item = aReviewItem({ state: 'awaiting-sign-off', acceptanceProposedById: OTHER_ID });
+    const { fixture, loader, emitted } = await render(item);
+
+    await (await loader.getHarness(MatButtonHarness.with({ text: /Sign off acceptance/ }))).click();
+    const request = httpTesting.expectOne({ method: 'POST', url: `/api/reviews/${item.id}/transitions` });
+    request.flush(resultFor({ ...item, state: 'accepted' }));
+    await settle(fixture);
+
+    expect(request.request.body).toEqual({ action: 'sign-off' });
+    expect(emitted[0]?.result.item.state).toBe('accepted');
   });
 
   it('acknowledges with one click and reports the server answer', async () => {
@@ -54,20 +82,32 @@ describe('ReviewActions', () => {
     const { fixture, loader } = await render(aReviewItem({ state: 'in-review' }));
 
     await (await loader.getHarness(MatButtonHarness.with({ text: /Record mitigation/ }))).click();
-    await (await loader.getHarness(MatButtonHarness.with({ text: 'Save mitigation' }))).click();
+    await (await loader.getHarness(MatButtonHarness.with({ text: 'Re-run and save mitigation' }))).click();
     await fixture.whenStable();
 
     httpTesting.expectNone(() => true);
-    expect(fixture.nativeElement.querySelector('[data-testid="no-measure"]')?.textContent).toContain('Name at least one measure');
+    expect(fixture.nativeElement.querySelector('[data-testid="no-measure"]')?.textContent).toContain('Name a descent speed cap or an SOC ceiling');
   });
 
-  it('sends a mitigation with its re-run flag', async () => {
+  it('does not send a mitigation that is only a vehicle restriction, and points to risk acceptance', async () => {
+    const { fixture, loader } = await render(aReviewItem({ state: 'in-review' }));
+
+    await (await loader.getHarness(MatButtonHarness.with({ text: /Record mitigation/ }))).click();
+    await (await loader.getHarness(MatInputHarness.with({ selector: '[formControlName="vehicleRestriction"]' }))).setValue('Midibuses only');
+    await (await loader.getHarness(MatButtonHarness.with({ text: 'Re-run and save mitigation' }))).click();
+    await fixture.whenStable();
+
+    httpTesting.expectNone(() => true);
+    expect(fixture.nativeElement.querySelector('[data-testid="no-measure"]')?.textContent).toContain('propose accepting the risk');
+  });
+
+  it('sends a mitigation to be re-run', async () => {
     const item = aReviewItem({ state: 'in-review' });
     const { fixture, loader, emitted } = await render(item);
 
     await (await loader.getHarness(MatButtonHarness.with({ text: /Record mitigation/ }))).click();
     await (await loader.getHarness(MatInputHarness.with({ selector: '[formControlName="descentSpeedCapKph"]' }))).setValue('25');
-    await (await loader.getHarness(MatButtonHarness.with({ text: 'Save mitigation' }))).click();
+    await (await loader.getHarness(MatButtonHarness.with({ text: 'Re-run and save mitigation' }))).click();
     const request = httpTesting.expectOne(`/api/reviews/${item.id}/transitions`);
     request.flush(resultFor({ ...item, state: 'mitigated' }));
     await settle(fixture);
@@ -79,9 +119,9 @@ describe('ReviewActions', () => {
   it('does not accept a risk with a reason under 10 characters', async () => {
     const { fixture, loader } = await render(aReviewItem({ state: 'in-review' }));
 
-    await (await loader.getHarness(MatButtonHarness.with({ text: /Accept risk/ }))).click();
+    await (await loader.getHarness(MatButtonHarness.with({ text: /Propose risk acceptance/ }))).click();
     await (await loader.getHarness(MatInputHarness.with({ selector: '[formControlName="reason"]' }))).setValue('Fine.');
-    await (await loader.getHarness(MatButtonHarness.with({ text: 'Accept risk', selector: '[type="submit"]' }))).click();
+    await (await loader.getHarness(MatButtonHarness.with({ text: 'Propose acceptance', selector: '[type="submit"]' }))).click();
     await fixture.whenStable();
 
     httpTesting.expectNone(() => true);
@@ -110,6 +150,13 @@ describe('ReviewActions', () => {
     return { fixture, loader: TestbedHarnessEnvironment.loader(fixture), emitted };
   }
 });
+
+const PROPOSER_ID = '11111111-1111-4111-8111-111111111111';
+const OTHER_ID = '22222222-2222-4222-8222-222222222222';
+
+function aUser(overrides: { id: string }) {
+  return { id: overrides.id, email: 'officer@example.test', name: 'Spec Officer', role: 'safety' as const };
+}
 
 function resultFor(item: ReviewItem): ReviewTransitionResult {
   return {

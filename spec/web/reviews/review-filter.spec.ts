@@ -35,11 +35,12 @@ describe('review filter', () => {
   });
 
   it('counts every state, zero included, over the items matching the other filters', () => {
-    expect(countByState(items)).toEqual({ raised: 1, 'in-review': 1, mitigated: 1, accepted: 1, reopened: 0 });
+    expect(countByState(items)).toEqual({ raised: 1, 'in-review': 1, mitigated: 1, 'awaiting-sign-off': 0, accepted: 1, reopened: 0 });
     expect(countByState(items, { ...NO_REVIEW_FILTER, routeId: ROUTE_PASS.routeId, state: 'accepted' })).toEqual({
       raised: 1,
       'in-review': 1,
       mitigated: 0,
+      'awaiting-sign-off': 0,
       accepted: 0,
       reopened: 0,
     });

@@ -1,6 +1,8 @@
 import {
   acceptForm,
   acceptRequest,
+  declineForm,
+  declineRequest,
   mitigateRequest,
   mitigationForm,
   reopenForm,
@@ -42,23 +44,25 @@ describe('review transition forms', () => {
       form.controls.note.setValue('Talked to the depot');
 
       expect(form.invalid).toBe(true);
-      expect(form.hasError('noMeasure')).toBe(true);
+      expect(form.hasError('noModelledMeasure')).toBe(true);
     });
 
-    it('does not take a vehicle restriction of only spaces as a measure', () => {
+    it.each([
+      ['a vehicle restriction', { vehicleRestriction: 'No drum-braked buses' }],
+      ['a mandatory retarder', { mandatoryRetarder: true }],
+    ])('is invalid with only %s, which the model does not represent', (_name, measure) => {
       const form = mitigationForm();
 
-      form.controls.vehicleRestriction.setValue('   ');
+      form.patchValue(measure);
 
-      expect(form.hasError('noMeasure')).toBe(true);
+      expect(form.hasError('noModelledMeasure')).toBe(true);
     });
 
     it.each([
       ['a descent speed cap', { descentSpeedCapKph: 25 }],
       ['an SOC ceiling', { socCeilingPercent: 60 }],
-      ['a vehicle restriction', { vehicleRestriction: 'No drum-braked buses' }],
-      ['a mandatory retarder', { mandatoryRetarder: true }],
-    ])('is valid with %s alone', (_name, measure) => {
+      ['a speed cap with a vehicle restriction', { descentSpeedCapKph: 25, vehicleRestriction: 'No drum-braked buses' }],
+    ])('is valid with %s', (_name, measure) => {
       const form = mitigationForm();
 
       form.patchValue(measure);
@@ -74,10 +78,10 @@ describe('review transition forms', () => {
       expect(form.controls.descentSpeedCapKph.errors).toHaveProperty('min');
     });
 
-    it('sends the SOC ceiling as a share, only the measures given, and the re-run choice', () => {
+    it('sends the SOC ceiling as a share, only the measures given, always with a re-run', () => {
       const form = mitigationForm();
 
-      form.patchValue({ descentSpeedCapKph: 25, socCeilingPercent: 80, note: ' Posted 25 km/h signs ', rerun: true });
+      form.patchValue({ descentSpeedCapKph: 25, socCeilingPercent: 80, note: ' Posted 25 km/h signs ' });
 
       expect(mitigateRequest(form)).toEqual({
         action: 'mitigate',
@@ -86,6 +90,14 @@ describe('review transition forms', () => {
         rerun: true,
       });
     });
+  });
+
+  it('needs a note to send a proposed acceptance back', () => {
+    const form = declineForm();
+
+    expect(form.invalid).toBe(true);
+    form.controls.note.setValue('Training alone is not enough');
+    expect(declineRequest(form)).toEqual({ action: 'decline', note: 'Training alone is not enough' });
   });
 
   it('needs a note to reopen', () => {

@@ -1,11 +1,11 @@
 import { HttpClient } from '@angular/common/http';
 import { Injectable, inject } from '@angular/core';
-import type { AuditedKind } from '@shared/domain/audit';
+import type { RestorableKind } from '@shared/domain/audit';
 import { deletedItemListSchema, type DeletedItemList } from '@shared/domain/deleted-items';
 import { firstValueFrom } from 'rxjs';
 
 /** Where each kind of thing lives in the API (its restore endpoint is `<path>/<id>/restore`). */
-const API_PATHS: Readonly<Record<AuditedKind, string>> = {
+const API_PATHS: Readonly<Record<RestorableKind, string>> = {
   route: '/api/routes',
   scenario: '/api/scenarios',
   'vehicle-profile': '/api/vehicles',
@@ -22,7 +22,7 @@ export class DeletedItemsApi {
   }
 
   /** Restores one item; the API's reason (its route is deleted too …) reaches the caller as an error. */
-  async restore(kind: AuditedKind, id: string): Promise<void> {
+  async restore(kind: RestorableKind, id: string): Promise<void> {
     await firstValueFrom(this.http.post(`${API_PATHS[kind]}/${encodeURIComponent(id)}/restore`, null));
   }
 }

@@ -10,7 +10,7 @@ import { MatSelectModule } from '@angular/material/select';
 import { MatSnackBar } from '@angular/material/snack-bar';
 import { MatTableModule } from '@angular/material/table';
 import { Router } from '@angular/router';
-import { AUDITED_KINDS, AUDITED_KIND_LABELS, type AuditedKind } from '@shared/domain/audit';
+import { AUDITED_KIND_LABELS, RESTORABLE_KINDS, type RestorableKind } from '@shared/domain/audit';
 import { DELETED_RETENTION_DAYS, type DeletedItem } from '@shared/domain/deleted-items';
 import { ROLE_LABELS } from '@shared/domain/roles';
 import { describeApiError } from '../core/api-error-message';
@@ -38,12 +38,12 @@ export default class RecentlyDeleted {
   private readonly snackBar = inject(MatSnackBar);
   private readonly router = inject(Router);
 
-  protected readonly kinds = AUDITED_KINDS;
+  protected readonly kinds = RESTORABLE_KINDS;
   protected readonly kindLabels = AUDITED_KIND_LABELS;
   protected readonly retentionDays = DELETED_RETENTION_DAYS;
   protected readonly columns = ['kind', 'name', 'deletedAt', 'deletedBy', 'removedAfter', 'action'];
-  protected readonly kindFilter = new FormControl<AuditedKind | ''>('', { nonNullable: true });
-  private readonly kind = toSignal(this.kindFilter.valueChanges, { initialValue: '' as AuditedKind | '' });
+  protected readonly kindFilter = new FormControl<RestorableKind | ''>('', { nonNullable: true });
+  private readonly kind = toSignal(this.kindFilter.valueChanges, { initialValue: '' as RestorableKind | '' });
 
   protected readonly items = signal<DeletedItem[]>([]);
   protected readonly loadState = signal<LoadState>({ status: 'loading' });

@@ -1,6 +1,6 @@
 import type { AuditedKind } from '@shared/domain/audit';
 
-/** Where the restored thing is shown in the app. */
+/** Where the restored (or audited) thing is shown in the app. */
 export function appLinkOf(kind: AuditedKind, id: string): string[] {
   switch (kind) {
     case 'route':
@@ -11,5 +11,7 @@ export function appLinkOf(kind: AuditedKind, id: string): string[] {
       return ['/vehicles', id];
     case 'terrain':
       return ['/terrain'];
+    case 'review-item':
+      return ['/reviews', id];
   }
 }

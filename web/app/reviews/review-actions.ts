@@ -3,7 +3,6 @@ import { ChangeDetectionStrategy, Component, computed, inject, input, output, si
 import { toSignal } from '@angular/core/rxjs-interop';
 import { ReactiveFormsModule } from '@angular/forms';
 import { MatButtonModule } from '@angular/material/button';
-import { MatCheckboxModule } from '@angular/material/checkbox';
 import { MatFormFieldModule } from '@angular/material/form-field';
 import { MatIconModule } from '@angular/material/icon';
 import { MatInputModule } from '@angular/material/input';
@@ -17,10 +16,13 @@ import {
   type ReviewTransitionResult,
 } from '@shared/domain/reviews';
 import { describeApiError } from '../core/api-error-message';
+import { Session } from '../core/session';
 import {
   ACCEPT_REASON_MIN_LENGTH,
   acceptForm,
   acceptRequest,
+  declineForm,
+  declineRequest,
   mitigateRequest,
   mitigationForm,
   reopenForm,
@@ -38,12 +40,24 @@ const ACTION_LABELS: Readonly<Record<ReviewAction, { label: string; icon: string
   mitigate: {
     label: 'Record mitigation',
     icon: 'shield',
-    hint: 'Write down the measure taken; Descentry can re-run the scenario with it to show the new risk.',
+    hint:
+      'A descent speed cap or an SOC ceiling, re-run by Descentry; it is recorded only when the re-run gives elevated risk or lower.',
   },
   accept: {
-    label: 'Accept risk',
+    label: 'Propose risk acceptance',
     icon: 'task_alt',
-    hint: 'The risk stays as it is, for a reason you give.',
+    hint:
+      'The risk stays as it is, for a reason you give; a second safety officer must sign it off. Use this for measures the model does not represent (a vehicle restriction, a mandatory retarder).',
+  },
+  'sign-off': {
+    label: 'Sign off acceptance',
+    icon: 'verified',
+    hint: 'As the second safety officer, you agree that this risk is accepted for the reason given.',
+  },
+  decline: {
+    label: 'Send back',
+    icon: 'undo',
+    hint: 'The proposed acceptance goes back to review, with your note.',
   },
   reopen: {
     label: 'Reopen',
@@ -58,7 +72,6 @@ const ACTION_LABELS: Readonly<Record<ReviewAction, { label: string; icon: string
   imports: [
     ReactiveFormsModule,
     MatButtonModule,
-    MatCheckboxModule,
     MatFormFieldModule,
     MatIconModule,
     MatInputModule,
@@ -71,6 +84,7 @@ const ACTION_LABELS: Readonly<Record<ReviewAction, { label: string; icon: string
 })
 export class ReviewActions {
   private readonly reviewsApi = inject(ReviewsApi);
+  private readonly session = inject(Session);
 
   readonly item = input.required<ReviewItem>();
   /** Emits the server's answer after a move: the updated item and the audit event written. */
@@ -80,26 +94,34 @@ export class ReviewActions {
   protected readonly acceptMinLength = ACCEPT_REASON_MIN_LENGTH;
   /** The speed cap is typed in km/h here, within the contract's range. */
   protected readonly speedRange = speedLimitRange('metric');
-  protected readonly allowed = computed(() => allowedReviewActions(this.item().state));
+  /** Whether the signed-in officer proposed the acceptance waiting here (and so may not sign it off). */
+  protected readonly isProposer = computed(() => {
+    const proposer = this.item().acceptanceProposedById;
+    return proposer !== null && proposer === this.session.user()?.id;
+  });
+  protected readonly allowed = computed(() =>
+    allowedReviewActions(this.item().state).filter((action) => action !== 'sign-off' || !this.isProposer()),
+  );
   /** The form open below the buttons, if any. */
-  protected readonly openForm = signal<Exclude<ReviewAction, 'acknowledge'> | null>(null);
+  protected readonly openForm = signal<Exclude<ReviewAction, 'acknowledge' | 'sign-off'> | null>(null);
   protected readonly busy = signal(false);
   protected readonly error = signal<string | null>(null);
 
   protected readonly mitigation = mitigationForm();
   protected readonly accept = acceptForm();
   protected readonly reopen = reopenForm();
+  protected readonly decline = declineForm();
   /** Whether the mitigation form has been submitted once (show the "name a measure" message). */
   protected readonly mitigationTried = signal(false);
   private readonly mitigationStatus = toSignal(this.mitigation.statusChanges, { initialValue: this.mitigation.status });
   protected readonly showNoMeasure = computed(
-    () => this.mitigationTried() && this.mitigationStatus() === 'INVALID' && this.mitigation.hasError('noMeasure'),
+    () => this.mitigationTried() && this.mitigationStatus() === 'INVALID' && this.mitigation.hasError('noModelledMeasure'),
   );
 
   protected choose(action: ReviewAction): void {
     this.error.set(null);
-    if (action === 'acknowledge') {
-      void this.send({ action: 'acknowledge' });
+    if (action === 'acknowledge' || action === 'sign-off') {
+      void this.send({ action });
       return;
     }
     this.openForm.set(this.openForm() === action ? null : action);
@@ -123,6 +145,12 @@ export class ReviewActions {
     void this.send(acceptRequest(this.accept));
   }
 
+  protected submitDecline(): void {
+    this.decline.markAllAsTouched();
+    if (this.decline.invalid) return;
+    void this.send(declineRequest(this.decline));
+  }
+
   protected submitReopen(): void {
     this.reopen.markAllAsTouched();
     if (this.reopen.invalid) return;
@@ -139,9 +167,11 @@ export class ReviewActions {
       this.mitigation.reset();
       this.mitigationTried.set(false);
       this.accept.reset();
+      this.decline.reset();
       this.reopen.reset();
     } catch (error: unknown) {
-      // Expected: 409 when someone else moved the item first, 400 on a refused form, network errors.
+      // Expected: 409 when someone else moved the item first, 400 on a refused form, 422 when a
+      // mitigation's re-run leaves the risk above elevated, 403 for a proposer's own sign-off.
       this.error.set(describeApiError(error));
     } finally {
       this.busy.set(false);

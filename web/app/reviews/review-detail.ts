@@ -8,6 +8,7 @@ import {
   signal,
   untracked,
 } from '@angular/core';
+import { DatePipe } from '@angular/common';
 import { MatButtonModule } from '@angular/material/button';
 import { MatIconModule } from '@angular/material/icon';
 import { MatProgressBarModule } from '@angular/material/progress-bar';
@@ -18,6 +19,7 @@ import { DistanceChart, type ChartBand, type ChartSeries } from '../charts/dista
 import { describeApiError } from '../core/api-error-message';
 import { Session } from '../core/session';
 import { TerrainMap, type MapOverlay, type MapPosition } from '../map/terrain-map';
+import { AdviceCautions } from '../ui/advice-cautions';
 import { EngineeringCaution } from '../ui/engineering-caution';
 import { RiskChip } from '../ui/risk-chip';
 import { RISK_STYLES, riskRank } from '@shared/presentation/index';
@@ -33,6 +35,7 @@ import { ReviewActions } from './review-actions';
 import { DIRECTION_LABELS } from './direction-labels';
 import { ReviewStateChip } from './review-state-chip';
 import { ReviewsApi } from './reviews-api';
+import { descentCardsUrl } from '../scenarios/scenarios-api';
 
 type LoadState = { status: 'loading' } | { status: 'error'; message: string } | { status: 'ready' };
 
@@ -40,6 +43,7 @@ type LoadState = { status: 'loading' } | { status: 'error'; message: string } | 
 @Component({
   selector: 'app-review-detail',
   imports: [
+    DatePipe,
     ReachedTemperaturePipe,
     RouterLink,
     MatButtonModule,
@@ -48,6 +52,7 @@ type LoadState = { status: 'loading' } | { status: 'error'; message: string } | 
     TerrainMap,
     DistanceChart,
     EngineeringCaution,
+    AdviceCautions,
     RiskChip,
     ReviewStateChip,
     ReviewActions,
@@ -88,7 +93,15 @@ export default class ReviewDetailPage {
     const mitigation = this.item()?.mitigation;
     return mitigation ? describeMitigation(mitigation) : [];
   });
-  /** The risk that stands now: after a mitigation's re-run, that run's (see currentRisk). */
+  /** The printable card of this descent, from the scenario the item shows. */
+  protected readonly cardUrl = computed(() => {
+    const item = this.item();
+    if (!item) return '';
+    // Review items are kept per travelled direction; a round trip has no single card.
+    const direction = item.direction === 'inbound' ? 'inbound' : 'outbound';
+    return descentCardsUrl(item.scenarioId, { direction, atM: (item.startM + item.endM) / 2 });
+  });
+    /** The risk that stands now: after a mitigation's re-run, that run's (see currentRisk). */
   protected readonly risk = computed(() => {
     const item = this.item();
     return item ? currentRisk(item) : 'low';

@@ -6,6 +6,7 @@ const STATE_LOOK: Readonly<Record<ReviewState, { icon: string; tone: string }>> 
   raised: { icon: 'flag', tone: 'open' },
   'in-review': { icon: 'visibility', tone: 'working' },
   mitigated: { icon: 'shield', tone: 'closed' },
+  'awaiting-sign-off': { icon: 'pending_actions', tone: 'working' },
   accepted: { icon: 'task_alt', tone: 'settled' },
   reopened: { icon: 'replay', tone: 'open' },
 };

@@ -23,20 +23,20 @@ export function trimmedMinLength(minLength: number): ValidatorFn {
   };
 }
 
-/** A mitigation must name at least one measure: speed cap, SOC ceiling, restriction or retarder. */
-export const atLeastOneMeasure: ValidatorFn = (group: AbstractControl): ValidationErrors | null => {
+/**
+ * A mitigation must name a measure the engine can re-run with: a descent speed cap or an SOC
+ * ceiling. A vehicle restriction or a mandatory retarder may go with it; on their own they are
+ * not modelled, and the item goes to a signed-off risk acceptance instead (the server's rule).
+ */
+export const modelledMeasure: ValidatorFn = (group: AbstractControl): ValidationErrors | null => {
   const value = (group as MitigationForm).getRawValue();
-  const hasMeasure =
-    value.descentSpeedCapKph !== null ||
-    value.socCeilingPercent !== null ||
-    value.vehicleRestriction.trim() !== '' ||
-    value.mandatoryRetarder;
-  return hasMeasure ? null : { noMeasure: true };
+  const hasModelled = value.descentSpeedCapKph !== null || value.socCeilingPercent !== null;
+  return hasModelled ? null : { noModelledMeasure: true };
 };
 
 export type MitigationForm = ReturnType<typeof mitigationForm>;
 
-/** "Record mitigation": the measures (km/h and % as people type them), a note, and the re-run box. */
+/** "Record mitigation": the measures (km/h and % as people type them) and a note; always re-run. */
 export function mitigationForm() {
   return new FormGroup(
     {
@@ -45,18 +45,27 @@ export function mitigationForm() {
       vehicleRestriction: new FormControl('', { nonNullable: true, validators: [Validators.maxLength(500)] }),
       mandatoryRetarder: new FormControl(false, { nonNullable: true }),
       note: new FormControl('', { nonNullable: true, validators: [Validators.maxLength(NOTE_MAX_LENGTH)] }),
-      rerun: new FormControl(true, { nonNullable: true }),
     },
-    { validators: [atLeastOneMeasure] },
+    { validators: [modelledMeasure] },
   );
 }
 
-/** "Accept risk": a reason of at least ten characters. */
+/** "Propose risk acceptance": a reason of at least ten characters, for a second officer to sign off. */
 export function acceptForm() {
   return new FormGroup({
     reason: new FormControl('', {
       nonNullable: true,
       validators: [trimmedMinLength(ACCEPT_REASON_MIN_LENGTH), Validators.maxLength(NOTE_MAX_LENGTH)],
+    }),
+  });
+}
+
+/** "Send back": why a proposed acceptance goes back to review. */
+export function declineForm() {
+  return new FormGroup({
+    note: new FormControl('', {
+      nonNullable: true,
+      validators: [trimmedMinLength(REOPEN_NOTE_MIN_LENGTH), Validators.maxLength(NOTE_MAX_LENGTH)],
     }),
   });
 }
@@ -85,12 +94,16 @@ export function mitigateRequest(form: MitigationForm): ReviewTransitionRequest {
       ...(value.mandatoryRetarder ? { mandatoryRetarder: true } : {}),
     },
     ...(note ? { note } : {}),
-    rerun: value.rerun,
+    rerun: true,
   });
 }
 
 export function acceptRequest(form: ReturnType<typeof acceptForm>): ReviewTransitionRequest {
   return reviewTransitionRequestSchema.parse({ action: 'accept', reason: form.getRawValue().reason.trim() });
+}
+
+export function declineRequest(form: ReturnType<typeof declineForm>): ReviewTransitionRequest {
+  return reviewTransitionRequestSchema.parse({ action: 'decline', note: form.getRawValue().note.trim() });
 }
 
 export function reopenRequest(form: ReturnType<typeof reopenForm>): ReviewTransitionRequest {

@@ -24,6 +24,7 @@ import { DistanceChart, type ChartSeries } from '../charts/distance-chart';
 import { describeApiError, apiErrorBody } from '../core/api-error-message';
 import { Session } from '../core/session';
 import { confirmDelete } from '../ui/confirm-delete-dialog';
+import { AdviceCautions } from '../ui/advice-cautions';
 import { TerrainMap, type MapOverlay, type MapPosition } from '../map/terrain-map';
 import { QuantityPipe } from '../units/quantity-pipe';
 import { fromDisplay, toDisplay, unitLabel } from '../units/unit-format';
@@ -50,7 +51,7 @@ import {
 } from './result-series';
 import { brakeRiskBands } from '../charts/risk-bands';
 import { DIRECTION_LABELS, SCENARIO_STATUS_LABELS, describeLoad, describeSeason } from '@shared/presentation/index';
-import { ScenariosApi } from './scenarios-api';
+import { ScenariosApi, descentCardsUrl } from './scenarios-api';
 
 type ResultState =
   | { status: 'loading' }
@@ -82,6 +83,7 @@ const CARD_FIGURES: readonly string[] = [
 @Component({
   selector: 'app-scenario-result',
   imports: [
+    AdviceCautions,
     DatePipe,
     PercentPipe,
     RouterLink,
@@ -266,6 +268,10 @@ export default class ScenarioResultScreen {
     }
   }
 
+  protected cardsUrl(): string {
+    return descentCardsUrl(this.scenarioId());
+  }
+
   protected exportUrl(kind: 'csv' | 'geojson' | 'pdf'): string {
     return this.api.exportUrl(this.scenarioId(), kind);
   }
@@ -280,12 +286,24 @@ export default class ScenarioResultScreen {
   /** Rounded down, as every output rounds advice (shared/presentation/safety-rounding). */
   protected speedAdvice(descent: Descent): string {
     if (descent.speedAdvice === 'no-limit-needed') return 'No limit needed';
+    if (descent.speedAdvice === 'not-drivable') return 'No advice: not drivable as drawn';
     if (descent.speedAdvice === 'not-holdable' || descent.maxSafeSpeedKph === null) return 'Not holdable on friction brakes';
     return formatSafeSpeed(descent.maxSafeSpeedKph, this.units());
   }
 
   protected socAdvice(descent: Descent): string {
-    return descent.maxTopSoc === null ? 'Regeneration cannot take it' : formatSocLimit(descent.maxTopSoc);
+    if (descent.maxTopSoc !== null) return formatSocLimit(descent.maxTopSoc);
+    switch (descent.maxTopSocReason) {
+      case 'no-soc-keeps-brakes-cool':
+        return 'None low enough';
+      case 'no-battery':
+      case 'no-regeneration':
+        return 'Plays no part';
+      case 'not-drivable':
+        return 'No advice';
+      default:
+        return 'Regeneration cannot take it';
+    }
   }
 
   protected peakTemperature(descent: Descent): string {

@@ -66,6 +66,15 @@ export class ScenariosApi {
   }
 }
 
+/**
+ * Download address of the descent cards (one A4 page per descent); with a direction and a point
+ * along the route, only the descent there.
+ */
+export function descentCardsUrl(scenarioId: string, at?: { direction: 'outbound' | 'inbound'; atM: number }): string {
+  const base = `${scenarioPath(scenarioId)}/descent-cards.pdf`;
+  return at ? `${base}?direction=${at.direction}&atM=${Math.round(at.atM)}` : base;
+}
+
 function scenarioPath(scenarioId: string): string {
   return `/api/scenarios/${encodeURIComponent(scenarioId)}`;
 }
