@@ -18,7 +18,7 @@ import { cpus, loadavg } from 'node:os';
 import { readFileSync } from 'node:fs';
 import autocannon from 'autocannon';
 import { DEMO_PASSWORD, DEMO_PEOPLE } from '../api/demo/demo-people';
-import { addPeople, loadDemo, signIn, startScratchInstance, type ScratchInstance } from './scratch-instance';
+import { addPeople, loadDemo, signIn, startScratchInstance, straightDescentPreview, type ScratchInstance } from './scratch-instance';
 
 const RUNS = Number(process.argv[2] ?? 3);
 const SECONDS = Number(process.argv[3] ?? 10);
@@ -43,7 +43,7 @@ try {
   const cookie = await signInAs(instance, planner.email, DEMO_PASSWORD);
   const previewers: string[] = [];
   for (const email of await addPeople(instance, 'planner', 20)) previewers.push(await signIn(instance, email));
-  const body = JSON.stringify(previewBody());
+  const body = JSON.stringify(straightDescentPreview(ROUTE_KM));
   const { terrainTile, baseTile } = await demoTiles(instance, cookie);
 
   const loads: Load[] = [
@@ -189,30 +189,6 @@ async function demoTiles(scratch: ScratchInstance, cookie: string) {
 function rssMb(scratch: ScratchInstance): number {
   const status = readFileSync(`/proc/${scratch.server.pid}/status`, 'utf8');
   return Number(/VmRSS:\s+(\d+)/.exec(status)![1]) / 1024;
-}
-
-/** A straight 20 km descent with its own elevations (no terrain needed), 1 m spacing. */
-function previewBody() {
-  const coordinates = Array.from({ length: 41 }, (_, i) => [9.5 + (i / 40) * (ROUTE_KM / 76.4), 46.5, 1800 - i * 30]);
-  return {
-    route: { type: 'LineString', coordinates },
-    vehicle: {
-      curbMassKg: 13_500,
-      payloadKg: 5_500,
-      frontalAreaM2: 8,
-      dragCoefficient: 0.7,
-      rollingResistanceCoefficient: 0.007,
-      rotatingMassFactor: 0.05,
-      tractionPowerW: 250_000,
-      regenPowerW: 200_000,
-      drivetrainEfficiency: 0.889,
-      regenEfficiency: 0.862,
-      batteryCapacityWh: 350_000,
-      maxChargePowerW: 200_000,
-      auxPowerW: 15_000,
-    },
-    options: { spacingM: 1 },
-  };
 }
 
 function statusCount(result: autocannon.Result, status: number): number {

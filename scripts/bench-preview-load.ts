@@ -14,7 +14,7 @@
 import { spawn } from 'node:child_process';
 import { fileURLToPath } from 'node:url';
 import autocannon from 'autocannon';
-import { addPeople, signIn, startScratchInstance } from './scratch-instance';
+import { addPeople, signIn, startScratchInstance, straightDescentPreview } from './scratch-instance';
 
 const LOAD_S = 20;
 const ROUTE_KM = 20;
@@ -31,7 +31,7 @@ async function main(): Promise<void> {
     const people = await addPeople(instance, 'planner', 21);
     const cookies: string[] = [];
     for (const email of people) cookies.push(await signIn(instance, email));
-    const body = JSON.stringify(previewBody());
+    const body = JSON.stringify(straightDescentPreview(ROUTE_KM));
 
     const idle = await healthDuring(instance.baseUrl, 5, async () => undefined);
     const crowd = await healthDuring(instance.baseUrl, LOAD_S, async () => {
@@ -101,30 +101,6 @@ async function probe(baseUrl: string, seconds: number): Promise<void> {
     await new Promise((resolve) => setTimeout(resolve, 100));
   }
   process.stdout.write(JSON.stringify(latencies));
-}
-
-/** A straight 20 km descent with its own elevations (no terrain needed), 1 m spacing. */
-function previewBody() {
-  const coordinates = Array.from({ length: 41 }, (_, i) => [9.5 + (i / 40) * (ROUTE_KM / 76.4), 46.5, 1800 - i * 30]);
-  return {
-    route: { type: 'LineString', coordinates },
-    vehicle: {
-      curbMassKg: 13_500,
-      payloadKg: 5_500,
-      frontalAreaM2: 8,
-      dragCoefficient: 0.7,
-      rollingResistanceCoefficient: 0.007,
-      rotatingMassFactor: 0.05,
-      tractionPowerW: 250_000,
-      regenPowerW: 200_000,
-      drivetrainEfficiency: 0.889,
-      regenEfficiency: 0.862,
-      batteryCapacityWh: 350_000,
-      maxChargePowerW: 200_000,
-      auxPowerW: 15_000,
-    },
-    options: { spacingM: 1 },
-  };
 }
 
 function ms(value: number): string {

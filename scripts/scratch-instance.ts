@@ -164,3 +164,30 @@ export async function loadDemo(instance: ScratchInstance): Promise<void> {
   await instance.kill('SIGTERM');
   await instance.restart();
 }
+
+/**
+ * The preview body the load benchmarks post: a straight descent of `routeKm` with its own
+ * elevations (no terrain needed), 1 m spacing, for a laden 12 m battery bus.
+ */
+export function straightDescentPreview(routeKm: number) {
+  const coordinates = Array.from({ length: 41 }, (_, i) => [9.5 + (i / 40) * (routeKm / 76.4), 46.5, 1800 - i * 30]);
+  return {
+    route: { type: 'LineString', coordinates },
+    vehicle: {
+      curbMassKg: 13_500,
+      payloadKg: 5_500,
+      frontalAreaM2: 8,
+      dragCoefficient: 0.7,
+      rollingResistanceCoefficient: 0.007,
+      rotatingMassFactor: 0.05,
+      tractionPowerW: 250_000,
+      regenPowerW: 200_000,
+      drivetrainEfficiency: 0.889,
+      regenEfficiency: 0.862,
+      batteryCapacityWh: 350_000,
+      maxChargePowerW: 200_000,
+      auxPowerW: 15_000,
+    },
+    options: { spacingM: 1 },
+  };
+}
