@@ -145,26 +145,31 @@ export class TerrainMap {
           if (showBase && !map.hasLayer(layer)) layer.addTo(map);
           if (!showBase) layer.remove();
         }
-        // The terrain joins the map only once its tile URL carries the catalogue version (below).
-        if (showTerrain && this.tilesVersion.settled() && !map.hasLayer(this.tileLayer)) {
-          this.tileLayer.setUrl(terrainTileUrl(this.tilesVersion.version()), true).addTo(map);
-        }
-        if (!showTerrain) this.tileLayer.remove();
         map.getContainer().classList.toggle('app-map-blended', showBase && showTerrain);
         this.layerControl?.update(version !== null, layers);
       });
     });
-    // Tiles are asked for once the catalogue version is known, with it in their URL; new or
-    // removed terrain models change the version and the tiles are fetched again.
+    // The terrain layer: on the map when the layer switch wants it, and only once the catalogue
+    // version is known, with it in the tile URL; new or removed terrain models change the version
+    // and the tiles on show are fetched again.
+    let shownTerrainUrl: string | null = null;
     effect(() => {
       const map = this.map();
-      if (!map || !this.tilesVersion.settled()) return;
+      const settled = this.tilesVersion.settled();
       const url = terrainTileUrl(this.tilesVersion.version());
-      const state = this.basemapVersion.state();
-      const showTerrain = (state?.version ?? null) === null || this.layers() !== 'base';
+      const showTerrain = (this.basemapVersion.state()?.version ?? null) === null || this.layers() !== 'base';
+      if (!map || !settled) return;
       untracked(() => {
-        this.tileLayer.setUrl(url, map.hasLayer(this.tileLayer));
-        if (showTerrain && !map.hasLayer(this.tileLayer)) this.tileLayer.addTo(map);
+        if (!showTerrain) {
+          this.tileLayer.remove();
+          return;
+        }
+        const onMap = map.hasLayer(this.tileLayer);
+        if (url !== shownTerrainUrl) {
+          this.tileLayer.setUrl(url, !onMap);
+          shownTerrainUrl = url;
+        }
+        if (!onMap) this.tileLayer.addTo(map);
       });
     });
     inject(DestroyRef).onDestroy(() => this.map()?.remove());
