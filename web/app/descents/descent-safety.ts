@@ -90,9 +90,9 @@ interface CaseFigures {
     .case { border: 1px solid var(--mat-sys-outline-variant); border-radius: var(--mat-sys-corner-medium); padding: 10px 14px; display: grid; gap: 8px; align-content: start; }
     .case.worst { border-width: 2px; border-color: var(--mat-sys-outline); }
     h3 { margin: 0; font: var(--mat-sys-title-small); }
-    dl { margin: 0; display: grid; grid-template-columns: auto 1fr; gap: 4px 12px; }
-    dt { color: var(--mat-sys-on-surface-variant); }
-    dd { margin: 0; overflow-wrap: anywhere; }
+    dl { margin: 0; display: grid; gap: 2px; }
+    dt { color: var(--mat-sys-on-surface-variant); font: var(--mat-sys-label-medium); }
+    dd { margin: 0 0 6px; overflow-wrap: break-word; }
     p { margin: 0; }
     .meta, .caution { color: var(--mat-sys-on-surface-variant); font: var(--mat-sys-body-small); }
     .flags { margin: 0; padding-left: 20px; color: var(--mat-sys-error); }
