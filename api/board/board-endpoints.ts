@@ -1,5 +1,5 @@
 import { rolesWith } from '@shared/domain/permissions';
-import { boardSummarySchema, networkSettingsSchema, networkSettingsViewSchema } from '@shared/domain/board-summary';
+import { boardSummarySchema, networkSettingsUpdateSchema, networkSettingsViewSchema } from '@shared/domain/board-summary';
 import type { AppDeps } from '../app-deps';
 import { endpoint } from '../http/endpoint';
 import { renderBoardSummaryPdf } from './board-summary-pdf';
@@ -51,10 +51,10 @@ export function boardEndpoints(deps: AppDeps) {
     endpoint({
       method: 'put',
       path: '/api/settings/network',
-      summary: 'Set the tariff and the grid emission factor, each with its source',
+      summary: 'Set the tariff and the grid emission factor with their sources, and the safety settings (left out: kept)',
       tag: 'Board',
       access: rolesWith('network-settings.edit'),
-      body: networkSettingsSchema,
+      body: networkSettingsUpdateSchema,
       responses: { 200: { description: 'Saved settings', schema: networkSettingsViewSchema } },
       handler: async ({ body, user, res }) => {
         res.json(await saveNetworkSettings(deps.db, user!, body));

@@ -1,6 +1,6 @@
 import { eq } from 'drizzle-orm';
 import type { User } from '@shared/domain/auth';
-import type { NetworkSettings, NetworkSettingsView } from '@shared/domain/board-summary';
+import type { NetworkSettings, NetworkSettingsUpdate, NetworkSettingsView } from '@shared/domain/board-summary';
 import type { Executor } from '../db/client';
 import {
   DEFAULT_CRAWL_DISTANCE_M,
@@ -50,7 +50,17 @@ export async function readNetworkSettings(db: Executor): Promise<NetworkSettings
   };
 }
 
-export async function saveNetworkSettings(db: Executor, admin: User, settings: NetworkSettings): Promise<NetworkSettingsView> {
+/** Saves the factors; a safety setting the request leaves out keeps its stored value. */
+export async function saveNetworkSettings(db: Executor, admin: User, update: NetworkSettingsUpdate): Promise<NetworkSettingsView> {
+  const stored = await readSafetySettings(db);
+  const settings: NetworkSettings = {
+    ...update,
+    worstCaseAmbientC: update.worstCaseAmbientC ?? stored.worstCaseAmbientC,
+    fadeMarginK: update.fadeMarginK ?? stored.fadeMarginK,
+    maxRoadGradePercent: update.maxRoadGradePercent ?? stored.maxRoadGradePercent,
+    crawlSpeedKph: update.crawlSpeedKph ?? stored.crawlSpeedKph,
+    crawlDistanceM: update.crawlDistanceM ?? stored.crawlDistanceM,
+  };
   const values = { ...settings, updatedById: admin.id, updatedByName: admin.name, updatedAt: new Date() };
   await db
     .insert(networkSettings)

@@ -33,7 +33,12 @@ export async function getReview(deps: AppDeps, reviewId: string): Promise<Review
   const results = await repository.findScenarioResult(deps.db, row.scenarioId);
   const direction = results?.find((candidate) => candidate.direction === row.direction);
   const slice = direction ? sliceProfile(direction, row.descent) : null;
-  return { item: repository.toReviewItem(row), ...(slice ?? { profile: null, geometry: null }), caution: ENGINEERING_CAUTION };
+  return {
+    item: repository.toReviewItem(row),
+    ...(slice ?? { profile: null, geometry: null }),
+    descent: row.descent,
+    caution: ENGINEERING_CAUTION,
+  };
 }
 
 export async function listEvents(deps: AppDeps, reviewId: string): Promise<AuditEvent[]> {

@@ -27,6 +27,19 @@ export const networkSettingsSchema = z.object({
 });
 export type NetworkSettings = z.infer<typeof networkSettingsSchema>;
 
+/**
+ * PUT /api/settings/network: the same fields, but a safety setting left out keeps its stored value
+ * (a client that only knows the money and emission factors must not reset the safety assessment).
+ */
+export const networkSettingsUpdateSchema = networkSettingsSchema.extend({
+  worstCaseAmbientC: safetySettingsSchema.shape.worstCaseAmbientC.unwrap().optional(),
+  fadeMarginK: safetySettingsSchema.shape.fadeMarginK.unwrap().optional(),
+  maxRoadGradePercent: safetySettingsSchema.shape.maxRoadGradePercent.unwrap().optional(),
+  crawlSpeedKph: safetySettingsSchema.shape.crawlSpeedKph.unwrap().optional(),
+  crawlDistanceM: safetySettingsSchema.shape.crawlDistanceM.unwrap().optional(),
+});
+export type NetworkSettingsUpdate = z.infer<typeof networkSettingsUpdateSchema>;
+
 /** GET /api/settings/network: the settings and who last set them (null: the shipped placeholders). */
 export const networkSettingsViewSchema = networkSettingsSchema.extend({
   /** Whether these are still the shipped illustrative placeholders nobody has replaced. */

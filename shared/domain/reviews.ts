@@ -1,5 +1,5 @@
 import * as z from 'zod';
-import { lineStringSchema, riskLevelSchema, speedAdviceSchema, type RiskLevel } from './analysis';
+import { descentSchema, lineStringSchema, riskLevelSchema, speedAdviceSchema, type RiskLevel } from './analysis';
 import { directionSchema } from './scenarios';
 import { speedLimitKphSchema } from './limits';
 
@@ -209,6 +209,8 @@ export const reviewDetailSchema = z.object({
   profile: reviewProfileSliceSchema.nullable(),
   /** The descent's stretch of the route, WGS 84; null when no stored profile has positions. */
   geometry: lineStringSchema.nullable(),
+  /** The descent as the latest run found it: its worst case, sensitivity, drivability and adhesion. */
+  descent: descentSchema.optional(),
   caution: z.string(),
 });
 export type ReviewDetail = z.infer<typeof reviewDetailSchema>;

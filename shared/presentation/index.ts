@@ -16,3 +16,4 @@ export * from './board-format';
 export * from './board-figures';
 export * from './profile-columns';
 export * from './advice-cautions';
+export * from './worst-case';

@@ -47,6 +47,39 @@ describe('descent review: safety officer', () => {
     assert.equal(await page.getByRole('navigation', { name: 'Review items per state' }).getByRole('button').count(), 6);
   });
 
+  it('shows a critical descent’s worst case beside the nominal run with its sensitivity chart, on the item and on the scenario result', async () => {
+    const { page } = browser;
+    await openQueue(page);
+    await openHighRiskItem(page);
+
+    const assessment = page.getByTestId('descent-assessment');
+    await assessment.waitFor();
+    assert.match(await assessment.getByTestId('worst-case').innerText(), /Critical/);
+    assert.match(await assessment.getByTestId('worst-case-conditions').innerText(), /regeneration lost/);
+    assert.match(await assessment.getByTestId('nominal-case').innerText(), /Peak brake temperature/);
+    const chart = assessment.getByRole('img', { name: /What moves the peak brake temperature most/ });
+    assert.ok((await chart.locator('rect').count()) >= 1, 'the chart has at least one bar');
+    assert.ok(await chart.getByTestId('sensitivity-fade-line').count(), 'the chart draws the fade line');
+    await assessment.scrollIntoViewIfNeeded();
+    await screenshot(page, 'reviews-detail-assessment');
+
+    const reviewId = new URL(page.url()).pathname.split('/').pop()!;
+    const scenarioId = await page.evaluate(async (id) => {
+      const response = await fetch(`/api/reviews/${id}`);
+      return ((await response.json()) as { item: { scenarioId: string } }).item.scenarioId;
+    }, reviewId);
+    await page.goto(`${BASE_URL}/scenarios/${scenarioId}`);
+    const result = page.getByTestId('descent-assessment');
+    await result.waitFor();
+    assert.match(await result.getByRole('heading', { level: 3 }).first().innerText(), /safety assessment/);
+    assert.match(await result.getByTestId('worst-case').innerText(), /Critical|High/);
+    await result.getByTestId('sensitivity-chart').waitFor();
+    await result.getByText('The figures').click();
+    assert.ok((await result.getByTestId('sensitivity-table').getByRole('row').count()) >= 2, 'the table repeats the chart’s figures');
+    await result.scrollIntoViewIfNeeded();
+    await screenshot(page, 'scenario-result-assessment');
+  });
+
   it('records a mitigation only when its re-run brings the risk to elevated or lower, and shows the new risk and the audit event', async () => {
     const { page } = browser;
     await openQueue(page);

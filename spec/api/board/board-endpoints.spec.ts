@@ -118,18 +118,20 @@ describe('PUT /api/settings/network', () => {
     expect(response.body).toMatchObject({ currency: 'EUR', energyTariffPerKWh: 0.18, isPlaceholder: false, updatedByName: 'Spec admin' });
   });
 
-  it('saves the safety settings every analysis uses, with their defaults when left out', async () => {
+  it('saves the safety settings every analysis uses, with their defaults at first and the stored values when left out', async () => {
     const admin = await cookieFor('admin');
     const factors = { energyTariffPerKWh: 0.18, currency: 'EUR', tariffSource: 'Contract', gridEmissionFactorKgPerKWh: 0.12, emissionFactorSource: 'Supplier' };
 
     const defaults = (await request(app).put('/api/settings/network').set('Cookie', admin).send(factors)).body;
     const saved = (await request(app).put('/api/settings/network').set('Cookie', admin).send({ ...factors, worstCaseAmbientC: 38, fadeMarginK: 80 })).body;
     const refused = await request(app).put('/api/settings/network').set('Cookie', admin).send({ ...factors, fadeMarginK: -5 });
+    const kept = (await request(app).put('/api/settings/network').set('Cookie', admin).send({ ...factors, tariffSource: 'Contract 2028' })).body;
 
     expect(defaults).toMatchObject({ worstCaseAmbientC: 35, fadeMarginK: 50, maxRoadGradePercent: 15, crawlSpeedKph: 5, crawlDistanceM: 200 });
     expect(saved).toMatchObject({ worstCaseAmbientC: 38, fadeMarginK: 80 });
     expect(refused.status).toBe(400);
     expect(JSON.stringify(refused.body)).toContain('fadeMarginK');
+    expect(kept).toMatchObject({ tariffSource: 'Contract 2028', worstCaseAmbientC: 38, fadeMarginK: 80, maxRoadGradePercent: 15 });
   });
 
   it('answers 400 naming the field and keeps the old factors when the source is missing', async () => {

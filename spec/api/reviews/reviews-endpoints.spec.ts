@@ -394,7 +394,7 @@ describe('the audit trail', () => {
 });
 
 describe('GET /api/reviews/:reviewId', () => {
-  it('returns the descent’s profile slice and route line with the caution', async () => {
+  it('returns the descent’s profile slice, route line and stored assessment with the caution', async () => {
     const reviewId = await aRaisedItem();
     const { agent } = await signedInAgent(app, db, 'board');
 
@@ -406,6 +406,7 @@ describe('GET /api/reviews/:reviewId', () => {
     expect(detail.profile?.brakeTempC).toHaveLength(11);
     expect(detail.geometry?.coordinates).toHaveLength(11);
     expect(detail.caution).toBe(ENGINEERING_CAUTION);
+    expect(detail.descent).toMatchObject({ startM: detail.item.startM, endM: detail.item.endM, risk: detail.item.risk });
   });
 
   it('answers 400 naming reviewId for a malformed id', async () => {

@@ -43,8 +43,37 @@ describe('vehicle form model', () => {
         'tractionPowerW', 'regenPowerW', 'drivetrainEfficiency', 'regenEfficiency', 'batteryCapacityWh', 'maxChargePowerW',
         'auxPowerW', 'maxTractionForceN', 'brakeType', 'brakeThermalMassJPerK', 'brakeCoolingAreaM2', 'brakeHeatShare',
         'brakeEmissivity', 'retarderPowerW', 'lineReceptivity', 'powerSource', 'socTaperStart', 'socCeiling', 'regenMinSpeedMps',
-        'coldChargeFullFromC', 'coldChargeShareAtMinus20C',
+        'coldChargeFullFromC', 'coldChargeShareAtMinus20C', 'retarderType', 'regenContinuousPowerW', 'regenPeakHoldS',
+        'drivenAxleLoadShare', 'rearBrakeShare', 'rearBrakeThermalMassShare', 'permissibleGrossMassKg',
       ].sort(),
+    );
+  });
+
+  it('saves the safety fields of the vehicle as loaded, and leaves the optional ones unstated when empty', () => {
+    const base = aProfile();
+    const stated = { ...base, vehicle: { ...base.vehicle, retarderType: 'hydrodynamic' as const, regenContinuousPowerW: 120_000, regenPeakHoldS: 45, drivenAxleLoadShare: 0.62, rearBrakeShare: 0.58, permissibleGrossMassKg: 25_000 } };
+
+    const kept = toVehicleDraft(toVehicleFormValue(stated, 'metric'), 'battery-bus-12m', 'metric');
+    const value = toVehicleFormValue(stated, 'metric');
+    const emptied = toVehicleDraft({ ...value, numbers: { ...value.numbers, regenContinuousPower: null, permissibleGrossMass: null } }, 'battery-bus-12m', 'metric');
+
+    expect(value.numbers['permissibleGrossMass']).toBe(25);
+    expect(value.numbers['drivenAxleLoadShare']).toBe(62);
+    expect(kept.vehicle).toMatchObject({ retarderType: 'hydrodynamic', regenContinuousPowerW: 120_000, regenPeakHoldS: 45, drivenAxleLoadShare: 0.62, rearBrakeShare: 0.58, permissibleGrossMassKg: 25_000 });
+    expect(vehicleProfileDraftSchema.safeParse(kept).success).toBe(true);
+    expect(emptied.vehicle.regenContinuousPowerW).toBeUndefined();
+    expect(emptied.vehicle.permissibleGrossMassKg).toBeUndefined();
+    expect(fieldMessage(field('permissibleGrossMass'), null, 'metric')).toBeNull();
+  });
+
+  it('reads an unstated endurance brake as the engine does, and refuses a continuous regeneration above the peak', () => {
+    const base = aProfile();
+    const value = toVehicleFormValue({ ...base, vehicle: { ...base.vehicle, retarderPowerW: 150_000 } }, 'metric');
+
+    expect(value.retarderType).toBe('braking-resistor');
+    expect(toVehicleFormValue({ ...base, vehicle: { ...base.vehicle, retarderPowerW: 0 } }, 'metric').retarderType).toBe('none');
+    expect(crossFieldMessages({ ...value, numbers: { ...value.numbers, regenContinuousPower: 400 } })['regenContinuousPower']).toBe(
+      'Must not be above the peak regenerative power.',
     );
   });
 

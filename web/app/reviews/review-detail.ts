@@ -17,6 +17,7 @@ import { RouterLink } from '@angular/router';
 import { REVIEW_STATE_LABELS, currentRisk, type AuditEvent, type ReviewDetail, type ReviewItem } from '@shared/domain/reviews';
 import { DistanceChart, type ChartBand, type ChartSeries } from '../charts/distance-chart';
 import { describeApiError } from '../core/api-error-message';
+import { DescentSafety } from '../descents/descent-safety';
 import { Session } from '../core/session';
 import { TerrainMap, type MapOverlay, type MapPosition } from '../map/terrain-map';
 import { AdviceCautions } from '../ui/advice-cautions';
@@ -53,6 +54,7 @@ type LoadState = { status: 'loading' } | { status: 'error'; message: string } | 
     DistanceChart,
     EngineeringCaution,
     AdviceCautions,
+    DescentSafety,
     RiskChip,
     ReviewStateChip,
     ReviewActions,

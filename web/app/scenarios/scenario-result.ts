@@ -25,6 +25,7 @@ import { describeApiError, apiErrorBody } from '../core/api-error-message';
 import { Session } from '../core/session';
 import { confirmDelete } from '../ui/confirm-delete-dialog';
 import { AdviceCautions } from '../ui/advice-cautions';
+import { DescentSafety } from '../descents/descent-safety';
 import { TerrainMap, type MapOverlay, type MapPosition } from '../map/terrain-map';
 import { QuantityPipe } from '../units/quantity-pipe';
 import { fromDisplay, toDisplay, unitLabel } from '../units/unit-format';
@@ -50,7 +51,7 @@ import {
   speedSeries,
 } from './result-series';
 import { brakeRiskBands } from '../charts/risk-bands';
-import { DIRECTION_LABELS, SCENARIO_STATUS_LABELS, describeLoad, describeSeason } from '@shared/presentation/index';
+import { DIRECTION_LABELS, SCENARIO_STATUS_LABELS, describeLoad, describeSeason, riskRank } from '@shared/presentation/index';
 import { ScenariosApi, descentCardsUrl } from './scenarios-api';
 
 type ResultState =
@@ -84,6 +85,7 @@ const CARD_FIGURES: readonly string[] = [
   selector: 'app-scenario-result',
   imports: [
     AdviceCautions,
+    DescentSafety,
     DatePipe,
     PercentPipe,
     RouterLink,
@@ -142,6 +144,18 @@ export default class ScenarioResultScreen {
   });
 
   protected readonly descents = computed(() => this.direction()?.descents ?? []);
+  /** Start of the descent whose assessment is open (null: the riskiest of the direction). */
+  protected readonly chosenStartM = signal<number | null>(null);
+  protected readonly selectedDescent = computed<Descent | null>(() => {
+    const descents = this.descents();
+    const chosen = descents.find((descent) => descent.startM === this.chosenStartM());
+    if (chosen) return chosen;
+    return descents.reduce<Descent | null>((worst, descent) => (!worst || riskRank(descent.risk) > riskRank(worst.risk) ? descent : worst), null);
+  });
+  protected readonly selectedIndex = computed(() => {
+    const selected = this.selectedDescent();
+    return selected ? this.descents().indexOf(selected) : -1;
+  });
 
   protected readonly riskCounts = computed<Record<RiskLevel, number>>(() => {
     const counts: Record<RiskLevel, number> = { low: 0, elevated: 0, high: 0, critical: 0 };
@@ -311,6 +325,7 @@ export default class ScenarioResultScreen {
   }
 
   protected showDescent(descent: Descent): void {
+    this.chosenStartM.set(descent.startM);
     const profile = this.direction()?.profile;
     if (!profile) return;
     const from = nearestIndex(profile.distanceM, descent.startM);

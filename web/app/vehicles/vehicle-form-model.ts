@@ -5,6 +5,7 @@
  * metric/imperial choice through unit-format; everything else (power and energy in kW/kWh,
  * coefficients, percentages) reads the same in both. Pure data and functions, so the mapping and the messages are tested without a browser.
  */
+import type { RetarderType } from '@shared/domain/analysis';
 import type { VehicleProfileDraftInput } from '@shared/domain/vehicle-profiles';
 import { fromDisplay, toDisplay, unitLabel, type Quantity, type UnitSystem } from '../units/unit-format';
 
@@ -37,8 +38,10 @@ export interface VehicleField {
   minExclusive?: boolean;
   step: number;
   hint?: string;
-  /** Reads the SI value from a profile. */
-  read: (profile: VehicleProfileDraftInput) => number;
+  /** Whether the field may stay empty (the profile then does not state it). */
+  optional?: boolean;
+  /** Reads the SI value from a profile (null: not stated). */
+  read: (profile: VehicleProfileDraftInput) => number | null;
 }
 
 const v = (profile: VehicleProfileDraftInput) => profile.vehicle;
@@ -48,6 +51,7 @@ export const VEHICLE_FIELDS: readonly VehicleField[] = [
   { key: 'loadEmpty', group: 'Mass and load', label: 'Payload, empty', unit: 't', factor: 1_000, quantity: 'mass', min: 0, max: 100, step: 0.1, read: (p) => p.loadsKg.empty },
   { key: 'loadSeated', group: 'Mass and load', label: 'Payload, seated', unit: 't', factor: 1_000, quantity: 'mass', min: 0, max: 100, step: 0.1, read: (p) => p.loadsKg.seated },
   { key: 'loadFull', group: 'Mass and load', label: 'Payload, full standing', unit: 't', factor: 1_000, quantity: 'mass', min: 0, max: 100, step: 0.1, read: (p) => p.loadsKg['full-standing'] },
+  { key: 'permissibleGrossMass', group: 'Mass and load', label: 'Permissible gross mass', unit: 't', factor: 1_000, quantity: 'mass', min: 0, max: 300, minExclusive: true, step: 0.1, optional: true, hint: 'From the vehicle maker or registration papers; the worst case uses it. Leave empty if not known.', read: (p) => v(p).permissibleGrossMassKg ?? null },
   { key: 'passengerMass', group: 'Mass and load', label: 'Mass per passenger', unit: 'kg', factor: 1, quantity: 'lightMass', min: 40, max: 120, step: 1, hint: 'Used when a scenario gives a passenger count.', read: (p) => p.passengerMassKg ?? 70 },
   { key: 'rotatingMassFactor', group: 'Mass and load', label: 'Rotating-mass factor', unit: '', factor: 1, min: 0, max: 1, step: 0.01, hint: 'Inertia = (1 + factor) · m · a.', read: (p) => v(p).rotatingMassFactor },
 
@@ -59,6 +63,9 @@ export const VEHICLE_FIELDS: readonly VehicleField[] = [
   { key: 'regenPower', group: 'Powertrain', label: 'Peak regenerative power', unit: 'kW', factor: 1_000, min: 0, max: 5_000, step: 1, hint: '0 means no regeneration at all.', read: (p) => v(p).regenPowerW },
   { key: 'maxTractionForce', group: 'Powertrain', label: 'Tractive force limit', unit: 'kN', factor: 1_000, quantity: 'force', min: 0, max: 1_000, minExclusive: true, step: 0.5, hint: 'Motor torque at the wheel; also caps the regen force.', read: (p) => v(p).maxTractionForceN ?? 35_000 },
   { key: 'drivetrainEfficiency', group: 'Powertrain', label: 'Drivetrain efficiency', unit: '%', factor: 0.01, min: 0, max: 100, minExclusive: true, step: 0.1, hint: 'Battery (or line) → wheel while motoring.', read: (p) => v(p).drivetrainEfficiency },
+  { key: 'regenContinuousPower', group: 'Powertrain', label: 'Continuous regenerative power', unit: 'kW', factor: 1_000, min: 0, max: 5_000, step: 1, optional: true, hint: 'What the machine can hold indefinitely. Empty: the peak power is held.', read: (p) => v(p).regenContinuousPowerW ?? null },
+  { key: 'regenPeakHold', group: 'Powertrain', label: 'Peak regeneration held for', unit: 's', factor: 1, min: 0, max: 3_600, step: 1, hint: 'After this the continuous power applies.', read: (p) => v(p).regenPeakHoldS ?? 60 },
+  { key: 'drivenAxleLoadShare', group: 'Powertrain', label: 'Weight on the driven axles', unit: '%', factor: 0.01, min: 0, max: 100, step: 1, hint: 'Grip on these axles caps regeneration.', read: (p) => v(p).drivenAxleLoadShare ?? 0.6 },
   { key: 'regenEfficiency', group: 'Powertrain', label: 'Regeneration efficiency', unit: '%', factor: 0.01, min: 0, max: 100, minExclusive: true, step: 0.1, hint: 'Wheel → battery (or line) while braking.', read: (p) => v(p).regenEfficiency },
 
   { key: 'batteryCapacity', group: 'Battery and regeneration limits', label: 'Usable battery energy', unit: 'kWh', factor: 1_000, min: 0, max: 5_000, step: 1, hint: 'May be 0 for an overhead-line vehicle without storage.', read: (p) => v(p).batteryCapacityWh },
@@ -80,6 +87,8 @@ export const VEHICLE_FIELDS: readonly VehicleField[] = [
   { key: 'brakeCoolingArea', group: 'Brakes and retarder', label: 'Brake cooling area', unit: 'm²', factor: 1, quantity: 'area', min: 0, max: 100, minExclusive: true, step: 0.1, read: (p) => v(p).brakeCoolingAreaM2 ?? 1.6 },
   { key: 'brakeHeatShare', group: 'Brakes and retarder', label: 'Heat into discs or drums', unit: '%', factor: 0.01, min: 0, max: 100, step: 1, read: (p) => v(p).brakeHeatShare ?? 0.95 },
   { key: 'brakeEmissivity', group: 'Brakes and retarder', label: 'Brake surface emissivity', unit: '', factor: 1, min: 0, max: 1, step: 0.05, read: (p) => v(p).brakeEmissivity ?? 0.6 },
+  { key: 'rearBrakeShare', group: 'Brakes and retarder', label: 'Rear share of braking', unit: '%', factor: 0.01, min: 0, max: 100, step: 1, hint: 'Share of the friction braking force at the rear; the rest is at the front.', read: (p) => v(p).rearBrakeShare ?? 0.6 },
+  { key: 'rearBrakeThermalMassShare', group: 'Brakes and retarder', label: 'Rear share of brake mass', unit: '%', factor: 0.01, min: 0, max: 100, minExclusive: true, step: 1, hint: 'Of the brakes’ thermal mass and cooled surface.', read: (p) => v(p).rearBrakeThermalMassShare ?? 0.5 },
   { key: 'retarderPower', group: 'Brakes and retarder', label: 'Retarder or braking-resistor power', unit: 'kW', factor: 1_000, min: 0, max: 5_000, step: 1, hint: '0 when the vehicle has none.', read: (p) => v(p).retarderPowerW ?? 0 },
 
   { key: 'lineReceptivity', group: 'Overhead-line receptivity', label: 'Line receptivity', unit: '%', factor: 0.01, min: 0, max: 100, step: 1, hint: 'Share of regenerated power another vehicle on the line can take.', read: (p) => v(p).lineReceptivity ?? 0.5 },
@@ -92,8 +101,17 @@ export interface VehicleFormValue {
   description: string;
   powerSource: 'battery' | 'overhead-line';
   brakeType: 'disc' | 'drum';
+  retarderType: RetarderType;
   numbers: VehicleNumbers;
 }
+
+/** Words for each kind of endurance brake. */
+export const RETARDER_TYPE_LABELS: Readonly<Record<RetarderType, string>> = {
+  none: 'None',
+  'braking-resistor': 'Braking resistor (through the motor)',
+  hydrodynamic: 'Hydrodynamic retarder',
+  'eddy-current': 'Eddy-current retarder',
+};
 
 /** SI value of each number field, keyed like the form controls (null while a field is empty). */
 export type VehicleSiNumbers = Record<string, number | null>;
@@ -165,6 +183,8 @@ export function toVehicleFormValue(profile: VehicleProfileDraftInput, system: Un
     description: profile.description ?? '',
     powerSource: profile.vehicle.powerSource ?? 'battery',
     brakeType: profile.vehicle.brakeType ?? 'disc',
+    // An unstated kind reads as the engine reads it: a braking resistor when there is retarder power.
+    retarderType: profile.vehicle.retarderType ?? ((profile.vehicle.retarderPowerW ?? 0) > 0 ? 'braking-resistor' : 'none'),
     numbers: profileNumbersBasis(profile, system).shown,
   };
 }
@@ -218,6 +238,7 @@ export function toVehicleDraft(
     if (found === null || found === undefined) throw new RangeError(`Missing value for ${key}`);
     return found;
   };
+  const stated = (key: string) => numbers[key] ?? undefined;
   const seasons = {
     winter: { ambientC: si('winterAmbient'), auxPowerW: si('winterAux') },
     mild: { ambientC: si('mildAmbient'), auxPowerW: si('mildAux') },
@@ -258,6 +279,13 @@ export function toVehicleDraft(
       brakeHeatShare: si('brakeHeatShare'),
       brakeEmissivity: si('brakeEmissivity'),
       retarderPowerW: si('retarderPower'),
+      retarderType: value.retarderType,
+      regenContinuousPowerW: stated('regenContinuousPower'),
+      regenPeakHoldS: si('regenPeakHold'),
+      drivenAxleLoadShare: si('drivenAxleLoadShare'),
+      rearBrakeShare: si('rearBrakeShare'),
+      rearBrakeThermalMassShare: si('rearBrakeThermalMassShare'),
+      permissibleGrossMassKg: stated('permissibleGrossMass'),
       lineReceptivity: si('lineReceptivity'),
       powerSource: value.powerSource,
     },
@@ -269,7 +297,7 @@ export function fieldMessage(field: VehicleField, shown: number | null | undefin
   const { min, max } = fieldLimits(field, system);
   const unit = fieldUnit(field, system);
   const range = `${min} to ${max}${unit ? ' ' + unit : ''}`;
-  if (shown === null || shown === undefined || Number.isNaN(shown)) return `Enter a value (${range}).`;
+  if (shown === null || shown === undefined || Number.isNaN(shown)) return field.optional ? null : `Enter a value (${range}).`;
   if (field.minExclusive ? shown <= min : shown < min) {
     return field.minExclusive ? `Must be more than ${min}${unit ? ' ' + unit : ''}.` : `At least ${min}${unit ? ' ' + unit : ''}.`;
   }
@@ -280,7 +308,10 @@ export function fieldMessage(field: VehicleField, shown: number | null | undefin
 /** Rules that tie two fields together: messages keyed by the field they are shown under. */
 export function crossFieldMessages(value: VehicleFormValue): Record<string, string> {
   const messages: Record<string, string> = {};
-  const { socTaperStart, socCeiling, batteryCapacity } = value.numbers;
+  const { socTaperStart, socCeiling, batteryCapacity, regenPower, regenContinuousPower } = value.numbers;
+  if (regenContinuousPower !== null && regenContinuousPower !== undefined && regenPower !== null && regenPower !== undefined && regenContinuousPower > regenPower) {
+    messages['regenContinuousPower'] = 'Must not be above the peak regenerative power.';
+  }
   if (socTaperStart !== null && socTaperStart !== undefined && socCeiling !== null && socCeiling !== undefined && socTaperStart > socCeiling) {
     messages['socTaperStart'] = 'Must not be above the SOC at which charging stops.';
   }

@@ -2,6 +2,7 @@ import { DatePipe } from '@angular/common';
 import { ChangeDetectionStrategy, Component, computed, effect, inject, input, signal, untracked } from '@angular/core';
 import { toSignal } from '@angular/core/rxjs-interop';
 import { FormControl, FormGroup, ReactiveFormsModule, Validators } from '@angular/forms';
+import type { RetarderType } from '@shared/domain/analysis';
 import { MatButtonModule } from '@angular/material/button';
 import { MatDialog } from '@angular/material/dialog';
 import { MatButtonToggleModule } from '@angular/material/button-toggle';
@@ -30,6 +31,7 @@ import {
   switchUnits,
   toVehicleDraft,
   toVehicleFormValue,
+  RETARDER_TYPE_LABELS,
   type VehicleField,
   type VehicleFormValue,
   type VehicleNumbersBasis,
@@ -77,6 +79,7 @@ export default class VehicleProfileEditor {
   /** SI values behind the shown numbers, so rounding for display never changes a saved value. */
   private basis: VehicleNumbersBasis | null = null;
   protected readonly groups = VEHICLE_FIELD_GROUPS.map((group) => ({ group, fields: VEHICLE_FIELDS.filter((field) => field.group === group) }));
+  protected readonly retarderTypes = Object.entries(RETARDER_TYPE_LABELS) as [RetarderType, string][];
 
   protected readonly profile = signal<VehicleProfile | null>(null);
   protected readonly source = signal<VehicleProfile | null>(null);
@@ -92,13 +95,14 @@ export default class VehicleProfileEditor {
   protected readonly isAnalyst = computed(() => this.session.can('vehicles.edit'));
 
   protected readonly numbers = new FormGroup<NumberControls>(
-    Object.fromEntries(VEHICLE_FIELDS.map((field) => [field.key, new FormControl<number | null>(null, [Validators.required, rangeValidator(field, () => this.shownUnits())])])),
+    Object.fromEntries(VEHICLE_FIELDS.map((field) => [field.key, new FormControl<number | null>(null, field.optional ? [rangeValidator(field, () => this.shownUnits())] : [Validators.required, rangeValidator(field, () => this.shownUnits())])])),
   );
   protected readonly form = new FormGroup({
     name: new FormControl('', { nonNullable: true, validators: [Validators.required, Validators.maxLength(120)] }),
     description: new FormControl('', { nonNullable: true, validators: [Validators.maxLength(2000)] }),
     powerSource: new FormControl<'battery' | 'overhead-line'>('battery', { nonNullable: true }),
     brakeType: new FormControl<'disc' | 'drum'>('disc', { nonNullable: true }),
+    retarderType: new FormControl<RetarderType>('none', { nonNullable: true }),
     numbers: this.numbers,
   });
 

@@ -7,9 +7,29 @@ import { MatIconModule } from '@angular/material/icon';
 import { MatInputModule } from '@angular/material/input';
 import { MatProgressBarModule } from '@angular/material/progress-bar';
 import { MatSnackBar } from '@angular/material/snack-bar';
+import { safetySettingsSchema } from '@shared/domain/analysis';
 import { networkSettingsSchema, type NetworkSettingsView } from '@shared/domain/board-summary';
 import { describeApiError } from '../../core/api-error-message';
 import { NetworkSettingsApi } from './network-settings-api';
+
+const safety = safetySettingsSchema.shape;
+
+/** The allowed range of each safety setting, straight from the shared contract. */
+const SAFETY_RANGES = {
+  worstCaseAmbientC: rangeOf(safety.worstCaseAmbientC.unwrap()),
+  fadeMarginK: rangeOf(safety.fadeMarginK.unwrap()),
+  maxRoadGradePercent: rangeOf(safety.maxRoadGradePercent.unwrap()),
+  crawlSpeedKph: rangeOf(safety.crawlSpeedKph.unwrap()),
+  crawlDistanceM: rangeOf(safety.crawlDistanceM.unwrap()),
+};
+
+function rangeOf(schema: { minValue: number | null; maxValue: number | null }): { min: number; max: number } {
+  return { min: schema.minValue ?? 0, max: schema.maxValue ?? Number.MAX_SAFE_INTEGER };
+}
+
+function rangeControl(range: { min: number; max: number }): FormControl<number | null> {
+  return new FormControl<number | null>(null, [Validators.required, Validators.min(range.min), Validators.max(range.max)]);
+}
 
 type LoadState = { status: 'loading' } | { status: 'error'; message: string } | { status: 'ready' };
 
@@ -30,7 +50,7 @@ type LoadState = { status: 'loading' } | { status: 'error'; message: string } | 
       <h1 id="network-title" class="app-page-title">Network settings</h1>
       <p class="app-lead">
         The board summary turns recovered braking energy into money and CO₂ with these two factors. Name the source of each:
-        it is printed with the summary.
+        it is printed with the summary. The safety settings below apply to every descent assessment from the next run on.
       </p>
       @let state = loadState();
       @if (state.status === 'loading') {
@@ -89,6 +109,51 @@ type LoadState = { status: 'loading' } | { status: 'error'; message: string } | 
               @if (form.controls.emissionFactorSource.invalid) { <mat-error>Name the source.</mat-error> }
             </mat-form-field>
           </fieldset>
+          <fieldset>
+            <legend>Safety assessment</legend>
+            <p class="note">
+              Every descent is also assessed in its worst credible case. These figures are the network's own choice: set them
+              with your licensed engineers, within local codes and the vehicle makers' limits.
+            </p>
+            <div class="row">
+              <mat-form-field appearance="outline" subscriptSizing="dynamic">
+                <mat-label>Worst-case ambient</mat-label>
+                <input matInput type="number" inputmode="decimal" step="1" [min]="ranges.worstCaseAmbientC.min" [max]="ranges.worstCaseAmbientC.max" formControlName="worstCaseAmbientC" required />
+                <span matTextSuffix>°C</span>
+                <mat-hint>The hottest day you plan for.</mat-hint>
+                @if (form.controls.worstCaseAmbientC.invalid) { <mat-error>Between {{ ranges.worstCaseAmbientC.min }} and {{ ranges.worstCaseAmbientC.max }} °C.</mat-error> }
+              </mat-form-field>
+              <mat-form-field appearance="outline" subscriptSizing="dynamic">
+                <mat-label>Margin below fade</mat-label>
+                <input matInput type="number" inputmode="decimal" step="5" [min]="ranges.fadeMarginK.min" [max]="ranges.fadeMarginK.max" formControlName="fadeMarginK" required />
+                <span matTextSuffix>K</span>
+                <mat-hint>Speed and SOC advice keep the brakes this far below their fade temperature.</mat-hint>
+                @if (form.controls.fadeMarginK.invalid) { <mat-error>Between {{ ranges.fadeMarginK.min }} and {{ ranges.fadeMarginK.max }} K.</mat-error> }
+              </mat-form-field>
+            </div>
+            <div class="row">
+              <mat-form-field appearance="outline" subscriptSizing="dynamic">
+                <mat-label>Steepest road grade</mat-label>
+                <input matInput type="number" inputmode="decimal" step="0.5" [min]="ranges.maxRoadGradePercent.min" [max]="ranges.maxRoadGradePercent.max" formControlName="maxRoadGradePercent" required />
+                <span matTextSuffix>%</span>
+                <mat-hint>A route drawn steeper than this is not drivable as drawn.</mat-hint>
+                @if (form.controls.maxRoadGradePercent.invalid) { <mat-error>Between {{ ranges.maxRoadGradePercent.min }} and {{ ranges.maxRoadGradePercent.max }} %.</mat-error> }
+              </mat-form-field>
+              <mat-form-field appearance="outline" subscriptSizing="dynamic">
+                <mat-label>Crawl speed</mat-label>
+                <input matInput type="number" inputmode="decimal" step="1" [min]="ranges.crawlSpeedKph.min" [max]="ranges.crawlSpeedKph.max" formControlName="crawlSpeedKph" required />
+                <span matTextSuffix>km/h</span>
+                <mat-hint>Slower than this for the crawl distance: not drivable as drawn.</mat-hint>
+                @if (form.controls.crawlSpeedKph.invalid) { <mat-error>Between {{ ranges.crawlSpeedKph.min }} and {{ ranges.crawlSpeedKph.max }} km/h.</mat-error> }
+              </mat-form-field>
+              <mat-form-field appearance="outline" subscriptSizing="dynamic">
+                <mat-label>Crawl distance</mat-label>
+                <input matInput type="number" inputmode="decimal" step="10" [min]="ranges.crawlDistanceM.min" [max]="ranges.crawlDistanceM.max" formControlName="crawlDistanceM" required />
+                <span matTextSuffix>m</span>
+                @if (form.controls.crawlDistanceM.invalid) { <mat-error>Between {{ ranges.crawlDistanceM.min }} and {{ ranges.crawlDistanceM.max }} m.</mat-error> }
+              </mat-form-field>
+            </div>
+          </fieldset>
           @if (saveError(); as message) {
             <p class="app-inline-error" role="alert"><mat-icon>error</mat-icon>{{ message }}</p>
           }
@@ -100,6 +165,7 @@ type LoadState = { status: 'loading' } | { status: 'error'; message: string } | 
     </section>
   `,
   styles: `
+    .note { margin: 0; color: var(--mat-sys-on-surface-variant); }
     .meta { color: var(--mat-sys-on-surface-variant); }
     .app-caution { margin: 0 0 16px; }
     .form { max-width: 720px; display: grid; gap: 16px; }
@@ -121,6 +187,7 @@ export default class NetworkSettings {
   protected readonly view = signal<NetworkSettingsView | null>(null);
   protected readonly saving = signal(false);
   protected readonly saveError = signal<string | null>(null);
+  protected readonly ranges = SAFETY_RANGES;
 
   protected readonly form = new FormGroup({
     energyTariffPerKWh: new FormControl<number | null>(null, [Validators.required, Validators.min(0), Validators.max(10)]),
@@ -128,6 +195,11 @@ export default class NetworkSettings {
     tariffSource: new FormControl('', { nonNullable: true, validators: [Validators.required, Validators.pattern(/\S/)] }),
     gridEmissionFactorKgPerKWh: new FormControl<number | null>(null, [Validators.required, Validators.min(0), Validators.max(2)]),
     emissionFactorSource: new FormControl('', { nonNullable: true, validators: [Validators.required, Validators.pattern(/\S/)] }),
+    worstCaseAmbientC: rangeControl(SAFETY_RANGES.worstCaseAmbientC),
+    fadeMarginK: rangeControl(SAFETY_RANGES.fadeMarginK),
+    maxRoadGradePercent: rangeControl(SAFETY_RANGES.maxRoadGradePercent),
+    crawlSpeedKph: rangeControl(SAFETY_RANGES.crawlSpeedKph),
+    crawlDistanceM: rangeControl(SAFETY_RANGES.crawlDistanceM),
   });
 
   constructor() {
@@ -170,6 +242,11 @@ export default class NetworkSettings {
       tariffSource: view.tariffSource,
       gridEmissionFactorKgPerKWh: view.gridEmissionFactorKgPerKWh,
       emissionFactorSource: view.emissionFactorSource,
+      worstCaseAmbientC: view.worstCaseAmbientC,
+      fadeMarginK: view.fadeMarginK,
+      maxRoadGradePercent: view.maxRoadGradePercent,
+      crawlSpeedKph: view.crawlSpeedKph,
+      crawlDistanceM: view.crawlDistanceM,
     });
   }
 }

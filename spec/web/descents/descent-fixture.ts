@@ -1,0 +1,58 @@
+import type { Descent } from '@shared/domain/analysis';
+
+/** An invented descent of the demo valley's pass road, with its worst case and sensitivity. */
+export function aDescent(overrides: Partial<Descent> = {}): Descent {
+  return {
+    startM: 2_000,
+    endM: 6_500,
+    lengthM: 4_500,
+    dropM: 360,
+    meanGradePercent: -8,
+    maxGradePercent: -11.5,
+    gravityEnergyWh: 18_000,
+    brakingEnergyWh: 14_000,
+    regenEnergyWh: 9_000,
+    frictionBrakeEnergyWh: 5_000,
+    retarderEnergyWh: 0,
+    peakBrakeTempC: 212.4,
+    gsrsPeakBrakeTempC: 260,
+    risk: 'critical',
+    nominalRisk: 'elevated',
+    fadeThresholdC: 350,
+    fadeMarginK: 50,
+    peakBrakeTempByAxleC: { front: 212.4, rear: 180.2 },
+    maxSafeSpeedKph: 28,
+    speedAdvice: 'limit',
+    maxTopSoc: 0.874,
+    maxTopSocReason: null,
+    worstCase: {
+      peakBrakeTempC: 401.2,
+      peakBrakeTempByAxleC: { front: 401.2, rear: 355.6 },
+      risk: 'critical',
+      maxSafeSpeedKph: 17,
+      speedAdvice: 'limit',
+      conditions: {
+        regenerationAvailable: false,
+        brakingResistorAvailable: false,
+        retarderAvailable: false,
+        socAtTop: 0.95,
+        massKg: 19_000,
+        massBasis: 'permissible-gross-mass',
+        ambientC: 35,
+        brakeTempAtTopC: 96.3,
+        surface: 'wet',
+      },
+    },
+    sensitivity: [
+      { input: 'soc', lowPeakBrakeTempC: 200, highPeakBrakeTempC: 231 },
+      { input: 'mass', lowPeakBrakeTempC: 190, highPeakBrakeTempC: 236 },
+      { input: 'brake-cooling', lowPeakBrakeTempC: 262, highPeakBrakeTempC: 181 },
+    ],
+    sensitivityDominantInput: 'brake-cooling',
+    drivability: { drivable: true, stretches: [] },
+    adhesion: { surface: 'dry', availableMu: 0.7, requiredMu: 0.21, requiredAtM: 4_100, sufficient: true, regenLimitedByAdhesion: false },
+    socAtTop: 0.8,
+    beyondTypeApprovalReference: false,
+    ...overrides,
+  };
+}
