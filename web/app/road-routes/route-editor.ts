@@ -369,22 +369,14 @@ export default class RouteEditor {
     }
   }
 
-  /** Clicks made while a path is still being found wait their turn instead of being dropped. */
-  private routingQueue: Promise<void> = Promise.resolve();
-
-  private addVertex(at: MapPosition): Promise<void> {
-    const added = this.routingQueue.then(() => this.addVertexNow(at));
-    this.routingQueue = added.catch(() => undefined);
-    return added;
-  }
-
-  private async addVertexNow(at: MapPosition): Promise<void> {
+  private async addVertex(at: MapPosition): Promise<void> {
     const vertices = this.draft().vertices;
     const last = vertices[vertices.length - 1];
     if (!this.snapToNetwork() || !this.canSnap()) {
       this.edit((state) => appendVertices(state, [at]));
       return;
     }
+    if (this.isRouting()) return;
     this.isRouting.set(true);
     try {
       // The first vertex goes to the nearest road; the next ones follow the roads from the last.
