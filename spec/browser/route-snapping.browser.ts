@@ -52,6 +52,8 @@ describe('route editor: snap to roads (on by default)', () => {
       // Two bends of the longest road, a few bends apart: a planner clicks on the road itself.
       const road = roads.reduce((longest, line) => (line.length > longest.length ? line : longest));
       await clickAt(page, road[1]!);
+      // The editor finds one path at a time: wait for the first point to land, as a person would.
+      await page.getByTestId('route-figures').getByText('Vertices 1').waitFor();
       await clickAt(page, road[Math.min(road.length - 2, 5)]!);
       await screenshot(page, 'route-editor-snapped');
       await page.waitForFunction(() => /Vertices ([3-9]|\d\d+)/.test(document.querySelector('[data-testid="route-figures"]')?.textContent ?? ''));
