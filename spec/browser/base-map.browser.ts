@@ -1,7 +1,7 @@
 import assert from 'node:assert/strict';
 import { describe, it } from 'node:test';
 import type { Page, Response } from 'playwright-core';
-import { BASE_URL, screenshot } from './support/browser';
+import { BASE_URL, screenshot, waitForCount } from './support/browser';
 import { signedInBrowser } from './support/demo-people';
 
 type Position = [number, number];
@@ -77,10 +77,12 @@ describe('base map and snapped routes', () => {
   it('switches between the base map, the terrain and both', async () => {
     const { page } = browser;
     await page.getByRole('radio', { name: 'Base map', exact: true }).check();
-    assert.equal(await page.locator('.leaflet-pane.leaflet-tile-pane .leaflet-layer').count(), 0);
-    assert.ok((await page.locator('.leaflet-app-basemap-pane canvas').count()) > 0, 'the base map is drawn');
+    // The layers follow the choice a frame later; wait for it rather than reading at once.
+    await waitForCount(page.locator('.leaflet-pane.leaflet-tile-pane .leaflet-layer'), 0);
+    await waitForCount(page.locator('.leaflet-app-basemap-pane canvas'), (count) => count > 0);
     await page.getByRole('radio', { name: 'Terrain', exact: true }).check();
-    assert.equal(await page.locator('.leaflet-app-basemap-pane canvas').count(), 0);
+    await waitForCount(page.locator('.leaflet-app-basemap-pane canvas'), 0);
+    await waitForCount(page.locator('.leaflet-pane.leaflet-tile-pane .leaflet-layer'), (count) => count > 0);
     await page.getByRole('radio', { name: 'Base map and terrain' }).check();
     await page.locator('.leaflet-app-basemap-pane canvas').first().waitFor();
   });

@@ -1,7 +1,7 @@
 import { mkdirSync, mkdtempSync, rmSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
-import { chromium, type BrowserContext, type Page } from 'playwright-core';
+import { chromium, type BrowserContext, type Locator, type Page } from 'playwright-core';
 
 /** Where the app under test runs: `npm start` serves web and API together on port 4300. */
 export const BASE_URL = (process.env['BASE_URL'] ?? 'http://127.0.0.1:4300').replace(/\/$/, '');
@@ -59,6 +59,29 @@ export async function settleAnimations(page: Page): Promise<void> {
   await page.waitForFunction(() =>
     document.getAnimations().every((animation) => animation.playState !== 'running'),
   );
+}
+
+/**
+ * Waits until a locator matches `expected` elements (or `predicate` holds for the count).
+ * Map layers and tables change a frame or two after the click that changes them, so a
+ * count read at once can still see the old state.
+ */
+export async function waitForCount(
+  locator: Locator,
+  predicate: number | ((count: number) => boolean),
+  timeoutMs = 5_000,
+): Promise<number> {
+  const holds = typeof predicate === 'number' ? (count: number) => count === predicate : predicate;
+  const deadline = Date.now() + timeoutMs;
+  let count = await locator.count();
+  while (!holds(count)) {
+    if (Date.now() > deadline) {
+      throw new Error(`${locator} matched ${count} elements after ${timeoutMs} ms, not ${String(predicate)}`);
+    }
+    await new Promise((resolve) => setTimeout(resolve, 50));
+    count = await locator.count();
+  }
+  return count;
 }
 
 /** Fails fast, with a useful message, when nothing answers at BASE_URL. */
