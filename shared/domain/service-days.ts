@@ -107,6 +107,11 @@ export const serviceDayListSchema = z.object({
 /** A stop at a charger during a layover or at the depot. */
 export const chargingEventSchema = z.object({
   chargerKey: z.string(),
+  /**
+   * 'charging': energy into the battery during a layover; 'preconditioning': the depot charger
+   * heating or cooling the cabin before pull-out (no energy into the battery). Absent: charging.
+   */
+  purpose: z.enum(['charging', 'preconditioning']).optional(),
   startS: z.number(),
   endS: z.number(),
   /** Energy that went into the battery, Wh. */

@@ -44,7 +44,7 @@ export interface ClimateSettings {
   /** Rated heat output of the heat pump, W; 0 = no heat pump (resistive heating only). */
   heatPumpHeatW: number;
   /** Heating COP against ambient temperature, ascending in ambientC. */
-  heatPumpCop: CopPoint[];
+  heatPumpCop: readonly CopPoint[];
   /** Lowest ambient at which the heat pump runs, °C; below it the resistive back-up heats alone. */
   heatPumpMinAmbientC: number;
   /** Cooling energy efficiency ratio (cooling heat ÷ electrical power). */

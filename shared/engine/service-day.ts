@@ -37,7 +37,8 @@ import { chargeTaperFactor, coldChargeFactor } from './powertrain';
 import { resampleRoute } from './resample-route';
 import { runRouteFrom, type RouteRun } from './route-run';
 import { dwell, emptySegmentResult, governingBrakeTempC, initialVehicleState, type RouteModel, type VehicleState } from './route-simulation';
-import { tripAuxiliaryPowerW, type ClimateSettings } from './auxiliary-power';
+import { preconditioningEnergyJ, tripAuxiliaryPowerW, type ClimateSettings } from './auxiliary-power';
+import { DEFAULT_CLIMATE } from './constants';
 import { EngineInputError } from './validation';
 import { MAX_RESAMPLED_POINTS, MAX_ROUTE_LENGTH_M } from './constants';
 
@@ -74,8 +75,11 @@ export interface ServiceDayVehicleInput {
   vehicle: VehicleInput;
   loadsKg: { empty: number; seated: number; 'full-standing': number };
   passengerMassKg: number;
-  /** Auxiliary power from ambient, occupancy and doors; absent: the vehicle's constant `auxPowerW`. */
-  climate?: ClimateSettings;
+  /**
+   * Auxiliary power from ambient, occupancy and doors (auxiliary-power.ts); fields left out take
+   * `DEFAULT_CLIMATE`. Absent: the vehicle's constant `auxPowerW` all day, no pre-conditioning.
+   */
+  climate?: Partial<ClimateSettings>;
 }
 
 export interface ServiceDayEngineInput {
@@ -114,9 +118,8 @@ interface PreparedTrip {
   standalonePeakC: number[];
   /** Charger within reach of the last point, if any. */
   chargerAtEnd: Charger | undefined;
-  /** Auxiliary power of the trip and of the layover after it, W. */
+  /** Mean auxiliary power of the trip, W. */
   auxPowerW: number;
-  standAuxPowerW: number;
 }
 
 /** Runs every block of a service day. Input errors that concern the whole day throw `EngineInputError`. */
@@ -139,6 +142,9 @@ export const SERVICE_DAY_LIMITS =
 interface ParsedVehicle {
   input: ServiceDayVehicleInput;
   vehicle: Vehicle;
+  climate: ClimateSettings | undefined;
+  /** Auxiliary power while standing empty with the doors shut, W. */
+  standAuxPowerW: number;
   /** Usable capacity and charge power at the day's battery age. */
   capacityJ: number;
   maxChargePowerW: number;
@@ -167,9 +173,14 @@ class DayContext {
         batteryCapacityWh: vehicle.batteryCapacityWh * capacityShare,
         maxChargePowerW: vehicle.maxChargePowerW * chargeShare,
       };
+      const climate = entry.climate ? { ...DEFAULT_CLIMATE, ...entry.climate } : undefined;
       this.vehicles.set(entry.vehicleProfileId, {
         input: entry,
         vehicle: aged,
+        climate,
+        standAuxPowerW: climate
+          ? tripAuxiliaryPowerW(climate, { ambientC: input.ambientC, passengers: 0, doorOpenings: 0, durationS: 3_600 })
+          : aged.auxPowerW,
         capacityJ: aged.batteryCapacityWh * JOULES_PER_WH,
         maxChargePowerW: aged.maxChargePowerW,
       });
@@ -234,12 +245,9 @@ class DayContext {
       durationS += v > 0 ? (2 * model0.slopeLengthM[k]!) / v : 0;
     }
     for (let i = 0; i < model0.pointCount; i++) durationS += model0.dwellS[i]!;
-    const climate = parsed.input.climate;
+    const climate = parsed.climate;
     const auxPowerW = climate
       ? tripAuxiliaryPowerW(climate, { ambientC: input.ambientC, passengers, doorOpenings: stopCount, durationS })
-      : parsed.vehicle.auxPowerW;
-    const standAuxPowerW = climate
-      ? tripAuxiliaryPowerW(climate, { ambientC: input.ambientC, passengers: 0, doorOpenings: 0, durationS: 3_600 })
       : parsed.vehicle.auxPowerW;
     const model = withVehicle(model0, { ...baseVehicle, auxPowerW });
     const coldRun = runRouteFrom(model, speedMps, initialVehicleState(conditions.startSoc, input.ambientC));
@@ -272,7 +280,6 @@ class DayContext {
       standalonePeakC,
       chargerAtEnd,
       auxPowerW,
-      standAuxPowerW,
     };
   }
 
@@ -351,11 +358,36 @@ export function runBlock(context: DayContext, block: Block): BlockResult {
       minSocAtS = t;
     }
   };
-  note(timeS, state.soc);
+  let depot: Charger | undefined;
   if (block.depotChargerKey !== undefined) {
-    const depot = context.chargers.get(block.depotChargerKey);
+    depot = context.chargers.get(block.depotChargerKey);
     if (!depot) problems.push(`the depot charger \u201c${block.depotChargerKey}\u201d is not among the service day\u2019s chargers`);
   }
+  // Pre-conditioning before pull-out: from the depot charger when the block names one, else from the battery.
+  const preconditionJ = parsed.climate ? preconditioningEnergyJ(parsed.climate, context.input.ambientC) : 0;
+  if (preconditionJ > 0 && parsed.climate) {
+    const fromS = block.pullOutS - parsed.climate.preconditioningS;
+    if (depot) {
+      const gridJ = preconditionJ / depot.efficiency;
+      context.recordGridPower(depot.key, fromS, block.pullOutS, gridJ / parsed.climate.preconditioningS);
+      chargingEvents.push({
+        chargerKey: depot.key,
+        purpose: 'preconditioning',
+        startS: fromS,
+        endS: block.pullOutS,
+        energyWh: 0,
+        gridEnergyWh: gridJ / JOULES_PER_WH,
+        socBefore: state.soc,
+        socAfter: state.soc,
+      });
+    } else if (isBattery) {
+      note(fromS, state.soc);
+      const drawnJ = Math.min(preconditionJ, state.soc * capacityJ);
+      state.soc -= drawnJ / capacityJ;
+      netJ += drawnJ;
+    }
+  }
+  note(timeS, state.soc);
 
   let previous: PreparedTrip | undefined;
   let stopped = false;
@@ -371,7 +403,7 @@ export function runBlock(context: DayContext, block: Block): BlockResult {
       );
     } else if (trip.departureS > timeS) {
       const standModel = previous?.model;
-      const stand = stand_(context, parsed, state, standModel, previous?.standAuxPowerW ?? parsed.vehicle.auxPowerW, timeS, trip.departureS, previous?.chargerAtEnd, isBattery, note);
+      const stand = stand_(context, parsed, state, standModel, parsed.standAuxPowerW, timeS, trip.departureS, previous?.chargerAtEnd, isBattery, note);
       netJ += stand.netJ;
       chargedJ += stand.chargedJ;
       if (stand.event) chargingEvents.push(stand.event);
@@ -468,7 +500,7 @@ export function runBlock(context: DayContext, block: Block): BlockResult {
     if (block.pullInS < timeS) {
       problems.push(`the pull-in at ${clock(block.pullInS)} is before the last trip arrives at ${clock(timeS)}`);
     } else if (block.pullInS > timeS) {
-      const stand = stand_(context, parsed, state, previous?.model, previous?.standAuxPowerW ?? parsed.vehicle.auxPowerW, timeS, block.pullInS, previous?.chargerAtEnd, isBattery, note);
+      const stand = stand_(context, parsed, state, previous?.model, parsed.standAuxPowerW, timeS, block.pullInS, previous?.chargerAtEnd, isBattery, note);
       netJ += stand.netJ;
       chargedJ += stand.chargedJ;
       if (stand.event) chargingEvents.push(stand.event);
@@ -587,6 +619,7 @@ function stand_(
     chargedJ,
     event: {
       chargerKey: charger.key,
+      purpose: 'charging',
       startS: chargeStartS,
       endS: chargeEndS,
       energyWh: chargedJ / JOULES_PER_WH,
