@@ -149,7 +149,10 @@ export const blockResultSchema = z.object({
   endSoc: z.number(),
   /** Energy that went into the battery at chargers during the day, Wh. */
   chargedEnergyWh: z.number(),
-  /** Net battery energy of the trips and layovers (drawn minus regenerated), Wh. */
+  /**
+   * Net battery energy of the trips and layovers (drawn minus regenerated), Wh. For overhead-line
+   * vehicles (whose on-board storage is not modelled) the net energy drawn from the line.
+   */
   tripNetEnergyWh: z.number(),
   /** Whether the block can be worked: it never falls below the reserve and every trip can be driven. */
   feasible: z.boolean(),

@@ -582,12 +582,14 @@ function stand_(
     // Brakes cool at standstill; the auxiliaries draw from the battery.
     if (standModel) {
       dwell(standModel, standModel.pointCount - 1, dt, state, scratch);
-      if (isBattery) netJ += scratch.split.sourcePowerW * dt - scratch.split.shortfallJ;
-    } else if (isBattery) {
+      netJ += scratch.split.sourcePowerW * dt - scratch.split.shortfallJ;
+    } else {
       const drawJ = auxPowerW * dt;
-      const next = state.soc - drawJ / parsed.capacityJ;
-      netJ += next < 0 ? drawJ + next * parsed.capacityJ : drawJ;
-      state.soc = Math.max(0, next);
+      if (isBattery) {
+        const next = state.soc - drawJ / parsed.capacityJ;
+        netJ += next < 0 ? drawJ + next * parsed.capacityJ : drawJ;
+        state.soc = Math.max(0, next);
+      } else netJ += drawJ;
     }
     if (charging && charger) {
       const limitW = Math.min(
