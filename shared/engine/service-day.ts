@@ -455,12 +455,16 @@ export function runBlock(context: DayContext, block: Block): BlockResult {
       stopped = true;
     }
     // Descents with the state the vehicle has when the trip leaves (module comment).
-    const worstStart = startStateForWorstCase(startState, prepared);
-    const worstRun = runRouteFrom(prepared.worstModel, prepared.speedMps, worstStart);
+    // Brakes no warmer than the worst-case ambient start that run exactly as the standalone one
+    // does, so its peaks are reused; warmer brakes get their own worst-case run.
+    const hot = prepared.worstModel.ambientC[0]!;
+    const carriesHeat = Math.max(startState.brakeTempC, startState.frontBrakeTempC, startState.rearBrakeTempC, startState.gsrsBrakeTempC) > hot;
+    const worstRun =
+      prepared.ranges.length > 0 && carriesHeat ? runRouteFrom(prepared.worstModel, prepared.speedMps, startStateForWorstCase(startState, prepared)) : undefined;
     prepared.ranges.forEach((range, r) => {
       const first = range.firstSegment;
       const last = range.lastSegment + 1;
-      const dayPeak = Math.max(peakOver(worstRun, range), peakOver(run, range));
+      const dayPeak = Math.max(worstRun ? peakOver(worstRun, range) : Number.NEGATIVE_INFINITY, peakOver(run, range));
       const standalonePeak = prepared.standalonePeakC[r]!;
       const peak = Math.max(dayPeak, standalonePeak);
       const brakeType = prepared.model.vehicle.brakeType;
@@ -574,11 +578,28 @@ function stand_(
   let chargeEndS = fromS;
   let socAfter = state.soc;
   let t = fromS;
+  const aloneW = isBattery ? Math.min(charger ? charger.powerW * charger.efficiency : 0, parsed.maxChargePowerW * cold) : 0;
   while (t < toS - 1e-9) {
-    // Steps end at the charger's connection so charging starts exactly after the connect time.
-    const untilConnectS = t < chargeFromS - 1e-9 && chargeFromS < toS ? chargeFromS - t : Number.POSITIVE_INFINITY;
-    const dt = Math.min(STAND_STEP_S, toS - t, untilConnectS);
     const charging = charger !== undefined && t >= chargeFromS - 1e-9;
+    const remainingS = toS - t;
+    let dt: number;
+    if (!charging) {
+      // Standing before the charger connects (or with none): one step to the connection or the end.
+      dt = Math.min(remainingS, chargeFromS - t);
+    } else if (state.soc >= target - 1e-12) {
+      // At the target the charger carries the auxiliaries for the rest of the stand.
+      dt = remainingS;
+    } else if (state.soc < vehicle.socTaperStart) {
+      // Below the taper the charge power is constant: one step until the taper or the target.
+      const netW = aloneW - auxPowerW;
+      const stopSoc = Math.min(vehicle.socTaperStart, target);
+      dt = netW > 0 ? Math.min(remainingS, ((stopSoc - state.soc) * parsed.capacityJ) / netW) : remainingS;
+      if (!(dt > 1e-6)) dt = Math.min(STAND_STEP_S, remainingS);
+    } else {
+      // In the taper the limit follows the SOC: short steps.
+      dt = Math.min(STAND_STEP_S, remainingS);
+    }
+    const socAtStepStart = state.soc;
     // Brakes cool at standstill; the auxiliaries draw from the battery.
     if (standModel) {
       dwell(standModel, standModel.pointCount - 1, dt, state, scratch);
@@ -600,9 +621,10 @@ function stand_(
       const intoBatteryW = Math.min(limitW, wantedW);
       if (intoBatteryW > 0) {
         if (chargeStartS === undefined) {
+          // Charging and the auxiliaries act together over the step: the charge starts at the step's SOC.
           chargeStartS = t;
-          socBefore = state.soc;
-          note(t, state.soc);
+          socBefore = socAtStepStart;
+          note(t, socAtStepStart);
         }
         chargeEndS = t + dt;
         state.soc += (intoBatteryW * dt) / parsed.capacityJ;
