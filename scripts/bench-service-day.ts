@@ -14,7 +14,7 @@
  *
  *   node --import tsx scripts/bench-service-day.ts [runs] [threads]
  */
-import { availableParallelism } from 'node:os';
+import { availableParallelism, loadavg } from 'node:os';
 import { fileURLToPath } from 'node:url';
 import { Piscina } from 'piscina';
 import type { Block, Charger } from '../shared/domain/service-days';
@@ -111,6 +111,7 @@ function stats(values: number[]): { median: number; min: number; max: number } {
   return { median: sorted[Math.floor(sorted.length / 2)]!, min: sorted[0]!, max: sorted[sorted.length - 1]! };
 }
 
+const loadBefore = loadavg()[0]!;
 const input = buildInput();
 const tripCount = input.blocks.reduce((sum, block) => sum + block.trips.length, 0);
 
@@ -137,7 +138,11 @@ await pool.destroy();
 
 const feasible = result.blocks.filter((block) => block.feasible).length;
 const descents = result.blocks.reduce((sum, block) => sum + block.descents.length, 0);
-console.log(`${BLOCKS} blocks × ${TRIPS} trips (${tripCount} trips, ${descents} descents assessed, ${feasible} blocks feasible), ${runs} runs\n`);
+const points = input.routes.map((route) => Math.round(resampleRoute(route.route.coordinates, 10).distanceM.length));
+console.log(
+  `${BLOCKS} blocks × ${TRIPS} trips (${tripCount} trips over routes of ${points.join('/')} points at 10 m, ${descents} descents assessed, ` +
+    `${feasible} blocks feasible), ${runs} runs, load average before/after ${loadBefore.toFixed(1)}/${loadavg()[0]!.toFixed(1)} on ${availableParallelism()} cores\n`,
+);
 console.log('| run | threads | median ms | min ms | max ms |');
 console.log('| --- | ---: | ---: | ---: | ---: |');
 const e = stats(engineMs);

@@ -36,7 +36,7 @@ import { geodesicDistanceM } from './geodesy';
 import { chargeTaperFactor, coldChargeFactor } from './powertrain';
 import { resampleRoute } from './resample-route';
 import { runRouteFrom, type RouteRun } from './route-run';
-import { dwell, emptySegmentResult, governingBrakeTempC, initialVehicleState, type RouteModel, type VehicleState } from './route-simulation';
+import { advanceSegment, dwell, emptySegmentResult, governingBrakeTempC, initialVehicleState, type RouteModel, type VehicleState } from './route-simulation';
 import { preconditioningEnergyJ, tripAuxiliaryPowerW, type ClimateSettings } from './auxiliary-power';
 import { DEFAULT_CLIMATE } from './constants';
 import { EngineInputError } from './validation';
@@ -120,6 +120,9 @@ interface PreparedTrip {
   chargerAtEnd: Charger | undefined;
   /** Mean auxiliary power of the trip, W. */
   auxPowerW: number;
+  /** Buffers of the day's runs of this trip (nominal and worst case). */
+  series: TripSeries;
+  worstSeries: TripSeries;
 }
 
 /** Runs every block of a service day. Input errors that concern the whole day throw `EngineInputError`. */
@@ -280,6 +283,8 @@ class DayContext {
       standalonePeakC,
       chargerAtEnd,
       auxPowerW,
+      series: tripSeries(model.pointCount),
+      worstSeries: tripSeries(model.pointCount),
     };
   }
 
@@ -316,6 +321,53 @@ function peakOver(run: RouteRun, range: DescentRange): number {
   for (let i = range.firstSegment; i <= range.lastSegment + 1; i++) {
     peak = Math.max(peak, run.brakeTempC[i]!, run.frontBrakeTempC[i]!, run.rearBrakeTempC[i]!);
   }
+  return peak;
+}
+
+/** Per-point series a day's trip run keeps (reused from trip to trip: a day runs hundreds). */
+export interface TripSeries {
+  timeS: Float64Array;
+  soc: Float64Array;
+  /** Hotter of the brake lump and the two brake groups, °C. */
+  governingC: Float64Array;
+}
+
+export function tripSeries(pointCount: number): TripSeries {
+  return { timeS: new Float64Array(pointCount), soc: new Float64Array(pointCount), governingC: new Float64Array(pointCount) };
+}
+
+/**
+ * One trip from `state` (updated to the end state), exactly as `runRouteFrom` steps it (the same
+ * segment and dwell steps in the same order) but keeping only time, SOC and the governing brake
+ * temperature per point. Answers the energy drawn (sourceJ) and the run time.
+ */
+export function runTrip(model: RouteModel, speedMps: Float64Array, state: VehicleState, out: TripSeries): { sourceJ: number; durationS: number } {
+  const n = model.pointCount;
+  const segments = n - 1;
+  const result = emptySegmentResult();
+  let timeS = 0;
+  let sourceJ = 0;
+  for (let i = 0; i < n; i++) {
+    out.timeS[i] = timeS;
+    out.soc[i] = state.soc;
+    out.governingC[i] = governingBrakeTempC(state);
+    const dwellS = model.dwellS[i]!;
+    if (dwellS > 0) {
+      dwell(model, i, dwellS, state, result);
+      timeS += dwellS;
+      sourceJ += result.split.sourcePowerW * dwellS;
+    }
+    if (i === segments) break;
+    advanceSegment(model, i, speedMps[i]!, speedMps[i + 1]!, state, result);
+    timeS += result.durationS;
+    sourceJ += result.split.sourcePowerW * result.durationS;
+  }
+  return { sourceJ, durationS: timeS };
+}
+
+function seriesPeak(series: TripSeries, range: DescentRange): number {
+  let peak = Number.NEGATIVE_INFINITY;
+  for (let i = range.firstSegment; i <= range.lastSegment + 1; i++) peak = Math.max(peak, series.governingC[i]!);
   return peak;
 }
 
@@ -424,7 +476,10 @@ export function runBlock(context: DayContext, block: Block): BlockResult {
       problems.push(`${label} (${routeName}) cannot be driven as drawn at ${prepared.notDrivable.join('; ')}`);
     }
     const startState: VehicleState = { ...state, shortfallJ: 0 };
-    const run = runRouteFrom(prepared.model, prepared.speedMps, startState);
+    const run = prepared.series;
+    const tripState: VehicleState = { ...startState };
+    const { sourceJ, durationS } = runTrip(prepared.model, prepared.speedMps, tripState, run);
+    const shortfallJ = tripState.shortfallJ;
     const departS = timeS;
     // Trace: trip start, every TRACE_STEP_S inside, and the trip end; the minimum at full resolution.
     let nextTraceS = TRACE_STEP_S;
@@ -439,9 +494,9 @@ export function runBlock(context: DayContext, block: Block): BlockResult {
         while (nextTraceS <= run.timeS[i]!) nextTraceS += TRACE_STEP_S;
       }
     }
-    netJ += run.sourceJ - run.shortfallJ;
-    timeS = departS + run.durationS;
-    if (isBattery && run.shortfallJ > 0) {
+    netJ += sourceJ - shortfallJ;
+    timeS = departS + durationS;
+    if (isBattery && shortfallJ > 0) {
       let emptyAt = 0;
       for (let i = 0; i < run.soc.length; i++) {
         if (run.soc[i]! <= 0) {
@@ -459,12 +514,15 @@ export function runBlock(context: DayContext, block: Block): BlockResult {
     // does, so its peaks are reused; warmer brakes get their own worst-case run.
     const hot = prepared.worstModel.ambientC[0]!;
     const carriesHeat = Math.max(startState.brakeTempC, startState.frontBrakeTempC, startState.rearBrakeTempC, startState.gsrsBrakeTempC) > hot;
-    const worstRun =
-      prepared.ranges.length > 0 && carriesHeat ? runRouteFrom(prepared.worstModel, prepared.speedMps, startStateForWorstCase(startState, prepared)) : undefined;
+    let worstRun: TripSeries | undefined;
+    if (prepared.ranges.length > 0 && carriesHeat) {
+      worstRun = prepared.worstSeries;
+      runTrip(prepared.worstModel, prepared.speedMps, startStateForWorstCase(startState, prepared), worstRun);
+    }
     prepared.ranges.forEach((range, r) => {
       const first = range.firstSegment;
       const last = range.lastSegment + 1;
-      const dayPeak = Math.max(worstRun ? peakOver(worstRun, range) : Number.NEGATIVE_INFINITY, peakOver(run, range));
+      const dayPeak = Math.max(worstRun ? seriesPeak(worstRun, range) : Number.NEGATIVE_INFINITY, seriesPeak(run, range));
       const standalonePeak = prepared.standalonePeakC[r]!;
       const peak = Math.max(dayPeak, standalonePeak);
       const brakeType = prepared.model.vehicle.brakeType;
@@ -478,26 +536,14 @@ export function runBlock(context: DayContext, block: Block): BlockResult {
         endM: prepared.model.distanceM[last]!,
         dropM: prepared.model.elevationM[first]! - prepared.model.elevationM[last]!,
         arrivalSoc: run.soc[first]!,
-        arrivalBrakeTempC: governingBrakeTempC({
-          brakeTempC: run.brakeTempC[first]!,
-          frontBrakeTempC: run.frontBrakeTempC[first]!,
-          rearBrakeTempC: run.rearBrakeTempC[first]!,
-        }),
+        arrivalBrakeTempC: run.governingC[first]!,
         peakBrakeTempC: peak,
         risk,
         standaloneRisk,
         worsenedByDay: RISK_RANK[risk] > RISK_RANK[standaloneRisk],
       });
     });
-    Object.assign(state, {
-      soc: run.endSoc,
-      brakeTempC: run.brakeTempC[run.brakeTempC.length - 1]!,
-      frontBrakeTempC: run.frontBrakeTempC[run.frontBrakeTempC.length - 1]!,
-      rearBrakeTempC: run.rearBrakeTempC[run.rearBrakeTempC.length - 1]!,
-      gsrsBrakeTempC: run.gsrsBrakeTempC[run.gsrsBrakeTempC.length - 1]!,
-      regenOverloadJ: run.regenOverloadJ[run.regenOverloadJ.length - 1]!,
-      shortfallJ: 0,
-    });
+    Object.assign(state, tripState, { shortfallJ: 0 });
     previous = prepared;
   }
   if (!stopped) {

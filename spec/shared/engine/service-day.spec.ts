@@ -7,10 +7,14 @@ import {
   CHARGER_REACH_M,
   clock,
   runServiceDay,
+  runTrip,
+  tripSeries,
   type ServiceDayEngineInput,
   type ServiceDayRouteInput,
 } from '../../../shared/engine/service-day';
 import { geodesicDirect } from '../../../shared/engine/geodesy';
+import { analyseRouteDetailed } from '../../../shared/engine/analyse-route';
+import { initialVehicleState } from '../../../shared/engine/route-simulation';
 import { aStraightRoute, aWorkedExampleBus } from '../support/engine-builders';
 
 const ROUTE = '00000000-0000-4000-8000-00000000000a';
@@ -428,6 +432,24 @@ describe('descents with the state the vehicle arrives with', () => {
     const long = run(3 * 3600).descents.filter((d) => d.direction === 'inbound')[1]!;
     expect(long.arrivalBrakeTempC).toBeLessThan(short.arrivalBrakeTempC);
     expect(long.arrivalBrakeTempC).toBeGreaterThanOrEqual(10 - 1e-9);
+  });
+});
+
+describe('a day\u2019s trip run', () => {
+  it('steps exactly as the single-trip run does', async () => {
+    const request = { route: { type: 'LineString' as const, coordinates: hill }, vehicle: aWorkedExampleBus(), conditions: { ambientC: 3, startSoc: 0.7 }, options: { spacingM: 20, stops: [{ atM: 2_000, dwellS: 30 }] } };
+    const { model, run } = await analyseRouteDetailed(request);
+    const state = initialVehicleState(0.7, 3);
+    const series = tripSeries(model.pointCount);
+    const lean = runTrip(model, run.speedMps, state, series);
+    expect(lean.durationS).toBe(run.durationS);
+    expect(lean.sourceJ).toBe(run.sourceJ);
+    expect(state.soc).toBe(run.endSoc);
+    expect(Array.from(series.soc)).toEqual(Array.from(run.soc));
+    expect(Array.from(series.timeS)).toEqual(Array.from(run.timeS));
+    for (let i = 0; i < model.pointCount; i++) {
+      expect(series.governingC[i]).toBe(Math.max(run.brakeTempC[i]!, run.frontBrakeTempC[i]!, run.rearBrakeTempC[i]!));
+    }
   });
 });
 
