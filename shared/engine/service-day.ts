@@ -341,9 +341,15 @@ export function tripSeries(pointCount: number): TripSeries {
  * segment and dwell steps in the same order) but keeping only time, SOC and the governing brake
  * temperature per point. Answers the energy drawn (sourceJ) and the run time.
  */
-export function runTrip(model: RouteModel, speedMps: Float64Array, state: VehicleState, out: TripSeries): { sourceJ: number; durationS: number } {
-  const n = model.pointCount;
-  const segments = n - 1;
+export function runTrip(
+  model: RouteModel,
+  speedMps: Float64Array,
+  state: VehicleState,
+  out: TripSeries,
+  lastPoint = model.pointCount - 1,
+): { sourceJ: number; durationS: number } {
+  const n = lastPoint + 1;
+  const segments = lastPoint;
   const result = emptySegmentResult();
   let timeS = 0;
   let sourceJ = 0;
@@ -517,7 +523,8 @@ export function runBlock(context: DayContext, block: Block): BlockResult {
     let worstRun: TripSeries | undefined;
     if (prepared.ranges.length > 0 && carriesHeat) {
       worstRun = prepared.worstSeries;
-      runTrip(prepared.worstModel, prepared.speedMps, startStateForWorstCase(startState, prepared), worstRun);
+      // Only as far as the last descent: nothing after it changes a descent's peak.
+      runTrip(prepared.worstModel, prepared.speedMps, startStateForWorstCase(startState, prepared), worstRun, prepared.ranges.at(-1)!.lastSegment + 1);
     }
     prepared.ranges.forEach((range, r) => {
       const first = range.firstSegment;
