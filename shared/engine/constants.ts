@@ -192,7 +192,7 @@ export const ENGINEERING_CAUTION =
 /** Density of cabin air for ventilation and door losses, kg/m³ (ISA sea level at 15 °C, U.S. Standard Atmosphere 1976: 1.225). */
 export const AIR_DENSITY_CABIN_KG_PER_M3 = 1.225;
 
-/** Specific heat of dry air at constant pressure, J/(kg·K) (about 1005 near room temperature, CRC Handbook of Chemistry and Physics, "Properties of air"). */
+/** Specific heat of dry air at constant pressure, J/(kg·K) (about 1005 near room temperature; from memory, the handbook value for air). */
 export const AIR_SPECIFIC_HEAT_J_PER_KG_K = 1_005;
 
 /**

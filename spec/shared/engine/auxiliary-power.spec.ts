@@ -40,7 +40,7 @@ describe('auxiliary power from ambient, occupancy and doors', () => {
   it('uses the air properties of the published references', () => {
     // Sea-level ISA density at 15 °C (U.S. Standard Atmosphere 1976), computed by the engine's own atmosphere.
     expect(airDensityKgM3(0, 15)).toBeCloseTo(AIR_DENSITY_CABIN_KG_PER_M3, 3);
-    // c_p of air near room temperature, about 1.005 kJ/(kg·K) (CRC Handbook, properties of air).
+    // c_p of air near room temperature, about 1.005 kJ/(kg·K) (from memory).
     expect(AIR_SPECIFIC_HEAT_J_PER_KG_K).toBe(1_005);
     expect(PASSENGER_SENSIBLE_HEAT_W).toBe(70);
   });
