@@ -27,7 +27,8 @@
  */
 import type { AnalysisOptions, AnalysisOptionsInput, Conditions, LineString, RiskLevel, Surface, Vehicle, VehicleInput } from '../domain/analysis';
 import { lineStringSchema, optionsSchema, vehicleSchema } from '../domain/analysis';
-import type { BatteryAge, Block, BlockResult, Charger } from '../domain/service-days';
+import * as z from 'zod';
+import { blockSchema, chargerSchema, type BatteryAge, type Block, type BlockResult, type Charger } from '../domain/service-days';
 import { prepareRouteModel, minimumTimeSpeeds, withVehicle } from './analyse-route';
 import { ENGINE_VERSION, ENGINEERING_CAUTION, JOULES_PER_WH } from './constants';
 import { drivabilityStretches, runWorstCase } from './descent-safety';
@@ -39,7 +40,7 @@ import { runRouteFrom, type RouteRun } from './route-run';
 import { advanceSegment, dwell, emptySegmentResult, governingBrakeTempC, initialVehicleState, type RouteModel, type VehicleState } from './route-simulation';
 import { preconditioningEnergyJ, tripAuxiliaryPowerW, type ClimateSettings } from './auxiliary-power';
 import { DEFAULT_CLIMATE } from './constants';
-import { EngineInputError } from './validation';
+import { assertInRange, EngineInputError, parseOrThrow } from './validation';
 import { MAX_RESAMPLED_POINTS, MAX_ROUTE_LENGTH_M } from './constants';
 
 /** A charger serves a vehicle whose trip ends within this distance of it, m (engineering judgement: a terminus stand). */
@@ -126,7 +127,14 @@ interface PreparedTrip {
 }
 
 /** Runs every block of a service day. Input errors that concern the whole day throw `EngineInputError`. */
-export function runServiceDay(input: ServiceDayEngineInput): ServiceDayEngineResult {
+export function runServiceDay(rawInput: ServiceDayEngineInput): ServiceDayEngineResult {
+  assertInRange('ambientC', rawInput.ambientC, -60, 60);
+  assertInRange('reserveSoc', rawInput.reserveSoc, 0, 1);
+  const input: ServiceDayEngineInput = {
+    ...rawInput,
+    chargers: parseOrThrow(z.array(chargerSchema), rawInput.chargers, 'chargers'),
+    blocks: parseOrThrow(z.array(blockSchema), rawInput.blocks, 'blocks'),
+  };
   const context = new DayContext(input);
   const blocks = input.blocks.map((block) => runBlock(context, block));
   return {

@@ -453,6 +453,20 @@ describe('a day\u2019s trip run', () => {
   });
 });
 
+describe('input the calculation refuses', () => {
+  it('names the field: a charger\u2019s efficiency above 1, a reserve outside 0–1, a vehicle without mass', () => {
+    const routes = both(HILL, hill, { spacingM: 20 });
+    const blocks: Block[] = [{ blockId: 'X', vehicleProfileId: BUS, pullOutS: 0, pullInS: 9_000, startSoc: 0.9, trips: trips(HILL, [0]) }];
+    expect(() => runServiceDay(aDay({ routes, blocks, chargers: [aCharger(end(hill), { efficiency: 2 })] }))).toThrow(
+      expect.objectContaining({ name: 'EngineInputError', field: 'chargers.0.efficiency' }) as Error,
+    );
+    expect(() => runServiceDay(aDay({ routes, blocks, reserveSoc: 1.5 }))).toThrow(expect.objectContaining({ field: 'reserveSoc' }) as Error);
+    expect(() => runServiceDay(aDay({ routes, blocks }, aWorkedExampleBus({ curbMassKg: -1 })))).toThrow(
+      expect.objectContaining({ field: 'vehicles.0.vehicle.curbMassKg' }) as Error,
+    );
+  });
+});
+
 describe('service time', () => {
   it('writes times past midnight as GTFS does', () => {
     expect(clock(25 * 3600 + 7 * 60 + 59)).toBe('25:07');
