@@ -388,7 +388,7 @@ function seriesPeak(series: TripSeries, range: DescentRange): number {
 const RISK_RANK: Record<RiskLevel, number> = { low: 0, elevated: 1, high: 2, critical: 3 };
 
 /** Simulates one block (module comment). */
-export function runBlock(context: DayContext, block: Block): BlockResult {
+function runBlock(context: DayContext, block: Block): BlockResult {
   const problems: string[] = [];
   const socTrace: { timeS: number; soc: number }[] = [];
   const chargingEvents: BlockResult['chargingEvents'] = [];
