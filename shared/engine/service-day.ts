@@ -30,7 +30,7 @@ import { lineStringSchema, optionsSchema, vehicleSchema } from '../domain/analys
 import * as z from 'zod';
 import { blockSchema, chargerSchema, type BatteryAge, type Block, type BlockResult, type Charger } from '../domain/service-days';
 import { prepareRouteModel, minimumTimeSpeeds, withVehicle } from './analyse-route';
-import { ENGINE_VERSION, ENGINEERING_CAUTION, JOULES_PER_WH } from './constants';
+import { DEFAULT_CLIMATE, ENGINE_VERSION, ENGINEERING_CAUTION, JOULES_PER_WH, MAX_RESAMPLED_POINTS, MAX_ROUTE_LENGTH_M } from './constants';
 import { drivabilityStretches, runWorstCase } from './descent-safety';
 import { brakeRiskLevel, findDescentRanges, type DescentRange } from './descents';
 import { geodesicDistanceM } from './geodesy';
@@ -39,9 +39,7 @@ import { resampleRoute } from './resample-route';
 import { runRouteFrom, type RouteRun } from './route-run';
 import { advanceSegment, dwell, emptySegmentResult, governingBrakeTempC, initialVehicleState, type RouteModel, type VehicleState } from './route-simulation';
 import { preconditioningEnergyJ, tripAuxiliaryPowerW, type ClimateSettings } from './auxiliary-power';
-import { DEFAULT_CLIMATE } from './constants';
 import { assertInRange, EngineInputError, parseOrThrow } from './validation';
-import { MAX_RESAMPLED_POINTS, MAX_ROUTE_LENGTH_M } from './constants';
 
 /** A charger serves a vehicle whose trip ends within this distance of it, m (engineering judgement: a terminus stand). */
 export const CHARGER_REACH_M = 150;
