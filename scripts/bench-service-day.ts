@@ -42,7 +42,9 @@ function buildInput(): ServiceDayEngineInput {
     const resampled = resampleRoute(design.coordinates, 10);
     const lengthM = resampled.distanceM.at(-1)!;
     const stops = design.stopsAtWaypoints
-      .map((dwellS, i) => (dwellS === null ? null : { name: `stop ${i}`, lon: 0, lat: 0, atM: resampled.distanceM[resampled.vertexIndex[i]!]!, dwellS }))
+      .map((dwellS, i) =>
+        dwellS === null ? null : { name: `stop ${i}`, lon: 0, lat: 0, atM: resampled.distanceM[resampled.vertexIndex[i]!]!, dwellS },
+      )
       .filter((stop): stop is NonNullable<typeof stop> => stop !== null);
     const outbound = { coordinates: design.coordinates, stops, speedLimits: design.speedLimits, lengthM };
     for (const direction of ['outbound', 'inbound'] as const) {
@@ -84,7 +86,14 @@ function buildInput(): ServiceDayEngineInput {
         load: { kind: 'case', case: b % 3 === 0 ? 'full-standing' : 'seated' },
       });
     }
-    blocks.push({ blockId: `B${b + 1}`, vehicleProfileId: PROFILE_ID, pullOutS: start - 600, pullInS: start + TRIPS * 75 * 60, startSoc: 0.95, trips });
+    blocks.push({
+      blockId: `B${b + 1}`,
+      vehicleProfileId: PROFILE_ID,
+      pullOutS: start - 600,
+      pullInS: start + TRIPS * 75 * 60,
+      startSoc: 0.95,
+      trips,
+    });
   }
   const profile = demoProfileDraft('demo-vehicle:mountain-bus-12m');
   return {
@@ -125,7 +134,11 @@ for (let i = 0; i < runs; i++) {
 }
 
 // Worker threads: one share of the blocks per thread.
-const pool = new Piscina({ filename: fileURLToPath(new URL('./bench-service-day-worker.mjs', import.meta.url)), minThreads: threads, maxThreads: threads });
+const pool = new Piscina({
+  filename: fileURLToPath(new URL('./bench-service-day-worker.mjs', import.meta.url)),
+  minThreads: threads,
+  maxThreads: threads,
+});
 const shares = Array.from({ length: threads }, (_, k) => ({ ...input, blocks: input.blocks.filter((_, b) => b % threads === k) }));
 await Promise.all(shares.map((share) => pool.run(share))); // warm-up: workers loaded and compiled
 const poolMs: number[] = [];

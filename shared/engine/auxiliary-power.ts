@@ -15,11 +15,7 @@
  * (passengers' heat adding to it) at the cooling EER. Electrical power = base load + heating or
  * cooling power.
  */
-import {
-  AIR_DENSITY_CABIN_KG_PER_M3,
-  AIR_SPECIFIC_HEAT_J_PER_KG_K,
-  PASSENGER_SENSIBLE_HEAT_W,
-} from './constants';
+import { AIR_DENSITY_CABIN_KG_PER_M3, AIR_SPECIFIC_HEAT_J_PER_KG_K, PASSENGER_SENSIBLE_HEAT_W } from './constants';
 
 /** One point of a heat pump's heating COP against outdoor air temperature. */
 export interface CopPoint {

@@ -25,7 +25,16 @@
  *   (startSoc − endSoc) × usable capacity + energy charged into the battery
  *     = Σ trips' and layovers' net battery energy (drawn minus regenerated).
  */
-import type { AnalysisOptions, AnalysisOptionsInput, Conditions, LineString, RiskLevel, Surface, Vehicle, VehicleInput } from '../domain/analysis';
+import type {
+  AnalysisOptions,
+  AnalysisOptionsInput,
+  Conditions,
+  LineString,
+  RiskLevel,
+  Surface,
+  Vehicle,
+  VehicleInput,
+} from '../domain/analysis';
 import { lineStringSchema, optionsSchema, vehicleSchema } from '../domain/analysis';
 import * as z from 'zod';
 import { blockSchema, chargerSchema, type BatteryAge, type Block, type BlockResult, type Charger } from '../domain/service-days';
@@ -37,7 +46,15 @@ import { geodesicDistanceM } from './geodesy';
 import { chargeTaperFactor, coldChargeFactor } from './powertrain';
 import { resampleRoute } from './resample-route';
 import { runRouteFrom, type RouteRun } from './route-run';
-import { advanceSegment, dwell, emptySegmentResult, governingBrakeTempC, initialVehicleState, type RouteModel, type VehicleState } from './route-simulation';
+import {
+  advanceSegment,
+  dwell,
+  emptySegmentResult,
+  governingBrakeTempC,
+  initialVehicleState,
+  type RouteModel,
+  type VehicleState,
+} from './route-simulation';
 import { preconditioningEnergyJ, tripAuxiliaryPowerW, type ClimateSettings } from './auxiliary-power';
 import { assertInRange, EngineInputError, parseOrThrow } from './validation';
 
@@ -163,7 +180,10 @@ class DayContext {
   readonly vehicles = new Map<string, ParsedVehicle>();
   readonly chargers = new Map<string, Charger>();
   private readonly prepared = new Map<string, PreparedTrip | { error: string }>();
-  private readonly routeGeometry = new Map<string, { resampled: ReturnType<typeof resampleRoute>; options: AnalysisOptions } | { error: string }>();
+  private readonly routeGeometry = new Map<
+    string,
+    { resampled: ReturnType<typeof resampleRoute>; options: AnalysisOptions } | { error: string }
+  >();
   /** Per charger: time-stamped changes of grid power, W. */
   private readonly gridSteps = new Map<string, { timeS: number; deltaW: number }[]>();
 
@@ -175,7 +195,8 @@ class DayContext {
         throw new EngineInputError(`vehicles.${index}.vehicle.${issue.path.join('.')}`, issue.message);
       }
       const vehicle = parsed.data;
-      const capacityShare = input.batteryAge === 'end-of-life' ? (vehicle.endOfLifeCapacityFraction ?? DEFAULT_END_OF_LIFE_CAPACITY_FRACTION) : 1;
+      const capacityShare =
+        input.batteryAge === 'end-of-life' ? (vehicle.endOfLifeCapacityFraction ?? DEFAULT_END_OF_LIFE_CAPACITY_FRACTION) : 1;
       const chargeShare = input.batteryAge === 'end-of-life' ? (vehicle.endOfLifeChargePowerFraction ?? 1) : 1;
       const aged: Vehicle = {
         ...vehicle,
@@ -200,7 +221,8 @@ class DayContext {
   /** The route input a trip refers to. */
   routeFor(trip: Block['trips'][number]): ServiceDayRouteInput | undefined {
     const candidates = this.input.routes.filter((route) => route.routeId === trip.routeId && route.direction === trip.direction);
-    if (trip.routeVersion !== undefined) return candidates.find((route) => route.routeVersion === undefined || route.routeVersion === trip.routeVersion);
+    if (trip.routeVersion !== undefined)
+      return candidates.find((route) => route.routeVersion === undefined || route.routeVersion === trip.routeVersion);
     return candidates[0];
   }
 
@@ -228,9 +250,15 @@ class DayContext {
     const line = lineStringSchema.safeParse(route.route);
     const options = optionsSchema.safeParse(route.options);
     if (!line.success) entry = { error: `the route line is not valid: ${line.error.issues[0]!.message}` };
-    else if (!options.success) entry = { error: `the route's settings are not valid: ${options.error.issues[0]!.path.join('.')} ${options.error.issues[0]!.message}` };
+    else if (!options.success)
+      entry = {
+        error: `the route's settings are not valid: ${options.error.issues[0]!.path.join('.')} ${options.error.issues[0]!.message}`,
+      };
     else {
-      const resampled = resampleRoute(line.data.coordinates, options.data.spacingM, { maxLengthM: MAX_ROUTE_LENGTH_M, maxPoints: MAX_RESAMPLED_POINTS });
+      const resampled = resampleRoute(line.data.coordinates, options.data.spacingM, {
+        maxLengthM: MAX_ROUTE_LENGTH_M,
+        maxPoints: MAX_RESAMPLED_POINTS,
+      });
       entry = resampled.elevationM ? { resampled, options: options.data } : { error: 'the route\u2019s positions carry no elevation' };
     }
     this.routeGeometry.set(key, entry);
@@ -467,7 +495,18 @@ function runBlock(context: DayContext, block: Block): BlockResult {
       );
     } else if (trip.departureS > timeS) {
       const standModel = previous?.model;
-      const stand = stand_(context, parsed, state, standModel, parsed.standAuxPowerW, timeS, trip.departureS, previous?.chargerAtEnd, isBattery, note);
+      const stand = stand_(
+        context,
+        parsed,
+        state,
+        standModel,
+        parsed.standAuxPowerW,
+        timeS,
+        trip.departureS,
+        previous?.chargerAtEnd,
+        isBattery,
+        note,
+      );
       netJ += stand.netJ;
       chargedJ += stand.chargedJ;
       if (stand.event) chargingEvents.push(stand.event);
@@ -525,12 +564,19 @@ function runBlock(context: DayContext, block: Block): BlockResult {
     // Brakes no warmer than the worst-case ambient start that run exactly as the standalone one
     // does, so its peaks are reused; warmer brakes get their own worst-case run.
     const hot = prepared.worstModel.ambientC[0]!;
-    const carriesHeat = Math.max(startState.brakeTempC, startState.frontBrakeTempC, startState.rearBrakeTempC, startState.gsrsBrakeTempC) > hot;
+    const carriesHeat =
+      Math.max(startState.brakeTempC, startState.frontBrakeTempC, startState.rearBrakeTempC, startState.gsrsBrakeTempC) > hot;
     let worstRun: TripSeries | undefined;
     if (prepared.ranges.length > 0 && carriesHeat) {
       worstRun = prepared.worstSeries;
       // Only as far as the last descent: nothing after it changes a descent's peak.
-      runTrip(prepared.worstModel, prepared.speedMps, startStateForWorstCase(startState, prepared), worstRun, prepared.ranges.at(-1)!.lastSegment + 1);
+      runTrip(
+        prepared.worstModel,
+        prepared.speedMps,
+        startStateForWorstCase(startState, prepared),
+        worstRun,
+        prepared.ranges.at(-1)!.lastSegment + 1,
+      );
     }
     prepared.ranges.forEach((range, r) => {
       const first = range.firstSegment;
@@ -563,7 +609,18 @@ function runBlock(context: DayContext, block: Block): BlockResult {
     if (block.pullInS < timeS) {
       problems.push(`the pull-in at ${clock(block.pullInS)} is before the last trip arrives at ${clock(timeS)}`);
     } else if (block.pullInS > timeS) {
-      const stand = stand_(context, parsed, state, previous?.model, parsed.standAuxPowerW, timeS, block.pullInS, previous?.chargerAtEnd, isBattery, note);
+      const stand = stand_(
+        context,
+        parsed,
+        state,
+        previous?.model,
+        parsed.standAuxPowerW,
+        timeS,
+        block.pullInS,
+        previous?.chargerAtEnd,
+        isBattery,
+        note,
+      );
       netJ += stand.netJ;
       chargedJ += stand.chargedJ;
       if (stand.event) chargingEvents.push(stand.event);
@@ -572,9 +629,7 @@ function runBlock(context: DayContext, block: Block): BlockResult {
   }
   note(timeS, state.soc);
   if (isBattery && minSoc < context.input.reserveSoc && !stopped) {
-    problems.push(
-      `falls to ${percent(minSoc)} at ${clock(minSocAtS)}, below the ${percent(context.input.reserveSoc)} reserve`,
-    );
+    problems.push(`falls to ${percent(minSoc)} at ${clock(minSocAtS)}, below the ${percent(context.input.reserveSoc)} reserve`);
   }
   return {
     blockId: block.blockId,

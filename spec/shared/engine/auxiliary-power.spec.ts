@@ -1,7 +1,18 @@
 import { describe, expect, it } from 'vitest';
-import { auxiliaryBreakdown, heatPumpCop, preconditioningEnergyJ, tripAuxiliaryPowerW, type ClimateSettings } from '../../../shared/engine/auxiliary-power';
+import {
+  auxiliaryBreakdown,
+  heatPumpCop,
+  preconditioningEnergyJ,
+  tripAuxiliaryPowerW,
+  type ClimateSettings,
+} from '../../../shared/engine/auxiliary-power';
 import { airDensityKgM3 } from '../../../shared/engine/atmosphere';
-import { AIR_DENSITY_CABIN_KG_PER_M3, AIR_SPECIFIC_HEAT_J_PER_KG_K, DEFAULT_CLIMATE, PASSENGER_SENSIBLE_HEAT_W } from '../../../shared/engine/constants';
+import {
+  AIR_DENSITY_CABIN_KG_PER_M3,
+  AIR_SPECIFIC_HEAT_J_PER_KG_K,
+  DEFAULT_CLIMATE,
+  PASSENGER_SENSIBLE_HEAT_W,
+} from '../../../shared/engine/constants';
 import { presetVehicle } from '../../../shared/engine/vehicle-presets';
 
 const climate: ClimateSettings = { ...DEFAULT_CLIMATE };

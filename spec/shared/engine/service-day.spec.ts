@@ -37,7 +37,17 @@ function end(coordinates: Coordinates): [number, number] {
 }
 
 function aCharger(position: [number, number], overrides: Partial<Charger> = {}): Charger {
-  return { key: 'T1', name: 'Upper terminus', kind: 'terminus', position, powerW: 150_000, efficiency: 0.9, targetSoc: 0.9, connectS: 30, ...overrides };
+  return {
+    key: 'T1',
+    name: 'Upper terminus',
+    kind: 'terminus',
+    position,
+    powerW: 150_000,
+    efficiency: 0.9,
+    targetSoc: 0.9,
+    connectS: 30,
+    ...overrides,
+  };
 }
 
 function trips(routeId: string, departures: number[], first: 'outbound' | 'inbound' = 'outbound'): Block['trips'] {
@@ -49,7 +59,10 @@ function trips(routeId: string, departures: number[], first: 'outbound' | 'inbou
   }));
 }
 
-function aDay(overrides: Partial<ServiceDayEngineInput> & Pick<ServiceDayEngineInput, 'routes' | 'blocks'>, vehicle: VehicleInput = aWorkedExampleBus()): ServiceDayEngineInput {
+function aDay(
+  overrides: Partial<ServiceDayEngineInput> & Pick<ServiceDayEngineInput, 'routes' | 'blocks'>,
+  vehicle: VehicleInput = aWorkedExampleBus(),
+): ServiceDayEngineInput {
   return {
     ambientC: 10,
     batteryAge: 'beginning-of-life',
@@ -113,7 +126,16 @@ describe('a hand-worked two-trip block with one terminus charger', () => {
       {
         routes: both(ROUTE, flat, options),
         chargers: [aCharger(end(flat))],
-        blocks: [{ blockId: 'HW-1', vehicleProfileId: BUS, pullOutS: 8 * 3600, pullInS: 8.5 * 3600, startSoc: 0.5, trips: trips(ROUTE, [8 * 3600, 8 * 3600 + 1200]) }],
+        blocks: [
+          {
+            blockId: 'HW-1',
+            vehicleProfileId: BUS,
+            pullOutS: 8 * 3600,
+            pullInS: 8.5 * 3600,
+            startSoc: 0.5,
+            trips: trips(ROUTE, [8 * 3600, 8 * 3600 + 1200]),
+          },
+        ],
       },
       vehicle,
     ),
@@ -159,7 +181,14 @@ describe('a hand-worked two-trip block with one terminus charger', () => {
 });
 
 describe('the energy balance over random blocks', () => {
-  const routes = [...both(ROUTE, hill, { spacingM: 20 }), ...both(HILL, aStraightRoute(4_000, (s) => 900 - 0.03 * s + 20 * Math.sin(s / 300), { vertexSpacingM: 100 }), { spacingM: 20 })];
+  const routes = [
+    ...both(ROUTE, hill, { spacingM: 20 }),
+    ...both(
+      HILL,
+      aStraightRoute(4_000, (s) => 900 - 0.03 * s + 20 * Math.sin(s / 300), { vertexSpacingM: 100 }),
+      { spacingM: 20 },
+    ),
+  ];
   const top = end(hill);
   it('(start SOC − end SOC) × usable capacity + charged energy equals the trips\u2019 and layovers\u2019 net energy within 0.5 %', () => {
     fc.assert(
@@ -190,8 +219,23 @@ describe('the energy balance over random blocks', () => {
               ambientC: r.ambientC,
               batteryAge: r.endOfLife ? 'end-of-life' : 'beginning-of-life',
               routes,
-              chargers: r.withCharger ? [aCharger(top, { powerW: r.chargerPowerW, targetSoc: r.targetSoc }), aCharger(end([...hill].reverse()), { key: 'D', kind: 'depot' })] : [],
-              blocks: [{ blockId: 'R', vehicleProfileId: BUS, depotChargerKey: r.withCharger ? 'D' : undefined, pullOutS: 6 * 3600 - 600, pullInS: t, startSoc: r.startSoc, trips: trips(r.route, departures) }],
+              chargers: r.withCharger
+                ? [
+                    aCharger(top, { powerW: r.chargerPowerW, targetSoc: r.targetSoc }),
+                    aCharger(end([...hill].reverse()), { key: 'D', kind: 'depot' }),
+                  ]
+                : [],
+              blocks: [
+                {
+                  blockId: 'R',
+                  vehicleProfileId: BUS,
+                  depotChargerKey: r.withCharger ? 'D' : undefined,
+                  pullOutS: 6 * 3600 - 600,
+                  pullInS: t,
+                  startSoc: r.startSoc,
+                  trips: trips(r.route, departures),
+                },
+              ],
             },
             aWorkedExampleBus({ batteryCapacityWh: r.capacityWh, maxChargePowerW: r.capacityWh }),
           );
@@ -201,7 +245,10 @@ describe('the energy balance over random blocks', () => {
           const left = (r.startSoc - block.endSoc) * capacityWh + block.chargedEnergyWh;
           const right = block.tripNetEnergyWh;
           expect(Math.abs(left - right)).toBeLessThanOrEqual(0.005 * Math.max(Math.abs(right), 1));
-          expect(block.chargedEnergyWh).toBeCloseTo(block.chargingEvents.reduce((sum, e) => sum + e.energyWh, 0), 6);
+          expect(block.chargedEnergyWh).toBeCloseTo(
+            block.chargingEvents.reduce((sum, e) => sum + e.energyWh, 0),
+            6,
+          );
           const socs = block.socTrace.map((p) => p.soc);
           expect(Math.min(...socs)).toBeGreaterThanOrEqual(block.minSoc - 1e-12);
           expect(block.socTrace.at(-1)!.soc).toBe(block.endSoc);
@@ -221,7 +268,16 @@ describe('a block through the day', () => {
       aDay(
         {
           routes,
-          blocks: [{ blockId: 'LOW', vehicleProfileId: BUS, pullOutS: 6 * 3600, pullInS: 9 * 3600, startSoc: 0.9, trips: trips(HILL, [6 * 3600, 6 * 3600 + 2_400, 6 * 3600 + 4_800, 6 * 3600 + 7_200]) }],
+          blocks: [
+            {
+              blockId: 'LOW',
+              vehicleProfileId: BUS,
+              pullOutS: 6 * 3600,
+              pullInS: 9 * 3600,
+              startSoc: 0.9,
+              trips: trips(HILL, [6 * 3600, 6 * 3600 + 2_400, 6 * 3600 + 4_800, 6 * 3600 + 7_200]),
+            },
+          ],
         },
         aWorkedExampleBus({ batteryCapacityWh: 85_000 }),
       ),
@@ -237,7 +293,19 @@ describe('a block through the day', () => {
 
   it('names a trip that leaves before the previous one arrives', () => {
     const result = runServiceDay(
-      aDay({ routes, blocks: [{ blockId: 'TIGHT', vehicleProfileId: BUS, pullOutS: 6 * 3600, pullInS: 9 * 3600, startSoc: 0.9, trips: trips(HILL, [6 * 3600, 6 * 3600 + 60]) }] }),
+      aDay({
+        routes,
+        blocks: [
+          {
+            blockId: 'TIGHT',
+            vehicleProfileId: BUS,
+            pullOutS: 6 * 3600,
+            pullInS: 9 * 3600,
+            startSoc: 0.9,
+            trips: trips(HILL, [6 * 3600, 6 * 3600 + 60]),
+          },
+        ],
+      }),
     );
     const block = result.blocks[0]!;
     expect(block.feasible).toBe(false);
@@ -247,7 +315,19 @@ describe('a block through the day', () => {
   it('makes a block infeasible when a trip runs the battery empty, and says where', () => {
     const result = runServiceDay(
       aDay(
-        { routes, blocks: [{ blockId: 'EMPTY', vehicleProfileId: BUS, pullOutS: 6 * 3600, pullInS: 9 * 3600, startSoc: 0.2, trips: trips(HILL, [6 * 3600]) }] },
+        {
+          routes,
+          blocks: [
+            {
+              blockId: 'EMPTY',
+              vehicleProfileId: BUS,
+              pullOutS: 6 * 3600,
+              pullInS: 9 * 3600,
+              startSoc: 0.2,
+              trips: trips(HILL, [6 * 3600]),
+            },
+          ],
+        },
         aWorkedExampleBus({ batteryCapacityWh: 40_000 }),
       ),
     );
@@ -298,7 +378,13 @@ describe('a block through the day', () => {
             chargers: [aCharger(top, { powerW: 400_000, efficiency: 0.95, targetSoc })],
             blocks: [{ blockId: 'T', vehicleProfileId: BUS, pullOutS: 0, pullInS: 20_000, startSoc: 0.5, trips: trips(HILL, [0, 6_000]) }],
           },
-          aWorkedExampleBus({ maxChargePowerW: 150_000, endOfLifeCapacityFraction: 0.75, endOfLifeChargePowerFraction: 0.5, socTaperStart: 0.9, socCeiling: 0.95 }),
+          aWorkedExampleBus({
+            maxChargePowerW: 150_000,
+            endOfLifeCapacityFraction: 0.75,
+            endOfLifeChargePowerFraction: 0.5,
+            socTaperStart: 0.9,
+            socCeiling: 0.95,
+          }),
         ),
       ).blocks[0]!;
     const young = day('beginning-of-life', 0.8);
@@ -315,7 +401,13 @@ describe('a block through the day', () => {
 
   it('runs at end of life with the stated share of usable capacity (0.8 when none is stated)', () => {
     const day = (age: 'beginning-of-life' | 'end-of-life') =>
-      runServiceDay(aDay({ batteryAge: age, routes, blocks: [{ blockId: 'E', vehicleProfileId: BUS, pullOutS: 0, pullInS: 3_000, startSoc: 0.9, trips: trips(HILL, [0]) }] })).blocks[0]!;
+      runServiceDay(
+        aDay({
+          batteryAge: age,
+          routes,
+          blocks: [{ blockId: 'E', vehicleProfileId: BUS, pullOutS: 0, pullInS: 3_000, startSoc: 0.9, trips: trips(HILL, [0]) }],
+        }),
+      ).blocks[0]!;
     const young = day('beginning-of-life');
     const old = day('end-of-life');
     expect(old.tripNetEnergyWh).toBeCloseTo(young.tripNetEnergyWh, 0);
@@ -323,7 +415,14 @@ describe('a block through the day', () => {
   });
 
   it('sums two vehicles charging at one charger at the same time into its peak', () => {
-    const block = (blockId: string): Block => ({ blockId, vehicleProfileId: BUS, pullOutS: 0, pullInS: 9_000, startSoc: 0.5, trips: trips(HILL, [0, 5_000]) });
+    const block = (blockId: string): Block => ({
+      blockId,
+      vehicleProfileId: BUS,
+      pullOutS: 0,
+      pullInS: 9_000,
+      startSoc: 0.5,
+      trips: trips(HILL, [0, 5_000]),
+    });
     const result = runServiceDay(aDay({ routes, chargers: [aCharger(top, { powerW: 100_000 })], blocks: [block('P1'), block('P2')] }));
     expect(result.peakChargingPowerW[0]!.powerW).toBeCloseTo(200_000, 3);
   });
@@ -335,7 +434,17 @@ describe('a block through the day', () => {
         ambientC: -10,
         routes,
         chargers: [depot],
-        blocks: [{ blockId: 'W', vehicleProfileId: BUS, depotChargerKey, pullOutS: 6 * 3600, pullInS: 6 * 3600 + 2_400, startSoc: 0.9, trips: trips(HILL, [6 * 3600]) }],
+        blocks: [
+          {
+            blockId: 'W',
+            vehicleProfileId: BUS,
+            depotChargerKey,
+            pullOutS: 6 * 3600,
+            pullInS: 6 * 3600 + 2_400,
+            startSoc: 0.9,
+            trips: trips(HILL, [6 * 3600]),
+          },
+        ],
       });
       input.vehicles[0]!.climate = {};
       return runServiceDay(input);
@@ -437,7 +546,12 @@ describe('descents with the state the vehicle arrives with', () => {
 
 describe('a day\u2019s trip run', () => {
   it('steps exactly as the single-trip run does', async () => {
-    const request = { route: { type: 'LineString' as const, coordinates: hill }, vehicle: aWorkedExampleBus(), conditions: { ambientC: 3, startSoc: 0.7 }, options: { spacingM: 20, stops: [{ atM: 2_000, dwellS: 30 }] } };
+    const request = {
+      route: { type: 'LineString' as const, coordinates: hill },
+      vehicle: aWorkedExampleBus(),
+      conditions: { ambientC: 3, startSoc: 0.7 },
+      options: { spacingM: 20, stops: [{ atM: 2_000, dwellS: 30 }] },
+    };
     const { model, run } = await analyseRouteDetailed(request);
     const state = initialVehicleState(0.7, 3);
     const series = tripSeries(model.pointCount);
@@ -460,7 +574,9 @@ describe('input the calculation refuses', () => {
     expect(() => runServiceDay(aDay({ routes, blocks, chargers: [aCharger(end(hill), { efficiency: 2 })] }))).toThrow(
       expect.objectContaining({ name: 'EngineInputError', field: 'chargers.0.efficiency' }) as Error,
     );
-    expect(() => runServiceDay(aDay({ routes, blocks, reserveSoc: 1.5 }))).toThrow(expect.objectContaining({ field: 'reserveSoc' }) as Error);
+    expect(() => runServiceDay(aDay({ routes, blocks, reserveSoc: 1.5 }))).toThrow(
+      expect.objectContaining({ field: 'reserveSoc' }) as Error,
+    );
     expect(() => runServiceDay(aDay({ routes, blocks }, aWorkedExampleBus({ curbMassKg: -1 })))).toThrow(
       expect.objectContaining({ field: 'vehicles.0.vehicle.curbMassKg' }) as Error,
     );
