@@ -1,6 +1,6 @@
 import type { AppDeps } from './app-deps';
 import { analysisPoolFor, type RouteAnalyser } from './analysis/analysis-pool';
-import { elevationSamplerFor } from './terrain/elevation-sampler';
+import { elevationSamplerFor } from './terrain/raster/elevation-sampler';
 
 /**
  * Fills in the services every entry point needs unless a caller (a test) passes its own: routes

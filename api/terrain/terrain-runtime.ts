@@ -1,7 +1,7 @@
 import { createHash } from 'node:crypto';
 import type { AppDeps } from '../app-deps';
-import { BlockStore, type TerrainSource } from './block-store';
-import { lookupEpsg } from './crs-registry';
+import { BlockStore, type TerrainSource } from './raster/block-store';
+import { lookupEpsg } from './raster/crs-registry';
 import { listReadyTerrainRows, type TerrainRowWithExtras } from './terrain-repository';
 import { TerrainStorage } from './terrain-storage';
 

@@ -9,8 +9,8 @@ import { ConflictError, ForbiddenError, HttpError, NotFoundError } from '../http
 import { type Actor, recordAudit } from '../audit/audit-log';
 import { isUniqueViolation } from '../db/errors';
 import { createInlineJobQueue, jobQueueOf, type JobPolicy, type JobQueue } from '../jobs/job-queue';
-import { inspectGeoTiff } from './geotiff-inspection';
-import { INGEST_STALE_MS, ingestTerrainModel, TERRAIN_INGEST_JOB, type TerrainIngestJob } from './terrain-ingestion';
+import { inspectGeoTiff } from './ingestion/geotiff-inspection';
+import { INGEST_STALE_MS, ingestTerrainModel, TERRAIN_INGEST_JOB, type TerrainIngestJob } from './ingestion/terrain-ingestion';
 import {
   countScenariosUsingTerrain,
   deleteTerrainRow,

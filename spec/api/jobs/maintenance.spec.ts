@@ -10,7 +10,7 @@ import { claimItem, finishItem } from '../../../api/batch-runs/batch-runs-reposi
 import { batchRunItems, scenarios, terrainModels } from '../../../api/db/schema/index';
 import { attachJobQueue, startJobQueue, type JobQueue, type JobState } from '../../../api/jobs/job-queue';
 import { runMaintenance } from '../../../api/jobs/maintenance';
-import { TERRAIN_INGEST_JOB } from '../../../api/terrain/terrain-ingestion';
+import { TERRAIN_INGEST_JOB } from '../../../api/terrain/ingestion/terrain-ingestion';
 import { closeTerrainRuntime } from '../../../api/terrain/terrain-runtime';
 import { ensureVehiclePresets, presetProfileId } from '../../../api/vehicle-profiles/vehicle-presets-seed';
 import { aRouteDraft, eastwardLine } from '../../support/road-route-builders';
