@@ -5,14 +5,13 @@
  * failed with its reason; the others carry on.
  */
 import { randomUUID } from 'node:crypto';
-import { and, asc, eq, isNull } from 'drizzle-orm';
 import type { User } from '@shared/domain/auth';
 import type { BatchRun } from '@shared/domain/board-summary';
 import type { AppDeps } from '../app-deps';
-import { scenarios } from '../db/schema/index';
 import { ConflictError, NotFoundError } from '../http/http-error';
 import { jobQueueOf, runtimeOf } from '../app-runtime';
 import { type JobPolicy, type JobQueue } from '../jobs/job-queue';
+import { listInServiceScenarioNames } from '../scenarios/scenarios-repository';
 import * as repository from './batch-runs-repository';
 import { runScenarioForBatch, type BatchScenarioRunner } from './scenario-runner';
 
@@ -33,11 +32,7 @@ export interface BatchRunJob {
 }
 
 export async function startBatchRun(deps: AppDeps, user: User): Promise<BatchRun> {
-  const inService = await deps.db
-    .select({ id: scenarios.id, name: scenarios.name })
-    .from(scenarios)
-    .where(and(eq(scenarios.inService, true), isNull(scenarios.deletedAt)))
-    .orderBy(asc(scenarios.name));
+  const inService = await listInServiceScenarioNames(deps.db);
   if (inService.length === 0) {
     throw new ConflictError('No scenario is marked in service; mark scenarios in service before a network-wide run', 'nothing_in_service');
   }

@@ -57,6 +57,15 @@ export function listScenarioNamesOfProfile(db: Executor, vehicleProfileId: strin
   return db.select({ id: scenarios.id, name: scenarios.name }).from(scenarios).where(eq(scenarios.vehicleProfileId, vehicleProfileId)).orderBy(scenarios.name);
 }
 
+/** Id and name of every scenario in service (not deleted), by name: a network run's items. */
+export function listInServiceScenarioNames(db: Executor): Promise<{ id: string; name: string }[]> {
+  return db
+    .select({ id: scenarios.id, name: scenarios.name })
+    .from(scenarios)
+    .where(and(eq(scenarios.inService, true), isNull(scenarios.deletedAt)))
+    .orderBy(asc(scenarios.name));
+}
+
 export async function findScenarioRow(db: Executor, id: string, includeDeleted = false): Promise<ScenarioRow | undefined> {
   const [row] = await db
     .select()
