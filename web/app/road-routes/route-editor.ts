@@ -41,10 +41,11 @@ import { displayToKph, isSpeedLimitKphAllowed, kphToDisplay, speedLimitRange } f
 import { UnitPreference } from '../units/unit-preference';
 import { UnitSwitch } from '../units/unit-switch';
 import { RoadRoutesApi, type RoadNetwork, type RouteProfile, type RouteVersionInfo } from './road-routes-api';
+import { RouteDraftStore } from './route-draft-store';
+import { ROUTE_COLOR, lonLatOf, pointAt, routeOverlays, type EditorTool } from './route-overlays';
 import {
   COORDINATE_DECIMALS,
   EMPTY_DRAFT,
-  RouteDraftHistory,
   addSpeedLimit,
   addStopNear,
   appendVertices,
@@ -55,7 +56,6 @@ import {
   moveVertex,
   parseCoordinate,
   replaceVertex,
-  pointAlongLine,
   roundDegrees,
   polylineLengthM,
   projectOnLine,
@@ -65,15 +65,13 @@ import {
   dropRecordedElevations,
   recordedElevations,
   setVertexCoordinate,
-  sliceLine,
   updateSpeedLimit,
   updateStop,
   type LonLat,
   type RouteDraftState,
 } from './route-draft';
 
-/** What a click on the map does. */
-export type EditorTool = 'draw' | 'stop' | 'limit';
+export type { EditorTool } from './route-overlays';
 
 type ProfileState =
   | { status: 'idle' }
@@ -88,12 +86,6 @@ const MODE_LABELS: Readonly<Record<(typeof ROUTE_MODES)[number], string>> = {
   trolleybus: 'Trolleybus',
   tram: 'Tram',
 };
-
-// Our map palette: a deep teal route over the warm terrain tint, violet stops, amber limits.
-const ROUTE_COLOR = '#0b5567';
-const NETWORK_COLOR = '#5c6b70';
-const STOP_COLOR = '#6a2c91';
-const LIMIT_COLOR = '#c2570c';
 
 /** Planners draw and edit a route on the terrain map; everyone else reads it. */
 @Component({
@@ -120,6 +112,7 @@ const LIMIT_COLOR = '#c2570c';
   templateUrl: './route-editor.html',
   styleUrl: './route-editor.scss',
   host: { '(document:keydown)': 'handleShortcut($event)' },
+  providers: [RouteDraftStore],
   changeDetection: ChangeDetectionStrategy.OnPush,
 })
 export default class RouteEditor {
@@ -136,10 +129,10 @@ export default class RouteEditor {
   protected readonly modes = ROUTE_MODES;
   protected readonly modeLabels = MODE_LABELS;
 
-  private readonly history = new RouteDraftHistory();
-  protected readonly draft = signal<RouteDraftState>(EMPTY_DRAFT);
-  protected readonly canUndo = signal(false);
-  protected readonly canRedo = signal(false);
+  private readonly store = inject(RouteDraftStore);
+  protected readonly draft = this.store.draft;
+  protected readonly canUndo = this.store.canUndo;
+  protected readonly canRedo = this.store.canRedo;
   protected readonly tool = signal<EditorTool>('draw');
   protected readonly selectedVertex = signal<number | null>(null);
   private readonly terrainMap = viewChild(TerrainMap);
@@ -148,7 +141,9 @@ export default class RouteEditor {
   private readonly basemap = inject(BasemapTilesVersion);
   /** Whether there is a road graph to snap to: an imported extract or a reference network. */
   protected readonly canSnap = computed(() => this.network() !== null || (this.basemap.state()?.version ?? null) !== null);
-  protected readonly isRouting = signal(false);
+  /** Whether a path along the roads is being found; clicks made meanwhile wait their turn. */
+  protected readonly isRouting = this.store.isWorking;
+  protected readonly queuedClicks = this.store.queued;
   protected readonly network = signal<RoadNetwork | null>(null);
   /** The route's current version as the server last answered it. */
   protected readonly saved = signal<RoadRoute | null>(null);
@@ -166,7 +161,7 @@ export default class RouteEditor {
   protected readonly isPlanner = computed(() => this.session.can('routes.edit'));
   /** Whether this person may change what is on screen now. */
   protected readonly canEdit = computed(() => this.isPlanner() && this.olderVersion() === null);
-  protected readonly vertices = computed(() => this.draft().vertices, { equal: (a, b) => a === b });
+  protected readonly vertices = this.store.vertices;
   protected readonly lengthM = computed(() => polylineLengthM(this.vertices()));
 
   protected readonly details = new FormGroup({
@@ -236,64 +231,16 @@ export default class RouteEditor {
   });
 
   protected readonly overlays = computed<MapOverlay[]>(() => {
-    const { vertices, stops, speedLimits } = this.olderVersion() ? toDraft(this.olderVersion()!) : this.draft();
-    const editing = this.canEdit();
-    const tool = this.tool();
-    const selected = this.selectedVertex();
-    const system = this.units();
-    const overlays: MapOverlay[] = [];
-    for (const [index, feature] of (this.network()?.features ?? []).entries()) {
-      overlays.push({ kind: 'line', id: `network:${index}`, positions: feature.geometry.coordinates.map(lonLatOf), color: NETWORK_COLOR, weight: 2, opacity: 0.7 });
-    }
-    speedLimits.forEach((stretch, index) => {
-      overlays.push({
-        kind: 'line',
-        id: `limit:${index}`,
-        positions: sliceLine(vertices, stretch.fromM, stretch.toM).map(lonLatOf),
-        color: LIMIT_COLOR,
-        // Wider than the route line and nearly opaque: a saved stretch shows as a band either side of it.
-        weight: 15,
-        opacity: 0.9,
-        label: `Speed limit ${formatSpeed(stretch.speedKph, system)}`,
-      });
+    const older = this.olderVersion();
+    return routeOverlays({
+      draft: older ? toDraft(older) : this.draft(),
+      network: this.network(),
+      editing: this.canEdit(),
+      tool: this.tool(),
+      selectedVertex: this.selectedVertex(),
+      pendingLimitFromM: this.pendingLimitFromM(),
+      units: this.units(),
     });
-    if (vertices.length >= 2) {
-      overlays.push({
-        kind: 'line',
-        id: 'route',
-        positions: vertices.map(lonLatOf),
-        color: ROUTE_COLOR,
-        weight: 5,
-        interactive: editing && tool !== 'draw',
-        label: editing && tool === 'stop' ? 'Click to place a stop here' : editing && tool === 'limit' ? 'Click the start, then the end of the stretch' : undefined,
-      });
-    }
-    if (editing && tool === 'draw') {
-      segmentMidpoints(vertices).forEach((at, index) =>
-        overlays.push({ kind: 'handle', id: `mid:${index}`, at: lonLatOf(at), variant: 'midpoint', draggable: false, label: `Insert a vertex in segment ${index + 1}` }),
-      );
-    }
-    if (editing) {
-      vertices.forEach((vertex, index) =>
-        overlays.push({
-          kind: 'handle',
-          id: `vertex:${index}`,
-          at: lonLatOf(vertex),
-          variant: index === selected ? 'selected' : 'vertex',
-          draggable: tool === 'draw',
-          label: `Vertex ${index + 1} of ${vertices.length}`,
-        }),
-      );
-    }
-    stops.forEach((stop, index) =>
-      overlays.push({ kind: 'pin', id: `stop:${index}`, at: [stop.lon, stop.lat], color: STOP_COLOR, label: `Stop: ${stop.name}` }),
-    );
-    const pendingFromM = this.pendingLimitFromM();
-    if (pendingFromM !== null) {
-      const at = pointAt(vertices, pendingFromM);
-      if (at) overlays.push({ kind: 'pin', id: 'limit-start', at, color: LIMIT_COLOR, label: 'Start of the new speed-limit stretch' });
-    }
-    return overlays;
   });
 
   protected readonly versionShown = computed(() => this.olderVersion()?.version ?? this.saved()?.version ?? null);
@@ -302,6 +249,11 @@ export default class RouteEditor {
     effect(() => {
       const routeId = this.routeId();
       untracked(() => void this.load(routeId));
+    });
+    effect(() => {
+      // A selection past the end (after an undo or a deletion) is no selection.
+      const count = this.vertices().length;
+      if ((untracked(this.selectedVertex) ?? -1) >= count) this.selectedVertex.set(null);
     });
     effect(() => {
       // Everyone reads; only planners change details. Older versions are read-only for all.
@@ -314,41 +266,55 @@ export default class RouteEditor {
 
   // ---- Map ----
 
-  protected async mapClicked(at: MapPosition): Promise<void> {
+  /**
+   * Map clicks and drags go through the store's queue: each is applied in order, after any path
+   * still being found for an earlier one. The tool is the one chosen when the click was made.
+   */
+  protected mapClicked(at: MapPosition): void {
     if (!this.canEdit()) return;
     const tool = this.tool();
-    if (tool === 'draw') {
-      await this.addVertex(at);
-    } else if (this.draft().vertices.length >= 2) {
-      this.placeOnLine(at);
-    }
+    this.store.enqueue(() => {
+      if (tool === 'draw') return this.addVertex(at);
+      if (this.draft().vertices.length >= 2) this.placeOnLine(at, tool);
+      return undefined;
+    });
   }
 
   protected overlayClicked(event: MapOverlayEvent): void {
     if (!this.canEdit()) return;
     const [kind, indexText] = event.id.split(':');
     const index = Number(indexText);
-    if (kind === 'route') this.placeOnLine(event.at);
-    else if (kind === 'mid') this.edit((state) => insertVertex(state, index, segmentMidpoints(state.vertices)[index]!));
-    else if (kind === 'vertex' && this.tool() !== 'draw') this.placeOnLine(event.at);
-    else if (kind === 'vertex') this.selectedVertex.update((current) => (current === index ? null : index));
+    const tool = this.tool();
+    if (kind === 'vertex' && tool === 'draw') {
+      this.selectedVertex.update((current) => (current === index ? null : index));
+      return;
+    }
+    this.store.enqueue(() => {
+      if (kind === 'route' || kind === 'vertex') this.placeOnLine(event.at, tool);
+      else if (kind === 'mid') this.edit((state) => insertVertex(state, index, segmentMidpoints(state.vertices)[index]!));
+    });
   }
 
-  protected async overlayMoved(event: MapOverlayEvent): Promise<void> {
+  protected overlayMoved(event: MapOverlayEvent): void {
     if (!this.canEdit()) return;
     const [kind, indexText] = event.id.split(':');
     if (kind !== 'vertex') return;
-    const index = Number(indexText);
+    this.store.enqueue(() => this.moveVertexTo(Number(indexText), event.at));
+  }
+
+  private async moveVertexTo(index: number, at: MapPosition): Promise<void> {
     const vertices = this.draft().vertices;
+    if (index >= vertices.length) return;
     const previous = vertices[index - 1];
     const next = vertices[index + 1];
-    if (!this.snapToNetwork() || !this.canSnap() || (!previous && !next) || this.isRouting()) {
-      this.edit((state) => moveVertex(state, index, event.at));
+    if (!this.snapToNetwork() || !this.canSnap() || (!previous && !next)) {
+      this.edit((state) => moveVertex(state, index, at));
       return;
     }
     // Snapped: the route runs along the roads from the vertex before, through where the vertex
     // was dropped, to the vertex after.
-    this.isRouting.set(true);
+    const event = { at };
+    const ticket = this.store.ticket();
     try {
       const path = await firstValueFrom(
         previous && next
@@ -357,15 +323,15 @@ export default class RouteEditor {
             ? this.api.pathAlongNetwork(previous, event.at)
             : this.api.pathAlongNetwork(event.at, next!),
       );
+      if (!this.store.isCurrent(ticket)) return;
       const coordinates = path.geometry.coordinates.map(lonLatOf);
       const inner = coordinates.slice(previous ? 1 : 0, next ? -1 : undefined);
       this.edit((state) => replaceVertex(state, index, inner.length > 0 ? inner : [event.at]));
     } catch (error: unknown) {
+      if (!this.store.isCurrent(ticket)) return;
       // Expected when the dropped point is far from the roads or not connected: move it as dropped.
       this.snackBar.open(`${describeApiError(error)} The vertex was moved without snapping.`, 'Dismiss');
       this.edit((state) => moveVertex(state, index, event.at));
-    } finally {
-      this.isRouting.set(false);
     }
   }
 
@@ -376,19 +342,18 @@ export default class RouteEditor {
       this.edit((state) => appendVertices(state, [at]));
       return;
     }
-    if (this.isRouting()) return;
-    this.isRouting.set(true);
+    const ticket = this.store.ticket();
     try {
       // The first vertex goes to the nearest road; the next ones follow the roads from the last.
       const path = await firstValueFrom(this.api.pathAlongNetwork(last ?? at, at));
+      if (!this.store.isCurrent(ticket)) return;
       const routed = (last ? path.geometry.coordinates.slice(1) : path.geometry.coordinates.slice(0, 1)).map(lonLatOf);
       this.edit((state) => appendVertices(state, routed.length > 0 ? routed : [at]));
     } catch (error: unknown) {
+      if (!this.store.isCurrent(ticket)) return;
       // Expected when the two points are not connected by the network: add the point directly.
       this.snackBar.open(`${describeApiError(error)} The point was added without snapping.`, 'Dismiss');
       this.edit((state) => appendVertices(state, [at]));
-    } finally {
-      this.isRouting.set(false);
     }
   }
 
@@ -402,9 +367,9 @@ export default class RouteEditor {
     this.edit((state) => appendVertices(state, [[roundDegrees(centre[0]), roundDegrees(centre[1])]]));
   }
 
-  private placeOnLine(at: MapPosition): void {
+  private placeOnLine(at: MapPosition, tool: EditorTool): void {
     const vertices = this.draft().vertices;
-    if (this.tool() === 'stop') {
+    if (tool === 'stop') {
       // Named by where it is, so names read in order along the route whatever order they are placed in.
       const placed = projectOnLine(vertices, at);
       if (!placed) return;
@@ -436,16 +401,15 @@ export default class RouteEditor {
 
   protected edit(change: (state: RouteDraftState) => RouteDraftState): void {
     if (!this.canEdit()) return;
-    const next = this.history.apply(change);
-    this.publish(next);
+    this.store.apply(change);
   }
 
   protected undo(): void {
-    this.publish(this.history.undo());
+    this.store.undo();
   }
 
   protected redo(): void {
-    this.publish(this.history.redo());
+    this.store.redo();
   }
 
   protected deleteSelectedVertex(): void {
@@ -479,13 +443,6 @@ export default class RouteEditor {
     }
   }
 
-  private publish(state: RouteDraftState): void {
-    this.draft.set(state);
-    this.canUndo.set(this.history.canUndo);
-    this.canRedo.set(this.history.canRedo);
-    const selected = this.selectedVertex();
-    if (selected !== null && selected >= state.vertices.length) this.selectedVertex.set(null);
-  }
 
   // ---- Tables ----
 
@@ -664,8 +621,7 @@ export default class RouteEditor {
     this.olderVersion.set(null);
     if (!routeId) {
       this.saved.set(null);
-      this.history.reset(EMPTY_DRAFT);
-      this.publish(EMPTY_DRAFT);
+      this.store.reset(EMPTY_DRAFT);
       void this.fitToTerrain();
       return;
     }
@@ -694,8 +650,7 @@ export default class RouteEditor {
     this.saved.set(route);
     this.olderVersion.set(null);
     const state = toDraft(route);
-    this.history.reset(state);
-    this.publish(state);
+    this.store.reset(state);
     this.details.setValue({
       name: route.name,
       mode: route.mode,
@@ -734,20 +689,10 @@ function toDraft(route: RoadRoute): RouteDraftState {
   };
 }
 
-function lonLatOf(position: readonly number[]): readonly [number, number] {
-  return [position[0]!, position[1]!];
-}
 
 /** A vertex as GeoJSON, with its recorded elevation when it has one. */
 function positionOf(vertex: LonLat): [number, number] | [number, number, number] {
   return vertex.length === 3 ? [vertex[0], vertex[1], vertex[2]] : [vertex[0], vertex[1]];
 }
 
-function pointAt(vertices: readonly LonLat[], atM: number): MapPosition | null {
-  const at = pointAlongLine(vertices, atM);
-  return at && lonLatOf(at);
-}
 
-function formatSpeed(speedKph: number, system: 'metric' | 'imperial'): string {
-  return `${Math.round(kphToDisplay(speedKph, system))} ${unitLabel('speed', system)}`;
-}
