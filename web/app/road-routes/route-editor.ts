@@ -36,8 +36,8 @@ import { TerrainMap, type MapOverlay, type MapOverlayEvent, type MapPosition } f
 import { QuantityPipe } from '../units/quantity-pipe';
 import { formatQuantity, fromDisplay, toDisplay, unitLabel } from '../units/unit-format';
 import { speedLimitValidator } from '../units/speed-limit-validator';
-import { DEFAULT_SPEED_LIMIT_KPH } from '@shared/domain/limits';
-import { displayToKph, isSpeedLimitKphAllowed, kphToDisplay, speedLimitRange } from '@shared/presentation/index';
+import { DEFAULT_SPEED_LIMIT_KPH, SERVICE_DAYS_PER_YEAR, TRIPS_PER_DAY } from '@shared/domain/limits';
+import { SERVICE_DAYS_RANGE, TRIPS_PER_DAY_RANGE, displayToKph, isSpeedLimitKphAllowed, kphToDisplay, speedLimitRange } from '@shared/presentation/index';
 import { UnitPreference } from '../units/unit-preference';
 import { UnitSwitch } from '../units/unit-switch';
 import { RoadRoutesApi, type RoadNetwork, type RouteProfile, type RouteVersionInfo } from './road-routes-api';
@@ -169,12 +169,18 @@ export default class RouteEditor {
     mode: new FormControl<(typeof ROUTE_MODES)[number]>('bus', { nonNullable: true }),
     description: new FormControl('', { nonNullable: true, validators: [Validators.maxLength(2000)] }),
     defaultSpeedLimit: new FormControl(DEFAULT_SPEED_LIMIT_KPH, { nonNullable: true, validators: [Validators.required, speedLimitValidator(() => this.units())] }),
-    tripsPerDay: new FormControl(0, { nonNullable: true, validators: [Validators.required, Validators.min(0), Validators.max(500)] }),
-    serviceDaysPerYear: new FormControl(360, { nonNullable: true, validators: [Validators.required, Validators.min(0), Validators.max(366)] }),
+    tripsPerDay: new FormControl<number>(TRIPS_PER_DAY.default, { nonNullable: true, validators: [Validators.required, Validators.min(TRIPS_PER_DAY.min), Validators.max(TRIPS_PER_DAY.max)] }),
+    serviceDaysPerYear: new FormControl<number>(SERVICE_DAYS_PER_YEAR.default, {
+      nonNullable: true,
+      validators: [Validators.required, Validators.min(SERVICE_DAYS_PER_YEAR.min), Validators.max(SERVICE_DAYS_PER_YEAR.max)],
+    }),
   });
 
   /** Speed given to a stretch placed on the map, in the displayed unit. */
   protected readonly newLimitSpeed = new FormControl(30, { nonNullable: true, validators: [speedLimitValidator(() => this.units())] });
+
+  protected readonly tripsRange = TRIPS_PER_DAY_RANGE;
+  protected readonly serviceDaysRange = SERVICE_DAYS_RANGE;
 
   /** The contract's speed-limit range in the displayed unit, for the inputs and their messages. */
   protected readonly speedRange = computed(() => speedLimitRange(this.units()));
