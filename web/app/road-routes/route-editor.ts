@@ -40,11 +40,15 @@ import { DEFAULT_SPEED_LIMIT_KPH, SERVICE_DAYS_PER_YEAR, TRIPS_PER_DAY } from '@
 import { SERVICE_DAYS_RANGE, TRIPS_PER_DAY_RANGE, displayToKph, isSpeedLimitKphAllowed, kphToDisplay, speedLimitRange } from '@shared/presentation/index';
 import { UnitPreference } from '../units/unit-preference';
 import { UnitSwitch } from '../units/unit-switch';
+import { LOADED, LOADING, loadFailed, type LoadState } from '../ui/load-state';
+import { LoadStatus } from '../ui/load-status';
 import { RoadRoutesApi, type RoadNetwork, type RouteProfile, type RouteVersionInfo } from './road-routes-api';
 import { RouteDraftStore } from './route-draft-store';
+import { RouteVertexTable, type CoordinateTyped } from './tables/route-vertex-table';
+import { RouteStopTable, type StopChange } from './tables/route-stop-table';
+import { RouteLimitTable, type LimitChange } from './tables/route-limit-table';
 import { ROUTE_COLOR, lonLatOf, pointAt, routeOverlays, type EditorTool } from './route-overlays';
 import {
-  COORDINATE_DECIMALS,
   EMPTY_DRAFT,
   addSpeedLimit,
   addStopNear,
@@ -73,13 +77,8 @@ import {
 
 export type { EditorTool } from './route-overlays';
 
-type ProfileState =
-  | { status: 'idle' }
-  | { status: 'loading' }
-  | { status: 'ready'; profile: RouteProfile }
-  | { status: 'error'; message: string };
-
-type LoadState = { status: 'loading' } | { status: 'ready' } | { status: 'error'; message: string };
+/** The live elevation profile: none yet (fewer than two vertices), or loading as any page data. */
+type ProfileState = { status: 'idle' } | LoadState<RouteProfile>;
 
 const MODE_LABELS: Readonly<Record<(typeof ROUTE_MODES)[number], string>> = {
   bus: 'Bus',
@@ -108,6 +107,10 @@ const MODE_LABELS: Readonly<Record<(typeof ROUTE_MODES)[number], string>> = {
     DistanceChart,
     QuantityPipe,
     UnitSwitch,
+    LoadStatus,
+    RouteVertexTable,
+    RouteStopTable,
+    RouteLimitTable,
   ],
   templateUrl: './route-editor.html',
   styleUrl: './route-editor.scss',
@@ -150,7 +153,7 @@ export default class RouteEditor {
   /** An older version being looked at (read-only), or null for the current one. */
   protected readonly olderVersion = signal<RoadRoute | null>(null);
   protected readonly versions = signal<RouteVersionInfo[]>([]);
-  protected readonly loadState = signal<LoadState>({ status: 'ready' });
+  protected readonly loadState = signal<LoadState>(LOADED);
   protected readonly isSaving = signal(false);
   protected readonly saveError = signal<string | null>(null);
   /** First end of a speed-limit stretch placed on the map, m along the route. */
@@ -200,9 +203,9 @@ export default class RouteEditor {
       switchMap((vertices) => {
         if (vertices.length < 2) return of<ProfileState>({ status: 'idle' });
         return this.api.profile({ type: 'LineString', coordinates: vertices.map(positionOf) }).pipe(
-          map((profile): ProfileState => ({ status: 'ready', profile })),
-          startWith<ProfileState>({ status: 'loading' }),
-          catchError((error: unknown) => of<ProfileState>({ status: 'error', message: describeApiError(error) })),
+          map((profile): ProfileState => ({ status: 'ready', value: profile })),
+          startWith<ProfileState>(LOADING),
+          catchError((error: unknown) => of<ProfileState>(loadFailed(error))),
         );
       }),
     ),
@@ -216,8 +219,8 @@ export default class RouteEditor {
     return [
       {
         label: 'Elevation',
-        x: state.profile.distanceM.map((m) => toDisplay('distance', m, system)),
-        y: state.profile.elevationM.map((m) => (m === null ? null : toDisplay('elevation', m, system))),
+        x: state.value.distanceM.map((m) => toDisplay('distance', m, system)),
+        y: state.value.elevationM.map((m) => (m === null ? null : toDisplay('elevation', m, system))),
         color: ROUTE_COLOR,
         fill: true,
       },
@@ -226,7 +229,7 @@ export default class RouteEditor {
 
   protected readonly hasTerrainGaps = computed(() => {
     const state = this.profile();
-    return state.status === 'ready' && state.profile.elevationM.some((value) => value === null);
+    return state.status === 'ready' && state.value.elevationM.some((value) => value === null);
   });
 
   protected readonly profileCursor = computed<MapPosition | null>(() => {
@@ -453,15 +456,14 @@ export default class RouteEditor {
   // ---- Tables ----
 
   /** A coordinate typed in the vertex table; a value out of range is refused and the field shows the vertex again. */
-  protected setVertexCoordinate(index: number, axis: 'lon' | 'lat', field: HTMLInputElement): void {
-    const degrees = parseCoordinate(field.value, axis);
+  protected setVertexCoordinate({ index, axis, text, restore }: CoordinateTyped): void {
+    const degrees = parseCoordinate(text, axis);
     if (degrees === null) {
       this.snackBar.open(axis === 'lon' ? 'A longitude is between −180 and 180 degrees.' : 'A latitude is between −90 and 90 degrees.', 'Dismiss');
     } else {
       this.edit((state) => setVertexCoordinate(state, index, axis, degrees));
     }
-    const vertex = this.draft().vertices[index];
-    if (vertex) field.value = this.degreesShown(vertex[axis === 'lon' ? 0 : 1]);
+    restore();
   }
 
   protected insertVertexAfter(index: number): void {
@@ -474,20 +476,23 @@ export default class RouteEditor {
     this.selectedVertex.set(null);
   }
 
-  protected degreesShown(degrees: number): string {
-    return degrees.toFixed(COORDINATE_DECIMALS);
+  /** A stop's name, position or dwell typed in the stops table; values out of range are ignored. */
+  protected changeStop(change: StopChange): void {
+    if (change.field === 'name') this.renameStop(change.index, change.text);
+    else if (change.field === 'position') this.setStopPosition(change.index, change.text);
+    else this.setStopDwell(change.index, change.text);
   }
 
-  protected renameStop(index: number, name: string): void {
+  private renameStop(index: number, name: string): void {
     if (name.trim()) this.edit((state) => updateStop(state, index, { name: name.trim() }));
   }
 
-  protected setStopDwell(index: number, text: string): void {
+  private setStopDwell(index: number, text: string): void {
     const dwellS = Number(text);
     if (Number.isFinite(dwellS) && dwellS >= 0 && dwellS <= 3600) this.edit((state) => updateStop(state, index, { dwellS }));
   }
 
-  protected setStopPosition(index: number, text: string): void {
+  private setStopPosition(index: number, text: string): void {
     const shown = Number(text);
     if (Number.isFinite(shown) && shown >= 0) this.edit((state) => moveStopTo(state, index, fromDisplay('distance', shown, this.units())));
   }
@@ -496,7 +501,8 @@ export default class RouteEditor {
     this.edit((state) => removeStop(state, index));
   }
 
-  protected setLimit(index: number, field: 'fromM' | 'toM' | 'speedKph', text: string): void {
+  /** One end or the limit of a stretch typed in the limits table. */
+  protected changeLimit({ index, field, text }: LimitChange): void {
     const shown = Number(text);
     if (!Number.isFinite(shown) || shown < 0) return;
     const value = field === 'speedKph' ? this.speedKphFromDisplay(shown) : Math.round(fromDisplay('distance', shown, this.units()));
@@ -523,11 +529,7 @@ export default class RouteEditor {
     this.edit((state) => removeSpeedLimit(state, index));
   }
 
-  protected distanceShown(valueM: number): string {
-    return toDisplay('distance', valueM, this.units()).toFixed(3).replace(/\.?0+$/, '');
-  }
-
-  protected speedShown(speedKph: number): string {
+  private speedShown(speedKph: number): string {
     return String(Math.round(kphToDisplay(speedKph, this.units())));
   }
 
@@ -631,15 +633,22 @@ export default class RouteEditor {
       void this.fitToTerrain();
       return;
     }
-    this.loadState.set({ status: 'loading' });
+    this.loadState.set(LOADING);
     try {
       const route = await this.api.get(routeId);
+      // Another route was opened meanwhile: its own load shows it, this answer is dropped.
+      if (this.routeId() !== routeId) return;
       this.showSaved(route, true);
-      this.loadState.set({ status: 'ready' });
+      this.loadState.set(LOADED);
       void this.loadVersions(routeId);
     } catch (error: unknown) {
-      this.loadState.set({ status: 'error', message: describeApiError(error) });
+      if (this.routeId() === routeId) this.loadState.set(loadFailed(error));
     }
+  }
+
+  /** "Try again" after the route failed to load. */
+  protected reload(): void {
+    void this.load(this.routeId());
   }
 
   private async loadVersions(routeId: string): Promise<void> {
