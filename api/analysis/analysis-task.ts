@@ -14,7 +14,7 @@ import type { PreviewRequestInput, PreviewResponse, ProfileView } from '@shared/
 import { analyseRoute } from '@shared/engine/analyse-route';
 import { runServiceDay, type ServiceDayEngineInput, type ServiceDayEngineResult } from '@shared/engine/service-day';
 import { viewProfile } from '@shared/engine/profile-view';
-import { EngineInputError, RouteTooLargeError, UncoveredTerrainError } from '@shared/engine/validation';
+import { EngineInputError, MissingElevationError, RouteTooLargeError, UncoveredTerrainError } from '@shared/engine/validation';
 
 export interface AnalysisTask {
   request: PreviewRequestInput;
@@ -35,6 +35,7 @@ export type ServiceDayTaskResult = { ok: true; result: ServiceDayEngineResult } 
 /** An engine refusal as data, enough to raise the same error again on the API thread. */
 export type EngineRefusal =
   | { kind: 'input'; field: string; message: string }
+  | { kind: 'missing-elevation'; field: string; message: string }
   | { kind: 'uncovered'; field: string; message: string; stretches: UncoveredTerrainError['stretches'] }
   | {
       kind: 'too-large';
@@ -112,6 +113,7 @@ function askForElevations(port: MessagePort, points: [number, number][]): Promis
 }
 
 function describeRefusal(error: EngineInputError): EngineRefusal {
+  if (error instanceof MissingElevationError) return { kind: 'missing-elevation', field: error.field, message: error.message };
   if (error instanceof UncoveredTerrainError) {
     return { kind: 'uncovered', field: error.field, message: error.message, stretches: error.stretches };
   }

@@ -12,7 +12,8 @@ import {
 } from '@shared/domain/service-days';
 import type { AppDeps } from '../app-deps';
 import { endpoint } from '../http/endpoint';
-import { attachmentName, requireFile, singleFileUpload } from '../road-routes/route-upload';
+import { requireFile, singleFileUpload } from '../road-routes/route-upload';
+import { sendAttachment } from '../http/attachment';
 import { BadRequestError } from '../http/http-error';
 import { blocksFromGtfs } from './gtfs-blocks';
 import { authorOf } from '../scenarios/scenarios-service';
@@ -171,7 +172,7 @@ export function serviceDayEndpoints(deps: AppDeps) {
       handler: async ({ params, res }) => {
         const day = await service.getServiceDay(deps.db, params.serviceDayId);
         const result = await service.getResult(deps.db, params.serviceDayId);
-        res.attachment(attachmentName(day.name, 'csv')).type('text/csv; charset=utf-8').send(serviceDayCsv(result));
+        sendAttachment(res, day.name, 'csv', 'text/csv; charset=utf-8', serviceDayCsv(result));
       },
     }),
   ];

@@ -24,9 +24,11 @@ import { readSafetySettings } from '../board/network-settings';
 import type { Database, Executor } from '../db/client';
 import type { ServiceDayRunProvenance } from '../db/schema/index';
 import { ConflictError, HttpError, NotFoundError, UnprocessableError } from '../http/http-error';
-import { createInlineJobQueue, jobQueueOf, type JobPolicy, type JobQueue } from '../jobs/job-queue';
+import { jobQueueOf, runtimeOf } from '../app-runtime';
+import type { JobPolicy, JobQueue } from '../jobs/job-queue';
 import * as routes from '../road-routes/road-routes-repository';
-import { directionRoute, heaviestMassKg } from '../scenarios/scenario-run';
+import { heaviestMassKg, scenarioTripPlan } from '../scenarios/scenario-run';
+import { legRequest } from '@shared/engine/round-trip';
 import * as profiles from '../vehicle-profiles/vehicle-profiles-repository';
 import * as repository from './service-days-repository';
 
@@ -178,32 +180,25 @@ export async function restoreServiceDay(db: Database, actor: Actor, id: string):
 
 // ---------------------------------------------------------------- runs
 
-const inlineQueues = new WeakMap<object, JobQueue & { idle(): Promise<void> }>();
+async function registerServiceDayWorkers(deps: AppDeps, queue: JobQueue): Promise<void> {
+  await queue.registerWorker<{ serviceDayId: string }>(SERVICE_DAY_RUN_JOB, (job) => runServiceDayJob(deps, job.serviceDayId), SERVICE_DAY_RUN_POLICY);
+}
 
-async function serviceDayJobs(deps: AppDeps): Promise<JobQueue> {
-  const attached = jobQueueOf(deps.db);
-  if (attached) return attached;
-  let queue = inlineQueues.get(deps.db);
-  if (!queue) {
-    queue = createInlineJobQueue();
-    await queue.registerWorker<{ serviceDayId: string }>(SERVICE_DAY_RUN_JOB, (data) => runServiceDayJob(deps, data.serviceDayId), SERVICE_DAY_RUN_POLICY);
-    inlineQueues.set(deps.db, queue);
-  }
-  return queue;
+/** The app's job queue, or (tests, the demo seed) an in-process queue with the run worker on it. */
+function serviceDayJobs(deps: AppDeps): Promise<JobQueue> {
+  return runtimeOf(deps).jobsFor('service-days', (queue) => registerServiceDayWorkers(deps, queue));
 }
 
 /** Resolves when in-process service-day runs have finished (tests and the demo seed). */
 export async function waitForInlineServiceDayRuns(deps: AppDeps): Promise<void> {
-  await inlineQueues.get(deps.db)?.idle();
+  await runtimeOf(deps).inlineJobsIdle('service-days');
 }
 
 /** Registers the run worker on the shared queue (processes with RUN_WORKERS). */
 export async function startServiceDayWorkers(deps: AppDeps): Promise<void> {
-  const queue = jobQueueOf(deps.db);
+  const queue = jobQueueOf(deps);
   if (!queue) throw new Error('Attach the job queue (startTerrain) before starting the service-day workers');
-  if (deps.config.RUN_WORKERS) {
-    await queue.registerWorker<{ serviceDayId: string }>(SERVICE_DAY_RUN_JOB, (data) => runServiceDayJob(deps, data.serviceDayId), SERVICE_DAY_RUN_POLICY);
-  }
+  if (deps.config.RUN_WORKERS) await registerServiceDayWorkers(deps, queue);
 }
 
 /** Queues a run of the day as it is saved now; answers the day with status "queued". */
@@ -338,8 +333,15 @@ export async function prepareEngineInput(
       if (!version) return { ok: false, failureReason: `route ${trip.routeId} has no version ${versionNumber}` };
       const ranVersions = (provenance.routeVersions[trip.routeId] ??= []);
       if (!ranVersions.includes(versionNumber)) ranVersions.push(versionNumber);
-      const directed = directionRoute(version, trip.direction, heaviest, TRIP_OPTIONS, safety);
-      const line = await withElevations(directed.route, TRIP_OPTIONS.spacingM, sampler);
+      // The scenario run's own preparation of one direction (line, speed limits, stops with dwell, safety settings).
+      const plan = scenarioTripPlan(
+        version,
+        heaviest,
+        { direction: trip.direction, load: { kind: 'case', case: 'seated' }, season: { kind: 'season', season }, startSoc: 0.9, options: TRIP_OPTIONS },
+        safety,
+      );
+      const directed = legRequest(plan, trip.direction, 0.9);
+      const line = await withElevations(directed.route as Line, TRIP_OPTIONS.spacingM, sampler);
       if (!line) {
         return {
           ok: false,
@@ -352,7 +354,7 @@ export async function prepareEngineInput(
         direction: trip.direction,
         name: `${version.name} ${trip.direction}`,
         route: line,
-        options: directed.options,
+        options: directed.options ?? {},
       });
     }
   }

@@ -24,3 +24,4 @@ export * from './endurance-brake';
 export * from './descent-safety';
 export * from './auxiliary-power';
 export * from './service-day';
+export * from './round-trip';
