@@ -5,7 +5,8 @@
  *
  * A run is one job on the shared PostgreSQL queue (`service-day-run`). The worker claims the run
  * with a token, beats a heartbeat while it computes, prepares every route version and direction
- * the blocks run exactly as a scenario run prepares its trip (scenario-run.ts `directionRoute`),
+ * the blocks run exactly as a scenario run prepares its trip (scenario-run.ts `scenarioTripPlan`
+ * and the engine's `legRequest`),
  * samples elevations from the terrain for lines drawn without them, and runs the whole day on an
  * analysis worker thread (`runServiceDay`). Only the holder of the current claim records the
  * outcome; a failed run keeps the last good result beside its reason.
