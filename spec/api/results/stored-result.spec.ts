@@ -1,4 +1,5 @@
 import { describe, expect, it } from 'vitest';
+import type { Descent } from '@shared/domain/analysis';
 import {
   readStoredDescent,
   readStoredReviewItem,
@@ -9,7 +10,7 @@ import {
 import { aDescent, aDirectionResult, aSummary } from '../../support/scenario-fixtures';
 
 /** A descent as rows written before the worst case kept it: no `nominalRisk`, nor any safety field. */
-function aVersion1Descent(risk: 'low' | 'elevated' | 'high' | 'critical') {
+function aVersion1Descent(risk: 'low' | 'elevated' | 'high' | 'critical'): Descent {
   const { nominalRisk: _nominalRisk, ...descent } = aDescent({ risk });
   return descent;
 }
