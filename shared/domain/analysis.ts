@@ -24,6 +24,7 @@ import {
   DEFAULT_WORST_CASE_AMBIENT_C,
 } from '../engine/constants';
 import { PROFILE_SERIES_NAMES, type ProfileSeriesName } from '../engine/profile-series';
+import { DEFAULT_START_SOC, socSchema } from './limits';
 
 const efficiency = z.number().gt(0).lte(1);
 const share = z.number().min(0).max(1);
@@ -169,7 +170,7 @@ export const conditionsSchema = z.object({
   /** Ambient air temperature, °C. Absent: the ISA temperature at each point's altitude. */
   ambientC: z.number().min(-60).max(60).optional(),
   /** State of charge at the start of the route, 0–1. */
-  startSoc: share.default(0.8),
+  startSoc: socSchema.default(DEFAULT_START_SOC),
   /** Brake temperature at the start, °C. Absent: ambient. */
   initialBrakeTempC: z.number().min(-60).max(1_000).optional(),
   /**
@@ -303,7 +304,7 @@ export type LineString = z.infer<typeof lineStringSchema>;
 export const previewRequestSchema = z.object({
   route: lineStringSchema,
   vehicle: vehicleSchema,
-  conditions: conditionsSchema.default({ startSoc: 0.8, surface: 'dry' }),
+  conditions: conditionsSchema.default({ startSoc: DEFAULT_START_SOC, surface: 'dry' }),
   options: optionsSchema.default(optionsSchema.parse({})),
 });
 export type PreviewRequest = z.infer<typeof previewRequestSchema>;
