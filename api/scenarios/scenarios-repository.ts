@@ -3,6 +3,7 @@ import type { Scenario, ScenarioListQuery } from '@shared/domain/scenarios';
 import { ENGINE_VERSION } from '@shared/engine/constants';
 import type { Executor } from '../db/client';
 import { roadRoutes, roadRouteVersions, scenarios, vehicleProfiles, type ScenarioRow } from '../db/schema/index';
+import { readStoredScenarioResult, type StoredScenarioResult } from '../results/stored-result';
 
 /** Scenario columns without the (large) per-point results. */
 const { directionResults: _directionResults, ...scenarioColumns } = getTableColumns(scenarios);
@@ -86,6 +87,23 @@ export async function lockScenario(db: Executor, id: string, includeDeleted = fa
 export async function insertScenario(db: Executor, values: typeof scenarios.$inferInsert): Promise<ScenarioHead> {
   const [row] = await db.insert(scenarios).values(values).returning(scenarioColumns);
   return row as ScenarioHead;
+}
+
+/**
+ * The scenario's stored result, upgraded from its schema version to the current shape and parsed
+ * (api/results/stored-result.ts); null when the scenario has none. Every read of a stored result
+ * goes through here.
+ */
+export function readScenarioResult(
+  row: Pick<ScenarioRow, 'id' | 'resultVersion' | 'summary' | 'riskCounts' | 'directionResults'>,
+): StoredScenarioResult | null {
+  if (!row.summary || !row.directionResults) return null;
+  return readStoredScenarioResult(`Scenario ${row.id}`, {
+    version: row.resultVersion,
+    summary: row.summary,
+    riskCounts: row.riskCounts,
+    directionResults: row.directionResults,
+  });
 }
 
 export async function updateScenario(db: Executor, id: string, values: Partial<typeof scenarios.$inferInsert>) {
