@@ -23,6 +23,7 @@ import {
   DEFAULT_MAX_ROAD_GRADE_PERCENT,
   DEFAULT_WORST_CASE_AMBIENT_C,
 } from '../engine/constants';
+import { DEFAULT_START_SOC, socSchema } from './limits';
 
 const efficiency = z.number().gt(0).lte(1);
 const share = z.number().min(0).max(1);
@@ -168,7 +169,7 @@ export const conditionsSchema = z.object({
   /** Ambient air temperature, °C. Absent: the ISA temperature at each point's altitude. */
   ambientC: z.number().min(-60).max(60).optional(),
   /** State of charge at the start of the route, 0–1. */
-  startSoc: share.default(0.8),
+  startSoc: socSchema.default(DEFAULT_START_SOC),
   /** Brake temperature at the start, °C. Absent: ambient. */
   initialBrakeTempC: z.number().min(-60).max(1_000).optional(),
   /**
@@ -302,7 +303,7 @@ export type LineString = z.infer<typeof lineStringSchema>;
 export const previewRequestSchema = z.object({
   route: lineStringSchema,
   vehicle: vehicleSchema,
-  conditions: conditionsSchema.default({ startSoc: 0.8, surface: 'dry' }),
+  conditions: conditionsSchema.default({ startSoc: DEFAULT_START_SOC, surface: 'dry' }),
   options: optionsSchema.default(optionsSchema.parse({})),
 });
 export type PreviewRequest = z.infer<typeof previewRequestSchema>;
