@@ -83,44 +83,10 @@ export function clipSpeedLimits(limits: readonly RouteSpeedLimit[], lengthM: num
 }
 
 /**
- * Engine speed-limit input for a route: its stretches, with the default limit filling the
- * stretches between them (the engine's own fallback outside stretches is the largest limit).
+ * The engine's speed limits along a line and the inbound direction (positions reversed, stops and
+ * stretches mirrored) are the trip's own, in the engine (shared/engine/round-trip.ts).
  */
-export function engineSpeedLimits(
-  limits: readonly RouteSpeedLimit[],
-  defaultSpeedLimitKph: number,
-  lengthM: number,
-): number | { fromM: number; toM: number; speedKph: number }[] {
-  if (limits.length === 0) return defaultSpeedLimitKph;
-  const sorted = [...limits].sort((a, b) => a.fromM - b.fromM);
-  const out: { fromM: number; toM: number; speedKph: number }[] = [];
-  let cursorM = 0;
-  for (const stretch of sorted) {
-    if (stretch.fromM > cursorM) out.push({ fromM: cursorM, toM: stretch.fromM, speedKph: defaultSpeedLimitKph });
-    out.push({ fromM: stretch.fromM, toM: stretch.toM, speedKph: stretch.speedKph });
-    cursorM = Math.max(cursorM, stretch.toM);
-  }
-  if (cursorM < lengthM) out.push({ fromM: cursorM, toM: lengthM, speedKph: defaultSpeedLimitKph });
-  return out;
-}
-
-/** The inbound direction: positions reversed, stops and stretches mirrored (atM → L − atM). */
-export function mirrorRoute(route: {
-  coordinates: LineString['coordinates'];
-  stops: readonly PlacedStop[];
-  speedLimits: readonly RouteSpeedLimit[];
-  lengthM: number;
-}) {
-  const L = route.lengthM;
-  return {
-    coordinates: [...route.coordinates].reverse(),
-    stops: route.stops.map((stop) => ({ ...stop, atM: round3(Math.max(0, L - stop.atM)) })).sort((a, b) => a.atM - b.atM),
-    speedLimits: route.speedLimits
-      .map((stretch) => ({ ...stretch, fromM: round3(Math.max(0, L - stretch.toM)), toM: round3(L - stretch.fromM) }))
-      .sort((a, b) => a.fromM - b.fromM),
-    lengthM: L,
-  };
-}
+export { reverseTripLine as mirrorRoute, speedLimitProfile as engineSpeedLimits } from '@shared/engine/round-trip';
 
 /** Positions without elevation, for the PostGIS 2-D column. */
 export function flatten(geometry: LineString): LineString {

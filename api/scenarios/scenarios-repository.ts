@@ -70,6 +70,20 @@ export async function findScenariosWithContext(db: Executor, ids: string[]): Pro
 }
 
 /** The scenario unless it is deleted (or, with `includeDeleted`, either way). */
+/** Id and name of every scenario on a vehicle profile, by name (for re-running them all). */
+export function listScenarioNamesOfProfile(db: Executor, vehicleProfileId: string): Promise<{ id: string; name: string }[]> {
+  return db.select({ id: scenarios.id, name: scenarios.name }).from(scenarios).where(eq(scenarios.vehicleProfileId, vehicleProfileId)).orderBy(scenarios.name);
+}
+
+/** Id and name of every scenario in service (not deleted), by name: a network run's items. */
+export function listInServiceScenarioNames(db: Executor): Promise<{ id: string; name: string }[]> {
+  return db
+    .select({ id: scenarios.id, name: scenarios.name })
+    .from(scenarios)
+    .where(and(eq(scenarios.inService, true), isNull(scenarios.deletedAt)))
+    .orderBy(asc(scenarios.name));
+}
+
 export async function findScenarioRow(db: Executor, id: string, includeDeleted = false): Promise<ScenarioRow | undefined> {
   const [row] = await db
     .select()

@@ -31,7 +31,7 @@ import { movingAverageOverDistance, savitzkyGolayOverDistance } from './smoothin
 import { computeSpeedProfile } from './speed-profile';
 import { summariseRun } from './summary';
 import { celsiusToKelvin, kphToMps } from './unit-conversions';
-import { EngineInputError, parseOrThrow, UncoveredTerrainError } from './validation';
+import { EngineInputError, MissingElevationError, parseOrThrow, UncoveredTerrainError } from './validation';
 import {
   CELSIUS_TO_KELVIN_K,
   ENGINE_VERSION,
@@ -93,7 +93,7 @@ export async function analyseRouteDetailed(
   if (!elevationM) {
     const sampler = dependencies.sampleElevations;
     if (!sampler) {
-      throw new EngineInputError('route.coordinates', 'positions carry no elevation and no elevation source was given');
+      throw new MissingElevationError();
     }
     const points: [number, number][] = [];
     for (let i = 0; i < resampled.lon.length; i++) points.push([resampled.lon[i]!, resampled.lat[i]!]);

@@ -22,3 +22,4 @@ export * from './analyse-route';
 export * from './adhesion';
 export * from './endurance-brake';
 export * from './descent-safety';
+export * from './round-trip';
