@@ -1,4 +1,4 @@
-import { and, asc, eq, getTableColumns, inArray, isNull, lt, type SQL } from 'drizzle-orm';
+import { and, asc, eq, getTableColumns, inArray, isNull, lt, sql, type SQL } from 'drizzle-orm';
 import type { Scenario, ScenarioListQuery } from '@shared/domain/scenarios';
 import { ENGINE_VERSION } from '@shared/engine/constants';
 import type { Executor } from '../db/client';
@@ -33,12 +33,30 @@ function selectWithContext(db: Executor) {
     .innerJoin(vehicleProfiles, eq(vehicleProfiles.id, scenarios.vehicleProfileId));
 }
 
+/**
+ * The list needs of a run's stored inputs only their provenance (for the stale check); the engine
+ * inputs of every direction beside it would be read, sent and parsed for every row and dropped.
+ */
+const { inputs: _inputs, ...scenarioListColumns } = scenarioColumns;
+const provenanceOnly = sql<ScenarioHead['inputs']>`case when ${scenarios.inputs} is null then null else jsonb_build_object('provenance', ${scenarios.inputs} -> 'provenance') end`;
+
 export async function listScenarios(db: Executor, query: ScenarioListQuery): Promise<ScenarioWithContext[]> {
   const conditions: SQL[] = [isNull(scenarios.deletedAt)];
   if (query.routeId) conditions.push(eq(scenarios.routeId, query.routeId));
   if (query.vehicleProfileId) conditions.push(eq(scenarios.vehicleProfileId, query.vehicleProfileId));
   if (query.inService !== undefined) conditions.push(eq(scenarios.inService, query.inService));
-  return (await selectWithContext(db)
+  return (await db
+    .select({
+      scenario: { ...scenarioListColumns, inputs: provenanceOnly },
+      routeName: roadRouteVersions.name,
+      latestRouteVersion: roadRoutes.currentVersion,
+      vehicleProfileName: vehicleProfiles.name,
+      vehicleProfileUpdatedAt: vehicleProfiles.updatedAt,
+    })
+    .from(scenarios)
+    .innerJoin(roadRoutes, eq(roadRoutes.id, scenarios.routeId))
+    .innerJoin(roadRouteVersions, and(eq(roadRouteVersions.routeId, scenarios.routeId), eq(roadRouteVersions.version, scenarios.routeVersion)))
+    .innerJoin(vehicleProfiles, eq(vehicleProfiles.id, scenarios.vehicleProfileId))
     .where(and(...conditions))
     .orderBy(asc(scenarios.name), asc(scenarios.id))) as ScenarioWithContext[];
 }
