@@ -65,7 +65,9 @@ export async function startScratchInstance(name: string, extraEnv: Record<string
   };
   let current: ChildProcess;
   const launch = async (more: Record<string, string> = {}) => {
-    current = spawn(process.execPath, ['dist/api/main.mjs'], { env: { ...process.env, ...env, ...more }, stdio: ['ignore', 'pipe', 'pipe'] });
+    // SCRATCH_NODE_ARGS: extra Node flags for the server, e.g. `--cpu-prof --cpu-prof-dir=…` to profile it.
+    const nodeArgs = (process.env['SCRATCH_NODE_ARGS'] ?? '').split(' ').filter(Boolean);
+    current = spawn(process.execPath, [...nodeArgs, 'dist/api/main.mjs'], { env: { ...process.env, ...env, ...more }, stdio: ['ignore', 'pipe', 'pipe'] });
     current.stdout?.on('data', () => undefined);
     current.stderr?.on('data', () => undefined);
     await waitForHealth(`http://127.0.0.1:${port}`, current);

@@ -18,6 +18,7 @@ import { annualise } from '@shared/engine/summary';
 import type { Executor } from '../db/client';
 import { reviewItems, roadRouteVersions, roadRoutes, scenarios, vehicleProfiles } from '../db/schema/index';
 import { matchStretches } from '../reviews/review-workflow';
+import { readScenarioResult } from '../scenarios/scenarios-repository';
 import { readNetworkSettings } from './network-settings';
 import { annualBasis } from './annual-basis';
 
@@ -90,7 +91,9 @@ async function inServiceScenarios(db: Executor) {
       direction: scenarios.direction,
       computedAt: scenarios.computedAt,
       summary: scenarios.summary,
+      riskCounts: scenarios.riskCounts,
       directionResults: scenarios.directionResults,
+      resultVersion: scenarios.resultVersion,
       vehicleProfileName: vehicleProfiles.name,
       routeName: roadRouteVersions.name,
       // The route's current schedule: trips per day change without changing the physics.
@@ -107,7 +110,10 @@ async function inServiceScenarios(db: Executor) {
     .where(and(eq(scenarios.inService, true), isNull(scenarios.deletedAt), isNotNull(scenarios.summary), isNotNull(scenarios.computedAt)))
     .orderBy(scenarios.routeId, desc(scenarios.computedAt), desc(scenarios.updatedAt));
   return rows
-    .map((row) => ({ ...row, summary: row.summary!, computedAt: row.computedAt!, directionResults: row.directionResults ?? [] }))
+    .map((row) => {
+      const stored = readScenarioResult({ ...row, id: row.scenarioId });
+      return { ...row, summary: stored?.summary ?? row.summary!, computedAt: row.computedAt!, directionResults: stored?.directions ?? [] };
+    })
     .sort((a, b) => a.routeName.localeCompare(b.routeName));
 }
 

@@ -23,6 +23,7 @@ import {
   DEFAULT_MAX_ROAD_GRADE_PERCENT,
   DEFAULT_WORST_CASE_AMBIENT_C,
 } from '../engine/constants';
+import { PROFILE_SERIES_NAMES, type ProfileSeriesName } from '../engine/profile-series';
 import { DEFAULT_START_SOC, socSchema } from './limits';
 
 const efficiency = z.number().gt(0).lte(1);
@@ -354,28 +355,12 @@ export const summarySchema = z.object({
 export type Summary = z.infer<typeof summarySchema>;
 
 /** Per-point arrays, all the same length (one entry per resampled point). */
-export const profileSchema = z.object({
-  distanceM: z.array(z.number()),
-  lon: z.array(z.number()),
-  lat: z.array(z.number()),
-  elevationM: z.array(z.number()),
-  gradePercent: z.array(z.number()),
-  speedMps: z.array(z.number()),
-  timeS: z.array(z.number()),
-  rollingN: z.array(z.number()),
-  aeroN: z.array(z.number()),
-  gradeN: z.array(z.number()),
-  inertiaN: z.array(z.number()),
-  tractionN: z.array(z.number()),
-  tractionPowerW: z.array(z.number()),
-  batteryPowerW: z.array(z.number()),
-  regenPowerW: z.array(z.number()),
-  frictionBrakePowerW: z.array(z.number()),
-  soc: z.array(z.number()),
-  brakeTempC: z.array(z.number()),
-  gsrsBrakeTempC: z.array(z.number()),
-  airDensityKgM3: z.array(z.number()),
-});
+export const profileSchema = z.object(
+  // One array per series of the engine's table (shared/engine/profile-series.ts), in its order.
+  Object.fromEntries(PROFILE_SERIES_NAMES.map((name) => [name, z.array(z.number())])) as {
+    [Name in ProfileSeriesName]: z.ZodArray<z.ZodNumber>;
+  },
+);
 export type Profile = z.infer<typeof profileSchema>;
 
 /** The name of one per-point series of the profile. */

@@ -16,6 +16,7 @@ import type { LineString, PreviewRequestInput, PreviewResponse, Summary, Vehicle
 import { advanceBrakeTemperatureC, brakeConvectionWPerM2K } from './brake-thermal';
 import { combineDirections } from './summary';
 import { EngineInputError } from './validation';
+import { reverseRoute } from '../geometry/route-line';
 
 export type TripLegDirection = 'outbound' | 'inbound';
 export type TripDirection = TripLegDirection | 'round-trip';
@@ -182,15 +183,7 @@ export function reverseTripLine<Stop extends { atM: number }, Limit extends { fr
   speedLimits: readonly Limit[];
   lengthM: number;
 }): { coordinates: LineString['coordinates']; stops: Stop[]; speedLimits: Limit[]; lengthM: number } {
-  const L = line.lengthM;
-  return {
-    coordinates: [...line.coordinates].reverse(),
-    stops: line.stops.map((stop) => ({ ...stop, atM: round3(Math.max(0, L - stop.atM)) })).sort((a, b) => a.atM - b.atM),
-    speedLimits: line.speedLimits
-      .map((stretch) => ({ ...stretch, fromM: round3(Math.max(0, L - stretch.toM)), toM: round3(L - stretch.fromM) }))
-      .sort((a, b) => a.fromM - b.fromM),
-    lengthM: L,
-  };
+  return reverseRoute(line);
 }
 
 /**
@@ -214,8 +207,4 @@ export function speedLimitProfile(
   }
   if (cursorM < lengthM) out.push({ fromM: cursorM, toM: lengthM, speedKph: defaultSpeedLimitKph });
   return out;
-}
-
-function round3(value: number): number {
-  return Math.round(value * 1000) / 1000;
 }

@@ -35,6 +35,7 @@ CREATE TABLE "service_days" (
 	CONSTRAINT "service_days_seedKey_unique" UNIQUE("seed_key")
 );
 --> statement-breakpoint
+ALTER TABLE "vehicle_profiles" ADD COLUMN "climate" jsonb;--> statement-breakpoint
 ALTER TABLE "network_settings" ADD COLUMN "day_counts" jsonb DEFAULT '{"weekday":{"winter":62,"mild":125,"summer":63},"saturday":{"winter":13,"mild":26,"summer":13},"sunday-holiday":{"winter":15,"mild":32,"summer":16}}'::jsonb NOT NULL;--> statement-breakpoint
 ALTER TABLE "network_settings" ADD COLUMN "co2_reference_vehicle" jsonb DEFAULT '{"name":"Diesel city bus, 12 m (illustrative placeholder)","consumptionPerKm":0.45,"consumptionUnit":"l-diesel","emissionFactorKgPerUnit":2.68,"source":"Illustrative placeholder, from memory and not checked: about 45 l/100 km for a 12 m diesel city bus on hilly routes, and 2.68 kg CO2 per litre (the US EPA emission factors give 10.21 kg per US gallon). Replace with your own fleet’s consumption and a named factor."}'::jsonb NOT NULL;--> statement-breakpoint
 ALTER TABLE "service_day_results" ADD CONSTRAINT "service_day_results_service_day_id_service_days_id_fk" FOREIGN KEY ("service_day_id") REFERENCES "public"."service_days"("id") ON DELETE cascade ON UPDATE no action;--> statement-breakpoint

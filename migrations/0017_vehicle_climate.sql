@@ -1,1 +1,0 @@
-ALTER TABLE "vehicle_profiles" ADD COLUMN "climate" jsonb;
