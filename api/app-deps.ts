@@ -1,5 +1,6 @@
 import type { ElevationSampler } from '@shared/engine/analyse-route';
 import type { RouteAnalyser } from './analysis/analysis-pool';
+import type { AppRuntime } from './app-runtime';
 import type { Config } from './config';
 import type { Database } from './db/client';
 
@@ -11,4 +12,9 @@ export interface AppDeps {
   sampleElevations?: ElevationSampler;
   /** Runs one route analysis (on the worker threads unless a caller passes its own). */
   analyse?: RouteAnalyser;
+  /**
+   * The process's long-lived parts (terrain runtime, job queues), shared by reference by every
+   * copy of these dependencies; made on first use when absent (api/app-runtime.ts).
+   */
+  runtime?: AppRuntime;
 }

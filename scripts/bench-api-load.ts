@@ -12,7 +12,12 @@
  * already in the server's caches) at 50 connections. Each load runs `runs` times (default 3) for
  * `seconds` (default 10); the table gives the range over the runs. The server's resident memory
  * is read before and after, and the machine's load average is printed, because the machine is
- * shared and every figure moves with it.
+ * shared and every figure moves with it; the server's CPU time per answer (from /proc) is printed
+ * too, as it moves much less with the machine's other work than requests per second do.
+ *
+ * BENCH_LOADS=routes,vehicles runs only the loads whose name holds one of those words;
+ * BENCH_CPU_PROF=<folder> has the server write a V8 CPU profile there when it stops (open it in
+ * Chromium's DevTools, Performance panel), to see where a request's time goes.
  */
 import { cpus, loadavg } from 'node:os';
 import { readFileSync } from 'node:fs';
@@ -34,6 +39,11 @@ interface Load {
   body?: string;
 }
 
+const ONLY = (process.env['BENCH_LOADS'] ?? '').split(',').map((word) => word.trim()).filter(Boolean);
+const CPU_PROF = process.env['BENCH_CPU_PROF'];
+
+if (CPU_PROF) process.env['SCRATCH_NODE_ARGS'] = `--cpu-prof --cpu-prof-dir=${CPU_PROF}`;
+
 const instance = await startScratchInstance('descentry_bench_api');
 try {
   console.log('loading the demo into the scratch instance…');
@@ -46,7 +56,7 @@ try {
   const body = JSON.stringify(straightDescentPreview(ROUTE_KM));
   const { terrainTile, baseTile } = await demoTiles(instance, cookie);
 
-  const loads: Load[] = [
+  const allLoads: Load[] = [
     ...[20, 50].flatMap((connections) =>
       ['/api/routes', '/api/scenarios', '/api/vehicles'].map((path) => ({ name: `GET ${path}`, path, connections })),
     ),
@@ -56,6 +66,7 @@ try {
     { name: 'GET base-map tile (cached)', path: baseTile, connections: 50 },
   ];
 
+  const loads = ONLY.length ? allLoads.filter((load) => ONLY.some((word) => load.name.includes(word))) : allLoads;
   const rssBefore = rssMb(instance);
   const loadBefore = loadavg();
   console.log(`server RSS before: ${rssBefore.toFixed(0)} MB; load average ${loadBefore.map((v) => v.toFixed(2)).join(' ')} on ${cpus().length} cores`);
@@ -64,15 +75,19 @@ try {
     // One answer while the server is idle, for its size on the wire.
     const bytes = await answerBytes(instance.baseUrl, load, load.perPerson ? previewers[0]! : cookie);
     const results: autocannon.Result[] = [];
+    const cpuPerRequest: number[] = [];
     for (let run = 0; run < RUNS; run++) {
-      results.push(load.perPerson ? await crowd(instance.baseUrl, load, previewers) : await cannon(instance.baseUrl, load, cookie));
+      const cpuBefore = cpuMs(instance);
+      const result = load.perPerson ? await crowd(instance.baseUrl, load, previewers) : await cannon(instance.baseUrl, load, cookie);
+      results.push(result);
+      cpuPerRequest.push(((cpuMs(instance) - cpuBefore) * 1_000) / Math.max(1, result['2xx']));
     }
     const refused = results.reduce((sum, r) => sum + statusCount(r, 429) + statusCount(r, 503), 0);
     const failed = results.reduce((sum, r) => sum + r.errors + r.timeouts + r.non2xx, 0) - refused;
     rows.push(
       `| ${load.name} | ${load.connections} | ${range(results.map((r) => r['2xx'] / SECONDS), 0)} | ` +
         `${range(results.map((r) => r.latency.p50), 0)} ms | ${range(results.map((r) => r.latency.p99), 0)} ms | ` +
-        `${failed} | ${refused} | ${bytes} |`,
+        `${failed} | ${refused} | ${range(cpuPerRequest, 0)} µs | ${bytes} |`,
     );
     console.log(rows.at(-1));
   }
@@ -81,8 +96,8 @@ try {
 
   console.log(`\n${RUNS} runs of ${SECONDS} s each; this machine: ${cpus().length} cores; ` +
     `load average ${loadBefore[0]!.toFixed(1)} before, ${loadAfter[0]!.toFixed(1)} after`);
-  console.log('| load | connections | answered/s (2xx) | p50 | p99 | errors (all runs) | refused 429/503 (all runs) | answer on the wire |');
-  console.log('| --- | ---: | ---: | ---: | ---: | ---: | ---: | ---: |');
+  console.log('| load | connections | answered/s (2xx) | p50 | p99 | errors (all runs) | refused 429/503 (all runs) | server CPU per answer | answer on the wire |');
+  console.log('| --- | ---: | ---: | ---: | ---: | ---: | ---: | ---: | ---: |');
   for (const row of rows) console.log(row);
   console.log(`\nServer RSS: ${rssBefore.toFixed(0)} MB before, ${rssAfter.toFixed(0)} MB after.`);
 } finally {
@@ -184,6 +199,17 @@ async function demoTiles(scratch: ScratchInstance, cookie: string) {
     if (!response.ok || bytes === 0) throw new Error(`${path}: ${response.status}, ${bytes} bytes`);
   }
   return { terrainTile, baseTile };
+}
+
+/**
+ * CPU time the server process (all its threads) has used so far, ms. Divided by the answers of a
+ * run it gives the cost of one answer, which moves far less than requests per second when other
+ * processes share the cores.
+ */
+function cpuMs(scratch: ScratchInstance): number {
+  const fields = readFileSync(`/proc/${scratch.server.pid}/stat`, 'utf8').replace(/^.*\) /, '').split(' ');
+  // utime and stime are fields 14 and 15 of stat, in clock ticks (100 per second on Linux).
+  return ((Number(fields[11]) + Number(fields[12])) * 1_000) / 100;
 }
 
 function rssMb(scratch: ScratchInstance): number {

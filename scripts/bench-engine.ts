@@ -1,7 +1,12 @@
 /**
  * Benchmark of the calculation engine: full analysis (resampling, smoothing, speed profile,
- * forces, battery, brake heat, descents with both advice solvers) of synthetic mountain routes
- * with elevations given, at 10 m spacing. Prints a markdown table of median and spread over N runs.
+ * forces, battery, brake heat, descents with both advice solvers, and the safety-grade
+ * assessment of every descent: the worst credible case run over the whole route with its own
+ * advice solve, and the sensitivity replays) of synthetic mountain routes with elevations given,
+ * at 10 m spacing. Prints a markdown table of median and spread over N runs; the columns
+ * "with worst case" and "sensitivity rows" count what each timed analysis carried, so a table that
+ * leaves the safety work out cannot pass for one that includes it. Target: under 50 ms median
+ * for 50 km.
  *
  *   node --import tsx scripts/bench-engine.ts [runs]
  */
@@ -51,8 +56,8 @@ function median(values: number[]): number {
 
 async function main(): Promise<void> {
   const lines = [
-    '| route | points | descents | median ms | min ms | max ms | µs per point |',
-    '| --- | ---: | ---: | ---: | ---: | ---: | ---: |',
+    '| route | points | descents | with worst case | sensitivity rows | median ms | min ms | max ms | µs per point |',
+    '| --- | ---: | ---: | ---: | ---: | ---: | ---: | ---: | ---: |',
   ];
   for (const lengthKm of [1, 10, 50, 200]) {
     const request = syntheticRoute(lengthKm);
@@ -67,11 +72,14 @@ async function main(): Promise<void> {
     }
     const points = first.profile.distanceM.length;
     const med = median(times);
+    const withWorstCase = first.descents.filter((descent) => descent.worstCase !== undefined).length;
+    const sensitivityRows = first.descents.reduce((sum, descent) => sum + (descent.sensitivity?.length ?? 0), 0);
     lines.push(
-      `| ${lengthKm} km | ${points} | ${first.descents.length} | ${med.toFixed(2)} | ${Math.min(...times).toFixed(2)} | ${Math.max(...times).toFixed(2)} | ${((med * 1_000) / points).toFixed(2)} |`,
+      `| ${lengthKm} km | ${points} | ${first.descents.length} | ${withWorstCase} | ${sensitivityRows} | ${med.toFixed(2)} | ${Math.min(...times).toFixed(2)} | ${Math.max(...times).toFixed(2)} | ${((med * 1_000) / points).toFixed(2)} |`,
     );
   }
-  console.log(`Engine benchmark, ${runs} runs per route (200 km: fewer), Node ${process.version}\n`);
+  const { loadavg } = await import('node:os');
+  console.log(`Engine benchmark, ${runs} runs per route (200 km: fewer), Node ${process.version}, load average ${loadavg().map((v) => v.toFixed(1)).join(' ')}\n`);
   console.log(lines.join('\n'));
 }
 

@@ -24,7 +24,7 @@ import { request as httpRequest } from 'node:http';
 import { join } from 'node:path';
 import postgres from 'postgres';
 import { SMTPServer } from 'smtp-server';
-import { writeFloat32GeoTiff } from '../api/terrain/geotiff-writer';
+import { writeFloat32GeoTiff } from '../api/terrain/raster/geotiff-writer';
 import { addPeople, freePort, restartDatabaseCluster, signIn, startScratchInstance, type ScratchInstance } from './scratch-instance';
 
 interface Outcome {

@@ -12,6 +12,7 @@ import { hash } from '@node-rs/argon2';
 import postgres from 'postgres';
 // @ts-expect-error: plain JavaScript module of the project's scripts
 import { databaseUrl, ensureDatabase, pgSettings, startDatabase } from './db.mjs';
+import { LADEN_12M_BUS } from '../spec/support/vehicle-fixtures';
 
 export const SCRATCH_PASSWORD = 'scratch-instance-password';
 
@@ -64,7 +65,9 @@ export async function startScratchInstance(name: string, extraEnv: Record<string
   };
   let current: ChildProcess;
   const launch = async (more: Record<string, string> = {}) => {
-    current = spawn(process.execPath, ['dist/api/main.mjs'], { env: { ...process.env, ...env, ...more }, stdio: ['ignore', 'pipe', 'pipe'] });
+    // SCRATCH_NODE_ARGS: extra Node flags for the server, e.g. `--cpu-prof --cpu-prof-dir=…` to profile it.
+    const nodeArgs = (process.env['SCRATCH_NODE_ARGS'] ?? '').split(' ').filter(Boolean);
+    current = spawn(process.execPath, [...nodeArgs, 'dist/api/main.mjs'], { env: { ...process.env, ...env, ...more }, stdio: ['ignore', 'pipe', 'pipe'] });
     current.stdout?.on('data', () => undefined);
     current.stderr?.on('data', () => undefined);
     await waitForHealth(`http://127.0.0.1:${port}`, current);
@@ -173,21 +176,7 @@ export function straightDescentPreview(routeKm: number) {
   const coordinates = Array.from({ length: 41 }, (_, i) => [9.5 + (i / 40) * (routeKm / 76.4), 46.5, 1800 - i * 30]);
   return {
     route: { type: 'LineString', coordinates },
-    vehicle: {
-      curbMassKg: 13_500,
-      payloadKg: 5_500,
-      frontalAreaM2: 8,
-      dragCoefficient: 0.7,
-      rollingResistanceCoefficient: 0.007,
-      rotatingMassFactor: 0.05,
-      tractionPowerW: 250_000,
-      regenPowerW: 200_000,
-      drivetrainEfficiency: 0.889,
-      regenEfficiency: 0.862,
-      batteryCapacityWh: 350_000,
-      maxChargePowerW: 200_000,
-      auxPowerW: 15_000,
-    },
+    vehicle: LADEN_12M_BUS,
     options: { spacingM: 1 },
   };
 }

@@ -5,7 +5,7 @@ import { MessageChannel } from 'node:worker_threads';
 import { Piscina } from 'piscina';
 import type { PreviewRequestInput, PreviewResponse, ProfileView } from '@shared/domain/analysis';
 import type { ElevationSampler } from '@shared/engine/analyse-route';
-import { EngineInputError, RouteTooLargeError, UncoveredTerrainError } from '@shared/engine/validation';
+import { EngineInputError, MissingElevationError, RouteTooLargeError, UncoveredTerrainError } from '@shared/engine/validation';
 import { HttpError } from '../http/http-error';
 import type { AnalysisTask, AnalysisTaskResult, ElevationAnswer, ElevationQuestion, EngineRefusal } from './analysis-task';
 
@@ -140,6 +140,7 @@ export function reviveRefusal(refusal: EngineRefusal): EngineInputError {
   if (refusal.kind === 'too-large') {
     return new RouteTooLargeError(refusal.lengthM, refusal.pointCount, refusal.spacingM, refusal.maxLengthM, refusal.maxPoints);
   }
+  if (refusal.kind === 'missing-elevation') return new MissingElevationError();
   const error = new EngineInputError(refusal.field, '');
   error.message = refusal.message;
   if (refusal.kind === 'uncovered') {

@@ -13,7 +13,7 @@ import { Piscina } from 'piscina';
 import type { PreviewRequestInput, PreviewResponse, ProfileView } from '@shared/domain/analysis';
 import { analyseRoute } from '@shared/engine/analyse-route';
 import { viewProfile } from '@shared/engine/profile-view';
-import { EngineInputError, RouteTooLargeError, UncoveredTerrainError } from '@shared/engine/validation';
+import { EngineInputError, MissingElevationError, RouteTooLargeError, UncoveredTerrainError } from '@shared/engine/validation';
 
 export interface AnalysisTask {
   request: PreviewRequestInput;
@@ -28,6 +28,7 @@ export interface AnalysisTask {
 /** An engine refusal as data, enough to raise the same error again on the API thread. */
 export type EngineRefusal =
   | { kind: 'input'; field: string; message: string }
+  | { kind: 'missing-elevation'; field: string; message: string }
   | { kind: 'uncovered'; field: string; message: string; stretches: UncoveredTerrainError['stretches'] }
   | {
       kind: 'too-large';
@@ -93,6 +94,7 @@ function askForElevations(port: MessagePort, points: [number, number][]): Promis
 }
 
 function describeRefusal(error: EngineInputError): EngineRefusal {
+  if (error instanceof MissingElevationError) return { kind: 'missing-elevation', field: error.field, message: error.message };
   if (error instanceof UncoveredTerrainError) {
     return { kind: 'uncovered', field: error.field, message: error.message, stretches: error.stretches };
   }

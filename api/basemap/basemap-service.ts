@@ -4,7 +4,8 @@ import type { User } from '@shared/domain/auth';
 import { DEFAULT_BASEMAP_ATTRIBUTION, type BasemapList, type BasemapUploadAccepted } from '@shared/domain/basemap';
 import type { AppDeps } from '../app-deps';
 import { HttpError } from '../http/http-error';
-import { createInlineJobQueue, jobQueueOf, type JobPolicy, type JobQueue } from '../jobs/job-queue';
+import { runtimeOf } from '../app-runtime';
+import { type JobPolicy, type JobQueue } from '../jobs/job-queue';
 import { activeBasemap } from './active-basemap';
 import { BASEMAP_IMPORT_JOB, retireOldImports, runBasemapImport, type BasemapImportJob } from './basemap-import';
 import {
@@ -110,22 +111,12 @@ export async function registerBasemapWorkers(deps: AppDeps, queue: JobQueue): Pr
 /** A country-sized extract takes a long while; a lost job is handed out again after 3 hours. */
 export const BASEMAP_IMPORT_POLICY: JobPolicy = { expireInSeconds: 3 * 60 * 60, retryLimit: 0 };
 
-const inlineQueues = new WeakMap<object, ReturnType<typeof createInlineJobQueue>>();
-
 /** The app's job queue, or (tests, the demo seed) an in-process queue with the import worker on it. */
-async function basemapJobs(deps: AppDeps): Promise<JobQueue> {
-  const attached = jobQueueOf(deps.db);
-  if (attached) return attached;
-  let queue = inlineQueues.get(deps.db);
-  if (!queue) {
-    queue = createInlineJobQueue();
-    await registerBasemapWorkers(deps, queue);
-    inlineQueues.set(deps.db, queue);
-  }
-  return queue;
+function basemapJobs(deps: AppDeps): Promise<JobQueue> {
+  return runtimeOf(deps).jobsFor('basemap', (queue) => registerBasemapWorkers(deps, queue));
 }
 
 /** Resolves when in-process imports have finished (tests and the demo seed). */
 export async function waitForInlineBasemapJobs(deps: AppDeps): Promise<void> {
-  await inlineQueues.get(deps.db)?.idle();
+  await runtimeOf(deps).inlineJobsIdle('basemap');
 }

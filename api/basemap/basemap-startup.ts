@@ -1,5 +1,5 @@
 import type { AppDeps } from '../app-deps';
-import { jobQueueOf } from '../jobs/job-queue';
+import { jobQueueOf } from '../app-runtime';
 import { recoverBasemaps, registerBasemapWorkers } from './basemap-service';
 import { registerRoadGraphWorkers } from '../road-graph/road-graph-jobs';
 
@@ -9,7 +9,7 @@ import { registerRoadGraphWorkers } from '../road-graph/road-graph-jobs';
  * startTerrain.
  */
 export async function startBasemap(deps: AppDeps): Promise<void> {
-  const queue = jobQueueOf(deps.db);
+  const queue = jobQueueOf(deps);
   if (!queue || !deps.config.RUN_WORKERS) return;
   await registerBasemapWorkers(deps, queue);
   await registerRoadGraphWorkers(deps, queue);

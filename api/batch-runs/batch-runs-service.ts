@@ -5,13 +5,13 @@
  * failed with its reason; the others carry on.
  */
 import { randomUUID } from 'node:crypto';
-import { and, asc, eq, isNull } from 'drizzle-orm';
 import type { User } from '@shared/domain/auth';
 import type { BatchRun } from '@shared/domain/board-summary';
 import type { AppDeps } from '../app-deps';
-import { scenarios } from '../db/schema/index';
 import { ConflictError, NotFoundError } from '../http/http-error';
-import { createInlineJobQueue, jobQueueOf, type JobPolicy, type JobQueue } from '../jobs/job-queue';
+import { jobQueueOf, runtimeOf } from '../app-runtime';
+import { type JobPolicy, type JobQueue } from '../jobs/job-queue';
+import { listInServiceScenarioNames } from '../scenarios/scenarios-repository';
 import * as repository from './batch-runs-repository';
 import { runScenarioForBatch, type BatchScenarioRunner } from './scenario-runner';
 
@@ -32,11 +32,7 @@ export interface BatchRunJob {
 }
 
 export async function startBatchRun(deps: AppDeps, user: User): Promise<BatchRun> {
-  const inService = await deps.db
-    .select({ id: scenarios.id, name: scenarios.name })
-    .from(scenarios)
-    .where(and(eq(scenarios.inService, true), isNull(scenarios.deletedAt)))
-    .orderBy(asc(scenarios.name));
+  const inService = await listInServiceScenarioNames(deps.db);
   if (inService.length === 0) {
     throw new ConflictError('No scenario is marked in service; mark scenarios in service before a network-wide run', 'nothing_in_service');
   }
@@ -140,24 +136,14 @@ export async function registerBatchRunWorkers(deps: AppDeps, queue: JobQueue, ru
   await queue.registerWorker<BatchRunJob>(BATCH_RUN_JOB, (job) => runBatchItem(deps, job, runScenario), BATCH_RUN_JOB_POLICY);
 }
 
-const inlineQueues = new WeakMap<object, ReturnType<typeof createInlineJobQueue>>();
-
 /** The app's job queue, or (tests, CLI tools) an in-process queue with the batch worker on it. */
-async function batchJobs(deps: AppDeps): Promise<JobQueue> {
-  const attached = jobQueueOf(deps.db);
-  if (attached) return attached;
-  let queue = inlineQueues.get(deps.db);
-  if (!queue) {
-    queue = createInlineJobQueue();
-    await registerBatchRunWorkers(deps, queue);
-    inlineQueues.set(deps.db, queue);
-  }
-  return queue;
+function batchJobs(deps: AppDeps): Promise<JobQueue> {
+  return runtimeOf(deps).jobsFor('batch-runs', (queue) => registerBatchRunWorkers(deps, queue));
 }
 
 /** Resolves when in-process batch jobs have finished (tests and the demo seed). */
 export async function waitForInlineBatchJobs(deps: AppDeps): Promise<void> {
-  await inlineQueues.get(deps.db)?.idle();
+  await runtimeOf(deps).inlineJobsIdle('batch-runs');
 }
 
 /**
@@ -165,7 +151,7 @@ export async function waitForInlineBatchJobs(deps: AppDeps): Promise<void> {
  * after the queue is attached, and api/worker.ts).
  */
 export async function startBatchRunWorkers(deps: AppDeps): Promise<void> {
-  const queue = jobQueueOf(deps.db);
+  const queue = jobQueueOf(deps);
   if (!queue) throw new Error('Attach the job queue (startTerrain) before starting the batch workers');
   if (deps.config.RUN_WORKERS) await registerBatchRunWorkers(deps, queue);
 }

@@ -15,6 +15,7 @@ import { annualise } from '@shared/engine/summary';
 import type { Executor } from '../db/client';
 import { reviewItems, roadRouteVersions, roadRoutes, scenarios, vehicleProfiles } from '../db/schema/index';
 import { matchStretches } from '../reviews/review-workflow';
+import { readScenarioResult } from '../scenarios/scenarios-repository';
 import { readNetworkSettings } from './network-settings';
 
 /** How many descents the summary lists, steepest mean grade first. */
@@ -84,7 +85,9 @@ async function inServiceScenarios(db: Executor) {
       direction: scenarios.direction,
       computedAt: scenarios.computedAt,
       summary: scenarios.summary,
+      riskCounts: scenarios.riskCounts,
       directionResults: scenarios.directionResults,
+      resultVersion: scenarios.resultVersion,
       vehicleProfileName: vehicleProfiles.name,
       routeName: roadRouteVersions.name,
       // The route's current schedule: trips per day change without changing the physics.
@@ -101,7 +104,10 @@ async function inServiceScenarios(db: Executor) {
     .where(and(eq(scenarios.inService, true), isNull(scenarios.deletedAt), isNotNull(scenarios.summary), isNotNull(scenarios.computedAt)))
     .orderBy(scenarios.routeId, desc(scenarios.computedAt), desc(scenarios.updatedAt));
   return rows
-    .map((row) => ({ ...row, summary: row.summary!, computedAt: row.computedAt!, directionResults: row.directionResults ?? [] }))
+    .map((row) => {
+      const stored = readScenarioResult({ ...row, id: row.scenarioId });
+      return { ...row, summary: stored?.summary ?? row.summary!, computedAt: row.computedAt!, directionResults: stored?.directions ?? [] };
+    })
     .sort((a, b) => a.routeName.localeCompare(b.routeName));
 }
 

@@ -7,7 +7,6 @@
  * using the profile stale; those scenarios are then re-run as one network run. Rejecting keeps
  * the fit on record and the profile as it was.
  */
-import { and, desc, eq, isNull } from 'drizzle-orm';
 import type { User } from '@shared/domain/auth';
 import type { Calibration, CalibrationRequest, CalibrationResult } from '@shared/domain/calibrations';
 import { vehicleSchema, type Vehicle } from '@shared/domain/analysis';
@@ -19,13 +18,16 @@ import {
   type FitParameter,
 } from '@shared/engine/calibration-fit';
 import type { AppDeps } from '../app-deps';
-import { calibrations, scenarios, type CalibrationRow } from '../db/schema/index';
+import type { CalibrationRow } from '../db/schema/index';
 import { startScenarioReruns } from '../batch-runs/batch-runs-service';
 import { BadRequestError, ConflictError, NotFoundError } from '../http/http-error';
-import { createInlineJobQueue, jobQueueOf, type JobQueue } from '../jobs/job-queue';
+import { jobQueueOf, runtimeOf } from '../app-runtime';
+import { type JobQueue } from '../jobs/job-queue';
 import * as trips from '../logged-trips/logged-trips-repository';
+import { listScenarioNamesOfProfile } from '../scenarios/scenarios-repository';
 import { alignedTrip, nearestSeason, replayTrip, startBrakeTempC, tripVehicle } from '../logged-trips/trip-replay';
 import * as profiles from '../vehicle-profiles/vehicle-profiles-repository';
+import * as repository from './calibrations-repository';
 
 export const CALIBRATION_JOB = 'vehicle-calibration-fit';
 /** The parameters fitted when the request names none (payload and brakes added where the trips call for them). */
@@ -68,29 +70,22 @@ export async function requestCalibration(deps: AppDeps, user: User, vehicleProfi
   } else {
     fit = [...DEFAULT_FIT, ...(anyUnknownPayload ? (['payloadKg'] as const) : []), ...(anyBrake ? BRAKE_FIT_PARAMETERS : [])];
   }
-  const [row] = await deps.db
-    .insert(calibrations)
-    .values({
-      vehicleProfileId,
-      profileVersion: profileRow.version,
-      loggedTrips: ids.map((id) => ({ id, name: rows.find((trip) => trip.id === id)!.name })),
-      parameters: fit,
-      createdById: user.id,
-      createdByName: user.name,
-    })
-    .returning();
+  const row = await repository.insertCalibration(deps.db, {
+    vehicleProfileId,
+    profileVersion: profileRow.version,
+    loggedTrips: ids.map((id) => ({ id, name: rows.find((trip) => trip.id === id)!.name })),
+    parameters: fit,
+    createdById: user.id,
+    createdByName: user.name,
+  });
   const queue = await calibrationJobs(deps);
-  await queue.send(CALIBRATION_JOB, { calibrationId: row!.id }, { retryLimit: 1, expireInSeconds: 15 * 60 });
-  return toCalibration(row!, profileRow.name);
+  await queue.send(CALIBRATION_JOB, { calibrationId: row.id }, { retryLimit: 1, expireInSeconds: 15 * 60 });
+  return toCalibration(row, profileRow.name);
 }
 
 /** Runs one fit. Idempotent: a calibration another worker took or finished is left alone. */
 export async function runCalibrationJob(deps: AppDeps, calibrationId: string): Promise<void> {
-  const [claimed] = await deps.db
-    .update(calibrations)
-    .set({ status: 'running', startedAt: new Date(), failureReason: null })
-    .where(and(eq(calibrations.id, calibrationId), eq(calibrations.status, 'queued')))
-    .returning();
+  const claimed = await repository.claimQueuedCalibration(deps.db, calibrationId);
   if (!claimed) return;
   let result: CalibrationResult | null = null;
   let failureReason: string | null = null;
@@ -102,10 +97,7 @@ export async function runCalibrationJob(deps: AppDeps, calibrationId: string): P
     console.error(`[calibrations] fit ${calibrationId} failed:`, error);
     failureReason = error instanceof Error ? error.message : String(error);
   }
-  await deps.db
-    .update(calibrations)
-    .set({ status: result ? 'done' : 'failed', result, failureReason, finishedAt: new Date() })
-    .where(eq(calibrations.id, calibrationId));
+  await repository.finishCalibration(deps.db, calibrationId, { result, failureReason });
 }
 
 async function fitFor(deps: AppDeps, calibration: CalibrationRow): Promise<CalibrationResult> {
@@ -144,7 +136,7 @@ async function fitFor(deps: AppDeps, calibration: CalibrationRow): Promise<Calib
 }
 
 export async function getCalibration(deps: Pick<AppDeps, 'db'>, id: string): Promise<Calibration> {
-  const [row] = await deps.db.select().from(calibrations).where(eq(calibrations.id, id));
+  const row = await repository.findCalibration(deps.db, id);
   if (!row) throw new NotFoundError('The calibration');
   const profile = await profiles.findProfile(deps.db, row.vehicleProfileId);
   return toCalibration(row, profile?.name ?? '');
@@ -153,7 +145,7 @@ export async function getCalibration(deps: Pick<AppDeps, 'db'>, id: string): Pro
 export async function listCalibrations(deps: Pick<AppDeps, 'db'>, vehicleProfileId: string) {
   const profile = await profiles.findProfile(deps.db, vehicleProfileId);
   if (!profile) throw new NotFoundError('The vehicle profile');
-  const rows = await deps.db.select().from(calibrations).where(eq(calibrations.vehicleProfileId, vehicleProfileId)).orderBy(desc(calibrations.createdAt));
+  const rows = await repository.listCalibrationsOfProfile(deps.db, vehicleProfileId);
   return rows.map((row) => {
     const { residuals: _residuals, result: _result, ...rest } = toCalibration(row, profile.name);
     return rest;
@@ -198,7 +190,7 @@ export function calibratedDraft(profile: VehicleProfile, result: CalibrationResu
 export async function acceptCalibration(deps: AppDeps, user: User, id: string): Promise<Calibration> {
   const author = { id: user.id, name: user.name };
   const { row, profileName } = await deps.db.transaction(async (tx) => {
-    const [calibration] = await tx.select().from(calibrations).where(eq(calibrations.id, id)).for('update');
+    const calibration = await repository.lockCalibration(tx, id);
     if (!calibration) throw new NotFoundError('The calibration');
     assertUndecided(calibration);
     if (calibration.status !== 'done' || !calibration.result) {
@@ -220,38 +212,26 @@ export async function acceptCalibration(deps: AppDeps, user: User, id: string): 
       acceptedBy: user.name,
       loggedTrips: calibration.loggedTrips,
     });
-    const [updated] = await tx
-      .update(calibrations)
-      .set({ decision: 'accepted', decidedAt, decidedByName: user.name, acceptedVersion: saved.version })
-      .where(eq(calibrations.id, id))
-      .returning();
-    return { row: updated!, profileName: saved.name };
+    const updated = await repository.markCalibrationAccepted(tx, id, { decidedAt, decidedByName: user.name, acceptedVersion: saved.version });
+    return { row: updated, profileName: saved.name };
   });
 
   // Every scenario of the profile is stale now: re-run them all as one network run.
-  const using = await deps.db
-    .select({ id: scenarios.id, name: scenarios.name })
-    .from(scenarios)
-    .where(eq(scenarios.vehicleProfileId, row.vehicleProfileId))
-    .orderBy(scenarios.name);
+  const using = await listScenarioNamesOfProfile(deps.db, row.vehicleProfileId);
   if (using.length === 0) return toCalibration(row, profileName);
   const batch = await startScenarioReruns(deps, author, using, `Vehicle profile “${profileName}” version ${row.acceptedVersion} accepted from a calibration`);
-  const [withRerun] = await deps.db.update(calibrations).set({ rerunBatchId: batch.id }).where(eq(calibrations.id, id)).returning();
+  const withRerun = await repository.setCalibrationRerun(deps.db, id, batch.id);
   return toCalibration(withRerun ?? row, profileName);
 }
 
 export async function rejectCalibration(deps: Pick<AppDeps, 'db'>, user: User, id: string): Promise<Calibration> {
-  const [calibration] = await deps.db.select().from(calibrations).where(eq(calibrations.id, id));
+  const calibration = await repository.findCalibration(deps.db, id);
   if (!calibration) throw new NotFoundError('The calibration');
   assertUndecided(calibration);
   if (calibration.status === 'queued' || calibration.status === 'running') {
     throw new ConflictError('The fit is still running; wait for it to finish before rejecting it', 'calibration_not_done');
   }
-  const [row] = await deps.db
-    .update(calibrations)
-    .set({ decision: 'rejected', decidedAt: new Date(), decidedByName: user.name })
-    .where(and(eq(calibrations.id, id), isNull(calibrations.decision)))
-    .returning();
+  const row = await repository.markCalibrationRejected(deps.db, id, user.name);
   if (!row) throw new ConflictError('The calibration was decided meanwhile', 'calibration_decided');
   const profile = await profiles.findProfile(deps.db, row.vehicleProfileId);
   return toCalibration(row, profile?.name ?? '');
@@ -300,29 +280,19 @@ export async function registerCalibrationWorkers(deps: AppDeps, queue: JobQueue)
   });
 }
 
-const inlineQueues = new WeakMap<object, ReturnType<typeof createInlineJobQueue>>();
-
 /** The app's job queue, or (tests, the demo seed) an in-process queue with the calibration worker on it. */
-async function calibrationJobs(deps: AppDeps): Promise<JobQueue> {
-  const attached = jobQueueOf(deps.db);
-  if (attached) return attached;
-  let queue = inlineQueues.get(deps.db);
-  if (!queue) {
-    queue = createInlineJobQueue();
-    await registerCalibrationWorkers(deps, queue);
-    inlineQueues.set(deps.db, queue);
-  }
-  return queue;
+function calibrationJobs(deps: AppDeps): Promise<JobQueue> {
+  return runtimeOf(deps).jobsFor('calibrations', (queue) => registerCalibrationWorkers(deps, queue));
 }
 
 /** Resolves when in-process calibration jobs have finished (tests and the demo seed). */
 export async function waitForInlineCalibrationJobs(deps: AppDeps): Promise<void> {
-  await inlineQueues.get(deps.db)?.idle();
+  await runtimeOf(deps).inlineJobsIdle('calibrations');
 }
 
 /** Puts the calibration worker on the process's job queue when this process runs workers. */
 export async function startCalibrationWorkers(deps: AppDeps): Promise<void> {
-  const queue = jobQueueOf(deps.db);
+  const queue = jobQueueOf(deps);
   if (!queue) throw new Error('Attach the job queue (startTerrain) before starting the calibration workers');
   if (deps.config.RUN_WORKERS) await registerCalibrationWorkers(deps, queue);
 }

@@ -3,6 +3,7 @@ import type { AppDeps } from '../app-deps';
 import { ensureNetworkSettings } from '../board/network-settings';
 import { scenarios } from '../db/schema/index';
 import { syncReviewItems } from '../reviews/review-sync';
+import { readScenarioResult } from '../scenarios/scenarios-repository';
 
 /**
  * The board's placeholder factors, and the review items of the demo's computed scenarios. New
@@ -16,8 +17,10 @@ export async function seedDemoReviews(deps: AppDeps): Promise<void> {
     .from(scenarios)
     .where(and(isNotNull(scenarios.seedKey), isNotNull(scenarios.directionResults), isNotNull(scenarios.computedAt)));
   for (const scenario of seeded) {
+    const stored = readScenarioResult(scenario);
+    if (!stored) continue;
     await deps.db.transaction((tx) =>
-      syncReviewItems(tx, scenario, { computedAt: scenario.computedAt!, directions: scenario.directionResults! }, { publicUrl: deps.config.PUBLIC_URL }),
+      syncReviewItems(tx, scenario, { computedAt: scenario.computedAt!, directions: stored.directions }, { publicUrl: deps.config.PUBLIC_URL }),
     );
   }
 }

@@ -1,7 +1,7 @@
-import { sql } from 'drizzle-orm';
 import { z } from 'zod';
 import type { AppDeps } from '../app-deps';
 import { endpoint } from '../http/endpoint';
+import { pingDatabase } from './health-repository';
 
 const healthSchema = z.object({ status: z.enum(['ok', 'degraded']), db: z.enum(['ok', 'down']) });
 
@@ -20,7 +20,7 @@ export function healthEndpoints({ db }: AppDeps) {
       handler: async ({ res }) => {
         try {
           await Promise.race([
-            db.execute(sql`select 1`),
+            pingDatabase(db),
             new Promise((_, reject) => setTimeout(() => reject(new Error('timeout')), 2000)),
           ]);
           res.json({ status: 'ok', db: 'ok' });

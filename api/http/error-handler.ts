@@ -1,6 +1,7 @@
 import type { ErrorRequestHandler, RequestHandler } from 'express';
 import { z } from 'zod';
 import type { ApiError } from '@shared/domain/api-error';
+import { EngineInputError } from '@shared/engine/validation';
 import { databaseErrorCode, isDatabaseUnavailable } from '../db/errors';
 import { HttpError } from './http-error';
 
@@ -68,8 +69,9 @@ export const errorHandler: ErrorRequestHandler = (error: unknown, req, res, _nex
     } satisfies ApiError);
     return;
   }
-  if (error instanceof RangeError && 'field' in error) {
-    // The calculation engine names the offending field in a RangeError.
+  if (error instanceof EngineInputError) {
+    // The calculation engine names the offending field; refusals an endpoint answers otherwise
+    // (terrain gaps, routes too large: 422) are mapped where they are caught.
     res.status(400).json({
       error: { code: 'invalid_input', message: error.message, details: { field: error.field } },
     } satisfies ApiError);

@@ -109,7 +109,10 @@ export async function startJobQueue(databaseUrl: string): Promise<JobQueue> {
  * and command-line tools (the demo seed) that have no worker process to hand the job to.
  * `idle()` resolves when every job sent so far has finished.
  */
-export function createInlineJobQueue(): JobQueue & { idle(): Promise<void> } {
+/** An in-process queue; `idle()` resolves when every job sent so far has finished. */
+export type InlineJobQueue = JobQueue & { idle(): Promise<void> };
+
+export function createInlineJobQueue(): InlineJobQueue {
   const handlers = new Map<string, (data: never, jobId: string) => Promise<void>>();
   const running = new Set<Promise<void>>();
   const states = new Map<string, { state: JobState; startedOn: Date | null }>();
@@ -148,19 +151,4 @@ export function createInlineJobQueue(): JobQueue & { idle(): Promise<void> } {
       await Promise.all([...running]);
     },
   };
-}
-
-const attached = new WeakMap<object, JobQueue>();
-
-/**
- * Makes `queue` the job queue of everything built on this database handle (api/main.ts calls it
- * once at start-up). Features look it up with `jobQueueOf(db)`; without one they run their jobs
- * in-process (tests, command-line tools).
- */
-export function attachJobQueue(db: object, queue: JobQueue): void {
-  attached.set(db, queue);
-}
-
-export function jobQueueOf(db: object): JobQueue | undefined {
-  return attached.get(db);
 }

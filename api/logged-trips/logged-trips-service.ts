@@ -23,7 +23,7 @@ import { comparePointValues, comparePower, replaySeries, replaySteps } from '@sh
 import { alignTrip, describeMatch, matchTrackToLine, prepareTrack, type LineMatch } from '@shared/engine/trip-alignment';
 import { EngineInputError } from '@shared/engine/validation';
 import type { AppDeps } from '../app-deps';
-import { calibrations } from '../db/schema/index';
+import { findCalibration } from '../calibrations/calibrations-repository';
 import { BadRequestError, ConflictError, NotFoundError } from '../http/http-error';
 import { createRoute } from '../road-routes/road-routes-service';
 import * as routes from '../road-routes/road-routes-repository';
@@ -31,7 +31,6 @@ import * as profiles from '../vehicle-profiles/vehicle-profiles-repository';
 import { LoggedTripFileError, parseLoggedTripCsv, type ParsedTrip } from './logged-trip-csv';
 import * as repository from './logged-trips-repository';
 import { alignedTrip, replayTrip, tripVehicle } from './trip-replay';
-import { eq } from 'drizzle-orm';
 import { SPEED_LIMIT_KPH } from '@shared/domain/limits';
 import { mpsToKph } from '@shared/engine/unit-conversions';
 
@@ -320,7 +319,7 @@ export async function compareLoggedTrip(deps: Pick<AppDeps, 'db'>, id: string, c
   let vehicle = tripVehicle(profile, row);
   let basis: ReplayComparison['basis'] = { kind: 'profile', profileVersion: profile.version, calibrationId: null };
   if (calibrationId) {
-    const [calibration] = await deps.db.select().from(calibrations).where(eq(calibrations.id, calibrationId));
+    const calibration = await findCalibration(deps.db, calibrationId);
     if (!calibration || calibration.vehicleProfileId !== row.vehicleProfileId) throw new NotFoundError('The calibration');
     if (!calibration.result) throw new ConflictError('The calibration has no result yet', 'calibration_not_done');
     const fitted = Object.fromEntries([...calibration.result.parameters, ...(calibration.result.brake?.parameters ?? [])].map((p) => [p.key, p.fitted]));

@@ -1,9 +1,8 @@
-import { eq } from 'drizzle-orm';
 import { notificationSettingsSchema } from '@shared/domain/reviews';
 import type { AppDeps } from '../app-deps';
-import { users } from '../db/schema/index';
 import { endpoint } from '../http/endpoint';
 import { notificationSettingsOf } from '../reviews/review-notifications';
+import { findNotificationSettings, saveNotificationSettings } from './notification-settings-repository';
 
 /** The signed-in person's e-mail switches (stored in users.notification_settings). */
 export function notificationSettingsEndpoints(deps: AppDeps) {
@@ -16,11 +15,7 @@ export function notificationSettingsEndpoints(deps: AppDeps) {
       access: 'signed-in',
       responses: { 200: { description: 'Switches (unset ones are on)', schema: notificationSettingsSchema } },
       handler: async ({ user, res }) => {
-        const [row] = await deps.db
-          .select({ notificationSettings: users.notificationSettings })
-          .from(users)
-          .where(eq(users.id, user!.id));
-        res.json(notificationSettingsOf(row?.notificationSettings));
+        res.json(notificationSettingsOf(await findNotificationSettings(deps.db, user!.id)));
       },
     }),
     endpoint({
@@ -32,12 +27,7 @@ export function notificationSettingsEndpoints(deps: AppDeps) {
       body: notificationSettingsSchema.strict(),
       responses: { 200: { description: 'Saved switches', schema: notificationSettingsSchema } },
       handler: async ({ body, user, res }) => {
-        const [row] = await deps.db
-          .update(users)
-          .set({ notificationSettings: body })
-          .where(eq(users.id, user!.id))
-          .returning({ notificationSettings: users.notificationSettings });
-        res.json(notificationSettingsOf(row?.notificationSettings));
+        res.json(notificationSettingsOf(await saveNotificationSettings(deps.db, user!.id, body)));
       },
     }),
   ];

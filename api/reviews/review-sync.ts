@@ -9,6 +9,7 @@ import type { ReviewState } from '@shared/domain/reviews';
 import type { DirectionResult } from '@shared/domain/scenarios';
 import type { Executor } from '../db/client';
 import { reviewEvents, reviewItems, roadRouteVersions, vehicleProfiles, type ReviewItemRow, type ReviewSource } from '../db/schema/index';
+import { readStoredReviewItem, STORED_RESULT_VERSION } from '../results/stored-result';
 import { notifyHighRiskDescent } from './review-notifications';
 import { isHighRisk, riskRank } from '@shared/presentation/risk-styles';
 import { compareWorstFirst, isWorse, matchStretches, needsReview } from './review-workflow';
@@ -86,7 +87,8 @@ export async function syncReviewItems(
         ),
       )
       .orderBy(reviewItems.startM)
-      .for('update');
+      .for('update')
+      .then((rows) => rows.map(readStoredReviewItem));
     const matches = matchStretches(descents, existing);
     const touched = new Set<string>();
 
@@ -154,6 +156,7 @@ function figuresColumns(descent: Descent) {
     riskRank: riskRank(descent.risk),
     peakBrakeTempC: descent.peakBrakeTempC,
     descent,
+    resultVersion: STORED_RESULT_VERSION,
   };
 }
 
@@ -200,7 +203,11 @@ async function updateItem(
   const worst = Object.values(sources).sort((a, b) => compareWorstFirst(a.descent, b.descent))[0];
   if (!worst) {
     // No scenario sees the stretch any more: keep the last figures for the record.
-    const [row] = await tx.update(reviewItems).set({ sources, updatedAt: new Date() }).where(eq(reviewItems.id, item.id)).returning();
+    const [row] = await tx
+      .update(reviewItems)
+      .set({ sources, resultVersion: item.resultVersion, updatedAt: new Date() })
+      .where(eq(reviewItems.id, item.id))
+      .returning();
     return { row: row!, reopened: false };
   }
   const previous = { risk: item.risk, peakBrakeTempC: item.peakBrakeTempC };

@@ -2,6 +2,8 @@ import { and, asc, desc, eq, type SQL } from 'drizzle-orm';
 import type { AuditEvent, ReviewItem, ReviewListQuery } from '@shared/domain/reviews';
 import type { Executor } from '../db/client';
 import { reviewEvents, reviewItems, scenarios, type ReviewEventRow, type ReviewItemRow } from '../db/schema/index';
+import { readStoredReviewItem } from '../results/stored-result';
+import { readScenarioResult } from '../scenarios/scenarios-repository';
 
 export async function listReviewItems(db: Executor, query: ReviewListQuery): Promise<ReviewItemRow[]> {
   const filters: SQL[] = [];
@@ -9,17 +11,18 @@ export async function listReviewItems(db: Executor, query: ReviewListQuery): Pro
   if (query.state) filters.push(eq(reviewItems.state, query.state));
   if (query.routeId) filters.push(eq(reviewItems.routeId, query.routeId));
   if (query.vehicleProfileId) filters.push(eq(reviewItems.vehicleProfileId, query.vehicleProfileId));
-  return db
+  const rows = await db
     .select()
     .from(reviewItems)
     .where(and(...filters))
     .orderBy(desc(reviewItems.riskRank), desc(reviewItems.peakBrakeTempC), asc(reviewItems.raisedAt));
+  return rows.map(readStoredReviewItem);
 }
 
 export async function findReviewItem(db: Executor, reviewId: string, options: { lock?: boolean } = {}) {
   const query = db.select().from(reviewItems).where(eq(reviewItems.id, reviewId));
   const [row] = options.lock ? await query.for('update') : await query;
-  return row;
+  return row && readStoredReviewItem(row);
 }
 
 export async function updateReviewItem(db: Executor, reviewId: string, values: Partial<typeof reviewItems.$inferInsert>) {
@@ -28,7 +31,7 @@ export async function updateReviewItem(db: Executor, reviewId: string, values: P
     .set({ ...values, updatedAt: new Date() })
     .where(eq(reviewItems.id, reviewId))
     .returning();
-  return row!;
+  return readStoredReviewItem(row!);
 }
 
 export async function insertReviewEvent(db: Executor, values: typeof reviewEvents.$inferInsert): Promise<ReviewEventRow> {
@@ -43,10 +46,10 @@ export function listReviewEvents(db: Executor, reviewId: string): Promise<Review
 /** The stored result of the scenario the item shows, for the chart and the map. */
 export async function findScenarioResult(db: Executor, scenarioId: string) {
   const [row] = await db
-    .select({ directionResults: scenarios.directionResults })
+    .select({ id: scenarios.id, resultVersion: scenarios.resultVersion, summary: scenarios.summary, riskCounts: scenarios.riskCounts, directionResults: scenarios.directionResults })
     .from(scenarios)
     .where(eq(scenarios.id, scenarioId));
-  return row?.directionResults ?? null;
+  return (row && readScenarioResult(row)?.directions) ?? null;
 }
 
 export function toReviewItem(row: ReviewItemRow): ReviewItem {

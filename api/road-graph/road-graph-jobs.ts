@@ -1,7 +1,8 @@
 import { sql } from 'drizzle-orm';
 import type { AppDeps } from '../app-deps';
 import { activeBasemap, forgetActiveBasemap } from '../basemap/active-basemap';
-import { createInlineJobQueue, jobQueueOf, type JobPolicy, type JobQueue } from '../jobs/job-queue';
+import { runtimeOf } from '../app-runtime';
+import { type JobPolicy, type JobQueue } from '../jobs/job-queue';
 import { sampleEdgeElevations } from './road-graph-grades';
 
 /** Re-samples the graph's elevations after the terrain changed (a model became ready or was deleted). */
@@ -20,28 +21,17 @@ export async function registerRoadGraphWorkers(deps: AppDeps, queue: JobQueue): 
 
 const ROAD_GRAPH_GRADES_POLICY: JobPolicy = { expireInSeconds: 60 * 60, retryLimit: 1 };
 
-const inlineQueues = new WeakMap<object, ReturnType<typeof createInlineJobQueue>>();
-
 /** Queues a re-sampling of the graph's elevations when there is a graph (in-process where no shared queue runs). */
 export async function requestRoadGraphRegrade(deps: AppDeps): Promise<void> {
   forgetActiveBasemap(deps.db);
   const base = await activeBasemap(deps.db);
   const [overlay] = await deps.db.execute<{ found: boolean }>(sql`SELECT EXISTS (SELECT 1 FROM road_graph_overlay_edges) AS found`);
   if (!base && !overlay?.found) return;
-  let queue = jobQueueOf(deps.db);
-  if (!queue) {
-    let inline = inlineQueues.get(deps.db);
-    if (!inline) {
-      inline = createInlineJobQueue();
-      await registerRoadGraphWorkers(deps, inline);
-      inlineQueues.set(deps.db, inline);
-    }
-    queue = inline;
-  }
+  const queue = await runtimeOf(deps).jobsFor('road-graph', (inline) => registerRoadGraphWorkers(deps, inline));
   await queue.send(ROAD_GRAPH_GRADES_JOB, {}, ROAD_GRAPH_GRADES_POLICY);
 }
 
 /** Resolves when in-process re-gradings have finished (tests and the demo seed). */
 export async function waitForInlineRoadGraphJobs(deps: AppDeps): Promise<void> {
-  await inlineQueues.get(deps.db)?.idle();
+  await runtimeOf(deps).inlineJobsIdle('road-graph');
 }

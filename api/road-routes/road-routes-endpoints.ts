@@ -22,6 +22,7 @@ import {
   routeVersionParamsSchema,
 } from '@shared/domain/road-routes';
 import type { AppDeps } from '../app-deps';
+import { sendAttachment } from '../http/attachment';
 import { endpoint } from '../http/endpoint';
 import { BadRequestError, NotFoundError } from '../http/http-error';
 import * as repository from './road-routes-repository';
@@ -33,7 +34,7 @@ import { routeToGeoJson } from './route-geojson';
 import { routeToGpx } from './route-gpx';
 import { importGtfsFeed, importRouteFile } from './route-import';
 import { routeProfile } from './route-profile';
-import { attachmentName, requireFile, singleFileUpload } from './route-upload';
+import { requireFile, singleFileUpload } from './route-upload';
 
 const TAG = 'Routes';
 
@@ -215,9 +216,9 @@ export function roadRouteEndpoints(deps: AppDeps) {
       handler: async ({ params, query, res }) => {
         const route = await service.getRoute(deps.db, params.routeId);
         if (query.format === 'gpx') {
-          res.attachment(attachmentName(route.name, 'gpx')).type('application/gpx+xml').send(routeToGpx(route));
+          sendAttachment(res, route.name, 'gpx', 'application/gpx+xml', routeToGpx(route));
         } else {
-          res.attachment(attachmentName(route.name, 'geojson')).type('application/geo+json').send(JSON.stringify(routeToGeoJson(route), null, 1));
+          sendAttachment(res, route.name, 'geojson', 'application/geo+json', JSON.stringify(routeToGeoJson(route), null, 1));
         }
       },
     }),

@@ -163,15 +163,18 @@ export async function listRoutes(db: Executor, query: RouteListQuery): Promise<{
     .orderBy(direction(sortColumn), asc(roadRoutes.id))
     .$dynamic();
   const rows = query.page ? await base.limit(query.pageSize).offset((query.page - 1) * query.pageSize) : await base;
+  // Unpaged, the rows are all of them: counting them again would cost a second query per request.
+  const total = query.page ? await countRoutes(db, where) : rows.length;
+  return { items: rows.map((row) => ({ ...row, updatedAt: row.updatedAt.toISOString() })), total };
+}
+
+async function countRoutes(db: Executor, where: SQL | undefined): Promise<number> {
   const [count] = await db
     .select({ n: sql<number>`count(*)::int` })
     .from(roadRoutes)
     .innerJoin(roadRouteVersions, eq(roadRouteVersions.routeId, roadRoutes.id))
     .where(where);
-  return {
-    items: rows.map((row) => ({ ...row, updatedAt: row.updatedAt.toISOString() })),
-    total: count?.n ?? 0,
-  };
+  return count?.n ?? 0;
 }
 
 /** The API shape of one version of a route. */

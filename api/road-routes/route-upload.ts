@@ -38,15 +38,3 @@ export function requireFile(file: Express.Multer.File | undefined): Express.Mult
   if (!file) throw new BadRequestError('file: attach the file as multipart/form-data field "file"', { field: 'file' });
   return file;
 }
-
-/** A safe attachment file name from a display name. */
-export function attachmentName(name: string, extension: string): string {
-  const slug = name
-    .normalize('NFKD')
-    .replace(/[^\w\s-]/g, '')
-    .trim()
-    .replace(/\s+/g, '-')
-    .toLowerCase()
-    .slice(0, 80);
-  return `${slug || 'export'}.${extension}`;
-}

@@ -1,11 +1,12 @@
 /**
- * Scenario results as files: a per-point CSV (headers from the shared presentation module, units in brackets, one row per profile point
+ * Scenario results as files: a per-point CSV (columns from the engine's series table, headers from the shared presentation module, units in brackets, one row per profile point
  * per direction, the caution on the first line as a "#" comment) and a GeoJSON FeatureCollection
  * (RFC 7946) of the route cut into per-segment LineStrings, plus one LineString per descent with
  * its risk and advice. The caution travels as a foreign member of the collection.
  */
 import type { Scenario, ScenarioResult } from '@shared/domain/scenarios';
 import { ENGINEERING_CAUTION } from '@shared/engine/constants';
+import { CSV_SERIES } from '@shared/engine/profile-series';
 import { DIRECTION_LABELS, profileCsvHeader } from '@shared/presentation/index';
 
 export function scenarioCsv(result: ScenarioResult): string {
@@ -13,28 +14,9 @@ export function scenarioCsv(result: ScenarioResult): string {
   for (const direction of result.directions) {
     const p = direction.profile;
     for (let i = 0; i < p.distanceM.length; i++) {
-      // In the order of PROFILE_COLUMNS.
-      lines.push(
-        [
-          DIRECTION_LABELS[direction.direction],
-          fixed(p.distanceM[i]!, 2),
-          fixed(p.lon[i]!, 7),
-          fixed(p.lat[i]!, 7),
-          fixed(p.elevationM[i]!, 2),
-          fixed(p.gradePercent[i]!, 3),
-          fixed(p.speedMps[i]! * 3.6, 2),
-          fixed(p.timeS[i]!, 2),
-          fixed(p.tractionN[i]!, 1),
-          fixed(p.tractionPowerW[i]! / 1_000, 3),
-          fixed(p.batteryPowerW[i]! / 1_000, 3),
-          fixed(p.regenPowerW[i]! / 1_000, 3),
-          fixed(p.frictionBrakePowerW[i]! / 1_000, 3),
-          fixed(p.soc[i]! * 100, 3),
-          fixed(p.brakeTempC[i]!, 2),
-          fixed(p.gsrsBrakeTempC[i]!, 2),
-          fixed(p.airDensityKgM3[i]!, 4),
-        ].join(','),
-      );
+      // In the order of PROFILE_COLUMNS: the direction, then the table's CSV series.
+      const values = CSV_SERIES.map(({ name, csv }) => fixed(csv.toCsv(p[name][i]!), csv.decimals));
+      lines.push([DIRECTION_LABELS[direction.direction], ...values].join(','));
     }
   }
   return `${lines.join('\r\n')}\r\n`;

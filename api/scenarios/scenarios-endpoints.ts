@@ -14,7 +14,7 @@ import { profileViewQuerySchema } from '@shared/domain/analysis';
 import { viewProfile } from '@shared/engine/profile-view';
 import type { AppDeps } from '../app-deps';
 import { endpoint } from '../http/endpoint';
-import { attachmentName } from '../road-routes/route-upload';
+import { sendAttachment } from '../http/attachment';
 import * as profiles from '../vehicle-profiles/vehicle-profiles-repository';
 import * as repository from './scenarios-repository';
 import { scenarioCsv, scenarioGeoJson } from './scenario-exports';
@@ -168,7 +168,7 @@ export function scenarioEndpoints(deps: AppDeps) {
       handler: async ({ params, res }) => {
         const scenario = await service.getScenario(deps.db, params.scenarioId);
         const result = await service.getResult(deps.db, params.scenarioId);
-        res.attachment(attachmentName(scenario.name, 'csv')).type('text/csv; charset=utf-8').send(scenarioCsv(result));
+        sendAttachment(res, scenario.name, 'csv', 'text/csv; charset=utf-8', scenarioCsv(result));
       },
     }),
     endpoint({
@@ -182,7 +182,7 @@ export function scenarioEndpoints(deps: AppDeps) {
       handler: async ({ params, res }) => {
         const scenario = await service.getScenario(deps.db, params.scenarioId);
         const result = await service.getResult(deps.db, params.scenarioId);
-        res.attachment(attachmentName(scenario.name, 'geojson')).type('application/geo+json').send(JSON.stringify(scenarioGeoJson(scenario, result)));
+        sendAttachment(res, scenario.name, 'geojson', 'application/geo+json', JSON.stringify(scenarioGeoJson(scenario, result)));
       },
     }),
     endpoint({
@@ -199,7 +199,7 @@ export function scenarioEndpoints(deps: AppDeps) {
         const result = await service.getResult(deps.db, params.scenarioId);
         const profileRow = await profiles.findProfile(deps.db, scenario.vehicleProfileId);
         const pdf = await scenarioReportPdf(scenario, result, profileRow ? profiles.toVehicleProfile(profileRow) : undefined);
-        res.attachment(attachmentName(scenario.name, 'pdf')).type('application/pdf').send(pdf);
+        sendAttachment(res, scenario.name, 'pdf', 'application/pdf', pdf);
       },
     }),
     endpoint({
@@ -231,7 +231,7 @@ export function scenarioEndpoints(deps: AppDeps) {
         }
         const retarderType = (profileRow ? profiles.toVehicleProfile(profileRow).vehicle.retarderType : undefined) ?? 'none';
         const pdf = await descentCardsPdf({ scenario, result, retarderType }, cards);
-        res.attachment(attachmentName(`${scenario.name} descent cards`, 'pdf')).type('application/pdf').send(pdf);
+        sendAttachment(res, `${scenario.name} descent cards`, 'pdf', 'application/pdf', pdf);
       },
     }),
   ];

@@ -1,8 +1,9 @@
-import { and, asc, eq, getTableColumns, inArray, isNull, lt, type SQL } from 'drizzle-orm';
+import { and, asc, eq, getTableColumns, inArray, isNull, lt, sql, type SQL } from 'drizzle-orm';
 import type { Scenario, ScenarioListQuery } from '@shared/domain/scenarios';
 import { ENGINE_VERSION } from '@shared/engine/constants';
 import type { Executor } from '../db/client';
 import { roadRoutes, roadRouteVersions, scenarios, vehicleProfiles, type ScenarioRow } from '../db/schema/index';
+import { readStoredScenarioResult, type StoredScenarioResult } from '../results/stored-result';
 
 /** Scenario columns without the (large) per-point results. */
 const { directionResults: _directionResults, ...scenarioColumns } = getTableColumns(scenarios);
@@ -32,12 +33,30 @@ function selectWithContext(db: Executor) {
     .innerJoin(vehicleProfiles, eq(vehicleProfiles.id, scenarios.vehicleProfileId));
 }
 
+/**
+ * The list needs of a run's stored inputs only their provenance (for the stale check); the engine
+ * inputs of every direction beside it would be read, sent and parsed for every row and dropped.
+ */
+const { inputs: _inputs, ...scenarioListColumns } = scenarioColumns;
+const provenanceOnly = sql<ScenarioHead['inputs']>`case when ${scenarios.inputs} is null then null else jsonb_build_object('provenance', ${scenarios.inputs} -> 'provenance') end`;
+
 export async function listScenarios(db: Executor, query: ScenarioListQuery): Promise<ScenarioWithContext[]> {
   const conditions: SQL[] = [isNull(scenarios.deletedAt)];
   if (query.routeId) conditions.push(eq(scenarios.routeId, query.routeId));
   if (query.vehicleProfileId) conditions.push(eq(scenarios.vehicleProfileId, query.vehicleProfileId));
   if (query.inService !== undefined) conditions.push(eq(scenarios.inService, query.inService));
-  return (await selectWithContext(db)
+  return (await db
+    .select({
+      scenario: { ...scenarioListColumns, inputs: provenanceOnly },
+      routeName: roadRouteVersions.name,
+      latestRouteVersion: roadRoutes.currentVersion,
+      vehicleProfileName: vehicleProfiles.name,
+      vehicleProfileUpdatedAt: vehicleProfiles.updatedAt,
+    })
+    .from(scenarios)
+    .innerJoin(roadRoutes, eq(roadRoutes.id, scenarios.routeId))
+    .innerJoin(roadRouteVersions, and(eq(roadRouteVersions.routeId, scenarios.routeId), eq(roadRouteVersions.version, scenarios.routeVersion)))
+    .innerJoin(vehicleProfiles, eq(vehicleProfiles.id, scenarios.vehicleProfileId))
     .where(and(...conditions))
     .orderBy(asc(scenarios.name), asc(scenarios.id))) as ScenarioWithContext[];
 }
@@ -52,6 +71,20 @@ export async function findScenariosWithContext(db: Executor, ids: string[]): Pro
 }
 
 /** The scenario unless it is deleted (or, with `includeDeleted`, either way). */
+/** Id and name of every scenario on a vehicle profile, by name (for re-running them all). */
+export function listScenarioNamesOfProfile(db: Executor, vehicleProfileId: string): Promise<{ id: string; name: string }[]> {
+  return db.select({ id: scenarios.id, name: scenarios.name }).from(scenarios).where(eq(scenarios.vehicleProfileId, vehicleProfileId)).orderBy(scenarios.name);
+}
+
+/** Id and name of every scenario in service (not deleted), by name: a network run's items. */
+export function listInServiceScenarioNames(db: Executor): Promise<{ id: string; name: string }[]> {
+  return db
+    .select({ id: scenarios.id, name: scenarios.name })
+    .from(scenarios)
+    .where(and(eq(scenarios.inService, true), isNull(scenarios.deletedAt)))
+    .orderBy(asc(scenarios.name));
+}
+
 export async function findScenarioRow(db: Executor, id: string, includeDeleted = false): Promise<ScenarioRow | undefined> {
   const [row] = await db
     .select()
@@ -72,6 +105,23 @@ export async function lockScenario(db: Executor, id: string, includeDeleted = fa
 export async function insertScenario(db: Executor, values: typeof scenarios.$inferInsert): Promise<ScenarioHead> {
   const [row] = await db.insert(scenarios).values(values).returning(scenarioColumns);
   return row as ScenarioHead;
+}
+
+/**
+ * The scenario's stored result, upgraded from its schema version to the current shape and parsed
+ * (api/results/stored-result.ts); null when the scenario has none. Every read of a stored result
+ * goes through here.
+ */
+export function readScenarioResult(
+  row: Pick<ScenarioRow, 'id' | 'resultVersion' | 'summary' | 'riskCounts' | 'directionResults'>,
+): StoredScenarioResult | null {
+  if (!row.summary || !row.directionResults) return null;
+  return readStoredScenarioResult(`Scenario ${row.id}`, {
+    version: row.resultVersion,
+    summary: row.summary,
+    riskCounts: row.riskCounts,
+    directionResults: row.directionResults,
+  });
 }
 
 export async function updateScenario(db: Executor, id: string, values: Partial<typeof scenarios.$inferInsert>) {

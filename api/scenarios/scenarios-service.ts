@@ -8,6 +8,7 @@ import { analyserOf } from '../app-services';
 import type { Database } from '../db/client';
 import { type Actor, recordAudit } from '../audit/audit-log';
 import { BadRequestError, ConflictError, HttpError, NotFoundError } from '../http/http-error';
+import { STORED_RESULT_VERSION } from '../results/stored-result';
 import { syncReviewItems } from '../reviews/review-sync';
 import { replaceScenarioTerrainUse } from '../terrain/terrain-repository';
 import * as routes from '../road-routes/road-routes-repository';
@@ -99,6 +100,7 @@ async function computeAndStore(deps: AppDeps, scenarioId: string): Promise<void>
       summary: outcome.summary,
       riskCounts,
       directionResults: outcome.directions,
+      resultVersion: STORED_RESULT_VERSION,
     });
     // Descent review follows every stored result, in the same transaction (api/reviews/review-sync.ts).
     await syncReviewItems(tx, row, { computedAt, directions: outcome.directions });
@@ -216,7 +218,8 @@ export async function restoreScenario(db: Database, actor: Actor, id: string): P
 export async function getResult(db: Database, id: string): Promise<ScenarioResult> {
   const row = await repository.findScenarioRow(db, id);
   if (!row) throw new NotFoundError('The scenario');
-  if (!row.summary || !row.directionResults || !row.computedAt || !row.engineVersion) {
+  const stored = repository.readScenarioResult(row);
+  if (!stored || !row.computedAt || !row.engineVersion) {
     throw new HttpError(
       404,
       'no_result',
@@ -229,8 +232,8 @@ export async function getResult(db: Database, id: string): Promise<ScenarioResul
     engineVersion: row.engineVersion,
     computedAt: row.computedAt.toISOString(),
     inputs: row.inputs,
-    summary: row.summary,
-    directions: row.directionResults,
+    summary: stored.summary,
+    directions: stored.directions,
     caution: ENGINEERING_CAUTION,
   };
 }

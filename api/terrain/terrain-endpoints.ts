@@ -19,13 +19,13 @@ import type { AppDeps } from '../app-deps';
 import { endpoint } from '../http/endpoint';
 import { BadRequestError, HttpError } from '../http/http-error';
 import { uploadLimit } from '../http/upload-limit';
-import { sampleElevations } from './elevation-sampler';
+import { sampleElevations } from './raster/elevation-sampler';
 import { acceptTerrainUpload, deleteTerrain, getTerrainModel, listTerrain, restoreTerrain } from './terrain-service';
 import { terrainRuntimeFor } from './terrain-runtime';
 import type { HashedUpload } from './terrain-storage';
 import { hashingDiskStorage } from './terrain-storage';
-import { TileCache } from './tile-cache';
-import { renderTerrainTile, transparentTile } from './tile-renderer';
+import { TileCache } from './tiles/tile-cache';
+import { renderTerrainTile, transparentTile } from './tiles/tile-renderer';
 
 const TAG = 'Terrain';
 

@@ -1,7 +1,7 @@
 import { and, asc, eq, getTableColumns, isNull, lt, or, sql } from 'drizzle-orm';
 import type { Polygon, TerrainModel } from '@shared/domain/terrain';
 import type { Executor } from '../db/client';
-import { lookupEpsg } from './crs-registry';
+import { lookupEpsg } from './raster/crs-registry';
 import { scenarios, terrainDependents, terrainModels, users, type TerrainModelRow } from '../db/schema/index';
 
 type NewTerrainRow = typeof terrainModels.$inferInsert;

@@ -1,7 +1,8 @@
 import { createHash } from 'node:crypto';
 import type { AppDeps } from '../app-deps';
-import { BlockStore, type TerrainSource } from './block-store';
-import { lookupEpsg } from './crs-registry';
+import { runtimeOf } from '../app-runtime';
+import { BlockStore, type TerrainSource } from './raster/block-store';
+import { lookupEpsg } from './raster/crs-registry';
 import { listReadyTerrainRows, type TerrainRowWithExtras } from './terrain-repository';
 import { TerrainStorage } from './terrain-storage';
 
@@ -24,8 +25,8 @@ const CATALOGUE_TTL_MS = 2_000;
 
 /**
  * Everything terrain keeps per process: file locations, decoded-block cache with its decoder
- * threads, and a short-lived copy of the ready catalogue. One per database handle, so tests that
- * build several apps on one database share it as a real process would.
+ * threads, and a short-lived copy of the ready catalogue. One per AppRuntime, so every copy of a
+ * process's dependencies (and tests that build several apps from one context) shares it.
  */
 export class TerrainRuntime {
   readonly storage: TerrainStorage;
@@ -94,23 +95,14 @@ export class TerrainRuntime {
   }
 }
 
-const runtimes = new WeakMap<object, TerrainRuntime>();
-
-/** The process's terrain runtime for these dependencies (created on first use). */
+/** The terrain runtime of these dependencies (created on first use, kept in their AppRuntime). */
 export function terrainRuntimeFor(deps: AppDeps): TerrainRuntime {
-  let runtime = runtimes.get(deps.db);
-  if (!runtime) {
-    runtime = new TerrainRuntime(deps);
-    runtimes.set(deps.db, runtime);
-  }
-  return runtime;
+  return runtimeOf(deps).terrain;
 }
 
 /** Stops the decoder threads (shutdown, end of a test file). */
 export async function closeTerrainRuntime(deps: AppDeps): Promise<void> {
-  const runtime = runtimes.get(deps.db);
-  runtimes.delete(deps.db);
-  await runtime?.close();
+  await deps.runtime?.closeTerrain();
 }
 
 function bboxOf(footprintGeoJson: string | null): [number, number, number, number] {

@@ -8,9 +8,10 @@ import { requestRoadGraphRegrade } from '../road-graph/road-graph-jobs';
 import { ConflictError, ForbiddenError, HttpError, NotFoundError } from '../http/http-error';
 import { type Actor, recordAudit } from '../audit/audit-log';
 import { isUniqueViolation } from '../db/errors';
-import { createInlineJobQueue, jobQueueOf, type JobPolicy, type JobQueue } from '../jobs/job-queue';
-import { inspectGeoTiff } from './geotiff-inspection';
-import { INGEST_STALE_MS, ingestTerrainModel, TERRAIN_INGEST_JOB, type TerrainIngestJob } from './terrain-ingestion';
+import { runtimeOf } from '../app-runtime';
+import { type JobPolicy, type JobQueue } from '../jobs/job-queue';
+import { inspectGeoTiff } from './ingestion/geotiff-inspection';
+import { INGEST_STALE_MS, ingestTerrainModel, TERRAIN_INGEST_JOB, type TerrainIngestJob } from './ingestion/terrain-ingestion';
 import {
   countScenariosUsingTerrain,
   deleteTerrainRow,
@@ -243,24 +244,14 @@ export async function registerTerrainWorkers(deps: AppDeps, queue: JobQueue): Pr
   await queue.registerWorker<TerrainIngestJob>(TERRAIN_INGEST_JOB, (job, jobId) => ingestTerrainModel(deps, job.terrainId, jobId), TERRAIN_INGEST_POLICY);
 }
 
-const inlineQueues = new WeakMap<object, ReturnType<typeof createInlineJobQueue>>();
-
 /** The app's job queue, or (tests, CLI tools) an in-process queue with the terrain worker on it. */
-async function terrainJobs(deps: AppDeps): Promise<JobQueue> {
-  const attached = jobQueueOf(deps.db);
-  if (attached) return attached;
-  let queue = inlineQueues.get(deps.db);
-  if (!queue) {
-    queue = createInlineJobQueue();
-    await registerTerrainWorkers(deps, queue);
-    inlineQueues.set(deps.db, queue);
-  }
-  return queue;
+function terrainJobs(deps: AppDeps): Promise<JobQueue> {
+  return runtimeOf(deps).jobsFor('terrain', (queue) => registerTerrainWorkers(deps, queue));
 }
 
 /** Resolves when in-process ingestion jobs have finished (tests and the demo seed). */
 export async function waitForInlineTerrainJobs(deps: AppDeps): Promise<void> {
-  await inlineQueues.get(deps.db)?.idle();
+  await runtimeOf(deps).inlineJobsIdle('terrain');
 }
 
 function duplicateError(existing: { id: string; name: string; deletedAt: Date | null }): HttpError {

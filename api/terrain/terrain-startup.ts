@@ -1,5 +1,6 @@
 import type { AppDeps } from '../app-deps';
-import { attachJobQueue, startJobQueue } from '../jobs/job-queue';
+import { attachJobQueue } from '../app-runtime';
+import { startJobQueue } from '../jobs/job-queue';
 import { closeTerrainRuntime } from './terrain-runtime';
 import { recoverTerrain, registerTerrainWorkers } from './terrain-service';
 
@@ -10,7 +11,7 @@ import { recoverTerrain, registerTerrainWorkers } from './terrain-service';
  */
 export async function startTerrain(deps: AppDeps): Promise<() => Promise<void>> {
   const queue = await startJobQueue(deps.config.DATABASE_URL);
-  attachJobQueue(deps.db, queue);
+  attachJobQueue(deps, queue);
   if (deps.config.RUN_WORKERS) {
     await registerTerrainWorkers(deps, queue);
     const recovered = await recoverTerrain(deps);

@@ -23,6 +23,8 @@ import {
   DEFAULT_MAX_ROAD_GRADE_PERCENT,
   DEFAULT_WORST_CASE_AMBIENT_C,
 } from '../engine/constants';
+import { PROFILE_SERIES_NAMES, type ProfileSeriesName } from '../engine/profile-series';
+import { DEFAULT_START_SOC, socSchema } from './limits';
 
 const efficiency = z.number().gt(0).lte(1);
 const share = z.number().min(0).max(1);
@@ -175,7 +177,7 @@ export const conditionsSchema = z.object({
   /** Ambient air temperature, °C. Absent: the ISA temperature at each point's altitude. */
   ambientC: z.number().min(-60).max(60).optional(),
   /** State of charge at the start of the route, 0–1. */
-  startSoc: share.default(0.8),
+  startSoc: socSchema.default(DEFAULT_START_SOC),
   /** Brake temperature at the start, °C. Absent: ambient. */
   initialBrakeTempC: z.number().min(-60).max(1_000).optional(),
   /**
@@ -309,7 +311,7 @@ export type LineString = z.infer<typeof lineStringSchema>;
 export const previewRequestSchema = z.object({
   route: lineStringSchema,
   vehicle: vehicleSchema,
-  conditions: conditionsSchema.default({ startSoc: 0.8, surface: 'dry' }),
+  conditions: conditionsSchema.default({ startSoc: DEFAULT_START_SOC, surface: 'dry' }),
   options: optionsSchema.default(optionsSchema.parse({})),
 });
 export type PreviewRequest = z.infer<typeof previewRequestSchema>;
@@ -353,28 +355,12 @@ export const summarySchema = z.object({
 export type Summary = z.infer<typeof summarySchema>;
 
 /** Per-point arrays, all the same length (one entry per resampled point). */
-export const profileSchema = z.object({
-  distanceM: z.array(z.number()),
-  lon: z.array(z.number()),
-  lat: z.array(z.number()),
-  elevationM: z.array(z.number()),
-  gradePercent: z.array(z.number()),
-  speedMps: z.array(z.number()),
-  timeS: z.array(z.number()),
-  rollingN: z.array(z.number()),
-  aeroN: z.array(z.number()),
-  gradeN: z.array(z.number()),
-  inertiaN: z.array(z.number()),
-  tractionN: z.array(z.number()),
-  tractionPowerW: z.array(z.number()),
-  batteryPowerW: z.array(z.number()),
-  regenPowerW: z.array(z.number()),
-  frictionBrakePowerW: z.array(z.number()),
-  soc: z.array(z.number()),
-  brakeTempC: z.array(z.number()),
-  gsrsBrakeTempC: z.array(z.number()),
-  airDensityKgM3: z.array(z.number()),
-});
+export const profileSchema = z.object(
+  // One array per series of the engine's table (shared/engine/profile-series.ts), in its order.
+  Object.fromEntries(PROFILE_SERIES_NAMES.map((name) => [name, z.array(z.number())])) as {
+    [Name in ProfileSeriesName]: z.ZodArray<z.ZodNumber>;
+  },
+);
 export type Profile = z.infer<typeof profileSchema>;
 
 /** The name of one per-point series of the profile. */

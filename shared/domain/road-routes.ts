@@ -1,6 +1,6 @@
 import * as z from 'zod';
 import { lineStringSchema } from './analysis';
-import { DEFAULT_SPEED_LIMIT_KPH, speedLimitKphSchema } from './limits';
+import { DEFAULT_SPEED_LIMIT_KPH, SERVICE_DAYS_PER_YEAR, TRIPS_PER_DAY, serviceDaysPerYearSchema, speedLimitKphSchema, tripsPerDaySchema } from './limits';
 
 /**
  * Road routes as planners edit them. A route is versioned: every save of its geometry, stops or
@@ -45,8 +45,8 @@ export const roadRouteDraftSchema = z.object({
   /** Default limit outside the stretches, km/h. */
   defaultSpeedLimitKph: speedLimitKphSchema.default(DEFAULT_SPEED_LIMIT_KPH),
   /** Round trips per service day (for annual figures). */
-  tripsPerDay: z.number().min(0).max(500).default(0),
-  serviceDaysPerYear: z.number().int().min(0).max(366).default(360),
+  tripsPerDay: tripsPerDaySchema.default(TRIPS_PER_DAY.default),
+  serviceDaysPerYear: serviceDaysPerYearSchema.default(SERVICE_DAYS_PER_YEAR.default),
 });
 export type RoadRouteDraft = z.infer<typeof roadRouteDraftSchema>;
 export type RoadRouteDraftInput = z.input<typeof roadRouteDraftSchema>;

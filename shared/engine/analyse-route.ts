@@ -15,6 +15,7 @@ import {
   type Conditions,
   type PreviewRequestInput,
   type PreviewResponse,
+  type Profile,
   type UncoveredStretchReport,
   type Vehicle,
 } from '../domain/analysis';
@@ -23,6 +24,7 @@ import { curveRadiiM } from './curvature';
 import { adhesionCoefficient } from './adhesion';
 import { drivabilityStretches, runWorstCase, sensitivityVariants } from './descent-safety';
 import { describeDescents } from './descents';
+import { PROFILE_SERIES, type ProfileSeriesName } from './profile-series';
 import { powertrainParams } from './powertrain';
 import { resampleRoute, type ResampledRoute } from './resample-route';
 import { runRoute, type RouteRun } from './route-run';
@@ -31,7 +33,7 @@ import { movingAverageOverDistance, savitzkyGolayOverDistance } from './smoothin
 import { computeSpeedProfile } from './speed-profile';
 import { summariseRun } from './summary';
 import { celsiusToKelvin, kphToMps } from './unit-conversions';
-import { EngineInputError, parseOrThrow, UncoveredTerrainError } from './validation';
+import { EngineInputError, MissingElevationError, parseOrThrow, UncoveredTerrainError } from './validation';
 import {
   CELSIUS_TO_KELVIN_K,
   ENGINE_VERSION,
@@ -93,7 +95,7 @@ export async function analyseRouteDetailed(
   if (!elevationM) {
     const sampler = dependencies.sampleElevations;
     if (!sampler) {
-      throw new EngineInputError('route.coordinates', 'positions carry no elevation and no elevation source was given');
+      throw new MissingElevationError();
     }
     const points: [number, number][] = [];
     for (let i = 0; i < resampled.lon.length; i++) points.push([resampled.lon[i]!, resampled.lat[i]!]);
@@ -354,36 +356,9 @@ export function analyseResampledRoute(
     drivability,
     sensitivity: sensitivityVariants(model),
   });
-  const n = model.pointCount;
-  const perSegment = (values: Float64Array) => {
-    const out = new Array<number>(n);
-    for (let i = 0; i < n; i++) out[i] = values[Math.min(i, n - 2)]!;
-    return out;
-  };
   const response: PreviewResponse = {
     summary,
-    profile: {
-      distanceM: Array.from(model.distanceM),
-      lon: Array.from(model.lon),
-      lat: Array.from(model.lat),
-      elevationM: Array.from(model.elevationM),
-      gradePercent: perSegment(model.gradePercent),
-      speedMps: Array.from(run.speedMps),
-      timeS: Array.from(run.timeS),
-      rollingN: Array.from(run.rollingN),
-      aeroN: Array.from(run.aeroN),
-      gradeN: Array.from(run.gradeN),
-      inertiaN: Array.from(run.inertiaN),
-      tractionN: Array.from(run.tractionN),
-      tractionPowerW: Array.from(run.tractionPowerW),
-      batteryPowerW: Array.from(run.batteryPowerW),
-      regenPowerW: Array.from(run.regenPowerW),
-      frictionBrakePowerW: Array.from(run.frictionBrakePowerW),
-      soc: Array.from(run.soc),
-      brakeTempC: Array.from(run.brakeTempC),
-      gsrsBrakeTempC: Array.from(run.gsrsBrakeTempC),
-      airDensityKgM3: perSegment(model.airDensityKgM3),
-    },
+    profile: profileOf(model, run),
     descents,
     drivability: { drivable: drivability.length === 0, stretches: drivability },
     caution: ENGINEERING_CAUTION,
@@ -391,6 +366,29 @@ export function analyseResampledRoute(
   };
   if (uncovered) response.uncoveredStretches = uncovered;
   return { response, model, run, vehicle, conditions, options };
+}
+
+/**
+ * The answer's per-point profile, one array per series of the table (profile-series.ts): run
+ * series as the run holds them, model series from the prepared route, where a segment series
+ * (one value per segment) repeats its last segment at the last point.
+ */
+function profileOf(model: RouteModel, run: RouteRun): Profile {
+  const n = model.pointCount;
+  const profile: Partial<Record<ProfileSeriesName, number[]>> = {};
+  for (const { name, kind, source } of PROFILE_SERIES) {
+    if (source === 'run') {
+      profile[name] = Array.from(run[name]);
+    } else if (kind === 'segment') {
+      const values = model[name];
+      const out = new Array<number>(n);
+      for (let i = 0; i < n; i++) out[i] = values[Math.min(i, n - 2)]!;
+      profile[name] = out;
+    } else {
+      profile[name] = Array.from(model[name]);
+    }
+  }
+  return profile as Profile;
 }
 
 /** The minimum-time speed profile (forward–backward pass) of a prepared route. */

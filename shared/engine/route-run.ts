@@ -7,28 +7,21 @@
  * density at index i describe the segment from point i to point i+1; the last point repeats the
  * last segment. Powers are segment means (energy/duration).
  */
+import { RUN_SERIES, type RunSeriesName } from './profile-series';
 import { advanceSegment, dwell, emptySegmentResult, initialVehicleState, type RouteModel, type VehicleState } from './route-simulation';
 
-export interface RouteRun {
-  speedMps: Float64Array;
-  timeS: Float64Array;
-  soc: Float64Array;
-  brakeTempC: Float64Array;
+/**
+ * The run's per-point series of the profile (profile-series.ts, `source: 'run'`), one array each;
+ * segment series follow the forward convention (the last point repeats the last segment).
+ */
+export type RunSeries = { [Name in RunSeriesName]: Float64Array };
+
+export interface RouteRun extends RunSeries {
+  /** Brake groups on arrival at each point, °C (internal: the profile shows the whole vehicle's). */
   frontBrakeTempC: Float64Array;
   rearBrakeTempC: Float64Array;
-  gsrsBrakeTempC: Float64Array;
   /** Regeneration overload on arrival at each point, J (route-simulation.ts). */
   regenOverloadJ: Float64Array;
-  /** Per segment, forward convention (last point repeats the last segment). */
-  rollingN: Float64Array;
-  aeroN: Float64Array;
-  gradeN: Float64Array;
-  inertiaN: Float64Array;
-  tractionN: Float64Array;
-  tractionPowerW: Float64Array;
-  batteryPowerW: Float64Array;
-  regenPowerW: Float64Array;
-  frictionBrakePowerW: Float64Array;
   /** Per segment energies, J (pointCount − 1 entries). */
   segmentDurationS: Float64Array;
   segmentTractionJ: Float64Array;
@@ -57,24 +50,14 @@ export function runRouteFrom(model: RouteModel, speedMps: Float64Array, start: V
   const startSoc = start.soc;
   const n = model.pointCount;
   const segments = n - 1;
+  const series = Object.fromEntries(RUN_SERIES.map(({ name }) => [name, new Float64Array(n)])) as RunSeries;
   const run: RouteRun = {
+    ...series,
+    // The speed profile is the run's input, kept as given.
     speedMps,
-    timeS: new Float64Array(n),
-    soc: new Float64Array(n),
-    brakeTempC: new Float64Array(n),
     frontBrakeTempC: new Float64Array(n),
     rearBrakeTempC: new Float64Array(n),
-    gsrsBrakeTempC: new Float64Array(n),
     regenOverloadJ: new Float64Array(n),
-    rollingN: new Float64Array(n),
-    aeroN: new Float64Array(n),
-    gradeN: new Float64Array(n),
-    inertiaN: new Float64Array(n),
-    tractionN: new Float64Array(n),
-    tractionPowerW: new Float64Array(n),
-    batteryPowerW: new Float64Array(n),
-    regenPowerW: new Float64Array(n),
-    frictionBrakePowerW: new Float64Array(n),
     segmentDurationS: new Float64Array(segments),
     segmentTractionJ: new Float64Array(segments),
     segmentBrakingJ: new Float64Array(segments),
@@ -137,15 +120,7 @@ export function runRouteFrom(model: RouteModel, speedMps: Float64Array, start: V
   }
   if (n >= 2) {
     const last = n - 1;
-    run.rollingN[last] = run.rollingN[last - 1]!;
-    run.aeroN[last] = run.aeroN[last - 1]!;
-    run.gradeN[last] = run.gradeN[last - 1]!;
-    run.inertiaN[last] = run.inertiaN[last - 1]!;
-    run.tractionN[last] = run.tractionN[last - 1]!;
-    run.tractionPowerW[last] = run.tractionPowerW[last - 1]!;
-    run.batteryPowerW[last] = run.batteryPowerW[last - 1]!;
-    run.regenPowerW[last] = run.regenPowerW[last - 1]!;
-    run.frictionBrakePowerW[last] = run.frictionBrakePowerW[last - 1]!;
+    for (const { name, kind } of RUN_SERIES) if (kind === 'segment') run[name][last] = run[name][last - 1]!;
   }
   run.durationS = timeS;
   run.auxJ = auxW * timeS;

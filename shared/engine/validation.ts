@@ -4,15 +4,41 @@
  */
 import type { z } from 'zod';
 
+/**
+ * Why the engine refused an input, for callers to tell refusals apart without reading messages:
+ * - `invalid_input`: a value outside its range or of the wrong shape (the field is named);
+ * - `terrain_not_covered`: the terrain leaves stretches the engine will not fill;
+ * - `route_too_large`: longer, or more points, than one analysis takes;
+ * - `elevation_missing`: the positions carry no elevation and no elevation source was given.
+ */
+export type EngineRefusalCode = 'invalid_input' | 'terrain_not_covered' | 'route_too_large' | 'elevation_missing';
+
 /** A `RangeError` that names the input field it is about, e.g. `vehicle.curbMassKg`. */
 export class EngineInputError extends RangeError {
   /** Dotted path of the offending field. */
   readonly field: string;
 
+  /** What kind of refusal this is (on the prototype, so a refusal revived across threads keeps it). */
+  get code(): EngineRefusalCode {
+    return 'invalid_input';
+  }
+
   constructor(field: string, message: string) {
     super(`${field}: ${message}`);
     this.name = 'EngineInputError';
     this.field = field;
+  }
+}
+
+/** Raised when the route's positions carry no elevation and no elevation source was given. */
+export class MissingElevationError extends EngineInputError {
+  override get code(): EngineRefusalCode {
+    return 'elevation_missing';
+  }
+
+  constructor() {
+    super('route.coordinates', 'positions carry no elevation and no elevation source was given');
+    this.name = 'MissingElevationError';
   }
 }
 
@@ -24,6 +50,10 @@ export interface UncoveredStretch {
 
 /** Raised when the terrain leaves stretches uncovered that the engine will not fill. */
 export class UncoveredTerrainError extends EngineInputError {
+  override get code(): EngineRefusalCode {
+    return 'terrain_not_covered';
+  }
+
   /** Every uncovered stretch, filled or not. */
   readonly stretches: UncoveredStretch[];
 
@@ -45,6 +75,10 @@ export class UncoveredTerrainError extends EngineInputError {
  * the spacing.
  */
 export class RouteTooLargeError extends EngineInputError {
+  override get code(): EngineRefusalCode {
+    return 'route_too_large';
+  }
+
   constructor(
     readonly lengthM: number,
     readonly pointCount: number,

@@ -3,7 +3,7 @@
  * units, rounded inward so every number the form accepts is one the API accepts, and the sentence
  * its error states.
  */
-import { SPEED_LIMIT_KPH } from '../domain/limits';
+import { SERVICE_DAYS_PER_YEAR, SOC, SPEED_LIMIT_KPH, TRIPS_PER_DAY } from '../domain/limits';
 import { kphToDisplay, unitLabel, type UnitSystem } from './units';
 
 export interface ShownRange {
@@ -27,3 +27,17 @@ export function speedLimitRange(system: UnitSystem): ShownRange {
 export function isSpeedLimitKphAllowed(speedKph: number): boolean {
   return speedKph >= SPEED_LIMIT_KPH.min && speedKph <= SPEED_LIMIT_KPH.max;
 }
+
+function shownRange(min: number, max: number, unit: string): ShownRange {
+  const suffix = unit ? ` ${unit}` : '';
+  return { min, max, span: `${min} to ${max}${suffix}`, message: `Between ${min} and ${max}${suffix}.` };
+}
+
+/** Round trips per service day: "0 to 500". */
+export const TRIPS_PER_DAY_RANGE: ShownRange = shownRange(TRIPS_PER_DAY.min, TRIPS_PER_DAY.max, '');
+
+/** Service days a year: "0 to 366". */
+export const SERVICE_DAYS_RANGE: ShownRange = shownRange(SERVICE_DAYS_PER_YEAR.min, SERVICE_DAYS_PER_YEAR.max, '');
+
+/** A state of charge as forms show it: "0 to 100 %". */
+export const SOC_PERCENT_RANGE: ShownRange = shownRange(SOC.min * 100, SOC.max * 100, '%');

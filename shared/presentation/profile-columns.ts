@@ -1,26 +1,35 @@
 /**
- * The per-point columns of the segment CSV export: one header per quantity, named as the charts
- * and the result screen name it, with its unit in brackets (SI or the trade's usual unit, fixed so
- * a spreadsheet reads every export the same way).
+ * The per-point columns of the segment CSV export: the direction, then every series the engine's
+ * table marks for the CSV (shared/engine/profile-series.ts), in its order, in its CSV unit and
+ * decimals. Each header names the quantity as the charts and the result screen name it, with its
+ * unit in brackets (SI or the trade's usual unit, fixed so a spreadsheet reads every export the
+ * same way).
  */
+import { CSV_SERIES, type CsvSeriesName } from '../engine/profile-series';
+
+/** The words of each CSV series' header, keyed by the series name (its label key). */
+export const PROFILE_SERIES_LABELS: Record<CsvSeriesName, string> = {
+  distanceM: 'Distance',
+  lon: 'Longitude',
+  lat: 'Latitude',
+  elevationM: 'Elevation',
+  gradePercent: 'Grade',
+  speedMps: 'Speed',
+  timeS: 'Time',
+  tractionN: 'Traction force',
+  tractionPowerW: 'Traction power',
+  batteryPowerW: 'Battery or line power',
+  regenPowerW: 'Regeneration power',
+  frictionBrakePowerW: 'Friction brake power',
+  soc: 'SOC',
+  brakeTempC: 'Brake temperature',
+  gsrsBrakeTempC: 'Brake temperature, grade-severity estimate',
+  airDensityKgM3: 'Air density',
+};
+
 export const PROFILE_COLUMNS = [
   { key: 'direction', header: 'Direction' },
-  { key: 'distanceM', header: 'Distance (m)' },
-  { key: 'lon', header: 'Longitude (°)' },
-  { key: 'lat', header: 'Latitude (°)' },
-  { key: 'elevationM', header: 'Elevation (m)' },
-  { key: 'gradePercent', header: 'Grade (%)' },
-  { key: 'speedKph', header: 'Speed (km/h)' },
-  { key: 'timeS', header: 'Time (s)' },
-  { key: 'tractionN', header: 'Traction force (N)' },
-  { key: 'tractionPowerKw', header: 'Traction power (kW)' },
-  { key: 'batteryPowerKw', header: 'Battery or line power (kW)' },
-  { key: 'regenPowerKw', header: 'Regeneration power (kW)' },
-  { key: 'frictionBrakePowerKw', header: 'Friction brake power (kW)' },
-  { key: 'socPercent', header: 'SOC (%)' },
-  { key: 'brakeTempC', header: 'Brake temperature (°C)' },
-  { key: 'gsrsBrakeTempC', header: 'Brake temperature, grade-severity estimate (°C)' },
-  { key: 'airDensityKgM3', header: 'Air density (kg/m³)' },
+  ...CSV_SERIES.map((series) => ({ key: series.name, header: `${PROFILE_SERIES_LABELS[series.name]} (${series.csv.unit})` })),
 ] as const;
 
 export type ProfileColumnKey = (typeof PROFILE_COLUMNS)[number]['key'];

@@ -5,14 +5,14 @@
  * (to the whole degree). Rounding to the nearest would print "21 km/h" for 21.6 km/h, a speed the
  * advice does not allow; rounding down prints 21, which it does (common practice for limits).
  */
-import { formatNumber, unitLabel, toDisplay, type UnitSystem } from './units';
+import { formatNumber, kphToDisplay, unitLabel, toDisplay, type UnitSystem } from './units';
 
 /** Tolerance for floating-point noise before rounding: 35.999999 km/h is 36 km/h, not 35. */
 const NOISE = 1e-9;
 
 /** Highest speed advised, in whole display units (km/h or mph), rounded down. */
 export function safeSpeedShown(speedKph: number, system: UnitSystem): number {
-  return Math.floor(toDisplay('speed', speedKph / 3.6, system) + NOISE);
+  return Math.floor(kphToDisplay(speedKph, system) + NOISE);
 }
 
 /** "36 km/h" / "22 mph": a speed limit from the advice, rounded down. */

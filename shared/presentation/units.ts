@@ -6,6 +6,9 @@
 
 import { kphToMps, mpsToKph } from '../engine/unit-conversions';
 
+/** km/h ↔ m/s for forms that keep a speed in SI (one conversion for the whole product). */
+export { kphToMps, mpsToKph };
+
 export const UNIT_SYSTEMS = ['metric', 'imperial'] as const;
 export type UnitSystem = (typeof UNIT_SYSTEMS)[number];
 

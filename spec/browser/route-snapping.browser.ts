@@ -71,6 +71,51 @@ describe('route editor: snap to roads (on by default)', () => {
     }
   });
 
+  it('keeps a second click made while the first path is still being found, and adds both in order', async () => {
+    const { page } = browser;
+    const watch = new PageWatch(page);
+    try {
+      const roads = await roadNetwork(page);
+      await page.goto(`${BASE_URL}/routes/new`);
+      await page.getByRole('heading', { level: 1, name: 'New route' }).waitFor();
+      await page.locator('.leaflet-tile-loaded').first().waitFor();
+      await page.waitForLoadState('networkidle');
+      // Every path waits a moment at the server, so the clicks surely come while one is being found.
+      await page.route('**/api/road-network/path*', async (route) => {
+        await new Promise((done) => setTimeout(done, 400));
+        await route.continue();
+      });
+      const road = roads.reduce((longest, line) => (line.length > longest.length ? line : longest));
+      assert.ok(road.length >= 5, `the longest demo road has bends to click on (${road.length} points)`);
+      const first = road[1]!;
+      const second = road[Math.floor(road.length / 2)]!;
+      const third = road[road.length - 2]!;
+
+      await clickAt(page, first);
+      await clickAt(page, second);
+      await clickAt(page, third);
+      await page.getByText(/Following the roads/).waitFor();
+      await page.waitForFunction(() => !/Following the roads/.test(document.body.textContent ?? ''));
+
+      const vertices = await vertexTable(page);
+      const nearestM = (point: LonLat) => Math.min(...vertices.map((vertex) => metresBetween(vertex, point)));
+      // Each click lands on the road within a few pixels of where it was made (the view is some
+      // metres per pixel), and the route ends at the last one: none was dropped.
+      const clicksApartM = Math.min(metresBetween(first, second), metresBetween(second, third));
+      for (const [name, point] of [['first', first], ['second', second], ['third', third]] as const) {
+        assert.ok(nearestM(point) < clicksApartM / 4, `the ${name} click is on the route (${nearestM(point).toFixed(1)} m from its nearest vertex)`);
+      }
+      assert.ok(metresBetween(vertices.at(-1)!, third) < clicksApartM / 4, 'the route ends at the last click');
+      const order = [first, second, third].map((point) => vertices.findIndex((vertex) => metresBetween(vertex, point) === nearestM(point)));
+      assert.ok(order[0]! < order[1]! && order[1]! < order[2]!, `the clicks are applied in the order made (${order.join(', ')})`);
+      assert.equal(await page.getByText('without snapping').count(), 0, 'no "added without snapping" message');
+      await page.unroute('**/api/road-network/path*');
+      assert.deepEqual(watch.take(), []);
+    } finally {
+      watch.stop();
+    }
+  });
+
   it('keeps the map where it is when the speed-limit tool is chosen (issue 10: it moved 64 px)', async () => {
     const { page } = browser;
     const before = (await page.getByTestId('route-map').boundingBox())!;
@@ -142,6 +187,12 @@ async function vertexTable(page: Page): Promise<LonLat[]> {
   const longitudes = await table.getByRole('spinbutton', { name: /^Longitude of vertex/ }).evaluateAll((inputs) => inputs.map((input) => Number((input as HTMLInputElement).value)));
   const latitudes = await table.getByRole('spinbutton', { name: /^Latitude of vertex/ }).evaluateAll((inputs) => inputs.map((input) => Number((input as HTMLInputElement).value)));
   return longitudes.map((lon, index) => [lon, latitudes[index]!]);
+}
+
+/** Distance between two points, m (local equirectangular plane; fine at road scale). */
+function metresBetween([lonA, latA]: LonLat, [lonB, latB]: LonLat): number {
+  const eastM = 111_320 * Math.cos((((latA + latB) / 2) * Math.PI) / 180);
+  return Math.hypot((lonB - lonA) * eastM, (latB - latA) * 111_320);
 }
 
 /** Shortest distance from a point to any road segment, m (local equirectangular plane; fine at road scale). */

@@ -3,7 +3,7 @@ import { mkdtempSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { after, before, describe, it } from 'node:test';
-import { writeFloat32GeoTiff } from '../../api/terrain/geotiff-writer';
+import { writeFloat32GeoTiff } from '../../api/terrain/raster/geotiff-writer';
 import { screenshot, settleAnimations } from './support/browser';
 import { signedInBrowser } from './support/demo-people';
 

@@ -3,6 +3,7 @@ import request from 'supertest';
 import type { Role } from '@shared/domain/roles';
 import { createApp } from '../../api/app';
 import type { AppDeps } from '../../api/app-deps';
+import { AppRuntime } from '../../api/app-runtime';
 import { hashPassword } from '../../api/auth/passwords';
 import { loadConfig, type Config } from '../../api/config';
 import { createDatabase, type Database } from '../../api/db/client';
@@ -42,7 +43,8 @@ export function createTestContext(overrides: Partial<Record<keyof Config, string
     connectTimeoutS: config.DB_CONNECT_TIMEOUT_S,
     statementTimeoutMs: config.DB_STATEMENT_TIMEOUT_MS,
   });
-  const deps: AppDeps = { db, config };
+  // The runtime is made now, so every app or copy built from these deps shares it (runtimeOf).
+  const deps: AppDeps = { db, config, runtime: new AppRuntime({ db, config }) };
   return { app: createApp(deps), db, deps, close };
 }
 

@@ -45,6 +45,11 @@ export const reviewItems = pgTable(
     descent: jsonb().$type<Descent>().notNull(),
     /** Latest figures per scenario that sees this stretch, keyed by scenario id. */
     sources: jsonb().$type<Record<string, ReviewSource>>().notNull(),
+    /**
+     * Schema version of the stored descents (`descent`, `sources.*.descent`); read through
+     * api/results/stored-result.ts, which upgrades older versions. 1 = before versioning.
+     */
+    resultVersion: integer().notNull().default(1),
     mitigation: jsonb().$type<Mitigation>(),
     mitigatedRisk: text({ enum: ['low', 'elevated', 'high', 'critical'] }).$type<RiskLevel>(),
     mitigatedPeakBrakeTempC: doublePrecision(),

@@ -46,6 +46,11 @@ export const scenarios = pgTable(
     summary: jsonb().$type<Summary>(),
     riskCounts: jsonb().$type<Record<'low' | 'elevated' | 'high' | 'critical', number>>(),
     directionResults: jsonb().$type<DirectionResult[]>(),
+    /**
+     * Schema version of the stored result (summary, riskCounts, directionResults); read only
+     * through api/results/stored-result.ts, which upgrades older versions. 1 = before versioning.
+     */
+    resultVersion: integer().notNull().default(1),
     /** Stable key of scenarios loaded by the demo seed; null otherwise. */
     seedKey: text().unique(),
     createdById: uuid().references(() => users.id, { onDelete: 'set null' }),

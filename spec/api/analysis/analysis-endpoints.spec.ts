@@ -6,27 +6,14 @@ import { analysisPoolFor, closeAnalysisPool } from '../../../api/analysis/analys
 import { createTestContext } from '../../support/test-app';
 import { sessionCookies } from '../../support/session-cookie';
 import { truncateAll } from '../../support/test-database';
+import { LADEN_12M_BUS } from '../../support/vehicle-fixtures';
 
 const context = createTestContext();
 const { app, db } = context;
 let cookie: string;
 
 /** 12 m battery bus of engine README §1.4 (a): 19 t laden, Cr 0.007, Cd 0.7, A 8 m². */
-const laden12mBus = {
-  curbMassKg: 13_500,
-  payloadKg: 5_500,
-  frontalAreaM2: 8,
-  dragCoefficient: 0.7,
-  rollingResistanceCoefficient: 0.007,
-  rotatingMassFactor: 0.05,
-  tractionPowerW: 250_000,
-  regenPowerW: 200_000,
-  drivetrainEfficiency: 0.889,
-  regenEfficiency: 0.862,
-  batteryCapacityWh: 350_000,
-  maxChargePowerW: 200_000,
-  auxPowerW: 15_000,
-};
+const laden12mBus = LADEN_12M_BUS;
 
 beforeAll(async () => {
   await truncateAll(db);

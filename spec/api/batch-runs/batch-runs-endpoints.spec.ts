@@ -5,7 +5,8 @@ import type { ScenarioDraftInput } from '@shared/domain/scenarios';
 import { createApp } from '../../../api/app';
 import type { AppDeps } from '../../../api/app-deps';
 import { BATCH_RUN_JOB, registerBatchRunWorkers, runBatchItem, waitForInlineBatchJobs, type BatchRunJob } from '../../../api/batch-runs/batch-runs-service';
-import { attachJobQueue, startJobQueue, type JobQueue } from '../../../api/jobs/job-queue';
+import { attachJobQueue } from '../../../api/app-runtime';
+import { startJobQueue, type JobQueue } from '../../../api/jobs/job-queue';
 import { ensureVehiclePresets, presetProfileId } from '../../../api/vehicle-profiles/vehicle-presets-seed';
 import { aRouteDraft, eastwardLine } from '../../support/road-route-builders';
 import { sessionCookies } from '../../support/session-cookie';
@@ -73,7 +74,7 @@ describe('batch progress', () => {
     // A queue that only records jobs, so the spec hands them to the worker one at a time.
     const held = createHoldingQueue();
     const isolated = createTestContext();
-    attachJobQueue(isolated.db, held.queue);
+    attachJobQueue(isolated.deps, held.queue);
     const isolatedApp = createApp(isolated.deps);
     await aScenario(isolatedApp, { name: 'A', inService: true });
     await aScenario(isolatedApp, { name: 'B', inService: true }, eastwardLine({ lengthM: 1_500, withElevation: false }));
@@ -99,7 +100,7 @@ describe('batch progress', () => {
     const workerA = await startJobQueue(context.deps.config.DATABASE_URL);
     const workerB = await startJobQueue(context.deps.config.DATABASE_URL);
     const shared = createTestContext();
-    attachJobQueue(shared.db, sender);
+    attachJobQueue(shared.deps, sender);
     const sharedApp = createApp(shared.deps);
     const handledBy: Record<string, string[]> = { a: [], b: [] };
     const tracking = (name: 'a' | 'b', deps: AppDeps) => async (_deps: AppDeps, scenarioId: string) => {

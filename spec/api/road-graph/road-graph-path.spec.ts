@@ -4,7 +4,7 @@ import { join } from 'node:path';
 import { fileURLToPath } from 'node:url';
 import proj4 from 'proj4';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { writeFloat32GeoTiff } from '../../../api/terrain/geotiff-writer';
+import { writeFloat32GeoTiff } from '../../../api/terrain/raster/geotiff-writer';
 import { waitForInlineRoadGraphJobs } from '../../../api/road-graph/road-graph-jobs';
 import { closeTerrainRuntime } from '../../../api/terrain/terrain-runtime';
 import { waitForInlineTerrainJobs } from '../../../api/terrain/terrain-service';

@@ -2,7 +2,7 @@ import { join } from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { DEMO_ROADS, DEMO_TERRAIN_NAME, makeDemoTerrainTiff, seedDemoTerrain } from '../../../api/demo/demo-terrain';
 import { seedDemoPeople } from '../../../api/demo/demo-people';
-import { sampleElevations } from '../../../api/terrain/elevation-sampler';
+import { sampleElevations } from '../../../api/terrain/raster/elevation-sampler';
 import { closeTerrainRuntime } from '../../../api/terrain/terrain-runtime';
 import { createTestContext, type TestContext } from '../../support/test-app';
 import { countRows, truncateAll } from '../../support/test-database';

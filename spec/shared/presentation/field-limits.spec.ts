@@ -1,6 +1,16 @@
 import { describe, expect, it } from 'vitest';
-import { SPEED_LIMIT_KPH, speedLimitKphSchema } from '@shared/domain/limits';
-import { displayToKph, isSpeedLimitKphAllowed, kphToDisplay, speedLimitRange } from '@shared/presentation/index';
+import { conditionsSchema } from '@shared/domain/analysis';
+import { DEFAULT_START_SOC, SERVICE_DAYS_PER_YEAR, SPEED_LIMIT_KPH, TRIPS_PER_DAY, speedLimitKphSchema } from '@shared/domain/limits';
+import { roadRouteDraftSchema } from '@shared/domain/road-routes';
+import {
+  SERVICE_DAYS_RANGE,
+  SOC_PERCENT_RANGE,
+  TRIPS_PER_DAY_RANGE,
+  displayToKph,
+  isSpeedLimitKphAllowed,
+  kphToDisplay,
+  speedLimitRange,
+} from '@shared/presentation/index';
 
 describe('the speed-limit range', () => {
   it('states the contract range in km/h', () => {
@@ -27,5 +37,31 @@ describe('km/h fields in displayed units', () => {
     expect(kphToDisplay(100, 'imperial')).toBeCloseTo(62.1371, 4);
     expect(displayToKph(kphToDisplay(100, 'imperial'), 'imperial')).toBeCloseTo(100, 10);
     expect(kphToDisplay(42, 'metric')).toBeCloseTo(42, 10);
+  });
+});
+
+describe('route and run limits shared by the schemas and the forms', () => {
+  it('states trips per day, service days and start SOC as the forms show them', () => {
+    expect(TRIPS_PER_DAY_RANGE.span).toBe('0 to 500');
+    expect(SERVICE_DAYS_RANGE.span).toBe('0 to 366');
+    expect(SOC_PERCENT_RANGE).toMatchObject({ min: 0, max: 100, span: '0 to 100 %' });
+  });
+
+  it('is what the route schema takes and refuses at both ends, with the defaults a new route gets', () => {
+    const route = (change: object) =>
+      roadRouteDraftSchema.safeParse({ name: 'Upper loop', geometry: { type: 'LineString', coordinates: [[10, 46], [10, 46.01]] }, ...change });
+
+    expect(route({ tripsPerDay: TRIPS_PER_DAY_RANGE.max, serviceDaysPerYear: SERVICE_DAYS_RANGE.max }).success).toBe(true);
+    expect(route({ tripsPerDay: TRIPS_PER_DAY_RANGE.max + 1 }).success).toBe(false);
+    expect(route({ serviceDaysPerYear: SERVICE_DAYS_RANGE.max + 1 }).success).toBe(false);
+    expect(route({ serviceDaysPerYear: SERVICE_DAYS_RANGE.min - 1 }).success).toBe(false);
+    const defaults = route({});
+    expect(defaults.success && [defaults.data.tripsPerDay, defaults.data.serviceDaysPerYear]).toEqual([TRIPS_PER_DAY.default, SERVICE_DAYS_PER_YEAR.default]);
+  });
+
+  it('takes a start SOC of 0 to 1 and starts a run at the default when none is given', () => {
+    expect(conditionsSchema.safeParse({ startSoc: SOC_PERCENT_RANGE.max / 100 }).success).toBe(true);
+    expect(conditionsSchema.safeParse({ startSoc: 1.01 }).success).toBe(false);
+    expect(conditionsSchema.parse({}).startSoc).toBe(DEFAULT_START_SOC);
   });
 });

@@ -12,10 +12,10 @@ import { describeApiError } from '../core/api-error-message';
 import { Session } from '../core/session';
 import { BasemapTilesVersion } from '../map/basemap-tiles-version';
 import { TerrainMap, type MapOverlay, type MapPosition } from '../map/terrain-map';
+import type { LoadState } from '../ui/load-state';
+import { LoadStatus } from '../ui/load-status';
 import { BasemapApi } from './basemap-api';
 import { BASEMAP_PHASE_LABELS, BASEMAP_STATUS_LABELS, formatMegabytes, statusTone } from './basemap-format';
-
-type LoadState = { status: 'loading' } | { status: 'error'; message: string } | { status: 'ready' };
 
 /** While an import is waiting or running the list refreshes itself this often. */
 const REFRESH_WHILE_IMPORTING_MS = 2000;
@@ -28,7 +28,7 @@ const EXTENT_COLOUR = '#0b4f6c';
  */
 @Component({
   selector: 'app-basemap-catalogue',
-  imports: [DatePipe, DecimalPipe, PercentPipe, FormsModule, MatButtonModule, MatFormFieldModule, MatIconModule, MatInputModule, MatProgressBarModule, TerrainMap],
+  imports: [DatePipe, DecimalPipe, PercentPipe, FormsModule, MatButtonModule, MatFormFieldModule, MatIconModule, MatInputModule, MatProgressBarModule, TerrainMap, LoadStatus],
   templateUrl: './basemap-catalogue.html',
   styleUrl: './basemap-catalogue.scss',
   changeDetection: ChangeDetectionStrategy.OnPush,
@@ -96,7 +96,7 @@ export default class BasemapCatalogue {
     }
   }
 
-  private async load(): Promise<void> {
+  protected async load(): Promise<void> {
     try {
       const list = await this.api.list();
       this.imports.set(list.items);

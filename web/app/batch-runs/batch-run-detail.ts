@@ -19,8 +19,7 @@ import { describeApiError } from '../core/api-error-message';
 import { pollBatchRun, type BatchRunPoller } from './batch-run-poller';
 import { BATCH_STATUS_ICONS, BATCH_STATUS_LABELS, RUN_STATUS_LABELS, batchProgressPercent } from './batch-run-status';
 import { BatchRunsApi } from './batch-runs-api';
-
-type LoadState = { status: 'loading' } | { status: 'error'; message: string } | { status: 'ready' };
+import type { LoadState } from '../ui/load-state';
 
 /** One network run: progress while it runs (asked every 1.5 s), then each scenario's outcome. */
 @Component({

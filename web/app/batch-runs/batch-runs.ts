@@ -7,8 +7,7 @@ import { Router, RouterLink } from '@angular/router';
 import { describeApiError } from '../core/api-error-message';
 import { BATCH_STATUS_ICONS, RUN_STATUS_LABELS, batchProgressPercent } from './batch-run-status';
 import { BatchRunsApi, type BatchRunSummary } from './batch-runs-api';
-
-type LoadState = { status: 'loading' } | { status: 'error'; message: string } | { status: 'ready' };
+import type { LoadState } from '../ui/load-state';
 
 /** The analyst's network-wide re-runs: start one, see the earlier ones. */
 @Component({

@@ -24,6 +24,7 @@ import { UnitSwitch } from '../units/unit-switch';
 import { VehicleProfilesApi } from '../vehicles/vehicle-profiles-api';
 import { signedPercent } from './calibration-format';
 import { CalibrationApi, type CalibrationSummary } from './calibration-api';
+import { FileDrop } from '../ui/file-drop';
 
 type UploadState =
   | { status: 'idle' }
@@ -40,6 +41,7 @@ const DEFAULT_FIT: FitParameter[] = ['rollingResistanceCoefficient', 'dragAreaM2
 @Component({
   selector: 'app-logged-trips',
   imports: [
+    FileDrop,
     DatePipe,
     DecimalPipe,
     ReactiveFormsModule,
@@ -83,7 +85,6 @@ export default class LoggedTrips {
 
   // Upload
   protected readonly file = signal<File | null>(null);
-  protected readonly isDragging = signal(false);
   protected readonly upload = signal<UploadState>({ status: 'idle' });
   protected readonly routeId = new FormControl<string>('', { nonNullable: true });
   protected readonly payloadKg = new FormControl<number | null>(null);
@@ -146,18 +147,6 @@ export default class LoggedTrips {
     const chosen = picker.files?.[0];
     if (chosen) this.takeFile(chosen);
     picker.value = '';
-  }
-
-  protected dragOver(event: DragEvent): void {
-    event.preventDefault();
-    this.isDragging.set(true);
-  }
-
-  protected drop(event: DragEvent): void {
-    event.preventDefault();
-    this.isDragging.set(false);
-    const dropped = event.dataTransfer?.files?.[0];
-    if (dropped) this.takeFile(dropped);
   }
 
   protected startUpload(): void {
@@ -240,7 +229,7 @@ export default class LoggedTrips {
     return status === 'done' ? 'done' : status === 'failed' ? 'failed' : 'pending';
   }
 
-  private takeFile(file: File): void {
+  protected takeFile(file: File): void {
     this.file.set(file);
     if (this.upload().status !== 'uploading') this.upload.set({ status: 'idle' });
   }

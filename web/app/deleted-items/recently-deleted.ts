@@ -5,7 +5,6 @@ import { toSignal } from '@angular/core/rxjs-interop';
 import { MatButtonModule } from '@angular/material/button';
 import { MatFormFieldModule } from '@angular/material/form-field';
 import { MatIconModule } from '@angular/material/icon';
-import { MatProgressBarModule } from '@angular/material/progress-bar';
 import { MatSelectModule } from '@angular/material/select';
 import { MatSnackBar } from '@angular/material/snack-bar';
 import { MatTableModule } from '@angular/material/table';
@@ -18,8 +17,8 @@ import { Session } from '../core/session';
 import { DeletedItemsApi } from './deleted-items-api';
 import { RESTORE_PERMISSION, can, rolesWith } from '@shared/domain/permissions';
 import { appLinkOf } from './restorers';
-
-type LoadState = { status: 'loading' } | { status: 'error'; message: string } | { status: 'ready' };
+import type { LoadState } from '../ui/load-state';
+import { LoadStatus } from '../ui/load-status';
 
 /**
  * Routes, scenarios, vehicle profiles and terrain models deleted in the last 30 days, with who
@@ -27,7 +26,7 @@ type LoadState = { status: 'loading' } | { status: 'error'; message: string } | 
  */
 @Component({
   selector: 'app-recently-deleted',
-  imports: [DatePipe, ReactiveFormsModule, MatTableModule, MatButtonModule, MatIconModule, MatProgressBarModule, MatFormFieldModule, MatSelectModule],
+  imports: [LoadStatus, DatePipe, ReactiveFormsModule, MatTableModule, MatButtonModule, MatIconModule, MatFormFieldModule, MatSelectModule],
   templateUrl: './recently-deleted.html',
   styleUrl: './recently-deleted.scss',
   changeDetection: ChangeDetectionStrategy.OnPush,

@@ -37,8 +37,7 @@ import { DIRECTION_LABELS } from './direction-labels';
 import { ReviewStateChip } from './review-state-chip';
 import { ReviewsApi } from './reviews-api';
 import { descentCardsUrl } from '../scenarios/scenarios-api';
-
-type LoadState = { status: 'loading' } | { status: 'error'; message: string } | { status: 'ready' };
+import type { LoadState } from '../ui/load-state';
 
 /** One descent under review: where it is, how hot the brakes get, what to do, and who did what. */
 @Component({

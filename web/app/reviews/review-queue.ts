@@ -7,7 +7,6 @@ import { MatButtonModule } from '@angular/material/button';
 import { MatFormFieldModule } from '@angular/material/form-field';
 import { MatIconModule } from '@angular/material/icon';
 import { MatPaginator, MatPaginatorModule } from '@angular/material/paginator';
-import { MatProgressBarModule } from '@angular/material/progress-bar';
 import { MatSelectModule } from '@angular/material/select';
 import { MatSort, MatSortModule } from '@angular/material/sort';
 import { MatTableDataSource, MatTableModule } from '@angular/material/table';
@@ -35,17 +34,18 @@ import {
 import { DIRECTION_LABELS } from './direction-labels';
 import { ReviewStateChip } from './review-state-chip';
 import { ReviewsApi } from './reviews-api';
+import type { LoadState } from '../ui/load-state';
+import { LoadStatus } from '../ui/load-status';
 
 const ALL_COLUMNS = ['risk', 'route', 'vehicle', 'stretch', 'drop', 'grade', 'peakBrakeTemp', 'state', 'updatedAt'];
 const NARROW_COLUMNS = ['risk', 'route', 'vehicle', 'grade', 'peakBrakeTemp', 'state'];
 const NARROW_QUERY = '(max-width: 1099.98px)';
 
-type LoadState = { status: 'loading' } | { status: 'error'; message: string } | { status: 'ready' };
-
 /** Every descent at "elevated" risk or worse, to review; safety officers act, others read. */
 @Component({
   selector: 'app-review-queue',
   imports: [
+    LoadStatus,
     ReachedTemperaturePipe,
     DatePipe,
     RouterLink,
@@ -57,7 +57,7 @@ type LoadState = { status: 'loading' } | { status: 'error'; message: string } | 
     MatSelectModule,
     MatButtonModule,
     MatIconModule,
-    MatProgressBarModule,
+    
     EngineeringCaution,
     RiskChip,
     ReviewStateChip,

@@ -3,7 +3,12 @@
  * the draft (vertices, stops, speed-limit stretches), the edits a planner makes on the map and in
  * the tables, and undo/redo over them. Positions are GeoJSON order, [lon, lat].
  */
-import { geodesicDistanceM, metresPerDegree } from '@shared/engine/geodesy';
+import { metresPerDegree } from '@shared/engine/geodesy';
+import { clipRanges, lineLengthM, pointAlongLine, projectOnLine, roundAlongM } from '@shared/geometry/route-line';
+
+// The route-line rules the editor draws and estimates with: the same ones the API stores by
+// (shared/geometry/route-line.ts), so an estimate here equals the server's value after a save.
+export { pointAlongLine, projectOnLine, sliceLine, type LineProjection } from '@shared/geometry/route-line';
 
 /**
  * A vertex: [lon, lat], or [lon, lat, elevation m] when the route carries its own elevation there
@@ -52,13 +57,7 @@ export const DEFAULT_DWELL_S = 20;
 
 /** Length of a polyline along the ellipsoid, m. */
 export function polylineLengthM(vertices: readonly LonLat[]): number {
-  let lengthM = 0;
-  for (let i = 1; i < vertices.length; i++) {
-    const a = vertices[i - 1]!;
-    const b = vertices[i]!;
-    lengthM += geodesicDistanceM(a[0], a[1], b[0], b[1]);
-  }
-  return lengthM;
+  return lineLengthM(vertices);
 }
 
 /** Midpoint of every segment: the handles a planner clicks to insert a vertex there. */
@@ -72,80 +71,6 @@ export function segmentMidpoints(vertices: readonly LonLat[]): LonLat[] {
   return midpoints;
 }
 
-/** The nearest point on the line to `point`, and its distance along the line. */
-export interface LineProjection {
-  at: LonLat;
-  atM: number;
-  /** Distance from `point` to the line, m. */
-  offsetM: number;
-}
-
-/**
- * Projects `point` on the polyline. Each segment is treated as straight in a local plane around the
- * point (fine at the scale of a stop beside a road), and the distance along the line is summed
- * geodesically up to the projected point.
- */
-export function projectOnLine(vertices: readonly LonLat[], point: LonLat): LineProjection | null {
-  if (vertices.length < 2) return null;
-  const scale = metresPerDegree(point[1]);
-  const toPlane = (p: LonLat) => [(p[0] - point[0]) * scale.eastM, (p[1] - point[1]) * scale.northM] as const;
-  let best: LineProjection | null = null;
-  let alongM = 0;
-  for (let i = 1; i < vertices.length; i++) {
-    const a = vertices[i - 1]!;
-    const b = vertices[i]!;
-    const [ax, ay] = toPlane(a);
-    const [bx, by] = toPlane(b);
-    const dx = bx - ax;
-    const dy = by - ay;
-    const lengthSq = dx * dx + dy * dy;
-    const t = lengthSq === 0 ? 0 : Math.min(1, Math.max(0, -(ax * dx + ay * dy) / lengthSq));
-    const px = ax + t * dx;
-    const py = ay + t * dy;
-    const offsetM = Math.hypot(px, py);
-    const segmentM = geodesicDistanceM(a[0], a[1], b[0], b[1]);
-    if (!best || offsetM < best.offsetM) {
-      best = { at: [a[0] + t * (b[0] - a[0]), a[1] + t * (b[1] - a[1])], atM: alongM + t * segmentM, offsetM };
-    }
-    alongM += segmentM;
-  }
-  return best;
-}
-
-/** The position `atM` metres along the line (clamped to its ends). */
-export function pointAlongLine(vertices: readonly LonLat[], atM: number): LonLat | null {
-  if (vertices.length === 0) return null;
-  let remainingM = Math.max(0, atM);
-  for (let i = 1; i < vertices.length; i++) {
-    const a = vertices[i - 1]!;
-    const b = vertices[i]!;
-    const segmentM = geodesicDistanceM(a[0], a[1], b[0], b[1]);
-    if (remainingM <= segmentM) {
-      const t = segmentM === 0 ? 0 : remainingM / segmentM;
-      return [a[0] + t * (b[0] - a[0]), a[1] + t * (b[1] - a[1])];
-    }
-    remainingM -= segmentM;
-  }
-  return vertices[vertices.length - 1]!;
-}
-
-/** The part of the line between two distances along it: how a speed-limit stretch is drawn. */
-export function sliceLine(vertices: readonly LonLat[], fromM: number, toM: number): LonLat[] {
-  if (vertices.length < 2 || toM <= fromM) return [];
-  const start = pointAlongLine(vertices, fromM)!;
-  const end = pointAlongLine(vertices, toM)!;
-  const inside: LonLat[] = [start];
-  let alongM = 0;
-  for (let i = 1; i < vertices.length; i++) {
-    const a = vertices[i - 1]!;
-    const b = vertices[i]!;
-    alongM += geodesicDistanceM(a[0], a[1], b[0], b[1]);
-    if (alongM > fromM && alongM < toM) inside.push(b);
-  }
-  inside.push(end);
-  return inside;
-}
-
 /**
  * Keeps stops and speed limits consistent with a changed geometry: every stop moves to the nearest
  * point of the new line (its `atM` re-estimated; the server's value replaces it after a save), and
@@ -154,23 +79,15 @@ export function sliceLine(vertices: readonly LonLat[], fromM: number, toM: numbe
 export function reconcile(state: RouteDraftState): RouteDraftState {
   const { vertices } = state;
   if (vertices.length < 2) return state;
-  const lengthM = polylineLengthM(vertices);
+  const lengthM = lineLengthM(vertices);
   const stops = state.stops.map((stop) => {
     const projection = projectOnLine(vertices, [stop.lon, stop.lat]);
     return projection
-      ? { ...stop, lon: projection.at[0], lat: projection.at[1], atM: projection.atM }
+      ? { ...stop, lon: projection.at[0], lat: projection.at[1], atM: roundAlongM(projection.atM) }
       : stop;
   });
   stops.sort((a, b) => a.atM - b.atM);
-  const speedLimits = state.speedLimits
-    .filter((stretch) => stretch.fromM < lengthM)
-    .map((stretch) => ({ ...stretch, toM: Math.min(stretch.toM, roundM(lengthM)) }))
-    .filter((stretch) => stretch.toM > stretch.fromM);
-  return { vertices, stops, speedLimits };
-}
-
-function roundM(valueM: number): number {
-  return Math.round(valueM);
+  return { vertices, stops, speedLimits: clipRanges(state.speedLimits, lengthM) };
 }
 
 /** Decimals a coordinate keeps when typed in the vertex table: 1e-6° is about 0.1 m. */
@@ -278,7 +195,7 @@ export function deleteVertex(state: RouteDraftState, index: number): RouteDraftS
 export function addStopNear(state: RouteDraftState, near: LonLat, name: string, dwellS = DEFAULT_DWELL_S): RouteDraftState {
   const projection = projectOnLine(state.vertices, near);
   if (!projection) throw new RangeError('A stop needs a route of at least two vertices');
-  const stop: DraftStop = { name, lon: projection.at[0], lat: projection.at[1], atM: projection.atM, dwellS };
+  const stop: DraftStop = { name, lon: projection.at[0], lat: projection.at[1], atM: roundAlongM(projection.atM), dwellS };
   return { ...state, stops: [...state.stops, stop].sort((a, b) => a.atM - b.atM) };
 }
 
@@ -286,8 +203,8 @@ export function addStopNear(state: RouteDraftState, near: LonLat, name: string, 
 export function moveStopTo(state: RouteDraftState, index: number, atM: number): RouteDraftState {
   const at = pointAlongLine(state.vertices, atM);
   if (!at) return state;
-  const lengthM = polylineLengthM(state.vertices);
-  return updateStop(state, index, { lon: at[0], lat: at[1], atM: Math.min(Math.max(0, atM), lengthM) });
+  const lengthM = lineLengthM(state.vertices);
+  return updateStop(state, index, { lon: at[0], lat: at[1], atM: roundAlongM(Math.min(Math.max(0, atM), lengthM)) });
 }
 
 export function updateStop(state: RouteDraftState, index: number, change: Partial<DraftStop>): RouteDraftState {

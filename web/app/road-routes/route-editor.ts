@@ -36,15 +36,20 @@ import { TerrainMap, type MapOverlay, type MapOverlayEvent, type MapPosition } f
 import { QuantityPipe } from '../units/quantity-pipe';
 import { formatQuantity, fromDisplay, toDisplay, unitLabel } from '../units/unit-format';
 import { speedLimitValidator } from '../units/speed-limit-validator';
-import { DEFAULT_SPEED_LIMIT_KPH } from '@shared/domain/limits';
-import { displayToKph, isSpeedLimitKphAllowed, kphToDisplay, speedLimitRange } from '@shared/presentation/index';
+import { DEFAULT_SPEED_LIMIT_KPH, SERVICE_DAYS_PER_YEAR, TRIPS_PER_DAY } from '@shared/domain/limits';
+import { SERVICE_DAYS_RANGE, TRIPS_PER_DAY_RANGE, displayToKph, isSpeedLimitKphAllowed, kphToDisplay, speedLimitRange } from '@shared/presentation/index';
 import { UnitPreference } from '../units/unit-preference';
 import { UnitSwitch } from '../units/unit-switch';
+import { LOADED, LOADING, loadFailed, type LoadState } from '../ui/load-state';
+import { LoadStatus } from '../ui/load-status';
 import { RoadRoutesApi, type RoadNetwork, type RouteProfile, type RouteVersionInfo } from './road-routes-api';
+import { RouteDraftStore } from './route-draft-store';
+import { RouteVertexTable, type CoordinateTyped } from './tables/route-vertex-table';
+import { RouteStopTable, type StopChange } from './tables/route-stop-table';
+import { RouteLimitTable, type LimitChange } from './tables/route-limit-table';
+import { ROUTE_COLOR, lonLatOf, pointAt, routeOverlays, type EditorTool } from './route-overlays';
 import {
-  COORDINATE_DECIMALS,
   EMPTY_DRAFT,
-  RouteDraftHistory,
   addSpeedLimit,
   addStopNear,
   appendVertices,
@@ -55,7 +60,6 @@ import {
   moveVertex,
   parseCoordinate,
   replaceVertex,
-  pointAlongLine,
   roundDegrees,
   polylineLengthM,
   projectOnLine,
@@ -65,35 +69,22 @@ import {
   dropRecordedElevations,
   recordedElevations,
   setVertexCoordinate,
-  sliceLine,
   updateSpeedLimit,
   updateStop,
   type LonLat,
   type RouteDraftState,
 } from './route-draft';
 
-/** What a click on the map does. */
-export type EditorTool = 'draw' | 'stop' | 'limit';
+export type { EditorTool } from './route-overlays';
 
-type ProfileState =
-  | { status: 'idle' }
-  | { status: 'loading' }
-  | { status: 'ready'; profile: RouteProfile }
-  | { status: 'error'; message: string };
-
-type LoadState = { status: 'loading' } | { status: 'ready' } | { status: 'error'; message: string };
+/** The live elevation profile: none yet (fewer than two vertices), or loading as any page data. */
+type ProfileState = { status: 'idle' } | LoadState<RouteProfile>;
 
 const MODE_LABELS: Readonly<Record<(typeof ROUTE_MODES)[number], string>> = {
   bus: 'Bus',
   trolleybus: 'Trolleybus',
   tram: 'Tram',
 };
-
-// Our map palette: a deep teal route over the warm terrain tint, violet stops, amber limits.
-const ROUTE_COLOR = '#0b5567';
-const NETWORK_COLOR = '#5c6b70';
-const STOP_COLOR = '#6a2c91';
-const LIMIT_COLOR = '#c2570c';
 
 /** Planners draw and edit a route on the terrain map; everyone else reads it. */
 @Component({
@@ -116,10 +107,15 @@ const LIMIT_COLOR = '#c2570c';
     DistanceChart,
     QuantityPipe,
     UnitSwitch,
+    LoadStatus,
+    RouteVertexTable,
+    RouteStopTable,
+    RouteLimitTable,
   ],
   templateUrl: './route-editor.html',
   styleUrl: './route-editor.scss',
   host: { '(document:keydown)': 'handleShortcut($event)' },
+  providers: [RouteDraftStore],
   changeDetection: ChangeDetectionStrategy.OnPush,
 })
 export default class RouteEditor {
@@ -136,10 +132,10 @@ export default class RouteEditor {
   protected readonly modes = ROUTE_MODES;
   protected readonly modeLabels = MODE_LABELS;
 
-  private readonly history = new RouteDraftHistory();
-  protected readonly draft = signal<RouteDraftState>(EMPTY_DRAFT);
-  protected readonly canUndo = signal(false);
-  protected readonly canRedo = signal(false);
+  private readonly store = inject(RouteDraftStore);
+  protected readonly draft = this.store.draft;
+  protected readonly canUndo = this.store.canUndo;
+  protected readonly canRedo = this.store.canRedo;
   protected readonly tool = signal<EditorTool>('draw');
   protected readonly selectedVertex = signal<number | null>(null);
   private readonly terrainMap = viewChild(TerrainMap);
@@ -148,14 +144,16 @@ export default class RouteEditor {
   private readonly basemap = inject(BasemapTilesVersion);
   /** Whether there is a road graph to snap to: an imported extract or a reference network. */
   protected readonly canSnap = computed(() => this.network() !== null || (this.basemap.state()?.version ?? null) !== null);
-  protected readonly isRouting = signal(false);
+  /** Whether a path along the roads is being found; clicks made meanwhile wait their turn. */
+  protected readonly isRouting = this.store.isWorking;
+  protected readonly queuedClicks = this.store.queued;
   protected readonly network = signal<RoadNetwork | null>(null);
   /** The route's current version as the server last answered it. */
   protected readonly saved = signal<RoadRoute | null>(null);
   /** An older version being looked at (read-only), or null for the current one. */
   protected readonly olderVersion = signal<RoadRoute | null>(null);
   protected readonly versions = signal<RouteVersionInfo[]>([]);
-  protected readonly loadState = signal<LoadState>({ status: 'ready' });
+  protected readonly loadState = signal<LoadState>(LOADED);
   protected readonly isSaving = signal(false);
   protected readonly saveError = signal<string | null>(null);
   /** First end of a speed-limit stretch placed on the map, m along the route. */
@@ -166,7 +164,7 @@ export default class RouteEditor {
   protected readonly isPlanner = computed(() => this.session.can('routes.edit'));
   /** Whether this person may change what is on screen now. */
   protected readonly canEdit = computed(() => this.isPlanner() && this.olderVersion() === null);
-  protected readonly vertices = computed(() => this.draft().vertices, { equal: (a, b) => a === b });
+  protected readonly vertices = this.store.vertices;
   protected readonly lengthM = computed(() => polylineLengthM(this.vertices()));
 
   protected readonly details = new FormGroup({
@@ -174,12 +172,18 @@ export default class RouteEditor {
     mode: new FormControl<(typeof ROUTE_MODES)[number]>('bus', { nonNullable: true }),
     description: new FormControl('', { nonNullable: true, validators: [Validators.maxLength(2000)] }),
     defaultSpeedLimit: new FormControl(DEFAULT_SPEED_LIMIT_KPH, { nonNullable: true, validators: [Validators.required, speedLimitValidator(() => this.units())] }),
-    tripsPerDay: new FormControl(0, { nonNullable: true, validators: [Validators.required, Validators.min(0), Validators.max(500)] }),
-    serviceDaysPerYear: new FormControl(360, { nonNullable: true, validators: [Validators.required, Validators.min(0), Validators.max(366)] }),
+    tripsPerDay: new FormControl<number>(TRIPS_PER_DAY.default, { nonNullable: true, validators: [Validators.required, Validators.min(TRIPS_PER_DAY.min), Validators.max(TRIPS_PER_DAY.max)] }),
+    serviceDaysPerYear: new FormControl<number>(SERVICE_DAYS_PER_YEAR.default, {
+      nonNullable: true,
+      validators: [Validators.required, Validators.min(SERVICE_DAYS_PER_YEAR.min), Validators.max(SERVICE_DAYS_PER_YEAR.max)],
+    }),
   });
 
   /** Speed given to a stretch placed on the map, in the displayed unit. */
   protected readonly newLimitSpeed = new FormControl(30, { nonNullable: true, validators: [speedLimitValidator(() => this.units())] });
+
+  protected readonly tripsRange = TRIPS_PER_DAY_RANGE;
+  protected readonly serviceDaysRange = SERVICE_DAYS_RANGE;
 
   /** The contract's speed-limit range in the displayed unit, for the inputs and their messages. */
   protected readonly speedRange = computed(() => speedLimitRange(this.units()));
@@ -199,9 +203,9 @@ export default class RouteEditor {
       switchMap((vertices) => {
         if (vertices.length < 2) return of<ProfileState>({ status: 'idle' });
         return this.api.profile({ type: 'LineString', coordinates: vertices.map(positionOf) }).pipe(
-          map((profile): ProfileState => ({ status: 'ready', profile })),
-          startWith<ProfileState>({ status: 'loading' }),
-          catchError((error: unknown) => of<ProfileState>({ status: 'error', message: describeApiError(error) })),
+          map((profile): ProfileState => ({ status: 'ready', value: profile })),
+          startWith<ProfileState>(LOADING),
+          catchError((error: unknown) => of<ProfileState>(loadFailed(error))),
         );
       }),
     ),
@@ -215,8 +219,8 @@ export default class RouteEditor {
     return [
       {
         label: 'Elevation',
-        x: state.profile.distanceM.map((m) => toDisplay('distance', m, system)),
-        y: state.profile.elevationM.map((m) => (m === null ? null : toDisplay('elevation', m, system))),
+        x: state.value.distanceM.map((m) => toDisplay('distance', m, system)),
+        y: state.value.elevationM.map((m) => (m === null ? null : toDisplay('elevation', m, system))),
         color: ROUTE_COLOR,
         fill: true,
       },
@@ -225,7 +229,7 @@ export default class RouteEditor {
 
   protected readonly hasTerrainGaps = computed(() => {
     const state = this.profile();
-    return state.status === 'ready' && state.profile.elevationM.some((value) => value === null);
+    return state.status === 'ready' && state.value.elevationM.some((value) => value === null);
   });
 
   protected readonly profileCursor = computed<MapPosition | null>(() => {
@@ -236,64 +240,16 @@ export default class RouteEditor {
   });
 
   protected readonly overlays = computed<MapOverlay[]>(() => {
-    const { vertices, stops, speedLimits } = this.olderVersion() ? toDraft(this.olderVersion()!) : this.draft();
-    const editing = this.canEdit();
-    const tool = this.tool();
-    const selected = this.selectedVertex();
-    const system = this.units();
-    const overlays: MapOverlay[] = [];
-    for (const [index, feature] of (this.network()?.features ?? []).entries()) {
-      overlays.push({ kind: 'line', id: `network:${index}`, positions: feature.geometry.coordinates.map(lonLatOf), color: NETWORK_COLOR, weight: 2, opacity: 0.7 });
-    }
-    speedLimits.forEach((stretch, index) => {
-      overlays.push({
-        kind: 'line',
-        id: `limit:${index}`,
-        positions: sliceLine(vertices, stretch.fromM, stretch.toM).map(lonLatOf),
-        color: LIMIT_COLOR,
-        // Wider than the route line and nearly opaque: a saved stretch shows as a band either side of it.
-        weight: 15,
-        opacity: 0.9,
-        label: `Speed limit ${formatSpeed(stretch.speedKph, system)}`,
-      });
+    const older = this.olderVersion();
+    return routeOverlays({
+      draft: older ? toDraft(older) : this.draft(),
+      network: this.network(),
+      editing: this.canEdit(),
+      tool: this.tool(),
+      selectedVertex: this.selectedVertex(),
+      pendingLimitFromM: this.pendingLimitFromM(),
+      units: this.units(),
     });
-    if (vertices.length >= 2) {
-      overlays.push({
-        kind: 'line',
-        id: 'route',
-        positions: vertices.map(lonLatOf),
-        color: ROUTE_COLOR,
-        weight: 5,
-        interactive: editing && tool !== 'draw',
-        label: editing && tool === 'stop' ? 'Click to place a stop here' : editing && tool === 'limit' ? 'Click the start, then the end of the stretch' : undefined,
-      });
-    }
-    if (editing && tool === 'draw') {
-      segmentMidpoints(vertices).forEach((at, index) =>
-        overlays.push({ kind: 'handle', id: `mid:${index}`, at: lonLatOf(at), variant: 'midpoint', draggable: false, label: `Insert a vertex in segment ${index + 1}` }),
-      );
-    }
-    if (editing) {
-      vertices.forEach((vertex, index) =>
-        overlays.push({
-          kind: 'handle',
-          id: `vertex:${index}`,
-          at: lonLatOf(vertex),
-          variant: index === selected ? 'selected' : 'vertex',
-          draggable: tool === 'draw',
-          label: `Vertex ${index + 1} of ${vertices.length}`,
-        }),
-      );
-    }
-    stops.forEach((stop, index) =>
-      overlays.push({ kind: 'pin', id: `stop:${index}`, at: [stop.lon, stop.lat], color: STOP_COLOR, label: `Stop: ${stop.name}` }),
-    );
-    const pendingFromM = this.pendingLimitFromM();
-    if (pendingFromM !== null) {
-      const at = pointAt(vertices, pendingFromM);
-      if (at) overlays.push({ kind: 'pin', id: 'limit-start', at, color: LIMIT_COLOR, label: 'Start of the new speed-limit stretch' });
-    }
-    return overlays;
   });
 
   protected readonly versionShown = computed(() => this.olderVersion()?.version ?? this.saved()?.version ?? null);
@@ -302,6 +258,11 @@ export default class RouteEditor {
     effect(() => {
       const routeId = this.routeId();
       untracked(() => void this.load(routeId));
+    });
+    effect(() => {
+      // A selection past the end (after an undo or a deletion) is no selection.
+      const count = this.vertices().length;
+      if ((untracked(this.selectedVertex) ?? -1) >= count) this.selectedVertex.set(null);
     });
     effect(() => {
       // Everyone reads; only planners change details. Older versions are read-only for all.
@@ -314,41 +275,55 @@ export default class RouteEditor {
 
   // ---- Map ----
 
-  protected async mapClicked(at: MapPosition): Promise<void> {
+  /**
+   * Map clicks and drags go through the store's queue: each is applied in order, after any path
+   * still being found for an earlier one. The tool is the one chosen when the click was made.
+   */
+  protected mapClicked(at: MapPosition): void {
     if (!this.canEdit()) return;
     const tool = this.tool();
-    if (tool === 'draw') {
-      await this.addVertex(at);
-    } else if (this.draft().vertices.length >= 2) {
-      this.placeOnLine(at);
-    }
+    this.store.enqueue(() => {
+      if (tool === 'draw') return this.addVertex(at);
+      if (this.draft().vertices.length >= 2) this.placeOnLine(at, tool);
+      return undefined;
+    });
   }
 
   protected overlayClicked(event: MapOverlayEvent): void {
     if (!this.canEdit()) return;
     const [kind, indexText] = event.id.split(':');
     const index = Number(indexText);
-    if (kind === 'route') this.placeOnLine(event.at);
-    else if (kind === 'mid') this.edit((state) => insertVertex(state, index, segmentMidpoints(state.vertices)[index]!));
-    else if (kind === 'vertex' && this.tool() !== 'draw') this.placeOnLine(event.at);
-    else if (kind === 'vertex') this.selectedVertex.update((current) => (current === index ? null : index));
+    const tool = this.tool();
+    if (kind === 'vertex' && tool === 'draw') {
+      this.selectedVertex.update((current) => (current === index ? null : index));
+      return;
+    }
+    this.store.enqueue(() => {
+      if (kind === 'route' || kind === 'vertex') this.placeOnLine(event.at, tool);
+      else if (kind === 'mid') this.edit((state) => insertVertex(state, index, segmentMidpoints(state.vertices)[index]!));
+    });
   }
 
-  protected async overlayMoved(event: MapOverlayEvent): Promise<void> {
+  protected overlayMoved(event: MapOverlayEvent): void {
     if (!this.canEdit()) return;
     const [kind, indexText] = event.id.split(':');
     if (kind !== 'vertex') return;
-    const index = Number(indexText);
+    this.store.enqueue(() => this.moveVertexTo(Number(indexText), event.at));
+  }
+
+  private async moveVertexTo(index: number, at: MapPosition): Promise<void> {
     const vertices = this.draft().vertices;
+    if (index >= vertices.length) return;
     const previous = vertices[index - 1];
     const next = vertices[index + 1];
-    if (!this.snapToNetwork() || !this.canSnap() || (!previous && !next) || this.isRouting()) {
-      this.edit((state) => moveVertex(state, index, event.at));
+    if (!this.snapToNetwork() || !this.canSnap() || (!previous && !next)) {
+      this.edit((state) => moveVertex(state, index, at));
       return;
     }
     // Snapped: the route runs along the roads from the vertex before, through where the vertex
     // was dropped, to the vertex after.
-    this.isRouting.set(true);
+    const event = { at };
+    const ticket = this.store.ticket();
     try {
       const path = await firstValueFrom(
         previous && next
@@ -357,15 +332,15 @@ export default class RouteEditor {
             ? this.api.pathAlongNetwork(previous, event.at)
             : this.api.pathAlongNetwork(event.at, next!),
       );
+      if (!this.store.isCurrent(ticket)) return;
       const coordinates = path.geometry.coordinates.map(lonLatOf);
       const inner = coordinates.slice(previous ? 1 : 0, next ? -1 : undefined);
       this.edit((state) => replaceVertex(state, index, inner.length > 0 ? inner : [event.at]));
     } catch (error: unknown) {
+      if (!this.store.isCurrent(ticket)) return;
       // Expected when the dropped point is far from the roads or not connected: move it as dropped.
       this.snackBar.open(`${describeApiError(error)} The vertex was moved without snapping.`, 'Dismiss');
       this.edit((state) => moveVertex(state, index, event.at));
-    } finally {
-      this.isRouting.set(false);
     }
   }
 
@@ -376,19 +351,18 @@ export default class RouteEditor {
       this.edit((state) => appendVertices(state, [at]));
       return;
     }
-    if (this.isRouting()) return;
-    this.isRouting.set(true);
+    const ticket = this.store.ticket();
     try {
       // The first vertex goes to the nearest road; the next ones follow the roads from the last.
       const path = await firstValueFrom(this.api.pathAlongNetwork(last ?? at, at));
+      if (!this.store.isCurrent(ticket)) return;
       const routed = (last ? path.geometry.coordinates.slice(1) : path.geometry.coordinates.slice(0, 1)).map(lonLatOf);
       this.edit((state) => appendVertices(state, routed.length > 0 ? routed : [at]));
     } catch (error: unknown) {
+      if (!this.store.isCurrent(ticket)) return;
       // Expected when the two points are not connected by the network: add the point directly.
       this.snackBar.open(`${describeApiError(error)} The point was added without snapping.`, 'Dismiss');
       this.edit((state) => appendVertices(state, [at]));
-    } finally {
-      this.isRouting.set(false);
     }
   }
 
@@ -402,9 +376,9 @@ export default class RouteEditor {
     this.edit((state) => appendVertices(state, [[roundDegrees(centre[0]), roundDegrees(centre[1])]]));
   }
 
-  private placeOnLine(at: MapPosition): void {
+  private placeOnLine(at: MapPosition, tool: EditorTool): void {
     const vertices = this.draft().vertices;
-    if (this.tool() === 'stop') {
+    if (tool === 'stop') {
       // Named by where it is, so names read in order along the route whatever order they are placed in.
       const placed = projectOnLine(vertices, at);
       if (!placed) return;
@@ -436,16 +410,15 @@ export default class RouteEditor {
 
   protected edit(change: (state: RouteDraftState) => RouteDraftState): void {
     if (!this.canEdit()) return;
-    const next = this.history.apply(change);
-    this.publish(next);
+    this.store.apply(change);
   }
 
   protected undo(): void {
-    this.publish(this.history.undo());
+    this.store.undo();
   }
 
   protected redo(): void {
-    this.publish(this.history.redo());
+    this.store.redo();
   }
 
   protected deleteSelectedVertex(): void {
@@ -479,26 +452,18 @@ export default class RouteEditor {
     }
   }
 
-  private publish(state: RouteDraftState): void {
-    this.draft.set(state);
-    this.canUndo.set(this.history.canUndo);
-    this.canRedo.set(this.history.canRedo);
-    const selected = this.selectedVertex();
-    if (selected !== null && selected >= state.vertices.length) this.selectedVertex.set(null);
-  }
 
   // ---- Tables ----
 
   /** A coordinate typed in the vertex table; a value out of range is refused and the field shows the vertex again. */
-  protected setVertexCoordinate(index: number, axis: 'lon' | 'lat', field: HTMLInputElement): void {
-    const degrees = parseCoordinate(field.value, axis);
+  protected setVertexCoordinate({ index, axis, text, restore }: CoordinateTyped): void {
+    const degrees = parseCoordinate(text, axis);
     if (degrees === null) {
       this.snackBar.open(axis === 'lon' ? 'A longitude is between −180 and 180 degrees.' : 'A latitude is between −90 and 90 degrees.', 'Dismiss');
     } else {
       this.edit((state) => setVertexCoordinate(state, index, axis, degrees));
     }
-    const vertex = this.draft().vertices[index];
-    if (vertex) field.value = this.degreesShown(vertex[axis === 'lon' ? 0 : 1]);
+    restore();
   }
 
   protected insertVertexAfter(index: number): void {
@@ -511,20 +476,23 @@ export default class RouteEditor {
     this.selectedVertex.set(null);
   }
 
-  protected degreesShown(degrees: number): string {
-    return degrees.toFixed(COORDINATE_DECIMALS);
+  /** A stop's name, position or dwell typed in the stops table; values out of range are ignored. */
+  protected changeStop(change: StopChange): void {
+    if (change.field === 'name') this.renameStop(change.index, change.text);
+    else if (change.field === 'position') this.setStopPosition(change.index, change.text);
+    else this.setStopDwell(change.index, change.text);
   }
 
-  protected renameStop(index: number, name: string): void {
+  private renameStop(index: number, name: string): void {
     if (name.trim()) this.edit((state) => updateStop(state, index, { name: name.trim() }));
   }
 
-  protected setStopDwell(index: number, text: string): void {
+  private setStopDwell(index: number, text: string): void {
     const dwellS = Number(text);
     if (Number.isFinite(dwellS) && dwellS >= 0 && dwellS <= 3600) this.edit((state) => updateStop(state, index, { dwellS }));
   }
 
-  protected setStopPosition(index: number, text: string): void {
+  private setStopPosition(index: number, text: string): void {
     const shown = Number(text);
     if (Number.isFinite(shown) && shown >= 0) this.edit((state) => moveStopTo(state, index, fromDisplay('distance', shown, this.units())));
   }
@@ -533,7 +501,8 @@ export default class RouteEditor {
     this.edit((state) => removeStop(state, index));
   }
 
-  protected setLimit(index: number, field: 'fromM' | 'toM' | 'speedKph', text: string): void {
+  /** One end or the limit of a stretch typed in the limits table. */
+  protected changeLimit({ index, field, text }: LimitChange): void {
     const shown = Number(text);
     if (!Number.isFinite(shown) || shown < 0) return;
     const value = field === 'speedKph' ? this.speedKphFromDisplay(shown) : Math.round(fromDisplay('distance', shown, this.units()));
@@ -560,11 +529,7 @@ export default class RouteEditor {
     this.edit((state) => removeSpeedLimit(state, index));
   }
 
-  protected distanceShown(valueM: number): string {
-    return toDisplay('distance', valueM, this.units()).toFixed(3).replace(/\.?0+$/, '');
-  }
-
-  protected speedShown(speedKph: number): string {
+  private speedShown(speedKph: number): string {
     return String(Math.round(kphToDisplay(speedKph, this.units())));
   }
 
@@ -664,20 +629,26 @@ export default class RouteEditor {
     this.olderVersion.set(null);
     if (!routeId) {
       this.saved.set(null);
-      this.history.reset(EMPTY_DRAFT);
-      this.publish(EMPTY_DRAFT);
+      this.store.reset(EMPTY_DRAFT);
       void this.fitToTerrain();
       return;
     }
-    this.loadState.set({ status: 'loading' });
+    this.loadState.set(LOADING);
     try {
       const route = await this.api.get(routeId);
+      // Another route was opened meanwhile: its own load shows it, this answer is dropped.
+      if (this.routeId() !== routeId) return;
       this.showSaved(route, true);
-      this.loadState.set({ status: 'ready' });
+      this.loadState.set(LOADED);
       void this.loadVersions(routeId);
     } catch (error: unknown) {
-      this.loadState.set({ status: 'error', message: describeApiError(error) });
+      if (this.routeId() === routeId) this.loadState.set(loadFailed(error));
     }
+  }
+
+  /** "Try again" after the route failed to load. */
+  protected reload(): void {
+    void this.load(this.routeId());
   }
 
   private async loadVersions(routeId: string): Promise<void> {
@@ -694,8 +665,7 @@ export default class RouteEditor {
     this.saved.set(route);
     this.olderVersion.set(null);
     const state = toDraft(route);
-    this.history.reset(state);
-    this.publish(state);
+    this.store.reset(state);
     this.details.setValue({
       name: route.name,
       mode: route.mode,
@@ -734,20 +704,10 @@ function toDraft(route: RoadRoute): RouteDraftState {
   };
 }
 
-function lonLatOf(position: readonly number[]): readonly [number, number] {
-  return [position[0]!, position[1]!];
-}
 
 /** A vertex as GeoJSON, with its recorded elevation when it has one. */
 function positionOf(vertex: LonLat): [number, number] | [number, number, number] {
   return vertex.length === 3 ? [vertex[0], vertex[1], vertex[2]] : [vertex[0], vertex[1]];
 }
 
-function pointAt(vertices: readonly LonLat[], atM: number): MapPosition | null {
-  const at = pointAlongLine(vertices, atM);
-  return at && lonLatOf(at);
-}
 
-function formatSpeed(speedKph: number, system: 'metric' | 'imperial'): string {
-  return `${Math.round(kphToDisplay(speedKph, system))} ${unitLabel('speed', system)}`;
-}

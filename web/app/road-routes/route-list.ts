@@ -19,8 +19,8 @@ import { Session } from '../core/session';
 import { QuantityPipe } from '../units/quantity-pipe';
 import { UnitPreference } from '../units/unit-preference';
 import { RoadRoutesApi } from './road-routes-api';
-
-type LoadState = { status: 'loading' } | { status: 'error'; message: string } | { status: 'ready' };
+import type { LoadState } from '../ui/load-state';
+import { LoadStatus } from '../ui/load-status';
 
 const MODE_LABELS: Readonly<Record<RoadRouteSummary['mode'], string>> = { bus: 'Bus', trolleybus: 'Trolleybus', tram: 'Tram' };
 
@@ -36,6 +36,7 @@ function describeImportElevations(source: RouteImportElevations, fileHadThem: bo
 @Component({
   selector: 'app-route-list',
   imports: [
+    LoadStatus,
     DatePipe,
     ReactiveFormsModule,
     RouterLink,
@@ -159,7 +160,7 @@ export default class RouteList {
     this.importElevations.set(value);
   }
 
-  private async load(): Promise<void> {
+  protected async load(): Promise<void> {
     this.loadState.set({ status: 'loading' });
     try {
       const routes = await this.api.list();

@@ -30,11 +30,11 @@ export function gradeShade(gradePercent: number): string {
 }
 
 /** Distance along the route in the displayed unit, for every point. */
-export function distanceAxis(profile: Profile, system: UnitSystem): number[] {
+export function distanceAxis(profile: Pick<Profile, 'distanceM'>, system: UnitSystem): number[] {
   return profile.distanceM.map((m) => toDisplay('distance', m, system));
 }
 
-export function elevationSeries(profile: Profile, system: UnitSystem, label = 'Elevation', color = '#0b5567'): ChartSeries {
+export function elevationSeries(profile: Pick<Profile, 'distanceM' | 'elevationM' | 'gradePercent'>, system: UnitSystem, label = 'Elevation', color = '#0b5567'): ChartSeries {
   return {
     label,
     x: distanceAxis(profile, system),
@@ -45,7 +45,7 @@ export function elevationSeries(profile: Profile, system: UnitSystem, label = 'E
   };
 }
 
-export function forceSeries(profile: Profile, system: UnitSystem): ChartSeries[] {
+export function forceSeries(profile: Pick<Profile, 'distanceM' | 'rollingN' | 'aeroN' | 'gradeN' | 'inertiaN'>, system: UnitSystem): ChartSeries[] {
   const x = distanceAxis(profile, system);
   const force = (values: readonly number[]) => values.map((n) => toDisplay('force', n, system));
   return [
@@ -56,11 +56,11 @@ export function forceSeries(profile: Profile, system: UnitSystem): ChartSeries[]
   ];
 }
 
-export function speedSeries(profile: Profile, system: UnitSystem, label = 'Speed', color = '#0b5567'): ChartSeries {
+export function speedSeries(profile: Pick<Profile, 'distanceM' | 'speedMps'>, system: UnitSystem, label = 'Speed', color = '#0b5567'): ChartSeries {
   return { label, x: distanceAxis(profile, system), y: profile.speedMps.map((v) => toDisplay('speed', v, system)), color };
 }
 
-export function batterySeries(profile: Profile, system: UnitSystem): ChartSeries[] {
+export function batterySeries(profile: Pick<Profile, 'distanceM' | 'batteryPowerW' | 'soc'>, system: UnitSystem): ChartSeries[] {
   const x = distanceAxis(profile, system);
   return [
     { label: 'Battery power (+ draw, − charge)', x, y: profile.batteryPowerW.map((w) => toDisplay('power', w, system)), color: '#0b5567' },
@@ -68,11 +68,11 @@ export function batterySeries(profile: Profile, system: UnitSystem): ChartSeries
   ];
 }
 
-export function socSeries(profile: Profile, system: UnitSystem, label: string, color: string): ChartSeries {
+export function socSeries(profile: Pick<Profile, 'distanceM' | 'soc'>, system: UnitSystem, label: string, color: string): ChartSeries {
   return { label, x: distanceAxis(profile, system), y: profile.soc.map((soc) => soc * 100), color };
 }
 
-export function brakeTemperatureSeries(profile: Profile, system: UnitSystem, label = 'Brake temperature', color = '#8e1b2c'): ChartSeries {
+export function brakeTemperatureSeries(profile: Pick<Profile, 'distanceM' | 'brakeTempC'>, system: UnitSystem, label = 'Brake temperature', color = '#8e1b2c'): ChartSeries {
   return { label, x: distanceAxis(profile, system), y: profile.brakeTempC.map((c) => toDisplay('temperature', c, system)), color };
 }
 

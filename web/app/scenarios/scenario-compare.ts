@@ -1,11 +1,9 @@
-import { ChangeDetectionStrategy, Component, computed, effect, inject, input, signal, untracked } from '@angular/core';
+import { ChangeDetectionStrategy, Component, computed, inject, input, resource, signal } from '@angular/core';
 import { MatButtonModule } from '@angular/material/button';
 import { MatIconModule } from '@angular/material/icon';
-import { MatProgressBarModule } from '@angular/material/progress-bar';
 import { RouterLink } from '@angular/router';
 import type { ScenarioComparison } from '@shared/domain/scenarios';
 import { DistanceChart, type ChartSeries } from '../charts/distance-chart';
-import { describeApiError } from '../core/api-error-message';
 import {
   DIRECTION_LABELS as FIGURE_DIRECTIONS,
   RISK_LABELS,
@@ -25,18 +23,20 @@ import { UnitPreference } from '../units/unit-preference';
 import { UnitSwitch } from '../units/unit-switch';
 import { COMPARE_COLORS, brakeTemperatureSeries, elevationSeries, socSeries, speedSeries } from './result-series';
 import { DIRECTION_LABELS, describeLoad, describeSeason } from '@shared/presentation/index';
+import { loadStateOf, type LoadState } from '../ui/load-state';
+import { LoadStatus } from '../ui/load-status';
 import { ScenariosApi } from './scenarios-api';
 
-type LoadState =
-  | { status: 'loading' }
-  | { status: 'choose'; chosen: number }
-  | { status: 'ready'; comparison: ScenarioComparison }
-  | { status: 'error'; message: string };
+/** The comparison as it loads, or the page asking for two to four scenarios. */
+type CompareState = LoadState<ScenarioComparison> | { status: 'choose'; chosen: number };
+
+/** Fewest and most scenarios compared at once. */
+const COMPARED = { min: 2, max: 4 } as const;
 
 /** Two to four scenarios side by side: the same charts overlaid and a table of differences. */
 @Component({
   selector: 'app-scenario-compare',
-  imports: [RouterLink, MatButtonModule, MatIconModule, MatProgressBarModule, DistanceChart, UnitSwitch],
+  imports: [RouterLink, MatButtonModule, MatIconModule, DistanceChart, UnitSwitch, LoadStatus],
   templateUrl: './scenario-compare.html',
   styleUrl: './scenario-compare.scss',
   changeDetection: ChangeDetectionStrategy.OnPush,
@@ -52,12 +52,32 @@ export default class ScenarioCompare {
   protected readonly directionLabels = DIRECTION_LABELS;
   protected readonly describeLoad = describeLoad;
   protected readonly describeSeason = describeSeason;
-  protected readonly state = signal<LoadState>({ status: 'loading' });
+  private readonly chosenIds = computed(
+    () =>
+      (this.ids() ?? '')
+        .split(',')
+        .map((id) => id.trim())
+        .filter(Boolean),
+    { equal: (a, b) => a.length === b.length && a.every((id, i) => id === b[i]) },
+  );
+  /** Loaded when two to four ids are chosen; new ids drop the answer for the old ones. */
+  private readonly comparison = resource({
+    params: () => {
+      const ids = this.chosenIds();
+      return ids.length >= COMPARED.min && ids.length <= COMPARED.max ? { ids } : undefined;
+    },
+    loader: ({ params }) => this.api.compare(params.ids),
+  });
+  private readonly loaded = loadStateOf(this.comparison);
+  protected readonly state = computed<CompareState>(() => {
+    const chosen = this.chosenIds().length;
+    return chosen < COMPARED.min || chosen > COMPARED.max ? { status: 'choose', chosen } : this.loaded();
+  });
   protected readonly hoverX = signal<number | null>(null);
 
   protected readonly items = computed(() => {
     const state = this.state();
-    return state.status === 'ready' ? state.comparison.items : [];
+    return state.status === 'ready' ? state.value.items : [];
   });
 
   /** The first direction of each result, overlaid (one colour per scenario). */
@@ -121,33 +141,14 @@ export default class ScenarioCompare {
 
   protected readonly caution = computed(() => {
     const state = this.state();
-    return state.status === 'ready' ? state.comparison.caution : '';
+    return state.status === 'ready' ? state.value.caution : '';
   });
-
-  constructor() {
-    effect(() => {
-      const ids = (this.ids() ?? '')
-        .split(',')
-        .map((id) => id.trim())
-        .filter(Boolean);
-      untracked(() => void this.load(ids));
-    });
-  }
 
   protected unit(quantity: Quantity): string {
     return unitLabel(quantity, this.units());
   }
 
-  private async load(ids: string[]): Promise<void> {
-    if (ids.length < 2 || ids.length > 4) {
-      this.state.set({ status: 'choose', chosen: ids.length });
-      return;
-    }
-    this.state.set({ status: 'loading' });
-    try {
-      this.state.set({ status: 'ready', comparison: await this.api.compare(ids) });
-    } catch (error: unknown) {
-      this.state.set({ status: 'error', message: describeApiError(error) });
-    }
+  protected reload(): void {
+    this.comparison.reload();
   }
 }

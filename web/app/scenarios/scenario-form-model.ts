@@ -4,6 +4,7 @@
  */
 import type { Direction, Scenario, ScenarioDraftInput } from '@shared/domain/scenarios';
 import type { LoadCase, Season } from '@shared/domain/vehicle-profiles';
+import { DEFAULT_START_SOC } from '@shared/domain/limits';
 import { displayToKph, fromDisplay, kphToDisplay, toDisplay, type UnitSystem } from '../units/unit-format';
 
 export type LoadChoice = LoadCase | 'passengers';
@@ -44,7 +45,7 @@ export const DEFAULT_SCENARIO_FORM: ScenarioFormValue = {
   season: 'mild',
   customAmbient: 10,
   customAuxKw: 10,
-  startSocPercent: 80,
+  startSocPercent: DEFAULT_START_SOC * 100,
   spacingM: 10,
   smoothingWindowM: 150,
   descentSpeedCap: null,

@@ -16,7 +16,7 @@ import { DIRECTIONS, type Direction } from '@shared/domain/scenarios';
 import type { VehicleProfile } from '@shared/domain/vehicle-profiles';
 import { describeApiError } from '../core/api-error-message';
 import { RoadRoutesApi, type RouteVersionInfo } from '../road-routes/road-routes-api';
-import { speedLimitRange } from '@shared/presentation/index';
+import { SOC_PERCENT_RANGE, speedLimitRange } from '@shared/presentation/index';
 import { unitLabel } from '../units/unit-format';
 import { speedLimitValidator } from '../units/speed-limit-validator';
 import { UnitPreference } from '../units/unit-preference';
@@ -66,6 +66,7 @@ export default class ScenarioForm {
   protected readonly units = inject(UnitPreference).system;
   /** The contract's speed-limit range in the displayed unit, for the speed cap and its message. */
   protected readonly speedRange = computed(() => speedLimitRange(this.units()));
+  protected readonly socRange = SOC_PERCENT_RANGE;
   protected readonly directions = DIRECTIONS;
   protected readonly directionLabels = DIRECTION_LABELS;
   protected readonly loadChoices: readonly { value: LoadChoice; label: string }[] = [
@@ -99,7 +100,7 @@ export default class ScenarioForm {
     season: new FormControl<SeasonChoice>(DEFAULT_SCENARIO_FORM.season, { nonNullable: true }),
     customAmbient: new FormControl(DEFAULT_SCENARIO_FORM.customAmbient, { nonNullable: true, validators: [Validators.required] }),
     customAuxKw: new FormControl(DEFAULT_SCENARIO_FORM.customAuxKw, { nonNullable: true, validators: [Validators.required, Validators.min(0), Validators.max(500)] }),
-    startSocPercent: new FormControl(DEFAULT_SCENARIO_FORM.startSocPercent, { nonNullable: true, validators: [Validators.required, Validators.min(0), Validators.max(100)] }),
+    startSocPercent: new FormControl(DEFAULT_SCENARIO_FORM.startSocPercent, { nonNullable: true, validators: [Validators.required, Validators.min(SOC_PERCENT_RANGE.min), Validators.max(SOC_PERCENT_RANGE.max)] }),
     spacingM: new FormControl(DEFAULT_SCENARIO_FORM.spacingM, { nonNullable: true, validators: [Validators.required, Validators.min(1), Validators.max(200)] }),
     smoothingWindowM: new FormControl(DEFAULT_SCENARIO_FORM.smoothingWindowM, { nonNullable: true, validators: [Validators.required, Validators.min(0), Validators.max(5000)] }),
     descentSpeedCap: new FormControl<number | null>(DEFAULT_SCENARIO_FORM.descentSpeedCap, { validators: [speedLimitValidator(() => this.units())] }),

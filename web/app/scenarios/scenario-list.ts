@@ -1,23 +1,21 @@
-import { ChangeDetectionStrategy, Component, computed, effect, inject, input, signal, untracked, viewChild } from '@angular/core';
+import { ChangeDetectionStrategy, Component, computed, effect, inject, input, resource, signal, viewChild } from '@angular/core';
 import { MatButtonModule } from '@angular/material/button';
 import { MatCheckboxModule } from '@angular/material/checkbox';
 import { MatIconModule } from '@angular/material/icon';
 import { MatPaginator, MatPaginatorModule } from '@angular/material/paginator';
-import { MatProgressBarModule } from '@angular/material/progress-bar';
 import { MatSort, MatSortModule } from '@angular/material/sort';
 import { MatTableDataSource, MatTableModule } from '@angular/material/table';
 import { Router, RouterLink } from '@angular/router';
 import type { RiskLevel } from '@shared/domain/analysis';
 import type { Scenario } from '@shared/domain/scenarios';
-import { describeApiError } from '../core/api-error-message';
 import { Session } from '../core/session';
 import { QuantityPipe } from '../units/quantity-pipe';
 import { UnitPreference } from '../units/unit-preference';
 import { RISK_ORDER, RISK_STYLES } from '@shared/presentation/index';
 import { DIRECTION_LABELS, SCENARIO_STATUS_LABELS, describeLoad, describeSeason } from '@shared/presentation/index';
+import { loadStateOf } from '../ui/load-state';
+import { LoadStatus } from '../ui/load-status';
 import { ScenariosApi } from './scenarios-api';
-
-type LoadState = { status: 'loading' } | { status: 'error'; message: string } | { status: 'ready' };
 
 /** Most scenarios compared side by side. */
 export const MAX_COMPARED = 4;
@@ -25,7 +23,7 @@ export const MAX_COMPARED = 4;
 /** Every scenario: status, headline figures, risk; pick two to four to compare. */
 @Component({
   selector: 'app-scenario-list',
-  imports: [RouterLink, MatTableModule, MatSortModule, MatPaginatorModule, MatCheckboxModule, MatButtonModule, MatIconModule, MatProgressBarModule, QuantityPipe],
+  imports: [RouterLink, MatTableModule, MatSortModule, MatPaginatorModule, MatCheckboxModule, MatButtonModule, MatIconModule, QuantityPipe, LoadStatus],
   templateUrl: './scenario-list.html',
   styleUrl: './scenario-list.scss',
   changeDetection: ChangeDetectionStrategy.OnPush,
@@ -47,7 +45,12 @@ export default class ScenarioList {
   protected readonly describeSeason = describeSeason;
   protected readonly columns = ['select', 'name', 'route', 'vehicle', 'conditions', 'status', 'net', 'regen', 'risk'];
   protected readonly dataSource = new MatTableDataSource<Scenario>([]);
-  protected readonly loadState = signal<LoadState>({ status: 'loading' });
+  /** The scenarios, of one route when `routeId` is given; a new route id drops the answer for the old one. */
+  private readonly scenarios = resource({
+    params: () => ({ routeId: this.routeId() }),
+    loader: ({ params }) => this.api.list(params),
+  });
+  protected readonly loadState = loadStateOf(this.scenarios);
   protected readonly selected = signal<readonly string[]>([]);
   protected readonly canCreate = computed(() => this.session.can('scenarios.edit'));
   protected readonly canCompare = computed(() => this.selected().length >= 2 && this.selected().length <= MAX_COMPARED);
@@ -68,8 +71,7 @@ export default class ScenarioList {
       this.dataSource.paginator = this.paginator() ?? null;
     });
     effect(() => {
-      const routeId = this.routeId();
-      untracked(() => void this.load(routeId));
+      this.dataSource.data = this.scenarios.value() ?? [];
     });
   }
 
@@ -99,14 +101,8 @@ export default class ScenarioList {
     return [...RISK_ORDER].reverse().find((level) => counts[level] > 0) ?? 'low';
   }
 
-  private async load(routeId: string | undefined): Promise<void> {
-    this.loadState.set({ status: 'loading' });
-    try {
-      this.dataSource.data = await this.api.list({ routeId });
-      this.loadState.set({ status: 'ready' });
-    } catch (error: unknown) {
-      this.loadState.set({ status: 'error', message: describeApiError(error) });
-    }
+  protected reload(): void {
+    this.scenarios.reload();
   }
 }
 

@@ -19,7 +19,7 @@ import { MatProgressBarModule } from '@angular/material/progress-bar';
 import { MatTooltipModule } from '@angular/material/tooltip';
 import { Router, RouterLink } from '@angular/router';
 import type { Descent, RiskLevel } from '@shared/domain/analysis';
-import type { DirectionResult, Scenario, ScenarioResult } from '@shared/domain/scenarios';
+import type { Scenario } from '@shared/domain/scenarios';
 import { DistanceChart, type ChartSeries } from '../charts/distance-chart';
 import { describeApiError, apiErrorBody } from '../core/api-error-message';
 import { Session } from '../core/session';
@@ -52,12 +52,12 @@ import {
 } from './result-series';
 import { brakeRiskBands } from '../charts/risk-bands';
 import { DIRECTION_LABELS, SCENARIO_STATUS_LABELS, describeLoad, describeSeason, riskRank } from '@shared/presentation/index';
-import { ScenariosApi, descentCardsUrl } from './scenarios-api';
+import { ScenariosApi, descentCardsUrl, type ResultScreenData, type ResultScreenDirection } from './scenarios-api';
 
 type ResultState =
   | { status: 'loading' }
   | { status: 'none' }
-  | { status: 'ready'; result: ScenarioResult }
+  | { status: 'ready'; result: ResultScreenData }
   | { status: 'error'; message: string };
 
 /** How often a queued or running scenario is asked for its status, ms. */
@@ -138,7 +138,7 @@ export default class ScenarioResultScreen {
     return state.status === 'ready' ? state.result : null;
   });
 
-  protected readonly direction = computed<DirectionResult | null>(() => {
+  protected readonly direction = computed<ResultScreenDirection | null>(() => {
     const result = this.result();
     return result ? (result.directions[this.directionIndex()] ?? result.directions[0] ?? null) : null;
   });

@@ -1,6 +1,8 @@
 import { HttpClient, HttpContext } from '@angular/common/http';
 import { Injectable, inject } from '@angular/core';
+import { profileSchema } from '@shared/domain/analysis';
 import {
+  directionResultSchema,
   scenarioComparisonSchema,
   scenarioListSchema,
   scenarioResultSchema,
@@ -8,12 +10,50 @@ import {
   type Scenario,
   type ScenarioComparison,
   type ScenarioDraftInput,
-  type ScenarioResult,
 } from '@shared/domain/scenarios';
 import { firstValueFrom } from 'rxjs';
+import { z } from 'zod';
 import { ERRORS_SHOWN_INLINE } from '../core/api-error-message';
 
 export type ScenarioExportKind = 'csv' | 'geojson' | 'pdf';
+
+/**
+ * The per-point series the result screen draws (its charts and the route on the map) and the
+ * step it asks for them at: one point per 25 m, with each step's hottest and fastest points kept,
+ * is finer than a chart a screen wide can show. The summary and the descents come whole; the
+ * exports (CSV, GeoJSON, PDF) still carry every point.
+ */
+export const RESULT_SCREEN_SERIES = [
+  'lon',
+  'lat',
+  'elevationM',
+  'gradePercent',
+  'speedMps',
+  'rollingN',
+  'aeroN',
+  'gradeN',
+  'inertiaN',
+  'batteryPowerW',
+  'soc',
+  'brakeTempC',
+] as const;
+export const RESULT_SCREEN_STEP_M = 25;
+
+const resultScreenSchema = scenarioResultSchema.extend({
+  directions: z
+    .array(
+      directionResultSchema.extend({
+        profile: profileSchema.pick({
+          distanceM: true,
+          ...(Object.fromEntries(RESULT_SCREEN_SERIES.map((name) => [name, true])) as Record<(typeof RESULT_SCREEN_SERIES)[number], true>),
+        }),
+      }),
+    )
+    .min(1),
+});
+/** A scenario's result as the result screen asks for it (the series it draws, thinned). */
+export type ResultScreenData = z.infer<typeof resultScreenSchema>;
+export type ResultScreenDirection = ResultScreenData['directions'][number];
 
 const inline = () => ({ context: new HttpContext().set(ERRORS_SHOWN_INLINE, true) });
 
@@ -50,8 +90,10 @@ export class ScenariosApi {
     return scenarioSchema.parse(await firstValueFrom(this.http.post(`${scenarioPath(scenarioId)}/run`, null, inline())));
   }
 
-  async result(scenarioId: string): Promise<ScenarioResult> {
-    return scenarioResultSchema.parse(await firstValueFrom(this.http.get(`${scenarioPath(scenarioId)}/result`, inline())));
+  /** The stored result with the per-point series the result screen draws, thinned for its charts. */
+  async result(scenarioId: string): Promise<ResultScreenData> {
+    const params = { profileStepM: RESULT_SCREEN_STEP_M, series: RESULT_SCREEN_SERIES.join(',') };
+    return resultScreenSchema.parse(await firstValueFrom(this.http.get(`${scenarioPath(scenarioId)}/result`, { ...inline(), params })));
   }
 
   async compare(scenarioIds: readonly string[]): Promise<ScenarioComparison> {

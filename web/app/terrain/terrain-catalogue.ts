@@ -3,7 +3,6 @@ import { ChangeDetectionStrategy, Component, DestroyRef, computed, inject, signa
 import { MatButtonModule } from '@angular/material/button';
 import { MatDialog } from '@angular/material/dialog';
 import { MatIconModule } from '@angular/material/icon';
-import { MatProgressBarModule } from '@angular/material/progress-bar';
 import { MatSnackBar } from '@angular/material/snack-bar';
 import { MatTableModule } from '@angular/material/table';
 import type { TerrainModel, TerrainStatus } from '@shared/domain/terrain';
@@ -22,8 +21,8 @@ import {
   formatResolution,
 } from './terrain-format';
 import { TerrainUpload } from './terrain-upload';
-
-type LoadState = { status: 'loading' } | { status: 'error'; message: string } | { status: 'ready' };
+import type { LoadState } from '../ui/load-state';
+import { LoadStatus } from '../ui/load-status';
 
 /** Outline colours on the map: our own, readable over the hillshade tint. */
 const FOOTPRINT_COLOURS = { ready: '#0b4f6c', processing: '#8a5a00', failed: '#b3261e', selected: '#e0561b' } as const;
@@ -37,7 +36,7 @@ const REFRESH_WHILE_PROCESSING_MS = 2000;
  */
 @Component({
   selector: 'app-terrain-catalogue',
-  imports: [DatePipe, MatButtonModule, MatIconModule, MatProgressBarModule, MatTableModule, TerrainMap, TerrainUpload],
+  imports: [LoadStatus, DatePipe, MatButtonModule, MatIconModule, MatTableModule, TerrainMap, TerrainUpload],
   templateUrl: './terrain-catalogue.html',
   styleUrl: './terrain-catalogue.scss',
   changeDetection: ChangeDetectionStrategy.OnPush,

@@ -10,6 +10,7 @@ import type { Subscription } from 'rxjs';
 import { describeApiError } from '../core/api-error-message';
 import { TerrainApi } from './terrain-api';
 import { formatFileSize } from './terrain-format';
+import { FileDrop } from '../ui/file-drop';
 
 /** Where an upload stands, as the panel shows it. */
 export type UploadState =
@@ -28,7 +29,7 @@ const POLL_INTERVAL_MS = 1500;
  */
 @Component({
   selector: 'app-terrain-upload',
-  imports: [ReactiveFormsModule, MatButtonModule, MatFormFieldModule, MatIconModule, MatInputModule, MatProgressBarModule],
+  imports: [ReactiveFormsModule, MatButtonModule, MatFormFieldModule, MatIconModule, MatInputModule, MatProgressBarModule, FileDrop],
   templateUrl: './terrain-upload.html',
   styleUrl: './terrain-upload.scss',
   changeDetection: ChangeDetectionStrategy.OnPush,
@@ -42,7 +43,6 @@ export class TerrainUpload {
   readonly ingestionFinished = output<TerrainModel>();
 
   protected readonly file = signal<File | null>(null);
-  protected readonly isDragging = signal(false);
   protected readonly state = signal<UploadState>({ status: 'idle' });
   protected readonly name = new FormControl('', { nonNullable: true, validators: [Validators.required, Validators.maxLength(120)] });
   protected readonly percent = computed(() => {
@@ -66,22 +66,6 @@ export class TerrainUpload {
     const chosen = input.files?.[0];
     if (chosen) this.takeFile(chosen);
     input.value = '';
-  }
-
-  protected dragOver(event: DragEvent): void {
-    event.preventDefault();
-    this.isDragging.set(true);
-  }
-
-  protected dragLeave(): void {
-    this.isDragging.set(false);
-  }
-
-  protected drop(event: DragEvent): void {
-    event.preventDefault();
-    this.isDragging.set(false);
-    const dropped = event.dataTransfer?.files?.[0];
-    if (dropped) this.takeFile(dropped);
   }
 
   protected startUpload(): void {
@@ -117,7 +101,7 @@ export class TerrainUpload {
     this.state.set({ status: 'idle' });
   }
 
-  private takeFile(file: File): void {
+  protected takeFile(file: File): void {
     this.file.set(file);
     if (!this.name.value) this.name.setValue(file.name.replace(/\.(tiff?|gtiff?)$/i, ''));
     if (this.state().status !== 'uploading') this.state.set({ status: 'idle' });

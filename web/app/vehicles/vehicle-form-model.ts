@@ -7,6 +7,7 @@
  */
 import type { RetarderType } from '@shared/domain/analysis';
 import type { VehicleProfileDraftInput } from '@shared/domain/vehicle-profiles';
+import { kphToMps } from '@shared/presentation/units';
 import { fromDisplay, toDisplay, unitLabel, type Quantity, type UnitSystem } from '../units/unit-format';
 
 export const VEHICLE_FIELD_GROUPS = [
@@ -72,7 +73,7 @@ export const VEHICLE_FIELDS: readonly VehicleField[] = [
   { key: 'maxChargePower', group: 'Battery and regeneration limits', label: 'Charge-power limit', unit: 'kW', factor: 1_000, min: 0, max: 5_000, step: 1, read: (p) => v(p).maxChargePowerW },
   { key: 'socTaperStart', group: 'Battery and regeneration limits', label: 'Charge limit starts falling at', unit: '% SOC', factor: 0.01, min: 0, max: 100, step: 1, read: (p) => v(p).socTaperStart ?? 0.85 },
   { key: 'socCeiling', group: 'Battery and regeneration limits', label: 'No charging above', unit: '% SOC', factor: 0.01, min: 0, max: 100, step: 1, read: (p) => v(p).socCeiling ?? 0.95 },
-  { key: 'regenMinSpeed', group: 'Battery and regeneration limits', label: 'Regeneration fades out below', unit: 'km/h', factor: 1 / 3.6, quantity: 'speed', min: 0, max: 36, step: 0.5, hint: 'Below this speed regeneration falls linearly to nothing at standstill; the friction brakes take the rest.', read: (p) => v(p).regenMinSpeedMps ?? 5 / 3.6 },
+  { key: 'regenMinSpeed', group: 'Battery and regeneration limits', label: 'Regeneration fades out below', unit: 'km/h', factor: kphToMps(1), quantity: 'speed', min: 0, max: 36, step: 0.5, hint: 'Below this speed regeneration falls linearly to nothing at standstill; the friction brakes take the rest.', read: (p) => v(p).regenMinSpeedMps ?? kphToMps(5) },
   { key: 'coldChargeFullFrom', group: 'Battery and regeneration limits', label: 'Full charge power from', unit: '°C', factor: 1, quantity: 'temperature', min: -20, max: 40, step: 1, hint: 'Ambient temperature; below it the charge-power limit falls towards its share at −20 °C.', read: (p) => v(p).coldChargeFullFromC ?? 10 },
   { key: 'coldChargeShare', group: 'Battery and regeneration limits', label: 'Charge power left at −20 °C (−4 °F)', unit: '%', factor: 0.01, min: 0, max: 100, step: 1, hint: '100 for a pack kept warm. Take it from the maker\'s charging limits for cold cells.', read: (p) => v(p).coldChargeShareAtMinus20C ?? 1 },
 

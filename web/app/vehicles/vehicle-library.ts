@@ -1,22 +1,20 @@
-import { ChangeDetectionStrategy, Component, computed, inject, signal } from '@angular/core';
+import { ChangeDetectionStrategy, Component, computed, inject, resource } from '@angular/core';
 import { MatButtonModule } from '@angular/material/button';
 import { MatCardModule } from '@angular/material/card';
 import { MatIconModule } from '@angular/material/icon';
-import { MatProgressBarModule } from '@angular/material/progress-bar';
 import { RouterLink } from '@angular/router';
 import type { VehicleProfile } from '@shared/domain/vehicle-profiles';
-import { describeApiError } from '../core/api-error-message';
 import { Session } from '../core/session';
 import { QuantityPipe } from '../units/quantity-pipe';
 import { UnitPreference } from '../units/unit-preference';
+import { loadStateOf } from '../ui/load-state';
+import { LoadStatus } from '../ui/load-status';
 import { VehicleProfilesApi } from './vehicle-profiles-api';
-
-type LoadState = { status: 'loading' } | { status: 'error'; message: string } | { status: 'ready' };
 
 /** The vehicle classes (read-only, copy to edit) and the authority's own profiles, as cards. */
 @Component({
   selector: 'app-vehicle-library',
-  imports: [RouterLink, MatCardModule, MatButtonModule, MatIconModule, MatProgressBarModule, QuantityPipe],
+  imports: [RouterLink, MatCardModule, MatButtonModule, MatIconModule, QuantityPipe, LoadStatus],
   template: `
     <div class="app-page">
       <h1 class="app-page-title">Vehicle profiles</h1>
@@ -24,10 +22,7 @@ type LoadState = { status: 'loading' } | { status: 'error'; message: string } | 
         Every engine parameter of the vehicles scenarios run with. The vehicle classes are typical figures to start from;
         @if (isAnalyst()) { copy one to tune it to your fleet. } @else { analysts tune copies of them to the fleet. }
       </p>
-      @switch (state().status) {
-        @case ('loading') { <mat-progress-bar mode="indeterminate" aria-label="Loading vehicle profiles" /> }
-        @case ('error') { <p class="app-inline-error" role="alert"><mat-icon>error</mat-icon> {{ $any(state()).message }}</p> }
-      }
+      <app-load-status [state]="state()" loadingLabel="Loading vehicle profiles" (retry)="reload()" />
       @for (section of sections(); track section.title) {
         <section [attr.aria-labelledby]="section.id">
           <h2 [id]="section.id">{{ section.title }}</h2>
@@ -84,23 +79,15 @@ export default class VehicleLibrary {
 
   protected readonly units = inject(UnitPreference).system;
   protected readonly isAnalyst = computed(() => this.session.can('vehicles.edit'));
-  protected readonly profiles = signal<VehicleProfile[]>([]);
-  protected readonly state = signal<LoadState>({ status: 'loading' });
+  private readonly list = resource({ loader: () => this.api.list() });
+  protected readonly profiles = computed<VehicleProfile[]>(() => this.list.value() ?? []);
+  protected readonly state = loadStateOf(this.list);
   protected readonly sections = computed(() => [
     { id: 'own-profiles', title: "The authority's profiles", profiles: this.profiles().filter((profile) => !profile.isPreset) },
     { id: 'vehicle-classes', title: 'Vehicle classes', profiles: this.profiles().filter((profile) => profile.isPreset) },
   ]);
 
-  constructor() {
-    void this.load();
-  }
-
-  private async load(): Promise<void> {
-    try {
-      this.profiles.set(await this.api.list());
-      this.state.set({ status: 'ready' });
-    } catch (error: unknown) {
-      this.state.set({ status: 'error', message: describeApiError(error) });
-    }
+  protected reload(): void {
+    this.list.reload();
   }
 }

@@ -6,7 +6,6 @@ import { MatFormFieldModule } from '@angular/material/form-field';
 import { MatIconModule } from '@angular/material/icon';
 import { MatInputModule } from '@angular/material/input';
 import { MatPaginatorModule, type PageEvent } from '@angular/material/paginator';
-import { MatProgressBarModule } from '@angular/material/progress-bar';
 import { MatSelectModule } from '@angular/material/select';
 import { MatTableModule } from '@angular/material/table';
 import { RouterLink } from '@angular/router';
@@ -23,8 +22,8 @@ import {
 import { describeApiError } from '../../core/api-error-message';
 import { appLinkOf } from '../../deleted-items/restorers';
 import { AuditApi } from './audit-api';
-
-type LoadState = { status: 'loading' } | { status: 'error'; message: string } | { status: 'ready' };
+import type { LoadState } from '../../ui/load-state';
+import { LoadStatus } from '../../ui/load-status';
 
 const PAGE_SIZE = 50;
 
@@ -32,6 +31,7 @@ const PAGE_SIZE = 50;
 @Component({
   selector: 'app-audit-log',
   imports: [
+    LoadStatus,
     DatePipe,
     ReactiveFormsModule,
     RouterLink,
@@ -42,7 +42,6 @@ const PAGE_SIZE = 50;
     MatSelectModule,
     MatButtonModule,
     MatIconModule,
-    MatProgressBarModule,
   ],
   templateUrl: './audit-log.html',
   styleUrl: './audit-log.scss',

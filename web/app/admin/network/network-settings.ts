@@ -5,12 +5,13 @@ import { MatButtonModule } from '@angular/material/button';
 import { MatFormFieldModule } from '@angular/material/form-field';
 import { MatIconModule } from '@angular/material/icon';
 import { MatInputModule } from '@angular/material/input';
-import { MatProgressBarModule } from '@angular/material/progress-bar';
 import { MatSnackBar } from '@angular/material/snack-bar';
 import { safetySettingsSchema } from '@shared/domain/analysis';
 import { networkSettingsSchema, type NetworkSettingsView } from '@shared/domain/board-summary';
 import { describeApiError } from '../../core/api-error-message';
 import { NetworkSettingsApi } from './network-settings-api';
+import type { LoadState } from '../../ui/load-state';
+import { LoadStatus } from '../../ui/load-status';
 
 const safety = safetySettingsSchema.shape;
 
@@ -31,19 +32,17 @@ function rangeControl(range: { min: number; max: number }): FormControl<number |
   return new FormControl<number | null>(null, [Validators.required, Validators.min(range.min), Validators.max(range.max)]);
 }
 
-type LoadState = { status: 'loading' } | { status: 'error'; message: string } | { status: 'ready' };
-
 /** The money and emission factors behind the board summary, each with where it comes from. */
 @Component({
   selector: 'app-network-settings',
   imports: [
+    LoadStatus,
     DatePipe,
     ReactiveFormsModule,
     MatButtonModule,
     MatFormFieldModule,
     MatIconModule,
     MatInputModule,
-    MatProgressBarModule,
   ],
   template: `
     <section class="app-page" aria-labelledby="network-title">
@@ -52,15 +51,7 @@ type LoadState = { status: 'loading' } | { status: 'error'; message: string } | 
         The board summary turns recovered braking energy into money and CO₂ with these two factors. Name the source of each:
         it is printed with the summary. The safety settings below apply to every descent assessment from the next run on.
       </p>
-      @let state = loadState();
-      @if (state.status === 'loading') {
-        <mat-progress-bar mode="indeterminate" aria-label="Loading network settings" />
-      } @else if (state.status === 'error') {
-        <p class="app-inline-error" role="alert">
-          <mat-icon>error</mat-icon>{{ state.message }}
-          <button matButton type="button" (click)="load()">Try again</button>
-        </p>
-      }
+      <app-load-status [state]="loadState()" loadingLabel="Loading network settings" (retry)="load()" />
       @if (view(); as view) {
         @if (view.isPlaceholder) {
           <p class="app-caution" role="note">

@@ -17,7 +17,6 @@ import { MatIconModule } from '@angular/material/icon';
 import { MatInputModule } from '@angular/material/input';
 import { MatMenuModule } from '@angular/material/menu';
 import { MatPaginator, MatPaginatorModule } from '@angular/material/paginator';
-import { MatProgressBarModule } from '@angular/material/progress-bar';
 import { MatSelectModule } from '@angular/material/select';
 import { MatSnackBar } from '@angular/material/snack-bar';
 import { MatSort, MatSortModule } from '@angular/material/sort';
@@ -29,8 +28,8 @@ import { Session } from '../../core/session';
 import { InvitePersonDialog } from './invite-person-dialog';
 import { PeopleApi } from './people-api';
 import { NO_PEOPLE_FILTER, matchesPeopleFilter, type PeopleFilter } from './people-filter';
-
-type LoadState = { status: 'loading' } | { status: 'error'; message: string } | { status: 'ready' };
+import type { LoadState } from '../../ui/load-state';
+import { LoadStatus } from '../../ui/load-status';
 
 const STATUS_LABELS: Readonly<Record<Person['status'], string>> = {
   invited: 'Invited',
@@ -42,6 +41,7 @@ const STATUS_LABELS: Readonly<Record<Person['status'], string>> = {
 @Component({
   selector: 'app-people',
   imports: [
+    LoadStatus,
     DatePipe,
     ReactiveFormsModule,
     MatTableModule,
@@ -53,7 +53,6 @@ const STATUS_LABELS: Readonly<Record<Person['status'], string>> = {
     MatButtonModule,
     MatIconModule,
     MatMenuModule,
-    MatProgressBarModule,
   ],
   templateUrl: './people.html',
   styleUrl: './people.scss',

@@ -4,9 +4,9 @@ import { join } from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { LRUCache } from 'lru-cache';
 import { Piscina } from 'piscina';
-import type { TerrainOverviewLevel } from '../db/schema/terrain';
+import type { TerrainOverviewLevel } from '../../db/schema/terrain';
 import { decodeWindow, forgetFile, type DecodeWindowTask } from './raster-decode.mjs';
-import { pngFromParts, renderTileRows, TILE_PX, warmUpKernel, type TilePart, type TileTask } from './tile-kernel.mjs';
+import { pngFromParts, renderTileRows, TILE_PX, warmUpKernel, type TilePart, type TileTask } from '../tiles/tile-kernel.mjs';
 
 /** A ready terrain model as sampling and rendering see it. */
 export interface TerrainSource {
@@ -348,10 +348,10 @@ function overviewBlock(buffer: Buffer): Block {
 
 /**
  * The worker file sits next to this module; the bundled server (dist/api/main.mjs) runs from the
- * repository root and finds it under api/terrain/.
+ * repository root and finds it under api/terrain/raster/.
  */
 function decodeWorkerPath(): string {
   const besideModule = fileURLToPath(new URL('./raster-decode-worker.mjs', import.meta.url));
   if (existsSync(besideModule)) return besideModule;
-  return join(process.cwd(), 'api', 'terrain', 'raster-decode-worker.mjs');
+  return join(process.cwd(), 'api', 'terrain', 'raster', 'raster-decode-worker.mjs');
 }

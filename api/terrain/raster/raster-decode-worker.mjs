@@ -9,7 +9,7 @@
 // renderTileRows task: { task, firstRow, endRow, final }; result: a TilePart (tile-kernel.d.mts).
 import Piscina from 'piscina';
 import { decodeWindow as decode, forgetFile } from './raster-decode.mjs';
-import { renderTilePng, renderTileRows as renderTileRowsOf, warmUpKernel } from './tile-kernel.mjs';
+import { renderTilePng, renderTileRows as renderTileRowsOf, warmUpKernel } from '../tiles/tile-kernel.mjs';
 
 warmUpKernel();
 

@@ -1,9 +1,9 @@
 import { open, stat } from 'node:fs/promises';
 import { fromFile, type GeoTIFFImage } from 'geotiff';
 import type { Polygon, TerrainDataType } from '@shared/domain/terrain';
-import { HttpError } from '../http/http-error';
-import { lookupEpsg, projectorFor, type CrsDefinition } from './crs-registry';
-import { WGS84_EQUATORIAL_M_PER_DEGREE, WGS84_MERIDIAN_M_PER_DEGREE } from './terrain-grid';
+import { HttpError } from '../../http/http-error';
+import { lookupEpsg, projectorFor, type CrsDefinition } from '../raster/crs-registry';
+import { WGS84_EQUATORIAL_M_PER_DEGREE, WGS84_MERIDIAN_M_PER_DEGREE } from '../raster/terrain-grid';
 
 /** What ingestion and sampling need to know about a GeoTIFF, read from its header alone. */
 export interface TerrainHeader {

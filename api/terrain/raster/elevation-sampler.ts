@@ -1,11 +1,11 @@
 import { setImmediate as yieldToEventLoop } from 'node:timers/promises';
 import type { SamplingMethod } from '@shared/domain/terrain';
-import type { AppDeps } from '../app-deps';
-import { NotFoundError } from '../http/http-error';
+import type { AppDeps } from '../../app-deps';
+import { NotFoundError } from '../../http/http-error';
 import type { Block, BlockStore, TerrainSource } from './block-store';
 import { projectorFor } from './crs-registry';
 import { bilinearValue, nearestValue, type GridGeometry } from './terrain-grid';
-import { terrainRuntimeFor, type ReadyTerrain } from './terrain-runtime';
+import { terrainRuntimeFor, type ReadyTerrain } from '../terrain-runtime';
 
 export interface SampleOptions {
   /** Bilinear (default) or nearest pixel. */

@@ -1,12 +1,12 @@
 import { readdir, rm } from 'node:fs/promises';
 import { join } from 'node:path';
-import type { AppDeps } from '../app-deps';
-import { requestRoadGraphRegrade } from '../road-graph/road-graph-jobs';
-import type { TerrainOverviewLevel } from '../db/schema/terrain';
-import type { TerrainSource } from './block-store';
+import type { AppDeps } from '../../app-deps';
+import { requestRoadGraphRegrade } from '../../road-graph/road-graph-jobs';
+import type { TerrainOverviewLevel } from '../../db/schema/terrain';
+import type { TerrainSource } from '../raster/block-store';
 import { PyramidBuilder } from './terrain-pyramid';
-import { beatIngestion, claimIngestion, findTerrainModel, updateTerrainModel } from './terrain-repository';
-import { terrainRuntimeFor } from './terrain-runtime';
+import { beatIngestion, claimIngestion, findTerrainModel, updateTerrainModel } from '../terrain-repository';
+import { terrainRuntimeFor } from '../terrain-runtime';
 import { StatisticsAccumulator, spikeThresholdM, type TerrainStatistics } from './terrain-statistics';
 
 /** Name of the background job that ingests one uploaded model. */

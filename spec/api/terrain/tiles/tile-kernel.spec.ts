@@ -1,9 +1,9 @@
 import { join } from 'node:path';
 import { PNG } from 'pngjs';
 import { afterAll, describe, expect, it } from 'vitest';
-import { ELEVATION_TINT_STOPS, tintInto } from '../../../api/terrain/elevation-tint';
-import { hornGradient, shade, sunTerms } from '../../../api/terrain/hillshade';
-import { bilinearValue, guardedLookup } from '../../../api/terrain/terrain-grid';
+import { ELEVATION_TINT_STOPS, tintInto } from '../../../../api/terrain/tiles/elevation-tint';
+import { hornGradient, shade, sunTerms } from '../../../../api/terrain/tiles/hillshade';
+import { bilinearValue, guardedLookup } from '../../../../api/terrain/raster/terrain-grid';
 import {
   encodePng,
   pngFromParts,
@@ -14,8 +14,8 @@ import {
   shadeAndTint,
   type TileLayer,
   type TileTask,
-} from '../../../api/terrain/tile-kernel.mjs';
-import { gdal, hasGdal, python, tempDir, writeSyntheticGrid } from './support/gdal';
+} from '../../../../api/terrain/tiles/tile-kernel.mjs';
+import { gdal, hasGdal, python, tempDir, writeSyntheticGrid } from '../support/gdal';
 
 const SUN = sunTerms({ azimuthDeg: 315, altitudeDeg: 45 });
 const NODES = 18;

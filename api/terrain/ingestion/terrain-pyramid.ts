@@ -1,7 +1,7 @@
 import { open, type FileHandle } from 'node:fs/promises';
 import { join } from 'node:path';
-import type { TerrainOverviewLevel } from '../db/schema/terrain';
-import { OVERVIEW_BLOCK_PX } from './block-store';
+import type { TerrainOverviewLevel } from '../../db/schema/terrain';
+import { OVERVIEW_BLOCK_PX } from '../raster/block-store';
 
 /**
  * Builds the reduced pyramid (2×, 4×, 8× … overviews) of a grid from rows streamed top to bottom,

@@ -1,9 +1,9 @@
 import { PNG } from 'pngjs';
-import type { Block, BlockStore } from './block-store';
-import { projectorFor } from './crs-registry';
+import type { Block, BlockStore } from '../raster/block-store';
+import { projectorFor } from '../raster/crs-registry';
 import { ELEVATION_TINT_STOPS } from './elevation-tint';
 import { sunTerms, type SunTerms } from './hillshade';
-import type { ReadyTerrain } from './terrain-runtime';
+import type { ReadyTerrain } from '../terrain-runtime';
 import { SAMPLES_PX, type TileLayer } from './tile-kernel.mjs';
 
 export const TILE_SIZE_PX = 256;

@@ -1,9 +1,9 @@
 import { execFileSync } from 'node:child_process';
 import { join } from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { closeTerrainRuntime } from '../../../api/terrain/terrain-runtime';
-import { createTestContext, signedInAgent, type TestContext } from '../../support/test-app';
-import { truncateAll } from '../../support/test-database';
+import { closeTerrainRuntime } from '../../../../api/terrain/terrain-runtime';
+import { createTestContext, signedInAgent, type TestContext } from '../../../support/test-app';
+import { truncateAll } from '../../../support/test-database';
 import {
   gdalBilinearReference,
   gdalInfo,
@@ -12,8 +12,8 @@ import {
   tempDir,
   writeSyntheticGrid,
   type SyntheticGrid,
-} from './support/gdal';
-import { uploadTerrain, waitUntilIngested, type Agent } from './support/terrain-fixtures';
+} from '../support/gdal';
+import { uploadTerrain, waitUntilIngested, type Agent } from '../support/terrain-fixtures';
 
 /**
  * Elevation sampling checked against GDAL (Debian's gdal-bin 3.6 and python3-gdal):

@@ -3,11 +3,11 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { closeTerrainRuntime } from '../../../api/terrain/terrain-runtime';
-import { TileCache } from '../../../api/terrain/tile-cache';
-import { createTestContext, type TestContext } from '../../support/test-app';
-import { sessionCookies } from '../../support/session-cookie';
-import { truncateAll } from '../../support/test-database';
+import { closeTerrainRuntime } from '../../../../api/terrain/terrain-runtime';
+import { TileCache } from '../../../../api/terrain/tiles/tile-cache';
+import { createTestContext, type TestContext } from '../../../support/test-app';
+import { sessionCookies } from '../../../support/session-cookie';
+import { truncateAll } from '../../../support/test-database';
 
 const KIB = 1024;
 

@@ -1,7 +1,7 @@
 import { join } from 'node:path';
 import { afterAll, describe, expect, it } from 'vitest';
-import { hornGradient, shade, shadeByte, slopeDeg, sunTerms } from '../../../api/terrain/hillshade';
-import { gdal, hasGdal, python, tempDir, writeSyntheticGrid } from './support/gdal';
+import { hornGradient, shade, shadeByte, slopeDeg, sunTerms } from '../../../../api/terrain/tiles/hillshade';
+import { gdal, hasGdal, python, tempDir, writeSyntheticGrid } from '../support/gdal';
 
 describe('hornGradient and slopeDeg', () => {
   it('gives 6.017° (10.54 %) on the engine README §6.5 worked example', () => {

@@ -1,0 +1,62 @@
+import { describe, expect, it } from 'vitest';
+import type { AppDeps } from '../../api/app-deps';
+import { attachJobQueue, jobQueueOf, runtimeOf } from '../../api/app-runtime';
+import { withDefaultServices } from '../../api/app-services';
+import { createInlineJobQueue, type JobQueue } from '../../api/jobs/job-queue';
+import { terrainRuntimeFor } from '../../api/terrain/terrain-runtime';
+import { testConfig } from '../support/test-app';
+
+/** Dependencies as a test or a tool builds them by hand (no database is reached here). */
+function handBuiltDeps(): AppDeps {
+  return { db: {} as AppDeps['db'], config: testConfig() };
+}
+
+describe('AppRuntime in AppDeps', () => {
+  it('is made once on the caller’s dependencies and shared by every copy withDefaultServices makes', () => {
+    const deps = handBuiltDeps();
+    const filled = withDefaultServices(deps);
+    const copy = { ...filled, sampleElevations: undefined };
+
+    expect(deps.runtime).toBeDefined();
+    expect(filled.runtime).toBe(deps.runtime);
+    expect(runtimeOf(copy)).toBe(deps.runtime);
+    expect(terrainRuntimeFor(copy)).toBe(terrainRuntimeFor(deps));
+    expect(runtimeOf(handBuiltDeps())).not.toBe(deps.runtime);
+  });
+
+  it('answers the attached queue to every feature once one is attached, seen from every copy', async () => {
+    const deps = handBuiltDeps();
+    const copy = withDefaultServices(deps);
+    const shared: JobQueue = createInlineJobQueue();
+    attachJobQueue(deps, shared);
+    let registered = 0;
+
+    expect(jobQueueOf(copy)).toBe(shared);
+    expect(await runtimeOf(copy).jobsFor('terrain', async () => void registered++)).toBe(shared);
+    expect(registered).toBe(0);
+  });
+
+  it('without one, gives each feature its own in-process queue, registering its workers once', async () => {
+    const runtime = runtimeOf(handBuiltDeps());
+    const handled: string[] = [];
+    let registrations = 0;
+    const register = async (queue: JobQueue) => {
+      registrations++;
+      await queue.registerWorker<{ n: number }>('count', async ({ n }) => {
+        await new Promise((resolve) => setTimeout(resolve, 20));
+        handled.push(`count ${n}`);
+      });
+    };
+
+    const [first, second] = await Promise.all([runtime.jobsFor('batch-runs', register), runtime.jobsFor('batch-runs', register)]);
+    const other = await runtime.jobsFor('calibrations', async () => undefined);
+    await first.send('count', { n: 1 });
+    await second.send('count', { n: 2 });
+    await runtime.inlineJobsIdle('batch-runs');
+
+    expect(first).toBe(second);
+    expect(other).not.toBe(first);
+    expect(registrations).toBe(1);
+    expect(handled.sort()).toEqual(['count 1', 'count 2']);
+  });
+});
