@@ -22,6 +22,6 @@ export * from './analyse-route';
 export * from './adhesion';
 export * from './endurance-brake';
 export * from './descent-safety';
+export * from './round-trip';
 export * from './auxiliary-power';
 export * from './service-day';
-export * from './round-trip';
