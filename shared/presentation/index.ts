@@ -17,3 +17,4 @@ export * from './board-figures';
 export * from './profile-columns';
 export * from './advice-cautions';
 export * from './worst-case';
+export * from './service-day-labels';

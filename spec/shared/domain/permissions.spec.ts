@@ -14,6 +14,7 @@ describe('the permission policy', () => {
       'deleted-items.list',
       'road-network.upload',
       'scenarios.edit',
+      'service-days.edit',
       'terrain.manage',
       'vehicles.edit',
     ]);
@@ -27,6 +28,7 @@ describe('the permission policy', () => {
       'mail.read',
       'network-settings.edit',
       'people.manage',
+      'service-days.edit',
       'terrain.force-delete',
       'terrain.manage',
     ]);
