@@ -20,8 +20,6 @@ export const PERMISSIONS = {
   'vehicles.edit': ['analyst'],
   /** Upload logged trips and decide on calibrations. */
   'calibration.edit': ['analyst', 'admin'],
-  /** Create, change, delete, restore and run service days (a network's blocks and chargers). */
-  'service-days.edit': ['analyst', 'admin'],
   /** Upload, delete and restore terrain models. */
   'terrain.manage': ['analyst', 'admin'],
   /** Delete a terrain model saved scenarios still depend on (`?force=true`). */
