@@ -1,6 +1,13 @@
 import { eq } from 'drizzle-orm';
 import type { User } from '@shared/domain/auth';
-import type { NetworkSettings, NetworkSettingsUpdate, NetworkSettingsView } from '@shared/domain/board-summary';
+import {
+  DEFAULT_CO2_REFERENCE_VEHICLE,
+  DEFAULT_DAY_COUNTS,
+  totalDays,
+  type NetworkSettings,
+  type NetworkSettingsUpdate,
+  type NetworkSettingsView,
+} from '@shared/domain/board-summary';
 import type { Executor } from '../db/client';
 import {
   DEFAULT_CRAWL_DISTANCE_M,
@@ -10,6 +17,7 @@ import {
   DEFAULT_WORST_CASE_AMBIENT_C,
 } from '@shared/engine/constants';
 import { networkSettings } from '../db/schema/index';
+import { UnprocessableError } from '../http/http-error';
 
 /**
  * What a fresh installation shows until an admin sets real figures; the same values as the
@@ -28,6 +36,8 @@ export const PLACEHOLDER_NETWORK_SETTINGS: NetworkSettings = {
   maxRoadGradePercent: DEFAULT_MAX_ROAD_GRADE_PERCENT,
   crawlSpeedKph: DEFAULT_CRAWL_SPEED_KPH,
   crawlDistanceM: DEFAULT_CRAWL_DISTANCE_M,
+  dayCounts: DEFAULT_DAY_COUNTS,
+  co2ReferenceVehicle: DEFAULT_CO2_REFERENCE_VEHICLE,
 };
 
 export async function readNetworkSettings(db: Executor): Promise<NetworkSettingsView> {
@@ -44,6 +54,8 @@ export async function readNetworkSettings(db: Executor): Promise<NetworkSettings
     maxRoadGradePercent: row.maxRoadGradePercent,
     crawlSpeedKph: row.crawlSpeedKph,
     crawlDistanceM: row.crawlDistanceM,
+    dayCounts: row.dayCounts,
+    co2ReferenceVehicle: row.co2ReferenceVehicle,
     isPlaceholder: row.updatedAt === null,
     updatedAt: row.updatedAt?.toISOString() ?? null,
     updatedByName: row.updatedByName ?? null,
@@ -52,6 +64,17 @@ export async function readNetworkSettings(db: Executor): Promise<NetworkSettings
 
 /** Saves the factors; a safety setting the request leaves out keeps its stored value. */
 export async function saveNetworkSettings(db: Executor, admin: User, update: NetworkSettingsUpdate): Promise<NetworkSettingsView> {
+  if (update.dayCounts) {
+    const total = totalDays(update.dayCounts);
+    if (total !== 365 && total !== 366) {
+      throw new UnprocessableError(
+        `dayCounts: the days of each day type and season add up to ${total}; they must add up to 365 (or 366 in a leap year)`,
+        'day_counts_not_a_year',
+        { field: 'dayCounts', total },
+      );
+    }
+  }
+  const current = await readNetworkSettings(db);
   const stored = await readSafetySettings(db);
   const settings: NetworkSettings = {
     ...update,
@@ -60,6 +83,8 @@ export async function saveNetworkSettings(db: Executor, admin: User, update: Net
     maxRoadGradePercent: update.maxRoadGradePercent ?? stored.maxRoadGradePercent,
     crawlSpeedKph: update.crawlSpeedKph ?? stored.crawlSpeedKph,
     crawlDistanceM: update.crawlDistanceM ?? stored.crawlDistanceM,
+    dayCounts: update.dayCounts ?? current.dayCounts,
+    co2ReferenceVehicle: update.co2ReferenceVehicle ?? current.co2ReferenceVehicle,
   };
   const values = { ...settings, updatedById: admin.id, updatedByName: admin.name, updatedAt: new Date() };
   await db

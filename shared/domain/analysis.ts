@@ -123,6 +123,13 @@ export const vehicleSchema = z
     coldChargeFullFromC: z.number().min(-20).max(40).default(10),
     /** Share of the charge-power limit left at −20 °C and below; 1 = no derating (a pack kept warm). */
     coldChargeShareAtMinus20C: share.default(1),
+    /**
+     * Usable capacity left at the end of the battery's life as a share of the new battery's
+     * (service-day runs at end of life). Absent: 0.8, the end of life common practice takes.
+     */
+    endOfLifeCapacityFraction: z.number().min(0.3).max(1).optional(),
+    /** Charge-power limit left at the end of the battery's life as a share of the new battery's. Absent: 1. */
+    endOfLifeChargePowerFraction: z.number().min(0.3).max(1).optional(),
   })
   .superRefine((vehicle, ctx) => {
     if (vehicle.socTaperStart > vehicle.socCeiling) {

@@ -1,12 +1,12 @@
 import * as z from 'zod';
 
 /** What the audit log records: every change to the work people share. */
-export const AUDITED_KINDS = ['route', 'scenario', 'vehicle-profile', 'terrain', 'review-item'] as const;
+export const AUDITED_KINDS = ['route', 'scenario', 'vehicle-profile', 'terrain', 'review-item', 'service-day'] as const;
 export const auditedKindSchema = z.enum(AUDITED_KINDS);
 export type AuditedKind = z.infer<typeof auditedKindSchema>;
 
 /** The kinds that are deleted restorably (review items are never deleted: their record stays). */
-export const RESTORABLE_KINDS = ['route', 'scenario', 'vehicle-profile', 'terrain'] as const satisfies readonly AuditedKind[];
+export const RESTORABLE_KINDS = ['route', 'scenario', 'vehicle-profile', 'terrain', 'service-day'] as const satisfies readonly AuditedKind[];
 export const restorableKindSchema = z.enum(RESTORABLE_KINDS);
 export type RestorableKind = z.infer<typeof restorableKindSchema>;
 
@@ -21,6 +21,7 @@ export const AUDITED_KIND_LABELS: Readonly<Record<AuditedKind, string>> = {
   'vehicle-profile': 'Vehicle profile',
   terrain: 'Terrain model',
   'review-item': 'Descent review item',
+  'service-day': 'Service day',
 };
 
 export const AUDIT_ACTION_LABELS: Readonly<Record<AuditAction, string>> = {

@@ -1,11 +1,77 @@
 import * as z from 'zod';
 import { riskLevelSchema, safetySettingsSchema } from './analysis';
 import { directionSchema } from './scenarios';
+import { DAY_TYPES } from './service-days';
+import { SEASONS } from './vehicle-profiles';
 
 /**
  * The board's one-page network summary, computed from scenarios marked "in service" with their
  * routes' trips per day and service days, and the money and emission factors an admin sets.
  */
+
+/** Days of each day type in each season in a year: the weights of the annual service-day basis. */
+const seasonDaysSchema = z.object({
+  winter: z.number().int().min(0).max(366),
+  mild: z.number().int().min(0).max(366),
+  summer: z.number().int().min(0).max(366),
+});
+export const dayCountsSchema = z.object({
+  weekday: seasonDaysSchema,
+  saturday: seasonDaysSchema,
+  'sunday-holiday': seasonDaysSchema,
+});
+export type DayCounts = z.infer<typeof dayCountsSchema>;
+
+/** Sum of a year's day counts (365, or 366 in a leap year, when they are right). */
+export function totalDays(counts: DayCounts): number {
+  let total = 0;
+  for (const dayType of DAY_TYPES) for (const season of SEASONS) total += counts[dayType][season];
+  return total;
+}
+
+/**
+ * Shipped day counts: winter December–February (90 days), summer June–August (92), mild the
+ * rest (183); 250 weekdays, 52 Saturdays and 63 Sundays and public holidays (a common calendar
+ * with about 11 holidays on weekdays), shared out over the seasons in proportion. Set your own.
+ */
+export const DEFAULT_DAY_COUNTS: DayCounts = {
+  weekday: { winter: 62, mild: 125, summer: 63 },
+  saturday: { winter: 13, mild: 26, summer: 13 },
+  'sunday-holiday': { winter: 15, mild: 32, summer: 16 },
+};
+
+export const REFERENCE_CONSUMPTION_UNITS = ['l-diesel', 'kwh'] as const;
+
+/**
+ * The vehicle the network's CO₂ is compared against (what the electric fleet replaces): its
+ * consumption per km and the CO₂ of one unit of what it consumes, with the source.
+ */
+export const co2ReferenceVehicleSchema = z.object({
+  name: z.string().trim().min(1).max(160),
+  /** Consumption per km in `consumptionUnit` (litres of diesel, or kWh-equivalent). */
+  consumptionPerKm: z.number().min(0.01).max(10),
+  consumptionUnit: z.enum(REFERENCE_CONSUMPTION_UNITS),
+  /** CO₂ per unit consumed, kg (per litre, or per kWh-equivalent). */
+  emissionFactorKgPerUnit: z.number().min(0).max(10),
+  source: z.string().trim().min(1).max(400),
+});
+export type Co2ReferenceVehicle = z.infer<typeof co2ReferenceVehicleSchema>;
+
+/**
+ * Shipped reference vehicle: illustrative figures to be replaced by the authority's own fleet
+ * data. 0.45 l/km is of the order a 12 m diesel city bus uses on hilly routes (from memory, not
+ * checked); 2.68 kg CO₂ per litre of diesel burnt is the usual tank-to-wheel factor (from memory:
+ * 10.21 kg per US gallon in the US EPA's emission factors for greenhouse gas inventories).
+ */
+export const DEFAULT_CO2_REFERENCE_VEHICLE: Co2ReferenceVehicle = {
+  name: 'Diesel city bus, 12 m (illustrative placeholder)',
+  consumptionPerKm: 0.45,
+  consumptionUnit: 'l-diesel',
+  emissionFactorKgPerUnit: 2.68,
+  source:
+    'Illustrative placeholder, from memory and not checked: about 45 l/100 km for a 12 m diesel city bus on hilly routes, and 2.68 kg CO2 per litre ' +
+    '(the US EPA emission factors give 10.21 kg per US gallon). Replace with your own fleet’s consumption and a named factor.',
+};
 
 export const networkSettingsSchema = z.object({
   /** Price of one kWh of traction energy, in `currency`. */
@@ -24,6 +90,10 @@ export const networkSettingsSchema = z.object({
   /** A speed profile below this speed for `crawlDistanceM` is not drivable as drawn, km/h. */
   crawlSpeedKph: safetySettingsSchema.shape.crawlSpeedKph,
   crawlDistanceM: safetySettingsSchema.shape.crawlDistanceM,
+  /** Days of each day type in each season: the weights of the annual figures from service days. */
+  dayCounts: dayCountsSchema,
+  /** What the network's CO₂ is compared against. */
+  co2ReferenceVehicle: co2ReferenceVehicleSchema,
 });
 export type NetworkSettings = z.infer<typeof networkSettingsSchema>;
 
@@ -37,6 +107,9 @@ export const networkSettingsUpdateSchema = networkSettingsSchema.extend({
   maxRoadGradePercent: safetySettingsSchema.shape.maxRoadGradePercent.unwrap().optional(),
   crawlSpeedKph: safetySettingsSchema.shape.crawlSpeedKph.unwrap().optional(),
   crawlDistanceM: safetySettingsSchema.shape.crawlDistanceM.unwrap().optional(),
+  /** Left out: kept. Must add up to 365 (366 in a leap year), else 422. */
+  dayCounts: dayCountsSchema.optional(),
+  co2ReferenceVehicle: co2ReferenceVehicleSchema.optional(),
 });
 export type NetworkSettingsUpdate = z.infer<typeof networkSettingsUpdateSchema>;
 

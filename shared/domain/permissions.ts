@@ -26,6 +26,8 @@ export const PERMISSIONS = {
   'terrain.force-delete': ['admin'],
   /** Upload and replace the base map. */
   'basemap.manage': ['analyst', 'admin'],
+  /** Create, change, delete, restore and run service days (blocks, chargers), and build them from a GTFS feed. */
+  'service-days.edit': ['analyst', 'admin'],
   /** Re-run every in-service scenario at once. */
   'batch-runs.start': ['analyst'],
   /** Acknowledge, mitigate, accept and reopen descent reviews. */
@@ -60,4 +62,5 @@ export const RESTORE_PERMISSION: Readonly<Record<RestorableKind, Permission>> = 
   scenario: 'scenarios.edit',
   'vehicle-profile': 'vehicles.edit',
   terrain: 'terrain.manage',
+  'service-day': 'service-days.edit',
 };

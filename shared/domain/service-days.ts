@@ -95,6 +95,8 @@ export const serviceDaySchema = serviceDayDraftSchema.extend({
   status: runStatusSchema.nullable(),
   failureReason: z.string().nullable(),
   isStale: z.boolean(),
+  /** What changed since the stored result was computed, in plain words (empty when not stale). */
+  staleReasons: z.array(z.string()),
   computedAt: z.iso.datetime({ offset: true }).nullable(),
   createdBy: z.string(),
   updatedAt: z.iso.datetime({ offset: true }),

@@ -394,7 +394,7 @@ export function analyseResampledRoute(
 }
 
 /** The minimum-time speed profile (forward–backward pass) of a prepared route. */
-function minimumTimeSpeeds(model: RouteModel, vehicle: Vehicle, options: AnalysisOptions): Float64Array {
+export function minimumTimeSpeeds(model: RouteModel, vehicle: Vehicle, options: AnalysisOptions): Float64Array {
   const segments = model.pointCount - 1;
   let deceleration: number | Float64Array = options.decelerationMps2;
   if (options.slopeAwareDeceleration) {

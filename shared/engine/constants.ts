@@ -188,3 +188,16 @@ export const DEFAULT_CRAWL_DISTANCE_M = 200;
 export const ENGINEERING_CAUTION =
   'Figures are engineering estimates; local codes, the vehicle maker\u2019s limits and licensed ' +
   'engineering judgement decide.';
+
+/** Density of cabin air for ventilation and door losses, kg/m³ (ISA sea level at 15 °C, U.S. Standard Atmosphere 1976: 1.225). */
+export const AIR_DENSITY_CABIN_KG_PER_M3 = 1.225;
+
+/** Specific heat of dry air at constant pressure, J/(kg·K) (about 1005 near room temperature, CRC Handbook of Chemistry and Physics, "Properties of air"). */
+export const AIR_SPECIFIC_HEAT_J_PER_KG_K = 1_005;
+
+/**
+ * Sensible heat a seated or standing passenger gives off, W (ASHRAE Handbook — Fundamentals,
+ * chapter "Nonresidential cooling and heating load calculations", table of heat gain from
+ * occupants: seated, very light work 70 W sensible of 115 W total; standing, light work 75 W).
+ */
+export const PASSENGER_SENSIBLE_HEAT_W = 70;

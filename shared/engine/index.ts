@@ -22,3 +22,5 @@ export * from './analyse-route';
 export * from './adhesion';
 export * from './endurance-brake';
 export * from './descent-safety';
+export * from './auxiliary-power';
+export * from './service-day';

@@ -10,3 +10,4 @@ export * from './batch-runs';
 export * from './audit';
 export * from './basemap';
 export * from './logged-trips';
+export * from './service-days';

@@ -1,5 +1,6 @@
 import { sql } from 'drizzle-orm';
-import { check, doublePrecision, pgTable, text, timestamp, uuid } from 'drizzle-orm/pg-core';
+import { check, doublePrecision, jsonb, pgTable, text, timestamp, uuid } from 'drizzle-orm/pg-core';
+import { DEFAULT_CO2_REFERENCE_VEHICLE, DEFAULT_DAY_COUNTS, type Co2ReferenceVehicle, type DayCounts } from '@shared/domain/board-summary';
 
 /**
  * The money and emission factors of the board summary: a single row (key 'network'), set by an
@@ -21,6 +22,10 @@ export const networkSettings = pgTable(
     maxRoadGradePercent: doublePrecision().notNull().default(15),
     crawlSpeedKph: doublePrecision().notNull().default(5),
     crawlDistanceM: doublePrecision().notNull().default(200),
+    /** Days of each day type per season (shared/domain/board-summary.ts dayCountsSchema). */
+    dayCounts: jsonb().$type<DayCounts>().notNull().default(DEFAULT_DAY_COUNTS),
+    /** The CO₂ baseline's reference vehicle. */
+    co2ReferenceVehicle: jsonb().$type<Co2ReferenceVehicle>().notNull().default(DEFAULT_CO2_REFERENCE_VEHICLE),
     /** Null while the shipped placeholders have not been replaced. */
     updatedById: uuid(),
     updatedByName: text(),

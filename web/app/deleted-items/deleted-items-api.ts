@@ -10,6 +10,7 @@ const API_PATHS: Readonly<Record<RestorableKind, string>> = {
   scenario: '/api/scenarios',
   'vehicle-profile': '/api/vehicles',
   terrain: '/api/terrain',
+  'service-day': '/api/service-days',
 };
 
 /** Recently deleted items and their restore endpoints; answers parsed with the shared schemas. */

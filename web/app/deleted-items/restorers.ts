@@ -13,5 +13,7 @@ export function appLinkOf(kind: AuditedKind, id: string): string[] {
       return ['/terrain'];
     case 'review-item':
       return ['/reviews', id];
+    case 'service-day':
+      return ['/service-days', id];
   }
 }

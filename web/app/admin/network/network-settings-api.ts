@@ -1,6 +1,6 @@
 import { HttpClient, HttpContext } from '@angular/common/http';
 import { Injectable, inject } from '@angular/core';
-import { networkSettingsViewSchema, type NetworkSettings, type NetworkSettingsView } from '@shared/domain/board-summary';
+import { networkSettingsViewSchema, type NetworkSettingsUpdate, type NetworkSettingsView } from '@shared/domain/board-summary';
 import { firstValueFrom } from 'rxjs';
 import { ERRORS_SHOWN_INLINE } from '../../core/api-error-message';
 
@@ -14,7 +14,7 @@ export class NetworkSettingsApi {
   }
 
   /** Saves the settings; a refusal is shown in the form. */
-  async save(settings: NetworkSettings): Promise<NetworkSettingsView> {
+  async save(settings: NetworkSettingsUpdate): Promise<NetworkSettingsView> {
     const body = await firstValueFrom(
       this.http.put('/api/settings/network', settings, { context: new HttpContext().set(ERRORS_SHOWN_INLINE, true) }),
     );

@@ -8,7 +8,7 @@ import { MatInputModule } from '@angular/material/input';
 import { MatProgressBarModule } from '@angular/material/progress-bar';
 import { MatSnackBar } from '@angular/material/snack-bar';
 import { safetySettingsSchema } from '@shared/domain/analysis';
-import { networkSettingsSchema, type NetworkSettingsView } from '@shared/domain/board-summary';
+import { networkSettingsUpdateSchema, type NetworkSettingsView } from '@shared/domain/board-summary';
 import { describeApiError } from '../../core/api-error-message';
 import { NetworkSettingsApi } from './network-settings-api';
 
@@ -223,7 +223,7 @@ export default class NetworkSettings {
     this.saving.set(true);
     this.saveError.set(null);
     try {
-      const settings = networkSettingsSchema.parse(this.form.getRawValue());
+      const settings = networkSettingsUpdateSchema.parse(this.form.getRawValue());
       this.show(await this.api.save(settings));
       this.snackBar.open('Network settings saved. The board summary uses them from now on.', 'OK');
     } catch (error: unknown) {
