@@ -16,6 +16,7 @@ import { peopleEndpoints } from './people/people-endpoints';
 import { reviewsEndpoints } from './reviews/reviews-endpoints';
 import { roadRouteEndpoints } from './road-routes/road-routes-endpoints';
 import { scenarioEndpoints } from './scenarios/scenarios-endpoints';
+import { serviceDayEndpoints } from './service-days/service-days-endpoints';
 import { terrainEndpoints } from './terrain/terrain-endpoints';
 import { vehicleProfileEndpoints } from './vehicle-profiles/vehicle-profiles-endpoints';
 
@@ -40,6 +41,7 @@ export function allEndpoints(deps: AppDeps): AnyEndpoint[] {
     ...loggedTripEndpoints(deps),
     ...calibrationEndpoints(deps),
     ...scenarioEndpoints(deps),
+    ...serviceDayEndpoints(deps),
     ...terrainEndpoints(deps),
     ...deletedItemsEndpoints(deps),
     ...auditEndpoints(deps),

@@ -8,6 +8,7 @@ import { closeAnalysisPool } from './analysis/analysis-pool';
 import { startBatchRunWorkers } from './batch-runs/batch-runs-service';
 import { startMaintenance } from './jobs/maintenance';
 import { startCalibrationWorkers } from './calibrations/calibrations-service';
+import { startServiceDayWorkers } from './service-days/service-days-service';
 import { createSmtpTransport, startMailWorker } from './mail/mail-worker';
 import { startSmtpFake } from './mail/smtp-fake';
 import { startTerrain } from './terrain/terrain-startup';
@@ -40,6 +41,7 @@ stoppers.push(() => closeAnalysisPool(deps));
 await startBasemap(deps);
 await startBatchRunWorkers(deps);
 await startCalibrationWorkers(deps);
+await startServiceDayWorkers(deps);
 // After the workers: what a crash left half-done is queued again now and every minute.
 if (config.RUN_WORKERS) stoppers.unshift(startMaintenance(deps));
 

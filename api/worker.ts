@@ -13,6 +13,7 @@ import { closeAnalysisPool } from './analysis/analysis-pool';
 import { startBatchRunWorkers } from './batch-runs/batch-runs-service';
 import { startMaintenance } from './jobs/maintenance';
 import { startCalibrationWorkers } from './calibrations/calibrations-service';
+import { startServiceDayWorkers } from './service-days/service-days-service';
 import { loadConfig } from './config';
 import { createDatabase } from './db/client';
 import { migrateDatabase } from './db/migrate';
@@ -34,6 +35,7 @@ const stopTerrain = await startTerrain(deps);
 await startBasemap(deps);
 await startBatchRunWorkers(deps);
 await startCalibrationWorkers(deps);
+await startServiceDayWorkers(deps);
 const stopMaintenance = startMaintenance(deps);
 console.log('[worker] Descentry worker running: terrain ingestion, base-map imports, batch runs, calibrations, mail outbox');
 

@@ -7,7 +7,8 @@ import type { PreviewRequestInput, PreviewResponse, ProfileView } from '@shared/
 import type { ElevationSampler } from '@shared/engine/analyse-route';
 import { EngineInputError, RouteTooLargeError, UncoveredTerrainError } from '@shared/engine/validation';
 import { HttpError } from '../http/http-error';
-import type { AnalysisTask, AnalysisTaskResult, ElevationAnswer, ElevationQuestion, EngineRefusal } from './analysis-task';
+import type { ServiceDayEngineInput, ServiceDayEngineResult } from '@shared/engine/service-day';
+import type { AnalysisTask, AnalysisTaskResult, ElevationAnswer, ElevationQuestion, EngineRefusal, ServiceDayTask, ServiceDayTaskResult } from './analysis-task';
 
 /** Runs one analysis and answers the engine's response (the engine's errors are thrown as they are). */
 export type RouteAnalyser = (request: PreviewRequestInput) => Promise<PreviewResponse>;
@@ -58,6 +59,24 @@ export class AnalysisPool {
   async analyseToJson(request: PreviewRequestInput, sampleElevations?: ElevationSampler, profileView?: ProfileView): Promise<Buffer> {
     const bytes = (await this.run(request, sampleElevations, true, profileView)) as Uint8Array;
     return Buffer.from(bytes.buffer, bytes.byteOffset, bytes.byteLength);
+  }
+
+  /** Runs a whole service day on a worker thread; an engine refusal is raised again as its error class. */
+  async runServiceDay(input: ServiceDayEngineInput): Promise<ServiceDayEngineResult> {
+    const pool = this.pool;
+    if (pool.queueSize >= this.options.maxQueue) throw busyError();
+    this.runningTasks++;
+    let result: ServiceDayTaskResult;
+    try {
+      result = (await pool.run({ serviceDay: input } satisfies ServiceDayTask)) as ServiceDayTaskResult;
+    } catch (error) {
+      if (isQueueFull(error)) throw busyError();
+      throw error;
+    } finally {
+      this.runningTasks--;
+    }
+    if (!result.ok) throw reviveRefusal(result.refusal);
+    return result.result;
   }
 
   /** Analyses handed to the pool and not yet settled (running or queued). */

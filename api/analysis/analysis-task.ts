@@ -12,6 +12,7 @@ import type { MessagePort } from 'node:worker_threads';
 import { Piscina } from 'piscina';
 import type { PreviewRequestInput, PreviewResponse, ProfileView } from '@shared/domain/analysis';
 import { analyseRoute } from '@shared/engine/analyse-route';
+import { runServiceDay, type ServiceDayEngineInput, type ServiceDayEngineResult } from '@shared/engine/service-day';
 import { viewProfile } from '@shared/engine/profile-view';
 import { EngineInputError, RouteTooLargeError, UncoveredTerrainError } from '@shared/engine/validation';
 
@@ -24,6 +25,12 @@ export interface AnalysisTask {
   /** With asJson: the profile as the client asked for it (all of it when absent). */
   profileView?: ProfileView;
 }
+
+/** A whole service day (every block) on one thread; its routes carry their elevations already. */
+export interface ServiceDayTask {
+  serviceDay: ServiceDayEngineInput;
+}
+export type ServiceDayTaskResult = { ok: true; result: ServiceDayEngineResult } | { ok: false; refusal: EngineRefusal };
 
 /** An engine refusal as data, enough to raise the same error again on the API thread. */
 export type EngineRefusal =
@@ -55,7 +62,10 @@ export interface ElevationQuestion {
 /** Elevation answer: NaN where no terrain covers the point, or why sampling failed. */
 export type ElevationAnswer = { ok: true; elevationsM: Float64Array } | { ok: false; message: string };
 
-export default async function analyse(task: AnalysisTask): Promise<AnalysisTaskResult | ReturnType<typeof Piscina.move>> {
+export default async function analyse(
+  task: AnalysisTask | ServiceDayTask,
+): Promise<AnalysisTaskResult | ServiceDayTaskResult | ReturnType<typeof Piscina.move>> {
+  if ('serviceDay' in task) return serviceDay(task);
   const port = task.elevationPort;
   try {
     const sampleElevations = port ? (points: [number, number][]) => askForElevations(port, points) : undefined;
@@ -71,6 +81,15 @@ export default async function analyse(task: AnalysisTask): Promise<AnalysisTaskR
     throw error;
   } finally {
     port?.close();
+  }
+}
+
+function serviceDay(task: ServiceDayTask): ServiceDayTaskResult {
+  try {
+    return { ok: true, result: runServiceDay(task.serviceDay) };
+  } catch (error) {
+    if (error instanceof EngineInputError) return { ok: false, refusal: describeRefusal(error) };
+    throw error;
   }
 }
 

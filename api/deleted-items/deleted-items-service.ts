@@ -1,5 +1,5 @@
 /**
- * Restorable deletes. Routes, scenarios, vehicle profiles and terrain models are never removed
+ * Restorable deletes. Routes, scenarios, service days, vehicle profiles and terrain models are never removed
  * when someone deletes them: they are hidden (deletedAt) and listed here, from where the roles
  * that may change them can restore them, for DELETED_RETENTION_DAYS. The maintenance sweep then
  * removes them for good (terrain with its files) and records that in the audit log.
@@ -11,7 +11,8 @@ import { DELETED_RETENTION_DAYS, type DeletedItem } from '@shared/domain/deleted
 import type { AppDeps } from '../app-deps';
 import { SYSTEM_ACTOR, recordAudit } from '../audit/audit-log';
 import type { Executor } from '../db/client';
-import { roadRoutes, roadRouteVersions, scenarios, terrainDependents, terrainModels, vehicleProfiles } from '../db/schema/index';
+import { roadRoutes, roadRouteVersions, scenarios, serviceDays, terrainDependents, terrainModels, vehicleProfiles } from '../db/schema/index';
+import { purgeServiceDay } from '../service-days/service-days-repository';
 import { purgeRoute } from '../road-routes/road-routes-repository';
 import { purgeScenario } from '../scenarios/scenarios-repository';
 import { purgeTerrain } from '../terrain/terrain-service';
@@ -69,6 +70,10 @@ async function deletedRows(db: Executor, deletedBefore?: Date): Promise<DeletedR
     .select({ id: terrainModels.id, name: terrainModels.name, deletedAt: terrainModels.deletedAt, deletedBy: terrainModels.deletedByName })
     .from(terrainModels)
     .where(deletedCondition(terrainModels.deletedAt));
+  const days = await db
+    .select({ id: serviceDays.id, name: serviceDays.name, deletedAt: serviceDays.deletedAt, deletedBy: serviceDays.deletedByName })
+    .from(serviceDays)
+    .where(deletedCondition(serviceDays.deletedAt));
   const plain = (kind: RestorableKind) => (row: { id: string; name: string; deletedAt: Date | null; deletedBy: string | null }): DeletedRow => ({
     kind,
     id: row.id,
@@ -89,6 +94,7 @@ async function deletedRows(db: Executor, deletedBefore?: Date): Promise<DeletedR
     })),
     ...profiles.map(plain('vehicle-profile')),
     ...terrain.map(plain('terrain')),
+    ...days.map(plain('service-day')),
   ];
 }
 
@@ -98,7 +104,7 @@ async function deletedRows(db: Executor, deletedBefore?: Date): Promise<DeletedR
  */
 export async function purgeExpiredDeletes(deps: AppDeps, now = new Date()): Promise<number> {
   const expired = await deletedRows(deps.db, new Date(now.getTime() - DELETED_RETENTION_DAYS * DAY_MS));
-  const order: RestorableKind[] = ['scenario', 'route', 'vehicle-profile', 'terrain'];
+  const order: RestorableKind[] = ['service-day', 'scenario', 'route', 'vehicle-profile', 'terrain'];
   expired.sort((a, b) => order.indexOf(a.kind) - order.indexOf(b.kind));
   let purged = 0;
   for (const item of expired) {
@@ -113,6 +119,8 @@ export async function purgeExpiredDeletes(deps: AppDeps, now = new Date()): Prom
       if (item.kind === 'scenario') {
         await tx.delete(terrainDependents).where(and(eq(terrainDependents.kind, 'scenario'), eq(terrainDependents.dependentId, item.id)));
         await purgeScenario(tx, item.id);
+      } else if (item.kind === 'service-day') {
+        await purgeServiceDay(tx, item.id);
       } else if (item.kind === 'route') {
         await purgeRoute(tx, item.id);
       } else {

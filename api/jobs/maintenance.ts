@@ -17,6 +17,7 @@ import { requeueStaleBatchItems } from '../batch-runs/batch-runs-service';
 import { purgeExpiredDeletes } from '../deleted-items/deleted-items-service';
 import { failInterruptedRuns } from '../scenarios/scenarios-repository';
 import { requeueStaleIngestion } from '../terrain/terrain-service';
+import { requeueStalledServiceDayRuns } from '../service-days/service-days-service';
 
 /** A scenario run takes seconds (one analysis is bounded); after this long "running" means lost, ms. */
 const SCENARIO_RUN_STALE_MS = 5 * 60_000;
@@ -27,6 +28,7 @@ export interface MaintenanceReport {
   ingestionRequeued: number;
   ingestionFailed: number;
   scenarioRunsFailed: number;
+  serviceDayRunsRequeued: number;
   deletedItemsPurged: number;
 }
 
@@ -34,6 +36,7 @@ export async function runMaintenance(deps: AppDeps, now = new Date()): Promise<M
   const batchItemsRequeued = await requeueStaleBatchItems(deps, now);
   const ingestion = await requeueStaleIngestion(deps, now);
   const scenarioRunsFailed = await failInterruptedRuns(deps.db, new Date(now.getTime() - SCENARIO_RUN_STALE_MS));
+  const serviceDayRunsRequeued = await requeueStalledServiceDayRuns(deps, now);
   await purgeIdleThrottles(deps.db);
   const deletedItemsPurged = await purgeExpiredDeletes(deps, now);
   return {
@@ -41,6 +44,7 @@ export async function runMaintenance(deps: AppDeps, now = new Date()): Promise<M
     ingestionRequeued: ingestion.requeued.length,
     ingestionFailed: ingestion.failed.length,
     scenarioRunsFailed,
+    serviceDayRunsRequeued,
     deletedItemsPurged,
   };
 }
@@ -54,11 +58,17 @@ export function startMaintenance(deps: AppDeps, intervalMs = MAINTENANCE_INTERVA
     running = runMaintenance(deps)
       .then((report) => {
         const total =
-          report.batchItemsRequeued + report.ingestionRequeued + report.ingestionFailed + report.scenarioRunsFailed + report.deletedItemsPurged;
+          report.batchItemsRequeued +
+          report.ingestionRequeued +
+          report.ingestionFailed +
+          report.scenarioRunsFailed +
+          report.serviceDayRunsRequeued +
+          report.deletedItemsPurged;
         if (total > 0) {
           console.log(
             `[maintenance] re-queued ${report.batchItemsRequeued} network-run item(s) and ${report.ingestionRequeued} terrain ingestion(s); ` +
               `failed ${report.ingestionFailed} ingestion(s) without a file and ${report.scenarioRunsFailed} interrupted scenario run(s); ` +
+              `re-queued ${report.serviceDayRunsRequeued} stalled service-day run(s); ` +
               `removed ${report.deletedItemsPurged} deleted item(s) for good`,
           );
         }

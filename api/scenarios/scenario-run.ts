@@ -46,23 +46,24 @@ export function resolveLoadAndSeason(profile: VehicleProfile, settings: Scenario
   return { payloadKg, ambientC: season.ambientC, auxPowerW: season.auxPowerW };
 }
 
-/** The engine request for one direction. */
-export function directionRequest(
-  route: Pick<RouteVersion, 'coordinates' | 'stops' | 'speedLimits' | 'defaultSpeedLimitKph' | 'lengthM'>,
+type RouteForRun = Pick<RouteVersion, 'coordinates' | 'stops' | 'speedLimits' | 'defaultSpeedLimitKph' | 'lengthM'>;
+
+/**
+ * A route version prepared for the engine in one direction: the line in the direction of travel
+ * and the route's options (spacing, smoothing, descent speed cap, speed limits, stops with dwell,
+ * safety settings with the profile's heaviest mass). Scenario runs and service-day runs both
+ * prepare their trips here.
+ */
+export function directionRoute(
+  route: RouteForRun,
   direction: 'outbound' | 'inbound',
   profile: VehicleProfile,
-  settings: ScenarioSettings,
-  startSoc: number,
-  initialBrakeTempC?: number,
+  options: Pick<ScenarioDraft['options'], 'spacingM' | 'smoothingWindowM' | 'descentSpeedCapKph' | 'useStops'>,
   safety?: NetworkSafetySettings,
-): PreviewRequestInput {
+): { route: PreviewRequestInput['route']; options: NonNullable<PreviewRequestInput['options']> } {
   const line = direction === 'outbound' ? route : mirrorRoute(route);
-  const { payloadKg, ambientC, auxPowerW } = resolveLoadAndSeason(profile, settings);
-  const { options } = settings;
   return {
     route: { type: 'LineString', coordinates: line.coordinates },
-    vehicle: { ...profile.vehicle, payloadKg, auxPowerW },
-    conditions: { ambientC, startSoc, ...(initialBrakeTempC === undefined ? {} : { initialBrakeTempC }) },
     options: {
       spacingM: options.spacingM,
       smoothingWindowM: options.smoothingWindowM,
@@ -73,6 +74,26 @@ export function directionRequest(
         : [],
       safety: { ...(safety ?? {}), worstCaseMassKg: heaviestMassKg(profile) },
     },
+  };
+}
+
+/** The engine request for one direction. */
+export function directionRequest(
+  route: RouteForRun,
+  direction: 'outbound' | 'inbound',
+  profile: VehicleProfile,
+  settings: ScenarioSettings,
+  startSoc: number,
+  initialBrakeTempC?: number,
+  safety?: NetworkSafetySettings,
+): PreviewRequestInput {
+  const { payloadKg, ambientC, auxPowerW } = resolveLoadAndSeason(profile, settings);
+  const prepared = directionRoute(route, direction, profile, settings.options, safety);
+  return {
+    route: prepared.route,
+    vehicle: { ...profile.vehicle, payloadKg, auxPowerW },
+    conditions: { ambientC, startSoc, ...(initialBrakeTempC === undefined ? {} : { initialBrakeTempC }) },
+    options: prepared.options,
   };
 }
 

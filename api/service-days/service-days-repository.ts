@@ -213,3 +213,5 @@ export async function takeStalledRuns(db: Executor, staleBefore: Date): Promise<
     .where(and(eq(serviceDayResults.status, 'running'), lt(serviceDayResults.heartbeatAt, staleBefore)))
     .returning();
 }
+
+export type ServiceDayRowType = ServiceDayRow;

@@ -18,3 +18,4 @@ export * from './profile-columns';
 export * from './advice-cautions';
 export * from './worst-case';
 export * from './service-day-labels';
+export * from './service-day-columns';

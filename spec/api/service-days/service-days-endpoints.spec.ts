@@ -1,0 +1,239 @@
+import request from 'supertest';
+import { afterAll, beforeEach, describe, expect, it } from 'vitest';
+import { serviceDayListSchema, serviceDayResultSchema, serviceDaySchema, type ServiceDayDraftInput } from '@shared/domain/service-days';
+import { ENGINE_VERSION } from '@shared/engine/constants';
+import { SERVICE_DAY_COLUMNS, serviceDayCsvHeader } from '@shared/presentation/index';
+import { ensureVehiclePresets, presetProfileId } from '../../../api/vehicle-profiles/vehicle-presets-seed';
+import { waitForInlineServiceDayRuns } from '../../../api/service-days/service-days-service';
+import { createTestContext } from '../../support/test-app';
+import { sessionCookies } from '../../support/session-cookie';
+import { countRows, truncateAll } from '../../support/test-database';
+import { aRouteDraft, pointNear } from '../../support/road-route-builders';
+
+const context = createTestContext();
+const { app, db } = context;
+const BUS = presetProfileId('battery-bus-12m');
+let cookieFor: ReturnType<typeof sessionCookies>;
+let analyst: string;
+
+beforeEach(async () => {
+  await truncateAll(db);
+  await ensureVehiclePresets(db);
+  cookieFor = sessionCookies(db, context.deps.config);
+  analyst = await cookieFor('analyst');
+});
+afterAll(() => context.close());
+
+async function aRoute(): Promise<{ id: string }> {
+  const response = await request(app).post('/api/routes').set('Cookie', await cookieFor('planner')).send(aRouteDraft());
+  if (response.status !== 201) throw new Error(`route: ${response.status} ${response.text}`);
+  return response.body as { id: string };
+}
+
+/** Two blocks on the 2 km spec line (falling 120 m eastwards): a depot at its west end, a terminus charger at its east end. */
+function aDay(routeId: string, overrides: Partial<ServiceDayDraftInput> = {}): ServiceDayDraftInput {
+  const depot = pointNear(0);
+  const terminus = pointNear(2_000);
+  return {
+    name: 'Winter weekday',
+    dayType: 'weekday',
+    season: 'winter',
+    chargers: [
+      { key: 'depot', name: 'West depot', kind: 'depot', position: [depot.lon, depot.lat], powerW: 100_000, efficiency: 0.92, targetSoc: 0.95 },
+      { key: 'east', name: 'East terminus', kind: 'terminus', position: [terminus.lon, terminus.lat], powerW: 300_000, efficiency: 0.9, targetSoc: 0.9 },
+    ],
+    blocks: [
+      {
+        blockId: 'B1',
+        vehicleProfileId: BUS,
+        depotChargerKey: 'depot',
+        pullOutS: 6 * 3600,
+        pullInS: 9 * 3600,
+        startSoc: 0.8,
+        trips: [
+          { routeId, direction: 'outbound', departureS: 6 * 3600 + 600 },
+          { routeId, direction: 'inbound', departureS: 7 * 3600 },
+          { routeId, direction: 'outbound', departureS: 7 * 3600 + 1800 },
+          { routeId, direction: 'inbound', departureS: 8 * 3600 },
+        ],
+      },
+      {
+        blockId: 'B2',
+        vehicleProfileId: BUS,
+        pullOutS: 7 * 3600,
+        pullInS: 8 * 3600 + 1800,
+        startSoc: 0.6,
+        trips: [
+          { routeId, direction: 'outbound', departureS: 7 * 3600 + 300, load: { kind: 'case', case: 'full-standing' } },
+          { routeId, direction: 'inbound', departureS: 7 * 3600 + 2400 },
+        ],
+      },
+    ],
+    ...overrides,
+  };
+}
+
+describe('saving service days', () => {
+  it('saves a day (201), reads it back and lists it with its block and trip counts', async () => {
+    const route = await aRoute();
+
+    const created = await request(app).post('/api/service-days').set('Cookie', analyst).send(aDay(route.id));
+
+    expect(created.status).toBe(201);
+    const day = serviceDaySchema.parse(created.body);
+    expect(created.headers['location']).toBe(`/api/service-days/${day.id}`);
+    expect(day).toMatchObject({ name: 'Winter weekday', status: null, isStale: false, reserveSoc: 0.15, batteryAge: 'beginning-of-life' });
+    expect(day.blocks.map((block) => block.trips.length)).toEqual([4, 2]);
+    const read = await request(app).get(`/api/service-days/${day.id}`).set('Cookie', await cookieFor('board'));
+    expect(read.status).toBe(200);
+    expect(read.body.chargers.map((charger: { key: string }) => charger.key)).toEqual(['depot', 'east']);
+    const list = serviceDayListSchema.parse((await request(app).get('/api/service-days').set('Cookie', await cookieFor('safety'))).body);
+    expect(list.items).toHaveLength(1);
+    expect(list.items[0]).toMatchObject({ id: day.id, blockCount: 2, tripCount: 6 });
+  });
+
+  it('refuses an unknown route with 422 naming the block and the trip, and saves nothing', async () => {
+    const route = await aRoute();
+    const draft = aDay(route.id);
+    draft.blocks[1]!.trips[1]!.routeId = '00000000-0000-4000-8000-000000000000';
+
+    const response = await request(app).post('/api/service-days').set('Cookie', analyst).send(draft);
+
+    expect(response.status).toBe(422);
+    expect(response.body.error.code).toBe('unknown_route');
+    expect(response.body.error.message).toContain('block “B2” (blocks[1]), trip 2');
+    expect(response.body.error.details).toMatchObject({ blockId: 'B2', tripIndex: 1, field: 'routeId' });
+    expect(await countRows(db, 'service_days')).toBe(0);
+  });
+
+  it('refuses an unknown charger, a missing route version and trips out of order, each named', async () => {
+    const route = await aRoute();
+    const unknownCharger = aDay(route.id);
+    unknownCharger.blocks[0]!.depotChargerKey = 'north';
+    const badVersion = aDay(route.id);
+    badVersion.blocks[0]!.trips[2]!.routeVersion = 7;
+    const outOfOrder = aDay(route.id);
+    outOfOrder.blocks[0]!.trips[1]!.departureS = 6 * 3600;
+
+    const charger = await request(app).post('/api/service-days').set('Cookie', analyst).send(unknownCharger);
+    const version = await request(app).post('/api/service-days').set('Cookie', analyst).send(badVersion);
+    const order = await request(app).post('/api/service-days').set('Cookie', analyst).send(outOfOrder);
+
+    expect(charger.status).toBe(422);
+    expect(charger.body.error).toMatchObject({ code: 'unknown_charger', details: { blockId: 'B1', field: 'depotChargerKey' } });
+    expect(charger.body.error.message).toContain('“north”');
+    expect(version.status).toBe(422);
+    expect(version.body.error.message).toContain('trip 3: the route has no version 7 (latest is 1)');
+    expect(order.status).toBe(422);
+    expect(order.body.error.details).toMatchObject({ blockId: 'B1', tripIndex: 1, field: 'departureS' });
+    expect(await countRows(db, 'service_days')).toBe(0);
+  });
+
+  it('refuses a malformed draft with 400 naming the field', async () => {
+    const route = await aRoute();
+    const response = await request(app)
+      .post('/api/service-days')
+      .set('Cookie', analyst)
+      .send({ ...aDay(route.id), reserveSoc: 0.9 });
+
+    expect(response.status).toBe(400);
+    expect(JSON.stringify(response.body.error)).toContain('reserveSoc');
+  });
+
+  it('lets analysts and admins write, and refuses planners, safety officers and the board', async () => {
+    const route = await aRoute();
+    for (const role of ['planner', 'safety', 'board'] as const) {
+      const refused = await request(app).post('/api/service-days').set('Cookie', await cookieFor(role)).send(aDay(route.id));
+      expect(refused.status, role).toBe(403);
+    }
+    const byAdmin = await request(app).post('/api/service-days').set('Cookie', await cookieFor('admin')).send(aDay(route.id));
+    expect(byAdmin.status).toBe(201);
+  });
+
+  it('deletes restorably: gone from reads, listed as deleted, back on restore, every step in the audit log', async () => {
+    const route = await aRoute();
+    const day = (await request(app).post('/api/service-days').set('Cookie', analyst).send(aDay(route.id))).body;
+
+    expect((await request(app).delete(`/api/service-days/${day.id}`).set('Cookie', analyst)).status).toBe(204);
+    expect((await request(app).get(`/api/service-days/${day.id}`).set('Cookie', analyst)).status).toBe(404);
+    const deleted = (await request(app).get('/api/deleted-items').set('Cookie', analyst)).body;
+    expect(deleted.items).toContainEqual(expect.objectContaining({ kind: 'service-day', id: day.id, name: 'Winter weekday' }));
+    const restored = await request(app).post(`/api/service-days/${day.id}/restore`).set('Cookie', analyst);
+    expect(restored.status).toBe(200);
+    expect((await request(app).get(`/api/service-days/${day.id}`).set('Cookie', analyst)).status).toBe(200);
+    const audit = (await request(app).get(`/api/audit-log?entityId=${day.id}`).set('Cookie', await cookieFor('admin'))).body;
+    expect(audit.items.map((event: { action: string }) => event.action).sort()).toEqual(['create', 'delete', 'restore']);
+  });
+});
+
+describe('running a service day', () => {
+  it('answers 404 before the first run, then runs through the queue to a stored result whose energy balances', async () => {
+    const route = await aRoute();
+    const day = (await request(app).post('/api/service-days').set('Cookie', analyst).send(aDay(route.id))).body;
+    const before = await request(app).get(`/api/service-days/${day.id}/result`).set('Cookie', analyst);
+    expect(before.status).toBe(404);
+    expect(before.body.error.message).toContain('not been run yet');
+
+    const queued = await request(app).post(`/api/service-days/${day.id}/run`).set('Cookie', analyst);
+    expect(queued.status).toBe(202);
+    expect(queued.headers['location']).toBe(`/api/service-days/${day.id}/result`);
+    await waitForInlineServiceDayRuns(context.deps);
+
+    const after = serviceDaySchema.parse((await request(app).get(`/api/service-days/${day.id}`).set('Cookie', analyst)).body);
+    expect(after).toMatchObject({ status: 'done', isStale: false, failureReason: null });
+    const response = await request(app).get(`/api/service-days/${day.id}/result`).set('Cookie', await cookieFor('board'));
+    expect(response.status).toBe(200);
+    const result = serviceDayResultSchema.parse(response.body);
+    expect(result.engineVersion).toBe(ENGINE_VERSION);
+    expect(result.blocks.map((block) => block.blockId)).toEqual(['B1', 'B2']);
+    const capacityWh = (await db.query.vehicleProfiles.findFirst({ where: (p, { eq }) => eq(p.id, BUS) }))!.vehicle.batteryCapacityWh;
+    const startSoc = { B1: 0.8, B2: 0.6 } as Record<string, number>;
+    for (const block of result.blocks) {
+      // (start SOC − end SOC) × usable capacity + energy charged into the battery = net battery energy of trips and layovers.
+      const left = (startSoc[block.blockId]! - block.endSoc) * capacityWh + block.chargedEnergyWh;
+      expect(Math.abs(left - block.tripNetEnergyWh)).toBeLessThanOrEqual(0.005 * Math.abs(block.tripNetEnergyWh));
+      expect(block.socTrace.length).toBeGreaterThan(4);
+    }
+    // B1 stands 7 min or more at the east terminus after each outbound trip: the charger there tops it up.
+    const b1 = result.blocks.find((block) => block.blockId === 'B1')!;
+    expect(b1.chargingEvents.filter((event) => event.chargerKey === 'east').length).toBeGreaterThan(0);
+    expect(b1.chargedEnergyWh).toBeGreaterThan(0);
+  });
+
+  it('marks the result stale when the day is changed, keeping the last result', async () => {
+    const route = await aRoute();
+    const day = (await request(app).post('/api/service-days').set('Cookie', analyst).send(aDay(route.id))).body;
+    await request(app).post(`/api/service-days/${day.id}/run`).set('Cookie', analyst);
+    await waitForInlineServiceDayRuns(context.deps);
+
+    const changed = await request(app).put(`/api/service-days/${day.id}`).set('Cookie', analyst).send(aDay(route.id, { name: 'Winter weekday, late' }));
+
+    expect(changed.status).toBe(200);
+    expect(changed.body).toMatchObject({ name: 'Winter weekday, late', isStale: true, status: 'done' });
+    expect(changed.body.staleReasons).toContain('the service day was changed after the run');
+    expect((await request(app).get(`/api/service-days/${day.id}/result`).set('Cookie', analyst)).status).toBe(200);
+  });
+
+  it('exports the result as CSV: the caution, the shared header, one row per block, charging event and descent', async () => {
+    const route = await aRoute();
+    const day = (await request(app).post('/api/service-days').set('Cookie', analyst).send(aDay(route.id))).body;
+    await request(app).post(`/api/service-days/${day.id}/run`).set('Cookie', analyst);
+    await waitForInlineServiceDayRuns(context.deps);
+    const result = serviceDayResultSchema.parse((await request(app).get(`/api/service-days/${day.id}/result`).set('Cookie', analyst)).body);
+
+    const response = await request(app).get(`/api/service-days/${day.id}/result.csv`).set('Cookie', await cookieFor('planner'));
+
+    expect(response.status).toBe(200);
+    expect(response.headers['content-type']).toContain('text/csv');
+    expect(response.headers['content-disposition']).toContain('.csv');
+    const lines = response.text.trimEnd().split('\r\n');
+    expect(lines[0]!.startsWith('# ')).toBe(true);
+    expect(lines[1]).toBe(serviceDayCsvHeader());
+    const rows = lines.slice(2).map((line) => line.split(','));
+    const expectedRows = result.blocks.reduce((sum, block) => sum + 1 + block.chargingEvents.length + block.descents.length, 0);
+    expect(rows).toHaveLength(expectedRows);
+    const endSocColumn = SERVICE_DAY_COLUMNS.findIndex((column) => column.key === 'endSocPercent');
+    const b2 = rows.find((row) => row[0] === 'block' && row[1] === 'B2')!;
+    expect(Number(b2[endSocColumn])).toBeCloseTo(result.blocks[1]!.endSoc * 100, 1);
+  });
+});
