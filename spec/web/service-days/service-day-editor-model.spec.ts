@@ -45,4 +45,11 @@ describe('the service-day editor model', () => {
     expect(fieldErrors({ path: ['blocks', 0, 'trips', 1, 'routeId'] }, 'Route not found').get('blocks.0.trips.1.routeId')).toBe('Route not found');
     expect(fieldErrors(undefined, 'x').size).toBe(0);
   });
+
+  it('places the API’s 422 on the block, trip and field it names', () => {
+    const trip = fieldErrors({ blockId: 'B2', blockIndex: 1, tripIndex: 3, field: 'departureS' }, 'trip 4 departs out of order');
+    expect([...trip.entries()]).toEqual([['blocks.1.trips.3.departureS', 'trip 4 departs out of order']]);
+    expect([...fieldErrors({ blockId: 'B1', blockIndex: 0, field: 'depotChargerKey' }, 'not a depot charger').keys()]).toEqual(['blocks.0.depotChargerKey']);
+    expect([...fieldErrors({ field: 'chargers[2].key' }, 'key used twice').keys()]).toEqual(['chargers.2.name']);
+  });
 });

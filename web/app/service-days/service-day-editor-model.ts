@@ -88,7 +88,8 @@ export function checkDraft(draft: ServiceDayDraft): Map<string, string> {
 /**
  * The field problems of a 4xx answer, by field path (`blocks.2.trips.0.departureS`): the
  * validation issues the API lists in `details.issues`, or the one field it names in `details`
- * (`field` or `path`), which then carries the answer's `message`.
+ * (`field` or `path`, within the block `blockIndex` and trip `tripIndex` when given), which then
+ * carries the answer's `message`.
  */
 export function fieldErrors(details: unknown, message: string): Map<string, string> {
   const errors = new Map<string, string>();
@@ -101,7 +102,15 @@ export function fieldErrors(details: unknown, message: string): Map<string, stri
       if (Array.isArray(issuePath) && typeof message === 'string') errors.set(issuePath.join('.'), message);
     }
   }
-  const named = typeof field === 'string' ? field : Array.isArray(path) ? path.join('.') : typeof path === 'string' ? path : null;
+  const { blockIndex, tripIndex } = details as { blockIndex?: unknown; tripIndex?: unknown };
+  let named = typeof field === 'string' ? field.replace(/\[(\d+)\]/g, '.$1') : Array.isArray(path) ? path.join('.') : typeof path === 'string' ? path : null;
+  if (named && typeof blockIndex === 'number') {
+    named = `blocks.${blockIndex}${typeof tripIndex === 'number' ? `.trips.${tripIndex}` : ''}.${named}`;
+  } else if (!named && typeof blockIndex === 'number') {
+    named = `blocks.${blockIndex}`;
+  }
+  // A charger's key is not shown: its problem is shown beside the charger's name.
+  if (named) named = named.replace(/^(chargers\.\d+)\.key$/, '$1.name');
   if (named && !errors.has(named)) errors.set(named, message);
   return errors;
 }

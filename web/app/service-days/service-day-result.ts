@@ -1,4 +1,5 @@
 import { DatePipe, PercentPipe } from '@angular/common';
+import { HttpErrorResponse } from '@angular/common/http';
 import { ChangeDetectionStrategy, Component, DestroyRef, computed, effect, inject, input, signal, untracked } from '@angular/core';
 import { MatButtonModule } from '@angular/material/button';
 import { MatDialog } from '@angular/material/dialog';
@@ -194,8 +195,8 @@ export default class ServiceDayResultScreen {
       if (this.result()?.computedAt === day.computedAt) return;
       this.resultState.set({ status: 'ready', result: await this.api.result(id) });
     } catch (error: unknown) {
-      const code = apiErrorBody(error)?.code;
-      if ((code === 'not_found' || code === 'conflict') && this.day()) {
+      // Not run yet (404) or its first run still going (409): the page says so without an error.
+      if (this.day() && error instanceof HttpErrorResponse && (error.status === 404 || error.status === 409) && apiErrorBody(error)?.code !== 'not_found') {
         this.resultState.set({ status: 'none' });
         return;
       }
