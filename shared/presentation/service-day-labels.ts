@@ -3,7 +3,7 @@
  * of a service day (seconds after midnight, past 24 h for trips after midnight, as timetables
  * write them). The screens, the PDF and the CSV read them from here.
  */
-import type { BatteryAge, ChargerKind, DayType } from '../domain/service-days';
+import type { BatteryAge, BlockResult, ChargerKind, DayType } from '../domain/service-days';
 
 export const DAY_TYPE_LABELS: Readonly<Record<DayType, string>> = {
   weekday: 'Weekday',
@@ -47,3 +47,26 @@ export function formatDuration(durationS: number): string {
   const rest = minutes % 60;
   return rest === 0 ? `${Math.floor(minutes / 60)} h` : `${Math.floor(minutes / 60)} h ${rest} min`;
 }
+
+/** Blocks that cannot be worked first (lowest SOC first among them), then the rest by name. */
+export function orderBlocks<T extends Pick<BlockResult, 'blockId' | 'feasible' | 'minSoc'>>(blocks: readonly T[]): T[] {
+  return [...blocks].sort((a, b) => {
+    if (a.feasible !== b.feasible) return a.feasible ? 1 : -1;
+    if (!a.feasible) return a.minSoc - b.minSoc;
+    return a.blockId.localeCompare(b.blockId, 'en', { numeric: true });
+  });
+}
+
+/** What a service-day run leaves out, said beside its results on screen and in the report. */
+export const SERVICE_DAY_NOT_COVERED =
+  'Not covered: traffic and delays that shorten layovers, queues at chargers beyond the timetable, driver behaviour and faults. ' +
+  'The run follows the blocks as timetabled; the vehicle maker’s limits, local codes and a licensed engineer decide on service.';
+
+/** Line colours for the blocks on the SOC chart, repeated past twelve blocks; our own palette. */
+export const BLOCK_COLOURS: readonly string[] = [
+  '#0b5567', '#a0522d', '#3f7f4f', '#6a4c93', '#b8860b', '#1f6fb2',
+  '#8b3a62', '#4f6d2f', '#c05a00', '#2e5e8c', '#7a5c3e', '#00796b',
+];
+
+/** Colour of the reserve line. */
+export const RESERVE_COLOUR = '#b3261e';

@@ -14,6 +14,7 @@ import {
   DIRECTION_LABELS,
   SCENARIO_STATUS_LABELS,
   SEASON_LABELS,
+  SERVICE_DAY_NOT_COVERED,
   formatServiceTime,
   formatTemperatureReached,
   riskRank,
@@ -81,6 +82,7 @@ export default class ServiceDayResultScreen {
   protected readonly batteryAgeLabels = BATTERY_AGE_LABELS;
   protected readonly statusLabels = SCENARIO_STATUS_LABELS;
   protected readonly directionLabels = DIRECTION_LABELS;
+  protected readonly notCovered = SERVICE_DAY_NOT_COVERED;
 
   protected readonly day = signal<ServiceDay | null>(null);
   protected readonly routes = signal<RoadRouteSummary[]>([]);

@@ -1,23 +1,9 @@
 import type { BlockResult, ServiceDayResult } from '@shared/domain/service-days';
 import type { ChartSeries } from '../charts/distance-chart';
 
-/** Line colours for the blocks on the SOC chart, repeated past twelve blocks; our own palette. */
-export const BLOCK_COLOURS: readonly string[] = [
-  '#0b5567', '#a0522d', '#3f7f4f', '#6a4c93', '#b8860b', '#1f6fb2',
-  '#8b3a62', '#4f6d2f', '#c05a00', '#2e5e8c', '#7a5c3e', '#00796b',
-];
+import { BLOCK_COLOURS, RESERVE_COLOUR } from '@shared/presentation/index';
 
-/** Colour of the reserve line. */
-export const RESERVE_COLOUR = '#b3261e';
-
-/** Blocks that cannot be worked first (lowest SOC first among them), then the rest by block. */
-export function orderBlocks(blocks: readonly BlockResult[]): BlockResult[] {
-  return [...blocks].sort((a, b) => {
-    if (a.feasible !== b.feasible) return a.feasible ? 1 : -1;
-    if (!a.feasible) return a.minSoc - b.minSoc;
-    return a.blockId.localeCompare(b.blockId, 'en', { numeric: true });
-  });
-}
+export { BLOCK_COLOURS, RESERVE_COLOUR, orderBlocks } from '@shared/presentation/index';
 
 /**
  * The SOC chart: one line per block (time of day in hours on x, SOC in percent on y) and the
