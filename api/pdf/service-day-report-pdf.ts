@@ -171,7 +171,9 @@ function socChart(page: PdfLayout, result: ServiceDayResult, reserveSoc: number)
   const stepS = toS - fromS > 12 * 3600 ? 2 * 3600 : 3600;
   for (let timeS = fromS; timeS <= toS; timeS += stepS) {
     page.apply({ size: 7, colour: MUTED });
-    doc.text(formatServiceTime(timeS), x(timeS) - 15, bottom + 4, { width: 30, align: 'center' });
+    // Kept inside the margins: the last label is drawn ending at the chart's right edge.
+    const labelX = Math.min(x(timeS) - 15, page.left + page.width - 30);
+    doc.text(formatServiceTime(timeS), labelX, bottom + 4, { width: 30, align: labelX < x(timeS) - 15 ? 'right' : 'center' });
   }
   doc.restore();
   result.blocks.forEach((block, index) => {
