@@ -5,6 +5,9 @@
  * Which result counts for a route: among the route's scenarios marked in service that have a
  * stored result, the one computed last (ties: the one saved last). One scenario per route, so a
  * route with a summer and a winter variant in service is not counted twice.
+ *
+ * `annual` puts the year on one stated basis: the in-service service days weighted by the
+ * network's day counts when there are any, else these scenario totals (api/board/annual-basis.ts).
  */
 import { and, desc, eq, inArray, isNotNull, isNull, sql } from 'drizzle-orm';
 import type { BoardSummary, RouteYear } from '@shared/domain/board-summary';
@@ -16,6 +19,7 @@ import type { Executor } from '../db/client';
 import { reviewItems, roadRouteVersions, roadRoutes, scenarios, vehicleProfiles } from '../db/schema/index';
 import { matchStretches } from '../reviews/review-workflow';
 import { readNetworkSettings } from './network-settings';
+import { annualBasis } from './annual-basis';
 
 /** How many descents the summary lists, steepest mean grade first. */
 export const STEEPEST_DESCENT_COUNT = 5;
@@ -46,6 +50,14 @@ export async function boardSummary(db: Executor, now: Date = new Date()): Promis
   const sum = (pick: (route: RouteYear) => number) => routes.reduce((total, route) => total + pick(route), 0);
   const annualRegenKWh = sum((route) => route.annualRegenKWh);
 
+  const totals = {
+    annualKm: sum((route) => route.annualKm),
+    annualRegenKWh,
+    annualFrictionBrakeKWh: sum((route) => route.annualFrictionBrakeKWh),
+    annualNetKWh: sum((route) => route.annualNetKWh),
+    regenValue: annualRegenKWh * settings.energyTariffPerKWh,
+    co2AvoidedKg: annualRegenKWh * settings.gridEmissionFactorKgPerKWh,
+  };
   return {
     generatedAt: now.toISOString(),
     settings: {
@@ -57,18 +69,12 @@ export async function boardSummary(db: Executor, now: Date = new Date()): Promis
       isPlaceholder: settings.isPlaceholder,
     },
     routes,
-    totals: {
-      annualKm: sum((route) => route.annualKm),
-      annualRegenKWh,
-      annualFrictionBrakeKWh: sum((route) => route.annualFrictionBrakeKWh),
-      annualNetKWh: sum((route) => route.annualNetKWh),
-      regenValue: annualRegenKWh * settings.energyTariffPerKWh,
-      co2AvoidedKg: annualRegenKWh * settings.gridEmissionFactorKgPerKWh,
-    },
+    totals,
     openSafetyItems: await openItemCounts(db),
     acceptedRisks: await acceptedRiskCounts(db),
     steepestDescents: await steepestDescents(db, chosen),
     caution: ENGINEERING_CAUTION,
+    annual: await annualBasis(db, settings, totals),
   };
 }
 

@@ -197,6 +197,8 @@ export const boardSummarySchema = z.object({
     }),
   ),
   caution: z.string(),
+  /** The annual energy, money and CO₂ on one stated basis (service days when any is in service). */
+  annual: z.lazy(() => annualBasisSchema),
 });
 export type BoardSummary = z.infer<typeof boardSummarySchema>;
 
@@ -225,3 +227,72 @@ export const batchRunSchema = z.object({
 });
 export type BatchRun = z.infer<typeof batchRunSchema>;
 export const batchRunListSchema = z.object({ items: z.array(batchRunSchema.omit({ items: true })) });
+
+export const ANNUAL_BASES = ['service-days', 'scenarios'] as const;
+
+/**
+ * The network's year on one basis. `service-days`: Σ over the in-service service days of their
+ * last stored run × the days of their day type and season in a year (network settings);
+ * `scenarios`: the in-service scenarios × trips per day × service days per year (the routes'
+ * schedules), used while no service day is in service. `basisText` says which, in plain words.
+ */
+export const annualBasisSchema = z.object({
+  basis: z.enum(ANNUAL_BASES),
+  basisText: z.string(),
+  /** Net battery (or line) energy of all trips and layovers in a year, kWh. */
+  netEnergyKWh: z.number(),
+  /** Energy drawn from the grid in a year (charger losses included where known), kWh. */
+  gridEnergyKWh: z.number(),
+  /** gridEnergyKWh × tariff, in the settings' currency. */
+  energyCost: z.number(),
+  /** gridEnergyKWh × grid emission factor, kg. */
+  co2Kg: z.number(),
+  /** Distance driven in a year, km. */
+  annualKm: z.number(),
+  /** The same distance driven by the reference vehicle. */
+  baseline: co2ReferenceVehicleSchema.extend({ co2Kg: z.number(), co2SavedKg: z.number() }),
+  /** Service days counted, with their weight (service-days basis; empty otherwise). */
+  serviceDays: z.array(
+    z.object({
+      id: z.uuid(),
+      name: z.string(),
+      dayType: z.enum(DAY_TYPES),
+      season: z.enum(SEASONS),
+      daysPerYear: z.number().int(),
+      computedAt: z.iso.datetime({ offset: true }),
+      isStale: z.boolean(),
+      infeasibleBlocks: z.number().int(),
+      dayNetEnergyKWh: z.number(),
+      dayGridEnergyKWh: z.number(),
+      dayKm: z.number(),
+    }),
+  ),
+  /** Day types and seasons with days in the year but no in-service run: counted as zero, said here. */
+  notCovered: z.array(z.object({ dayType: z.enum(DAY_TYPES), season: z.enum(SEASONS), daysPerYear: z.number().int() })),
+  /** Highest charging power per charger over the in-service days (service-days basis). */
+  peakCharging: z.array(
+    z.object({
+      chargerKey: z.string(),
+      chargerName: z.string(),
+      kind: z.enum(['depot', 'terminus']),
+      /** Peak grid power during the day (vehicles charging there at once summed), W. */
+      daytimePeakW: z.number(),
+      /** Depot chargers: every block returning there charging at once after pull-in, W (an upper bound). */
+      overnightPeakW: z.number().nullable(),
+    }),
+  ),
+  /** What moves the annual figures most, largest first. */
+  sensitivity: z.array(
+    z.object({
+      factor: z.string(),
+      change: z.string(),
+      /** Change of the annual energy cost. */
+      energyCostDelta: z.number(),
+      /** Change of the annual CO₂ saved against the reference vehicle, kg. */
+      co2SavedDeltaKg: z.number(),
+    }),
+  ),
+  /** How the sensitivity table is computed and what it leaves out. */
+  sensitivityMethod: z.string(),
+});
+export type AnnualBasis = z.infer<typeof annualBasisSchema>;

@@ -1,5 +1,6 @@
 import request from 'supertest';
 import { afterAll, beforeEach, describe, expect, it } from 'vitest';
+import { boardSummarySchema } from '@shared/domain/board-summary';
 import { serviceDayListSchema, serviceDayResultSchema, serviceDaySchema, type ServiceDayDraftInput } from '@shared/domain/service-days';
 import { ENGINE_VERSION } from '@shared/engine/constants';
 import { SERVICE_DAY_COLUMNS, serviceDayCsvHeader } from '@shared/presentation/index';
@@ -235,5 +236,66 @@ describe('running a service day', () => {
     const endSocColumn = SERVICE_DAY_COLUMNS.findIndex((column) => column.key === 'endSocPercent');
     const b2 = rows.find((row) => row[0] === 'block' && row[1] === 'B2')!;
     expect(Number(b2[endSocColumn])).toBeCloseTo(result.blocks[1]!.endSoc * 100, 1);
+  });
+});
+
+describe('the board summary’s annual basis', () => {
+  it('stays on the scenarios while no service day is in service, then counts the in-service day × its days per year', async () => {
+    const route = await aRoute();
+    const board = await cookieFor('board');
+    const before = (await request(app).get('/api/board/summary').set('Cookie', board)).body;
+    expect(before.annual.basis).toBe('scenarios');
+    expect(before.annual.basisText).toContain('No service day is in service');
+
+    const day = (await request(app).post('/api/service-days').set('Cookie', analyst).send(aDay(route.id, { inService: true }))).body;
+    await request(app).post(`/api/service-days/${day.id}/run`).set('Cookie', analyst);
+    await waitForInlineServiceDayRuns(context.deps);
+    const result = serviceDayResultSchema.parse((await request(app).get(`/api/service-days/${day.id}/result`).set('Cookie', analyst)).body);
+
+    const summary = boardSummarySchema.parse((await request(app).get('/api/board/summary').set('Cookie', board)).body);
+    const annual = summary.annual;
+    expect(annual.basis).toBe('service-days');
+    expect(annual.basisText).toContain('× the days of its day type and season');
+    // Shipped day counts: 62 winter weekdays.
+    expect(annual.serviceDays).toEqual([expect.objectContaining({ id: day.id, daysPerYear: 62, infeasibleBlocks: 0, isStale: false })]);
+    const dayNetKWh = result.blocks.reduce((total, block) => total + block.tripNetEnergyWh, 0) / 1_000;
+    expect(annual.netEnergyKWh).toBeCloseTo(dayNetKWh * 62, 6);
+    // Six trips of the 2 km line.
+    expect(annual.serviceDays[0]!.dayKm).toBeCloseTo(12, 1);
+    expect(annual.annualKm).toBeCloseTo(12 * 62, 0);
+    // Grid energy is never less than what the batteries used (charger losses come on top).
+    expect(annual.gridEnergyKWh).toBeGreaterThan(annual.netEnergyKWh);
+    expect(annual.energyCost).toBeCloseTo(annual.gridEnergyKWh * summary.settings.energyTariffPerKWh, 6);
+    // Baseline: the shipped reference diesel bus, 0.45 l/km × 2.68 kg CO2/l.
+    expect(annual.baseline.co2Kg).toBeCloseTo(annual.annualKm * 0.45 * 2.68, 3);
+    expect(annual.baseline.co2SavedKg).toBeCloseTo(annual.baseline.co2Kg - annual.co2Kg, 6);
+    expect(annual.notCovered).toHaveLength(8);
+    expect(annual.peakCharging.find((peak) => peak.chargerKey === 'east')!.daytimePeakW).toBeGreaterThan(0);
+    // One block returns to the depot charger of 100 kW.
+    expect(annual.peakCharging.find((peak) => peak.chargerKey === 'depot')!.overnightPeakW).toBe(100_000);
+    const tariffRow = annual.sensitivity.find((row) => row.factor === 'Energy tariff')!;
+    expect(tariffRow.energyCostDelta).toBeCloseTo(0.1 * annual.energyCost, 6);
+    // The existing scenario-based fields are still there.
+    expect(summary.totals).toMatchObject({ annualKm: 0, annualNetKWh: 0 });
+  });
+
+  it('refuses day counts that do not make a year with 422, keeping the stored ones', async () => {
+    const admin = await cookieFor('admin');
+    const current = (await request(app).get('/api/settings/network').set('Cookie', admin)).body;
+    const { isPlaceholder: _p, updatedAt: _u, updatedByName: _n, ...settings } = current;
+    const dayCounts = { ...current.dayCounts, weekday: { winter: 70, mild: 125, summer: 63 } };
+
+    const refused = await request(app).put('/api/settings/network').set('Cookie', admin).send({ ...settings, dayCounts });
+
+    expect(refused.status).toBe(422);
+    expect(refused.body.error.message).toContain('add up to 373');
+    const after = (await request(app).get('/api/settings/network').set('Cookie', admin)).body;
+    expect(after.dayCounts).toEqual(current.dayCounts);
+    const saved = await request(app)
+      .put('/api/settings/network')
+      .set('Cookie', admin)
+      .send({ ...settings, dayCounts: { ...dayCounts, saturday: { winter: 5, mild: 26, summer: 13 } } });
+    expect(saved.status).toBe(200);
+    expect(saved.body.dayCounts.weekday.winter).toBe(70);
   });
 });
