@@ -188,6 +188,7 @@ export function calibratedDraft(profile: VehicleProfile, result: CalibrationResu
     loadsKg: profile.loadsKg,
     passengerMassKg: profile.passengerMassKg,
     seasons,
+    climate: profile.climate ?? null,
   };
 }
 

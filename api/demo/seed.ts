@@ -5,6 +5,7 @@ import { seedDemoNetwork } from './demo-network';
 import { seedDemoNetworkRun } from './demo-network-run';
 import { seedDemoPeople } from './demo-people';
 import { seedDemoReviews } from './demo-reviews';
+import { seedDemoServiceDays } from './demo-service-days';
 import { seedDemoTerrain } from './demo-terrain';
 
 /**
@@ -23,6 +24,8 @@ export async function seedDemo(deps: AppDeps): Promise<void> {
   await seedDemoNetwork(deps);
   await seedDemoReviews(deps);
   await seedDemoNetworkRun(deps);
+  // Weekday and Sunday service days for winter and summer, run, so the board counts whole days.
+  await seedDemoServiceDays(deps);
   // Invented logged trips of the mountain bus, ready to fit its profile to.
   await seedDemoLoggedTrips(deps);
 }

@@ -315,6 +315,7 @@ export async function prepareEngineInput(
     vehicle: { ...profile.vehicle, auxPowerW: profile.seasons[season].auxPowerW },
     loadsKg: profile.loadsKg,
     passengerMassKg: profile.passengerMassKg,
+    ...(profile.climate ? { climate: profile.climate } : {}),
   }));
   const ambients = profileList.map((profile) => profile.seasons[season].ambientC);
   // One ambient for the day: the coldest of the profiles' in winter, the hottest in summer (the harder case), else the first.

@@ -119,6 +119,7 @@ export function contentOf(row: VehicleProfileRow): VehicleProfileDraft {
     loadsKg: profile.loadsKg,
     passengerMassKg: profile.passengerMassKg,
     seasons: profile.seasons,
+    climate: profile.climate,
   };
 }
 
@@ -162,6 +163,7 @@ export function toVehicleProfile(row: VehicleProfileRow): VehicleProfile {
     loadsKg: row.loadsKg,
     passengerMassKg: row.passengerMassKg,
     seasons: row.seasons,
+    climate: row.climate ?? null,
     isPreset: row.isPreset,
     version: row.version,
     calibration: row.calibration ?? null,

@@ -109,6 +109,11 @@ export const serviceDayListSchema = z.object({
 /** A stop at a charger during a layover or at the depot. */
 export const chargingEventSchema = z.object({
   chargerKey: z.string(),
+  /**
+   * 'charging': energy into the battery during a layover; 'preconditioning': the depot charger
+   * heating or cooling the cabin before pull-out (no energy into the battery). Absent: charging.
+   */
+  purpose: z.enum(['charging', 'preconditioning']).optional(),
   startS: z.number(),
   endS: z.number(),
   /** Energy that went into the battery, Wh. */
@@ -146,7 +151,10 @@ export const blockResultSchema = z.object({
   endSoc: z.number(),
   /** Energy that went into the battery at chargers during the day, Wh. */
   chargedEnergyWh: z.number(),
-  /** Net battery energy of the trips and layovers (drawn minus regenerated), Wh. */
+  /**
+   * Net battery energy of the trips and layovers (drawn minus regenerated), Wh. For overhead-line
+   * vehicles (whose on-board storage is not modelled) the net energy drawn from the line.
+   */
   tripNetEnergyWh: z.number(),
   /** Whether the block can be worked: it never falls below the reserve and every trip can be driven. */
   feasible: z.boolean(),

@@ -22,6 +22,46 @@ export const seasonConditionsSchema = z.object({
   auxPowerW: z.number().min(0).max(500_000),
 });
 
+/**
+ * Heating, cooling and ventilation of the cabin, for service-day runs: auxiliary power from the
+ * ambient temperature, occupancy and door openings instead of one constant per season. A field
+ * left out takes the engine's default (shared/engine/constants.ts DEFAULT_CLIMATE, with its sources
+ * in the engine README). Scenario runs keep the season's constant auxiliary power.
+ */
+export const climateSettingsSchema = z
+  .object({
+    /** Cabin set point while heating, °C. */
+    heatingSetpointC: z.number().min(5).max(30),
+    /** Cabin set point while cooling, °C. */
+    coolingSetpointC: z.number().min(15).max(35),
+    /** Heat-loss coefficient of the body, W/K. */
+    bodyUaWPerK: z.number().min(0).max(5_000),
+    /** Fresh air taken in by the ventilation, m³/h. */
+    freshAirM3PerH: z.number().min(0).max(10_000),
+    /** Air exchanged each time the doors open at a stop, m³. */
+    doorAirExchangeM3: z.number().min(0).max(100),
+    /** Fans, lighting, electronics, compressors: drawn all the time, W. */
+    baseLoadW: z.number().min(0).max(100_000),
+    /** Rated heat output of the heat pump, W; 0 = no heat pump (resistive heating only). */
+    heatPumpHeatW: z.number().min(0).max(200_000),
+    /** Heating COP against outdoor temperature (the maker's test points), ascending in ambientC. */
+    heatPumpCop: z
+      .array(z.object({ ambientC: z.number().min(-40).max(40), cop: z.number().min(1).max(8) }))
+      .min(1)
+      .max(20)
+      .refine((points) => points.every((point, i) => i === 0 || point.ambientC > points[i - 1]!.ambientC), 'ambientC must ascend'),
+    /** Lowest ambient at which the heat pump runs, °C; below it the resistive back-up heats alone. */
+    heatPumpMinAmbientC: z.number().min(-40).max(20),
+    /** Cooling energy efficiency ratio (heat removed ÷ electrical power). */
+    coolingEer: z.number().min(0.5).max(8),
+    /** Time the cabin is pre-conditioned at the depot before pull-out, s. */
+    preconditioningS: z.number().min(0).max(7_200),
+    /** Heat capacity of the cabin's air and fittings, J/K. */
+    cabinHeatCapacityJPerK: z.number().min(0).max(10_000_000),
+  })
+  .partial();
+export type ClimateSettingsInput = z.infer<typeof climateSettingsSchema>;
+
 const vehicleProfileDraftShape = z.object({
   name: z.string().trim().min(1).max(120),
   description: z.string().trim().max(2_000).default(''),
@@ -34,6 +74,11 @@ const vehicleProfileDraftShape = z.object({
   /** Mass assumed per passenger, kg, when a scenario gives a passenger count. */
   passengerMassKg: z.number().min(40).max(120).default(70),
   seasons: z.object({ winter: seasonConditionsSchema, mild: seasonConditionsSchema, summer: seasonConditionsSchema }),
+  /**
+   * Cabin climate for service-day runs; null: the season's constant auxiliary power there too.
+   * Left out of a change: the stored climate is kept (a client that does not know it loses nothing).
+   */
+  climate: climateSettingsSchema.nullable().optional(),
 });
 
 export const vehicleProfileDraftSchema = vehicleProfileDraftShape.superRefine(loadsWithinPermissibleMass);

@@ -15,11 +15,7 @@
  * (passengers' heat adding to it) at the cooling EER. Electrical power = base load + heating or
  * cooling power.
  */
-import {
-  AIR_DENSITY_CABIN_KG_PER_M3,
-  AIR_SPECIFIC_HEAT_J_PER_KG_K,
-  PASSENGER_SENSIBLE_HEAT_W,
-} from './constants';
+import { AIR_DENSITY_CABIN_KG_PER_M3, AIR_SPECIFIC_HEAT_J_PER_KG_K, PASSENGER_SENSIBLE_HEAT_W } from './constants';
 
 /** One point of a heat pump's heating COP against outdoor air temperature. */
 export interface CopPoint {
@@ -44,7 +40,7 @@ export interface ClimateSettings {
   /** Rated heat output of the heat pump, W; 0 = no heat pump (resistive heating only). */
   heatPumpHeatW: number;
   /** Heating COP against ambient temperature, ascending in ambientC. */
-  heatPumpCop: CopPoint[];
+  heatPumpCop: readonly CopPoint[];
   /** Lowest ambient at which the heat pump runs, °C; below it the resistive back-up heats alone. */
   heatPumpMinAmbientC: number;
   /** Cooling energy efficiency ratio (cooling heat ÷ electrical power). */

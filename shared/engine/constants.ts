@@ -192,12 +192,70 @@ export const ENGINEERING_CAUTION =
 /** Density of cabin air for ventilation and door losses, kg/m³ (ISA sea level at 15 °C, U.S. Standard Atmosphere 1976: 1.225). */
 export const AIR_DENSITY_CABIN_KG_PER_M3 = 1.225;
 
-/** Specific heat of dry air at constant pressure, J/(kg·K) (about 1005 near room temperature, CRC Handbook of Chemistry and Physics, "Properties of air"). */
+/** Specific heat of dry air at constant pressure, J/(kg·K) (about 1005 near room temperature; from memory, the handbook value for air). */
 export const AIR_SPECIFIC_HEAT_J_PER_KG_K = 1_005;
 
 /**
- * Sensible heat a seated or standing passenger gives off, W (ASHRAE Handbook — Fundamentals,
+ * Sensible heat a seated or standing passenger gives off, W (from memory: ASHRAE Handbook — Fundamentals,
  * chapter "Nonresidential cooling and heating load calculations", table of heat gain from
  * occupants: seated, very light work 70 W sensible of 115 W total; standing, light work 75 W).
  */
 export const PASSENGER_SENSIBLE_HEAT_W = 70;
+
+/**
+ * Climate settings of a 12 m single-deck bus, used where a vehicle profile states none of its own
+ * (auxiliary-power.ts). Each value and its source:
+ * - set points 18 °C heating, 25 °C cooling: from memory (bus and rail-vehicle comfort
+ *   guidance puts short-ride winter cabins at about 15–20 °C);
+ * - body heat-loss coefficient 350 W/K, fresh air 800 m³/h, 6 m³ of air exchanged per stop,
+ *   3 kW base load (fans, lights, electronics, air compressor, steering pump): from memory. With
+ *   them the cabin needs 17.5 kW of heat at −10 °C empty with the doors shut, inside the
+ *   15–25 kW a 12 m bus needs at −10 °C (from memory), and the resistive total at −15 °C
+ *   (23.6 kW) is close to the 12 m battery bus preset's winter constant of 22 kW (vehicle-presets.ts);
+ * - heat pump 20 kW heat output, COP at the outdoor-air test temperatures of EN 14511-2
+ *   (+7, +2, −7 °C; from memory) plus −10/−20 °C and +15 °C: 2.5 at +7 °C is the "up to 2.5 times
+ *   as efficient as resistance heating" a bus heat-pump maker publishes (Thermo King TE Series
+ *   announcement, Mass Transit magazine, 2024); the fall towards the cold is from memory;
+ * - heat-pump lower limit −10 °C: from memory and cautious; CO₂ (R744) bus heat pumps are
+ *   published as working down to −20 °C (r744.com, report on bus heat pumps, 2021);
+ * - cooling EER 2.0: from memory;
+ * - 30 min of pre-conditioning: common practice; cabin heat capacity 800 kJ/K (its air, about
+ *   85 kJ/K, plus seats, panels and floor): from memory.
+ */
+export const DEFAULT_CLIMATE = {
+  heatingSetpointC: 18,
+  coolingSetpointC: 25,
+  bodyUaWPerK: 350,
+  freshAirM3PerH: 800,
+  doorAirExchangeM3: 6,
+  baseLoadW: 3_000,
+  heatPumpHeatW: 20_000,
+  heatPumpCop: [
+    { ambientC: -20, cop: 1.4 },
+    { ambientC: -10, cop: 1.7 },
+    { ambientC: -7, cop: 1.9 },
+    { ambientC: 2, cop: 2.2 },
+    { ambientC: 7, cop: 2.5 },
+    { ambientC: 15, cop: 3.0 },
+  ],
+  heatPumpMinAmbientC: -10,
+  coolingEer: 2.0,
+  preconditioningS: 1_800,
+  cabinHeatCapacityJPerK: 800_000,
+} as const satisfies ClimateSettingsShape;
+
+/** Shape of `DEFAULT_CLIMATE` (auxiliary-power.ts `ClimateSettings`, declared here to keep constants free of imports). */
+interface ClimateSettingsShape {
+  heatingSetpointC: number;
+  coolingSetpointC: number;
+  bodyUaWPerK: number;
+  freshAirM3PerH: number;
+  doorAirExchangeM3: number;
+  baseLoadW: number;
+  heatPumpHeatW: number;
+  heatPumpCop: readonly { ambientC: number; cop: number }[];
+  heatPumpMinAmbientC: number;
+  coolingEer: number;
+  preconditioningS: number;
+  cabinHeatCapacityJPerK: number;
+}

@@ -25,21 +25,38 @@
  *   (startSoc − endSoc) × usable capacity + energy charged into the battery
  *     = Σ trips' and layovers' net battery energy (drawn minus regenerated).
  */
-import type { AnalysisOptions, AnalysisOptionsInput, Conditions, LineString, RiskLevel, Surface, Vehicle, VehicleInput } from '../domain/analysis';
+import type {
+  AnalysisOptions,
+  AnalysisOptionsInput,
+  Conditions,
+  LineString,
+  RiskLevel,
+  Surface,
+  Vehicle,
+  VehicleInput,
+} from '../domain/analysis';
 import { lineStringSchema, optionsSchema, vehicleSchema } from '../domain/analysis';
-import type { BatteryAge, Block, BlockResult, Charger } from '../domain/service-days';
+import * as z from 'zod';
+import { blockSchema, chargerSchema, type BatteryAge, type Block, type BlockResult, type Charger } from '../domain/service-days';
 import { prepareRouteModel, minimumTimeSpeeds, withVehicle } from './analyse-route';
-import { ENGINE_VERSION, ENGINEERING_CAUTION, JOULES_PER_WH } from './constants';
+import { DEFAULT_CLIMATE, ENGINE_VERSION, ENGINEERING_CAUTION, JOULES_PER_WH, MAX_RESAMPLED_POINTS, MAX_ROUTE_LENGTH_M } from './constants';
 import { drivabilityStretches, runWorstCase } from './descent-safety';
 import { brakeRiskLevel, findDescentRanges, type DescentRange } from './descents';
 import { geodesicDistanceM } from './geodesy';
 import { chargeTaperFactor, coldChargeFactor } from './powertrain';
 import { resampleRoute } from './resample-route';
 import { runRouteFrom, type RouteRun } from './route-run';
-import { dwell, emptySegmentResult, governingBrakeTempC, initialVehicleState, type RouteModel, type VehicleState } from './route-simulation';
-import { tripAuxiliaryPowerW, type ClimateSettings } from './auxiliary-power';
-import { EngineInputError } from './validation';
-import { MAX_RESAMPLED_POINTS, MAX_ROUTE_LENGTH_M } from './constants';
+import {
+  advanceSegment,
+  dwell,
+  emptySegmentResult,
+  governingBrakeTempC,
+  initialVehicleState,
+  type RouteModel,
+  type VehicleState,
+} from './route-simulation';
+import { preconditioningEnergyJ, tripAuxiliaryPowerW, type ClimateSettings } from './auxiliary-power';
+import { assertInRange, EngineInputError, parseOrThrow } from './validation';
 
 /** A charger serves a vehicle whose trip ends within this distance of it, m (engineering judgement: a terminus stand). */
 export const CHARGER_REACH_M = 150;
@@ -74,8 +91,11 @@ export interface ServiceDayVehicleInput {
   vehicle: VehicleInput;
   loadsKg: { empty: number; seated: number; 'full-standing': number };
   passengerMassKg: number;
-  /** Auxiliary power from ambient, occupancy and doors; absent: the vehicle's constant `auxPowerW`. */
-  climate?: ClimateSettings;
+  /**
+   * Auxiliary power from ambient, occupancy and doors (auxiliary-power.ts); fields left out take
+   * `DEFAULT_CLIMATE`. Absent: the vehicle's constant `auxPowerW` all day, no pre-conditioning.
+   */
+  climate?: Partial<ClimateSettings>;
 }
 
 export interface ServiceDayEngineInput {
@@ -114,13 +134,22 @@ interface PreparedTrip {
   standalonePeakC: number[];
   /** Charger within reach of the last point, if any. */
   chargerAtEnd: Charger | undefined;
-  /** Auxiliary power of the trip and of the layover after it, W. */
+  /** Mean auxiliary power of the trip, W. */
   auxPowerW: number;
-  standAuxPowerW: number;
+  /** Buffers of the day's runs of this trip (nominal and worst case). */
+  series: TripSeries;
+  worstSeries: TripSeries;
 }
 
 /** Runs every block of a service day. Input errors that concern the whole day throw `EngineInputError`. */
-export function runServiceDay(input: ServiceDayEngineInput): ServiceDayEngineResult {
+export function runServiceDay(rawInput: ServiceDayEngineInput): ServiceDayEngineResult {
+  assertInRange('ambientC', rawInput.ambientC, -60, 60);
+  assertInRange('reserveSoc', rawInput.reserveSoc, 0, 1);
+  const input: ServiceDayEngineInput = {
+    ...rawInput,
+    chargers: parseOrThrow(z.array(chargerSchema), rawInput.chargers, 'chargers'),
+    blocks: parseOrThrow(z.array(blockSchema), rawInput.blocks, 'blocks'),
+  };
   const context = new DayContext(input);
   const blocks = input.blocks.map((block) => runBlock(context, block));
   return {
@@ -139,6 +168,9 @@ export const SERVICE_DAY_LIMITS =
 interface ParsedVehicle {
   input: ServiceDayVehicleInput;
   vehicle: Vehicle;
+  climate: ClimateSettings | undefined;
+  /** Auxiliary power while standing empty with the doors shut, W. */
+  standAuxPowerW: number;
   /** Usable capacity and charge power at the day's battery age. */
   capacityJ: number;
   maxChargePowerW: number;
@@ -148,7 +180,10 @@ class DayContext {
   readonly vehicles = new Map<string, ParsedVehicle>();
   readonly chargers = new Map<string, Charger>();
   private readonly prepared = new Map<string, PreparedTrip | { error: string }>();
-  private readonly routeGeometry = new Map<string, { resampled: ReturnType<typeof resampleRoute>; options: AnalysisOptions } | { error: string }>();
+  private readonly routeGeometry = new Map<
+    string,
+    { resampled: ReturnType<typeof resampleRoute>; options: AnalysisOptions } | { error: string }
+  >();
   /** Per charger: time-stamped changes of grid power, W. */
   private readonly gridSteps = new Map<string, { timeS: number; deltaW: number }[]>();
 
@@ -160,16 +195,22 @@ class DayContext {
         throw new EngineInputError(`vehicles.${index}.vehicle.${issue.path.join('.')}`, issue.message);
       }
       const vehicle = parsed.data;
-      const capacityShare = input.batteryAge === 'end-of-life' ? (vehicle.endOfLifeCapacityFraction ?? DEFAULT_END_OF_LIFE_CAPACITY_FRACTION) : 1;
+      const capacityShare =
+        input.batteryAge === 'end-of-life' ? (vehicle.endOfLifeCapacityFraction ?? DEFAULT_END_OF_LIFE_CAPACITY_FRACTION) : 1;
       const chargeShare = input.batteryAge === 'end-of-life' ? (vehicle.endOfLifeChargePowerFraction ?? 1) : 1;
       const aged: Vehicle = {
         ...vehicle,
         batteryCapacityWh: vehicle.batteryCapacityWh * capacityShare,
         maxChargePowerW: vehicle.maxChargePowerW * chargeShare,
       };
+      const climate = entry.climate ? { ...DEFAULT_CLIMATE, ...entry.climate } : undefined;
       this.vehicles.set(entry.vehicleProfileId, {
         input: entry,
         vehicle: aged,
+        climate,
+        standAuxPowerW: climate
+          ? tripAuxiliaryPowerW(climate, { ambientC: input.ambientC, passengers: 0, doorOpenings: 0, durationS: 3_600 })
+          : aged.auxPowerW,
         capacityJ: aged.batteryCapacityWh * JOULES_PER_WH,
         maxChargePowerW: aged.maxChargePowerW,
       });
@@ -180,7 +221,8 @@ class DayContext {
   /** The route input a trip refers to. */
   routeFor(trip: Block['trips'][number]): ServiceDayRouteInput | undefined {
     const candidates = this.input.routes.filter((route) => route.routeId === trip.routeId && route.direction === trip.direction);
-    if (trip.routeVersion !== undefined) return candidates.find((route) => route.routeVersion === undefined || route.routeVersion === trip.routeVersion);
+    if (trip.routeVersion !== undefined)
+      return candidates.find((route) => route.routeVersion === undefined || route.routeVersion === trip.routeVersion);
     return candidates[0];
   }
 
@@ -208,9 +250,15 @@ class DayContext {
     const line = lineStringSchema.safeParse(route.route);
     const options = optionsSchema.safeParse(route.options);
     if (!line.success) entry = { error: `the route line is not valid: ${line.error.issues[0]!.message}` };
-    else if (!options.success) entry = { error: `the route's settings are not valid: ${options.error.issues[0]!.path.join('.')} ${options.error.issues[0]!.message}` };
+    else if (!options.success)
+      entry = {
+        error: `the route's settings are not valid: ${options.error.issues[0]!.path.join('.')} ${options.error.issues[0]!.message}`,
+      };
     else {
-      const resampled = resampleRoute(line.data.coordinates, options.data.spacingM, { maxLengthM: MAX_ROUTE_LENGTH_M, maxPoints: MAX_RESAMPLED_POINTS });
+      const resampled = resampleRoute(line.data.coordinates, options.data.spacingM, {
+        maxLengthM: MAX_ROUTE_LENGTH_M,
+        maxPoints: MAX_RESAMPLED_POINTS,
+      });
       entry = resampled.elevationM ? { resampled, options: options.data } : { error: 'the route\u2019s positions carry no elevation' };
     }
     this.routeGeometry.set(key, entry);
@@ -234,12 +282,9 @@ class DayContext {
       durationS += v > 0 ? (2 * model0.slopeLengthM[k]!) / v : 0;
     }
     for (let i = 0; i < model0.pointCount; i++) durationS += model0.dwellS[i]!;
-    const climate = parsed.input.climate;
+    const climate = parsed.climate;
     const auxPowerW = climate
       ? tripAuxiliaryPowerW(climate, { ambientC: input.ambientC, passengers, doorOpenings: stopCount, durationS })
-      : parsed.vehicle.auxPowerW;
-    const standAuxPowerW = climate
-      ? tripAuxiliaryPowerW(climate, { ambientC: input.ambientC, passengers: 0, doorOpenings: 0, durationS: 3_600 })
       : parsed.vehicle.auxPowerW;
     const model = withVehicle(model0, { ...baseVehicle, auxPowerW });
     const coldRun = runRouteFrom(model, speedMps, initialVehicleState(conditions.startSoc, input.ambientC));
@@ -272,7 +317,8 @@ class DayContext {
       standalonePeakC,
       chargerAtEnd,
       auxPowerW,
-      standAuxPowerW,
+      series: tripSeries(model.pointCount),
+      worstSeries: tripSeries(model.pointCount),
     };
   }
 
@@ -312,10 +358,63 @@ function peakOver(run: RouteRun, range: DescentRange): number {
   return peak;
 }
 
+/** Per-point series a day's trip run keeps (reused from trip to trip: a day runs hundreds). */
+export interface TripSeries {
+  timeS: Float64Array;
+  soc: Float64Array;
+  /** Hotter of the brake lump and the two brake groups, °C. */
+  governingC: Float64Array;
+}
+
+export function tripSeries(pointCount: number): TripSeries {
+  return { timeS: new Float64Array(pointCount), soc: new Float64Array(pointCount), governingC: new Float64Array(pointCount) };
+}
+
+/**
+ * One trip from `state` (updated to the end state), exactly as `runRouteFrom` steps it (the same
+ * segment and dwell steps in the same order) but keeping only time, SOC and the governing brake
+ * temperature per point. Answers the energy drawn (sourceJ) and the run time.
+ */
+export function runTrip(
+  model: RouteModel,
+  speedMps: Float64Array,
+  state: VehicleState,
+  out: TripSeries,
+  lastPoint = model.pointCount - 1,
+): { sourceJ: number; durationS: number } {
+  const n = lastPoint + 1;
+  const segments = lastPoint;
+  const result = emptySegmentResult();
+  let timeS = 0;
+  let sourceJ = 0;
+  for (let i = 0; i < n; i++) {
+    out.timeS[i] = timeS;
+    out.soc[i] = state.soc;
+    out.governingC[i] = governingBrakeTempC(state);
+    const dwellS = model.dwellS[i]!;
+    if (dwellS > 0) {
+      dwell(model, i, dwellS, state, result);
+      timeS += dwellS;
+      sourceJ += result.split.sourcePowerW * dwellS;
+    }
+    if (i === segments) break;
+    advanceSegment(model, i, speedMps[i]!, speedMps[i + 1]!, state, result);
+    timeS += result.durationS;
+    sourceJ += result.split.sourcePowerW * result.durationS;
+  }
+  return { sourceJ, durationS: timeS };
+}
+
+function seriesPeak(series: TripSeries, range: DescentRange): number {
+  let peak = Number.NEGATIVE_INFINITY;
+  for (let i = range.firstSegment; i <= range.lastSegment + 1; i++) peak = Math.max(peak, series.governingC[i]!);
+  return peak;
+}
+
 const RISK_RANK: Record<RiskLevel, number> = { low: 0, elevated: 1, high: 2, critical: 3 };
 
 /** Simulates one block (module comment). */
-export function runBlock(context: DayContext, block: Block): BlockResult {
+function runBlock(context: DayContext, block: Block): BlockResult {
   const problems: string[] = [];
   const socTrace: { timeS: number; soc: number }[] = [];
   const chargingEvents: BlockResult['chargingEvents'] = [];
@@ -351,11 +450,36 @@ export function runBlock(context: DayContext, block: Block): BlockResult {
       minSocAtS = t;
     }
   };
-  note(timeS, state.soc);
+  let depot: Charger | undefined;
   if (block.depotChargerKey !== undefined) {
-    const depot = context.chargers.get(block.depotChargerKey);
+    depot = context.chargers.get(block.depotChargerKey);
     if (!depot) problems.push(`the depot charger \u201c${block.depotChargerKey}\u201d is not among the service day\u2019s chargers`);
   }
+  // Pre-conditioning before pull-out: from the depot charger when the block names one, else from the battery.
+  const preconditionJ = parsed.climate ? preconditioningEnergyJ(parsed.climate, context.input.ambientC) : 0;
+  if (preconditionJ > 0 && parsed.climate) {
+    const fromS = block.pullOutS - parsed.climate.preconditioningS;
+    if (depot) {
+      const gridJ = preconditionJ / depot.efficiency;
+      context.recordGridPower(depot.key, fromS, block.pullOutS, gridJ / parsed.climate.preconditioningS);
+      chargingEvents.push({
+        chargerKey: depot.key,
+        purpose: 'preconditioning',
+        startS: fromS,
+        endS: block.pullOutS,
+        energyWh: 0,
+        gridEnergyWh: gridJ / JOULES_PER_WH,
+        socBefore: state.soc,
+        socAfter: state.soc,
+      });
+    } else if (isBattery) {
+      note(fromS, state.soc);
+      const drawnJ = Math.min(preconditionJ, state.soc * capacityJ);
+      state.soc -= drawnJ / capacityJ;
+      netJ += drawnJ;
+    }
+  }
+  note(timeS, state.soc);
 
   let previous: PreparedTrip | undefined;
   let stopped = false;
@@ -371,7 +495,18 @@ export function runBlock(context: DayContext, block: Block): BlockResult {
       );
     } else if (trip.departureS > timeS) {
       const standModel = previous?.model;
-      const stand = stand_(context, parsed, state, standModel, previous?.standAuxPowerW ?? parsed.vehicle.auxPowerW, timeS, trip.departureS, previous?.chargerAtEnd, isBattery, note);
+      const stand = stand_(
+        context,
+        parsed,
+        state,
+        standModel,
+        parsed.standAuxPowerW,
+        timeS,
+        trip.departureS,
+        previous?.chargerAtEnd,
+        isBattery,
+        note,
+      );
       netJ += stand.netJ;
       chargedJ += stand.chargedJ;
       if (stand.event) chargingEvents.push(stand.event);
@@ -392,7 +527,10 @@ export function runBlock(context: DayContext, block: Block): BlockResult {
       problems.push(`${label} (${routeName}) cannot be driven as drawn at ${prepared.notDrivable.join('; ')}`);
     }
     const startState: VehicleState = { ...state, shortfallJ: 0 };
-    const run = runRouteFrom(prepared.model, prepared.speedMps, startState);
+    const run = prepared.series;
+    const tripState: VehicleState = { ...startState };
+    const { sourceJ, durationS } = runTrip(prepared.model, prepared.speedMps, tripState, run);
+    const shortfallJ = tripState.shortfallJ;
     const departS = timeS;
     // Trace: trip start, every TRACE_STEP_S inside, and the trip end; the minimum at full resolution.
     let nextTraceS = TRACE_STEP_S;
@@ -407,9 +545,9 @@ export function runBlock(context: DayContext, block: Block): BlockResult {
         while (nextTraceS <= run.timeS[i]!) nextTraceS += TRACE_STEP_S;
       }
     }
-    netJ += run.sourceJ - run.shortfallJ;
-    timeS = departS + run.durationS;
-    if (isBattery && run.shortfallJ > 0) {
+    netJ += sourceJ - shortfallJ;
+    timeS = departS + durationS;
+    if (isBattery && shortfallJ > 0) {
       let emptyAt = 0;
       for (let i = 0; i < run.soc.length; i++) {
         if (run.soc[i]! <= 0) {
@@ -423,12 +561,27 @@ export function runBlock(context: DayContext, block: Block): BlockResult {
       stopped = true;
     }
     // Descents with the state the vehicle has when the trip leaves (module comment).
-    const worstStart = startStateForWorstCase(startState, prepared);
-    const worstRun = runRouteFrom(prepared.worstModel, prepared.speedMps, worstStart);
+    // Brakes no warmer than the worst-case ambient start that run exactly as the standalone one
+    // does, so its peaks are reused; warmer brakes get their own worst-case run.
+    const hot = prepared.worstModel.ambientC[0]!;
+    const carriesHeat =
+      Math.max(startState.brakeTempC, startState.frontBrakeTempC, startState.rearBrakeTempC, startState.gsrsBrakeTempC) > hot;
+    let worstRun: TripSeries | undefined;
+    if (prepared.ranges.length > 0 && carriesHeat) {
+      worstRun = prepared.worstSeries;
+      // Only as far as the last descent: nothing after it changes a descent's peak.
+      runTrip(
+        prepared.worstModel,
+        prepared.speedMps,
+        startStateForWorstCase(startState, prepared),
+        worstRun,
+        prepared.ranges.at(-1)!.lastSegment + 1,
+      );
+    }
     prepared.ranges.forEach((range, r) => {
       const first = range.firstSegment;
       const last = range.lastSegment + 1;
-      const dayPeak = Math.max(peakOver(worstRun, range), peakOver(run, range));
+      const dayPeak = Math.max(worstRun ? seriesPeak(worstRun, range) : Number.NEGATIVE_INFINITY, seriesPeak(run, range));
       const standalonePeak = prepared.standalonePeakC[r]!;
       const peak = Math.max(dayPeak, standalonePeak);
       const brakeType = prepared.model.vehicle.brakeType;
@@ -442,33 +595,32 @@ export function runBlock(context: DayContext, block: Block): BlockResult {
         endM: prepared.model.distanceM[last]!,
         dropM: prepared.model.elevationM[first]! - prepared.model.elevationM[last]!,
         arrivalSoc: run.soc[first]!,
-        arrivalBrakeTempC: governingBrakeTempC({
-          brakeTempC: run.brakeTempC[first]!,
-          frontBrakeTempC: run.frontBrakeTempC[first]!,
-          rearBrakeTempC: run.rearBrakeTempC[first]!,
-        }),
+        arrivalBrakeTempC: run.governingC[first]!,
         peakBrakeTempC: peak,
         risk,
         standaloneRisk,
         worsenedByDay: RISK_RANK[risk] > RISK_RANK[standaloneRisk],
       });
     });
-    Object.assign(state, {
-      soc: run.endSoc,
-      brakeTempC: run.brakeTempC[run.brakeTempC.length - 1]!,
-      frontBrakeTempC: run.frontBrakeTempC[run.frontBrakeTempC.length - 1]!,
-      rearBrakeTempC: run.rearBrakeTempC[run.rearBrakeTempC.length - 1]!,
-      gsrsBrakeTempC: run.gsrsBrakeTempC[run.gsrsBrakeTempC.length - 1]!,
-      regenOverloadJ: run.regenOverloadJ[run.regenOverloadJ.length - 1]!,
-      shortfallJ: 0,
-    });
+    Object.assign(state, tripState, { shortfallJ: 0 });
     previous = prepared;
   }
   if (!stopped) {
     if (block.pullInS < timeS) {
       problems.push(`the pull-in at ${clock(block.pullInS)} is before the last trip arrives at ${clock(timeS)}`);
     } else if (block.pullInS > timeS) {
-      const stand = stand_(context, parsed, state, previous?.model, previous?.standAuxPowerW ?? parsed.vehicle.auxPowerW, timeS, block.pullInS, previous?.chargerAtEnd, isBattery, note);
+      const stand = stand_(
+        context,
+        parsed,
+        state,
+        previous?.model,
+        parsed.standAuxPowerW,
+        timeS,
+        block.pullInS,
+        previous?.chargerAtEnd,
+        isBattery,
+        note,
+      );
       netJ += stand.netJ;
       chargedJ += stand.chargedJ;
       if (stand.event) chargingEvents.push(stand.event);
@@ -477,9 +629,7 @@ export function runBlock(context: DayContext, block: Block): BlockResult {
   }
   note(timeS, state.soc);
   if (isBattery && minSoc < context.input.reserveSoc && !stopped) {
-    problems.push(
-      `falls to ${percent(minSoc)} at ${clock(minSocAtS)}, below the ${percent(context.input.reserveSoc)} reserve`,
-    );
+    problems.push(`falls to ${percent(minSoc)} at ${clock(minSocAtS)}, below the ${percent(context.input.reserveSoc)} reserve`);
   }
   return {
     blockId: block.blockId,
@@ -542,20 +692,39 @@ function stand_(
   let chargeEndS = fromS;
   let socAfter = state.soc;
   let t = fromS;
+  const aloneW = isBattery ? Math.min(charger ? charger.powerW * charger.efficiency : 0, parsed.maxChargePowerW * cold) : 0;
   while (t < toS - 1e-9) {
-    // Steps end at the charger's connection so charging starts exactly after the connect time.
-    const untilConnectS = t < chargeFromS - 1e-9 && chargeFromS < toS ? chargeFromS - t : Number.POSITIVE_INFINITY;
-    const dt = Math.min(STAND_STEP_S, toS - t, untilConnectS);
     const charging = charger !== undefined && t >= chargeFromS - 1e-9;
+    const remainingS = toS - t;
+    let dt: number;
+    if (!charging) {
+      // Standing before the charger connects (or with none): one step to the connection or the end.
+      dt = Math.min(remainingS, chargeFromS - t);
+    } else if (state.soc >= target - 1e-12) {
+      // At the target the charger carries the auxiliaries for the rest of the stand.
+      dt = remainingS;
+    } else if (state.soc < vehicle.socTaperStart) {
+      // Below the taper the charge power is constant: one step until the taper or the target.
+      const netW = aloneW - auxPowerW;
+      const stopSoc = Math.min(vehicle.socTaperStart, target);
+      dt = netW > 0 ? Math.min(remainingS, ((stopSoc - state.soc) * parsed.capacityJ) / netW) : remainingS;
+      if (!(dt > 1e-6)) dt = Math.min(STAND_STEP_S, remainingS);
+    } else {
+      // In the taper the limit follows the SOC: short steps.
+      dt = Math.min(STAND_STEP_S, remainingS);
+    }
+    const socAtStepStart = state.soc;
     // Brakes cool at standstill; the auxiliaries draw from the battery.
     if (standModel) {
       dwell(standModel, standModel.pointCount - 1, dt, state, scratch);
-      if (isBattery) netJ += scratch.split.sourcePowerW * dt - scratch.split.shortfallJ;
-    } else if (isBattery) {
+      netJ += scratch.split.sourcePowerW * dt - scratch.split.shortfallJ;
+    } else {
       const drawJ = auxPowerW * dt;
-      const next = state.soc - drawJ / parsed.capacityJ;
-      netJ += next < 0 ? drawJ + next * parsed.capacityJ : drawJ;
-      state.soc = Math.max(0, next);
+      if (isBattery) {
+        const next = state.soc - drawJ / parsed.capacityJ;
+        netJ += next < 0 ? drawJ + next * parsed.capacityJ : drawJ;
+        state.soc = Math.max(0, next);
+      } else netJ += drawJ;
     }
     if (charging && charger) {
       const limitW = Math.min(
@@ -566,9 +735,10 @@ function stand_(
       const intoBatteryW = Math.min(limitW, wantedW);
       if (intoBatteryW > 0) {
         if (chargeStartS === undefined) {
+          // Charging and the auxiliaries act together over the step: the charge starts at the step's SOC.
           chargeStartS = t;
-          socBefore = state.soc;
-          note(t, state.soc);
+          socBefore = socAtStepStart;
+          note(t, socAtStepStart);
         }
         chargeEndS = t + dt;
         state.soc += (intoBatteryW * dt) / parsed.capacityJ;
@@ -587,6 +757,7 @@ function stand_(
     chargedJ,
     event: {
       chargerKey: charger.key,
+      purpose: 'charging',
       startS: chargeStartS,
       endS: chargeEndS,
       energyWh: chargedJ / JOULES_PER_WH,

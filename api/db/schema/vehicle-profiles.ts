@@ -1,6 +1,6 @@
 import { boolean, doublePrecision, integer, jsonb, pgTable, text, timestamp, uniqueIndex, uuid } from 'drizzle-orm/pg-core';
 import type { VehicleInput } from '@shared/domain/analysis';
-import type { LoadCase, ProfileCalibrationSource, Season, VehicleProfileDraft } from '@shared/domain/vehicle-profiles';
+import type { ClimateSettingsInput, LoadCase, ProfileCalibrationSource, Season, VehicleProfileDraft } from '@shared/domain/vehicle-profiles';
 import { deletion, timestamps } from './columns';
 import { users } from './people';
 
@@ -18,6 +18,8 @@ export const vehicleProfiles = pgTable('vehicle_profiles', {
   loadsKg: jsonb().$type<Record<LoadCase, number>>().notNull(),
   passengerMassKg: doublePrecision().notNull(),
   seasons: jsonb().$type<Record<Season, { ambientC: number; auxPowerW: number }>>().notNull(),
+  /** Cabin climate for service-day runs (shared/domain/vehicle-profiles.ts climateSettingsSchema); null for rows saved before it and profiles without one. */
+  climate: jsonb().$type<ClimateSettingsInput>(),
   isPreset: boolean().notNull().default(false),
   /** Saved version number; every save and every accepted calibration adds one. */
   version: integer().notNull().default(1),

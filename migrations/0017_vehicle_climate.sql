@@ -1,0 +1,1 @@
+ALTER TABLE "vehicle_profiles" ADD COLUMN "climate" jsonb;

@@ -1,0 +1,52 @@
+import request from 'supertest';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { boardSummarySchema } from '@shared/domain/board-summary';
+import { serviceDayListSchema, serviceDayResultSchema } from '@shared/domain/service-days';
+import { seedDemoNetwork } from '../../../api/demo/demo-network';
+import { seedDemoPeople } from '../../../api/demo/demo-people';
+import { seedDemoServiceDays } from '../../../api/demo/demo-service-days';
+import { createTestContext } from '../../support/test-app';
+import { sessionCookies } from '../../support/session-cookie';
+import { countRows, truncateAll } from '../../support/test-database';
+
+const context = createTestContext();
+const { app, db, deps } = context;
+
+beforeAll(async () => {
+  await truncateAll(db);
+  await seedDemoPeople(db);
+  await seedDemoNetwork(deps);
+  await seedDemoServiceDays(deps);
+  await seedDemoServiceDays(deps);
+}, 240_000);
+afterAll(() => context.close());
+
+describe('demo service days', () => {
+  it('are loaded once and run: four in service, one end-of-life check where block P2 falls below its reserve in winter', async () => {
+    expect(await countRows(db, 'service_days')).toBe(5);
+    const board = await sessionCookies(db, deps.config)('board');
+    const list = serviceDayListSchema.parse((await request(app).get('/api/service-days').set('Cookie', board)).body);
+    expect(list.items.map((day) => [day.name, day.status, day.inService])).toEqual([
+      ['Sunday and holiday, summer', 'done', true],
+      ['Sunday and holiday, winter', 'done', true],
+      ['Weekday, summer', 'done', true],
+      ['Weekday, winter', 'done', true],
+      ['Weekday, winter, batteries at end of life (check)', 'done', false],
+    ]);
+    const results = new Map<string, ReturnType<typeof serviceDayResultSchema.parse>>();
+    for (const day of list.items) {
+      results.set(day.name, serviceDayResultSchema.parse((await request(app).get(`/api/service-days/${day.id}/result`).set('Cookie', board)).body));
+    }
+    const check = results.get('Weekday, winter, batteries at end of life (check)')!;
+    expect(check.blocks.filter((block) => !block.feasible).map((block) => block.blockId)).toEqual(['P2']);
+    expect(check.blocks.find((block) => block.blockId === 'P2')!.problems.join(' ')).toMatch(/reserve|15 %/);
+    for (const name of ['Weekday, winter', 'Weekday, summer', 'Sunday and holiday, winter', 'Sunday and holiday, summer']) {
+      expect(results.get(name)!.blocks.every((block) => block.feasible), name).toBe(true);
+    }
+    // The terminus charger at Lindmoor tops up the Valley-line blocks.
+    expect(results.get('Weekday, winter')!.blocks.find((block) => block.blockId === 'V1')!.chargingEvents.length).toBeGreaterThan(0);
+    const summary = boardSummarySchema.parse((await request(app).get('/api/board/summary').set('Cookie', board)).body);
+    expect(summary.annual.basis).toBe('service-days');
+    expect(summary.annual.serviceDays).toHaveLength(4);
+  });
+});
