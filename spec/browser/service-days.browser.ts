@@ -19,6 +19,7 @@ describe('service days: analyst', () => {
     await page.getByRole('navigation', { name: 'Main' }).getByRole('link', { name: 'Service days' }).click();
     await page.getByRole('heading', { level: 1, name: 'Service days' }).waitFor();
     const row = page.getByRole('row').filter({ hasText: 'Weekday' }).filter({ hasText: 'Winter' }).filter({ hasText: 'End of battery life' });
+    await row.first().waitFor();
     assert.equal(await row.count(), 1, 'the demo has one winter weekday at end of battery life');
     await screenshot(page, 'service-days-list-1400');
     await row.getByRole('link').click();
