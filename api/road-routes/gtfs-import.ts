@@ -400,3 +400,80 @@ function clockS(file: string, row: Row, column: string, line: number): number | 
   if (!match) throw new ImportError({ file, line, field: column }, `must be HH:MM:SS, got "${raw}"`);
   return Number(match[1]) * 3600 + Number(match[2]) * 60 + Number(match[3]);
 }
+
+/** One trip of a GTFS block: what a service day's block needs from trips.txt and stop_times.txt. */
+export interface GtfsBlockTrip {
+  tripId: string;
+  routeId: string;
+  shapeId: string;
+  directionId: string;
+  blockId: string;
+  /** First departure and last arrival of the trip, s after midnight of the service day. */
+  departureS: number;
+  arrivalS: number;
+  /** Line of the trip in trips.txt (line 1 is the header). */
+  line: number;
+}
+
+/**
+ * The trips of one service_id that carry a block_id, with their first departure and last arrival
+ * (stop_times.txt by stop_sequence), streamed and bounded like `gtfsToDrafts`. Trips of that
+ * service without a block_id are counted, not kept.
+ */
+export async function gtfsBlockTrips(fileName: string, data: Buffer, serviceId: string): Promise<{ trips: GtfsBlockTrip[]; withoutBlock: number }> {
+  const feed = await openFeed(fileName, data);
+  try {
+    for (const name of ['stop_times.txt', 'trips.txt'] as const) {
+      if (!feed.entries.has(name)) throw new ImportError({ file: `${fileName}/${name}` }, 'missing from the feed');
+    }
+    const trips = new Map<string, GtfsBlockTrip>();
+    let withoutBlock = 0;
+    let anyOfService = false;
+    await feed.stream('trips.txt', ['route_id', 'service_id', 'trip_id', 'shape_id'], (row, line, file) => {
+      if ((row['service_id'] ?? '').trim() !== serviceId) return;
+      anyOfService = true;
+      const blockId = (row['block_id'] ?? '').trim();
+      if (!blockId) {
+        withoutBlock++;
+        return;
+      }
+      const tripId = text(file, row, 'trip_id', line);
+      trips.set(tripId, {
+        tripId,
+        routeId: text(file, row, 'route_id', line),
+        shapeId: text(file, row, 'shape_id', line),
+        directionId: (row['direction_id'] ?? '').trim() || '0',
+        blockId,
+        departureS: Number.NaN,
+        arrivalS: Number.NaN,
+        line,
+      });
+    });
+    if (!anyOfService) throw new ImportError({ file: 'trips.txt', field: 'service_id' }, `no trip runs on service "${serviceId}"`);
+    const first = new Map<string, number>();
+    const last = new Map<string, number>();
+    await feed.stream('stop_times.txt', ['trip_id', 'stop_sequence'], (row, line, file) => {
+      const trip = trips.get((row['trip_id'] ?? '').trim());
+      if (!trip) return;
+      const sequence = number(file, row, 'stop_sequence', line, 0, Number.MAX_SAFE_INTEGER);
+      const departure = clockS(file, row, 'departure_time', line) ?? clockS(file, row, 'arrival_time', line);
+      const arrival = clockS(file, row, 'arrival_time', line) ?? departure;
+      if (departure !== undefined && sequence < (first.get(trip.tripId) ?? Number.POSITIVE_INFINITY)) {
+        first.set(trip.tripId, sequence);
+        trip.departureS = departure;
+      }
+      if (arrival !== undefined && sequence >= (last.get(trip.tripId) ?? Number.NEGATIVE_INFINITY)) {
+        last.set(trip.tripId, sequence);
+        trip.arrivalS = arrival;
+      }
+    });
+    for (const trip of trips.values()) {
+      if (!Number.isFinite(trip.departureS) || !Number.isFinite(trip.arrivalS)) {
+        throw new ImportError({ file: 'stop_times.txt', field: 'departure_time' }, `trip "${trip.tripId}" (trips.txt line ${trip.line}) has no timed stop`);
+      }
+    }
+    return { trips: [...trips.values()], withoutBlock };
+  } finally {
+    feed.close();
+  }
+}

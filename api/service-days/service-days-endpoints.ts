@@ -1,6 +1,9 @@
 import { rolesWith } from '@shared/domain/permissions';
 import * as z from 'zod';
 import {
+  gtfsBlocksAnswerSchema,
+  gtfsBlocksFieldsSchema,
+  gtfsBlocksMultipartSchema,
   serviceDayDraftSchema,
   serviceDayIdParamsSchema,
   serviceDayListSchema,
@@ -9,7 +12,9 @@ import {
 } from '@shared/domain/service-days';
 import type { AppDeps } from '../app-deps';
 import { endpoint } from '../http/endpoint';
-import { attachmentName } from '../road-routes/route-upload';
+import { attachmentName, requireFile, singleFileUpload } from '../road-routes/route-upload';
+import { BadRequestError } from '../http/http-error';
+import { blocksFromGtfs } from './gtfs-blocks';
 import { authorOf } from '../scenarios/scenarios-service';
 import { serviceDayCsv } from './service-day-csv';
 import * as service from './service-days-service';
@@ -47,6 +52,30 @@ export function serviceDayEndpoints(deps: AppDeps) {
       handler: async ({ body, user, res }) => {
         const day = await service.createServiceDay(deps.db, authorOf(user!), body);
         res.status(201).location(`/api/service-days/${day.id}`).json(day);
+      },
+    }),
+    endpoint({
+      method: 'post',
+      path: '/api/service-days/gtfs-blocks',
+      summary: 'Blocks from a GTFS feed for one service_id (trips.txt block_id, stop_times.txt departures), on the routes the GTFS import created; nothing is saved',
+      tag: TAG,
+      access: rolesWith('service-days.edit'),
+      heavy: true,
+      multipartBody: gtfsBlocksMultipartSchema,
+      middleware: singleFileUpload(),
+      responses: {
+        200: { description: 'Blocks to put in a service day', schema: gtfsBlocksAnswerSchema },
+        400: { description: 'The feed cannot be read (file and line named), or a field is missing' },
+        413: { description: 'The feed is past the import limits' },
+        422: { description: 'A GTFS route has no imported route, or no trip of that service has a block_id' },
+      },
+      handler: async ({ req, res }) => {
+        const fields = gtfsBlocksFieldsSchema.safeParse(req.body ?? {});
+        if (!fields.success) {
+          const issue = fields.error.issues[0]!;
+          throw new BadRequestError(`${issue.path.join('.')}: ${issue.message}`, { field: issue.path.join('.') });
+        }
+        res.json(await blocksFromGtfs(deps.db, requireFile(req.file), fields.data));
       },
     }),
     endpoint({

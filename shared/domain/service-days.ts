@@ -176,3 +176,19 @@ export const serviceDayResultSchema = z.object({
   caution: z.string(),
 });
 export type ServiceDayResult = z.infer<typeof serviceDayResultSchema>;
+
+/** POST /api/service-days/gtfs-blocks: form fields beside the feed (multipart "file"). */
+export const gtfsBlocksFieldsSchema = z.object({
+  /** calendar.txt / trips.txt service_id of the day to build (e.g. the weekday service). */
+  serviceId: z.string().trim().min(1).max(200),
+  vehicleProfileId: z.uuid(),
+  depotChargerKey: z.string().trim().min(1).max(60).optional(),
+});
+export const gtfsBlocksMultipartSchema = gtfsBlocksFieldsSchema.extend({
+  file: z.string().describe('GTFS feed as a .zip with trips.txt (block_id) and stop_times.txt'),
+});
+export const gtfsBlocksAnswerSchema = z.object({
+  blocks: z.array(blockSchema),
+  /** Trips of that service without a block_id (left out). */
+  tripsWithoutBlock: z.number().int(),
+});
