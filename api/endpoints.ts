@@ -17,6 +17,7 @@ import { reviewsEndpoints } from './reviews/reviews-endpoints';
 import { roadRouteEndpoints } from './road-routes/road-routes-endpoints';
 import { scenarioEndpoints } from './scenarios/scenarios-endpoints';
 import { serviceDayEndpoints } from './service-days/service-days-endpoints';
+import { serviceDayReportEndpoints } from './service-days/service-day-report-endpoints';
 import { terrainEndpoints } from './terrain/terrain-endpoints';
 import { vehicleProfileEndpoints } from './vehicle-profiles/vehicle-profiles-endpoints';
 
@@ -42,6 +43,7 @@ export function allEndpoints(deps: AppDeps): AnyEndpoint[] {
     ...calibrationEndpoints(deps),
     ...scenarioEndpoints(deps),
     ...serviceDayEndpoints(deps),
+    ...serviceDayReportEndpoints(deps),
     ...terrainEndpoints(deps),
     ...deletedItemsEndpoints(deps),
     ...auditEndpoints(deps),

@@ -17,4 +17,5 @@ export * from './board-figures';
 export * from './profile-columns';
 export * from './advice-cautions';
 export * from './worst-case';
+export * from './service-day-labels';
 export * from './service-day-columns';

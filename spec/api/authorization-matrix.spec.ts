@@ -83,6 +83,7 @@ const EXPECTED_ACCESS: Record<string, 'public' | 'signed-in' | readonly Role[]> 
   'POST /api/service-days/{serviceDayId}/run': ['analyst', 'admin'],
   'GET /api/service-days/{serviceDayId}/result': 'signed-in',
   'GET /api/service-days/{serviceDayId}/result.csv': 'signed-in',
+  'GET /api/service-days/{serviceDayId}/report.pdf': 'signed-in',
   'GET /api/scenarios': 'signed-in',
   'POST /api/scenarios': ['planner', 'analyst'],
   'GET /api/scenarios/compare': 'signed-in',

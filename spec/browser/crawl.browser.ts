@@ -21,7 +21,7 @@ const WIDE = { width: 1400, height: 900 };
 const NARROW = { width: 390, height: 844 };
 
 /** Router path (as written in the route files, joined with its parents) → an address to open. */
-type Ids = Record<'routeId' | 'reviewId' | 'batchRunId' | 'scenarioId' | 'vehicleProfileId' | 'tripVehicleId' | 'loggedTripId' | 'calibrationId', string>;
+type Ids = Record<'routeId' | 'reviewId' | 'batchRunId' | 'scenarioId' | 'vehicleProfileId' | 'tripVehicleId' | 'loggedTripId' | 'calibrationId' | 'serviceDayId', string>;
 const SIGNED_IN_PAGES: Record<string, (ids: Ids) => string> = {
   '': () => '/',
   routes: () => '/routes',
@@ -37,6 +37,10 @@ const SIGNED_IN_PAGES: Record<string, (ids: Ids) => string> = {
   'scenarios/new': () => '/scenarios/new',
   'scenarios/:scenarioId/edit': (ids) => `/scenarios/${ids.scenarioId}/edit`,
   'scenarios/:scenarioId': (ids) => `/scenarios/${ids.scenarioId}`,
+  'service-days': () => '/service-days',
+  'service-days/new': () => '/service-days/new',
+  'service-days/:serviceDayId/edit': (ids) => `/service-days/${ids.serviceDayId}/edit`,
+  'service-days/:serviceDayId': (ids) => `/service-days/${ids.serviceDayId}`,
   vehicles: () => '/vehicles',
   'vehicles/new': () => '/vehicles/new',
   'vehicles/:vehicleProfileId': (ids) => `/vehicles/${ids.vehicleProfileId}`,
@@ -115,7 +119,7 @@ describe('every page as every role', () => {
           await browser.page.setViewportSize(NARROW);
           problems.push(...(await settle(browser.page, watch)));
           problems.push(...(await check(browser.page, watch, path, NARROW.width)));
-          if (routerPath === 'board' || routerPath === 'scenarios/:scenarioId') {
+          if (routerPath === 'board' || routerPath === 'scenarios/:scenarioId' || routerPath === 'service-days/:serviceDayId') {
             await screenshot(browser.page, `crawl-${role}-${routerPath.replace(/[/:]/g, '-')}-390`);
           }
         }
@@ -235,6 +239,7 @@ async function demoIds(): Promise<Ids> {
       reviewId: await first('/api/reviews'),
       batchRunId: await first('/api/batch-runs'),
       scenarioId: await first('/api/scenarios'),
+      serviceDayId: await first('/api/service-days'),
       vehicleProfileId: await first('/api/vehicles'),
       ...trip,
       calibrationId,

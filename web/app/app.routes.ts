@@ -116,6 +116,17 @@ export const routes: Routes = [
         loadChildren: () => import('./scenarios/scenarios.routes'),
       },
       {
+        path: 'service-days',
+        canMatch: [areaRoleGuard],
+        data: areaData({
+          label: 'Service days',
+          icon: 'calendar_view_day',
+          summary: 'A vehicle’s whole day: blocks of trips with layovers, chargers at the depot and route ends, SOC through the day and which blocks cannot be worked.',
+          roles: ROLES,
+        }),
+        loadChildren: () => import('./service-days/service-days.routes'),
+      },
+      {
         path: 'vehicles',
         canMatch: [areaRoleGuard],
         data: areaData({

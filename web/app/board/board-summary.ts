@@ -11,6 +11,7 @@ import { RiskChip } from '../ui/risk-chip';
 import { RISK_STYLES } from '@shared/presentation/index';
 import { QuantityPipe } from '../units/quantity-pipe';
 import { UnitPreference } from '../units/unit-preference';
+import { BoardAnnualBasis } from './board-annual-basis';
 import { BOARD_SUMMARY_PDF_URL, BoardApi } from './board-api';
 import { formatBoardCo2, formatBoardEnergy, formatBoardMoney, formatBoardNumber, formatTariff } from './board-format';
 import { RouteEnergyChart } from './route-energy-chart';
@@ -24,7 +25,7 @@ const OPEN_ITEM_LEVELS: readonly Exclude<RiskLevel, 'low'>[] = ['critical', 'hig
 /** The board's one page about the whole network; printable on A4 and downloadable as PDF. */
 @Component({
   selector: 'app-board-summary',
-  imports: [DatePipe, RouterLink, MatButtonModule, MatIconModule, MatProgressBarModule, RiskChip, RouteEnergyChart, QuantityPipe],
+  imports: [DatePipe, RouterLink, MatButtonModule, MatIconModule, MatProgressBarModule, RiskChip, RouteEnergyChart, QuantityPipe, BoardAnnualBasis],
   templateUrl: './board-summary.html',
   styleUrl: './board-summary.scss',
   changeDetection: ChangeDetectionStrategy.OnPush,

@@ -3,7 +3,7 @@ import { HttpTestingController, provideHttpClientTesting } from '@angular/common
 import { TestBed } from '@angular/core/testing';
 import { TestbedHarnessEnvironment } from '@angular/cdk/testing/testbed';
 import { MatInputHarness } from '@angular/material/input/testing';
-import type { NetworkSettingsView } from '@shared/domain/board-summary';
+import { DEFAULT_CO2_REFERENCE_VEHICLE, DEFAULT_DAY_COUNTS, type NetworkSettingsView } from '@shared/domain/board-summary';
 import NetworkSettings from '../../../../web/app/admin/network/network-settings';
 import { apiErrorInterceptor } from '../../../../web/app/core/api-error-interceptor';
 import { settle } from '../../support/settle';
@@ -19,6 +19,8 @@ const STORED: NetworkSettingsView = {
   maxRoadGradePercent: 14,
   crawlSpeedKph: 6,
   crawlDistanceM: 250,
+  dayCounts: DEFAULT_DAY_COUNTS,
+  co2ReferenceVehicle: DEFAULT_CO2_REFERENCE_VEHICLE,
   isPlaceholder: false,
   updatedAt: '2026-11-02T09:30:00.000Z',
   updatedByName: 'Ada Brennan',

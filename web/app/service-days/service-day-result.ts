@@ -1,0 +1,209 @@
+import { DatePipe, PercentPipe } from '@angular/common';
+import { HttpErrorResponse } from '@angular/common/http';
+import { ChangeDetectionStrategy, Component, DestroyRef, computed, effect, inject, input, signal, untracked } from '@angular/core';
+import { MatButtonModule } from '@angular/material/button';
+import { MatDialog } from '@angular/material/dialog';
+import { MatIconModule } from '@angular/material/icon';
+import { MatMenuModule } from '@angular/material/menu';
+import { MatProgressBarModule } from '@angular/material/progress-bar';
+import { Router, RouterLink } from '@angular/router';
+import type { ServiceDay, ServiceDayResult } from '@shared/domain/service-days';
+import {
+  BATTERY_AGE_LABELS,
+  DAY_TYPE_LABELS,
+  DIRECTION_LABELS,
+  SCENARIO_STATUS_LABELS,
+  SEASON_LABELS,
+  SERVICE_DAY_NOT_COVERED,
+  formatServiceTime,
+  formatTemperatureReached,
+  riskRank,
+} from '@shared/presentation/index';
+import { DistanceChart } from '../charts/distance-chart';
+import { apiErrorBody, describeApiError } from '../core/api-error-message';
+import { Session } from '../core/session';
+import { AdviceCautions } from '../ui/advice-cautions';
+import { confirmDelete } from '../ui/confirm-delete-dialog';
+import { RiskChip } from '../ui/risk-chip';
+import { QuantityPipe } from '../units/quantity-pipe';
+import { UnitPreference } from '../units/unit-preference';
+import { UnitSwitch } from '../units/unit-switch';
+import { orderBlocks, socChartSeries, worsenedDescents } from './service-day-series';
+import { ServiceDayTimeline } from './service-day-timeline';
+import { timelineRows } from './service-day-timeline-model';
+import { ServiceDaysApi, type ServiceDayExportKind } from './service-days-api';
+import { RoadRoutesApi } from '../road-routes/road-routes-api';
+import type { RoadRouteSummary } from '@shared/domain/road-routes';
+
+type ResultState = { status: 'loading' } | { status: 'none' } | { status: 'ready'; result: ServiceDayResult } | { status: 'error'; message: string };
+
+/** How often a queued or running service day is asked for its status, ms. */
+const POLL_INTERVAL_MS = 1_500;
+
+/**
+ * One service day's run: SOC through the day for every block on one chart with the reserve,
+ * the blocks that cannot be worked first with their reasons, charging per block, the descents
+ * the day made riskier (with the cautions beside them) and the peak power of each charger site.
+ */
+@Component({
+  selector: 'app-service-day-result',
+  imports: [
+    AdviceCautions,
+    DatePipe,
+    PercentPipe,
+    RouterLink,
+    MatButtonModule,
+    MatIconModule,
+    MatMenuModule,
+    MatProgressBarModule,
+    DistanceChart,
+    QuantityPipe,
+    RiskChip,
+    ServiceDayTimeline,
+    UnitSwitch,
+  ],
+  templateUrl: './service-day-result.html',
+  styleUrl: './service-day-result.scss',
+  changeDetection: ChangeDetectionStrategy.OnPush,
+})
+export default class ServiceDayResultScreen {
+  private readonly api = inject(ServiceDaysApi);
+  private readonly routesApi = inject(RoadRoutesApi);
+  private readonly session = inject(Session);
+  private readonly dialog = inject(MatDialog);
+  private readonly router = inject(Router);
+
+  /** From `service-days/:serviceDayId`. */
+  readonly serviceDayId = input.required<string>();
+
+  protected readonly units = inject(UnitPreference).system;
+  protected readonly dayTypeLabels = DAY_TYPE_LABELS;
+  protected readonly seasonLabels = SEASON_LABELS;
+  protected readonly batteryAgeLabels = BATTERY_AGE_LABELS;
+  protected readonly statusLabels = SCENARIO_STATUS_LABELS;
+  protected readonly directionLabels = DIRECTION_LABELS;
+  protected readonly notCovered = SERVICE_DAY_NOT_COVERED;
+
+  protected readonly day = signal<ServiceDay | null>(null);
+  protected readonly routes = signal<RoadRouteSummary[]>([]);
+  protected readonly loadError = signal<string | null>(null);
+  protected readonly resultState = signal<ResultState>({ status: 'loading' });
+  protected readonly isStarting = signal(false);
+
+  protected readonly canEdit = computed(() => this.session.can('service-days.edit'));
+  protected readonly result = computed(() => {
+    const state = this.resultState();
+    return state.status === 'ready' ? state.result : null;
+  });
+
+  protected readonly blocks = computed(() => orderBlocks(this.result()?.blocks ?? []));
+  protected readonly failing = computed(() => this.blocks().filter((block) => !block.feasible));
+  protected readonly series = computed(() => {
+    const result = this.result();
+    const day = this.day();
+    return result && day ? socChartSeries(result, day.reserveSoc) : [];
+  });
+  protected readonly timeline = computed(() => {
+    const day = this.day();
+    if (!day) return [];
+    return timelineRows(day.blocks, (routeId) => this.routes().find((route) => route.id === routeId), this.result());
+  });
+  protected readonly worsened = computed(() => worsenedDescents(this.result()?.blocks ?? [], riskRank));
+  protected readonly peaks = computed(() =>
+    [...(this.result()?.peakChargingPowerW ?? [])].sort((a, b) => b.powerW - a.powerW).map((peak) => ({ ...peak, name: this.chargerName(peak.chargerKey) })),
+  );
+  protected readonly isRunning = computed(() => this.day()?.status === 'queued' || this.day()?.status === 'running');
+
+  constructor() {
+    const destroyRef = inject(DestroyRef);
+    let pollTimer: ReturnType<typeof setTimeout> | undefined;
+    destroyRef.onDestroy(() => clearTimeout(pollTimer));
+    effect(() => {
+      const id = this.serviceDayId();
+      untracked(() => {
+        clearTimeout(pollTimer);
+        void this.load(id, (next) => (pollTimer = setTimeout(next, POLL_INTERVAL_MS)));
+      });
+    });
+    void this.routesApi.list().then(
+      (routes) => this.routes.set(routes),
+      () => undefined, // Only the timeline's route names and estimated arrivals need them.
+    );
+  }
+
+  protected chargerName(key: string): string {
+    return this.day()?.chargers.find((charger) => charger.key === key)?.name ?? key;
+  }
+
+  protected routeName(routeId: string): string {
+    return this.routes().find((route) => route.id === routeId)?.name ?? 'Route';
+  }
+
+  protected time(timeS: number): string {
+    return formatServiceTime(timeS);
+  }
+
+  protected temperature(celsius: number): string {
+    return formatTemperatureReached(celsius, this.units());
+  }
+
+  protected exportUrl(kind: ServiceDayExportKind): string {
+    return this.api.exportUrl(this.serviceDayId(), kind);
+  }
+
+  protected async run(): Promise<void> {
+    const day = this.day();
+    if (!day) return;
+    this.isStarting.set(true);
+    this.loadError.set(null);
+    try {
+      this.day.set(await this.api.run(day.id));
+      await this.load(day.id, (next) => setTimeout(next, POLL_INTERVAL_MS));
+    } catch (error: unknown) {
+      this.loadError.set(describeApiError(error));
+    } finally {
+      this.isStarting.set(false);
+    }
+  }
+
+  /** Deletes the service day after asking (restorable under Recently deleted) and goes back to the list. */
+  protected async remove(): Promise<void> {
+    const day = this.day();
+    if (!day) return;
+    const confirmed = await confirmDelete(this.dialog, {
+      what: 'service day',
+      name: day.name,
+      consequence: 'The service day and its results leave the list and the network summary.',
+    });
+    if (!confirmed) return;
+    try {
+      await this.api.remove(day.id);
+      await this.router.navigate(['/service-days']);
+    } catch (error: unknown) {
+      this.loadError.set(describeApiError(error));
+    }
+  }
+
+  private async load(id: string, poll: (next: () => void) => void): Promise<void> {
+    try {
+      const day = await this.api.get(id);
+      if (id !== this.serviceDayId()) return;
+      this.day.set(day);
+      if (day.status === 'queued' || day.status === 'running') poll(() => void this.load(id, poll));
+      if (day.computedAt === null) {
+        this.resultState.set({ status: 'none' });
+        return;
+      }
+      if (this.result()?.computedAt === day.computedAt) return;
+      this.resultState.set({ status: 'ready', result: await this.api.result(id) });
+    } catch (error: unknown) {
+      // Not run yet (404) or its first run still going (409): the page says so without an error.
+      if (this.day() && error instanceof HttpErrorResponse && (error.status === 404 || error.status === 409) && apiErrorBody(error)?.code !== 'not_found') {
+        this.resultState.set({ status: 'none' });
+        return;
+      }
+      this.loadError.set(describeApiError(error));
+      this.resultState.set({ status: 'error', message: describeApiError(error) });
+    }
+  }
+}
