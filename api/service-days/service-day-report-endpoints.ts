@@ -1,8 +1,8 @@
 import { serviceDayIdParamsSchema } from '@shared/domain/service-days';
 import type { AppDeps } from '../app-deps';
+import { sendAttachment } from '../http/attachment';
 import { endpoint } from '../http/endpoint';
 import { serviceDayReportPdf } from '../pdf/service-day-report-pdf';
-import { attachmentName } from '../road-routes/route-upload';
 import * as routes from '../road-routes/road-routes-repository';
 import * as service from './service-days-service';
 
@@ -28,7 +28,7 @@ export function serviceDayReportEndpoints(deps: AppDeps) {
           if (version) names.set(routeId, version.name);
         }
         const pdf = await serviceDayReportPdf(day, result, names);
-        res.attachment(attachmentName(day.name, 'pdf')).type('application/pdf').send(pdf);
+        sendAttachment(res, day.name, 'pdf', 'application/pdf', pdf);
       },
     }),
   ];

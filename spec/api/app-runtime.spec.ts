@@ -2,9 +2,11 @@ import { describe, expect, it } from 'vitest';
 import type { AppDeps } from '../../api/app-deps';
 import { attachJobQueue, jobQueueOf, runtimeOf } from '../../api/app-runtime';
 import { withDefaultServices } from '../../api/app-services';
-import { createInlineJobQueue, type JobQueue } from '../../api/jobs/job-queue';
+import { createInlineJobQueue, type JobPolicy, type JobQueue } from '../../api/jobs/job-queue';
 import { terrainRuntimeFor } from '../../api/terrain/terrain-runtime';
 import { testConfig } from '../support/test-app';
+
+const COUNT_POLICY: JobPolicy = { retryLimit: 0, expireInSeconds: 60 };
 
 /** Dependencies as a test or a tool builds them by hand (no database is reached here). */
 function handBuiltDeps(): AppDeps {
@@ -45,13 +47,13 @@ describe('AppRuntime in AppDeps', () => {
       await queue.registerWorker<{ n: number }>('count', async ({ n }) => {
         await new Promise((resolve) => setTimeout(resolve, 20));
         handled.push(`count ${n}`);
-      });
+      }, COUNT_POLICY);
     };
 
     const [first, second] = await Promise.all([runtime.jobsFor('batch-runs', register), runtime.jobsFor('batch-runs', register)]);
     const other = await runtime.jobsFor('calibrations', async () => undefined);
-    await first.send('count', { n: 1 });
-    await second.send('count', { n: 2 });
+    await first.send('count', { n: 1 }, COUNT_POLICY);
+    await second.send('count', { n: 2 }, COUNT_POLICY);
     await runtime.inlineJobsIdle('batch-runs');
 
     expect(first).toBe(second);
