@@ -16,6 +16,7 @@ import * as authService from './auth-service';
 import { issueSessionCookie, sessionCookieOptions } from './authenticate';
 import { knownDevice, rememberDevice } from './device-cookie';
 import { SESSION_COOKIE } from './session-tokens';
+import { sessionCacheFor } from './session-cache';
 
 export function authEndpoints(deps: AppDeps) {
   const { db, config } = deps;
@@ -52,7 +53,11 @@ export function authEndpoints(deps: AppDeps) {
       access: 'signed-in',
       responses: { 204: { description: 'Signed out' } },
       handler: async ({ req, res }) => {
-        await revokeSession(db, res.locals['sessionId'] as string);
+        const sessionId = res.locals['sessionId'] as string;
+        await revokeSession(db, sessionId);
+        // This process forgets at once (the replay of this cookie on the next request must fail);
+        // the others hear it from the database's notification.
+        sessionCacheFor(db).forgetSession(sessionId);
         res.clearCookie(SESSION_COOKIE, { ...sessionCookieOptions(req, config.SESSION_TTL_MINUTES), maxAge: undefined });
         res.status(204).end();
       },

@@ -21,6 +21,7 @@ import {
 import type { KnownDevice } from './device-cookie';
 import * as repository from './auth-repository';
 import { dummyPasswordHash, hashPassword, verifyPassword } from './passwords';
+import { sessionCacheFor } from './session-cache';
 
 /** Who is signing in, as far as throttling is concerned. */
 export interface SignInClient {
@@ -75,6 +76,8 @@ export async function changePassword(
     // A changed password ends every session, this one included.
     await repository.revokeAllSessions(tx, userId);
   });
+  // This process forgets at once; the others hear it from the database's notification.
+  sessionCacheFor(db).forgetUser(userId);
 }
 
 /** Looks a token up without using it, so the page can greet the person. */
@@ -106,6 +109,7 @@ export async function setPasswordWithToken(
     await repository.setPassword(tx, user.id, passwordHash);
     await repository.revokeAllSessions(tx, user.id);
   });
+  sessionCacheFor(deps.db).forgetUser(user.id);
 }
 
 /**

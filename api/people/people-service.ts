@@ -13,6 +13,7 @@ import type { Executor } from '../db/client';
 import type { UserRow } from '../db/schema/index';
 import { accountSignInStates, clearAccount } from '../auth/attempt-throttle';
 import { isUniqueViolation } from '../db/errors';
+import { sessionCacheFor } from '../auth/session-cache';
 
 /** Everyone with an account, with their sign-in slow-down if any. */
 export async function listPeople({ db }: AppDeps): Promise<Person[]> {
@@ -86,6 +87,8 @@ export async function updatePerson({ db }: AppDeps, actorId: string, personId: s
     }
     return updated!;
   });
+  // This process forgets at once; the others hear it from the database's notification.
+  sessionCacheFor(db).forgetUser(personId);
   return personWithState(db, row);
 }
 
