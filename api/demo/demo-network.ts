@@ -265,6 +265,8 @@ export function demoRouteDesign(key: string) {
   return {
     coordinates: route.waypoints.map((point) => [...lonLat(point.at), round(point.elevationM, 1)] as [number, number, number]),
     stopsAtWaypoints: route.waypoints.map((point) => (point.stop ? (point.stop.dwellS ?? 20) : null)),
+    stopNames: route.waypoints.map((point) => point.stop?.name ?? null),
+    name: route.draft.name,
     speedLimits: route.draft.speedLimits ?? [],
     defaultSpeedLimitKph: route.draft.defaultSpeedLimitKph ?? 50,
   };

@@ -27,7 +27,7 @@ const trips = (routeId: string, firstDepartureS: number, roundTrips: number, hea
     load,
   }));
 
-interface DemoBlock {
+export interface DemoBlock {
   blockId: string;
   vehicle: string;
   route: Route;
@@ -37,14 +37,14 @@ interface DemoBlock {
   startSoc: number;
 }
 
-const WEEKDAY_BLOCKS: DemoBlock[] = [
+export const WEEKDAY_BLOCKS: DemoBlock[] = [
   { blockId: 'V1', vehicle: 'demo-vehicle:mountain-bus-12m', route: 'valley', pullOutS: 5 * H + 30 * M, roundTrips: 4, headwayS: 75 * M, startSoc: 0.95 },
   { blockId: 'V2', vehicle: 'preset:battery-bus-12m', route: 'valley', pullOutS: 6 * H + 15 * M, roundTrips: 4, headwayS: 75 * M, startSoc: 0.95 },
   { blockId: 'V3', vehicle: 'preset:battery-bus-12m', route: 'valley', pullOutS: 14 * H, roundTrips: 3, headwayS: 75 * M, startSoc: 0.9 },
   { blockId: 'P1', vehicle: 'demo-vehicle:mountain-bus-12m', route: 'pass', pullOutS: 6 * H, roundTrips: 2, headwayS: 60 * M, startSoc: 0.95 },
   { blockId: 'P2', vehicle: 'preset:battery-bus-12m', route: 'pass', pullOutS: 11 * H, roundTrips: 2, headwayS: 60 * M, startSoc: 0.95 },
 ];
-const SUNDAY_BLOCKS: DemoBlock[] = [
+export const SUNDAY_BLOCKS: DemoBlock[] = [
   { blockId: 'V1', vehicle: 'demo-vehicle:mountain-bus-12m', route: 'valley', pullOutS: 7 * H + 30 * M, roundTrips: 4, headwayS: 90 * M, startSoc: 0.95 },
   { blockId: 'P1', vehicle: 'demo-vehicle:mountain-bus-12m', route: 'pass', pullOutS: 8 * H, roundTrips: 2, headwayS: 60 * M, startSoc: 0.95 },
 ];

@@ -216,7 +216,7 @@ export async function gtfsToDrafts(fileName: string, data: Buffer): Promise<{ dr
       if (tally.directions.size > 1) tripsPerDay /= 2;
 
       const route = routeRows.get(routeId);
-      const name = [route?.['route_short_name'], route?.['route_long_name']].map((part) => (part ?? '').trim()).filter(Boolean).join(' – ');
+      const name = gtfsRouteName(route);
       const routeType = (route?.['route_type'] ?? '3').trim();
       drafts.push({
         name: (name || `GTFS route ${routeId}`).slice(0, 120),
@@ -401,6 +401,11 @@ function clockS(file: string, row: Row, column: string, line: number): number | 
   return Number(match[1]) * 3600 + Number(match[2]) * 60 + Number(match[3]);
 }
 
+/** The name the import gives a GTFS route: "short – long" name, either alone, or empty. */
+function gtfsRouteName(route: Row | undefined): string {
+  return [route?.['route_short_name'], route?.['route_long_name']].map((part) => (part ?? '').trim()).filter(Boolean).join(' – ');
+}
+
 /** One trip of a GTFS block: what a service day's block needs from trips.txt and stop_times.txt. */
 export interface GtfsBlockTrip {
   tripId: string;
@@ -420,7 +425,11 @@ export interface GtfsBlockTrip {
  * (stop_times.txt by stop_sequence), streamed and bounded like `gtfsToDrafts`. Trips of that
  * service without a block_id are counted, not kept.
  */
-export async function gtfsBlockTrips(fileName: string, data: Buffer, serviceId: string): Promise<{ trips: GtfsBlockTrip[]; withoutBlock: number }> {
+export async function gtfsBlockTrips(
+  fileName: string,
+  data: Buffer,
+  serviceId: string,
+): Promise<{ trips: GtfsBlockTrip[]; withoutBlock: number; routeNames: Map<string, string> }> {
   const feed = await openFeed(fileName, data);
   try {
     for (const name of ['stop_times.txt', 'trips.txt'] as const) {
@@ -472,7 +481,17 @@ export async function gtfsBlockTrips(fileName: string, data: Buffer, serviceId: 
         throw new ImportError({ file: 'stop_times.txt', field: 'departure_time' }, `trip "${trip.tripId}" (trips.txt line ${trip.line}) has no timed stop`);
       }
     }
-    return { trips: [...trips.values()], withoutBlock };
+    // routes.txt (optional): the names of the blocks' routes, as the route import names them.
+    const routeNames = new Map<string, string>();
+    if (feed.entries.has('routes.txt')) {
+      const wanted = new Set([...trips.values()].map((trip) => trip.routeId));
+      await feed.stream('routes.txt', ['route_id'], (row) => {
+        const id = (row['route_id'] ?? '').trim();
+        const name = gtfsRouteName(row);
+        if (wanted.has(id) && name) routeNames.set(id, name);
+      });
+    }
+    return { trips: [...trips.values()], withoutBlock, routeNames };
   } finally {
     feed.close();
   }

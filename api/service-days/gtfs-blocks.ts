@@ -3,7 +3,10 @@
  * time order, each trip on the route the GTFS route import created for its GTFS route (found by
  * the "(GTFS route …, shape …)" the import writes into the route's description). The imported
  * route follows the GTFS route's most used shape: trips whose direction_id is that shape's run
- * `outbound`, the others `inbound`. Pull-out is 15 minutes before the first departure and pull-in
+ * `outbound`, the others `inbound`. A GTFS route that was never imported maps to the one route
+ * whose name is exactly the name the import would give it (routes.txt "short – long" name, or
+ * either alone), so a feed written from routes drawn in the app finds them; there, direction_id 0
+ * is `outbound`. Two routes of that name are ambiguous and answered 422, as is no route at all. Pull-out is 15 minutes before the first departure and pull-in
  * 15 minutes after the last arrival (an assumption to edit on screen: GTFS has no depot times).
  * The answer is blocks to put in a service day; nothing is saved.
  */
@@ -26,7 +29,7 @@ export async function blocksFromGtfs(
   if (!(await profiles.findProfile(db, options.vehicleProfileId))) {
     throw new BadRequestError(`vehicleProfileId: no vehicle profile ${options.vehicleProfileId}`, { field: 'vehicleProfileId' });
   }
-  const { trips, withoutBlock } = await gtfsBlockTrips(file.originalname || 'feed.zip', file.buffer, options.serviceId);
+  const { trips, withoutBlock, routeNames } = await gtfsBlockTrips(file.originalname || 'feed.zip', file.buffer, options.serviceId);
   if (trips.length === 0) {
     throw new UnprocessableError(`no trip of service "${options.serviceId}" has a block_id in trips.txt`, 'no_blocks', { field: 'serviceId', tripsWithoutBlock: withoutBlock });
   }
@@ -39,10 +42,31 @@ export async function blocksFromGtfs(
       .where(and(isNull(roadRoutes.deletedAt), like(roadRouteVersions.description, `%(GTFS route ${gtfsRouteId.replace(/[%_\\]/g, '\\$&')}, shape %`)));
     if (!row) {
       const trip = trips.find((candidate) => candidate.routeId === gtfsRouteId)!;
+      const where = { file: 'trips.txt', line: trip.line, blockId: trip.blockId, tripId: trip.tripId, routeId: gtfsRouteId };
+      const name = routeNames.get(gtfsRouteId);
+      const named = name
+        ? await db
+            .select({ id: roadRoutes.id })
+            .from(roadRoutes)
+            .innerJoin(roadRouteVersions, and(eq(roadRouteVersions.routeId, roadRoutes.id), eq(roadRouteVersions.version, roadRoutes.currentVersion)))
+            .where(and(isNull(roadRoutes.deletedAt), eq(roadRouteVersions.name, name)))
+            .limit(2)
+        : [];
+      if (named.length === 1) {
+        routes.set(gtfsRouteId, { id: named[0]!.id, shapeId: '' });
+        continue;
+      }
+      if (named.length > 1) {
+        throw new UnprocessableError(
+          `trips.txt line ${trip.line}: GTFS route "${gtfsRouteId}" (block "${trip.blockId}", trip "${trip.tripId}") is named "${name}", and more than one route has that name; rename one or import the feed's routes (POST /api/routes/import-gtfs)`,
+          'route_ambiguous',
+          { ...where, name },
+        );
+      }
       throw new UnprocessableError(
-        `trips.txt line ${trip.line}: GTFS route "${gtfsRouteId}" (block "${trip.blockId}", trip "${trip.tripId}") has no imported route; import the feed's routes first (POST /api/routes/import-gtfs)`,
+        `trips.txt line ${trip.line}: GTFS route "${gtfsRouteId}" (block "${trip.blockId}", trip "${trip.tripId}") has no imported route${name ? ` and no route is named "${name}"` : ''}; import the feed's routes first (POST /api/routes/import-gtfs)`,
         'route_not_imported',
-        { file: 'trips.txt', line: trip.line, blockId: trip.blockId, tripId: trip.tripId, routeId: gtfsRouteId },
+        where,
       );
     }
     const shapeId = /\(GTFS route .*, shape (.*)\)$/.exec(row.description)?.[1] ?? '';

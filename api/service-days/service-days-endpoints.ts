@@ -58,7 +58,7 @@ export function serviceDayEndpoints(deps: AppDeps) {
     endpoint({
       method: 'post',
       path: '/api/service-days/gtfs-blocks',
-      summary: 'Blocks from a GTFS feed for one service_id (trips.txt block_id, stop_times.txt departures), on the routes the GTFS import created; nothing is saved',
+      summary: 'Blocks from a GTFS feed for one service_id (trips.txt block_id, stop_times.txt departures), on the routes the GTFS import created or, failing that, the one route of the same name; nothing is saved',
       tag: TAG,
       access: rolesWith('service-days.edit'),
       heavy: true,
@@ -68,7 +68,7 @@ export function serviceDayEndpoints(deps: AppDeps) {
         200: { description: 'Blocks to put in a service day', schema: gtfsBlocksAnswerSchema },
         400: { description: 'The feed cannot be read (file and line named), or a field is missing' },
         413: { description: 'The feed is past the import limits' },
-        422: { description: 'A GTFS route has no imported route, or no trip of that service has a block_id' },
+        422: { description: 'A GTFS route has no imported or same-named route, or two of that name, or no trip of that service has a block_id' },
       },
       handler: async ({ req, res }) => {
         const fields = gtfsBlocksFieldsSchema.safeParse(req.body ?? {});
