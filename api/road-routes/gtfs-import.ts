@@ -496,3 +496,26 @@ export async function gtfsBlockTrips(
     feed.close();
   }
 }
+
+/** Each service_id of trips.txt, in order of first appearance, with its trips, trips with a block_id and blocks. */
+export async function gtfsServices(fileName: string, data: Buffer): Promise<{ serviceId: string; trips: number; tripsWithBlock: number; blocks: number }[]> {
+  const feed = await openFeed(fileName, data);
+  try {
+    if (!feed.entries.has('trips.txt')) throw new ImportError({ file: `${fileName}/trips.txt` }, 'missing from the feed');
+    const services = new Map<string, { trips: number; tripsWithBlock: number; blocks: Set<string> }>();
+    await feed.stream('trips.txt', ['service_id', 'trip_id'], (row, line, file) => {
+      const serviceId = text(file, row, 'service_id', line);
+      const service = services.get(serviceId) ?? { trips: 0, tripsWithBlock: 0, blocks: new Set<string>() };
+      service.trips++;
+      const blockId = (row['block_id'] ?? '').trim();
+      if (blockId) {
+        service.tripsWithBlock++;
+        service.blocks.add(blockId);
+      }
+      services.set(serviceId, service);
+    });
+    return [...services.entries()].map(([serviceId, service]) => ({ serviceId, trips: service.trips, tripsWithBlock: service.tripsWithBlock, blocks: service.blocks.size }));
+  } finally {
+    feed.close();
+  }
+}

@@ -4,6 +4,8 @@ import {
   gtfsBlocksAnswerSchema,
   gtfsBlocksFieldsSchema,
   gtfsBlocksMultipartSchema,
+  gtfsServicesAnswerSchema,
+  gtfsServicesMultipartSchema,
   serviceDayDraftSchema,
   serviceDayIdParamsSchema,
   serviceDayListSchema,
@@ -12,6 +14,7 @@ import {
 } from '@shared/domain/service-days';
 import type { AppDeps } from '../app-deps';
 import { endpoint } from '../http/endpoint';
+import { gtfsServices } from '../road-routes/gtfs-import';
 import { requireFile, singleFileUpload } from '../road-routes/route-upload';
 import { sendAttachment } from '../http/attachment';
 import { BadRequestError } from '../http/http-error';
@@ -53,6 +56,25 @@ export function serviceDayEndpoints(deps: AppDeps) {
       handler: async ({ body, user, res }) => {
         const day = await service.createServiceDay(deps.db, authorOf(user!), body);
         res.status(201).location(`/api/service-days/${day.id}`).json(day);
+      },
+    }),
+    endpoint({
+      method: 'post',
+      path: '/api/service-days/gtfs-services',
+      summary: 'The service_ids of a GTFS feed (trips.txt) with their trips and blocks, to choose one for POST /api/service-days/gtfs-blocks; nothing is saved',
+      tag: TAG,
+      access: rolesWith('service-days.edit'),
+      heavy: true,
+      multipartBody: gtfsServicesMultipartSchema,
+      middleware: singleFileUpload(),
+      responses: {
+        200: { description: 'The feed’s services', schema: gtfsServicesAnswerSchema },
+        400: { description: 'The feed cannot be read (file and line named)' },
+        413: { description: 'The feed is past the import limits' },
+      },
+      handler: async ({ req, res }) => {
+        const file = requireFile(req.file);
+        res.json({ services: await gtfsServices(file.originalname || 'feed.zip', file.buffer) });
       },
     }),
     endpoint({

@@ -187,6 +187,21 @@ export const gtfsBlocksFieldsSchema = z.object({
 export const gtfsBlocksMultipartSchema = gtfsBlocksFieldsSchema.extend({
   file: z.string().describe('GTFS feed as a .zip with trips.txt (block_id) and stop_times.txt'),
 });
+/** What a GTFS feed offers for a service day: each service_id of trips.txt with its trip counts. */
+export const gtfsServicesAnswerSchema = z.object({
+  services: z.array(
+    z.object({
+      serviceId: z.string(),
+      trips: z.number().int(),
+      /** Trips of that service with a block_id (the ones an import keeps). */
+      tripsWithBlock: z.number().int(),
+      blocks: z.number().int(),
+    }),
+  ),
+});
+export const gtfsServicesMultipartSchema = z.object({
+  file: z.string().describe('GTFS feed as a .zip with trips.txt'),
+});
 export const gtfsBlocksAnswerSchema = z.object({
   blocks: z.array(blockSchema),
   /** Trips of that service without a block_id (left out). */

@@ -76,6 +76,7 @@ const EXPECTED_ACCESS: Record<string, 'public' | 'signed-in' | readonly Role[]> 
   'GET /api/service-days': 'signed-in',
   'POST /api/service-days': ['analyst', 'admin'],
   'POST /api/service-days/gtfs-blocks': ['analyst', 'admin'],
+  'POST /api/service-days/gtfs-services': ['analyst', 'admin'],
   'GET /api/service-days/{serviceDayId}': 'signed-in',
   'PUT /api/service-days/{serviceDayId}': ['analyst', 'admin'],
   'DELETE /api/service-days/{serviceDayId}': ['analyst', 'admin'],

@@ -104,3 +104,28 @@ describe('POST /api/service-days/gtfs-blocks', () => {
     expect(missing.body.error.message).toContain('serviceId');
   });
 });
+
+describe('POST /api/service-days/gtfs-services', () => {
+  it('lists each service_id of trips.txt with its trips, trips with a block_id and blocks', async () => {
+    const response = await request(app).post('/api/service-days/gtfs-services').set('Cookie', await cookieFor('analyst')).attach('file', await feed(), 'valley.zip');
+
+    expect(response.status).toBe(200);
+    expect(response.body.services).toEqual([
+      { serviceId: 'wk', trips: 6, tripsWithBlock: 5, blocks: 2 },
+      { serviceId: 'su', trips: 1, tripsWithBlock: 1, blocks: 1 },
+    ]);
+  });
+
+  it('answers 400 naming trips.txt when the feed has none, and when the file is not a zip', async () => {
+    const analyst = await cookieFor('analyst');
+    const zip = new JSZip();
+    zip.file('stops.txt', FEED['stops.txt']!);
+    const noTrips = await request(app).post('/api/service-days/gtfs-services').set('Cookie', analyst).attach('file', await zip.generateAsync({ type: 'nodebuffer' }), 'stops-only.zip');
+    const notZip = await request(app).post('/api/service-days/gtfs-services').set('Cookie', analyst).attach('file', Buffer.from('route_id\n'), 'trips.txt');
+
+    expect(noTrips.status).toBe(400);
+    expect(noTrips.body.error.message).toContain('stops-only.zip/trips.txt');
+    expect(notZip.status).toBe(400);
+    expect(notZip.body.error.message).toContain('not a readable zip archive');
+  });
+});
