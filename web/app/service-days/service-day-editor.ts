@@ -29,7 +29,7 @@ import { VehicleProfilesApi } from '../vehicles/vehicle-profiles-api';
 import { checkDraft, draftOf, emptyDraft, fieldErrors, hasErrorWithin, newBlock, newCharger, nextTrip } from './service-day-editor-model';
 import { ServiceDayTimeline } from './service-day-timeline';
 import { timelineRows } from './service-day-timeline-model';
-import { ServiceDaysApi } from './service-days-api';
+import { ServiceDaysApi, type GtfsBlocksAnswer, type GtfsService } from './service-days-api';
 
 /** Colours of the chargers on the map, by kind, and of the routes the blocks run. */
 const CHARGER_COLOURS: Readonly<Record<ChargerKind, string>> = { depot: '#6a4c93', terminus: '#3f7f4f' };
@@ -101,6 +101,17 @@ export default class ServiceDayEditor {
   /** Route the next "Add trip" uses. */
   protected readonly tripRouteId = signal<string | null>(null);
   protected readonly fitTo = signal<MapPosition[] | null>(null);
+
+  /** The "Import blocks from GTFS" panel: the feed, its services, the choices and the preview. */
+  protected readonly gtfsOpen = signal(false);
+  protected readonly gtfsFile = signal<File | null>(null);
+  protected readonly gtfsServices = signal<GtfsService[]>([]);
+  protected readonly gtfsServiceId = signal<string | null>(null);
+  protected readonly gtfsProfileId = signal<string | null>(null);
+  protected readonly gtfsDepotKey = signal<string>('');
+  protected readonly gtfsPreview = signal<GtfsBlocksAnswer | null>(null);
+  protected readonly gtfsBusy = signal(false);
+  protected readonly gtfsError = signal<string | null>(null);
 
   protected readonly selectedBlock = computed<Block | null>(() => this.draft().blocks[this.selectedBlockIndex()] ?? null);
 
@@ -208,6 +219,93 @@ export default class ServiceDayEditor {
       chargers: draft.chargers.filter((_, i) => i !== index),
       blocks: draft.blocks.map((block) => (block.depotChargerKey === removed.key ? withoutDepot(block) : block)),
     }));
+  }
+
+  // Blocks from a GTFS feed
+
+  protected toggleGtfs(): void {
+    this.gtfsOpen.update((open) => !open);
+    if (!this.gtfsProfileId()) this.gtfsProfileId.set(this.profiles()[0]?.id ?? null);
+  }
+
+  /** A feed was picked: list its services (the first with blocks is chosen). */
+  protected async gtfsFilePicked(input: HTMLInputElement): Promise<void> {
+    const file = input.files?.[0] ?? null;
+    this.gtfsFile.set(file);
+    this.gtfsServices.set([]);
+    this.gtfsServiceId.set(null);
+    this.gtfsPreview.set(null);
+    this.gtfsError.set(null);
+    if (!file) return;
+    this.gtfsBusy.set(true);
+    try {
+      const services = await this.api.gtfsServices(file);
+      this.gtfsServices.set(services);
+      this.gtfsServiceId.set(services.find((service) => service.blocks > 0)?.serviceId ?? services[0]?.serviceId ?? null);
+      if (services.every((service) => service.blocks === 0)) this.gtfsError.set(`${file.name}: no trip in trips.txt has a block_id, so there are no blocks to import.`);
+    } catch (error) {
+      this.gtfsError.set(describeApiError(error));
+    } finally {
+      this.gtfsBusy.set(false);
+    }
+  }
+
+  protected setGtfsChoice(change: { serviceId?: string; profileId?: string; depotKey?: string }): void {
+    if (change.serviceId !== undefined) this.gtfsServiceId.set(change.serviceId);
+    if (change.profileId !== undefined) this.gtfsProfileId.set(change.profileId);
+    if (change.depotKey !== undefined) this.gtfsDepotKey.set(change.depotKey);
+    this.gtfsPreview.set(null);
+  }
+
+  /** Asks for the chosen service's blocks and shows them, without touching the draft. */
+  protected async previewGtfs(): Promise<void> {
+    const file = this.gtfsFile();
+    const serviceId = this.gtfsServiceId();
+    const vehicleProfileId = this.gtfsProfileId();
+    if (!file || !serviceId || !vehicleProfileId) return;
+    this.gtfsBusy.set(true);
+    this.gtfsError.set(null);
+    this.gtfsPreview.set(null);
+    try {
+      const depotChargerKey = this.depotChargers().some((charger) => charger.key === this.gtfsDepotKey()) ? this.gtfsDepotKey() : undefined;
+      this.gtfsPreview.set(await this.api.gtfsBlocks(file, { serviceId, vehicleProfileId, depotChargerKey }));
+    } catch (error) {
+      this.gtfsError.set(describeApiError(error));
+    } finally {
+      this.gtfsBusy.set(false);
+    }
+  }
+
+  /** Adds the previewed blocks to the draft; a block id already in the draft gets a suffix. */
+  protected addGtfsBlocks(): void {
+    const preview = this.gtfsPreview();
+    if (!preview) return;
+    this.draft.update((draft) => {
+      const taken = new Set(draft.blocks.map((block) => block.blockId));
+      const added = preview.blocks.map((block) => {
+        let blockId = block.blockId;
+        for (let n = 2; taken.has(blockId); n++) blockId = `${block.blockId} (${n})`;
+        taken.add(blockId);
+        return { ...block, blockId };
+      });
+      return { ...draft, blocks: [...draft.blocks, ...added] };
+    });
+    this.selectedBlockIndex.set(Math.max(0, this.draft().blocks.length - preview.blocks.length));
+    this.clearError('blocks');
+    this.gtfsOpen.set(false);
+    this.gtfsPreview.set(null);
+  }
+
+  /** The saved routes a block's trips run on, by name. */
+  protected routeNames(block: Block): string {
+    const ids = [...new Set(block.trips.map((trip) => trip.routeId))];
+    return ids.map((id) => this.routes().find((route) => route.id === id)?.name ?? 'a saved route').join(', ');
+  }
+
+  protected clock(seconds: number): string {
+    const h = Math.floor(seconds / 3600);
+    const m = Math.floor((seconds % 3600) / 60);
+    return `${String(h).padStart(2, '0')}:${String(m).padStart(2, '0')}`;
   }
 
   // Blocks

@@ -1,6 +1,8 @@
 import { HttpClient, HttpContext } from '@angular/common/http';
 import { Injectable, inject } from '@angular/core';
 import {
+  gtfsBlocksAnswerSchema,
+  gtfsServicesAnswerSchema,
   serviceDayListSchema,
   serviceDayResultSchema,
   serviceDaySchema,
@@ -14,6 +16,8 @@ import { ERRORS_SHOWN_INLINE } from '../core/api-error-message';
 
 export type ServiceDaySummary = z.infer<typeof serviceDayListSchema>['items'][number];
 export type ServiceDayExportKind = 'csv' | 'pdf';
+export type GtfsService = z.infer<typeof gtfsServicesAnswerSchema>['services'][number];
+export type GtfsBlocksAnswer = z.infer<typeof gtfsBlocksAnswerSchema>;
 
 const inline = () => ({ context: new HttpContext().set(ERRORS_SHOWN_INLINE, true) });
 
@@ -49,6 +53,23 @@ export class ServiceDaysApi {
 
   async result(serviceDayId: string): Promise<ServiceDayResult> {
     return serviceDayResultSchema.parse(await firstValueFrom(this.http.get(`${serviceDayPath(serviceDayId)}/result`, inline())));
+  }
+
+  /** The service_ids of a GTFS feed with their trips and blocks; nothing is saved. */
+  async gtfsServices(file: File): Promise<GtfsService[]> {
+    const form = new FormData();
+    form.append('file', file, file.name);
+    return gtfsServicesAnswerSchema.parse(await firstValueFrom(this.http.post('/api/service-days/gtfs-services', form, inline()))).services;
+  }
+
+  /** The blocks of one service of a GTFS feed, on saved routes, for the draft; nothing is saved. */
+  async gtfsBlocks(file: File, options: { serviceId: string; vehicleProfileId: string; depotChargerKey?: string | undefined }): Promise<GtfsBlocksAnswer> {
+    const form = new FormData();
+    form.append('serviceId', options.serviceId);
+    form.append('vehicleProfileId', options.vehicleProfileId);
+    if (options.depotChargerKey) form.append('depotChargerKey', options.depotChargerKey);
+    form.append('file', file, file.name);
+    return gtfsBlocksAnswerSchema.parse(await firstValueFrom(this.http.post('/api/service-days/gtfs-blocks', form, inline())));
   }
 
   /** Download address of an export of the stored result. */
