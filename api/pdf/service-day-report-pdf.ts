@@ -17,6 +17,7 @@ import {
   RISK_LABELS,
   SEASON_LABELS,
   SERVICE_DAY_NOT_COVERED,
+  CHARGING_PURPOSE_LABELS,
   formatDateTime,
   formatQuantity,
   formatServiceTime,
@@ -89,7 +90,7 @@ export function serviceDayReportPdf(day: ServiceDay, result: ServiceDayResult, r
       ],
       events.map(({ blockId, event }) => [
         blockId,
-        chargerName(event.chargerKey),
+        event.purpose === 'preconditioning' ? `${chargerName(event.chargerKey)} (${CHARGING_PURPOSE_LABELS.preconditioning.toLowerCase()})` : chargerName(event.chargerKey),
         `${formatServiceTime(event.startS)}–${formatServiceTime(event.endS)}`,
         energy(event.energyWh),
         energy(event.gridEnergyWh),

@@ -70,3 +70,16 @@ export const BLOCK_COLOURS: readonly string[] = [
 
 /** Colour of the reserve line. */
 export const RESERVE_COLOUR = '#b3261e';
+
+/**
+ * What a stop at a charger was for, in words: a depot charger heating or cooling the cabin before
+ * pull-out puts no energy into the battery, so it must not read as a charge.
+ */
+export const CHARGING_PURPOSE_LABELS: Readonly<Record<'charging' | 'preconditioning', string>> = {
+  charging: 'Charging',
+  preconditioning: 'Cabin pre-conditioning',
+};
+
+export function chargingPurposeLabel(purpose: 'charging' | 'preconditioning' | undefined): string {
+  return CHARGING_PURPOSE_LABELS[purpose ?? 'charging'];
+}

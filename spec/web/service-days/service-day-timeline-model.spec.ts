@@ -47,6 +47,19 @@ describe('the service-day timeline rows', () => {
     expect(row!.feasible).toBe(false);
   });
 
+  it('labels a depot charger’s cabin pre-conditioning before pull-out as such, not as charging', () => {
+    const run = result([
+      blockResult('B1', {
+        chargingEvents: [
+          { chargerKey: 'depot', purpose: 'preconditioning', startS: h(6), endS: h(6, 20), energyWh: 0, gridEnergyWh: 3_000, socBefore: 0.95, socAfter: 0.95 },
+          { chargerKey: 'tarn', purpose: 'charging', startS: h(7), endS: h(7, 12), energyWh: 20_000, gridEnergyWh: 21_700, socBefore: 0.5, socAfter: 0.6 },
+        ],
+      }),
+    ]);
+    const [row] = timelineRows([block('B1', [[ROUTE_A, h(6, 30), 'outbound'], [ROUTE_A, h(7, 15), 'inbound']])], lookup, run);
+    expect(row!.bars.filter((bar) => bar.kind === 'charge').map((bar) => bar.label)).toEqual(['Cabin pre-conditioning at depot, 06:00–06:20', 'Charging at tarn, 07:00–07:12']);
+  });
+
   it('spans whole hours around every block and places times in percent of it', () => {
     const rows = timelineRows([block('B1', [[ROUTE_A, h(6, 30), 'outbound']], { pullOutS: h(5, 40), pullInS: h(9, 10) })], lookup);
     const span = timelineSpan(rows);

@@ -10,6 +10,7 @@ import { Router, RouterLink } from '@angular/router';
 import type { ServiceDay, ServiceDayResult } from '@shared/domain/service-days';
 import {
   BATTERY_AGE_LABELS,
+  CHARGING_PURPOSE_LABELS,
   DAY_TYPE_LABELS,
   DIRECTION_LABELS,
   SCENARIO_STATUS_LABELS,
@@ -81,6 +82,7 @@ export default class ServiceDayResultScreen {
   protected readonly seasonLabels = SEASON_LABELS;
   protected readonly batteryAgeLabels = BATTERY_AGE_LABELS;
   protected readonly statusLabels = SCENARIO_STATUS_LABELS;
+  protected readonly purposeLabels = CHARGING_PURPOSE_LABELS;
   protected readonly directionLabels = DIRECTION_LABELS;
   protected readonly notCovered = SERVICE_DAY_NOT_COVERED;
 

@@ -1,5 +1,5 @@
 import type { Block, ServiceDayResult } from '@shared/domain/service-days';
-import { formatServiceTime } from '@shared/presentation/index';
+import { chargingPurposeLabel, formatServiceTime } from '@shared/presentation/index';
 
 /**
  * Commercial speed used to estimate when a trip arrives on the editor's timeline, km/h: stops,
@@ -80,7 +80,7 @@ export function timelineRows(blocks: readonly Block[], routes: RouteLookup, resu
       kind: 'charge',
       startS: event.startS,
       endS: event.endS,
-      label: `Charging at ${event.chargerKey}, ${formatServiceTime(event.startS)}–${formatServiceTime(event.endS)}`,
+      label: `${chargingPurposeLabel(event.purpose)} at ${event.chargerKey}, ${formatServiceTime(event.startS)}–${formatServiceTime(event.endS)}`,
     }));
     return {
       blockId: block.blockId,
