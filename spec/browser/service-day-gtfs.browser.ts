@@ -76,4 +76,13 @@ describe('service days: blocks from the demo GTFS feed', () => {
     await settleAnimations(page);
     await screenshot(page, 'service-day-gtfs-result-1400');
   });
+
+  it('deletes the day it made, so the demo’s own service days stay as shipped', async () => {
+    const { page } = browser;
+    await page.getByRole('button', { name: 'Delete', exact: true }).click();
+    await page.getByRole('dialog').getByRole('button', { name: 'Delete service day' }).click();
+    await page.getByRole('heading', { level: 1, name: 'Service days' }).waitFor();
+    await page.getByRole('row').first().waitFor();
+    assert.equal(await page.getByRole('row').filter({ hasText: 'Weekday from the feed' }).count(), 0);
+  });
 });
