@@ -41,9 +41,10 @@ import { DEFAULT_SPEED_LIMIT_KPH, SERVICE_DAYS_PER_YEAR, TRIPS_PER_DAY } from '@
 import { SERVICE_DAYS_RANGE, TRIPS_PER_DAY_RANGE, displayToKph, isSpeedLimitKphAllowed, kphToDisplay, speedLimitRange } from '@shared/presentation/index';
 import { UnitPreference } from '../units/unit-preference';
 import { UnitSwitch } from '../units/unit-switch';
-import { LOADING, loadFailed, loadStateOf, type LoadState } from '../ui/load-state';
+import { LOADING, loadFailed, loadStateOf } from '../ui/load-state';
 import { LoadStatus } from '../ui/load-status';
-import { RoadRoutesApi, type RoadNetwork, type RouteProfile, type RouteVersionInfo } from './road-routes-api';
+import { RouteElevationBanners, RouteVersionBanner, type RouteProfileState } from './route-banners';
+import { RoadRoutesApi, type RoadNetwork, type RouteVersionInfo } from './road-routes-api';
 import { RouteDraftStore } from './route-draft-store';
 import { RouteVertexTable, type CoordinateTyped } from './tables/route-vertex-table';
 import { RouteStopTable, type StopChange } from './tables/route-stop-table';
@@ -79,7 +80,7 @@ import {
 export type { EditorTool } from './route-overlays';
 
 /** The live elevation profile: none yet (fewer than two vertices), or loading as any page data. */
-type ProfileState = { status: 'idle' } | LoadState<RouteProfile>;
+type ProfileState = RouteProfileState;
 
 const MODE_LABELS: Readonly<Record<(typeof ROUTE_MODES)[number], string>> = {
   bus: 'Bus',
@@ -92,6 +93,8 @@ const MODE_LABELS: Readonly<Record<(typeof ROUTE_MODES)[number], string>> = {
   selector: 'app-route-editor',
   imports: [
     DatePipe,
+    RouteVersionBanner,
+    RouteElevationBanners,
     ReactiveFormsModule,
     RouterLink,
     MatButtonModule,
