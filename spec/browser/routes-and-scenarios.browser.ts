@@ -4,7 +4,7 @@ import { describe, it } from 'node:test';
 import type { Page } from 'playwright-core';
 import { MARGIN_PT } from '../../api/pdf/pdf-layout';
 import { RAW_VALUE_PATTERNS, readPdfWords, wordsOutsideMargins } from '../support/pdf-words';
-import { BASE_URL, screenshot } from './support/browser';
+import { BASE_URL, screenshot, setSwitch } from './support/browser';
 import { signedInBrowser } from './support/demo-people';
 
 /** Clicks the map at a fraction of its width and height (the view fits the road network). */
@@ -27,7 +27,10 @@ describe('routes and scenarios', () => {
     await page.locator('.leaflet-tile-loaded').first().waitFor();
     // A planner sketching a line off the roads switches snapping off, as here (snapping itself,
     // on as shipped, is route-snapping.browser.ts).
-    await page.getByRole('switch', { name: 'Snap to roads' }).uncheck();
+    // The switch shows snapping on once the roads have loaded; wait for that before switching it off.
+    const snap = page.getByRole('switch', { name: 'Snap to roads' });
+    await page.waitForFunction(() => document.querySelector('[role="switch"][aria-checked="true"]') !== null);
+    await setSwitch(snap, false);
 
     await clickMap(page, 0.35, 0.4);
     await clickMap(page, 0.5, 0.5);

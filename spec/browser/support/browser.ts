@@ -84,6 +84,22 @@ export async function waitForCount(
   return count;
 }
 
+/**
+ * Turns a Material slide toggle (role "switch") on or off and waits until it shows the new state.
+ * The toggle's aria-checked follows on the next change detection, not within the click, so
+ * Playwright's check()/uncheck() can read the old state under load and give up.
+ */
+export async function setSwitch(toggle: Locator, on: boolean, timeoutMs = 5_000): Promise<void> {
+  const wanted = String(on);
+  if ((await toggle.getAttribute('aria-checked')) === wanted) return;
+  await toggle.click();
+  const deadline = Date.now() + timeoutMs;
+  while ((await toggle.getAttribute('aria-checked')) !== wanted) {
+    if (Date.now() > deadline) throw new Error(`${toggle} still shows aria-checked=${String(!on)} ${timeoutMs} ms after the click`);
+    await new Promise((resolve) => setTimeout(resolve, 50));
+  }
+}
+
 /** Fails fast, with a useful message, when nothing answers at BASE_URL. */
 export async function assertServerIsUp(): Promise<void> {
   try {

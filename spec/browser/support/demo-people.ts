@@ -11,13 +11,13 @@ export type DemoRole = 'planner' | 'analyst' | 'safety' | 'board' | 'admin';
  * What each role must see: the heading of its home page and exactly its side-navigation
  * entries. A feature that adds an area for a role adds its label here too.
  */
-const EVERY_ROLE_SEES = ['Home', 'Routes', 'Descent review', 'Network summary', 'Scenarios', 'Vehicle profiles'];
+const EVERY_ROLE_SEES = ['Home', 'Routes', 'Descent review', 'Network summary', 'Scenarios', 'Service days', 'Vehicle profiles'];
 
 export const ROLE_EXPECTATIONS: Readonly<Record<DemoRole, { homeHeading: string; navigation: string[] }>> = {
   planner: { homeHeading: 'Routes and scenarios', navigation: [...EVERY_ROLE_SEES, 'Recently deleted'] },
   analyst: {
     homeHeading: 'Terrain and vehicle profiles',
-    navigation: ['Home', 'Routes', 'Descent review', 'Network summary', 'Network runs', 'Scenarios', 'Vehicle profiles', 'Terrain', 'Base map', 'Recently deleted'],
+    navigation: ['Home', 'Routes', 'Descent review', 'Network summary', 'Network runs', 'Scenarios', 'Service days', 'Vehicle profiles', 'Terrain', 'Base map', 'Recently deleted'],
   },
   safety: { homeHeading: 'Descent review', navigation: EVERY_ROLE_SEES },
   board: { homeHeading: 'Network summary', navigation: EVERY_ROLE_SEES },

@@ -6,6 +6,8 @@ import {
   effect,
   inject,
   input,
+  linkedSignal,
+  resource,
   signal,
   untracked,
 } from '@angular/core';
@@ -64,7 +66,22 @@ export default class SetPassword {
   /** The single-use token from the e-mail; bound from `?token=`. */
   readonly token = input<string>();
 
-  protected readonly tokenState = signal<TokenState>({ status: 'checking' });
+  /** The token checked with the server, asked for by token: a new token drops the earlier answer. */
+  private readonly tokenCheck = resource({
+    params: () => {
+      const token = this.token();
+      return token ? { token } : undefined;
+    },
+    loader: ({ params }) => this.accountApi.tokenInfo(params.token),
+  });
+  /** What the check says, until a save finds the link no longer usable. */
+  protected readonly tokenState = linkedSignal<TokenState>(() => {
+    if (!this.token()) return INCOMPLETE_LINK;
+    const check = this.tokenCheck;
+    // Expected failures: 404 (unknown token), 410 (expired or used), 400 (malformed token).
+    if (check.status() === 'error') return invalidState(this.kind(), check.error());
+    return check.hasValue() && !check.isLoading() ? { status: 'ready', info: check.value() } : { status: 'checking' };
+  });
   protected readonly accountEmail = computed(() => {
     const state = this.tokenState();
     return state.status === 'ready' ? state.info.email : undefined;
@@ -87,9 +104,10 @@ export default class SetPassword {
   protected readonly errorMessage = signal<string | null>(null);
 
   constructor() {
+    // The password rule refuses the account's e-mail name: check again what was typed once the
+    // e-mail is known. Only the form is touched here, not the signals it reads.
     effect(() => {
-      const token = this.token();
-      untracked(() => void this.checkToken(token));
+      if (this.accountEmail() !== undefined) untracked(() => this.form.controls.password.updateValueAndValidity());
     });
   }
 
@@ -119,27 +137,14 @@ export default class SetPassword {
       this.isSubmitting.set(false);
     }
   }
-
-  private async checkToken(token: string | undefined): Promise<void> {
-    if (!token) {
-      this.tokenState.set({
-        status: 'invalid',
-        title: 'This link is incomplete',
-        message:
-          'The address has no token. Open the link from the e-mail again; if your mail program split it over two lines, copy the whole address.',
-      });
-      return;
-    }
-    this.tokenState.set({ status: 'checking' });
-    try {
-      this.tokenState.set({ status: 'ready', info: await this.accountApi.tokenInfo(token) });
-      this.form.controls.password.updateValueAndValidity();
-    } catch (error: unknown) {
-      // Expected: 404 (unknown token), 410 (expired or used), 400 (malformed token).
-      this.tokenState.set(invalidState(this.kind(), error));
-    }
-  }
 }
+
+const INCOMPLETE_LINK: TokenState = {
+  status: 'invalid',
+  title: 'This link is incomplete',
+  message:
+    'The address has no token. Open the link from the e-mail again; if your mail program split it over two lines, copy the whole address.',
+};
 
 function isUnusableToken(error: unknown): boolean {
   return error instanceof HttpErrorResponse && [400, 404, 410].includes(error.status);

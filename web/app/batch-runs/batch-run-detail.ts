@@ -2,13 +2,13 @@ import { DatePipe } from '@angular/common';
 import {
   ChangeDetectionStrategy,
   Component,
-  DestroyRef,
   computed,
   effect,
   inject,
   input,
+  linkedSignal,
+  resource,
   signal,
-  untracked,
 } from '@angular/core';
 import { MatButtonModule } from '@angular/material/button';
 import { MatIconModule } from '@angular/material/icon';
@@ -19,24 +19,19 @@ import { describeApiError } from '../core/api-error-message';
 import { pollBatchRun, type BatchRunPoller } from './batch-run-poller';
 import { BATCH_STATUS_ICONS, BATCH_STATUS_LABELS, RUN_STATUS_LABELS, batchProgressPercent } from './batch-run-status';
 import { BatchRunsApi } from './batch-runs-api';
-import type { LoadState } from '../ui/load-state';
+import { LoadStatus } from '../ui/load-status';
+import { loadStateOf } from '../ui/load-state';
 
 /** One network run: progress while it runs (asked every 1.5 s), then each scenario's outcome. */
 @Component({
   selector: 'app-batch-run-detail',
-  imports: [DatePipe, RouterLink, MatButtonModule, MatIconModule, MatProgressBarModule],
+  imports: [DatePipe, RouterLink, MatButtonModule, MatIconModule, MatProgressBarModule, LoadStatus],
   template: `
     <section class="app-page" aria-labelledby="run-title">
       <a routerLink="/batch-runs" class="back"><mat-icon>arrow_back</mat-icon>All network runs</a>
       <h1 id="run-title" class="app-page-title">Network run</h1>
-      @let state = loadState();
-      @if (state.status === 'loading' && !run()) {
-        <mat-progress-bar mode="indeterminate" aria-label="Loading the network run" />
-      } @else if (state.status === 'error') {
-        <p class="app-inline-error" role="alert">
-          <mat-icon>error</mat-icon>{{ state.message }}
-          <button matButton type="button" (click)="load()">Try again</button>
-        </p>
+      @if (!run()) {
+        <app-load-status [state]="loadState()" loadingLabel="Loading the network run" (retry)="data.reload()" />
       }
       @if (run(); as run) {
         <p class="meta">Started by {{ run.startedBy }} on {{ run.createdAt | date: 'd MMM y, HH:mm:ss' }}
@@ -96,40 +91,37 @@ export default class BatchRunDetail {
   protected readonly labels = BATCH_STATUS_LABELS;
   protected readonly runLabels = RUN_STATUS_LABELS;
   protected readonly icons = BATCH_STATUS_ICONS;
-  protected readonly run = signal<BatchRun | null>(null);
-  protected readonly loadState = signal<LoadState>({ status: 'loading' });
+  /**
+   * The run as first loaded, asked for by id: a new id drops the earlier answer. Expected
+   * failures: unknown id (404), server unreachable, or an answer that fails the shared schema.
+   */
+  protected readonly data = resource({
+    params: () => ({ batchRunId: this.batchRunId() }),
+    loader: ({ params }) => this.batchRunsApi.get(params.batchRunId),
+  });
+  protected readonly loadState = loadStateOf(this.data);
+  /** The loaded run, then each answer of the polling while it is not done. */
+  protected readonly run = linkedSignal<BatchRun | null>(() => (this.data.hasValue() ? this.data.value() : null));
   protected readonly pollProblem = signal<string | null>(null);
   protected readonly percent = computed(() => {
     const run = this.run();
     return run ? batchProgressPercent(run) : 0;
   });
 
-  private poller: BatchRunPoller | null = null;
-
   constructor() {
-    effect(() => {
-      const batchRunId = this.batchRunId();
-      untracked(() => void this.load(batchRunId));
+    // A run still going is asked for again until it is done; a new id, a reload or leaving the
+    // page stops the asking.
+    effect((onCleanup) => {
+      const loaded = this.data.hasValue() ? this.data.value() : null;
+      if (!loaded || loaded.status === 'done') return;
+      const poller = this.follow(loaded.id);
+      onCleanup(() => poller.stop());
     });
-    inject(DestroyRef).onDestroy(() => this.poller?.stop());
   }
 
-  protected async load(batchRunId = this.batchRunId()): Promise<void> {
-    this.poller?.stop();
-    this.loadState.set({ status: 'loading' });
-    try {
-      const run = await this.batchRunsApi.get(batchRunId);
-      this.run.set(run);
-      this.loadState.set({ status: 'ready' });
-      if (run.status !== 'done') this.follow(batchRunId);
-    } catch (error: unknown) {
-      // Expected: unknown id (404), server unreachable, or an answer that fails the shared schema.
-      this.loadState.set({ status: 'error', message: describeApiError(error) });
-    }
-  }
-
-  private follow(batchRunId: string): void {
-    this.poller = pollBatchRun(
+  private follow(batchRunId: string): BatchRunPoller {
+    this.pollProblem.set(null);
+    return pollBatchRun(
       () => this.batchRunsApi.get(batchRunId),
       (run) => {
         this.run.set(run);

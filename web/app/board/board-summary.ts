@@ -1,12 +1,12 @@
 import { DatePipe } from '@angular/common';
-import { ChangeDetectionStrategy, Component, computed, inject, signal } from '@angular/core';
+import { ChangeDetectionStrategy, Component, computed, inject, resource } from '@angular/core';
 import { MatButtonModule } from '@angular/material/button';
 import { MatIconModule } from '@angular/material/icon';
-import { MatProgressBarModule } from '@angular/material/progress-bar';
 import { RouterLink } from '@angular/router';
 import type { RiskLevel } from '@shared/domain/analysis';
 import type { BoardSummary } from '@shared/domain/board-summary';
-import { describeApiError } from '../core/api-error-message';
+import { LoadStatus } from '../ui/load-status';
+import { loadStateOf } from '../ui/load-state';
 import { RiskChip } from '../ui/risk-chip';
 import { RISK_STYLES } from '@shared/presentation/index';
 import { QuantityPipe } from '../units/quantity-pipe';
@@ -17,15 +17,13 @@ import { formatBoardCo2, formatBoardEnergy, formatBoardMoney, formatBoardNumber,
 import { RouteEnergyChart } from './route-energy-chart';
 import { DIRECTION_LABELS, boardFigures, boardSafetyCounts, formatStretch } from '@shared/presentation/index';
 
-type LoadState = { status: 'loading' } | { status: 'error'; message: string } | { status: 'ready'; summary: BoardSummary };
-
 /** Open safety items, worst first. */
 const OPEN_ITEM_LEVELS: readonly Exclude<RiskLevel, 'low'>[] = ['critical', 'high', 'elevated'];
 
 /** The board's one page about the whole network; printable on A4 and downloadable as PDF. */
 @Component({
   selector: 'app-board-summary',
-  imports: [DatePipe, RouterLink, MatButtonModule, MatIconModule, MatProgressBarModule, RiskChip, RouteEnergyChart, QuantityPipe, BoardAnnualBasis],
+  imports: [DatePipe, RouterLink, MatButtonModule, MatIconModule, LoadStatus, RiskChip, RouteEnergyChart, QuantityPipe, BoardAnnualBasis],
   templateUrl: './board-summary.html',
   styleUrl: './board-summary.scss',
   changeDetection: ChangeDetectionStrategy.OnPush,
@@ -38,16 +36,18 @@ export default class BoardSummaryPage {
   protected readonly openLevels = OPEN_ITEM_LEVELS;
   protected readonly riskStyles = RISK_STYLES;
   protected readonly directionLabels = DIRECTION_LABELS;
-  protected readonly state = signal<LoadState>({ status: 'loading' });
+  /** The summary, with its annual section; expected failures: server unreachable or an answer that fails the shared schema. */
+  private readonly summaryLoad = resource({ loader: (): Promise<BoardSummary> => this.boardApi.summary() });
+  protected readonly state = loadStateOf(this.summaryLoad);
 
   protected readonly generatedAt = computed(() => {
     const state = this.state();
-    return state.status === 'ready' ? state.summary.generatedAt : null;
+    return state.status === 'ready' ? state.value.generatedAt : null;
   });
   protected readonly figures = computed(() => {
     const state = this.state();
     if (state.status !== 'ready') return null;
-    const { totals, settings, openSafetyItems } = state.summary;
+    const { totals, settings, openSafetyItems } = state.value;
     return {
       recovered: formatBoardEnergy(totals.annualRegenKWh),
       value: formatBoardMoney(totals.regenValue, settings.currency),
@@ -58,28 +58,19 @@ export default class BoardSummaryPage {
       tariff: formatTariff(settings.energyTariffPerKWh, settings.currency),
       emissionFactor: `${settings.gridEmissionFactorKgPerKWh.toLocaleString('en-GB', { maximumFractionDigits: 4 })} kg CO₂ per kWh`,
       openTotal: openSafetyItems.elevated + openSafetyItems.high + openSafetyItems.critical,
-      acceptedTotal: boardSafetyCounts(state.summary).accepted,
-      acceptedText: boardSafetyCounts(state.summary).acceptedText,
+      acceptedTotal: boardSafetyCounts(state.value).accepted,
+      acceptedText: boardSafetyCounts(state.value).acceptedText,
     };
   });
   /** The four headline figures, worded as in the PDF; placeholder factors say so beside the value. */
   protected readonly headline = computed(() => {
     const state = this.state();
-    return state.status === 'ready' ? boardFigures(state.summary) : [];
+    return state.status === 'ready' ? boardFigures(state.value) : [];
   });
 
-  constructor() {
-    void this.load();
-  }
-
-  protected async load(): Promise<void> {
-    this.state.set({ status: 'loading' });
-    try {
-      this.state.set({ status: 'ready', summary: await this.boardApi.summary() });
-    } catch (error: unknown) {
-      // Expected: server unreachable or an answer that fails the shared schema.
-      this.state.set({ status: 'error', message: describeApiError(error) });
-    }
+  /** "Try again" after the summary failed to load. */
+  protected load(): void {
+    this.summaryLoad.reload();
   }
 
   protected print(): void {

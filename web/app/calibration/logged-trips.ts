@@ -1,5 +1,5 @@
 import { DatePipe, DecimalPipe } from '@angular/common';
-import { ChangeDetectionStrategy, Component, DestroyRef, computed, effect, inject, input, signal, untracked } from '@angular/core';
+import { ChangeDetectionStrategy, Component, DestroyRef, computed, inject, input, linkedSignal, resource, signal } from '@angular/core';
 import { FormControl, ReactiveFormsModule } from '@angular/forms';
 import { MatButtonModule } from '@angular/material/button';
 import { MatCheckboxModule } from '@angular/material/checkbox';
@@ -25,6 +25,8 @@ import { VehicleProfilesApi } from '../vehicles/vehicle-profiles-api';
 import { signedPercent } from './calibration-format';
 import { CalibrationApi, type CalibrationSummary } from './calibration-api';
 import { FileDrop } from '../ui/file-drop';
+import { LoadStatus } from '../ui/load-status';
+import { loadStateOf } from '../ui/load-state';
 
 type UploadState =
   | { status: 'idle' }
@@ -42,6 +44,7 @@ const DEFAULT_FIT: FitParameter[] = ['rollingResistanceCoefficient', 'dragAreaM2
   selector: 'app-logged-trips',
   imports: [
     FileDrop,
+    LoadStatus,
     DatePipe,
     DecimalPipe,
     ReactiveFormsModule,
@@ -74,12 +77,29 @@ export default class LoggedTrips {
   protected readonly signedPercent = signedPercent;
   protected readonly labels = FIT_PARAMETER_LABELS;
   protected readonly formatFileSize = formatFileSize;
-  protected readonly profile = signal<VehicleProfile | null>(null);
-  protected readonly trips = signal<LoggedTrip[]>([]);
-  protected readonly calibrations = signal<CalibrationSummary[]>([]);
-  protected readonly routes = signal<RoadRouteSummary[]>([]);
-  protected readonly loadError = signal<string | null>(null);
-  protected readonly isLoading = signal(true);
+  /** The profile, its trips, calibrations and the routes, asked for by profile id: a new id drops the earlier answer. */
+  protected readonly data = resource({
+    params: () => ({ id: this.vehicleProfileId() }),
+    loader: async ({ params }) => {
+      const [profile, trips, calibrations, routes] = await Promise.all([
+        this.profiles.get(params.id),
+        this.api.trips(params.id),
+        this.api.calibrations(params.id),
+        this.routesApi.list(),
+      ]);
+      return { profile, trips, calibrations, routes };
+    },
+  });
+  protected readonly loaded = loadStateOf(this.data);
+  protected readonly isLoading = computed(() => this.data.isLoading());
+  protected readonly profile = computed<VehicleProfile | null>(() => (this.data.hasValue() ? this.data.value().profile : null));
+  /** The loaded trips, then kept in step with uploads and deletions here. */
+  protected readonly trips = linkedSignal<LoggedTrip[]>(() => (this.data.hasValue() ? this.data.value().trips : []));
+  protected readonly calibrations = computed<CalibrationSummary[]>(() => (this.data.hasValue() ? this.data.value().calibrations : []));
+  /** The loaded routes, asked for again after an upload that may have made one from its track. */
+  protected readonly routes = linkedSignal<RoadRouteSummary[]>(() => (this.data.hasValue() ? this.data.value().routes : []));
+  /** A deletion that failed, in words. */
+  protected readonly actionError = signal<string | null>(null);
 
   protected readonly canWrite = computed(() => this.session.can('calibration.edit'));
 
@@ -114,10 +134,6 @@ export default class LoggedTrips {
   });
 
   constructor() {
-    effect(() => {
-      const id = this.vehicleProfileId();
-      untracked(() => void this.load(id));
-    });
     inject(DestroyRef).onDestroy(() => this.uploading?.unsubscribe());
   }
 
@@ -184,12 +200,13 @@ export default class LoggedTrips {
 
   protected async remove(trip: LoggedTrip): Promise<void> {
     if (!window.confirm(`Delete the logged trip “${trip.name}”?`)) return;
+    this.actionError.set(null);
     try {
       await this.api.deleteTrip(trip.id);
       this.trips.set(this.trips().filter((candidate) => candidate.id !== trip.id));
       this.toggleTrip(trip, false);
     } catch (error: unknown) {
-      this.loadError.set(describeApiError(error));
+      this.actionError.set(describeApiError(error));
     }
   }
 
@@ -232,22 +249,6 @@ export default class LoggedTrips {
   protected takeFile(file: File): void {
     this.file.set(file);
     if (this.upload().status !== 'uploading') this.upload.set({ status: 'idle' });
-  }
-
-  private async load(id: string): Promise<void> {
-    this.isLoading.set(true);
-    this.loadError.set(null);
-    try {
-      const [profile, trips, calibrations] = await Promise.all([this.profiles.get(id), this.api.trips(id), this.api.calibrations(id)]);
-      this.profile.set(profile);
-      this.trips.set(trips);
-      this.calibrations.set(calibrations);
-      await this.loadRoutes();
-    } catch (error: unknown) {
-      this.loadError.set(describeApiError(error));
-    } finally {
-      this.isLoading.set(false);
-    }
   }
 
   private async loadRoutes(): Promise<void> {

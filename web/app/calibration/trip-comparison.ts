@@ -1,14 +1,14 @@
 import { DatePipe, DecimalPipe } from '@angular/common';
-import { ChangeDetectionStrategy, Component, computed, effect, inject, input, signal, untracked } from '@angular/core';
+import { ChangeDetectionStrategy, Component, computed, inject, input, resource, signal } from '@angular/core';
 import { MatButtonToggleModule } from '@angular/material/button-toggle';
 import { MatIconModule } from '@angular/material/icon';
-import { MatProgressBarModule } from '@angular/material/progress-bar';
 import { RouterLink } from '@angular/router';
 import type { LoggedTrip, ReplayComparison } from '@shared/domain/logged-trips';
 import { DistanceChart } from '../charts/distance-chart';
-import { describeApiError } from '../core/api-error-message';
 import { TerrainMap, type MapOverlay, type MapPosition } from '../map/terrain-map';
 import { nearestIndex } from '../scenarios/result-series';
+import { LoadStatus } from '../ui/load-status';
+import { loadStateOf } from '../ui/load-state';
 import { QuantityPipe } from '../units/quantity-pipe';
 import { unitLabel } from '../units/unit-format';
 import { UnitPreference } from '../units/unit-preference';
@@ -23,7 +23,7 @@ import { comparisonCharts, comparisonX, type ComparisonAxis, signedPercent } fro
  */
 @Component({
   selector: 'app-trip-comparison',
-  imports: [DatePipe, DecimalPipe, RouterLink, MatButtonToggleModule, MatIconModule, MatProgressBarModule, DistanceChart, TerrainMap, QuantityPipe, UnitSwitch],
+  imports: [DatePipe, DecimalPipe, RouterLink, MatButtonToggleModule, MatIconModule, DistanceChart, LoadStatus, TerrainMap, QuantityPipe, UnitSwitch],
   templateUrl: './trip-comparison.html',
   styleUrl: './trip-comparison.scss',
   changeDetection: ChangeDetectionStrategy.OnPush,
@@ -38,13 +38,24 @@ export default class TripComparison {
 
   protected readonly units = inject(UnitPreference).system;
   protected readonly signedPercent = signedPercent;
-  protected readonly trip = signal<LoggedTrip | null>(null);
-  protected readonly comparison = signal<ReplayComparison | null>(null);
-  protected readonly error = signal<string | null>(null);
+  /** The trip and its replay, asked for by trip and calibration: a change drops the earlier answer. */
+  protected readonly data = resource({
+    params: () => ({ id: this.loggedTripId(), calibrationId: this.calibrationId() }),
+    loader: async ({ params }): Promise<{ trip: LoggedTrip; comparison: ReplayComparison }> => {
+      const [trip, comparison] = await Promise.all([this.api.trip(params.id), this.api.comparison(params.id, params.calibrationId)]);
+      return { trip, comparison };
+    },
+  });
+  protected readonly loaded = loadStateOf(this.data);
+  protected readonly trip = computed<LoggedTrip | null>(() => (this.data.hasValue() ? this.data.value().trip : null));
+  protected readonly comparison = computed<ReplayComparison | null>(() => (this.data.hasValue() ? this.data.value().comparison : null));
   protected readonly axis = signal<ComparisonAxis>('distance');
   /** x under the pointer on any chart, in the axis' unit. */
   protected readonly hoverX = signal<number | null>(null);
-  protected readonly fitTo = signal<MapPosition[] | null>(null);
+  protected readonly fitTo = computed<MapPosition[] | null>(() => {
+    const s = this.comparison()?.series;
+    return s ? s.lon.map((lon, i) => [lon, s.lat[i]!] as MapPosition) : null;
+  });
 
   protected readonly xLabel = computed(() => (this.axis() === 'distance' ? unitLabel('distance', this.units()) : 'minutes'));
   protected readonly charts = computed(() => {
@@ -70,28 +81,7 @@ export default class TripComparison {
     return index < 0 ? null : [comparison.series.lon[index]!, comparison.series.lat[index]!];
   });
 
-  constructor() {
-    effect(() => {
-      const id = this.loggedTripId();
-      const calibrationId = this.calibrationId();
-      untracked(() => void this.load(id, calibrationId));
-    });
-  }
-
   protected unit(quantity: 'power' | 'energy' | 'temperature' | 'speed'): string {
     return unitLabel(quantity, this.units());
-  }
-
-  private async load(id: string, calibrationId: string | undefined): Promise<void> {
-    this.error.set(null);
-    this.comparison.set(null);
-    try {
-      const [trip, comparison] = await Promise.all([this.api.trip(id), this.api.comparison(id, calibrationId)]);
-      this.trip.set(trip);
-      this.comparison.set(comparison);
-      this.fitTo.set(comparison.series.lon.map((lon, i) => [lon, comparison.series.lat[i]!]));
-    } catch (error: unknown) {
-      this.error.set(describeApiError(error));
-    }
   }
 }

@@ -2,21 +2,19 @@ import {
   ChangeDetectionStrategy,
   Component,
   computed,
-  effect,
   inject,
   input,
+  linkedSignal,
+  resource,
   signal,
-  untracked,
 } from '@angular/core';
 import { DatePipe } from '@angular/common';
 import { MatButtonModule } from '@angular/material/button';
 import { MatIconModule } from '@angular/material/icon';
-import { MatProgressBarModule } from '@angular/material/progress-bar';
 import { MatSnackBar } from '@angular/material/snack-bar';
 import { RouterLink } from '@angular/router';
 import { REVIEW_STATE_LABELS, currentRisk, type AuditEvent, type ReviewDetail, type ReviewItem } from '@shared/domain/reviews';
 import { DistanceChart, type ChartBand, type ChartSeries } from '../charts/distance-chart';
-import { describeApiError } from '../core/api-error-message';
 import { DescentSafety } from '../descents/descent-safety';
 import { Session } from '../core/session';
 import { TerrainMap, type MapOverlay, type MapPosition } from '../map/terrain-map';
@@ -37,7 +35,8 @@ import { DIRECTION_LABELS } from './direction-labels';
 import { ReviewStateChip } from './review-state-chip';
 import { ReviewsApi } from './reviews-api';
 import { descentCardsUrl } from '../scenarios/scenarios-api';
-import type { LoadState } from '../ui/load-state';
+import { LoadStatus } from '../ui/load-status';
+import { loadStateOf } from '../ui/load-state';
 
 /** One descent under review: where it is, how hot the brakes get, what to do, and who did what. */
 @Component({
@@ -48,8 +47,8 @@ import type { LoadState } from '../ui/load-state';
     RouterLink,
     MatButtonModule,
     MatIconModule,
-    MatProgressBarModule,
     TerrainMap,
+    LoadStatus,
     DistanceChart,
     EngineeringCaution,
     AdviceCautions,
@@ -78,12 +77,26 @@ export default class ReviewDetailPage {
   protected readonly directionLabels = DIRECTION_LABELS;
   protected readonly canAct = computed(() => this.session.can('reviews.act'));
 
-  protected readonly loadState = signal<LoadState>({ status: 'loading' });
-  protected readonly detail = signal<ReviewDetail | null>(null);
-  protected readonly item = signal<ReviewItem | null>(null);
-  protected readonly events = signal<AuditEvent[]>([]);
+  /**
+   * The item, its profile and its history, asked for by review id: a new id drops the earlier
+   * answer. Expected failures: unknown id (404), server unreachable, or an answer that fails the
+   * shared schema.
+   */
+  protected readonly data = resource({
+    params: () => ({ reviewId: this.reviewId() }),
+    loader: async ({ params }): Promise<{ detail: ReviewDetail; events: AuditEvent[] }> => {
+      const [detail, events] = await Promise.all([this.reviewsApi.get(params.reviewId), this.reviewsApi.events(params.reviewId)]);
+      return { detail, events };
+    },
+  });
+  protected readonly loadState = loadStateOf(this.data);
+  protected readonly detail = computed<ReviewDetail | null>(() => (this.data.hasValue() ? this.data.value().detail : null));
+  /** The loaded item, then the one each saved transition answers with. */
+  protected readonly item = linkedSignal<ReviewItem | null>(() => this.detail()?.item ?? null);
+  protected readonly events = linkedSignal<AuditEvent[]>(() => (this.data.hasValue() ? this.data.value().events : []));
   /** What the last mitigation re-run said, when it could not give a new risk (e.g. a restriction only). */
-  protected readonly rerunNote = signal<string | null>(null);
+  /** Why a requested re-run could not happen; cleared whenever the item is loaded again. */
+  protected readonly rerunNote = linkedSignal<ReviewDetail | null, string | null>({ source: this.detail, computation: () => null });
   protected readonly cursorX = signal<number | null>(null);
 
   protected readonly advice = computed(() => {
@@ -189,28 +202,6 @@ export default class ReviewDetailPage {
     if (!item) return [];
     return brakeRiskBands(item.fadeThresholdC, this.units());
   });
-
-  constructor() {
-    effect(() => {
-      const reviewId = this.reviewId();
-      untracked(() => void this.load(reviewId));
-    });
-  }
-
-  protected async load(reviewId = this.reviewId()): Promise<void> {
-    this.rerunNote.set(null);
-    this.loadState.set({ status: 'loading' });
-    try {
-      const [detail, events] = await Promise.all([this.reviewsApi.get(reviewId), this.reviewsApi.events(reviewId)]);
-      this.detail.set(detail);
-      this.item.set(detail.item);
-      this.events.set(events);
-      this.loadState.set({ status: 'ready' });
-    } catch (error: unknown) {
-      // Expected: unknown id (404), server unreachable, or an answer that fails the shared schema.
-      this.loadState.set({ status: 'error', message: describeApiError(error) });
-    }
-  }
 
   protected applyTransition(change: { result: { item: ReviewItem; event: AuditEvent }; rerunRequested: boolean }): void {
     const { item, event } = change.result;

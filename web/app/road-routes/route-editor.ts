@@ -6,6 +6,7 @@ import {
   effect,
   inject,
   input,
+  resource,
   signal,
   untracked,
   viewChild,
@@ -40,9 +41,10 @@ import { DEFAULT_SPEED_LIMIT_KPH, SERVICE_DAYS_PER_YEAR, TRIPS_PER_DAY } from '@
 import { SERVICE_DAYS_RANGE, TRIPS_PER_DAY_RANGE, displayToKph, isSpeedLimitKphAllowed, kphToDisplay, speedLimitRange } from '@shared/presentation/index';
 import { UnitPreference } from '../units/unit-preference';
 import { UnitSwitch } from '../units/unit-switch';
-import { LOADED, LOADING, loadFailed, type LoadState } from '../ui/load-state';
+import { LOADING, loadFailed, loadStateOf } from '../ui/load-state';
 import { LoadStatus } from '../ui/load-status';
-import { RoadRoutesApi, type RoadNetwork, type RouteProfile, type RouteVersionInfo } from './road-routes-api';
+import { RouteElevationBanners, RouteVersionBanner, type RouteProfileState } from './route-banners';
+import { RoadRoutesApi, type RoadNetwork, type RouteVersionInfo } from './road-routes-api';
 import { RouteDraftStore } from './route-draft-store';
 import { RouteVertexTable, type CoordinateTyped } from './tables/route-vertex-table';
 import { RouteStopTable, type StopChange } from './tables/route-stop-table';
@@ -78,7 +80,7 @@ import {
 export type { EditorTool } from './route-overlays';
 
 /** The live elevation profile: none yet (fewer than two vertices), or loading as any page data. */
-type ProfileState = { status: 'idle' } | LoadState<RouteProfile>;
+type ProfileState = RouteProfileState;
 
 const MODE_LABELS: Readonly<Record<(typeof ROUTE_MODES)[number], string>> = {
   bus: 'Bus',
@@ -91,6 +93,8 @@ const MODE_LABELS: Readonly<Record<(typeof ROUTE_MODES)[number], string>> = {
   selector: 'app-route-editor',
   imports: [
     DatePipe,
+    RouteVersionBanner,
+    RouteElevationBanners,
     ReactiveFormsModule,
     RouterLink,
     MatButtonModule,
@@ -153,7 +157,29 @@ export default class RouteEditor {
   /** An older version being looked at (read-only), or null for the current one. */
   protected readonly olderVersion = signal<RoadRoute | null>(null);
   protected readonly versions = signal<RouteVersionInfo[]>([]);
-  protected readonly loadState = signal<LoadState>(LOADED);
+  /**
+   * The route shown, asked for by id: opening another route drops the earlier answer. Without an
+   * id the page is a new route over the uploaded terrain.
+   */
+  private readonly routeLoad = resource({
+    params: () => ({ routeId: this.routeId() }),
+    loader: async ({ params: { routeId }, abortSignal }): Promise<RoadRoute | null> => {
+      this.olderVersion.set(null);
+      if (!routeId) {
+        this.saved.set(null);
+        this.store.reset(EMPTY_DRAFT);
+        void this.fitToTerrain();
+        return null;
+      }
+      const route = await this.api.get(routeId);
+      // Another route was opened meanwhile: its own load shows it, this answer is dropped.
+      if (abortSignal.aborted) return route;
+      this.showSaved(route, true);
+      void this.loadVersions(routeId);
+      return route;
+    },
+  });
+  protected readonly loadState = loadStateOf(this.routeLoad);
   protected readonly isSaving = signal(false);
   protected readonly saveError = signal<string | null>(null);
   /** First end of a speed-limit stretch placed on the map, m along the route. */
@@ -255,10 +281,6 @@ export default class RouteEditor {
   protected readonly versionShown = computed(() => this.olderVersion()?.version ?? this.saved()?.version ?? null);
 
   constructor() {
-    effect(() => {
-      const routeId = this.routeId();
-      untracked(() => void this.load(routeId));
-    });
     effect(() => {
       // A selection past the end (after an undo or a deletion) is no selection.
       const count = this.vertices().length;
@@ -625,30 +647,9 @@ export default class RouteEditor {
     };
   }
 
-  private async load(routeId: string | undefined): Promise<void> {
-    this.olderVersion.set(null);
-    if (!routeId) {
-      this.saved.set(null);
-      this.store.reset(EMPTY_DRAFT);
-      void this.fitToTerrain();
-      return;
-    }
-    this.loadState.set(LOADING);
-    try {
-      const route = await this.api.get(routeId);
-      // Another route was opened meanwhile: its own load shows it, this answer is dropped.
-      if (this.routeId() !== routeId) return;
-      this.showSaved(route, true);
-      this.loadState.set(LOADED);
-      void this.loadVersions(routeId);
-    } catch (error: unknown) {
-      if (this.routeId() === routeId) this.loadState.set(loadFailed(error));
-    }
-  }
-
   /** "Try again" after the route failed to load. */
   protected reload(): void {
-    void this.load(this.routeId());
+    this.routeLoad.reload();
   }
 
   private async loadVersions(routeId: string): Promise<void> {

@@ -1,4 +1,4 @@
-import { ChangeDetectionStrategy, Component, computed, effect, inject, input, signal, untracked } from '@angular/core';
+import { ChangeDetectionStrategy, Component, computed, inject, input, resource, signal } from '@angular/core';
 import { toSignal } from '@angular/core/rxjs-interop';
 import { FormControl, FormGroup, ReactiveFormsModule, Validators } from '@angular/forms';
 import { MatButtonModule } from '@angular/material/button';
@@ -7,7 +7,6 @@ import { MatExpansionModule } from '@angular/material/expansion';
 import { MatFormFieldModule } from '@angular/material/form-field';
 import { MatIconModule } from '@angular/material/icon';
 import { MatInputModule } from '@angular/material/input';
-import { MatProgressBarModule } from '@angular/material/progress-bar';
 import { MatSelectModule } from '@angular/material/select';
 import { MatSlideToggleModule } from '@angular/material/slide-toggle';
 import { Router, RouterLink } from '@angular/router';
@@ -31,6 +30,8 @@ import {
 } from './scenario-form-model';
 import { DIRECTION_LABELS, LOAD_LABELS, SEASON_LABELS } from '@shared/presentation/index';
 import { ScenariosApi } from './scenarios-api';
+import { LoadStatus } from '../ui/load-status';
+import { loadStateOf } from '../ui/load-state';
 
 /** Planners and analysts set up a scenario: route, direction, vehicle, load, season, SOC, options. */
 @Component({
@@ -44,7 +45,7 @@ import { ScenariosApi } from './scenarios-api';
     MatFormFieldModule,
     MatIconModule,
     MatInputModule,
-    MatProgressBarModule,
+    LoadStatus,
     MatSelectModule,
     MatSlideToggleModule,
   ],
@@ -82,10 +83,29 @@ export default class ScenarioForm {
     { value: 'custom', label: 'Custom' },
   ];
 
-  protected readonly routes = signal<RoadRouteSummary[]>([]);
-  protected readonly vehicles = signal<VehicleProfile[]>([]);
-  protected readonly versions = signal<RouteVersionInfo[]>([]);
-  protected readonly isLoading = signal(true);
+  /**
+   * The routes and vehicles to choose from, asked for by scenario id; once they are here the form
+   * is filled with the scenario (editing) or the pre-selected route and first vehicle (new).
+   */
+  protected readonly choices = resource({
+    params: () => ({ scenarioId: this.scenarioId() }),
+    loader: async ({ params, abortSignal }): Promise<{ routes: RoadRouteSummary[]; vehicles: VehicleProfile[] }> => {
+      const [routes, vehicles] = await Promise.all([this.routesApi.list(), this.vehiclesApi.list()]);
+      const scenario = params.scenarioId ? await this.scenariosApi.get(params.scenarioId) : null;
+      // A newer request fills the form instead.
+      if (abortSignal.aborted) return { routes, vehicles };
+      if (scenario) {
+        this.form.setValue(toFormValue(scenario, this.units()));
+      } else {
+        const routeId = this.routeId() ?? (routes.length === 1 ? routes[0]!.id : '');
+        this.form.patchValue({ routeId, vehicleProfileId: vehicles[0]?.id ?? '' });
+      }
+      return { routes, vehicles };
+    },
+  });
+  protected readonly loaded = loadStateOf(this.choices);
+  protected readonly routes = computed<RoadRouteSummary[]>(() => (this.choices.hasValue() ? this.choices.value().routes : []));
+  protected readonly vehicles = computed<VehicleProfile[]>(() => (this.choices.hasValue() ? this.choices.value().vehicles : []));
   protected readonly isSaving = signal(false);
   protected readonly error = signal<string | null>(null);
 
@@ -111,16 +131,18 @@ export default class ScenarioForm {
   protected readonly load = toSignal(this.form.controls.load.valueChanges, { initialValue: this.form.controls.load.value });
   protected readonly season = toSignal(this.form.controls.season.valueChanges, { initialValue: this.form.controls.season.value });
   private readonly selectedRouteId = toSignal(this.form.controls.routeId.valueChanges, { initialValue: '' });
+  /** The chosen route's versions, asked for by route id: choosing another route drops the earlier list. */
+  private readonly routeVersions = resource({
+    params: () => {
+      const routeId = this.selectedRouteId();
+      return routeId ? { routeId } : undefined;
+    },
+    loader: ({ params }) => this.routesApi.versions(params.routeId),
+  });
+  // While the list is missing or failed, "latest version" is still offered.
+  protected readonly versions = computed<RouteVersionInfo[]>(() => (this.routeVersions.hasValue() ? this.routeVersions.value() : []));
   protected readonly presets = computed(() => this.vehicles().filter((profile) => profile.isPreset));
   protected readonly ownProfiles = computed(() => this.vehicles().filter((profile) => !profile.isPreset));
-
-  constructor() {
-    void this.loadChoicesAndScenario();
-    effect(() => {
-      const routeId = this.selectedRouteId();
-      untracked(() => void this.loadVersions(routeId));
-    });
-  }
 
   protected unit(quantity: 'speed' | 'temperature'): string {
     return unitLabel(quantity, this.units());
@@ -144,36 +166,6 @@ export default class ScenarioForm {
       this.error.set(describeApiError(error));
     } finally {
       this.isSaving.set(false);
-    }
-  }
-
-  private async loadChoicesAndScenario(): Promise<void> {
-    try {
-      const [routes, vehicles] = await Promise.all([this.routesApi.list(), this.vehiclesApi.list()]);
-      this.routes.set(routes);
-      this.vehicles.set(vehicles);
-      const id = this.scenarioId();
-      if (id) {
-        const scenario = await this.scenariosApi.get(id);
-        this.form.setValue(toFormValue(scenario, this.units()));
-      } else {
-        const routeId = this.routeId() ?? (routes.length === 1 ? routes[0]!.id : '');
-        this.form.patchValue({ routeId, vehicleProfileId: vehicles[0]?.id ?? '' });
-      }
-    } catch (error: unknown) {
-      this.error.set(describeApiError(error));
-    } finally {
-      this.isLoading.set(false);
-    }
-  }
-
-  private async loadVersions(routeId: string): Promise<void> {
-    this.versions.set([]);
-    if (!routeId) return;
-    try {
-      this.versions.set(await this.routesApi.versions(routeId));
-    } catch {
-      // Expected while the route has no version list: "latest version" is still offered.
     }
   }
 }
