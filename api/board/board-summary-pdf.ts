@@ -66,11 +66,6 @@ export function renderBoardSummaryPdf(summary: BoardSummary): Promise<Buffer> {
     page.y += rowHeight;
   }
   page.paragraph(`Net energy drawn from batteries and overhead lines per year, after regeneration: ${formatBoardNumber(summary.totals.annualNetKWh)} kWh. Distance driven: ${formatBoardNumber(summary.totals.annualKm)} km per year.`, { size: 9 });
-  // How the year is counted, in the same words as the board page.
-  page.paragraph(
-    `How the year is counted: ${summary.annual.basisText}`,
-    { size: 8, colour: MUTED },
-  );
 
   routeChart(page, summary);
 

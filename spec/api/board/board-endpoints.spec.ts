@@ -250,8 +250,6 @@ describe('the board summary as printed and read (issue 10)', () => {
     const note = pdf.words.find((word) => word.text === 'tariff.')!;
     expect(note.yMin).toBeGreaterThan(money.yMax);
     expect(note.yMin - money.yMax).toBeLessThan(30);
-    // The annual basis in plain words, as on the board page: no service day is in service here.
-    expect(text).toContain('How the year is counted: No service day is in service yet, so the year comes from the in-service scenarios');
     expect(text).toContain('High or critical risks accepted: 2 (2 high)');
     expect(text).toContain('Outbound, km 0.1–9.4');
     expect(text).toMatch(/Figures as of \d{1,2} [A-Z][a-z]+ \d{4}, \d\d:\d\d/);
