@@ -10,7 +10,17 @@ import tseslint from 'typescript-eslint';
 
 export default tseslint.config(
   {
-    ignores: ['dist/**', 'node_modules/**', 'coverage/**', '.angular/**', '.var/**', 'migrations/**', 'spec-artifacts/**', 'backups/**', 'data/**'],
+    ignores: [
+      'dist/**',
+      'node_modules/**',
+      'coverage/**',
+      '.angular/**',
+      '.var/**',
+      'migrations/**',
+      'spec-artifacts/**',
+      'backups/**',
+      'data/**',
+    ],
   },
   {
     files: ['**/*.ts', '**/*.mjs', '**/*.js'],
@@ -22,7 +32,26 @@ export default tseslint.config(
   },
   {
     files: ['**/*.mjs', '**/*.js', 'scripts/**/*.ts', 'api/**/*.ts', 'spec/**/*.ts'],
-    languageOptions: { globals: { process: 'readonly', console: 'readonly', Buffer: 'readonly', URL: 'readonly', setTimeout: 'readonly', clearTimeout: 'readonly', setInterval: 'readonly', clearInterval: 'readonly', fetch: 'readonly', AbortController: 'readonly', structuredClone: 'readonly', performance: 'readonly', TextEncoder: 'readonly', TextDecoder: 'readonly', queueMicrotask: 'readonly', setImmediate: 'readonly' } },
+    languageOptions: {
+      globals: {
+        process: 'readonly',
+        console: 'readonly',
+        Buffer: 'readonly',
+        URL: 'readonly',
+        setTimeout: 'readonly',
+        clearTimeout: 'readonly',
+        setInterval: 'readonly',
+        clearInterval: 'readonly',
+        fetch: 'readonly',
+        AbortController: 'readonly',
+        structuredClone: 'readonly',
+        performance: 'readonly',
+        TextEncoder: 'readonly',
+        TextDecoder: 'readonly',
+        queueMicrotask: 'readonly',
+        setImmediate: 'readonly',
+      },
+    },
   },
   {
     files: ['web/**/*.ts'],

@@ -16,7 +16,12 @@ const configSchema = z.object({
   /** Secret for signing session tokens; at least 32 characters. */
   SESSION_SECRET: z.string().min(32, 'SESSION_SECRET must be at least 32 characters'),
   /** Session lifetime; renewed on activity. */
-  SESSION_TTL_MINUTES: z.coerce.number().int().min(1).max(24 * 60).default(30),
+  SESSION_TTL_MINUTES: z.coerce
+    .number()
+    .int()
+    .min(1)
+    .max(24 * 60)
+    .default(30),
   /**
    * Which proxies may tell the client's address (X-Forwarded-For) and protocol: "false" (the
    * default: nobody, the socket's address counts), a number of proxy hops, or a comma-separated
@@ -31,7 +36,10 @@ const configSchema = z.object({
       if (text === '' || text === 'false') return false;
       if (text === 'true') return true;
       if (/^\d+$/.test(text)) return Number(text);
-      const list = text.split(',').map((part) => part.trim()).filter(Boolean);
+      const list = text
+        .split(',')
+        .map((part) => part.trim())
+        .filter(Boolean);
       if (list.some((part) => !/^[\w.:/]+$/.test(part))) {
         ctx.addIssue({ code: 'custom', message: 'give false, a hop count, or a comma-separated list of addresses or subnets' });
         return z.NEVER;
@@ -53,11 +61,19 @@ const configSchema = z.object({
   /** Folder with the built Angular app to serve; empty to serve the API only. */
   WEB_DIR: z.string().default('dist/web/browser'),
   /** Largest terrain upload accepted, bytes (default 2 GiB); larger uploads get 413. */
-  TERRAIN_MAX_UPLOAD_BYTES: z.coerce.number().int().positive().default(2 * 1024 ** 3),
+  TERRAIN_MAX_UPLOAD_BYTES: z.coerce
+    .number()
+    .int()
+    .positive()
+    .default(2 * 1024 ** 3),
   /** Largest terrain grid accepted, width × height pixels (guards against decompression bombs). */
   TERRAIN_MAX_PIXELS: z.coerce.number().int().positive().default(1_000_000_000),
   /** Largest single decoded tile or strip, bytes; bigger blocks would have to be held whole. */
-  TERRAIN_MAX_BLOCK_BYTES: z.coerce.number().int().positive().default(64 * 1024 ** 2),
+  TERRAIN_MAX_BLOCK_BYTES: z.coerce
+    .number()
+    .int()
+    .positive()
+    .default(64 * 1024 ** 2),
   /** Memory for decoded terrain blocks shared by sampling and tile rendering, MiB. */
   TERRAIN_BLOCK_CACHE_MB: z.coerce.number().int().positive().default(256),
   /** Worker threads that decode terrain blocks off the event loop. */
@@ -65,7 +81,11 @@ const configSchema = z.object({
   /** Disk space for rendered map tiles, MiB; the least recently used tiles go first. */
   TILE_CACHE_MAX_MB: z.coerce.number().int().min(1).default(1024),
   /** Largest OpenStreetMap extract accepted for the base map, bytes (default 4 GiB); larger uploads get 413. */
-  BASEMAP_MAX_UPLOAD_BYTES: z.coerce.number().int().positive().default(4 * 1024 ** 3),
+  BASEMAP_MAX_UPLOAD_BYTES: z.coerce
+    .number()
+    .int()
+    .positive()
+    .default(4 * 1024 ** 3),
   /** Memory osm2pgsql may use for node positions during an import, MiB (beyond it they go to PostgreSQL). */
   BASEMAP_IMPORT_CACHE_MB: z.coerce.number().int().min(16).max(65_536).default(256),
   /** Processes osm2pgsql may use for an import (its indexing phase runs in parallel). */

@@ -55,8 +55,13 @@ export function tableCounts(databaseUrl) {
       (xpath('/row/c/text()', query_to_xml(format('select count(*) as c from public.%I', table_name), false, true, '')))[1]::text), ';' order by table_name)
     from information_schema.tables where table_schema = 'public' and table_type = 'BASE TABLE' and table_name <> 'spatial_ref_sys'`;
   const out = runTool('psql', [...args, '-d', database, '-tAc', sql], { password }).trim();
-  return Object.fromEntries(out.split(';').filter(Boolean).map((pair) => {
-    const [name, count] = pair.split('=');
-    return [name, Number(count)];
-  }));
+  return Object.fromEntries(
+    out
+      .split(';')
+      .filter(Boolean)
+      .map((pair) => {
+        const [name, count] = pair.split('=');
+        return [name, Number(count)];
+      }),
+  );
 }

@@ -27,7 +27,11 @@ mkdirSync(target, { recursive: true });
 
 const { args, database, password } = connectionOf(url);
 const counts = tableCounts(url);
-runTool(`${PG_BIN}/pg_dump`, [...args, '--format=custom', '--no-owner', '--no-privileges', '--file', join(target, DATABASE_FILE), database], { password });
+runTool(
+  `${PG_BIN}/pg_dump`,
+  [...args, '--format=custom', '--no-owner', '--no-privileges', '--file', join(target, DATABASE_FILE), database],
+  { password },
+);
 
 const dataPath = join(target, DATA_FILE);
 if (existsSync(dataDir)) {

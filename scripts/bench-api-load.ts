@@ -39,7 +39,10 @@ interface Load {
   body?: string;
 }
 
-const ONLY = (process.env['BENCH_LOADS'] ?? '').split(',').map((word) => word.trim()).filter(Boolean);
+const ONLY = (process.env['BENCH_LOADS'] ?? '')
+  .split(',')
+  .map((word) => word.trim())
+  .filter(Boolean);
 const CPU_PROF = process.env['BENCH_CPU_PROF'];
 
 if (CPU_PROF) process.env['SCRATCH_NODE_ARGS'] = `--cpu-prof --cpu-prof-dir=${CPU_PROF}`;
@@ -60,8 +63,20 @@ try {
     ...[20, 50].flatMap((connections) =>
       ['/api/routes', '/api/scenarios', '/api/vehicles'].map((path) => ({ name: `GET ${path}`, path, connections })),
     ),
-    { name: `POST /api/analysis/preview (${ROUTE_KM} km, full profile)`, path: '/api/analysis/preview', connections: 20, perPerson: true, body },
-    { name: `POST /api/analysis/preview (${ROUTE_KM} km, chart view)`, path: `/api/analysis/preview?${CHART_VIEW}`, connections: 20, perPerson: true, body },
+    {
+      name: `POST /api/analysis/preview (${ROUTE_KM} km, full profile)`,
+      path: '/api/analysis/preview',
+      connections: 20,
+      perPerson: true,
+      body,
+    },
+    {
+      name: `POST /api/analysis/preview (${ROUTE_KM} km, chart view)`,
+      path: `/api/analysis/preview?${CHART_VIEW}`,
+      connections: 20,
+      perPerson: true,
+      body,
+    },
     { name: 'GET terrain tile (cached)', path: terrainTile, connections: 50 },
     { name: 'GET base-map tile (cached)', path: baseTile, connections: 50 },
   ];
@@ -69,7 +84,9 @@ try {
   const loads = ONLY.length ? allLoads.filter((load) => ONLY.some((word) => load.name.includes(word))) : allLoads;
   const rssBefore = rssMb(instance);
   const loadBefore = loadavg();
-  console.log(`server RSS before: ${rssBefore.toFixed(0)} MB; load average ${loadBefore.map((v) => v.toFixed(2)).join(' ')} on ${cpus().length} cores`);
+  console.log(
+    `server RSS before: ${rssBefore.toFixed(0)} MB; load average ${loadBefore.map((v) => v.toFixed(2)).join(' ')} on ${cpus().length} cores`,
+  );
   const rows: string[] = [];
   for (const load of loads) {
     // One answer while the server is idle, for its size on the wire.
@@ -85,8 +102,17 @@ try {
     const refused = results.reduce((sum, r) => sum + statusCount(r, 429) + statusCount(r, 503), 0);
     const failed = results.reduce((sum, r) => sum + r.errors + r.timeouts + r.non2xx, 0) - refused;
     rows.push(
-      `| ${load.name} | ${load.connections} | ${range(results.map((r) => r['2xx'] / SECONDS), 0)} | ` +
-        `${range(results.map((r) => r.latency.p50), 0)} ms | ${range(results.map((r) => r.latency.p99), 0)} ms | ` +
+      `| ${load.name} | ${load.connections} | ${range(
+        results.map((r) => r['2xx'] / SECONDS),
+        0,
+      )} | ` +
+        `${range(
+          results.map((r) => r.latency.p50),
+          0,
+        )} ms | ${range(
+          results.map((r) => r.latency.p99),
+          0,
+        )} ms | ` +
         `${failed} | ${refused} | ${range(cpuPerRequest, 0)} µs | ${bytes} |`,
     );
     console.log(rows.at(-1));
@@ -94,9 +120,13 @@ try {
   const rssAfter = rssMb(instance);
   const loadAfter = loadavg();
 
-  console.log(`\n${RUNS} runs of ${SECONDS} s each; this machine: ${cpus().length} cores; ` +
-    `load average ${loadBefore[0]!.toFixed(1)} before, ${loadAfter[0]!.toFixed(1)} after`);
-  console.log('| load | connections | answered/s (2xx) | p50 | p99 | errors (all runs) | refused 429/503 (all runs) | server CPU per answer | answer on the wire |');
+  console.log(
+    `\n${RUNS} runs of ${SECONDS} s each; this machine: ${cpus().length} cores; ` +
+      `load average ${loadBefore[0]!.toFixed(1)} before, ${loadAfter[0]!.toFixed(1)} after`,
+  );
+  console.log(
+    '| load | connections | answered/s (2xx) | p50 | p99 | errors (all runs) | refused 429/503 (all runs) | server CPU per answer | answer on the wire |',
+  );
   console.log('| --- | ---: | ---: | ---: | ---: | ---: | ---: | ---: | ---: |');
   for (const row of rows) console.log(row);
   console.log(`\nServer RSS: ${rssBefore.toFixed(0)} MB before, ${rssAfter.toFixed(0)} MB after.`);
@@ -176,7 +206,10 @@ async function signInAs(scratch: ScratchInstance, email: string, password: strin
     body: JSON.stringify({ email, password }),
   });
   if (!response.ok) throw new Error(`sign-in as ${email}: ${response.status}`);
-  return response.headers.getSetCookie().map((c) => c.split(';')[0]).join('; ');
+  return response.headers
+    .getSetCookie()
+    .map((c) => c.split(';')[0])
+    .join('; ');
 }
 
 /** A z13 tile at the middle of the demo terrain, asked once so both tiles are in the caches. */
@@ -207,7 +240,9 @@ async function demoTiles(scratch: ScratchInstance, cookie: string) {
  * processes share the cores.
  */
 function cpuMs(scratch: ScratchInstance): number {
-  const fields = readFileSync(`/proc/${scratch.server.pid}/stat`, 'utf8').replace(/^.*\) /, '').split(' ');
+  const fields = readFileSync(`/proc/${scratch.server.pid}/stat`, 'utf8')
+    .replace(/^.*\) /, '')
+    .split(' ');
   // utime and stime are fields 14 and 15 of stat, in clock ticks (100 per second on Linux).
   return ((Number(fields[11]) + Number(fields[12])) * 1_000) / 100;
 }

@@ -36,7 +36,13 @@ mkdirSync(WORK, { recursive: true });
 ensureDatabase('descentry_bench');
 const url = databaseUrl('descentry_bench');
 await migrateDatabase(url);
-const config = loadConfig({ ...process.env, DATABASE_URL: url, SESSION_SECRET: 'bench-secret-bench-secret-bench-secret-00', DATA_DIR: join(WORK, 'data'), NODE_ENV: 'test' });
+const config = loadConfig({
+  ...process.env,
+  DATABASE_URL: url,
+  SESSION_SECRET: 'bench-secret-bench-secret-bench-secret-00',
+  DATA_DIR: join(WORK, 'data'),
+  NODE_ENV: 'test',
+});
 const { db, close } = createDatabase(url);
 const deps = { db, config };
 const [person] = await db
@@ -76,7 +82,9 @@ async function benchImports() {
     await waitForInlineBasemapJobs(deps);
     const seconds = (performance.now() - started) / 1000;
     clearInterval(sampler);
-    const [row] = await db.execute<{ status: string; failure_reason: string | null }>(sql`SELECT status, failure_reason FROM basemap_imports ORDER BY created_at DESC LIMIT 1`);
+    const [row] = await db.execute<{ status: string; failure_reason: string | null }>(
+      sql`SELECT status, failure_reason FROM basemap_imports ORDER BY created_at DESC LIMIT 1`,
+    );
     if (row?.status !== 'ready') throw new Error(`import failed: ${row?.failure_reason}`);
     console.log(
       `| ${blocks} × ${blocks} blocks | ${sizeMb.toFixed(1)} | ${pbf.nodes.toLocaleString('en')} | ${pbf.ways.toLocaleString('en')} | ${seconds.toFixed(1)} | ${(seconds / sizeMb).toFixed(1)} | ${(peaks.osm2pgsql / 1024 ** 2).toFixed(0)} | ${(peaks.self / 1024 ** 2).toFixed(0)} |`,
@@ -156,7 +164,9 @@ async function writeGridExtract(blocks: number): Promise<{ path: string; nodes: 
       nodes += 4;
       blockNodes.push(ids);
       if (bi % 20 === 10 && bj % 20 === 10) {
-        lines.push(`<node id="${extraId++}" version="1" lat="${lat(y0 + 40)}" lon="${lon(x0 + 40)}"><tag k="place" v="village"/><tag k="name" v="Grid ${bi}-${bj}"/></node>`);
+        lines.push(
+          `<node id="${extraId++}" version="1" lat="${lat(y0 + 40)}" lon="${lon(x0 + 40)}"><tag k="place" v="village"/><tag k="name" v="Grid ${bi}-${bj}"/></node>`,
+        );
         nodes++;
       }
     }
@@ -180,7 +190,9 @@ async function writeGridExtract(blocks: number): Promise<{ path: string; nodes: 
   }
   const landuse = ['residential', 'forest', 'meadow', 'farmland', 'industrial'];
   blockNodes.forEach((ids, index) => {
-    lines.push(`<way id="${wayId++}" version="1">${[...ids, ids[0]].map((id) => `<nd ref="${id}"/>`).join('')}<tag k="landuse" v="${landuse[index % landuse.length]}"/></way>`);
+    lines.push(
+      `<way id="${wayId++}" version="1">${[...ids, ids[0]].map((id) => `<nd ref="${id}"/>`).join('')}<tag k="landuse" v="${landuse[index % landuse.length]}"/></way>`,
+    );
     ways++;
     if (lines.length > 10_000) flush();
   });
@@ -216,7 +228,9 @@ async function benchTiles() {
     for (let pass = 0; pass < 20; pass++) for (const [x, y] of tiles) cache.get(active.version, z, x, y);
     const cachedMs = (performance.now() - cachedStart) / (20 * tiles.length);
     const gdalMs = ogr2ogrTiles(active.schemaName, z, extent!) / tiles.length;
-    console.log(`| ${z} | ${tiles.length} | ${coldMs.toFixed(2)} | ${cachedMs.toFixed(4)} | ${gdalMs.toFixed(2)} | ${(coldMs / gdalMs).toFixed(2)}× |`);
+    console.log(
+      `| ${z} | ${tiles.length} | ${coldMs.toFixed(2)} | ${cachedMs.toFixed(4)} | ${gdalMs.toFixed(2)} | ${(coldMs / gdalMs).toFixed(2)}× |`,
+    );
   }
 }
 
@@ -241,8 +255,29 @@ function ogr2ogrTiles(schemaName: string, z: number, box: { w: number; s: number
   const started = performance.now();
   const result = spawnSync(
     'ogr2ogr',
-    ['-f', 'MVT', out, pg, '-spat', String(box.w), String(box.s), String(box.e), String(box.n), '-spat_srs', 'EPSG:4326',
-      '-dsco', `MINZOOM=${z}`, '-dsco', `MAXZOOM=${z}`, '-dsco', 'FORMAT=DIRECTORY', '-dsco', 'COMPRESS=NO', '-dsco', 'MAX_SIZE=5000000'],
+    [
+      '-f',
+      'MVT',
+      out,
+      pg,
+      '-spat',
+      String(box.w),
+      String(box.s),
+      String(box.e),
+      String(box.n),
+      '-spat_srs',
+      'EPSG:4326',
+      '-dsco',
+      `MINZOOM=${z}`,
+      '-dsco',
+      `MAXZOOM=${z}`,
+      '-dsco',
+      'FORMAT=DIRECTORY',
+      '-dsco',
+      'COMPRESS=NO',
+      '-dsco',
+      'MAX_SIZE=5000000',
+    ],
     { encoding: 'utf8' },
   );
   const ms = performance.now() - started;
@@ -280,11 +315,12 @@ async function pathRun(label: string, queries: number, spread: 'near' | 'any') {
   const [{ n } = { n: 0 }] = await db.execute<{ n: number }>(sql`SELECT count(*)::int AS n FROM ${s}.graph_edges`);
   // Points on the roads: the midpoints of up to 2 000 edges; pairs drawn from them by a fixed
   // rule (deterministic), `queries` of them.
-  const points = [...(await db.execute<{ lon: number; lat: number }>(sql`
-    SELECT ST_X(p) AS lon, ST_Y(p) AS lat FROM (SELECT ST_LineInterpolatePoint(geom, 0.5) AS p FROM ${s}.graph_edges ORDER BY (id * 7919) % 104729 LIMIT 2000) q`))].map(
-    (row) => [row.lon, row.lat] as [number, number],
-  );
-  const metres = (a: [number, number], b: [number, number]) => Math.hypot((a[0] - b[0]) * 111_320 * Math.cos((a[1] * Math.PI) / 180), (a[1] - b[1]) * 111_320);
+  const points = [
+    ...(await db.execute<{ lon: number; lat: number }>(sql`
+    SELECT ST_X(p) AS lon, ST_Y(p) AS lat FROM (SELECT ST_LineInterpolatePoint(geom, 0.5) AS p FROM ${s}.graph_edges ORDER BY (id * 7919) % 104729 LIMIT 2000) q`)),
+  ].map((row) => [row.lon, row.lat] as [number, number]);
+  const metres = (a: [number, number], b: [number, number]) =>
+    Math.hypot((a[0] - b[0]) * 111_320 * Math.cos((a[1] * Math.PI) / 180), (a[1] - b[1]) * 111_320);
   const pairs: Array<readonly [[number, number], [number, number]]> = [];
   for (let i = 0; pairs.length < queries && i < queries * 20; i++) {
     const from = points[(i * 7) % points.length]!;
@@ -309,7 +345,9 @@ async function pathRun(label: string, queries: number, spread: 'near' | 'any') {
   }
   const seconds = (performance.now() - started) / 1000;
   times.sort((a, b) => a - b);
-  console.log(`| ${label} | ${n.toLocaleString('en')} | ${spread === 'near' ? '300 m – 2 km apart' : 'anywhere'} | ${times.length} (${found} with a path) | ${(times.length / seconds).toFixed(1)} | ${times[Math.floor(times.length / 2)]!.toFixed(1)} |`);
+  console.log(
+    `| ${label} | ${n.toLocaleString('en')} | ${spread === 'near' ? '300 m – 2 km apart' : 'anywhere'} | ${times.length} (${found} with a path) | ${(times.length / seconds).toFixed(1)} | ${times[Math.floor(times.length / 2)]!.toFixed(1)} |`,
+  );
 }
 
 await main();

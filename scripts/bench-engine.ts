@@ -33,8 +33,7 @@ function syntheticRoute(lengthKm: number): PreviewRequestInput {
       y += vertexSpacingM * Math.sin(heading);
     }
     // Climbs of ~600 m over 12.5 km then descents, with shorter undulations and DEM-like noise.
-    const z =
-      900 + 600 * Math.sin((2 * Math.PI * s) / 25_000) + 40 * Math.sin((2 * Math.PI * s) / 1_700) + 2 * Math.sin(i * 12.9898);
+    const z = 900 + 600 * Math.sin((2 * Math.PI * s) / 25_000) + 40 * Math.sin((2 * Math.PI * s) / 1_700) + 2 * Math.sin(i * 12.9898);
     coordinates.push([8 + x / metresPerDegLon, 46.5 + y / metresPerDegLat, z]);
   }
   const lengthM = lengthKm * 1_000;
@@ -79,7 +78,11 @@ async function main(): Promise<void> {
     );
   }
   const { loadavg } = await import('node:os');
-  console.log(`Engine benchmark, ${runs} runs per route (200 km: fewer), Node ${process.version}, load average ${loadavg().map((v) => v.toFixed(1)).join(' ')}\n`);
+  console.log(
+    `Engine benchmark, ${runs} runs per route (200 km: fewer), Node ${process.version}, load average ${loadavg()
+      .map((v) => v.toFixed(1))
+      .join(' ')}\n`,
+  );
   console.log(lines.join('\n'));
 }
 

@@ -19,7 +19,12 @@ const CASES = [
   { label: 'zip bomb, shapes.txt unpacks to 1 GiB', file: 'gtfs-bomb-1gib.zip', shapesBytes: 1024 * MIB },
   { label: 'shapes.txt unpacks to 450 MB', file: 'gtfs-bomb-450mb.zip', shapesBytes: 450 * 1000 * 1000 },
   { label: 'shapes.txt of 250 MiB, all on the route’s shape', file: 'gtfs-bomb-250mib.zip', shapesBytes: 250 * MIB },
-  { label: 'shapes.txt of 250 MiB, all on a shape no trip uses', file: 'gtfs-bomb-250mib-unused.zip', shapesBytes: 250 * MIB, shapeId: 'unused' as const },
+  {
+    label: 'shapes.txt of 250 MiB, all on a shape no trip uses',
+    file: 'gtfs-bomb-250mib-unused.zip',
+    shapesBytes: 250 * MIB,
+    shapeId: 'unused' as const,
+  },
 ];
 const benchDir = join(fileURLToPath(new URL('..', import.meta.url)), '.var', 'bench');
 
@@ -48,10 +53,18 @@ async function parent(): Promise<void> {
       result = JSON.parse(line);
     } catch {
       // The import killed its process (out of memory): the outcome is the exit and the peak unknown.
-      result = { outcome: `process died (exit ${run.status ?? run.signal}): ${run.stderr.split('\n').find((l) => /heap|memory/i.test(l)) ?? ''}`.trim(), peakMb: NaN, beforeMb: NaN, seconds: NaN };
+      result = {
+        outcome:
+          `process died (exit ${run.status ?? run.signal}): ${run.stderr.split('\n').find((l) => /heap|memory/i.test(l)) ?? ''}`.trim(),
+        peakMb: NaN,
+        beforeMb: NaN,
+        seconds: NaN,
+      };
     }
     const kb = Math.round(statSync(path).size / 1024);
-    console.log(`| ${feed.label} | ${kb} kB | ${result.outcome} | ${result.peakMb.toFixed(0)} MB | ${result.beforeMb.toFixed(0)} MB | ${result.seconds.toFixed(1)} s |`);
+    console.log(
+      `| ${feed.label} | ${kb} kB | ${result.outcome} | ${result.peakMb.toFixed(0)} MB | ${result.beforeMb.toFixed(0)} MB | ${result.seconds.toFixed(1)} s |`,
+    );
   }
 }
 

@@ -21,7 +21,15 @@ import { DEMO_PASSWORD, DEMO_PEOPLE } from '../api/demo/demo-people';
 import { loadDemo, startScratchInstance } from './scratch-instance';
 
 const RUNS = Number(process.argv[2] ?? 3);
-const CHROMIUM_ARGS = ['--no-sandbox', '--disable-gpu', '--disable-quic', '--no-first-run', '--disable-background-networking', '--disable-component-update', '--disable-sync'];
+const CHROMIUM_ARGS = [
+  '--no-sandbox',
+  '--disable-gpu',
+  '--disable-quic',
+  '--no-first-run',
+  '--disable-background-networking',
+  '--disable-component-update',
+  '--disable-sync',
+];
 
 interface Visit {
   bytes: number;
@@ -57,7 +65,11 @@ try {
     const repeat: Visit[] = [];
     for (let run = 0; run < RUNS; run++) {
       const profile = mkdtempSync(join(tmpdir(), 'descentry-bench-browser-'));
-      const context = await chromium.launchPersistentContext(profile, { executablePath: '/usr/bin/chromium', headless: true, args: CHROMIUM_ARGS });
+      const context = await chromium.launchPersistentContext(profile, {
+        executablePath: '/usr/bin/chromium',
+        headless: true,
+        args: CHROMIUM_ARGS,
+      });
       try {
         if (page.signedIn) {
           const [name, value] = cookie.split('=') as [string, string];
@@ -70,17 +82,43 @@ try {
         rmSync(profile, { recursive: true, force: true });
       }
     }
-    for (const [kind, visits] of [['first', first], ['repeat', repeat]] as const) {
+    for (const [kind, visits] of [
+      ['first', first],
+      ['repeat', repeat],
+    ] as const) {
       rows.push(
-        `| ${page.name} | ${kind} | ${range(visits.map((v) => v.bytes / 1024), 1)} kB | ${range(visits.map((v) => v.requests), 0)} ` +
-          `(${range(visits.map((v) => v.fromCache), 0)} from cache) | ${range(visits.map((v) => v.appBytes / 1024), 1)} kB | ` +
-          `${range(visits.map((v) => v.apiBytes / 1024), 1)} kB | ${range(visits.map((v) => v.tileBytes / 1024), 1)} kB | ` +
-          `${range(visits.map((v) => v.lcpMs), 0)} ms |`,
+        `| ${page.name} | ${kind} | ${range(
+          visits.map((v) => v.bytes / 1024),
+          1,
+        )} kB | ${range(
+          visits.map((v) => v.requests),
+          0,
+        )} ` +
+          `(${range(
+            visits.map((v) => v.fromCache),
+            0,
+          )} from cache) | ${range(
+            visits.map((v) => v.appBytes / 1024),
+            1,
+          )} kB | ` +
+          `${range(
+            visits.map((v) => v.apiBytes / 1024),
+            1,
+          )} kB | ${range(
+            visits.map((v) => v.tileBytes / 1024),
+            1,
+          )} kB | ` +
+          `${range(
+            visits.map((v) => v.lcpMs),
+            0,
+          )} ms |`,
       );
       console.log(rows.at(-1));
     }
   }
-  console.log(`\n${RUNS} runs each; headless Chromium on loopback; this machine: ${cpus().length} cores, load average ${load.toFixed(1)} at the start, ${loadavg()[0]!.toFixed(1)} at the end`);
+  console.log(
+    `\n${RUNS} runs each; headless Chromium on loopback; this machine: ${cpus().length} cores, load average ${load.toFixed(1)} at the start, ${loadavg()[0]!.toFixed(1)} at the end`,
+  );
   console.log('| page | visit | transferred | requests | of which app files | API answers | map tiles | largest contentful paint |');
   console.log('| --- | --- | ---: | ---: | ---: | ---: | ---: | ---: |');
   for (const row of rows) console.log(row);
@@ -115,7 +153,10 @@ async function visit(context: BrowserContext, url: string): Promise<Visit> {
   const lcpMs = await page.evaluate(
     () =>
       new Promise<number>((done) => {
-        new PerformanceObserver((list) => done(list.getEntries().at(-1)!.startTime)).observe({ type: 'largest-contentful-paint', buffered: true });
+        new PerformanceObserver((list) => done(list.getEntries().at(-1)!.startTime)).observe({
+          type: 'largest-contentful-paint',
+          buffered: true,
+        });
         setTimeout(() => done(Number.NaN), 3_000);
       }),
   );
@@ -130,7 +171,10 @@ async function signIn(baseUrl: string, email: string): Promise<string> {
     body: JSON.stringify({ email, password: DEMO_PASSWORD }),
   });
   if (!response.ok) throw new Error(`sign-in as ${email}: ${response.status}`);
-  const session = response.headers.getSetCookie().map((c) => c.split(';')[0]!).find((c) => c.startsWith('descentry_session='));
+  const session = response.headers
+    .getSetCookie()
+    .map((c) => c.split(';')[0]!)
+    .find((c) => c.startsWith('descentry_session='));
   if (!session) throw new Error('no session cookie');
   return session;
 }

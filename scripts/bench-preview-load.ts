@@ -45,14 +45,20 @@ async function main(): Promise<void> {
     const alone = await cannon(instance.baseUrl, cookies[20]!, body, 20, 10);
     const statuses = alone.statusCodeStats as unknown as Record<string, { count: number }>;
 
-    console.log(`\n${ROUTE_KM} km preview at 1 m spacing; ${LOAD_S} s of load; this machine: ${(await import('node:os')).cpus().length} cores`);
+    console.log(
+      `\n${ROUTE_KM} km preview at 1 m spacing; ${LOAD_S} s of load; this machine: ${(await import('node:os')).cpus().length} cores`,
+    );
     console.log('| load | /api/health p50 | p95 | max | previews answered | previews refused or failed |');
     console.log('| --- | ---: | ---: | ---: | ---: | ---: |');
     console.log(`| none | ${ms(idle.p50)} | ${ms(idle.p95)} | ${ms(idle.max)} | – | – |`);
-    console.log(`| 20 people × 1 preview at a time | ${ms(crowd.p50)} | ${ms(crowd.p95)} | ${ms(crowd.max)} | ${previews.ok} | ${previews.other} |`);
-    console.log(`\nOne person, 20 concurrent previews for 10 s: ${alone['2xx']} answered, ` +
-      `${statuses['429']?.count ?? 0} refused with 429, ${statuses['503']?.count ?? 0} with 503, ` +
-      `${alone.non2xx - (statuses['429']?.count ?? 0) - (statuses['503']?.count ?? 0)} other errors, ${alone.errors + alone.timeouts} failed connections.`);
+    console.log(
+      `| 20 people × 1 preview at a time | ${ms(crowd.p50)} | ${ms(crowd.p95)} | ${ms(crowd.max)} | ${previews.ok} | ${previews.other} |`,
+    );
+    console.log(
+      `\nOne person, 20 concurrent previews for 10 s: ${alone['2xx']} answered, ` +
+        `${statuses['429']?.count ?? 0} refused with 429, ${statuses['503']?.count ?? 0} with 503, ` +
+        `${alone.non2xx - (statuses['429']?.count ?? 0) - (statuses['503']?.count ?? 0)} other errors, ${alone.errors + alone.timeouts} failed connections.`,
+    );
   } finally {
     await instance.stop();
   }

@@ -46,7 +46,9 @@ if (parts.has('tiles')) await benchTiles();
 if (parts.has('ingestion')) await benchIngestion();
 
 console.log('\n## Terrain benchmark results\n');
-console.log(`Machine: ${execFileSync('nproc').toString().trim()} cores, Node ${process.version}, GDAL ${execFileSync('gdalinfo', ['--version']).toString().trim()}\n`);
+console.log(
+  `Machine: ${execFileSync('nproc').toString().trim()} cores, Node ${process.version}, GDAL ${execFileSync('gdalinfo', ['--version']).toString().trim()}\n`,
+);
 for (const line of results) console.log(line);
 process.exit(0);
 
@@ -87,7 +89,8 @@ async function benchSampling(): Promise<void> {
   let worst = 0;
   ours.forEach((value, i) => {
     const reference = gdal.values[i];
-    if (value !== null && reference !== null && reference !== undefined) worst = Math.max(worst, Math.abs(value - reference) / Math.abs(reference));
+    if (value !== null && reference !== null && reference !== undefined)
+      worst = Math.max(worst, Math.abs(value - reference) / Math.abs(reference));
   });
   const gdalMs = median(gdalRuns);
   results.push(
@@ -222,9 +225,29 @@ async function benchIngestion(): Promise<void> {
   const gigabyte = join(BENCH_DIR, 'dem-16000-float32-raw.tif');
   if (!existsSync(gigabyte)) {
     execFileSync('gdal_create', [
-      '-of', 'GTiff', '-outsize', '16000', '16000', '-bands', '1', '-ot', 'Float32', '-burn', '1200',
-      '-a_srs', 'EPSG:32632', '-a_ullr', '500000', '5300000', '660000', '5140000', '-a_nodata', '-9999',
-      '-co', 'TILED=YES', gigabyte,
+      '-of',
+      'GTiff',
+      '-outsize',
+      '16000',
+      '16000',
+      '-bands',
+      '1',
+      '-ot',
+      'Float32',
+      '-burn',
+      '1200',
+      '-a_srs',
+      'EPSG:32632',
+      '-a_ullr',
+      '500000',
+      '5300000',
+      '660000',
+      '5140000',
+      '-a_nodata',
+      '-9999',
+      '-co',
+      'TILED=YES',
+      gigabyte,
     ]);
   }
   const { databaseUrl, ensureDatabase } = (await import('./db.mjs')) as {
@@ -279,7 +302,9 @@ async function benchIngestion(): Promise<void> {
 function ensureBigTiff(): void {
   if (existsSync(bigTiff)) return;
   console.log(`Writing ${bigTiff} with GDAL (once)…`);
-  execFileSync(PYTHON, ['-c', gdalWriterScript(), bigTiff, String(SIZE_PX), String(PIXEL_M), String(ORIGIN[0]), String(ORIGIN[1])], { stdio: 'inherit' });
+  execFileSync(PYTHON, ['-c', gdalWriterScript(), bigTiff, String(SIZE_PX), String(PIXEL_M), String(ORIGIN[0]), String(ORIGIN[1])], {
+    stdio: 'inherit',
+  });
 }
 
 function benchSource(): ReadyTerrain {
@@ -313,7 +338,7 @@ function routeThroughGrid(count: number): Array<[number, number]> {
   const crs = lookupEpsg(32632)!;
   const toWgs84 = (x: number, y: number) => proj4Inverse(crs.proj4Definition, x, y);
   let seed = 42;
-  const random = () => ((seed = (seed * 1103515245 + 12345) % 2 ** 31) / 2 ** 31);
+  const random = () => (seed = (seed * 1103515245 + 12345) % 2 ** 31) / 2 ** 31;
   let x = ORIGIN[0] + 5000;
   let y = ORIGIN[1] - 5000;
   let heading = 0.3;
@@ -355,14 +380,23 @@ async function signInAsAnalyst(databaseUrl: string, publicUrl: string): Promise<
   const { hashPassword } = await import('../api/auth/passwords');
   const { db, close } = createDatabase(databaseUrl, { max: 1 });
   const password = 'bench-password-0000';
-  await db.insert(users).values({ email: 'bench-analyst@descentry.example', name: 'Bench analyst', role: 'analyst', status: 'active', passwordHash: await hashPassword(password) });
+  await db.insert(users).values({
+    email: 'bench-analyst@descentry.example',
+    name: 'Bench analyst',
+    role: 'analyst',
+    status: 'active',
+    passwordHash: await hashPassword(password),
+  });
   await close();
   const response = await fetch(`${publicUrl}/api/auth/login`, {
     method: 'POST',
     headers: { 'content-type': 'application/json' },
     body: JSON.stringify({ email: 'bench-analyst@descentry.example', password }),
   });
-  return (response.headers.get('set-cookie') ?? '').split(',').map((c) => c.split(';')[0]).join('; ');
+  return (response.headers.get('set-cookie') ?? '')
+    .split(',')
+    .map((c) => c.split(';')[0])
+    .join('; ');
 }
 
 /** multipart/form-data streamed from disk (the benchmark itself must not hold the file either). */

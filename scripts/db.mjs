@@ -52,9 +52,7 @@ function run(command, args, options = {}) {
 
 function aptInstall(packages) {
   if (!isRoot) {
-    throw new Error(
-      `Missing Debian packages: ${packages.join(' ')}. Install them with: sudo apt-get install -y ${packages.join(' ')}`,
-    );
+    throw new Error(`Missing Debian packages: ${packages.join(' ')}. Install them with: sudo apt-get install -y ${packages.join(' ')}`);
   }
   log(`installing ${packages.join(' ')} from Debian's packages…`);
   execFileSync('apt-get', ['update', '-qq'], { stdio: 'inherit' });
@@ -100,8 +98,10 @@ function initCluster() {
   writeFileSync(pwFile, `${password}\n`, { mode: 0o600 });
   if (runAs) execFileSync('chown', [runAs, pwFile]);
   run(`${PG_BIN}/initdb`, [
-    '-D', dataDir,
-    '-U', user,
+    '-D',
+    dataDir,
+    '-U',
+    user,
     `--pwfile=${pwFile}`,
     '--auth-local=scram-sha-256',
     '--auth-host=scram-sha-256',
@@ -116,7 +116,7 @@ function initCluster() {
     'synchronous_commit = off',
     'full_page_writes = off',
     'max_connections = 200',
-    "log_min_messages = warning",
+    'log_min_messages = warning',
   ].join('\n');
   const confPath = join(dataDir, 'postgresql.auto.conf');
   writeFileSync(confPath, `${readFileSync(confPath, 'utf8')}\n${conf}\n`);
@@ -134,11 +134,10 @@ function startCluster() {
 
 function psql(database, sql) {
   const { user, password, port } = pgSettings;
-  return spawnSync(
-    'psql',
-    ['-h', '127.0.0.1', '-p', String(port), '-U', user, '-d', database, '-v', 'ON_ERROR_STOP=1', '-tAc', sql],
-    { encoding: 'utf8', env: { ...process.env, PGPASSWORD: password } },
-  );
+  return spawnSync('psql', ['-h', '127.0.0.1', '-p', String(port), '-U', user, '-d', database, '-v', 'ON_ERROR_STOP=1', '-tAc', sql], {
+    encoding: 'utf8',
+    env: { ...process.env, PGPASSWORD: password },
+  });
 }
 
 /** Creates the database if missing and enables PostGIS and pgRouting in it. */

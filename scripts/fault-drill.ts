@@ -59,7 +59,10 @@ async function databaseRestart(instance: ScratchInstance, cookies: Cookies): Pro
       const started = Date.now();
       let status: number | string;
       try {
-        const response = await fetch(`${instance.baseUrl}/api/routes`, { headers: { Cookie: cookies.reader }, signal: AbortSignal.timeout(60_000) });
+        const response = await fetch(`${instance.baseUrl}/api/routes`, {
+          headers: { Cookie: cookies.reader },
+          signal: AbortSignal.timeout(60_000),
+        });
         status = response.status;
         if (status === 503 && !response.headers.get('retry-after')) missingRetryAfter++;
         await response.arrayBuffer();
@@ -85,7 +88,8 @@ async function databaseRestart(instance: ScratchInstance, cookies: Cookies): Pro
   return {
     drill: 'database restart under read load',
     held: failures.length === 0 && missingRetryAfter === 0 && slowestMs < 10_000 && recoveryS < 10,
-    what: `PostgreSQL down ${DATABASE_DOWN_MS / 1000} s: answers ${counts}; slowest ${(slowestMs / 1000).toFixed(1)} s; reads back ${recoveryS.toFixed(1)} s after PostgreSQL was up` +
+    what:
+      `PostgreSQL down ${DATABASE_DOWN_MS / 1000} s: answers ${counts}; slowest ${(slowestMs / 1000).toFixed(1)} s; reads back ${recoveryS.toFixed(1)} s after PostgreSQL was up` +
       (missingRetryAfter ? `; ${missingRetryAfter} × 503 without Retry-After` : ''),
   };
 }
@@ -124,8 +128,22 @@ async function killMidIngestion(instance: ScratchInstance, cookies: Cookies): Pr
     mkdirSync(join(process.cwd(), '.var', 'drill'), { recursive: true });
     const size = 10_000;
     const values = new Float32Array(size * size);
-    for (let row = 0; row < size; row++) for (let col = 0; col < size; col++) values[row * size + col] = 1200 + 300 * Math.sin(col / 700) * Math.cos(row / 900) + (row % 13) * 0.1;
-    writeFileSync(file, writeFloat32GeoTiff({ widthPx: size, heightPx: size, values, epsg: 32632, originX: 600_000, originY: 5_200_000, pixelSizeM: 5, nodata: -9999 }));
+    for (let row = 0; row < size; row++)
+      for (let col = 0; col < size; col++)
+        values[row * size + col] = 1200 + 300 * Math.sin(col / 700) * Math.cos(row / 900) + (row % 13) * 0.1;
+    writeFileSync(
+      file,
+      writeFloat32GeoTiff({
+        widthPx: size,
+        heightPx: size,
+        values,
+        epsg: 32632,
+        originX: 600_000,
+        originY: 5_200_000,
+        pixelSizeM: 5,
+        nodata: -9999,
+      }),
+    );
   }
   const form = new FormData();
   form.append('name', 'Drill valley, 5 m');
@@ -139,7 +157,9 @@ async function killMidIngestion(instance: ScratchInstance, cookies: Cookies): Pr
     // drill reads the same on older checkouts).
     let jobId: string | null = null;
     for (let i = 0; i < 600 && !jobId; i++) {
-      const [row] = await sql<{ id: string }[]>`select id from pgboss.job where name = 'terrain-ingest' and state = 'active' and data->>'terrainId' = ${id}`;
+      const [row] = await sql<
+        { id: string }[]
+      >`select id from pgboss.job where name = 'terrain-ingest' and state = 'active' and data->>'terrainId' = ${id}`;
       if (row) jobId = row.id;
       else await sleep(100);
     }
@@ -154,8 +174,12 @@ async function killMidIngestion(instance: ScratchInstance, cookies: Cookies): Pr
       [{ status } = { status: 'missing' }] = await sql<{ status: string }[]>`select status from terrain_models where id = ${id}`;
     }
     const readyAfterS = (Date.now() - killedAt) / 1000;
-    const [killedJob] = await sql<{ state: string }[]>`select state from pgboss.job where id = ${jobId}::uuid union all select state from pgboss.archive where id = ${jobId}::uuid`;
-    const [active] = await sql<{ n: number }[]>`select count(*)::int as n from pgboss.job where name = 'terrain-ingest' and state = 'active'`;
+    const [killedJob] = await sql<
+      { state: string }[]
+    >`select state from pgboss.job where id = ${jobId}::uuid union all select state from pgboss.archive where id = ${jobId}::uuid`;
+    const [active] = await sql<
+      { n: number }[]
+    >`select count(*)::int as n from pgboss.job where name = 'terrain-ingest' and state = 'active'`;
     return {
       drill: 'kill -9 mid-ingestion',
       held: status === 'ready' && killedJob?.state !== 'active' && active?.n === 0,
@@ -168,10 +192,15 @@ async function killMidIngestion(instance: ScratchInstance, cookies: Cookies): Pr
 
 async function killMidNetworkRun(instance: ScratchInstance, cookies: Cookies): Promise<Outcome> {
   const scenarios = 16;
-  const presets = (await (await fetch(`${instance.baseUrl}/api/vehicles`, { headers: { Cookie: cookies.planner } })).json()) as { items: { id: string }[] };
+  const presets = (await (await fetch(`${instance.baseUrl}/api/vehicles`, { headers: { Cookie: cookies.planner } })).json()) as {
+    items: { id: string }[];
+  };
   for (let i = 0; i < scenarios; i++) {
     const coordinates = Array.from({ length: 61 }, (_, k) => [9.5 + (k / 60) * 0.7, 46.5 + i * 0.01, 1900 - k * 20]);
-    const route = (await post(instance, cookies.planner, '/api/routes', { name: `Drill line ${i + 1}`, geometry: { type: 'LineString', coordinates } })) as { id: string };
+    const route = (await post(instance, cookies.planner, '/api/routes', {
+      name: `Drill line ${i + 1}`,
+      geometry: { type: 'LineString', coordinates },
+    })) as { id: string };
     await post(instance, cookies.planner, '/api/scenarios', {
       name: `Drill scenario ${i + 1}`,
       routeId: route.id,
@@ -206,7 +235,11 @@ async function killMidNetworkRun(instance: ScratchInstance, cookies: Cookies): P
     return {
       drill: 'kill -9 mid-network-run',
       held: finished && byStatus['done'] === scenarios,
-      what: `killed with ${done} of ${scenarios} items done and ${running} running; run ${finished ? 'finished' : 'NOT finished'} ${((Date.now() - killedAt) / 1000).toFixed(0)} s after the kill: ${Object.entries(byStatus).map(([s, n]) => `${n} ${s}`).join(', ')}`,
+      what: `killed with ${done} of ${scenarios} items done and ${running} running; run ${finished ? 'finished' : 'NOT finished'} ${((Date.now() - killedAt) / 1000).toFixed(0)} s after the kill: ${Object.entries(
+        byStatus,
+      )
+        .map(([s, n]) => `${n} ${s}`)
+        .join(', ')}`,
     };
   } finally {
     await sql.end();
@@ -222,14 +255,18 @@ async function silentRelay(instance: ScratchInstance, cookies: Cookies): Promise
     let lastError: string | null = null;
     while (!lastError && Date.now() - invited < 120_000) {
       await sleep(500);
-      [{ last_error: lastError } = { last_error: null }] = await sql<{ last_error: string | null }[]>`select last_error from mail_outbox where to_address = ${invitee}`;
+      [{ last_error: lastError } = { last_error: null }] = await sql<
+        { last_error: string | null }[]
+      >`select last_error from mail_outbox where to_address = ${invitee}`;
     }
     const gaveUpS = (Date.now() - invited) / 1000;
     await relay.switchToWorking();
     let sent = false;
     while (!sent && Date.now() - invited < 240_000) {
       await sleep(1_000);
-      [{ sent } = { sent: false }] = await sql<{ sent: boolean }[]>`select status = 'sent' as sent from mail_outbox where to_address = ${invitee}`;
+      [{ sent } = { sent: false }] = await sql<
+        { sent: boolean }[]
+      >`select status = 'sent' as sent from mail_outbox where to_address = ${invitee}`;
     }
     await sleep(3_000);
     const deliveries = relay.deliveriesTo(invitee);

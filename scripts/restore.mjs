@@ -45,7 +45,17 @@ const psqlAdmin = (sql) => runTool('psql', [...connection, '-d', 'postgres', '-v
 
 const exists = psqlAdmin(`select 1 from pg_database where datname = '${database.replace(/'/g, "''")}'`) === '1';
 if (exists) {
-  const tables = runTool('psql', [...connection, '-d', database, '-tAc', "select count(*) from information_schema.tables where table_schema in ('public', 'pgboss') and table_name <> 'spatial_ref_sys'"], { password }).trim();
+  const tables = runTool(
+    'psql',
+    [
+      ...connection,
+      '-d',
+      database,
+      '-tAc',
+      "select count(*) from information_schema.tables where table_schema in ('public', 'pgboss') and table_name <> 'spatial_ref_sys'",
+    ],
+    { password },
+  ).trim();
   if (Number(tables) > 0 && !replace) {
     console.error(`The database ${database} already holds ${tables} tables; add --replace to drop it and restore the backup in its place.`);
     process.exit(1);
@@ -59,7 +69,11 @@ if (dataNotEmpty && !replace) {
 
 if (exists) psqlAdmin(`drop database "${database}" with (force)`);
 psqlAdmin(`create database "${database}"`);
-runTool(`${PG_BIN}/pg_restore`, [...connection, '--no-owner', '--no-privileges', '--exit-on-error', '-d', database, join(folder, DATABASE_FILE)], { password });
+runTool(
+  `${PG_BIN}/pg_restore`,
+  [...connection, '--no-owner', '--no-privileges', '--exit-on-error', '-d', database, join(folder, DATABASE_FILE)],
+  { password },
+);
 
 if (dataNotEmpty) rmSync(dataDir, { recursive: true, force: true });
 mkdirSync(dataDir, { recursive: true });
@@ -68,8 +82,12 @@ runTool('tar', ['--extract', '--gzip', '--file', join(folder, DATA_FILE), '--dir
 const counts = tableCounts(url);
 const differences = Object.entries(manifest.tables).filter(([table, rows]) => counts[table] !== rows);
 if (differences.length > 0) {
-  console.error(`Restored, but these tables differ from the backup: ${differences.map(([t, n]) => `${t} (${counts[t]} rows, backup ${n})`).join(', ')}`);
+  console.error(
+    `Restored, but these tables differ from the backup: ${differences.map(([t, n]) => `${t} (${counts[t]} rows, backup ${n})`).join(', ')}`,
+  );
   process.exit(1);
 }
 const rows = Object.values(counts).reduce((sum, n) => sum + n, 0);
-console.log(`Restored ${folder} (taken ${manifest.createdAt}) into ${database} (${rows} rows, every table as in the backup) and ${dataDir}.`);
+console.log(
+  `Restored ${folder} (taken ${manifest.createdAt}) into ${database} (${rows} rows, every table as in the backup) and ${dataDir}.`,
+);

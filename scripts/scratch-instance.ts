@@ -67,7 +67,10 @@ export async function startScratchInstance(name: string, extraEnv: Record<string
   const launch = async (more: Record<string, string> = {}) => {
     // SCRATCH_NODE_ARGS: extra Node flags for the server, e.g. `--cpu-prof --cpu-prof-dir=…` to profile it.
     const nodeArgs = (process.env['SCRATCH_NODE_ARGS'] ?? '').split(' ').filter(Boolean);
-    current = spawn(process.execPath, [...nodeArgs, 'dist/api/main.mjs'], { env: { ...process.env, ...env, ...more }, stdio: ['ignore', 'pipe', 'pipe'] });
+    current = spawn(process.execPath, [...nodeArgs, 'dist/api/main.mjs'], {
+      env: { ...process.env, ...env, ...more },
+      stdio: ['ignore', 'pipe', 'pipe'],
+    });
     current.stdout?.on('data', () => undefined);
     current.stderr?.on('data', () => undefined);
     await waitForHealth(`http://127.0.0.1:${port}`, current);
@@ -119,13 +122,17 @@ export async function signIn(instance: ScratchInstance, email: string): Promise<
     body: JSON.stringify({ email, password: SCRATCH_PASSWORD }),
   });
   if (!response.ok) throw new Error(`sign-in as ${email}: ${response.status} ${await response.text()}`);
-  return response.headers.getSetCookie().map((cookie) => cookie.split(';')[0]).join('; ');
+  return response.headers
+    .getSetCookie()
+    .map((cookie) => cookie.split(';')[0])
+    .join('; ');
 }
 
 export async function waitForHealth(baseUrl: string, child?: ChildProcess, timeoutMs = 90_000): Promise<void> {
   const deadline = Date.now() + timeoutMs;
   while (Date.now() < deadline) {
-    if (child && (child.exitCode !== null || child.signalCode !== null)) throw new Error(`the server exited (${child.exitCode ?? child.signalCode})`);
+    if (child && (child.exitCode !== null || child.signalCode !== null))
+      throw new Error(`the server exited (${child.exitCode ?? child.signalCode})`);
     try {
       if ((await fetch(`${baseUrl}/api/health`)).ok) return;
     } catch {

@@ -17,10 +17,7 @@ export function step(message) {
 export function ensureNodeModules() {
   const marker = join(rootDir, 'node_modules', '.package-lock.json');
   const lock = join(rootDir, 'package-lock.json');
-  const stale =
-    !existsSync(marker) ||
-    readFileSync(marker, 'utf8').length === 0 ||
-    statMtime(lock) > statMtime(marker);
+  const stale = !existsSync(marker) || readFileSync(marker, 'utf8').length === 0 || statMtime(lock) > statMtime(marker);
   if (!stale) return;
   step('Installing npm packages (npm ci)');
   execFileSync('npm', ['ci', '--no-audit', '--no-fund'], { cwd: rootDir, stdio: 'inherit' });

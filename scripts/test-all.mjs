@@ -39,6 +39,9 @@ const testEnv = {
 step('Lint (ESLint, eslint.config.mjs)');
 recordLint(await runStep('npx', ['eslint', '.', '--max-warnings', '0'], { capture: true }));
 
+step('Formatting (Prettier, .prettierrc.json)');
+recordFormat(await runStep('npx', ['prettier', '--check', '.'], { capture: true }));
+
 step('Node tests: calculation engine and API (vitest)');
 record('node', await runStep('npx', ['vitest', 'run', '--config', 'spec/vitest.config.ts'], { env: testEnv, capture: true }));
 
@@ -98,6 +101,12 @@ async function runBrowserTests() {
 function recordLint({ status, output }) {
   const problems = Number(/(\d+) problems?/.exec(output)?.[1] ?? 0);
   results.push({ name: 'lint', status, passed: status === 0 ? 1 : 0, failed: status === 0 ? 0 : Math.max(1, problems) });
+}
+
+/** Prettier counts as one passed check when every file is formatted; otherwise each unformatted file is a failure. */
+function recordFormat({ status, output }) {
+  const unformatted = output.split('\n').filter((line) => line.startsWith('[warn] ') && !line.includes('Code style issues')).length;
+  results.push({ name: 'format', status, passed: status === 0 ? 1 : 0, failed: status === 0 ? 0 : Math.max(1, unformatted) });
 }
 
 function recreateDatabase(database) {

@@ -8,7 +8,15 @@ import type { ElevationSampler } from '@shared/engine/analyse-route';
 import { EngineInputError, MissingElevationError, RouteTooLargeError, UncoveredTerrainError } from '@shared/engine/validation';
 import { HttpError } from '../http/http-error';
 import type { ServiceDayEngineInput, ServiceDayEngineResult } from '@shared/engine/service-day';
-import type { AnalysisTask, AnalysisTaskResult, ElevationAnswer, ElevationQuestion, EngineRefusal, ServiceDayTask, ServiceDayTaskResult } from './analysis-task';
+import type {
+  AnalysisTask,
+  AnalysisTaskResult,
+  ElevationAnswer,
+  ElevationQuestion,
+  EngineRefusal,
+  ServiceDayTask,
+  ServiceDayTaskResult,
+} from './analysis-task';
 
 /** Runs one analysis and answers the engine's response (the engine's errors are thrown as they are). */
 export type RouteAnalyser = (request: PreviewRequestInput) => Promise<PreviewResponse>;
@@ -102,14 +110,23 @@ export class AnalysisPool {
     const channel = sampleElevations ? new MessageChannel() : undefined;
     channel?.port1.on('message', (question: ElevationQuestion) => {
       void answerElevations(question, sampleElevations!).then(
-        (elevationsM) => channel.port1.postMessage({ ok: true, elevationsM } satisfies ElevationAnswer, [elevationsM.buffer as ArrayBuffer]),
+        (elevationsM) =>
+          channel.port1.postMessage({ ok: true, elevationsM } satisfies ElevationAnswer, [elevationsM.buffer as ArrayBuffer]),
         (error: unknown) => {
           samplerFailure = error;
-          channel.port1.postMessage({ ok: false, message: error instanceof Error ? error.message : String(error) } satisfies ElevationAnswer);
+          channel.port1.postMessage({
+            ok: false,
+            message: error instanceof Error ? error.message : String(error),
+          } satisfies ElevationAnswer);
         },
       );
     });
-    const task: AnalysisTask = { request, asJson, ...(profileView ? { profileView } : {}), ...(channel ? { elevationPort: channel.port2 } : {}) };
+    const task: AnalysisTask = {
+      request,
+      asJson,
+      ...(profileView ? { profileView } : {}),
+      ...(channel ? { elevationPort: channel.port2 } : {}),
+    };
     let result: AnalysisTaskResult;
     this.runningTasks++;
     try {

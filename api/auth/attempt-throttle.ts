@@ -76,7 +76,12 @@ export async function takeAttempt(db: Database, keys: ThrottleKey[], refusal: (r
     const rows = await tx
       .select()
       .from(attemptThrottles)
-      .where(inArray(attemptThrottles.key, ordered.map(({ key }) => key)))
+      .where(
+        inArray(
+          attemptThrottles.key,
+          ordered.map(({ key }) => key),
+        ),
+      )
       .orderBy(attemptThrottles.key)
       .for('update');
     const current = ordered.map(({ key, policy }) => {
@@ -85,7 +90,10 @@ export async function takeAttempt(db: Database, keys: ThrottleKey[], refusal: (r
       const blocked = row.blockedUntil !== null && row.blockedUntil > now;
       return { key, policy, attempts: quiet && !blocked ? 0 : row.attempts, blockedUntil: blocked ? row.blockedUntil : null };
     });
-    const longest = Math.max(0, ...current.map((entry) => (entry.blockedUntil ? Math.ceil((entry.blockedUntil.getTime() - now.getTime()) / 1000) : 0)));
+    const longest = Math.max(
+      0,
+      ...current.map((entry) => (entry.blockedUntil ? Math.ceil((entry.blockedUntil.getTime() - now.getTime()) / 1000) : 0)),
+    );
     if (longest > 0) return longest;
     for (const entry of current) {
       const attempts = entry.attempts + 1;
@@ -124,12 +132,18 @@ export async function returnAttempt(db: Executor, key: string, policy: ThrottleP
 
 /** Every counter of an account (its own, its devices', its reset requests): an administrator lifts them. */
 export async function clearAccount(db: Executor, email: string): Promise<number> {
-  const removed = await db.delete(attemptThrottles).where(eq(attemptThrottles.email, email.toLowerCase())).returning({ key: attemptThrottles.key });
+  const removed = await db
+    .delete(attemptThrottles)
+    .where(eq(attemptThrottles.email, email.toLowerCase()))
+    .returning({ key: attemptThrottles.key });
   return removed.length;
 }
 
 /** Sign-in counters of these accounts that are slowed down or counting failures now. */
-export async function accountSignInStates(db: Executor, emails: string[]): Promise<Map<string, { failedAttempts: number; slowedUntil: Date | null }>> {
+export async function accountSignInStates(
+  db: Executor,
+  emails: string[],
+): Promise<Map<string, { failedAttempts: number; slowedUntil: Date | null }>> {
   const states = new Map<string, { failedAttempts: number; slowedUntil: Date | null }>();
   if (emails.length === 0) return states;
   const now = new Date();
@@ -138,22 +152,33 @@ export async function accountSignInStates(db: Executor, emails: string[]): Promi
     .from(attemptThrottles)
     .where(
       and(
-        inArray(attemptThrottles.key, emails.map((email) => accountKey(email))),
+        inArray(
+          attemptThrottles.key,
+          emails.map((email) => accountKey(email)),
+        ),
         gt(attemptThrottles.lastAttemptAt, new Date(now.getTime() - ACCOUNT_SIGN_IN_POLICY.quietMs)),
       ),
     );
   for (const row of rows) {
     if (!row.email) continue;
-    states.set(row.email, { failedAttempts: row.attempts, slowedUntil: row.blockedUntil && row.blockedUntil > now ? row.blockedUntil : null });
+    states.set(row.email, {
+      failedAttempts: row.attempts,
+      slowedUntil: row.blockedUntil && row.blockedUntil > now ? row.blockedUntil : null,
+    });
   }
   return states;
 }
 
 /** Removes counters idle for a day (they would start over anyway). */
 export async function purgeIdleThrottles(db: Executor): Promise<void> {
-  await db.delete(attemptThrottles).where(
-    and(lt(attemptThrottles.lastAttemptAt, sql`now() - interval '1 day'`), sql`coalesce(${attemptThrottles.blockedUntil}, '-infinity') < now()`),
-  );
+  await db
+    .delete(attemptThrottles)
+    .where(
+      and(
+        lt(attemptThrottles.lastAttemptAt, sql`now() - interval '1 day'`),
+        sql`coalesce(${attemptThrottles.blockedUntil}, '-infinity') < now()`,
+      ),
+    );
 }
 
 export function accountKey(email: string): string {

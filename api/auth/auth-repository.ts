@@ -75,10 +75,7 @@ export async function consumeAccountToken(db: Executor, tokenId: string): Promis
 }
 
 export async function setPassword(db: Executor, userId: string, passwordHash: string) {
-  await db
-    .update(users)
-    .set({ passwordHash, passwordChangedAt: new Date(), status: 'active' })
-    .where(eq(users.id, userId));
+  await db.update(users).set({ passwordHash, passwordChangedAt: new Date(), status: 'active' }).where(eq(users.id, userId));
 }
 
 export async function touchLastSignIn(db: Executor, userId: string) {

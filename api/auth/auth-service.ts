@@ -61,11 +61,7 @@ export async function signIn({ db, config }: AppDeps, credentials: { email: stri
   return { session, user: toUser(user) };
 }
 
-export async function changePassword(
-  { db }: AppDeps,
-  userId: string,
-  change: { currentPassword: string; newPassword: string },
-) {
+export async function changePassword({ db }: AppDeps, userId: string, change: { currentPassword: string; newPassword: string }) {
   const user = await repository.findUserById(db, userId);
   if (!user?.passwordHash || !(await verifyPassword(user.passwordHash, change.currentPassword))) {
     throw new HttpError(400, 'wrong_password', 'The current password is wrong');
@@ -94,11 +90,7 @@ export async function describeToken({ db }: AppDeps, token: string) {
 }
 
 /** Sets the password through an invitation or reset link; the link works once. */
-export async function setPasswordWithToken(
-  deps: AppDeps,
-  kind: 'invite' | 'reset',
-  request: { token: string; password: string },
-) {
+export async function setPasswordWithToken(deps: AppDeps, kind: 'invite' | 'reset', request: { token: string; password: string }) {
   const { row, user } = await describeToken(deps, request.token);
   if (row.kind !== kind) throw new HttpError(404, 'unknown_token', 'This link is not valid. Ask for a new one.');
   const passwordHash = await hashPassword(request.password);

@@ -18,12 +18,7 @@ export function sessionCookieOptions(req: Request, ttlMinutes: number) {
   };
 }
 
-export async function issueSessionCookie(
-  { config }: AppDeps,
-  req: Request,
-  res: Response,
-  session: { id: string; userId: string },
-) {
+export async function issueSessionCookie({ config }: AppDeps, req: Request, res: Response, session: { id: string; userId: string }) {
   const token = await signSessionToken(
     config.SESSION_SECRET,
     { sessionId: session.id, userId: session.userId },

@@ -24,7 +24,11 @@ export async function knownDevice(secret: string, req: Request): Promise<KnownDe
   const token = (req.cookies as Record<string, string | undefined>)[DEVICE_COOKIE];
   if (!token) return null;
   try {
-    const { payload } = await jwtVerify(token, new TextEncoder().encode(secret), { audience: AUDIENCE, issuer: ISSUER, algorithms: ['HS256'] });
+    const { payload } = await jwtVerify(token, new TextEncoder().encode(secret), {
+      audience: AUDIENCE,
+      issuer: ISSUER,
+      algorithms: ['HS256'],
+    });
     if (!payload.jti || !payload.sub) return null;
     return { id: payload.jti, email: payload.sub };
   } catch (error) {
@@ -35,7 +39,13 @@ export async function knownDevice(secret: string, req: Request): Promise<KnownDe
 }
 
 /** Gives the browser a device cookie for the account it just signed in to (kept if it has one). */
-export async function rememberDevice(secret: string, req: Request, res: Response, email: string, current: KnownDevice | null): Promise<void> {
+export async function rememberDevice(
+  secret: string,
+  req: Request,
+  res: Response,
+  email: string,
+  current: KnownDevice | null,
+): Promise<void> {
   if (current && current.email === email) return;
   const token = await new SignJWT({})
     .setProtectedHeader({ alg: 'HS256' })

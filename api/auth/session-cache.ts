@@ -93,7 +93,13 @@ export class SessionCache {
   get(sessionId: string, userId: string): LiveSession | undefined {
     const entry = this.entries.get(sessionId);
     const now = Date.now();
-    if (!entry || !this.trusted || entry.session.user.id !== userId || now - entry.cachedAtMs > ENTRY_TTL_MS || entry.session.expiresAt.getTime() <= now) {
+    if (
+      !entry ||
+      !this.trusted ||
+      entry.session.user.id !== userId ||
+      now - entry.cachedAtMs > ENTRY_TTL_MS ||
+      entry.session.expiresAt.getTime() <= now
+    ) {
       if (entry) this.entries.delete(sessionId);
       this.stats.misses += 1;
       return undefined;
@@ -136,10 +142,14 @@ export class SessionCache {
   private listen(): void {
     if (this.listening || this.stopped) return;
     this.listening = this.sql
-      .listen(SESSION_CHANGES_CHANNEL, (payload) => this.heard(payload), () => {
-        // (Re)connected: whatever was announced while the line was down is unknown.
-        this.forgetAll();
-      })
+      .listen(
+        SESSION_CHANGES_CHANNEL,
+        (payload) => this.heard(payload),
+        () => {
+          // (Re)connected: whatever was announced while the line was down is unknown.
+          this.forgetAll();
+        },
+      )
       .then(
         (handle) => {
           this.unlisten = handle.unlisten;

@@ -12,11 +12,7 @@ export interface SessionClaims {
 }
 
 /** Signs a short-lived HS256 token naming the session row (its id is the JWT `jti`). */
-export async function signSessionToken(
-  secret: string,
-  claims: { sessionId: string; userId: string },
-  ttlMinutes: number,
-): Promise<string> {
+export async function signSessionToken(secret: string, claims: { sessionId: string; userId: string }, ttlMinutes: number): Promise<string> {
   return new SignJWT({})
     .setProtectedHeader({ alg: 'HS256' })
     .setSubject(claims.userId)

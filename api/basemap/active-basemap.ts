@@ -25,7 +25,11 @@ export function activeBasemap(db: Database): Promise<ActiveBasemap | null> {
     .from(basemapImports)
     .where(eq(basemapImports.isActive, true))
     .limit(1)
-    .then(([row]) => (row ? { importId: row.id, schemaName: row.schemaName, version: row.id.replaceAll('-', '').slice(0, 16), attribution: row.attribution } : null));
+    .then(([row]) =>
+      row
+        ? { importId: row.id, schemaName: row.schemaName, version: row.id.replaceAll('-', '').slice(0, 16), attribution: row.attribution }
+        : null,
+    );
   cached.set(db, { value, loadedAt: Date.now() });
   value.catch(() => cached.delete(db));
   return value;

@@ -19,13 +19,34 @@ export function metresPerPixel(z: number): number {
 
 /** Road classes from the zoom at which they appear (small scales show the main network only). */
 const ROAD_CLASS_MIN_ZOOM: Record<string, number> = {
-  motorway: 5, trunk: 5, primary: 7, rail: 8, secondary: 9, tertiary: 10, tram: 11,
-  minor: 12, busway: 12, service: 13, track: 13, path: 14,
+  motorway: 5,
+  trunk: 5,
+  primary: 7,
+  rail: 8,
+  secondary: 9,
+  tertiary: 10,
+  tram: 11,
+  minor: 12,
+  busway: 12,
+  service: 13,
+  track: 13,
+  path: 14,
 };
 const WATERWAY_MIN_ZOOM: Record<string, number> = { river: 8, canal: 10, stream: 12, drain: 14, ditch: 14 };
 const PLACE_MIN_ZOOM: Record<string, number> = {
-  city: 4, town: 7, village: 10, island: 10, suburb: 12, quarter: 12, hamlet: 12, peak: 11, pass: 11,
-  neighbourhood: 14, locality: 14, isolated_dwelling: 15, islet: 14,
+  city: 4,
+  town: 7,
+  village: 10,
+  island: 10,
+  suburb: 12,
+  quarter: 12,
+  hamlet: 12,
+  peak: 11,
+  pass: 11,
+  neighbourhood: 14,
+  locality: 14,
+  isolated_dwelling: 15,
+  islet: 14,
 };
 /** Below this zoom areas come from the simplified `landuse_low` / `water_low` tables. */
 export const LOW_ZOOM_LIMIT = 10;
@@ -39,7 +60,12 @@ function kindsAt(table: Record<string, number>, z: number): string[] {
 }
 
 function textArray(values: string[]): SQL {
-  return values.length === 0 ? sql`ARRAY[]::text[]` : sql`ARRAY[${sql.join(values.map((value) => sql`${value}`), sql`, `)}]::text[]`;
+  return values.length === 0
+    ? sql`ARRAY[]::text[]`
+    : sql`ARRAY[${sql.join(
+        values.map((value) => sql`${value}`),
+        sql`, `,
+      )}]::text[]`;
 }
 
 /** The tile as MVT bytes (empty when nothing of the extract lies in it). */

@@ -124,7 +124,6 @@ export function basemapEndpoints(deps: AppDeps) {
   ];
 }
 
-
 /** multer writing to disk with the configured size limit; its errors become API errors. */
 function extractUpload(deps: AppDeps): RequestHandler {
   const upload = multer({
@@ -137,7 +136,13 @@ function extractUpload(deps: AppDeps): RequestHandler {
       if (error instanceof multer.MulterError) {
         if (error.code === 'LIMIT_FILE_SIZE') {
           const gib = deps.config.BASEMAP_MAX_UPLOAD_BYTES / 1024 ** 3;
-          return next(new HttpError(413, 'upload_too_large', `The file is larger than the ${gib >= 1 ? `${gib.toFixed(gib % 1 ? 1 : 0)} GiB` : `${Math.round(deps.config.BASEMAP_MAX_UPLOAD_BYTES / 1024 ** 2)} MiB`} upload limit`));
+          return next(
+            new HttpError(
+              413,
+              'upload_too_large',
+              `The file is larger than the ${gib >= 1 ? `${gib.toFixed(gib % 1 ? 1 : 0)} GiB` : `${Math.round(deps.config.BASEMAP_MAX_UPLOAD_BYTES / 1024 ** 2)} MiB`} upload limit`,
+            ),
+          );
         }
         return next(new BadRequestError(`The upload form is not valid: ${error.message}`, { field: error.field }, 'invalid_upload'));
       }

@@ -103,7 +103,16 @@ export async function runBasemapImport(deps: AppDeps, importId: string): Promise
       await tx.update(basemapImports).set({ isActive: false, activatedAt: new Date() }).where(eq(basemapImports.isActive, true));
       await tx
         .update(basemapImports)
-        .set({ ...summary, graphEdgeCount, status: 'ready', isActive: true, progress: null, finishedAt: new Date(), activatedAt: new Date(), storedPath: null })
+        .set({
+          ...summary,
+          graphEdgeCount,
+          status: 'ready',
+          isActive: true,
+          progress: null,
+          finishedAt: new Date(),
+          activatedAt: new Date(),
+          storedPath: null,
+        })
         .where(eq(basemapImports.id, importId));
     });
     forgetActiveBasemap(deps.db);
@@ -117,7 +126,8 @@ export async function runBasemapImport(deps: AppDeps, importId: string): Promise
       status: 'failed',
       progress: null,
       finishedAt: new Date(),
-      failureReason: error instanceof ImportError ? error.message : `The import stopped: ${error instanceof Error ? error.message : String(error)}`,
+      failureReason:
+        error instanceof ImportError ? error.message : `The import stopped: ${error instanceof Error ? error.message : String(error)}`,
       storedPath: null,
     });
   } finally {
@@ -203,7 +213,10 @@ async function runOsm2pgsql(
   // A broken pipe only means osm2pgsql stopped early; its exit code and messages say why.
   child.stdin!.on('error', () => undefined);
   if (format === 'xml.gz') {
-    file.pipe(createGunzip()).on('error', (error) => child.stdin!.destroy(error)).pipe(child.stdin!);
+    file
+      .pipe(createGunzip())
+      .on('error', (error) => child.stdin!.destroy(error))
+      .pipe(child.stdin!);
   } else if (format === 'xml.bz2') {
     const bunzip = spawn('bzip2', ['-dc'], { stdio: ['pipe', 'pipe', 'ignore'] });
     helpers.push(bunzip);
@@ -222,7 +235,9 @@ async function runOsm2pgsql(
   for (const helper of helpers) helper.kill('SIGTERM');
   if (exitCode !== 0) {
     const errors = stderrLines.filter((line) => /ERROR|error/.test(line)).map((line) => line.replace(/^\S+ \S+\s+/, ''));
-    throw new ImportError(`osm2pgsql could not import the file: ${(errors.length ? errors : stderrLines.slice(-3)).join(' ').slice(0, 600)}`);
+    throw new ImportError(
+      `osm2pgsql could not import the file: ${(errors.length ? errors : stderrLines.slice(-3)).join(' ').slice(0, 600)}`,
+    );
   }
 }
 

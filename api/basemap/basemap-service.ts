@@ -95,7 +95,10 @@ export async function recoverBasemaps(deps: AppDeps): Promise<{ requeued: number
   const jobs = await basemapJobs(deps);
   for (const row of queued) {
     if (!row.storedPath) {
-      await updateBasemapImport(deps.db, row.id, { status: 'failed', failureReason: 'The uploaded file was lost before the import started; upload it again' });
+      await updateBasemapImport(deps.db, row.id, {
+        status: 'failed',
+        failureReason: 'The uploaded file was lost before the import started; upload it again',
+      });
       continue;
     }
     await jobs.send(BASEMAP_IMPORT_JOB, { importId: row.id } satisfies BasemapImportJob, BASEMAP_IMPORT_POLICY);

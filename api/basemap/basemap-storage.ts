@@ -41,7 +41,10 @@ export class BasemapStorage {
   multerStorage(): multer.StorageEngine {
     return multer.diskStorage({
       destination: (_req, _file, done) => {
-        this.ensureFolders().then(() => done(null, this.uploadsDir), (error: Error) => done(error, this.uploadsDir));
+        this.ensureFolders().then(
+          () => done(null, this.uploadsDir),
+          (error: Error) => done(error, this.uploadsDir),
+        );
       },
       filename: (_req, _file, done) => done(null, `${randomUUID()}.part`),
     });

@@ -36,12 +36,21 @@ export async function detectOsmFormat(path: string): Promise<OsmFileFormat | nul
 function isPbf(head: Buffer): boolean {
   if (head.length < 16) return false;
   const headerLength = head.readUInt32BE(0);
-  return headerLength > 0 && headerLength < 64 * 1024 && head[4] === 0x0a && head[5] === 9 && head.subarray(6, 15).toString('latin1') === 'OSMHeader';
+  return (
+    headerLength > 0 &&
+    headerLength < 64 * 1024 &&
+    head[4] === 0x0a &&
+    head[5] === 9 &&
+    head.subarray(6, 15).toString('latin1') === 'OSMHeader'
+  );
 }
 
 /** OSM XML: an `<osm>` root element (not `<osmChange>`, a change file) near the start. */
 function isOsmXml(head: Buffer): boolean {
-  const text = head.subarray(0, 4096).toString('utf8').replace(/^\uFEFF/, '');
+  const text = head
+    .subarray(0, 4096)
+    .toString('utf8')
+    .replace(/^\uFEFF/, '');
   return /^\s*(<\?xml[^>]*\?>\s*)?(<!--[\s\S]*?-->\s*)*<osm[\s>]/.test(text);
 }
 

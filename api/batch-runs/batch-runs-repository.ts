@@ -43,10 +43,22 @@ export async function beatItem(db: Executor, batchRunId: string, scenarioId: str
 }
 
 /** Records the outcome; false when the claim was lost (the item was queued again and taken by another). */
-export async function finishItem(db: Executor, batchRunId: string, scenarioId: string, claimToken: string, outcome: { error: string | null }) {
+export async function finishItem(
+  db: Executor,
+  batchRunId: string,
+  scenarioId: string,
+  claimToken: string,
+  outcome: { error: string | null },
+) {
   const finished = await db
     .update(batchRunItems)
-    .set({ status: outcome.error === null ? 'done' : 'failed', error: outcome.error, finishedAt: new Date(), claimToken: null, heartbeatAt: null })
+    .set({
+      status: outcome.error === null ? 'done' : 'failed',
+      error: outcome.error,
+      finishedAt: new Date(),
+      claimToken: null,
+      heartbeatAt: null,
+    })
     .where(and(itemOf(batchRunId, scenarioId), eq(batchRunItems.claimToken, claimToken), eq(batchRunItems.status, 'running')))
     .returning({ id: batchRunItems.id });
   return finished.length === 1;
@@ -122,7 +134,12 @@ export async function listBatchRuns(db: Executor, limit = 50) {
   const items = await db
     .select({ batchRunId: batchRunItems.batchRunId, status: batchRunItems.status })
     .from(batchRunItems)
-    .where(inArray(batchRunItems.batchRunId, runs.map((run) => run.id)));
+    .where(
+      inArray(
+        batchRunItems.batchRunId,
+        runs.map((run) => run.id),
+      ),
+    );
   return runs.map((run) => ({ run, items: items.filter((item) => item.batchRunId === run.id) }));
 }
 

@@ -52,7 +52,11 @@ export async function startScenarioReruns(
   const { run, items } = await deps.db.transaction((tx) => repository.insertBatchRun(tx, startedBy, scenarioList, reason));
   const queue = await batchJobs(deps);
   for (const item of items) {
-    const jobId = await queue.send(BATCH_RUN_JOB, { batchRunId: run.id, scenarioId: item.scenarioId } satisfies BatchRunJob, BATCH_RUN_JOB_POLICY);
+    const jobId = await queue.send(
+      BATCH_RUN_JOB,
+      { batchRunId: run.id, scenarioId: item.scenarioId } satisfies BatchRunJob,
+      BATCH_RUN_JOB_POLICY,
+    );
     await repository.replaceItemJob(deps.db, run.id, item.scenarioId, null, jobId);
   }
   return repository.toBatchRun(run, items);
@@ -66,7 +70,10 @@ export async function getBatchRun(deps: AppDeps, batchRunId: string): Promise<Ba
 
 export async function listBatchRuns(deps: AppDeps): Promise<Array<Omit<BatchRun, 'items'>>> {
   return (await repository.listBatchRuns(deps.db)).map(({ run, items }) => {
-    const { items: _items, ...summary } = repository.toBatchRun(run, items.map((item) => ({ ...item, scenarioId: '', scenarioName: '' })));
+    const { items: _items, ...summary } = repository.toBatchRun(
+      run,
+      items.map((item) => ({ ...item, scenarioId: '', scenarioName: '' })),
+    );
     return summary;
   });
 }
@@ -127,7 +134,11 @@ async function resendItem(deps: AppDeps, queue: JobQueue, item: BatchRunJob, pre
   // Another sweeper may be at the same item: only the one that swaps the job id in sends.
   const placeholder = `resending:${randomUUID()}`;
   if (!(await repository.replaceItemJob(deps.db, item.batchRunId, item.scenarioId, previousJobId, placeholder))) return;
-  const jobId = await queue.send(BATCH_RUN_JOB, { batchRunId: item.batchRunId, scenarioId: item.scenarioId } satisfies BatchRunJob, BATCH_RUN_JOB_POLICY);
+  const jobId = await queue.send(
+    BATCH_RUN_JOB,
+    { batchRunId: item.batchRunId, scenarioId: item.scenarioId } satisfies BatchRunJob,
+    BATCH_RUN_JOB_POLICY,
+  );
   await repository.replaceItemJob(deps.db, item.batchRunId, item.scenarioId, placeholder, jobId);
 }
 

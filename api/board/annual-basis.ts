@@ -94,7 +94,8 @@ export async function annualBasis(
   for (const dayType of DAY_TYPES) {
     for (const season of SEASONS) {
       const daysPerYear = counts[dayType][season];
-      if (daysPerYear > 0 && !days.some((day) => day.dayType === dayType && day.season === season)) notCovered.push({ dayType, season, daysPerYear });
+      if (daysPerYear > 0 && !days.some((day) => day.dayType === dayType && day.season === season))
+        notCovered.push({ dayType, season, daysPerYear });
     }
   }
   // Moving 10 % of each day type's winter days to mild (and back): Δ = days moved × (winter day − mild day).
@@ -133,7 +134,9 @@ export async function annualBasis(
       `The year is the sum over the ${days.length} in-service service day(s) (${dayTypesCounted} of the 9 day-type and season combinations) of each day’s ` +
       'last run × the days of its day type and season in the year, as the network settings count them; every block counts both directions as its trips run. ' +
       'Grid energy adds each block’s overnight recharge back to its pull-out SOC at its depot charger’s efficiency to what the chargers delivered during the day.' +
-      (notCovered.length > 0 ? ` Day types and seasons without an in-service day count as zero (${notCovered.reduce((total, entry) => total + entry.daysPerYear, 0)} days of the year).` : ''),
+      (notCovered.length > 0
+        ? ` Day types and seasons without an in-service day count as zero (${notCovered.reduce((total, entry) => total + entry.daysPerYear, 0)} days of the year).`
+        : ''),
     netEnergyKWh: netWh / 1_000,
     gridEnergyKWh: gridKWh,
     energyCost: gridKWh * tariff,
@@ -162,7 +165,9 @@ export async function annualBasis(
       baselineCo2,
       winterShift: winterShiftCovered ? { gridKWh: winterShiftGridWh / 1_000, km: winterShiftKm, perKmCo2 } : null,
     }),
-    sensitivityMethod: SENSITIVITY_METHOD + (winterShiftCovered ? '' : ' The winter-days row is left out: it needs an in-service winter and mild day of each day type.'),
+    sensitivityMethod:
+      SENSITIVITY_METHOD +
+      (winterShiftCovered ? '' : ' The winter-days row is left out: it needs an in-service winter and mild day of each day type.'),
   };
 }
 
@@ -187,7 +192,8 @@ function sensitivityRows(input: {
       co2SavedDeltaKg: winterShift.km * winterShift.perKmCo2 - winterShift.gridKWh * factor,
     });
   }
-  const size = (row: AnnualBasis['sensitivity'][number]) => Math.abs(row.energyCostDelta * (factor / Math.max(tariff, 1e-9))) + Math.abs(row.co2SavedDeltaKg);
+  const size = (row: AnnualBasis['sensitivity'][number]) =>
+    Math.abs(row.energyCostDelta * (factor / Math.max(tariff, 1e-9))) + Math.abs(row.co2SavedDeltaKg);
   return rows.sort((a, b) => size(b) - size(a));
 }
 
@@ -197,7 +203,10 @@ function sum<T>(items: T[], pick: (item: T) => number): number {
 
 async function inServiceDayFigures(db: Executor): Promise<DayFigures[]> {
   const rows = await repository.listServiceDayRows(db, { inService: true });
-  const results = await repository.findResultRows(db, rows.map((row) => row.id));
+  const results = await repository.findResultRows(
+    db,
+    rows.map((row) => row.id),
+  );
   const context = await repository.stalenessContext(db, rows);
   const lengthCache = new Map<string, number>();
   const figures: DayFigures[] = [];
@@ -242,7 +251,8 @@ async function inServiceDayFigures(db: Executor): Promise<DayFigures[]> {
         name: charger.name,
         kind: charger.kind,
         daytimePeakW: result.result!.peakChargingPowerW.find((peak) => peak.chargerKey === charger.key)?.powerW ?? 0,
-        overnightPeakW: charger.kind === 'depot' ? charger.powerW * blocks.filter((block) => block.depotChargerKey === charger.key).length : null,
+        overnightPeakW:
+          charger.kind === 'depot' ? charger.powerW * blocks.filter((block) => block.depotChargerKey === charger.key).length : null,
       })),
     });
   }

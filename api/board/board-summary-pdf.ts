@@ -45,7 +45,12 @@ export function renderBoardSummaryPdf(summary: BoardSummary): Promise<Buffer> {
     const pair = figures.slice(index, index + 2);
     const heights = pair.map((figure) => {
       const placeholder = figure.placeholder ? page.measure(figure.placeholder, { size: 8, bold: true }, columnWidth) + 2 : 0;
-      return page.measure(figure.label, { size: 9 }, columnWidth) + page.measure(figure.value, { size: 14, bold: true }, columnWidth) + placeholder + 6;
+      return (
+        page.measure(figure.label, { size: 9 }, columnWidth) +
+        page.measure(figure.value, { size: 14, bold: true }, columnWidth) +
+        placeholder +
+        6
+      );
     });
     const rowHeight = Math.max(...heights);
     page.ensureSpace(rowHeight);
@@ -65,7 +70,10 @@ export function renderBoardSummaryPdf(summary: BoardSummary): Promise<Buffer> {
     });
     page.y += rowHeight;
   }
-  page.paragraph(`Net energy drawn from batteries and overhead lines per year, after regeneration: ${formatBoardNumber(summary.totals.annualNetKWh)} kWh. Distance driven: ${formatBoardNumber(summary.totals.annualKm)} km per year.`, { size: 9 });
+  page.paragraph(
+    `Net energy drawn from batteries and overhead lines per year, after regeneration: ${formatBoardNumber(summary.totals.annualNetKWh)} kWh. Distance driven: ${formatBoardNumber(summary.totals.annualKm)} km per year.`,
+    { size: 9 },
+  );
 
   routeChart(page, summary);
 
@@ -105,14 +113,24 @@ export function renderBoardSummaryPdf(summary: BoardSummary): Promise<Buffer> {
   page.heading('Factors and sources', 10, { gapBefore: 0 });
   const { settings } = summary;
   if (settings.isPlaceholder) {
-    page.paragraph('The tariff and the grid emission factor are placeholders, not real figures: the money and CO2 figures above are illustrations only.', {
-      size: 8.5,
-      bold: true,
-      colour: WARNING_INK,
-    });
+    page.paragraph(
+      'The tariff and the grid emission factor are placeholders, not real figures: the money and CO2 figures above are illustrations only.',
+      {
+        size: 8.5,
+        bold: true,
+        colour: WARNING_INK,
+      },
+    );
   }
-  page.paragraph(`Tariff ${formatTariff(settings.energyTariffPerKWh, settings.currency)}. Source: ${settings.tariffSource}`, { size: 7.5, colour: MUTED }, { gapAfter: 2 });
-  page.paragraph(`Grid factor ${settings.gridEmissionFactorKgPerKWh} kg CO2 per kWh. Source: ${settings.emissionFactorSource}`, { size: 7.5, colour: MUTED });
+  page.paragraph(
+    `Tariff ${formatTariff(settings.energyTariffPerKWh, settings.currency)}. Source: ${settings.tariffSource}`,
+    { size: 7.5, colour: MUTED },
+    { gapAfter: 2 },
+  );
+  page.paragraph(`Grid factor ${settings.gridEmissionFactorKgPerKWh} kg CO2 per kWh. Source: ${settings.emissionFactorSource}`, {
+    size: 7.5,
+    colour: MUTED,
+  });
   page.cautionList(ADVICE_CAUTIONS_TITLE, ADVICE_CAUTIONS, { size: 7.5 });
 
   return page.end();
@@ -161,7 +179,12 @@ function routeChart(page: PdfLayout, summary: BoardSummary): void {
     page.apply({ size: 7, colour: MUTED });
     doc.text(formatBoardNumber(route.annualRegenKWh), barLeft + regenW + 4, y + 1, { width: valueWidth - 4, lineBreak: false });
     doc.text(formatBoardNumber(route.annualFrictionBrakeKWh), barLeft + frictionW + 4, y + 11, { width: valueWidth - 4, lineBreak: false });
-    doc.moveTo(barLeft, y - 2).lineTo(barLeft, y + rowHeight - 2).lineWidth(0.5).strokeColor(MUTED).stroke();
+    doc
+      .moveTo(barLeft, y - 2)
+      .lineTo(barLeft, y + rowHeight - 2)
+      .lineWidth(0.5)
+      .strokeColor(MUTED)
+      .stroke();
     page.y += rowHeight;
   }
   if (summary.routes.length > routes.length) {

@@ -141,9 +141,7 @@ async function acceptedRiskCounts(db: Executor): Promise<BoardSummary['acceptedR
 
 async function steepestDescents(db: Executor, chosen: ChosenScenario[]): Promise<BoardSummary['steepestDescents']> {
   const candidates = chosen.flatMap((row) =>
-    row.directionResults.flatMap((direction) =>
-      direction.descents.map((descent) => ({ row, direction: direction.direction, descent })),
-    ),
+    row.directionResults.flatMap((direction) => direction.descents.map((descent) => ({ row, direction: direction.direction, descent }))),
   );
   // Grades are negative downhill: the steepest mean grade is the most negative. A stretch of the
   // same route in the same direction is listed once (its steepest reading), so two overlapping
@@ -164,7 +162,14 @@ async function steepestDescents(db: Executor, chosen: ChosenScenario[]): Promise
     steepest.length === 0
       ? []
       : await db
-          .select({ id: reviewItems.id, routeId: reviewItems.routeId, vehicleProfileId: reviewItems.vehicleProfileId, direction: reviewItems.direction, startM: reviewItems.startM, endM: reviewItems.endM })
+          .select({
+            id: reviewItems.id,
+            routeId: reviewItems.routeId,
+            vehicleProfileId: reviewItems.vehicleProfileId,
+            direction: reviewItems.direction,
+            startM: reviewItems.startM,
+            endM: reviewItems.endM,
+          })
           .from(reviewItems)
           .where(inArray(reviewItems.routeId, [...new Set(steepest.map((entry) => entry.row.routeId))]));
   return steepest.map(({ row, direction, descent }) => ({

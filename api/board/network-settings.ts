@@ -26,7 +26,8 @@ import { UnprocessableError } from '../http/http-error';
 export const PLACEHOLDER_NETWORK_SETTINGS: NetworkSettings = {
   energyTariffPerKWh: 0.2,
   currency: 'EUR',
-  tariffSource: 'Illustrative placeholder, not a real tariff: replace with the price per kWh of your electricity contract and name it here.',
+  tariffSource:
+    'Illustrative placeholder, not a real tariff: replace with the price per kWh of your electricity contract and name it here.',
   gridEmissionFactorKgPerKWh: 0.3,
   emissionFactorSource:
     'Illustrative placeholder, from memory and not checked: grid averages in Europe are of the order of 0.2–0.4 kg CO2 per kWh. ' +
@@ -113,5 +114,8 @@ export type NetworkSafetySettings = Pick<
 
 /** Puts the placeholders in place when no row exists (demo seed); never overwrites an admin's figures. */
 export async function ensureNetworkSettings(db: Executor): Promise<void> {
-  await db.insert(networkSettings).values({ key: 'network', ...PLACEHOLDER_NETWORK_SETTINGS }).onConflictDoNothing();
+  await db
+    .insert(networkSettings)
+    .values({ key: 'network', ...PLACEHOLDER_NETWORK_SETTINGS })
+    .onConflictDoNothing();
 }

@@ -12,14 +12,17 @@ export function calibrationEndpoints(deps: AppDeps) {
     endpoint({
       method: 'post',
       path: '/api/vehicles/:vehicleProfileId/calibrations',
-      summary: 'Fit the profile to logged trips (bounded nonlinear least squares on battery power, in the job queue); poll the calibration for the result',
+      summary:
+        'Fit the profile to logged trips (bounded nonlinear least squares on battery power, in the job queue); poll the calibration for the result',
       tag: TAG,
       access: rolesWith('calibration.edit'),
       params: vehicleProfileIdParamsSchema,
       body: calibrationRequestSchema,
       responses: {
         202: { description: 'Queued', schema: calibrationSchema },
-        400: { description: 'A trip is not this profile’s, logged no battery power, or a parameter cannot be fitted from the trips (named)' },
+        400: {
+          description: 'A trip is not this profile’s, logged no battery power, or a parameter cannot be fitted from the trips (named)',
+        },
         404: { description: 'No such vehicle profile' },
         409: { description: 'A preset (read-only)' },
       },
@@ -55,7 +58,8 @@ export function calibrationEndpoints(deps: AppDeps) {
     endpoint({
       method: 'post',
       path: '/api/calibrations/:calibrationId/accept',
-      summary: 'Accept a finished fit: it becomes the profile’s next version (naming its logged trips) and the profile’s scenarios are re-run',
+      summary:
+        'Accept a finished fit: it becomes the profile’s next version (naming its logged trips) and the profile’s scenarios are re-run',
       tag: TAG,
       access: rolesWith('calibration.edit'),
       params: calibrationIdParamsSchema,

@@ -11,12 +11,7 @@ import type { User } from '@shared/domain/auth';
 import type { Calibration, CalibrationRequest, CalibrationResult } from '@shared/domain/calibrations';
 import { vehicleSchema, type Vehicle } from '@shared/domain/analysis';
 import type { VehicleProfile, VehicleProfileDraft } from '@shared/domain/vehicle-profiles';
-import {
-  BRAKE_FIT_PARAMETERS,
-  fitCalibration,
-  type CalibrationTrip,
-  type FitParameter,
-} from '@shared/engine/calibration-fit';
+import { BRAKE_FIT_PARAMETERS, fitCalibration, type CalibrationTrip, type FitParameter } from '@shared/engine/calibration-fit';
 import type { AppDeps } from '../app-deps';
 import type { CalibrationRow } from '../db/schema/index';
 import { startScenarioReruns } from '../batch-runs/batch-runs-service';
@@ -31,22 +26,37 @@ import * as repository from './calibrations-repository';
 
 export const CALIBRATION_JOB = 'vehicle-calibration-fit';
 /** The parameters fitted when the request names none (payload and brakes added where the trips call for them). */
-export const DEFAULT_FIT: FitParameter[] = ['rollingResistanceCoefficient', 'dragAreaM2', 'auxPowerW', 'drivetrainEfficiency', 'regenEfficiency'];
+export const DEFAULT_FIT: FitParameter[] = [
+  'rollingResistanceCoefficient',
+  'dragAreaM2',
+  'auxPowerW',
+  'drivetrainEfficiency',
+  'regenEfficiency',
+];
 
 export const FIT_METHOD =
   'Bounded Levenberg–Marquardt least squares (ml-levenberg-marquardt) on battery power over the replay steps of all trips, weighted by step duration; ' +
   '95 % intervals from the Jacobian at the solution, σ̂²·(JᵀWJ)⁻¹, inflated by (1 + ρ₁)/(1 − ρ₁) for the lag-1 autocorrelation ρ₁ of the residuals, with Student-t quantiles; ' +
   'brake thermal parameters fitted on logged brake temperatures, then jointly with the powertrain, each residual scaled by its own scatter.';
 
-export async function requestCalibration(deps: AppDeps, user: User, vehicleProfileId: string, request: CalibrationRequest): Promise<Calibration> {
+export async function requestCalibration(
+  deps: AppDeps,
+  user: User,
+  vehicleProfileId: string,
+  request: CalibrationRequest,
+): Promise<Calibration> {
   const profileRow = await profiles.findProfile(deps.db, vehicleProfileId);
   if (!profileRow) throw new NotFoundError('The vehicle profile');
-  if (profileRow.isPreset) throw new ConflictError('Presets are read-only; copy the preset into a profile of your own to calibrate it', 'preset_read_only');
+  if (profileRow.isPreset)
+    throw new ConflictError('Presets are read-only; copy the preset into a profile of your own to calibrate it', 'preset_read_only');
   const ids = [...new Set(request.loggedTripIds)];
   const rows = await trips.findTripsForProfile(deps.db, vehicleProfileId, ids);
   const missing = ids.filter((id) => !rows.some((row) => row.id === id));
   if (missing.length > 0) {
-    throw new BadRequestError(`loggedTripIds: no logged trip ${missing.join(', ')} of this vehicle profile`, { field: 'loggedTripIds', missing });
+    throw new BadRequestError(`loggedTripIds: no logged trip ${missing.join(', ')} of this vehicle profile`, {
+      field: 'loggedTripIds',
+      missing,
+    });
   }
   const withoutPower = rows.filter((row) => !row.channels.batteryPower);
   if (withoutPower.length > 0) {
@@ -65,7 +75,9 @@ export async function requestCalibration(deps: AppDeps, user: User, vehicleProfi
     }
     const brakeKeys = fit.filter((key) => (BRAKE_FIT_PARAMETERS as readonly string[]).includes(key));
     if (brakeKeys.length > 0 && !anyBrake) {
-      throw new BadRequestError(`fit: ${brakeKeys.join(', ')} need logged brake temperatures (brake_temp_c), and no chosen trip has them`, { field: 'fit' });
+      throw new BadRequestError(`fit: ${brakeKeys.join(', ')} need logged brake temperatures (brake_temp_c), and no chosen trip has them`, {
+        field: 'fit',
+      });
     }
   } else {
     fit = [...DEFAULT_FIT, ...(anyUnknownPayload ? (['payloadKg'] as const) : []), ...(anyBrake ? BRAKE_FIT_PARAMETERS : [])];
@@ -213,14 +225,23 @@ export async function acceptCalibration(deps: AppDeps, user: User, id: string): 
       acceptedBy: user.name,
       loggedTrips: calibration.loggedTrips,
     });
-    const updated = await repository.markCalibrationAccepted(tx, id, { decidedAt, decidedByName: user.name, acceptedVersion: saved.version });
+    const updated = await repository.markCalibrationAccepted(tx, id, {
+      decidedAt,
+      decidedByName: user.name,
+      acceptedVersion: saved.version,
+    });
     return { row: updated, profileName: saved.name };
   });
 
   // Every scenario of the profile is stale now: re-run them all as one network run.
   const using = await listScenarioNamesOfProfile(deps.db, row.vehicleProfileId);
   if (using.length === 0) return toCalibration(row, profileName);
-  const batch = await startScenarioReruns(deps, author, using, `Vehicle profile “${profileName}” version ${row.acceptedVersion} accepted from a calibration`);
+  const batch = await startScenarioReruns(
+    deps,
+    author,
+    using,
+    `Vehicle profile “${profileName}” version ${row.acceptedVersion} accepted from a calibration`,
+  );
   const withRerun = await repository.setCalibrationRerun(deps.db, id, batch.id);
   return toCalibration(withRerun ?? row, profileName);
 }
@@ -240,7 +261,10 @@ export async function rejectCalibration(deps: Pick<AppDeps, 'db'>, user: User, i
 
 function assertUndecided(calibration: CalibrationRow): void {
   if (calibration.decision) {
-    throw new ConflictError(`The calibration was already ${calibration.decision} by ${calibration.decidedByName ?? 'someone'}`, 'calibration_decided');
+    throw new ConflictError(
+      `The calibration was already ${calibration.decision} by ${calibration.decidedByName ?? 'someone'}`,
+      'calibration_decided',
+    );
   }
 }
 

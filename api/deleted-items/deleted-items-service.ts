@@ -11,7 +11,15 @@ import { DELETED_RETENTION_DAYS, type DeletedItem } from '@shared/domain/deleted
 import type { AppDeps } from '../app-deps';
 import { SYSTEM_ACTOR, recordAudit } from '../audit/audit-log';
 import type { Executor } from '../db/client';
-import { roadRoutes, roadRouteVersions, scenarios, serviceDays, terrainDependents, terrainModels, vehicleProfiles } from '../db/schema/index';
+import {
+  roadRoutes,
+  roadRouteVersions,
+  scenarios,
+  serviceDays,
+  terrainDependents,
+  terrainModels,
+  vehicleProfiles,
+} from '../db/schema/index';
 import { purgeServiceDay } from '../service-days/service-days-repository';
 import { purgeRoute } from '../road-routes/road-routes-repository';
 import { purgeScenario } from '../scenarios/scenarios-repository';
@@ -48,7 +56,10 @@ async function deletedRows(db: Executor, deletedBefore?: Date): Promise<DeletedR
   const routes = await db
     .select({ id: roadRoutes.id, name: roadRouteVersions.name, deletedAt: roadRoutes.deletedAt, deletedBy: roadRoutes.deletedByName })
     .from(roadRoutes)
-    .innerJoin(roadRouteVersions, and(eq(roadRouteVersions.routeId, roadRoutes.id), eq(roadRouteVersions.version, roadRoutes.currentVersion)))
+    .innerJoin(
+      roadRouteVersions,
+      and(eq(roadRouteVersions.routeId, roadRoutes.id), eq(roadRouteVersions.version, roadRoutes.currentVersion)),
+    )
     .where(deletedCondition(roadRoutes.deletedAt))
     .orderBy(desc(roadRoutes.deletedAt));
   const scenarioRows = await db
@@ -63,7 +74,12 @@ async function deletedRows(db: Executor, deletedBefore?: Date): Promise<DeletedR
     .from(scenarios)
     .where(deletedCondition(scenarios.deletedAt));
   const profiles = await db
-    .select({ id: vehicleProfiles.id, name: vehicleProfiles.name, deletedAt: vehicleProfiles.deletedAt, deletedBy: vehicleProfiles.deletedByName })
+    .select({
+      id: vehicleProfiles.id,
+      name: vehicleProfiles.name,
+      deletedAt: vehicleProfiles.deletedAt,
+      deletedBy: vehicleProfiles.deletedByName,
+    })
     .from(vehicleProfiles)
     .where(deletedCondition(vehicleProfiles.deletedAt));
   const terrain = await db
@@ -74,14 +90,16 @@ async function deletedRows(db: Executor, deletedBefore?: Date): Promise<DeletedR
     .select({ id: serviceDays.id, name: serviceDays.name, deletedAt: serviceDays.deletedAt, deletedBy: serviceDays.deletedByName })
     .from(serviceDays)
     .where(deletedCondition(serviceDays.deletedAt));
-  const plain = (kind: RestorableKind) => (row: { id: string; name: string; deletedAt: Date | null; deletedBy: string | null }): DeletedRow => ({
-    kind,
-    id: row.id,
-    name: row.name,
-    deletedAt: row.deletedAt!,
-    deletedBy: row.deletedBy,
-    blockedBy: null,
-  });
+  const plain =
+    (kind: RestorableKind) =>
+    (row: { id: string; name: string; deletedAt: Date | null; deletedBy: string | null }): DeletedRow => ({
+      kind,
+      id: row.id,
+      name: row.name,
+      deletedAt: row.deletedAt!,
+      deletedBy: row.deletedBy,
+      blockedBy: null,
+    });
   return [
     ...routes.map(plain('route')),
     ...scenarioRows.map((row) => ({

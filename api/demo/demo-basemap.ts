@@ -28,11 +28,15 @@ export async function seedDemoBasemap(deps: AppDeps): Promise<void> {
   await storage.ensureFolders();
   const path = join(storage.uploadsDir, `demo-extract-${createHash('sha256').update(xml).digest('hex').slice(0, 12)}.part`);
   await writeFile(path, xml);
-  await acceptBasemapUpload(deps, { id: analyst.id, email: analyst.email, name: analyst.name, role: analyst.role }, {
-    path,
-    size: xml.length,
-    originalFileName: DEMO_EXTRACT_FILE_NAME,
-    attribution: DEMO_EXTRACT_ATTRIBUTION,
-  });
+  await acceptBasemapUpload(
+    deps,
+    { id: analyst.id, email: analyst.email, name: analyst.name, role: analyst.role },
+    {
+      path,
+      size: xml.length,
+      originalFileName: DEMO_EXTRACT_FILE_NAME,
+      attribution: DEMO_EXTRACT_ATTRIBUTION,
+    },
+  );
   await waitForInlineBasemapJobs(deps);
 }

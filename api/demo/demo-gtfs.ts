@@ -108,7 +108,9 @@ export async function demoGtfsZip(): Promise<Buffer> {
 }
 
 function csvRow(...values: (string | number)[]): string {
-  return values.map((value) => (typeof value === 'string' && /[",\n]/.test(value) ? `"${value.replace(/"/g, '""')}"` : String(value))).join(',');
+  return values
+    .map((value) => (typeof value === 'string' && /[",\n]/.test(value) ? `"${value.replace(/"/g, '""')}"` : String(value)))
+    .join(',');
 }
 
 function lines(header: string, rows: string[]): string {

@@ -51,9 +51,39 @@ interface DemoTrip {
 }
 
 export const DEMO_TRIPS: DemoTrip[] = [
-  { file: 'pass-line-korvel-orren-2026-03-10.csv', name: 'Pass line Korvel → Orren, 10 March morning', route: 'demo-route:pass-line', reverse: false, startedAt: '2026-03-10T07:12:00+01:00', ambientC: 6, startSoc: 0.64, passengers: 28, seed: 310 },
-  { file: 'pass-line-orren-korvel-2026-03-10.csv', name: 'Pass line Orren → Korvel, 10 March morning', route: 'demo-route:pass-line', reverse: true, startedAt: '2026-03-10T08:20:00+01:00', ambientC: 4, startSoc: 0.91, passengers: 17, seed: 311 },
-  { file: 'valley-line-westgate-lindmoor-2026-03-11.csv', name: 'Valley line Westgate → Lindmoor, 11 March', route: 'demo-route:valley-line', reverse: false, startedAt: '2026-03-11T10:05:00+01:00', ambientC: 8, startSoc: 0.72, passengers: 35, seed: 312 },
+  {
+    file: 'pass-line-korvel-orren-2026-03-10.csv',
+    name: 'Pass line Korvel → Orren, 10 March morning',
+    route: 'demo-route:pass-line',
+    reverse: false,
+    startedAt: '2026-03-10T07:12:00+01:00',
+    ambientC: 6,
+    startSoc: 0.64,
+    passengers: 28,
+    seed: 310,
+  },
+  {
+    file: 'pass-line-orren-korvel-2026-03-10.csv',
+    name: 'Pass line Orren → Korvel, 10 March morning',
+    route: 'demo-route:pass-line',
+    reverse: true,
+    startedAt: '2026-03-10T08:20:00+01:00',
+    ambientC: 4,
+    startSoc: 0.91,
+    passengers: 17,
+    seed: 311,
+  },
+  {
+    file: 'valley-line-westgate-lindmoor-2026-03-11.csv',
+    name: 'Valley line Westgate → Lindmoor, 11 March',
+    route: 'demo-route:valley-line',
+    reverse: false,
+    startedAt: '2026-03-11T10:05:00+01:00',
+    ambientC: 8,
+    startSoc: 0.72,
+    passengers: 35,
+    seed: 312,
+  },
 ];
 
 export async function demoTripCsv(trip: DemoTrip): Promise<string> {
@@ -61,11 +91,20 @@ export async function demoTripCsv(trip: DemoTrip): Promise<string> {
   const resampled = resampleRoute(design.coordinates, 10);
   const lengthM = resampled.distanceM.at(-1)!;
   const stops = design.stopsAtWaypoints
-    .map((dwellS, i) => (dwellS === null ? null : { name: `stop ${i}`, lon: 0, lat: 0, atM: resampled.distanceM[resampled.vertexIndex[i]!]!, dwellS }))
+    .map((dwellS, i) =>
+      dwellS === null ? null : { name: `stop ${i}`, lon: 0, lat: 0, atM: resampled.distanceM[resampled.vertexIndex[i]!]!, dwellS },
+    )
     .filter((stop): stop is NonNullable<typeof stop> => stop !== null);
-  const line = trip.reverse ? mirrorRoute({ coordinates: design.coordinates, stops, speedLimits: design.speedLimits, lengthM }) : { coordinates: design.coordinates, stops, speedLimits: design.speedLimits };
+  const line = trip.reverse
+    ? mirrorRoute({ coordinates: design.coordinates, stops, speedLimits: design.speedLimits, lengthM })
+    : { coordinates: design.coordinates, stops, speedLimits: design.speedLimits };
   const profile = demoProfileDraft(PROFILE_KEY);
-  const vehicle = vehicleSchema.parse({ ...profile.vehicle, ...TRUE_PARAMETERS, auxPowerW: TRUE_AUX_W, payloadKg: trip.passengers * PASSENGER_MASS_KG });
+  const vehicle = vehicleSchema.parse({
+    ...profile.vehicle,
+    ...TRUE_PARAMETERS,
+    auxPowerW: TRUE_AUX_W,
+    payloadKg: trip.passengers * PASSENGER_MASS_KG,
+  });
   return synthesiseLoggedTripCsv({
     request: {
       route: { type: 'LineString', coordinates: line.coordinates },
@@ -87,10 +126,14 @@ export async function demoTripCsv(trip: DemoTrip): Promise<string> {
   });
 }
 
-
 /** Loads the demo trips of the mountain bus (idempotent: each file once, by its seed key). */
 export async function seedDemoLoggedTrips(deps: AppDeps): Promise<void> {
-  const [analyst] = await deps.db.select({ id: users.id, name: users.name }).from(users).where(eq(users.role, 'analyst')).orderBy(users.createdAt).limit(1);
+  const [analyst] = await deps.db
+    .select({ id: users.id, name: users.name })
+    .from(users)
+    .where(eq(users.role, 'analyst'))
+    .orderBy(users.createdAt)
+    .limit(1);
   const author = analyst ?? { id: null, name: 'Highpass Valley Transit Authority (demo)' };
   for (const trip of DEMO_TRIPS) {
     const seedKey = `demo-logged-trip:${trip.file}`;

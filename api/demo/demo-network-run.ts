@@ -19,7 +19,10 @@ export async function seedDemoNetworkRun(deps: AppDeps): Promise<void> {
     .where(and(eq(scenarios.inService, true), isNotNull(scenarios.computedAt)))
     .orderBy(asc(scenarios.name));
   if (computed.length === 0) return;
-  const [analyst] = await deps.db.select({ id: users.id, name: users.name }).from(users).where(eq(users.email, 'analyst@descentry.example'));
+  const [analyst] = await deps.db
+    .select({ id: users.id, name: users.name })
+    .from(users)
+    .where(eq(users.email, 'analyst@descentry.example'));
   const times = computed.map((scenario) => scenario.computedAt!.getTime());
   await deps.db.transaction(async (tx) => {
     await tx.insert(batchRuns).values({

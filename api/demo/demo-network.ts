@@ -147,7 +147,11 @@ const ROUTES: { key: string; onPassRoad: boolean; draft: Omit<RoadRouteDraftInpu
       { at: [6_000, southValleyNorth(6_000) - 150], elevationM: southFloorM(6_000) + 2, stop: { name: 'Riverside' } },
       { at: [10_000, southValleyNorth(10_000) - 150], elevationM: southFloorM(10_000) + 2, stop: { name: 'Lindmoor Bridge' } },
       { at: [13_500, southValleyNorth(13_500) - 150], elevationM: southFloorM(13_500) + 2, stop: { name: 'Lindmoor Market' } },
-      { at: [13_900, southValleyNorth(13_900) + 1_150], elevationM: southFloorM(13_500) + 2 + 0.04 * 1_362, stop: { name: 'Lindmoor Upper' } },
+      {
+        at: [13_900, southValleyNorth(13_900) + 1_150],
+        elevationM: southFloorM(13_500) + 2 + 0.04 * 1_362,
+        stop: { name: 'Lindmoor Upper' },
+      },
     ],
   },
 ];
@@ -172,7 +176,11 @@ const OWN_PROFILES: { key: string; draft: VehicleProfileDraftInput }[] = [
       loadsKg: { empty: 0, seated: 32 * 70, 'full-standing': 77 * 70 },
       passengerMassKg: 70,
       // Korvel valley seasons (invented; from memory for an alpine valley at 700–1 900 m).
-      seasons: { winter: { ambientC: -8, auxPowerW: 24_000 }, mild: { ambientC: 8, auxPowerW: 6_000 }, summer: { ambientC: 24, auxPowerW: 13_000 } },
+      seasons: {
+        winter: { ambientC: -8, auxPowerW: 24_000 },
+        mild: { ambientC: 8, auxPowerW: 6_000 },
+        summer: { ambientC: 24, auxPowerW: 13_000 },
+      },
     },
   },
   {
@@ -184,7 +192,11 @@ const OWN_PROFILES: { key: string; draft: VehicleProfileDraftInput }[] = [
       vehicle: { ...presetVehicle('battery-midibus'), retarderPowerW: 90_000, retarderType: 'braking-resistor' },
       loadsKg: { empty: 0, seated: 22 * 70, 'full-standing': 52 * 70 },
       passengerMassKg: 70,
-      seasons: { winter: { ambientC: -8, auxPowerW: 13_000 }, mild: { ambientC: 8, auxPowerW: 3_500 }, summer: { ambientC: 24, auxPowerW: 8_000 } },
+      seasons: {
+        winter: { ambientC: -8, auxPowerW: 13_000 },
+        mild: { ambientC: 8, auxPowerW: 3_500 },
+        summer: { ambientC: 24, auxPowerW: 8_000 },
+      },
     },
   },
 ];
@@ -195,25 +207,51 @@ const SCENARIOS: ScenarioSeed[] = [
     key: 'demo-scenario:valley-mild-seated',
     route: 'demo-route:valley-line',
     vehicle: 'preset:battery-bus-12m',
-    draft: { name: 'Valley line, 12 m bus, seated, mild day', direction: 'round-trip', load: { kind: 'case', case: 'seated' }, season: { kind: 'season', season: 'mild' }, startSoc: 0.8, inService: true },
+    draft: {
+      name: 'Valley line, 12 m bus, seated, mild day',
+      direction: 'round-trip',
+      load: { kind: 'case', case: 'seated' },
+      season: { kind: 'season', season: 'mild' },
+      startSoc: 0.8,
+      inService: true,
+    },
   },
   {
     key: 'demo-scenario:valley-winter-full',
     route: 'demo-route:valley-line',
     vehicle: 'demo-vehicle:mountain-bus-12m',
-    draft: { name: 'Valley line, mountain bus, full, winter', direction: 'round-trip', load: { kind: 'case', case: 'full-standing' }, season: { kind: 'season', season: 'winter' }, startSoc: 0.9 },
+    draft: {
+      name: 'Valley line, mountain bus, full, winter',
+      direction: 'round-trip',
+      load: { kind: 'case', case: 'full-standing' },
+      season: { kind: 'season', season: 'winter' },
+      startSoc: 0.9,
+    },
   },
   {
     key: 'demo-scenario:pass-winter-full',
     route: 'demo-route:pass-line',
     vehicle: 'demo-vehicle:mountain-bus-12m',
-    draft: { name: 'Pass line, mountain bus, full, winter', direction: 'round-trip', load: { kind: 'case', case: 'full-standing' }, season: { kind: 'season', season: 'winter' }, startSoc: 0.9, inService: true },
+    draft: {
+      name: 'Pass line, mountain bus, full, winter',
+      direction: 'round-trip',
+      load: { kind: 'case', case: 'full-standing' },
+      season: { kind: 'season', season: 'winter' },
+      startSoc: 0.9,
+      inService: true,
+    },
   },
   {
     key: 'demo-scenario:pass-summer-seated-articulated',
     route: 'demo-route:pass-line',
     vehicle: 'preset:battery-bus-18m-articulated',
-    draft: { name: 'Pass line, 18 m articulated, seated, summer', direction: 'round-trip', load: { kind: 'case', case: 'seated' }, season: { kind: 'season', season: 'summer' }, startSoc: 0.8 },
+    draft: {
+      name: 'Pass line, 18 m articulated, seated, summer',
+      direction: 'round-trip',
+      load: { kind: 'case', case: 'seated' },
+      season: { kind: 'season', season: 'summer' },
+      startSoc: 0.8,
+    },
   },
   {
     key: 'demo-scenario:ski-full-battery',
@@ -245,13 +283,27 @@ const SCENARIOS: ScenarioSeed[] = [
     key: 'demo-scenario:trolleybus-winter-full',
     route: 'demo-route:trolleybus-line',
     vehicle: 'preset:trolleybus-12m',
-    draft: { name: 'Trolleybus T2, full, winter', direction: 'round-trip', load: { kind: 'case', case: 'full-standing' }, season: { kind: 'season', season: 'winter' }, startSoc: 0.8, inService: true },
+    draft: {
+      name: 'Trolleybus T2, full, winter',
+      direction: 'round-trip',
+      load: { kind: 'case', case: 'full-standing' },
+      season: { kind: 'season', season: 'winter' },
+      startSoc: 0.8,
+      inService: true,
+    },
   },
   {
     key: 'demo-scenario:tram-mild-seated',
     route: 'demo-route:tram-line',
     vehicle: 'preset:light-rail-vehicle',
-    draft: { name: 'Valley tram, seated, mild day', direction: 'round-trip', load: { kind: 'case', case: 'seated' }, season: { kind: 'season', season: 'mild' }, startSoc: 0.8, inService: true },
+    draft: {
+      name: 'Valley tram, seated, mild day',
+      direction: 'round-trip',
+      load: { kind: 'case', case: 'seated' },
+      season: { kind: 'season', season: 'mild' },
+      startSoc: 0.8,
+      inService: true,
+    },
   },
 ];
 
@@ -294,9 +346,9 @@ export async function seedDemoNetwork(deps: AppDeps): Promise<void> {
   const routeIds = new Map<string, string>();
   for (const route of ROUTES) {
     const withElevation = !deps.sampleElevations || !route.onPassRoad;
-    const coordinates = route.waypoints.map((point) => (withElevation ? [...lonLat(point.at), round(point.elevationM, 1)] : lonLat(point.at))) as
-      | [number, number][]
-      | [number, number, number][];
+    const coordinates = route.waypoints.map((point) =>
+      withElevation ? [...lonLat(point.at), round(point.elevationM, 1)] : lonLat(point.at),
+    ) as [number, number][] | [number, number, number][];
     const [existing] = await db.select({ id: roadRoutes.id }).from(roadRoutes).where(eq(roadRoutes.seedKey, route.key));
     if (existing) {
       routeIds.set(route.key, existing.id);
@@ -324,7 +376,9 @@ export async function seedDemoNetwork(deps: AppDeps): Promise<void> {
   for (const scenario of SCENARIOS) {
     const [existing] = await db.select({ id: scenarios.id }).from(scenarios).where(eq(scenarios.seedKey, scenario.key));
     if (existing) continue;
-    const vehicleProfileId = scenario.vehicle.startsWith('preset:') ? presetProfileId(scenario.vehicle.slice('preset:'.length)) : profileIds.get(scenario.vehicle)!;
+    const vehicleProfileId = scenario.vehicle.startsWith('preset:')
+      ? presetProfileId(scenario.vehicle.slice('preset:'.length))
+      : profileIds.get(scenario.vehicle)!;
     const draft = scenarioDraftSchema.parse({ ...scenario.draft, routeId: routeIds.get(scenario.route)!, vehicleProfileId });
     await createScenario(deps, scenario.vehicle.startsWith('demo-vehicle') ? analyst : planner, draft, scenario.key);
   }
@@ -334,7 +388,12 @@ export async function seedDemoNetwork(deps: AppDeps): Promise<void> {
   const [anyLine] = await db.select({ id: roadNetworkLines.id }).from(roadNetworkLines).limit(1);
   if (!anyLine) {
     await replaceRoadNetwork(deps, analyst.id, [
-      { featureIndex: 0, partIndex: 0, properties: { name: 'Korvel south bypass (planned)', status: 'planned' }, coordinates: KORVEL_BYPASS.map(lonLat) },
+      {
+        featureIndex: 0,
+        partIndex: 0,
+        properties: { name: 'Korvel south bypass (planned)', status: 'planned' },
+        coordinates: KORVEL_BYPASS.map(lonLat),
+      },
     ]);
   }
 }
@@ -349,7 +408,12 @@ const KORVEL_BYPASS: Local[] = [
 ];
 
 async function personWithRole(deps: AppDeps, role: 'planner' | 'analyst') {
-  const [person] = await deps.db.select({ id: users.id, name: users.name }).from(users).where(eq(users.role, role)).orderBy(users.createdAt).limit(1);
+  const [person] = await deps.db
+    .select({ id: users.id, name: users.name })
+    .from(users)
+    .where(eq(users.role, role))
+    .orderBy(users.createdAt)
+    .limit(1);
   return person ?? { id: null, name: 'Highpass Valley Transit Authority (demo)' };
 }
 

@@ -59,7 +59,12 @@ class OsmWriter {
       lines.push(tags.length === 0 ? `${open}/>` : `${open}>`, ...tags, ...(tags.length ? ['  </node>'] : []));
     }
     for (const way of this.ways) {
-      lines.push(`  <way id="${way.id}" version="1">`, ...way.refs.map((ref) => `    <nd ref="${ref}"/>`), ...tagLines(way.tags), '  </way>');
+      lines.push(
+        `  <way id="${way.id}" version="1">`,
+        ...way.refs.map((ref) => `    <nd ref="${ref}"/>`),
+        ...tagLines(way.tags),
+        '  </way>',
+      );
     }
     lines.push('</osm>', '');
     return lines.join('\n');
@@ -94,7 +99,8 @@ function ellipse([east, north]: Local, radiusEastM: number, radiusNorthM: number
 function ridgeBand(fromEast: number, toEast: number, southEdgeM: number, northEdgeM: number, waveM = 0): Local[] {
   const edge = (offsetM: number, reverse: boolean) => {
     const points: Local[] = [];
-    for (let east = fromEast; east <= toEast; east += 400) points.push([east, ridgeCrestNorth(east) + offsetM + waveM * Math.sin(east / 700)]);
+    for (let east = fromEast; east <= toEast; east += 400)
+      points.push([east, ridgeCrestNorth(east) + offsetM + waveM * Math.sin(east / 700)]);
     return reverse ? points.reverse() : points;
   };
   return [...edge(southEdgeM, false), ...edge(northEdgeM, true)];
@@ -122,7 +128,11 @@ export function demoOsmExtractXml(): string {
   const pass = designPassRoad().vertices.map((vertex) => vertex.at);
   const svn = southValleyNorth;
   const westgate: Local = [500, svn(500)];
-  const valleyEast: Local[] = [[8_000, svn(8_000)], [11_000, svn(11_000)], [14_500, svn(14_500)]];
+  const valleyEast: Local[] = [
+    [8_000, svn(8_000)],
+    [11_000, svn(11_000)],
+    [14_500, svn(14_500)],
+  ];
 
   // --- Roads the demo lines run on (their vertices are the lines' own waypoints) ---
   // Side streets join the chords between the lines' waypoints at extra (collinear) vertices.
@@ -130,7 +140,11 @@ export function demoOsmExtractXml(): string {
   const brennAlpFoot = onChord(valleyEast[0]!, valleyEast[1]!, 10_000);
   osm.way([westgate, millLaneFoot, pass[0]!], { highway: 'secondary', name: 'Westgate Road', ref: 'K1' });
   osm.way([pass[0]!, pass[1]!, pass[2]!], { highway: 'secondary', name: 'Brenn Road', ref: 'K1' });
-  osm.way([pass[2]!, valleyEast[0]!, brennAlpFoot, valleyEast[1]!, valleyEast[2]!], { highway: 'secondary', name: 'Lindmoor Road', ref: 'K1' });
+  osm.way([pass[2]!, valleyEast[0]!, brennAlpFoot, valleyEast[1]!, valleyEast[2]!], {
+    highway: 'secondary',
+    name: 'Lindmoor Road',
+    ref: 'K1',
+  });
   osm.way(pass.slice(2, 8), { highway: 'primary', name: 'Korvel Pass Road', ref: 'K14' });
   osm.way(pass.slice(7), { highway: 'primary', name: 'Korvel Pass Road', ref: 'K14' });
   osm.node(pass[7]!, { mountain_pass: 'yes', name: 'Korvel Pass', ele: '1900' });
@@ -142,11 +156,25 @@ export function demoOsmExtractXml(): string {
 
   // --- Korvel town streets around the town square (2 500, 3 000) ---
   const square = pass[0]!;
-  osm.way([[1_900, 3_350], [2_200, 3_365], [2_500, 3_380], [3_100, 3_390]], { highway: 'residential', name: 'Church Street' });
+  osm.way(
+    [
+      [1_900, 3_350],
+      [2_200, 3_365],
+      [2_500, 3_380],
+      [3_100, 3_390],
+    ],
+    { highway: 'residential', name: 'Church Street' },
+  );
   osm.way([[1_900, 3_350], millLaneFoot], { highway: 'residential', name: 'Mill Lane' });
   osm.way([[2_500, 3_380], square], { highway: 'residential', name: 'Market Street', oneway: 'yes' });
   osm.way([[3_100, 3_390], [3_100, svn(3_100) + 40], pass[1]!], { highway: 'residential', name: 'School Lane' });
-  osm.way([[2_200, 3_365], [2_200, 3_600]], { highway: 'pedestrian', name: 'Arcade Walk' });
+  osm.way(
+    [
+      [2_200, 3_365],
+      [2_200, 3_600],
+    ],
+    { highway: 'pedestrian', name: 'Arcade Walk' },
+  );
   // Korvel Station: the tram stop south of the square, reached by a bus-only link.
   const station: Local = [2_500, svn(2_500) - 150];
   osm.way([square, [2_500, svn(2_500) - 145]], { highway: 'busway', name: 'Station Link' });
@@ -164,8 +192,23 @@ export function demoOsmExtractXml(): string {
   osm.way([[11_400, 11_420], orren], { highway: 'residential', name: 'Orr Street' });
 
   // --- Tracks and paths ---
-  osm.way([[3_100, 3_390], [3_400, 4_300], [3_900, 5_200], [4_300, 6_100]], { highway: 'track', name: 'Hollin Forest Track', tracktype: 'grade3' });
-  osm.way([[4_300, 6_100], [4_500, 6_900], [4_600, ridgeCrestNorth(4_600)]], { highway: 'path', name: 'Hollin Peak Path' });
+  osm.way(
+    [
+      [3_100, 3_390],
+      [3_400, 4_300],
+      [3_900, 5_200],
+      [4_300, 6_100],
+    ],
+    { highway: 'track', name: 'Hollin Forest Track', tracktype: 'grade3' },
+  );
+  osm.way(
+    [
+      [4_300, 6_100],
+      [4_500, 6_900],
+      [4_600, ridgeCrestNorth(4_600)],
+    ],
+    { highway: 'path', name: 'Hollin Peak Path' },
+  );
   osm.way([brennAlpFoot, [10_200, svn(10_000) + 300], [10_400, 4_300], [10_900, 5_200]], { highway: 'track', name: 'Brenn Alp Track' });
   osm.way([pass[7]!, [8_600, 8_250], [7_800, ridgeCrestNorth(7_800)]], { highway: 'path', name: 'Ridge Path' });
 
@@ -174,7 +217,11 @@ export function demoOsmExtractXml(): string {
   osm.way([[13_500, svn(13_500) - 150], lindmoorUpper], { railway: 'tram', name: 'Valley Tramway' });
 
   // --- Peaks on the ridge (elevations from the demo terrain) ---
-  for (const [name, east] of [['Hollin Peak', 4_600], ['Skarn', 14_300], ['Orrenhorn', 6_800]] as const) {
+  for (const [name, east] of [
+    ['Hollin Peak', 4_600],
+    ['Skarn', 14_300],
+    ['Orrenhorn', 6_800],
+  ] as const) {
     const at: Local = [east, ridgeCrestNorth(east)];
     osm.point(at, { natural: 'peak', name, ele: String(terrainElevationM(at)) });
   }
@@ -183,17 +230,42 @@ export function demoOsmExtractXml(): string {
   osm.way(alongValley(16_000, 0, -310, 500), { waterway: 'river', name: 'Korvel' });
   for (const east of [1_200, 3_600, 6_400, 9_600, 12_200, 15_000]) {
     const top = ridgeCrestNorth(east) - 900;
-    osm.way([[east + 150, top], [east + 60, (top + svn(east)) / 2], [east, svn(east) - 310]], { waterway: 'stream' });
+    osm.way(
+      [
+        [east + 150, top],
+        [east + 60, (top + svn(east)) / 2],
+        [east, svn(east) - 310],
+      ],
+      { waterway: 'stream' },
+    );
   }
   osm.area(ellipse([11_000, svn(11_000) - 420], 700, 220), { natural: 'water', water: 'lake', name: 'Lindmoor Lake' });
   osm.area(ellipse([13_350, 7_300], 90, 60), { natural: 'water', water: 'reservoir', name: 'Skarnfeld snow pond' });
-  osm.way([[6_000, 11_600], [8_000, 11_450], [10_000, 11_350], [11_700, 11_050], [13_500, 11_000], [16_000, 11_100]], { waterway: 'river', name: 'Orr' });
+  osm.way(
+    [
+      [6_000, 11_600],
+      [8_000, 11_450],
+      [10_000, 11_350],
+      [11_700, 11_050],
+      [13_500, 11_000],
+      [16_000, 11_100],
+    ],
+    { waterway: 'river', name: 'Orr' },
+  );
 
   // --- Land use ---
   osm.area(valleyBand(1_600, 3_500, -120, 700), { landuse: 'residential', name: 'Korvel' });
   osm.area(valleyBand(150, 950, -100, 350), { landuse: 'residential' });
   osm.area(valleyBand(13_800, 15_200, -100, 450), { landuse: 'residential' });
-  osm.area([[11_300, 10_950], [12_400, 10_950], [12_400, 11_450], [11_300, 11_450]], { landuse: 'residential' });
+  osm.area(
+    [
+      [11_300, 10_950],
+      [12_400, 10_950],
+      [12_400, 11_450],
+      [11_300, 11_450],
+    ],
+    { landuse: 'residential' },
+  );
   osm.area(valleyBand(3_900, 4_500, -270, -180), { landuse: 'industrial', name: 'Korvel bus depot' });
   osm.area(valleyBand(0, 7_000, -1_300, -360), { landuse: 'farmland' });
   osm.area(valleyBand(7_400, 16_000, -1_300, -360), { landuse: 'farmland' });

@@ -20,7 +20,12 @@ export async function seedDemoReviews(deps: AppDeps): Promise<void> {
     const stored = readScenarioResult(scenario);
     if (!stored) continue;
     await deps.db.transaction((tx) =>
-      syncReviewItems(tx, scenario, { computedAt: scenario.computedAt!, directions: stored.directions }, { publicUrl: deps.config.PUBLIC_URL }),
+      syncReviewItems(
+        tx,
+        scenario,
+        { computedAt: scenario.computedAt!, directions: stored.directions },
+        { publicUrl: deps.config.PUBLIC_URL },
+      ),
     );
   }
 }

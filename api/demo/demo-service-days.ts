@@ -38,22 +38,102 @@ export interface DemoBlock {
 }
 
 export const WEEKDAY_BLOCKS: DemoBlock[] = [
-  { blockId: 'V1', vehicle: 'demo-vehicle:mountain-bus-12m', route: 'valley', pullOutS: 5 * H + 30 * M, roundTrips: 4, headwayS: 75 * M, startSoc: 0.95 },
-  { blockId: 'V2', vehicle: 'preset:battery-bus-12m', route: 'valley', pullOutS: 6 * H + 15 * M, roundTrips: 4, headwayS: 75 * M, startSoc: 0.95 },
+  {
+    blockId: 'V1',
+    vehicle: 'demo-vehicle:mountain-bus-12m',
+    route: 'valley',
+    pullOutS: 5 * H + 30 * M,
+    roundTrips: 4,
+    headwayS: 75 * M,
+    startSoc: 0.95,
+  },
+  {
+    blockId: 'V2',
+    vehicle: 'preset:battery-bus-12m',
+    route: 'valley',
+    pullOutS: 6 * H + 15 * M,
+    roundTrips: 4,
+    headwayS: 75 * M,
+    startSoc: 0.95,
+  },
   { blockId: 'V3', vehicle: 'preset:battery-bus-12m', route: 'valley', pullOutS: 14 * H, roundTrips: 3, headwayS: 75 * M, startSoc: 0.9 },
-  { blockId: 'P1', vehicle: 'demo-vehicle:mountain-bus-12m', route: 'pass', pullOutS: 6 * H, roundTrips: 2, headwayS: 60 * M, startSoc: 0.95 },
+  {
+    blockId: 'P1',
+    vehicle: 'demo-vehicle:mountain-bus-12m',
+    route: 'pass',
+    pullOutS: 6 * H,
+    roundTrips: 2,
+    headwayS: 60 * M,
+    startSoc: 0.95,
+  },
   { blockId: 'P2', vehicle: 'preset:battery-bus-12m', route: 'pass', pullOutS: 11 * H, roundTrips: 2, headwayS: 60 * M, startSoc: 0.95 },
 ];
 export const SUNDAY_BLOCKS: DemoBlock[] = [
-  { blockId: 'V1', vehicle: 'demo-vehicle:mountain-bus-12m', route: 'valley', pullOutS: 7 * H + 30 * M, roundTrips: 4, headwayS: 90 * M, startSoc: 0.95 },
-  { blockId: 'P1', vehicle: 'demo-vehicle:mountain-bus-12m', route: 'pass', pullOutS: 8 * H, roundTrips: 2, headwayS: 60 * M, startSoc: 0.95 },
+  {
+    blockId: 'V1',
+    vehicle: 'demo-vehicle:mountain-bus-12m',
+    route: 'valley',
+    pullOutS: 7 * H + 30 * M,
+    roundTrips: 4,
+    headwayS: 90 * M,
+    startSoc: 0.95,
+  },
+  {
+    blockId: 'P1',
+    vehicle: 'demo-vehicle:mountain-bus-12m',
+    route: 'pass',
+    pullOutS: 8 * H,
+    roundTrips: 2,
+    headwayS: 60 * M,
+    startSoc: 0.95,
+  },
 ];
 
-const DAYS: { key: string; name: string; dayType: ServiceDayDraftInput['dayType']; season: 'winter' | 'summer'; batteryAge: ServiceDayDraftInput['batteryAge']; inService: boolean; blocks: DemoBlock[] }[] = [
-  { key: 'demo-service-day:weekday-winter', name: 'Weekday, winter', dayType: 'weekday', season: 'winter', batteryAge: 'beginning-of-life', inService: true, blocks: WEEKDAY_BLOCKS },
-  { key: 'demo-service-day:weekday-summer', name: 'Weekday, summer', dayType: 'weekday', season: 'summer', batteryAge: 'beginning-of-life', inService: true, blocks: WEEKDAY_BLOCKS },
-  { key: 'demo-service-day:sunday-winter', name: 'Sunday and holiday, winter', dayType: 'sunday-holiday', season: 'winter', batteryAge: 'beginning-of-life', inService: true, blocks: SUNDAY_BLOCKS },
-  { key: 'demo-service-day:sunday-summer', name: 'Sunday and holiday, summer', dayType: 'sunday-holiday', season: 'summer', batteryAge: 'beginning-of-life', inService: true, blocks: SUNDAY_BLOCKS },
+const DAYS: {
+  key: string;
+  name: string;
+  dayType: ServiceDayDraftInput['dayType'];
+  season: 'winter' | 'summer';
+  batteryAge: ServiceDayDraftInput['batteryAge'];
+  inService: boolean;
+  blocks: DemoBlock[];
+}[] = [
+  {
+    key: 'demo-service-day:weekday-winter',
+    name: 'Weekday, winter',
+    dayType: 'weekday',
+    season: 'winter',
+    batteryAge: 'beginning-of-life',
+    inService: true,
+    blocks: WEEKDAY_BLOCKS,
+  },
+  {
+    key: 'demo-service-day:weekday-summer',
+    name: 'Weekday, summer',
+    dayType: 'weekday',
+    season: 'summer',
+    batteryAge: 'beginning-of-life',
+    inService: true,
+    blocks: WEEKDAY_BLOCKS,
+  },
+  {
+    key: 'demo-service-day:sunday-winter',
+    name: 'Sunday and holiday, winter',
+    dayType: 'sunday-holiday',
+    season: 'winter',
+    batteryAge: 'beginning-of-life',
+    inService: true,
+    blocks: SUNDAY_BLOCKS,
+  },
+  {
+    key: 'demo-service-day:sunday-summer',
+    name: 'Sunday and holiday, summer',
+    dayType: 'sunday-holiday',
+    season: 'summer',
+    batteryAge: 'beginning-of-life',
+    inService: true,
+    blocks: SUNDAY_BLOCKS,
+  },
   {
     key: 'demo-service-day:weekday-winter-end-of-life',
     name: 'Weekday, winter, batteries at end of life (check)',
@@ -85,12 +165,31 @@ export async function seedDemoServiceDays(deps: AppDeps): Promise<void> {
       reserveSoc: 0.15,
       inService: day.inService,
       chargers: [
-        { key: 'westgate-depot', name: 'Westgate depot', kind: 'depot', position: valleyLine.first, powerW: 150_000, efficiency: 0.93, targetSoc: 0.95 },
-        { key: 'lindmoor-terminus', name: 'Lindmoor terminus', kind: 'terminus', position: valleyLine.last, powerW: 300_000, efficiency: 0.92, targetSoc: 0.9, connectS: 45 },
+        {
+          key: 'westgate-depot',
+          name: 'Westgate depot',
+          kind: 'depot',
+          position: valleyLine.first,
+          powerW: 150_000,
+          efficiency: 0.93,
+          targetSoc: 0.95,
+        },
+        {
+          key: 'lindmoor-terminus',
+          name: 'Lindmoor terminus',
+          kind: 'terminus',
+          position: valleyLine.last,
+          powerW: 300_000,
+          efficiency: 0.92,
+          targetSoc: 0.9,
+          connectS: 45,
+        },
       ],
       blocks: day.blocks.map((block) => ({
         blockId: block.blockId,
-        vehicleProfileId: block.vehicle.startsWith('preset:') ? presetProfileId(block.vehicle.slice('preset:'.length)) : demoProfileId(block.vehicle),
+        vehicleProfileId: block.vehicle.startsWith('preset:')
+          ? presetProfileId(block.vehicle.slice('preset:'.length))
+          : demoProfileId(block.vehicle),
         depotChargerKey: 'westgate-depot',
         pullOutS: block.pullOutS,
         pullInS: block.pullOutS + (block.roundTrips * 2 + 1) * block.headwayS,

@@ -123,7 +123,10 @@ function naturalElevationM(east: number, north: number, noise: (x: number, y: nu
   const skiDistance = Math.hypot(east - 12800, north - 6800);
   const roughness = skiDistance < 1500 ? 0.25 + 0.75 * (skiDistance / 1500) : 1;
   const reliefShare = Math.min(1, Math.max(0.15, (z - 650) / 900));
-  z += roughness * reliefShare * (55 * noise(east / 1400, north / 1400) + 22 * noise(east / 420, north / 420) + 6 * noise(east / 130, north / 130));
+  z +=
+    roughness *
+    reliefShare *
+    (55 * noise(east / 1400, north / 1400) + 22 * noise(east / 420, north / 420) + 6 * noise(east / 130, north / 130));
   return z;
 }
 

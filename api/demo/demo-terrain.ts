@@ -51,11 +51,15 @@ export async function seedDemoTerrain(deps: AppDeps): Promise<void> {
   await writeFile(path, tiff);
   const [analyst] = await deps.db.select().from(users).where(eq(users.role, 'analyst')).limit(1);
   if (!analyst) throw new Error('Seed the demo people before the demo terrain');
-  await acceptTerrainUpload(deps, { id: analyst.id, email: analyst.email, name: analyst.name, role: analyst.role }, {
-    file: { path, size: tiff.length, sha256 },
-    originalFileName: 'korvel-valley-20m.tif',
-    name: DEMO_TERRAIN_NAME,
-  });
+  await acceptTerrainUpload(
+    deps,
+    { id: analyst.id, email: analyst.email, name: analyst.name, role: analyst.role },
+    {
+      file: { path, size: tiff.length, sha256 },
+      originalFileName: 'korvel-valley-20m.tif',
+      name: DEMO_TERRAIN_NAME,
+    },
+  );
   await waitForInlineTerrainJobs(deps);
   // The seed runs in its own short-lived process: let the decoder threads go.
   await closeTerrainRuntime(deps);
@@ -70,7 +74,10 @@ function toDemoRoad(design: ReturnType<typeof designPassRoad>): DemoRoad {
   const utm = lookupEpsg(DEMO_TERRAIN_GRID.epsg)!.proj4Definition;
   const toWgs84 = proj4(utm, 'EPSG:4326');
   const coordinates = design.vertices.map(({ at: [east, north] }) => {
-    const [lon, lat] = toWgs84.forward([DEMO_TERRAIN_GRID.originX + east, DEMO_TERRAIN_GRID.originY - DEMO_TERRAIN_GRID.heightPx * DEMO_TERRAIN_GRID.pixelSizeM + north]) as [number, number];
+    const [lon, lat] = toWgs84.forward([
+      DEMO_TERRAIN_GRID.originX + east,
+      DEMO_TERRAIN_GRID.originY - DEMO_TERRAIN_GRID.heightPx * DEMO_TERRAIN_GRID.pixelSizeM + north,
+    ]) as [number, number];
     return [round(lon, 6), round(lat, 6)] as [number, number];
   });
   const elevationsM = design.vertices.map((v) => round(v.elevationM, 1));

@@ -19,10 +19,7 @@ export function healthEndpoints({ db }: AppDeps) {
       },
       handler: async ({ res }) => {
         try {
-          await Promise.race([
-            pingDatabase(db),
-            new Promise((_, reject) => setTimeout(() => reject(new Error('timeout')), 2000)),
-          ]);
+          await Promise.race([pingDatabase(db), new Promise((_, reject) => setTimeout(() => reject(new Error('timeout')), 2000))]);
           res.json({ status: 'ok', db: 'ok' });
         } catch {
           // Any failure to reach the database within 2 s means "down" for the load balancer.

@@ -14,7 +14,22 @@ const IMMUTABLE_MAX_AGE_S = 31_536_000;
  */
 const HASHED_NAME = /-[A-Z0-9]{8}\.[a-z0-9]+$/;
 /** Extensions that are files, never pages of the app: a missing one is a 404, not index.html. */
-const ASSET_EXTENSIONS = new Set(['.js', '.mjs', '.css', '.map', '.woff', '.woff2', '.ttf', '.png', '.jpg', '.svg', '.ico', '.json', '.webmanifest', '.txt']);
+const ASSET_EXTENSIONS = new Set([
+  '.js',
+  '.mjs',
+  '.css',
+  '.map',
+  '.woff',
+  '.woff2',
+  '.ttf',
+  '.png',
+  '.jpg',
+  '.svg',
+  '.ico',
+  '.json',
+  '.webmanifest',
+  '.txt',
+]);
 
 export const STATIC_CACHE_CONTROL = {
   hashed: `public, max-age=${IMMUTABLE_MAX_AGE_S}, immutable`,
@@ -41,7 +56,10 @@ export function webApp(webDir: string, index: WebIndex): Router {
       // sent, so a precompressed copy's name ends in .br or .gz.
       cacheControl: false,
       setHeaders: (res: ServerResponse, path: string) => {
-        res.setHeader('Cache-Control', HASHED_NAME.test(basename(path).replace(/\.(br|gz)$/, '')) ? STATIC_CACHE_CONTROL.hashed : STATIC_CACHE_CONTROL.other);
+        res.setHeader(
+          'Cache-Control',
+          HASHED_NAME.test(basename(path).replace(/\.(br|gz)$/, '')) ? STATIC_CACHE_CONTROL.hashed : STATIC_CACHE_CONTROL.other,
+        );
       },
     },
   });

@@ -28,7 +28,11 @@ export interface JobQueue {
   /** Queues a job with its kind's policy; resolves with the job's id once it is stored (or, inline, once it has started). */
   send(name: string, data: object, policy: JobPolicy): Promise<string>;
   /** Runs `handler` for every job of that name, one at a time per process. */
-  registerWorker<TData extends object>(name: string, handler: (data: TData, jobId: string) => Promise<void>, policy: JobPolicy): Promise<void>;
+  registerWorker<TData extends object>(
+    name: string,
+    handler: (data: TData, jobId: string) => Promise<void>,
+    policy: JobPolicy,
+  ): Promise<void>;
   /** Where a job stands and when it started; null once the queue has forgotten it (archived long ago) or never had it. */
   jobState(name: string, jobId: string): Promise<{ state: JobState; startedOn: Date | null } | null>;
   /** Takes a job out of the queue (a job whose worker died while it was active). */

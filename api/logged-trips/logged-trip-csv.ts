@@ -45,14 +45,33 @@ export interface ParsedTrip {
 /** A refused logged-trip file: 400 (413 past the row limit) naming the row and column. */
 export class LoggedTripFileError extends HttpError {
   constructor(code: string, where: { file: string; row?: number; column?: string }, problem: string, status = 400) {
-    const place = [where.file, where.row === undefined ? undefined : `row ${where.row}`, where.column === undefined ? undefined : `column ${where.column}`]
+    const place = [
+      where.file,
+      where.row === undefined ? undefined : `row ${where.row}`,
+      where.column === undefined ? undefined : `column ${where.column}`,
+    ]
       .filter(Boolean)
       .join(', ');
     super(status, code, `${place}: ${problem}`, { file: where.file, row: where.row ?? null, column: where.column ?? null });
   }
 }
 
-type Channel = 'time_s' | 'timestamp' | 'lat' | 'lon' | 'speed_mps' | 'speed_kph' | 'elevation_m' | 'battery_power_w' | 'battery_voltage_v' | 'battery_current_a' | 'soc' | 'soc_percent' | 'ambient_c' | 'brake_temp_c' | 'passengers';
+type Channel =
+  | 'time_s'
+  | 'timestamp'
+  | 'lat'
+  | 'lon'
+  | 'speed_mps'
+  | 'speed_kph'
+  | 'elevation_m'
+  | 'battery_power_w'
+  | 'battery_voltage_v'
+  | 'battery_current_a'
+  | 'soc'
+  | 'soc_percent'
+  | 'ambient_c'
+  | 'brake_temp_c'
+  | 'passengers';
 
 /** Accepted range of every numeric column (inclusive); values outside are impossible. */
 const RANGES: Record<Exclude<Channel, 'timestamp'>, readonly [number, number, string]> = {
@@ -106,7 +125,12 @@ export async function parseLoggedTripCsv(data: Buffer, file: string, maxRows: nu
             return;
           }
           if (row - 1 > maxRows) {
-            throw new LoggedTripFileError('too_many_rows', { file, row }, `the file has more than ${maxRows.toLocaleString('en-GB')} samples, the most one trip may have; split it into shorter trips`, 413);
+            throw new LoggedTripFileError(
+              'too_many_rows',
+              { file, row },
+              `the file has more than ${maxRows.toLocaleString('en-GB')} samples, the most one trip may have; split it into shorter trips`,
+              413,
+            );
           }
           if (fields.length !== width) {
             refuse('invalid_row', `expected ${width} comma-separated values as in the header, found ${fields.length}`, row);
@@ -134,7 +158,8 @@ export async function parseLoggedTripCsv(data: Buffer, file: string, maxRows: nu
     for (const [channel, column] of index) {
       const raw = (fields[column] ?? '').trim();
       const name = header![column]!;
-      const required = REQUIRED.includes(channel) || channel === 'time_s' || channel === 'timestamp' || channel === 'speed_mps' || channel === 'speed_kph';
+      const required =
+        REQUIRED.includes(channel) || channel === 'time_s' || channel === 'timestamp' || channel === 'speed_mps' || channel === 'speed_kph';
       if (raw === '') {
         if (required) refuse('missing_value', 'the cell is empty; this column needs a value in every row', rowNumber, name);
         values.get(channel)!.push(Number.NaN);
@@ -143,7 +168,13 @@ export async function parseLoggedTripCsv(data: Buffer, file: string, maxRows: nu
       if (channel === 'timestamp') {
         if (index.has('time_s')) continue;
         const ms = parseIsoTimestamp(raw);
-        if (ms === null) refuse('invalid_value', `"${raw}" is not an ISO 8601 date and time with a time-zone offset (e.g. 2026-03-14T07:05:00Z)`, rowNumber, name);
+        if (ms === null)
+          refuse(
+            'invalid_value',
+            `"${raw}" is not an ISO 8601 date and time with a time-zone offset (e.g. 2026-03-14T07:05:00Z)`,
+            rowNumber,
+            name,
+          );
         values.get(channel)!.push(ms! / 1000);
         if (startedAt === null) startedAt = new Date(ms!).toISOString();
         continue;
@@ -155,9 +186,15 @@ export async function parseLoggedTripCsv(data: Buffer, file: string, maxRows: nu
       const [min, max, unit] = RANGES[channel as Exclude<Channel, 'timestamp'>];
       if (value < min || value > max) {
         const hint = channel === 'soc' && value > 1 && value <= 100 ? '; a SOC in per cent belongs in a column named soc_percent' : '';
-        refuse('impossible_value', `${raw}${unit ? ` ${unit}` : ''} is outside the possible range ${min}–${max}${unit ? ` ${unit}` : ''}${hint}`, rowNumber, name);
+        refuse(
+          'impossible_value',
+          `${raw}${unit ? ` ${unit}` : ''} is outside the possible range ${min}–${max}${unit ? ` ${unit}` : ''}${hint}`,
+          rowNumber,
+          name,
+        );
       }
-      if (channel === 'passengers' && !Number.isInteger(value)) refuse('impossible_value', `${raw} is not a whole number of passengers`, rowNumber, name);
+      if (channel === 'passengers' && !Number.isInteger(value))
+        refuse('impossible_value', `${raw} is not a whole number of passengers`, rowNumber, name);
       values.get(channel)!.push(value);
     }
     const timeChannel: Channel = index.has('time_s') ? 'time_s' : 'timestamp';
@@ -165,17 +202,39 @@ export async function parseLoggedTripCsv(data: Buffer, file: string, maxRows: nu
     const timeName = header![index.get(timeChannel)!]!;
     const previous = times.at(-1);
     if (previous !== undefined) {
-      if (time === previous) refuse('duplicate_time', `the time repeats the previous row's (${describeTime(time, timeChannel)}); every row needs its own time`, rowNumber, timeName);
-      if (time < previous) refuse('unordered_time', `the time (${describeTime(time, timeChannel)}) is earlier than the previous row's (${describeTime(previous, timeChannel)}); rows must be in time order`, rowNumber, timeName);
+      if (time === previous)
+        refuse(
+          'duplicate_time',
+          `the time repeats the previous row's (${describeTime(time, timeChannel)}); every row needs its own time`,
+          rowNumber,
+          timeName,
+        );
+      if (time < previous)
+        refuse(
+          'unordered_time',
+          `the time (${describeTime(time, timeChannel)}) is earlier than the previous row's (${describeTime(previous, timeChannel)}); rows must be in time order`,
+          rowNumber,
+          timeName,
+        );
       if (time - previous > MAX_SAMPLE_GAP_S) {
-        refuse('time_gap', `${(time - previous).toFixed(1)} s have passed since the previous row; the longest gap allowed is ${MAX_SAMPLE_GAP_S} s (split the trip at the gap)`, rowNumber, timeName);
+        refuse(
+          'time_gap',
+          `${(time - previous).toFixed(1)} s have passed since the previous row; the longest gap allowed is ${MAX_SAMPLE_GAP_S} s (split the trip at the gap)`,
+          rowNumber,
+          timeName,
+        );
       }
       const speedChannel: Channel = index.has('speed_mps') ? 'speed_mps' : 'speed_kph';
       const speeds = values.get(speedChannel)!;
       const factor = speedChannel === 'speed_kph' ? 1 / 3.6 : 1;
-      const acceleration = Math.abs(speeds.at(-1)! - speeds.at(-2)!) * factor / (time - previous);
+      const acceleration = (Math.abs(speeds.at(-1)! - speeds.at(-2)!) * factor) / (time - previous);
       if (acceleration > MAX_ACCELERATION_MPS2) {
-        refuse('impossible_value', `the speed changes by ${acceleration.toFixed(1)} m/s² from the previous row; more than ${MAX_ACCELERATION_MPS2} m/s² is impossible for a road or rail vehicle`, rowNumber, header![index.get(speedChannel)!]!);
+        refuse(
+          'impossible_value',
+          `the speed changes by ${acceleration.toFixed(1)} m/s² from the previous row; more than ${MAX_ACCELERATION_MPS2} m/s² is impossible for a road or rail vehicle`,
+          rowNumber,
+          header![index.get(speedChannel)!]!,
+        );
       }
     }
     times.push(time);
@@ -221,12 +280,17 @@ function readHeader(fields: string[], refuse: (code: string, problem: string, ro
     refuse('not_csv', 'the header holds one column with semicolons or tabs in it; the file must be comma-separated', 1);
   }
   if (names.every((name) => name === '' || /^[+-]?[\d.]+$/.test(name))) {
-    refuse('missing_header', 'the first row must be a header naming the columns (time_s or timestamp, lat, lon, speed_mps or speed_kph, …), not data', 1);
+    refuse(
+      'missing_header',
+      'the first row must be a header naming the columns (time_s or timestamp, lat, lon, speed_mps or speed_kph, …), not data',
+      1,
+    );
   }
   const index = new Map<Channel, number>();
   names.forEach((name, column) => {
     if (!KNOWN.has(name)) return;
-    if (index.has(name as Channel)) refuse('duplicate_column', `the column "${fields[column]!.trim()}" appears twice in the header`, 1, fields[column]!.trim());
+    if (index.has(name as Channel))
+      refuse('duplicate_column', `the column "${fields[column]!.trim()}" appears twice in the header`, 1, fields[column]!.trim());
     index.set(name as Channel, column);
   });
   const missing = (what: string) => refuse('missing_column', `the required column ${what} is missing from the header`, 1, what);

@@ -16,9 +16,21 @@ export function loggedTripFileUpload(): RequestHandler {
       if (!error) return next();
       if (error instanceof multer.MulterError) {
         if (error.code === 'LIMIT_FILE_SIZE') {
-          return next(new HttpError(413, 'file_too_large', `The logged trip is larger than ${LOGGED_TRIP_MAX_BYTES / 1024 / 1024} MB; split it into shorter trips`));
+          return next(
+            new HttpError(
+              413,
+              'file_too_large',
+              `The logged trip is larger than ${LOGGED_TRIP_MAX_BYTES / 1024 / 1024} MB; split it into shorter trips`,
+            ),
+          );
         }
-        return next(new BadRequestError(`Upload refused: ${error.message}${error.field ? ` (field ${error.field})` : ''}`, { field: error.field }, 'invalid_upload'));
+        return next(
+          new BadRequestError(
+            `Upload refused: ${error.message}${error.field ? ` (field ${error.field})` : ''}`,
+            { field: error.field },
+            'invalid_upload',
+          ),
+        );
       }
       next(error);
     });

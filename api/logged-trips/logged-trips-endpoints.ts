@@ -74,12 +74,16 @@ export function loggedTripEndpoints(deps: AppDeps) {
     endpoint({
       method: 'get',
       path: '/api/logged-trips/:loggedTripId/comparison',
-      summary: 'Replay the trip on its measured speed and set measured against modelled: battery power, energy, SOC, brake temperature, with RMS, bias and energy difference',
+      summary:
+        'Replay the trip on its measured speed and set measured against modelled: battery power, energy, SOC, brake temperature, with RMS, bias and energy difference',
       tag: TAG,
       access: 'signed-in',
       params: loggedTripIdParamsSchema,
       query: comparisonQuerySchema,
-      responses: { 200: { description: 'Series along the trip and the errors', schema: replayComparisonSchema }, 404: { description: 'No such trip or calibration' } },
+      responses: {
+        200: { description: 'Series along the trip and the errors', schema: replayComparisonSchema },
+        404: { description: 'No such trip or calibration' },
+      },
       handler: async ({ params, query, res }) => {
         res.json(await service.compareLoggedTrip(deps, params.loggedTripId, query.calibrationId));
       },
@@ -91,7 +95,11 @@ export function loggedTripEndpoints(deps: AppDeps) {
       tag: TAG,
       access: rolesWith('calibration.edit'),
       params: loggedTripIdParamsSchema,
-      responses: { 204: { description: 'Deleted' }, 404: { description: 'No such trip' }, 409: { description: 'An accepted calibration was fitted on it' } },
+      responses: {
+        204: { description: 'Deleted' },
+        404: { description: 'No such trip' },
+        409: { description: 'An accepted calibration was fitted on it' },
+      },
       handler: async ({ params, res }) => {
         await service.deleteLoggedTrip(deps, params.loggedTripId);
         res.status(204).end();

@@ -15,7 +15,11 @@ export async function insertTrip(db: Executor, values: NewLoggedTrip): Promise<L
 }
 
 export async function listTrips(db: Executor, vehicleProfileId: string): Promise<LoggedTripHead[]> {
-  return db.select(headColumns).from(loggedTrips).where(eq(loggedTrips.vehicleProfileId, vehicleProfileId)).orderBy(desc(loggedTrips.createdAt), desc(loggedTrips.id));
+  return db
+    .select(headColumns)
+    .from(loggedTrips)
+    .where(eq(loggedTrips.vehicleProfileId, vehicleProfileId))
+    .orderBy(desc(loggedTrips.createdAt), desc(loggedTrips.id));
 }
 
 export async function findTrip(db: Executor, id: string): Promise<LoggedTripRow | undefined> {
@@ -48,9 +52,17 @@ export async function countAcceptedCalibrationsUsing(db: Executor, id: string): 
 export async function routesNear(db: Executor, first: [number, number], last: [number, number], withinM: number) {
   const point = (p: [number, number]) => sql`ST_SetSRID(ST_MakePoint(${p[0]}, ${p[1]}), 4326)::geography`;
   return db
-    .select({ routeId: roadRoutes.id, version: roadRouteVersions.version, name: roadRouteVersions.name, coordinates: roadRouteVersions.coordinates })
+    .select({
+      routeId: roadRoutes.id,
+      version: roadRouteVersions.version,
+      name: roadRouteVersions.name,
+      coordinates: roadRouteVersions.coordinates,
+    })
     .from(roadRoutes)
-    .innerJoin(roadRouteVersions, and(eq(roadRouteVersions.routeId, roadRoutes.id), eq(roadRouteVersions.version, roadRoutes.currentVersion)))
+    .innerJoin(
+      roadRouteVersions,
+      and(eq(roadRouteVersions.routeId, roadRoutes.id), eq(roadRouteVersions.version, roadRoutes.currentVersion)),
+    )
     .where(
       and(
         sql`ST_DWithin(${roadRouteVersions.geometry}::geography, ${point(first)}, ${withinM})`,

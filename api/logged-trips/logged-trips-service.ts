@@ -68,7 +68,10 @@ export async function uploadLoggedTrip(
   const profileRow = await profiles.findProfile(db, vehicleProfileId);
   if (!profileRow) throw new NotFoundError('The vehicle profile');
   if (profileRow.isPreset) {
-    throw new ConflictError('Presets are generic classes and read-only; copy the preset into a profile of your own and log trips against that', 'preset_read_only');
+    throw new ConflictError(
+      'Presets are generic classes and read-only; copy the preset into a profile of your own and log trips against that',
+      'preset_read_only',
+    );
   }
   const profile = profiles.toVehicleProfile(profileRow);
   const fileName = file.originalname || 'logged-trip.csv';
@@ -76,11 +79,21 @@ export async function uploadLoggedTrip(
   const track = prepareTrack(parsed.samples);
   const travelledM = track.odometer[track.odometer.length - 1]!;
   if (travelledM < 100) {
-    throw new LoggedTripFileError('trip_too_short', { file: fileName, column: 'speed_mps' }, `the vehicle travels only ${travelledM.toFixed(0)} m by its logged speed; a trip must cover at least 100 m`);
+    throw new LoggedTripFileError(
+      'trip_too_short',
+      { file: fileName, column: 'speed_mps' },
+      `the vehicle travels only ${travelledM.toFixed(0)} m by its logged speed; a trip must cover at least 100 m`,
+    );
   }
 
   // The route: given, matched among the saved ones, or made from the track.
-  let route: { routeId: string | null; version: number | null; name: string; coordinates: number[][]; how: 'given' | 'matched' | 'created' };
+  let route: {
+    routeId: string | null;
+    version: number | null;
+    name: string;
+    coordinates: number[][];
+    how: 'given' | 'matched' | 'created';
+  };
   let match: LineMatch;
   if (fields.routeId) {
     const row = await routes.findRoute(db, fields.routeId);
@@ -102,15 +115,28 @@ export async function uploadLoggedTrip(
     let best: { candidate: (typeof candidates)[number]; match: LineMatch } | null = null;
     for (const candidate of candidates) {
       const candidateMatch = matchTrackToLine(track, candidate.coordinates);
-      if (follows(candidateMatch) && (!best || candidateMatch.p95OffsetM < best.match.p95OffsetM)) best = { candidate, match: candidateMatch };
+      if (follows(candidateMatch) && (!best || candidateMatch.p95OffsetM < best.match.p95OffsetM))
+        best = { candidate, match: candidateMatch };
     }
     if (best) {
       match = best.match;
-      route = { routeId: best.candidate.routeId, version: best.candidate.version, name: best.candidate.name, coordinates: best.candidate.coordinates, how: 'matched' };
+      route = {
+        routeId: best.candidate.routeId,
+        version: best.candidate.version,
+        name: best.candidate.name,
+        coordinates: best.candidate.coordinates,
+        how: 'matched',
+      };
     } else {
       const coordinates = routeFromTrack(track.filteredLon, track.filteredLat);
       match = matchTrackToLine(track, coordinates);
-      route = { routeId: null, version: null, name: `Logged route: ${fields.name ?? stripExtension(fileName)}`.slice(0, 120), coordinates, how: 'created' };
+      route = {
+        routeId: null,
+        version: null,
+        name: `Logged route: ${fields.name ?? stripExtension(fileName)}`.slice(0, 120),
+        coordinates,
+        how: 'created',
+      };
     }
   }
 
@@ -147,7 +173,12 @@ export async function uploadLoggedTrip(
       const created = await createRoute(tx, author, {
         name: route.name,
         description: `Made from the GPS track of the logged trip “${name}” (${fileName}); check it and add stops and speed limits before planning with it.`,
-        mode: profile.vehicleClass.includes('tram') || profile.vehicleClass.includes('rail') ? 'tram' : profile.vehicle.powerSource === 'overhead-line' ? 'trolleybus' : 'bus',
+        mode:
+          profile.vehicleClass.includes('tram') || profile.vehicleClass.includes('rail')
+            ? 'tram'
+            : profile.vehicle.powerSource === 'overhead-line'
+              ? 'trolleybus'
+              : 'bus',
         geometry: { type: 'LineString', coordinates: route.coordinates as [number, number][] },
         stops: [],
         speedLimits: [],
@@ -188,7 +219,13 @@ export async function uploadLoggedTrip(
       },
       columns: parsed.columns,
       ignoredColumns: parsed.ignoredColumns,
-      gps: { method: GPS_FILTER_METHOD, outliersRemoved: track.outliers, p95OffsetM: match.p95OffsetM, maxOffsetM: match.maxOffsetM, distanceScale: match.scale },
+      gps: {
+        method: GPS_FILTER_METHOD,
+        outliersRemoved: track.outliers,
+        p95OffsetM: match.p95OffsetM,
+        maxOffsetM: match.maxOffsetM,
+        distanceScale: match.scale,
+      },
       alignment,
       uploadedById: author.id,
       uploadedByName: author.name,
@@ -223,7 +260,11 @@ async function chooseElevations(
 ): Promise<{ elevationM: number[]; elevationSource: 'route' | 'terrain' | 'file' }> {
   const fromFile = () => {
     if (!aligned.fileElevationM) {
-      throw new LoggedTripFileError('missing_column', { file: fileName, row: 1, column: 'elevation_m' }, 'elevations from the file were asked for, but the file logs no elevation_m');
+      throw new LoggedTripFileError(
+        'missing_column',
+        { file: fileName, row: 1, column: 'elevation_m' },
+        'elevations from the file were asked for, but the file logs no elevation_m',
+      );
     }
     return { elevationM: aligned.fileElevationM, elevationSource: 'file' as const };
   };
@@ -239,11 +280,19 @@ async function chooseElevations(
       // The terrain does not cover the trip: fall back to the logged elevations when allowed.
       if (!(error instanceof EngineInputError)) throw error;
       if (requested === 'auto' && aligned.fileElevationM) return fromFile();
-      throw new BadRequestError(`No terrain model covers the trip's route and ${requested === 'auto' ? 'the file logs no elevation_m' : 'the route carries no elevations'}: ${error.message}`, { field: 'elevationSource' }, 'no_elevations');
+      throw new BadRequestError(
+        `No terrain model covers the trip's route and ${requested === 'auto' ? 'the file logs no elevation_m' : 'the route carries no elevations'}: ${error.message}`,
+        { field: 'elevationSource' },
+        'no_elevations',
+      );
     }
   }
   if (requested === 'auto' && aligned.fileElevationM) return fromFile();
-  throw new BadRequestError('The route carries no elevations, no terrain is available, and the file logs no elevation_m', { field: 'elevationSource' }, 'no_elevations');
+  throw new BadRequestError(
+    'The route carries no elevations, no terrain is available, and the file logs no elevation_m',
+    { field: 'elevationSource' },
+    'no_elevations',
+  );
 }
 
 function tripPayload(parsed: ParsedTrip, fields: LoggedTripUploadFields, profile: VehicleProfile) {
@@ -322,7 +371,9 @@ export async function compareLoggedTrip(deps: Pick<AppDeps, 'db'>, id: string, c
     const calibration = await findCalibration(deps.db, calibrationId);
     if (!calibration || calibration.vehicleProfileId !== row.vehicleProfileId) throw new NotFoundError('The calibration');
     if (!calibration.result) throw new ConflictError('The calibration has no result yet', 'calibration_not_done');
-    const fitted = Object.fromEntries([...calibration.result.parameters, ...(calibration.result.brake?.parameters ?? [])].map((p) => [p.key, p.fitted]));
+    const fitted = Object.fromEntries(
+      [...calibration.result.parameters, ...(calibration.result.brake?.parameters ?? [])].map((p) => [p.key, p.fitted]),
+    );
     vehicle = vehicleWithParameters(vehicle as Parameters<typeof vehicleWithParameters>[0], fitted, row.payloadKg !== null);
     basis = { kind: 'calibration', profileVersion: calibration.profileVersion, calibrationId };
   }

@@ -25,7 +25,10 @@ export function nearestSeason(profile: Pick<VehicleProfile, 'seasons'>, ambientC
  * The vehicle of a trip: the profile's parameters with the trip's payload (the profile's seated
  * load when the payload is unknown) and the auxiliary power of the season nearest its ambient.
  */
-export function tripVehicle(profile: Pick<VehicleProfile, 'vehicle' | 'loadsKg' | 'seasons'>, trip: Pick<LoggedTripRow, 'payloadKg' | 'ambientC'>): VehicleInput {
+export function tripVehicle(
+  profile: Pick<VehicleProfile, 'vehicle' | 'loadsKg' | 'seasons'>,
+  trip: Pick<LoggedTripRow, 'payloadKg' | 'ambientC'>,
+): VehicleInput {
   return {
     ...profile.vehicle,
     payloadKg: trip.payloadKg ?? profile.loadsKg.seated,
@@ -44,12 +47,18 @@ export function startBrakeTempC(alignment: LoggedTripAlignment): number | undefi
 }
 
 /** Runs the engine on the trip with `vehicle`. */
-export async function replayTrip(trip: Pick<LoggedTripRow, 'alignment' | 'ambientC' | 'startSoc'>, vehicle: VehicleInput | Vehicle): Promise<DetailedAnalysis> {
+export async function replayTrip(
+  trip: Pick<LoggedTripRow, 'alignment' | 'ambientC' | 'startSoc'>,
+  vehicle: VehicleInput | Vehicle,
+): Promise<DetailedAnalysis> {
   const { alignment } = trip;
   const initialBrakeTempC = startBrakeTempC(alignment);
   return analyseRouteDetailed(
     {
-      route: { type: 'LineString', coordinates: alignment.positions.map(([lon, lat], i) => [lon, lat, alignment.elevationM[i]!] as [number, number, number]) },
+      route: {
+        type: 'LineString',
+        coordinates: alignment.positions.map(([lon, lat], i) => [lon, lat, alignment.elevationM[i]!] as [number, number, number]),
+      },
       vehicle,
       conditions: {
         ...(trip.ambientC === null ? {} : { ambientC: trip.ambientC }),

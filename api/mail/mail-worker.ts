@@ -18,7 +18,9 @@ export const SMTP_TIMEOUTS_MS = { connection: 10_000, greeting: 10_000, socket: 
 /** Messages one worker claims at a time. */
 const CLAIM_BATCH = 20;
 
-export function createSmtpTransport(config: Pick<Config, 'SMTP_HOST' | 'SMTP_PORT' | 'SMTP_SECURE' | 'SMTP_USER' | 'SMTP_PASSWORD'>): Transporter {
+export function createSmtpTransport(
+  config: Pick<Config, 'SMTP_HOST' | 'SMTP_PORT' | 'SMTP_SECURE' | 'SMTP_USER' | 'SMTP_PASSWORD'>,
+): Transporter {
   return nodemailer.createTransport({
     host: config.SMTP_HOST,
     port: config.SMTP_PORT,
@@ -59,15 +61,24 @@ export async function deliverDueMail(db: Database, transport: Transporter, deliv
   for (const message of claim.messages) {
     if (!(await extendClaim(db, message.id, claim.token, claimS, true))) continue;
     const attempt = message.attempts + 1;
-    const renewal = setInterval(() => {
-      // A failed renewal (database gone) is retried at the next interval; the claim itself says
-      // whether this worker still holds the message when the outcome is recorded.
-      extendClaim(db, message.id, claim.token, claimS).catch(() => undefined);
-    }, (claimS * 1000) / 3);
+    const renewal = setInterval(
+      () => {
+        // A failed renewal (database gone) is retried at the next interval; the claim itself says
+        // whether this worker still holds the message when the outcome is recorded.
+        extendClaim(db, message.id, claim.token, claimS).catch(() => undefined);
+      },
+      (claimS * 1000) / 3,
+    );
     try {
       const text = await messageText(message, delivery.secret);
       if (text === null) {
-        await markAttemptFailed(db, message.id, claim.token, 'The link in this message could not be opened (SESSION_SECRET changed since it was queued); send a new one', null);
+        await markAttemptFailed(
+          db,
+          message.id,
+          claim.token,
+          'The link in this message could not be opened (SESSION_SECRET changed since it was queued); send a new one',
+          null,
+        );
         continue;
       }
       await transport.sendMail({ from: delivery.from, to: message.toAddress, subject: message.subject, text });

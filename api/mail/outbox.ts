@@ -55,7 +55,12 @@ export async function claimDueMail(db: Database, limit: number, claimS: number):
     await tx
       .update(mailOutbox)
       .set({ nextAttemptAt: sql`now() + make_interval(secs => ${claimS})`, claimToken: token })
-      .where(inArray(mailOutbox.id, due.map((row) => row.id)));
+      .where(
+        inArray(
+          mailOutbox.id,
+          due.map((row) => row.id),
+        ),
+      );
     return due;
   });
   return { token, messages };

@@ -17,8 +17,7 @@ export function buildOpenApiDocument(endpoints: readonly AnyEndpoint[]) {
   });
   for (const definition of endpoints) {
     const access = rolesFor(definition.access, ROLES);
-    const responses: Record<string, { description: string; content?: Record<string, { schema: z.ZodType }> }> =
-      {};
+    const responses: Record<string, { description: string; content?: Record<string, { schema: z.ZodType }> }> = {};
     for (const [status, answer] of Object.entries(definition.responses)) {
       responses[status] = {
         description: answer.description,

@@ -124,7 +124,11 @@ export class PdfLayout {
    * A table with wrapped cells. Column widths are shares of the full width; the header is
    * repeated on every page the table reaches. `rowColour` colours a whole row's text.
    */
-  table(columns: readonly Column[], rows: readonly (readonly string[])[], { size = 8, rowColour }: { size?: number; rowColour?: (row: number) => string | undefined } = {}): void {
+  table(
+    columns: readonly Column[],
+    rows: readonly (readonly string[])[],
+    { size = 8, rowColour }: { size?: number; rowColour?: (row: number) => string | undefined } = {},
+  ): void {
     const total = columns.reduce((sum, column) => sum + column.weight, 0);
     const widths = columns.map((column) => (column.weight / total) * this.width);
     const xs = widths.map((_, index) => this.left + widths.slice(0, index).reduce((sum, width) => sum + width, 0));
@@ -135,10 +139,20 @@ export class PdfLayout {
       const height = rowHeight(cells, bold);
       cells.forEach((cell, index) => {
         this.apply({ size, bold, colour });
-        this.doc.text(printable(cell), xs[index]! + padding, this.y + padding, { width: widths[index]! - 2 * padding, align: columns[index]!.align ?? 'left' });
+        this.doc.text(printable(cell), xs[index]! + padding, this.y + padding, {
+          width: widths[index]! - 2 * padding,
+          align: columns[index]!.align ?? 'left',
+        });
       });
       this.y += height;
-      this.doc.save().moveTo(this.left, this.y).lineTo(this.left + this.width, this.y).lineWidth(0.5).strokeColor(RULE).stroke().restore();
+      this.doc
+        .save()
+        .moveTo(this.left, this.y)
+        .lineTo(this.left + this.width, this.y)
+        .lineWidth(0.5)
+        .strokeColor(RULE)
+        .stroke()
+        .restore();
     };
     const header = columns.map((column) => column.header);
     const headerHeight = rowHeight(header, true);
@@ -195,6 +209,9 @@ export class PdfLayout {
 
   /** Applies a text style to the document. */
   apply({ size = 10, bold = false, colour = INK }: TextStyle): void {
-    this.doc.font(bold ? 'bold' : 'regular').fontSize(size).fillColor(colour);
+    this.doc
+      .font(bold ? 'bold' : 'regular')
+      .fontSize(size)
+      .fillColor(colour);
   }
 }

@@ -45,14 +45,25 @@ export function serviceDayReportPdf(day: ServiceDay, result: ServiceDayResult, r
     { size: 9, colour: MUTED },
     { gapAfter: 8 },
   );
-  page.cautionBox(result.caution && result.caution !== ENGINEERING_CAUTION ? `${ENGINEERING_CAUTION} ${result.caution}` : ENGINEERING_CAUTION);
-  if (day.isStale) page.paragraph(`Out of date: ${day.staleReasons.join(' ') || 'inputs changed after this run.'}`, { size: 9, bold: true, colour: FAILS });
+  page.cautionBox(
+    result.caution && result.caution !== ENGINEERING_CAUTION ? `${ENGINEERING_CAUTION} ${result.caution}` : ENGINEERING_CAUTION,
+  );
+  if (day.isStale)
+    page.paragraph(`Out of date: ${day.staleReasons.join(' ') || 'inputs changed after this run.'}`, {
+      size: 9,
+      bold: true,
+      colour: FAILS,
+    });
 
   const blocks = orderBlocks(result.blocks);
   const failing = blocks.filter((block) => !block.feasible);
   page.heading(failing.length === 0 ? 'Every block can be worked' : `${failing.length} of ${blocks.length} blocks cannot be worked`);
   for (const block of failing) {
-    page.paragraph(`Block ${block.blockId}: lowest SOC ${soc(block.minSoc)}, ends at ${soc(block.endSoc)}.`, { size: 9.5, bold: true, colour: FAILS }, { gapAfter: 1 });
+    page.paragraph(
+      `Block ${block.blockId}: lowest SOC ${soc(block.minSoc)}, ends at ${soc(block.endSoc)}.`,
+      { size: 9.5, bold: true, colour: FAILS },
+      { gapAfter: 1 },
+    );
     for (const problem of block.problems) page.paragraph(`• ${problem}`, { size: 9 }, { indent: 10, gapAfter: 1 });
     page.y += 3;
   }
@@ -70,7 +81,14 @@ export function serviceDayReportPdf(day: ServiceDay, result: ServiceDayResult, r
       { header: 'Charged into battery', weight: 1.3, align: 'right' },
       { header: 'Net trip energy', weight: 1.3, align: 'right' },
     ],
-    blocks.map((block) => [block.blockId, block.feasible ? 'Works' : 'Cannot be worked', soc(block.minSoc), soc(block.endSoc), energy(block.chargedEnergyWh), energy(block.tripNetEnergyWh)]),
+    blocks.map((block) => [
+      block.blockId,
+      block.feasible ? 'Works' : 'Cannot be worked',
+      soc(block.minSoc),
+      soc(block.endSoc),
+      energy(block.chargedEnergyWh),
+      energy(block.tripNetEnergyWh),
+    ]),
     { size: 8.5, rowColour: (row) => (blocks[row]!.feasible ? undefined : FAILS) },
   );
 
@@ -90,7 +108,9 @@ export function serviceDayReportPdf(day: ServiceDay, result: ServiceDayResult, r
       ],
       events.map(({ blockId, event }) => [
         blockId,
-        event.purpose === 'preconditioning' ? `${chargerName(event.chargerKey)} (${CHARGING_PURPOSE_LABELS.preconditioning.toLowerCase()})` : chargerName(event.chargerKey),
+        event.purpose === 'preconditioning'
+          ? `${chargerName(event.chargerKey)} (${CHARGING_PURPOSE_LABELS.preconditioning.toLowerCase()})`
+          : chargerName(event.chargerKey),
         `${formatServiceTime(event.startS)}–${formatServiceTime(event.endS)}`,
         energy(event.energyWh),
         energy(event.gridEnergyWh),
@@ -103,8 +123,13 @@ export function serviceDayReportPdf(day: ServiceDay, result: ServiceDayResult, r
   if (result.peakChargingPowerW.length === 0) page.paragraph('No charger was used.', { size: 9 });
   else {
     page.table(
-      [{ header: 'Charger', weight: 3 }, { header: 'Peak grid power', weight: 1, align: 'right' }],
-      [...result.peakChargingPowerW].sort((a, b) => b.powerW - a.powerW).map((peak) => [chargerName(peak.chargerKey), formatQuantity('power', peak.powerW, UNITS)]),
+      [
+        { header: 'Charger', weight: 3 },
+        { header: 'Peak grid power', weight: 1, align: 'right' },
+      ],
+      [...result.peakChargingPowerW]
+        .sort((a, b) => b.powerW - a.powerW)
+        .map((peak) => [chargerName(peak.chargerKey), formatQuantity('power', peak.powerW, UNITS)]),
     );
   }
 
@@ -179,20 +204,39 @@ function socChart(page: PdfLayout, result: ServiceDayResult, reserveSoc: number)
   doc.restore();
   result.blocks.forEach((block, index) => {
     if (block.socTrace.length < 2) return;
-    doc.save().lineWidth(1.2).strokeColor(BLOCK_COLOURS[index % BLOCK_COLOURS.length]!);
+    doc
+      .save()
+      .lineWidth(1.2)
+      .strokeColor(BLOCK_COLOURS[index % BLOCK_COLOURS.length]!);
     block.socTrace.forEach((point, i) => (i === 0 ? doc.moveTo(x(point.timeS), y(point.soc)) : doc.lineTo(x(point.timeS), y(point.soc))));
     doc.stroke().restore();
   });
-  doc.save().lineWidth(1).strokeColor(RESERVE_COLOUR).dash(4, { space: 3 }).moveTo(left, y(reserveSoc)).lineTo(right, y(reserveSoc)).stroke().undash().restore();
+  doc
+    .save()
+    .lineWidth(1)
+    .strokeColor(RESERVE_COLOUR)
+    .dash(4, { space: 3 })
+    .moveTo(left, y(reserveSoc))
+    .lineTo(right, y(reserveSoc))
+    .stroke()
+    .undash()
+    .restore();
   page.y = bottom + 18;
   // Legend: one entry per block, four to a row, and the reserve.
-  const entries = [...result.blocks.map((block, index) => ({ label: `Block ${block.blockId}`, colour: BLOCK_COLOURS[index % BLOCK_COLOURS.length]! })), { label: `Reserve ${Math.round(reserveSoc * 100)} %`, colour: RESERVE_COLOUR }];
+  const entries = [
+    ...result.blocks.map((block, index) => ({ label: `Block ${block.blockId}`, colour: BLOCK_COLOURS[index % BLOCK_COLOURS.length]! })),
+    { label: `Reserve ${Math.round(reserveSoc * 100)} %`, colour: RESERVE_COLOUR },
+  ];
   const columnWidth = page.width / 4;
   entries.forEach((entry, index) => {
     const column = index % 4;
     if (index > 0 && column === 0) page.y += 12;
     const ex = page.left + column * columnWidth;
-    doc.save().rect(ex, page.y + 3, 12, 3).fill(entry.colour).restore();
+    doc
+      .save()
+      .rect(ex, page.y + 3, 12, 3)
+      .fill(entry.colour)
+      .restore();
     page.apply({ size: 7.5, colour: INK });
     doc.text(entry.label, ex + 16, page.y, { width: columnWidth - 18, lineBreak: false, ellipsis: true });
   });

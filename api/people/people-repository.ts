@@ -8,7 +8,10 @@ export function listPeople(db: Executor) {
 }
 
 export async function insertPerson(db: Executor, person: { email: string; name: string; role: UserRow['role'] }) {
-  const [row] = await db.insert(users).values({ ...person, status: 'invited' }).returning();
+  const [row] = await db
+    .insert(users)
+    .values({ ...person, status: 'invited' })
+    .returning();
   return row!;
 }
 

@@ -18,7 +18,10 @@ import { sessionCacheFor } from '../auth/session-cache';
 /** Everyone with an account, with their sign-in slow-down if any. */
 export async function listPeople({ db }: AppDeps): Promise<Person[]> {
   const rows = await repository.listPeople(db);
-  const states = await accountSignInStates(db, rows.map((row) => row.email));
+  const states = await accountSignInStates(
+    db,
+    rows.map((row) => row.email),
+  );
   return rows.map((row) => repository.toPerson(row, states.get(row.email)));
 }
 

@@ -33,7 +33,10 @@ export function reviewLink(publicUrl: string, reviewId: string): string {
  * The descent in words and figures, as both e-mails show it: the same labels, units and safety
  * rounding as the screens and the PDF report (shared/presentation). Mail goes out in metric units.
  */
-export function describeDescent(item: Pick<ReviewItemRow, 'routeName' | 'direction' | 'vehicleProfileName' | 'scenarioName'>, descent: Descent): string[] {
+export function describeDescent(
+  item: Pick<ReviewItemRow, 'routeName' | 'direction' | 'vehicleProfileName' | 'scenarioName'>,
+  descent: Descent,
+): string[] {
   return [
     `Route: ${item.routeName} (${DIRECTION_LABELS[item.direction].toLowerCase()})`,
     `Vehicle profile: ${item.vehicleProfileName}; scenario: ${item.scenarioName}`,
@@ -55,7 +58,12 @@ async function safetyRecipients(tx: Executor) {
 }
 
 /** Tells every safety officer (who has not opted out) that a high or critical descent needs review. */
-export async function notifyHighRiskDescent(tx: Executor, publicUrl: string, item: ReviewItemRow, reason: 'new' | 'reopened'): Promise<void> {
+export async function notifyHighRiskDescent(
+  tx: Executor,
+  publicUrl: string,
+  item: ReviewItemRow,
+  reason: 'new' | 'reopened',
+): Promise<void> {
   const recipients = await safetyRecipients(tx);
   const headline =
     reason === 'new'

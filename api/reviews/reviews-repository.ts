@@ -46,7 +46,13 @@ export function listReviewEvents(db: Executor, reviewId: string): Promise<Review
 /** The stored result of the scenario the item shows, for the chart and the map. */
 export async function findScenarioResult(db: Executor, scenarioId: string) {
   const [row] = await db
-    .select({ id: scenarios.id, resultVersion: scenarios.resultVersion, summary: scenarios.summary, riskCounts: scenarios.riskCounts, directionResults: scenarios.directionResults })
+    .select({
+      id: scenarios.id,
+      resultVersion: scenarios.resultVersion,
+      summary: scenarios.summary,
+      riskCounts: scenarios.riskCounts,
+      directionResults: scenarios.directionResults,
+    })
     .from(scenarios)
     .where(eq(scenarios.id, scenarioId));
   return (row && readScenarioResult(row)?.directions) ?? null;

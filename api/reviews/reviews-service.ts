@@ -73,8 +73,7 @@ export async function transitionReview(
   nextState(before.state, request.action);
   if (request.action === 'mitigate' && !hasModelledMeasure(request.mitigation)) throw measureNotModelled();
   if (request.action === 'sign-off') assertSecondOfficer(before, actor);
-  const rerunOutcome =
-    request.action === 'mitigate' ? await mitigatedRerunOutcome(deps, before, request.mitigation, rerun) : undefined;
+  const rerunOutcome = request.action === 'mitigate' ? await mitigatedRerunOutcome(deps, before, request.mitigation, rerun) : undefined;
   if (rerunOutcome && riskRank(rerunOutcome.riskAfter) > riskRank(MITIGATED_RISK_CEILING)) {
     throw new UnprocessableError(
       `With this mitigation the re-run still gives ${rerunOutcome.riskAfter} risk; an item is mitigated only when the ` +
@@ -205,10 +204,7 @@ function measureNotModelled(): UnprocessableError {
 /** A risk acceptance needs two people: the proposer cannot sign it off. */
 function assertSecondOfficer(item: { acceptanceProposedById: string | null }, actor: User): void {
   if (item.acceptanceProposedById === actor.id) {
-    throw new ForbiddenError(
-      'You proposed this acceptance; a second safety officer must sign it off',
-      'second_officer_required',
-    );
+    throw new ForbiddenError('You proposed this acceptance; a second safety officer must sign it off', 'second_officer_required');
   }
 }
 
@@ -298,7 +294,10 @@ function describeMitigation(mitigation: Mitigation): string {
 }
 
 /** The descent's stretch of the stored profile (chart) and of the route line (map). */
-function sliceProfile(direction: DirectionResult, descent: Descent): { profile: ReviewProfileSlice; geometry: ReviewDetail['geometry'] } | null {
+function sliceProfile(
+  direction: DirectionResult,
+  descent: Descent,
+): { profile: ReviewProfileSlice; geometry: ReviewDetail['geometry'] } | null {
   const { profile } = direction;
   const indices: number[] = [];
   profile.distanceM.forEach((distanceM, index) => {

@@ -44,7 +44,13 @@ export const rerunWithMitigation: MitigatedRerun = async (deps, scenarioId, over
     startSoc: overrides.startSocCeiling === undefined ? row.startSoc : Math.min(row.startSoc, overrides.startSocCeiling),
     options: { ...row.options, ...(cap === undefined ? {} : { descentSpeedCapKph: cap }) },
   };
-  const outcome = await runScenario(routeVersion, profiles.toVehicleProfile(profileRow), settings, analyserOf(deps), await readSafetySettings(deps.db));
+  const outcome = await runScenario(
+    routeVersion,
+    profiles.toVehicleProfile(profileRow),
+    settings,
+    analyserOf(deps),
+    await readSafetySettings(deps.db),
+  );
   if (!outcome.ok) {
     throw new ConflictError(`The mitigated re-run could not be computed: ${outcome.failureReason}`, 'rerun_failed');
   }

@@ -134,7 +134,9 @@ async function splitIntoEdges(
 export async function rebuildOverlay(tx: Executor, base: { importId: string; schemaName: string } | null): Promise<number> {
   const baseId = base?.importId ?? null;
   await tx.execute(
-    base ? sql`DELETE FROM road_graph_overlay_edges WHERE base_import_id = ${baseId}` : sql`DELETE FROM road_graph_overlay_edges WHERE base_import_id IS NULL`,
+    base
+      ? sql`DELETE FROM road_graph_overlay_edges WHERE base_import_id = ${baseId}`
+      : sql`DELETE FROM road_graph_overlay_edges WHERE base_import_id IS NULL`,
   );
   await tx.execute(sql`
     CREATE TEMPORARY TABLE overlay_lines ON COMMIT DROP AS

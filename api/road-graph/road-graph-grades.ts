@@ -18,11 +18,19 @@ const BATCH_EDGES = 2_000;
 export type GradedEdges = { kind: 'imported'; schemaName: string } | { kind: 'overlay'; baseImportId: string | null };
 
 /** Samples the terrain for every edge of `target`; returns how many edges got elevations. */
-export async function sampleEdgeElevations(deps: AppDeps, target: GradedEdges, onProgress?: (fraction: number) => Promise<void> | void): Promise<number> {
+export async function sampleEdgeElevations(
+  deps: AppDeps,
+  target: GradedEdges,
+  onProgress?: (fraction: number) => Promise<void> | void,
+): Promise<number> {
   const table = target.kind === 'imported' ? sql`${schemaIdentifier(target.schemaName)}.graph_edges` : sql`road_graph_overlay_edges`;
   const geom = target.kind === 'imported' ? sql`geom` : sql`geometry`;
   const scope =
-    target.kind === 'imported' ? sql`true` : target.baseImportId ? sql`base_import_id = ${target.baseImportId}` : sql`base_import_id IS NULL`;
+    target.kind === 'imported'
+      ? sql`true`
+      : target.baseImportId
+        ? sql`base_import_id = ${target.baseImportId}`
+        : sql`base_import_id IS NULL`;
   const clear = sql`UPDATE ${table} SET elevation_start_m = NULL, elevation_end_m = NULL, ascent_m = NULL, descent_m = NULL WHERE ${scope}`;
   const sample = deps.sampleElevations;
   const models = sample ? (await terrainRuntimeFor(deps).readyCatalogue()).models : [];
@@ -37,7 +45,9 @@ export async function sampleEdgeElevations(deps: AppDeps, target: GradedEdges, o
   // Edges outside every model lose their elevations now; the others are overwritten batch by
   // batch, so paths read the old values rather than none while a re-sampling runs.
   await deps.db.execute(sql`${clear} AND NOT (${covered})`);
-  const [{ total } = { total: 0 }] = await deps.db.execute<{ total: number }>(sql`SELECT count(*)::int AS total FROM ${table} WHERE ${scope} AND (${covered})`);
+  const [{ total } = { total: 0 }] = await deps.db.execute<{ total: number }>(
+    sql`SELECT count(*)::int AS total FROM ${table} WHERE ${scope} AND (${covered})`,
+  );
   let lastId = -1;
   let done = 0;
   let graded = 0;
@@ -46,7 +56,10 @@ export async function sampleEdgeElevations(deps: AppDeps, target: GradedEdges, o
       SELECT id::float8 AS id, ST_AsGeoJSON(ST_Segmentize(${geom}::geography, ${GRADE_SPACING_M})::geometry, 7) AS geojson
       FROM ${table} WHERE ${scope} AND (${covered}) AND id > ${lastId} ORDER BY id LIMIT ${BATCH_EDGES}`);
     if (rows.length === 0) break;
-    const lines = [...rows].map((row) => ({ id: Number(row.id), coordinates: (JSON.parse(row.geojson) as { coordinates: [number, number][] }).coordinates }));
+    const lines = [...rows].map((row) => ({
+      id: Number(row.id),
+      coordinates: (JSON.parse(row.geojson) as { coordinates: [number, number][] }).coordinates,
+    }));
     const elevations = await sample(lines.flatMap((line) => line.coordinates));
     let offset = 0;
     const values: SQL[] = [];
@@ -54,7 +67,9 @@ export async function sampleEdgeElevations(deps: AppDeps, target: GradedEdges, o
       const along = elevations.slice(offset, offset + line.coordinates.length);
       offset += line.coordinates.length;
       const profile = edgeProfile(along);
-      values.push(sql`(${line.id}::bigint, ${profile?.startM ?? null}::float8, ${profile?.endM ?? null}::float8, ${profile?.ascentM ?? null}::float8, ${profile?.descentM ?? null}::float8)`);
+      values.push(
+        sql`(${line.id}::bigint, ${profile?.startM ?? null}::float8, ${profile?.endM ?? null}::float8, ${profile?.ascentM ?? null}::float8, ${profile?.descentM ?? null}::float8)`,
+      );
       if (profile) graded++;
     }
     await deps.db.execute(sql`
@@ -68,7 +83,9 @@ export async function sampleEdgeElevations(deps: AppDeps, target: GradedEdges, o
 }
 
 /** Elevations at both ends and the summed rises and falls between samples; null when any sample has no terrain. */
-export function edgeProfile(elevationsM: readonly (number | null)[]): { startM: number; endM: number; ascentM: number; descentM: number } | null {
+export function edgeProfile(
+  elevationsM: readonly (number | null)[],
+): { startM: number; endM: number; ascentM: number; descentM: number } | null {
   if (elevationsM.length < 2 || elevationsM.some((value) => value === null)) return null;
   const values = elevationsM as number[];
   let ascentM = 0;

@@ -117,7 +117,9 @@ async function graphHasEdges(db: Database, base: ActiveBasemap | null): Promise<
   );
   if (overlay[0]?.found) return true;
   if (!base) return false;
-  const imported = await db.execute<{ found: boolean }>(sql`SELECT EXISTS (SELECT 1 FROM ${schemaIdentifier(base.schemaName)}.graph_edges) AS found`);
+  const imported = await db.execute<{ found: boolean }>(
+    sql`SELECT EXISTS (SELECT 1 FROM ${schemaIdentifier(base.schemaName)}.graph_edges) AS found`,
+  );
   return imported[0]?.found ?? false;
 }
 
@@ -208,12 +210,16 @@ async function legWithin(
     points.length > 0
       ? sql`SELECT path_seq, node, edge FROM pgr_withPoints(${edgesText}, ${`SELECT * FROM (VALUES ${points.join(', ')}) AS p(pid, edge_id, fraction, side)`}, ${startNode}::bigint, ${endNode}::bigint, directed => true, driving_side => 'b', details => false)`
       : sql`SELECT path_seq, node, edge FROM pgr_dijkstra(${edgesText}, ${startNode}::bigint, ${endNode}::bigint, directed => true)`;
-  const route = [...(await db.execute<{ path_seq: number; node: string; edge: string }>(
-    sql`SELECT path_seq, node::text AS node, edge::text AS edge FROM (${routeSql}) r ORDER BY path_seq`,
-  ))];
+  const route = [
+    ...(await db.execute<{ path_seq: number; node: string; edge: string }>(
+      sql`SELECT path_seq, node::text AS node, edge::text AS edge FROM (${routeSql}) r ORDER BY path_seq`,
+    )),
+  ];
   if (route.length === 0) return null;
   const edgeIds = route.map((step) => step.edge).filter((edge) => !edge.startsWith('-'));
-  const steps = route.map((step, i) => sql`(${step.path_seq}::int, ${step.node}::bigint, ${step.edge}::bigint, ${route[i + 1]?.node ?? null}::bigint)`);
+  const steps = route.map(
+    (step, i) => sql`(${step.path_seq}::int, ${step.node}::bigint, ${step.edge}::bigint, ${route[i + 1]?.node ?? null}::bigint)`,
+  );
   const rows = await db.execute<{ geojson: string; length_m: number; ascent_m: number | null; descent_m: number | null }>(sql`
     WITH steps(path_seq, node, edge, next_node) AS (VALUES ${sql.join(steps, sql`, `)}),
     edges AS (

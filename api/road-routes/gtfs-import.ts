@@ -152,7 +152,10 @@ export async function gtfsToDrafts(fileName: string, data: Buffer): Promise<{ dr
     });
     const missingShape = [...shapeFirstUse].filter(([id]) => !shapeIds.has(id)).sort((a, b) => a[1] - b[1])[0];
     if (missingShape) {
-      throw new ImportError({ file: 'trips.txt', line: missingShape[1], field: 'shape_id' }, `shape "${missingShape[0]}" is not in shapes.txt`);
+      throw new ImportError(
+        { file: 'trips.txt', line: missingShape[1], field: 'shape_id' },
+        `shape "${missingShape[0]}" is not in shapes.txt`,
+      );
     }
 
     // stop_times.txt: every row checked, only the chosen trips' stop times kept.
@@ -196,11 +199,13 @@ export async function gtfsToDrafts(fileName: string, data: Buffer): Promise<{ dr
     for (const [routeId, tally] of tallies) {
       const { shapeId, tripId, line } = chosen.get(routeId)!;
       const points = [...(shapePoints.get(shapeId) ?? [])].sort((a, b) => a.sequence - b.sequence);
-      if (points.length < 2) throw new ImportError({ file: 'shapes.txt', field: 'shape_id' }, `shape "${shapeId}" has fewer than two points`);
+      if (points.length < 2)
+        throw new ImportError({ file: 'shapes.txt', field: 'shape_id' }, `shape "${shapeId}" has fewer than two points`);
       const times = [...(timesByTrip.get(tripId) ?? [])].sort((a, b) => a.sequence - b.sequence);
       const stops = times.map((time) => {
         const stop = stopPositions.get(time.stopId);
-        if (!stop) throw new ImportError({ file: 'stop_times.txt', line: time.line, field: 'stop_id' }, `stop "${time.stopId}" is not in stops.txt`);
+        if (!stop)
+          throw new ImportError({ file: 'stop_times.txt', line: time.line, field: 'stop_id' }, `stop "${time.stopId}" is not in stops.txt`);
         return { name: stop.name.slice(0, 120), lon: stop.lon, lat: stop.lat, dwellS: time.dwellS };
       });
 
@@ -273,11 +278,23 @@ async function openFeed(fileName: string, data: Buffer): Promise<OpenFeed> {
           declaredTotal += entry.uncompressedSize;
           const base = name.slice(name.lastIndexOf('/') + 1);
           if (entry.uncompressedSize > GTFS_LIMITS.maxEntryBytes) {
-            reject(new FeedTooLargeError(name, `unpacks to ${formatMiB(entry.uncompressedSize)}`, `${formatMiB(GTFS_LIMITS.maxEntryBytes)} per file`));
+            reject(
+              new FeedTooLargeError(
+                name,
+                `unpacks to ${formatMiB(entry.uncompressedSize)}`,
+                `${formatMiB(GTFS_LIMITS.maxEntryBytes)} per file`,
+              ),
+            );
             return;
           }
           if (declaredTotal > GTFS_LIMITS.maxTotalBytes) {
-            reject(new FeedTooLargeError(fileName, `its files unpack to more than ${formatMiB(GTFS_LIMITS.maxTotalBytes)}`, `${formatMiB(GTFS_LIMITS.maxTotalBytes)} in all`));
+            reject(
+              new FeedTooLargeError(
+                fileName,
+                `its files unpack to more than ${formatMiB(GTFS_LIMITS.maxTotalBytes)}`,
+                `${formatMiB(GTFS_LIMITS.maxTotalBytes)} in all`,
+              ),
+            );
             return;
           }
           // A file at the top of the archive wins over one of the same name in a folder.
@@ -337,7 +354,13 @@ function parseRows(
     input.on('data', (chunk: Buffer) => {
       bytes += chunk.length;
       if (bytes > GTFS_LIMITS.maxEntryBytes) {
-        fail(new FeedTooLargeError(file, `unpacks to more than ${formatMiB(GTFS_LIMITS.maxEntryBytes)}`, `${formatMiB(GTFS_LIMITS.maxEntryBytes)} per file`));
+        fail(
+          new FeedTooLargeError(
+            file,
+            `unpacks to more than ${formatMiB(GTFS_LIMITS.maxEntryBytes)}`,
+            `${formatMiB(GTFS_LIMITS.maxEntryBytes)} per file`,
+          ),
+        );
       }
     });
     input.once('error', (error) => fail(new ImportError({ file }, `could not be unpacked (${error.message})`)));
@@ -352,14 +375,16 @@ function parseRows(
             headerChecked = true;
             const header = results.meta.fields ?? [];
             for (const column of columns) {
-              if (!header.includes(column)) throw new ImportError({ file, line: 1, field: column }, `required column "${column}" is missing`);
+              if (!header.includes(column))
+                throw new ImportError({ file, line: 1, field: column }, `required column "${column}" is missing`);
             }
           }
           rows++;
           const line = rows + 1;
           const problem = results.errors[0];
           if (problem) throw new ImportError({ file, line }, problem.message);
-          if (rows > maxRows) throw new FeedTooLargeError(file, `has more than ${maxRows.toLocaleString('en')} rows`, `${maxRows.toLocaleString('en')} rows`);
+          if (rows > maxRows)
+            throw new FeedTooLargeError(file, `has more than ${maxRows.toLocaleString('en')} rows`, `${maxRows.toLocaleString('en')} rows`);
           onRow(results.data, line, file);
         } catch (error) {
           fail(error, parser);
@@ -403,7 +428,10 @@ function clockS(file: string, row: Row, column: string, line: number): number | 
 
 /** The name the import gives a GTFS route: "short – long" name, either alone, or empty. */
 function gtfsRouteName(route: Row | undefined): string {
-  return [route?.['route_short_name'], route?.['route_long_name']].map((part) => (part ?? '').trim()).filter(Boolean).join(' – ');
+  return [route?.['route_short_name'], route?.['route_long_name']]
+    .map((part) => (part ?? '').trim())
+    .filter(Boolean)
+    .join(' – ');
 }
 
 /** One trip of a GTFS block: what a service day's block needs from trips.txt and stop_times.txt. */
@@ -478,7 +506,10 @@ export async function gtfsBlockTrips(
     });
     for (const trip of trips.values()) {
       if (!Number.isFinite(trip.departureS) || !Number.isFinite(trip.arrivalS)) {
-        throw new ImportError({ file: 'stop_times.txt', field: 'departure_time' }, `trip "${trip.tripId}" (trips.txt line ${trip.line}) has no timed stop`);
+        throw new ImportError(
+          { file: 'stop_times.txt', field: 'departure_time' },
+          `trip "${trip.tripId}" (trips.txt line ${trip.line}) has no timed stop`,
+        );
       }
     }
     // routes.txt (optional): the names of the blocks' routes, as the route import names them.
@@ -498,7 +529,10 @@ export async function gtfsBlockTrips(
 }
 
 /** Each service_id of trips.txt, in order of first appearance, with its trips, trips with a block_id and blocks. */
-export async function gtfsServices(fileName: string, data: Buffer): Promise<{ serviceId: string; trips: number; tripsWithBlock: number; blocks: number }[]> {
+export async function gtfsServices(
+  fileName: string,
+  data: Buffer,
+): Promise<{ serviceId: string; trips: number; tripsWithBlock: number; blocks: number }[]> {
   const feed = await openFeed(fileName, data);
   try {
     if (!feed.entries.has('trips.txt')) throw new ImportError({ file: `${fileName}/trips.txt` }, 'missing from the feed');
@@ -514,7 +548,12 @@ export async function gtfsServices(fileName: string, data: Buffer): Promise<{ se
       }
       services.set(serviceId, service);
     });
-    return [...services.entries()].map(([serviceId, service]) => ({ serviceId, trips: service.trips, tripsWithBlock: service.tripsWithBlock, blocks: service.blocks.size }));
+    return [...services.entries()].map(([serviceId, service]) => ({
+      serviceId,
+      trips: service.trips,
+      tripsWithBlock: service.tripsWithBlock,
+      blocks: service.blocks.size,
+    }));
   } finally {
     feed.close();
   }

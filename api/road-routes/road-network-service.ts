@@ -45,7 +45,8 @@ export function parseRoadNetwork(document: unknown, fileName?: string): ParsedLi
       fail(field, 'must be a GeoJSON Feature', index);
     }
     const { geometry, properties } = feature as { geometry?: { type?: unknown; coordinates?: unknown }; properties?: unknown };
-    const props = typeof properties === 'object' && properties !== null && !Array.isArray(properties) ? (properties as Record<string, unknown>) : {};
+    const props =
+      typeof properties === 'object' && properties !== null && !Array.isArray(properties) ? (properties as Record<string, unknown>) : {};
     if (!geometry || typeof geometry !== 'object') return fail(`${field}.geometry`, 'is missing', index);
     let parts: unknown[];
     if (geometry.type === 'LineString') parts = [geometry.coordinates];
@@ -91,7 +92,12 @@ export async function replaceRoadNetwork(deps: AppDeps, uploadedById: string | n
 
 export async function getRoadNetwork(db: Database): Promise<RoadNetwork> {
   const rows = await db
-    .select({ featureIndex: roadNetworkLines.featureIndex, partIndex: roadNetworkLines.partIndex, properties: roadNetworkLines.properties, coordinates: roadNetworkLines.coordinates })
+    .select({
+      featureIndex: roadNetworkLines.featureIndex,
+      partIndex: roadNetworkLines.partIndex,
+      properties: roadNetworkLines.properties,
+      coordinates: roadNetworkLines.coordinates,
+    })
     .from(roadNetworkLines)
     .orderBy(asc(roadNetworkLines.featureIndex), asc(roadNetworkLines.partIndex));
   return {

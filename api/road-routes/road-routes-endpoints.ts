@@ -171,7 +171,10 @@ export function roadRouteEndpoints(deps: AppDeps) {
       tag: TAG,
       access: rolesWith('routes.edit'),
       params: routeIdParamsSchema,
-      responses: { 200: { description: 'The route, back', schema: roadRouteSchema }, 404: { description: 'No deleted route with that id' } },
+      responses: {
+        200: { description: 'The route, back', schema: roadRouteSchema },
+        404: { description: 'No deleted route with that id' },
+      },
       handler: async ({ params, user, res }) => {
         res.json(await service.restoreRoute(deps.db, authorOf(user!), params.routeId));
       },
@@ -225,7 +228,8 @@ export function roadRouteEndpoints(deps: AppDeps) {
     endpoint({
       method: 'post',
       path: '/api/road-network',
-      summary: 'Replace the reference road network (GeoJSON FeatureCollection of LineString/MultiLineString roads, as JSON or multipart file)',
+      summary:
+        'Replace the reference road network (GeoJSON FeatureCollection of LineString/MultiLineString roads, as JSON or multipart file)',
       tag: TAG,
       access: rolesWith('road-network.upload'),
       heavy: true,
@@ -244,7 +248,9 @@ export function roadRouteEndpoints(deps: AppDeps) {
             document = JSON.parse(req.file.buffer.toString('utf8').replace(/^\uFEFF/, ''));
           } catch (error) {
             // A malformed upload is the analyst's to fix; say so instead of failing the server.
-            throw new BadRequestError(`${fileName}: not valid JSON (${error instanceof Error ? error.message : String(error)})`, { file: fileName });
+            throw new BadRequestError(`${fileName}: not valid JSON (${error instanceof Error ? error.message : String(error)})`, {
+              file: fileName,
+            });
           }
         }
         const lines = parseRoadNetwork(document, fileName);
@@ -265,14 +271,18 @@ export function roadRouteEndpoints(deps: AppDeps) {
     endpoint({
       method: 'post',
       path: '/api/road-network/path',
-      summary: 'Shortest path a bus may drive from one point through optional via points to another, along the imported roads and the reference network (to snap a route)',
+      summary:
+        'Shortest path a bus may drive from one point through optional via points to another, along the imported roads and the reference network (to snap a route)',
       tag: TAG,
       access: 'signed-in',
       body: roadNetworkPathRequestSchema,
       responses: {
         200: { description: 'The path', schema: roadNetworkPathSchema },
         404: { description: 'No road network: no extract imported and no reference network uploaded' },
-        422: { description: 'A point is farther than the limit from any road a bus may use (`too_far_from_road`), or no path joins two points (`no_path`); details name the point' },
+        422: {
+          description:
+            'A point is farther than the limit from any road a bus may use (`too_far_from_road`), or no path joins two points (`no_path`); details name the point',
+        },
       },
       handler: async ({ body, res }) => {
         res.json(await findRoadPath(deps.db, body));
@@ -280,4 +290,3 @@ export function roadRouteEndpoints(deps: AppDeps) {
     }),
   ];
 }
-

@@ -28,10 +28,18 @@ export type RouteVersion = Omit<RoadRouteVersionRow, 'geometry'>;
 
 export type NewRouteVersion = Omit<RouteVersion, 'id' | 'createdAt' | 'routeId' | 'version'>;
 
-export async function insertRoute(db: Executor, values: { createdById: string | null; seedKey?: string | null; importSha256?: string | null }) {
+export async function insertRoute(
+  db: Executor,
+  values: { createdById: string | null; seedKey?: string | null; importSha256?: string | null },
+) {
   const [row] = await db
     .insert(roadRoutes)
-    .values({ createdById: values.createdById, seedKey: values.seedKey ?? null, importSha256: values.importSha256 ?? null, currentVersion: 1 })
+    .values({
+      createdById: values.createdById,
+      seedKey: values.seedKey ?? null,
+      importSha256: values.importSha256 ?? null,
+      currentVersion: 1,
+    })
     .returning();
   return row!;
 }
@@ -41,7 +49,10 @@ export async function findRouteByImportSha256(db: Executor, importSha256: string
   const [row] = await db
     .select({ id: roadRoutes.id, name: roadRouteVersions.name })
     .from(roadRoutes)
-    .innerJoin(roadRouteVersions, and(eq(roadRouteVersions.routeId, roadRoutes.id), eq(roadRouteVersions.version, roadRoutes.currentVersion)))
+    .innerJoin(
+      roadRouteVersions,
+      and(eq(roadRouteVersions.routeId, roadRoutes.id), eq(roadRouteVersions.version, roadRoutes.currentVersion)),
+    )
     .where(eq(roadRoutes.importSha256, importSha256));
   return row;
 }
@@ -74,7 +85,10 @@ export async function setCurrentVersion(db: Executor, routeId: string, version: 
 
 /** The route unless it is deleted. */
 export async function findRoute(db: Executor, routeId: string) {
-  const [row] = await db.select().from(roadRoutes).where(and(eq(roadRoutes.id, routeId), isNull(roadRoutes.deletedAt)));
+  const [row] = await db
+    .select()
+    .from(roadRoutes)
+    .where(and(eq(roadRoutes.id, routeId), isNull(roadRoutes.deletedAt)));
   return row;
 }
 

@@ -59,21 +59,41 @@ export async function createRoute(db: Executor, author: Author, draft: RoadRoute
   const run = async (tx: Executor) => {
     const route = await repository.insertRoute(tx, { createdById: author.id, seedKey });
     const version = await repository.insertVersion(tx, route.id, 1, content);
-    await recordAudit(tx, author, { action: 'create', kind: 'route', entityId: route.id, entityName: content.name, details: { version: 1 } });
+    await recordAudit(tx, author, {
+      action: 'create',
+      kind: 'route',
+      entityId: route.id,
+      entityName: content.name,
+      details: { version: 1 },
+    });
     return repository.toRoadRoute(version, route.updatedAt);
   };
   return (db as Database).transaction(run);
 }
 
 /** Creates several routes at once: all or none. `importSha256` marks a single route imported from a file. */
-export async function createRoutes(db: Database, author: Author, drafts: RoadRouteDraft[], { importSha256 }: { importSha256?: string } = {}): Promise<RoadRoute[]> {
+export async function createRoutes(
+  db: Database,
+  author: Author,
+  drafts: RoadRouteDraft[],
+  { importSha256 }: { importSha256?: string } = {},
+): Promise<RoadRoute[]> {
   const contents = drafts.map((draft) => prepareVersion(draft, author));
   return db.transaction(async (tx) => {
     const saved: RoadRoute[] = [];
     for (const content of contents) {
-      const route = await repository.insertRoute(tx, { createdById: author.id, importSha256: drafts.length === 1 ? importSha256 : undefined });
+      const route = await repository.insertRoute(tx, {
+        createdById: author.id,
+        importSha256: drafts.length === 1 ? importSha256 : undefined,
+      });
       const version = await repository.insertVersion(tx, route.id, 1, content);
-      await recordAudit(tx, author, { action: 'create', kind: 'route', entityId: route.id, entityName: content.name, details: { version: 1, imported: true } });
+      await recordAudit(tx, author, {
+        action: 'create',
+        kind: 'route',
+        entityId: route.id,
+        entityName: content.name,
+        details: { version: 1, imported: true },
+      });
       saved.push(repository.toRoadRoute(version, route.updatedAt));
     }
     return saved;
@@ -89,7 +109,13 @@ export async function saveVersion(db: Database, author: Author, routeId: string,
     const next = route.currentVersion + 1;
     const version = await repository.insertVersion(tx, routeId, next, content);
     await repository.setCurrentVersion(tx, routeId, next);
-    await recordAudit(tx, author, { action: 'update', kind: 'route', entityId: routeId, entityName: content.name, details: { version: next } });
+    await recordAudit(tx, author, {
+      action: 'update',
+      kind: 'route',
+      entityId: routeId,
+      entityName: content.name,
+      details: { version: next },
+    });
     return repository.toRoadRoute(version);
   });
 }

@@ -64,7 +64,10 @@ export function geoJsonToDraft(fileName: string, text: string): RoadRouteDraftIn
     // Malformed JSON is the uploader's to fix: say where it broke.
     const message = error instanceof Error ? error.message : String(error);
     const position = /position (\d+)/.exec(message);
-    throw new ImportError({ file: fileName, line: position ? lineAt(text, Number(position[1])) : undefined }, `not valid JSON (${message})`);
+    throw new ImportError(
+      { file: fileName, line: position ? lineAt(text, Number(position[1])) : undefined },
+      `not valid JSON (${message})`,
+    );
   }
   if (!isObject(document)) throw new ImportError({ file: fileName }, 'expected a GeoJSON object');
 
@@ -96,7 +99,10 @@ export function geoJsonToDraft(fileName: string, text: string): RoadRouteDraftIn
   } else if (document['type'] === 'LineString' || document['type'] === 'MultiLineString') {
     take({ geometry: document, properties: {} }, 'geometry');
   } else {
-    throw new ImportError({ file: fileName, field: 'type' }, `expected Feature, FeatureCollection or LineString, got ${String(document['type'])}`);
+    throw new ImportError(
+      { file: fileName, field: 'type' },
+      `expected Feature, FeatureCollection or LineString, got ${String(document['type'])}`,
+    );
   }
   if (!lineFeature) throw new ImportError({ file: fileName }, 'no LineString feature: nothing to import as a route');
 
@@ -104,7 +110,10 @@ export function geoJsonToDraft(fileName: string, text: string): RoadRouteDraftIn
   if (geometryInput['type'] === 'MultiLineString') {
     const parts = geometryInput['coordinates'];
     if (!Array.isArray(parts) || parts.length !== 1) {
-      throw new ImportError({ file: fileName, field: `${lineFeature.field}.geometry.coordinates` }, 'a MultiLineString route must have exactly one part');
+      throw new ImportError(
+        { file: fileName, field: `${lineFeature.field}.geometry.coordinates` },
+        'a MultiLineString route must have exactly one part',
+      );
     }
     geometryInput = { type: 'LineString', coordinates: parts[0] };
   }
@@ -116,14 +125,18 @@ export function geoJsonToDraft(fileName: string, text: string): RoadRouteDraftIn
   const settings = settingsSchema.safeParse(lineFeature.properties);
   if (!settings.success) {
     const issue = settings.error.issues[0]!;
-    throw new ImportError({ file: fileName, field: [`${lineFeature.field}.properties`, ...issue.path.map(String)].join('.') }, issue.message);
+    throw new ImportError(
+      { file: fileName, field: [`${lineFeature.field}.properties`, ...issue.path.map(String)].join('.') },
+      issue.message,
+    );
   }
 
   // Stops: the properties' own FeatureCollection (our export), then any Point features.
   const nested = lineFeature.properties['stops'];
   if (isObject(nested) && Array.isArray(nested['features'])) {
     nested['features'].forEach((feature: unknown, index: number) => {
-      if (!isObject(feature)) throw new ImportError({ file: fileName, field: `${lineFeature!.field}.properties.stops.features.${index}` }, 'must be a Feature');
+      if (!isObject(feature))
+        throw new ImportError({ file: fileName, field: `${lineFeature!.field}.properties.stops.features.${index}` }, 'must be a Feature');
       pointFeatures.push({ feature, field: `${lineFeature!.field}.properties.stops.features.${index}` });
     });
   }
@@ -153,7 +166,10 @@ export function geoJsonToDraft(fileName: string, text: string): RoadRouteDraftIn
 }
 
 export function baseName(fileName: string): string {
-  const name = fileName.replace(/^.*[\\/]/, '').replace(/\.[^.]+$/, '').trim();
+  const name = fileName
+    .replace(/^.*[\\/]/, '')
+    .replace(/\.[^.]+$/, '')
+    .trim();
   return (name || 'Imported route').slice(0, 120);
 }
 

@@ -6,13 +6,7 @@
  */
 import type { LineString } from '@shared/domain/analysis';
 import { STOP_MAX_OFFSET_M, type RouteSpeedLimit, type RouteStop } from '@shared/domain/road-routes';
-import {
-  clipRanges,
-  lineLengthM,
-  placeStops as placeStopsOnLine,
-  StopOffLineError,
-  vertexDistancesM,
-} from '@shared/geometry/route-line';
+import { clipRanges, lineLengthM, placeStops as placeStopsOnLine, StopOffLineError, vertexDistancesM } from '@shared/geometry/route-line';
 
 export { lineLengthM, StopOffLineError, vertexDistancesM };
 

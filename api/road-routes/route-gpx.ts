@@ -76,7 +76,8 @@ export function gpxToDraft(fileName: string, text: string): RoadRouteDraftInput 
     throw new ImportError({ file: fileName }, 'no <trk> or <rte>: nothing to import as a route');
   }
   const positions = points.map((point) => readPosition(fileName, point));
-  if (positions.length < 2) throw new ImportError({ file: fileName, line: lineOf(lineElement) }, `<${lineElement.localName}> needs at least two points`);
+  if (positions.length < 2)
+    throw new ImportError({ file: fileName, line: lineOf(lineElement) }, `<${lineElement.localName}> needs at least two points`);
   const withElevation = positions.every((position) => position.length === 3);
   const coordinates = positions.map(([lon, lat, ele]) =>
     withElevation ? ([lon!, lat!, ele!] as [number, number, number]) : ([lon!, lat!] as [number, number]),
@@ -84,15 +85,21 @@ export function gpxToDraft(fileName: string, text: string): RoadRouteDraftInput 
 
   // togeojson reads the line the same way (and keeps GPX-specific details such as times out).
   const collection = gpxToGeoJson(document as unknown as Document);
-  const feature = collection.features.find((candidate) => candidate.geometry?.type === 'LineString' || candidate.geometry?.type === 'MultiLineString');
-  const name = textOf(lineElement, 'name') ?? textOf(elements(root, 'metadata')[0], 'name') ?? (feature?.properties?.['name'] as string | undefined);
+  const feature = collection.features.find(
+    (candidate) => candidate.geometry?.type === 'LineString' || candidate.geometry?.type === 'MultiLineString',
+  );
+  const name =
+    textOf(lineElement, 'name') ?? textOf(elements(root, 'metadata')[0], 'name') ?? (feature?.properties?.['name'] as string | undefined);
 
   const stops = elements(root, 'wpt').map((waypoint, index) => {
     const [lon, lat] = readPosition(fileName, waypoint);
     const dwellText = elements(waypoint, 'dwellS')[0]?.textContent?.trim();
     const dwellS = dwellText === undefined ? 20 : Number(dwellText);
     if (!Number.isFinite(dwellS) || dwellS < 0 || dwellS > 3_600) {
-      throw new ImportError({ file: fileName, line: lineOf(waypoint), field: 'wpt.extensions.dwellS' }, `dwell must be 0–3600 s, got "${dwellText}"`);
+      throw new ImportError(
+        { file: fileName, line: lineOf(waypoint), field: 'wpt.extensions.dwellS' },
+        `dwell must be 0–3600 s, got "${dwellText}"`,
+      );
     }
     return { name: (textOf(waypoint, 'name') ?? `Stop ${index + 1}`).slice(0, 120), lon: lon!, lat: lat!, dwellS };
   });

@@ -45,7 +45,10 @@ export async function importRouteFile(
   const fileHasElevations = draftInput.geometry.coordinates.every((position) => position.length >= 3);
   const elevationSource = elevations === 'file' && fileHasElevations ? 'file' : 'terrain';
   if (elevationSource === 'terrain' && fileHasElevations) {
-    draftInput = { ...draftInput, geometry: { type: 'LineString', coordinates: draftInput.geometry.coordinates.map(([lon, lat]) => [lon!, lat!]) } };
+    draftInput = {
+      ...draftInput,
+      geometry: { type: 'LineString', coordinates: draftInput.geometry.coordinates.map(([lon, lat]) => [lon!, lat!]) },
+    };
   }
   const draft = checkDraft(fileName, draftInput);
   try {

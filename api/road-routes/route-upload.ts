@@ -21,16 +21,19 @@ const upload = multer({
  */
 export function singleFileUpload(): RequestHandler[] {
   const middleware = upload.single('file');
-  return [limit.precheck, (req, res, next) => {
-    middleware(req, res, (error: unknown) => {
-      if (!error) return next();
-      if (error instanceof multer.MulterError) {
-        if (error.code === 'LIMIT_FILE_SIZE') return next(tooLarge());
-        return next(new BadRequestError(`Upload refused: ${error.message}${error.field ? ` (field ${error.field})` : ''}`));
-      }
-      next(error);
-    });
-  }];
+  return [
+    limit.precheck,
+    (req, res, next) => {
+      middleware(req, res, (error: unknown) => {
+        if (!error) return next();
+        if (error instanceof multer.MulterError) {
+          if (error.code === 'LIMIT_FILE_SIZE') return next(tooLarge());
+          return next(new BadRequestError(`Upload refused: ${error.message}${error.field ? ` (field ${error.field})` : ''}`));
+        }
+        next(error);
+      });
+    },
+  ];
 }
 
 /** The uploaded file, or a 400 naming the missing field. */

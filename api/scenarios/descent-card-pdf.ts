@@ -89,12 +89,18 @@ function descentCard(page: PdfLayout, context: DescentCardContext, { direction, 
   page.heading('Advice under the worst credible case', 11, { gapBefore: 0 });
   page.keyValues(
     [
-      ['Descent', `drop ${formatQuantity('elevation', descent.dropM, UNITS)}, mean grade ${formatQuantity('grade', Math.abs(descent.meanGradePercent), UNITS)} down, steepest ${formatQuantity('grade', Math.abs(descent.maxGradePercent), UNITS)}`],
+      [
+        'Descent',
+        `drop ${formatQuantity('elevation', descent.dropM, UNITS)}, mean grade ${formatQuantity('grade', Math.abs(descent.meanGradePercent), UNITS)} down, steepest ${formatQuantity('grade', Math.abs(descent.maxGradePercent), UNITS)}`,
+      ],
       ['Risk', `${RISK_LABELS[descent.risk]} (worst case); fade threshold ${formatTemperatureLimit(descent.fadeThresholdC, UNITS)}`],
       ['Advised speed', speedLine(worst?.speedAdvice ?? descent.speedAdvice, worst?.maxSafeSpeedKph ?? descent.maxSafeSpeedKph)],
       ['Retarder and regeneration', retarderLine(context.retarderType, worst?.conditions.retarderAvailable ?? false)],
       ['Where to stop to cool', coolingLine(slice, descent)],
-      ['Worst case taken', worst ? conditionsLine(worst.conditions) : 'Not computed for this result: re-run the scenario to get the worst case.'],
+      [
+        'Worst case taken',
+        worst ? conditionsLine(worst.conditions) : 'Not computed for this result: re-run the scenario to get the worst case.',
+      ],
     ],
     { labelWidth: 130, size: 8.5 },
   );
@@ -133,15 +139,17 @@ function drawLine(page: PdfLayout, slice: Slice, left: number, top: number, widt
   doc.text('The descent, north up', left + 6, top + 5, { width: width - 12, lineBreak: false });
   if (slice.lon.length < 2) {
     page.apply({ size: 8, colour: MUTED });
-    doc.text('The route positions of this stretch are not stored; re-run the scenario to draw it.', left + 10, top + height / 2 - 10, { width: width - 20 });
+    doc.text('The route positions of this stretch are not stored; re-run the scenario to draw it.', left + 10, top + height / 2 - 10, {
+      width: width - 20,
+    });
     return;
   }
   const midLat = ((Math.min(...slice.lat) + Math.max(...slice.lat)) / 2) * (Math.PI / 180);
   const lon0 = slice.lon[0]!;
   const lat0 = slice.lat[0]!;
   // Equirectangular projection around the stretch: metres east and north of its top.
-  const xs = slice.lon.map((lon) => ((lon - lon0) * Math.PI) / 180 * EARTH_RADIUS_M * Math.cos(midLat));
-  const ys = slice.lat.map((lat) => ((lat - lat0) * Math.PI) / 180 * EARTH_RADIUS_M);
+  const xs = slice.lon.map((lon) => (((lon - lon0) * Math.PI) / 180) * EARTH_RADIUS_M * Math.cos(midLat));
+  const ys = slice.lat.map((lat) => (((lat - lat0) * Math.PI) / 180) * EARTH_RADIUS_M);
   const pad = 22;
   const spanX = Math.max(1, Math.max(...xs) - Math.min(...xs));
   const spanY = Math.max(1, Math.max(...ys) - Math.min(...ys));
@@ -156,7 +164,13 @@ function drawLine(page: PdfLayout, slice: Slice, left: number, top: number, widt
   doc.stroke().restore();
   // Top (start) as a filled dot, bottom (end) as a ring.
   doc.save().fillColor(INK).circle(px(xs[0]!), py(ys[0]!), 3.5).fill().restore();
-  doc.save().lineWidth(1.2).strokeColor(INK).circle(px(xs.at(-1)!), py(ys.at(-1)!), 3.5).stroke().restore();
+  doc
+    .save()
+    .lineWidth(1.2)
+    .strokeColor(INK)
+    .circle(px(xs.at(-1)!), py(ys.at(-1)!), 3.5)
+    .stroke()
+    .restore();
   page.apply({ size: 7, colour: INK });
   doc.text('top', px(xs[0]!) + 5, py(ys[0]!) - 4, { lineBreak: false });
   doc.text('bottom', px(xs.at(-1)!) + 5, py(ys.at(-1)!) - 4, { lineBreak: false });
@@ -164,16 +178,36 @@ function drawLine(page: PdfLayout, slice: Slice, left: number, top: number, widt
   // North arrow, top right.
   const arrowX = left + width - 16;
   const arrowY = top + 22;
-  doc.save().fillColor(INK).moveTo(arrowX, arrowY - 8).lineTo(arrowX - 4, arrowY + 4).lineTo(arrowX + 4, arrowY + 4).closePath().fill().restore();
+  doc
+    .save()
+    .fillColor(INK)
+    .moveTo(arrowX, arrowY - 8)
+    .lineTo(arrowX - 4, arrowY + 4)
+    .lineTo(arrowX + 4, arrowY + 4)
+    .closePath()
+    .fill()
+    .restore();
   page.apply({ size: 7, bold: true, colour: INK });
   doc.text('N', arrowX - 3, arrowY + 5, { lineBreak: false });
 
   // Scale bar: a round length near a quarter of the box.
-  const barM = roundLength((width / 4) / scale);
+  const barM = roundLength(width / 4 / scale);
   const barPt = barM * scale;
   const barY = top + height - 14;
-  doc.save().lineWidth(1.5).strokeColor(INK).moveTo(left + 10, barY).lineTo(left + 10 + barPt, barY).stroke();
-  doc.moveTo(left + 10, barY - 3).lineTo(left + 10, barY + 3).moveTo(left + 10 + barPt, barY - 3).lineTo(left + 10 + barPt, barY + 3).stroke().restore();
+  doc
+    .save()
+    .lineWidth(1.5)
+    .strokeColor(INK)
+    .moveTo(left + 10, barY)
+    .lineTo(left + 10 + barPt, barY)
+    .stroke();
+  doc
+    .moveTo(left + 10, barY - 3)
+    .lineTo(left + 10, barY + 3)
+    .moveTo(left + 10 + barPt, barY - 3)
+    .lineTo(left + 10 + barPt, barY + 3)
+    .stroke()
+    .restore();
   page.apply({ size: 7, colour: INK });
   doc.text(barM >= 1_000 ? `${formatNumber(barM / 1_000)} km` : `${barM} m`, left + 14 + barPt, barY - 4, { lineBreak: false });
 }
@@ -207,15 +241,32 @@ function drawProfile(page: PdfLayout, slice: Slice, descent: Descent, left: numb
   doc.stroke().restore();
   const cooling = coolingPoint(slice, descent);
   if (cooling !== null) {
-    doc.save().lineWidth(1).dash(3, { space: 2 }).strokeColor(LINE_INK).moveTo(x(cooling.distanceM), plotTop).lineTo(x(cooling.distanceM), plotTop + plotHeight).stroke().restore();
+    doc
+      .save()
+      .lineWidth(1)
+      .dash(3, { space: 2 })
+      .strokeColor(LINE_INK)
+      .moveTo(x(cooling.distanceM), plotTop)
+      .lineTo(x(cooling.distanceM), plotTop + plotHeight)
+      .stroke()
+      .restore();
   }
   page.apply({ size: 7, colour: INK });
   doc.text(`${formatNumber(zMax)} m`, left + 2, plotTop - 3, { width: axis - 6, align: 'right', lineBreak: false });
   doc.text(`${formatNumber(zMin)} m`, left + 2, plotTop + plotHeight - 6, { width: axis - 6, align: 'right', lineBreak: false });
   doc.text('0 km', plotLeft, plotTop + plotHeight + 3, { lineBreak: false });
-  doc.text(formatQuantity('distance', descent.endM - descent.startM, UNITS, 1), plotLeft + plotWidth - 60, plotTop + plotHeight + 3, { width: 60, align: 'right', lineBreak: false });
+  doc.text(formatQuantity('distance', descent.endM - descent.startM, UNITS, 1), plotLeft + plotWidth - 60, plotTop + plotHeight + 3, {
+    width: 60,
+    align: 'right',
+    lineBreak: false,
+  });
   page.apply({ size: 6.5, colour: MUTED });
-  doc.text(cooling === null ? 'Distance from the top of the descent.' : 'Dashed: plan a cooling stop before this point.', plotLeft, plotTop + plotHeight + 12, { width: plotWidth, lineBreak: false });
+  doc.text(
+    cooling === null ? 'Distance from the top of the descent.' : 'Dashed: plan a cooling stop before this point.',
+    plotLeft,
+    plotTop + plotHeight + 12,
+    { width: plotWidth, lineBreak: false },
+  );
 }
 
 /** The advice's limit: the fade threshold less the margin the advice keeps, °C. */
@@ -317,5 +368,7 @@ function signOffFields(page: PdfLayout): void {
   });
   page.y += 6;
   page.apply({ size: 8, bold: true, colour: '#8a1c4a' });
-  doc.text(`${NOT_FOR_DRIVERS} Until all three boxes are signed, this card is an engineering working paper.`, page.left, page.y, { width: page.width });
+  doc.text(`${NOT_FOR_DRIVERS} Until all three boxes are signed, this card is an engineering working paper.`, page.left, page.y, {
+    width: page.width,
+  });
 }

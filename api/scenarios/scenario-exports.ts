@@ -49,7 +49,8 @@ export function scenarioGeoJson(scenario: Scenario, result: ScenarioResult) {
     for (const descent of direction.descents) {
       const coordinates: [number, number][] = [];
       for (let i = 0; i < p.distanceM.length; i++) {
-        if (p.distanceM[i]! >= descent.startM - 1e-6 && p.distanceM[i]! <= descent.endM + 1e-6) coordinates.push(position(p.lon[i]!, p.lat[i]!));
+        if (p.distanceM[i]! >= descent.startM - 1e-6 && p.distanceM[i]! <= descent.endM + 1e-6)
+          coordinates.push(position(p.lon[i]!, p.lat[i]!));
       }
       if (coordinates.length < 2) continue;
       features.push({

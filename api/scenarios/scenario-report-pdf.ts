@@ -48,20 +48,28 @@ export function scenarioReportPdf(scenario: Scenario, result: ScenarioResult, pr
   const options = scenario.options;
   page.keyValues([
     ['Direction', DIRECTION_LABELS[scenario.direction]],
-    ['Vehicle profile', `${scenario.vehicleProfileName}${vehicleClass && vehicleClass !== scenario.vehicleProfileName ? ` (class: ${vehicleClass})` : ''}`],
+    [
+      'Vehicle profile',
+      `${scenario.vehicleProfileName}${vehicleClass && vehicleClass !== scenario.vehicleProfileName ? ` (class: ${vehicleClass})` : ''}`,
+    ],
     ['Load', describeLoad(scenario.load)],
     ['Season', describeSeason(scenario.season)],
     ['SOC at the start', formatQuantity('soc', scenario.startSoc, UNITS)],
     ['Spacing / smoothing', `${formatNumber(options.spacingM)} m / ${formatNumber(options.smoothingWindowM)} m`],
     ['Descent speed cap', options.descentSpeedCapKph === undefined ? 'None' : `${formatNumber(options.descentSpeedCapKph)} km/h`],
     ['Stops served', options.useStops ? 'Yes, with their dwell times' : 'No'],
-    ...(scenario.direction === 'round-trip' ? [['Layover between directions', formatQuantity('duration', options.layoverS, UNITS)] as const] : []),
+    ...(scenario.direction === 'round-trip'
+      ? [['Layover between directions', formatQuantity('duration', options.layoverS, UNITS)] as const]
+      : []),
   ]);
 
   page.heading('Summary');
   const directions = result.directions;
   const summaries = [...directions.map((direction) => direction.summary), ...(directions.length > 1 ? [result.summary] : [])];
-  const headers = [...directions.map((direction) => DIRECTION_LABELS[direction.direction]), ...(directions.length > 1 ? ['Round trip'] : [])];
+  const headers = [
+    ...directions.map((direction) => DIRECTION_LABELS[direction.direction]),
+    ...(directions.length > 1 ? ['Round trip'] : []),
+  ];
   page.table(
     [{ header: 'Figure', weight: 2.2 }, ...headers.map((header) => ({ header, weight: 1, align: 'right' as const }))],
     [
@@ -129,7 +137,10 @@ function chart(page: PdfLayout, distanceM: number[], elevationM: number[], brake
     doc.save().lineWidth(1.2).strokeColor(colour);
     doc.moveTo(x(distanceM[0]!), y(values[0]!));
     for (let i = step; i < distanceM.length; i += step) doc.lineTo(x(distanceM[i]!), y(values[i]!));
-    doc.lineTo(x(distanceM.at(-1)!), y(values.at(-1)!)).stroke().restore();
+    doc
+      .lineTo(x(distanceM.at(-1)!), y(values.at(-1)!))
+      .stroke()
+      .restore();
   };
   path(elevationM, yz, '#1565c0');
   path(brakeTempC, yt, '#c2570c');

@@ -33,7 +33,8 @@ export type RunOutcome =
 
 /** Payload and conditions a scenario's load and season resolve to. */
 export function resolveLoadAndSeason(profile: VehicleProfile, settings: ScenarioSettings) {
-  const payloadKg = settings.load.kind === 'case' ? profile.loadsKg[settings.load.case] : settings.load.passengers * profile.passengerMassKg;
+  const payloadKg =
+    settings.load.kind === 'case' ? profile.loadsKg[settings.load.case] : settings.load.passengers * profile.passengerMassKg;
   const season = settings.season.kind === 'season' ? profile.seasons[settings.season.season] : settings.season;
   return { payloadKg, ambientC: season.ambientC, auxPowerW: season.auxPowerW };
 }

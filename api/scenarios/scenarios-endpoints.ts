@@ -154,7 +154,10 @@ export function scenarioEndpoints(deps: AppDeps) {
       },
       handler: async ({ params, query, res }) => {
         const result = await service.getResult(deps.db, params.scenarioId);
-        res.json({ ...result, directions: result.directions.map((direction) => ({ ...direction, profile: viewProfile(direction.profile, query) })) });
+        res.json({
+          ...result,
+          directions: result.directions.map((direction) => ({ ...direction, profile: viewProfile(direction.profile, query) })),
+        });
       },
     }),
     endpoint({
@@ -225,9 +228,15 @@ export function scenarioEndpoints(deps: AppDeps) {
         const cards =
           query.direction === undefined
             ? all
-            : all.filter((card) => card.direction === query.direction && card.descent.startM <= query.atM! && query.atM! <= card.descent.endM);
+            : all.filter(
+                (card) => card.direction === query.direction && card.descent.startM <= query.atM! && query.atM! <= card.descent.endM,
+              );
         if (cards.length === 0) {
-          throw new NotFoundError(query.direction === undefined ? 'A descent in this scenario’s result' : `A ${query.direction} descent at ${Math.round(query.atM!)} m`);
+          throw new NotFoundError(
+            query.direction === undefined
+              ? 'A descent in this scenario’s result'
+              : `A ${query.direction} descent at ${Math.round(query.atM!)} m`,
+          );
         }
         const retarderType = (profileRow ? profiles.toVehicleProfile(profileRow).vehicle.retarderType : undefined) ?? 'none';
         const pdf = await descentCardsPdf({ scenario, result, retarderType }, cards);

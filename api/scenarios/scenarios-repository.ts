@@ -29,7 +29,10 @@ function selectWithContext(db: Executor) {
     })
     .from(scenarios)
     .innerJoin(roadRoutes, eq(roadRoutes.id, scenarios.routeId))
-    .innerJoin(roadRouteVersions, and(eq(roadRouteVersions.routeId, scenarios.routeId), eq(roadRouteVersions.version, scenarios.routeVersion)))
+    .innerJoin(
+      roadRouteVersions,
+      and(eq(roadRouteVersions.routeId, scenarios.routeId), eq(roadRouteVersions.version, scenarios.routeVersion)),
+    )
     .innerJoin(vehicleProfiles, eq(vehicleProfiles.id, scenarios.vehicleProfileId));
 }
 
@@ -38,7 +41,9 @@ function selectWithContext(db: Executor) {
  * inputs of every direction beside it would be read, sent and parsed for every row and dropped.
  */
 const { inputs: _inputs, ...scenarioListColumns } = scenarioColumns;
-const provenanceOnly = sql<ScenarioHead['inputs']>`case when ${scenarios.inputs} is null then null else jsonb_build_object('provenance', ${scenarios.inputs} -> 'provenance') end`;
+const provenanceOnly = sql<
+  ScenarioHead['inputs']
+>`case when ${scenarios.inputs} is null then null else jsonb_build_object('provenance', ${scenarios.inputs} -> 'provenance') end`;
 
 export async function listScenarios(db: Executor, query: ScenarioListQuery): Promise<ScenarioWithContext[]> {
   const conditions: SQL[] = [isNull(scenarios.deletedAt)];
@@ -55,7 +60,10 @@ export async function listScenarios(db: Executor, query: ScenarioListQuery): Pro
     })
     .from(scenarios)
     .innerJoin(roadRoutes, eq(roadRoutes.id, scenarios.routeId))
-    .innerJoin(roadRouteVersions, and(eq(roadRouteVersions.routeId, scenarios.routeId), eq(roadRouteVersions.version, scenarios.routeVersion)))
+    .innerJoin(
+      roadRouteVersions,
+      and(eq(roadRouteVersions.routeId, scenarios.routeId), eq(roadRouteVersions.version, scenarios.routeVersion)),
+    )
     .innerJoin(vehicleProfiles, eq(vehicleProfiles.id, scenarios.vehicleProfileId))
     .where(and(...conditions))
     .orderBy(asc(scenarios.name), asc(scenarios.id))) as ScenarioWithContext[];
@@ -73,7 +81,11 @@ export async function findScenariosWithContext(db: Executor, ids: string[]): Pro
 /** The scenario unless it is deleted (or, with `includeDeleted`, either way). */
 /** Id and name of every scenario on a vehicle profile, by name (for re-running them all). */
 export function listScenarioNamesOfProfile(db: Executor, vehicleProfileId: string): Promise<{ id: string; name: string }[]> {
-  return db.select({ id: scenarios.id, name: scenarios.name }).from(scenarios).where(eq(scenarios.vehicleProfileId, vehicleProfileId)).orderBy(scenarios.name);
+  return db
+    .select({ id: scenarios.id, name: scenarios.name })
+    .from(scenarios)
+    .where(eq(scenarios.vehicleProfileId, vehicleProfileId))
+    .orderBy(scenarios.name);
 }
 
 /** Id and name of every scenario in service (not deleted), by name: a network run's items. */
@@ -125,7 +137,10 @@ export function readScenarioResult(
 }
 
 export async function updateScenario(db: Executor, id: string, values: Partial<typeof scenarios.$inferInsert>) {
-  await db.update(scenarios).set({ ...values, updatedAt: new Date() }).where(eq(scenarios.id, id));
+  await db
+    .update(scenarios)
+    .set({ ...values, updatedAt: new Date() })
+    .where(eq(scenarios.id, id));
 }
 
 /**
@@ -135,7 +150,11 @@ export async function updateScenario(db: Executor, id: string, values: Partial<t
 export async function failInterruptedRuns(db: Executor, staleBefore: Date): Promise<number> {
   const failed = await db
     .update(scenarios)
-    .set({ status: 'failed', failureReason: 'the run stopped before it finished (the server was restarted); run it again', updatedAt: new Date() })
+    .set({
+      status: 'failed',
+      failureReason: 'the run stopped before it finished (the server was restarted); run it again',
+      updatedAt: new Date(),
+    })
     .where(and(eq(scenarios.status, 'running'), lt(scenarios.updatedAt, staleBefore), isNull(scenarios.deletedAt)))
     .returning({ id: scenarios.id });
   return failed.length;

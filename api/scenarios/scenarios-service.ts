@@ -24,10 +24,13 @@ async function resolveReferences(db: Database, draft: ScenarioDraft) {
   const version = draft.routeVersion ?? route.currentVersion;
   const routeVersion = await routes.findVersion(db, draft.routeId, version);
   if (!routeVersion) {
-    throw new BadRequestError(`routeVersion: the route has no version ${version} (latest is ${route.currentVersion})`, { field: 'routeVersion' });
+    throw new BadRequestError(`routeVersion: the route has no version ${version} (latest is ${route.currentVersion})`, {
+      field: 'routeVersion',
+    });
   }
   const profileRow = await profiles.findProfile(db, draft.vehicleProfileId);
-  if (!profileRow) throw new BadRequestError(`vehicleProfileId: no vehicle profile ${draft.vehicleProfileId}`, { field: 'vehicleProfileId' });
+  if (!profileRow)
+    throw new BadRequestError(`vehicleProfileId: no vehicle profile ${draft.vehicleProfileId}`, { field: 'vehicleProfileId' });
   assertWithinPermissibleMass(profiles.toVehicleProfile(profileRow), draft);
   return { routeVersion, profileRow, pinned: draft.routeVersion !== undefined };
 }

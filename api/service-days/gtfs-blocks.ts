@@ -31,15 +31,26 @@ export async function blocksFromGtfs(
   }
   const { trips, withoutBlock, routeNames } = await gtfsBlockTrips(file.originalname || 'feed.zip', file.buffer, options.serviceId);
   if (trips.length === 0) {
-    throw new UnprocessableError(`no trip of service "${options.serviceId}" has a block_id in trips.txt`, 'no_blocks', { field: 'serviceId', tripsWithoutBlock: withoutBlock });
+    throw new UnprocessableError(`no trip of service "${options.serviceId}" has a block_id in trips.txt`, 'no_blocks', {
+      field: 'serviceId',
+      tripsWithoutBlock: withoutBlock,
+    });
   }
   const routes = new Map<string, { id: string; shapeId: string }>();
   for (const gtfsRouteId of new Set(trips.map((trip) => trip.routeId))) {
     const [row] = await db
       .select({ id: roadRoutes.id, description: roadRouteVersions.description })
       .from(roadRoutes)
-      .innerJoin(roadRouteVersions, and(eq(roadRouteVersions.routeId, roadRoutes.id), eq(roadRouteVersions.version, roadRoutes.currentVersion)))
-      .where(and(isNull(roadRoutes.deletedAt), like(roadRouteVersions.description, `%(GTFS route ${gtfsRouteId.replace(/[%_\\]/g, '\\$&')}, shape %`)));
+      .innerJoin(
+        roadRouteVersions,
+        and(eq(roadRouteVersions.routeId, roadRoutes.id), eq(roadRouteVersions.version, roadRoutes.currentVersion)),
+      )
+      .where(
+        and(
+          isNull(roadRoutes.deletedAt),
+          like(roadRouteVersions.description, `%(GTFS route ${gtfsRouteId.replace(/[%_\\]/g, '\\$&')}, shape %`),
+        ),
+      );
     if (!row) {
       const trip = trips.find((candidate) => candidate.routeId === gtfsRouteId)!;
       const where = { file: 'trips.txt', line: trip.line, blockId: trip.blockId, tripId: trip.tripId, routeId: gtfsRouteId };
@@ -48,7 +59,10 @@ export async function blocksFromGtfs(
         ? await db
             .select({ id: roadRoutes.id })
             .from(roadRoutes)
-            .innerJoin(roadRouteVersions, and(eq(roadRouteVersions.routeId, roadRoutes.id), eq(roadRouteVersions.version, roadRoutes.currentVersion)))
+            .innerJoin(
+              roadRouteVersions,
+              and(eq(roadRouteVersions.routeId, roadRoutes.id), eq(roadRouteVersions.version, roadRoutes.currentVersion)),
+            )
             .where(and(isNull(roadRoutes.deletedAt), eq(roadRouteVersions.name, name)))
             .limit(2)
         : [];
@@ -75,7 +89,8 @@ export async function blocksFromGtfs(
   // The direction_id of the trips on each imported route's own shape.
   const outboundDirection = new Map<string, string>();
   for (const trip of trips) {
-    if (routes.get(trip.routeId)!.shapeId === trip.shapeId && !outboundDirection.has(trip.routeId)) outboundDirection.set(trip.routeId, trip.directionId);
+    if (routes.get(trip.routeId)!.shapeId === trip.shapeId && !outboundDirection.has(trip.routeId))
+      outboundDirection.set(trip.routeId, trip.directionId);
   }
   const byBlock = new Map<string, typeof trips>();
   for (const trip of trips) {
@@ -87,7 +102,11 @@ export async function blocksFromGtfs(
   for (const [blockId, list] of [...byBlock.entries()].sort((a, b) => a[0].localeCompare(b[0]))) {
     list.sort((a, b) => a.departureS - b.departureS);
     if (list.length > MAX_TRIPS_PER_BLOCK) {
-      throw new UnprocessableError(`block "${blockId}" has ${list.length} trips; a block may have at most ${MAX_TRIPS_PER_BLOCK}`, 'block_too_long', { blockId });
+      throw new UnprocessableError(
+        `block "${blockId}" has ${list.length} trips; a block may have at most ${MAX_TRIPS_PER_BLOCK}`,
+        'block_too_long',
+        { blockId },
+      );
     }
     blocks.push({
       blockId: blockId.slice(0, 120),

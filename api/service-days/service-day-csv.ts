@@ -5,7 +5,14 @@
  * kept to 0.1 %, as the screens show them.
  */
 import type { ServiceDayResult } from '@shared/domain/service-days';
-import { DIRECTION_LABELS, RISK_LABELS, SERVICE_DAY_COLUMNS, csvField, serviceDayCsvHeader, type ServiceDayColumnKey } from '@shared/presentation/index';
+import {
+  DIRECTION_LABELS,
+  RISK_LABELS,
+  SERVICE_DAY_COLUMNS,
+  csvField,
+  serviceDayCsvHeader,
+  type ServiceDayColumnKey,
+} from '@shared/presentation/index';
 
 type Row = Partial<Record<ServiceDayColumnKey, string>>;
 

@@ -12,12 +12,16 @@ export function serviceDayReportEndpoints(deps: AppDeps) {
     endpoint({
       method: 'get',
       path: '/api/service-days/:serviceDayId/report.pdf',
-      summary: 'PDF report of the last run: blocks that cannot be worked and why, SOC chart, charging, peak charger power, descents the day made riskier, cautions',
+      summary:
+        'PDF report of the last run: blocks that cannot be worked and why, SOC chart, charging, peak charger power, descents the day made riskier, cautions',
       tag: 'Service days',
       access: 'signed-in',
       heavy: true,
       params: serviceDayIdParamsSchema,
-      responses: { 200: { description: 'PDF (attachment)', contentType: 'application/pdf' }, 404: { description: 'No such service day, or never run' } },
+      responses: {
+        200: { description: 'PDF (attachment)', contentType: 'application/pdf' },
+        404: { description: 'No such service day, or never run' },
+      },
       handler: async ({ params, res }) => {
         const day = await service.getServiceDay(deps.db, params.serviceDayId);
         const result = await service.getResult(deps.db, params.serviceDayId);

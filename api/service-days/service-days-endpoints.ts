@@ -25,7 +25,12 @@ import * as service from './service-days-service';
 
 const TAG = 'Service days';
 
-const listQuerySchema = z.object({ inService: z.enum(['true', 'false']).transform((value) => value === 'true').optional() });
+const listQuerySchema = z.object({
+  inService: z
+    .enum(['true', 'false'])
+    .transform((value) => value === 'true')
+    .optional(),
+});
 
 export function serviceDayEndpoints(deps: AppDeps) {
   return [
@@ -51,7 +56,9 @@ export function serviceDayEndpoints(deps: AppDeps) {
       responses: {
         201: { description: 'Saved', schema: serviceDaySchema },
         400: { description: 'A field out of range or missing (named)' },
-        422: { description: 'An unknown route, route version, vehicle profile or charger, or trips out of order (the block and trip named)' },
+        422: {
+          description: 'An unknown route, route version, vehicle profile or charger, or trips out of order (the block and trip named)',
+        },
       },
       handler: async ({ body, user, res }) => {
         const day = await service.createServiceDay(deps.db, authorOf(user!), body);
@@ -61,7 +68,8 @@ export function serviceDayEndpoints(deps: AppDeps) {
     endpoint({
       method: 'post',
       path: '/api/service-days/gtfs-services',
-      summary: 'The service_ids of a GTFS feed (trips.txt) with their trips and blocks, to choose one for POST /api/service-days/gtfs-blocks; nothing is saved',
+      summary:
+        'The service_ids of a GTFS feed (trips.txt) with their trips and blocks, to choose one for POST /api/service-days/gtfs-blocks; nothing is saved',
       tag: TAG,
       access: rolesWith('service-days.edit'),
       heavy: true,
@@ -80,7 +88,8 @@ export function serviceDayEndpoints(deps: AppDeps) {
     endpoint({
       method: 'post',
       path: '/api/service-days/gtfs-blocks',
-      summary: 'Blocks from a GTFS feed for one service_id (trips.txt block_id, stop_times.txt departures), on the routes the GTFS import created or, failing that, the one route of the same name; nothing is saved',
+      summary:
+        'Blocks from a GTFS feed for one service_id (trips.txt block_id, stop_times.txt departures), on the routes the GTFS import created or, failing that, the one route of the same name; nothing is saved',
       tag: TAG,
       access: rolesWith('service-days.edit'),
       heavy: true,
@@ -90,7 +99,9 @@ export function serviceDayEndpoints(deps: AppDeps) {
         200: { description: 'Blocks to put in a service day', schema: gtfsBlocksAnswerSchema },
         400: { description: 'The feed cannot be read (file and line named), or a field is missing' },
         413: { description: 'The feed is past the import limits' },
-        422: { description: 'A GTFS route has no imported or same-named route, or two of that name, or no trip of that service has a block_id' },
+        422: {
+          description: 'A GTFS route has no imported or same-named route, or two of that name, or no trip of that service has a block_id',
+        },
       },
       handler: async ({ req, res }) => {
         const fields = gtfsBlocksFieldsSchema.safeParse(req.body ?? {});
@@ -149,7 +160,10 @@ export function serviceDayEndpoints(deps: AppDeps) {
       tag: TAG,
       access: rolesWith('service-days.edit'),
       params: serviceDayIdParamsSchema,
-      responses: { 200: { description: 'The service day, back', schema: serviceDaySchema }, 404: { description: 'No deleted service day with that id' } },
+      responses: {
+        200: { description: 'The service day, back', schema: serviceDaySchema },
+        404: { description: 'No deleted service day with that id' },
+      },
       handler: async ({ params, user, res }) => {
         res.json(await service.restoreServiceDay(deps.db, authorOf(user!), params.serviceDayId));
       },

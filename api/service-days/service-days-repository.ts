@@ -3,7 +3,14 @@ import { blockSchema, chargerSchema, type ServiceDay } from '@shared/domain/serv
 import { ENGINE_VERSION } from '@shared/engine/constants';
 import * as z from 'zod';
 import type { Executor } from '../db/client';
-import { roadRoutes, serviceDayResults, serviceDays, vehicleProfiles, type ServiceDayResultRow, type ServiceDayRow } from '../db/schema/index';
+import {
+  roadRoutes,
+  serviceDayResults,
+  serviceDays,
+  vehicleProfiles,
+  type ServiceDayResultRow,
+  type ServiceDayRow,
+} from '../db/schema/index';
 
 const storedBlocks = z.array(blockSchema);
 const storedChargers = z.array(chargerSchema);
@@ -199,7 +206,11 @@ export async function recordOutcome(
     .update(serviceDayResults)
     .set({ ...values, claimToken: null, heartbeatAt: null })
     .where(
-      and(eq(serviceDayResults.serviceDayId, serviceDayId), eq(serviceDayResults.claimToken, claimToken), eq(serviceDayResults.status, 'running')),
+      and(
+        eq(serviceDayResults.serviceDayId, serviceDayId),
+        eq(serviceDayResults.claimToken, claimToken),
+        eq(serviceDayResults.status, 'running'),
+      ),
     )
     .returning({ id: serviceDayResults.serviceDayId });
   return updated.length > 0;

@@ -55,7 +55,9 @@ export async function checkDraft(db: Executor, draft: ServiceDayDraft): Promise<
   const chargerKeys = new Map<string, string>();
   draft.chargers.forEach((charger, index) => {
     if (chargerKeys.has(charger.key)) {
-      refuse(`chargers[${index}].key: the key “${charger.key}” is used by another charger; each charger needs its own`, { field: `chargers[${index}].key` });
+      refuse(`chargers[${index}].key: the key “${charger.key}” is used by another charger; each charger needs its own`, {
+        field: `chargers[${index}].key`,
+      });
     }
     chargerKeys.set(charger.key, charger.kind);
   });
@@ -65,40 +67,62 @@ export async function checkDraft(db: Executor, draft: ServiceDayDraft): Promise<
   for (const [blockIndex, block] of draft.blocks.entries()) {
     const where = `block “${block.blockId}” (blocks[${blockIndex}])`;
     const base = { blockId: block.blockId, blockIndex };
-    if (blockIds.has(block.blockId)) refuse(`${where}: another block has the same id; block ids must be unique within the day`, { ...base, field: 'blockId' });
+    if (blockIds.has(block.blockId))
+      refuse(`${where}: another block has the same id; block ids must be unique within the day`, { ...base, field: 'blockId' });
     blockIds.add(block.blockId);
     if (block.depotChargerKey !== undefined) {
       const kind = chargerKeys.get(block.depotChargerKey);
       if (kind === undefined) {
-        refuse(`${where}: depot charger “${block.depotChargerKey}” is not one of this day’s chargers`, { ...base, field: 'depotChargerKey' }, 'unknown_charger');
+        refuse(
+          `${where}: depot charger “${block.depotChargerKey}” is not one of this day’s chargers`,
+          { ...base, field: 'depotChargerKey' },
+          'unknown_charger',
+        );
       } else if (kind !== 'depot') {
-        refuse(`${where}: charger “${block.depotChargerKey}” is a terminus charger, not a depot charger`, { ...base, field: 'depotChargerKey' });
+        refuse(`${where}: charger “${block.depotChargerKey}” is a terminus charger, not a depot charger`, {
+          ...base,
+          field: 'depotChargerKey',
+        });
       }
     }
-    if (!profileCache.has(block.vehicleProfileId)) profileCache.set(block.vehicleProfileId, !!(await profiles.findProfile(db, block.vehicleProfileId)));
+    if (!profileCache.has(block.vehicleProfileId))
+      profileCache.set(block.vehicleProfileId, !!(await profiles.findProfile(db, block.vehicleProfileId)));
     if (!profileCache.get(block.vehicleProfileId)) {
       refuse(`${where}: no vehicle profile ${block.vehicleProfileId}`, { ...base, field: 'vehicleProfileId' }, 'unknown_vehicle_profile');
     }
     const first = block.trips[0]!;
     if (block.pullOutS > first.departureS) {
-      refuse(`${where}: pull-out at ${clock(block.pullOutS)} is after the first trip’s departure at ${clock(first.departureS)}`, { ...base, field: 'pullOutS' });
+      refuse(`${where}: pull-out at ${clock(block.pullOutS)} is after the first trip’s departure at ${clock(first.departureS)}`, {
+        ...base,
+        field: 'pullOutS',
+      });
     }
     for (const [tripIndex, trip] of block.trips.entries()) {
       const tripWhere = `${where}, trip ${tripIndex + 1}`;
       const details = { ...base, tripIndex };
       if (tripIndex > 0 && trip.departureS <= block.trips[tripIndex - 1]!.departureS) {
-        refuse(`${tripWhere}: departs at ${clock(trip.departureS)}, not after the trip before it; trips must be in time order`, { ...details, field: 'departureS' });
+        refuse(`${tripWhere}: departs at ${clock(trip.departureS)}, not after the trip before it; trips must be in time order`, {
+          ...details,
+          field: 'departureS',
+        });
       }
       if (!routeCache.has(trip.routeId)) routeCache.set(trip.routeId, (await routes.findRoute(db, trip.routeId)) ?? null);
       const route = routeCache.get(trip.routeId);
       if (!route) refuse(`${tripWhere}: no route ${trip.routeId}`, { ...details, field: 'routeId' }, 'unknown_route');
       if (trip.routeVersion !== undefined && !(await routes.findVersion(db, trip.routeId, trip.routeVersion))) {
-        refuse(`${tripWhere}: the route has no version ${trip.routeVersion} (latest is ${route!.currentVersion})`, { ...details, field: 'routeVersion' }, 'unknown_route_version');
+        refuse(
+          `${tripWhere}: the route has no version ${trip.routeVersion} (latest is ${route!.currentVersion})`,
+          { ...details, field: 'routeVersion' },
+          'unknown_route_version',
+        );
       }
     }
     const last = block.trips.at(-1)!;
     if (block.pullInS < last.departureS) {
-      refuse(`${where}: pull-in at ${clock(block.pullInS)} is before the last trip’s departure at ${clock(last.departureS)}`, { ...base, field: 'pullInS' });
+      refuse(`${where}: pull-in at ${clock(block.pullInS)} is before the last trip’s departure at ${clock(last.departureS)}`, {
+        ...base,
+        field: 'pullInS',
+      });
     }
   }
 }
@@ -125,10 +149,21 @@ export async function getServiceDay(db: Executor, id: string): Promise<ServiceDa
 
 export async function listServiceDays(db: Executor, filter: { inService?: boolean } = {}) {
   const rows = await repository.listServiceDayRows(db, filter);
-  const results = await repository.findResultRows(db, rows.map((row) => row.id));
+  const results = await repository.findResultRows(
+    db,
+    rows.map((row) => row.id),
+  );
   const context = await repository.stalenessContext(db, rows);
   return rows.map((row) => {
-    const { blocks: _blocks, chargers: _chargers, ...day } = repository.toServiceDay(row, results.find((result) => result.serviceDayId === row.id), context);
+    const {
+      blocks: _blocks,
+      chargers: _chargers,
+      ...day
+    } = repository.toServiceDay(
+      row,
+      results.find((result) => result.serviceDayId === row.id),
+      context,
+    );
     return { ...day, blockCount: row.blocks.length, tripCount: row.blocks.reduce((sum, block) => sum + block.trips.length, 0) };
   });
 }
@@ -182,7 +217,11 @@ export async function restoreServiceDay(db: Database, actor: Actor, id: string):
 // ---------------------------------------------------------------- runs
 
 async function registerServiceDayWorkers(deps: AppDeps, queue: JobQueue): Promise<void> {
-  await queue.registerWorker<{ serviceDayId: string }>(SERVICE_DAY_RUN_JOB, (job) => runServiceDayJob(deps, job.serviceDayId), SERVICE_DAY_RUN_POLICY);
+  await queue.registerWorker<{ serviceDayId: string }>(
+    SERVICE_DAY_RUN_JOB,
+    (job) => runServiceDayJob(deps, job.serviceDayId),
+    SERVICE_DAY_RUN_POLICY,
+  );
 }
 
 /** The app's job queue, or (tests, the demo seed) an in-process queue with the run worker on it. */
@@ -235,7 +274,10 @@ export async function runServiceDayJob(deps: AppDeps, serviceDayId: string): Pro
   try {
     const row = await repository.findServiceDayRow(deps.db, serviceDayId);
     if (!row) {
-      await repository.recordOutcome(deps.db, serviceDayId, token, { status: 'failed', failureReason: 'the service day was deleted before it ran' });
+      await repository.recordOutcome(deps.db, serviceDayId, token, {
+        status: 'failed',
+        failureReason: 'the service day was deleted before it ran',
+      });
       return;
     }
     let outcome: Awaited<ReturnType<typeof computeServiceDay>>;
@@ -328,7 +370,11 @@ export async function prepareEngineInput(
       if (seen.has(key)) continue;
       seen.add(key);
       const route = await routes.findRoute(db, trip.routeId);
-      if (!route) return { ok: false, failureReason: `route ${trip.routeId} (block “${block.blockId}”) was deleted; restore it or change the blocks that run it` };
+      if (!route)
+        return {
+          ok: false,
+          failureReason: `route ${trip.routeId} (block “${block.blockId}”) was deleted; restore it or change the blocks that run it`,
+        };
       const versionNumber = trip.routeVersion ?? route.currentVersion;
       const version = await routes.findVersion(db, trip.routeId, versionNumber);
       if (!version) return { ok: false, failureReason: `route ${trip.routeId} has no version ${versionNumber}` };
@@ -338,7 +384,13 @@ export async function prepareEngineInput(
       const plan = scenarioTripPlan(
         version,
         heaviest,
-        { direction: trip.direction, load: { kind: 'case', case: 'seated' }, season: { kind: 'season', season }, startSoc: 0.9, options: TRIP_OPTIONS },
+        {
+          direction: trip.direction,
+          load: { kind: 'case', case: 'seated' },
+          season: { kind: 'season', season },
+          startSoc: 0.9,
+          options: TRIP_OPTIONS,
+        },
         safety,
       );
       const directed = legRequest(plan, trip.direction, 0.9);
@@ -397,7 +449,8 @@ async function withElevations(
 
 function haversineM(lon1: number, lat1: number, lon2: number, lat2: number): number {
   const rad = Math.PI / 180;
-  const a = Math.sin(((lat2 - lat1) * rad) / 2) ** 2 + Math.cos(lat1 * rad) * Math.cos(lat2 * rad) * Math.sin(((lon2 - lon1) * rad) / 2) ** 2;
+  const a =
+    Math.sin(((lat2 - lat1) * rad) / 2) ** 2 + Math.cos(lat1 * rad) * Math.cos(lat2 * rad) * Math.sin(((lon2 - lon1) * rad) / 2) ** 2;
   return 2 * 6_371_008.8 * Math.asin(Math.sqrt(a));
 }
 
@@ -407,7 +460,9 @@ export async function getResult(db: Executor, id: string): Promise<ServiceDayRes
   if (!row) throw new HttpError(404, 'no_result', 'The service day has not been run yet; run it first (POST …/run)', { status: null });
   if (!row.result || !row.computedAt || !row.engineVersion) {
     if (row.status === 'queued' || row.status === 'running') {
-      throw new ConflictError(`The service day’s first run is ${row.status}; its result is not ready yet`, 'run_in_progress', { status: row.status });
+      throw new ConflictError(`The service day’s first run is ${row.status}; its result is not ready yet`, 'run_in_progress', {
+        status: row.status,
+      });
     }
     throw new HttpError(404, 'no_result', `The service day has no result: ${row.failureReason ?? 'the run failed'}`, {
       status: row.status,

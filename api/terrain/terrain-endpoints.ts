@@ -133,7 +133,10 @@ export function terrainEndpoints(deps: AppDeps) {
       tag: TAG,
       access: rolesWith('terrain.manage'),
       params: terrainIdParamsSchema,
-      responses: { 200: { description: 'The model, back', schema: terrainModelSchema }, 404: { description: 'No deleted model with that id' } },
+      responses: {
+        200: { description: 'The model, back', schema: terrainModelSchema },
+        404: { description: 'No deleted model with that id' },
+      },
       handler: async ({ params, user, res }) => {
         res.json(await restoreTerrain(deps, user!, params.terrainId));
       },
@@ -179,7 +182,9 @@ export function terrainEndpoints(deps: AppDeps) {
         // Where no terrain is there is nothing to keep: every empty tile is the same shared PNG.
         if (png === transparentTile()) return;
         // The cache is written after the answer: the map does not wait for the disk.
-        tileCache.write(catalogue.version, zoom, x, y, png).catch((error: unknown) => console.error(`[terrain] caching tile ${zoom}/${x}/${y} failed:`, error));
+        tileCache
+          .write(catalogue.version, zoom, x, y, png)
+          .catch((error: unknown) => console.error(`[terrain] caching tile ${zoom}/${x}/${y} failed:`, error));
       },
     }),
   ];
@@ -198,16 +203,19 @@ function terrainUpload(deps: AppDeps): RequestHandler[] {
     limits: { fileSize: deps.config.TERRAIN_MAX_UPLOAD_BYTES, files: 1, fields: 5 },
     streamHandler: limit.streamHandler,
   } as multer.Options).single('file');
-  return [limit.precheck, (req, res, next) => {
-    upload(req, res, (error: unknown) => {
-      if (!error) return next();
-      if (error instanceof multer.MulterError) {
-        if (error.code === 'LIMIT_FILE_SIZE') return next(tooLarge());
-        return next(new BadRequestError(`The upload form is not valid: ${error.message}`, { field: error.field }, 'invalid_upload'));
-      }
-      next(error);
-    });
-  }];
+  return [
+    limit.precheck,
+    (req, res, next) => {
+      upload(req, res, (error: unknown) => {
+        if (!error) return next();
+        if (error instanceof multer.MulterError) {
+          if (error.code === 'LIMIT_FILE_SIZE') return next(tooLarge());
+          return next(new BadRequestError(`The upload form is not valid: ${error.message}`, { field: error.field }, 'invalid_upload'));
+        }
+        next(error);
+      });
+    },
+  ];
 }
 
 function formatBytes(bytes: number): string {
@@ -215,4 +223,3 @@ function formatBytes(bytes: number): string {
   if (bytes >= 1024 ** 2) return `${(bytes / 1024 ** 2).toFixed(bytes % 1024 ** 2 ? 1 : 0)} MiB`;
   return `${bytes} bytes`;
 }
-

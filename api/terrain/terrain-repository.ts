@@ -54,7 +54,10 @@ export async function listReadyTerrainRows(db: Executor): Promise<TerrainRowWith
 }
 
 /** The model holding a file, deleted or not (the same file may be in the catalogue only once). */
-export async function findTerrainBySha256(db: Executor, sha256: string): Promise<{ id: string; name: string; deletedAt: Date | null } | undefined> {
+export async function findTerrainBySha256(
+  db: Executor,
+  sha256: string,
+): Promise<{ id: string; name: string; deletedAt: Date | null } | undefined> {
   const [row] = await db
     .select({ id: terrainModels.id, name: terrainModels.name, deletedAt: terrainModels.deletedAt })
     .from(terrainModels)
@@ -156,7 +159,9 @@ export async function addTerrainDependent(db: Executor, terrainId: string, kind:
 export async function removeTerrainDependent(db: Executor, terrainId: string, kind: string, dependentId: string): Promise<void> {
   await db
     .delete(terrainDependents)
-    .where(and(eq(terrainDependents.terrainId, terrainId), eq(terrainDependents.kind, kind), eq(terrainDependents.dependentId, dependentId)));
+    .where(
+      and(eq(terrainDependents.terrainId, terrainId), eq(terrainDependents.kind, kind), eq(terrainDependents.dependentId, dependentId)),
+    );
 }
 
 /** The unit of a CRS's grid axes, from its EPSG definition. */
@@ -205,14 +210,8 @@ export function toTerrainModel(row: TerrainRowWithExtras): TerrainModel {
  * meets the route version's line, when the elevations came from terrain rather than from the
  * route's own coordinates. Replaces what the scenario's previous run recorded.
  */
-export async function replaceScenarioTerrainUse(
-  db: Executor,
-  scenarioId: string,
-  routeVersionId: string | null,
-): Promise<void> {
-  await db
-    .delete(terrainDependents)
-    .where(and(eq(terrainDependents.kind, 'scenario'), eq(terrainDependents.dependentId, scenarioId)));
+export async function replaceScenarioTerrainUse(db: Executor, scenarioId: string, routeVersionId: string | null): Promise<void> {
+  await db.delete(terrainDependents).where(and(eq(terrainDependents.kind, 'scenario'), eq(terrainDependents.dependentId, scenarioId)));
   if (!routeVersionId) return;
   await db.execute(sql`
     insert into terrain_dependents (terrain_id, kind, dependent_id)

@@ -111,7 +111,12 @@ export async function acceptTerrainUpload(deps: AppDeps, user: User, upload: Ter
     throw error;
   }
   const jobs = await terrainJobs(deps);
-  await replaceIngestJob(deps.db, id, null, await jobs.send(TERRAIN_INGEST_JOB, { terrainId: id } satisfies TerrainIngestJob, TERRAIN_INGEST_POLICY));
+  await replaceIngestJob(
+    deps.db,
+    id,
+    null,
+    await jobs.send(TERRAIN_INGEST_JOB, { terrainId: id } satisfies TerrainIngestJob, TERRAIN_INGEST_POLICY),
+  );
   return { id, status: 'processing' };
 }
 
@@ -136,7 +141,8 @@ export async function deleteTerrain(deps: AppDeps, user: User, id: string, force
   const runtime = terrainRuntimeFor(deps);
   const row = await findTerrainModel(deps.db, id);
   if (!row) throw new NotFoundError('The terrain model');
-  if (force && !can(user.role, 'terrain.force-delete')) throw new ForbiddenError('Only an administrator may force the deletion of terrain in use');
+  if (force && !can(user.role, 'terrain.force-delete'))
+    throw new ForbiddenError('Only an administrator may force the deletion of terrain in use');
   const scenarios = await countScenariosUsingTerrain(deps.db, id);
   if (scenarios > 0 && !force) {
     throw new ConflictError(
@@ -216,9 +222,17 @@ export async function requeueStaleIngestion(deps: AppDeps, now = new Date()): Pr
     // Just handed to a worker that has not stamped its first heartbeat yet.
     if (job?.state === 'active' && !model.ingestHeartbeatAt && (job.startedOn?.getTime() ?? 0) >= staleBefore) continue;
     const row = await findTerrainModel(deps.db, model.id);
-    const exists = row ? await access(runtime.storage.absolute(row.storedPath)).then(() => true, () => false) : false;
+    const exists = row
+      ? await access(runtime.storage.absolute(row.storedPath)).then(
+          () => true,
+          () => false,
+        )
+      : false;
     if (!exists) {
-      await updateTerrainModel(deps.db, model.id, { status: 'failed', failureReason: 'The uploaded file was lost before ingestion finished; upload it again' });
+      await updateTerrainModel(deps.db, model.id, {
+        status: 'failed',
+        failureReason: 'The uploaded file was lost before ingestion finished; upload it again',
+      });
       failed.push(model.id);
       continue;
     }
@@ -241,7 +255,11 @@ export const TERRAIN_INGEST_POLICY: JobPolicy = { retryLimit: 1, expireInSeconds
 
 /** Registers the ingestion worker on a queue (api/main.ts does this when RUN_WORKERS). */
 export async function registerTerrainWorkers(deps: AppDeps, queue: JobQueue): Promise<void> {
-  await queue.registerWorker<TerrainIngestJob>(TERRAIN_INGEST_JOB, (job, jobId) => ingestTerrainModel(deps, job.terrainId, jobId), TERRAIN_INGEST_POLICY);
+  await queue.registerWorker<TerrainIngestJob>(
+    TERRAIN_INGEST_JOB,
+    (job, jobId) => ingestTerrainModel(deps, job.terrainId, jobId),
+    TERRAIN_INGEST_POLICY,
+  );
 }
 
 /** The app's job queue, or (tests, CLI tools) an in-process queue with the terrain worker on it. */

@@ -86,7 +86,10 @@ export function vehicleProfileEndpoints(deps: AppDeps) {
       tag: TAG,
       access: rolesWith('vehicles.edit'),
       params: vehicleProfileIdParamsSchema,
-      responses: { 200: { description: 'The profile, back', schema: vehicleProfileSchema }, 404: { description: 'No deleted profile with that id' } },
+      responses: {
+        200: { description: 'The profile, back', schema: vehicleProfileSchema },
+        404: { description: 'No deleted profile with that id' },
+      },
       handler: async ({ params, user, res }) => {
         res.json(await service.restoreProfile(deps.db, user!, params.vehicleProfileId));
       },

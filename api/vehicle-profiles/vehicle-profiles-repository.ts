@@ -10,12 +10,19 @@ export interface Author {
 }
 
 export function listProfiles(db: Executor) {
-  return db.select().from(vehicleProfiles).where(isNull(vehicleProfiles.deletedAt)).orderBy(desc(vehicleProfiles.isPreset), asc(vehicleProfiles.name), asc(vehicleProfiles.id));
+  return db
+    .select()
+    .from(vehicleProfiles)
+    .where(isNull(vehicleProfiles.deletedAt))
+    .orderBy(desc(vehicleProfiles.isPreset), asc(vehicleProfiles.name), asc(vehicleProfiles.id));
 }
 
 /** The profile unless it is deleted. */
 export async function findProfile(db: Executor, id: string) {
-  const [row] = await db.select().from(vehicleProfiles).where(and(eq(vehicleProfiles.id, id), isNull(vehicleProfiles.deletedAt)));
+  const [row] = await db
+    .select()
+    .from(vehicleProfiles)
+    .where(and(eq(vehicleProfiles.id, id), isNull(vehicleProfiles.deletedAt)));
   return row;
 }
 
@@ -100,7 +107,12 @@ export async function listVersions(db: Executor, id: string): Promise<VehiclePro
     source: row.source,
     calibration:
       row.source === 'calibration' && row.calibrationId
-        ? { calibrationId: row.calibrationId, acceptedAt: row.createdAt.toISOString(), acceptedBy: row.createdByName, loggedTrips: row.loggedTrips }
+        ? {
+            calibrationId: row.calibrationId,
+            acceptedAt: row.createdAt.toISOString(),
+            acceptedBy: row.createdByName,
+            loggedTrips: row.loggedTrips,
+          }
         : null,
     savedBy: row.createdByName,
     savedAt: row.createdAt.toISOString(),
@@ -125,14 +137,23 @@ export function contentOf(row: VehicleProfileRow): VehicleProfileDraft {
 
 /** How many logged trips and calibrations belong to a profile. */
 export async function countCalibrationData(db: Executor, id: string): Promise<number> {
-  const [trips] = await db.select({ n: sql<number>`count(*)::int` }).from(loggedTrips).where(eq(loggedTrips.vehicleProfileId, id));
-  const [fits] = await db.select({ n: sql<number>`count(*)::int` }).from(calibrations).where(eq(calibrations.vehicleProfileId, id));
+  const [trips] = await db
+    .select({ n: sql<number>`count(*)::int` })
+    .from(loggedTrips)
+    .where(eq(loggedTrips.vehicleProfileId, id));
+  const [fits] = await db
+    .select({ n: sql<number>`count(*)::int` })
+    .from(calibrations)
+    .where(eq(calibrations.vehicleProfileId, id));
   return (trips?.n ?? 0) + (fits?.n ?? 0);
 }
 
 /** Hides the profile (restorable until the purge). */
 export async function markProfileDeleted(db: Executor, id: string, by: { id: string | null; name: string }) {
-  await db.update(vehicleProfiles).set({ deletedAt: new Date(), deletedById: by.id, deletedByName: by.name }).where(eq(vehicleProfiles.id, id));
+  await db
+    .update(vehicleProfiles)
+    .set({ deletedAt: new Date(), deletedById: by.id, deletedByName: by.name })
+    .where(eq(vehicleProfiles.id, id));
 }
 
 export async function markProfileRestored(db: Executor, id: string) {

@@ -1,5 +1,11 @@
 import type { User } from '@shared/domain/auth';
-import type { CapabilityCurvesResponse, CapabilityQuery, VehicleProfile, VehicleProfileDraft, VehicleProfileVersion } from '@shared/domain/vehicle-profiles';
+import type {
+  CapabilityCurvesResponse,
+  CapabilityQuery,
+  VehicleProfile,
+  VehicleProfileDraft,
+  VehicleProfileVersion,
+} from '@shared/domain/vehicle-profiles';
 import { capabilityCurves } from '@shared/engine/capability-curves';
 import type { Database } from '../db/client';
 import { ConflictError, NotFoundError } from '../http/http-error';

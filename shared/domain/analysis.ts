@@ -116,7 +116,11 @@ export const vehicleSchema = z
     /** SOC at which the charge-power limit reaches zero; the battery never charges above it. */
     socCeiling: share.default(0.95),
     /** Speed below which regeneration fades out (linearly, to nothing at standstill) and the friction brakes take over, m/s. */
-    regenMinSpeedMps: z.number().min(0).max(10).default(5 / 3.6),
+    regenMinSpeedMps: z
+      .number()
+      .min(0)
+      .max(10)
+      .default(5 / 3.6),
     /**
      * Ambient temperature from which the battery takes its full charge power, °C; below it the
      * charge-power limit falls linearly to `coldChargeShareAtMinus20C` at −20 °C (cells are
@@ -235,9 +239,7 @@ export const optionsSchema = z.object({
   /** Resampling spacing, m. */
   spacingM: z.number().min(1).max(200).default(DEFAULT_SPACING_M),
   /** One speed limit for the whole route, or stretches (outside them: the largest given limit). */
-  speedLimitKph: z
-    .union([z.number().positive().max(300), z.array(speedLimitStretchSchema).min(1)])
-    .default(50),
+  speedLimitKph: z.union([z.number().positive().max(300), z.array(speedLimitStretchSchema).min(1)]).default(50),
   stops: z.array(stopSchema).default([]),
   /** Elevation smoothing window, m; 0 switches smoothing off. */
   smoothingWindowM: z.number().min(0).max(5_000).default(DEFAULT_SMOOTHING_WINDOW_M),
@@ -294,10 +296,7 @@ export type RoadLoadResponse = z.infer<typeof roadLoadResponseSchema>;
 const longitude = z.number().min(-180).max(180);
 const latitude = z.number().min(-90).max(90);
 /** GeoJSON position (RFC 7946): [lon, lat] or [lon, lat, elevation m]. */
-export const positionSchema = z.union([
-  z.tuple([longitude, latitude]),
-  z.tuple([longitude, latitude, z.number().min(-1_000).max(11_000)]),
-]);
+export const positionSchema = z.union([z.tuple([longitude, latitude]), z.tuple([longitude, latitude, z.number().min(-1_000).max(11_000)])]);
 
 /** GeoJSON LineString (RFC 7946), WGS 84. */
 export const lineStringSchema = z.object({
@@ -389,10 +388,17 @@ export const profileViewQuerySchema = z.object({
     .meta({ description: 'Keep about one point per this many metres (1–10 000); the hottest and fastest point of each step stay in' }),
   series: z
     .string()
-    .transform((text) => text.split(',').map((name) => name.trim()).filter((name) => name.length > 0))
+    .transform((text) =>
+      text
+        .split(',')
+        .map((name) => name.trim())
+        .filter((name) => name.length > 0),
+    )
     .pipe(z.array(profileSeriesSchema).min(1, 'name at least one series'))
     .optional()
-    .meta({ description: `Only these per-point series, comma-separated (distanceM is always included): ${profileSchema.keyof().options.join(', ')}` }),
+    .meta({
+      description: `Only these per-point series, comma-separated (distanceM is always included): ${profileSchema.keyof().options.join(', ')}`,
+    }),
 });
 export type ProfileView = z.infer<typeof profileViewQuerySchema>;
 

@@ -6,7 +6,13 @@ export const auditedKindSchema = z.enum(AUDITED_KINDS);
 export type AuditedKind = z.infer<typeof auditedKindSchema>;
 
 /** The kinds that are deleted restorably (review items are never deleted: their record stays). */
-export const RESTORABLE_KINDS = ['route', 'scenario', 'vehicle-profile', 'terrain', 'service-day'] as const satisfies readonly AuditedKind[];
+export const RESTORABLE_KINDS = [
+  'route',
+  'scenario',
+  'vehicle-profile',
+  'terrain',
+  'service-day',
+] as const satisfies readonly AuditedKind[];
 export const restorableKindSchema = z.enum(RESTORABLE_KINDS);
 export type RestorableKind = z.infer<typeof restorableKindSchema>;
 

@@ -2,7 +2,10 @@ import * as z from 'zod';
 import { MAX_PASSWORD_LENGTH, passwordWeakness } from './password-strength';
 import { roleSchema } from './roles';
 
-export const emailSchema = z.email().max(254).transform((email) => email.toLowerCase());
+export const emailSchema = z
+  .email()
+  .max(254)
+  .transform((email) => email.toLowerCase());
 
 export const userSchema = z.object({
   id: z.uuid(),

@@ -75,13 +75,38 @@ export const basemapUploadMultipartSchema = z.object({
 export const BASE_TILE_LAYERS = ['landuse', 'water', 'waterways', 'roads', 'places'] as const;
 
 /** Road classes in the `roads` layer (`class` property), most important first. */
-export const ROAD_CLASSES = ['motorway', 'trunk', 'primary', 'secondary', 'tertiary', 'minor', 'busway', 'service', 'track', 'path', 'rail', 'tram'] as const;
+export const ROAD_CLASSES = [
+  'motorway',
+  'trunk',
+  'primary',
+  'secondary',
+  'tertiary',
+  'minor',
+  'busway',
+  'service',
+  'track',
+  'path',
+  'rail',
+  'tram',
+] as const;
 export type RoadClass = (typeof ROAD_CLASSES)[number];
 
 /** Landuse classes in the `landuse` layer (`class` property). */
 export const LANDUSE_CLASSES = [
-  'forest', 'residential', 'commercial', 'industrial', 'farmland', 'grass', 'cemetery', 'winter_sports',
-  'military', 'scrub', 'rock', 'glacier', 'wetland', 'sand',
+  'forest',
+  'residential',
+  'commercial',
+  'industrial',
+  'farmland',
+  'grass',
+  'cemetery',
+  'winter_sports',
+  'military',
+  'scrub',
+  'rock',
+  'glacier',
+  'wetland',
+  'sand',
 ] as const;
 
 /** Highest zoom the tiles carry data for; closer zooms enlarge that tile. */

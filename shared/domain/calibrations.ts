@@ -73,7 +73,12 @@ export const calibrationResultSchema = z.object({
     }),
   ),
   brake: z
-    .object({ parameters: z.array(fittedParameterSchema), before: errorStatisticsSchema, after: errorStatisticsSchema, correlation: z.number().nullable() })
+    .object({
+      parameters: z.array(fittedParameterSchema),
+      before: errorStatisticsSchema,
+      after: errorStatisticsSchema,
+      correlation: z.number().nullable(),
+    })
     .nullable(),
   statistics: z.object({
     steps: z.number(),

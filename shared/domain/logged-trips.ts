@@ -26,7 +26,9 @@ export type LoggedTripUploadFields = z.infer<typeof loggedTripUploadFieldsSchema
 
 /** The multipart form as documented (the file is read by the upload middleware). */
 export const loggedTripMultipartSchema = loggedTripUploadFieldsSchema.extend({
-  file: z.string().meta({ format: 'binary', description: 'The logged trip as CSV (header row, comma-separated, units in the column names)' }),
+  file: z
+    .string()
+    .meta({ format: 'binary', description: 'The logged trip as CSV (header row, comma-separated, units in the column names)' }),
 });
 
 export const loggedTripChannelsSchema = z.object({
@@ -137,7 +139,13 @@ export const replayComparisonSchema = z.object({
     modelledBrakeTempC: z.array(z.number()),
   }),
   power: z
-    .object({ rmsErrorW: z.number(), biasW: z.number(), measuredEnergyWh: z.number(), modelledEnergyWh: z.number(), energyErrorPercent: z.number() })
+    .object({
+      rmsErrorW: z.number(),
+      biasW: z.number(),
+      measuredEnergyWh: z.number(),
+      modelledEnergyWh: z.number(),
+      energyErrorPercent: z.number(),
+    })
     .nullable(),
   soc: statisticsSchema.nullable(),
   brakeTemperature: statisticsSchema.nullable(),

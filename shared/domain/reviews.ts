@@ -119,9 +119,7 @@ export function governingRisk(descent: { risk: RiskLevel; worstCase?: { risk: Ri
 
 /** Actions open to a safety officer on an item in `state` (for the screens' buttons). */
 export function allowedReviewActions(state: ReviewState): ReviewAction[] {
-  return (Object.keys(REVIEW_TRANSITIONS) as ReviewAction[]).filter((action) =>
-    REVIEW_TRANSITIONS[action].from.includes(state),
-  );
+  return (Object.keys(REVIEW_TRANSITIONS) as ReviewAction[]).filter((action) => REVIEW_TRANSITIONS[action].from.includes(state));
 }
 
 export const reviewItemSchema = z.object({

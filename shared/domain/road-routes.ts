@@ -1,6 +1,13 @@
 import * as z from 'zod';
 import { lineStringSchema } from './analysis';
-import { DEFAULT_SPEED_LIMIT_KPH, SERVICE_DAYS_PER_YEAR, TRIPS_PER_DAY, serviceDaysPerYearSchema, speedLimitKphSchema, tripsPerDaySchema } from './limits';
+import {
+  DEFAULT_SPEED_LIMIT_KPH,
+  SERVICE_DAYS_PER_YEAR,
+  TRIPS_PER_DAY,
+  serviceDaysPerYearSchema,
+  speedLimitKphSchema,
+  tripsPerDaySchema,
+} from './limits';
 
 /**
  * Road routes as planners edit them. A route is versioned: every save of its geometry, stops or
@@ -111,7 +118,13 @@ export type RoadRoutePage = z.infer<typeof roadRoutePageSchema>;
 /** Every saved version of a route, newest first. */
 export const roadRouteVersionListSchema = z.object({
   items: z.array(
-    z.object({ version: z.number().int(), versionId: z.uuid(), lengthM: z.number(), createdBy: z.string(), createdAt: z.iso.datetime({ offset: true }) }),
+    z.object({
+      version: z.number().int(),
+      versionId: z.uuid(),
+      lengthM: z.number(),
+      createdBy: z.string(),
+      createdAt: z.iso.datetime({ offset: true }),
+    }),
   ),
 });
 
@@ -207,4 +220,6 @@ export const roadNetworkSchema = z.object({
 });
 export type RoadNetwork = z.infer<typeof roadNetworkSchema>;
 export const roadNetworkUploadResultSchema = z.object({ featureCount: z.number().int(), lineCount: z.number().int() });
-export const roadNetworkMultipartSchema = z.object({ file: z.string().describe('GeoJSON FeatureCollection of LineString/MultiLineString roads') });
+export const roadNetworkMultipartSchema = z.object({
+  file: z.string().describe('GeoJSON FeatureCollection of LineString/MultiLineString roads'),
+});

@@ -149,7 +149,12 @@ export type ScenarioListQuery = z.infer<typeof scenarioListQuerySchema>;
 export const scenarioCompareQuerySchema = z.object({
   ids: z
     .string()
-    .transform((text) => text.split(',').map((id) => id.trim()).filter((id) => id.length > 0))
+    .transform((text) =>
+      text
+        .split(',')
+        .map((id) => id.trim())
+        .filter((id) => id.length > 0),
+    )
     .pipe(z.array(z.uuid()).min(2, 'give 2 to 4 scenario ids').max(4, 'give 2 to 4 scenario ids')),
 });
 

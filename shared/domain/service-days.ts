@@ -19,7 +19,11 @@ export const dayTypeSchema = z.enum(DAY_TYPES);
 export type DayType = z.infer<typeof dayTypeSchema>;
 
 /** Seconds after midnight of the service day; past 24 h for trips that run after midnight (as GTFS). */
-export const serviceTimeSSchema = z.number().int().min(0).max(36 * 3600);
+export const serviceTimeSSchema = z
+  .number()
+  .int()
+  .min(0)
+  .max(36 * 3600);
 
 export const CHARGER_KINDS = ['depot', 'terminus'] as const;
 export const chargerKindSchema = z.enum(CHARGER_KINDS);
@@ -103,7 +107,9 @@ export const serviceDaySchema = serviceDayDraftSchema.extend({
 });
 export type ServiceDay = z.infer<typeof serviceDaySchema>;
 export const serviceDayListSchema = z.object({
-  items: z.array(serviceDaySchema.omit({ blocks: true, chargers: true }).extend({ blockCount: z.number().int(), tripCount: z.number().int() })),
+  items: z.array(
+    serviceDaySchema.omit({ blocks: true, chargers: true }).extend({ blockCount: z.number().int(), tripCount: z.number().int() }),
+  ),
 });
 
 /** A stop at a charger during a layover or at the depot. */

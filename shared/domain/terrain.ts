@@ -107,7 +107,10 @@ const latitudeSchema = z.number().min(-90).max(90);
 
 export const elevationSampleRequestSchema = z.object({
   /** [longitude, latitude] pairs in WGS 84 degrees. */
-  points: z.array(z.tuple([longitudeSchema, latitudeSchema])).min(1).max(MAX_SAMPLE_POINTS),
+  points: z
+    .array(z.tuple([longitudeSchema, latitudeSchema]))
+    .min(1)
+    .max(MAX_SAMPLE_POINTS),
   method: samplingMethodSchema.default('bilinear'),
   /** Restrict sampling to this one model. */
   terrainId: z.uuid().optional(),

@@ -84,7 +84,10 @@ const vehicleProfileDraftShape = z.object({
 export const vehicleProfileDraftSchema = vehicleProfileDraftShape.superRefine(loadsWithinPermissibleMass);
 
 /** Refuses load cases that take the vehicle above its permissible gross mass, naming the load case. */
-function loadsWithinPermissibleMass(draft: { vehicle: { curbMassKg: number; permissibleGrossMassKg?: number | undefined }; loadsKg: Record<LoadCase, number> }, ctx: z.RefinementCtx): void {
+function loadsWithinPermissibleMass(
+  draft: { vehicle: { curbMassKg: number; permissibleGrossMassKg?: number | undefined }; loadsKg: Record<LoadCase, number> },
+  ctx: z.RefinementCtx,
+): void {
   const limitKg = draft.vehicle.permissibleGrossMassKg;
   if (limitKg === undefined) return;
   for (const loadCase of LOAD_CASES) {

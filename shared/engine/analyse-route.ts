@@ -196,8 +196,7 @@ export function prepareRouteModel(
     cosTheta[k] = 1 / secant;
     const altitudeM = 0.5 * (elevationM[k]! + elevationM[k + 1]!);
     airDensity[k] = airDensityUnchecked(altitudeM, ambientK);
-    ambientC[k] =
-      conditions.ambientC ?? ISA_SEA_LEVEL_TEMPERATURE_K - ISA_LAPSE_RATE_K_PER_M * altitudeM - CELSIUS_TO_KELVIN_K;
+    ambientC[k] = conditions.ambientC ?? ISA_SEA_LEVEL_TEMPERATURE_K - ISA_LAPSE_RATE_K_PER_M * altitudeM - CELSIUS_TO_KELVIN_K;
   }
 
   const lengthM = distanceM[n - 1]!;
@@ -272,7 +271,10 @@ export function withVehicle(model: RouteModel, vehicle: Vehicle): RouteModel {
 export function traceSpeedAtPoints(model: RouteModel, trace: SpeedTrace): Float64Array {
   const { distanceM, speedMps } = trace;
   if (distanceM.length === 0 || distanceM.length !== speedMps.length) {
-    throw new EngineInputError('speedTrace', `needs equal, non-empty distance and speed arrays (got ${distanceM.length} and ${speedMps.length})`);
+    throw new EngineInputError(
+      'speedTrace',
+      `needs equal, non-empty distance and speed arrays (got ${distanceM.length} and ${speedMps.length})`,
+    );
   }
   const out = new Float64Array(model.pointCount);
   let j = 0;
@@ -306,7 +308,10 @@ function postedLimits(distanceM: Float64Array, options: AnalysisOptions, lengthM
   let fallback = 0;
   setting.forEach((stretch, index) => {
     if (stretch.fromM >= lengthM) {
-      throw new EngineInputError(`options.speedLimitKph.${index}.fromM`, `${stretch.fromM} m lies beyond the route's ${lengthM.toFixed(1)} m`);
+      throw new EngineInputError(
+        `options.speedLimitKph.${index}.fromM`,
+        `${stretch.fromM} m lies beyond the route's ${lengthM.toFixed(1)} m`,
+      );
     }
     fallback = Math.max(fallback, stretch.speedKph);
   });

@@ -35,17 +35,18 @@ import { EigenvalueDecomposition, Matrix, inverse } from 'ml-matrix';
 import type { Vehicle } from '../domain/analysis';
 import { withVehicle } from './analyse-route';
 import { STANDARD_GRAVITY_MPS2 } from './constants';
-import { comparePointValues, comparePower, replaySteps, type ErrorStatistics, type PowerComparison, type ReplaySteps } from './replay-comparison';
+import {
+  comparePointValues,
+  comparePower,
+  replaySteps,
+  type ErrorStatistics,
+  type PowerComparison,
+  type ReplaySteps,
+} from './replay-comparison';
 import { runRoute, type RouteRun } from './route-run';
 import type { RouteModel } from './route-simulation';
 import type { AlignedTrip } from './trip-alignment';
-import {
-  BRAKE_FIT_PARAMETERS,
-  FIT_BOUNDS,
-  FIT_PARAMETER_LABELS,
-  POWER_FIT_PARAMETERS,
-  type FitParameter,
-} from './calibration-parameters';
+import { BRAKE_FIT_PARAMETERS, FIT_BOUNDS, FIT_PARAMETER_LABELS, POWER_FIT_PARAMETERS, type FitParameter } from './calibration-parameters';
 
 export * from './calibration-parameters';
 
@@ -82,7 +83,8 @@ export interface FittedParameter {
   atBound: 'lower' | 'upper' | null;
 }
 
-export type CalibrationWarningCode = 'indistinguishable' | 'ill_conditioned' | 'at_bound' | 'poorly_determined' | 'few_samples' | 'no_brake_data';
+export type CalibrationWarningCode =
+  'indistinguishable' | 'ill_conditioned' | 'at_bound' | 'poorly_determined' | 'few_samples' | 'no_brake_data';
 
 export interface CalibrationWarning {
   code: CalibrationWarningCode;
@@ -177,7 +179,9 @@ function stepsOf(trip: CalibrationTrip, values: Partial<Record<FitParameter, num
 export async function fitCalibration(input: CalibrationInput, options: FitOptions = {}): Promise<CalibrationOutcome> {
   const { trips } = input;
   if (trips.length === 0) throw new RangeError('fit: give at least one trip');
-  const powerKeys = POWER_FIT_PARAMETERS.filter((key) => input.parameters.includes(key) && (key !== 'payloadKg' || trips.some((t) => !t.payloadKnown)));
+  const powerKeys = POWER_FIT_PARAMETERS.filter(
+    (key) => input.parameters.includes(key) && (key !== 'payloadKg' || trips.some((t) => !t.payloadKnown)),
+  );
   const brakeKeys = BRAKE_FIT_PARAMETERS.filter((key) => input.parameters.includes(key));
   const reference = trips[0]!.model.vehicle;
   const initialValues = (keys: readonly FitParameter[]) => {
@@ -214,7 +218,11 @@ export async function fitCalibration(input: CalibrationInput, options: FitOption
   if (brakeKeys.length > 0) {
     const withBrakes = trips.filter((trip) => trip.trip.brakeTempC?.some((value) => value !== null));
     if (withBrakes.length === 0) {
-      warnings.push({ code: 'no_brake_data', message: 'No chosen trip logged brake temperatures, so the brake thermal parameters were left as they are.', parameters: brakeKeys });
+      warnings.push({
+        code: 'no_brake_data',
+        message: 'No chosen trip logged brake temperatures, so the brake thermal parameters were left as they are.',
+        parameters: brakeKeys,
+      });
     } else {
       const measuredC: number[] = [];
       const pointsOf = withBrakes.map((trip) => trip.trip.brakeTempC!.map((value, i) => (value === null ? -1 : i)).filter((i) => i >= 0));
@@ -268,12 +276,19 @@ export async function fitCalibration(input: CalibrationInput, options: FitOption
         options,
       );
       warnings.length = 0;
-      warnings.push(...joint.warnings.filter((warning) => warning.code !== 'few_samples' || power.warnings.some((w) => w.code === 'few_samples')));
+      warnings.push(
+        ...joint.warnings.filter((warning) => warning.code !== 'few_samples' || power.warnings.some((w) => w.code === 'few_samples')),
+      );
       fittedPower = record(powerKeys, joint.theta.slice(0, powerKeys.length));
       fittedBrake = record(brakeKeys, joint.theta.slice(powerKeys.length));
       parameters = joint.parameters.slice(0, powerKeys.length);
       correlation = joint.correlation ? { keys, matrix: joint.correlation } : null;
-      statistics = { ...power.statistics, conditionNumber: joint.statistics.conditionNumber, iterations: power.statistics.iterations + alone.statistics.iterations + joint.statistics.iterations, tQuantile: joint.statistics.tQuantile };
+      statistics = {
+        ...power.statistics,
+        conditionNumber: joint.statistics.conditionNumber,
+        iterations: power.statistics.iterations + alone.statistics.iterations + joint.statistics.iterations,
+        tQuantile: joint.statistics.tQuantile,
+      };
       const stats = (values: Float64Array) => comparePointValues(Array.from(measuredArray), values)!;
       const brakeIndex = (key: FitParameter) => keys.indexOf(key);
       brake = {
@@ -317,10 +332,11 @@ export async function fitCalibration(input: CalibrationInput, options: FitOption
     timeS: Float64Array.from(fit.residuals.timeS),
   }));
 
-  const meanMassKg = trips.reduce((sum, trip) => {
-    const vehicle = vehicleWithParameters(trip.model.vehicle, allFitted, trip.payloadKnown);
-    return sum + vehicle.curbMassKg + vehicle.payloadKg;
-  }, 0) / trips.length;
+  const meanMassKg =
+    trips.reduce((sum, trip) => {
+      const vehicle = vehicleWithParameters(trip.model.vehicle, allFitted, trip.payloadKnown);
+      return sum + vehicle.curbMassKg + vehicle.payloadKg;
+    }, 0) / trips.length;
   const fittedReference = vehicleWithParameters(reference, allFitted, true);
   return {
     parameters,

@@ -47,4 +47,3 @@ export const FIT_PARAMETER_LABELS: Readonly<Record<FitParameter, string>> = {
   brakeThermalMassJPerK: 'Brake thermal mass',
   brakeCoolingAreaM2: 'Brake cooled area',
 };
-

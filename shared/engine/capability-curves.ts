@@ -37,9 +37,13 @@ export function capabilityCurves(vehicleInput: VehicleInput, options: Capability
   const speeds = options.speedsMps ?? Array.from({ length: 51 }, (_, i) => i * 0.5);
   const airDensity = airDensityKgM3(options.altitudeM ?? 0, options.ambientC);
   const massKg = vehicle.curbMassKg + vehicle.payloadKg;
-  const tractionEnvelopeN = speeds.map((v) => (v > 0 ? Math.min(vehicle.maxTractionForceN, vehicle.tractionPowerW / v) : vehicle.maxTractionForceN));
+  const tractionEnvelopeN = speeds.map((v) =>
+    v > 0 ? Math.min(vehicle.maxTractionForceN, vehicle.tractionPowerW / v) : vehicle.maxTractionForceN,
+  );
   const regenEnvelopeN = speeds.map((v) =>
-    v > 0 && vehicle.regenPowerW > 0 ? -Math.min(vehicle.maxTractionForceN, vehicle.regenPowerW / v) * regenSpeedFactor(v, vehicle.regenMinSpeedMps) : 0,
+    v > 0 && vehicle.regenPowerW > 0
+      ? -Math.min(vehicle.maxTractionForceN, vehicle.regenPowerW / v) * regenSpeedFactor(v, vehicle.regenMinSpeedMps)
+      : 0,
   );
   const curves = grades.flatMap((gradePercent) =>
     accelerations.map((accelerationMps2) => ({

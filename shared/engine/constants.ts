@@ -186,8 +186,7 @@ export const DEFAULT_CRAWL_DISTANCE_M = 200;
  * advice).
  */
 export const ENGINEERING_CAUTION =
-  'Figures are engineering estimates; local codes, the vehicle maker\u2019s limits and licensed ' +
-  'engineering judgement decide.';
+  'Figures are engineering estimates; local codes, the vehicle maker\u2019s limits and licensed ' + 'engineering judgement decide.';
 
 /** Density of cabin air for ventilation and door losses, kg/m³ (ISA sea level at 15 °C, U.S. Standard Atmosphere 1976: 1.225). */
 export const AIR_DENSITY_CABIN_KG_PER_M3 = 1.225;

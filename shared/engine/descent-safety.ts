@@ -127,9 +127,7 @@ export function describeWorstCase(
     lump = Math.max(lump, run.brakeTempC[i]!);
   }
   const peak = Math.max(lump, front, rear, nominalGoverningC);
-  const advice = drivable
-    ? solveMaxSafeSpeed(model, run, range, limitC)
-    : { maxSafeSpeedKph: null, speedAdvice: 'not-drivable' as const };
+  const advice = drivable ? solveMaxSafeSpeed(model, run, range, limitC) : { maxSafeSpeedKph: null, speedAdvice: 'not-drivable' as const };
   return {
     peakBrakeTempC: peak,
     peakBrakeTempByAxleC: { front, rear },
@@ -151,8 +149,16 @@ export function sensitivityVariants(model: RouteModel): SensitivityVariants {
   const continuous = Math.min(v.regenPowerW, v.regenContinuousPowerW ?? v.regenPowerW);
   return {
     models: [
-      { input: 'mass', low: scaled({ curbMassKg: 0.9 * v.curbMassKg, payloadKg: 0.9 * v.payloadKg }), high: scaled({ curbMassKg: 1.1 * v.curbMassKg, payloadKg: 1.1 * v.payloadKg }) },
-      { input: 'brake-cooling', low: scaled({ brakeCoolingAreaM2: 0.7 * v.brakeCoolingAreaM2 }), high: scaled({ brakeCoolingAreaM2: 1.3 * v.brakeCoolingAreaM2 }) },
+      {
+        input: 'mass',
+        low: scaled({ curbMassKg: 0.9 * v.curbMassKg, payloadKg: 0.9 * v.payloadKg }),
+        high: scaled({ curbMassKg: 1.1 * v.curbMassKg, payloadKg: 1.1 * v.payloadKg }),
+      },
+      {
+        input: 'brake-cooling',
+        low: scaled({ brakeCoolingAreaM2: 0.7 * v.brakeCoolingAreaM2 }),
+        high: scaled({ brakeCoolingAreaM2: 1.3 * v.brakeCoolingAreaM2 }),
+      },
       {
         input: 'brake-thermal-mass',
         low: scaled({ brakeThermalMassJPerK: 0.8 * v.brakeThermalMassJPerK }),
@@ -192,7 +198,8 @@ export function descentSensitivity(
   ];
   let dominant = entries[0]!;
   for (const entry of entries) {
-    if (Math.abs(entry.highPeakBrakeTempC - entry.lowPeakBrakeTempC) > Math.abs(dominant.highPeakBrakeTempC - dominant.lowPeakBrakeTempC)) dominant = entry;
+    if (Math.abs(entry.highPeakBrakeTempC - entry.lowPeakBrakeTempC) > Math.abs(dominant.highPeakBrakeTempC - dominant.lowPeakBrakeTempC))
+      dominant = entry;
   }
   return { entries, dominant: dominant.input };
 }
@@ -258,13 +265,21 @@ export function drivabilityStretches(model: RouteModel, run: RouteRun, options: 
       const cos = model.cosTheta[k]!;
       const cr = vehicle.rollingResistanceCoefficient;
       if (Math.abs(grade) > safety.maxRoadGradePercent) {
-        add('steeper-than-road-limit', k, `grade ${Math.abs(grade).toFixed(1)} % against a road design limit of ${safety.maxRoadGradePercent} %`);
+        add(
+          'steeper-than-road-limit',
+          k,
+          `grade ${Math.abs(grade).toFixed(1)} % against a road design limit of ${safety.maxRoadGradePercent} %`,
+        );
       }
       if (sin > 0) {
         const neededN = model.weightN * (sin + cr * cos);
         const availableN = Math.min(vehicle.maxTractionForceN, mu * vehicle.drivenAxleLoadShare * model.weightN * cos);
         if (neededN > availableN) {
-          add('beyond-traction', k, `climbing ${grade.toFixed(1)} % needs ${Math.round(neededN / 1000)} kN, the vehicle can give ${Math.round(availableN / 1000)} kN here`);
+          add(
+            'beyond-traction',
+            k,
+            `climbing ${grade.toFixed(1)} % needs ${Math.round(neededN / 1000)} kN, the vehicle can give ${Math.round(availableN / 1000)} kN here`,
+          );
         }
       } else if (-sin - cr * cos > mu * cos) {
         add('beyond-braking-adhesion', k, `grade ${grade.toFixed(1)} % is steeper than all wheels' adhesion (μ ${mu}) can hold`);

@@ -274,12 +274,7 @@ export interface DescentSafetyInputs {
 }
 
 /** Full descent records for a run. */
-export function describeDescents(
-  model: RouteModel,
-  run: RouteRun,
-  options: AnalysisOptions,
-  safety: DescentSafetyInputs = {},
-): Descent[] {
+export function describeDescents(model: RouteModel, run: RouteRun, options: AnalysisOptions, safety: DescentSafetyInputs = {}): Descent[] {
   const referenceJ = typeIiReferenceBrakingJ(model.vehicle);
   const fadeC = fadeThresholdC(model.vehicle.brakeType);
   const marginK = options.safety.fadeMarginK;

@@ -54,12 +54,7 @@ export function geodesicInverse(lon1: number, lat1: number, lon2: number, lat2: 
     cos2SigmaM = cosSqAlpha !== 0 ? cosSigma - (2 * sinU1 * sinU2) / cosSqAlpha : 0;
     const C = (F / 16) * cosSqAlpha * (4 + F * (4 - 3 * cosSqAlpha));
     const previous = lambda;
-    lambda =
-      L +
-      (1 - C) *
-        F *
-        sinAlpha *
-        (sigma + C * sinSigma * (cos2SigmaM + C * cosSigma * (-1 + 2 * cos2SigmaM * cos2SigmaM)));
+    lambda = L + (1 - C) * F * sinAlpha * (sigma + C * sinSigma * (cos2SigmaM + C * cosSigma * (-1 + 2 * cos2SigmaM * cos2SigmaM)));
     if (Math.abs(lambda - previous) < CONVERGENCE_RAD) {
       converged = true;
       break;
@@ -92,13 +87,7 @@ export function geodesicDistanceM(lon1: number, lat1: number, lon2: number, lat2
  * Point reached from (lon1, lat1) along azimuth `azimuthRad` after `distanceM`; writes
  * [lon, lat] in degrees into `out` to keep hot loops free of allocations.
  */
-export function geodesicDirect(
-  lon1: number,
-  lat1: number,
-  azimuthRad: number,
-  distanceM: number,
-  out: [number, number],
-): void {
+export function geodesicDirect(lon1: number, lat1: number, azimuthRad: number, distanceM: number, out: [number, number]): void {
   const sinAlpha1 = Math.sin(azimuthRad);
   const cosAlpha1 = Math.cos(azimuthRad);
   const tanU1 = (1 - F) * Math.tan(lat1 * DEG);
@@ -134,15 +123,10 @@ export function geodesicDirect(
   cosSigma = Math.cos(sigma);
   cos2SigmaM = Math.cos(2 * sigma1 + sigma);
   const tmp = sinU1 * sinSigma - cosU1 * cosSigma * cosAlpha1;
-  const lat2 = Math.atan2(
-    sinU1 * cosSigma + cosU1 * sinSigma * cosAlpha1,
-    (1 - F) * Math.sqrt(sinAlpha * sinAlpha + tmp * tmp),
-  );
+  const lat2 = Math.atan2(sinU1 * cosSigma + cosU1 * sinSigma * cosAlpha1, (1 - F) * Math.sqrt(sinAlpha * sinAlpha + tmp * tmp));
   const lambda = Math.atan2(sinSigma * sinAlpha1, cosU1 * cosSigma - sinU1 * sinSigma * cosAlpha1);
   const C = (F / 16) * cosSqAlpha * (4 + F * (4 - 3 * cosSqAlpha));
-  const L =
-    lambda -
-    (1 - C) * F * sinAlpha * (sigma + C * sinSigma * (cos2SigmaM + C * cosSigma * (-1 + 2 * cos2SigmaM * cos2SigmaM)));
+  const L = lambda - (1 - C) * F * sinAlpha * (sigma + C * sinSigma * (cos2SigmaM + C * cosSigma * (-1 + 2 * cos2SigmaM * cos2SigmaM)));
   let lon2 = lon1 + L / DEG;
   if (lon2 > 180) lon2 -= 360;
   else if (lon2 < -180) lon2 += 360;

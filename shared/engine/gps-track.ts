@@ -164,12 +164,7 @@ export interface TrackProjection {
  * followed in order instead of jumping to the other pass. The first fix is matched to the
  * nearest point of the whole line.
  */
-export function projectTrackOntoLine(
-  east: Float64Array,
-  north: Float64Array,
-  odometerM: Float64Array,
-  line: PlaneLine,
-): TrackProjection {
+export function projectTrackOntoLine(east: Float64Array, north: Float64Array, odometerM: Float64Array, line: PlaneLine): TrackProjection {
   const n = east.length;
   const segments = line.east.length - 1;
   const alongM = new Float64Array(n);

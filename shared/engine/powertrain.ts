@@ -181,10 +181,10 @@ export function splitWheelPower(
         const acceptedW = auxCoveredW + params.lineReceptivity * (electricW - auxCoveredW);
         regenWheelW = acceptedW / eta;
       } else {
-        const coldFactor = ambientC === undefined ? 1 : coldChargeFactor(ambientC, params.coldChargeFullFromC, params.coldChargeShareAtMinus20C);
+        const coldFactor =
+          ambientC === undefined ? 1 : coldChargeFactor(ambientC, params.coldChargeFullFromC, params.coldChargeShareAtMinus20C);
         const taperedW = params.maxChargePowerW * chargeTaperFactor(soc, params.socTaperStart, params.socCeiling) * coldFactor;
-        const headroomW =
-          durationS > 0 ? (Math.max(0, params.socCeiling - soc) * params.batteryCapacityJ) / durationS : taperedW;
+        const headroomW = durationS > 0 ? (Math.max(0, params.socCeiling - soc) * params.batteryCapacityJ) / durationS : taperedW;
         const acceptW = Math.min(taperedW, headroomW) + aux;
         regenWheelW = Math.min(regenWheelW, acceptW / eta);
       }

@@ -222,6 +222,8 @@ export function replaySeries(model: RouteModel, run: RouteRun, trip: AlignedTrip
 
 function assertAligned(model: RouteModel, trip: AlignedTrip): void {
   if (model.pointCount !== trip.distanceM.length) {
-    throw new RangeError(`replay: the model has ${model.pointCount} points, the trip ${trip.distanceM.length}; run replays at REPLAY_SPACING_M`);
+    throw new RangeError(
+      `replay: the model has ${model.pointCount} points, the trip ${trip.distanceM.length}; run replays at REPLAY_SPACING_M`,
+    );
   }
 }

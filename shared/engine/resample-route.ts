@@ -33,11 +33,7 @@ export interface ResampleLimits {
  * With `limits`, a route longer than `maxLengthM` or needing more than `maxPoints` points throws a
  * `RouteTooLargeError` after measuring the legs and before allocating anything per point.
  */
-export function resampleRoute(
-  coordinates: readonly (readonly number[])[],
-  spacingM: number,
-  limits?: ResampleLimits,
-): ResampledRoute {
+export function resampleRoute(coordinates: readonly (readonly number[])[], spacingM: number, limits?: ResampleLimits): ResampledRoute {
   assertInRange('options.spacingM', spacingM, 1e-3, 1e4);
   const hasElevation = coordinates.length > 0 && coordinates.every((position) => position.length >= 3);
 

@@ -10,11 +10,7 @@
  *
  * sin θ and cos θ are exact (via atan), not the small-angle tan θ.
  */
-import {
-  roadLoadRequestSchema,
-  type RoadLoadRequestInput,
-  type RoadLoadResponse,
-} from '../domain/analysis';
+import { roadLoadRequestSchema, type RoadLoadRequestInput, type RoadLoadResponse } from '../domain/analysis';
 import { STANDARD_GRAVITY_MPS2 } from './constants';
 import { airDensityKgM3 } from './atmosphere';
 import { assertFinite, assertNonNegative, parseOrThrow } from './validation';

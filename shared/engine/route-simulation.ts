@@ -153,7 +153,10 @@ export function advanceSegment(
   );
   state.soc = out.split.soc;
   state.shortfallJ += out.split.shortfallJ;
-  state.regenOverloadJ = Math.max(0, state.regenOverloadJ + (out.split.regenWheelPowerW - model.powertrain.regenContinuousPowerW) * durationS);
+  state.regenOverloadJ = Math.max(
+    0,
+    state.regenOverloadJ + (out.split.regenWheelPowerW - model.powertrain.regenContinuousPowerW) * durationS,
+  );
   if (trackBrakes) advanceBrakes(model, k, out.split.frictionPowerW, meanSpeedMps, durationS, state);
 
   out.durationS = durationS;

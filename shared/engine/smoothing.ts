@@ -70,13 +70,26 @@ export function savitzkyGolayOverDistance(distanceM: Float64Array, values: Float
     if (last < i) last = i;
     while (last < n - 1 && distanceM[last + 1]! <= s + h + 1e-9) last++;
     // Normal equations of z ≈ c0 + c1·x + c2·x² with x = (s_j − s)/h; value at centre is c0.
-    let s0 = 0, s1 = 0, s2 = 0, s3 = 0, s4 = 0, t0 = 0, t1 = 0, t2 = 0;
+    let s0 = 0,
+      s1 = 0,
+      s2 = 0,
+      s3 = 0,
+      s4 = 0,
+      t0 = 0,
+      t1 = 0,
+      t2 = 0;
     for (let j = first; j <= last; j++) {
       const x = (distanceM[j]! - s) / h;
       const x2 = x * x;
       const z = values[j]!;
-      s0 += 1; s1 += x; s2 += x2; s3 += x2 * x; s4 += x2 * x2;
-      t0 += z; t1 += z * x; t2 += z * x2;
+      s0 += 1;
+      s1 += x;
+      s2 += x2;
+      s3 += x2 * x;
+      s4 += x2 * x2;
+      t0 += z;
+      t1 += z * x;
+      t2 += z * x2;
     }
     if (last - first < 2) continue;
     // Solve the 3×3 symmetric system by Cramer's rule.

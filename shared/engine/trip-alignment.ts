@@ -187,7 +187,12 @@ function rank(match: LineMatch): number {
 }
 
 /** Lays the trip on the matched stretch of `coordinates` per the module comment. */
-export function alignTrip(samples: TripSamples, track: PreparedTrack, coordinates: readonly (readonly number[])[], match: LineMatch): AlignedTrip {
+export function alignTrip(
+  samples: TripSamples,
+  track: PreparedTrack,
+  coordinates: readonly (readonly number[])[],
+  match: LineMatch,
+): AlignedTrip {
   const n = samples.timeS.length;
   const grid = lineGrid(coordinates, match.direction);
   const lengthM = match.toM - match.fromM;
@@ -197,7 +202,7 @@ export function alignTrip(samples: TripSamples, track: PreparedTrack, coordinate
   const along = new Float64Array(n);
   for (let i = 0; i < n; i++) along[i] = Math.min(lengthM, track.odometer[i]! * match.scale);
   const standstills: { first: number; last: number }[] = [];
-  for (let i = 0; i < n; ) {
+  for (let i = 0; i < n;) {
     if (samples.speedMps[i]! >= STANDSTILL_SPEED_MPS) {
       i++;
       continue;
@@ -235,8 +240,16 @@ export function alignTrip(samples: TripSamples, track: PreparedTrack, coordinate
   for (let i = 1; i < n; i++) if (along[i]! < along[i - 1]!) along[i] = along[i - 1]!;
 
   const distanceM = points.map((point) => point.d);
-  const positions = distanceM.map((d) => [interpolateSorted(grid.distanceM, grid.lon, d + match.fromM), interpolateSorted(grid.distanceM, grid.lat, d + match.fromM)] as [number, number]);
-  const lineElevationM = grid.elevationM ? distanceM.map((d) => interpolateSorted(grid.distanceM, grid.elevationM!, d + match.fromM)) : null;
+  const positions = distanceM.map(
+    (d) =>
+      [interpolateSorted(grid.distanceM, grid.lon, d + match.fromM), interpolateSorted(grid.distanceM, grid.lat, d + match.fromM)] as [
+        number,
+        number,
+      ],
+  );
+  const lineElevationM = grid.elevationM
+    ? distanceM.map((d) => interpolateSorted(grid.distanceM, grid.elevationM!, d + match.fromM))
+    : null;
 
   // Measured time of arrival and departure at each point: first and last time at that distance.
   const arriveS: number[] = [];
@@ -255,15 +268,19 @@ export function alignTrip(samples: TripSamples, track: PreparedTrack, coordinate
   }
   const dwellS = distanceM.map((_, i) => (points[i]!.dwell ? leaveS[i]! - arriveS[i]! : 0));
   const smoothSpeed = savitzkyGolayOverDistance(samples.timeS, samples.speedMps, SPEED_SMOOTHING_WINDOW_S);
-  for (let i = 0; i < n; i++) smoothSpeed[i] = samples.speedMps[i]! < STANDSTILL_SPEED_MPS ? samples.speedMps[i]! : Math.max(0, smoothSpeed[i]!);
-  const speedMps = arriveS.map((t, i) => (points[i]!.dwell && dwellS[i]! > 0 ? 0 : Math.max(0, interpolateSorted(samples.timeS, smoothSpeed, t))));
+  for (let i = 0; i < n; i++)
+    smoothSpeed[i] = samples.speedMps[i]! < STANDSTILL_SPEED_MPS ? samples.speedMps[i]! : Math.max(0, smoothSpeed[i]!);
+  const speedMps = arriveS.map((t, i) =>
+    points[i]!.dwell && dwellS[i]! > 0 ? 0 : Math.max(0, interpolateSorted(samples.timeS, smoothSpeed, t)),
+  );
 
   let energyJ: number[] | null = null;
   let dwellEnergyJ: number[] | null = null;
   const power = samples.batteryPowerW ? filled(samples.timeS, samples.batteryPowerW) : null;
   if (power) {
     const cumulative = new Float64Array(n);
-    for (let i = 1; i < n; i++) cumulative[i] = cumulative[i - 1]! + 0.5 * (power[i - 1]! + power[i]!) * (samples.timeS[i]! - samples.timeS[i - 1]!);
+    for (let i = 1; i < n; i++)
+      cumulative[i] = cumulative[i - 1]! + 0.5 * (power[i - 1]! + power[i]!) * (samples.timeS[i]! - samples.timeS[i - 1]!);
     energyJ = arriveS.map((t) => interpolateSorted(samples.timeS, cumulative, t));
     dwellEnergyJ = leaveS.map((t, i) => interpolateSorted(samples.timeS, cumulative, t) - energyJ![i]!);
   }

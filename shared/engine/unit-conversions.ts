@@ -2,12 +2,7 @@
  * Unit conversions used at the edges of the engine (user input, display, the FHWA Grade Severity
  * Rating System's customary units). Exact factors from SI definitions.
  */
-import {
-  CELSIUS_TO_KELVIN_K,
-  JOULES_PER_WH,
-  METRES_PER_MILE,
-  WATTS_PER_HORSEPOWER,
-} from './constants';
+import { CELSIUS_TO_KELVIN_K, JOULES_PER_WH, METRES_PER_MILE, WATTS_PER_HORSEPOWER } from './constants';
 
 /** km/h → m/s. */
 export function kphToMps(speedKph: number): number {

@@ -86,7 +86,8 @@ export function describeDescentAdvice(descent: AdviceFacts, system: UnitSystem):
       case 'no-battery':
         socHeadline = 'Battery charge plays no part';
         socShort = 'battery charge plays no part (overhead-line vehicle)';
-        socExplanation = 'The vehicle brakes into the overhead line, so the state of charge of any on-board battery does not change what regeneration takes.';
+        socExplanation =
+          'The vehicle brakes into the overhead line, so the state of charge of any on-board battery does not change what regeneration takes.';
         break;
       case 'no-regeneration':
         socHeadline = 'Battery charge plays no part';

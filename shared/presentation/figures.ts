@@ -5,7 +5,13 @@
  * the PDF, with the same value.
  */
 import type { Descent, Summary } from '../domain/analysis';
-import { formatSafeSpeed, formatSocLimit, formatTemperatureLimit, formatTemperatureReached, temperatureReachedShown } from './safety-rounding';
+import {
+  formatSafeSpeed,
+  formatSocLimit,
+  formatTemperatureLimit,
+  formatTemperatureReached,
+  temperatureReachedShown,
+} from './safety-rounding';
 import { defaultDigits, formatNumber, formatQuantity, toDisplay, unitLabel, type Quantity, type UnitSystem } from './units';
 
 /** How a figure is rounded for display. */
@@ -28,7 +34,13 @@ export interface SummaryFigure {
   value: (summary: Summary) => number;
 }
 
-const figure = (key: keyof Summary, label: string, meaning: string, quantity: Quantity, extra: Partial<SummaryFigure> = {}): SummaryFigure => ({
+const figure = (
+  key: keyof Summary,
+  label: string,
+  meaning: string,
+  quantity: Quantity,
+  extra: Partial<SummaryFigure> = {},
+): SummaryFigure => ({
   key,
   label,
   meaning,
@@ -45,8 +57,12 @@ export const ENERGY_FIGURES: readonly SummaryFigure[] = [
   figure('frictionBrakeEnergyWh', 'Friction brakes', 'Braking energy the friction brakes turn into heat.', 'energy', { better: 'lower' }),
   figure('retarderEnergyWh', 'Retarder / braking resistor', 'Braking energy the retarder or braking resistor takes.', 'energy'),
   figure('auxEnergyWh', 'Auxiliaries', 'Heating, cooling, lighting and compressors, all the way.', 'energy'),
-  figure('batteryNetEnergyWh', 'Net from battery or line', 'Energy drawn from the battery or line minus energy put back.', 'energy', { better: 'lower' }),
-  figure('kWhPerKm', 'Net per distance', 'Net energy from the battery or line per distance driven.', 'energyPerDistance', { better: 'lower' }),
+  figure('batteryNetEnergyWh', 'Net from battery or line', 'Energy drawn from the battery or line minus energy put back.', 'energy', {
+    better: 'lower',
+  }),
+  figure('kWhPerKm', 'Net per distance', 'Net energy from the battery or line per distance driven.', 'energyPerDistance', {
+    better: 'lower',
+  }),
 ];
 
 /** Route, time, charge and brake figures, after the energy. */
@@ -98,11 +114,14 @@ export function formatFigureDifference(figure: SummaryFigure, summary: Summary, 
 export function differenceTone(figure: SummaryFigure, summary: Summary, reference: Summary): 'better' | 'worse' | 'neutral' {
   const delta = figure.value(summary) - figure.value(reference);
   if (!figure.better || Math.abs(delta) < 1e-9) return 'neutral';
-  return (delta > 0) === (figure.better === 'higher') ? 'better' : 'worse';
+  return delta > 0 === (figure.better === 'higher') ? 'better' : 'worse';
 }
 
 /** The descent's place and shape in words: "km 12.3–15.8, drop 240 m, mean 7.1 %, steepest 9.4 %". */
-export function describeDescentPlace(descent: Pick<Descent, 'startM' | 'endM' | 'dropM' | 'meanGradePercent' | 'maxGradePercent'>, system: UnitSystem): string {
+export function describeDescentPlace(
+  descent: Pick<Descent, 'startM' | 'endM' | 'dropM' | 'meanGradePercent' | 'maxGradePercent'>,
+  system: UnitSystem,
+): string {
   return (
     `${formatStretch(descent.startM, descent.endM, system)}, drop ${formatQuantity('elevation', descent.dropM, system)}, ` +
     `mean grade ${formatQuantity('grade', Math.abs(descent.meanGradePercent), system)} down, ` +

@@ -64,8 +64,18 @@ export const SERVICE_DAY_NOT_COVERED =
 
 /** Line colours for the blocks on the SOC chart, repeated past twelve blocks; our own palette. */
 export const BLOCK_COLOURS: readonly string[] = [
-  '#0b5567', '#a0522d', '#3f7f4f', '#6a4c93', '#b8860b', '#1f6fb2',
-  '#8b3a62', '#4f6d2f', '#c05a00', '#2e5e8c', '#7a5c3e', '#00796b',
+  '#0b5567',
+  '#a0522d',
+  '#3f7f4f',
+  '#6a4c93',
+  '#b8860b',
+  '#1f6fb2',
+  '#8b3a62',
+  '#4f6d2f',
+  '#c05a00',
+  '#2e5e8c',
+  '#7a5c3e',
+  '#00796b',
 ];
 
 /** Colour of the reserve line. */

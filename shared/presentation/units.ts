@@ -128,12 +128,7 @@ export function displayToKph(shownSpeed: number, system: UnitSystem): number {
  * "12.35 km", "1 250 m", "−3.4 %": the SI value in the chosen system, rounded, with its unit.
  * Missing values read "—" so a table never shows "NaN".
  */
-export function formatQuantity(
-  quantity: Quantity,
-  siValue: number | null | undefined,
-  system: UnitSystem,
-  digits?: number,
-): string {
+export function formatQuantity(quantity: Quantity, siValue: number | null | undefined, system: UnitSystem, digits?: number): string {
   if (siValue === null || siValue === undefined || !Number.isFinite(siValue)) return '—';
   const scale = SCALES[system][quantity];
   return `${formatNumber(scale.from(siValue), digits ?? scale.digits)} ${scale.unit}`;

@@ -44,10 +44,14 @@ describe('AppRuntime in AppDeps', () => {
     let registrations = 0;
     const register = async (queue: JobQueue) => {
       registrations++;
-      await queue.registerWorker<{ n: number }>('count', async ({ n }) => {
-        await new Promise((resolve) => setTimeout(resolve, 20));
-        handled.push(`count ${n}`);
-      }, COUNT_POLICY);
+      await queue.registerWorker<{ n: number }>(
+        'count',
+        async ({ n }) => {
+          await new Promise((resolve) => setTimeout(resolve, 20));
+          handled.push(`count ${n}`);
+        },
+        COUNT_POLICY,
+      );
     };
 
     const [first, second] = await Promise.all([runtime.jobsFor('batch-runs', register), runtime.jobsFor('batch-runs', register)]);

@@ -187,7 +187,5 @@ async function send(method: string, url: string, cookie?: string): Promise<numbe
 
 /** Fills path parameters: ids with a UUID that exists nowhere, anything else with 1. */
 function concretePath(path: string): string {
-  return path.replace(/\{(\w+)\}/g, (_, name: string) =>
-    /id$/i.test(name) ? '00000000-0000-4000-8000-000000000000' : '1',
-  );
+  return path.replace(/\{(\w+)\}/g, (_, name: string) => (/id$/i.test(name) ? '00000000-0000-4000-8000-000000000000' : '1'));
 }

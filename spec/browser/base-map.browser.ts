@@ -37,7 +37,8 @@ describe('base map and snapped routes', () => {
       if (response.url().includes('/api/tiles/base/')) baseTiles.push(response);
     });
     page.on('request', (request) => {
-      if (!request.url().startsWith(BASE_URL) && !request.url().startsWith('data:') && !request.url().startsWith('blob:')) outside.push(request.url());
+      if (!request.url().startsWith(BASE_URL) && !request.url().startsWith('data:') && !request.url().startsWith('blob:'))
+        outside.push(request.url());
     });
     await page.goto(`${BASE_URL}/routes/new`);
     await page.getByRole('heading', { level: 1, name: 'New route' }).waitFor();
@@ -57,8 +58,13 @@ describe('base map and snapped routes', () => {
 
     // Tiles, fonts and scripts all come from Descentry itself.
     assert.deepEqual(outside, []);
-    const tiles = await Promise.all(baseTiles.filter((response) => response.status() === 200).map((response) => response.body().catch(() => Buffer.alloc(0))));
-    assert.ok(tiles.some((body) => body.length > 0), 'the map drew base-map tiles with content');
+    const tiles = await Promise.all(
+      baseTiles.filter((response) => response.status() === 200).map((response) => response.body().catch(() => Buffer.alloc(0))),
+    );
+    assert.ok(
+      tiles.some((body) => body.length > 0),
+      'the map drew base-map tiles with content',
+    );
     const drawn = await vertices(page);
     assert.ok(drawn.length >= 3, `the snapped route has the road's vertices (${drawn.length})`);
     // Every vertex lies on a road a bus may use, and the route is the road path between its ends.
@@ -71,7 +77,9 @@ describe('base map and snapped routes', () => {
     const road = (await along.json()).geometry.coordinates as Position[];
     // The table shows 6 decimals (about 0.1 m).
     assert.equal(road.length, drawn.length);
-    road.forEach((position, i) => assert.ok(Math.hypot(position[0] - drawn[i]![0], position[1] - drawn[i]![1]) < 2e-6, `vertex ${i + 1} is the road's`));
+    road.forEach((position, i) =>
+      assert.ok(Math.hypot(position[0] - drawn[i]![0], position[1] - drawn[i]![1]) < 2e-6, `vertex ${i + 1} is the road's`),
+    );
   });
 
   it('switches between the base map, the terrain and both', async () => {

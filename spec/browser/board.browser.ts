@@ -65,10 +65,7 @@ describe('network summary: board member', () => {
   it('downloads the summary as a one-page A4 PDF that reads as the page does', async () => {
     const { page } = browser;
 
-    const [download] = await Promise.all([
-      page.waitForEvent('download'),
-      page.getByRole('link', { name: 'Download PDF' }).click(),
-    ]);
+    const [download] = await Promise.all([page.waitForEvent('download'), page.getByRole('link', { name: 'Download PDF' }).click()]);
     const stream = await download.createReadStream();
     const chunks: Buffer[] = [];
     for await (const chunk of stream) chunks.push(chunk as Buffer);
@@ -110,10 +107,7 @@ async function acceptFirstHighRiskAsSafetyOfficer(): Promise<void> {
   });
 }
 
-async function withSafetyOfficer<T>(
-  signIn: (page: Page, role: 'safety') => Promise<void>,
-  work: (page: Page) => Promise<T>,
-): Promise<T> {
+async function withSafetyOfficer<T>(signIn: (page: Page, role: 'safety') => Promise<void>, work: (page: Page) => Promise<T>): Promise<T> {
   const safety = await openBrowser();
   try {
     await signIn(safety.page, 'safety');

@@ -21,14 +21,32 @@ describe('calibration against measured runs', () => {
       const profiles = (await (await fetch('/api/vehicles')).json()) as { items: { id: string; name: string; isPreset: boolean }[] };
       const demo = profiles.items.find((p) => p.name.startsWith('Highpass 12 m mountain bus'))!;
       const full = await (await fetch(`/api/vehicles/${demo.id}`)).json();
-      const draft = { name, description: 'Copy for the calibration check', vehicleClass: full.vehicleClass, vehicle: full.vehicle, loadsKg: full.loadsKg, passengerMassKg: full.passengerMassKg, seasons: full.seasons };
-      const created = await (await fetch('/api/vehicles', { method: 'POST', headers: { 'Content-Type': 'application/json' }, body: JSON.stringify(draft) })).json();
+      const draft = {
+        name,
+        description: 'Copy for the calibration check',
+        vehicleClass: full.vehicleClass,
+        vehicle: full.vehicle,
+        loadsKg: full.loadsKg,
+        passengerMassKg: full.passengerMassKg,
+        seasons: full.seasons,
+      };
+      const created = await (
+        await fetch('/api/vehicles', { method: 'POST', headers: { 'Content-Type': 'application/json' }, body: JSON.stringify(draft) })
+      ).json();
       const routes = (await (await fetch('/api/routes')).json()) as { items: { id: string; name: string }[] };
       const valley = routes.items.find((r) => r.name.startsWith('1 Valley line'))!;
       await fetch('/api/scenarios', {
         method: 'POST',
         headers: { 'Content-Type': 'application/json' },
-        body: JSON.stringify({ name: `${name}, valley, mild`, routeId: valley.id, direction: 'outbound', vehicleProfileId: created.id, load: { kind: 'case', case: 'seated' }, season: { kind: 'season', season: 'mild' }, startSoc: 0.7 }),
+        body: JSON.stringify({
+          name: `${name}, valley, mild`,
+          routeId: valley.id,
+          direction: 'outbound',
+          vehicleProfileId: created.id,
+          load: { kind: 'case', case: 'seated' },
+          season: { kind: 'season', season: 'mild' },
+          startSoc: 0.7,
+        }),
       });
       return created.id as string;
     }, `Mountain bus, calibration check ${stamp}`);
@@ -69,7 +87,12 @@ describe('calibration against measured runs', () => {
   it('shows measured against modelled along distance and time, linked to the map', async () => {
     const { page } = browser;
 
-    await page.getByTestId('trips-table').getByRole('row').filter({ hasText: 'pass-line-orren-korvel' }).getByRole('link', { name: 'Compare' }).click();
+    await page
+      .getByTestId('trips-table')
+      .getByRole('row')
+      .filter({ hasText: 'pass-line-orren-korvel' })
+      .getByRole('link', { name: 'Compare' })
+      .click();
     await page.getByTestId('energy-error').waitFor({ timeout: 30_000 });
     await page.getByText('Battery power: measured and modelled').waitFor();
     await page.getByTestId('comparison-map').locator('.leaflet-interactive').first().waitFor();
@@ -101,7 +124,10 @@ describe('calibration against measured runs', () => {
     assert.match(parameters, /Rolling resistance coefficient/);
     assert.match(parameters, /Brake thermal mass/);
     const energyAfter = ((await page.getByTestId('energy-after').textContent()) ?? '').split('→')[1]!;
-    assert.ok(Math.abs(Number(energyAfter.replace(/[^\d.−-]/g, '').replace('−', '-'))) < 2, `energy difference after the fit: ${energyAfter}`);
+    assert.ok(
+      Math.abs(Number(energyAfter.replace(/[^\d.−-]/g, '').replace('−', '-'))) < 2,
+      `energy difference after the fit: ${energyAfter}`,
+    );
     await settleAnimations(page);
     await screenshot(page, 'calibration-fit');
   });

@@ -110,7 +110,9 @@ function watchViolations(page: Page, who: string, violations: string[]): void {
   });
   void page.addInitScript(() => {
     document.addEventListener('securitypolicyviolation', (event) => {
-      console.error(`Content Security Policy violation: ${event.violatedDirective} blocked ${event.blockedURI || 'inline'} (${event.sample})`);
+      console.error(
+        `Content Security Policy violation: ${event.violatedDirective} blocked ${event.blockedURI || 'inline'} (${event.sample})`,
+      );
     });
   });
 }

@@ -21,7 +21,18 @@ const WIDE = { width: 1400, height: 900 };
 const NARROW = { width: 390, height: 844 };
 
 /** Router path (as written in the route files, joined with its parents) → an address to open. */
-type Ids = Record<'routeId' | 'reviewId' | 'batchRunId' | 'scenarioId' | 'vehicleProfileId' | 'tripVehicleId' | 'loggedTripId' | 'calibrationId' | 'serviceDayId', string>;
+type Ids = Record<
+  | 'routeId'
+  | 'reviewId'
+  | 'batchRunId'
+  | 'scenarioId'
+  | 'vehicleProfileId'
+  | 'tripVehicleId'
+  | 'loggedTripId'
+  | 'calibrationId'
+  | 'serviceDayId',
+  string
+>;
 const SIGNED_IN_PAGES: Record<string, (ids: Ids) => string> = {
   '': () => '/',
   routes: () => '/routes',
@@ -158,7 +169,14 @@ async function check(page: Page, watch: PageWatch, path: string, width: number):
     .take()
     .filter((problem) => !(problem.kind === 'failed request' && expected.includes(problem.detail)))
     // Chromium logs every 4xx as "Failed to load resource"; an expected answer is not an error.
-    .filter((problem) => !(problem.kind === 'console error' && /^Failed to load resource/.test(problem.detail) && expected.some((answer) => problem.detail.includes(answer.split(' ')[1]!))))
+    .filter(
+      (problem) =>
+        !(
+          problem.kind === 'console error' &&
+          /^Failed to load resource/.test(problem.detail) &&
+          expected.some((answer) => problem.detail.includes(answer.split(' ')[1]!))
+        ),
+    )
     .map((problem) => `${where}: ${problem.kind}: ${problem.detail}`);
   let overflowing = await findOverflowingText(page);
   if (overflowing.length > 0) {
@@ -178,15 +196,24 @@ async function check(page: Page, watch: PageWatch, path: string, width: number):
 async function settle(page: Page, watch: PageWatch): Promise<string[]> {
   try {
     await watch.idle();
-    await page.locator('mat-progress-bar[mode="indeterminate"], mat-progress-bar[mode="query"]').first().waitFor({ state: 'hidden', timeout: 8_000 });
+    await page
+      .locator('mat-progress-bar[mode="indeterminate"], mat-progress-bar[mode="query"]')
+      .first()
+      .waitFor({ state: 'hidden', timeout: 8_000 });
     await page.waitForFunction(
-      () => document.getAnimations().every((animation) => animation.playState !== 'running' || animation.effect?.getTiming().iterations === Infinity),
+      () =>
+        document
+          .getAnimations()
+          .every((animation) => animation.playState !== 'running' || animation.effect?.getTiming().iterations === Infinity),
       undefined,
       { timeout: 5_000 },
     );
     // Charts redraw a moment after the window changes width; wait until each fits its box again.
     await page.waitForFunction(
-      () => [...document.querySelectorAll('canvas')].filter((canvas) => !canvas.closest('.leaflet-container')).every((canvas) => canvas.getBoundingClientRect().width <= (canvas.parentElement?.getBoundingClientRect().width ?? 0) + 1),
+      () =>
+        [...document.querySelectorAll('canvas')]
+          .filter((canvas) => !canvas.closest('.leaflet-container'))
+          .every((canvas) => canvas.getBoundingClientRect().width <= (canvas.parentElement?.getBoundingClientRect().width ?? 0) + 1),
       undefined,
       { timeout: 5_000 },
     );

@@ -17,7 +17,14 @@ describe('recently deleted and the audit log', () => {
       headers: { Origin: BASE_URL },
       data: {
         name: routeName,
-        geometry: { type: 'LineString', coordinates: [[9.5, 46.5, 1200], [9.51, 46.5, 1180], [9.52, 46.5, 1150]] },
+        geometry: {
+          type: 'LineString',
+          coordinates: [
+            [9.5, 46.5, 1200],
+            [9.51, 46.5, 1180],
+            [9.52, 46.5, 1150],
+          ],
+        },
       },
     });
     assert.equal(created.status(), 201);

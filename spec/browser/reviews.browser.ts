@@ -102,8 +102,16 @@ describe('descent review: safety officer', () => {
     await form.getByRole('button', { name: 'Re-run and save mitigation' }).click();
 
     const outcome = await Promise.race([
-      page.getByTestId('current-state').getByText('Mitigated').waitFor().then(() => 'mitigated' as const),
-      page.getByRole('alert').filter({ hasText: 'still gives' }).waitFor().then(() => 'refused' as const),
+      page
+        .getByTestId('current-state')
+        .getByText('Mitigated')
+        .waitFor()
+        .then(() => 'mitigated' as const),
+      page
+        .getByRole('alert')
+        .filter({ hasText: 'still gives' })
+        .waitFor()
+        .then(() => 'refused' as const),
     ]);
     if (outcome === 'refused') {
       // The re-run stays above elevated: nothing is recorded and the item stays in review.
@@ -136,7 +144,10 @@ describe('descent review: safety officer', () => {
     await bringToInReview(page);
 
     await page.getByRole('button', { name: 'Propose risk acceptance' }).click();
-    await page.getByRole('form', { name: 'Propose risk acceptance' }).getByLabel('Reason').fill('Midibuses with retarders only on this line from the winter timetable');
+    await page
+      .getByRole('form', { name: 'Propose risk acceptance' })
+      .getByLabel('Reason')
+      .fill('Midibuses with retarders only on this line from the winter timetable');
     await page.getByRole('button', { name: 'Propose acceptance', exact: true }).click();
     await page.getByTestId('current-state').getByText('Acceptance awaiting sign-off').waitFor();
 

@@ -30,7 +30,7 @@ describe('route import: GeoJSON and GPX files', () => {
   });
   after(() => rmSync(dir, { recursive: true, force: true }));
 
-  it("imports a GPX track with its own elevations, shows the new route and lists it (issue 10)", async () => {
+  it('imports a GPX track with its own elevations, shows the new route and lists it (issue 10)', async () => {
     const { page } = browser;
     const watch = new PageWatch(page);
     try {
@@ -42,7 +42,10 @@ describe('route import: GeoJSON and GPX files', () => {
       await result.waitFor();
       assert.match(await result.innerText(), new RegExp(`Imported 1 route from recorded-${stamp}\\.gpx: Recorded descent ${stamp}\\.`));
       assert.match(await result.innerText(), /Elevations: the file’s own, at every point\./);
-      await page.getByRole('table').getByRole('link', { name: `Recorded descent ${stamp}` }).waitFor();
+      await page
+        .getByRole('table')
+        .getByRole('link', { name: `Recorded descent ${stamp}` })
+        .waitFor();
       await screenshot(page, 'route-import-done');
       assert.deepEqual(watch.take(), []);
 
@@ -50,10 +53,22 @@ describe('route import: GeoJSON and GPX files', () => {
       await importFile(page, gpxPath);
       const refusal = page.getByTestId('import-error');
       await refusal.waitFor();
-      assert.match(await refusal.innerText(), new RegExp(`recorded-${stamp}\\.gpx was imported before, as the route “Recorded descent ${stamp}”`));
-      assert.equal(await page.getByRole('table').getByRole('link', { name: `Recorded descent ${stamp}` }).count(), 1);
+      assert.match(
+        await refusal.innerText(),
+        new RegExp(`recorded-${stamp}\\.gpx was imported before, as the route “Recorded descent ${stamp}”`),
+      );
+      assert.equal(
+        await page
+          .getByRole('table')
+          .getByRole('link', { name: `Recorded descent ${stamp}` })
+          .count(),
+        1,
+      );
       const seen = watch.take().map((problem) => problem.detail);
-      assert.ok(seen.every((detail) => /\/api\/routes\/import.*409|409 \(Conflict\)/.test(detail)), seen.join('\n'));
+      assert.ok(
+        seen.every((detail) => /\/api\/routes\/import.*409|409 \(Conflict\)/.test(detail)),
+        seen.join('\n'),
+      );
 
       await refusal.getByRole('link', { name: `Open “Recorded descent ${stamp}”` }).click();
       await page.waitForURL(/\/routes\/[0-9a-f-]{36}$/);
@@ -87,7 +102,10 @@ async function importFile(page: Page, path: string, { panelOpen = false } = {}):
   if (!panelOpen) {
     await page.getByRole('button', { name: 'Import GeoJSON or GPX' }).click();
   }
-  const [chooser] = await Promise.all([page.waitForEvent('filechooser'), page.getByRole('button', { name: 'Choose the file and import' }).click()]);
+  const [chooser] = await Promise.all([
+    page.waitForEvent('filechooser'),
+    page.getByRole('button', { name: 'Choose the file and import' }).click(),
+  ]);
   await chooser.setFiles(path);
 }
 

@@ -56,7 +56,9 @@ describe('route editor: snap to roads (on by default)', () => {
       await page.getByTestId('route-figures').getByText('Vertices 1').waitFor();
       await clickAt(page, road[Math.min(road.length - 2, 5)]!);
       await screenshot(page, 'route-editor-snapped');
-      await page.waitForFunction(() => /Vertices ([3-9]|\d\d+)/.test(document.querySelector('[data-testid="route-figures"]')?.textContent ?? ''));
+      await page.waitForFunction(() =>
+        /Vertices ([3-9]|\d\d+)/.test(document.querySelector('[data-testid="route-figures"]')?.textContent ?? ''),
+      );
 
       const vertices = await vertexTable(page);
       assert.ok(vertices.length > 2, `the second click adds a path along the roads (${vertices.length} vertices)`);
@@ -102,8 +104,15 @@ describe('route editor: snap to roads (on by default)', () => {
       // Each click lands on the road within a few pixels of where it was made (the view is some
       // metres per pixel), and the route ends at the last one: none was dropped.
       const clicksApartM = Math.min(metresBetween(first, second), metresBetween(second, third));
-      for (const [name, point] of [['first', first], ['second', second], ['third', third]] as const) {
-        assert.ok(nearestM(point) < clicksApartM / 4, `the ${name} click is on the route (${nearestM(point).toFixed(1)} m from its nearest vertex)`);
+      for (const [name, point] of [
+        ['first', first],
+        ['second', second],
+        ['third', third],
+      ] as const) {
+        assert.ok(
+          nearestM(point) < clicksApartM / 4,
+          `the ${name} click is on the route (${nearestM(point).toFixed(1)} m from its nearest vertex)`,
+        );
       }
       assert.ok(metresBetween(vertices.at(-1)!, third) < clicksApartM / 4, 'the route ends at the last click');
       const order = [first, second, third].map((point) => vertices.findIndex((vertex) => metresBetween(vertex, point) === nearestM(point)));
@@ -138,7 +147,10 @@ describe('route editor: snap to roads (on by default)', () => {
     await clickAt(page, vertices[1]!);
     await page.getByTestId('stops-table').getByRole('textbox', { name: 'Name of stop 2' }).waitFor();
 
-    const names = await page.getByTestId('stops-table').getByRole('textbox', { name: /^Name of stop/ }).evaluateAll((inputs) => inputs.map((input) => (input as HTMLInputElement).value));
+    const names = await page
+      .getByTestId('stops-table')
+      .getByRole('textbox', { name: /^Name of stop/ })
+      .evaluateAll((inputs) => inputs.map((input) => (input as HTMLInputElement).value));
     const kilometres = names.map((name) => Number(/^Stop at ([\d.]+) km$/.exec(name)?.[1]));
     assert.equal(names.length, 2, names.join(', '));
     assert.ok(kilometres.every(Number.isFinite), names.join(', '));
@@ -184,8 +196,12 @@ async function clickAt(page: Page, [lon, lat]: LonLat): Promise<void> {
 /** The vertices as the vertex table shows them. */
 async function vertexTable(page: Page): Promise<LonLat[]> {
   const table = page.getByTestId('vertices-table');
-  const longitudes = await table.getByRole('spinbutton', { name: /^Longitude of vertex/ }).evaluateAll((inputs) => inputs.map((input) => Number((input as HTMLInputElement).value)));
-  const latitudes = await table.getByRole('spinbutton', { name: /^Latitude of vertex/ }).evaluateAll((inputs) => inputs.map((input) => Number((input as HTMLInputElement).value)));
+  const longitudes = await table
+    .getByRole('spinbutton', { name: /^Longitude of vertex/ })
+    .evaluateAll((inputs) => inputs.map((input) => Number((input as HTMLInputElement).value)));
+  const latitudes = await table
+    .getByRole('spinbutton', { name: /^Latitude of vertex/ })
+    .evaluateAll((inputs) => inputs.map((input) => Number((input as HTMLInputElement).value)));
   return longitudes.map((lon, index) => [lon, latitudes[index]!]);
 }
 

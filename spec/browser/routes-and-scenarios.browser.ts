@@ -124,7 +124,10 @@ describe('routes and scenarios', () => {
 
     // The export opens with the engineering caution as a comment, then the column header.
     assert.match(lines[0]!, /^# .*engineering estimates/i);
-    assert.match(lines.find((line) => !line.startsWith('#'))!, /^Direction,Distance \(m\),/);
+    assert.match(
+      lines.find((line) => !line.startsWith('#'))!,
+      /^Direction,Distance \(m\),/,
+    );
   });
 
   it('downloads the PDF report: A4 pages inside their margins, with the names and values of the screen', async () => {
@@ -162,7 +165,10 @@ describe('vehicle profiles', () => {
   it('lets an analyst copy a preset, see a field message and save the edited copy', async () => {
     const { page } = browser;
     await page.goto(`${BASE_URL}/vehicles`);
-    await page.getByRole('link', { name: /Copy to edit/ }).first().click();
+    await page
+      .getByRole('link', { name: /Copy to edit/ })
+      .first()
+      .click();
     await page.getByRole('heading', { level: 1, name: /^Copy of/ }).waitFor();
 
     const efficiency = page.locator('[data-field="drivetrainEfficiency"]');
@@ -176,7 +182,9 @@ describe('vehicle profiles', () => {
     await page.getByRole('button', { name: 'Create profile' }).click();
 
     await page.waitForURL(/\/vehicles\/[0-9a-f-]{36}$/);
-    await page.waitForFunction(() => (document.querySelector('[data-field="drivetrainEfficiency"]') as HTMLInputElement | null)?.value === '88');
+    await page.waitForFunction(
+      () => (document.querySelector('[data-field="drivetrainEfficiency"]') as HTMLInputElement | null)?.value === '88',
+    );
     assert.equal(await page.locator('[data-field="drivetrainEfficiency"]').inputValue(), '88');
   });
 });

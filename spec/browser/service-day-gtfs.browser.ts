@@ -31,15 +31,24 @@ describe('service days: blocks from the demo GTFS feed', () => {
     await page.getByTestId('gtfs-service').filter({ hasText: 'WKD' }).waitFor();
     await page.getByTestId('gtfs-service').click();
     const options = await page.getByRole('option').allInnerTexts();
-    assert.deepEqual(options.map((text) => text.split(' ')[0]), ['WKD', 'SUN']);
+    assert.deepEqual(
+      options.map((text) => text.split(' ')[0]),
+      ['WKD', 'SUN'],
+    );
     await page.getByRole('option', { name: /^WKD/ }).click();
     await page.getByTestId('gtfs-profile').click();
-    await page.getByRole('option', { name: /^12 m battery bus/ }).first().click();
+    await page
+      .getByRole('option', { name: /^12 m battery bus/ })
+      .first()
+      .click();
     await page.getByTestId('gtfs-preview').click();
     const table = page.getByTestId('gtfs-preview-table');
     await table.waitFor();
     const rows = await table.locator('tbody tr').allInnerTexts();
-    assert.deepEqual(rows.map((row) => row.split('\t')[0]), ['P1', 'P2', 'V1', 'V2', 'V3']);
+    assert.deepEqual(
+      rows.map((row) => row.split('\t')[0]),
+      ['P1', 'P2', 'V1', 'V2', 'V3'],
+    );
     assert.match(rows[0]!, /4 Pass line/);
     assert.match(rows[2]!, /1 Valley line/);
     await settleAnimations(page);
@@ -60,19 +69,36 @@ describe('service days: blocks from the demo GTFS feed', () => {
     const map = page.getByTestId('charger-map');
     const box = (await map.boundingBox())!;
     await page.mouse.click(box.x + box.width / 2, box.y + box.height / 2);
-    await page.getByRole('table', { name: 'Chargers' }).locator('tbody tr').filter({ has: page.locator('input') }).first().waitFor();
+    await page
+      .getByRole('table', { name: 'Chargers' })
+      .locator('tbody tr')
+      .filter({ has: page.locator('input') })
+      .first()
+      .waitFor();
 
     await page.getByTestId('save-and-run').click();
     await page.getByTestId('verdict').waitFor({ timeout: 120_000 });
-    await page.waitForFunction(() => !document.querySelector('[aria-label="Running"], [aria-label="Waiting to run"]'), null, { timeout: 180_000 });
+    await page.waitForFunction(() => !document.querySelector('[aria-label="Running"], [aria-label="Waiting to run"]'), null, {
+      timeout: 180_000,
+    });
     const verdict = await page.getByTestId('verdict').innerText();
     assert.match(verdict, /[1-5] of 5 blocks? cannot be worked/);
     assert.match(verdict, /reserve/i);
-    const failingOnScreen = await page.locator('.failing-block').evaluateAll((blocks) => blocks.map((block) => (block as HTMLElement).dataset['block']!));
+    const failingOnScreen = await page
+      .locator('.failing-block')
+      .evaluateAll((blocks) => blocks.map((block) => (block as HTMLElement).dataset['block']!));
     const id = new URL(page.url()).pathname.split('/').at(-1)!;
-    const result = (await (await page.request.get(`${BASE_URL}/api/service-days/${id}/result`)).json()) as { blocks: { blockId: string; feasible: boolean }[] };
+    const result = (await (await page.request.get(`${BASE_URL}/api/service-days/${id}/result`)).json()) as {
+      blocks: { blockId: string; feasible: boolean }[];
+    };
     assert.deepEqual(result.blocks.map((block) => block.blockId).sort(), ['P1', 'P2', 'V1', 'V2', 'V3']);
-    assert.deepEqual([...failingOnScreen].sort(), result.blocks.filter((block) => !block.feasible).map((block) => block.blockId).sort());
+    assert.deepEqual(
+      [...failingOnScreen].sort(),
+      result.blocks
+        .filter((block) => !block.feasible)
+        .map((block) => block.blockId)
+        .sort(),
+    );
     await settleAnimations(page);
     await screenshot(page, 'service-day-gtfs-result-1400');
   });

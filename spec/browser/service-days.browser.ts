@@ -18,12 +18,19 @@ describe('service days: analyst', () => {
     const { page } = browser;
     await page.getByRole('navigation', { name: 'Main' }).getByRole('link', { name: 'Service days' }).click();
     await page.getByRole('heading', { level: 1, name: 'Service days' }).waitFor();
-    const row = page.getByRole('row').filter({ hasText: 'Weekday' }).filter({ hasText: 'Winter' }).filter({ hasText: 'End of battery life' });
+    const row = page
+      .getByRole('row')
+      .filter({ hasText: 'Weekday' })
+      .filter({ hasText: 'Winter' })
+      .filter({ hasText: 'End of battery life' });
     await row.first().waitFor();
     assert.equal(await row.count(), 1, 'the demo has one winter weekday at end of battery life');
     await screenshot(page, 'service-days-list-1400');
     await row.getByRole('link').click();
-    await page.getByRole('heading', { level: 1 }).filter({ hasText: /winter/i }).waitFor();
+    await page
+      .getByRole('heading', { level: 1 })
+      .filter({ hasText: /winter/i })
+      .waitFor();
   });
 
   it('runs it, following the status to the end, and reads which block fails and why', async () => {
@@ -32,10 +39,14 @@ describe('service days: analyst', () => {
     await runButton.click();
     // The page polls the run's status and shows the verdict when the run is done.
     await page.getByTestId('verdict').waitFor({ timeout: 120_000 });
-    await page.waitForFunction(() => !document.querySelector('[aria-label="Running"], [aria-label="Waiting to run"]'), null, { timeout: 120_000 });
+    await page.waitForFunction(() => !document.querySelector('[aria-label="Running"], [aria-label="Waiting to run"]'), null, {
+      timeout: 120_000,
+    });
     const verdict = await page.getByTestId('verdict').innerText();
     assert.match(verdict, /[1-9]\d* of \d+ blocks? cannot be worked/);
-    failingOnScreen = await page.locator('.failing-block').evaluateAll((blocks) => blocks.map((block) => (block as HTMLElement).dataset['block']!));
+    failingOnScreen = await page
+      .locator('.failing-block')
+      .evaluateAll((blocks) => blocks.map((block) => (block as HTMLElement).dataset['block']!));
     assert.ok(failingOnScreen.length > 0);
     // The reasons are in words, with the reserve it fell below.
     assert.match(verdict, /reserve/i);
@@ -51,7 +62,10 @@ describe('service days: analyst', () => {
     const result = (await response.json()) as { blocks: { blockId: string; feasible: boolean }[] };
     assert.deepEqual(
       [...failingOnScreen].sort(),
-      result.blocks.filter((block) => !block.feasible).map((block) => block.blockId).sort(),
+      result.blocks
+        .filter((block) => !block.feasible)
+        .map((block) => block.blockId)
+        .sort(),
     );
     const size = page.viewportSize()!;
     await page.setViewportSize({ width: size.width, height: 2600 });
@@ -70,7 +84,11 @@ describe('service days: analyst', () => {
     const text = readFileSync((await download.path())!, 'utf8');
     const lines = text.split(/\r?\n/);
     assert.match(lines[0]!, /^# /);
-    for (const blockId of failingOnScreen) assert.ok(lines.some((line) => line.includes(blockId)), `the CSV lists block ${blockId}`);
+    for (const blockId of failingOnScreen)
+      assert.ok(
+        lines.some((line) => line.includes(blockId)),
+        `the CSV lists block ${blockId}`,
+      );
   });
 
   it('downloads the PDF report: A4 inside its margins, the failing block and its reasons, the cautions', async () => {

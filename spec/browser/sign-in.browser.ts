@@ -1,21 +1,7 @@
 import assert from 'node:assert/strict';
 import { after, before, describe, it } from 'node:test';
-import {
-  BASE_URL,
-  assertServerIsUp,
-  openBrowser,
-  screenshot,
-  settleAnimations,
-  type BrowserSession,
-} from './support/browser';
-import {
-  ROLE_EXPECTATIONS,
-  demoEmail,
-  navigationLabels,
-  signInAs,
-  signOut,
-  type DemoRole,
-} from './support/demo-people';
+import { BASE_URL, assertServerIsUp, openBrowser, screenshot, settleAnimations, type BrowserSession } from './support/browser';
+import { ROLE_EXPECTATIONS, demoEmail, navigationLabels, signInAs, signOut, type DemoRole } from './support/demo-people';
 
 describe('signing in and out', () => {
   let browser: BrowserSession;
@@ -63,10 +49,7 @@ describe('signing in and out', () => {
       await signInAs(page, role);
       await screenshot(page, `home-${role}`);
 
-      assert.equal(
-        await page.getByRole('heading', { level: 1 }).innerText(),
-        expected.homeHeading,
-      );
+      assert.equal(await page.getByRole('heading', { level: 1 }).innerText(), expected.homeHeading);
       assert.deepEqual(await navigationLabels(page), expected.navigation);
       assert.match(await page.getByTestId('signed-in-person').innerText(), /\S+/);
 

@@ -46,7 +46,11 @@ describe('terrain', () => {
     await page.getByTestId('terrain-file-input').setInputFiles(file);
     await page.getByLabel('Name in the catalogue').fill(name);
     await page.getByRole('button', { name: 'Upload', exact: true }).click();
-    await page.getByRole('status').filter({ hasText: /Uploading|Uploaded/ }).first().waitFor();
+    await page
+      .getByRole('status')
+      .filter({ hasText: /Uploading|Uploaded/ })
+      .first()
+      .waitFor();
     await page.getByText(`“${name}” is ready.`).waitFor({ timeout: 60_000 });
     const table = page.getByRole('table', { name: 'Terrain models' });
     await table.getByRole('row').filter({ hasText: name }).getByText('Ready').waitFor();
@@ -75,5 +79,14 @@ function smallGeoTiff(): Buffer {
   for (let row = 0; row < heightPx; row++) {
     for (let col = 0; col < widthPx; col++) values[row * widthPx + col] = 1200 + offset + 4 * col + 2.5 * row + 30 * Math.sin(col / 9);
   }
-  return writeFloat32GeoTiff({ widthPx, heightPx, values, epsg: 32632, originX: 622_000, originY: 5_171_000, pixelSizeM: 20, nodata: -9999 });
+  return writeFloat32GeoTiff({
+    widthPx,
+    heightPx,
+    values,
+    epsg: 32632,
+    originX: 622_000,
+    originY: 5_171_000,
+    pixelSizeM: 20,
+    nodata: -9999,
+  });
 }

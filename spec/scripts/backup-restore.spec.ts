@@ -24,8 +24,14 @@ beforeAll(async () => {
   await truncateAll(context.db);
   await ensureVehiclePresets(context.db);
   const { agent: planner } = await signedInAgent(context.app, context.db, 'planner');
-  routeId = (await planner.post('/api/routes').send(aRouteDraft({ name: 'Backed-up line', geometry: eastwardLine({ lengthM: 2_000, dropM: 150 }), stops: [], speedLimits: [] }))).body.id;
-  scenarioId = (await planner.post('/api/scenarios').send({ name: 'Backed-up run', routeId, vehicleProfileId: presetProfileId('battery-bus-12m') })).body.id;
+  routeId = (
+    await planner
+      .post('/api/routes')
+      .send(aRouteDraft({ name: 'Backed-up line', geometry: eastwardLine({ lengthM: 2_000, dropM: 150 }), stops: [], speedLimits: [] }))
+  ).body.id;
+  scenarioId = (
+    await planner.post('/api/scenarios').send({ name: 'Backed-up run', routeId, vehicleProfileId: presetProfileId('battery-bus-12m') })
+  ).body.id;
   const deleted = (await planner.post('/api/routes').send(aRouteDraft({ name: 'Deleted before the backup' }))).body.id;
   await planner.delete(`/api/routes/${deleted}`);
   terrainId = crypto.randomUUID();
@@ -105,9 +111,24 @@ function run(script: string, args: string[], env: Record<string, string>) {
 
 function dropRestored(): void {
   const url = new URL(restoredUrl);
-  spawnSync('psql', ['-h', url.hostname, '-p', url.port, '-U', url.username, '-d', 'postgres', '-c', 'drop database if exists descentry_restore_check with (force)'], {
-    env: { ...process.env, PGPASSWORD: decodeURIComponent(url.password) },
-  });
+  spawnSync(
+    'psql',
+    [
+      '-h',
+      url.hostname,
+      '-p',
+      url.port,
+      '-U',
+      url.username,
+      '-d',
+      'postgres',
+      '-c',
+      'drop database if exists descentry_restore_check with (force)',
+    ],
+    {
+      env: { ...process.env, PGPASSWORD: decodeURIComponent(url.password) },
+    },
+  );
 }
 
 function aTerrainRow(id: string) {

@@ -2,7 +2,16 @@ import { mkdirSync, mkdtempSync, readFileSync, rmSync, statSync, writeFileSync }
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { afterAll, describe, expect, it } from 'vitest';
-import { FULL_FONT, SUBSET_FONT, SUBSET_NAMES, candidateWords, iconsAmong, missingIcons, openFont, subsetIconFont } from '../../scripts/icon-font.mjs';
+import {
+  FULL_FONT,
+  SUBSET_FONT,
+  SUBSET_NAMES,
+  candidateWords,
+  iconsAmong,
+  missingIcons,
+  openFont,
+  subsetIconFont,
+} from '../../scripts/icon-font.mjs';
 
 const work = mkdtempSync(join(tmpdir(), 'descentry-icons-'));
 afterAll(() => rmSync(work, { recursive: true, force: true }));

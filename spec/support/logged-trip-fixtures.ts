@@ -76,6 +76,10 @@ export function aProfileDraft(name = 'Spec mountain bus') {
     vehicle: { ...presetVehicle('battery-bus-12m'), payloadKg: 0 },
     loadsKg: { empty: 0, seated: 2_240, 'full-standing': 6_000 },
     passengerMassKg: 70,
-    seasons: { winter: { ambientC: -5, auxPowerW: 20_000 }, mild: { ambientC: 8, auxPowerW: 6_000 }, summer: { ambientC: 25, auxPowerW: 14_000 } },
+    seasons: {
+      winter: { ambientC: -5, auxPowerW: 20_000 },
+      mild: { ambientC: 8, auxPowerW: 6_000 },
+      summer: { ambientC: 25, auxPowerW: 14_000 },
+    },
   };
 }

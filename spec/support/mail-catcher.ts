@@ -8,7 +8,13 @@ import { SPEC_SESSION_SECRET } from './test-app';
 /** The real SMTP fake on a free port plus a transport pointing at it. */
 export async function startMailCatcher(db: Database, secret = SPEC_SESSION_SECRET) {
   const fake = await startSmtpFake(db, 0);
-  const transport = createSmtpTransport({ SMTP_HOST: '127.0.0.1', SMTP_PORT: fake.port, SMTP_SECURE: false, SMTP_USER: undefined, SMTP_PASSWORD: undefined });
+  const transport = createSmtpTransport({
+    SMTP_HOST: '127.0.0.1',
+    SMTP_PORT: fake.port,
+    SMTP_SECURE: false,
+    SMTP_USER: undefined,
+    SMTP_PASSWORD: undefined,
+  });
   return {
     port: fake.port,
     /** Runs the outbox worker once, as the background worker would. */

@@ -38,10 +38,22 @@ export function readPdfWords(pdf: Buffer): PdfPages {
       const [, width, height] = /width="([\d.]+)" height="([\d.]+)"/.exec(chunk)!;
       pages.push({ width: Number(width), height: Number(height) });
       for (const match of chunk.matchAll(/<word xMin="([\d.-]+)" yMin="([\d.-]+)" xMax="([\d.-]+)" yMax="([\d.-]+)">([^<]*)<\/word>/g)) {
-        words.push({ page, xMin: Number(match[1]), yMin: Number(match[2]), xMax: Number(match[3]), yMax: Number(match[4]), text: decode(match[5]!) });
+        words.push({
+          page,
+          xMin: Number(match[1]),
+          yMin: Number(match[2]),
+          xMax: Number(match[3]),
+          yMax: Number(match[4]),
+          text: decode(match[5]!),
+        });
       }
     });
-    const text = pages.map((_, page) => words.filter((word) => word.page === page).map((word) => word.text).join(' '));
+    const text = pages.map((_, page) =>
+      words
+        .filter((word) => word.page === page)
+        .map((word) => word.text)
+        .join(' '),
+    );
     return { pages, words, text };
   } finally {
     rmSync(dir, { recursive: true, force: true });
@@ -75,5 +87,10 @@ export const RAW_VALUE_PATTERNS: readonly RegExp[] = [
 ];
 
 function decode(text: string): string {
-  return text.replace(/&amp;/g, '&').replace(/&lt;/g, '<').replace(/&gt;/g, '>').replace(/&quot;/g, '"').replace(/&#39;|&apos;/g, "'");
+  return text
+    .replace(/&amp;/g, '&')
+    .replace(/&lt;/g, '<')
+    .replace(/&gt;/g, '>')
+    .replace(/&quot;/g, '"')
+    .replace(/&#39;|&apos;/g, "'");
 }

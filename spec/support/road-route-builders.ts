@@ -10,7 +10,14 @@ export const ORIGIN: [number, number] = [9.0, 46.5];
  * carry elevation unless `withElevation` is false), with a vertex every `vertexSpacingM`.
  */
 export function eastwardLine(
-  options: { lengthM?: number; dropM?: number; topM?: number; vertexSpacingM?: number; withElevation?: boolean; origin?: [number, number] } = {},
+  options: {
+    lengthM?: number;
+    dropM?: number;
+    topM?: number;
+    vertexSpacingM?: number;
+    withElevation?: boolean;
+    origin?: [number, number];
+  } = {},
 ): LineString {
   const { lengthM = 2_000, dropM = 0, topM = 1_200, vertexSpacingM = 250, withElevation = true, origin = ORIGIN } = options;
   const { eastM } = metresPerDegree(origin[1]);
@@ -18,7 +25,9 @@ export function eastwardLine(
   const coordinates = Array.from({ length: count + 1 }, (_, i) => {
     const s = (lengthM * i) / count;
     const lon = origin[0] + s / eastM;
-    return withElevation ? ([lon, origin[1], topM - (dropM * s) / lengthM] as [number, number, number]) : ([lon, origin[1]] as [number, number]);
+    return withElevation
+      ? ([lon, origin[1], topM - (dropM * s) / lengthM] as [number, number, number])
+      : ([lon, origin[1]] as [number, number]);
   });
   return { type: 'LineString', coordinates };
 }

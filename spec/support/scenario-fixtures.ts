@@ -19,9 +19,18 @@ export const HILL_LINE: [number, number, number][] = [
 
 export async function aRoute(
   db: Executor,
-  overrides: { name?: string; tripsPerDay?: number; serviceDaysPerYear?: number; createdById?: string | null; coordinates?: [number, number, number][] } = {},
+  overrides: {
+    name?: string;
+    tripsPerDay?: number;
+    serviceDaysPerYear?: number;
+    createdById?: string | null;
+    coordinates?: [number, number, number][];
+  } = {},
 ) {
-  const [route] = await db.insert(roadRoutes).values({ createdById: overrides.createdById ?? null }).returning();
+  const [route] = await db
+    .insert(roadRoutes)
+    .values({ createdById: overrides.createdById ?? null })
+    .returning();
   const coordinates = overrides.coordinates ?? HILL_LINE;
   await db.insert(roadRouteVersions).values({
     routeId: route!.id,
@@ -50,7 +59,11 @@ export async function aVehicleProfile(db: Executor, overrides: { name?: string }
       vehicle: presetVehicle('battery-bus-12m', 'seated'),
       loadsKg: { empty: 0, seated: 2_500, 'full-standing': 6_000 },
       passengerMassKg: 70,
-      seasons: { winter: { ambientC: -5, auxPowerW: 20_000 }, mild: { ambientC: 12, auxPowerW: 6_000 }, summer: { ambientC: 28, auxPowerW: 15_000 } },
+      seasons: {
+        winter: { ambientC: -5, auxPowerW: 20_000 },
+        mild: { ambientC: 12, auxPowerW: 6_000 },
+        summer: { ambientC: 28, auxPowerW: 15_000 },
+      },
     })
     .returning();
   return profile!;

@@ -51,7 +51,10 @@ export function createTestContext(overrides: Partial<Record<keyof Config, string
 let passwordHash: Promise<string> | undefined;
 
 /** Inserts an active person with TEST_PASSWORD. */
-export async function aPerson(db: Database, overrides: { role?: Role; email?: string; name?: string; status?: 'active' | 'disabled' | 'invited' } = {}) {
+export async function aPerson(
+  db: Database,
+  overrides: { role?: Role; email?: string; name?: string; status?: 'active' | 'disabled' | 'invited' } = {},
+) {
   passwordHash ??= hashPassword(TEST_PASSWORD);
   const role = overrides.role ?? 'planner';
   const [row] = await db

@@ -110,7 +110,8 @@ export const routes: Routes = [
         data: areaData({
           label: 'Scenarios',
           icon: 'analytics',
-          summary: 'Run a route with a vehicle, load and season; see energy, regeneration, brake heat and risky descents; compare variants.',
+          summary:
+            'Run a route with a vehicle, load and season; see energy, regeneration, brake heat and risky descents; compare variants.',
           roles: ROLES,
         }),
         loadChildren: () => import('./scenarios/scenarios.routes'),
@@ -121,7 +122,8 @@ export const routes: Routes = [
         data: areaData({
           label: 'Service days',
           icon: 'calendar_view_day',
-          summary: 'A vehicle’s whole day: blocks of trips with layovers, chargers at the depot and route ends, SOC through the day and which blocks cannot be worked.',
+          summary:
+            'A vehicle’s whole day: blocks of trips with layovers, chargers at the depot and route ends, SOC through the day and which blocks cannot be worked.',
           roles: ROLES,
         }),
         loadChildren: () => import('./service-days/service-days.routes'),
@@ -159,7 +161,8 @@ export const routes: Routes = [
         data: areaData({
           label: 'Base map',
           icon: 'map',
-          summary: 'Import the region’s OpenStreetMap extract: the streets, water and place names under the terrain, and the roads routes snap to.',
+          summary:
+            'Import the region’s OpenStreetMap extract: the streets, water and place names under the terrain, and the roads routes snap to.',
           roles: rolesWith('basemap.manage'),
         }),
         loadComponent: () => import('./basemap/basemap-catalogue'),

@@ -1,5 +1,18 @@
 import { sql } from 'drizzle-orm';
-import { bigint, boolean, doublePrecision, index, integer, jsonb, pgEnum, pgTable, text, timestamp, uniqueIndex, uuid } from 'drizzle-orm/pg-core';
+import {
+  bigint,
+  boolean,
+  doublePrecision,
+  index,
+  integer,
+  jsonb,
+  pgEnum,
+  pgTable,
+  text,
+  timestamp,
+  uniqueIndex,
+  uuid,
+} from 'drizzle-orm/pg-core';
 import type { LineString } from '@shared/domain/analysis';
 import { BASEMAP_IMPORT_STATUSES, type BasemapImportProgress } from '@shared/domain/basemap';
 import { geometryColumn, timestamps } from './columns';
@@ -49,7 +62,9 @@ export const basemapImports = pgTable(
     ...timestamps,
   },
   (table) => [
-    uniqueIndex('basemap_imports_one_active_idx').on(table.isActive).where(sql`${table.isActive}`),
+    uniqueIndex('basemap_imports_one_active_idx')
+      .on(table.isActive)
+      .where(sql`${table.isActive}`),
     uniqueIndex('basemap_imports_schema_name_idx').on(table.schemaName),
   ],
 );
@@ -67,7 +82,9 @@ const lineString = geometryColumn<LineString>('LineString');
 export const roadGraphOverlayEdges = pgTable(
   'road_graph_overlay_edges',
   {
-    id: bigint({ mode: 'number' }).primaryKey().generatedAlwaysAsIdentity({ startWith: 2 ** 40 }),
+    id: bigint({ mode: 'number' })
+      .primaryKey()
+      .generatedAlwaysAsIdentity({ startWith: 2 ** 40 }),
     baseImportId: uuid().references(() => basemapImports.id, { onDelete: 'cascade' }),
     /** 'reference' for a reference-network line, 'split' for a piece of an imported edge. */
     kind: text().notNull(),

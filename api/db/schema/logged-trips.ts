@@ -62,7 +62,9 @@ export const calibrations = pgTable(
       .references(() => vehicleProfiles.id, { onDelete: 'restrict' }),
     /** Profile version the fit started from. */
     profileVersion: integer().notNull(),
-    status: text({ enum: ['queued', 'running', 'done', 'failed'] }).notNull().default('queued'),
+    status: text({ enum: ['queued', 'running', 'done', 'failed'] })
+      .notNull()
+      .default('queued'),
     failureReason: text(),
     /** The trips fitted on (ids and names kept even if a trip is deleted later). */
     loggedTrips: jsonb().$type<{ id: string; name: string }[]>().notNull(),

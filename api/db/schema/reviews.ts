@@ -36,10 +36,14 @@ export const reviewItems = pgTable(
     startM: doublePrecision().notNull(),
     endM: doublePrecision().notNull(),
     meanGradePercent: doublePrecision().notNull(),
-    risk: text({ enum: ['low', 'elevated', 'high', 'critical'] }).$type<RiskLevel>().notNull(),
+    risk: text({ enum: ['low', 'elevated', 'high', 'critical'] })
+      .$type<RiskLevel>()
+      .notNull(),
     /** 0 low … 3 critical, for sorting and "worse than" comparisons in SQL. */
     riskRank: integer().notNull(),
-    raisedRisk: text({ enum: ['low', 'elevated', 'high', 'critical'] }).$type<RiskLevel>().notNull(),
+    raisedRisk: text({ enum: ['low', 'elevated', 'high', 'critical'] })
+      .$type<RiskLevel>()
+      .notNull(),
     peakBrakeTempC: doublePrecision().notNull(),
     /** The shown descent record (of the worst source). */
     descent: jsonb().$type<Descent>().notNull(),

@@ -1,6 +1,13 @@
 import { boolean, doublePrecision, index, integer, jsonb, pgTable, text, timestamp, uuid } from 'drizzle-orm/pg-core';
 import type { Summary } from '@shared/domain/analysis';
-import { DIRECTIONS, RUN_STATUSES, type DirectionResult, type ScenarioLoad, type ScenarioOptions, type ScenarioSeason } from '@shared/domain/scenarios';
+import {
+  DIRECTIONS,
+  RUN_STATUSES,
+  type DirectionResult,
+  type ScenarioLoad,
+  type ScenarioOptions,
+  type ScenarioSeason,
+} from '@shared/domain/scenarios';
 import { deletion, timestamps } from './columns';
 import { users } from './people';
 import { roadRoutes } from './road-routes';
@@ -58,9 +65,6 @@ export const scenarios = pgTable(
     ...timestamps,
     ...deletion,
   },
-  (table) => [
-    index('scenarios_route_id_idx').on(table.routeId),
-    index('scenarios_vehicle_profile_id_idx').on(table.vehicleProfileId),
-  ],
+  (table) => [index('scenarios_route_id_idx').on(table.routeId), index('scenarios_vehicle_profile_id_idx').on(table.vehicleProfileId)],
 );
 export type ScenarioRow = typeof scenarios.$inferSelect;

@@ -1,6 +1,12 @@
 import { boolean, doublePrecision, integer, jsonb, pgTable, text, timestamp, uniqueIndex, uuid } from 'drizzle-orm/pg-core';
 import type { VehicleInput } from '@shared/domain/analysis';
-import type { ClimateSettingsInput, LoadCase, ProfileCalibrationSource, Season, VehicleProfileDraft } from '@shared/domain/vehicle-profiles';
+import type {
+  ClimateSettingsInput,
+  LoadCase,
+  ProfileCalibrationSource,
+  Season,
+  VehicleProfileDraft,
+} from '@shared/domain/vehicle-profiles';
 import { deletion, timestamps } from './columns';
 import { users } from './people';
 

@@ -297,7 +297,9 @@ function readVerticalUnit(image: GeoTIFFImage): { name: string; toM: number } {
 function readNodata(image: GeoTIFFImage): number | null {
   const directory = image.getFileDirectory();
   if (!directory.hasTag('GDAL_NODATA')) return null;
-  const text = String(directory.getValue('GDAL_NODATA') ?? '').replace(/\0/g, '').trim();
+  const text = String(directory.getValue('GDAL_NODATA') ?? '')
+    .replace(/\0/g, '')
+    .trim();
   if (!text) return null;
   const value = Number(text);
   return Number.isFinite(value) ? value : null;

@@ -68,7 +68,10 @@ export async function ingestTerrainModel(deps: AppDeps, terrainId: string, jobId
   await requestRoadGraphRegrade(deps);
 }
 
-async function scanGrid(deps: AppDeps, source: TerrainSource): Promise<{ statistics: TerrainStatistics; overviews: TerrainOverviewLevel[] }> {
+async function scanGrid(
+  deps: AppDeps,
+  source: TerrainSource,
+): Promise<{ statistics: TerrainStatistics; overviews: TerrainOverviewLevel[] }> {
   const runtime = terrainRuntimeFor(deps);
   const statistics = new StatisticsAccumulator(source.widthPx, spikeThresholdM(source.resolutionM));
   await removePyramid(source);
@@ -98,7 +101,9 @@ async function scanGrid(deps: AppDeps, source: TerrainSource): Promise<{ statist
 
 async function removePyramid(source: TerrainSource): Promise<void> {
   const names = await readdir(source.overviewDir).catch(() => [] as string[]);
-  await Promise.all(names.filter((name) => name.startsWith('overview-')).map((name) => rm(join(source.overviewDir, name), { force: true })));
+  await Promise.all(
+    names.filter((name) => name.startsWith('overview-')).map((name) => rm(join(source.overviewDir, name), { force: true })),
+  );
 }
 
 function qualityNotesFor(statistics: TerrainStatistics, source: TerrainSource): string[] {
@@ -108,9 +113,7 @@ function qualityNotesFor(statistics: TerrainStatistics, source: TerrainSource): 
   else if (statistics.nodataShare > 0) notes.push(`${percent} % of the pixels are nodata; routes crossing them get no elevation there.`);
   else notes.push('No nodata pixels: the model is complete.');
   if (statistics.spikeCount > 0) {
-    const where = statistics.spikeSamples
-      .map(([col, row]) => `pixel ${col}, ${row}`)
-      .join('; ');
+    const where = statistics.spikeSamples.map(([col, row]) => `pixel ${col}, ${row}`).join('; ');
     notes.push(
       `${statistics.spikeCount} suspicious spike${statistics.spikeCount === 1 ? '' : 's'}: single pixels more than ${spikeThresholdM(source.resolutionM).toFixed(0)} m above or below all neighbours (${where}). Check the grade profile there.`,
     );

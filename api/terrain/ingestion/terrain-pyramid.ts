@@ -128,7 +128,12 @@ class LevelWriter {
    * Joins a carried odd row with new rows and returns whole row pairs. At the end (isLast) an odd
    * row is paired with an all-NaN row, which averaging ignores.
    */
-  pairWithCarry(rows: Float32Array | Float64Array, rowCount: number, sourceWidth: number, isLast: boolean): { data: Float32Array | Float64Array; pairs: number } | null {
+  pairWithCarry(
+    rows: Float32Array | Float64Array,
+    rowCount: number,
+    sourceWidth: number,
+    isLast: boolean,
+  ): { data: Float32Array | Float64Array; pairs: number } | null {
     let data = rows.subarray(0, rowCount * sourceWidth);
     let count = rowCount;
     if (this.carry) {

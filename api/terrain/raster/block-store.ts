@@ -90,7 +90,10 @@ export class BlockStore {
   }
 
   /** Number of blocks across and down at a level (0 = the GeoTIFF, k = overview k). */
-  blockGrid(source: TerrainSource, level: number): { blockWidth: number; blockHeight: number; across: number; down: number; widthPx: number; heightPx: number } {
+  blockGrid(
+    source: TerrainSource,
+    level: number,
+  ): { blockWidth: number; blockHeight: number; across: number; down: number; widthPx: number; heightPx: number } {
     if (level === 0) {
       return {
         blockWidth: source.blockWidthPx,
@@ -193,7 +196,10 @@ export class BlockStore {
       const split = Math.min(TILE_PX - 16, Math.max(16, Math.round(splitRow) - HAND_OFF_ROWS));
       // The worker reads the windows from shared memory: copied once, not serialised.
       const layers = task.layers.map((layer) => ({ ...layer, window: sharedCopy(layer.window) }));
-      const top = this.runTask({ task: { ...task, layers }, firstRow: 0, endRow: split, final: false }, { name: 'renderTileRows' }) as Promise<TilePart>;
+      const top = this.runTask(
+        { task: { ...task, layers }, firstRow: 0, endRow: split, final: false },
+        { name: 'renderTileRows' },
+      ) as Promise<TilePart>;
       let bottom: TilePart;
       try {
         bottom = renderTileRows(task, split, TILE_PX, true);
@@ -206,7 +212,9 @@ export class BlockStore {
       return Buffer.from(png.buffer, png.byteOffset, png.byteLength);
     }
     // Windows in shared memory are read in place; others are handed over.
-    const transferList = task.layers.map((layer) => layer.window.buffer).filter((buffer): buffer is ArrayBuffer => buffer instanceof ArrayBuffer);
+    const transferList = task.layers
+      .map((layer) => layer.window.buffer)
+      .filter((buffer): buffer is ArrayBuffer => buffer instanceof ArrayBuffer);
     const png = (await this.runTask(task, { name: 'renderTile', transferList })) as Uint8Array;
     return Buffer.from(png.buffer, png.byteOffset, png.byteLength);
   }
@@ -245,7 +253,10 @@ export class BlockStore {
       const [oldestPath, oldest] = this.overviewFiles.entries().next().value!;
       this.overviewFiles.delete(oldestPath);
       // Reads already under way finish first: the handle closes once they have settled.
-      void oldest.then((file) => setTimeout(() => void file.close().catch(() => undefined), 1_000), () => undefined);
+      void oldest.then(
+        (file) => setTimeout(() => void file.close().catch(() => undefined), 1_000),
+        () => undefined,
+      );
     }
     return handle;
   }
@@ -254,7 +265,12 @@ export class BlockStore {
     for (const [path, handle] of this.overviewFiles) {
       if (prefix && !path.startsWith(prefix)) continue;
       this.overviewFiles.delete(path);
-      void handle.then((file) => file.close(), () => undefined).catch(() => undefined);
+      void handle
+        .then(
+          (file) => file.close(),
+          () => undefined,
+        )
+        .catch(() => undefined);
     }
   }
 
@@ -333,7 +349,12 @@ function readOverviewBlockSync(fd: number, source: TerrainSource, level: number,
   return overviewBlock(buffer);
 }
 
-function overviewRead(source: TerrainSource, level: number, blockX: number, blockY: number): { buffer: Buffer; blockBytes: number; position: number } {
+function overviewRead(
+  source: TerrainSource,
+  level: number,
+  blockX: number,
+  blockY: number,
+): { buffer: Buffer; blockBytes: number; position: number } {
   const overview = source.overviews[level - 1]!;
   const across = Math.ceil(overview.widthPx / OVERVIEW_BLOCK_PX);
   const blockBytes = OVERVIEW_BLOCK_PX * OVERVIEW_BLOCK_PX * 4;

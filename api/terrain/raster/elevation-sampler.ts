@@ -74,7 +74,12 @@ export async function sampleFromModels(
       if (lon >= west && lon <= east && lat >= south && lat <= north) wanted.push(i);
     }
     if (wanted.length === 0) continue;
-    const values = await sampleModel(blocks, model, wanted.map((i) => points[i]!), method);
+    const values = await sampleModel(
+      blocks,
+      model,
+      wanted.map((i) => points[i]!),
+      method,
+    );
     for (let k = 0; k < wanted.length; k++) {
       const value = values[k]!;
       if (value === value) found[wanted[k]!] = value;

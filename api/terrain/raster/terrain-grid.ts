@@ -86,6 +86,5 @@ export function bilinearValue(grid: GridGeometry, col: number, row: number, valu
 
 /** Lookup that answers NaN outside the grid, so callers need not bounds-check. */
 export function guardedLookup(grid: GridGeometry, valueAt: PixelLookup): PixelLookup {
-  return (col, row) =>
-    col < 0 || row < 0 || col >= grid.widthPx || row >= grid.heightPx ? NaN : valueAt(col, row);
+  return (col, row) => (col < 0 || row < 0 || col >= grid.widthPx || row >= grid.heightPx ? NaN : valueAt(col, row));
 }

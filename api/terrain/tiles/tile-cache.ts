@@ -81,7 +81,9 @@ export class TileCache {
 
   async removeAllBut(version: string): Promise<void> {
     const names = await readdir(this.tilesDir).catch(() => [] as string[]);
-    await Promise.all(names.filter((name) => name !== version).map((name) => rm(join(this.tilesDir, name), { recursive: true, force: true })));
+    await Promise.all(
+      names.filter((name) => name !== version).map((name) => rm(join(this.tilesDir, name), { recursive: true, force: true })),
+    );
   }
 
   /** Adds the version's tiles already on disk to the index, oldest first (so they go first). */

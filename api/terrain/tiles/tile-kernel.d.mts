@@ -45,7 +45,12 @@ export interface TileTask {
 }
 
 /** Only sample rows [rowStart, rowEnd) are filled when given; `into` (SAMPLES_PX² values) is filled instead of a new array. */
-export declare function sampleTileElevations(layers: readonly TileLayer[], rowStart?: number, rowEnd?: number, into?: Float64Array): Float64Array;
+export declare function sampleTileElevations(
+  layers: readonly TileLayer[],
+  rowStart?: number,
+  rowEnd?: number,
+  into?: Float64Array,
+): Float64Array;
 export declare function shadeAndTint(
   elevations: Float64Array,
   cellSizeM: number,
@@ -59,7 +64,13 @@ export declare function shadeAndTint(
   into?: Uint8Array | null,
 ): Uint8Array;
 /** RGB with black transparent (tRNS). */
-export declare function encodePng(scanlines: Uint8Array, width: number, height: number, deflateLevel?: number, magnified?: boolean): Uint8Array;
+export declare function encodePng(
+  scanlines: Uint8Array,
+  width: number,
+  height: number,
+  deflateLevel?: number,
+  magnified?: boolean,
+): Uint8Array;
 export declare function renderTilePng(task: TileTask): Uint8Array;
 /** Rows [firstRow, endRow) of a tile, deflated to join the other parts' (see renderTileRows in tile-kernel.mjs). */
 export interface TilePart {

@@ -296,7 +296,17 @@ export function renderTileRows(task, firstRow, endRow, final) {
   task = uniformTask(task);
   const { elevations: scratchElevations, scanlines: scratchScanlines } = scratch();
   const elevations = sampleTileElevations(task.layers, firstRow, endRow + 2, scratchElevations);
-  const scanlines = shadeAndTint(elevations, task.cellSizeM, task.sun, task.stops, task.shadowFloor, task.shadeGain, firstRow, endRow, scratchScanlines);
+  const scanlines = shadeAndTint(
+    elevations,
+    task.cellSizeM,
+    task.sun,
+    task.stops,
+    task.shadowFloor,
+    task.shadeGain,
+    firstRow,
+    endRow,
+    scratchScanlines,
+  );
   const options = deflateOptions(task);
   if (final) {
     const wrapped = deflateSync(scanlines, options);
@@ -333,7 +343,7 @@ function adler32(bytes) {
   let a = 1;
   let b = 0;
   const n = bytes.length;
-  for (let start = 0; start < n; ) {
+  for (let start = 0; start < n;) {
     // 5552 bytes at most between reductions keep the sums below 2³².
     const end = Math.min(n, start + 5552);
     for (let k = start; k < end; k++) {
@@ -383,7 +393,13 @@ function uniformTask(task) {
       step: layer.step,
     })),
     cellSizeM: task.cellSizeM,
-    sun: { cosZenith: sun.cosZenith, sinZenith: sun.sinZenith, cosAzimuth: sun.cosAzimuth, sinAzimuth: sun.sinAzimuth, zFactor: sun.zFactor },
+    sun: {
+      cosZenith: sun.cosZenith,
+      sinZenith: sun.sinZenith,
+      cosAzimuth: sun.cosAzimuth,
+      sinAzimuth: sun.sinAzimuth,
+      zFactor: sun.zFactor,
+    },
     stops: task.stops,
     shadowFloor: task.shadowFloor,
     shadeGain: task.shadeGain,
@@ -409,7 +425,17 @@ export function renderTilePng(task) {
   task = uniformTask(task);
   const { elevations: scratchElevations, scanlines: scratchScanlines } = scratch();
   const elevations = sampleTileElevations(task.layers, 0, SAMPLES_PX, scratchElevations);
-  const scanlines = shadeAndTint(elevations, task.cellSizeM, task.sun, task.stops, task.shadowFloor, task.shadeGain, 0, TILE_PX, scratchScanlines);
+  const scanlines = shadeAndTint(
+    elevations,
+    task.cellSizeM,
+    task.sun,
+    task.stops,
+    task.shadowFloor,
+    task.shadeGain,
+    0,
+    TILE_PX,
+    scratchScanlines,
+  );
   return encodePng(scanlines, TILE_PX, TILE_PX, task.deflateLevel, task.magnified);
 }
 
@@ -445,8 +471,29 @@ export function warmUpKernel(rounds = 12) {
   const stops = Float64Array.from([0, 90, 130, 100, 1000, 180, 180, 120, 2000, 240, 240, 240]);
   for (let round = 0; round < rounds; round++) {
     const partial = round % 3 === 2;
-    const layer = { window: partial ? holed : window, x0: partial ? 40 : 0, y0: 0, width, height: width, gridWidth: 10_000, gridHeight: 10_000, nodeCols, nodeRows, nodes, step: 16 };
-    const task = { layers: [layer], cellSizeM: 10, sun, stops, shadowFloor: 0.3, shadeGain: 0.8, deflateLevel: 1, magnified: round % 2 === 0 };
+    const layer = {
+      window: partial ? holed : window,
+      x0: partial ? 40 : 0,
+      y0: 0,
+      width,
+      height: width,
+      gridWidth: 10_000,
+      gridHeight: 10_000,
+      nodeCols,
+      nodeRows,
+      nodes,
+      step: 16,
+    };
+    const task = {
+      layers: [layer],
+      cellSizeM: 10,
+      sun,
+      stops,
+      shadowFloor: 0.3,
+      shadeGain: 0.8,
+      deflateLevel: 1,
+      magnified: round % 2 === 0,
+    };
     renderTilePng(task);
     // A tile split over two threads: both halves, reading shared memory as the pool's threads do.
     const split = { ...task, layers: [{ ...layer, window: partial ? sharedHoled : sharedWindow }] };

@@ -181,7 +181,19 @@ async function layerFor(
       continue;
     }
     const window = await gatherWindow(blocks, model, level, x0, y0, width, height);
-    return { window, x0, y0, width, height, gridWidth: grid.widthPx, gridHeight: grid.heightPx, nodeCols, nodeRows, nodes, step: LATTICE_STEP_PX };
+    return {
+      window,
+      x0,
+      y0,
+      width,
+      height,
+      gridWidth: grid.widthPx,
+      gridHeight: grid.heightPx,
+      nodeCols,
+      nodeRows,
+      nodes,
+      step: LATTICE_STEP_PX,
+    };
   }
 }
 
@@ -231,7 +243,8 @@ async function gatherWindow(
   // and decodes one missing GeoTIFF block after handing the others to the workers.
   const hereFrom = !blocks.idle ? missing.length : level > 0 ? 0 : Math.max(0, missing.length - 1);
   const fetches = missing.slice(0, hereFrom).map(([bx, by], k) => blocks.block(model, level, bx, by).then(copies[k]!));
-  for (let k = hereFrom; k < missing.length; k++) fetches.push(blocks.blockHere(model, level, missing[k]![0], missing[k]![1]).then(copies[k]!));
+  for (let k = hereFrom; k < missing.length; k++)
+    fetches.push(blocks.blockHere(model, level, missing[k]![0], missing[k]![1]).then(copies[k]!));
   await Promise.all(fetches);
   return window;
 }

@@ -128,10 +128,17 @@ describe('POST /api/analysis/preview', () => {
 
   it('keeps answering other requests while an analysis runs on a worker thread (issue 11)', async () => {
     const pool = analysisPoolFor(context.deps);
-    await request(app).post('/api/analysis/preview').set('Cookie', cookie).send({ route: straightDescent({ lengthM: 1_000, dropM: 50 }), vehicle: laden12mBus });
+    await request(app)
+      .post('/api/analysis/preview')
+      .set('Cookie', cookie)
+      .send({ route: straightDescent({ lengthM: 1_000, dropM: 50 }), vehicle: laden12mBus });
     const longRoute = straightDescent({ lengthM: 59_000, dropM: 900 });
 
-    const preview = request(app).post('/api/analysis/preview').set('Cookie', cookie).send({ route: longRoute, vehicle: laden12mBus, options: { spacingM: 1 } }).then((r) => r);
+    const preview = request(app)
+      .post('/api/analysis/preview')
+      .set('Cookie', cookie)
+      .send({ route: longRoute, vehicle: laden12mBus, options: { spacingM: 1 } })
+      .then((r) => r);
     await until(() => pool.running === 1);
     const health = await request(app).get('/api/health');
     const stillRunning = pool.running;
@@ -146,7 +153,11 @@ describe('POST /api/analysis/preview', () => {
   it('refuses a third concurrent heavy request of one person with 429 and Retry-After (issue 11)', async () => {
     const route = straightDescent({ lengthM: 50_000, dropM: 900 });
     const send = () =>
-      request(app).post('/api/analysis/preview').set('Cookie', cookie).send({ route, vehicle: laden12mBus, options: { spacingM: 1 } }).then((r) => r);
+      request(app)
+        .post('/api/analysis/preview')
+        .set('Cookie', cookie)
+        .send({ route, vehicle: laden12mBus, options: { spacingM: 1 } })
+        .then((r) => r);
 
     const responses = await Promise.all([send(), send(), send()]);
 
@@ -189,8 +200,14 @@ describe('POST /api/analysis/preview with a profile view', () => {
   });
 
   it('answers 400 naming the option for an unknown series or a step out of range', async () => {
-    const unknownSeries = await request(app).post('/api/analysis/preview?series=elevationM,colour').set('Cookie', cookie).send({ route, vehicle: laden12mBus });
-    const zeroStep = await request(app).post('/api/analysis/preview?profileStepM=0').set('Cookie', cookie).send({ route, vehicle: laden12mBus });
+    const unknownSeries = await request(app)
+      .post('/api/analysis/preview?series=elevationM,colour')
+      .set('Cookie', cookie)
+      .send({ route, vehicle: laden12mBus });
+    const zeroStep = await request(app)
+      .post('/api/analysis/preview?profileStepM=0')
+      .set('Cookie', cookie)
+      .send({ route, vehicle: laden12mBus });
 
     expect(unknownSeries.status).toBe(400);
     expect(unknownSeries.body.error.message).toMatch(/series/);

@@ -2,12 +2,7 @@ import { eq } from 'drizzle-orm';
 import { SignJWT } from 'jose';
 import request from 'supertest';
 import { afterAll, beforeEach, describe, expect, it } from 'vitest';
-import {
-  ACCOUNT_RESET_POLICY,
-  ACCOUNT_SIGN_IN_POLICY,
-  ADDRESS_SIGN_IN_POLICY,
-  delayAfterS,
-} from '../../../api/auth/attempt-throttle';
+import { ACCOUNT_RESET_POLICY, ACCOUNT_SIGN_IN_POLICY, ADDRESS_SIGN_IN_POLICY, delayAfterS } from '../../../api/auth/attempt-throttle';
 import { SESSION_COOKIE } from '../../../api/auth/session-tokens';
 import { attemptThrottles, mailOutbox, sessions } from '../../../api/db/schema/index';
 import { TEST_PASSWORD, aPerson, createTestContext, signedInAgent } from '../../support/test-app';
@@ -79,7 +74,9 @@ describe('POST /api/auth/login', () => {
 
   it('limits failures per address across different accounts', async () => {
     for (let attempt = 0; attempt < ADDRESS_SIGN_IN_POLICY.freeAttempts; attempt += 1) {
-      await request(app).post('/api/auth/login').send({ email: `spray-${attempt}@spec.example`, password: 'guess' });
+      await request(app)
+        .post('/api/auth/login')
+        .send({ email: `spray-${attempt}@spec.example`, password: 'guess' });
     }
     const person = await aPerson(db);
 
@@ -113,7 +110,10 @@ describe('POST /api/auth/login', () => {
     expect((await owner.post('/api/auth/login').send({ email: person.email, password: TEST_PASSWORD })).status).toBe(200);
     await owner.post('/api/auth/logout');
     for (let attempt = 0; attempt < ACCOUNT_SIGN_IN_POLICY.freeAttempts; attempt += 1) {
-      await request(app).post('/api/auth/login').set('X-Forwarded-For', '203.0.113.9').send({ email: person.email, password: 'attacker-guess' });
+      await request(app)
+        .post('/api/auth/login')
+        .set('X-Forwarded-For', '203.0.113.9')
+        .send({ email: person.email, password: 'attacker-guess' });
     }
 
     const attacker = await request(app).post('/api/auth/login').send({ email: person.email, password: TEST_PASSWORD });
@@ -131,17 +131,25 @@ describe('POST /api/auth/login', () => {
         .send({ email: `dodge-${attempt}@spec.example`, password: 'guess' });
     }
 
-    const next = await request(app).post('/api/auth/login').set('X-Forwarded-For', '198.51.100.250').send({ email: 'dodge-last@spec.example', password: 'guess' });
+    const next = await request(app)
+      .post('/api/auth/login')
+      .set('X-Forwarded-For', '198.51.100.250')
+      .send({ email: 'dodge-last@spec.example', password: 'guess' });
 
     expect(next.status).toBe(429);
     const rows = await db.select().from(attemptThrottles);
-    expect(rows.filter((row) => row.key.startsWith('address:')).map((row) => row.key)).toEqual([expect.stringMatching(/^address:(::ffff:)?127\.0\.0\.1$|^address:::1$/)]);
+    expect(rows.filter((row) => row.key.startsWith('address:')).map((row) => row.key)).toEqual([
+      expect.stringMatching(/^address:(::ffff:)?127\.0\.0\.1$|^address:::1$/),
+    ]);
   });
 
   it('takes the client address from X-Forwarded-For when TRUST_PROXY names the proxy', async () => {
     const proxied = createTestContext({ TRUST_PROXY: 'loopback' });
 
-    await request(proxied.app).post('/api/auth/login').set('X-Forwarded-For', '192.0.2.44').send({ email: 'behind@spec.example', password: 'guess' });
+    await request(proxied.app)
+      .post('/api/auth/login')
+      .set('X-Forwarded-For', '192.0.2.44')
+      .send({ email: 'behind@spec.example', password: 'guess' });
 
     const rows = await db.select().from(attemptThrottles);
     expect(rows.map((row) => row.key)).toContain('address:192.0.2.44');
@@ -219,7 +227,9 @@ describe('session cookie', () => {
     const second = request.agent(app);
     await second.post('/api/auth/login').send({ email: person.email, password: TEST_PASSWORD });
 
-    const change = await first.post('/api/auth/password').send({ currentPassword: TEST_PASSWORD, newPassword: 'a-brand-new-long-password' });
+    const change = await first
+      .post('/api/auth/password')
+      .send({ currentPassword: TEST_PASSWORD, newPassword: 'a-brand-new-long-password' });
 
     expect(change.status).toBe(204);
     expect((await first.get('/api/auth/me')).status).toBe(401);

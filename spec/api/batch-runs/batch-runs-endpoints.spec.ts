@@ -4,7 +4,13 @@ import { batchRunSchema, type BatchRun } from '@shared/domain/board-summary';
 import type { ScenarioDraftInput } from '@shared/domain/scenarios';
 import { createApp } from '../../../api/app';
 import type { AppDeps } from '../../../api/app-deps';
-import { BATCH_RUN_JOB, registerBatchRunWorkers, runBatchItem, waitForInlineBatchJobs, type BatchRunJob } from '../../../api/batch-runs/batch-runs-service';
+import {
+  BATCH_RUN_JOB,
+  registerBatchRunWorkers,
+  runBatchItem,
+  waitForInlineBatchJobs,
+  type BatchRunJob,
+} from '../../../api/batch-runs/batch-runs-service';
 import { attachJobQueue } from '../../../api/app-runtime';
 import { startJobQueue, type JobQueue } from '../../../api/jobs/job-queue';
 import { ensureVehiclePresets, presetProfileId } from '../../../api/vehicle-profiles/vehicle-presets-seed';
@@ -30,10 +36,16 @@ describe('POST /api/batch-runs', () => {
     const summit = await aScenario(app, { name: 'Summit, winter', inService: true });
     const valley = await aScenario(app, { name: 'Valley, summer', inService: true, season: { kind: 'season', season: 'summer' } });
     // A route whose positions carry no elevation, with no terrain to sample: it cannot run.
-    const uncovered = await aScenario(app, { name: 'Uncovered spur', inService: true }, eastwardLine({ lengthM: 1_500, withElevation: false }));
+    const uncovered = await aScenario(
+      app,
+      { name: 'Uncovered spur', inService: true },
+      eastwardLine({ lengthM: 1_500, withElevation: false }),
+    );
     await aScenario(app, { name: 'Not in service', inService: false });
 
-    const started = await request(app).post('/api/batch-runs').set('Cookie', await cookieFor('analyst'));
+    const started = await request(app)
+      .post('/api/batch-runs')
+      .set('Cookie', await cookieFor('analyst'));
     await waitForInlineBatchJobs(context.deps);
 
     expect(started.status).toBe(202);
@@ -51,10 +63,18 @@ describe('POST /api/batch-runs', () => {
   it('answers 409 when no scenario is in service, and starts nothing', async () => {
     await aScenario(app, { name: 'Draft', inService: false });
 
-    const response = await request(app).post('/api/batch-runs').set('Cookie', await cookieFor('analyst'));
+    const response = await request(app)
+      .post('/api/batch-runs')
+      .set('Cookie', await cookieFor('analyst'));
 
     expect(response.status).toBe(409);
-    expect((await request(app).get('/api/batch-runs').set('Cookie', await cookieFor('board'))).body.items).toEqual([]);
+    expect(
+      (
+        await request(app)
+          .get('/api/batch-runs')
+          .set('Cookie', await cookieFor('board'))
+      ).body.items,
+    ).toEqual([]);
   });
 
   it('answers 404 for an unknown run and 400 naming batchRunId for a malformed one', async () => {
@@ -79,7 +99,11 @@ describe('batch progress', () => {
     await aScenario(isolatedApp, { name: 'A', inService: true });
     await aScenario(isolatedApp, { name: 'B', inService: true }, eastwardLine({ lengthM: 1_500, withElevation: false }));
 
-    const started = (await request(isolatedApp).post('/api/batch-runs').set('Cookie', await cookieFor('analyst'))).body as BatchRun;
+    const started = (
+      await request(isolatedApp)
+        .post('/api/batch-runs')
+        .set('Cookie', await cookieFor('analyst'))
+    ).body as BatchRun;
     const queued = await batchRun(isolatedApp, started.id);
     await runBatchItem(isolated.deps, held.jobs[0]!);
     const halfway = await batchRun(isolatedApp, started.id);
@@ -112,8 +136,15 @@ describe('batch progress', () => {
     await registerBatchRunWorkers(shared.deps, workerB, tracking('b', shared.deps));
     for (const name of ['One', 'Two', 'Three', 'Four']) await aScenario(sharedApp, { name, inService: true });
 
-    const started = (await request(sharedApp).post('/api/batch-runs').set('Cookie', await cookieFor('analyst'))).body as BatchRun;
-    const finished = await waitUntil(() => batchRun(sharedApp, started.id), (run) => run.status === 'done');
+    const started = (
+      await request(sharedApp)
+        .post('/api/batch-runs')
+        .set('Cookie', await cookieFor('analyst'))
+    ).body as BatchRun;
+    const finished = await waitUntil(
+      () => batchRun(sharedApp, started.id),
+      (run) => run.status === 'done',
+    );
     await Promise.all([sender.stop(), workerA.stop(), workerB.stop()]);
     await shared.close();
 
@@ -124,9 +155,16 @@ describe('batch progress', () => {
 
 // Helpers
 
-async function aScenario(target: typeof app, overrides: Partial<ScenarioDraftInput>, geometry = eastwardLine({ lengthM: 3_000, dropM: 240 })) {
+async function aScenario(
+  target: typeof app,
+  overrides: Partial<ScenarioDraftInput>,
+  geometry = eastwardLine({ lengthM: 3_000, dropM: 240 }),
+) {
   const planner = await cookieFor('planner');
-  const route = await request(target).post('/api/routes').set('Cookie', planner).send(aRouteDraft({ name: `Route of ${overrides.name}`, geometry, stops: [], speedLimits: [] }));
+  const route = await request(target)
+    .post('/api/routes')
+    .set('Cookie', planner)
+    .send(aRouteDraft({ name: `Route of ${overrides.name}`, geometry, stops: [], speedLimits: [] }));
   if (route.status !== 201) throw new Error(`route: ${route.status} ${route.text}`);
   const response = await request(target)
     .post('/api/scenarios')
@@ -137,7 +175,9 @@ async function aScenario(target: typeof app, overrides: Partial<ScenarioDraftInp
 }
 
 async function batchRun(target: typeof app, id: string): Promise<BatchRun> {
-  const response = await request(target).get(`/api/batch-runs/${id}`).set('Cookie', await cookieFor('board'));
+  const response = await request(target)
+    .get(`/api/batch-runs/${id}`)
+    .set('Cookie', await cookieFor('board'));
   return batchRunSchema.parse(response.body);
 }
 

@@ -31,8 +31,21 @@ describe('GET /api/board/summary', () => {
     const pass = await aRoute(db, { name: 'Pass road', tripsPerDay: 10, serviceDaysPerYear: 300 });
     const valley = await aRoute(db, { name: 'Valley link', tripsPerDay: 4, serviceDaysPerYear: 250 });
     // Pass road: an older in-service result and a scenario not in service, both ignored.
-    await aScenario(db, { routeId: pass.id, vehicleProfileId: profile.id, name: 'Old', inService: true, computedAt: new Date('2026-01-01T00:00:00Z'), summary: aSummary({ regenEnergyWh: 99_000 }) });
-    await aScenario(db, { routeId: pass.id, vehicleProfileId: profile.id, name: 'Draft', inService: false, summary: aSummary({ regenEnergyWh: 77_000 }) });
+    await aScenario(db, {
+      routeId: pass.id,
+      vehicleProfileId: profile.id,
+      name: 'Old',
+      inService: true,
+      computedAt: new Date('2026-01-01T00:00:00Z'),
+      summary: aSummary({ regenEnergyWh: 99_000 }),
+    });
+    await aScenario(db, {
+      routeId: pass.id,
+      vehicleProfileId: profile.id,
+      name: 'Draft',
+      inService: false,
+      summary: aSummary({ regenEnergyWh: 77_000 }),
+    });
     await aScenario(db, {
       routeId: pass.id,
       vehicleProfileId: profile.id,
@@ -50,16 +63,33 @@ describe('GET /api/board/summary', () => {
       summary: aSummary({ lengthM: 8_000, regenEnergyWh: 5_500, frictionBrakeEnergyWh: 800, batteryNetEnergyWh: 4_000, kWhPerKm: 0.5 }),
     });
 
-    const response = await request(app).get('/api/board/summary').set('Cookie', await cookieFor('board'));
+    const response = await request(app)
+      .get('/api/board/summary')
+      .set('Cookie', await cookieFor('board'));
 
     expect(response.status).toBe(200);
     const summary = boardSummarySchema.parse(response.body);
     // Pass road: 10 trips × 300 days = 3 000 trips; Valley link: 4 × 250 = 1 000 trips.
-    expect(summary.routes.map((route) => [route.routeName, route.scenarioName, route.annualKm, route.annualRegenKWh, route.annualFrictionBrakeKWh, route.annualNetKWh])).toEqual([
+    expect(
+      summary.routes.map((route) => [
+        route.routeName,
+        route.scenarioName,
+        route.annualKm,
+        route.annualRegenKWh,
+        route.annualFrictionBrakeKWh,
+        route.annualNetKWh,
+      ]),
+    ).toEqual([
       ['Pass road', 'Pass winter', 6_900, 6_000, 3_000, 6_900],
       ['Valley link', 'Valley all year', 8_000, 5_500, 800, 4_000],
     ]);
-    expect(summary.routes[1]).toMatchObject({ direction: 'round-trip', tripsPerDay: 4, serviceDaysPerYear: 250, kWhPerKm: 0.5, vehicleProfileName: 'Battery bus 12 m' });
+    expect(summary.routes[1]).toMatchObject({
+      direction: 'round-trip',
+      tripsPerDay: 4,
+      serviceDaysPerYear: 250,
+      kWhPerKm: 0.5,
+      vehicleProfileName: 'Battery bus 12 m',
+    });
     expect(summary.totals).toMatchObject({ annualKm: 14_900, annualRegenKWh: 11_500, annualFrictionBrakeKWh: 3_800, annualNetKWh: 10_900 });
     // 11 500 kWh × 0.25 EUR/kWh; 11 500 kWh × 0.4 kg/kWh.
     expect(summary.totals.regenValue).toBeCloseTo(2_875, 9);
@@ -79,16 +109,30 @@ describe('GET /api/board/summary', () => {
       aDescent({ startM: 1_850, endM: 2_000, meanGradePercent: -5, risk: 'elevated', peakBrakeTempC: 310 }),
       aDescent({ startM: 2_050, endM: 2_250, meanGradePercent: -7, risk: 'low', peakBrakeTempC: 200 }),
     ];
-    const scenario = await aScenario(db, { routeId: route.id, vehicleProfileId: profile.id, inService: true, directionResults: [aDirectionResult('outbound', descents)] });
+    const scenario = await aScenario(db, {
+      routeId: route.id,
+      vehicleProfileId: profile.id,
+      inService: true,
+      directionResults: [aDirectionResult('outbound', descents)],
+    });
     await sync(scenario);
     const safety = await cookieFor('safety');
     const items = (await request(app).get('/api/reviews').query({ risk: 'elevated' }).set('Cookie', safety)).body.items;
     await request(app).post(`/api/reviews/${items[0].id}/transitions`).set('Cookie', safety).send({ action: 'acknowledge' });
-    await request(app).post(`/api/reviews/${items[0].id}/transitions`).set('Cookie', safety).send({ action: 'accept', reason: 'Short stretch, drivers briefed' });
+    await request(app)
+      .post(`/api/reviews/${items[0].id}/transitions`)
+      .set('Cookie', safety)
+      .send({ action: 'accept', reason: 'Short stretch, drivers briefed' });
     const second = await signedInAgent(app, db, 'safety');
     await second.agent.post(`/api/reviews/${items[0].id}/transitions`).send({ action: 'sign-off' });
 
-    const summary = boardSummarySchema.parse((await request(app).get('/api/board/summary').set('Cookie', await cookieFor('board'))).body);
+    const summary = boardSummarySchema.parse(
+      (
+        await request(app)
+          .get('/api/board/summary')
+          .set('Cookie', await cookieFor('board'))
+      ).body,
+    );
 
     expect(summary.openSafetyItems).toEqual({ elevated: 1, high: 1, critical: 1 });
     expect(summary.steepestDescents.map((descent) => descent.meanGradePercent)).toEqual([-11.5, -9, -7, -6, -5]);
@@ -99,7 +143,13 @@ describe('GET /api/board/summary', () => {
   it('shows the placeholder factors, said to be placeholders, until an admin sets real ones', async () => {
     await ensureNetworkSettings(db);
 
-    const settings = networkSettingsViewSchema.parse((await request(app).get('/api/settings/network').set('Cookie', await cookieFor('planner'))).body);
+    const settings = networkSettingsViewSchema.parse(
+      (
+        await request(app)
+          .get('/api/settings/network')
+          .set('Cookie', await cookieFor('planner'))
+      ).body,
+    );
 
     expect(settings.isPlaceholder).toBe(true);
     expect(settings.tariffSource).toMatch(/Illustrative placeholder/);
@@ -112,7 +162,13 @@ describe('PUT /api/settings/network', () => {
     const response = await request(app)
       .put('/api/settings/network')
       .set('Cookie', await cookieFor('admin'))
-      .send({ energyTariffPerKWh: 0.18, currency: 'eur', tariffSource: 'Supply contract 2027, clause 4', gridEmissionFactorKgPerKWh: 0.12, emissionFactorSource: 'Supplier disclosure 2026' });
+      .send({
+        energyTariffPerKWh: 0.18,
+        currency: 'eur',
+        tariffSource: 'Supply contract 2027, clause 4',
+        gridEmissionFactorKgPerKWh: 0.12,
+        emissionFactorSource: 'Supplier disclosure 2026',
+      });
 
     expect(response.status).toBe(200);
     expect(response.body).toMatchObject({ currency: 'EUR', energyTariffPerKWh: 0.18, isPlaceholder: false, updatedByName: 'Spec admin' });
@@ -120,14 +176,39 @@ describe('PUT /api/settings/network', () => {
 
   it('saves the safety settings every analysis uses, with their defaults at first and the stored values when left out', async () => {
     const admin = await cookieFor('admin');
-    const factors = { energyTariffPerKWh: 0.18, currency: 'EUR', tariffSource: 'Contract', gridEmissionFactorKgPerKWh: 0.12, emissionFactorSource: 'Supplier' };
+    const factors = {
+      energyTariffPerKWh: 0.18,
+      currency: 'EUR',
+      tariffSource: 'Contract',
+      gridEmissionFactorKgPerKWh: 0.12,
+      emissionFactorSource: 'Supplier',
+    };
 
     const defaults = (await request(app).put('/api/settings/network').set('Cookie', admin).send(factors)).body;
-    const saved = (await request(app).put('/api/settings/network').set('Cookie', admin).send({ ...factors, worstCaseAmbientC: 38, fadeMarginK: 80 })).body;
-    const refused = await request(app).put('/api/settings/network').set('Cookie', admin).send({ ...factors, fadeMarginK: -5 });
-    const kept = (await request(app).put('/api/settings/network').set('Cookie', admin).send({ ...factors, tariffSource: 'Contract 2028' })).body;
+    const saved = (
+      await request(app)
+        .put('/api/settings/network')
+        .set('Cookie', admin)
+        .send({ ...factors, worstCaseAmbientC: 38, fadeMarginK: 80 })
+    ).body;
+    const refused = await request(app)
+      .put('/api/settings/network')
+      .set('Cookie', admin)
+      .send({ ...factors, fadeMarginK: -5 });
+    const kept = (
+      await request(app)
+        .put('/api/settings/network')
+        .set('Cookie', admin)
+        .send({ ...factors, tariffSource: 'Contract 2028' })
+    ).body;
 
-    expect(defaults).toMatchObject({ worstCaseAmbientC: 35, fadeMarginK: 50, maxRoadGradePercent: 15, crawlSpeedKph: 5, crawlDistanceM: 200 });
+    expect(defaults).toMatchObject({
+      worstCaseAmbientC: 35,
+      fadeMarginK: 50,
+      maxRoadGradePercent: 15,
+      crawlSpeedKph: 5,
+      crawlDistanceM: 200,
+    });
     expect(saved).toMatchObject({ worstCaseAmbientC: 38, fadeMarginK: 80 });
     expect(refused.status).toBe(400);
     expect(JSON.stringify(refused.body)).toContain('fadeMarginK');
@@ -144,7 +225,11 @@ describe('PUT /api/settings/network', () => {
 
     expect(response.status).toBe(400);
     expect(JSON.stringify(response.body)).toContain('tariffSource');
-    const settings = (await request(app).get('/api/settings/network').set('Cookie', await cookieFor('board'))).body;
+    const settings = (
+      await request(app)
+        .get('/api/settings/network')
+        .set('Cookie', await cookieFor('board'))
+    ).body;
     expect(settings.energyTariffPerKWh).toBe(0.25);
   });
 });
@@ -186,7 +271,13 @@ describe('the board summary as printed and read (issue 10)', () => {
     await sync(scenario);
     await db.update(reviewItems).set({ state: 'accepted', acceptanceReason: 'Retarder fitted to every vehicle on the line' });
 
-    const summary = boardSummarySchema.parse((await request(app).get('/api/board/summary').set('Cookie', await cookieFor('board'))).body);
+    const summary = boardSummarySchema.parse(
+      (
+        await request(app)
+          .get('/api/board/summary')
+          .set('Cookie', await cookieFor('board'))
+      ).body,
+    );
 
     expect(summary.openSafetyItems).toEqual({ elevated: 0, high: 0, critical: 0 });
     expect(summary.acceptedRisks).toEqual({ high: 1, critical: 0 });
@@ -201,12 +292,21 @@ describe('the board summary as printed and read (issue 10)', () => {
       direction: 'round-trip',
       inService: true,
       directionResults: [
-        aDirectionResult('outbound', [aDescent({ startM: 100, endM: 2_000, meanGradePercent: -7 }), aDescent({ startM: 1_500, endM: 2_600, meanGradePercent: -6.5 })]),
+        aDirectionResult('outbound', [
+          aDescent({ startM: 100, endM: 2_000, meanGradePercent: -7 }),
+          aDescent({ startM: 1_500, endM: 2_600, meanGradePercent: -6.5 }),
+        ]),
         aDirectionResult('inbound', [aDescent({ startM: 300, endM: 2_200, meanGradePercent: -6 })]),
       ],
     });
 
-    const summary = boardSummarySchema.parse((await request(app).get('/api/board/summary').set('Cookie', await cookieFor('board'))).body);
+    const summary = boardSummarySchema.parse(
+      (
+        await request(app)
+          .get('/api/board/summary')
+          .set('Cookie', await cookieFor('board'))
+      ).body,
+    );
 
     expect(summary.steepestDescents.map((descent) => [descent.direction, descent.startM, descent.endM])).toEqual([
       ['outbound', 100, 2_000],
@@ -244,7 +344,9 @@ describe('the board summary as printed and read (issue 10)', () => {
     const text = pdf.text[0]!;
     for (const raw of RAW_VALUE_PATTERNS) expect(text).not.toMatch(raw);
     expect(text).toContain('Placeholder factor, not a real figure: an administrator has not yet set the network’s own tariff.');
-    expect(text).toContain('Placeholder factor, not a real figure: an administrator has not yet set the network’s own grid emission factor.');
+    expect(text).toContain(
+      'Placeholder factor, not a real figure: an administrator has not yet set the network’s own grid emission factor.',
+    );
     // The note sits right under the money figure it qualifies, not in a footnote.
     const money = pdf.words.find((word) => word.text.startsWith('€'))!;
     const note = pdf.words.find((word) => word.text === 'tariff.')!;

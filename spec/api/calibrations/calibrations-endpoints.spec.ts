@@ -24,8 +24,21 @@ beforeEach(async () => {
   cookieFor = sessionCookies(db, context.deps.config);
   analyst = await cookieFor('analyst');
   profileId = (await request(app).post('/api/vehicles').set('Cookie', analyst).send(aProfileDraft())).body.id;
-  routeId = (await request(app).post('/api/routes').set('Cookie', await cookieFor('planner')).send({ name: 'Test road', geometry: { type: 'LineString', coordinates: testRoad() } })).body.id;
-  csv.low ??= await aLoggedTripCsv({ seed: 7, request: { route: { type: 'LineString', coordinates: testRoad() }, vehicle: TRUE_VEHICLE, conditions: { ambientC: 8, startSoc: 0.6 }, options: TEST_TRIP_OPTIONS } });
+  routeId = (
+    await request(app)
+      .post('/api/routes')
+      .set('Cookie', await cookieFor('planner'))
+      .send({ name: 'Test road', geometry: { type: 'LineString', coordinates: testRoad() } })
+  ).body.id;
+  csv.low ??= await aLoggedTripCsv({
+    seed: 7,
+    request: {
+      route: { type: 'LineString', coordinates: testRoad() },
+      vehicle: TRUE_VEHICLE,
+      conditions: { ambientC: 8, startSoc: 0.6 },
+      options: TEST_TRIP_OPTIONS,
+    },
+  });
   csv.high ??= await aLoggedTripCsv({ seed: 107 });
 });
 afterAll(() => context.close());
@@ -36,14 +49,24 @@ describe('POST /api/vehicles/:vehicleProfileId/calibrations and GET /api/calibra
 
     const queued = await request(app).post(`/api/vehicles/${profileId}/calibrations`).set('Cookie', analyst).send({ loggedTripIds: trips });
     await waitForInlineCalibrationJobs(deps);
-    const response = await request(app).get(`/api/calibrations/${queued.body.id}`).set('Cookie', await cookieFor('safety'));
+    const response = await request(app)
+      .get(`/api/calibrations/${queued.body.id}`)
+      .set('Cookie', await cookieFor('safety'));
 
     expect(queued.status).toBe(202);
     expect(queued.body.status).toBe('queued');
     expect(queued.headers['location']).toBe(`/api/calibrations/${queued.body.id}`);
     const calibration = calibrationSchema.parse(response.body);
     expect(calibration.status).toBe('done');
-    expect(calibration.fit).toEqual(['rollingResistanceCoefficient', 'dragAreaM2', 'auxPowerW', 'drivetrainEfficiency', 'regenEfficiency', 'brakeThermalMassJPerK', 'brakeCoolingAreaM2']);
+    expect(calibration.fit).toEqual([
+      'rollingResistanceCoefficient',
+      'dragAreaM2',
+      'auxPowerW',
+      'drivetrainEfficiency',
+      'regenEfficiency',
+      'brakeThermalMassJPerK',
+      'brakeCoolingAreaM2',
+    ]);
     const truth: Record<string, number> = {
       rollingResistanceCoefficient: TRUE_VEHICLE.rollingResistanceCoefficient,
       dragAreaM2: TRUE_VEHICLE.dragCoefficient * TRUE_VEHICLE.frontalAreaM2,
@@ -69,10 +92,20 @@ describe('POST /api/vehicles/:vehicleProfileId/calibrations and GET /api/calibra
   it('refuses a trip that logged no battery power, naming it', async () => {
     const lines = csv.low!.trim().split('\n');
     const index = lines[0]!.split(',').indexOf('battery_power_w');
-    const withoutPower = lines.map((line) => line.split(',').filter((_, i) => i !== index).join(',')).join('\n');
+    const withoutPower = lines
+      .map((line) =>
+        line
+          .split(',')
+          .filter((_, i) => i !== index)
+          .join(','),
+      )
+      .join('\n');
     const trip = await uploadTrip(withoutPower, 'no-power.csv');
 
-    const response = await request(app).post(`/api/vehicles/${profileId}/calibrations`).set('Cookie', analyst).send({ loggedTripIds: [trip] });
+    const response = await request(app)
+      .post(`/api/vehicles/${profileId}/calibrations`)
+      .set('Cookie', analyst)
+      .send({ loggedTripIds: [trip] });
 
     expect(response.status).toBe(400);
     expect(response.body.error.message).toMatch(/“no-power” logged no battery power/);
@@ -81,7 +114,10 @@ describe('POST /api/vehicles/:vehicleProfileId/calibrations and GET /api/calibra
   it('refuses brake parameters when no chosen trip logged brake temperatures', async () => {
     const trip = await uploadTrip(await aLoggedTripCsv({ withBrakeTemperature: false }));
 
-    const response = await request(app).post(`/api/vehicles/${profileId}/calibrations`).set('Cookie', analyst).send({ loggedTripIds: [trip], fit: ['dragAreaM2', 'brakeThermalMassJPerK'] });
+    const response = await request(app)
+      .post(`/api/vehicles/${profileId}/calibrations`)
+      .set('Cookie', analyst)
+      .send({ loggedTripIds: [trip], fit: ['dragAreaM2', 'brakeThermalMassJPerK'] });
 
     expect(response.status).toBe(400);
     expect(response.body.error.message).toMatch(/fit: brakeThermalMassJPerK need logged brake temperatures/);
@@ -91,7 +127,10 @@ describe('POST /api/vehicles/:vehicleProfileId/calibrations and GET /api/calibra
     const other = (await request(app).post('/api/vehicles').set('Cookie', analyst).send(aProfileDraft('Other bus'))).body.id;
     const trip = await uploadTrip(csv.low!, 'trip.csv', other);
 
-    const response = await request(app).post(`/api/vehicles/${profileId}/calibrations`).set('Cookie', analyst).send({ loggedTripIds: [trip] });
+    const response = await request(app)
+      .post(`/api/vehicles/${profileId}/calibrations`)
+      .set('Cookie', analyst)
+      .send({ loggedTripIds: [trip] });
 
     expect(response.status).toBe(400);
     expect(response.body.error.details.missing).toEqual([trip]);
@@ -102,15 +141,20 @@ describe('POST /api/calibrations/:calibrationId/accept and /reject', () => {
   it('saves the fit as the next profile version naming its trips, and re-runs the scenarios that use the profile', async () => {
     const trip = await uploadTrip(csv.low!);
     const planner = await cookieFor('planner');
-    const scenario = (await request(app).post('/api/scenarios').set('Cookie', planner).send({
-      name: 'Test road, seated, mild',
-      routeId,
-      direction: 'outbound',
-      vehicleProfileId: profileId,
-      load: { kind: 'case', case: 'seated' },
-      season: { kind: 'season', season: 'mild' },
-      startSoc: 0.8,
-    })).body;
+    const scenario = (
+      await request(app)
+        .post('/api/scenarios')
+        .set('Cookie', planner)
+        .send({
+          name: 'Test road, seated, mild',
+          routeId,
+          direction: 'outbound',
+          vehicleProfileId: profileId,
+          load: { kind: 'case', case: 'seated' },
+          season: { kind: 'season', season: 'mild' },
+          startSoc: 0.8,
+        })
+    ).body;
     const energyBefore = scenario.summary.batteryNetEnergyWh as number;
     const calibrationId = await finishedFit([trip]);
 
@@ -135,8 +179,13 @@ describe('POST /api/calibrations/:calibrationId/accept and /reject', () => {
     expect(rerun.summary.batteryNetEnergyWh).toBeGreaterThan(energyBefore * 1.03);
     const batch = (await request(app).get(`/api/batch-runs/${accepted.body.rerunBatchId}`).set('Cookie', analyst)).body;
     expect(batch).toMatchObject({ total: 1, done: 1, reason: expect.stringMatching(/version 2 accepted from a calibration/) });
-    const versions = vehicleProfileVersionListSchema.parse((await request(app).get(`/api/vehicles/${profileId}/versions`).set('Cookie', planner)).body);
-    expect(versions.items.map((v) => [v.version, v.source])).toEqual([[2, 'calibration'], [1, 'created']]);
+    const versions = vehicleProfileVersionListSchema.parse(
+      (await request(app).get(`/api/vehicles/${profileId}/versions`).set('Cookie', planner)).body,
+    );
+    expect(versions.items.map((v) => [v.version, v.source])).toEqual([
+      [2, 'calibration'],
+      [1, 'created'],
+    ]);
     expect(versions.items[0]!.calibration!.loggedTrips).toEqual([{ id: trip, name: 'trip' }]);
   });
 
@@ -166,9 +215,14 @@ describe('POST /api/calibrations/:calibrationId/accept and /reject', () => {
 
   it('refuses to accept a fit of a profile that changed after it ran', async () => {
     const calibrationId = await finishedFit([await uploadTrip(csv.low!)]);
-    await request(app).put(`/api/vehicles/${profileId}`).set('Cookie', analyst).send({ ...aProfileDraft(), description: 'Changed by hand' });
+    await request(app)
+      .put(`/api/vehicles/${profileId}`)
+      .set('Cookie', analyst)
+      .send({ ...aProfileDraft(), description: 'Changed by hand' });
 
-    const response = await request(app).post(`/api/calibrations/${calibrationId}/accept`).set('Cookie', await cookieFor('admin'));
+    const response = await request(app)
+      .post(`/api/calibrations/${calibrationId}/accept`)
+      .set('Cookie', await cookieFor('admin'));
 
     expect(response.status).toBe(409);
     expect(response.body.error.code).toBe('profile_changed');
@@ -190,7 +244,10 @@ async function uploadTrip(text: string, name = 'trip.csv', vehicleProfileId = pr
 }
 
 async function finishedFit(loggedTripIds: string[]): Promise<string> {
-  const queued = await request(app).post(`/api/vehicles/${profileId}/calibrations`).set('Cookie', analyst).send({ loggedTripIds, fit: ['rollingResistanceCoefficient', 'dragAreaM2', 'auxPowerW', 'drivetrainEfficiency', 'regenEfficiency'] });
+  const queued = await request(app)
+    .post(`/api/vehicles/${profileId}/calibrations`)
+    .set('Cookie', analyst)
+    .send({ loggedTripIds, fit: ['rollingResistanceCoefficient', 'dragAreaM2', 'auxPowerW', 'drivetrainEfficiency', 'regenEfficiency'] });
   await waitForInlineCalibrationJobs(deps);
   return queued.body.id as string;
 }

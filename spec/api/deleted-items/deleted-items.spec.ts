@@ -46,20 +46,38 @@ describe('restorable deletes (issue 11)', () => {
     expect(whileDeleted.list.body.items).toEqual([]);
     expect(listed.retentionDays).toBe(DELETED_RETENTION_DAYS);
     expect(listed.items).toEqual([
-      expect.objectContaining({ kind: 'route', id: route.id, name: 'Mill Road loop, winter', deletedBy: colleagueRow.name, blockedBy: null }),
+      expect.objectContaining({
+        kind: 'route',
+        id: route.id,
+        name: 'Mill Road loop, winter',
+        deletedBy: colleagueRow.name,
+        blockedBy: null,
+      }),
     ]);
     expect(Date.parse(listed.items[0].removedAfter) - Date.parse(listed.items[0].deletedAt)).toBe(DELETED_RETENTION_DAYS * DAY_MS);
     expect(restored.status).toBe(200);
     expect(restored.body).toMatchObject({ id: route.id, name: 'Mill Road loop, winter', version: 2 });
     expect((await author.get('/api/deleted-items')).body.items).toEqual([]);
     expect(log.items.map((event: { action: string }) => event.action)).toEqual(['restore', 'delete', 'update', 'create']);
-    expect(log.items[1]).toMatchObject({ kind: 'route', entityName: 'Mill Road loop, winter', actor: { id: colleagueRow.id, name: colleagueRow.name } });
+    expect(log.items[1]).toMatchObject({
+      kind: 'route',
+      entityName: 'Mill Road loop, winter',
+      actor: { id: colleagueRow.id, name: colleagueRow.name },
+    });
   });
 
   it('hides a deleted scenario from lists, the board and network runs, and restores it only once its route is back', async () => {
     const { agent: planner } = await signedInAgent(app, db, 'planner');
-    const route = (await planner.post('/api/routes').send(aRouteDraft({ geometry: eastwardLine({ lengthM: 2_000, dropM: 150 }), stops: [], speedLimits: [] }))).body;
-    const scenario = (await planner.post('/api/scenarios').send({ name: 'Summit', routeId: route.id, vehicleProfileId: presetProfileId('battery-bus-12m'), inService: true })).body;
+    const route = (
+      await planner
+        .post('/api/routes')
+        .send(aRouteDraft({ geometry: eastwardLine({ lengthM: 2_000, dropM: 150 }), stops: [], speedLimits: [] }))
+    ).body;
+    const scenario = (
+      await planner
+        .post('/api/scenarios')
+        .send({ name: 'Summit', routeId: route.id, vehicleProfileId: presetProfileId('battery-bus-12m'), inService: true })
+    ).body;
     const boardBefore = (await planner.get('/api/board/summary')).body;
 
     await planner.delete(`/api/scenarios/${scenario.id}`);
@@ -85,8 +103,16 @@ describe('restorable deletes (issue 11)', () => {
 
   it('refuses to delete a route while a scenario (not deleted) uses it, but not after that scenario is deleted', async () => {
     const { agent: planner } = await signedInAgent(app, db, 'planner');
-    const route = (await planner.post('/api/routes').send(aRouteDraft({ geometry: eastwardLine({ lengthM: 2_000, dropM: 150 }), stops: [], speedLimits: [] }))).body;
-    const scenario = (await planner.post('/api/scenarios').send({ name: 'Uses it', routeId: route.id, vehicleProfileId: presetProfileId('battery-bus-12m') })).body;
+    const route = (
+      await planner
+        .post('/api/routes')
+        .send(aRouteDraft({ geometry: eastwardLine({ lengthM: 2_000, dropM: 150 }), stops: [], speedLimits: [] }))
+    ).body;
+    const scenario = (
+      await planner
+        .post('/api/scenarios')
+        .send({ name: 'Uses it', routeId: route.id, vehicleProfileId: presetProfileId('battery-bus-12m') })
+    ).body;
 
     const refused = await planner.delete(`/api/routes/${route.id}`);
     await planner.delete(`/api/scenarios/${scenario.id}`);
@@ -100,7 +126,15 @@ describe('restorable deletes (issue 11)', () => {
     const { agent: analyst } = await signedInAgent(app, db, 'analyst');
     const { agent: admin } = await signedInAgent(app, db, 'admin');
     const preset = (await analyst.get(`/api/vehicles/${presetProfileId('battery-bus-12m')}`)).body;
-    const draft = { name: 'Valley bus', description: '', vehicleClass: preset.vehicleClass, vehicle: preset.vehicle, loadsKg: preset.loadsKg, passengerMassKg: preset.passengerMassKg, seasons: preset.seasons };
+    const draft = {
+      name: 'Valley bus',
+      description: '',
+      vehicleClass: preset.vehicleClass,
+      vehicle: preset.vehicle,
+      loadsKg: preset.loadsKg,
+      passengerMassKg: preset.passengerMassKg,
+      seasons: preset.seasons,
+    };
     const profile = (await analyst.post('/api/vehicles').send(draft)).body;
     await analyst.put(`/api/vehicles/${profile.id}`).send({ ...draft, name: 'Valley bus, retrofitted' });
 
@@ -136,7 +170,9 @@ describe('restorable deletes (issue 11)', () => {
     expect((await db.select().from(roadRoutes)).map((row) => row.id)).toEqual([recent.id]);
     expect(await countRows(db, 'terrain_models')).toBe(0);
     expect(existsSync(join(dataDir, 'terrain', terrainId))).toBe(false);
-    expect(log.items.map((event: { kind: string; entityName: string; actor: { id: null } }) => [event.kind, event.entityName, event.actor.id])).toEqual(
+    expect(
+      log.items.map((event: { kind: string; entityName: string; actor: { id: null } }) => [event.kind, event.entityName, event.actor.id]),
+    ).toEqual(
       expect.arrayContaining([
         ['route', 'Old line', null],
         ['terrain', 'Old valley model', null],

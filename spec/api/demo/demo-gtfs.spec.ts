@@ -29,7 +29,12 @@ beforeAll(async () => {
 afterAll(() => context.close());
 
 const blocksOf = (serviceId: string) =>
-  request(app).post('/api/service-days/gtfs-blocks').set('Cookie', analyst).field('serviceId', serviceId).field('vehicleProfileId', BUS).attach('file', feed(), 'demo-gtfs.zip');
+  request(app)
+    .post('/api/service-days/gtfs-blocks')
+    .set('Cookie', analyst)
+    .field('serviceId', serviceId)
+    .field('vehicleProfileId', BUS)
+    .attach('file', feed(), 'demo-gtfs.zip');
 
 async function routeIdByName(name: string): Promise<string> {
   const response = await request(app).get('/api/routes').set('Cookie', analyst);
@@ -72,7 +77,13 @@ describe('the demo GTFS feed', () => {
       roadRouteDraftSchema.parse({
         name,
         mode: 'bus',
-        geometry: { type: 'LineString', coordinates: [[10.5, 46.62, 900], [10.51, 46.63, 950]] },
+        geometry: {
+          type: 'LineString',
+          coordinates: [
+            [10.5, 46.62, 900],
+            [10.51, 46.63, 950],
+          ],
+        },
         stops: [],
         defaultSpeedLimitKph: 50,
         tripsPerDay: 4,

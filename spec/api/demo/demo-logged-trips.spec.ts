@@ -33,7 +33,11 @@ describe('demo logged trips', () => {
 
     expect(await countRows(db, 'logged_trips')).toBe(3);
     const analyst = await sessionCookies(db, deps.config)('analyst');
-    const trips = (await request(app).get(`/api/vehicles/${demoProfileId('demo-vehicle:mountain-bus-12m')}/logged-trips`).set('Cookie', analyst)).body.items;
+    const trips = (
+      await request(app)
+        .get(`/api/vehicles/${demoProfileId('demo-vehicle:mountain-bus-12m')}/logged-trips`)
+        .set('Cookie', analyst)
+    ).body.items;
     expect(trips.map((trip: { routeCreated: string; payloadSource: string }) => [trip.routeCreated, trip.payloadSource])).toEqual([
       ['matched', 'passengers'],
       ['matched', 'passengers'],
@@ -45,11 +49,15 @@ describe('demo logged trips', () => {
   it('correct the mountain bus profile towards the parameters they were made from when fitted', async () => {
     const analyst = await sessionCookies(db, deps.config)('analyst');
     const profileId = demoProfileId('demo-vehicle:mountain-bus-12m');
-    const trips = (await request(app).get(`/api/vehicles/${profileId}/logged-trips`).set('Cookie', analyst)).body.items.map((trip: { id: string }) => trip.id);
+    const trips = (await request(app).get(`/api/vehicles/${profileId}/logged-trips`).set('Cookie', analyst)).body.items.map(
+      (trip: { id: string }) => trip.id,
+    );
 
     const queued = await request(app).post(`/api/vehicles/${profileId}/calibrations`).set('Cookie', analyst).send({ loggedTripIds: trips });
     await waitForInlineCalibrationJobs(deps);
-    const calibration = calibrationSchema.parse((await request(app).get(`/api/calibrations/${queued.body.id}`).set('Cookie', analyst)).body);
+    const calibration = calibrationSchema.parse(
+      (await request(app).get(`/api/calibrations/${queued.body.id}`).set('Cookie', analyst)).body,
+    );
 
     expect(calibration.status).toBe('done');
     const profile = demoProfileDraft('demo-vehicle:mountain-bus-12m').vehicle;

@@ -27,7 +27,14 @@ describe('seedDemoNetwork', () => {
 
   it('computes every scenario, marks several in service, and finds at least one high or critical descent', async () => {
     const rows = [
-      ...(await db.execute<{ name: string; status: string; in_service: boolean; high: number; critical: number; failure_reason: string | null }>(
+      ...(await db.execute<{
+        name: string;
+        status: string;
+        in_service: boolean;
+        high: number;
+        critical: number;
+        failure_reason: string | null;
+      }>(
         sql`select name, status, in_service, (risk_counts->>'high')::int as high, (risk_counts->>'critical')::int as critical, failure_reason from scenarios`,
       )),
     ];
@@ -35,7 +42,9 @@ describe('seedDemoNetwork', () => {
     expect(rows.filter((row) => row.status !== 'done')).toEqual([]);
     expect(rows.filter((row) => row.in_service).length).toBeGreaterThanOrEqual(4);
     expect(rows.some((row) => row.high + row.critical > 0)).toBe(true);
-    const trips = [...(await db.execute<{ n: number }>(sql`select count(*)::int as n from road_route_versions where trips_per_day > 0`))][0]!;
+    const trips = [
+      ...(await db.execute<{ n: number }>(sql`select count(*)::int as n from road_route_versions where trips_per_day > 0`)),
+    ][0]!;
     expect(trips.n).toBe(5);
   });
 });

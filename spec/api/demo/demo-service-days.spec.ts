@@ -35,13 +35,19 @@ describe('demo service days', () => {
     ]);
     const results = new Map<string, ReturnType<typeof serviceDayResultSchema.parse>>();
     for (const day of list.items) {
-      results.set(day.name, serviceDayResultSchema.parse((await request(app).get(`/api/service-days/${day.id}/result`).set('Cookie', board)).body));
+      results.set(
+        day.name,
+        serviceDayResultSchema.parse((await request(app).get(`/api/service-days/${day.id}/result`).set('Cookie', board)).body),
+      );
     }
     const check = results.get('Weekday, winter, batteries at end of life (check)')!;
     expect(check.blocks.filter((block) => !block.feasible).map((block) => block.blockId)).toEqual(['P2']);
     expect(check.blocks.find((block) => block.blockId === 'P2')!.problems.join(' ')).toMatch(/reserve|15 %/);
     for (const name of ['Weekday, winter', 'Weekday, summer', 'Sunday and holiday, winter', 'Sunday and holiday, summer']) {
-      expect(results.get(name)!.blocks.every((block) => block.feasible), name).toBe(true);
+      expect(
+        results.get(name)!.blocks.every((block) => block.feasible),
+        name,
+      ).toBe(true);
     }
     // The terminus charger at Lindmoor tops up the Valley-line blocks.
     expect(results.get('Weekday, winter')!.blocks.find((block) => block.blockId === 'V1')!.chargingEvents.length).toBeGreaterThan(0);

@@ -41,7 +41,9 @@ describe('when the database is away (issue 11)', () => {
     const hung = createDatabase(config.DATABASE_URL, { max: 1, connectTimeoutS: config.DB_CONNECT_TIMEOUT_S });
     const token = await signSessionToken(config.SESSION_SECRET, { sessionId: crypto.randomUUID(), userId: crypto.randomUUID() }, 10);
     try {
-      const response = await request(createApp({ db: hung.db, config })).get('/api/scenarios').set('Cookie', `${SESSION_COOKIE}=${token}`);
+      const response = await request(createApp({ db: hung.db, config }))
+        .get('/api/scenarios')
+        .set('Cookie', `${SESSION_COOKIE}=${token}`);
 
       expect(response.status).toBe(503);
       expect(response.body.error.code).toBe('database_unavailable');

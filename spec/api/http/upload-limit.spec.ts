@@ -76,7 +76,12 @@ interface Answer {
 }
 
 /** A multipart upload to the route import, written by hand so its body can be streamed and counted. */
-function openUpload(headers: Record<string, string>): { request: ClientRequest; response: Promise<Answer>; written: () => number; closed: Promise<void> } {
+function openUpload(headers: Record<string, string>): {
+  request: ClientRequest;
+  response: Promise<Answer>;
+  written: () => number;
+  closed: Promise<void>;
+} {
   let written = 0;
   const request = httpRequest({
     host: '127.0.0.1',

@@ -101,7 +101,9 @@ describe('the maintenance sweep (issue 11)', () => {
     const lost = await aProcessingModel('lost', { heartbeatAgoMs: 10 * 60_000, jobState: 'active', withoutFile: true });
 
     const report = await runMaintenance(context.deps);
-    const rows = await db.select({ id: terrainModels.id, status: terrainModels.status, ingestJobId: terrainModels.ingestJobId }).from(terrainModels);
+    const rows = await db
+      .select({ id: terrainModels.id, status: terrainModels.status, ingestJobId: terrainModels.ingestJobId })
+      .from(terrainModels);
     const byId = new Map(rows.map((row) => [row.id, row]));
 
     expect(report).toMatchObject({ ingestionRequeued: 1, ingestionFailed: 1 });
@@ -135,7 +137,10 @@ describe('job policies on the PostgreSQL queue (issue 11)', () => {
 
 async function aScenario(): Promise<{ scenarioId: string }> {
   const planner = await cookieFor('planner');
-  const route = await request(app).post('/api/routes').set('Cookie', planner).send(aRouteDraft({ geometry: eastwardLine({ lengthM: 2_000, dropM: 150 }), stops: [], speedLimits: [] }));
+  const route = await request(app)
+    .post('/api/routes')
+    .set('Cookie', planner)
+    .send(aRouteDraft({ geometry: eastwardLine({ lengthM: 2_000, dropM: 150 }), stops: [], speedLimits: [] }));
   const scenario = await request(app)
     .post('/api/scenarios')
     .set('Cookie', planner)
@@ -146,12 +151,17 @@ async function aScenario(): Promise<{ scenarioId: string }> {
 
 async function aStartedRun(): Promise<{ runId: string; scenarioId: string }> {
   const { scenarioId } = await aScenario();
-  const run = await request(app).post('/api/batch-runs').set('Cookie', await cookieFor('analyst'));
+  const run = await request(app)
+    .post('/api/batch-runs')
+    .set('Cookie', await cookieFor('analyst'));
   if (run.status !== 202) throw new Error(`run: ${run.status} ${run.text}`);
   return { runId: run.body.id, scenarioId };
 }
 
-async function aProcessingModel(name: string, options: { heartbeatAgoMs: number; jobState: JobState; withoutFile?: boolean }): Promise<string> {
+async function aProcessingModel(
+  name: string,
+  options: { heartbeatAgoMs: number; jobState: JobState; withoutFile?: boolean },
+): Promise<string> {
   const id = crypto.randomUUID();
   const storedPath = join('terrain', id, 'model.tif');
   if (!options.withoutFile) {

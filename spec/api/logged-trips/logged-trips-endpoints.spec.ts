@@ -37,7 +37,15 @@ describe('POST /api/vehicles/:vehicleProfileId/logged-trips', () => {
     // The test road is 6.13 km along the ground; the trip covers it but for GPS scatter at the ends.
     expect(body.lengthM).toBeGreaterThan(6_050);
     expect(body.lengthM).toBeLessThan(6_200);
-    expect(body.trip).toMatchObject({ routeId, routeCreated: 'given', direction: 'forward', payloadKg: 2_240, payloadSource: 'given', ambientC: 8, elevationSource: 'route' });
+    expect(body.trip).toMatchObject({
+      routeId,
+      routeCreated: 'given',
+      direction: 'forward',
+      payloadKg: 2_240,
+      payloadSource: 'given',
+      ambientC: 8,
+      elevationSource: 'route',
+    });
     expect(body.trip.channels).toMatchObject({ batteryPower: true, soc: true, brakeTemperature: true, elevation: true });
     expect(body.trip.gps.method).toMatch(/Savitzky–Golay/);
     expect(body.trip.gps.p95OffsetM).toBeLessThan(10);
@@ -47,7 +55,12 @@ describe('POST /api/vehicles/:vehicleProfileId/logged-trips', () => {
   it('matches a saved route by itself, and a trip driven the other way runs it in reverse', async () => {
     const routeId = await aSavedRoute();
     const reversed = await aLoggedTripCsv({
-      request: { route: { type: 'LineString', coordinates: [...testRoad()].reverse() }, vehicle: TRUE_VEHICLE, conditions: { ambientC: 8, startSoc: 0.6 }, options: { speedLimitKph: 50 } },
+      request: {
+        route: { type: 'LineString', coordinates: [...testRoad()].reverse() },
+        vehicle: TRUE_VEHICLE,
+        conditions: { ambientC: 8, startSoc: 0.6 },
+        options: { speedLimitKph: 50 },
+      },
     });
 
     const forward = await upload(goodCsv);
@@ -79,10 +92,21 @@ describe('POST /api/vehicles/:vehicleProfileId/logged-trips', () => {
   });
 
   it('refuses a trip that does not follow the route it names, naming the farthest row', async () => {
-    const elsewhere = (await request(app).post('/api/routes').set('Cookie', await cookieFor('planner')).send({
-      name: 'Other road',
-      geometry: { type: 'LineString', coordinates: [[10.4, 46.6, 800], [10.45, 46.6, 800]] },
-    })).body.id;
+    const elsewhere = (
+      await request(app)
+        .post('/api/routes')
+        .set('Cookie', await cookieFor('planner'))
+        .send({
+          name: 'Other road',
+          geometry: {
+            type: 'LineString',
+            coordinates: [
+              [10.4, 46.6, 800],
+              [10.45, 46.6, 800],
+            ],
+          },
+        })
+    ).body.id;
 
     const response = await upload(goodCsv, { routeId: elsewhere });
 
@@ -101,21 +125,95 @@ describe('POST /api/vehicles/:vehicleProfileId/logged-trips', () => {
 
   describe('refusals of malformed files name the row and column and store nothing', () => {
     const cases: { what: string; edit: (lines: string[]) => string[]; code: string; message: RegExp }[] = [
-      { what: 'a missing required column', edit: (l) => dropColumn(l, 'speed_mps'), code: 'missing_column', message: /row 1, column speed_mps \(or speed_kph\): the required column/ },
+      {
+        what: 'a missing required column',
+        edit: (l) => dropColumn(l, 'speed_mps'),
+        code: 'missing_column',
+        message: /row 1, column speed_mps \(or speed_kph\): the required column/,
+      },
       { what: 'no header row', edit: (l) => l.slice(1), code: 'missing_header', message: /row 1: the first row must be a header/ },
-      { what: 'semicolons instead of commas', edit: (l) => l.map((line) => line.replaceAll(',', ';')), code: 'not_csv', message: /row 1: .*comma-separated/ },
-      { what: 'times out of order', edit: (l) => swap(l, 10, 11), code: 'unordered_time', message: /row 11, column time_s: the time \(8 s\) is earlier than the previous row's \(9 s\); rows must be in time order/ },
-      { what: 'a repeated time', edit: (l) => setCell(l, 12, 'time_s', cell(l, 11, 'time_s')), code: 'duplicate_time', message: /row 12, column time_s: the time repeats/ },
-      { what: 'a gap in the log', edit: (l) => [...l.slice(0, 20), ...l.slice(40)], code: 'time_gap', message: /row 21, column time_s: 21\.0 s have passed since the previous row; the longest gap allowed is 10 s/ },
-      { what: 'an impossible latitude', edit: (l) => setCell(l, 30, 'lat', '95.2'), code: 'impossible_value', message: /row 30, column lat: 95\.2 ° is outside the possible range −?-?90–90/ },
-      { what: 'a negative speed', edit: (l) => setCell(l, 31, 'speed_mps', '-3'), code: 'impossible_value', message: /row 31, column speed_mps: -3 m\/s is outside the possible range/ },
-      { what: 'a SOC in per cent in the soc column', edit: (l) => setCell(l, 32, 'soc', '93'), code: 'impossible_value', message: /row 32, column soc: .*soc_percent/ },
-      { what: 'an impossible jump in speed', edit: (l) => setCell(l, 50, 'speed_mps', '40'), code: 'impossible_value', message: /row 50, column speed_mps: the speed changes by/ },
-      { what: 'text where a number belongs', edit: (l) => setCell(l, 33, 'battery_power_w', 'n/a'), code: 'invalid_value', message: /row 33, column battery_power_w: "n\/a" is not a number/ },
-      { what: 'an empty required cell', edit: (l) => setCell(l, 34, 'lon', ''), code: 'missing_value', message: /row 34, column lon: the cell is empty/ },
-      { what: 'a row with too few values', edit: (l) => l.map((line, i) => (i === 35 ? line.split(',').slice(0, 3).join(',') : line)), code: 'invalid_row', message: /row 36: expected \d+ comma-separated values/ },
-      { what: 'voltage without current', edit: (l) => renameColumn(l, 'battery_power_w', 'battery_voltage_v'), code: 'missing_column', message: /row 1, column battery_current_a: battery_voltage_v needs battery_current_a/ },
-      { what: 'a timestamp without a time zone', edit: (l) => toTimestamps(l, (t) => `2026-03-14T07:${String(Math.floor(t / 60) % 60).padStart(2, '0')}:${String(Math.floor(t % 60)).padStart(2, '0')}`), code: 'invalid_value', message: /row 2, column timestamp: "2026-03-14T07:00:00" is not an ISO 8601 date and time with a time-zone offset/ },
+      {
+        what: 'semicolons instead of commas',
+        edit: (l) => l.map((line) => line.replaceAll(',', ';')),
+        code: 'not_csv',
+        message: /row 1: .*comma-separated/,
+      },
+      {
+        what: 'times out of order',
+        edit: (l) => swap(l, 10, 11),
+        code: 'unordered_time',
+        message: /row 11, column time_s: the time \(8 s\) is earlier than the previous row's \(9 s\); rows must be in time order/,
+      },
+      {
+        what: 'a repeated time',
+        edit: (l) => setCell(l, 12, 'time_s', cell(l, 11, 'time_s')),
+        code: 'duplicate_time',
+        message: /row 12, column time_s: the time repeats/,
+      },
+      {
+        what: 'a gap in the log',
+        edit: (l) => [...l.slice(0, 20), ...l.slice(40)],
+        code: 'time_gap',
+        message: /row 21, column time_s: 21\.0 s have passed since the previous row; the longest gap allowed is 10 s/,
+      },
+      {
+        what: 'an impossible latitude',
+        edit: (l) => setCell(l, 30, 'lat', '95.2'),
+        code: 'impossible_value',
+        message: /row 30, column lat: 95\.2 ° is outside the possible range −?-?90–90/,
+      },
+      {
+        what: 'a negative speed',
+        edit: (l) => setCell(l, 31, 'speed_mps', '-3'),
+        code: 'impossible_value',
+        message: /row 31, column speed_mps: -3 m\/s is outside the possible range/,
+      },
+      {
+        what: 'a SOC in per cent in the soc column',
+        edit: (l) => setCell(l, 32, 'soc', '93'),
+        code: 'impossible_value',
+        message: /row 32, column soc: .*soc_percent/,
+      },
+      {
+        what: 'an impossible jump in speed',
+        edit: (l) => setCell(l, 50, 'speed_mps', '40'),
+        code: 'impossible_value',
+        message: /row 50, column speed_mps: the speed changes by/,
+      },
+      {
+        what: 'text where a number belongs',
+        edit: (l) => setCell(l, 33, 'battery_power_w', 'n/a'),
+        code: 'invalid_value',
+        message: /row 33, column battery_power_w: "n\/a" is not a number/,
+      },
+      {
+        what: 'an empty required cell',
+        edit: (l) => setCell(l, 34, 'lon', ''),
+        code: 'missing_value',
+        message: /row 34, column lon: the cell is empty/,
+      },
+      {
+        what: 'a row with too few values',
+        edit: (l) => l.map((line, i) => (i === 35 ? line.split(',').slice(0, 3).join(',') : line)),
+        code: 'invalid_row',
+        message: /row 36: expected \d+ comma-separated values/,
+      },
+      {
+        what: 'voltage without current',
+        edit: (l) => renameColumn(l, 'battery_power_w', 'battery_voltage_v'),
+        code: 'missing_column',
+        message: /row 1, column battery_current_a: battery_voltage_v needs battery_current_a/,
+      },
+      {
+        what: 'a timestamp without a time zone',
+        edit: (l) =>
+          toTimestamps(
+            l,
+            (t) => `2026-03-14T07:${String(Math.floor(t / 60) % 60).padStart(2, '0')}:${String(Math.floor(t % 60)).padStart(2, '0')}`,
+          ),
+        code: 'invalid_value',
+        message: /row 2, column timestamp: "2026-03-14T07:00:00" is not an ISO 8601 date and time with a time-zone offset/,
+      },
     ];
     for (const { what, edit, code, message } of cases) {
       it(`refuses ${what}`, async () => {
@@ -171,7 +269,9 @@ describe('GET /api/logged-trips/:loggedTripId/comparison', () => {
   it('replays the trip on its measured speed and sets measured against modelled with the errors', async () => {
     const trip = (await upload(goodCsv, { routeId: await aSavedRoute(), payloadKg: '2240' })).body;
 
-    const response = await request(app).get(`/api/logged-trips/${trip.loggedTripId}/comparison`).set('Cookie', await cookieFor('board'));
+    const response = await request(app)
+      .get(`/api/logged-trips/${trip.loggedTripId}/comparison`)
+      .set('Cookie', await cookieFor('board'));
 
     expect(response.status).toBe(200);
     const comparison = replayComparisonSchema.parse(response.body);
@@ -205,7 +305,10 @@ describe('DELETE /api/logged-trips/:loggedTripId', () => {
 
 async function aSavedRoute(): Promise<string> {
   const planner = await cookieFor('planner');
-  const response = await request(app).post('/api/routes').set('Cookie', planner).send({ name: 'Test road', geometry: { type: 'LineString', coordinates: testRoad() }, defaultSpeedLimitKph: 60 });
+  const response = await request(app)
+    .post('/api/routes')
+    .set('Cookie', planner)
+    .send({ name: 'Test road', geometry: { type: 'LineString', coordinates: testRoad() }, defaultSpeedLimitKph: 60 });
   return response.body.id as string;
 }
 
@@ -242,19 +345,33 @@ function swap(lines: string[], rowA: number, rowB: number): string[] {
 
 function dropColumn(lines: string[], name: string): string[] {
   const index = columnIndex(lines, name);
-  return lines.map((line) => line.split(',').filter((_, i) => i !== index).join(','));
+  return lines.map((line) =>
+    line
+      .split(',')
+      .filter((_, i) => i !== index)
+      .join(','),
+  );
 }
 
 function renameColumn(lines: string[], from: string, to: string): string[] {
-  return [lines[0]!.split(',').map((name) => (name === from ? to : name)).join(','), ...lines.slice(1)];
+  return [
+    lines[0]!
+      .split(',')
+      .map((name) => (name === from ? to : name))
+      .join(','),
+    ...lines.slice(1),
+  ];
 }
 
 function toTimestamps(lines: string[], format: (t: number) => string): string[] {
-  return [lines[0]!.replace('time_s', 'timestamp'), ...lines.slice(1).map((line) => {
-    const cells = line.split(',');
-    cells[0] = format(Number(cells[0]));
-    return cells.join(',');
-  })];
+  return [
+    lines[0]!.replace('time_s', 'timestamp'),
+    ...lines.slice(1).map((line) => {
+      const cells = line.split(',');
+      cells[0] = format(Number(cells[0]));
+      return cells.join(',');
+    }),
+  ];
 }
 
 function setSpeedKph(line: string, header: string): string {
@@ -263,4 +380,3 @@ function setSpeedKph(line: string, header: string): string {
   cells[index] = (Number(cells[index]) * 3.6).toFixed(2);
   return cells.join(',');
 }
-

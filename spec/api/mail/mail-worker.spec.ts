@@ -4,7 +4,14 @@ import { afterAll, beforeEach, describe, expect, it } from 'vitest';
 import { mailOutbox } from '../../../api/db/schema/index';
 import nodemailer from 'nodemailer';
 import request from 'supertest';
-import { MAIL_CLAIM_S, MAX_MAIL_ATTEMPTS, SMTP_TIMEOUTS_MS, createSmtpTransport, deliverDueMail, retryDelayS } from '../../../api/mail/mail-worker';
+import {
+  MAIL_CLAIM_S,
+  MAX_MAIL_ATTEMPTS,
+  SMTP_TIMEOUTS_MS,
+  createSmtpTransport,
+  deliverDueMail,
+  retryDelayS,
+} from '../../../api/mail/mail-worker';
 import { claimDueMail, enqueueMail } from '../../../api/mail/outbox';
 import { MAIL_LINK_PLACEHOLDER } from '../../../api/mail/sealed-link';
 import { tokenFromLink } from '../../support/mail-catcher';
@@ -23,7 +30,13 @@ describe('mail outbox worker', () => {
   it('keeps a message queued with the error while SMTP is down, then sends it once SMTP is back', async () => {
     await enqueueMail(db, { to: 'ops@spec.example', subject: 'Queued while down', textBody: 'body' });
     const downPort = await unusedPort();
-    const down = createSmtpTransport({ SMTP_HOST: '127.0.0.1', SMTP_PORT: downPort, SMTP_SECURE: false, SMTP_USER: undefined, SMTP_PASSWORD: undefined });
+    const down = createSmtpTransport({
+      SMTP_HOST: '127.0.0.1',
+      SMTP_PORT: downPort,
+      SMTP_SECURE: false,
+      SMTP_USER: undefined,
+      SMTP_PASSWORD: undefined,
+    });
 
     expect(await deliverDueMail(db, down, DELIVERY)).toBe(0);
     const [afterFailure] = await db.select().from(mailOutbox);
@@ -46,7 +59,13 @@ describe('mail outbox worker', () => {
   it('marks a message failed after the last attempt', async () => {
     await enqueueMail(db, { to: 'ops@spec.example', subject: 'Never', textBody: 'body' });
     await db.update(mailOutbox).set({ attempts: MAX_MAIL_ATTEMPTS - 1 });
-    const down = createSmtpTransport({ SMTP_HOST: '127.0.0.1', SMTP_PORT: await unusedPort(), SMTP_SECURE: false, SMTP_USER: undefined, SMTP_PASSWORD: undefined });
+    const down = createSmtpTransport({
+      SMTP_HOST: '127.0.0.1',
+      SMTP_PORT: await unusedPort(),
+      SMTP_SECURE: false,
+      SMTP_USER: undefined,
+      SMTP_PASSWORD: undefined,
+    });
 
     await deliverDueMail(db, down, DELIVERY);
 
@@ -66,7 +85,13 @@ describe('mail outbox worker', () => {
   });
 
   it('gives up on a silent relay well inside the claim on a message (issue 11)', () => {
-    const transport = createSmtpTransport({ SMTP_HOST: '127.0.0.1', SMTP_PORT: 2525, SMTP_SECURE: false, SMTP_USER: undefined, SMTP_PASSWORD: undefined });
+    const transport = createSmtpTransport({
+      SMTP_HOST: '127.0.0.1',
+      SMTP_PORT: 2525,
+      SMTP_SECURE: false,
+      SMTP_USER: undefined,
+      SMTP_PASSWORD: undefined,
+    });
     const options = transport.options as { connectionTimeout?: number; greetingTimeout?: number; socketTimeout?: number };
 
     expect(options.socketTimeout).toBe(SMTP_TIMEOUTS_MS.socket);

@@ -29,7 +29,18 @@ describe('e-mail to safety officers about new high-risk descents', () => {
     const disabled = await aPerson(db, { role: 'safety', status: 'disabled' });
     const planner = await aPerson(db, { role: 'planner' });
     const scenario = await aScenarioWith([
-      aDescent({ startM: 1_250, endM: 3_480, dropM: 182.4, meanGradePercent: -8.2, maxGradePercent: -11.4, risk: 'critical', peakBrakeTempC: 612.3, maxSafeSpeedKph: 18.7, speedAdvice: 'limit', maxTopSoc: 0.55 }),
+      aDescent({
+        startM: 1_250,
+        endM: 3_480,
+        dropM: 182.4,
+        meanGradePercent: -8.2,
+        maxGradePercent: -11.4,
+        risk: 'critical',
+        peakBrakeTempC: 612.3,
+        maxSafeSpeedKph: 18.7,
+        speedAdvice: 'limit',
+        maxTopSoc: 0.55,
+      }),
     ]);
 
     const report = await sync(scenario);
@@ -44,7 +55,9 @@ describe('e-mail to safety officers about new high-risk descents', () => {
     expect(body).toContain('Risk: Critical; peak brake temperature 613 °C');
     expect(body).toContain('descend at or below 18 km/h');
     expect(body).toContain('start the descent at or below 55 % SOC');
-    expect(body).toContain(`Advice: ${describeDescentAdvice({ speedAdvice: 'limit', maxSafeSpeedKph: 18.7, maxTopSoc: 0.55, fadeThresholdC: 0 }, 'metric').short}`);
+    expect(body).toContain(
+      `Advice: ${describeDescentAdvice({ speedAdvice: 'limit', maxSafeSpeedKph: 18.7, maxTopSoc: 0.55, fadeThresholdC: 0 }, 'metric').short}`,
+    );
     expect(body).toContain(`https://descentry.transit.example/reviews/${report.raised[0]}`);
     expect(body).toContain(adviceCautionsText());
     expect(body).toContain('Regeneration is not a fail-safe brake');
@@ -103,7 +116,10 @@ describe('e-mail to the planner when their scenario’s item is resolved', () =>
 
   it('stays quiet for a planner who switched it off', async () => {
     const planner = await aPerson(db, { role: 'planner' });
-    await request(app).put('/api/me/notifications').set('Cookie', await cookieOf(planner.id)).send({ newHighRiskDescent: true, reviewResolved: false });
+    await request(app)
+      .put('/api/me/notifications')
+      .set('Cookie', await cookieOf(planner.id))
+      .send({ newHighRiskDescent: true, reviewResolved: false });
     const reviewId = await aRaisedItemOf(planner.id);
     const safetyCookie = await cookieOf((await aPerson(db, { role: 'safety' })).id);
 
@@ -121,12 +137,22 @@ describe('e-mail to the planner when their scenario’s item is resolved', () =>
 async function aScenarioWith(descents: ReturnType<typeof aDescent>[], createdById: string | null = null) {
   const route = await aRoute(db, { name: 'Col road 12' });
   const profile = await aVehicleProfile(db);
-  return aScenario(db, { routeId: route.id, vehicleProfileId: profile.id, createdById, directionResults: [aDirectionResult('outbound', descents)] });
+  return aScenario(db, {
+    routeId: route.id,
+    vehicleProfileId: profile.id,
+    createdById,
+    directionResults: [aDirectionResult('outbound', descents)],
+  });
 }
 
 function sync(scenario: ScenarioRow) {
   return db.transaction((tx) =>
-    syncReviewItems(tx, scenario, { computedAt: new Date(), directions: scenario.directionResults! }, { publicUrl: context.deps.config.PUBLIC_URL }),
+    syncReviewItems(
+      tx,
+      scenario,
+      { computedAt: new Date(), directions: scenario.directionResults! },
+      { publicUrl: context.deps.config.PUBLIC_URL },
+    ),
   );
 }
 
@@ -145,8 +171,11 @@ async function cookieOf(personId: string): Promise<string> {
 }
 
 async function transition(reviewId: string, cookie: string, body: object) {
-  const response = await request(app).post(`/api/reviews/${reviewId}/transitions`).set('Cookie', cookie).set('Origin', 'https://descentry.transit.example').send(body);
+  const response = await request(app)
+    .post(`/api/reviews/${reviewId}/transitions`)
+    .set('Cookie', cookie)
+    .set('Origin', 'https://descentry.transit.example')
+    .send(body);
   if (response.status !== 200) throw new Error(`transition failed: ${response.status} ${response.text}`);
   return response;
 }
-

@@ -34,7 +34,13 @@ describe('review items from scenario runs', () => {
     const items = await reviews();
     expect(items).toHaveLength(1);
     // The risk is the worst credible case's: with regeneration lost the descent is critical.
-    expect(items[0]).toMatchObject({ scenarioId: scenario.id, risk: 'critical', state: 'raised', direction: 'outbound', routeName: 'Summit descent' });
+    expect(items[0]).toMatchObject({
+      scenarioId: scenario.id,
+      risk: 'critical',
+      state: 'raised',
+      direction: 'outbound',
+      routeName: 'Summit descent',
+    });
     expect(await countRows(db, 'mail_outbox')).toBe(1);
   });
 
@@ -42,7 +48,9 @@ describe('review items from scenario runs', () => {
     const scenario = await aSavedScenario();
     const [before] = await reviews();
 
-    const rerun = await request(app).post(`/api/scenarios/${scenario.id}/run`).set('Cookie', await cookieFor('planner'));
+    const rerun = await request(app)
+      .post(`/api/scenarios/${scenario.id}/run`)
+      .set('Cookie', await cookieFor('planner'));
 
     expect(rerun.status).toBeLessThan(300);
     const after = await reviews();
@@ -59,7 +67,11 @@ describe('review items from scenario runs', () => {
     const response = await request(app)
       .post(`/api/reviews/${item!.id}/transitions`)
       .set('Cookie', safety)
-      .send({ action: 'mitigate', mitigation: { descentSpeedCapKph: await worstCaseSpeedKph(scenario.id) }, note: 'Signs at the worst-case speed on the summit run' });
+      .send({
+        action: 'mitigate',
+        mitigation: { descentSpeedCapKph: await worstCaseSpeedKph(scenario.id) },
+        note: 'Signs at the worst-case speed on the summit run',
+      });
 
     expect(response.status).toBe(200);
     expect(response.body.item.state).toBe('mitigated');
@@ -141,7 +153,10 @@ describe('review items from scenario runs', () => {
  */
 const SHORT_DESCENT = { lengthM: 3_000, dropM: 240 };
 
-async function aSavedScenario(overrides: Partial<ScenarioDraftInput> = {}, line: { lengthM: number; dropM: number } = { lengthM: 6_000, dropM: 480 }) {
+async function aSavedScenario(
+  overrides: Partial<ScenarioDraftInput> = {},
+  line: { lengthM: number; dropM: number } = { lengthM: 6_000, dropM: 480 },
+) {
   const planner = await cookieFor('planner');
   const route = await request(app)
     .post('/api/routes')
@@ -167,13 +182,17 @@ function aDraft(routeId: string, overrides: Partial<ScenarioDraftInput> = {}): S
 
 /** The worst case's advised speed on the scenario's first descent (keeps the brakes under fade less the margin). */
 async function worstCaseSpeedKph(scenarioId: string): Promise<number> {
-  const result = await request(app).get(`/api/scenarios/${scenarioId}/result`).set('Cookie', await cookieFor('safety'));
+  const result = await request(app)
+    .get(`/api/scenarios/${scenarioId}/result`)
+    .set('Cookie', await cookieFor('safety'));
   const speed = result.body.directions[0].descents[0].worstCase.maxSafeSpeedKph as number | null;
   if (speed === null) throw new Error('the summit descent has no worst-case speed advice');
   return Math.max(5, speed);
 }
 
 async function reviews() {
-  const response = await request(app).get('/api/reviews').set('Cookie', await cookieFor('board'));
+  const response = await request(app)
+    .get('/api/reviews')
+    .set('Cookie', await cookieFor('board'));
   return reviewListSchema.parse(response.body).items;
 }

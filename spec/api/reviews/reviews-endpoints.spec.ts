@@ -120,7 +120,11 @@ describe('reopening after a worse rerun', () => {
     const item = (await agent.get(`/api/reviews/${reviewId}`)).body.item;
     expect(item).toMatchObject({ state: 'reopened', risk: 'high', raisedRisk: 'elevated' });
     const events = (await agent.get(`/api/reviews/${reviewId}/events`)).body.items;
-    expect(events.at(-1)).toMatchObject({ fromState: 'accepted', toState: 'reopened', details: { previousRisk: 'elevated', risk: 'high' } });
+    expect(events.at(-1)).toMatchObject({
+      fromState: 'accepted',
+      toState: 'reopened',
+      details: { previousRisk: 'elevated', risk: 'high' },
+    });
   });
 
   it('reopens when the peak temperature rises beyond the margin at the same risk, and not within it', async () => {
@@ -196,7 +200,10 @@ describe('POST /api/reviews/:reviewId/transitions', () => {
       ['awaiting-sign-off', 'accepted'],
     ]);
     expect(events[1]).toMatchObject({ actorName: person.name, note: 'Looking at it' });
-    expect(events[3]).toMatchObject({ actorName: second.person.name, details: { proposedBy: person.name, signedOffBy: second.person.name } });
+    expect(events[3]).toMatchObject({
+      actorName: second.person.name,
+      details: { proposedBy: person.name, signedOffBy: second.person.name },
+    });
   });
 
   it('answers 403 when the safety officer who proposed an acceptance signs it off, and keeps it waiting', async () => {
@@ -446,7 +453,12 @@ describe('/api/me/notifications', () => {
 
 async function aScenarioWith(
   descents: ReturnType<typeof aDescent>[],
-  options: { routeName?: string; direction?: 'outbound' | 'round-trip'; directionResults?: ReturnType<typeof aDirectionResult>[]; createdById?: string } = {},
+  options: {
+    routeName?: string;
+    direction?: 'outbound' | 'round-trip';
+    directionResults?: ReturnType<typeof aDirectionResult>[];
+    createdById?: string;
+  } = {},
 ) {
   const route = await aRoute(db, { name: options.routeName });
   const profile = await aVehicleProfile(db);

@@ -121,7 +121,10 @@ describe('POST /api/road-network/path (pgRouting on the imported roads)', () => 
     const joint = round7([a[0] + 0.5 * (b[0] - a[0]), a[1] + 0.5 * (b[1] - a[1]) - 0.00002]);
     const plannedEnd = round7([joint[0] - 0.0025, joint[1] - 0.002]);
     // An isolated line 600 m away from everything.
-    const isolated: Position[] = [[longest.from[0] - 0.012, longest.from[1] - 0.006], [longest.from[0] - 0.011, longest.from[1] - 0.006]];
+    const isolated: Position[] = [
+      [longest.from[0] - 0.012, longest.from[1] - 0.006],
+      [longest.from[0] - 0.011, longest.from[1] - 0.006],
+    ];
     const upload = await agent.post('/api/road-network').send({
       type: 'FeatureCollection',
       features: [
@@ -149,7 +152,7 @@ describe('POST /api/road-network/path (pgRouting on the imported roads)', () => 
   it('gives the climb and drop along the path from the terrain once terrain covers it', async () => {
     // A plane rising 5 m per 100 m northwards (UTM zone 10N), so the exact climb is known.
     const utm = '+proj=utm +zone=10 +datum=WGS84 +units=m +no_defs';
-    const [east0, north0] = proj4('EPSG:4326', utm, [-122.31, 37.80]) as Position;
+    const [east0, north0] = proj4('EPSG:4326', utm, [-122.31, 37.8]) as Position;
     const originY = north0 + 2_000;
     const grid = { epsg: 32610, originX: east0, originY, pixelSizeM: 10, widthPx: 300, heightPx: 250, nodata: -9999 };
     const values = new Float32Array(grid.widthPx * grid.heightPx);

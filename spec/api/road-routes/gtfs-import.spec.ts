@@ -37,7 +37,9 @@ describe('POST /api/routes/import-gtfs — bounds on a feed (issue 11)', () => {
     const response = await upload(await zip.generateAsync({ type: 'nodebuffer' }), 'crowded.zip');
 
     expect(response.status).toBe(413);
-    expect(response.body.error.message).toBe(`crowded.zip: the archive holds ${GTFS_LIMITS.maxEntries + 1} entries; the limit is ${GTFS_LIMITS.maxEntries} entries`);
+    expect(response.body.error.message).toBe(
+      `crowded.zip: the archive holds ${GTFS_LIMITS.maxEntries + 1} entries; the limit is ${GTFS_LIMITS.maxEntries} entries`,
+    );
   });
 
   it('answers 413 naming the file and its row limit when a file has too many rows', async () => {
@@ -48,7 +50,9 @@ describe('POST /api/routes/import-gtfs — bounds on a feed (issue 11)', () => {
     const response = await upload(zip, 'feed.zip');
 
     expect(response.status).toBe(413);
-    expect(response.body.error.message).toBe(`routes.txt: has more than ${limit.toLocaleString('en')} rows; the limit is ${limit.toLocaleString('en')} rows`);
+    expect(response.body.error.message).toBe(
+      `routes.txt: has more than ${limit.toLocaleString('en')} rows; the limit is ${limit.toLocaleString('en')} rows`,
+    );
     expect(response.body.error.details).toMatchObject({ file: 'routes.txt' });
   });
 
@@ -73,7 +77,8 @@ async function aValidFeedWith(overrides: Record<string, string>, folder = ''): P
   const files: Record<string, string> = {
     'routes.txt': 'route_id,route_short_name,route_long_name,route_type\nr1,1,Valley Line,3\n',
     'trips.txt': 'route_id,service_id,trip_id,direction_id,shape_id\nr1,all,t1,0,s1\n',
-    'shapes.txt': 'shape_id,shape_pt_lat,shape_pt_lon,shape_pt_sequence\ns1,46.50,9.00,1\ns1,46.51,9.00,2\nunused,46.6,9.1,1\nunused,46.7,9.1,2\n',
+    'shapes.txt':
+      'shape_id,shape_pt_lat,shape_pt_lon,shape_pt_sequence\ns1,46.50,9.00,1\ns1,46.51,9.00,2\nunused,46.6,9.1,1\nunused,46.7,9.1,2\n',
     'stops.txt': 'stop_id,stop_name,stop_lat,stop_lon\nA,Lower,46.50,9.00\nB,Upper,46.51,9.00\nZ,Elsewhere,46.9,9.9\n',
     'stop_times.txt': 'trip_id,arrival_time,departure_time,stop_id,stop_sequence\nt1,07:00:00,07:00:00,A,1\nt1,07:04:00,07:04:20,B,2\n',
     ...overrides,

@@ -73,7 +73,10 @@ describe('POST /api/routes', () => {
   });
 
   it('answers 403 to an analyst', async () => {
-    const response = await request(app).post('/api/routes').set('Cookie', await cookieFor('analyst')).send(aRouteDraft());
+    const response = await request(app)
+      .post('/api/routes')
+      .set('Cookie', await cookieFor('analyst'))
+      .send(aRouteDraft());
 
     expect(response.status).toBe(403);
     expect(await countRows(db, 'road_routes')).toBe(0);
@@ -92,7 +95,10 @@ describe('PUT /api/routes/:routeId', () => {
         aRouteDraft({
           geometry: shorter,
           stops: [{ name: 'Lower square', ...pointNear(600, 10), dwellS: 25 }],
-          speedLimits: [{ fromM: 800, toM: 1_500, speedKph: 30 }, { fromM: 1_200, toM: 1_600, speedKph: 20 }],
+          speedLimits: [
+            { fromM: 800, toM: 1_500, speedKph: 30 },
+            { fromM: 1_200, toM: 1_600, speedKph: 20 },
+          ],
         }),
       );
 
@@ -115,7 +121,10 @@ describe('PUT /api/routes/:routeId', () => {
     // The same stops on a line that starts 300 m further east.
     const moved = eastwardLine({ lengthM: 1_700, dropM: 100, origin: [pointNear(300).lon, pointNear(300).lat] });
 
-    const response = await request(app).put(`/api/routes/${created.id}`).set('Cookie', planner).send(aRouteDraft({ geometry: moved }));
+    const response = await request(app)
+      .put(`/api/routes/${created.id}`)
+      .set('Cookie', planner)
+      .send(aRouteDraft({ geometry: moved }));
 
     expect(response.body.stops[0].atM).toBeCloseTo(300, 0);
     expect(response.body.stops[1].atM).toBeCloseTo(1_100, 0);

@@ -22,9 +22,15 @@ describe('placeStops', () => {
 
 describe('speed limits', () => {
   it('clips stretches to the length and drops those beyond it', () => {
-    expect(clipSpeedLimits([{ fromM: 900, toM: 1_500, speedKph: 30 }, { fromM: 1_200, toM: 1_300, speedKph: 20 }], 1_000)).toEqual([
-      { fromM: 900, toM: 1_000, speedKph: 30 },
-    ]);
+    expect(
+      clipSpeedLimits(
+        [
+          { fromM: 900, toM: 1_500, speedKph: 30 },
+          { fromM: 1_200, toM: 1_300, speedKph: 20 },
+        ],
+        1_000,
+      ),
+    ).toEqual([{ fromM: 900, toM: 1_000, speedKph: 30 }]);
   });
 
   it('fills the gaps between stretches with the default limit', () => {
@@ -44,12 +50,18 @@ describe('mirrorRoute', () => {
     const inbound = mirrorRoute({
       coordinates: line.coordinates,
       lengthM: 1_000,
-      stops: [{ name: 'A', lon: 0, lat: 0, dwellS: 20, atM: 100 }, { name: 'B', lon: 0, lat: 0, dwellS: 20, atM: 700 }],
+      stops: [
+        { name: 'A', lon: 0, lat: 0, dwellS: 20, atM: 100 },
+        { name: 'B', lon: 0, lat: 0, dwellS: 20, atM: 700 },
+      ],
       speedLimits: [{ fromM: 0, toM: 250, speedKph: 30 }],
     });
 
     expect(inbound.coordinates[0]).toEqual(line.coordinates.at(-1));
-    expect(inbound.stops.map((stop) => [stop.name, stop.atM])).toEqual([['B', 300], ['A', 900]]);
+    expect(inbound.stops.map((stop) => [stop.name, stop.atM])).toEqual([
+      ['B', 300],
+      ['A', 900],
+    ]);
     expect(inbound.speedLimits).toEqual([{ fromM: 750, toM: 1_000, speedKph: 30 }]);
   });
 });

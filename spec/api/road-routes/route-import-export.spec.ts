@@ -62,7 +62,10 @@ describe('GET /api/routes/:routeId/export and POST /api/routes/import', () => {
 
     expect(response.status).toBe(201);
     expect(response.body.route.name).toBe('Lakeside loop');
-    expect(response.body.route.geometry.coordinates).toEqual([[9, 46.5], [9.01, 46.5]]);
+    expect(response.body.route.geometry.coordinates).toEqual([
+      [9, 46.5],
+      [9.01, 46.5],
+    ]);
   });
 
   it('keeps a GPX track’s own elevations by default and says so (issue 10: they were replaced by terrain)', async () => {
@@ -70,7 +73,11 @@ describe('GET /api/routes/:routeId/export and POST /api/routes/import', () => {
 
     expect(response.status).toBe(201);
     expect(response.body).toMatchObject({ elevationSource: 'file', fileHasElevations: true });
-    expect(response.body.route.geometry.coordinates).toEqual([[9, 46.5, 1210.5], [9.01, 46.5, 1195.25], [9.02, 46.5, 1180]]);
+    expect(response.body.route.geometry.coordinates).toEqual([
+      [9, 46.5, 1210.5],
+      [9.01, 46.5, 1195.25],
+      [9.02, 46.5, 1180],
+    ]);
   });
 
   it("drops the file's elevations when the planner chooses the terrain's", async () => {
@@ -82,7 +89,11 @@ describe('GET /api/routes/:routeId/export and POST /api/routes/import', () => {
 
     expect(response.status).toBe(201);
     expect(response.body).toMatchObject({ elevationSource: 'terrain', fileHasElevations: true });
-    expect(response.body.route.geometry.coordinates).toEqual([[9, 46.5], [9.01, 46.5], [9.02, 46.5]]);
+    expect(response.body.route.geometry.coordinates).toEqual([
+      [9, 46.5],
+      [9.01, 46.5],
+      [9.02, 46.5],
+    ]);
   });
 
   it('answers 400 naming the field for an unknown elevation choice, and creates nothing', async () => {
@@ -103,7 +114,10 @@ describe('GET /api/routes/:routeId/export and POST /api/routes/import', () => {
     const again = await upload('/api/routes/import', aGpxTrack(), 'recorded-copy.gpx');
 
     expect(again.status).toBe(409);
-    expect(again.body.error).toMatchObject({ code: 'already_imported', details: { routeId: first.body.route.id, routeName: 'Recorded run' } });
+    expect(again.body.error).toMatchObject({
+      code: 'already_imported',
+      details: { routeId: first.body.route.id, routeName: 'Recorded run' },
+    });
     expect(again.body.error.message).toMatch(/^recorded-copy\.gpx was imported before, as the route “Recorded run”/);
     expect(await countRows(db, 'road_routes')).toBe(1);
   });
@@ -124,12 +138,13 @@ describe('GET /api/routes/:routeId/export and POST /api/routes/import', () => {
 
     expect(response.status).toBe(400);
     expect(response.body.error.message).toMatch(/^broken\.gpx, line 4: not well-formed XML/); // the <trkpt> left open
-    expect(response.body.error.details).toMatchObject({ file: "broken.gpx", line: 4 });
+    expect(response.body.error.details).toMatchObject({ file: 'broken.gpx', line: 4 });
     expect(await countRows(db, 'road_routes')).toBe(0);
   });
 
   it('answers 400 naming the file, line and field for a GPX point outside WGS 84', async () => {
-    const gpx = '<?xml version="1.0"?>\n<gpx version="1.1">\n<trk><trkseg>\n<trkpt lat="46.5" lon="9.0"/>\n<trkpt lat="96.5" lon="9.0"/>\n</trkseg></trk></gpx>';
+    const gpx =
+      '<?xml version="1.0"?>\n<gpx version="1.1">\n<trk><trkseg>\n<trkpt lat="46.5" lon="9.0"/>\n<trkpt lat="96.5" lon="9.0"/>\n</trkseg></trk></gpx>';
 
     const response = await upload('/api/routes/import', gpx, 'far-north.gpx');
 
@@ -147,7 +162,17 @@ describe('GET /api/routes/:routeId/export and POST /api/routes/import', () => {
   });
 
   it('answers 400 naming the field of a bad GeoJSON position', async () => {
-    const document = { type: 'Feature', properties: { name: 'Bad' }, geometry: { type: 'LineString', coordinates: [[9, 46.5], [9.01, 146.5]] } };
+    const document = {
+      type: 'Feature',
+      properties: { name: 'Bad' },
+      geometry: {
+        type: 'LineString',
+        coordinates: [
+          [9, 46.5],
+          [9.01, 146.5],
+        ],
+      },
+    };
 
     const response = await upload('/api/routes/import', JSON.stringify(document), 'bad.geojson');
 
@@ -160,7 +185,11 @@ describe('GET /api/routes/:routeId/export and POST /api/routes/import', () => {
       type: 'FeatureCollection',
       features: [
         { type: 'Feature', properties: { name: 'Ridge' }, geometry: eastwardLine() },
-        { type: 'Feature', properties: { name: 'Far hut' }, geometry: { type: 'Point', coordinates: [pointNear(500, 300).lon, pointNear(500, 300).lat] } },
+        {
+          type: 'Feature',
+          properties: { name: 'Far hut' },
+          geometry: { type: 'Point', coordinates: [pointNear(500, 300).lon, pointNear(500, 300).lat] },
+        },
       ],
     };
 
@@ -208,7 +237,9 @@ describe('POST /api/routes/import-gtfs', () => {
   });
 
   it('answers 400 naming the file and line of a bad shape point, and creates nothing', async () => {
-    const feed = await aGtfsFeed({ 'shapes.txt': 'shape_id,shape_pt_lat,shape_pt_lon,shape_pt_sequence\ns1,46.5,9.0,1\ns1,forty,9.01,2\n' });
+    const feed = await aGtfsFeed({
+      'shapes.txt': 'shape_id,shape_pt_lat,shape_pt_lon,shape_pt_sequence\ns1,46.5,9.0,1\ns1,forty,9.01,2\n',
+    });
 
     const response = await upload('/api/routes/import-gtfs', feed, 'feed.zip');
 
@@ -246,14 +277,40 @@ describe('the reference road network', () => {
     const network = {
       type: 'FeatureCollection',
       features: [
-        { type: 'Feature', properties: { name: 'Valley road' }, geometry: { type: 'LineString', coordinates: [[a.lon, a.lat], [b.lon, b.lat], [d.lon, d.lat]] } },
-        { type: 'Feature', properties: { name: 'Spur' }, geometry: { type: 'MultiLineString', coordinates: [[[b.lon, b.lat], [c.lon, c.lat]]] } },
+        {
+          type: 'Feature',
+          properties: { name: 'Valley road' },
+          geometry: {
+            type: 'LineString',
+            coordinates: [
+              [a.lon, a.lat],
+              [b.lon, b.lat],
+              [d.lon, d.lat],
+            ],
+          },
+        },
+        {
+          type: 'Feature',
+          properties: { name: 'Spur' },
+          geometry: {
+            type: 'MultiLineString',
+            coordinates: [
+              [
+                [b.lon, b.lat],
+                [c.lon, c.lat],
+              ],
+            ],
+          },
+        },
       ],
     };
 
     const stored = await request(app).post('/api/road-network').set('Cookie', analyst).send(network);
     const fetched = await request(app).get('/api/road-network').set('Cookie', planner);
-    const path = await request(app).post('/api/road-network/path').set('Cookie', planner).send({ from: [a.lon, a.lat + 0.0001], to: [c.lon, c.lat] });
+    const path = await request(app)
+      .post('/api/road-network/path')
+      .set('Cookie', planner)
+      .send({ from: [a.lon, a.lat + 0.0001], to: [c.lon, c.lat] });
 
     expect(stored.status).toBe(201);
     expect(stored.body).toEqual({ featureCount: 2, lineCount: 2 });
@@ -272,13 +329,39 @@ describe('the reference road network', () => {
     const network = {
       type: 'FeatureCollection',
       features: [
-        { type: 'Feature', properties: {}, geometry: { type: 'LineString', coordinates: [[a.lon, a.lat], [b.lon, b.lat]] } },
-        { type: 'Feature', properties: {}, geometry: { type: 'LineString', coordinates: [[c.lon, c.lat], [e.lon, e.lat]] } },
+        {
+          type: 'Feature',
+          properties: {},
+          geometry: {
+            type: 'LineString',
+            coordinates: [
+              [a.lon, a.lat],
+              [b.lon, b.lat],
+            ],
+          },
+        },
+        {
+          type: 'Feature',
+          properties: {},
+          geometry: {
+            type: 'LineString',
+            coordinates: [
+              [c.lon, c.lat],
+              [e.lon, e.lat],
+            ],
+          },
+        },
       ],
     };
-    await request(app).post('/api/road-network').set('Cookie', await cookieFor('analyst')).send(network);
+    await request(app)
+      .post('/api/road-network')
+      .set('Cookie', await cookieFor('analyst'))
+      .send(network);
 
-    const response = await request(app).post('/api/road-network/path').set('Cookie', planner).send({ from: [a.lon, a.lat], to: [e.lon, e.lat] });
+    const response = await request(app)
+      .post('/api/road-network/path')
+      .set('Cookie', planner)
+      .send({ from: [a.lon, a.lat], to: [e.lon, e.lat] });
 
     expect(response.status).toBe(422);
     expect(response.body.error.code).toBe('no_path');
@@ -286,19 +369,32 @@ describe('the reference road network', () => {
 
   it('answers 400 naming the feature index of a bad geometry, and keeps the old network', async () => {
     const analyst = await cookieFor('analyst');
-    await request(app).post('/api/road-network').set('Cookie', analyst).send({ type: 'FeatureCollection', features: [{ type: 'Feature', properties: {}, geometry: eastwardLine() }] });
+    await request(app)
+      .post('/api/road-network')
+      .set('Cookie', analyst)
+      .send({ type: 'FeatureCollection', features: [{ type: 'Feature', properties: {}, geometry: eastwardLine() }] });
 
     const response = await request(app)
       .post('/api/road-network')
       .set('Cookie', analyst)
       .attach(
         'file',
-        Buffer.from(JSON.stringify({ type: 'FeatureCollection', features: [{ type: 'Feature', properties: {}, geometry: eastwardLine() }, { type: 'Feature', properties: {}, geometry: { type: 'Polygon', coordinates: [] } }] })),
+        Buffer.from(
+          JSON.stringify({
+            type: 'FeatureCollection',
+            features: [
+              { type: 'Feature', properties: {}, geometry: eastwardLine() },
+              { type: 'Feature', properties: {}, geometry: { type: 'Polygon', coordinates: [] } },
+            ],
+          }),
+        ),
         'roads.geojson',
       );
 
     expect(response.status).toBe(400);
-    expect(response.body.error.message).toMatch(/^roads\.geojson: features\.1\.geometry\.type: roads must be LineString or MultiLineString/);
+    expect(response.body.error.message).toMatch(
+      /^roads\.geojson: features\.1\.geometry\.type: roads must be LineString or MultiLineString/,
+    );
     expect(response.body.error.details.featureIndex).toBe(1);
     expect(await countRows(db, 'road_network_lines')).toBe(1);
   });
@@ -307,7 +403,10 @@ describe('the reference road network', () => {
 // Helpers
 
 function upload(path: string, content: string | Buffer, fileName: string) {
-  return request(app).post(path).set('Cookie', planner).attach('file', Buffer.isBuffer(content) ? content : Buffer.from(content), fileName);
+  return request(app)
+    .post(path)
+    .set('Cookie', planner)
+    .attach('file', Buffer.isBuffer(content) ? content : Buffer.from(content), fileName);
 }
 
 /** A recorded GPS track: three points, each with its own elevation. */
@@ -330,13 +429,22 @@ function textOf(response: request.Response): string {
 async function aGtfsFeed(overrides: Record<string, string | null> = {}): Promise<Buffer> {
   const p = [pointNear(0), pointNear(1_000), pointNear(2_000)];
   const files: Record<string, string | null> = {
-    'agency.txt': 'agency_id,agency_name,agency_url,agency_timezone\nhvta,Highpass Valley Transit Authority,https://transit.example,Europe/Zurich\n',
+    'agency.txt':
+      'agency_id,agency_name,agency_url,agency_timezone\nhvta,Highpass Valley Transit Authority,https://transit.example,Europe/Zurich\n',
     'routes.txt': 'route_id,route_short_name,route_long_name,route_type\nr12,12,Mill Road,3\n',
-    'calendar.txt': 'service_id,monday,tuesday,wednesday,thursday,friday,saturday,sunday,start_date,end_date\nweekday,1,1,1,1,1,0,0,20260101,20261231\n',
-    'trips.txt': 'route_id,service_id,trip_id,direction_id,shape_id\nr12,weekday,t1,0,s1\nr12,weekday,t2,0,s1\nr12,weekday,t3,1,s2\nr12,weekday,t4,1,s2\n',
-    'shapes.txt': `shape_id,shape_pt_lat,shape_pt_lon,shape_pt_sequence\n${p.map((q, i) => `s1,${q.lat},${q.lon},${i + 1}`).join('\n')}\n${[...p].reverse().map((q, i) => `s2,${q.lat},${q.lon},${i + 1}`).join('\n')}\n`,
+    'calendar.txt':
+      'service_id,monday,tuesday,wednesday,thursday,friday,saturday,sunday,start_date,end_date\nweekday,1,1,1,1,1,0,0,20260101,20261231\n',
+    'trips.txt':
+      'route_id,service_id,trip_id,direction_id,shape_id\nr12,weekday,t1,0,s1\nr12,weekday,t2,0,s1\nr12,weekday,t3,1,s2\nr12,weekday,t4,1,s2\n',
+    'shapes.txt': `shape_id,shape_pt_lat,shape_pt_lon,shape_pt_sequence\n${p.map((q, i) => `s1,${q.lat},${q.lon},${i + 1}`).join('\n')}\n${[
+      ...p,
+    ]
+      .reverse()
+      .map((q, i) => `s2,${q.lat},${q.lon},${i + 1}`)
+      .join('\n')}\n`,
     'stops.txt': `stop_id,stop_name,stop_lat,stop_lon\nA,Mill Road terminus,${p[0]!.lat},${p[0]!.lon}\nB,Weir,${p[1]!.lat},${p[1]!.lon}\nC,Quarry,${p[2]!.lat},${p[2]!.lon}\n`,
-    'stop_times.txt': 'trip_id,arrival_time,departure_time,stop_id,stop_sequence\nt1,07:00:00,07:00:00,A,1\nt1,07:03:00,07:03:30,B,2\nt1,07:06:00,07:06:00,C,3\nt2,08:00:00,08:00:00,A,1\nt2,08:03:00,08:03:30,B,2\nt2,08:06:00,08:06:00,C,3\n',
+    'stop_times.txt':
+      'trip_id,arrival_time,departure_time,stop_id,stop_sequence\nt1,07:00:00,07:00:00,A,1\nt1,07:03:00,07:03:30,B,2\nt1,07:06:00,07:06:00,C,3\nt2,08:00:00,08:00:00,A,1\nt2,08:03:00,08:03:30,B,2\nt2,08:06:00,08:06:00,C,3\n',
     ...overrides,
   };
   const zip = new JSZip();

@@ -26,7 +26,9 @@ describe('scenarios computed on uploaded terrain', () => {
     await seedDemoPeople(context.db);
     await seedDemoTerrain(context.deps);
     cookieFor = sessionCookies(context.db, context.deps.config);
-    const models = await request(context.app).get('/api/terrain').set('Cookie', await cookieFor('analyst'));
+    const models = await request(context.app)
+      .get('/api/terrain')
+      .set('Cookie', await cookieFor('analyst'));
     terrainId = models.body.items[0].id;
   }, 120_000);
 
@@ -79,4 +81,3 @@ describe('scenarios computed on uploaded terrain', () => {
     expect(await context.db.select().from(terrainDependents).where(eq(terrainDependents.dependentId, scenario.body.id))).toEqual([]);
   });
 });
-

@@ -36,11 +36,26 @@ describe('POST /api/scenarios', () => {
 
     expect(response.status).toBe(201);
     const scenario = scenarioSchema.parse(response.body);
-    expect(scenario).toMatchObject({ status: 'done', engineVersion: ENGINE_VERSION, isStale: false, routeVersion: 1, routeName: 'Spec line 1' });
+    expect(scenario).toMatchObject({
+      status: 'done',
+      engineVersion: ENGINE_VERSION,
+      isStale: false,
+      routeVersion: 1,
+      routeName: 'Spec line 1',
+    });
     expect(scenario.summary!.lengthM).toBeCloseTo(2_000, 0);
     const result = scenarioResultSchema.parse((await request(app).get(`/api/scenarios/${scenario.id}/result`).set('Cookie', planner)).body);
     expect(result.caution).toBe(ENGINEERING_CAUTION);
-    const inputs = result.inputs as { provenance: { routeVersion: number; engineVersion: string }; directions: { request: { vehicle: { payloadKg: number; auxPowerW: number }; conditions: { ambientC: number }; options: { stops: { atM: number; dwellS: number }[]; speedLimitKph: unknown } } }[] };
+    const inputs = result.inputs as {
+      provenance: { routeVersion: number; engineVersion: string };
+      directions: {
+        request: {
+          vehicle: { payloadKg: number; auxPowerW: number };
+          conditions: { ambientC: number };
+          options: { stops: { atM: number; dwellS: number }[]; speedLimitKph: unknown };
+        };
+      }[];
+    };
     expect(inputs.provenance).toMatchObject({ routeVersion: 1, engineVersion: ENGINE_VERSION });
     const request0 = inputs.directions[0]!.request;
     // Full standing load of the 12 m bus preset, winter auxiliaries and ambient.
@@ -97,7 +112,10 @@ describe('POST /api/scenarios', () => {
   it('answers 400 naming startSoc when it is above 1, and writes nothing', async () => {
     const route = await aRoute();
 
-    const response = await request(app).post('/api/scenarios').set('Cookie', planner).send(aScenarioDraft(route.id, { startSoc: 1.5 }));
+    const response = await request(app)
+      .post('/api/scenarios')
+      .set('Cookie', planner)
+      .send(aScenarioDraft(route.id, { startSoc: 1.5 }));
 
     expect(response.status).toBe(400);
     expect(response.body.error.message).toMatch(/startSoc/);
@@ -107,7 +125,10 @@ describe('POST /api/scenarios', () => {
   it('answers 403 to a safety officer', async () => {
     const route = await aRoute();
 
-    const response = await request(app).post('/api/scenarios').set('Cookie', await cookieFor('safety')).send(aScenarioDraft(route.id));
+    const response = await request(app)
+      .post('/api/scenarios')
+      .set('Cookie', await cookieFor('safety'))
+      .send(aScenarioDraft(route.id));
 
     expect(response.status).toBe(403);
   });
@@ -117,10 +138,11 @@ describe('POST /api/scenarios', () => {
     // A sampler that covers everything but 3.2–4.5 km along the line.
     const sampled = createApp({
       ...context.deps,
-      sampleElevations: async (points) => points.map(([lon]) => {
-        const alongM = (lon - 9.0) * 76_620;
-        return alongM > 3_200 && alongM < 4_500 ? null : 1_000;
-      }),
+      sampleElevations: async (points) =>
+        points.map(([lon]) => {
+          const alongM = (lon - 9.0) * 76_620;
+          return alongM > 3_200 && alongM < 4_500 ? null : 1_000;
+        }),
     });
 
     const response = await request(sampled).post('/api/scenarios').set('Cookie', planner).send(aScenarioDraft(route.id));
@@ -165,7 +187,10 @@ describe('versions and staleness', () => {
   it('keeps version 1’s geometry after a route edit, marks the scenario stale, and a re-run moves it to version 2', async () => {
     const route = await aRoute();
     const scenario = (await request(app).post('/api/scenarios').set('Cookie', planner).send(aScenarioDraft(route.id))).body;
-    await request(app).put(`/api/routes/${route.id}`).set('Cookie', planner).send(aRouteDraft({ geometry: eastwardLine({ lengthM: 1_000, dropM: 60 }), stops: [] }));
+    await request(app)
+      .put(`/api/routes/${route.id}`)
+      .set('Cookie', planner)
+      .send(aRouteDraft({ geometry: eastwardLine({ lengthM: 1_000, dropM: 60 }), stops: [] }));
 
     const stale = scenarioSchema.parse((await request(app).get(`/api/scenarios/${scenario.id}`).set('Cookie', planner)).body);
     const oldResult = (await request(app).get(`/api/scenarios/${scenario.id}/result`).set('Cookie', planner)).body;
@@ -181,12 +206,26 @@ describe('versions and staleness', () => {
 
   it('does not mark a scenario pinned to a version stale when the route changes', async () => {
     const route = await aRoute();
-    const scenario = (await request(app).post('/api/scenarios').set('Cookie', planner).send(aScenarioDraft(route.id, { routeVersion: 1 }))).body;
-    await request(app).put(`/api/routes/${route.id}`).set('Cookie', planner).send(aRouteDraft({ name: 'Renamed' }));
+    const scenario = (
+      await request(app)
+        .post('/api/scenarios')
+        .set('Cookie', planner)
+        .send(aScenarioDraft(route.id, { routeVersion: 1 }))
+    ).body;
+    await request(app)
+      .put(`/api/routes/${route.id}`)
+      .set('Cookie', planner)
+      .send(aRouteDraft({ name: 'Renamed' }));
 
     const after = (await request(app).get(`/api/scenarios/${scenario.id}`).set('Cookie', planner)).body;
 
-    expect(after).toMatchObject({ routeVersionPinned: true, routeVersion: 1, latestRouteVersion: 2, isStale: false, routeName: 'Spec line 1' });
+    expect(after).toMatchObject({
+      routeVersionPinned: true,
+      routeVersion: 1,
+      latestRouteVersion: 2,
+      isStale: false,
+      routeName: 'Spec line 1',
+    });
   });
 
   it('refuses with 400 a passenger count that takes the bus above its 19.5 t permissible gross mass, and writes nothing', async () => {
@@ -198,18 +237,33 @@ describe('versions and staleness', () => {
       .send(aScenarioDraft(route.id, { load: { kind: 'passengers', passengers: 90 } }));
 
     expect(response.status).toBe(400);
-    expect(response.body.error.message).toMatch(/load\.passengers: this load takes .* to 19800 kg, above its permissible gross mass of 19500 kg/);
+    expect(response.body.error.message).toMatch(
+      /load\.passengers: this load takes .* to 19800 kg, above its permissible gross mass of 19500 kg/,
+    );
     expect(await countRows(db, 'scenarios')).toBe(0);
   });
 
   it('marks the scenario stale after a vehicle-profile edit, and a re-run clears it', async () => {
     const analyst = await cookieFor('analyst');
     const preset = (await request(app).get(`/api/vehicles/${BUS}`).set('Cookie', analyst)).body;
-    const own = (await request(app).post('/api/vehicles').set('Cookie', analyst).send({ ...preset, name: 'Own bus' })).body;
+    const own = (
+      await request(app)
+        .post('/api/vehicles')
+        .set('Cookie', analyst)
+        .send({ ...preset, name: 'Own bus' })
+    ).body;
     const route = await aRoute();
-    const scenario = (await request(app).post('/api/scenarios').set('Cookie', planner).send(aScenarioDraft(route.id, { vehicleProfileId: own.id }))).body;
+    const scenario = (
+      await request(app)
+        .post('/api/scenarios')
+        .set('Cookie', planner)
+        .send(aScenarioDraft(route.id, { vehicleProfileId: own.id }))
+    ).body;
     // 13 t curb: lighter, so every load case stays within the 19.5 t permissible gross mass.
-    const edit = await request(app).put(`/api/vehicles/${own.id}`).set('Cookie', analyst).send({ ...preset, name: 'Own bus', vehicle: { ...preset.vehicle, curbMassKg: 13_000 } });
+    const edit = await request(app)
+      .put(`/api/vehicles/${own.id}`)
+      .set('Cookie', analyst)
+      .send({ ...preset, name: 'Own bus', vehicle: { ...preset.vehicle, curbMassKg: 13_000 } });
     expect(edit.status).toBe(200);
 
     const stale = (await request(app).get(`/api/scenarios/${scenario.id}`).set('Cookie', planner)).body;
@@ -226,7 +280,12 @@ describe('round trips and inbound runs', () => {
   it('combines both directions: round-trip energies are the sums of outbound and inbound', async () => {
     const route = await aRoute();
 
-    const scenario = (await request(app).post('/api/scenarios').set('Cookie', planner).send(aScenarioDraft(route.id, { direction: 'round-trip' }))).body;
+    const scenario = (
+      await request(app)
+        .post('/api/scenarios')
+        .set('Cookie', planner)
+        .send(aScenarioDraft(route.id, { direction: 'round-trip' }))
+    ).body;
     const result = scenarioResultSchema.parse((await request(app).get(`/api/scenarios/${scenario.id}/result`).set('Cookie', planner)).body);
 
     const [outbound, inbound] = result.directions;
@@ -246,7 +305,12 @@ describe('round trips and inbound runs', () => {
   it('mirrors stops and speed limits for the inbound direction', async () => {
     const route = await aRoute();
 
-    const scenario = (await request(app).post('/api/scenarios').set('Cookie', planner).send(aScenarioDraft(route.id, { direction: 'inbound' }))).body;
+    const scenario = (
+      await request(app)
+        .post('/api/scenarios')
+        .set('Cookie', planner)
+        .send(aScenarioDraft(route.id, { direction: 'inbound' }))
+    ).body;
     const result = (await request(app).get(`/api/scenarios/${scenario.id}/result`).set('Cookie', planner)).body;
 
     const options = result.inputs.directions[0].request.options;
@@ -259,10 +323,17 @@ describe('round trips and inbound runs', () => {
 describe('exports', () => {
   it('exports a CSV with the header and one row per profile point per direction', async () => {
     const route = await aRoute();
-    const scenario = (await request(app).post('/api/scenarios').set('Cookie', planner).send(aScenarioDraft(route.id, { direction: 'round-trip' }))).body;
+    const scenario = (
+      await request(app)
+        .post('/api/scenarios')
+        .set('Cookie', planner)
+        .send(aScenarioDraft(route.id, { direction: 'round-trip' }))
+    ).body;
     const result = (await request(app).get(`/api/scenarios/${scenario.id}/result`).set('Cookie', planner)).body;
 
-    const response = await request(app).get(`/api/scenarios/${scenario.id}/export.csv`).set('Cookie', await cookieFor('board'));
+    const response = await request(app)
+      .get(`/api/scenarios/${scenario.id}/export.csv`)
+      .set('Cookie', await cookieFor('board'));
 
     expect(response.status).toBe(200);
     expect(response.headers['content-type']).toMatch(/text\/csv/);
@@ -297,7 +368,12 @@ describe('exports', () => {
 
   it('exports a PDF report', async () => {
     const route = await aRoute();
-    const scenario = (await request(app).post('/api/scenarios').set('Cookie', planner).send(aScenarioDraft(route.id, { direction: 'round-trip' }))).body;
+    const scenario = (
+      await request(app)
+        .post('/api/scenarios')
+        .set('Cookie', planner)
+        .send(aScenarioDraft(route.id, { direction: 'round-trip' }))
+    ).body;
 
     const response = await request(app)
       .get(`/api/scenarios/${scenario.id}/report.pdf`)
@@ -320,7 +396,10 @@ describe('GET /api/scenarios/:scenarioId/descent-cards.pdf', () => {
   it('prints one A4 page per descent inside the margins, with worst-case advice, cautions, sign-off fields and the drivers warning', async () => {
     const route = await aRoute({ name: 'Summit descent', geometry: eastwardLine({ lengthM: 6_000, dropM: 480 }) });
     const scenario = (
-      await request(app).post('/api/scenarios').set('Cookie', planner).send(aScenarioDraft(route.id, { direction: 'round-trip', startSoc: 0.95 }))
+      await request(app)
+        .post('/api/scenarios')
+        .set('Cookie', planner)
+        .send(aScenarioDraft(route.id, { direction: 'round-trip', startSoc: 0.95 }))
     ).body;
     const result = scenarioResultSchema.parse((await request(app).get(`/api/scenarios/${scenario.id}/result`).set('Cookie', planner)).body);
     const descents = result.directions.flatMap((direction) => direction.descents);
@@ -339,24 +418,40 @@ describe('GET /api/scenarios/:scenarioId/descent-cards.pdf', () => {
     expect(text).toContain('Advice under the worst credible case');
     expect(text).toContain(`Risk ${RISK_LABELS[first.risk]} (worst case)`);
     if (first.worstCase?.speedAdvice === 'limit') {
-      expect(text).toContain(`At or below ${formatSafeSpeed(first.worstCase.maxSafeSpeedKph!, 'metric')} on the whole descent, even with regeneration lost.`);
+      expect(text).toContain(
+        `At or below ${formatSafeSpeed(first.worstCase.maxSafeSpeedKph!, 'metric')} on the whole descent, even with regeneration lost.`,
+      );
     }
     expect(text).toContain('regeneration unavailable');
     expect(text).toContain('Where to stop to cool');
     expect(text).toMatch(/\d+ (m|km)/); // the scale bar
     for (const caution of ADVICE_CAUTIONS) expect(text).toContain(caution);
-    for (const field of ['Checked by (licensed engineer)', 'Approved by (safety officer)', 'Issued to the depot by']) expect(text).toContain(field);
+    for (const field of ['Checked by (licensed engineer)', 'Approved by (safety officer)', 'Issued to the depot by'])
+      expect(text).toContain(field);
   });
 
   it('prints the one descent of a direction that covers a point, and answers 404 where there is none and 400 for half a choice', async () => {
     const route = await aRoute({ name: 'Summit descent', geometry: eastwardLine({ lengthM: 6_000, dropM: 480 }) });
-    const scenario = (await request(app).post('/api/scenarios').set('Cookie', planner).send(aScenarioDraft(route.id, { startSoc: 0.95 }))).body;
+    const scenario = (
+      await request(app)
+        .post('/api/scenarios')
+        .set('Cookie', planner)
+        .send(aScenarioDraft(route.id, { startSoc: 0.95 }))
+    ).body;
     const result = scenarioResultSchema.parse((await request(app).get(`/api/scenarios/${scenario.id}/result`).set('Cookie', planner)).body);
     const descent = result.directions[0]!.descents[0]!;
 
-    const one = readPdfWords(await downloadPdf(`/api/scenarios/${scenario.id}/descent-cards.pdf?direction=outbound&atM=${(descent.startM + descent.endM) / 2}`));
-    const none = await request(app).get(`/api/scenarios/${scenario.id}/descent-cards.pdf`).query({ direction: 'inbound', atM: 10 }).set('Cookie', planner);
-    const half = await request(app).get(`/api/scenarios/${scenario.id}/descent-cards.pdf`).query({ direction: 'outbound' }).set('Cookie', planner);
+    const one = readPdfWords(
+      await downloadPdf(`/api/scenarios/${scenario.id}/descent-cards.pdf?direction=outbound&atM=${(descent.startM + descent.endM) / 2}`),
+    );
+    const none = await request(app)
+      .get(`/api/scenarios/${scenario.id}/descent-cards.pdf`)
+      .query({ direction: 'inbound', atM: 10 })
+      .set('Cookie', planner);
+    const half = await request(app)
+      .get(`/api/scenarios/${scenario.id}/descent-cards.pdf`)
+      .query({ direction: 'outbound' })
+      .set('Cookie', planner);
 
     expect(one.pages).toHaveLength(1);
     expect(none.status).toBe(404);
@@ -376,7 +471,13 @@ describe('the PDF report as printed (issue 10)', () => {
       await request(app)
         .post('/api/scenarios')
         .set('Cookie', planner)
-        .send(aScenarioDraft(route.id, { name: 'Round trip with a full standing load in winter, charged to the top before the descent', direction: 'round-trip', startSoc: 0.97 }))
+        .send(
+          aScenarioDraft(route.id, {
+            name: 'Round trip with a full standing load in winter, charged to the top before the descent',
+            direction: 'round-trip',
+            startSoc: 0.97,
+          }),
+        )
     ).body;
     const result = scenarioResultSchema.parse((await request(app).get(`/api/scenarios/${scenario.id}/result`).set('Cookie', planner)).body);
 
@@ -410,9 +511,18 @@ describe('GET /api/scenarios', () => {
   it('filters by route, vehicle profile and in-service flag', async () => {
     const first = await aRoute();
     const second = await aRoute({ name: 'Spec line 2' });
-    await request(app).post('/api/scenarios').set('Cookie', planner).send(aScenarioDraft(first.id, { name: 'A', inService: true }));
-    await request(app).post('/api/scenarios').set('Cookie', planner).send(aScenarioDraft(second.id, { name: 'B' }));
-    await request(app).post('/api/scenarios').set('Cookie', planner).send(aScenarioDraft(second.id, { name: 'C', vehicleProfileId: presetProfileId('battery-midibus') }));
+    await request(app)
+      .post('/api/scenarios')
+      .set('Cookie', planner)
+      .send(aScenarioDraft(first.id, { name: 'A', inService: true }));
+    await request(app)
+      .post('/api/scenarios')
+      .set('Cookie', planner)
+      .send(aScenarioDraft(second.id, { name: 'B' }));
+    await request(app)
+      .post('/api/scenarios')
+      .set('Cookie', planner)
+      .send(aScenarioDraft(second.id, { name: 'C', vehicleProfileId: presetProfileId('battery-midibus') }));
     const board = await cookieFor('board');
 
     const names = async (query: string) =>
@@ -457,7 +567,10 @@ describe('deleting what scenarios use', () => {
   it('refuses to delete a route used by scenarios, naming how many', async () => {
     const route = await aRoute();
     await request(app).post('/api/scenarios').set('Cookie', planner).send(aScenarioDraft(route.id));
-    await request(app).post('/api/scenarios').set('Cookie', planner).send(aScenarioDraft(route.id, { name: 'Second' }));
+    await request(app)
+      .post('/api/scenarios')
+      .set('Cookie', planner)
+      .send(aScenarioDraft(route.id, { name: 'Second' }));
 
     const response = await request(app).delete(`/api/routes/${route.id}`).set('Cookie', planner);
 
@@ -470,7 +583,9 @@ describe('deleting what scenarios use', () => {
     const route = await aRoute();
     const scenario = (await request(app).post('/api/scenarios').set('Cookie', planner).send(aScenarioDraft(route.id))).body;
 
-    const deleted = await request(app).delete(`/api/scenarios/${scenario.id}`).set('Cookie', await cookieFor('analyst'));
+    const deleted = await request(app)
+      .delete(`/api/scenarios/${scenario.id}`)
+      .set('Cookie', await cookieFor('analyst'));
     const routeDeleted = await request(app).delete(`/api/routes/${route.id}`).set('Cookie', planner);
 
     expect(deleted.status).toBe(204);
@@ -511,4 +626,3 @@ function aScenarioDraft(routeId: string, overrides: Partial<ScenarioDraftInput> 
     ...overrides,
   };
 }
-

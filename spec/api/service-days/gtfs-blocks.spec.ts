@@ -26,11 +26,13 @@ afterAll(() => context.close());
  */
 const FEED: Record<string, string> = {
   'routes.txt': 'route_id,route_short_name,route_long_name,route_type\nr1,1,Valley Line,3\n',
-  'calendar.txt': 'service_id,monday,tuesday,wednesday,thursday,friday,saturday,sunday,start_date,end_date\nwk,1,1,1,1,1,0,0,20260101,20261231\nsu,0,0,0,0,0,0,1,20260101,20261231\n',
+  'calendar.txt':
+    'service_id,monday,tuesday,wednesday,thursday,friday,saturday,sunday,start_date,end_date\nwk,1,1,1,1,1,0,0,20260101,20261231\nsu,0,0,0,0,0,0,1,20260101,20261231\n',
   'trips.txt':
     'route_id,service_id,trip_id,direction_id,shape_id,block_id\n' +
     'r1,wk,t1,0,up,A\nr1,wk,t2,1,down,A\nr1,wk,t3,0,up,A\nr1,wk,t4,0,up,B\nr1,wk,t5,1,down,\nr1,su,t9,0,up,A\nr1,wk,t6,0,up,A\n',
-  'shapes.txt': 'shape_id,shape_pt_lat,shape_pt_lon,shape_pt_sequence\nup,46.50,9.00,1\nup,46.51,9.00,2\ndown,46.51,9.00,1\ndown,46.50,9.00,2\n',
+  'shapes.txt':
+    'shape_id,shape_pt_lat,shape_pt_lon,shape_pt_sequence\nup,46.50,9.00,1\nup,46.51,9.00,2\ndown,46.51,9.00,1\ndown,46.50,9.00,2\n',
   'stops.txt': 'stop_id,stop_name,stop_lat,stop_lon\nL,Lower,46.50,9.00\nU,Upper,46.51,9.00\n',
   'stop_times.txt':
     'trip_id,arrival_time,departure_time,stop_id,stop_sequence\n' +
@@ -52,7 +54,10 @@ async function feed(overrides: Record<string, string> = {}): Promise<Buffer> {
 describe('POST /api/service-days/gtfs-blocks', () => {
   it('builds the weekday blocks in time order on the imported route, direction_id mapped to outbound and inbound', async () => {
     const zip = await feed();
-    const imported = await request(app).post('/api/routes/import-gtfs').set('Cookie', await cookieFor('planner')).attach('file', zip, 'valley.zip');
+    const imported = await request(app)
+      .post('/api/routes/import-gtfs')
+      .set('Cookie', await cookieFor('planner'))
+      .attach('file', zip, 'valley.zip');
     expect(imported.status).toBe(201);
     const routeId = imported.body.items[0].id as string;
 
@@ -95,8 +100,17 @@ describe('POST /api/service-days/gtfs-blocks', () => {
 
   it('answers 400 naming the service when no trip runs on it, and when the service field is missing', async () => {
     const analyst = await cookieFor('analyst');
-    const unknown = await request(app).post('/api/service-days/gtfs-blocks').set('Cookie', analyst).field('serviceId', 'holiday').field('vehicleProfileId', BUS).attach('file', await feed(), 'valley.zip');
-    const missing = await request(app).post('/api/service-days/gtfs-blocks').set('Cookie', analyst).field('vehicleProfileId', BUS).attach('file', await feed(), 'valley.zip');
+    const unknown = await request(app)
+      .post('/api/service-days/gtfs-blocks')
+      .set('Cookie', analyst)
+      .field('serviceId', 'holiday')
+      .field('vehicleProfileId', BUS)
+      .attach('file', await feed(), 'valley.zip');
+    const missing = await request(app)
+      .post('/api/service-days/gtfs-blocks')
+      .set('Cookie', analyst)
+      .field('vehicleProfileId', BUS)
+      .attach('file', await feed(), 'valley.zip');
 
     expect(unknown.status).toBe(400);
     expect(unknown.body.error.message).toContain('no trip runs on service "holiday"');
@@ -107,7 +121,10 @@ describe('POST /api/service-days/gtfs-blocks', () => {
 
 describe('POST /api/service-days/gtfs-services', () => {
   it('lists each service_id of trips.txt with its trips, trips with a block_id and blocks', async () => {
-    const response = await request(app).post('/api/service-days/gtfs-services').set('Cookie', await cookieFor('analyst')).attach('file', await feed(), 'valley.zip');
+    const response = await request(app)
+      .post('/api/service-days/gtfs-services')
+      .set('Cookie', await cookieFor('analyst'))
+      .attach('file', await feed(), 'valley.zip');
 
     expect(response.status).toBe(200);
     expect(response.body.services).toEqual([
@@ -120,8 +137,14 @@ describe('POST /api/service-days/gtfs-services', () => {
     const analyst = await cookieFor('analyst');
     const zip = new JSZip();
     zip.file('stops.txt', FEED['stops.txt']!);
-    const noTrips = await request(app).post('/api/service-days/gtfs-services').set('Cookie', analyst).attach('file', await zip.generateAsync({ type: 'nodebuffer' }), 'stops-only.zip');
-    const notZip = await request(app).post('/api/service-days/gtfs-services').set('Cookie', analyst).attach('file', Buffer.from('route_id\n'), 'trips.txt');
+    const noTrips = await request(app)
+      .post('/api/service-days/gtfs-services')
+      .set('Cookie', analyst)
+      .attach('file', await zip.generateAsync({ type: 'nodebuffer' }), 'stops-only.zip');
+    const notZip = await request(app)
+      .post('/api/service-days/gtfs-services')
+      .set('Cookie', analyst)
+      .attach('file', Buffer.from('route_id\n'), 'trips.txt');
 
     expect(noTrips.status).toBe(400);
     expect(noTrips.body.error.message).toContain('stops-only.zip/trips.txt');

@@ -36,8 +36,24 @@ function aDay(routeId: string): ServiceDayDraftInput {
     batteryAge: 'end-of-life',
     reserveSoc: 0.15,
     chargers: [
-      { key: 'depot', name: 'Brackenfold depot', kind: 'depot', position: [depot.lon, depot.lat], powerW: 100_000, efficiency: 0.92, targetSoc: 0.95 },
-      { key: 'tarn', name: 'Upper Tarn terminus', kind: 'terminus', position: [terminus.lon, terminus.lat], powerW: 300_000, efficiency: 0.9, targetSoc: 0.9 },
+      {
+        key: 'depot',
+        name: 'Brackenfold depot',
+        kind: 'depot',
+        position: [depot.lon, depot.lat],
+        powerW: 100_000,
+        efficiency: 0.92,
+        targetSoc: 0.95,
+      },
+      {
+        key: 'tarn',
+        name: 'Upper Tarn terminus',
+        kind: 'terminus',
+        position: [terminus.lon, terminus.lat],
+        powerW: 300_000,
+        efficiency: 0.9,
+        targetSoc: 0.9,
+      },
     ],
     blocks: [
       {
@@ -70,21 +86,31 @@ function aDay(routeId: string): ServiceDayDraftInput {
 
 describe('the service-day report (PDF)', () => {
   it('is a 404 naming the problem before the day has been run', async () => {
-    const route = await request(app).post('/api/routes').set('Cookie', await cookieFor('planner')).send(aRouteDraft());
+    const route = await request(app)
+      .post('/api/routes')
+      .set('Cookie', await cookieFor('planner'))
+      .send(aRouteDraft());
     const day = await request(app).post('/api/service-days').set('Cookie', analyst).send(aDay(route.body.id));
 
-    const response = await request(app).get(`/api/service-days/${day.body.id}/report.pdf`).set('Cookie', await cookieFor('board'));
+    const response = await request(app)
+      .get(`/api/service-days/${day.body.id}/report.pdf`)
+      .set('Cookie', await cookieFor('board'));
 
     expect(response.status).toBe(404);
     expect(response.body.error.message).toMatch(/not been run/);
   });
 
   it('says on A4 what the result says: blocks that cannot be worked first, charging, cautions, all inside the margins', async () => {
-    const route = await request(app).post('/api/routes').set('Cookie', await cookieFor('planner')).send(aRouteDraft());
+    const route = await request(app)
+      .post('/api/routes')
+      .set('Cookie', await cookieFor('planner'))
+      .send(aRouteDraft());
     const day = await request(app).post('/api/service-days').set('Cookie', analyst).send(aDay(route.body.id));
     await request(app).post(`/api/service-days/${day.body.id}/run`).set('Cookie', analyst).expect(202);
     await waitForInlineServiceDayRuns(context.deps);
-    const result = serviceDayResultSchema.parse((await request(app).get(`/api/service-days/${day.body.id}/result`).set('Cookie', analyst)).body);
+    const result = serviceDayResultSchema.parse(
+      (await request(app).get(`/api/service-days/${day.body.id}/result`).set('Cookie', analyst)).body,
+    );
 
     const response = await request(app)
       .get(`/api/service-days/${day.body.id}/report.pdf`)

@@ -26,7 +26,10 @@ beforeEach(async () => {
 afterAll(() => context.close());
 
 async function aRoute(): Promise<{ id: string }> {
-  const response = await request(app).post('/api/routes').set('Cookie', await cookieFor('planner')).send(aRouteDraft());
+  const response = await request(app)
+    .post('/api/routes')
+    .set('Cookie', await cookieFor('planner'))
+    .send(aRouteDraft());
   if (response.status !== 201) throw new Error(`route: ${response.status} ${response.text}`);
   return response.body as { id: string };
 }
@@ -40,8 +43,24 @@ function aDay(routeId: string, overrides: Partial<ServiceDayDraftInput> = {}): S
     dayType: 'weekday',
     season: 'winter',
     chargers: [
-      { key: 'depot', name: 'West depot', kind: 'depot', position: [depot.lon, depot.lat], powerW: 100_000, efficiency: 0.92, targetSoc: 0.95 },
-      { key: 'east', name: 'East terminus', kind: 'terminus', position: [terminus.lon, terminus.lat], powerW: 300_000, efficiency: 0.9, targetSoc: 0.9 },
+      {
+        key: 'depot',
+        name: 'West depot',
+        kind: 'depot',
+        position: [depot.lon, depot.lat],
+        powerW: 100_000,
+        efficiency: 0.92,
+        targetSoc: 0.95,
+      },
+      {
+        key: 'east',
+        name: 'East terminus',
+        kind: 'terminus',
+        position: [terminus.lon, terminus.lat],
+        powerW: 300_000,
+        efficiency: 0.9,
+        targetSoc: 0.9,
+      },
     ],
     blocks: [
       {
@@ -85,10 +104,18 @@ describe('saving service days', () => {
     expect(created.headers['location']).toBe(`/api/service-days/${day.id}`);
     expect(day).toMatchObject({ name: 'Winter weekday', status: null, isStale: false, reserveSoc: 0.15, batteryAge: 'beginning-of-life' });
     expect(day.blocks.map((block) => block.trips.length)).toEqual([4, 2]);
-    const read = await request(app).get(`/api/service-days/${day.id}`).set('Cookie', await cookieFor('board'));
+    const read = await request(app)
+      .get(`/api/service-days/${day.id}`)
+      .set('Cookie', await cookieFor('board'));
     expect(read.status).toBe(200);
     expect(read.body.chargers.map((charger: { key: string }) => charger.key)).toEqual(['depot', 'east']);
-    const list = serviceDayListSchema.parse((await request(app).get('/api/service-days').set('Cookie', await cookieFor('safety'))).body);
+    const list = serviceDayListSchema.parse(
+      (
+        await request(app)
+          .get('/api/service-days')
+          .set('Cookie', await cookieFor('safety'))
+      ).body,
+    );
     expect(list.items).toHaveLength(1);
     expect(list.items[0]).toMatchObject({ id: day.id, blockCount: 2, tripCount: 6 });
   });
@@ -144,10 +171,16 @@ describe('saving service days', () => {
   it('lets analysts and admins write, and refuses planners, safety officers and the board', async () => {
     const route = await aRoute();
     for (const role of ['planner', 'safety', 'board'] as const) {
-      const refused = await request(app).post('/api/service-days').set('Cookie', await cookieFor(role)).send(aDay(route.id));
+      const refused = await request(app)
+        .post('/api/service-days')
+        .set('Cookie', await cookieFor(role))
+        .send(aDay(route.id));
       expect(refused.status, role).toBe(403);
     }
-    const byAdmin = await request(app).post('/api/service-days').set('Cookie', await cookieFor('admin')).send(aDay(route.id));
+    const byAdmin = await request(app)
+      .post('/api/service-days')
+      .set('Cookie', await cookieFor('admin'))
+      .send(aDay(route.id));
     expect(byAdmin.status).toBe(201);
   });
 
@@ -162,7 +195,11 @@ describe('saving service days', () => {
     const restored = await request(app).post(`/api/service-days/${day.id}/restore`).set('Cookie', analyst);
     expect(restored.status).toBe(200);
     expect((await request(app).get(`/api/service-days/${day.id}`).set('Cookie', analyst)).status).toBe(200);
-    const audit = (await request(app).get(`/api/audit-log?entityId=${day.id}`).set('Cookie', await cookieFor('admin'))).body;
+    const audit = (
+      await request(app)
+        .get(`/api/audit-log?entityId=${day.id}`)
+        .set('Cookie', await cookieFor('admin'))
+    ).body;
     expect(audit.items.map((event: { action: string }) => event.action).sort()).toEqual(['create', 'delete', 'restore']);
   });
 });
@@ -182,7 +219,9 @@ describe('running a service day', () => {
 
     const after = serviceDaySchema.parse((await request(app).get(`/api/service-days/${day.id}`).set('Cookie', analyst)).body);
     expect(after).toMatchObject({ status: 'done', isStale: false, failureReason: null });
-    const response = await request(app).get(`/api/service-days/${day.id}/result`).set('Cookie', await cookieFor('board'));
+    const response = await request(app)
+      .get(`/api/service-days/${day.id}/result`)
+      .set('Cookie', await cookieFor('board'));
     expect(response.status).toBe(200);
     const result = serviceDayResultSchema.parse(response.body);
     expect(result.engineVersion).toBe(ENGINE_VERSION);
@@ -207,7 +246,10 @@ describe('running a service day', () => {
     await request(app).post(`/api/service-days/${day.id}/run`).set('Cookie', analyst);
     await waitForInlineServiceDayRuns(context.deps);
 
-    const changed = await request(app).put(`/api/service-days/${day.id}`).set('Cookie', analyst).send(aDay(route.id, { name: 'Winter weekday, late' }));
+    const changed = await request(app)
+      .put(`/api/service-days/${day.id}`)
+      .set('Cookie', analyst)
+      .send(aDay(route.id, { name: 'Winter weekday, late' }));
 
     expect(changed.status).toBe(200);
     expect(changed.body).toMatchObject({ name: 'Winter weekday, late', isStale: true, status: 'done' });
@@ -222,7 +264,9 @@ describe('running a service day', () => {
     await waitForInlineServiceDayRuns(context.deps);
     const result = serviceDayResultSchema.parse((await request(app).get(`/api/service-days/${day.id}/result`).set('Cookie', analyst)).body);
 
-    const response = await request(app).get(`/api/service-days/${day.id}/result.csv`).set('Cookie', await cookieFor('planner'));
+    const response = await request(app)
+      .get(`/api/service-days/${day.id}/result.csv`)
+      .set('Cookie', await cookieFor('planner'));
 
     expect(response.status).toBe(200);
     expect(response.headers['content-type']).toContain('text/csv');
@@ -247,7 +291,12 @@ describe('the board summary’s annual basis', () => {
     expect(before.annual.basis).toBe('scenarios');
     expect(before.annual.basisText).toContain('No service day is in service');
 
-    const day = (await request(app).post('/api/service-days').set('Cookie', analyst).send(aDay(route.id, { inService: true }))).body;
+    const day = (
+      await request(app)
+        .post('/api/service-days')
+        .set('Cookie', analyst)
+        .send(aDay(route.id, { inService: true }))
+    ).body;
     await request(app).post(`/api/service-days/${day.id}/run`).set('Cookie', analyst);
     await waitForInlineServiceDayRuns(context.deps);
     const result = serviceDayResultSchema.parse((await request(app).get(`/api/service-days/${day.id}/result`).set('Cookie', analyst)).body);
@@ -285,7 +334,10 @@ describe('the board summary’s annual basis', () => {
     const { isPlaceholder: _p, updatedAt: _u, updatedByName: _n, ...settings } = current;
     const dayCounts = { ...current.dayCounts, weekday: { winter: 70, mild: 125, summer: 63 } };
 
-    const refused = await request(app).put('/api/settings/network').set('Cookie', admin).send({ ...settings, dayCounts });
+    const refused = await request(app)
+      .put('/api/settings/network')
+      .set('Cookie', admin)
+      .send({ ...settings, dayCounts });
 
     expect(refused.status).toBe(422);
     expect(refused.body.error.message).toContain('add up to 373');

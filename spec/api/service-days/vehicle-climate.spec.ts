@@ -18,7 +18,11 @@ beforeEach(async () => {
 afterAll(() => context.close());
 
 async function presetDraft() {
-  const preset = (await request(app).get(`/api/vehicles/${presetProfileId('battery-bus-12m')}`).set('Cookie', analyst)).body;
+  const preset = (
+    await request(app)
+      .get(`/api/vehicles/${presetProfileId('battery-bus-12m')}`)
+      .set('Cookie', analyst)
+  ).body;
   const { name, description, vehicleClass, vehicle, loadsKg, passengerMassKg, seasons } = preset;
   return { name: `${name} (own)`, description, vehicleClass, vehicle, loadsKg, passengerMassKg, seasons };
 }
@@ -26,7 +30,15 @@ async function presetDraft() {
 describe('vehicle profiles: battery ageing and cabin climate', () => {
   it('stores end-of-life fractions and a cabin climate, keeps the climate when a change leaves it out, and clears it with null', async () => {
     const draft = await presetDraft();
-    const climate = { heatPumpHeatW: 18_000, heatPumpCop: [{ ambientC: -10, cop: 1.8 }, { ambientC: 7, cop: 2.6 }], heatPumpMinAmbientC: -12, baseLoadW: 2_500 };
+    const climate = {
+      heatPumpHeatW: 18_000,
+      heatPumpCop: [
+        { ambientC: -10, cop: 1.8 },
+        { ambientC: 7, cop: 2.6 },
+      ],
+      heatPumpMinAmbientC: -12,
+      baseLoadW: 2_500,
+    };
     const created = await request(app)
       .post('/api/vehicles')
       .set('Cookie', analyst)
@@ -36,11 +48,17 @@ describe('vehicle profiles: battery ageing and cabin climate', () => {
     expect(profile.climate).toEqual(climate);
     expect(profile.vehicle.endOfLifeCapacityFraction).toBe(0.75);
 
-    const changed = await request(app).put(`/api/vehicles/${profile.id}`).set('Cookie', analyst).send({ ...draft, name: 'Renamed bus' });
+    const changed = await request(app)
+      .put(`/api/vehicles/${profile.id}`)
+      .set('Cookie', analyst)
+      .send({ ...draft, name: 'Renamed bus' });
     expect(changed.status).toBe(200);
     expect(changed.body.climate).toEqual(climate);
 
-    const cleared = await request(app).put(`/api/vehicles/${profile.id}`).set('Cookie', analyst).send({ ...draft, climate: null });
+    const cleared = await request(app)
+      .put(`/api/vehicles/${profile.id}`)
+      .set('Cookie', analyst)
+      .send({ ...draft, climate: null });
     expect(cleared.body.climate).toBeNull();
   });
 
@@ -49,7 +67,15 @@ describe('vehicle profiles: battery ageing and cabin climate', () => {
     const response = await request(app)
       .post('/api/vehicles')
       .set('Cookie', analyst)
-      .send({ ...draft, climate: { heatPumpCop: [{ ambientC: 7, cop: 2.6 }, { ambientC: -10, cop: 1.8 }] } });
+      .send({
+        ...draft,
+        climate: {
+          heatPumpCop: [
+            { ambientC: 7, cop: 2.6 },
+            { ambientC: -10, cop: 1.8 },
+          ],
+        },
+      });
     expect(response.status).toBe(400);
     expect(JSON.stringify(response.body.error)).toContain('heatPumpCop');
   });

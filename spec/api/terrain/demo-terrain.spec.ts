@@ -34,7 +34,10 @@ describe('demo terrain (Korvel valley)', () => {
     const path = join(temp.dir, 'demo.tif');
     writeFileSync(path, makeDemoTerrainTiff());
 
-    const info = gdalInfo(path, true) as ReturnType<typeof gdalInfo> & { metadata?: Record<string, Record<string, string>>; coordinateSystem?: { wkt: string } };
+    const info = gdalInfo(path, true) as ReturnType<typeof gdalInfo> & {
+      metadata?: Record<string, Record<string, string>>;
+      coordinateSystem?: { wkt: string };
+    };
 
     expect(info.size).toEqual([800, 600]);
     expect(info.coordinateSystem?.wkt).toContain('UTM zone 32N');

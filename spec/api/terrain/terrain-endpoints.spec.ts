@@ -143,11 +143,14 @@ describe.skipIf(!hasGdal)('terrain endpoints', () => {
         label: 'a TIFF without georeferencing',
         make: () => {
           const path = join(temp.dir, 'plain.tif');
-          python(`
+          python(
+            `
 import sys; import numpy as np; from osgeo import gdal
 ds = gdal.GetDriverByName('GTiff').Create(sys.argv[1], 20, 20, 1, gdal.GDT_Float32)
 ds.GetRasterBand(1).WriteArray(np.ones((20, 20), dtype=np.float32)); ds = None
-print('{}')`, [path]);
+print('{}')`,
+            [path],
+          );
           return path;
         },
         status: 400,
@@ -157,13 +160,16 @@ print('{}')`, [path]);
         label: 'a CRS without an EPSG code',
         make: () => {
           const path = join(temp.dir, 'custom-crs.tif');
-          python(`
+          python(
+            `
 import sys; import numpy as np; from osgeo import gdal, osr
 ds = gdal.GetDriverByName('GTiff').Create(sys.argv[1], 20, 20, 1, gdal.GDT_Float32)
 srs = osr.SpatialReference(); srs.ImportFromProj4('+proj=tmerc +lat_0=0 +lon_0=7.3 +k=1 +x_0=0 +y_0=0 +ellps=GRS80 +units=m')
 ds.SetProjection(srs.ExportToWkt()); ds.SetGeoTransform((1000, 10, 0, 5000000, 0, -10))
 ds.GetRasterBand(1).WriteArray(np.ones((20, 20), dtype=np.float32)); ds = None
-print('{}')`, [path]);
+print('{}')`,
+            [path],
+          );
           return path;
         },
         status: 422,
@@ -174,13 +180,16 @@ print('{}')`, [path]);
         make: () => {
           const path = join(temp.dir, 'unknown-epsg.tif');
           // EPSG:5714 is a vertical CRS (mean sea level height): not a horizontal grid.
-          python(`
+          python(
+            `
 import sys; import numpy as np; from osgeo import gdal, osr
 ds = gdal.GetDriverByName('GTiff').Create(sys.argv[1], 20, 20, 1, gdal.GDT_Float32)
 srs = osr.SpatialReference(); srs.ImportFromEPSG(32632); ds.SetProjection(srs.ExportToWkt())
 ds.SetGeoTransform((600000, 10, 0, 5000000, 0, -10))
 ds.GetRasterBand(1).WriteArray(np.ones((20, 20), dtype=np.float32)); ds = None
-print('{}')`, [path]);
+print('{}')`,
+            [path],
+          );
           patchProjectedCsKey(path, 5714);
           return path;
         },
@@ -191,13 +200,16 @@ print('{}')`, [path]);
         label: 'a Byte raster',
         make: () => {
           const path = join(temp.dir, 'byte.tif');
-          python(`
+          python(
+            `
 import sys; import numpy as np; from osgeo import gdal, osr
 ds = gdal.GetDriverByName('GTiff').Create(sys.argv[1], 20, 20, 1, gdal.GDT_Byte)
 srs = osr.SpatialReference(); srs.ImportFromEPSG(32632); ds.SetProjection(srs.ExportToWkt())
 ds.SetGeoTransform((600000, 10, 0, 5000000, 0, -10))
 ds.GetRasterBand(1).WriteArray(np.ones((20, 20), dtype=np.uint8)); ds = None
-print('{}')`, [path]);
+print('{}')`,
+            [path],
+          );
           return path;
         },
         status: 422,
@@ -207,12 +219,15 @@ print('{}')`, [path]);
         label: 'a grid beyond TERRAIN_MAX_PIXELS (decompression bomb)',
         make: () => {
           const path = join(temp.dir, 'bomb.tif');
-          python(`
+          python(
+            `
 import sys; from osgeo import gdal, osr
 ds = gdal.GetDriverByName('GTiff').Create(sys.argv[1], 3000, 3000, 1, gdal.GDT_Float32, options=['TILED=YES', 'COMPRESS=DEFLATE', 'SPARSE_OK=TRUE'])
 srs = osr.SpatialReference(); srs.ImportFromEPSG(32632); ds.SetProjection(srs.ExportToWkt())
 ds.SetGeoTransform((600000, 10, 0, 5000000, 0, -10)); ds = None
-print('{}')`, [path]);
+print('{}')`,
+            [path],
+          );
           return path;
         },
         status: 413,
@@ -353,7 +368,9 @@ print('{}')`, [path]);
       expect(opaqueShare(PNG.sync.read(empty.body as Buffer))).toBe(0);
       expect(anonymous.status).toBe(401);
       // The disk cache is written after the answer.
-      await expect.poll(() => filesUnder(join(dataDir, 'tiles')).some((f) => f.endsWith(`14/${x}/${y}.png`)), { timeout: 5_000 }).toBe(true);
+      await expect
+        .poll(() => filesUnder(join(dataDir, 'tiles')).some((f) => f.endsWith(`14/${x}/${y}.png`)), { timeout: 5_000 })
+        .toBe(true);
     });
 
     it('lets the browser keep a tile for a day when the URL names the current catalogue version', async () => {
@@ -405,7 +422,8 @@ print('{}')`, [path]);
 
 /** Rewrites the EPSG code in ProjectedCSTypeGeoKey (3072) of a little-endian classic TIFF. */
 function patchProjectedCsKey(path: string, code: number): void {
-  python(`
+  python(
+    `
 import sys
 from osgeo import gdal
 gdal.UseExceptions()
@@ -425,7 +443,9 @@ for i in range(count):
             if key == 3072:
                 struct.pack_into('<H', data, keys + 8 + 8 * k + 6, code)
 open(path, 'wb').write(bytes(data))
-print('{}')`, [path, String(code)]);
+print('{}')`,
+    [path, String(code)],
+  );
 }
 
 function tileOf(lon: number, lat: number, z: number): [number, number] {

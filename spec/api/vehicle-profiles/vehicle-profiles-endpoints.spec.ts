@@ -67,7 +67,11 @@ describe('POST /api/vehicles', () => {
     const response = await request(app)
       .post('/api/vehicles')
       .set('Cookie', analyst)
-      .send({ ...draft, vehicle: { ...draft.vehicle, permissibleGrossMassKg: 19_500 }, loadsKg: { ...draft.loadsKg, 'full-standing': 6_500 } });
+      .send({
+        ...draft,
+        vehicle: { ...draft.vehicle, permissibleGrossMassKg: 19_500 },
+        loadsKg: { ...draft.loadsKg, 'full-standing': 6_500 },
+      });
 
     expect(response.status).toBe(400);
     expect(response.body.error.message).toMatch(/loadsKg\.full-standing/);
@@ -76,7 +80,10 @@ describe('POST /api/vehicles', () => {
   });
 
   it('answers 403 to a planner', async () => {
-    const response = await request(app).post('/api/vehicles').set('Cookie', await cookieFor('planner')).send(aProfileDraft());
+    const response = await request(app)
+      .post('/api/vehicles')
+      .set('Cookie', await cookieFor('planner'))
+      .send(aProfileDraft());
 
     expect(response.status).toBe(403);
   });
@@ -111,7 +118,10 @@ describe('PUT and DELETE /api/vehicles/:vehicleProfileId', () => {
     const created = (await request(app).post('/api/vehicles').set('Cookie', analyst).send(aProfileDraft())).body;
     const planner = await cookieFor('planner');
     const route = (await request(app).post('/api/routes').set('Cookie', planner).send(aRouteDraft())).body;
-    await request(app).post('/api/scenarios').set('Cookie', planner).send({ name: 'Uses it', routeId: route.id, vehicleProfileId: created.id });
+    await request(app)
+      .post('/api/scenarios')
+      .set('Cookie', planner)
+      .send({ name: 'Uses it', routeId: route.id, vehicleProfileId: created.id });
 
     const response = await request(app).delete(`/api/vehicles/${created.id}`).set('Cookie', analyst);
 
@@ -134,12 +144,16 @@ describe('GET /api/vehicles/:vehicleProfileId/capability', () => {
   it('uses the mass of the chosen load case', async () => {
     const id = presetProfileId('battery-bus-12m');
 
-    const response = await request(app).get(`/api/vehicles/${id}/capability?load=full-standing&season=winter`).set('Cookie', await cookieFor('board'));
+    const response = await request(app)
+      .get(`/api/vehicles/${id}/capability?load=full-standing&season=winter`)
+      .set('Cookie', await cookieFor('board'));
 
     expect(response.status).toBe(200);
     expect(response.body.massKg).toBe(13_500 + 5_950);
     expect(response.body.speedsMps).toHaveLength(response.body.tractionEnvelopeN.length);
-    const flat = response.body.curves.find((curve: { gradePercent: number; accelerationMps2: number }) => curve.gradePercent === 0 && curve.accelerationMps2 === 0);
+    const flat = response.body.curves.find(
+      (curve: { gradePercent: number; accelerationMps2: number }) => curve.gradePercent === 0 && curve.accelerationMps2 === 0,
+    );
     // At 5 m/s on the flat: rolling 0.007 × 19 450 kg × 9.80665 m/s² plus drag ½·ρ·0.7·8 m²·(5 m/s)²,
     // ρ = 101 325 Pa / (287.05 × 268.15 K) in the −5 °C winter air at sea level.
     expect(response.body.speedsMps[10]).toBe(5);
@@ -148,7 +162,9 @@ describe('GET /api/vehicles/:vehicleProfileId/capability', () => {
   });
 
   it('answers 400 naming the field for an unknown load case', async () => {
-    const response = await request(app).get(`/api/vehicles/${presetProfileId('battery-bus-12m')}/capability?load=heavy`).set('Cookie', analyst);
+    const response = await request(app)
+      .get(`/api/vehicles/${presetProfileId('battery-bus-12m')}/capability?load=heavy`)
+      .set('Cookie', analyst);
 
     expect(response.status).toBe(400);
     expect(response.body.error.message).toMatch(/load/);
@@ -177,7 +193,11 @@ function aProfileDraft(overrides: Partial<VehicleProfileDraftInput> = {}): Vehic
       auxPowerW: 6_000,
     },
     loadsKg: { empty: 0, seated: 2_100, 'full-standing': 5_950 },
-    seasons: { winter: { ambientC: -8, auxPowerW: 24_000 }, mild: { ambientC: 8, auxPowerW: 6_000 }, summer: { ambientC: 24, auxPowerW: 13_000 } },
+    seasons: {
+      winter: { ambientC: -8, auxPowerW: 24_000 },
+      mild: { ambientC: 8, auxPowerW: 6_000 },
+      summer: { ambientC: 24, auxPowerW: 13_000 },
+    },
     ...overrides,
   };
 }

@@ -56,9 +56,7 @@ export async function screenshot(page: Page, name: string): Promise<void> {
 
 /** Waits for running CSS animations (a sliding side navigation) to end before a screenshot. */
 export async function settleAnimations(page: Page): Promise<void> {
-  await page.waitForFunction(() =>
-    document.getAnimations().every((animation) => animation.playState !== 'running'),
-  );
+  await page.waitForFunction(() => document.getAnimations().every((animation) => animation.playState !== 'running'));
 }
 
 /**
@@ -66,11 +64,7 @@ export async function settleAnimations(page: Page): Promise<void> {
  * Map layers and tables change a frame or two after the click that changes them, so a
  * count read at once can still see the old state.
  */
-export async function waitForCount(
-  locator: Locator,
-  predicate: number | ((count: number) => boolean),
-  timeoutMs = 5_000,
-): Promise<number> {
+export async function waitForCount(locator: Locator, predicate: number | ((count: number) => boolean), timeoutMs = 5_000): Promise<number> {
   const holds = typeof predicate === 'number' ? (count: number) => count === predicate : predicate;
   const deadline = Date.now() + timeoutMs;
   let count = await locator.count();

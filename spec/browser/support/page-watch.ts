@@ -38,12 +38,18 @@ export class PageWatch {
   };
   private readonly onResponse = (response: Response) => {
     if (response.status() >= 400) {
-      this.problems.push({ kind: 'failed request', detail: `${response.request().method()} ${pathOf(response.url())} ${response.status()}` });
+      this.problems.push({
+        kind: 'failed request',
+        detail: `${response.request().method()} ${pathOf(response.url())} ${response.status()}`,
+      });
     }
   };
   private readonly onRequestFailed = (request: Request) => {
     this.onRequestDone();
-    this.problems.push({ kind: 'aborted request', detail: `${request.method()} ${pathOf(request.url())} ${request.failure()?.errorText ?? ''}` });
+    this.problems.push({
+      kind: 'aborted request',
+      detail: `${request.method()} ${pathOf(request.url())} ${request.failure()?.errorText ?? ''}`,
+    });
   };
 
   constructor(private readonly page: Page) {

@@ -41,7 +41,13 @@ describe('optionsSchema', () => {
 describe('previewRequestSchema', () => {
   it('accepts positions with and without elevation', () => {
     const result = previewRequestSchema.safeParse({
-      route: { type: 'LineString', coordinates: [[8, 46], [8.01, 46.01, 500]] },
+      route: {
+        type: 'LineString',
+        coordinates: [
+          [8, 46],
+          [8.01, 46.01, 500],
+        ],
+      },
       vehicle: aWorkedExampleBus(),
     });
 
@@ -49,7 +55,16 @@ describe('previewRequestSchema', () => {
   });
 
   it('rejects a latitude beyond 90°', () => {
-    const result = previewRequestSchema.safeParse({ route: { type: 'LineString', coordinates: [[8, 91], [8, 46]] }, vehicle: aWorkedExampleBus() });
+    const result = previewRequestSchema.safeParse({
+      route: {
+        type: 'LineString',
+        coordinates: [
+          [8, 91],
+          [8, 46],
+        ],
+      },
+      vehicle: aWorkedExampleBus(),
+    });
 
     expect(result.success).toBe(false);
   });
@@ -95,7 +110,17 @@ describe('descentSchema on results stored before the safety-grade assessment', (
       risk: 'critical',
       maxSafeSpeedKph: 6,
       speedAdvice: 'limit',
-      conditions: { regenerationAvailable: true, brakingResistorAvailable: false, retarderAvailable: false, socAtTop: 0.95, massKg: 19_500, massBasis: 'permissible-gross-mass', ambientC: 35, brakeTempAtTopC: 35, surface: 'dry' },
+      conditions: {
+        regenerationAvailable: true,
+        brakingResistorAvailable: false,
+        retarderAvailable: false,
+        socAtTop: 0.95,
+        massKg: 19_500,
+        massBasis: 'permissible-gross-mass',
+        ambientC: 35,
+        brakeTempAtTopC: 35,
+        surface: 'dry',
+      },
     };
 
     expect(() => descentSchema.parse({ ...stored, worstCase })).toThrow(/regenerationAvailable/);
@@ -108,10 +133,14 @@ describe('vehicleSchema permissible gross mass', () => {
     expect(() => vehicleSchema.parse(aWorkedExampleBus({ curbMassKg: 13_500, payloadKg: 6_100, permissibleGrossMassKg: 19_500 }))).toThrow(
       /payloadKg[\s\S]*19600 kg \(curb \+ payload\) exceeds the permissible gross mass of 19500 kg/,
     );
-    expect(() => vehicleSchema.parse(aWorkedExampleBus({ curbMassKg: 13_500, payloadKg: 6_000, permissibleGrossMassKg: 19_500 }))).not.toThrow();
+    expect(() =>
+      vehicleSchema.parse(aWorkedExampleBus({ curbMassKg: 13_500, payloadKg: 6_000, permissibleGrossMassKg: 19_500 })),
+    ).not.toThrow();
   });
 
   it('refuses a continuous regeneration rating above the peak', () => {
-    expect(() => vehicleSchema.parse(aWorkedExampleBus({ regenPowerW: 100_000, regenContinuousPowerW: 120_000 }))).toThrow(/regenContinuousPowerW/);
+    expect(() => vehicleSchema.parse(aWorkedExampleBus({ regenPowerW: 100_000, regenContinuousPowerW: 120_000 }))).toThrow(
+      /regenContinuousPowerW/,
+    );
   });
 });

@@ -8,7 +8,11 @@ import type { PreviewRequestInput } from '../../../shared/domain/analysis';
 const requests: fc.Arbitrary<PreviewRequestInput> = fc
   .record({
     legs: fc.array(
-      fc.record({ lengthM: fc.double({ min: 20, max: 1_500, noNaN: true }), turnDeg: fc.double({ min: -120, max: 120, noNaN: true }), rise: fc.double({ min: -0.14, max: 0.14, noNaN: true }) }),
+      fc.record({
+        lengthM: fc.double({ min: 20, max: 1_500, noNaN: true }),
+        turnDeg: fc.double({ min: -120, max: 120, noNaN: true }),
+        rise: fc.double({ min: -0.14, max: 0.14, noNaN: true }),
+      }),
       { minLength: 1, maxLength: 8 },
     ),
     lat0: fc.double({ min: -70, max: 70, noNaN: true }),
@@ -119,7 +123,7 @@ describe('analyseRoute over random routes and vehicles (property-based)', () => 
         expect(response.summary.frictionBrakeEnergyWh).toBeGreaterThanOrEqual(0);
         response.profile.speedMps.forEach((v, i) => {
           expect(v).toBeLessThanOrEqual(model.limitMps[i]! + 1e-9);
-          expect(v).toBeLessThanOrEqual(request.options!.speedLimitKph as number / 3.6 + 1e-9);
+          expect(v).toBeLessThanOrEqual((request.options!.speedLimitKph as number) / 3.6 + 1e-9);
         });
       }),
       { numRuns: 60, seed: 20_261_202 },

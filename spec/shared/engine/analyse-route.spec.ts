@@ -12,7 +12,6 @@ import {
 } from '../../../shared/engine/index';
 import { aStraightRoute, aWorkedExampleBus, relativeError } from '../support/engine-builders';
 
-
 describe('analyseRoute', () => {
   describe('the full-battery descent of engine README §3.4 / §8 case 16', () => {
     // 800 m drop over 12 km of road at 30 km/h; horizontal length √(12 000² − 800²).
@@ -154,7 +153,8 @@ describe('analyseRoute', () => {
       const range = rangeOf(detailed, descent.startM, descent.endM);
       const start = stateAt(detailed.run, range.firstSegment);
       const limitC = descent.fadeThresholdC - descent.fadeMarginK!;
-      const peakAt = (soc: number) => replayDescent(detailed.model, detailed.run, range, null, soc, start.brakeTempC, { start }).peakGoverningC;
+      const peakAt = (soc: number) =>
+        replayDescent(detailed.model, detailed.run, range, null, soc, start.brakeTempC, { start }).peakGoverningC;
 
       expect(descent.maxTopSoc).not.toBeNull();
       expect(descent.maxTopSocReason).toBeNull();
@@ -232,9 +232,9 @@ describe('analyseRoute', () => {
     });
 
     it('throws naming route.coordinates when there is neither z nor a source', async () => {
-      await expect(analyseRoute({ route: { type: 'LineString', coordinates: flatCoordinates }, vehicle: aWorkedExampleBus() })).rejects.toThrow(
-        /route\.coordinates/,
-      );
+      await expect(
+        analyseRoute({ route: { type: 'LineString', coordinates: flatCoordinates }, vehicle: aWorkedExampleBus() }),
+      ).rejects.toThrow(/route\.coordinates/);
     });
   });
 
@@ -250,7 +250,17 @@ describe('analyseRoute', () => {
       ['options.spacingM', (r: PreviewRequestInput) => (r.options = { spacingM: 0 })],
       ['options.stops.0.atM', (r: PreviewRequestInput) => (r.options = { stops: [{ atM: 99_000 }] })],
       ['options.speedLimitKph', (r: PreviewRequestInput) => (r.options = { speedLimitKph: -5 })],
-      ['route.coordinates', (r: PreviewRequestInput) => (r.route = { type: 'LineString', coordinates: [[8, 46, 1], [8, 46, 1]] })],
+      [
+        'route.coordinates',
+        (r: PreviewRequestInput) =>
+          (r.route = {
+            type: 'LineString',
+            coordinates: [
+              [8, 46, 1],
+              [8, 46, 1],
+            ],
+          }),
+      ],
       ['route.coordinates', (r: PreviewRequestInput) => (r.route = { type: 'LineString', coordinates: [[8, 46, 1]] })],
     ])('throws a RangeError naming %s', async (field, spoil) => {
       const request = aMountainRequest();
@@ -289,7 +299,12 @@ function aLoop(): [number, number, number][] {
   const west = aStraightRoute(1_000, (s) => 950 - 0.075 * s, { lon0: lonN, lat0: latN, azimuthDeg: 270, vertexSpacingM: 100 });
   const [lonW] = west[west.length - 1]!;
   const start = east[0]!;
-  const back = aStraightRoute(1_000, (s) => 875 - 0.075 * s, { lon0: lonW, lat0: west[west.length - 1]![1], azimuthDeg: 180, vertexSpacingM: 100 });
+  const back = aStraightRoute(1_000, (s) => 875 - 0.075 * s, {
+    lon0: lonW,
+    lat0: west[west.length - 1]![1],
+    azimuthDeg: 180,
+    vertexSpacingM: 100,
+  });
   back[back.length - 1] = start;
   return [...east, ...north.slice(1), ...west.slice(1), ...back.slice(1)];
 }
@@ -306,4 +321,3 @@ function rangeOf(detailed: DetailedAnalysis, startM: number, endM: number) {
   const lastSegment = d.indexOf(endM) - 1;
   return { firstSegment, lastSegment };
 }
-

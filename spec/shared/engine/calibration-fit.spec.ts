@@ -7,7 +7,15 @@ import { parseLoggedTripCsv } from '../../../api/logged-trips/logged-trip-csv';
 import { alignedTrip, replayTrip, startBrakeTempC } from '../../../api/logged-trips/trip-replay';
 import { aLoggedTripCsv, TEST_TRIP_OPTIONS, testRoad, TRUE_VEHICLE } from '../../support/logged-trip-fixtures';
 
-const ALL: FitParameter[] = ['rollingResistanceCoefficient', 'dragAreaM2', 'auxPowerW', 'drivetrainEfficiency', 'regenEfficiency', 'brakeThermalMassJPerK', 'brakeCoolingAreaM2'];
+const ALL: FitParameter[] = [
+  'rollingResistanceCoefficient',
+  'dragAreaM2',
+  'auxPowerW',
+  'drivetrainEfficiency',
+  'regenEfficiency',
+  'brakeThermalMassJPerK',
+  'brakeCoolingAreaM2',
+];
 const TRUTH: Record<string, number> = {
   rollingResistanceCoefficient: TRUE_VEHICLE.rollingResistanceCoefficient,
   dragAreaM2: TRUE_VEHICLE.dragCoefficient * TRUE_VEHICLE.frontalAreaM2,
@@ -59,7 +67,12 @@ describe('fitCalibration', () => {
   it('warns that rolling resistance and drag cannot be told apart when a trip runs at one speed on the level', async () => {
     const level = testRoad().map(([lon, lat]) => [lon, lat, 700] as [number, number, number]);
     const csv = await aLoggedTripCsv({
-      request: { route: { type: 'LineString', coordinates: level }, vehicle: TRUE_VEHICLE, conditions: { ambientC: 8, startSoc: 0.6 }, options: { speedLimitKph: 50 } },
+      request: {
+        route: { type: 'LineString', coordinates: level },
+        vehicle: TRUE_VEHICLE,
+        conditions: { ambientC: 8, startSoc: 0.6 },
+        options: { speedLimitKph: 50 },
+      },
       withBrakeTemperature: false,
     });
     const trip = await tripFromCsv(csv, level, 'level');
@@ -90,7 +103,12 @@ describe('fitCalibration', () => {
 async function aTrip(seed: number, startSoc: number): Promise<CalibrationTrip> {
   const csv = await aLoggedTripCsv({
     seed,
-    request: { route: { type: 'LineString', coordinates: testRoad() }, vehicle: TRUE_VEHICLE, conditions: { ambientC: 8, startSoc }, options: TEST_TRIP_OPTIONS },
+    request: {
+      route: { type: 'LineString', coordinates: testRoad() },
+      vehicle: TRUE_VEHICLE,
+      conditions: { ambientC: 8, startSoc },
+      options: TEST_TRIP_OPTIONS,
+    },
   });
   return tripFromCsv(csv, testRoad(), `seed ${seed}`);
 }

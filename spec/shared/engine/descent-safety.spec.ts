@@ -90,7 +90,13 @@ describe('worst credible case against regeneration working, on one descent worke
     expect(relativeError(worst.peakBrakeTempByAxleC!.front, front)).toBeLessThan(1e-6);
     expect(relativeError(worst.peakBrakeTempC, rear)).toBeLessThan(1e-6);
     expect(worst.risk).toBe('critical');
-    expect(worst.conditions).toMatchObject({ regenerationAvailable: false, massKg: MASS_KG, massBasis: 'run-mass', ambientC: 35, brakeTempAtTopC: 35 });
+    expect(worst.conditions).toMatchObject({
+      regenerationAvailable: false,
+      massKg: MASS_KG,
+      massBasis: 'run-mass',
+      ambientC: 35,
+      brakeTempAtTopC: 35,
+    });
     // The descent shows the worst case's risk, the nominal one beside it.
     expect(response.descents[0]!.risk).toBe('critical');
     expect(response.descents[0]!.nominalRisk).toBe('low');
@@ -129,7 +135,9 @@ describe('worst credible case against regeneration working, on one descent worke
 
 describe('continuous regeneration rating', () => {
   it('holds the 100 kW peak for 60 s worth of overload, then falls to the 60 kW continuous rating', async () => {
-    const { run, model } = await analyseRouteDetailed(aConstantDescent({ regenPowerW: 100_000, regenContinuousPowerW: 60_000, regenPeakHoldS: 60 }));
+    const { run, model } = await analyseRouteDetailed(
+      aConstantDescent({ regenPowerW: 100_000, regenContinuousPowerW: 60_000, regenPeakHoldS: 60 }),
+    );
     // Overload budget (100 − 60 kW)·60 s = 2.4 MJ, used at 97 582 − 60 000 = 37 582 W:
     // 2.4e6/37 582 = 63.9 s = 532 m at 8.333 m/s; regeneration takes all braking before, 60 kW after.
     const switchM = ((40_000 * 60) / (BRAKE_POWER_W - 60_000)) * SPEED_MPS;
@@ -149,7 +157,14 @@ describe('electric brake envelope', () => {
   it('keeps regeneration plus a braking resistor inside the motor envelope: 250 kW demanded, 100 kW motor, full battery', () => {
     // SOC at the 0.95 ceiling: the battery takes only the 15 kW auxiliaries, 15 000/0.889 = 16 873 W at the wheel.
     // Resistor: min(100 kW rating, 100 kW motor − 16 873 W) = 83 127 W. Friction: 250 000 − 100 000 = 150 000 W.
-    splitWheelPower(params({ regenPowerW: 100_000, retarderPowerW: 100_000, retarderType: 'braking-resistor' }), -250_000, 10, 0.95, 1, split);
+    splitWheelPower(
+      params({ regenPowerW: 100_000, retarderPowerW: 100_000, retarderType: 'braking-resistor' }),
+      -250_000,
+      10,
+      0.95,
+      1,
+      split,
+    );
 
     expect(split.regenWheelPowerW).toBeCloseTo(15_000 / 0.889, 6);
     expect(split.retarderPowerW).toBeCloseTo(100_000 - 15_000 / 0.889, 6);
@@ -247,7 +262,10 @@ describe('drivability', () => {
   });
 
   it('finds the same route drivable when the road design limit is set above its steepest grade', async () => {
-    const { response } = await analyseRouteDetailed({ ...aConstantDescent(), options: { ...aConstantDescent().options, safety: { maxRoadGradePercent: 8 } } });
+    const { response } = await analyseRouteDetailed({
+      ...aConstantDescent(),
+      options: { ...aConstantDescent().options, safety: { maxRoadGradePercent: 8 } },
+    });
 
     expect(response.drivability).toEqual({ drivable: true, stretches: [] });
     expect(response.descents[0]!.speedAdvice).not.toBe('not-drivable');
@@ -261,7 +279,13 @@ describe('sensitivity', () => {
     const entry = (input: string) => descent.sensitivity!.find((candidate) => candidate.input === input)!;
     const spread = (input: string) => Math.abs(entry(input).highPeakBrakeTempC - entry(input).lowPeakBrakeTempC);
 
-    expect(descent.sensitivity!.map((candidate) => candidate.input)).toEqual(['soc', 'mass', 'brake-cooling', 'brake-thermal-mass', 'regen-continuous']);
+    expect(descent.sensitivity!.map((candidate) => candidate.input)).toEqual([
+      'soc',
+      'mass',
+      'brake-cooling',
+      'brake-thermal-mass',
+      'regen-continuous',
+    ]);
     expect(entry('mass').highPeakBrakeTempC).toBeGreaterThan(entry('mass').lowPeakBrakeTempC);
     expect(entry('brake-cooling').highPeakBrakeTempC).toBeLessThan(entry('brake-cooling').lowPeakBrakeTempC);
     expect(entry('brake-thermal-mass').highPeakBrakeTempC).toBeLessThan(entry('brake-thermal-mass').lowPeakBrakeTempC);

@@ -5,7 +5,15 @@ import { roadLoadForces } from '../../../shared/engine/road-load';
 import { STANDARD_GRAVITY_MPS2 } from '../../../shared/engine/constants';
 import { aWorkedExampleBus, relativeError } from '../support/engine-builders';
 
-const BUS = { massKg: 19_000, rollingResistanceCoefficient: 0.007, dragCoefficient: 0.7, frontalAreaM2: 8, airDensityKgM3: 1.225, rotatingMassFactor: 0, accelerationMps2: 0 };
+const BUS = {
+  massKg: 19_000,
+  rollingResistanceCoefficient: 0.007,
+  dragCoefficient: 0.7,
+  frontalAreaM2: 8,
+  airDensityKgM3: 1.225,
+  rotatingMassFactor: 0,
+  accelerationMps2: 0,
+};
 const SPEED_MPS = 30 / 3.6;
 
 describe('UN R13 reference descents for a 19 t bus (engine README §5.1 table)', () => {

@@ -28,15 +28,26 @@ describe('updated FHWA Grade Severity Rating System', () => {
     const speedMps = mphToMps(30);
     const durationS = (5 / 30) * 3_600;
 
-    const finalC = gsrsAdvanceTemperatureC(fahrenheitToCelsius(150), fahrenheitToCelsius(90), 274.45 * WATTS_PER_HORSEPOWER, speedMps, durationS);
+    const finalC = gsrsAdvanceTemperatureC(
+      fahrenheitToCelsius(150),
+      fahrenheitToCelsius(90),
+      274.45 * WATTS_PER_HORSEPOWER,
+      speedMps,
+      durationS,
+    );
 
     expect(finalC).toBeCloseTo(fahrenheitToCelsius(417.1), 1);
   });
 
   it('exceeds 500 °F at 20 mph but not at 18 mph over 10 mi of 6 % (engine README §4.2 speed sensitivity)', () => {
     const tLim = (mph: number) =>
-      gsrsFinalTemperatureF({ initialF: 150, ambientF: 90, brakeHorsepower: gsrsBrakeHorsepower(80_000, 0.06, mph), lengthMi: 10, speedMph: mph }) +
-      gsrsEmergencyStopRiseF(80_000, mph);
+      gsrsFinalTemperatureF({
+        initialF: 150,
+        ambientF: 90,
+        brakeHorsepower: gsrsBrakeHorsepower(80_000, 0.06, mph),
+        lengthMi: 10,
+        speedMph: mph,
+      }) + gsrsEmergencyStopRiseF(80_000, mph);
 
     expect(tLim(20)).toBeCloseTo(507.1, 0);
     expect(tLim(18)).toBeLessThan(500);

@@ -1,6 +1,13 @@
 import { describe, expect, it } from 'vitest';
 import { vehicleSchema } from '../../../shared/domain/analysis';
-import { chargeTaperFactor, coldChargeFactor, emptyPowerSplit, powertrainParams, regenSpeedFactor, splitWheelPower } from '../../../shared/engine/powertrain';
+import {
+  chargeTaperFactor,
+  coldChargeFactor,
+  emptyPowerSplit,
+  powertrainParams,
+  regenSpeedFactor,
+  splitWheelPower,
+} from '../../../shared/engine/powertrain';
 import { aWorkedExampleBus } from '../support/engine-builders';
 
 // engine README §3.3 / §8 case 7: 19 t bus descending 8 % at 30 km/h, ρ 1.225 → 111.00 kW at the wheel;

@@ -5,7 +5,9 @@ import { viewProfile } from '@shared/engine/profile-view';
 
 /** A profile of `count` points 1 m apart; brake temperature with one narrow peak at `peakAt`. */
 function aProfile(count: number, peakAt: number): Profile {
-  const series = Object.fromEntries(Object.keys(profileSchema.shape).map((name) => [name, Array.from({ length: count }, (_, i) => i * 0.5)])) as Profile;
+  const series = Object.fromEntries(
+    Object.keys(profileSchema.shape).map((name) => [name, Array.from({ length: count }, (_, i) => i * 0.5)]),
+  ) as Profile;
   series.distanceM = Array.from({ length: count }, (_, i) => i);
   series.brakeTempC = Array.from({ length: count }, (_, i) => (i === peakAt ? 480 : 60));
   return series;

@@ -8,10 +8,19 @@ const bus = { ...presetVehicle('battery-bus-12m'), payloadKg: 2_000 };
 
 describe('analyseRouteDetailed with a speed trace (replay)', () => {
   it('reproduces a planned run when given that run’s own speeds and stops', async () => {
-    const request = { route: { type: 'LineString' as const, coordinates: testRoad() }, vehicle: bus, conditions: { ambientC: 10, startSoc: 0.7 }, options: TEST_TRIP_OPTIONS };
+    const request = {
+      route: { type: 'LineString' as const, coordinates: testRoad() },
+      vehicle: bus,
+      conditions: { ambientC: 10, startSoc: 0.7 },
+      options: TEST_TRIP_OPTIONS,
+    };
     const planned = await analyseRouteDetailed(request);
 
-    const replayed = await analyseRouteDetailed(request, {}, { distanceM: Array.from(planned.model.distanceM), speedMps: Array.from(planned.run.speedMps) });
+    const replayed = await analyseRouteDetailed(
+      request,
+      {},
+      { distanceM: Array.from(planned.model.distanceM), speedMps: Array.from(planned.run.speedMps) },
+    );
 
     expect(replayed.run.speedMps).toEqual(planned.run.speedMps);
     expect(replayed.response.summary.batteryNetEnergyWh).toBeCloseTo(planned.response.summary.batteryNetEnergyWh, 6);
@@ -19,7 +28,12 @@ describe('analyseRouteDetailed with a speed trace (replay)', () => {
   });
 
   it('follows the trace, not the speed limits: a replay faster than the posted limit draws more power', async () => {
-    const request = { route: { type: 'LineString' as const, coordinates: testRoad() }, vehicle: bus, conditions: { ambientC: 10, startSoc: 0.7 }, options: { speedLimitKph: 30 } };
+    const request = {
+      route: { type: 'LineString' as const, coordinates: testRoad() },
+      vehicle: bus,
+      conditions: { ambientC: 10, startSoc: 0.7 },
+      options: { speedLimitKph: 30 },
+    };
     const planned = await analyseRouteDetailed(request);
 
     const fast = await analyseRouteDetailed(request, {}, { distanceM: [0, 100, 5_900, 6_200], speedMps: [0, 15, 15, 0] });
@@ -53,12 +67,25 @@ describe('analyseRouteDetailed with a speed trace (replay)', () => {
     geodesicDirect(9, 0, Math.PI / 2, lengthM, end);
 
     const coast = await analyseRouteDetailed(
-      { route: { type: 'LineString', coordinates: [[9, 0, 0], [end[0], end[1], 0]] }, vehicle: bus, conditions: { ambientC: 15, startSoc: 0.5 }, options: { spacingM: 10, smoothingWindowM: 0, startAtRest: false, endAtRest: false } },
+      {
+        route: {
+          type: 'LineString',
+          coordinates: [
+            [9, 0, 0],
+            [end[0], end[1], 0],
+          ],
+        },
+        vehicle: bus,
+        conditions: { ambientC: 15, startSoc: 0.5 },
+        options: { spacingM: 10, smoothingWindowM: 0, startAtRest: false, endAtRest: false },
+      },
       {},
       { distanceM, speedMps },
     );
 
     const resisting = coast.run.rollingN.map((rolling, i) => rolling + coast.run.aeroN[i]!);
-    coast.run.tractionN.slice(0, -1).forEach((traction, i) => expect(Math.abs(traction), `segment ${i}`).toBeLessThan(0.01 * resisting[i]!));
+    coast.run.tractionN
+      .slice(0, -1)
+      .forEach((traction, i) => expect(Math.abs(traction), `segment ${i}`).toBeLessThan(0.01 * resisting[i]!));
   });
 });

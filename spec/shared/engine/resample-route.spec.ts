@@ -70,7 +70,13 @@ describe('resampleRoute', () => {
   });
 
   it('carries no elevation when any position lacks z', () => {
-    const resampled = resampleRoute([[11.39, 47.26], [11.395, 47.262, 640]], 10);
+    const resampled = resampleRoute(
+      [
+        [11.39, 47.26],
+        [11.395, 47.262, 640],
+      ],
+      10,
+    );
 
     expect(resampled.elevationM).toBeNull();
   });

@@ -28,7 +28,15 @@ describe('roadLoadForces', () => {
 
   it('keeps a 1500 kg car on tyres with Cr 0.01–0.02 within 147–295 N of rolling force (common practice)', () => {
     for (const rollingResistanceCoefficient of [0.01, 0.015, 0.02]) {
-      const { rollingN } = roadLoadForces({ ...car(), massKg: 1500, rollingResistanceCoefficient, speedMps: 10, gradePercent: 0, accelerationMps2: 0, rotatingMassFactor: 0 });
+      const { rollingN } = roadLoadForces({
+        ...car(),
+        massKg: 1500,
+        rollingResistanceCoefficient,
+        speedMps: 10,
+        gradePercent: 0,
+        accelerationMps2: 0,
+        rotatingMassFactor: 0,
+      });
       expect(rollingN).toBeGreaterThanOrEqual(147);
       expect(rollingN).toBeLessThanOrEqual(295);
     }
@@ -36,7 +44,14 @@ describe('roadLoadForces', () => {
 
   it('keeps a car with Cd 0.25–0.35 within 110–160 N of drag at 20 m/s, A 2.2 m² (common practice)', () => {
     for (const dragCoefficient of [0.25, 0.3, 0.35]) {
-      const { aeroN } = roadLoadForces({ ...car(), dragCoefficient, speedMps: 20, gradePercent: 0, accelerationMps2: 0, rotatingMassFactor: 0 });
+      const { aeroN } = roadLoadForces({
+        ...car(),
+        dragCoefficient,
+        speedMps: 20,
+        gradePercent: 0,
+        accelerationMps2: 0,
+        rotatingMassFactor: 0,
+      });
       // ½·1.225·Cd·2.2·400 = 539·Cd
       expect(aeroN).toBeCloseTo(539 * dragCoefficient, 9);
       expect(aeroN).toBeGreaterThanOrEqual(134);
@@ -91,9 +106,9 @@ describe('computeRoadLoad', () => {
   });
 
   it('throws naming vehicle.drivetrainEfficiency when it exceeds 1', () => {
-    expect(() =>
-      computeRoadLoad({ vehicle: { ...busVehicle(), drivetrainEfficiency: 1.2 }, speedMps: 1, gradePercent: 0 }),
-    ).toThrow(/vehicle\.drivetrainEfficiency/);
+    expect(() => computeRoadLoad({ vehicle: { ...busVehicle(), drivetrainEfficiency: 1.2 }, speedMps: 1, gradePercent: 0 })).toThrow(
+      /vehicle\.drivetrainEfficiency/,
+    );
   });
 
   it('throws naming speedMps when it is NaN', () => {
@@ -108,7 +123,14 @@ function car() {
 }
 
 function bus() {
-  return { massKg: 19_000, rollingResistanceCoefficient: 0.007, dragCoefficient: 0.7, frontalAreaM2: 8, airDensityKgM3: 1.225, rotatingMassFactor: 0 };
+  return {
+    massKg: 19_000,
+    rollingResistanceCoefficient: 0.007,
+    dragCoefficient: 0.7,
+    frontalAreaM2: 8,
+    airDensityKgM3: 1.225,
+    rotatingMassFactor: 0,
+  };
 }
 
 function busVehicle(): VehicleInput {

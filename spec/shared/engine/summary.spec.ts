@@ -4,7 +4,10 @@ import { annualise, combineDirections } from '../../../shared/engine/summary';
 
 describe('combineDirections', () => {
   it('adds lengths and energies, keeps the larger peaks and recomputes kWh/km', () => {
-    const trip = combineDirections(aSummary({ batteryNetEnergyWh: 9_000, peakBrakeTempC: 300 }), aSummary({ batteryNetEnergyWh: 3_000, startSoc: 0.7, endSoc: 0.72 }));
+    const trip = combineDirections(
+      aSummary({ batteryNetEnergyWh: 9_000, peakBrakeTempC: 300 }),
+      aSummary({ batteryNetEnergyWh: 3_000, startSoc: 0.7, endSoc: 0.72 }),
+    );
 
     expect(trip.lengthM).toBe(20_000);
     expect(trip.batteryNetEnergyWh).toBe(12_000);

@@ -32,7 +32,10 @@ describe('describeDescentAdvice', () => {
   });
 
   it('says no charge is low enough, naming the margin, when even an empty battery leaves the brakes too hot', () => {
-    const advice = describeDescentAdvice({ ...limited, maxTopSoc: null, maxTopSocReason: 'no-soc-keeps-brakes-cool', fadeMarginK: 50 }, 'metric');
+    const advice = describeDescentAdvice(
+      { ...limited, maxTopSoc: null, maxTopSocReason: 'no-soc-keeps-brakes-cool', fadeMarginK: 50 },
+      'metric',
+    );
 
     expect(advice.socHeadline).toBe('No battery charge is low enough');
     expect(advice.socExplanation).toContain('50 K below 350 °C');

@@ -49,14 +49,27 @@ describe('route and run limits shared by the schemas and the forms', () => {
 
   it('is what the route schema takes and refuses at both ends, with the defaults a new route gets', () => {
     const route = (change: object) =>
-      roadRouteDraftSchema.safeParse({ name: 'Upper loop', geometry: { type: 'LineString', coordinates: [[10, 46], [10, 46.01]] }, ...change });
+      roadRouteDraftSchema.safeParse({
+        name: 'Upper loop',
+        geometry: {
+          type: 'LineString',
+          coordinates: [
+            [10, 46],
+            [10, 46.01],
+          ],
+        },
+        ...change,
+      });
 
     expect(route({ tripsPerDay: TRIPS_PER_DAY_RANGE.max, serviceDaysPerYear: SERVICE_DAYS_RANGE.max }).success).toBe(true);
     expect(route({ tripsPerDay: TRIPS_PER_DAY_RANGE.max + 1 }).success).toBe(false);
     expect(route({ serviceDaysPerYear: SERVICE_DAYS_RANGE.max + 1 }).success).toBe(false);
     expect(route({ serviceDaysPerYear: SERVICE_DAYS_RANGE.min - 1 }).success).toBe(false);
     const defaults = route({});
-    expect(defaults.success && [defaults.data.tripsPerDay, defaults.data.serviceDaysPerYear]).toEqual([TRIPS_PER_DAY.default, SERVICE_DAYS_PER_YEAR.default]);
+    expect(defaults.success && [defaults.data.tripsPerDay, defaults.data.serviceDaysPerYear]).toEqual([
+      TRIPS_PER_DAY.default,
+      SERVICE_DAYS_PER_YEAR.default,
+    ]);
   });
 
   it('takes a start SOC of 0 to 1 and starts a run at the default when none is given', () => {

@@ -41,8 +41,12 @@ describe('summary figures', () => {
     const regen = byKey('regenEnergyWh');
 
     // 12.3 kWh and 10.3 kWh as shown: the table reads +2.0, not the +2.1 of the raw values.
-    expect(formatFigureDifference(regen, aSummary({ regenEnergyWh: 12_340 }), aSummary({ regenEnergyWh: 10_260 }), 'metric')).toBe('+2.0 kWh');
-    expect(formatFigureDifference(regen, aSummary({ regenEnergyWh: 10_260 }), aSummary({ regenEnergyWh: 12_340 }), 'metric')).toBe('−2.0 kWh');
+    expect(formatFigureDifference(regen, aSummary({ regenEnergyWh: 12_340 }), aSummary({ regenEnergyWh: 10_260 }), 'metric')).toBe(
+      '+2.0 kWh',
+    );
+    expect(formatFigureDifference(regen, aSummary({ regenEnergyWh: 10_260 }), aSummary({ regenEnergyWh: 12_340 }), 'metric')).toBe(
+      '−2.0 kWh',
+    );
   });
 
   it('calls more regeneration better and more friction-brake energy worse', () => {

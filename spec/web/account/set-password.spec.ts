@@ -16,11 +16,7 @@ describe('SetPassword', () => {
 
   beforeEach(() => {
     TestBed.configureTestingModule({
-      providers: [
-        provideRouter([]),
-        provideHttpClient(withInterceptors([apiErrorInterceptor])),
-        provideHttpClientTesting(),
-      ],
+      providers: [provideRouter([]), provideHttpClient(withInterceptors([apiErrorInterceptor])), provideHttpClientTesting()],
     });
     httpTesting = TestBed.inject(HttpTestingController);
   });
@@ -76,9 +72,7 @@ describe('SetPassword', () => {
 
   it('does not send a password the shared rule refuses, and says why', async () => {
     const fixture = render('reset');
-    httpTesting
-      .expectOne('/api/auth/token-info')
-      .flush({ kind: 'reset', email: 'r.okafor@descentry.example', name: 'Rosa Okafor' });
+    httpTesting.expectOne('/api/auth/token-info').flush({ kind: 'reset', email: 'r.okafor@descentry.example', name: 'Rosa Okafor' });
     await settle(fixture);
     const loader = TestbedHarnessEnvironment.loader(fixture);
 

@@ -15,11 +15,7 @@ describe('BatchRunDetail', () => {
   beforeEach(() => {
     vi.useFakeTimers();
     TestBed.configureTestingModule({
-      providers: [
-        provideRouter([]),
-        provideHttpClient(withInterceptors([apiErrorInterceptor])),
-        provideHttpClientTesting(),
-      ],
+      providers: [provideRouter([]), provideHttpClient(withInterceptors([apiErrorInterceptor])), provideHttpClientTesting()],
     });
     httpTesting = TestBed.inject(HttpTestingController);
   });
@@ -50,7 +46,12 @@ describe('BatchRunDetail', () => {
         items: [
           { scenarioId: aBatchRun().items[0]!.scenarioId, scenarioName: 'Pass road, winter', status: 'done', error: null },
           { scenarioId: aBatchRun().items[1]!.scenarioId, scenarioName: 'Valley line, summer', status: 'done', error: null },
-          { scenarioId: aBatchRun().items[2]!.scenarioId, scenarioName: 'Ridge loop, winter', status: 'failed', error: 'No terrain covers 2.0–3.1 km' },
+          {
+            scenarioId: aBatchRun().items[2]!.scenarioId,
+            scenarioName: 'Ridge loop, winter',
+            status: 'failed',
+            error: 'No terrain covers 2.0–3.1 km',
+          },
         ],
       }),
     );
@@ -100,5 +101,8 @@ async function tick(fixture: ComponentFixture<unknown>, ms: number): Promise<voi
 }
 
 function progressText(fixture: ComponentFixture<unknown>): string {
-  return ((fixture.nativeElement as HTMLElement).querySelector('[data-testid="batch-progress"]')?.textContent ?? '').replace(/\s+/g, ' ').replace(/ ,/g, ',').trim();
+  return ((fixture.nativeElement as HTMLElement).querySelector('[data-testid="batch-progress"]')?.textContent ?? '')
+    .replace(/\s+/g, ' ')
+    .replace(/ ,/g, ',')
+    .trim();
 }

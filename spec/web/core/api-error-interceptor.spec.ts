@@ -75,9 +75,7 @@ describe('apiErrorInterceptor', () => {
     const context = new HttpContext().set(ERRORS_SHOWN_INLINE, true);
 
     const result = firstValueFrom(http.post('/api/people', {}, { context }));
-    httpTesting
-      .expectOne('/api/people')
-      .flush(anError('conflict'), { status: 409, statusText: 'Conflict' });
+    httpTesting.expectOne('/api/people').flush(anError('conflict'), { status: 409, statusText: 'Conflict' });
 
     await expect(result).rejects.toMatchObject({ status: 409 });
     expect(snackBarOpen).not.toHaveBeenCalled();

@@ -22,15 +22,16 @@ describe('areasFor', () => {
   ];
 
   it('lists only the areas the role may open, with absolute links', () => {
-    expect(areasFor(config, 'planner').map((area) => [area.label, area.path])).toEqual([
-      ['Routes', '/routes'],
-    ]);
+    expect(areasFor(config, 'planner').map((area) => [area.label, area.path])).toEqual([['Routes', '/routes']]);
     expect(areasFor(config, 'admin').map((area) => area.path)).toEqual(['/admin/people']);
   });
 
   it('lists a path once when two routes declare it', () => {
     const terrain = areaData({ label: 'Terrain', icon: 'landscape', summary: 'Terrain', roles: ['analyst'] });
-    const twice: Routes = [{ path: 'terrain', data: terrain }, { path: 'terrain', data: terrain }];
+    const twice: Routes = [
+      { path: 'terrain', data: terrain },
+      { path: 'terrain', data: terrain },
+    ];
 
     expect(areasFor(twice, 'analyst').map((area) => area.path)).toEqual(['/terrain']);
   });

@@ -34,18 +34,18 @@ describe('role guards', () => {
     });
 
     it('sends someone who is not signed in to sign-in, keeping the address', async () => {
-      const decision = runGuard(allowRoles(['admin']), { path: 'admin/people' }, {
-        url: '/admin/people',
-      });
-      httpTesting
-        .expectOne('/api/auth/session')
-        .flush({ user: null });
+      const decision = runGuard(
+        allowRoles(['admin']),
+        { path: 'admin/people' },
+        {
+          url: '/admin/people',
+        },
+      );
+      httpTesting.expectOne('/api/auth/session').flush({ user: null });
 
       const result = await decision;
       expect(result).toBeInstanceOf(UrlTree);
-      expect(TestBed.inject(Router).serializeUrl(result as UrlTree)).toBe(
-        '/sign-in?returnUrl=%2Fadmin%2Fpeople',
-      );
+      expect(TestBed.inject(Router).serializeUrl(result as UrlTree)).toBe('/sign-in?returnUrl=%2Fadmin%2Fpeople');
     });
 
     it('asks the API only once for several guards', async () => {
@@ -93,12 +93,6 @@ describe('role guards', () => {
   }
 });
 
-function runGuard(
-  guard: (route: Route, segments: UrlSegment[]) => unknown,
-  route: Route,
-  state?: { url: string },
-): Promise<unknown> {
-  return TestBed.runInInjectionContext(() =>
-    Promise.resolve(guard(route, (state ?? []) as unknown as UrlSegment[])),
-  );
+function runGuard(guard: (route: Route, segments: UrlSegment[]) => unknown, route: Route, state?: { url: string }): Promise<unknown> {
+  return TestBed.runInInjectionContext(() => Promise.resolve(guard(route, (state ?? []) as unknown as UrlSegment[])));
 }

@@ -19,6 +19,9 @@ describe('uuidParams', () => {
   });
 
   function matches(route: Route, paths: string[]): unknown {
-    return uuidParams(route, paths.map((path) => new UrlSegment(path, {})));
+    return uuidParams(
+      route,
+      paths.map((path) => new UrlSegment(path, {})),
+    );
   }
 });

@@ -49,7 +49,12 @@ describe('RecentlyDeleted (issue 11)', () => {
 
   async function renderAs(role: Role, items: DeletedItem[]) {
     const session = TestBed.inject(Session);
-    (session as unknown as { setUser(user: object): void }).setUser({ id: '99999999-9999-4999-8999-999999999999', email: 'p@x.example', name: 'P', role });
+    (session as unknown as { setUser(user: object): void }).setUser({
+      id: '99999999-9999-4999-8999-999999999999',
+      email: 'p@x.example',
+      name: 'P',
+      role,
+    });
     const fixture = TestBed.createComponent(RecentlyDeleted);
     httpTesting.expectOne('/api/deleted-items').flush({ items, retentionDays: 30 });
     await settle(fixture);

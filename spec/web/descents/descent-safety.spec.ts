@@ -50,8 +50,18 @@ describe('DescentSafety', () => {
         speedAdvice: 'not-drivable',
         maxSafeSpeedKph: null,
         worstCase: { ...aDescent().worstCase!, speedAdvice: 'not-drivable', maxSafeSpeedKph: null },
-        drivability: { drivable: false, stretches: [{ fromM: 3_000, toM: 3_200, reason: 'steeper-than-road-limit', detail: '22 % against a 15 % limit.' }] },
-        adhesion: { surface: 'ice', availableMu: 0.1, requiredMu: 0.24, requiredAtM: 3_100, sufficient: false, regenLimitedByAdhesion: true },
+        drivability: {
+          drivable: false,
+          stretches: [{ fromM: 3_000, toM: 3_200, reason: 'steeper-than-road-limit', detail: '22 % against a 15 % limit.' }],
+        },
+        adhesion: {
+          surface: 'ice',
+          availableMu: 0.1,
+          requiredMu: 0.24,
+          requiredAtM: 3_100,
+          sufficient: false,
+          regenLimitedByAdhesion: true,
+        },
       }),
     );
 

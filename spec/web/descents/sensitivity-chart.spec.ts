@@ -41,7 +41,9 @@ describe('SensitivityChart', () => {
 
   it('gives the same figures as a table and a summary the chart is described by', () => {
     const host = render(BASE);
-    const rows = [...host.querySelectorAll('[data-testid="sensitivity-table"] tbody tr')].map((row) => row.textContent!.replace(/\s+/g, ' ').trim());
+    const rows = [...host.querySelectorAll('[data-testid="sensitivity-table"] tbody tr')].map((row) =>
+      row.textContent!.replace(/\s+/g, ' ').trim(),
+    );
     const svg = host.querySelector('svg')!;
 
     expect(rows[2]).toContain('Brake cooling');

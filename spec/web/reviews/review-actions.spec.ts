@@ -18,11 +18,7 @@ describe('ReviewActions', () => {
 
   beforeEach(() => {
     TestBed.configureTestingModule({
-      providers: [
-        provideRouter([]),
-        provideHttpClient(withInterceptors([apiErrorInterceptor])),
-        provideHttpClientTesting(),
-      ],
+      providers: [provideRouter([]), provideHttpClient(withInterceptors([apiErrorInterceptor])), provideHttpClientTesting()],
     });
     httpTesting = TestBed.inject(HttpTestingController);
   });
@@ -86,14 +82,18 @@ describe('ReviewActions', () => {
     await fixture.whenStable();
 
     httpTesting.expectNone(() => true);
-    expect(fixture.nativeElement.querySelector('[data-testid="no-measure"]')?.textContent).toContain('Name a descent speed cap or an SOC ceiling');
+    expect(fixture.nativeElement.querySelector('[data-testid="no-measure"]')?.textContent).toContain(
+      'Name a descent speed cap or an SOC ceiling',
+    );
   });
 
   it('does not send a mitigation that is only a vehicle restriction, and points to risk acceptance', async () => {
     const { fixture, loader } = await render(aReviewItem({ state: 'in-review' }));
 
     await (await loader.getHarness(MatButtonHarness.with({ text: /Record mitigation/ }))).click();
-    await (await loader.getHarness(MatInputHarness.with({ selector: '[formControlName="vehicleRestriction"]' }))).setValue('Midibuses only');
+    await (
+      await loader.getHarness(MatInputHarness.with({ selector: '[formControlName="vehicleRestriction"]' }))
+    ).setValue('Midibuses only');
     await (await loader.getHarness(MatButtonHarness.with({ text: 'Re-run and save mitigation' }))).click();
     await fixture.whenStable();
 

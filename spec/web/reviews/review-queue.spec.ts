@@ -27,7 +27,10 @@ describe('ReviewQueue', () => {
         provideRouter([]),
         provideHttpClient(withInterceptors([apiErrorInterceptor])),
         provideHttpClientTesting(),
-        { provide: Session, useValue: { role, can: (permission: Permission) => can(role(), permission), user: signal(null), clear: () => undefined } },
+        {
+          provide: Session,
+          useValue: { role, can: (permission: Permission) => can(role(), permission), user: signal(null), clear: () => undefined },
+        },
       ],
     });
     httpTesting = TestBed.inject(HttpTestingController);

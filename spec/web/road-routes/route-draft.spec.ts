@@ -267,7 +267,15 @@ describe('RouteDraftHistory', () => {
 });
 
 describe('recorded elevations (issue 10: an imported track kept its heights only until the editor saved)', () => {
-  const track: RouteDraftState = { vertices: [[9, 46.5, 1210], [9.01, 46.5, 1195], [9.02, 46.5, 1180]], stops: [], speedLimits: [] };
+  const track: RouteDraftState = {
+    vertices: [
+      [9, 46.5, 1210],
+      [9.01, 46.5, 1195],
+      [9.02, 46.5, 1180],
+    ],
+    stops: [],
+    speedLimits: [],
+  };
 
   it('counts the vertices that carry their own elevation', () => {
     expect(recordedElevations(track)).toEqual({ recorded: 3, total: 3 });
@@ -276,11 +284,19 @@ describe('recorded elevations (issue 10: an imported track kept its heights only
   it('drops a moved vertex’s recorded elevation, keeping the others', () => {
     const moved = moveVertex(track, 1, [9.011, 46.5]);
 
-    expect(moved.vertices).toEqual([[9, 46.5, 1210], [9.011, 46.5], [9.02, 46.5, 1180]]);
+    expect(moved.vertices).toEqual([
+      [9, 46.5, 1210],
+      [9.011, 46.5],
+      [9.02, 46.5, 1180],
+    ]);
     expect(recordedElevations(moved)).toEqual({ recorded: 2, total: 3 });
   });
 
   it('drops every recorded elevation when the planner chooses the terrain’s', () => {
-    expect(dropRecordedElevations(track).vertices).toEqual([[9, 46.5], [9.01, 46.5], [9.02, 46.5]]);
+    expect(dropRecordedElevations(track).vertices).toEqual([
+      [9, 46.5],
+      [9.01, 46.5],
+      [9.02, 46.5],
+    ]);
   });
 });

@@ -15,18 +15,49 @@ const DRAFT: RouteDraftState = {
 
 const NETWORK: RoadNetwork = {
   type: 'FeatureCollection',
-  features: [{ type: 'Feature', properties: {}, geometry: { type: 'LineString', coordinates: [[10.1, 46], [10.1, 46.1]] } }],
+  features: [
+    {
+      type: 'Feature',
+      properties: {},
+      geometry: {
+        type: 'LineString',
+        coordinates: [
+          [10.1, 46],
+          [10.1, 46.1],
+        ],
+      },
+    },
+  ],
 } as unknown as RoadNetwork;
 
 function input(change: Partial<RouteOverlayInput> = {}): RouteOverlayInput {
-  return { draft: DRAFT, network: null, editing: true, tool: 'draw', selectedVertex: null, pendingLimitFromM: null, units: 'metric', ...change };
+  return {
+    draft: DRAFT,
+    network: null,
+    editing: true,
+    tool: 'draw',
+    selectedVertex: null,
+    pendingLimitFromM: null,
+    units: 'metric',
+    ...change,
+  };
 }
 
 const ids = (change: Partial<RouteOverlayInput>) => routeOverlays(input(change)).map((overlay) => overlay.id);
 
 describe('route map overlays', () => {
   it('draws network, limit band, route, midpoints, vertices and stops bottom to top while drawing', () => {
-    expect(ids({ network: NETWORK })).toEqual(['network:0', 'limit:0', 'route', 'mid:0', 'mid:1', 'vertex:0', 'vertex:1', 'vertex:2', 'stop:0']);
+    expect(ids({ network: NETWORK })).toEqual([
+      'network:0',
+      'limit:0',
+      'route',
+      'mid:0',
+      'mid:1',
+      'vertex:0',
+      'vertex:1',
+      'vertex:2',
+      'stop:0',
+    ]);
   });
 
   it('shows no handles to someone who may not edit, and the route line does not take clicks', () => {
@@ -42,10 +73,15 @@ describe('route map overlays', () => {
     const limit = routeOverlays(input({ tool: 'limit' }));
 
     expect(stop.find((overlay) => overlay.id === 'route')).toMatchObject({ interactive: true, label: 'Click to place a stop here' });
-    expect(limit.find((overlay) => overlay.id === 'route')).toMatchObject({ interactive: true, label: 'Click the start, then the end of the stretch' });
+    expect(limit.find((overlay) => overlay.id === 'route')).toMatchObject({
+      interactive: true,
+      label: 'Click the start, then the end of the stretch',
+    });
     expect(stop.some((overlay) => overlay.id.startsWith('mid:'))).toBe(false);
     // Vertices still show (to be seen) but only the draw tool drags them.
-    expect(stop.filter((overlay) => overlay.kind === 'handle').every((overlay) => overlay.kind === 'handle' && !overlay.draggable)).toBe(true);
+    expect(stop.filter((overlay) => overlay.kind === 'handle').every((overlay) => overlay.kind === 'handle' && !overlay.draggable)).toBe(
+      true,
+    );
   });
 
   it('marks the selected vertex and counts vertices in the labels', () => {
@@ -72,7 +108,12 @@ describe('route map overlays', () => {
   it('pins the stop where it stands and the start of a stretch being placed', () => {
     const overlays = routeOverlays(input({ tool: 'limit', pendingLimitFromM: 1112 }));
 
-    expect(overlays.find((overlay) => overlay.id === 'stop:0')).toMatchObject({ kind: 'pin', at: [10, 46.005], color: STOP_COLOR, label: 'Stop: Upper square' });
+    expect(overlays.find((overlay) => overlay.id === 'stop:0')).toMatchObject({
+      kind: 'pin',
+      at: [10, 46.005],
+      color: STOP_COLOR,
+      label: 'Stop: Upper square',
+    });
     const start = overlays.find((overlay) => overlay.id === 'limit-start');
     expect(start?.kind === 'pin' ? start.at[1] : null).toBeCloseTo(46.01, 3);
   });

@@ -1,9 +1,5 @@
 import { scenarioDraftSchema } from '@shared/domain/scenarios';
-import {
-  DEFAULT_SCENARIO_FORM,
-  toScenarioDraft,
-  type ScenarioFormValue,
-} from '../../../web/app/scenarios/scenario-form-model';
+import { DEFAULT_SCENARIO_FORM, toScenarioDraft, type ScenarioFormValue } from '../../../web/app/scenarios/scenario-form-model';
 
 const ROUTE_ID = '0b7d6a52-3f1e-4c2a-9d7e-1a2b3c4d5e6f';
 const VEHICLE_ID = '5e4d3c2b-1a09-4f8e-a7d6-c5b4a3928170';

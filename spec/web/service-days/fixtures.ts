@@ -19,7 +19,12 @@ export function block(blockId: string, departures: [string, number, 'outbound' |
     pullOutS: 6 * 3600,
     pullInS: 12 * 3600,
     startSoc: 0.95,
-    trips: departures.map(([routeId, departureS, direction]) => ({ routeId, departureS, direction, load: { kind: 'case', case: 'seated' } })),
+    trips: departures.map(([routeId, departureS, direction]) => ({
+      routeId,
+      departureS,
+      direction,
+      load: { kind: 'case', case: 'seated' },
+    })),
     ...extra,
   };
 }

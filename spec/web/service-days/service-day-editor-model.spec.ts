@@ -1,4 +1,12 @@
-import { checkDraft, emptyDraft, fieldErrors, hasErrorWithin, newBlock, newCharger, nextTrip } from '../../../web/app/service-days/service-day-editor-model';
+import {
+  checkDraft,
+  emptyDraft,
+  fieldErrors,
+  hasErrorWithin,
+  newBlock,
+  newCharger,
+  nextTrip,
+} from '../../../web/app/service-days/service-day-editor-model';
 import { ROUTE_A, ROUTE_B, VEHICLE, block, lookup } from './fixtures';
 
 const h = (hours: number, minutes = 0) => hours * 3600 + minutes * 60;
@@ -42,14 +50,18 @@ describe('the service-day editor model', () => {
     expect(errors.get('blocks.2.trips.0.departureS')).toBe('Too big');
     expect(hasErrorWithin(errors, 'blocks.2')).toBe(true);
     expect(hasErrorWithin(errors, 'blocks.1')).toBe(false);
-    expect(fieldErrors({ path: ['blocks', 0, 'trips', 1, 'routeId'] }, 'Route not found').get('blocks.0.trips.1.routeId')).toBe('Route not found');
+    expect(fieldErrors({ path: ['blocks', 0, 'trips', 1, 'routeId'] }, 'Route not found').get('blocks.0.trips.1.routeId')).toBe(
+      'Route not found',
+    );
     expect(fieldErrors(undefined, 'x').size).toBe(0);
   });
 
   it('places the API’s 422 on the block, trip and field it names', () => {
     const trip = fieldErrors({ blockId: 'B2', blockIndex: 1, tripIndex: 3, field: 'departureS' }, 'trip 4 departs out of order');
     expect([...trip.entries()]).toEqual([['blocks.1.trips.3.departureS', 'trip 4 departs out of order']]);
-    expect([...fieldErrors({ blockId: 'B1', blockIndex: 0, field: 'depotChargerKey' }, 'not a depot charger').keys()]).toEqual(['blocks.0.depotChargerKey']);
+    expect([...fieldErrors({ blockId: 'B1', blockIndex: 0, field: 'depotChargerKey' }, 'not a depot charger').keys()]).toEqual([
+      'blocks.0.depotChargerKey',
+    ]);
     expect([...fieldErrors({ field: 'chargers[2].key' }, 'key used twice').keys()]).toEqual(['chargers.2.name']);
   });
 });

@@ -20,7 +20,22 @@ describe('ServiceDayEditor', () => {
         provideRouter([]),
         provideHttpClient(withInterceptors([apiErrorInterceptor])),
         provideHttpClientTesting(),
-        { provide: RoadRoutesApi, useValue: { list: async () => ROUTES, get: async (id: string) => ({ ...ROUTES.find((route) => route.id === id), geometry: { type: 'LineString', coordinates: [[10.1, 46.5], [10.2, 46.6]] } }) } },
+        {
+          provide: RoadRoutesApi,
+          useValue: {
+            list: async () => ROUTES,
+            get: async (id: string) => ({
+              ...ROUTES.find((route) => route.id === id),
+              geometry: {
+                type: 'LineString',
+                coordinates: [
+                  [10.1, 46.5],
+                  [10.2, 46.6],
+                ],
+              },
+            }),
+          },
+        },
         { provide: VehicleProfilesApi, useValue: { list: async () => [{ id: VEHICLE, name: 'Valley e-bus 12 m' }] } },
       ],
     });
@@ -58,10 +73,25 @@ describe('ServiceDayEditor', () => {
     const request = httpTesting.expectOne((candidate) => candidate.method === 'POST' && candidate.url === '/api/service-days');
     expect(request.request.body).toMatchObject({
       name: 'Winter weekday, worn batteries',
-      blocks: [{ blockId: 'Block 1', vehicleProfileId: VEHICLE, trips: [{ routeId: ROUTE_A, direction: 'outbound', departureS: 6 * 3600 + 600 }, { routeId: ROUTE_A, direction: 'inbound' }] }],
+      blocks: [
+        {
+          blockId: 'Block 1',
+          vehicleProfileId: VEHICLE,
+          trips: [
+            { routeId: ROUTE_A, direction: 'outbound', departureS: 6 * 3600 + 600 },
+            { routeId: ROUTE_A, direction: 'inbound' },
+          ],
+        },
+      ],
     });
     request.flush(
-      { error: { code: 'invalid_request', message: 'Block “Block 1”, trip 2: the route has no version 7.', details: { path: ['blocks', 0, 'trips', 1, 'routeId'] } } },
+      {
+        error: {
+          code: 'invalid_request',
+          message: 'Block “Block 1”, trip 2: the route has no version 7.',
+          details: { path: ['blocks', 0, 'trips', 1, 'routeId'] },
+        },
+      },
       { status: 422, statusText: 'Unprocessable Entity' },
     );
     await settle(fixture);

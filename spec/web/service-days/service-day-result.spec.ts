@@ -21,7 +21,18 @@ const DAY: ServiceDay = {
   batteryAge: 'end-of-life',
   reserveSoc: 0.15,
   inService: true,
-  chargers: [{ key: 'tarn', name: 'Upper Tarn terminus', kind: 'terminus', position: [10.2, 46.6], powerW: 150_000, efficiency: 0.92, targetSoc: 0.9, connectS: 30 }],
+  chargers: [
+    {
+      key: 'tarn',
+      name: 'Upper Tarn terminus',
+      kind: 'terminus',
+      position: [10.2, 46.6],
+      powerW: 150_000,
+      efficiency: 0.92,
+      targetSoc: 0.9,
+      connectS: 30,
+    },
+  ],
   blocks: [block('B1', [[ROUTE_A, h(7), 'outbound']]), block('B2', [[ROUTE_A, h(8), 'outbound']])],
   status: 'done',
   failureReason: null,
@@ -58,7 +69,9 @@ describe('ServiceDayResultScreen', () => {
     await settle(fixture);
     const run = result([
       blockResult('B1', {
-        chargingEvents: [{ chargerKey: 'tarn', startS: h(7, 30), endS: h(7, 40), energyWh: 23_000, gridEnergyWh: 25_000, socBefore: 0.55, socAfter: 0.63 }],
+        chargingEvents: [
+          { chargerKey: 'tarn', startS: h(7, 30), endS: h(7, 40), energyWh: 23_000, gridEnergyWh: 25_000, socBefore: 0.55, socAfter: 0.63 },
+        ],
       }),
       blockResult('B2', { feasible: false, minSoc: 0.09, endSoc: 0.09, problems: ['SOC falls to 9 % at 16:40, below the 15 % reserve.'] }),
     ]);
@@ -77,8 +90,14 @@ describe('ServiceDayResultScreen', () => {
     expect(charging).toContain('07:30–07:40');
     expect(charging).toContain('23.0 kWh');
     expect(element.querySelector('[data-testid="peak-table"] tbody tr')?.textContent).toContain('150 kW');
-    expect(element.querySelector('[data-testid="stale-banner"]')?.textContent).toContain('The vehicle profile “Valley e-bus 12 m” changed.');
+    expect(element.querySelector('[data-testid="stale-banner"]')?.textContent).toContain(
+      'The vehicle profile “Valley e-bus 12 m” changed.',
+    );
     expect(element.querySelector('[data-testid="advice-cautions"]')).not.toBeNull();
-    expect([...element.querySelectorAll('.series')].map((span) => span.textContent)).toEqual(['Block B1', 'Block B2 (cannot be worked)', 'Reserve (15 %)']);
+    expect([...element.querySelectorAll('.series')].map((span) => span.textContent)).toEqual([
+      'Block B1',
+      'Block B2 (cannot be worked)',
+      'Reserve (15 %)',
+    ]);
   });
 });

@@ -24,8 +24,18 @@ describe('the service-day result series', () => {
 
   it('lists only the descents the day made riskier, the riskiest first', () => {
     const descent = (risk: 'low' | 'elevated' | 'high' | 'critical', worsenedByDay: boolean, peakBrakeTempC: number) => ({
-      tripIndex: 1, routeId: ROUTE_A, direction: 'inbound' as const, startM: 100, endM: 2_100, dropM: 180,
-      arrivalSoc: 0.9, arrivalBrakeTempC: 140, peakBrakeTempC, risk, standaloneRisk: 'low' as const, worsenedByDay,
+      tripIndex: 1,
+      routeId: ROUTE_A,
+      direction: 'inbound' as const,
+      startM: 100,
+      endM: 2_100,
+      dropM: 180,
+      arrivalSoc: 0.9,
+      arrivalBrakeTempC: 140,
+      peakBrakeTempC,
+      risk,
+      standaloneRisk: 'low' as const,
+      worsenedByDay,
     });
     const listed = worsenedDescents(
       [
@@ -34,6 +44,9 @@ describe('the service-day result series', () => {
       ],
       riskRank,
     );
-    expect(listed.map((item) => [item.blockId, item.descent.risk])).toEqual([['B2', 'high'], ['B1', 'elevated']]);
+    expect(listed.map((item) => [item.blockId, item.descent.risk])).toEqual([
+      ['B2', 'high'],
+      ['B1', 'elevated'],
+    ]);
   });
 });

@@ -10,23 +10,51 @@ describe('the service-day timeline rows', () => {
   });
 
   it('draws each trip from departure to arrival and the gaps between them as layovers', () => {
-    const [row] = timelineRows([block('B1', [[ROUTE_A, h(6, 30), 'outbound'], [ROUTE_A, h(7, 15), 'inbound'], [ROUTE_B, h(8), 'outbound']])], lookup);
+    const [row] = timelineRows(
+      [
+        block('B1', [
+          [ROUTE_A, h(6, 30), 'outbound'],
+          [ROUTE_A, h(7, 15), 'inbound'],
+          [ROUTE_B, h(8), 'outbound'],
+        ]),
+      ],
+      lookup,
+    );
     expect(row!.bars.map((bar) => [bar.kind, bar.startS, bar.endS])).toEqual([
       ['trip', h(6, 30), h(7)],
       ['trip', h(7, 15), h(7, 45)],
       ['trip', h(8), h(8, 20)],
     ]);
-    expect(row!.layovers).toEqual([{ startS: h(7), endS: h(7, 15) }, { startS: h(7, 45), endS: h(8) }]);
+    expect(row!.layovers).toEqual([
+      { startS: h(7), endS: h(7, 15) },
+      { startS: h(7, 45), endS: h(8) },
+    ]);
     expect(row!.bars[0]!.label).toBe('Trip 1: Brackenfold – Upper Tarn outbound, 06:30–07:00');
     expect(row!.warnings).toEqual([]);
     expect(row!.feasible).toBeNull();
   });
 
   it('says when a trip would still be driving at the next departure, or trips are out of order', () => {
-    const [tight] = timelineRows([block('B2', [[ROUTE_A, h(6, 30), 'outbound'], [ROUTE_A, h(6, 50), 'inbound']])], lookup);
+    const [tight] = timelineRows(
+      [
+        block('B2', [
+          [ROUTE_A, h(6, 30), 'outbound'],
+          [ROUTE_A, h(6, 50), 'inbound'],
+        ]),
+      ],
+      lookup,
+    );
     expect(tight!.warnings).toEqual(['Trip 1 arrives about 07:00, after trip 2 leaves at 06:50.']);
     expect(tight!.layovers).toEqual([]);
-    const [swapped] = timelineRows([block('B3', [[ROUTE_A, h(9), 'outbound'], [ROUTE_A, h(7), 'inbound']])], lookup);
+    const [swapped] = timelineRows(
+      [
+        block('B3', [
+          [ROUTE_A, h(9), 'outbound'],
+          [ROUTE_A, h(7), 'inbound'],
+        ]),
+      ],
+      lookup,
+    );
     expect(swapped!.warnings[0]).toMatch(/Trip 2 leaves before trip 1/);
   });
 
@@ -39,11 +67,24 @@ describe('the service-day timeline rows', () => {
     const run = result([
       blockResult('B1', {
         feasible: false,
-        chargingEvents: [{ chargerKey: 'tarn', startS: h(7), endS: h(7, 12), energyWh: 20_000, gridEnergyWh: 21_700, socBefore: 0.5, socAfter: 0.6 }],
+        chargingEvents: [
+          { chargerKey: 'tarn', startS: h(7), endS: h(7, 12), energyWh: 20_000, gridEnergyWh: 21_700, socBefore: 0.5, socAfter: 0.6 },
+        ],
       }),
     ]);
-    const [row] = timelineRows([block('B1', [[ROUTE_A, h(6, 30), 'outbound'], [ROUTE_A, h(7, 15), 'inbound']])], lookup, run);
-    expect(row!.bars.filter((bar) => bar.kind === 'charge').map((bar) => [bar.startS, bar.endS, bar.label])).toEqual([[h(7), h(7, 12), 'Charging at tarn, 07:00–07:12']]);
+    const [row] = timelineRows(
+      [
+        block('B1', [
+          [ROUTE_A, h(6, 30), 'outbound'],
+          [ROUTE_A, h(7, 15), 'inbound'],
+        ]),
+      ],
+      lookup,
+      run,
+    );
+    expect(row!.bars.filter((bar) => bar.kind === 'charge').map((bar) => [bar.startS, bar.endS, bar.label])).toEqual([
+      [h(7), h(7, 12), 'Charging at tarn, 07:00–07:12'],
+    ]);
     expect(row!.feasible).toBe(false);
   });
 
@@ -51,13 +92,43 @@ describe('the service-day timeline rows', () => {
     const run = result([
       blockResult('B1', {
         chargingEvents: [
-          { chargerKey: 'depot', purpose: 'preconditioning', startS: h(6), endS: h(6, 20), energyWh: 0, gridEnergyWh: 3_000, socBefore: 0.95, socAfter: 0.95 },
-          { chargerKey: 'tarn', purpose: 'charging', startS: h(7), endS: h(7, 12), energyWh: 20_000, gridEnergyWh: 21_700, socBefore: 0.5, socAfter: 0.6 },
+          {
+            chargerKey: 'depot',
+            purpose: 'preconditioning',
+            startS: h(6),
+            endS: h(6, 20),
+            energyWh: 0,
+            gridEnergyWh: 3_000,
+            socBefore: 0.95,
+            socAfter: 0.95,
+          },
+          {
+            chargerKey: 'tarn',
+            purpose: 'charging',
+            startS: h(7),
+            endS: h(7, 12),
+            energyWh: 20_000,
+            gridEnergyWh: 21_700,
+            socBefore: 0.5,
+            socAfter: 0.6,
+          },
         ],
       }),
     ]);
-    const [row] = timelineRows([block('B1', [[ROUTE_A, h(6, 30), 'outbound'], [ROUTE_A, h(7, 15), 'inbound']])], lookup, run);
-    expect(row!.bars.filter((bar) => bar.kind === 'charge').map((bar) => bar.label)).toEqual(['Cabin pre-conditioning at depot, 06:00–06:20', 'Charging at tarn, 07:00–07:12']);
+    const [row] = timelineRows(
+      [
+        block('B1', [
+          [ROUTE_A, h(6, 30), 'outbound'],
+          [ROUTE_A, h(7, 15), 'inbound'],
+        ]),
+      ],
+      lookup,
+      run,
+    );
+    expect(row!.bars.filter((bar) => bar.kind === 'charge').map((bar) => bar.label)).toEqual([
+      'Cabin pre-conditioning at depot, 06:00–06:20',
+      'Charging at tarn, 07:00–07:12',
+    ]);
   });
 
   it('spans whole hours around every block and places times in percent of it', () => {

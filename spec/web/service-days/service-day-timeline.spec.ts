@@ -10,7 +10,14 @@ describe('ServiceDayTimeline', () => {
     const fixture = TestBed.createComponent(ServiceDayTimeline);
     const rows = timelineRows(
       [
-        block('B1', [[ROUTE_A, h(7), 'outbound'], [ROUTE_A, h(8), 'inbound']], { pullOutS: h(6), pullInS: h(10) }),
+        block(
+          'B1',
+          [
+            [ROUTE_A, h(7), 'outbound'],
+            [ROUTE_A, h(8), 'inbound'],
+          ],
+          { pullOutS: h(6), pullInS: h(10) },
+        ),
         block('B2', [[ROUTE_A, h(9), 'outbound']], { pullOutS: h(8, 30), pullInS: h(10) }),
       ],
       lookup,
@@ -30,7 +37,13 @@ describe('ServiceDayTimeline', () => {
     expect(Number.parseFloat(trips[0]!.style.left)).toBeCloseTo(25, 6);
     expect(Number.parseFloat(trips[0]!.style.width)).toBeCloseTo(12.5, 6);
     expect(trips[1]!.title).toBe('Trip 2: Brackenfold – Upper Tarn inbound, 08:00–08:30');
-    expect([...element.querySelectorAll('.tick')].map((tick) => tick.textContent?.trim())).toEqual(['06:00', '07:00', '08:00', '09:00', '10:00']);
+    expect([...element.querySelectorAll('.tick')].map((tick) => tick.textContent?.trim())).toEqual([
+      '06:00',
+      '07:00',
+      '08:00',
+      '09:00',
+      '10:00',
+    ]);
 
     rowElements[1]!.querySelector<HTMLButtonElement>('button.name')!.click();
     expect(picked).toEqual(['B2']);

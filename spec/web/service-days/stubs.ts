@@ -5,7 +5,9 @@ import type { ChartSeries } from '../../../web/app/charts/distance-chart';
 /** Stands in for the Leaflet map (jsdom has no layout): the same inputs and outputs, drawn as a list. */
 @Component({
   selector: 'app-terrain-map',
-  template: `@for (overlay of overlays(); track overlay.id) { <span class="overlay" [attr.data-id]="overlay.id"></span> }`,
+  template: `@for (overlay of overlays(); track overlay.id) {
+    <span class="overlay" [attr.data-id]="overlay.id"></span>
+  }`,
 })
 export class MapStub {
   readonly ariaLabel = input('');
@@ -21,7 +23,9 @@ export class MapStub {
 /** Stands in for the canvas chart (jsdom has no canvas): lists the series it was given. */
 @Component({
   selector: 'app-distance-chart',
-  template: `@for (line of series(); track line.label) { <span class="series">{{ line.label }}</span> }`,
+  template: `@for (line of series(); track line.label) {
+    <span class="series">{{ line.label }}</span>
+  }`,
 })
 export class ChartStub {
   readonly caption = input('');

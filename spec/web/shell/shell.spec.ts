@@ -20,14 +20,12 @@ describe('Shell', () => {
 
   afterEach(() => httpTesting.verify());
 
-  it("shows an administrator the administration areas, name and role", async () => {
+  it('shows an administrator the administration areas, name and role', async () => {
     const fixture = await renderAs('admin', 'Agnes Wyler');
 
     expect(navigationLabels(fixture.nativeElement)).toEqual(['Home', 'Routes', 'People', 'Outgoing mail']);
     expect(fixture.nativeElement.querySelector('.nav-heading').textContent).toBe('Administration');
-    expect(fixture.nativeElement.querySelector('[data-testid="signed-in-person"]').textContent).toContain(
-      'Administrator',
-    );
+    expect(fixture.nativeElement.querySelector('[data-testid="signed-in-person"]').textContent).toContain('Administrator');
   });
 
   it('hides the administration areas from a board member', async () => {
@@ -54,9 +52,21 @@ const ROUTES: Routes = [
   {
     path: '',
     children: [
-      { path: 'admin/people', data: areaData({ label: 'People', icon: 'group', summary: 'People', roles: ['admin'], group: 'Administration' }), children: [] },
-      { path: 'routes', data: areaData({ label: 'Routes', icon: 'route', summary: 'Routes', roles: ['planner', 'board', 'admin'] }), children: [] },
-      { path: 'admin/mail', data: areaData({ label: 'Outgoing mail', icon: 'mail', summary: 'Mail', roles: ['admin'], group: 'Administration' }), children: [] },
+      {
+        path: 'admin/people',
+        data: areaData({ label: 'People', icon: 'group', summary: 'People', roles: ['admin'], group: 'Administration' }),
+        children: [],
+      },
+      {
+        path: 'routes',
+        data: areaData({ label: 'Routes', icon: 'route', summary: 'Routes', roles: ['planner', 'board', 'admin'] }),
+        children: [],
+      },
+      {
+        path: 'admin/mail',
+        data: areaData({ label: 'Outgoing mail', icon: 'mail', summary: 'Mail', roles: ['admin'], group: 'Administration' }),
+        children: [],
+      },
     ],
   },
 ];

@@ -15,11 +15,7 @@ describe('SignIn', () => {
 
   beforeEach(() => {
     TestBed.configureTestingModule({
-      providers: [
-        provideRouter([]),
-        provideHttpClient(withInterceptors([apiErrorInterceptor])),
-        provideHttpClientTesting(),
-      ],
+      providers: [provideRouter([]), provideHttpClient(withInterceptors([apiErrorInterceptor])), provideHttpClientTesting()],
     });
     httpTesting = TestBed.inject(HttpTestingController);
   });
@@ -33,10 +29,7 @@ describe('SignIn', () => {
     await (await loader.getHarness(MatButtonHarness.with({ text: 'Sign in' }))).click();
     httpTesting
       .expectOne({ method: 'POST', url: '/api/auth/login' })
-      .flush(
-        { error: { code: 'invalid_credentials', message: 'Wrong e-mail or password' } },
-        { status: 401, statusText: 'Unauthorized' },
-      );
+      .flush({ error: { code: 'invalid_credentials', message: 'Wrong e-mail or password' } }, { status: 401, statusText: 'Unauthorized' });
     await settle(fixture);
 
     const error = fixture.nativeElement.querySelector('[data-testid="sign-in-error"]');
@@ -92,19 +85,13 @@ describe('SignIn', () => {
   async function renderSignedOut(inputs: { returnUrl?: string } = {}) {
     const fixture = TestBed.createComponent(SignIn);
     if (inputs.returnUrl) fixture.componentRef.setInput('returnUrl', inputs.returnUrl);
-    httpTesting
-      .expectOne('/api/auth/session')
-      .flush({ user: null });
+    httpTesting.expectOne('/api/auth/session').flush({ user: null });
     await settle(fixture);
     return { fixture, loader: TestbedHarnessEnvironment.loader(fixture) };
   }
 });
 
-async function fillIn(
-  loader: ReturnType<typeof TestbedHarnessEnvironment.loader>,
-  email: string,
-  password: string,
-): Promise<void> {
+async function fillIn(loader: ReturnType<typeof TestbedHarnessEnvironment.loader>, email: string, password: string): Promise<void> {
   await (await loader.getHarness(MatInputHarness.with({ selector: '[type="email"]' }))).setValue(email);
   await (await loader.getHarness(MatInputHarness.with({ selector: '[type="password"]' }))).setValue(password);
 }

@@ -30,7 +30,18 @@ describe('terrain-format', () => {
     const model: Parameters<typeof formatModelResolution>[0] = {
       resolutionM: 744.5,
       pixelSize: { x: 30 / 3600, y: 30 / 3600, unit: 'degree' },
-      footprint: { type: 'Polygon', coordinates: [[[10, 44], [10, 46], [12, 46], [12, 44], [10, 44]]] },
+      footprint: {
+        type: 'Polygon',
+        coordinates: [
+          [
+            [10, 44],
+            [10, 46],
+            [12, 46],
+            [12, 44],
+            [10, 44],
+          ],
+        ],
+      },
     };
 
     // At 45°: 30″ of longitude ≈ 111 320 m × cos 45° / 120 ≈ 656 m; of latitude ≈ 926 m.

@@ -87,7 +87,17 @@ const MODEL: TerrainModel = {
   nodataShare: 0,
   spikeCount: 0,
   qualityNotes: ['No nodata pixels: the model is complete.'],
-  footprint: { type: 'Polygon', coordinates: [[[10.4, 46.6], [10.4, 46.7], [10.6, 46.7], [10.4, 46.6]]] },
+  footprint: {
+    type: 'Polygon',
+    coordinates: [
+      [
+        [10.4, 46.6],
+        [10.4, 46.7],
+        [10.6, 46.7],
+        [10.4, 46.6],
+      ],
+    ],
+  },
   uploadedBy: null,
   createdAt: '2026-06-01T08:00:00.000Z',
   readyAt: '2026-06-01T08:00:05.000Z',

@@ -11,9 +11,7 @@ describe('passwordStrength', () => {
   });
 
   it("refuses a password containing the e-mail address's name", () => {
-    expect(passwordStrength('xx-hannelore-xx', 'hannelore@descentry.example').message).toBe(
-      'Do not use your e-mail name in the password.',
-    );
+    expect(passwordStrength('xx-hannelore-xx', 'hannelore@descentry.example').message).toBe('Do not use your e-mail name in the password.');
   });
 
   it('accepts 12 varied characters and calls 16 or more strong', () => {
@@ -27,11 +25,8 @@ describe('PasswordStrength', () => {
     const fixture = TestBed.createComponent(PasswordStrength);
     fixture.componentRef.setInput('password', 'aaaaaaaaaaaaaa');
     await fixture.whenStable();
-    const feedback = () =>
-      (fixture.nativeElement as HTMLElement).querySelector('[data-testid="password-strength"]')
-        ?.textContent ?? '';
-    const level = () =>
-      (fixture.nativeElement as HTMLElement).querySelector('.meter')?.getAttribute('data-level');
+    const feedback = () => (fixture.nativeElement as HTMLElement).querySelector('[data-testid="password-strength"]')?.textContent ?? '';
+    const level = () => (fixture.nativeElement as HTMLElement).querySelector('.meter')?.getAttribute('data-level');
 
     expect(feedback()).toContain('Use more different characters.');
     expect(level()).toBe('refused');

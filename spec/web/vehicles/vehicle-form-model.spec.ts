@@ -39,27 +39,77 @@ describe('vehicle form model', () => {
 
     expect(Object.keys(draft.vehicle).sort()).toEqual(
       [
-        'curbMassKg', 'payloadKg', 'frontalAreaM2', 'dragCoefficient', 'rollingResistanceCoefficient', 'rotatingMassFactor',
-        'tractionPowerW', 'regenPowerW', 'drivetrainEfficiency', 'regenEfficiency', 'batteryCapacityWh', 'maxChargePowerW',
-        'auxPowerW', 'maxTractionForceN', 'brakeType', 'brakeThermalMassJPerK', 'brakeCoolingAreaM2', 'brakeHeatShare',
-        'brakeEmissivity', 'retarderPowerW', 'lineReceptivity', 'powerSource', 'socTaperStart', 'socCeiling', 'regenMinSpeedMps',
-        'coldChargeFullFromC', 'coldChargeShareAtMinus20C', 'retarderType', 'regenContinuousPowerW', 'regenPeakHoldS',
-        'drivenAxleLoadShare', 'rearBrakeShare', 'rearBrakeThermalMassShare', 'permissibleGrossMassKg',
+        'curbMassKg',
+        'payloadKg',
+        'frontalAreaM2',
+        'dragCoefficient',
+        'rollingResistanceCoefficient',
+        'rotatingMassFactor',
+        'tractionPowerW',
+        'regenPowerW',
+        'drivetrainEfficiency',
+        'regenEfficiency',
+        'batteryCapacityWh',
+        'maxChargePowerW',
+        'auxPowerW',
+        'maxTractionForceN',
+        'brakeType',
+        'brakeThermalMassJPerK',
+        'brakeCoolingAreaM2',
+        'brakeHeatShare',
+        'brakeEmissivity',
+        'retarderPowerW',
+        'lineReceptivity',
+        'powerSource',
+        'socTaperStart',
+        'socCeiling',
+        'regenMinSpeedMps',
+        'coldChargeFullFromC',
+        'coldChargeShareAtMinus20C',
+        'retarderType',
+        'regenContinuousPowerW',
+        'regenPeakHoldS',
+        'drivenAxleLoadShare',
+        'rearBrakeShare',
+        'rearBrakeThermalMassShare',
+        'permissibleGrossMassKg',
       ].sort(),
     );
   });
 
   it('saves the safety fields of the vehicle as loaded, and leaves the optional ones unstated when empty', () => {
     const base = aProfile();
-    const stated = { ...base, vehicle: { ...base.vehicle, retarderType: 'hydrodynamic' as const, regenContinuousPowerW: 120_000, regenPeakHoldS: 45, drivenAxleLoadShare: 0.62, rearBrakeShare: 0.58, permissibleGrossMassKg: 25_000 } };
+    const stated = {
+      ...base,
+      vehicle: {
+        ...base.vehicle,
+        retarderType: 'hydrodynamic' as const,
+        regenContinuousPowerW: 120_000,
+        regenPeakHoldS: 45,
+        drivenAxleLoadShare: 0.62,
+        rearBrakeShare: 0.58,
+        permissibleGrossMassKg: 25_000,
+      },
+    };
 
     const kept = toVehicleDraft(toVehicleFormValue(stated, 'metric'), 'battery-bus-12m', 'metric');
     const value = toVehicleFormValue(stated, 'metric');
-    const emptied = toVehicleDraft({ ...value, numbers: { ...value.numbers, regenContinuousPower: null, permissibleGrossMass: null } }, 'battery-bus-12m', 'metric');
+    const emptied = toVehicleDraft(
+      { ...value, numbers: { ...value.numbers, regenContinuousPower: null, permissibleGrossMass: null } },
+      'battery-bus-12m',
+      'metric',
+    );
 
     expect(value.numbers['permissibleGrossMass']).toBe(25);
     expect(value.numbers['drivenAxleLoadShare']).toBe(62);
-    expect(kept.vehicle).toMatchObject({ retarderType: 'hydrodynamic', regenContinuousPowerW: 120_000, regenPeakHoldS: 45, drivenAxleLoadShare: 0.62, rearBrakeShare: 0.58, permissibleGrossMassKg: 25_000 });
+    expect(kept.vehicle).toMatchObject({
+      retarderType: 'hydrodynamic',
+      regenContinuousPowerW: 120_000,
+      regenPeakHoldS: 45,
+      drivenAxleLoadShare: 0.62,
+      rearBrakeShare: 0.58,
+      permissibleGrossMassKg: 25_000,
+    });
     expect(vehicleProfileDraftSchema.safeParse(kept).success).toBe(true);
     expect(emptied.vehicle.regenContinuousPowerW).toBeUndefined();
     expect(emptied.vehicle.permissibleGrossMassKg).toBeUndefined();
@@ -125,7 +175,7 @@ describe('vehicle form model in imperial units', () => {
     expect(fieldUnit(field('passengerMass'), 'imperial')).toBe('lb');
   });
 
-  it('shows areas in square feet and the brakes\' thermal mass in BTU/°F', () => {
+  it("shows areas in square feet and the brakes' thermal mass in BTU/°F", () => {
     const numbers = toVehicleFormValue(aProfile(), 'imperial').numbers;
 
     // 1 ft² = 0.09290304 m² exactly; 1 BTU/°F = 1 055.05585262 J × 1.8 per K (International Table BTU).
@@ -141,7 +191,15 @@ describe('vehicle form model in imperial units', () => {
     const metric = toVehicleFormValue(aProfile(), 'metric').numbers;
     const imperial = toVehicleFormValue(aProfile(), 'imperial').numbers;
 
-    for (const key of ['tractionPower', 'batteryCapacity', 'dragCoefficient', 'rollingResistance', 'drivetrainEfficiency', 'socCeiling', 'lineReceptivity']) {
+    for (const key of [
+      'tractionPower',
+      'batteryCapacity',
+      'dragCoefficient',
+      'rollingResistance',
+      'drivetrainEfficiency',
+      'socCeiling',
+      'lineReceptivity',
+    ]) {
       expect(imperial[key]).toBe(metric[key]);
       expect(fieldUnit(field(key), 'imperial')).toBe(fieldUnit(field(key), 'metric'));
     }

@@ -19,15 +19,7 @@ import { newPasswordValidator, passwordsMatchValidator } from '../ui/password-va
  */
 @Component({
   selector: 'app-change-password-dialog',
-  imports: [
-    ReactiveFormsModule,
-    MatDialogModule,
-    MatFormFieldModule,
-    MatInputModule,
-    MatButtonModule,
-    MatIconModule,
-    PasswordStrength,
-  ],
+  imports: [ReactiveFormsModule, MatDialogModule, MatFormFieldModule, MatInputModule, MatButtonModule, MatIconModule, PasswordStrength],
   template: `
     <h2 mat-dialog-title>Change password</h2>
     <form class="app-form-dialog" [formGroup]="form" (ngSubmit)="changePassword()" novalidate>
@@ -36,7 +28,15 @@ import { newPasswordValidator, passwordsMatchValidator } from '../ui/password-va
         @if (errorMessage(); as message) {
           <p class="app-inline-error" role="alert"><mat-icon>error</mat-icon>{{ message }}</p>
         }
-        <input type="email" class="app-visually-hidden" autocomplete="username" [value]="email() ?? ''" readonly tabindex="-1" aria-hidden="true" />
+        <input
+          type="email"
+          class="app-visually-hidden"
+          autocomplete="username"
+          [value]="email() ?? ''"
+          readonly
+          tabindex="-1"
+          aria-hidden="true"
+        />
         <mat-form-field appearance="outline">
           <mat-label>Current password</mat-label>
           <input matInput type="password" formControlName="currentPassword" autocomplete="current-password" required />
@@ -46,7 +46,14 @@ import { newPasswordValidator, passwordsMatchValidator } from '../ui/password-va
         </mat-form-field>
         <mat-form-field appearance="outline">
           <mat-label>New password</mat-label>
-          <input matInput type="password" formControlName="password" autocomplete="new-password" required aria-describedby="change-strength" />
+          <input
+            matInput
+            type="password"
+            formControlName="password"
+            autocomplete="new-password"
+            required
+            aria-describedby="change-strength"
+          />
           @if (form.controls.password.getError('weakPassword'); as weakness) {
             <mat-error>{{ weakness }}</mat-error>
           }

@@ -24,8 +24,7 @@ export const NOTIFICATION_SWITCHES: readonly Switch[] = [
   {
     key: 'newHighRiskDescent',
     label: 'New high-risk descent',
-    explanation:
-      'An e-mail when a scenario run finds a new descent at high or critical brake-fade risk, or makes a reviewed one worse.',
+    explanation: 'An e-mail when a scenario run finds a new descent at high or critical brake-fade risk, or makes a reviewed one worse.',
     forRoles: ['safety'],
   },
   {
@@ -52,7 +51,9 @@ export const NOTIFICATION_SWITCHES: readonly Switch[] = [
           <div class="switch">
             <mat-slide-toggle [formControlName]="item.key" [attr.data-testid]="'switch-' + item.key">
               {{ item.label }}
-              @if (item.mine) { <span class="mine">for your role</span> }
+              @if (item.mine) {
+                <span class="mine">for your role</span>
+              }
             </mat-slide-toggle>
             <p class="explanation">{{ item.explanation }}</p>
           </div>
@@ -68,12 +69,24 @@ export const NOTIFICATION_SWITCHES: readonly Switch[] = [
     </form>
   `,
   styles: `
-    .lead { margin: 0 0 16px; }
-    .switch { margin: 0 0 16px; }
-    .explanation { margin: 4px 0 0 52px; font: var(--mat-sys-body-small); color: var(--mat-sys-on-surface-variant); }
+    .lead {
+      margin: 0 0 16px;
+    }
+    .switch {
+      margin: 0 0 16px;
+    }
+    .explanation {
+      margin: 4px 0 0 52px;
+      font: var(--mat-sys-body-small);
+      color: var(--mat-sys-on-surface-variant);
+    }
     .mine {
-      margin-left: 8px; padding: 1px 8px; border-radius: 999px; font: var(--mat-sys-label-small);
-      background: var(--mat-sys-secondary-container); color: var(--mat-sys-on-secondary-container);
+      margin-left: 8px;
+      padding: 1px 8px;
+      border-radius: 999px;
+      font: var(--mat-sys-label-small);
+      background: var(--mat-sys-secondary-container);
+      color: var(--mat-sys-on-secondary-container);
     }
   `,
   changeDetection: ChangeDetectionStrategy.OnPush,
@@ -89,9 +102,7 @@ export class NotificationSettingsDialog {
   protected readonly switches = computed(() => {
     const role = this.session.role();
     const mine = (item: Switch) => (role ? item.forRoles.includes(role) : false);
-    return [...NOTIFICATION_SWITCHES]
-      .sort((a, b) => Number(mine(b)) - Number(mine(a)))
-      .map((item) => ({ ...item, mine: mine(item) }));
+    return [...NOTIFICATION_SWITCHES].sort((a, b) => Number(mine(b)) - Number(mine(a))).map((item) => ({ ...item, mine: mine(item) }));
   });
 
   protected readonly form = new FormGroup({

@@ -27,9 +27,7 @@ import { PasswordStrength } from '../ui/password-strength';
 import { newPasswordValidator, passwordsMatchValidator } from '../ui/password-validators';
 
 type TokenState =
-  | { status: 'checking' }
-  | { status: 'invalid'; title: string; message: string }
-  | { status: 'ready'; info: TokenInfoResponse };
+  { status: 'checking' } | { status: 'invalid'; title: string; message: string } | { status: 'ready'; info: TokenInfoResponse };
 
 const PAGE_TEXT: Readonly<Record<AccountTokenKind, { title: string; action: string }>> = {
   invite: { title: 'Accept your invitation', action: 'Create account' },

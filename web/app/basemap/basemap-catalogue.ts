@@ -28,7 +28,19 @@ const EXTENT_COLOUR = '#0b4f6c';
  */
 @Component({
   selector: 'app-basemap-catalogue',
-  imports: [DatePipe, DecimalPipe, PercentPipe, FormsModule, MatButtonModule, MatFormFieldModule, MatIconModule, MatInputModule, MatProgressBarModule, TerrainMap, LoadStatus],
+  imports: [
+    DatePipe,
+    DecimalPipe,
+    PercentPipe,
+    FormsModule,
+    MatButtonModule,
+    MatFormFieldModule,
+    MatIconModule,
+    MatInputModule,
+    MatProgressBarModule,
+    TerrainMap,
+    LoadStatus,
+  ],
   templateUrl: './basemap-catalogue.html',
   styleUrl: './basemap-catalogue.scss',
   changeDetection: ChangeDetectionStrategy.OnPush,
@@ -57,13 +69,34 @@ export default class BasemapCatalogue {
 
   protected readonly fitTo = computed<MapPosition[] | null>(() => {
     const bbox = this.active()?.bbox;
-    return bbox ? [[bbox[0], bbox[1]], [bbox[2], bbox[3]]] : null;
+    return bbox
+      ? [
+          [bbox[0], bbox[1]],
+          [bbox[2], bbox[3]],
+        ]
+      : null;
   });
   protected readonly overlays = computed<MapOverlay[]>(() => {
     const bbox = this.active()?.bbox;
     if (!bbox) return [];
     const [w, s, e, n] = bbox;
-    return [{ kind: 'line', id: 'extent', positions: [[w, s], [e, s], [e, n], [w, n], [w, s]], color: EXTENT_COLOUR, weight: 2, dashed: true, label: 'Extent of the active extract' }];
+    return [
+      {
+        kind: 'line',
+        id: 'extent',
+        positions: [
+          [w, s],
+          [e, s],
+          [e, n],
+          [w, n],
+          [w, s],
+        ],
+        color: EXTENT_COLOUR,
+        weight: 2,
+        dashed: true,
+        label: 'Extent of the active extract',
+      },
+    ];
   });
 
   private refreshTimer: ReturnType<typeof setTimeout> | null = null;

@@ -1,15 +1,5 @@
 import { DatePipe } from '@angular/common';
-import {
-  ChangeDetectionStrategy,
-  Component,
-  computed,
-  effect,
-  inject,
-  input,
-  linkedSignal,
-  resource,
-  signal,
-} from '@angular/core';
+import { ChangeDetectionStrategy, Component, computed, effect, inject, input, linkedSignal, resource, signal } from '@angular/core';
 import { MatButtonModule } from '@angular/material/button';
 import { MatIconModule } from '@angular/material/icon';
 import { MatProgressBarModule } from '@angular/material/progress-bar';
@@ -34,13 +24,18 @@ import { loadStateOf } from '../ui/load-state';
         <app-load-status [state]="loadState()" loadingLabel="Loading the network run" (retry)="data.reload()" />
       }
       @if (run(); as run) {
-        <p class="meta">Started by {{ run.startedBy }} on {{ run.createdAt | date: 'd MMM y, HH:mm:ss' }}
-          @if (run.finishedAt) { · finished {{ run.finishedAt | date: 'HH:mm:ss' }} }
+        <p class="meta">
+          Started by {{ run.startedBy }} on {{ run.createdAt | date: 'd MMM y, HH:mm:ss' }}
+          @if (run.finishedAt) {
+            · finished {{ run.finishedAt | date: 'HH:mm:ss' }}
+          }
         </p>
         <div class="progress-block">
           <div class="progress-text" role="status" data-testid="batch-progress">
             <strong>{{ runLabels[run.status] }}</strong>: {{ run.done }} of {{ run.total }} scenarios done{{ run.failed > 0 ? ',' : '' }}
-            @if (run.failed > 0) {<span class="failed">{{ run.failed }} failed</span>}
+            @if (run.failed > 0) {
+              <span class="failed">{{ run.failed }} failed</span>
+            }
             ({{ percent() }} %)
           </div>
           <mat-progress-bar mode="determinate" [value]="percent()" aria-label="Share of scenarios finished" />
@@ -49,16 +44,29 @@ import { loadStateOf } from '../ui/load-state';
           }
         </div>
         <table class="items" aria-label="Scenarios in this run">
-          <thead><tr><th scope="col">Scenario</th><th scope="col">Status</th><th scope="col">Problem</th></tr></thead>
+          <thead>
+            <tr>
+              <th scope="col">Scenario</th>
+              <th scope="col">Status</th>
+              <th scope="col">Problem</th>
+            </tr>
+          </thead>
           <tbody>
             @for (item of run.items; track item.scenarioId) {
               <tr [attr.data-status]="item.status">
                 <th scope="row">{{ item.scenarioName }}</th>
-                <td><span class="status"><mat-icon aria-hidden="true">{{ icons[item.status] }}</mat-icon>{{ labels[item.status] }}</span></td>
+                <td>
+                  <span class="status"
+                    ><mat-icon aria-hidden="true">{{ icons[item.status] }}</mat-icon
+                    >{{ labels[item.status] }}</span
+                  >
+                </td>
                 <td class="error">{{ item.error ?? '' }}</td>
               </tr>
             } @empty {
-              <tr><td colspan="3" class="hint">No scenario is marked “in service”.</td></tr>
+              <tr>
+                <td colspan="3" class="hint">No scenario is marked “in service”.</td>
+              </tr>
             }
           </tbody>
         </table>
@@ -66,19 +74,68 @@ import { loadStateOf } from '../ui/load-state';
     </section>
   `,
   styles: `
-    .back { display: inline-flex; align-items: center; gap: 4px; margin-bottom: 12px; font: var(--mat-sys-label-large); text-decoration: none; }
-    .meta { color: var(--mat-sys-on-surface-variant); margin: 0 0 16px; }
-    .progress-block { display: grid; gap: 8px; margin: 0 0 20px; max-width: 640px; }
-    .failed, .error { color: var(--mat-sys-error); }
-    .hint { font: var(--mat-sys-body-small); color: var(--mat-sys-on-surface-variant); margin: 0; }
-    .items { width: 100%; border-collapse: collapse; font: var(--mat-sys-body-medium); }
-    .items th, .items td { text-align: left; padding: 8px 12px; border-bottom: 1px solid var(--mat-sys-outline-variant); vertical-align: top; }
-    thead th { font: var(--mat-sys-label-large); color: var(--mat-sys-on-surface-variant); }
-    tbody th { font-weight: 500; }
-    .status { display: inline-flex; align-items: center; gap: 6px; }
-    .status mat-icon { font-size: 20px; width: 20px; height: 20px; }
-    tr[data-status='done'] .status { color: var(--mat-sys-primary); }
-    tr[data-status='failed'] .status { color: var(--mat-sys-error); }
+    .back {
+      display: inline-flex;
+      align-items: center;
+      gap: 4px;
+      margin-bottom: 12px;
+      font: var(--mat-sys-label-large);
+      text-decoration: none;
+    }
+    .meta {
+      color: var(--mat-sys-on-surface-variant);
+      margin: 0 0 16px;
+    }
+    .progress-block {
+      display: grid;
+      gap: 8px;
+      margin: 0 0 20px;
+      max-width: 640px;
+    }
+    .failed,
+    .error {
+      color: var(--mat-sys-error);
+    }
+    .hint {
+      font: var(--mat-sys-body-small);
+      color: var(--mat-sys-on-surface-variant);
+      margin: 0;
+    }
+    .items {
+      width: 100%;
+      border-collapse: collapse;
+      font: var(--mat-sys-body-medium);
+    }
+    .items th,
+    .items td {
+      text-align: left;
+      padding: 8px 12px;
+      border-bottom: 1px solid var(--mat-sys-outline-variant);
+      vertical-align: top;
+    }
+    thead th {
+      font: var(--mat-sys-label-large);
+      color: var(--mat-sys-on-surface-variant);
+    }
+    tbody th {
+      font-weight: 500;
+    }
+    .status {
+      display: inline-flex;
+      align-items: center;
+      gap: 6px;
+    }
+    .status mat-icon {
+      font-size: 20px;
+      width: 20px;
+      height: 20px;
+    }
+    tr[data-status='done'] .status {
+      color: var(--mat-sys-primary);
+    }
+    tr[data-status='failed'] .status {
+      color: var(--mat-sys-error);
+    }
   `,
   changeDetection: ChangeDetectionStrategy.OnPush,
 })

@@ -14,9 +14,7 @@ export class BatchRunsApi {
 
   /** Queues a re-run of every in-service scenario; errors are shown beside the button. */
   async start(): Promise<BatchRun> {
-    const body = await firstValueFrom(
-      this.http.post('/api/batch-runs', {}, { context: new HttpContext().set(ERRORS_SHOWN_INLINE, true) }),
-    );
+    const body = await firstValueFrom(this.http.post('/api/batch-runs', {}, { context: new HttpContext().set(ERRORS_SHOWN_INLINE, true) }));
     return batchRunSchema.parse(body);
   }
 

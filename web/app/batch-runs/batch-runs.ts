@@ -17,8 +17,8 @@ import type { LoadState } from '../ui/load-state';
     <section class="app-page" aria-labelledby="batch-title">
       <h1 id="batch-title" class="app-page-title">Network runs</h1>
       <p class="app-lead">
-        Re-run every scenario marked “in service” in one go, for example after a vehicle profile, the terrain or
-        the engine changed. The board summary and the descent review are updated from the new results.
+        Re-run every scenario marked “in service” in one go, for example after a vehicle profile, the terrain or the engine changed. The
+        board summary and the descent review are updated from the new results.
       </p>
       <div class="start">
         <button matButton="filled" type="button" [disabled]="starting()" (click)="start()">
@@ -69,23 +69,70 @@ import type { LoadState } from '../ui/load-state';
     </section>
   `,
   styles: `
-    .start { display: flex; align-items: center; gap: 12px; flex-wrap: wrap; margin: 0 0 16px; }
-    .section-title { font: var(--mat-sys-title-large); margin: 24px 0 12px; }
-    .empty { color: var(--mat-sys-on-surface-variant); }
-    .runs { list-style: none; margin: 0; padding: 0; display: grid; gap: 8px; }
-    .run {
-      display: grid; grid-template-columns: auto 1fr minmax(120px, 200px); align-items: center; gap: 12px;
-      padding: 12px 16px; border: 1px solid var(--mat-sys-outline-variant); border-radius: var(--mat-sys-corner-medium);
-      color: inherit; text-decoration: none;
+    .start {
+      display: flex;
+      align-items: center;
+      gap: 12px;
+      flex-wrap: wrap;
+      margin: 0 0 16px;
     }
-    .run:hover { background: var(--mat-sys-surface-container-low); }
-    .run-main { display: flex; flex-direction: column; gap: 2px; }
-    .run-title { font: var(--mat-sys-title-small); }
-    .run-meta { font: var(--mat-sys-body-small); color: var(--mat-sys-on-surface-variant); }
-    .failed { color: var(--mat-sys-error); }
-    .status-done { color: var(--mat-sys-primary); }
-    .status-running { color: var(--mat-sys-tertiary); }
-    @media (max-width: 600px) { .run { grid-template-columns: auto 1fr; } .run-progress { grid-column: 1 / -1; } }
+    .section-title {
+      font: var(--mat-sys-title-large);
+      margin: 24px 0 12px;
+    }
+    .empty {
+      color: var(--mat-sys-on-surface-variant);
+    }
+    .runs {
+      list-style: none;
+      margin: 0;
+      padding: 0;
+      display: grid;
+      gap: 8px;
+    }
+    .run {
+      display: grid;
+      grid-template-columns: auto 1fr minmax(120px, 200px);
+      align-items: center;
+      gap: 12px;
+      padding: 12px 16px;
+      border: 1px solid var(--mat-sys-outline-variant);
+      border-radius: var(--mat-sys-corner-medium);
+      color: inherit;
+      text-decoration: none;
+    }
+    .run:hover {
+      background: var(--mat-sys-surface-container-low);
+    }
+    .run-main {
+      display: flex;
+      flex-direction: column;
+      gap: 2px;
+    }
+    .run-title {
+      font: var(--mat-sys-title-small);
+    }
+    .run-meta {
+      font: var(--mat-sys-body-small);
+      color: var(--mat-sys-on-surface-variant);
+    }
+    .failed {
+      color: var(--mat-sys-error);
+    }
+    .status-done {
+      color: var(--mat-sys-primary);
+    }
+    .status-running {
+      color: var(--mat-sys-tertiary);
+    }
+    @media (max-width: 600px) {
+      .run {
+        grid-template-columns: auto 1fr;
+      }
+      .run-progress {
+        grid-column: 1 / -1;
+      }
+    }
   `,
   changeDetection: ChangeDetectionStrategy.OnPush,
 })

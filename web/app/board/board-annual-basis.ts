@@ -2,7 +2,14 @@ import { ChangeDetectionStrategy, Component, computed, input } from '@angular/co
 import { MatIconModule } from '@angular/material/icon';
 import { RouterLink } from '@angular/router';
 import type { AnnualBasis } from '@shared/domain/board-summary';
-import { DAY_TYPE_LABELS, SEASON_LABELS, formatBoardCo2, formatBoardEnergy, formatBoardMoney, formatBoardNumber } from '@shared/presentation/index';
+import {
+  DAY_TYPE_LABELS,
+  SEASON_LABELS,
+  formatBoardCo2,
+  formatBoardEnergy,
+  formatBoardMoney,
+  formatBoardNumber,
+} from '@shared/presentation/index';
 
 /**
  * The board page's year on one stated basis: which basis in plain words, the service days it
@@ -21,19 +28,34 @@ import { DAY_TYPE_LABELS, SEASON_LABELS, formatBoardCo2, formatBoardEnergy, form
         <div class="app-table-frame">
           <table class="basis-table" aria-label="Service days counted in the year">
             <thead>
-              <tr><th scope="col">Service day</th><th scope="col">Kind of day</th><th scope="col" class="num">Days a year</th><th scope="col" class="num">Grid energy a day</th><th scope="col" class="num">Distance a day</th><th scope="col">Note</th></tr>
+              <tr>
+                <th scope="col">Service day</th>
+                <th scope="col">Kind of day</th>
+                <th scope="col" class="num">Days a year</th>
+                <th scope="col" class="num">Grid energy a day</th>
+                <th scope="col" class="num">Distance a day</th>
+                <th scope="col">Note</th>
+              </tr>
             </thead>
             <tbody>
               @for (day of a.serviceDays; track day.id) {
                 <tr>
-                  <td><a [routerLink]="['/service-days', day.id]">{{ day.name }}</a></td>
+                  <td>
+                    <a [routerLink]="['/service-days', day.id]">{{ day.name }}</a>
+                  </td>
                   <td>{{ dayTypeLabels[day.dayType] }}, {{ seasonLabels[day.season].toLowerCase() }}</td>
                   <td class="num">{{ day.daysPerYear }}</td>
                   <td class="num">{{ energy(day.dayGridEnergyKWh) }}</td>
                   <td class="num">{{ number(day.dayKm) }} km</td>
                   <td>
-                    @if (day.infeasibleBlocks > 0) { <span class="warn">{{ day.infeasibleBlocks }} {{ day.infeasibleBlocks === 1 ? 'block' : 'blocks' }} cannot be worked</span> }
-                    @if (day.isStale) { <span class="stale">out of date</span> }
+                    @if (day.infeasibleBlocks > 0) {
+                      <span class="warn"
+                        >{{ day.infeasibleBlocks }} {{ day.infeasibleBlocks === 1 ? 'block' : 'blocks' }} cannot be worked</span
+                      >
+                    }
+                    @if (day.isStale) {
+                      <span class="stale">out of date</span>
+                    }
                   </td>
                 </tr>
               }
@@ -47,9 +69,10 @@ import { DAY_TYPE_LABELS, SEASON_LABELS, formatBoardCo2, formatBoardEnergy, form
 
       <h3 class="sub-title">CO₂ against the vehicle it replaces</h3>
       <p data-testid="co2-baseline">
-        Driving the same {{ number(a.annualKm) }} km a year with a {{ a.baseline.name }} ({{ consumption() }}, {{ a.baseline.emissionFactorKgPerUnit }} kg CO₂ per
-        {{ a.baseline.consumptionUnit === 'l-diesel' ? 'litre' : 'kWh' }}) would emit {{ co2(a.baseline.co2Kg) }}; the electric network's grid energy emits
-        {{ co2(a.co2Kg) }}: <strong>{{ co2(a.baseline.co2SavedKg) }} less a year</strong>.
+        Driving the same {{ number(a.annualKm) }} km a year with a {{ a.baseline.name }} ({{ consumption() }},
+        {{ a.baseline.emissionFactorKgPerUnit }} kg CO₂ per {{ a.baseline.consumptionUnit === 'l-diesel' ? 'litre' : 'kWh' }}) would emit
+        {{ co2(a.baseline.co2Kg) }}; the electric network's grid energy emits {{ co2(a.co2Kg) }}:
+        <strong>{{ co2(a.baseline.co2SavedKg) }} less a year</strong>.
       </p>
       <p class="source">Source of the reference vehicle: {{ a.baseline.source }}</p>
 
@@ -57,7 +80,14 @@ import { DAY_TYPE_LABELS, SEASON_LABELS, formatBoardCo2, formatBoardEnergy, form
         <h3 class="sub-title">Charging power the grid must supply</h3>
         <div class="app-table-frame">
           <table class="basis-table" aria-label="Peak charging power per charger site" data-testid="board-peak-charging">
-            <thead><tr><th scope="col">Charger</th><th scope="col">Kind</th><th scope="col" class="num">Peak during the day</th><th scope="col" class="num">Peak overnight</th></tr></thead>
+            <thead>
+              <tr>
+                <th scope="col">Charger</th>
+                <th scope="col">Kind</th>
+                <th scope="col" class="num">Peak during the day</th>
+                <th scope="col" class="num">Peak overnight</th>
+              </tr>
+            </thead>
             <tbody>
               @for (peak of a.peakCharging; track peak.chargerKey) {
                 <tr>
@@ -77,7 +107,14 @@ import { DAY_TYPE_LABELS, SEASON_LABELS, formatBoardCo2, formatBoardEnergy, form
         <h3 class="sub-title">What moves the year's figures most</h3>
         <div class="app-table-frame">
           <table class="basis-table" aria-label="Sensitivity of the annual figures" data-testid="sensitivity-table">
-            <thead><tr><th scope="col">Factor</th><th scope="col">Change</th><th scope="col" class="num">Energy cost a year</th><th scope="col" class="num">CO₂ saved a year</th></tr></thead>
+            <thead>
+              <tr>
+                <th scope="col">Factor</th>
+                <th scope="col">Change</th>
+                <th scope="col" class="num">Energy cost a year</th>
+                <th scope="col" class="num">CO₂ saved a year</th>
+              </tr>
+            </thead>
             <tbody>
               @for (row of a.sensitivity; track $index) {
                 <tr>
@@ -95,15 +132,44 @@ import { DAY_TYPE_LABELS, SEASON_LABELS, formatBoardCo2, formatBoardEnergy, form
     </section>
   `,
   styles: `
-    .basis-text { font: var(--mat-sys-body-large); }
-    .sub-title { margin: 20px 0 6px; font: var(--mat-sys-title-small); }
-    .basis-table { width: 100%; border-collapse: collapse; font: var(--mat-sys-body-medium); }
-    .basis-table th, .basis-table td { padding: 6px 10px; text-align: left; border-bottom: 1px solid var(--mat-sys-outline-variant); }
-    .basis-table th { font: var(--mat-sys-title-small); }
-    .num { text-align: right !important; white-space: nowrap; }
-    .warn { color: #b3261e; font-weight: 600; margin-right: 8px; }
-    .stale { color: var(--mat-sys-tertiary); }
-    .note, .source { color: var(--mat-sys-on-surface-variant); font: var(--mat-sys-body-small); }
+    .basis-text {
+      font: var(--mat-sys-body-large);
+    }
+    .sub-title {
+      margin: 20px 0 6px;
+      font: var(--mat-sys-title-small);
+    }
+    .basis-table {
+      width: 100%;
+      border-collapse: collapse;
+      font: var(--mat-sys-body-medium);
+    }
+    .basis-table th,
+    .basis-table td {
+      padding: 6px 10px;
+      text-align: left;
+      border-bottom: 1px solid var(--mat-sys-outline-variant);
+    }
+    .basis-table th {
+      font: var(--mat-sys-title-small);
+    }
+    .num {
+      text-align: right !important;
+      white-space: nowrap;
+    }
+    .warn {
+      color: #b3261e;
+      font-weight: 600;
+      margin-right: 8px;
+    }
+    .stale {
+      color: var(--mat-sys-tertiary);
+    }
+    .note,
+    .source {
+      color: var(--mat-sys-on-surface-variant);
+      font: var(--mat-sys-body-small);
+    }
   `,
   changeDetection: ChangeDetectionStrategy.OnPush,
 })
@@ -123,7 +189,9 @@ export class BoardAnnualBasis {
 
   protected readonly notCoveredText = computed(() =>
     this.annual()
-      .notCovered.map((item) => `${DAY_TYPE_LABELS[item.dayType]} in ${SEASON_LABELS[item.season].toLowerCase()} (${item.daysPerYear} days)`)
+      .notCovered.map(
+        (item) => `${DAY_TYPE_LABELS[item.dayType]} in ${SEASON_LABELS[item.season].toLowerCase()} (${item.daysPerYear} days)`,
+      )
       .join(', '),
   );
 

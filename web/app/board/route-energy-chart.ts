@@ -1,12 +1,4 @@
-import {
-  ChangeDetectionStrategy,
-  Component,
-  DestroyRef,
-  computed,
-  inject,
-  input,
-  viewChild,
-} from '@angular/core';
+import { ChangeDetectionStrategy, Component, DestroyRef, computed, inject, input, viewChild } from '@angular/core';
 import {
   BarController,
   BarElement,
@@ -35,22 +27,25 @@ const FRICTION_COLOR = '#c2570c';
   providers: [provideCharts({ registerables: BAR_CHART_PARTS })],
   template: `
     <div class="chart-box" [style.height.px]="heightPx()">
-      <canvas
-        baseChart
-        type="bar"
-        role="img"
-        [attr.aria-label]="ariaText()"
-        [data]="data()"
-        [options]="options"
-      ></canvas>
+      <canvas baseChart type="bar" role="img" [attr.aria-label]="ariaText()" [data]="data()" [options]="options"></canvas>
     </div>
   `,
   styles: `
-    :host { display: block; }
-    .chart-box { position: relative; width: 100%; }
+    :host {
+      display: block;
+    }
+    .chart-box {
+      position: relative;
+      width: 100%;
+    }
     @media print {
-      .chart-box { width: 100% !important; break-inside: avoid; }
-      canvas { max-width: 100% !important; }
+      .chart-box {
+        width: 100% !important;
+        break-inside: avoid;
+      }
+      canvas {
+        max-width: 100% !important;
+      }
     }
   `,
   changeDetection: ChangeDetectionStrategy.OnPush,
@@ -66,7 +61,10 @@ export class RouteEnergyChart {
     () =>
       'Bar chart, per route, of braking energy recovered and energy into the friction brakes per year: ' +
       this.routes()
-        .map((route) => `${route.routeName}: ${formatBoardEnergy(route.annualRegenKWh)} recovered, ${formatBoardEnergy(route.annualFrictionBrakeKWh)} into the friction brakes`)
+        .map(
+          (route) =>
+            `${route.routeName}: ${formatBoardEnergy(route.annualRegenKWh)} recovered, ${formatBoardEnergy(route.annualFrictionBrakeKWh)} into the friction brakes`,
+        )
         .join('; '),
   );
   protected readonly data = computed<ChartConfiguration<'bar'>['data']>(() => ({

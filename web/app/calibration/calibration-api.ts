@@ -44,7 +44,9 @@ export class CalibrationApi {
 
   async comparison(loggedTripId: string, calibrationId?: string): Promise<ReplayComparison> {
     const params: Record<string, string> = calibrationId ? { calibrationId } : {};
-    return replayComparisonSchema.parse(await firstValueFrom(this.http.get(`${tripPath(loggedTripId)}/comparison`, { params, ...inline() })));
+    return replayComparisonSchema.parse(
+      await firstValueFrom(this.http.get(`${tripPath(loggedTripId)}/comparison`, { params, ...inline() })),
+    );
   }
 
   async deleteTrip(loggedTripId: string): Promise<void> {
@@ -60,7 +62,8 @@ export class CalibrationApi {
       .post(`${profilePath(vehicleProfileId)}/logged-trips`, form, { reportProgress: true, observe: 'events', ...inline() })
       .pipe(
         map((event: HttpEvent<unknown>): TripUploadProgress | null => {
-          if (event.type === HttpEventType.UploadProgress) return { kind: 'progress', sentBytes: event.loaded, totalBytes: event.total ?? file.size };
+          if (event.type === HttpEventType.UploadProgress)
+            return { kind: 'progress', sentBytes: event.loaded, totalBytes: event.total ?? file.size };
           if (event.type === HttpEventType.Response) return { kind: 'stored', trip: loggedTripCreatedSchema.parse(event.body).trip };
           return null;
         }),
@@ -73,7 +76,9 @@ export class CalibrationApi {
   }
 
   async requestCalibration(vehicleProfileId: string, request: CalibrationRequest): Promise<Calibration> {
-    return calibrationSchema.parse(await firstValueFrom(this.http.post(`${profilePath(vehicleProfileId)}/calibrations`, request, inline())));
+    return calibrationSchema.parse(
+      await firstValueFrom(this.http.post(`${profilePath(vehicleProfileId)}/calibrations`, request, inline())),
+    );
   }
 
   async calibration(calibrationId: string): Promise<Calibration> {

@@ -26,7 +26,17 @@ const POLL_INTERVAL_MS = 1_500;
  */
 @Component({
   selector: 'app-calibration-detail',
-  imports: [DatePipe, DecimalPipe, RouterLink, MatButtonModule, MatIconModule, MatProgressBarModule, DistanceChart, QuantityPipe, UnitSwitch],
+  imports: [
+    DatePipe,
+    DecimalPipe,
+    RouterLink,
+    MatButtonModule,
+    MatIconModule,
+    MatProgressBarModule,
+    DistanceChart,
+    QuantityPipe,
+    UnitSwitch,
+  ],
   templateUrl: './calibration-detail.html',
   styleUrl: './calibration-detail.scss',
   changeDetection: ChangeDetectionStrategy.OnPush,

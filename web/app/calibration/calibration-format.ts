@@ -61,18 +61,34 @@ export function comparisonX(comparison: ReplayComparison, axis: ComparisonAxis, 
 export function comparisonCharts(comparison: ReplayComparison, axis: ComparisonAxis, system: UnitSystem) {
   const x = comparisonX(comparison, axis, system);
   const s = comparison.series;
-  const pair = (label: string, measured: readonly (number | null)[] | null, modelled: readonly number[], convert: (v: number) => number): ChartSeries[] => [
-    ...(measured ? [{ label: `Measured ${label}`, x, y: measured.map((v) => (v === null ? null : convert(v))), color: MEASURED_COLOR }] : []),
+  const pair = (
+    label: string,
+    measured: readonly (number | null)[] | null,
+    modelled: readonly number[],
+    convert: (v: number) => number,
+  ): ChartSeries[] => [
+    ...(measured
+      ? [{ label: `Measured ${label}`, x, y: measured.map((v) => (v === null ? null : convert(v))), color: MEASURED_COLOR }]
+      : []),
     { label: `Modelled ${label}`, x, y: modelled.map(convert), color: MODELLED_COLOR, dashed: true },
   ];
   return {
     power: pair('battery power', s.measuredPowerW, s.modelledPowerW, (w) => toDisplay('power', w, system)),
     energy: pair('energy from the battery', s.measuredEnergyWh, s.modelledEnergyWh, (wh) => toDisplay('energy', wh, system)),
     soc: pair('SOC', s.measuredSoc, s.modelledSoc, (soc) => soc * 100),
-    brake: s.measuredBrakeTempC ? pair('brake temperature', s.measuredBrakeTempC, s.modelledBrakeTempC, (c) => toDisplay('temperature', c, system)) : null,
+    brake: s.measuredBrakeTempC
+      ? pair('brake temperature', s.measuredBrakeTempC, s.modelledBrakeTempC, (c) => toDisplay('temperature', c, system))
+      : null,
     speed: [
       { label: 'Measured speed', x, y: s.speedMps.map((v) => toDisplay('speed', v, system)), color: MEASURED_COLOR },
-      { label: 'Elevation', x, y: s.elevationM.map((m) => toDisplay('elevation', m, system)), color: '#8a9499', rightAxis: true, fill: true },
+      {
+        label: 'Elevation',
+        x,
+        y: s.elevationM.map((m) => toDisplay('elevation', m, system)),
+        color: '#8a9499',
+        rightAxis: true,
+        fill: true,
+      },
     ] as ChartSeries[],
   };
 }
@@ -81,7 +97,10 @@ export function comparisonCharts(comparison: ReplayComparison, axis: ComparisonA
 export const TRIP_COLORS: readonly string[] = ['#0b5567', '#c2570c', '#6a2c91', '#3f7f4f', '#8e1b2c', '#5c6b70'];
 
 /** Residual (measured − modelled battery power) against minutes into each trip, one line per trip. */
-export function residualSeries(residuals: readonly { name: string; timeS: readonly number[]; residualW: readonly number[] }[], system: UnitSystem): ChartSeries[] {
+export function residualSeries(
+  residuals: readonly { name: string; timeS: readonly number[]; residualW: readonly number[] }[],
+  system: UnitSystem,
+): ChartSeries[] {
   return residuals.map((trip, index) => ({
     label: trip.name,
     x: trip.timeS.map((s) => s / 60),

@@ -23,7 +23,18 @@ import { comparisonCharts, comparisonX, type ComparisonAxis, signedPercent } fro
  */
 @Component({
   selector: 'app-trip-comparison',
-  imports: [DatePipe, DecimalPipe, RouterLink, MatButtonToggleModule, MatIconModule, DistanceChart, LoadStatus, TerrainMap, QuantityPipe, UnitSwitch],
+  imports: [
+    DatePipe,
+    DecimalPipe,
+    RouterLink,
+    MatButtonToggleModule,
+    MatIconModule,
+    DistanceChart,
+    LoadStatus,
+    TerrainMap,
+    QuantityPipe,
+    UnitSwitch,
+  ],
   templateUrl: './trip-comparison.html',
   styleUrl: './trip-comparison.scss',
   changeDetection: ChangeDetectionStrategy.OnPush,

@@ -1,13 +1,4 @@
-import {
-  ChangeDetectionStrategy,
-  Component,
-  computed,
-  effect,
-  input,
-  output,
-  untracked,
-  viewChild,
-} from '@angular/core';
+import { ChangeDetectionStrategy, Component, computed, effect, input, output, untracked, viewChild } from '@angular/core';
 import type { ChartConfiguration, ChartDataset, Plugin, ScriptableLineSegmentContext } from 'chart.js';
 import { BaseChartDirective, provideCharts } from 'ng2-charts';
 import { CHART_PARTS } from './chart-parts';
@@ -64,10 +55,21 @@ const MAX_POINTS_PER_SERIES = 900;
     </figure>
   `,
   styles: `
-    :host { display: block; }
-    figure { margin: 0; }
-    figcaption { font: var(--mat-sys-title-small); margin: 0 0 4px; color: var(--mat-sys-on-surface); }
-    .canvas-box { position: relative; width: 100%; }
+    :host {
+      display: block;
+    }
+    figure {
+      margin: 0;
+    }
+    figcaption {
+      font: var(--mat-sys-title-small);
+      margin: 0 0 4px;
+      color: var(--mat-sys-on-surface);
+    }
+    .canvas-box {
+      position: relative;
+      width: 100%;
+    }
   `,
   changeDetection: ChangeDetectionStrategy.OnPush,
 })
@@ -133,7 +135,14 @@ export class DistanceChart {
           title: { display: !!this.yLabel(), text: this.yLabel() },
         },
         ...(hasRight
-          ? { y1: { type: 'linear' as const, position: 'right' as const, title: { display: true, text: this.yRightLabel() }, grid: { drawOnChartArea: false } } }
+          ? {
+              y1: {
+                type: 'linear' as const,
+                position: 'right' as const,
+                title: { display: true, text: this.yRightLabel() },
+                grid: { drawOnChartArea: false },
+              },
+            }
           : {}),
       },
       onHover: (event, _elements, chart) => {
@@ -143,7 +152,7 @@ export class DistanceChart {
           return;
         }
         const inside = event.x >= chart.chartArea.left && event.x <= chart.chartArea.right;
-        this.hovered.emit(inside ? scale.getValueForPixel(event.x) ?? null : null);
+        this.hovered.emit(inside ? (scale.getValueForPixel(event.x) ?? null) : null);
       },
     };
   });

@@ -1,10 +1,6 @@
 import { HttpClient, HttpContext } from '@angular/common/http';
 import { Injectable, inject } from '@angular/core';
-import {
-  tokenInfoResponseSchema,
-  type ChangePasswordRequest,
-  type TokenInfoResponse,
-} from '@shared/domain/auth';
+import { tokenInfoResponseSchema, type ChangePasswordRequest, type TokenInfoResponse } from '@shared/domain/auth';
 import { firstValueFrom } from 'rxjs';
 import { ERRORS_SHOWN_INLINE } from './api-error-message';
 
@@ -29,16 +25,12 @@ export class AccountApi {
 
   /** Sets the first password from an invitation (answers 204). */
   async acceptInvitation(token: string, password: string): Promise<void> {
-    await firstValueFrom(
-      this.http.post('/api/auth/invitations/accept', { token, password }, inline()),
-    );
+    await firstValueFrom(this.http.post('/api/auth/invitations/accept', { token, password }, inline()));
   }
 
   /** Sets a new password from a reset link (answers 204). */
   async confirmPasswordReset(token: string, password: string): Promise<void> {
-    await firstValueFrom(
-      this.http.post('/api/auth/password-reset/confirm', { token, password }, inline()),
-    );
+    await firstValueFrom(this.http.post('/api/auth/password-reset/confirm', { token, password }, inline()));
   }
 
   /** Asks for a reset link; answers 202 whether or not the address is known. */

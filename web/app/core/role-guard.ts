@@ -1,12 +1,5 @@
 import { inject } from '@angular/core';
-import {
-  Router,
-  type CanActivateFn,
-  type CanMatchFn,
-  type Route,
-  type UrlSegment,
-  type UrlTree,
-} from '@angular/router';
+import { Router, type CanActivateFn, type CanMatchFn, type Route, type UrlSegment, type UrlTree } from '@angular/router';
 import type { Role } from '@shared/domain/roles';
 import { areaOf } from './areas';
 import { Session } from './session';

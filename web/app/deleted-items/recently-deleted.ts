@@ -67,7 +67,9 @@ export default class RecentlyDeleted {
 
   /** The roles that may restore the item, in words. */
   protected whoRestores(item: DeletedItem): string {
-    return rolesWith(RESTORE_PERMISSION[item.kind]).map((role) => `${ROLE_LABELS[role].toLowerCase()}s`).join(' and ');
+    return rolesWith(RESTORE_PERMISSION[item.kind])
+      .map((role) => `${ROLE_LABELS[role].toLowerCase()}s`)
+      .join(' and ');
   }
 
   protected async restore(item: DeletedItem): Promise<void> {

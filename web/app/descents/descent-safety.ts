@@ -38,9 +38,14 @@ interface CaseFigures {
         @if (worst(); as w) {
           <app-risk-chip [risk]="d.worstCase!.risk" />
           <dl>
-            <dt>Peak brake temperature</dt><dd>{{ w.peak }}</dd>
-            @if (w.front) { <dt>Front / rear brakes</dt><dd>{{ w.front }} / {{ w.rear }}</dd> }
-            <dt>Advice</dt><dd>{{ w.speed }}</dd>
+            <dt>Peak brake temperature</dt>
+            <dd>{{ w.peak }}</dd>
+            @if (w.front) {
+              <dt>Front / rear brakes</dt>
+              <dd>{{ w.front }} / {{ w.rear }}</dd>
+            }
+            <dt>Advice</dt>
+            <dd>{{ w.speed }}</dd>
           </dl>
         } @else {
           <p class="meta">Not computed for this result: re-run the scenario to get the worst case.</p>
@@ -50,23 +55,35 @@ interface CaseFigures {
         <h3 [id]="id() + '-nominal'">Nominal run, regeneration working</h3>
         <app-risk-chip [risk]="d.nominalRisk ?? d.risk" />
         <dl>
-          <dt>Peak brake temperature</dt><dd>{{ nominal().peak }}</dd>
-          @if (nominal().front) { <dt>Front / rear brakes</dt><dd>{{ nominal().front }} / {{ nominal().rear }}</dd> }
-          <dt>Advice</dt><dd>{{ nominal().speed }}</dd>
+          <dt>Peak brake temperature</dt>
+          <dd>{{ nominal().peak }}</dd>
+          @if (nominal().front) {
+            <dt>Front / rear brakes</dt>
+            <dd>{{ nominal().front }} / {{ nominal().rear }}</dd>
+          }
+          <dt>Advice</dt>
+          <dd>{{ nominal().speed }}</dd>
         </dl>
       </section>
     </div>
     <p class="meta">
-      Fade starts near {{ fade() }}@if (d.fadeMarginK) {; the advice keeps the brakes {{ d.fadeMarginK }} K below it}. The risk shown for
-      this descent is the worst case's.
+      Fade starts near {{ fade() }}
+      @if (d.fadeMarginK) {
+        ; the advice keeps the brakes {{ d.fadeMarginK }} K below it
+      }
+      . The risk shown for this descent is the worst case's.
     </p>
     @if (conditions(); as parts) {
       <p data-testid="worst-case-conditions"><strong>The worst case takes together:</strong> {{ parts.join('; ') }}.</p>
     }
-    <p data-testid="top-soc"><strong>{{ advice().socHeadline }}.</strong> {{ advice().socExplanation }}</p>
+    <p data-testid="top-soc">
+      <strong>{{ advice().socHeadline }}.</strong> {{ advice().socExplanation }}
+    </p>
     @if (flags().length > 0) {
       <ul class="flags" data-testid="safety-flags">
-        @for (flag of flags(); track flag) { <li>{{ flag }}</li> }
+        @for (flag of flags(); track flag) {
+          <li>{{ flag }}</li>
+        }
       </ul>
     }
     @if (d.sensitivity && d.sensitivity.length > 0) {
@@ -80,22 +97,62 @@ interface CaseFigures {
       />
     }
     <p class="caution">
-      Model estimates, not measurements. Check them against the vehicle maker's brake limits and local codes, and have a licensed
-      engineer sign off before drivers act on them.
+      Model estimates, not measurements. Check them against the vehicle maker's brake limits and local codes, and have a licensed engineer
+      sign off before drivers act on them.
     </p>
   `,
   styles: `
-    :host { display: grid; gap: 10px; }
-    .cases { display: grid; grid-template-columns: repeat(auto-fit, minmax(min(100%, 240px), 1fr)); gap: 12px; }
-    .case { border: 1px solid var(--mat-sys-outline-variant); border-radius: var(--mat-sys-corner-medium); padding: 10px 14px; display: grid; gap: 8px; align-content: start; }
-    .case.worst { border-width: 2px; border-color: var(--mat-sys-outline); }
-    h3 { margin: 0; font: var(--mat-sys-title-small); }
-    dl { margin: 0; display: grid; gap: 2px; }
-    dt { color: var(--mat-sys-on-surface-variant); font: var(--mat-sys-label-medium); }
-    dd { margin: 0 0 6px; overflow-wrap: break-word; }
-    p { margin: 0; }
-    .meta, .caution { color: var(--mat-sys-on-surface-variant); font: var(--mat-sys-body-small); }
-    .flags { margin: 0; padding-left: 20px; color: var(--mat-sys-error); }
+    :host {
+      display: grid;
+      gap: 10px;
+    }
+    .cases {
+      display: grid;
+      grid-template-columns: repeat(auto-fit, minmax(min(100%, 240px), 1fr));
+      gap: 12px;
+    }
+    .case {
+      border: 1px solid var(--mat-sys-outline-variant);
+      border-radius: var(--mat-sys-corner-medium);
+      padding: 10px 14px;
+      display: grid;
+      gap: 8px;
+      align-content: start;
+    }
+    .case.worst {
+      border-width: 2px;
+      border-color: var(--mat-sys-outline);
+    }
+    h3 {
+      margin: 0;
+      font: var(--mat-sys-title-small);
+    }
+    dl {
+      margin: 0;
+      display: grid;
+      gap: 2px;
+    }
+    dt {
+      color: var(--mat-sys-on-surface-variant);
+      font: var(--mat-sys-label-medium);
+    }
+    dd {
+      margin: 0 0 6px;
+      overflow-wrap: break-word;
+    }
+    p {
+      margin: 0;
+    }
+    .meta,
+    .caution {
+      color: var(--mat-sys-on-surface-variant);
+      font: var(--mat-sys-body-small);
+    }
+    .flags {
+      margin: 0;
+      padding-left: 20px;
+      color: var(--mat-sys-error);
+    }
   `,
   changeDetection: ChangeDetectionStrategy.OnPush,
 })
@@ -116,7 +173,9 @@ export class DescentSafety {
   protected readonly worst = computed<CaseFigures | null>(() => {
     const d = this.descent();
     const w = d.worstCase;
-    return w ? this.figures(w.peakBrakeTempC, w.peakBrakeTempByAxleC, { ...d, speedAdvice: w.speedAdvice, maxSafeSpeedKph: w.maxSafeSpeedKph }) : null;
+    return w
+      ? this.figures(w.peakBrakeTempC, w.peakBrakeTempByAxleC, { ...d, speedAdvice: w.speedAdvice, maxSafeSpeedKph: w.maxSafeSpeedKph })
+      : null;
   });
 
   protected readonly conditions = computed(() => {

@@ -1,6 +1,13 @@
 import { ChangeDetectionStrategy, Component, computed, input } from '@angular/core';
 import type { SensitivityEntry, SensitivityInput } from '@shared/domain/analysis';
-import { RISK_STYLES, SENSITIVITY_INPUT_LABELS, formatTemperatureLimit, formatTemperatureReached, toDisplay, type UnitSystem } from '@shared/presentation/index';
+import {
+  RISK_STYLES,
+  SENSITIVITY_INPUT_LABELS,
+  formatTemperatureLimit,
+  formatTemperatureReached,
+  toDisplay,
+  type UnitSystem,
+} from '@shared/presentation/index';
 
 interface Bar {
   input: SensitivityInput;
@@ -30,9 +37,7 @@ const TOP = 26;
   selector: 'app-sensitivity-chart',
   template: `
     <figure class="figure">
-      <figcaption id="{{ id() }}-caption">
-        What moves the peak brake temperature most (regeneration working, hotter brake group)
-      </figcaption>
+      <figcaption id="{{ id() }}-caption">What moves the peak brake temperature most (regeneration working, hotter brake group)</figcaption>
       <svg
         role="img"
         [attr.aria-labelledby]="id() + '-caption'"
@@ -42,7 +47,9 @@ const TOP = 26;
         data-testid="sensitivity-chart"
       >
         @for (bar of bars(); track bar.input) {
-          <text class="label" [class.dominant]="bar.dominant" x="0" [attr.y]="bar.y + 15">{{ bar.label }}{{ bar.dominant ? ' ◆' : '' }}</text>
+          <text class="label" [class.dominant]="bar.dominant" x="0" [attr.y]="bar.y + 15">
+            {{ bar.label }}{{ bar.dominant ? ' ◆' : '' }}
+          </text>
           <rect
             [attr.x]="bar.x"
             [attr.y]="bar.y + 4"
@@ -56,10 +63,26 @@ const TOP = 26;
           />
         }
         @if (limitX(); as x) {
-          <line class="limit" [attr.stroke]="limitColour" [attr.x1]="x" [attr.x2]="x" [attr.y1]="TOP - 6" [attr.y2]="height() - 4" data-testid="sensitivity-limit-line" />
+          <line
+            class="limit"
+            [attr.stroke]="limitColour"
+            [attr.x1]="x"
+            [attr.x2]="x"
+            [attr.y1]="TOP - 6"
+            [attr.y2]="height() - 4"
+            data-testid="sensitivity-limit-line"
+          />
           <text class="line-label" [attr.x]="x - 4" y="12" text-anchor="end">limit {{ limitText() }}</text>
         }
-        <line class="fade" [attr.stroke]="fadeColour" [attr.x1]="fadeX()" [attr.x2]="fadeX()" [attr.y1]="TOP - 6" [attr.y2]="height() - 4" data-testid="sensitivity-fade-line" />
+        <line
+          class="fade"
+          [attr.stroke]="fadeColour"
+          [attr.x1]="fadeX()"
+          [attr.x2]="fadeX()"
+          [attr.y1]="TOP - 6"
+          [attr.y2]="height() - 4"
+          data-testid="sensitivity-fade-line"
+        />
         <text class="line-label" [attr.x]="fadeX() + 4" y="12">fade {{ fadeText() }}</text>
       </svg>
       <p class="summary" [id]="id() + '-summary'">{{ summary() }}</p>
@@ -67,12 +90,22 @@ const TOP = 26;
         <summary>The figures</summary>
         <table class="figures" data-testid="sensitivity-table">
           <thead>
-            <tr><th scope="col">Input</th><th scope="col">Moved</th><th scope="col" class="num">Peak, low</th><th scope="col" class="num">Peak, high</th></tr>
+            <tr>
+              <th scope="col">Input</th>
+              <th scope="col">Moved</th>
+              <th scope="col" class="num">Peak, low</th>
+              <th scope="col" class="num">Peak, high</th>
+            </tr>
           </thead>
           <tbody>
             @for (bar of bars(); track bar.input) {
               <tr [class.dominant]="bar.dominant">
-                <th scope="row">{{ bar.label }}@if (bar.dominant) { <span class="tag">widest spread</span> }</th>
+                <th scope="row">
+                  {{ bar.label }}
+                  @if (bar.dominant) {
+                    <span class="tag">widest spread</span>
+                  }
+                </th>
                 <td>{{ bar.range }}</td>
                 <td class="num">{{ bar.low }}</td>
                 <td class="num">{{ bar.high }}</td>
@@ -84,21 +117,73 @@ const TOP = 26;
     </figure>
   `,
   styles: `
-    :host { display: block; }
-    .figure { margin: 0; display: grid; gap: 6px; }
-    figcaption { font: var(--mat-sys-title-small); }
-    svg { width: 100%; max-width: 600px; height: auto; overflow: visible; }
-    .label { font: 12px 'Noto Sans', sans-serif; fill: var(--mat-sys-on-surface); }
-    .label.dominant { font-weight: 700; }
-    .line-label { font: 11px 'Noto Sans', sans-serif; fill: var(--mat-sys-on-surface-variant); }
-    .fade, .limit { stroke-width: 2; }
-    .limit { stroke-dasharray: 5 3; }
-    .summary { margin: 0; color: var(--mat-sys-on-surface-variant); font: var(--mat-sys-body-small); }
-    details summary { cursor: pointer; font: var(--mat-sys-label-large); }
-    .figures { border-collapse: collapse; margin-top: 6px; font: var(--mat-sys-body-small); }
-    .figures th, .figures td { text-align: left; padding: 4px 8px; border-bottom: 1px solid var(--mat-sys-outline-variant); }
-    .figures .num { text-align: right; white-space: nowrap; }
-    .tag { margin-left: 6px; font-weight: 700; }
+    :host {
+      display: block;
+    }
+    .figure {
+      margin: 0;
+      display: grid;
+      gap: 6px;
+    }
+    figcaption {
+      font: var(--mat-sys-title-small);
+    }
+    svg {
+      width: 100%;
+      max-width: 600px;
+      height: auto;
+      overflow: visible;
+    }
+    .label {
+      font:
+        12px 'Noto Sans',
+        sans-serif;
+      fill: var(--mat-sys-on-surface);
+    }
+    .label.dominant {
+      font-weight: 700;
+    }
+    .line-label {
+      font:
+        11px 'Noto Sans',
+        sans-serif;
+      fill: var(--mat-sys-on-surface-variant);
+    }
+    .fade,
+    .limit {
+      stroke-width: 2;
+    }
+    .limit {
+      stroke-dasharray: 5 3;
+    }
+    .summary {
+      margin: 0;
+      color: var(--mat-sys-on-surface-variant);
+      font: var(--mat-sys-body-small);
+    }
+    details summary {
+      cursor: pointer;
+      font: var(--mat-sys-label-large);
+    }
+    .figures {
+      border-collapse: collapse;
+      margin-top: 6px;
+      font: var(--mat-sys-body-small);
+    }
+    .figures th,
+    .figures td {
+      text-align: left;
+      padding: 4px 8px;
+      border-bottom: 1px solid var(--mat-sys-outline-variant);
+    }
+    .figures .num {
+      text-align: right;
+      white-space: nowrap;
+    }
+    .tag {
+      margin-left: 6px;
+      font-weight: 700;
+    }
   `,
   changeDetection: ChangeDetectionStrategy.OnPush,
 })

@@ -92,39 +92,77 @@ export function baseMapPaintRules(): PaintRule[] {
       dataLayer: 'roads',
       filter: (_z, f) => f.props['class'] === 'track' || f.props['class'] === 'path',
       minzoom: 13,
-      symbolizer: new LineSymbolizer({ color: (_z, f) => (classOf(f) === 'track' ? PALETTE.track : PALETTE.path), width: 0.9, dash: [3, 2] }),
+      symbolizer: new LineSymbolizer({
+        color: (_z, f) => (classOf(f) === 'track' ? PALETTE.track : PALETTE.path),
+        width: 0.9,
+        dash: [3, 2],
+      }),
     },
     {
       dataLayer: 'roads',
       filter: (_z, f) => f.props['class'] === 'rail' || f.props['class'] === 'tram',
-      symbolizer: new LineSymbolizer({ color: (_z, f) => (classOf(f) === 'tram' ? PALETTE.tram : PALETTE.rail), width: (z) => (z >= 14 ? 1.6 : 1), dash: [5, 3] }),
+      symbolizer: new LineSymbolizer({
+        color: (_z, f) => (classOf(f) === 'tram' ? PALETTE.tram : PALETTE.rail),
+        width: (z) => (z >= 14 ? 1.6 : 1),
+        dash: [5, 3],
+      }),
     },
     // Casings first, then fills, so junctions read as one surface.
     {
       dataLayer: 'roads',
       filter: (_z, f) => STREETS.has(classOf(f)),
       minzoom: 12,
-      symbolizer: new LineSymbolizer({ color: PALETTE.casing, width: (z, f) => roadWidth(z, classOf(f)) + 1.4, lineCap: 'round', lineJoin: 'round' }),
+      symbolizer: new LineSymbolizer({
+        color: PALETTE.casing,
+        width: (z, f) => roadWidth(z, classOf(f)) + 1.4,
+        lineCap: 'round',
+        lineJoin: 'round',
+      }),
     },
     {
       dataLayer: 'roads',
       filter: (_z, f) => STREETS.has(classOf(f)),
-      symbolizer: new LineSymbolizer({ color: PALETTE.road, width: (z, f) => roadWidth(z, classOf(f)), lineCap: 'round', lineJoin: 'round' }),
+      symbolizer: new LineSymbolizer({
+        color: PALETTE.road,
+        width: (z, f) => roadWidth(z, classOf(f)),
+        lineCap: 'round',
+        lineJoin: 'round',
+      }),
     },
     {
       dataLayer: 'roads',
       filter: (_z, f) => MAIN_ROADS.has(classOf(f)),
-      symbolizer: new LineSymbolizer({ color: PALETTE.mainCasing, width: (z, f) => roadWidth(z, classOf(f)) + 1.6, lineCap: 'round', lineJoin: 'round' }),
+      symbolizer: new LineSymbolizer({
+        color: PALETTE.mainCasing,
+        width: (z, f) => roadWidth(z, classOf(f)) + 1.6,
+        lineCap: 'round',
+        lineJoin: 'round',
+      }),
     },
     {
       dataLayer: 'roads',
       filter: (_z, f) => MAIN_ROADS.has(classOf(f)),
-      symbolizer: new LineSymbolizer({ color: PALETTE.mainRoad, width: (z, f) => roadWidth(z, classOf(f)), lineCap: 'round', lineJoin: 'round' }),
+      symbolizer: new LineSymbolizer({
+        color: PALETTE.mainRoad,
+        width: (z, f) => roadWidth(z, classOf(f)),
+        lineCap: 'round',
+        lineJoin: 'round',
+      }),
     },
   ];
 }
 
-const PLACE_SIZES: Record<string, number> = { city: 17, town: 15, village: 13, suburb: 12, island: 12, hamlet: 12, pass: 11, peak: 11, locality: 11 };
+const PLACE_SIZES: Record<string, number> = {
+  city: 17,
+  town: 15,
+  village: 13,
+  suburb: 12,
+  island: 12,
+  hamlet: 12,
+  pass: 11,
+  peak: 11,
+  locality: 11,
+};
 const PLACE_RANK: Record<string, number> = { city: 0, town: 1, village: 2, island: 3, suburb: 4, pass: 5, peak: 6, hamlet: 7, locality: 8 };
 
 /** Labels: places (larger for larger places, peaks and passes with their elevation), roads along their line, water. */
@@ -149,19 +187,40 @@ export function baseMapLabelRules(): LabelRule[] {
       dataLayer: 'roads',
       minzoom: 13,
       filter: (_z, f) => typeof f.props['name'] === 'string' && !['rail', 'tram', 'path', 'track'].includes(classOf(f)),
-      symbolizer: new LineLabelSymbolizer({ fontFamily: FONT, fontSize: 11, fontWeight: 500, fill: PALETTE.label, stroke: PALETTE.halo, width: 2 }),
+      symbolizer: new LineLabelSymbolizer({
+        fontFamily: FONT,
+        fontSize: 11,
+        fontWeight: 500,
+        fill: PALETTE.label,
+        stroke: PALETTE.halo,
+        width: 2,
+      }),
     },
     {
       dataLayer: 'waterways',
       minzoom: 12,
       filter: (_z, f) => typeof f.props['name'] === 'string',
-      symbolizer: new LineLabelSymbolizer({ fontFamily: FONT, fontSize: 11, fontStyle: 'italic', fill: PALETTE.waterLabel, stroke: PALETTE.halo, width: 2 }),
+      symbolizer: new LineLabelSymbolizer({
+        fontFamily: FONT,
+        fontSize: 11,
+        fontStyle: 'italic',
+        fill: PALETTE.waterLabel,
+        stroke: PALETTE.halo,
+        width: 2,
+      }),
     },
     {
       dataLayer: 'water',
       minzoom: 12,
       filter: (_z, f) => typeof f.props['name'] === 'string',
-      symbolizer: new CenteredTextSymbolizer({ fontFamily: FONT, fontSize: 11, fontStyle: 'italic', fill: PALETTE.waterLabel, stroke: PALETTE.halo, width: 2 }),
+      symbolizer: new CenteredTextSymbolizer({
+        fontFamily: FONT,
+        fontSize: 11,
+        fontStyle: 'italic',
+        fill: PALETTE.waterLabel,
+        stroke: PALETTE.halo,
+        width: 2,
+      }),
     },
   ];
 }

@@ -267,9 +267,7 @@ export class TerrainMap {
         });
         if (overlay.label) line.bindTooltip(overlay.label, { sticky: true });
         if (overlay.interactive) {
-          line.on('click', (event: L.LeafletMouseEvent) =>
-            this.overlayClicked.emit({ id: overlay.id, at: fromLatLng(event.latlng) }),
-          );
+          line.on('click', (event: L.LeafletMouseEvent) => this.overlayClicked.emit({ id: overlay.id, at: fromLatLng(event.latlng) }));
         }
         return line;
       }

@@ -32,7 +32,10 @@ import { ReviewStateChip } from './review-state-chip';
             @if (entry.details.length > 0) {
               <dl class="details">
                 @for (line of entry.details; track $index) {
-                  <div><dt>{{ line.label }}</dt><dd>{{ line.value }}</dd></div>
+                  <div>
+                    <dt>{{ line.label }}</dt>
+                    <dd>{{ line.value }}</dd>
+                  </div>
                 }
               </dl>
             }
@@ -42,25 +45,83 @@ import { ReviewStateChip } from './review-state-chip';
     }
   `,
   styles: `
-    :host { display: block; }
-    .empty { color: var(--mat-sys-on-surface-variant); margin: 0; }
-    .trail { list-style: none; margin: 0; padding: 0; border-left: 2px solid var(--mat-sys-outline-variant); }
-    .event { position: relative; padding: 0 0 16px 18px; }
-    .event::before {
-      content: ''; position: absolute; left: -7px; top: 4px; width: 12px; height: 12px;
-      border-radius: 50%; background: var(--mat-sys-primary); border: 2px solid var(--mat-sys-surface);
+    :host {
+      display: block;
     }
-    .head { display: flex; flex-wrap: wrap; gap: 4px 12px; align-items: baseline; }
-    .who { font: var(--mat-sys-title-small); }
-    time { font: var(--mat-sys-body-small); color: var(--mat-sys-on-surface-variant); }
-    .move { display: flex; align-items: center; gap: 6px; margin: 6px 0; flex-wrap: wrap; }
-    .arrow { color: var(--mat-sys-on-surface-variant); }
-    .note { margin: 4px 0; font: var(--mat-sys-body-medium); white-space: pre-line; }
-    .details { margin: 4px 0 0; display: grid; gap: 2px; font: var(--mat-sys-body-small); }
-    .details div { display: flex; gap: 6px; flex-wrap: wrap; }
-    dt { color: var(--mat-sys-on-surface-variant); }
-    dt::after { content: ':'; }
-    dd { margin: 0; font-weight: 500; }
+    .empty {
+      color: var(--mat-sys-on-surface-variant);
+      margin: 0;
+    }
+    .trail {
+      list-style: none;
+      margin: 0;
+      padding: 0;
+      border-left: 2px solid var(--mat-sys-outline-variant);
+    }
+    .event {
+      position: relative;
+      padding: 0 0 16px 18px;
+    }
+    .event::before {
+      content: '';
+      position: absolute;
+      left: -7px;
+      top: 4px;
+      width: 12px;
+      height: 12px;
+      border-radius: 50%;
+      background: var(--mat-sys-primary);
+      border: 2px solid var(--mat-sys-surface);
+    }
+    .head {
+      display: flex;
+      flex-wrap: wrap;
+      gap: 4px 12px;
+      align-items: baseline;
+    }
+    .who {
+      font: var(--mat-sys-title-small);
+    }
+    time {
+      font: var(--mat-sys-body-small);
+      color: var(--mat-sys-on-surface-variant);
+    }
+    .move {
+      display: flex;
+      align-items: center;
+      gap: 6px;
+      margin: 6px 0;
+      flex-wrap: wrap;
+    }
+    .arrow {
+      color: var(--mat-sys-on-surface-variant);
+    }
+    .note {
+      margin: 4px 0;
+      font: var(--mat-sys-body-medium);
+      white-space: pre-line;
+    }
+    .details {
+      margin: 4px 0 0;
+      display: grid;
+      gap: 2px;
+      font: var(--mat-sys-body-small);
+    }
+    .details div {
+      display: flex;
+      gap: 6px;
+      flex-wrap: wrap;
+    }
+    dt {
+      color: var(--mat-sys-on-surface-variant);
+    }
+    dt::after {
+      content: ':';
+    }
+    dd {
+      margin: 0;
+      font-weight: 500;
+    }
   `,
   changeDetection: ChangeDetectionStrategy.OnPush,
 })

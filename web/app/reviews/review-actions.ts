@@ -40,14 +40,12 @@ const ACTION_LABELS: Readonly<Record<ReviewAction, { label: string; icon: string
   mitigate: {
     label: 'Record mitigation',
     icon: 'shield',
-    hint:
-      'A descent speed cap or an SOC ceiling, re-run by Descentry; it is recorded only when the re-run gives elevated risk or lower.',
+    hint: 'A descent speed cap or an SOC ceiling, re-run by Descentry; it is recorded only when the re-run gives elevated risk or lower.',
   },
   accept: {
     label: 'Propose risk acceptance',
     icon: 'task_alt',
-    hint:
-      'The risk stays as it is, for a reason you give; a second safety officer must sign it off. Use this for measures the model does not represent (a vehicle restriction, a mandatory retarder).',
+    hint: 'The risk stays as it is, for a reason you give; a second safety officer must sign it off. Use this for measures the model does not represent (a vehicle restriction, a mandatory retarder).',
   },
   'sign-off': {
     label: 'Sign off acceptance',

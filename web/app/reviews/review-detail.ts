@@ -1,13 +1,4 @@
-import {
-  ChangeDetectionStrategy,
-  Component,
-  computed,
-  inject,
-  input,
-  linkedSignal,
-  resource,
-  signal,
-} from '@angular/core';
+import { ChangeDetectionStrategy, Component, computed, inject, input, linkedSignal, resource, signal } from '@angular/core';
 import { DatePipe } from '@angular/common';
 import { MatButtonModule } from '@angular/material/button';
 import { MatIconModule } from '@angular/material/icon';
@@ -115,7 +106,7 @@ export default class ReviewDetailPage {
     const direction = item.direction === 'inbound' ? 'inbound' : 'outbound';
     return descentCardsUrl(item.scenarioId, { direction, atM: (item.startM + item.endM) / 2 });
   });
-    /** The risk that stands now: after a mitigation's re-run, that run's (see currentRisk). */
+  /** The risk that stands now: after a mitigation's re-run, that run's (see currentRisk). */
   protected readonly risk = computed(() => {
     const item = this.item();
     return item ? currentRisk(item) : 'low';
@@ -148,7 +139,10 @@ export default class ReviewDetailPage {
     const line = this.mapLine();
     // The map line and the profile share points only when the API sends one position per sample.
     if (x === null || !profile || line.length !== profile.distanceM.length) return null;
-    const index = nearestIndex(profile.distanceM.map((m) => toDisplay('distance', m, this.units())), x);
+    const index = nearestIndex(
+      profile.distanceM.map((m) => toDisplay('distance', m, this.units())),
+      x,
+    );
     return line[index] ?? null;
   });
 
@@ -216,7 +210,6 @@ export default class ReviewDetailPage {
   protected hover(x: number | null): void {
     this.cursorX.set(x);
   }
-
 }
 
 function nearestIndex(values: readonly number[], target: number): number {

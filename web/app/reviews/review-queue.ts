@@ -57,7 +57,7 @@ const NARROW_QUERY = '(max-width: 1099.98px)';
     MatSelectModule,
     MatButtonModule,
     MatIconModule,
-    
+
     EngineeringCaution,
     RiskChip,
     ReviewStateChip,

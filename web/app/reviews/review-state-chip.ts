@@ -19,18 +19,41 @@ const STATE_LOOK: Readonly<Record<ReviewState, { icon: string; tone: string }>> 
     >{{ label() }}</span
   >`,
   styles: `
-    :host { display: inline-block; }
-    .state {
-      display: inline-flex; align-items: center; gap: 4px;
-      padding: 1px 10px 1px 6px; border-radius: 6px; border: 1px solid transparent;
-      font: var(--mat-sys-label-large); white-space: nowrap;
-      -webkit-print-color-adjust: exact; print-color-adjust: exact;
+    :host {
+      display: inline-block;
     }
-    .material-symbols-outlined { font-size: 16px; }
-    .tone-open { background: var(--mat-sys-surface); color: var(--mat-sys-on-surface); border-color: var(--mat-sys-outline); }
-    .tone-working { background: var(--mat-sys-secondary-container); color: var(--mat-sys-on-secondary-container); }
-    .tone-closed { background: var(--mat-sys-primary-container); color: var(--mat-sys-on-primary-container); }
-    .tone-settled { background: var(--mat-sys-surface-container-highest); color: var(--mat-sys-on-surface-variant); }
+    .state {
+      display: inline-flex;
+      align-items: center;
+      gap: 4px;
+      padding: 1px 10px 1px 6px;
+      border-radius: 6px;
+      border: 1px solid transparent;
+      font: var(--mat-sys-label-large);
+      white-space: nowrap;
+      -webkit-print-color-adjust: exact;
+      print-color-adjust: exact;
+    }
+    .material-symbols-outlined {
+      font-size: 16px;
+    }
+    .tone-open {
+      background: var(--mat-sys-surface);
+      color: var(--mat-sys-on-surface);
+      border-color: var(--mat-sys-outline);
+    }
+    .tone-working {
+      background: var(--mat-sys-secondary-container);
+      color: var(--mat-sys-on-secondary-container);
+    }
+    .tone-closed {
+      background: var(--mat-sys-primary-container);
+      color: var(--mat-sys-on-primary-container);
+    }
+    .tone-settled {
+      background: var(--mat-sys-surface-container-highest);
+      color: var(--mat-sys-on-surface-variant);
+    }
   `,
   changeDetection: ChangeDetectionStrategy.OnPush,
 })

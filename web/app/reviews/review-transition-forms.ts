@@ -1,11 +1,4 @@
-import {
-  FormControl,
-  FormGroup,
-  Validators,
-  type AbstractControl,
-  type ValidationErrors,
-  type ValidatorFn,
-} from '@angular/forms';
+import { FormControl, FormGroup, Validators, type AbstractControl, type ValidationErrors, type ValidatorFn } from '@angular/forms';
 import { SPEED_LIMIT_KPH } from '@shared/domain/limits';
 import { reviewTransitionRequestSchema, type ReviewTransitionRequest } from '@shared/domain/reviews';
 

@@ -65,9 +65,7 @@ export class RoadRoutesApi {
 
   /** Length and elevation along a geometry being edited (not stored). Cancel by unsubscribing. */
   profile(geometry: LineString): Observable<RouteProfile> {
-    return this.http
-      .post('/api/routes/profile', { geometry }, inline())
-      .pipe(map((body) => routeProfileSchema.parse(body)));
+    return this.http.post('/api/routes/profile', { geometry }, inline()).pipe(map((body) => routeProfileSchema.parse(body)));
   }
 
   /** Download address of a route export (the browser saves the file). */
@@ -116,7 +114,6 @@ export class RoadRoutesApi {
       .post('/api/road-network/path', { from: lngLat(from), to: lngLat(to), via: via.map(lngLat) }, inline())
       .pipe(map((body) => roadNetworkPathSchema.parse(body)));
   }
-
 }
 
 function routePath(routeId: string): string {

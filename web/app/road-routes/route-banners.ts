@@ -22,7 +22,9 @@ export type RouteProfileState = { status: 'idle' } | LoadState<RouteProfile>;
     </p>
   `,
   styles: `
-    :host { display: contents; }
+    :host {
+      display: contents;
+    }
   `,
   changeDetection: ChangeDetectionStrategy.OnPush,
 })
@@ -52,12 +54,14 @@ export class RouteVersionBanner {
             <button matButton type="button" (click)="useTerrain.emit()">Use the terrain’s instead</button>
           }
         } @else {
-          {{ kept.recorded }} of {{ kept.total }} vertices keep a recorded elevation; the edited ones have none,
-          so the terrain supplies every elevation. Undo the edit to keep the recorded ones.
+          {{ kept.recorded }} of {{ kept.total }} vertices keep a recorded elevation; the edited ones have none, so the terrain supplies
+          every elevation. Undo the edit to keep the recorded ones.
         }
       </p>
     } @else if (state.status === 'ready' && state.value.elevationSource === 'terrain') {
-      <p class="elevation-source" data-testid="elevation-source"><mat-icon inline>landscape</mat-icon> Elevations: from the terrain models.</p>
+      <p class="elevation-source" data-testid="elevation-source">
+        <mat-icon inline>landscape</mat-icon> Elevations: from the terrain models.
+      </p>
     }
     @if (state.status === 'idle') {
       <p class="hint">The elevation profile appears once the route has two vertices.</p>
@@ -71,7 +75,9 @@ export class RouteVersionBanner {
     }
   `,
   styles: `
-    :host { display: contents; }
+    :host {
+      display: contents;
+    }
     .hint {
       margin: 0 0 8px;
       color: var(--mat-sys-on-surface-variant);

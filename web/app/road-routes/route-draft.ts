@@ -82,9 +82,7 @@ export function reconcile(state: RouteDraftState): RouteDraftState {
   const lengthM = lineLengthM(vertices);
   const stops = state.stops.map((stop) => {
     const projection = projectOnLine(vertices, [stop.lon, stop.lat]);
-    return projection
-      ? { ...stop, lon: projection.at[0], lat: projection.at[1], atM: roundAlongM(projection.atM) }
-      : stop;
+    return projection ? { ...stop, lon: projection.at[0], lat: projection.at[1], atM: roundAlongM(projection.atM) } : stop;
   });
   stops.sort((a, b) => a.atM - b.atM);
   return { vertices, stops, speedLimits: clipRanges(state.speedLimits, lengthM) };

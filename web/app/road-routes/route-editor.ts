@@ -1,16 +1,5 @@
 import { DatePipe } from '@angular/common';
-import {
-  ChangeDetectionStrategy,
-  Component,
-  computed,
-  effect,
-  inject,
-  input,
-  resource,
-  signal,
-  untracked,
-  viewChild,
-} from '@angular/core';
+import { ChangeDetectionStrategy, Component, computed, effect, inject, input, resource, signal, untracked, viewChild } from '@angular/core';
 import { toObservable, toSignal } from '@angular/core/rxjs-interop';
 import { FormControl, FormGroup, ReactiveFormsModule, Validators } from '@angular/forms';
 import { MatButtonModule } from '@angular/material/button';
@@ -38,7 +27,14 @@ import { QuantityPipe } from '../units/quantity-pipe';
 import { formatQuantity, fromDisplay, toDisplay, unitLabel } from '../units/unit-format';
 import { speedLimitValidator } from '../units/speed-limit-validator';
 import { DEFAULT_SPEED_LIMIT_KPH, SERVICE_DAYS_PER_YEAR, TRIPS_PER_DAY } from '@shared/domain/limits';
-import { SERVICE_DAYS_RANGE, TRIPS_PER_DAY_RANGE, displayToKph, isSpeedLimitKphAllowed, kphToDisplay, speedLimitRange } from '@shared/presentation/index';
+import {
+  SERVICE_DAYS_RANGE,
+  TRIPS_PER_DAY_RANGE,
+  displayToKph,
+  isSpeedLimitKphAllowed,
+  kphToDisplay,
+  speedLimitRange,
+} from '@shared/presentation/index';
 import { UnitPreference } from '../units/unit-preference';
 import { UnitSwitch } from '../units/unit-switch';
 import { LOADING, loadFailed, loadStateOf } from '../ui/load-state';
@@ -197,8 +193,14 @@ export default class RouteEditor {
     name: new FormControl('', { nonNullable: true, validators: [Validators.required, Validators.maxLength(120)] }),
     mode: new FormControl<(typeof ROUTE_MODES)[number]>('bus', { nonNullable: true }),
     description: new FormControl('', { nonNullable: true, validators: [Validators.maxLength(2000)] }),
-    defaultSpeedLimit: new FormControl(DEFAULT_SPEED_LIMIT_KPH, { nonNullable: true, validators: [Validators.required, speedLimitValidator(() => this.units())] }),
-    tripsPerDay: new FormControl<number>(TRIPS_PER_DAY.default, { nonNullable: true, validators: [Validators.required, Validators.min(TRIPS_PER_DAY.min), Validators.max(TRIPS_PER_DAY.max)] }),
+    defaultSpeedLimit: new FormControl(DEFAULT_SPEED_LIMIT_KPH, {
+      nonNullable: true,
+      validators: [Validators.required, speedLimitValidator(() => this.units())],
+    }),
+    tripsPerDay: new FormControl<number>(TRIPS_PER_DAY.default, {
+      nonNullable: true,
+      validators: [Validators.required, Validators.min(TRIPS_PER_DAY.min), Validators.max(TRIPS_PER_DAY.max)],
+    }),
     serviceDaysPerYear: new FormControl<number>(SERVICE_DAYS_PER_YEAR.default, {
       nonNullable: true,
       validators: [Validators.required, Validators.min(SERVICE_DAYS_PER_YEAR.min), Validators.max(SERVICE_DAYS_PER_YEAR.max)],
@@ -474,14 +476,16 @@ export default class RouteEditor {
     }
   }
 
-
   // ---- Tables ----
 
   /** A coordinate typed in the vertex table; a value out of range is refused and the field shows the vertex again. */
   protected setVertexCoordinate({ index, axis, text, restore }: CoordinateTyped): void {
     const degrees = parseCoordinate(text, axis);
     if (degrees === null) {
-      this.snackBar.open(axis === 'lon' ? 'A longitude is between −180 and 180 degrees.' : 'A latitude is between −90 and 90 degrees.', 'Dismiss');
+      this.snackBar.open(
+        axis === 'lon' ? 'A longitude is between −180 and 180 degrees.' : 'A latitude is between −90 and 90 degrees.',
+        'Dismiss',
+      );
     } else {
       this.edit((state) => setVertexCoordinate(state, index, axis, degrees));
     }
@@ -699,16 +703,15 @@ export default class RouteEditor {
 
 function toDraft(route: RoadRoute): RouteDraftState {
   return {
-    vertices: route.geometry.coordinates.map((position) => (position.length >= 3 ? ([position[0]!, position[1]!, position[2]!] as const) : lonLatOf(position))),
+    vertices: route.geometry.coordinates.map((position) =>
+      position.length >= 3 ? ([position[0]!, position[1]!, position[2]!] as const) : lonLatOf(position),
+    ),
     stops: route.stops.map((stop) => ({ name: stop.name, lon: stop.lon, lat: stop.lat, dwellS: stop.dwellS, atM: stop.atM })),
     speedLimits: route.speedLimits.map((stretch) => ({ ...stretch })),
   };
 }
 
-
 /** A vertex as GeoJSON, with its recorded elevation when it has one. */
 function positionOf(vertex: LonLat): [number, number] | [number, number, number] {
   return vertex.length === 3 ? [vertex[0], vertex[1], vertex[2]] : [vertex[0], vertex[1]];
 }
-
-

@@ -76,7 +76,9 @@ export default class RouteList {
   protected readonly importOpen = signal(false);
   protected readonly importElevations = signal<RouteImportElevations>('file');
   /** What the last import made, shown above the list with links to the new routes. */
-  protected readonly imported = signal<{ fileName: string; routes: { id: string; name: string }[]; elevations: string | null } | null>(null);
+  protected readonly imported = signal<{ fileName: string; routes: { id: string; name: string }[]; elevations: string | null } | null>(
+    null,
+  );
   protected readonly isPlanner = computed(() => this.session.can('routes.edit'));
   protected readonly isAnalyst = computed(() => this.session.can('road-network.upload'));
 

@@ -39,7 +39,14 @@ export function routeOverlays(input: RouteOverlayInput): MapOverlay[] {
   const { editing, tool, selectedVertex } = input;
   const overlays: MapOverlay[] = [];
   for (const [index, feature] of (input.network?.features ?? []).entries()) {
-    overlays.push({ kind: 'line', id: `network:${index}`, positions: feature.geometry.coordinates.map(lonLatOf), color: NETWORK_COLOR, weight: 2, opacity: 0.7 });
+    overlays.push({
+      kind: 'line',
+      id: `network:${index}`,
+      positions: feature.geometry.coordinates.map(lonLatOf),
+      color: NETWORK_COLOR,
+      weight: 2,
+      opacity: 0.7,
+    });
   }
   speedLimits.forEach((stretch, index) => {
     overlays.push({
@@ -61,12 +68,24 @@ export function routeOverlays(input: RouteOverlayInput): MapOverlay[] {
       color: ROUTE_COLOR,
       weight: 5,
       interactive: editing && tool !== 'draw',
-      label: editing && tool === 'stop' ? 'Click to place a stop here' : editing && tool === 'limit' ? 'Click the start, then the end of the stretch' : undefined,
+      label:
+        editing && tool === 'stop'
+          ? 'Click to place a stop here'
+          : editing && tool === 'limit'
+            ? 'Click the start, then the end of the stretch'
+            : undefined,
     });
   }
   if (editing && tool === 'draw') {
     segmentMidpoints(vertices).forEach((at, index) =>
-      overlays.push({ kind: 'handle', id: `mid:${index}`, at: lonLatOf(at), variant: 'midpoint', draggable: false, label: `Insert a vertex in segment ${index + 1}` }),
+      overlays.push({
+        kind: 'handle',
+        id: `mid:${index}`,
+        at: lonLatOf(at),
+        variant: 'midpoint',
+        draggable: false,
+        label: `Insert a vertex in segment ${index + 1}`,
+      }),
     );
   }
   if (editing) {

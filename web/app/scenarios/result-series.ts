@@ -34,7 +34,12 @@ export function distanceAxis(profile: Pick<Profile, 'distanceM'>, system: UnitSy
   return profile.distanceM.map((m) => toDisplay('distance', m, system));
 }
 
-export function elevationSeries(profile: Pick<Profile, 'distanceM' | 'elevationM' | 'gradePercent'>, system: UnitSystem, label = 'Elevation', color = '#0b5567'): ChartSeries {
+export function elevationSeries(
+  profile: Pick<Profile, 'distanceM' | 'elevationM' | 'gradePercent'>,
+  system: UnitSystem,
+  label = 'Elevation',
+  color = '#0b5567',
+): ChartSeries {
   return {
     label,
     x: distanceAxis(profile, system),
@@ -45,7 +50,10 @@ export function elevationSeries(profile: Pick<Profile, 'distanceM' | 'elevationM
   };
 }
 
-export function forceSeries(profile: Pick<Profile, 'distanceM' | 'rollingN' | 'aeroN' | 'gradeN' | 'inertiaN'>, system: UnitSystem): ChartSeries[] {
+export function forceSeries(
+  profile: Pick<Profile, 'distanceM' | 'rollingN' | 'aeroN' | 'gradeN' | 'inertiaN'>,
+  system: UnitSystem,
+): ChartSeries[] {
   const x = distanceAxis(profile, system);
   const force = (values: readonly number[]) => values.map((n) => toDisplay('force', n, system));
   return [
@@ -56,7 +64,12 @@ export function forceSeries(profile: Pick<Profile, 'distanceM' | 'rollingN' | 'a
   ];
 }
 
-export function speedSeries(profile: Pick<Profile, 'distanceM' | 'speedMps'>, system: UnitSystem, label = 'Speed', color = '#0b5567'): ChartSeries {
+export function speedSeries(
+  profile: Pick<Profile, 'distanceM' | 'speedMps'>,
+  system: UnitSystem,
+  label = 'Speed',
+  color = '#0b5567',
+): ChartSeries {
   return { label, x: distanceAxis(profile, system), y: profile.speedMps.map((v) => toDisplay('speed', v, system)), color };
 }
 
@@ -72,7 +85,12 @@ export function socSeries(profile: Pick<Profile, 'distanceM' | 'soc'>, system: U
   return { label, x: distanceAxis(profile, system), y: profile.soc.map((soc) => soc * 100), color };
 }
 
-export function brakeTemperatureSeries(profile: Pick<Profile, 'distanceM' | 'brakeTempC'>, system: UnitSystem, label = 'Brake temperature', color = '#8e1b2c'): ChartSeries {
+export function brakeTemperatureSeries(
+  profile: Pick<Profile, 'distanceM' | 'brakeTempC'>,
+  system: UnitSystem,
+  label = 'Brake temperature',
+  color = '#8e1b2c',
+): ChartSeries {
   return { label, x: distanceAxis(profile, system), y: profile.brakeTempC.map((c) => toDisplay('temperature', c, system)), color };
 }
 

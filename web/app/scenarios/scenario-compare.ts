@@ -88,7 +88,11 @@ export default class ScenarioCompare {
       .filter((entry) => entry.direction !== undefined);
     const overlay = (make: (entry: (typeof withResults)[number]) => ChartSeries): ChartSeries[] => withResults.map(make);
     return {
-      elevation: overlay(({ item, color, direction }) => ({ ...elevationSeries(direction!.profile, system, item.scenario.name, color), fill: false, segmentFill: undefined })),
+      elevation: overlay(({ item, color, direction }) => ({
+        ...elevationSeries(direction!.profile, system, item.scenario.name, color),
+        fill: false,
+        segmentFill: undefined,
+      })),
       speed: overlay(({ item, color, direction }) => speedSeries(direction!.profile, system, item.scenario.name, color)),
       soc: overlay(({ item, color, direction }) => socSeries(direction!.profile, system, item.scenario.name, color)),
       brake: overlay(({ item, color, direction }) => brakeTemperatureSeries(direction!.profile, system, item.scenario.name, color)),
@@ -119,7 +123,9 @@ export default class ScenarioCompare {
         const counts = countByRisk(result.directions);
         const highest = [...RISK_ORDER].reverse().find((risk) => counts[risk] > 0);
         if (!highest) return { value: 'No descent', difference: '', tone: 'neutral' };
-        const others = RISK_ORDER.filter((risk) => risk !== 'low' && counts[risk] > 0).map((risk) => `${counts[risk]} ${RISK_LABELS[risk].toLowerCase()}`);
+        const others = RISK_ORDER.filter((risk) => risk !== 'low' && counts[risk] > 0).map(
+          (risk) => `${counts[risk]} ${RISK_LABELS[risk].toLowerCase()}`,
+        );
         return { value: RISK_LABELS[highest], difference: others.join(', '), tone: 'neutral', risk: highest };
       }),
     };

@@ -60,7 +60,8 @@ export function toScenarioDraft(value: ScenarioFormValue, system: UnitSystem): S
     routeId: value.routeId,
     direction: value.direction,
     vehicleProfileId: value.vehicleProfileId,
-    load: value.load === 'passengers' ? { kind: 'passengers', passengers: Math.round(value.passengers) } : { kind: 'case', case: value.load },
+    load:
+      value.load === 'passengers' ? { kind: 'passengers', passengers: Math.round(value.passengers) } : { kind: 'case', case: value.load },
     season:
       value.season === 'custom'
         ? {
@@ -95,7 +96,9 @@ export function toFormValue(scenario: Scenario, system: UnitSystem): ScenarioFor
     passengers: scenario.load.kind === 'passengers' ? scenario.load.passengers : DEFAULT_SCENARIO_FORM.passengers,
     season: scenario.season.kind === 'season' ? scenario.season.season : 'custom',
     customAmbient:
-      scenario.season.kind === 'custom' ? round(toDisplay('temperature', scenario.season.ambientC, system), 1) : DEFAULT_SCENARIO_FORM.customAmbient,
+      scenario.season.kind === 'custom'
+        ? round(toDisplay('temperature', scenario.season.ambientC, system), 1)
+        : DEFAULT_SCENARIO_FORM.customAmbient,
     customAuxKw: scenario.season.kind === 'custom' ? scenario.season.auxPowerW / 1_000 : DEFAULT_SCENARIO_FORM.customAuxKw,
     startSocPercent: round(scenario.startSoc * 100, 1),
     spacingM: scenario.options.spacingM,

@@ -116,14 +116,31 @@ export default class ScenarioForm {
     direction: new FormControl<Direction>(DEFAULT_SCENARIO_FORM.direction, { nonNullable: true }),
     vehicleProfileId: new FormControl(DEFAULT_SCENARIO_FORM.vehicleProfileId, { nonNullable: true, validators: [Validators.required] }),
     load: new FormControl<LoadChoice>(DEFAULT_SCENARIO_FORM.load, { nonNullable: true }),
-    passengers: new FormControl(DEFAULT_SCENARIO_FORM.passengers, { nonNullable: true, validators: [Validators.required, Validators.min(0), Validators.max(400)] }),
+    passengers: new FormControl(DEFAULT_SCENARIO_FORM.passengers, {
+      nonNullable: true,
+      validators: [Validators.required, Validators.min(0), Validators.max(400)],
+    }),
     season: new FormControl<SeasonChoice>(DEFAULT_SCENARIO_FORM.season, { nonNullable: true }),
     customAmbient: new FormControl(DEFAULT_SCENARIO_FORM.customAmbient, { nonNullable: true, validators: [Validators.required] }),
-    customAuxKw: new FormControl(DEFAULT_SCENARIO_FORM.customAuxKw, { nonNullable: true, validators: [Validators.required, Validators.min(0), Validators.max(500)] }),
-    startSocPercent: new FormControl(DEFAULT_SCENARIO_FORM.startSocPercent, { nonNullable: true, validators: [Validators.required, Validators.min(SOC_PERCENT_RANGE.min), Validators.max(SOC_PERCENT_RANGE.max)] }),
-    spacingM: new FormControl(DEFAULT_SCENARIO_FORM.spacingM, { nonNullable: true, validators: [Validators.required, Validators.min(1), Validators.max(200)] }),
-    smoothingWindowM: new FormControl(DEFAULT_SCENARIO_FORM.smoothingWindowM, { nonNullable: true, validators: [Validators.required, Validators.min(0), Validators.max(5000)] }),
-    descentSpeedCap: new FormControl<number | null>(DEFAULT_SCENARIO_FORM.descentSpeedCap, { validators: [speedLimitValidator(() => this.units())] }),
+    customAuxKw: new FormControl(DEFAULT_SCENARIO_FORM.customAuxKw, {
+      nonNullable: true,
+      validators: [Validators.required, Validators.min(0), Validators.max(500)],
+    }),
+    startSocPercent: new FormControl(DEFAULT_SCENARIO_FORM.startSocPercent, {
+      nonNullable: true,
+      validators: [Validators.required, Validators.min(SOC_PERCENT_RANGE.min), Validators.max(SOC_PERCENT_RANGE.max)],
+    }),
+    spacingM: new FormControl(DEFAULT_SCENARIO_FORM.spacingM, {
+      nonNullable: true,
+      validators: [Validators.required, Validators.min(1), Validators.max(200)],
+    }),
+    smoothingWindowM: new FormControl(DEFAULT_SCENARIO_FORM.smoothingWindowM, {
+      nonNullable: true,
+      validators: [Validators.required, Validators.min(0), Validators.max(5000)],
+    }),
+    descentSpeedCap: new FormControl<number | null>(DEFAULT_SCENARIO_FORM.descentSpeedCap, {
+      validators: [speedLimitValidator(() => this.units())],
+    }),
     useStops: new FormControl(DEFAULT_SCENARIO_FORM.useStops, { nonNullable: true }),
     inService: new FormControl(DEFAULT_SCENARIO_FORM.inService, { nonNullable: true }),
   });

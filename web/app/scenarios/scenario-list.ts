@@ -23,7 +23,17 @@ export const MAX_COMPARED = 4;
 /** Every scenario: status, headline figures, risk; pick two to four to compare. */
 @Component({
   selector: 'app-scenario-list',
-  imports: [RouterLink, MatTableModule, MatSortModule, MatPaginatorModule, MatCheckboxModule, MatButtonModule, MatIconModule, QuantityPipe, LoadStatus],
+  imports: [
+    RouterLink,
+    MatTableModule,
+    MatSortModule,
+    MatPaginatorModule,
+    MatCheckboxModule,
+    MatButtonModule,
+    MatIconModule,
+    QuantityPipe,
+    LoadStatus,
+  ],
   templateUrl: './scenario-list.html',
   styleUrl: './scenario-list.scss',
   changeDetection: ChangeDetectionStrategy.OnPush,
@@ -58,12 +68,18 @@ export default class ScenarioList {
   constructor() {
     this.dataSource.sortingDataAccessor = (scenario, column) => {
       switch (column) {
-        case 'route': return scenario.routeName.toLowerCase();
-        case 'vehicle': return scenario.vehicleProfileName.toLowerCase();
-        case 'net': return scenario.summary?.batteryNetEnergyWh ?? -Infinity;
-        case 'regen': return scenario.summary?.regenEnergyWh ?? -Infinity;
-        case 'risk': return worstRiskRank(scenario);
-        default: return scenario.name.toLowerCase();
+        case 'route':
+          return scenario.routeName.toLowerCase();
+        case 'vehicle':
+          return scenario.vehicleProfileName.toLowerCase();
+        case 'net':
+          return scenario.summary?.batteryNetEnergyWh ?? -Infinity;
+        case 'regen':
+          return scenario.summary?.regenEnergyWh ?? -Infinity;
+        case 'risk':
+          return worstRiskRank(scenario);
+        default:
+          return scenario.name.toLowerCase();
       }
     };
     effect(() => {
@@ -88,7 +104,9 @@ export default class ScenarioList {
   }
 
   protected toggle(id: string): void {
-    this.selected.update((ids) => (ids.includes(id) ? ids.filter((other) => other !== id) : ids.length < MAX_COMPARED ? [...ids, id] : ids));
+    this.selected.update((ids) =>
+      ids.includes(id) ? ids.filter((other) => other !== id) : ids.length < MAX_COMPARED ? [...ids, id] : ids,
+    );
   }
 
   protected compare(): void {

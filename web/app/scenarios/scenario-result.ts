@@ -1,15 +1,5 @@
 import { DatePipe, PercentPipe } from '@angular/common';
-import {
-  ChangeDetectionStrategy,
-  Component,
-  DestroyRef,
-  computed,
-  effect,
-  inject,
-  input,
-  signal,
-  untracked,
-} from '@angular/core';
+import { ChangeDetectionStrategy, Component, DestroyRef, computed, effect, inject, input, signal, untracked } from '@angular/core';
 import { MatButtonModule } from '@angular/material/button';
 import { MatDialog } from '@angular/material/dialog';
 import { MatButtonToggleModule } from '@angular/material/button-toggle';
@@ -55,10 +45,7 @@ import { DIRECTION_LABELS, SCENARIO_STATUS_LABELS, describeLoad, describeSeason,
 import { ScenariosApi, descentCardsUrl, type ResultScreenData, type ResultScreenDirection } from './scenarios-api';
 
 type ResultState =
-  | { status: 'loading' }
-  | { status: 'none' }
-  | { status: 'ready'; result: ResultScreenData }
-  | { status: 'error'; message: string };
+  { status: 'loading' } | { status: 'none' } | { status: 'ready'; result: ResultScreenData } | { status: 'error'; message: string };
 
 /** How often a queued or running scenario is asked for its status, ms. */
 const POLL_INTERVAL_MS = 1_500;
@@ -150,7 +137,10 @@ export default class ScenarioResultScreen {
     const descents = this.descents();
     const chosen = descents.find((descent) => descent.startM === this.chosenStartM());
     if (chosen) return chosen;
-    return descents.reduce<Descent | null>((worst, descent) => (!worst || riskRank(descent.risk) > riskRank(worst.risk) ? descent : worst), null);
+    return descents.reduce<Descent | null>(
+      (worst, descent) => (!worst || riskRank(descent.risk) > riskRank(worst.risk) ? descent : worst),
+      null,
+    );
   });
   protected readonly selectedIndex = computed(() => {
     const selected = this.selectedDescent();

@@ -3,7 +3,16 @@ import { estimatedArrivalS } from './service-day-timeline-model';
 
 /** A new service day before anything is chosen. */
 export function emptyDraft(): ServiceDayDraft {
-  return { name: '', dayType: 'weekday', season: 'winter', batteryAge: 'beginning-of-life', reserveSoc: 0.15, inService: false, chargers: [], blocks: [] };
+  return {
+    name: '',
+    dayType: 'weekday',
+    season: 'winter',
+    batteryAge: 'beginning-of-life',
+    reserveSoc: 0.15,
+    inService: false,
+    chargers: [],
+    blocks: [],
+  };
 }
 
 /** The editable part of a saved service day. */
@@ -56,7 +65,8 @@ export const DEFAULT_LAYOVER_S = 10 * 60;
  */
 export function nextTrip(block: Block, routeId: string, lengthOf: (routeId: string) => number | undefined): BlockTrip {
   const last = block.trips.at(-1);
-  if (!last) return { routeId, direction: 'outbound', departureS: Math.max(block.pullOutS + 10 * 60, 0), load: { kind: 'case', case: 'seated' } };
+  if (!last)
+    return { routeId, direction: 'outbound', departureS: Math.max(block.pullOutS + 10 * 60, 0), load: { kind: 'case', case: 'seated' } };
   const arrivalS = estimatedArrivalS(last.departureS, lengthOf(last.routeId) ?? 0);
   const departureS = Math.min(36 * 3600, Math.ceil((arrivalS + DEFAULT_LAYOVER_S) / 300) * 300);
   const direction = last.routeId === routeId ? (last.direction === 'outbound' ? 'inbound' : 'outbound') : 'outbound';
@@ -103,7 +113,14 @@ export function fieldErrors(details: unknown, message: string): Map<string, stri
     }
   }
   const { blockIndex, tripIndex } = details as { blockIndex?: unknown; tripIndex?: unknown };
-  let named = typeof field === 'string' ? field.replace(/\[(\d+)\]/g, '.$1') : Array.isArray(path) ? path.join('.') : typeof path === 'string' ? path : null;
+  let named =
+    typeof field === 'string'
+      ? field.replace(/\[(\d+)\]/g, '.$1')
+      : Array.isArray(path)
+        ? path.join('.')
+        : typeof path === 'string'
+          ? path
+          : null;
   if (named && typeof blockIndex === 'number') {
     named = `blocks.${blockIndex}${typeof tripIndex === 'number' ? `.trips.${tripIndex}` : ''}.${named}`;
   } else if (!named && typeof blockIndex === 'number') {

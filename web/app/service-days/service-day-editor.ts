@@ -11,7 +11,16 @@ import { MatSlideToggleModule } from '@angular/material/slide-toggle';
 import { Router, RouterLink } from '@angular/router';
 import type { RoadRoute, RoadRouteSummary } from '@shared/domain/road-routes';
 import { LOAD_CASES, SEASONS, type LoadCase, type VehicleProfile } from '@shared/domain/vehicle-profiles';
-import { BATTERY_AGES, CHARGER_KINDS, DAY_TYPES, type Block, type BlockTrip, type Charger, type ChargerKind, type ServiceDayDraft } from '@shared/domain/service-days';
+import {
+  BATTERY_AGES,
+  CHARGER_KINDS,
+  DAY_TYPES,
+  type Block,
+  type BlockTrip,
+  type Charger,
+  type ChargerKind,
+  type ServiceDayDraft,
+} from '@shared/domain/service-days';
 import {
   BATTERY_AGE_LABELS,
   CHARGER_KIND_LABELS,
@@ -115,17 +124,34 @@ export default class ServiceDayEditor {
 
   protected readonly selectedBlock = computed<Block | null>(() => this.draft().blocks[this.selectedBlockIndex()] ?? null);
 
-  protected readonly timeline = computed(() => timelineRows(this.draft().blocks, (routeId) => this.routes().find((route) => route.id === routeId)));
+  protected readonly timeline = computed(() =>
+    timelineRows(this.draft().blocks, (routeId) => this.routes().find((route) => route.id === routeId)),
+  );
 
   protected readonly depotChargers = computed(() => this.draft().chargers.filter((charger) => charger.kind === 'depot'));
 
   protected readonly overlays = computed<MapOverlay[]>(() => {
     const overlays: MapOverlay[] = [];
     for (const route of this.routeShapes().values()) {
-      overlays.push({ kind: 'line', id: `route:${route.id}`, positions: route.geometry.coordinates.map(([lon, lat]) => [lon, lat] as MapPosition), color: ROUTE_COLOUR, weight: 4, opacity: 0.8, label: route.name });
+      overlays.push({
+        kind: 'line',
+        id: `route:${route.id}`,
+        positions: route.geometry.coordinates.map(([lon, lat]) => [lon, lat] as MapPosition),
+        color: ROUTE_COLOUR,
+        weight: 4,
+        opacity: 0.8,
+        label: route.name,
+      });
     }
     this.draft().chargers.forEach((charger) => {
-      overlays.push({ kind: 'pin', id: `charger:${charger.key}`, at: charger.position, color: CHARGER_COLOURS[charger.kind], label: charger.name, draggable: true });
+      overlays.push({
+        kind: 'pin',
+        id: `charger:${charger.key}`,
+        at: charger.position,
+        color: CHARGER_COLOURS[charger.kind],
+        label: charger.name,
+        draggable: true,
+      });
     });
     return overlays;
   });
@@ -191,12 +217,18 @@ export default class ServiceDayEditor {
   protected chargerMoved(event: MapOverlayEvent): void {
     if (!event.id.startsWith('charger:')) return;
     const key = event.id.slice('charger:'.length);
-    this.updateCharger(this.draft().chargers.findIndex((charger) => charger.key === key), { position: [event.at[0], event.at[1]] });
+    this.updateCharger(
+      this.draft().chargers.findIndex((charger) => charger.key === key),
+      { position: [event.at[0], event.at[1]] },
+    );
   }
 
   protected updateCharger(index: number, change: Partial<Charger>): void {
     if (index < 0) return;
-    this.draft.update((draft) => ({ ...draft, chargers: draft.chargers.map((charger, i) => (i === index ? { ...charger, ...change } : charger)) }));
+    this.draft.update((draft) => ({
+      ...draft,
+      chargers: draft.chargers.map((charger, i) => (i === index ? { ...charger, ...change } : charger)),
+    }));
   }
 
   protected setChargerNumber(index: number, field: 'powerW' | 'efficiency' | 'targetSoc', text: string): void {
@@ -242,7 +274,8 @@ export default class ServiceDayEditor {
       const services = await this.api.gtfsServices(file);
       this.gtfsServices.set(services);
       this.gtfsServiceId.set(services.find((service) => service.blocks > 0)?.serviceId ?? services[0]?.serviceId ?? null);
-      if (services.every((service) => service.blocks === 0)) this.gtfsError.set(`${file.name}: no trip in trips.txt has a block_id, so there are no blocks to import.`);
+      if (services.every((service) => service.blocks === 0))
+        this.gtfsError.set(`${file.name}: no trip in trips.txt has a block_id, so there are no blocks to import.`);
     } catch (error) {
       this.gtfsError.set(describeApiError(error));
     } finally {

@@ -36,7 +36,8 @@ import { ServiceDaysApi, type ServiceDayExportKind } from './service-days-api';
 import { RoadRoutesApi } from '../road-routes/road-routes-api';
 import type { RoadRouteSummary } from '@shared/domain/road-routes';
 
-type ResultState = { status: 'loading' } | { status: 'none' } | { status: 'ready'; result: ServiceDayResult } | { status: 'error'; message: string };
+type ResultState =
+  { status: 'loading' } | { status: 'none' } | { status: 'ready'; result: ServiceDayResult } | { status: 'error'; message: string };
 
 /** How often a queued or running service day is asked for its status, ms. */
 const POLL_INTERVAL_MS = 1_500;
@@ -112,7 +113,9 @@ export default class ServiceDayResultScreen {
   });
   protected readonly worsened = computed(() => worsenedDescents(this.result()?.blocks ?? [], riskRank));
   protected readonly peaks = computed(() =>
-    [...(this.result()?.peakChargingPowerW ?? [])].sort((a, b) => b.powerW - a.powerW).map((peak) => ({ ...peak, name: this.chargerName(peak.chargerKey) })),
+    [...(this.result()?.peakChargingPowerW ?? [])]
+      .sort((a, b) => b.powerW - a.powerW)
+      .map((peak) => ({ ...peak, name: this.chargerName(peak.chargerKey) })),
   );
   protected readonly isRunning = computed(() => this.day()?.status === 'queued' || this.day()?.status === 'running');
 
@@ -200,7 +203,12 @@ export default class ServiceDayResultScreen {
       this.resultState.set({ status: 'ready', result: await this.api.result(id) });
     } catch (error: unknown) {
       // Not run yet (404) or its first run still going (409): the page says so without an error.
-      if (this.day() && error instanceof HttpErrorResponse && (error.status === 404 || error.status === 409) && apiErrorBody(error)?.code !== 'not_found') {
+      if (
+        this.day() &&
+        error instanceof HttpErrorResponse &&
+        (error.status === 404 || error.status === 409) &&
+        apiErrorBody(error)?.code !== 'not_found'
+      ) {
         this.resultState.set({ status: 'none' });
         return;
       }

@@ -20,7 +20,13 @@ export function socChartSeries(result: ServiceDayResult, reserveSoc: number): Ch
   if (times.length > 0) {
     const from = Math.floor(Math.min(...times));
     const to = Math.ceil(Math.max(...times));
-    series.push({ label: `Reserve (${Math.round(reserveSoc * 100)} %)`, x: [from, to], y: [reserveSoc * 100, reserveSoc * 100], color: RESERVE_COLOUR, dashed: true });
+    series.push({
+      label: `Reserve (${Math.round(reserveSoc * 100)} %)`,
+      x: [from, to],
+      y: [reserveSoc * 100, reserveSoc * 100],
+      color: RESERVE_COLOUR,
+      dashed: true,
+    });
   }
   return series;
 }
@@ -32,7 +38,10 @@ export interface WorsenedDescent {
 }
 
 /** Every descent the day made worse, the riskiest first. */
-export function worsenedDescents(blocks: readonly BlockResult[], rank: (risk: BlockResult['descents'][number]['risk']) => number): WorsenedDescent[] {
+export function worsenedDescents(
+  blocks: readonly BlockResult[],
+  rank: (risk: BlockResult['descents'][number]['risk']) => number,
+): WorsenedDescent[] {
   return blocks
     .flatMap((block) => block.descents.filter((descent) => descent.worsenedByDay).map((descent) => ({ blockId: block.blockId, descent })))
     .sort((a, b) => rank(b.descent.risk) - rank(a.descent.risk) || b.descent.peakBrakeTempC - a.descent.peakBrakeTempC);

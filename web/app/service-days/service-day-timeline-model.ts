@@ -68,13 +68,19 @@ export function timelineRows(blocks: readonly Block[], routes: RouteLookup, resu
       if (!next) return;
       if (next.startS < trip.startS) warnings.push(`Trip ${index + 2} leaves before trip ${index + 1}: put the trips in time order.`);
       else if (next.startS < trip.endS) {
-        warnings.push(`Trip ${index + 1} arrives about ${formatServiceTime(trip.endS)}, after trip ${index + 2} leaves at ${formatServiceTime(next.startS)}.`);
+        warnings.push(
+          `Trip ${index + 1} arrives about ${formatServiceTime(trip.endS)}, after trip ${index + 2} leaves at ${formatServiceTime(next.startS)}.`,
+        );
       } else layovers.push({ startS: trip.endS, endS: next.startS });
     });
     const first = trips[0];
     const last = trips.at(-1);
-    if (first && block.pullOutS > first.startS) warnings.push(`Pull-out at ${formatServiceTime(block.pullOutS)} is after the first departure.`);
-    if (last && block.pullInS < last.endS) warnings.push(`Pull-in at ${formatServiceTime(block.pullInS)} is before the last trip arrives (about ${formatServiceTime(last.endS)}).`);
+    if (first && block.pullOutS > first.startS)
+      warnings.push(`Pull-out at ${formatServiceTime(block.pullOutS)} is after the first departure.`);
+    if (last && block.pullInS < last.endS)
+      warnings.push(
+        `Pull-in at ${formatServiceTime(block.pullInS)} is before the last trip arrives (about ${formatServiceTime(last.endS)}).`,
+      );
     const blockResult = result?.blocks.find((candidate) => candidate.blockId === block.blockId);
     const charges: TimelineBar[] = (blockResult?.chargingEvents ?? []).map((event) => ({
       kind: 'charge',

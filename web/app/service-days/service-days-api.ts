@@ -63,7 +63,10 @@ export class ServiceDaysApi {
   }
 
   /** The blocks of one service of a GTFS feed, on saved routes, for the draft; nothing is saved. */
-  async gtfsBlocks(file: File, options: { serviceId: string; vehicleProfileId: string; depotChargerKey?: string | undefined }): Promise<GtfsBlocksAnswer> {
+  async gtfsBlocks(
+    file: File,
+    options: { serviceId: string; vehicleProfileId: string; depotChargerKey?: string | undefined },
+  ): Promise<GtfsBlocksAnswer> {
     const form = new FormData();
     form.append('serviceId', options.serviceId);
     form.append('vehicleProfileId', options.vehicleProfileId);

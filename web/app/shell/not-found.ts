@@ -10,8 +10,7 @@ import { RouterLink } from '@angular/router';
     <section class="app-page">
       <h1 class="app-page-title">Page not found</h1>
       <p class="app-lead">
-        This address does not lead to a page you can open. It may have been mistyped, or it belongs
-        to an area your role does not use.
+        This address does not lead to a page you can open. It may have been mistyped, or it belongs to an area your role does not use.
       </p>
       <a matButton="filled" routerLink="/">Go to your home page</a>
     </section>

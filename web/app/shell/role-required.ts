@@ -17,8 +17,8 @@ import { Session } from '../core/session';
     <section class="app-page" data-testid="role-required">
       <h1 class="app-page-title">{{ title() }}</h1>
       <p class="app-lead">
-        Only {{ allowed() }} can {{ action() }}. You are signed in as {{ roleLabel() }}, so this page has nothing for you to do;
-        you can still open everything in {{ backLabel() }}.
+        Only {{ allowed() }} can {{ action() }}. You are signed in as {{ roleLabel() }}, so this page has nothing for you to do; you can
+        still open everything in {{ backLabel() }}.
       </p>
       <a matButton="filled" [routerLink]="back()"><mat-icon>arrow_back</mat-icon> {{ backLabel() }}</a>
     </section>

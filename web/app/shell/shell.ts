@@ -60,9 +60,7 @@ export default class Shell {
       .pipe(map((state) => state.matches)),
     { initialValue: false },
   );
-  protected readonly navGroups = computed<NavGroup[]>(() =>
-    groupLinks(areasFor(this.router.config, this.session.role())),
-  );
+  protected readonly navGroups = computed<NavGroup[]>(() => groupLinks(areasFor(this.router.config, this.session.role())));
 
   protected closeNavIfOverlay(): void {
     if (this.isOverlayNav()) void this.sidenav().close();

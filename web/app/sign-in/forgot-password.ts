@@ -12,15 +12,7 @@ import { BrandMark } from '../ui/brand-mark';
 /** Asks for a password reset link. The answer never says whether the address is known. */
 @Component({
   selector: 'app-forgot-password',
-  imports: [
-    ReactiveFormsModule,
-    RouterLink,
-    MatFormFieldModule,
-    MatInputModule,
-    MatButtonModule,
-    MatIconModule,
-    BrandMark,
-  ],
+  imports: [ReactiveFormsModule, RouterLink, MatFormFieldModule, MatInputModule, MatButtonModule, MatIconModule, BrandMark],
   template: `
     <main class="auth-page">
       <section class="auth-card" aria-labelledby="forgot-title">
@@ -33,15 +25,13 @@ import { BrandMark } from '../ui/brand-mark';
           <p class="app-notice" role="status">
             <mat-icon>mark_email_read</mat-icon>
             <span>
-              If {{ address }} belongs to a Descentry account, a link to set a new password is on its
-              way. The link works once and expires; check your inbox and spam folder.
+              If {{ address }} belongs to a Descentry account, a link to set a new password is on its way. The link works once and expires;
+              check your inbox and spam folder.
             </span>
           </p>
           <a matButton="filled" routerLink="/sign-in">Back to sign in</a>
         } @else {
-          <p class="auth-lead">
-            Enter the e-mail address you sign in with. We will send a link to set a new password.
-          </p>
+          <p class="auth-lead">Enter the e-mail address you sign in with. We will send a link to set a new password.</p>
           @if (errorMessage(); as message) {
             <p class="app-inline-error" role="alert"><mat-icon>error</mat-icon>{{ message }}</p>
           }
@@ -57,9 +47,7 @@ import { BrandMark } from '../ui/brand-mark';
             </mat-form-field>
             <div class="auth-actions">
               <a routerLink="/sign-in">Back to sign in</a>
-              <button matButton="filled" type="submit" [disabled]="isSubmitting()">
-                Send reset link
-              </button>
+              <button matButton="filled" type="submit" [disabled]="isSubmitting()">Send reset link</button>
             </div>
           </form>
         }

@@ -14,8 +14,7 @@ import { TerrainTilesVersion } from '../map/terrain-tiles-version';
 
 /** Progress of an upload: bytes sent so far, then the accepted model. */
 export type UploadProgress =
-  | { kind: 'progress'; sentBytes: number; totalBytes: number }
-  | { kind: 'accepted'; accepted: TerrainUploadAccepted };
+  { kind: 'progress'; sentBytes: number; totalBytes: number } | { kind: 'accepted'; accepted: TerrainUploadAccepted };
 
 /** The terrain endpoints; every answer is parsed with the shared schemas. */
 @Injectable({ providedIn: 'root' })

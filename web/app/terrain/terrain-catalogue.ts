@@ -49,7 +49,14 @@ export default class TerrainCatalogue {
 
   protected readonly columns = ['name', 'status', 'crs', 'resolution', 'size', 'elevation', 'uploaded'];
   protected readonly statusLabels = TERRAIN_STATUS_LABELS;
-  protected readonly format = { formatElevationRange, formatFileSize, formatNodataShare, formatPixelSize, formatResolution, formatModelResolution };
+  protected readonly format = {
+    formatElevationRange,
+    formatFileSize,
+    formatNodataShare,
+    formatPixelSize,
+    formatResolution,
+    formatModelResolution,
+  };
 
   protected readonly models = signal<TerrainModel[]>([]);
   protected readonly loadState = signal<LoadState>({ status: 'loading' });

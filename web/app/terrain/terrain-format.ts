@@ -38,7 +38,12 @@ export function formatModelResolution(model: Pick<TerrainModel, 'resolutionM' | 
     const symbol = unit === 'foot' ? 'ft' : 'US ft';
     return `${formatNumberShort(x)}${x === y ? '' : ` × ${formatNumberShort(y)}`} ${symbol} (${formatResolution(model.resolutionM)})`;
   }
-  const angle = (degrees: number) => (degrees < 1 / 60 ? `${formatNumberShort(degrees * 3600)}″` : degrees < 1 ? `${formatNumberShort(degrees * 60)}′` : `${formatNumberShort(degrees)}°`);
+  const angle = (degrees: number) =>
+    degrees < 1 / 60
+      ? `${formatNumberShort(degrees * 3600)}″`
+      : degrees < 1
+        ? `${formatNumberShort(degrees * 60)}′`
+        : `${formatNumberShort(degrees)}°`;
   const native = Math.abs(x - y) < 1e-12 ? angle(x) : `${angle(x)} × ${angle(y)}`;
   const latitudes = model.footprint?.coordinates[0]?.map(([, lat]) => lat) ?? [];
   if (latitudes.length === 0) return `${native} (about ${formatResolution(model.resolutionM)})`;
@@ -60,7 +65,8 @@ function formatMetresShort(metres: number): string {
 
 /** Resolution in metres: "20 m", "30.9 m", "0.50 m". */
 export function formatResolution(resolutionM: number): string {
-  if (resolutionM >= 10) return `${Math.abs(resolutionM - Math.round(resolutionM)) < 0.05 ? Math.round(resolutionM) : resolutionM.toFixed(1)} m`;
+  if (resolutionM >= 10)
+    return `${Math.abs(resolutionM - Math.round(resolutionM)) < 0.05 ? Math.round(resolutionM) : resolutionM.toFixed(1)} m`;
   return `${resolutionM.toPrecision(2)} m`;
 }
 

@@ -24,8 +24,13 @@ import { ADVICE_CAUTIONS, ADVICE_CAUTIONS_TITLE } from '@shared/presentation/ind
     </aside>
   `,
   styles: `
-    ul { margin: 4px 0 0; padding-left: 18px; }
-    li + li { margin-top: 2px; }
+    ul {
+      margin: 4px 0 0;
+      padding-left: 18px;
+    }
+    li + li {
+      margin-top: 2px;
+    }
   `,
   changeDetection: ChangeDetectionStrategy.OnPush,
 })

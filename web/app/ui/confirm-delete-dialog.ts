@@ -25,8 +25,8 @@ export interface ConfirmDeleteData {
     <mat-dialog-content>
       <p>{{ data.consequence }}</p>
       <p>
-        You or a colleague can restore it under <strong>Recently deleted</strong> for {{ retentionDays }} days;
-        after that it is removed for good.
+        You or a colleague can restore it under <strong>Recently deleted</strong> for {{ retentionDays }} days; after that it is removed for
+        good.
       </p>
     </mat-dialog-content>
     <mat-dialog-actions align="end">

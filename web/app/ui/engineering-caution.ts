@@ -9,14 +9,15 @@ import { MatIconModule } from '@angular/material/icon';
     <aside class="app-caution" aria-label="Engineering caution">
       <mat-icon>warning</mat-icon>
       <p>
-        <strong>Engineering estimates.</strong> Descentry's energy, brake-temperature and
-        descent-speed figures come from models and the data you give them. Local codes, the vehicle
-        maker's limits and the judgement of licensed engineers decide what is safe in service.
+        <strong>Engineering estimates.</strong> Descentry's energy, brake-temperature and descent-speed figures come from models and the
+        data you give them. Local codes, the vehicle maker's limits and the judgement of licensed engineers decide what is safe in service.
       </p>
     </aside>
   `,
   styles: `
-    p { margin: 0; }
+    p {
+      margin: 0;
+    }
   `,
   changeDetection: ChangeDetectionStrategy.OnPush,
 })

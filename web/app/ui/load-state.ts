@@ -7,9 +7,7 @@ import { describeApiError } from '../core/api-error-message';
  * answer here use `LoadState<T>`.
  */
 export type LoadState<T = void> =
-  | { status: 'loading' }
-  | { status: 'error'; message: string }
-  | ([T] extends [void] ? { status: 'ready' } : { status: 'ready'; value: T });
+  { status: 'loading' } | { status: 'error'; message: string } | ([T] extends [void] ? { status: 'ready' } : { status: 'ready'; value: T });
 
 export const LOADING = { status: 'loading' } as const;
 export const LOADED = { status: 'ready' } as const;

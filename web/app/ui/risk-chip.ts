@@ -11,18 +11,30 @@ import { RISK_STYLES } from '@shared/presentation/index';
     [style.color]="style().text"
     [style.border-color]="style().accent"
     [attr.title]="style().meaning"
-    ><span class="dot" [style.background]="style().accent" aria-hidden="true"></span
-    >{{ prefix() }}{{ style().label }}</span
+    ><span class="dot" [style.background]="style().accent" aria-hidden="true"></span>{{ prefix() }}{{ style().label }}</span
   >`,
   styles: `
-    :host { display: inline-block; }
-    .chip {
-      display: inline-flex; align-items: center; gap: 6px;
-      padding: 2px 10px 2px 8px; border: 1px solid; border-radius: 999px;
-      font: var(--mat-sys-label-large); white-space: nowrap;
-      -webkit-print-color-adjust: exact; print-color-adjust: exact;
+    :host {
+      display: inline-block;
     }
-    .dot { width: 8px; height: 8px; border-radius: 50%; box-shadow: 0 0 0 1px rgba(255,255,255,.6); }
+    .chip {
+      display: inline-flex;
+      align-items: center;
+      gap: 6px;
+      padding: 2px 10px 2px 8px;
+      border: 1px solid;
+      border-radius: 999px;
+      font: var(--mat-sys-label-large);
+      white-space: nowrap;
+      -webkit-print-color-adjust: exact;
+      print-color-adjust: exact;
+    }
+    .dot {
+      width: 8px;
+      height: 8px;
+      border-radius: 50%;
+      box-shadow: 0 0 0 1px rgba(255, 255, 255, 0.6);
+    }
   `,
   changeDetection: ChangeDetectionStrategy.OnPush,
 })

@@ -9,6 +9,8 @@ import type { UnitSystem } from './unit-format';
 @Pipe({ name: 'reachedTemperature' })
 export class ReachedTemperaturePipe implements PipeTransform {
   transform(temperatureC: number | null | undefined, system: UnitSystem): string {
-    return temperatureC === null || temperatureC === undefined || !Number.isFinite(temperatureC) ? '—' : formatTemperatureReached(temperatureC, system);
+    return temperatureC === null || temperatureC === undefined || !Number.isFinite(temperatureC)
+      ? '—'
+      : formatTemperatureReached(temperatureC, system);
   }
 }

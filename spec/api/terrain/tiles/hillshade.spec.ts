@@ -66,7 +66,14 @@ describe.skipIf(!hasGdal)('hillshade and slope against gdaldem', () => {
 
   function writeSyntheticGridSafe() {
     if (!hasGdal) return;
-    writeSyntheticGrid({ path, epsg: 32632, geoTransform: [600000, 20, 0, 5170000, 0, -20], widthPx: 120, heightPx: 90, dataType: 'Float32' });
+    writeSyntheticGrid({
+      path,
+      epsg: 32632,
+      geoTransform: [600000, 20, 0, 5170000, 0, -20],
+      widthPx: 120,
+      heightPx: 90,
+      dataType: 'Float32',
+    });
   }
 
   function readPair(outPath: string): { z: number[]; out: number[]; w: number; h: number } {

@@ -27,7 +27,13 @@ describe('TileCache', () => {
     const files = pngsUnder(join(dir, 'v1'));
     const bytes = files.reduce((sum, file) => sum + statSync(file).size, 0);
     expect(bytes).toBeLessThanOrEqual(500 * KIB);
-    expect(files.map((file) => file.split('/').slice(-2).join('/')).sort()).toEqual(['0/0.png', '2/0.png', '3/0.png', '4/0.png', '5/0.png']);
+    expect(files.map((file) => file.split('/').slice(-2).join('/')).sort()).toEqual([
+      '0/0.png',
+      '2/0.png',
+      '3/0.png',
+      '4/0.png',
+      '5/0.png',
+    ]);
   });
 
   it('counts the tiles a previous process left in the folder against the bound', async () => {
@@ -64,7 +70,11 @@ describe('GET /api/tiles/terrain/:z/:x/:y.png where no terrain is', () => {
   it('answers one shared empty tile for 300 distinct zoom-22 tiles without writing a file (issue 11)', async () => {
     const answers = [];
     for (let i = 0; i < 300; i++) {
-      answers.push(await request(context.app).get(`/api/tiles/terrain/22/${1_000_000 + i}/${2_000_000 + i}.png`).set('Cookie', cookie));
+      answers.push(
+        await request(context.app)
+          .get(`/api/tiles/terrain/22/${1_000_000 + i}/${2_000_000 + i}.png`)
+          .set('Cookie', cookie),
+      );
     }
     await settle();
 

@@ -22,7 +22,14 @@ const NODES = 18;
 const STEP = 16;
 
 /** A lattice that maps sample (i, j) to grid coordinates (a + b·i + c·j, d + e·i + f·j): linear, so the kernel's interpolation is exact. */
-function affineLattice(a: number, b: number, c: number, d: number, e: number, f: number): Pick<TileLayer, 'nodeCols' | 'nodeRows' | 'nodes' | 'step'> {
+function affineLattice(
+  a: number,
+  b: number,
+  c: number,
+  d: number,
+  e: number,
+  f: number,
+): Pick<TileLayer, 'nodeCols' | 'nodeRows' | 'nodes' | 'step'> {
   const nodeCols = new Float64Array(NODES * NODES);
   const nodeRows = new Float64Array(NODES * NODES);
   for (let nj = 0; nj < NODES; nj++) {
@@ -54,7 +61,16 @@ describe('tile kernel', () => {
     const window = new Float32Array((width + 2) * (height + 2)).fill(NaN);
     for (let r = 0; r < height; r++) window.set(grid.subarray(r * width, (r + 1) * width), (r + 1) * (width + 2) + 1);
     const lattice = affineLattice(-20.31, 0.83, 0.11, -9.713, -0.07, 0.71);
-    const layer: TileLayer = { window, x0: -1, y0: -1, width: width + 2, height: height + 2, gridWidth: width, gridHeight: height, ...lattice };
+    const layer: TileLayer = {
+      window,
+      x0: -1,
+      y0: -1,
+      width: width + 2,
+      height: height + 2,
+      gridWidth: width,
+      gridHeight: height,
+      ...lattice,
+    };
 
     const sampled = sampleTileElevations([layer]);
 
@@ -103,7 +119,10 @@ describe('tile kernel', () => {
       expect(transparent > 0).toBe(hole !== undefined);
       // Both deflate settings (runs for magnified tiles, Huffman only for detailed ones).
       for (const magnified of [true, false]) {
-        for (const cuts of [[0, 128, 256], [0, 1, 100, 255, 256]]) {
+        for (const cuts of [
+          [0, 128, 256],
+          [0, 1, 100, 255, 256],
+        ]) {
           const parts = cuts.slice(1).map((end, k) => renderTileRows({ ...task, magnified }, cuts[k]!, end, k === cuts.length - 2));
           const split = PNG.sync.read(Buffer.from(pngFromParts(parts)));
           expect(split.data.equals(whole.data)).toBe(true);
@@ -163,7 +182,14 @@ describe.skipIf(!hasGdal)('tile kernel hillshade against gdaldem', () => {
   it('matches gdaldem hillshade within one grey level', () => {
     const width = 120;
     const height = 90;
-    writeSyntheticGrid({ path, epsg: 32632, geoTransform: [600000, 20, 0, 5170000, 0, -20], widthPx: width, heightPx: height, dataType: 'Float32' });
+    writeSyntheticGrid({
+      path,
+      epsg: 32632,
+      geoTransform: [600000, 20, 0, 5170000, 0, -20],
+      widthPx: width,
+      heightPx: height,
+      dataType: 'Float32',
+    });
     gdal('gdaldem', ['hillshade', '-q', '-az', '315', '-alt', '45', path, join(temp.dir, 'shade.tif')]);
     const { z, out } = python<{ z: number[]; out: number[] }>(
       `
@@ -177,7 +203,16 @@ print(json.dumps({'z': a.astype(float).ravel().tolist(), 'out': b.astype(float).
     // one-pixel NaN margin.
     const window = new Float32Array((width + 2) * (height + 2)).fill(NaN);
     for (let r = 0; r < height; r++) window.set(z.slice(r * width, (r + 1) * width), (r + 1) * (width + 2) + 1);
-    const layer: TileLayer = { window, x0: -1, y0: -1, width: width + 2, height: height + 2, gridWidth: width, gridHeight: height, ...affineLattice(-0.5, 1, 0, -0.5, 0, 1) };
+    const layer: TileLayer = {
+      window,
+      x0: -1,
+      y0: -1,
+      width: width + 2,
+      height: height + 2,
+      gridWidth: width,
+      gridHeight: height,
+      ...affineLattice(-0.5, 1, 0, -0.5, 0, 1),
+    };
     const flat = Float64Array.from([0, 254, 254, 254]);
 
     const png = PNG.sync.read(Buffer.from(encodePng(shadeAndTint(sampleTileElevations([layer]), 20, SUN, flat, 0, 1), 256, 256, 1)));

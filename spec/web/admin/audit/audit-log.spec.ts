@@ -29,7 +29,9 @@ describe('AuditLog (issue 11)', () => {
 
     const rows = rowTexts(fixture);
     expect(rows[0]).toMatch(/ \| Marta Oyelaran \| Deleted \| Route \| Mill Road loop \| —$/);
-    expect(rows[1]).toMatch(/ \| Descentry \(automatic\) \| Removed for good \| Terrain model \| Old valley model \| deleted by: Tomás Leclerc$/);
+    expect(rows[1]).toMatch(
+      / \| Descentry \(automatic\) \| Removed for good \| Terrain model \| Old valley model \| deleted by: Tomás Leclerc$/,
+    );
   });
 
   it('asks the server again, from the first page, when a filter changes', async () => {
@@ -39,7 +41,7 @@ describe('AuditLog (issue 11)', () => {
     const loader = TestbedHarnessEnvironment.loader(fixture);
 
     const field = await loader.getHarness(MatFormFieldHarness.with({ floatingLabelText: 'Change' }));
-    await ((await field.getControl(MatSelectHarness))!).clickOptions({ text: 'Deleted' });
+    await (await field.getControl(MatSelectHarness))!.clickOptions({ text: 'Deleted' });
     await new Promise((resolve) => setTimeout(resolve, 300));
     const request = httpTesting.expectOne((candidate) => candidate.url === '/api/audit-log');
 

@@ -57,7 +57,13 @@ describe('NetworkSettings', () => {
     request.flush({ ...STORED, worstCaseAmbientC: 40 });
     await settle(fixture);
 
-    expect(request.request.body).toMatchObject({ worstCaseAmbientC: 40, fadeMarginK: 60, maxRoadGradePercent: 14, crawlSpeedKph: 6, crawlDistanceM: 250 });
+    expect(request.request.body).toMatchObject({
+      worstCaseAmbientC: 40,
+      fadeMarginK: 60,
+      maxRoadGradePercent: 14,
+      crawlSpeedKph: 6,
+      crawlDistanceM: 250,
+    });
   });
 
   it('refuses a margin outside the contract’s range without sending anything', async () => {

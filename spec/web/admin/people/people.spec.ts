@@ -17,11 +17,7 @@ describe('People', () => {
 
   beforeEach(() => {
     TestBed.configureTestingModule({
-      providers: [
-        provideRouter([]),
-        provideHttpClient(withInterceptors([apiErrorInterceptor])),
-        provideHttpClientTesting(),
-      ],
+      providers: [provideRouter([]), provideHttpClient(withInterceptors([apiErrorInterceptor])), provideHttpClientTesting()],
     });
     httpTesting = TestBed.inject(HttpTestingController);
   });
@@ -41,9 +37,7 @@ describe('People', () => {
     await fixture.whenStable();
 
     expect(names(fixture)).toEqual(['Tomás Leclerc']);
-    expect(fixture.nativeElement.querySelector('[data-testid="people-count"]').textContent).toContain(
-      '1 of 4 people',
-    );
+    expect(fixture.nativeElement.querySelector('[data-testid="people-count"]').textContent).toContain('1 of 4 people');
   });
 
   it('filters by role and by status together', async () => {
@@ -97,7 +91,9 @@ describe('People', () => {
     const { fixture, loader } = await renderWith([slowed, ...EVERYONE.slice(1)]);
     const chip = (fixture.nativeElement as HTMLElement).querySelector('[data-testid="sign-in-slowed"]');
 
-    const menuButton = await loader.getHarness((await import('@angular/material/button/testing')).MatButtonHarness.with({ selector: '[aria-label="Actions for Ada Brennan"]' }));
+    const menuButton = await loader.getHarness(
+      (await import('@angular/material/button/testing')).MatButtonHarness.with({ selector: '[aria-label="Actions for Ada Brennan"]' }),
+    );
     await menuButton.click();
     const { MatMenuHarness } = await import('@angular/material/menu/testing');
     const menu = await TestbedHarnessEnvironment.documentRootLoader(fixture).getHarness(MatMenuHarness);
@@ -132,10 +128,34 @@ async function filterSelect(loader: HarnessLoader, label: string): Promise<MatSe
 }
 
 const EVERYONE: Person[] = [
-  aPerson({ id: '11111111-1111-4111-8111-111111111111', name: 'Ada Brennan', email: 'a.brennan@descentry.example', role: 'planner', status: 'active' }),
-  aPerson({ id: '22222222-2222-4222-8222-222222222222', name: 'Tomás Leclerc', email: 't.leclerc@descentry.example', role: 'analyst', status: 'invited' }),
-  aPerson({ id: '33333333-3333-4333-8333-333333333333', name: 'Marta Oyelaran', email: 'm.oyelaran@descentry.example', role: 'safety', status: 'active' }),
-  aPerson({ id: '44444444-4444-4444-8444-444444444444', name: 'Jonas Pfeifer', email: 'j.pfeifer@descentry.example', role: 'safety', status: 'disabled' }),
+  aPerson({
+    id: '11111111-1111-4111-8111-111111111111',
+    name: 'Ada Brennan',
+    email: 'a.brennan@descentry.example',
+    role: 'planner',
+    status: 'active',
+  }),
+  aPerson({
+    id: '22222222-2222-4222-8222-222222222222',
+    name: 'Tomás Leclerc',
+    email: 't.leclerc@descentry.example',
+    role: 'analyst',
+    status: 'invited',
+  }),
+  aPerson({
+    id: '33333333-3333-4333-8333-333333333333',
+    name: 'Marta Oyelaran',
+    email: 'm.oyelaran@descentry.example',
+    role: 'safety',
+    status: 'active',
+  }),
+  aPerson({
+    id: '44444444-4444-4444-8444-444444444444',
+    name: 'Jonas Pfeifer',
+    email: 'j.pfeifer@descentry.example',
+    role: 'safety',
+    status: 'disabled',
+  }),
 ];
 
 function aPerson(overrides: Partial<Person>): Person {

@@ -91,7 +91,10 @@ export default class AuditLog {
   /** The event's details as "key: value" pairs in words. */
   protected detailsOf(event: AuditEvent): string {
     return Object.entries(event.details)
-      .map(([key, value]) => `${key.replace(/([A-Z])/g, ' $1').toLowerCase()}: ${value === true ? 'yes' : value === false ? 'no' : (value ?? '—')}`)
+      .map(
+        ([key, value]) =>
+          `${key.replace(/([A-Z])/g, ' $1').toLowerCase()}: ${value === true ? 'yes' : value === false ? 'no' : (value ?? '—')}`,
+      )
       .join(' · ');
   }
 

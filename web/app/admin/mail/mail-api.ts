@@ -1,11 +1,6 @@
 import { HttpClient } from '@angular/common/http';
 import { Injectable, inject } from '@angular/core';
-import {
-  capturedMailListSchema,
-  outgoingMailListSchema,
-  type CapturedMail,
-  type OutgoingMail,
-} from '@shared/domain/mail';
+import { capturedMailListSchema, outgoingMailListSchema, type CapturedMail, type OutgoingMail } from '@shared/domain/mail';
 import { firstValueFrom } from 'rxjs';
 
 /** Read-only views of the mail Descentry sends, for administrators. */

@@ -10,10 +10,7 @@ import type { CapturedMail, OutgoingMail } from '@shared/domain/mail';
 import { describeApiError } from '../../core/api-error-message';
 import { MailApi } from './mail-api';
 
-type ListState<T> =
-  | { status: 'loading'; items: T[] }
-  | { status: 'error'; items: T[]; message: string }
-  | { status: 'ready'; items: T[] };
+type ListState<T> = { status: 'loading'; items: T[] } | { status: 'error'; items: T[]; message: string } | { status: 'ready'; items: T[] };
 
 const OUTBOX_STATUS_LABELS: Readonly<Record<OutgoingMail['status'], string>> = {
   queued: 'Queued',
@@ -24,15 +21,7 @@ const OUTBOX_STATUS_LABELS: Readonly<Record<OutgoingMail['status'], string>> = {
 /** Administrators' view of outgoing mail: the outbox and the local mail catcher. */
 @Component({
   selector: 'app-outgoing-mail',
-  imports: [
-    DatePipe,
-    MatTabsModule,
-    MatTableModule,
-    MatExpansionModule,
-    MatButtonModule,
-    MatIconModule,
-    MatProgressBarModule,
-  ],
+  imports: [DatePipe, MatTabsModule, MatTableModule, MatExpansionModule, MatButtonModule, MatIconModule, MatProgressBarModule],
   templateUrl: './outgoing-mail.html',
   styleUrl: './outgoing-mail.scss',
   changeDetection: ChangeDetectionStrategy.OnPush,
@@ -53,17 +42,11 @@ export default class OutgoingMailPage {
   }
 
   protected async refresh(): Promise<void> {
-    await Promise.all([
-      load(this.outbox, () => this.mailApi.outbox()),
-      load(this.captured, () => this.mailApi.captured()),
-    ]);
+    await Promise.all([load(this.outbox, () => this.mailApi.outbox()), load(this.captured, () => this.mailApi.captured())]);
   }
 }
 
-async function load<T>(
-  state: ReturnType<typeof signal<ListState<T>>>,
-  fetch: () => Promise<T[]>,
-): Promise<void> {
+async function load<T>(state: ReturnType<typeof signal<ListState<T>>>, fetch: () => Promise<T[]>): Promise<void> {
   state.update((current) => ({ status: 'loading', items: current.items }));
   try {
     state.set({ status: 'ready', items: await fetch() });

@@ -35,28 +35,22 @@ function rangeControl(range: { min: number; max: number }): FormControl<number |
 /** The money and emission factors behind the board summary, each with where it comes from. */
 @Component({
   selector: 'app-network-settings',
-  imports: [
-    LoadStatus,
-    DatePipe,
-    ReactiveFormsModule,
-    MatButtonModule,
-    MatFormFieldModule,
-    MatIconModule,
-    MatInputModule,
-  ],
+  imports: [LoadStatus, DatePipe, ReactiveFormsModule, MatButtonModule, MatFormFieldModule, MatIconModule, MatInputModule],
   template: `
     <section class="app-page" aria-labelledby="network-title">
       <h1 id="network-title" class="app-page-title">Network settings</h1>
       <p class="app-lead">
-        The board summary turns recovered braking energy into money and CO₂ with these two factors. Name the source of each:
-        it is printed with the summary. The safety settings below apply to every descent assessment from the next run on.
+        The board summary turns recovered braking energy into money and CO₂ with these two factors. Name the source of each: it is printed
+        with the summary. The safety settings below apply to every descent assessment from the next run on.
       </p>
       <app-load-status [state]="loadState()" loadingLabel="Loading network settings" (retry)="load()" />
       @if (view(); as view) {
         @if (view.isPlaceholder) {
           <p class="app-caution" role="note">
             <mat-icon>info</mat-icon>
-            <span>These are the illustrative values Descentry ships with. Replace them with your network's own tariff and grid factor.</span>
+            <span
+              >These are the illustrative values Descentry ships with. Replace them with your network's own tariff and grid factor.</span
+            >
           </p>
         } @else if (view.updatedAt) {
           <p class="meta">Last changed by {{ view.updatedByName }} on {{ view.updatedAt | date: 'd MMM y, HH:mm' }}.</p>
@@ -67,81 +61,164 @@ function rangeControl(range: { min: number; max: number }): FormControl<number |
             <div class="row">
               <mat-form-field appearance="outline" subscriptSizing="dynamic">
                 <mat-label>Tariff per kWh</mat-label>
-                <input matInput type="number" inputmode="decimal" step="0.001" min="0" max="10" formControlName="energyTariffPerKWh" required />
+                <input
+                  matInput
+                  type="number"
+                  inputmode="decimal"
+                  step="0.001"
+                  min="0"
+                  max="10"
+                  formControlName="energyTariffPerKWh"
+                  required
+                />
                 <mat-hint>What one kWh of traction energy costs the network.</mat-hint>
-                @if (form.controls.energyTariffPerKWh.invalid) { <mat-error>Between 0 and 10.</mat-error> }
+                @if (form.controls.energyTariffPerKWh.invalid) {
+                  <mat-error>Between 0 and 10.</mat-error>
+                }
               </mat-form-field>
               <mat-form-field appearance="outline" class="currency" subscriptSizing="dynamic">
                 <mat-label>Currency</mat-label>
                 <input matInput formControlName="currency" maxlength="3" autocomplete="off" required />
                 <mat-hint>Three letters, e.g. EUR.</mat-hint>
-                @if (form.controls.currency.invalid) { <mat-error>Three letters, e.g. EUR.</mat-error> }
+                @if (form.controls.currency.invalid) {
+                  <mat-error>Three letters, e.g. EUR.</mat-error>
+                }
               </mat-form-field>
             </div>
             <mat-form-field appearance="outline" class="wide" subscriptSizing="dynamic">
               <mat-label>Source of the tariff</mat-label>
               <textarea matInput formControlName="tariffSource" maxlength="300" rows="2" required></textarea>
               <mat-hint>For example the supply contract or the regulator's published price.</mat-hint>
-              @if (form.controls.tariffSource.invalid) { <mat-error>Name the source.</mat-error> }
+              @if (form.controls.tariffSource.invalid) {
+                <mat-error>Name the source.</mat-error>
+              }
             </mat-form-field>
           </fieldset>
           <fieldset>
             <legend>Grid emissions</legend>
             <mat-form-field appearance="outline" subscriptSizing="dynamic">
               <mat-label>Emission factor</mat-label>
-              <input matInput type="number" inputmode="decimal" step="0.001" min="0" max="2" formControlName="gridEmissionFactorKgPerKWh" required />
+              <input
+                matInput
+                type="number"
+                inputmode="decimal"
+                step="0.001"
+                min="0"
+                max="2"
+                formControlName="gridEmissionFactorKgPerKWh"
+                required
+              />
               <span matTextSuffix>kg CO₂ per kWh</span>
               <mat-hint>CO₂ emitted to generate one kWh on your grid.</mat-hint>
-              @if (form.controls.gridEmissionFactorKgPerKWh.invalid) { <mat-error>Between 0 and 2.</mat-error> }
+              @if (form.controls.gridEmissionFactorKgPerKWh.invalid) {
+                <mat-error>Between 0 and 2.</mat-error>
+              }
             </mat-form-field>
             <mat-form-field appearance="outline" class="wide" subscriptSizing="dynamic">
               <mat-label>Source of the emission factor</mat-label>
               <textarea matInput formControlName="emissionFactorSource" maxlength="300" rows="2" required></textarea>
-              @if (form.controls.emissionFactorSource.invalid) { <mat-error>Name the source.</mat-error> }
+              @if (form.controls.emissionFactorSource.invalid) {
+                <mat-error>Name the source.</mat-error>
+              }
             </mat-form-field>
           </fieldset>
           <fieldset>
             <legend>Safety assessment</legend>
             <p class="note">
-              Every descent is also assessed in its worst credible case. These figures are the network's own choice: set them
-              with your licensed engineers, within local codes and the vehicle makers' limits.
+              Every descent is also assessed in its worst credible case. These figures are the network's own choice: set them with your
+              licensed engineers, within local codes and the vehicle makers' limits.
             </p>
             <div class="row">
               <mat-form-field appearance="outline" subscriptSizing="dynamic">
                 <mat-label>Worst-case ambient</mat-label>
-                <input matInput type="number" inputmode="decimal" step="1" [min]="ranges.worstCaseAmbientC.min" [max]="ranges.worstCaseAmbientC.max" formControlName="worstCaseAmbientC" required />
+                <input
+                  matInput
+                  type="number"
+                  inputmode="decimal"
+                  step="1"
+                  [min]="ranges.worstCaseAmbientC.min"
+                  [max]="ranges.worstCaseAmbientC.max"
+                  formControlName="worstCaseAmbientC"
+                  required
+                />
                 <span matTextSuffix>°C</span>
                 <mat-hint>The hottest day you plan for.</mat-hint>
-                @if (form.controls.worstCaseAmbientC.invalid) { <mat-error>Between {{ ranges.worstCaseAmbientC.min }} and {{ ranges.worstCaseAmbientC.max }} °C.</mat-error> }
+                @if (form.controls.worstCaseAmbientC.invalid) {
+                  <mat-error>Between {{ ranges.worstCaseAmbientC.min }} and {{ ranges.worstCaseAmbientC.max }} °C.</mat-error>
+                }
               </mat-form-field>
               <mat-form-field appearance="outline" subscriptSizing="dynamic">
                 <mat-label>Margin below fade</mat-label>
-                <input matInput type="number" inputmode="decimal" step="5" [min]="ranges.fadeMarginK.min" [max]="ranges.fadeMarginK.max" formControlName="fadeMarginK" required />
+                <input
+                  matInput
+                  type="number"
+                  inputmode="decimal"
+                  step="5"
+                  [min]="ranges.fadeMarginK.min"
+                  [max]="ranges.fadeMarginK.max"
+                  formControlName="fadeMarginK"
+                  required
+                />
                 <span matTextSuffix>K</span>
                 <mat-hint>Speed and SOC advice keep the brakes this far below their fade temperature.</mat-hint>
-                @if (form.controls.fadeMarginK.invalid) { <mat-error>Between {{ ranges.fadeMarginK.min }} and {{ ranges.fadeMarginK.max }} K.</mat-error> }
+                @if (form.controls.fadeMarginK.invalid) {
+                  <mat-error>Between {{ ranges.fadeMarginK.min }} and {{ ranges.fadeMarginK.max }} K.</mat-error>
+                }
               </mat-form-field>
             </div>
             <div class="row">
               <mat-form-field appearance="outline" subscriptSizing="dynamic">
                 <mat-label>Steepest road grade</mat-label>
-                <input matInput type="number" inputmode="decimal" step="0.5" [min]="ranges.maxRoadGradePercent.min" [max]="ranges.maxRoadGradePercent.max" formControlName="maxRoadGradePercent" required />
+                <input
+                  matInput
+                  type="number"
+                  inputmode="decimal"
+                  step="0.5"
+                  [min]="ranges.maxRoadGradePercent.min"
+                  [max]="ranges.maxRoadGradePercent.max"
+                  formControlName="maxRoadGradePercent"
+                  required
+                />
                 <span matTextSuffix>%</span>
                 <mat-hint>A route drawn steeper than this is not drivable as drawn.</mat-hint>
-                @if (form.controls.maxRoadGradePercent.invalid) { <mat-error>Between {{ ranges.maxRoadGradePercent.min }} and {{ ranges.maxRoadGradePercent.max }} %.</mat-error> }
+                @if (form.controls.maxRoadGradePercent.invalid) {
+                  <mat-error>Between {{ ranges.maxRoadGradePercent.min }} and {{ ranges.maxRoadGradePercent.max }} %.</mat-error>
+                }
               </mat-form-field>
               <mat-form-field appearance="outline" subscriptSizing="dynamic">
                 <mat-label>Crawl speed</mat-label>
-                <input matInput type="number" inputmode="decimal" step="1" [min]="ranges.crawlSpeedKph.min" [max]="ranges.crawlSpeedKph.max" formControlName="crawlSpeedKph" required />
+                <input
+                  matInput
+                  type="number"
+                  inputmode="decimal"
+                  step="1"
+                  [min]="ranges.crawlSpeedKph.min"
+                  [max]="ranges.crawlSpeedKph.max"
+                  formControlName="crawlSpeedKph"
+                  required
+                />
                 <span matTextSuffix>km/h</span>
                 <mat-hint>Slower than this for the crawl distance: not drivable as drawn.</mat-hint>
-                @if (form.controls.crawlSpeedKph.invalid) { <mat-error>Between {{ ranges.crawlSpeedKph.min }} and {{ ranges.crawlSpeedKph.max }} km/h.</mat-error> }
+                @if (form.controls.crawlSpeedKph.invalid) {
+                  <mat-error>Between {{ ranges.crawlSpeedKph.min }} and {{ ranges.crawlSpeedKph.max }} km/h.</mat-error>
+                }
               </mat-form-field>
               <mat-form-field appearance="outline" subscriptSizing="dynamic">
                 <mat-label>Crawl distance</mat-label>
-                <input matInput type="number" inputmode="decimal" step="10" [min]="ranges.crawlDistanceM.min" [max]="ranges.crawlDistanceM.max" formControlName="crawlDistanceM" required />
+                <input
+                  matInput
+                  type="number"
+                  inputmode="decimal"
+                  step="10"
+                  [min]="ranges.crawlDistanceM.min"
+                  [max]="ranges.crawlDistanceM.max"
+                  formControlName="crawlDistanceM"
+                  required
+                />
                 <span matTextSuffix>m</span>
-                @if (form.controls.crawlDistanceM.invalid) { <mat-error>Between {{ ranges.crawlDistanceM.min }} and {{ ranges.crawlDistanceM.max }} m.</mat-error> }
+                @if (form.controls.crawlDistanceM.invalid) {
+                  <mat-error>Between {{ ranges.crawlDistanceM.min }} and {{ ranges.crawlDistanceM.max }} m.</mat-error>
+                }
               </mat-form-field>
             </div>
           </fieldset>
@@ -156,17 +233,51 @@ function rangeControl(range: { min: number; max: number }): FormControl<number |
     </section>
   `,
   styles: `
-    .note { margin: 0; color: var(--mat-sys-on-surface-variant); }
-    .meta { color: var(--mat-sys-on-surface-variant); }
-    .app-caution { margin: 0 0 16px; }
-    .form { max-width: 720px; display: grid; gap: 16px; }
-    fieldset { border: 1px solid var(--mat-sys-outline-variant); border-radius: var(--mat-sys-corner-medium); padding: 12px 16px 16px; margin: 0; display: grid; gap: 16px; }
-    legend { font: var(--mat-sys-title-medium); padding: 0 6px; }
-    .row { display: flex; gap: 12px; flex-wrap: wrap; }
-    .row mat-form-field { flex: 1 1 200px; }
-    .currency { max-width: 200px; }
-    .wide { width: 100%; }
-    .buttons { display: flex; justify-content: flex-end; }
+    .note {
+      margin: 0;
+      color: var(--mat-sys-on-surface-variant);
+    }
+    .meta {
+      color: var(--mat-sys-on-surface-variant);
+    }
+    .app-caution {
+      margin: 0 0 16px;
+    }
+    .form {
+      max-width: 720px;
+      display: grid;
+      gap: 16px;
+    }
+    fieldset {
+      border: 1px solid var(--mat-sys-outline-variant);
+      border-radius: var(--mat-sys-corner-medium);
+      padding: 12px 16px 16px;
+      margin: 0;
+      display: grid;
+      gap: 16px;
+    }
+    legend {
+      font: var(--mat-sys-title-medium);
+      padding: 0 6px;
+    }
+    .row {
+      display: flex;
+      gap: 12px;
+      flex-wrap: wrap;
+    }
+    .row mat-form-field {
+      flex: 1 1 200px;
+    }
+    .currency {
+      max-width: 200px;
+    }
+    .wide {
+      width: 100%;
+    }
+    .buttons {
+      display: flex;
+      justify-content: flex-end;
+    }
   `,
   changeDetection: ChangeDetectionStrategy.OnPush,
 })

@@ -14,15 +14,7 @@ import { PeopleApi } from './people-api';
 /** Invites one person by e-mail; closes with the new Person once the API created it. */
 @Component({
   selector: 'app-invite-person-dialog',
-  imports: [
-    ReactiveFormsModule,
-    MatDialogModule,
-    MatFormFieldModule,
-    MatInputModule,
-    MatSelectModule,
-    MatButtonModule,
-    MatIconModule,
-  ],
+  imports: [ReactiveFormsModule, MatDialogModule, MatFormFieldModule, MatInputModule, MatSelectModule, MatButtonModule, MatIconModule],
   template: `
     <h2 mat-dialog-title>Invite a person</h2>
     <form class="app-form-dialog" [formGroup]="form" (ngSubmit)="invite()" novalidate>

@@ -1,12 +1,6 @@
 import { HttpClient, HttpContext } from '@angular/common/http';
 import { Injectable, inject } from '@angular/core';
-import {
-  personListSchema,
-  personSchema,
-  type InviteRequest,
-  type Person,
-  type UpdatePersonRequest,
-} from '@shared/domain/people';
+import { personListSchema, personSchema, type InviteRequest, type Person, type UpdatePersonRequest } from '@shared/domain/people';
 import { firstValueFrom } from 'rxjs';
 import { ERRORS_SHOWN_INLINE } from '../../core/api-error-message';
 
@@ -30,24 +24,18 @@ export class PeopleApi {
   }
 
   async update(personId: string, update: UpdatePersonRequest): Promise<Person> {
-    const body = await firstValueFrom(
-      this.http.patch(`/api/people/${encodeURIComponent(personId)}`, update),
-    );
+    const body = await firstValueFrom(this.http.patch(`/api/people/${encodeURIComponent(personId)}`, update));
     return personSchema.parse(body);
   }
 
   /** Lifts the slow-down failed sign-ins put on the account; answers the person as they are now. */
   async liftSignInLimit(personId: string): Promise<Person> {
-    const body = await firstValueFrom(
-      this.http.post(`/api/people/${encodeURIComponent(personId)}/unblock-sign-in`, null),
-    );
+    const body = await firstValueFrom(this.http.post(`/api/people/${encodeURIComponent(personId)}/unblock-sign-in`, null));
     return personSchema.parse(body);
   }
 
   /** Sends the person a password reset link (202). */
   async sendPasswordReset(personId: string): Promise<void> {
-    await firstValueFrom(
-      this.http.post(`/api/people/${encodeURIComponent(personId)}/password-reset`, null),
-    );
+    await firstValueFrom(this.http.post(`/api/people/${encodeURIComponent(personId)}/password-reset`, null));
   }
 }

@@ -1,13 +1,5 @@
 import { DatePipe } from '@angular/common';
-import {
-  ChangeDetectionStrategy,
-  Component,
-  computed,
-  effect,
-  inject,
-  signal,
-  viewChild,
-} from '@angular/core';
+import { ChangeDetectionStrategy, Component, computed, effect, inject, signal, viewChild } from '@angular/core';
 import { toSignal } from '@angular/core/rxjs-interop';
 import { FormControl, FormGroup, ReactiveFormsModule } from '@angular/forms';
 import { MatButtonModule } from '@angular/material/button';
@@ -138,9 +130,7 @@ export default class People {
   }
 
   protected async setEnabled(person: Person, enabled: boolean): Promise<void> {
-    const message = enabled
-      ? `${person.name} can sign in again.`
-      : `${person.name} can no longer sign in.`;
+    const message = enabled ? `${person.name} can sign in again.` : `${person.name} can no longer sign in.`;
     await this.applyUpdate(person, { status: enabled ? 'active' : 'disabled' }, message);
   }
 
@@ -163,11 +153,7 @@ export default class People {
     }
   }
 
-  private async applyUpdate(
-    person: Person,
-    update: { role?: Role; status?: 'active' | 'disabled' },
-    message: string,
-  ): Promise<void> {
+  private async applyUpdate(person: Person, update: { role?: Role; status?: 'active' | 'disabled' }, message: string): Promise<void> {
     try {
       const updated = await this.peopleApi.update(person.id, update);
       this.replacePerson(updated);

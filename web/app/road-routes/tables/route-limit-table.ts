@@ -38,7 +38,9 @@ export class RouteLimitTable {
 
   /** A distance in metres in the shown unit, to the metre, without trailing zeros. */
   protected distanceShown(valueM: number): string {
-    return toDisplay('distance', valueM, this.units()).toFixed(3).replace(/\.?0+$/, '');
+    return toDisplay('distance', valueM, this.units())
+      .toFixed(3)
+      .replace(/\.?0+$/, '');
   }
 
   protected speedUnit(): string {

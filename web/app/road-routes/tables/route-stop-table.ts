@@ -5,7 +5,9 @@ import { toDisplay, unitLabel, type UnitSystem } from '@shared/presentation/inde
 import type { DraftStop } from '../route-draft';
 
 /** One field of a stop as typed in the table; the editor checks it before it becomes an edit. */
-export type StopChange = { index: number } & ({ field: 'name'; text: string } | { field: 'position'; text: string } | { field: 'dwell'; text: string });
+export type StopChange = { index: number } & (
+  { field: 'name'; text: string } | { field: 'position'; text: string } | { field: 'dwell'; text: string }
+);
 
 /** The route's stops: name, position along the route (in the shown unit) and dwell time. */
 @Component({
@@ -29,6 +31,8 @@ export class RouteStopTable {
 
   /** A distance in metres in the shown unit, to the metre, without trailing zeros. */
   protected distanceShown(valueM: number): string {
-    return toDisplay('distance', valueM, this.units()).toFixed(3).replace(/\.?0+$/, '');
+    return toDisplay('distance', valueM, this.units())
+      .toFixed(3)
+      .replace(/\.?0+$/, '');
   }
 }
