@@ -201,6 +201,9 @@ export const AIR_SPECIFIC_HEAT_J_PER_KG_K = 1_005;
  */
 export const PASSENGER_SENSIBLE_HEAT_W = 70;
 
+/** Usable capacity left at end of life when the vehicle does not state it (common practice: end of life at 80 %). */
+export const DEFAULT_END_OF_LIFE_CAPACITY_FRACTION = 0.8;
+
 /**
  * Climate settings of a 12 m single-deck bus, used where a vehicle profile states none of its own
  * (auxiliary-power.ts). Each value and its source:

@@ -39,7 +39,15 @@ import { lineStringSchema, optionsSchema, vehicleSchema } from '../domain/analys
 import * as z from 'zod';
 import { blockSchema, chargerSchema, type BatteryAge, type Block, type BlockResult, type Charger } from '../domain/service-days';
 import { prepareRouteModel, minimumTimeSpeeds, withVehicle } from './analyse-route';
-import { DEFAULT_CLIMATE, ENGINE_VERSION, ENGINEERING_CAUTION, JOULES_PER_WH, MAX_RESAMPLED_POINTS, MAX_ROUTE_LENGTH_M } from './constants';
+import {
+  DEFAULT_END_OF_LIFE_CAPACITY_FRACTION,
+  DEFAULT_CLIMATE,
+  ENGINE_VERSION,
+  ENGINEERING_CAUTION,
+  JOULES_PER_WH,
+  MAX_RESAMPLED_POINTS,
+  MAX_ROUTE_LENGTH_M,
+} from './constants';
 import { drivabilityStretches, runWorstCase } from './descent-safety';
 import { brakeRiskLevel, findDescentRanges, type DescentRange } from './descents';
 import { geodesicDistanceM } from './geodesy';
@@ -55,7 +63,7 @@ import {
   type RouteModel,
   type VehicleState,
 } from './route-simulation';
-import { preconditioningEnergyJ, tripAuxiliaryPowerW, type ClimateSettings } from './auxiliary-power';
+import { auxiliaryBreakdown, preconditioningEnergyJ, tripAuxiliaryPowerW, type ClimateSettings } from './auxiliary-power';
 import { assertInRange, EngineInputError, parseOrThrow } from './validation';
 
 /** A charger serves a vehicle whose trip ends within this distance of it, m (engineering judgement: a terminus stand). */
@@ -171,6 +179,8 @@ interface ParsedVehicle {
   climate: ClimateSettings | undefined;
   /** Auxiliary power while standing empty with the doors shut, W. */
   standAuxPowerW: number;
+  /** Of it, the electrical power that heats the cabin, W. */
+  standHeatingPowerW: number;
   /** Usable capacity and charge power at the day's battery age. */
   capacityJ: number;
   maxChargePowerW: number;
@@ -204,13 +214,15 @@ class DayContext {
         maxChargePowerW: vehicle.maxChargePowerW * chargeShare,
       };
       const climate = entry.climate ? { ...DEFAULT_CLIMATE, ...entry.climate } : undefined;
+      const standing = climate
+        ? auxiliaryBreakdown(climate, { ambientC: input.ambientC, passengers: 0, doorOpenings: 0, durationS: 3_600 })
+        : undefined;
       this.vehicles.set(entry.vehicleProfileId, {
         input: entry,
         vehicle: aged,
         climate,
-        standAuxPowerW: climate
-          ? tripAuxiliaryPowerW(climate, { ambientC: input.ambientC, passengers: 0, doorOpenings: 0, durationS: 3_600 })
-          : aged.auxPowerW,
+        standAuxPowerW: standing ? standing.totalW : aged.auxPowerW,
+        standHeatingPowerW: standing ? standing.heatPumpElectricW + standing.resistiveElectricW : 0,
         capacityJ: aged.batteryCapacityWh * JOULES_PER_WH,
         maxChargePowerW: aged.maxChargePowerW,
       });
@@ -347,8 +359,7 @@ class DayContext {
   }
 }
 
-/** Usable capacity left at end of life when the vehicle does not state it (common practice: end of life at 80 %). */
-export const DEFAULT_END_OF_LIFE_CAPACITY_FRACTION = 0.8;
+export { DEFAULT_END_OF_LIFE_CAPACITY_FRACTION };
 
 function peakOver(run: RouteRun, range: DescentRange): number {
   let peak = Number.NEGATIVE_INFINITY;
@@ -441,6 +452,9 @@ function runBlock(context: DayContext, block: Block): BlockResult {
   let chargedJ = 0;
   let minSoc = block.startSoc;
   let minSocAtS = timeS;
+  let tripAuxJ = 0;
+  let tripAuxS = 0;
+  let tripAuxMaxW = 0;
   const note = (t: number, soc: number) => {
     const last = socTrace[socTrace.length - 1];
     if (last && last.timeS === t && last.soc === soc) return;
@@ -546,6 +560,9 @@ function runBlock(context: DayContext, block: Block): BlockResult {
       }
     }
     netJ += sourceJ - shortfallJ;
+    tripAuxJ += prepared.auxPowerW * durationS;
+    tripAuxS += durationS;
+    tripAuxMaxW = Math.max(tripAuxMaxW, prepared.auxPowerW);
     timeS = departS + durationS;
     if (isBattery && shortfallJ > 0) {
       let emptyAt = 0;
@@ -642,6 +659,15 @@ function runBlock(context: DayContext, block: Block): BlockResult {
     socTrace,
     chargingEvents,
     descents,
+    vehicle: {
+      usableCapacityWh: capacityJ / JOULES_PER_WH,
+      maxChargePowerW: parsed.maxChargePowerW,
+      auxiliarySource: parsed.climate ? 'climate' : 'season',
+      tripAuxPowerW: { mean: tripAuxS > 0 ? tripAuxJ / tripAuxS : 0, max: tripAuxMaxW },
+      standingAuxPowerW: parsed.standAuxPowerW,
+      standingHeatingPowerW: parsed.standHeatingPowerW,
+      preconditioningEnergyWh: preconditionJ / JOULES_PER_WH,
+    },
   };
 }
 
