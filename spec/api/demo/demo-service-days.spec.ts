@@ -49,6 +49,25 @@ describe('demo service days', () => {
         name,
       ).toBe(true);
     }
+    // Every demo vehicle models its cabin, so the winter days draw heating from the cold, the
+    // passengers and the doors. P2's 2019 bus heats resistively and fails; P1's 2025 bus with its
+    // CO₂ heat pump works the same line and holds.
+    for (const [name, result] of results) {
+      expect(
+        result.blocks.every((block) => block.vehicle?.auxiliarySource === 'climate'),
+        name,
+      ).toBe(true);
+    }
+    const p1 = check.blocks.find((block) => block.blockId === 'P1')!;
+    const p2 = check.blocks.find((block) => block.blockId === 'P2')!;
+    console.info(
+      `end-of-life winter check: P1 lowest SOC ${p1.minSoc.toFixed(3)}, heating at a stop ${p1.vehicle!.standingHeatingPowerW.toFixed(0)} W; ` +
+        `P2 lowest SOC ${p2.minSoc.toFixed(3)}, heating at a stop ${p2.vehicle!.standingHeatingPowerW.toFixed(0)} W`,
+    );
+    expect(p2.vehicle!.standingHeatingPowerW).toBeGreaterThan(1.5 * p1.vehicle!.standingHeatingPowerW);
+    expect(p2.vehicle!.usableCapacityWh).toBeCloseTo(0.8 * 350_000, 6);
+    expect(p1.minSoc).toBeGreaterThanOrEqual(0.15);
+    expect(p2.minSoc).toBeLessThan(0.15);
     // The terminus charger at Lindmoor tops up the Valley-line blocks.
     expect(results.get('Weekday, winter')!.blocks.find((block) => block.blockId === 'V1')!.chargingEvents.length).toBeGreaterThan(0);
     const summary = boardSummarySchema.parse((await request(app).get('/api/board/summary').set('Cookie', board)).body);

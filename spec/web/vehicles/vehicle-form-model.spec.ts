@@ -325,7 +325,8 @@ describe('battery ageing and cabin climate in the vehicle form', () => {
     expect(fieldHint(field('endOfLifeCapacity'), 'metric')).toMatch(/Empty: 80 %\. From 30 to 100 %\.$/);
     expect(fieldHint(field('heatingSetpoint'), 'metric')).toBe(`Empty: ${DEFAULT_CLIMATE.heatingSetpointC} °C. From 5 to 30 °C.`);
     expect(fieldHint(field('heatingSetpoint'), 'imperial')).toBe('Empty: 64.4 °F. From 41 to 86 °F.');
-    expect(fieldHint(field('tractionPower'), 'metric')).toBe('At the wheel. Above 0 to 5000 kW.');
+    expect(fieldHint(field('rearBrakeThermalMassShare'), 'metric')).toMatch(/Above 0, below 100 %\.$/);
+    expect(fieldHint(field('tractionPower'), 'metric')).toBe('At the wheel. Above 0, up to 5000 kW.');
   });
 
   it('saves no climate while it is switched off, and only the stated climate fields when on', () => {

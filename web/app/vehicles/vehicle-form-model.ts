@@ -587,12 +587,12 @@ export const VEHICLE_FIELDS: readonly VehicleField[] = [
   }),
   climateField('doorAirExchangeM3', {
     key: 'doorAirExchange',
-    label: 'Air exchanged per door opening',
+    label: 'Door air exchange',
     unit: 'm³',
     factor: 1,
     range: C.doorAirExchangeM3,
     step: 0.5,
-    hint: 'At each stop, with all doors open.',
+    hint: 'Air swapped at each stop with all doors open.',
   }),
   climateField('baseLoadW', {
     key: 'baseLoad',
@@ -633,12 +633,12 @@ export const VEHICLE_FIELDS: readonly VehicleField[] = [
   }),
   climateField('preconditioningS', {
     key: 'preconditioning',
-    label: 'Pre-conditioning at the depot',
+    label: 'Pre-conditioning',
     unit: 'min',
     factor: 60,
     range: C.preconditioningS,
     step: 1,
-    hint: 'Before pull-out, on depot power.',
+    hint: 'At the depot before pull-out, on depot power.',
   }),
   climateField('cabinHeatCapacityJPerK', {
     key: 'cabinHeatCapacity',
@@ -814,7 +814,14 @@ export function fieldHint(field: VehicleField, system: UnitSystem): string {
   if (field.hint) parts.push(field.hint);
   if (field.optional && field.defaultSi !== undefined) parts.push(`Empty: ${toShownNumber(field, field.defaultSi, system)}${suffix}.`);
   const { min, max } = fieldLimits(field, system);
-  parts.push(`${field.minExclusive ? 'Above' : 'From'} ${min} to ${max}${field.maxExclusive ? ' (not included)' : ''}${suffix}.`);
+  const upper = field.maxExclusive ? `below ${max}` : `up to ${max}`;
+  parts.push(
+    field.minExclusive
+      ? `Above ${min}, ${upper}${suffix}.`
+      : field.maxExclusive
+        ? `From ${min}, ${upper}${suffix}.`
+        : `From ${min} to ${max}${suffix}.`,
+  );
   return parts.join(' ');
 }
 
