@@ -3,8 +3,10 @@
  * PDF. While the money or CO₂ factor is still the shipped placeholder, the figure resting on it
  * says so beside the value, not only in a footnote.
  */
-import type { BoardSummary } from '../domain/board-summary';
+import type { AnnualBasis, BoardSummary } from '../domain/board-summary';
 import { formatBoardCo2, formatBoardEnergy, formatBoardMoney, formatTariff } from './board-format';
+import { SEASON_LABELS } from './labels';
+import { DAY_TYPE_LABELS } from './service-day-labels';
 
 export interface BoardFigure {
   key: 'recovered' | 'value' | 'co2' | 'friction';
@@ -71,4 +73,30 @@ export function boardSafetyCounts(summary: BoardSummary): { open: number; accept
 function shareOfBraking(recoveredKWh: number, frictionKWh: number): number | null {
   const total = recoveredKWh + frictionKWh;
   return total > 0 ? Math.round((recoveredKWh / total) * 100) : null;
+}
+
+/**
+ * The annual basis in one short paragraph for the printed page: which results make up the year,
+ * each service day with its days a year, and the year's grid energy, cost and CO₂ against the
+ * reference vehicle. The web page states the same basis at length (`AnnualBasis.basisText`).
+ */
+export function annualBasisInBrief(annual: AnnualBasis, currency: string): string {
+  const totals =
+    `${formatBoardEnergy(annual.gridEnergyKWh)} from the grid, ${formatBoardMoney(annual.energyCost, currency)}, ` +
+    `${formatBoardCo2(annual.co2Kg)} CO₂: ${formatBoardCo2(annual.baseline.co2SavedKg)} less than the same distance with a ${annual.baseline.name}.`;
+  if (annual.basis === 'scenarios') {
+    return (
+      'No service day is in service, so the year is each route’s latest in-service scenario × its trips a day × its service days a year ' +
+      `(grid energy taken as the vehicles’ net energy): ${totals}`
+    );
+  }
+  const days = annual.serviceDays
+    .map((day) => `${DAY_TYPE_LABELS[day.dayType].toLowerCase()} ${SEASON_LABELS[day.season].toLowerCase()} × ${day.daysPerYear}`)
+    .join(', ');
+  const uncovered = annual.notCovered.reduce((total, entry) => total + entry.daysPerYear, 0);
+  return (
+    `The year is the ${annual.serviceDays.length} in-service service ${annual.serviceDays.length === 1 ? 'day' : 'days'}, each × its days a year ` +
+    `from the network settings (${days})${uncovered > 0 ? `; ${uncovered} days without one count as no service` : ''}. ` +
+    `Grid energy includes each block’s overnight recharge at its depot: ${totals}`
+  );
 }

@@ -8,6 +8,8 @@ import { seedDemoServiceDays } from '../../../api/demo/demo-service-days';
 import { createTestContext } from '../../support/test-app';
 import { sessionCookies } from '../../support/session-cookie';
 import { countRows, truncateAll } from '../../support/test-database';
+import { readPdfWords, wordsOutsideMargins } from '../../support/pdf-words';
+import { MARGIN_PT } from '../../../api/pdf/pdf-layout';
 
 const context = createTestContext();
 const { app, db, deps } = context;
@@ -73,5 +75,29 @@ describe('demo service days', () => {
     const summary = boardSummarySchema.parse((await request(app).get('/api/board/summary').set('Cookie', board)).body);
     expect(summary.annual.basis).toBe('service-days');
     expect(summary.annual.serviceDays).toHaveLength(4);
+  });
+
+  it('has its annual basis stated on the one-page board PDF, every word inside the margins', async () => {
+    const board = await sessionCookies(db, deps.config)('board');
+    const summary = boardSummarySchema.parse((await request(app).get('/api/board/summary').set('Cookie', board)).body);
+    const response = await request(app)
+      .get('/api/board/summary.pdf')
+      .set('Cookie', board)
+      .buffer(true)
+      .parse((res, done) => {
+        const chunks: Buffer[] = [];
+        res.on('data', (chunk: Buffer) => chunks.push(chunk));
+        res.on('end', () => done(null, Buffer.concat(chunks)));
+      });
+    expect(response.status).toBe(200);
+    const pdf = readPdfWords(response.body as Buffer);
+
+    expect(pdf.pages).toHaveLength(1);
+    expect(wordsOutsideMargins(pdf, MARGIN_PT)).toEqual([]);
+    const text = pdf.text[0]!.replace(/\s+/g, ' ');
+    expect(text).toContain('How the year is counted');
+    expect(text).toContain('The year is the 4 in-service service days, each × its days a year from the network settings');
+    for (const day of summary.annual.serviceDays) expect(text).toContain(`× ${day.daysPerYear}`);
+    expect(text).toContain(summary.annual.baseline.name);
   });
 });
