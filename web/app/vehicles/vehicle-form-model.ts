@@ -624,12 +624,12 @@ export const VEHICLE_FIELDS: readonly VehicleField[] = [
   }),
   climateField('coolingEer', {
     key: 'coolingEer',
-    label: 'Cooling efficiency (EER)',
+    label: 'Cooling EER',
     unit: '',
     factor: 1,
     range: C.coolingEer,
     step: 0.1,
-    hint: 'Heat removed ÷ electrical power.',
+    hint: 'Cooling efficiency: heat removed ÷ electrical power.',
   }),
   climateField('preconditioningS', {
     key: 'preconditioning',
@@ -642,13 +642,13 @@ export const VEHICLE_FIELDS: readonly VehicleField[] = [
   }),
   climateField('cabinHeatCapacityJPerK', {
     key: 'cabinHeatCapacity',
-    label: 'Cabin heat capacity',
+    label: 'Cabin heat mass',
     unit: 'kJ/K',
     factor: 1_000,
     quantity: 'heatCapacity',
     range: C.cabinHeatCapacityJPerK,
     step: 10,
-    hint: 'Air and fittings warmed by pre-conditioning.',
+    hint: 'Heat capacity of the air and fittings warmed by pre-conditioning.',
   }),
 ];
 
