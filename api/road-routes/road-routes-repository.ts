@@ -44,7 +44,7 @@ export async function insertRoute(
   return row!;
 }
 
-/** The route imported from a file with this SHA-256, if any (with its current name). */
+/** The route (not deleted) imported from a file with this SHA-256, if any (with its current name). */
 export async function findRouteByImportSha256(db: Executor, importSha256: string) {
   const [row] = await db
     .select({ id: roadRoutes.id, name: roadRouteVersions.name })
@@ -53,7 +53,7 @@ export async function findRouteByImportSha256(db: Executor, importSha256: string
       roadRouteVersions,
       and(eq(roadRouteVersions.routeId, roadRoutes.id), eq(roadRouteVersions.version, roadRoutes.currentVersion)),
     )
-    .where(eq(roadRoutes.importSha256, importSha256));
+    .where(and(eq(roadRoutes.importSha256, importSha256), isNull(roadRoutes.deletedAt)));
   return row;
 }
 
