@@ -25,8 +25,9 @@ export interface ListTableOptions<Row, Filter> {
   load: () => Promise<Row[]>;
   filter: Signal<Filter>;
   matches: (row: Row, filter: Filter) => boolean;
-  sort: Signal<MatSort>;
-  paginator: Signal<MatPaginator>;
+  /** The table's sort and pager (undefined while the table is not on the page). */
+  sort: Signal<MatSort | undefined>;
+  paginator: Signal<MatPaginator | undefined>;
   /** The value a column sorts by, where it is not the row's field of the column's name. */
   sortValue?: (row: Row, column: string) => string | number;
 }
@@ -60,8 +61,8 @@ export function listTable<Row, Filter>(options: ListTableOptions<Row, Filter>): 
   if (options.sortValue) dataSource.sortingDataAccessor = options.sortValue;
   // MatTableDataSource is not signal-based: hand it the sort, the pager and the filtered rows.
   effect(() => {
-    dataSource.sort = options.sort();
-    dataSource.paginator = options.paginator();
+    dataSource.sort = options.sort() ?? null;
+    dataSource.paginator = options.paginator() ?? null;
     dataSource.data = visibleRows();
   });
   // A narrower filter may leave fewer pages than the one shown: start again from the first.
@@ -72,7 +73,7 @@ export function listTable<Row, Filter>(options: ListTableOptions<Row, Filter>): 
       firstFilter = false;
       return;
     }
-    options.paginator().firstPage();
+    options.paginator()?.firstPage();
   });
   return { rows, visibleRows, loadState: loadStateOf(data), dataSource, reload: () => data.reload() };
 }
