@@ -1,5 +1,5 @@
 import { DatePipe, DecimalPipe } from '@angular/common';
-import { ChangeDetectionStrategy, Component, computed, effect, inject, input, linkedSignal, resource, signal } from '@angular/core';
+import { ChangeDetectionStrategy, Component, computed, inject, input, resource, signal } from '@angular/core';
 import { MatButtonModule } from '@angular/material/button';
 import { MatIconModule } from '@angular/material/icon';
 import { MatProgressBarModule } from '@angular/material/progress-bar';
@@ -14,6 +14,7 @@ import { UnitPreference } from '../units/unit-preference';
 import { UnitSwitch } from '../units/unit-switch';
 import { LoadStatus } from '../ui/load-status';
 import { loadStateOf } from '../ui/load-state';
+import { latestAnswer, reloadWhileGoing } from '../ui/polled-resource';
 import { VehicleProfilesApi } from '../vehicles/vehicle-profiles-api';
 import { CalibrationApi } from './calibration-api';
 import { FIT_PARAMETER_LABELS, formatChange, formatParameter, residualSeries, signedPercent } from './calibration-format';
@@ -70,10 +71,7 @@ export default class CalibrationDetail {
    * The last answer for the current id: kept while a poll reloads or fails (the page stays
    * readable and polling goes on), replaced by the answer to a decision, dropped on a new id.
    */
-  protected readonly calibration = linkedSignal<{ id: string; value: Calibration | null }, Calibration | null>({
-    source: () => ({ id: this.calibrationId(), value: this.data.hasValue() ? this.data.value() : null }),
-    computation: (source, previous) => source.value ?? (previous?.value?.id === source.id ? previous.value : null),
-  });
+  protected readonly calibration = latestAnswer(this.calibrationId, this.data);
   /** A poll that failed while the fit is shown (the next poll tries again). */
   protected readonly pollError = computed(() =>
     this.data.status() === 'error' && this.calibration() ? describeApiError(this.data.error()) : null,
@@ -115,15 +113,8 @@ export default class CalibrationDetail {
   protected readonly powerUnit = computed(() => unitLabel('power', this.units()));
 
   constructor() {
-    // A fit still queued or running is asked for again every CALIBRATION_POLL_INTERVAL_MS; an answer, a new
-    // id, a decision or leaving the page clears the waiting timer.
-    effect((onCleanup) => {
-      const c = this.calibration();
-      const status = this.data.status();
-      if (!c || !isFitting(c) || status === 'loading' || status === 'reloading') return;
-      const timer = setTimeout(() => this.data.reload(), CALIBRATION_POLL_INTERVAL_MS);
-      onCleanup(() => clearTimeout(timer));
-    });
+    // A fit still queued or running is asked for again until it settles.
+    reloadWhileGoing(this.data, this.calibration, isFitting, CALIBRATION_POLL_INTERVAL_MS);
   }
 
   protected async decide(decision: 'accept' | 'reject'): Promise<void> {

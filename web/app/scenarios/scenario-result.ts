@@ -27,6 +27,7 @@ import { Session } from '../core/session';
 import { confirmDelete } from '../ui/confirm-delete-dialog';
 import { LoadStatus } from '../ui/load-status';
 import { loadStateOf, type LoadState } from '../ui/load-state';
+import { latestAnswer, reloadWhileGoing } from '../ui/polled-resource';
 import { AdviceCautions } from '../ui/advice-cautions';
 import { DescentSafety } from '../descents/descent-safety';
 import { TerrainMap, type MapOverlay, type MapPosition } from '../map/terrain-map';
@@ -137,10 +138,7 @@ export default class ScenarioResultScreen {
    * The last answer for the current id: kept while a poll reloads or fails, replaced by the
    * answer to "Run again", dropped on a new id.
    */
-  protected readonly scenario = linkedSignal<{ id: string; value: Scenario | null }, Scenario | null>({
-    source: () => ({ id: this.scenarioId(), value: this.data.hasValue() ? this.data.value() : null }),
-    computation: (source, previous) => source.value ?? (previous?.value?.id === source.id ? previous.value : null),
-  });
+  protected readonly scenario = latestAnswer(this.scenarioId, this.data);
   /** Which stored result to show: the scenario's, as of its last computation (none before the first run). */
   private readonly resultKey = computed(
     () => {
@@ -303,15 +301,8 @@ export default class ScenarioResultScreen {
   });
 
   constructor() {
-    // A scenario still queued or running is asked for again every POLL_INTERVAL_MS; an answer, a
-    // new id or leaving the page clears the waiting timer.
-    effect((onCleanup) => {
-      const scenario = this.scenario();
-      const status = this.data.status();
-      if (!scenario || !isRunning(scenario) || status === 'loading' || status === 'reloading') return;
-      const timer = setTimeout(() => this.data.reload(), POLL_INTERVAL_MS);
-      onCleanup(() => clearTimeout(timer));
-    });
+    // A scenario still queued or running is asked for again until it settles.
+    reloadWhileGoing(this.data, this.scenario, isRunning, POLL_INTERVAL_MS);
     effect(() => {
       const direction = this.direction();
       if (direction) untracked(() => this.fitTo.set(direction.profile.lon.map((lon, i) => [lon, direction.profile.lat[i]!])));
