@@ -2,6 +2,7 @@
 import { and, desc, eq, inArray, isNotNull, isNull, sql } from 'drizzle-orm';
 import { OPEN_REVIEW_STATES } from '@shared/domain/reviews';
 import type { Executor } from '../db/client';
+import { isCurrentVersionOfRoute } from '../road-routes/road-routes-repository';
 import { reviewItems, roadRouteVersions, roadRoutes, scenarios, vehicleProfiles } from '../db/schema/index';
 
 /**
@@ -29,10 +30,7 @@ export function findLatestInServiceScenarioPerRoute(db: Executor) {
     })
     .from(scenarios)
     .innerJoin(roadRoutes, eq(roadRoutes.id, scenarios.routeId))
-    .innerJoin(
-      roadRouteVersions,
-      and(eq(roadRouteVersions.routeId, scenarios.routeId), eq(roadRouteVersions.version, roadRoutes.currentVersion)),
-    )
+    .innerJoin(roadRouteVersions, isCurrentVersionOfRoute)
     .innerJoin(vehicleProfiles, eq(vehicleProfiles.id, scenarios.vehicleProfileId))
     .where(and(eq(scenarios.inService, true), isNull(scenarios.deletedAt), isNotNull(scenarios.summary), isNotNull(scenarios.computedAt)))
     .orderBy(scenarios.routeId, desc(scenarios.computedAt), desc(scenarios.updatedAt));

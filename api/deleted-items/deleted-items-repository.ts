@@ -2,6 +2,7 @@
 import { and, desc, eq, isNotNull, lt, sql } from 'drizzle-orm';
 import type { AnyPgColumn } from 'drizzle-orm/pg-core';
 import type { Executor } from '../db/client';
+import { isCurrentVersionOfRoute } from '../road-routes/road-routes-repository';
 import {
   roadRoutes,
   roadRouteVersions,
@@ -40,10 +41,7 @@ export async function findDeletedRows(db: Executor, deletedBefore?: Date): Promi
   const routes = await db
     .select({ id: roadRoutes.id, name: roadRouteVersions.name, deletedAt: roadRoutes.deletedAt, deletedBy: roadRoutes.deletedByName })
     .from(roadRoutes)
-    .innerJoin(
-      roadRouteVersions,
-      and(eq(roadRouteVersions.routeId, roadRoutes.id), eq(roadRouteVersions.version, roadRoutes.currentVersion)),
-    )
+    .innerJoin(roadRouteVersions, isCurrentVersionOfRoute)
     .where(deletedCondition(roadRoutes.deletedAt))
     .orderBy(desc(roadRoutes.deletedAt));
   const scenarioRows = await db

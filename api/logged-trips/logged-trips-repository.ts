@@ -1,6 +1,7 @@
 import { and, desc, eq, getTableColumns, inArray, sql } from 'drizzle-orm';
 import type { LoggedTrip } from '@shared/domain/logged-trips';
 import type { Executor } from '../db/client';
+import { isCurrentVersionOfRoute } from '../road-routes/road-routes-repository';
 import { calibrations, loggedTrips, roadRoutes, roadRouteVersions, type LoggedTripRow } from '../db/schema/index';
 
 export type NewLoggedTrip = typeof loggedTrips.$inferInsert;
@@ -59,10 +60,7 @@ export async function routesNear(db: Executor, first: [number, number], last: [n
       coordinates: roadRouteVersions.coordinates,
     })
     .from(roadRoutes)
-    .innerJoin(
-      roadRouteVersions,
-      and(eq(roadRouteVersions.routeId, roadRoutes.id), eq(roadRouteVersions.version, roadRoutes.currentVersion)),
-    )
+    .innerJoin(roadRouteVersions, isCurrentVersionOfRoute)
     .where(
       and(
         sql`ST_DWithin(${roadRouteVersions.geometry}::geography, ${point(first)}, ${withinM})`,

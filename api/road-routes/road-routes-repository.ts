@@ -28,6 +28,12 @@ export type RouteVersion = Omit<RoadRouteVersionRow, 'geometry'>;
 
 export type NewRouteVersion = Omit<RouteVersion, 'id' | 'createdAt' | 'routeId' | 'version'>;
 
+/** Joins a route (`road_routes`) to the content of its current version (`road_route_versions`). */
+export const isCurrentVersionOfRoute = and(
+  eq(roadRouteVersions.routeId, roadRoutes.id),
+  eq(roadRouteVersions.version, roadRoutes.currentVersion),
+)!;
+
 export async function insertRoute(
   db: Executor,
   values: { createdById: string | null; seedKey?: string | null; importSha256?: string | null },
@@ -49,10 +55,7 @@ export async function findRouteByImportSha256(db: Executor, importSha256: string
   const [row] = await db
     .select({ id: roadRoutes.id, name: roadRouteVersions.name })
     .from(roadRoutes)
-    .innerJoin(
-      roadRouteVersions,
-      and(eq(roadRouteVersions.routeId, roadRoutes.id), eq(roadRouteVersions.version, roadRoutes.currentVersion)),
-    )
+    .innerJoin(roadRouteVersions, isCurrentVersionOfRoute)
     .where(and(eq(roadRoutes.importSha256, importSha256), isNull(roadRoutes.deletedAt)));
   return row;
 }

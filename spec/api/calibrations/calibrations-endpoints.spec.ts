@@ -141,21 +141,8 @@ describe('POST /api/calibrations/:calibrationId/accept and /reject', () => {
   it('saves the fit as the next profile version naming its trips, and re-runs the scenarios that use the profile', async () => {
     const trip = await uploadTrip(csv.low!);
     const planner = await cookieFor('planner');
-    const scenario = (
-      await request(app)
-        .post('/api/scenarios')
-        .set('Cookie', planner)
-        .send({
-          name: 'Test road, seated, mild',
-          routeId,
-          direction: 'outbound',
-          vehicleProfileId: profileId,
-          load: { kind: 'case', case: 'seated' },
-          season: { kind: 'season', season: 'mild' },
-          startSoc: 0.8,
-        })
-    ).body;
-    const energyBefore = scenario.summary.batteryNetEnergyWh as number;
+    const scenario = await aScenarioOfTheProfile(planner, 'Test road, seated, mild');
+    const energyBefore = scenario.summary.batteryNetEnergyWh;
     const calibrationId = await finishedFit([trip]);
 
     const accepted = await request(app).post(`/api/calibrations/${calibrationId}/accept`).set('Cookie', analyst);
@@ -280,7 +267,10 @@ async function finishedFit(loggedTripIds: string[]): Promise<string> {
   return queued.body.id as string;
 }
 
-async function aScenarioOfTheProfile(planner: string, name: string): Promise<{ id: string }> {
+async function aScenarioOfTheProfile(
+  planner: string,
+  name: string,
+): Promise<{ id: string; computedAt: string; summary: { batteryNetEnergyWh: number } }> {
   const response = await request(app)
     .post('/api/scenarios')
     .set('Cookie', planner)
@@ -294,5 +284,5 @@ async function aScenarioOfTheProfile(planner: string, name: string): Promise<{ i
       startSoc: 0.8,
     });
   expect(response.status, JSON.stringify(response.body)).toBe(201);
-  return response.body as { id: string };
+  return response.body as { id: string; computedAt: string; summary: { batteryNetEnergyWh: number } };
 }
