@@ -13,6 +13,7 @@ import {
   RISK_LABELS,
   annualBasisInBrief,
   boardFigures,
+  boardYear,
   boardSafetyCounts,
   formatBoardNumber,
   formatDateTime,
@@ -31,10 +32,11 @@ const MAX_CHART_ROUTES = 12;
 /** Renders the summary; resolves with the whole file. */
 export function renderBoardSummaryPdf(summary: BoardSummary): Promise<Buffer> {
   const page = new PdfLayout({ Title: 'Descentry network summary' });
+  const year = boardYear(summary);
 
   page.paragraph('Network summary: braking energy and descent safety', { size: 16, bold: true }, { gapAfter: 2 });
   page.paragraph(
-    `Figures as of ${formatDateTime(summary.generatedAt)}. Braking energy: each route’s latest in-service scenario.`,
+    `Figures as of ${formatDateTime(summary.generatedAt)}. Year: ${year.basis === 'service-days' ? 'the service days in service' : 'each route’s latest in-service scenario'}.`,
     { size: 9, colour: MUTED },
     { gapAfter: 6 },
   );
@@ -72,7 +74,7 @@ export function renderBoardSummaryPdf(summary: BoardSummary): Promise<Buffer> {
     page.y += rowHeight;
   }
   page.paragraph(
-    `Net energy from batteries and lines a year, after regeneration: ${formatBoardNumber(summary.totals.annualNetKWh)} kWh; ${formatBoardNumber(summary.totals.annualKm)} km driven.`,
+    `Net energy from batteries and lines a year, after regeneration: ${formatBoardNumber(year.netKWh)} kWh; ${formatBoardNumber(year.km)} km driven.`,
     { size: 9 },
   );
   page.heading('How the year is counted', 10, { gapBefore: 0 });

@@ -181,6 +181,12 @@ export const blockResultSchema = z.object({
    * vehicles (whose on-board storage is not modelled) the net energy drawn from the line.
    */
   tripNetEnergyWh: z.number(),
+  /**
+   * Braking energy of the trips regenerated into the battery or line (at its terminals), and taken
+   * by the friction brakes, Wh. Absent from results stored before they were reported.
+   */
+  regenEnergyWh: z.number().optional(),
+  frictionBrakeEnergyWh: z.number().optional(),
   /** Whether the block can be worked: it never falls below the reserve and every trip can be driven. */
   feasible: z.boolean(),
   /** Why not, in plain words (empty when feasible). */

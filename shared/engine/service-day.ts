@@ -384,7 +384,9 @@ export function tripSeries(pointCount: number): TripSeries {
 /**
  * One trip from `state` (updated to the end state), exactly as `runRouteFrom` steps it (the same
  * segment and dwell steps in the same order) but keeping only time, SOC and the governing brake
- * temperature per point. Answers the energy drawn (sourceJ) and the run time.
+ * temperature per point. Answers the energy drawn (sourceJ), the run time, and the braking energy
+ * regenerated (at the battery or line terminals, as the single-trip summary counts it) and taken by
+ * the friction brakes, so the day's figures add up the same way a scenario's do.
  */
 export function runTrip(
   model: RouteModel,
@@ -392,12 +394,14 @@ export function runTrip(
   state: VehicleState,
   out: TripSeries,
   lastPoint = model.pointCount - 1,
-): { sourceJ: number; durationS: number } {
+): { sourceJ: number; durationS: number; regenJ: number; frictionJ: number } {
   const n = lastPoint + 1;
   const segments = lastPoint;
   const result = emptySegmentResult();
   let timeS = 0;
   let sourceJ = 0;
+  let regenJ = 0;
+  let frictionJ = 0;
   for (let i = 0; i < n; i++) {
     out.timeS[i] = timeS;
     out.soc[i] = state.soc;
@@ -412,8 +416,10 @@ export function runTrip(
     advanceSegment(model, i, speedMps[i]!, speedMps[i + 1]!, state, result);
     timeS += result.durationS;
     sourceJ += result.split.sourcePowerW * result.durationS;
+    regenJ += result.split.regenElectricPowerW * result.durationS;
+    frictionJ += result.split.frictionPowerW * result.durationS;
   }
-  return { sourceJ, durationS: timeS };
+  return { sourceJ, durationS: timeS, regenJ, frictionJ };
 }
 
 function seriesPeak(series: TripSeries, range: DescentRange): number {
@@ -437,6 +443,8 @@ function runBlock(context: DayContext, block: Block): BlockResult {
     endSoc: block.startSoc,
     chargedEnergyWh: 0,
     tripNetEnergyWh: 0,
+    regenEnergyWh: 0,
+    frictionBrakeEnergyWh: 0,
     feasible: false,
     problems: [reason],
     socTrace: [{ timeS: block.pullOutS, soc: block.startSoc }],
@@ -450,6 +458,8 @@ function runBlock(context: DayContext, block: Block): BlockResult {
   let timeS = block.pullOutS;
   let netJ = 0;
   let chargedJ = 0;
+  let regenJ = 0;
+  let frictionJ = 0;
   let minSoc = block.startSoc;
   let minSocAtS = timeS;
   let tripAuxJ = 0;
@@ -543,7 +553,7 @@ function runBlock(context: DayContext, block: Block): BlockResult {
     const startState: VehicleState = { ...state, shortfallJ: 0 };
     const run = prepared.series;
     const tripState: VehicleState = { ...startState };
-    const { sourceJ, durationS } = runTrip(prepared.model, prepared.speedMps, tripState, run);
+    const { sourceJ, durationS, regenJ: tripRegenJ, frictionJ: tripFrictionJ } = runTrip(prepared.model, prepared.speedMps, tripState, run);
     const shortfallJ = tripState.shortfallJ;
     const departS = timeS;
     // Trace: trip start, every TRACE_STEP_S inside, and the trip end; the minimum at full resolution.
@@ -560,6 +570,8 @@ function runBlock(context: DayContext, block: Block): BlockResult {
       }
     }
     netJ += sourceJ - shortfallJ;
+    regenJ += tripRegenJ;
+    frictionJ += tripFrictionJ;
     tripAuxJ += prepared.auxPowerW * durationS;
     tripAuxS += durationS;
     tripAuxMaxW = Math.max(tripAuxMaxW, prepared.auxPowerW);
@@ -654,6 +666,8 @@ function runBlock(context: DayContext, block: Block): BlockResult {
     endSoc: state.soc,
     chargedEnergyWh: chargedJ / JOULES_PER_WH,
     tripNetEnergyWh: netJ / JOULES_PER_WH,
+    regenEnergyWh: regenJ / JOULES_PER_WH,
+    frictionBrakeEnergyWh: frictionJ / JOULES_PER_WH,
     feasible: problems.length === 0,
     problems,
     socTrace,

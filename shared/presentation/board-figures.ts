@@ -19,8 +19,64 @@ export interface BoardFigure {
 
 export const PLACEHOLDER_FACTOR_NOTE = 'Placeholder factor, not a real figure: an administrator has not yet set the network’s own';
 
+/** The year the headline figures count: the annual basis's own when it has them, else the scenario totals. */
+export interface BoardYear {
+  basis: 'service-days' | 'scenarios';
+  regenKWh: number;
+  frictionKWh: number;
+  netKWh: number;
+  km: number;
+  regenValue: number;
+  co2AvoidedKg: number;
+}
+
+/**
+ * One year for every headline figure: on the service-days basis the service days' braking energy,
+ * net energy and distance (so the figures add up with "How the year is counted"); the scenario
+ * totals while no service day is in service, or while a counted day's stored run predates the
+ * braking figures.
+ */
+export function boardYear(summary: BoardSummary): BoardYear {
+  const { totals, settings, annual } = summary;
+  if (annual.basis === 'service-days' && annual.regenEnergyKWh !== null && annual.frictionBrakeEnergyKWh !== null) {
+    return {
+      basis: 'service-days',
+      regenKWh: annual.regenEnergyKWh,
+      frictionKWh: annual.frictionBrakeEnergyKWh,
+      netKWh: annual.netEnergyKWh,
+      km: annual.annualKm,
+      regenValue: annual.regenEnergyKWh * settings.energyTariffPerKWh,
+      co2AvoidedKg: annual.regenEnergyKWh * settings.gridEmissionFactorKgPerKWh,
+    };
+  }
+  return {
+    basis: 'scenarios',
+    regenKWh: totals.annualRegenKWh,
+    frictionKWh: totals.annualFrictionBrakeKWh,
+    netKWh: totals.annualNetKWh,
+    km: totals.annualKm,
+    regenValue: totals.regenValue,
+    co2AvoidedKg: totals.co2AvoidedKg,
+  };
+}
+
+/** Where the headline figures come from, in one sentence. */
+export function boardYearSource(summary: BoardSummary): string {
+  if (boardYear(summary).basis === 'service-days') return 'counted over the service days in service (see “How the year is counted”)';
+  if (summary.annual.basis === 'service-days')
+    return 'from the scenarios marked “in service”: a service day in service was run before braking energy was reported, so run it again to count the year over the service days';
+  return 'from the scenarios marked “in service”';
+}
+
 export function boardFigures(summary: BoardSummary): BoardFigure[] {
-  const { totals, settings } = summary;
+  const { settings } = summary;
+  const year = boardYear(summary);
+  const totals = {
+    annualRegenKWh: year.regenKWh,
+    annualFrictionBrakeKWh: year.frictionKWh,
+    regenValue: year.regenValue,
+    co2AvoidedKg: year.co2AvoidedKg,
+  };
   const share = shareOfBraking(totals.annualRegenKWh, totals.annualFrictionBrakeKWh);
   const placeholder = (what: string) => (settings.isPlaceholder ? `${PLACEHOLDER_FACTOR_NOTE} ${what}.` : null);
   return [

@@ -3,7 +3,14 @@ import { afterAll, beforeEach, describe, expect, it } from 'vitest';
 import { boardSummarySchema } from '@shared/domain/board-summary';
 import { serviceDayListSchema, serviceDayResultSchema, serviceDaySchema, type ServiceDayDraftInput } from '@shared/domain/service-days';
 import { ENGINE_VERSION } from '@shared/engine/constants';
-import { SERVICE_DAY_COLUMNS, serviceDayCsvHeader } from '@shared/presentation/index';
+import {
+  SERVICE_DAY_COLUMNS,
+  boardFigures,
+  boardYear,
+  boardYearSource,
+  formatBoardEnergy,
+  serviceDayCsvHeader,
+} from '@shared/presentation/index';
 import { ensureVehiclePresets, presetProfileId } from '../../../api/vehicle-profiles/vehicle-presets-seed';
 import { waitForInlineServiceDayRuns } from '../../../api/service-days/service-days-service';
 import { createTestContext } from '../../support/test-app';
@@ -376,6 +383,25 @@ describe('the board summary’s annual basis', () => {
     expect(tariffRow.energyCostDelta).toBeCloseTo(0.1 * annual.energyCost, 6);
     // The existing scenario-based fields are still there.
     expect(summary.totals).toMatchObject({ annualKm: 0, annualNetKWh: 0 });
+
+    // The headline figures count the same year: the day's braking energy × its 62 days, not the scenarios.
+    const dayRegenKWh = result.blocks.reduce((total, block) => total + block.regenEnergyWh!, 0) / 1_000;
+    const dayFrictionKWh = result.blocks.reduce((total, block) => total + block.frictionBrakeEnergyWh!, 0) / 1_000;
+    expect(dayRegenKWh).toBeGreaterThan(0);
+    expect(annual.regenEnergyKWh).toBeCloseTo(dayRegenKWh * 62, 6);
+    expect(annual.frictionBrakeEnergyKWh).toBeCloseTo(dayFrictionKWh * 62, 6);
+    const year = boardYear(summary);
+    expect(year).toMatchObject({ basis: 'service-days', netKWh: annual.netEnergyKWh, km: annual.annualKm });
+    expect(year.regenValue).toBeCloseTo(annual.regenEnergyKWh! * summary.settings.energyTariffPerKWh, 6);
+    const figures = boardFigures(summary);
+    expect(figures.find((figure) => figure.key === 'recovered')!.value).toBe(formatBoardEnergy(annual.regenEnergyKWh!));
+    expect(figures.find((figure) => figure.key === 'friction')!.value).toBe(formatBoardEnergy(annual.frictionBrakeEnergyKWh!));
+    expect(boardYearSource(summary)).toContain('service days in service');
+    expect(boardYear(before).basis).toBe('scenarios');
+    // A day run before braking energy was reported: the headline stays on the scenarios and says why.
+    const older = { ...summary, annual: { ...annual, regenEnergyKWh: null, frictionBrakeEnergyKWh: null } };
+    expect(boardYear(older)).toMatchObject({ basis: 'scenarios', regenKWh: summary.totals.annualRegenKWh });
+    expect(boardYearSource(older)).toContain('run it again');
   });
 
   it('refuses day counts that do not make a year with 422, keeping the stored ones', async () => {

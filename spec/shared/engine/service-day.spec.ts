@@ -579,7 +579,8 @@ describe('a day\u2019s trip run', () => {
   it('steps exactly as the single-trip run does', async () => {
     const request = {
       route: { type: 'LineString' as const, coordinates: hill },
-      vehicle: aWorkedExampleBus(),
+      // A small regeneration limit, so the descent also needs the friction brakes.
+      vehicle: aWorkedExampleBus({ regenPowerW: 40_000 }),
       conditions: { ambientC: 3, startSoc: 0.7 },
       options: { spacingM: 20, stops: [{ atM: 2_000, dwellS: 30 }] },
     };
@@ -589,6 +590,12 @@ describe('a day\u2019s trip run', () => {
     const lean = runTrip(model, run.speedMps, state, series);
     expect(lean.durationS).toBe(run.durationS);
     expect(lean.sourceJ).toBe(run.sourceJ);
+    // Braking energy adds up as the single-trip summary adds it: regeneration at the terminals, friction.
+    const sum = (values: Float64Array) => values.reduce((total, value) => total + value, 0);
+    expect(lean.regenJ).toBeGreaterThan(0);
+    expect(lean.frictionJ).toBeGreaterThan(0);
+    expect(lean.regenJ).toBeCloseTo(sum(run.segmentRegenJ), 6);
+    expect(lean.frictionJ).toBeCloseTo(sum(run.segmentFrictionJ), 6);
     expect(state.soc).toBe(run.endSoc);
     expect(Array.from(series.soc)).toEqual(Array.from(run.soc));
     expect(Array.from(series.timeS)).toEqual(Array.from(run.timeS));
