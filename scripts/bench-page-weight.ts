@@ -142,7 +142,10 @@ async function visit(context: BrowserContext, url: string): Promise<Visit> {
   const totals = { bytes: 0, appBytes: 0, apiBytes: 0, tileBytes: 0, requests: 0, fromCache: 0 };
   const urls = new Map<string, string>();
   const files = new Map<string, number>();
+  const inFlight = new Set<string>();
+  cdp.on('Network.loadingFailed', (event: { requestId: string }) => inFlight.delete(event.requestId));
   cdp.on('Network.requestWillBeSent', (event: { requestId: string; request: { url: string } }) => {
+    inFlight.add(event.requestId);
     totals.requests += 1;
     urls.set(event.requestId, new URL(event.request.url).pathname);
   });
@@ -151,6 +154,7 @@ async function visit(context: BrowserContext, url: string): Promise<Visit> {
     if (event.response.fromDiskCache) totals.fromCache += 1;
   });
   cdp.on('Network.loadingFinished', (event: { requestId: string; encodedDataLength: number }) => {
+    inFlight.delete(event.requestId);
     const path = urls.get(event.requestId) ?? '';
     totals.bytes += event.encodedDataLength;
     files.set(path, (files.get(path) ?? 0) + event.encodedDataLength);
@@ -159,6 +163,15 @@ async function visit(context: BrowserContext, url: string): Promise<Visit> {
     else totals.appBytes += event.encodedDataLength;
   });
   await page.goto(url, { waitUntil: 'networkidle' });
+  // The map and the result's charts are deferred: they load right after the first paint. The
+  // visit counts them, and what they fetch (tiles), so wait until they have replaced their
+  // placeholders and the network has been quiet for half a second. (A deferred part below the
+  // fold, such as the route editor's profile chart at this window size, loads only when scrolled
+  // to, and is not counted.)
+  await page
+    .waitForFunction(() => !document.querySelector('.map-placeholder, .charts-placeholder'), undefined, { timeout: 15_000 })
+    .catch(() => undefined);
+  await quiet(() => inFlight.size, 500);
   const lcpMs = await page.evaluate(
     () =>
       new Promise<number>((done) => {
@@ -171,6 +184,17 @@ async function visit(context: BrowserContext, url: string): Promise<Visit> {
   );
   await page.close();
   return { ...totals, lcpMs, files };
+}
+
+/** Resolves once nothing has been in flight for `quietMs` (at most 15 s). */
+async function quiet(inFlight: () => number, quietMs: number): Promise<void> {
+  const end = Date.now() + 15_000;
+  let quietSince = Date.now();
+  while (Date.now() < end) {
+    if (inFlight() > 0) quietSince = Date.now();
+    else if (Date.now() - quietSince >= quietMs) return;
+    await new Promise((resolve) => setTimeout(resolve, 50));
+  }
 }
 
 function printFiles(pageName: string, files: Map<string, number>): void {
