@@ -9,18 +9,21 @@
  * `annual` puts the year on one stated basis: the in-service service days weighted by the
  * network's day counts when there are any, else these scenario totals (api/board/annual-basis.ts).
  */
-import { and, desc, eq, inArray, isNotNull, isNull, sql } from 'drizzle-orm';
 import type { BoardSummary, RouteYear } from '@shared/domain/board-summary';
 import type { Descent } from '@shared/domain/analysis';
-import { OPEN_REVIEW_STATES } from '@shared/domain/reviews';
 import { ENGINEERING_CAUTION } from '@shared/engine/constants';
 import { annualise } from '@shared/engine/summary';
 import type { Executor } from '../db/client';
-import { reviewItems, roadRouteVersions, roadRoutes, scenarios, vehicleProfiles } from '../db/schema/index';
 import { matchStretches } from '../reviews/review-workflow';
 import { readScenarioResult } from '../scenarios/scenarios-repository';
 import { readNetworkSettings } from './network-settings';
 import { annualBasis } from './annual-basis';
+import {
+  countAcceptedHighRiskItems,
+  countOpenReviewItemsByRisk,
+  findLatestInServiceScenarioPerRoute,
+  findReviewStretchesOfRoutes,
+} from './board-repository';
 
 /** How many descents the summary lists, steepest mean grade first. */
 export const STEEPEST_DESCENT_COUNT = 5;
@@ -82,33 +85,7 @@ export async function boardSummary(db: Executor, now: Date = new Date()): Promis
 type ChosenScenario = Awaited<ReturnType<typeof inServiceScenarios>>[number];
 
 async function inServiceScenarios(db: Executor) {
-  const rows = await db
-    .selectDistinctOn([scenarios.routeId], {
-      scenarioId: scenarios.id,
-      scenarioName: scenarios.name,
-      routeId: scenarios.routeId,
-      vehicleProfileId: scenarios.vehicleProfileId,
-      direction: scenarios.direction,
-      computedAt: scenarios.computedAt,
-      summary: scenarios.summary,
-      riskCounts: scenarios.riskCounts,
-      directionResults: scenarios.directionResults,
-      resultVersion: scenarios.resultVersion,
-      vehicleProfileName: vehicleProfiles.name,
-      routeName: roadRouteVersions.name,
-      // The route's current schedule: trips per day change without changing the physics.
-      tripsPerDay: roadRouteVersions.tripsPerDay,
-      serviceDaysPerYear: roadRouteVersions.serviceDaysPerYear,
-    })
-    .from(scenarios)
-    .innerJoin(roadRoutes, eq(roadRoutes.id, scenarios.routeId))
-    .innerJoin(
-      roadRouteVersions,
-      and(eq(roadRouteVersions.routeId, scenarios.routeId), eq(roadRouteVersions.version, roadRoutes.currentVersion)),
-    )
-    .innerJoin(vehicleProfiles, eq(vehicleProfiles.id, scenarios.vehicleProfileId))
-    .where(and(eq(scenarios.inService, true), isNull(scenarios.deletedAt), isNotNull(scenarios.summary), isNotNull(scenarios.computedAt)))
-    .orderBy(scenarios.routeId, desc(scenarios.computedAt), desc(scenarios.updatedAt));
+  const rows = await findLatestInServiceScenarioPerRoute(db);
   return rows
     .map((row) => {
       const stored = readScenarioResult({ ...row, id: row.scenarioId });
@@ -118,22 +95,14 @@ async function inServiceScenarios(db: Executor) {
 }
 
 async function openItemCounts(db: Executor): Promise<BoardSummary['openSafetyItems']> {
-  const rows = await db
-    .select({ risk: reviewItems.risk, count: sql<number>`count(*)::int` })
-    .from(reviewItems)
-    .where(inArray(reviewItems.state, [...OPEN_REVIEW_STATES]))
-    .groupBy(reviewItems.risk);
+  const rows = await countOpenReviewItemsByRisk(db);
   const counts = { elevated: 0, high: 0, critical: 0 };
   for (const row of rows) if (row.risk !== 'low') counts[row.risk] = row.count;
   return counts;
 }
 
 async function acceptedRiskCounts(db: Executor): Promise<BoardSummary['acceptedRisks']> {
-  const rows = await db
-    .select({ risk: reviewItems.risk, count: sql<number>`count(*)::int` })
-    .from(reviewItems)
-    .where(and(eq(reviewItems.state, 'accepted'), inArray(reviewItems.risk, ['high', 'critical'])))
-    .groupBy(reviewItems.risk);
+  const rows = await countAcceptedHighRiskItems(db);
   const counts = { high: 0, critical: 0 };
   for (const row of rows) if (row.risk === 'high' || row.risk === 'critical') counts[row.risk] = row.count;
   return counts;
@@ -159,19 +128,7 @@ async function steepestDescents(db: Executor, chosen: ChosenScenario[]): Promise
     if (steepest.length === STEEPEST_DESCENT_COUNT) break;
   }
   const items =
-    steepest.length === 0
-      ? []
-      : await db
-          .select({
-            id: reviewItems.id,
-            routeId: reviewItems.routeId,
-            vehicleProfileId: reviewItems.vehicleProfileId,
-            direction: reviewItems.direction,
-            startM: reviewItems.startM,
-            endM: reviewItems.endM,
-          })
-          .from(reviewItems)
-          .where(inArray(reviewItems.routeId, [...new Set(steepest.map((entry) => entry.row.routeId))]));
+    steepest.length === 0 ? [] : await findReviewStretchesOfRoutes(db, [...new Set(steepest.map((entry) => entry.row.routeId))]);
   return steepest.map(({ row, direction, descent }) => ({
     reviewId: reviewIdFor(items, row, direction, descent),
     routeName: row.routeName,

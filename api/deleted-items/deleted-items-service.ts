@@ -4,22 +4,12 @@
  * that may change them can restore them, for DELETED_RETENTION_DAYS. The maintenance sweep then
  * removes them for good (terrain with its files) and records that in the audit log.
  */
-import { and, desc, eq, isNotNull, lt, sql } from 'drizzle-orm';
-import type { AnyPgColumn } from 'drizzle-orm/pg-core';
 import type { RestorableKind } from '@shared/domain/audit';
 import { DELETED_RETENTION_DAYS, type DeletedItem } from '@shared/domain/deleted-items';
 import type { AppDeps } from '../app-deps';
 import { SYSTEM_ACTOR, recordAudit } from '../audit/audit-log';
 import type { Executor } from '../db/client';
-import {
-  roadRoutes,
-  roadRouteVersions,
-  scenarios,
-  serviceDays,
-  terrainDependents,
-  terrainModels,
-  vehicleProfiles,
-} from '../db/schema/index';
+import { deleteScenarioTerrainDependents, findDeletedRows, type DeletedEntityRow } from './deleted-items-repository';
 import { purgeServiceDay } from '../service-days/service-days-repository';
 import { purgeRoute } from '../road-routes/road-routes-repository';
 import { purgeScenario } from '../scenarios/scenarios-repository';
@@ -52,47 +42,10 @@ export async function listDeletedItems(db: Executor): Promise<DeletedItem[]> {
 }
 
 async function deletedRows(db: Executor, deletedBefore?: Date): Promise<DeletedRow[]> {
-  const deletedCondition = (column: AnyPgColumn) => (deletedBefore ? lt(column, deletedBefore) : isNotNull(column));
-  const routes = await db
-    .select({ id: roadRoutes.id, name: roadRouteVersions.name, deletedAt: roadRoutes.deletedAt, deletedBy: roadRoutes.deletedByName })
-    .from(roadRoutes)
-    .innerJoin(
-      roadRouteVersions,
-      and(eq(roadRouteVersions.routeId, roadRoutes.id), eq(roadRouteVersions.version, roadRoutes.currentVersion)),
-    )
-    .where(deletedCondition(roadRoutes.deletedAt))
-    .orderBy(desc(roadRoutes.deletedAt));
-  const scenarioRows = await db
-    .select({
-      id: scenarios.id,
-      name: scenarios.name,
-      deletedAt: scenarios.deletedAt,
-      deletedBy: scenarios.deletedByName,
-      routeDeleted: sql<boolean>`exists (select 1 from ${roadRoutes} r where r.id = ${scenarios.routeId} and r.deleted_at is not null)`,
-      profileDeleted: sql<boolean>`exists (select 1 from ${vehicleProfiles} p where p.id = ${scenarios.vehicleProfileId} and p.deleted_at is not null)`,
-    })
-    .from(scenarios)
-    .where(deletedCondition(scenarios.deletedAt));
-  const profiles = await db
-    .select({
-      id: vehicleProfiles.id,
-      name: vehicleProfiles.name,
-      deletedAt: vehicleProfiles.deletedAt,
-      deletedBy: vehicleProfiles.deletedByName,
-    })
-    .from(vehicleProfiles)
-    .where(deletedCondition(vehicleProfiles.deletedAt));
-  const terrain = await db
-    .select({ id: terrainModels.id, name: terrainModels.name, deletedAt: terrainModels.deletedAt, deletedBy: terrainModels.deletedByName })
-    .from(terrainModels)
-    .where(deletedCondition(terrainModels.deletedAt));
-  const days = await db
-    .select({ id: serviceDays.id, name: serviceDays.name, deletedAt: serviceDays.deletedAt, deletedBy: serviceDays.deletedByName })
-    .from(serviceDays)
-    .where(deletedCondition(serviceDays.deletedAt));
+  const { routes, scenarios: scenarioRows, profiles, terrain, serviceDays: days } = await findDeletedRows(db, deletedBefore);
   const plain =
     (kind: RestorableKind) =>
-    (row: { id: string; name: string; deletedAt: Date | null; deletedBy: string | null }): DeletedRow => ({
+    (row: DeletedEntityRow): DeletedRow => ({
       kind,
       id: row.id,
       name: row.name,
@@ -135,7 +88,7 @@ export async function purgeExpiredDeletes(deps: AppDeps, now = new Date()): Prom
     }
     await deps.db.transaction(async (tx) => {
       if (item.kind === 'scenario') {
-        await tx.delete(terrainDependents).where(and(eq(terrainDependents.kind, 'scenario'), eq(terrainDependents.dependentId, item.id)));
+        await deleteScenarioTerrainDependents(tx, item.id);
         await purgeScenario(tx, item.id);
       } else if (item.kind === 'service-day') {
         await purgeServiceDay(tx, item.id);

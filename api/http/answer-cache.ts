@@ -7,7 +7,7 @@ import type { Database } from '../db/client';
 
 /**
  * PostgreSQL channel on which the database announces, at commit, every statement that changed one
- * of the application's tables (statement-level triggers, migration 0018): the table's name.
+ * of the application's tables (statement-level triggers, migration 0019): the table's name.
  * Heartbeats of the processes use it too (`p:<process>:<sequence>`).
  */
 export const DATA_CHANGES_CHANNEL = 'descentry_data_changes';

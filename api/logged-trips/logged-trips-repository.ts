@@ -1,6 +1,7 @@
-import { and, desc, eq, getTableColumns, inArray, sql } from 'drizzle-orm';
+import { and, desc, eq, getTableColumns, inArray, isNull, sql } from 'drizzle-orm';
 import type { LoggedTrip } from '@shared/domain/logged-trips';
 import type { Executor } from '../db/client';
+import { isCurrentVersionOfRoute } from '../road-routes/road-routes-repository';
 import { calibrations, loggedTrips, roadRoutes, roadRouteVersions, type LoggedTripRow } from '../db/schema/index';
 
 export type NewLoggedTrip = typeof loggedTrips.$inferInsert;
@@ -48,7 +49,7 @@ export async function countAcceptedCalibrationsUsing(db: Executor, id: string): 
   return row?.n ?? 0;
 }
 
-/** Current versions of the routes passing within `withinM` of both points (candidates for matching). */
+/** Current versions of the routes (not deleted) passing within `withinM` of both points (candidates for matching). */
 export async function routesNear(db: Executor, first: [number, number], last: [number, number], withinM: number) {
   const point = (p: [number, number]) => sql`ST_SetSRID(ST_MakePoint(${p[0]}, ${p[1]}), 4326)::geography`;
   return db
@@ -59,12 +60,10 @@ export async function routesNear(db: Executor, first: [number, number], last: [n
       coordinates: roadRouteVersions.coordinates,
     })
     .from(roadRoutes)
-    .innerJoin(
-      roadRouteVersions,
-      and(eq(roadRouteVersions.routeId, roadRoutes.id), eq(roadRouteVersions.version, roadRoutes.currentVersion)),
-    )
+    .innerJoin(roadRouteVersions, isCurrentVersionOfRoute)
     .where(
       and(
+        isNull(roadRoutes.deletedAt),
         sql`ST_DWithin(${roadRouteVersions.geometry}::geography, ${point(first)}, ${withinM})`,
         sql`ST_DWithin(${roadRouteVersions.geometry}::geography, ${point(last)}, ${withinM})`,
       ),

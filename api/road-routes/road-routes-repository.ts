@@ -28,6 +28,12 @@ export type RouteVersion = Omit<RoadRouteVersionRow, 'geometry'>;
 
 export type NewRouteVersion = Omit<RouteVersion, 'id' | 'createdAt' | 'routeId' | 'version'>;
 
+/** Joins a route (`road_routes`) to the content of its current version (`road_route_versions`). */
+export const isCurrentVersionOfRoute = and(
+  eq(roadRouteVersions.routeId, roadRoutes.id),
+  eq(roadRouteVersions.version, roadRoutes.currentVersion),
+)!;
+
 export async function insertRoute(
   db: Executor,
   values: { createdById: string | null; seedKey?: string | null; importSha256?: string | null },
@@ -44,16 +50,13 @@ export async function insertRoute(
   return row!;
 }
 
-/** The route imported from a file with this SHA-256, if any (with its current name). */
+/** The route (not deleted) imported from a file with this SHA-256, if any (with its current name). */
 export async function findRouteByImportSha256(db: Executor, importSha256: string) {
   const [row] = await db
     .select({ id: roadRoutes.id, name: roadRouteVersions.name })
     .from(roadRoutes)
-    .innerJoin(
-      roadRouteVersions,
-      and(eq(roadRouteVersions.routeId, roadRoutes.id), eq(roadRouteVersions.version, roadRoutes.currentVersion)),
-    )
-    .where(eq(roadRoutes.importSha256, importSha256));
+    .innerJoin(roadRouteVersions, isCurrentVersionOfRoute)
+    .where(and(eq(roadRoutes.importSha256, importSha256), isNull(roadRoutes.deletedAt)));
   return row;
 }
 

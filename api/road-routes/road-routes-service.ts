@@ -154,6 +154,17 @@ export async function restoreRoute(db: Database, actor: Author, routeId: string)
     const route = await repository.lockRoute(tx, routeId, true);
     if (!route?.deletedAt) throw new NotFoundError('A deleted route with that id');
     const current = await repository.findVersion(tx, routeId, route.currentVersion);
+    if (route.importSha256) {
+      // Its file was imported again while it was deleted: two live routes from one file would be a silent duplicate.
+      const copy = await repository.findRouteByImportSha256(tx, route.importSha256);
+      if (copy) {
+        throw new ConflictError(
+          `The route was imported again from the same file while it was deleted, as the route “${copy.name}”: open that route, or delete it first to restore this one`,
+          'already_imported',
+          { routeId: copy.id, routeName: copy.name },
+        );
+      }
+    }
     await repository.markRouteRestored(tx, routeId);
     await recordAudit(tx, actor, { action: 'restore', kind: 'route', entityId: routeId, entityName: current?.name ?? routeId });
   });

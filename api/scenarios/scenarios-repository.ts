@@ -78,13 +78,12 @@ export async function findScenariosWithContext(db: Executor, ids: string[]): Pro
   return (await selectWithContext(db).where(and(inArray(scenarios.id, ids), isNull(scenarios.deletedAt)))) as ScenarioWithContext[];
 }
 
-/** The scenario unless it is deleted (or, with `includeDeleted`, either way). */
-/** Id and name of every scenario on a vehicle profile, by name (for re-running them all). */
+/** Id and name of every scenario (not deleted) on a vehicle profile, by name (for re-running them all). */
 export function listScenarioNamesOfProfile(db: Executor, vehicleProfileId: string): Promise<{ id: string; name: string }[]> {
   return db
     .select({ id: scenarios.id, name: scenarios.name })
     .from(scenarios)
-    .where(eq(scenarios.vehicleProfileId, vehicleProfileId))
+    .where(and(eq(scenarios.vehicleProfileId, vehicleProfileId), isNull(scenarios.deletedAt)))
     .orderBy(scenarios.name);
 }
 

@@ -13,20 +13,29 @@ const lineString = geometryColumn<LineString>('LineString');
  * A road route: its identity and which version is current. The content of each saved version
  * lives in `road_route_versions`, so a scenario can always be re-read on the version it ran on.
  */
-export const roadRoutes = pgTable('road_routes', {
-  id: uuid().primaryKey().defaultRandom(),
-  currentVersion: integer().notNull().default(1),
-  /** Stable key for data loaded by the demo seed (idempotent upserts); null for planners' routes. */
-  seedKey: text().unique(),
-  /**
-   * SHA-256 (hex) of the GeoJSON or GPX file the route was imported from; null for drawn routes.
-   * Unique, so importing the very same file twice is refused instead of making a duplicate.
-   */
-  importSha256: text().unique(),
-  createdById: uuid().references(() => users.id, { onDelete: 'set null' }),
-  ...timestamps,
-  ...deletion,
-});
+export const roadRoutes = pgTable(
+  'road_routes',
+  {
+    id: uuid().primaryKey().defaultRandom(),
+    currentVersion: integer().notNull().default(1),
+    /** Stable key for data loaded by the demo seed (idempotent upserts); null for planners' routes. */
+    seedKey: text().unique(),
+    /**
+     * SHA-256 (hex) of the GeoJSON or GPX file the route was imported from; null for drawn routes.
+     * Unique among routes not deleted, so importing the very same file twice is refused instead of
+     * making a duplicate, while a deleted route does not block importing its file again.
+     */
+    importSha256: text(),
+    createdById: uuid().references(() => users.id, { onDelete: 'set null' }),
+    ...timestamps,
+    ...deletion,
+  },
+  (table) => [
+    uniqueIndex('road_routes_live_import_sha256_key')
+      .on(table.importSha256)
+      .where(sql`${table.deletedAt} IS NULL`),
+  ],
+);
 export type RoadRouteRow = typeof roadRoutes.$inferSelect;
 
 /** One saved version of a route: never changed once written. */

@@ -141,21 +141,8 @@ describe('POST /api/calibrations/:calibrationId/accept and /reject', () => {
   it('saves the fit as the next profile version naming its trips, and re-runs the scenarios that use the profile', async () => {
     const trip = await uploadTrip(csv.low!);
     const planner = await cookieFor('planner');
-    const scenario = (
-      await request(app)
-        .post('/api/scenarios')
-        .set('Cookie', planner)
-        .send({
-          name: 'Test road, seated, mild',
-          routeId,
-          direction: 'outbound',
-          vehicleProfileId: profileId,
-          load: { kind: 'case', case: 'seated' },
-          season: { kind: 'season', season: 'mild' },
-          startSoc: 0.8,
-        })
-    ).body;
-    const energyBefore = scenario.summary.batteryNetEnergyWh as number;
+    const scenario = await aScenarioOfTheProfile(planner, 'Test road, seated, mild');
+    const energyBefore = scenario.summary.batteryNetEnergyWh;
     const calibrationId = await finishedFit([trip]);
 
     const accepted = await request(app).post(`/api/calibrations/${calibrationId}/accept`).set('Cookie', analyst);
@@ -187,6 +174,34 @@ describe('POST /api/calibrations/:calibrationId/accept and /reject', () => {
       [1, 'created'],
     ]);
     expect(versions.items[0]!.calibration!.loggedTrips).toEqual([{ id: trip, name: 'trip' }]);
+  });
+
+  it('re-runs only the scenarios of the profile that are not deleted', async () => {
+    const planner = await cookieFor('planner');
+    const kept = await aScenarioOfTheProfile(planner, 'Test road, kept');
+    const gone = await aScenarioOfTheProfile(planner, 'Test road, deleted');
+    expect((await request(app).delete(`/api/scenarios/${gone.id}`).set('Cookie', planner)).status).toBe(204);
+    const calibrationId = await finishedFit([await uploadTrip(csv.low!)]);
+
+    const accepted = await request(app).post(`/api/calibrations/${calibrationId}/accept`).set('Cookie', analyst);
+    await waitForInlineBatchJobs(deps);
+
+    expect(accepted.status).toBe(200);
+    const batch = (await request(app).get(`/api/batch-runs/${accepted.body.rerunBatchId}`).set('Cookie', analyst)).body;
+    expect(batch).toMatchObject({ total: 1, done: 1, failed: 0 });
+    expect(batch.items.map((item: { scenarioId: string }) => item.scenarioId)).toEqual([kept.id]);
+  });
+
+  it('starts no re-run when every scenario of the profile is deleted', async () => {
+    const planner = await cookieFor('planner');
+    const gone = await aScenarioOfTheProfile(planner, 'Test road, deleted');
+    await request(app).delete(`/api/scenarios/${gone.id}`).set('Cookie', planner);
+    const calibrationId = await finishedFit([await uploadTrip(csv.low!)]);
+
+    const accepted = await request(app).post(`/api/calibrations/${calibrationId}/accept`).set('Cookie', analyst);
+
+    expect(accepted.status).toBe(200);
+    expect(accepted.body).toMatchObject({ decision: 'accepted', acceptedVersion: 2, rerunBatchId: null });
   });
 
   it('keeps the evidence: a trip an accepted version was fitted on cannot be deleted, and a decided fit cannot be decided again', async () => {
@@ -250,4 +265,24 @@ async function finishedFit(loggedTripIds: string[]): Promise<string> {
     .send({ loggedTripIds, fit: ['rollingResistanceCoefficient', 'dragAreaM2', 'auxPowerW', 'drivetrainEfficiency', 'regenEfficiency'] });
   await waitForInlineCalibrationJobs(deps);
   return queued.body.id as string;
+}
+
+async function aScenarioOfTheProfile(
+  planner: string,
+  name: string,
+): Promise<{ id: string; computedAt: string; summary: { batteryNetEnergyWh: number } }> {
+  const response = await request(app)
+    .post('/api/scenarios')
+    .set('Cookie', planner)
+    .send({
+      name,
+      routeId,
+      direction: 'outbound',
+      vehicleProfileId: profileId,
+      load: { kind: 'case', case: 'seated' },
+      season: { kind: 'season', season: 'mild' },
+      startSoc: 0.8,
+    });
+  expect(response.status, JSON.stringify(response.body)).toBe(201);
+  return response.body as { id: string; computedAt: string; summary: { batteryNetEnergyWh: number } };
 }

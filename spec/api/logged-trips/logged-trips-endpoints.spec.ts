@@ -81,6 +81,18 @@ describe('POST /api/vehicles/:vehicleProfileId/logged-trips', () => {
     expect(route.body.lengthM).toBeGreaterThan(6_000);
   });
 
+  it('does not match a deleted route: the trip makes a new route instead', async () => {
+    const deletedRouteId = await aSavedRoute();
+    const planner = await cookieFor('planner');
+    expect((await request(app).delete(`/api/routes/${deletedRouteId}`).set('Cookie', planner)).status).toBe(204);
+
+    const response = await upload(goodCsv, { name: 'Morning run' });
+
+    expect(response.status).toBe(201);
+    expect(response.body.trip).toMatchObject({ routeCreated: 'created', routeName: 'Logged route: Morning run' });
+    expect(response.body.trip.routeId).not.toBe(deletedRouteId);
+  });
+
   it('ignores columns it does not know and lists them', async () => {
     const lines = goodCsv.trim().split('\n');
     const csv = [`${lines[0]},driver_id,odometer_km`, ...lines.slice(1).map((line) => `${line},D17,1234.5`)].join('\n');

@@ -122,6 +122,46 @@ describe('GET /api/routes/:routeId/export and POST /api/routes/import', () => {
     expect(await countRows(db, 'road_routes')).toBe(1);
   });
 
+  it('imports the same file again once the route it made is deleted', async () => {
+    const first = await upload('/api/routes/import', aGpxTrack(), 'recorded.gpx');
+    expect((await request(app).delete(`/api/routes/${first.body.route.id}`).set('Cookie', planner)).status).toBe(204);
+
+    const again = await upload('/api/routes/import', aGpxTrack(), 'recorded.gpx');
+
+    expect(again.status).toBe(201);
+    expect(again.body.route.id).not.toBe(first.body.route.id);
+    expect(await countRows(db, 'road_routes')).toBe(2);
+  });
+
+  it('refuses to restore a deleted import with 409 naming the live copy imported from the same file since', async () => {
+    const first = await upload('/api/routes/import', aGpxTrack(), 'recorded.gpx');
+    await request(app).delete(`/api/routes/${first.body.route.id}`).set('Cookie', planner);
+    const copy = await upload('/api/routes/import', aGpxTrack(), 'recorded.gpx');
+
+    const restore = await request(app).post(`/api/routes/${first.body.route.id}/restore`).set('Cookie', planner);
+
+    expect(restore.status).toBe(409);
+    expect(restore.body.error).toMatchObject({
+      code: 'already_imported',
+      details: { routeId: copy.body.route.id, routeName: 'Recorded run' },
+    });
+    expect(restore.body.error.message).toMatch(/“Recorded run”/);
+    const list = await request(app).get('/api/routes').set('Cookie', planner);
+    expect(list.body.items.map((route: { id: string }) => route.id)).toEqual([copy.body.route.id]);
+  });
+
+  it('restores a deleted import when no live route came from the same file', async () => {
+    const first = await upload('/api/routes/import', aGpxTrack(), 'recorded.gpx');
+    await request(app).delete(`/api/routes/${first.body.route.id}`).set('Cookie', planner);
+
+    const restore = await request(app).post(`/api/routes/${first.body.route.id}/restore`).set('Cookie', planner);
+    const again = await upload('/api/routes/import', aGpxTrack(), 'recorded.gpx');
+
+    expect(restore.status).toBe(200);
+    expect(again.status).toBe(409);
+    expect(again.body.error.details).toMatchObject({ routeId: first.body.route.id });
+  });
+
   it('imports a changed file again', async () => {
     await upload('/api/routes/import', aGpxTrack(), 'recorded.gpx');
 

@@ -102,6 +102,7 @@ describe('ReviewQueue', () => {
 
   async function renderWith(items: ReviewItem[]) {
     const fixture = TestBed.createComponent(ReviewQueue);
+    fixture.detectChanges(); // the list loads once the page is first rendered
     httpTesting.expectOne('/api/reviews').flush({ items, caution: 'Figures are engineering estimates.' });
     await settle(fixture);
     return { fixture, loader: TestbedHarnessEnvironment.loader(fixture) };

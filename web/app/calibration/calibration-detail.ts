@@ -1,11 +1,10 @@
 import { DatePipe, DecimalPipe } from '@angular/common';
-import { ChangeDetectionStrategy, Component, DestroyRef, computed, effect, inject, input, signal, untracked } from '@angular/core';
+import { ChangeDetectionStrategy, Component, computed, inject, input, resource, signal } from '@angular/core';
 import { MatButtonModule } from '@angular/material/button';
 import { MatIconModule } from '@angular/material/icon';
 import { MatProgressBarModule } from '@angular/material/progress-bar';
 import { RouterLink } from '@angular/router';
 import type { Calibration } from '@shared/domain/calibrations';
-import type { VehicleProfile } from '@shared/domain/vehicle-profiles';
 import { DistanceChart } from '../charts/distance-chart';
 import { describeApiError } from '../core/api-error-message';
 import { Session } from '../core/session';
@@ -13,12 +12,15 @@ import { QuantityPipe } from '../units/quantity-pipe';
 import { unitLabel } from '../units/unit-format';
 import { UnitPreference } from '../units/unit-preference';
 import { UnitSwitch } from '../units/unit-switch';
+import { LoadStatus } from '../ui/load-status';
+import { loadStateOf } from '../ui/load-state';
+import { latestAnswer, reloadWhileGoing } from '../ui/polled-resource';
 import { VehicleProfilesApi } from '../vehicles/vehicle-profiles-api';
 import { CalibrationApi } from './calibration-api';
 import { FIT_PARAMETER_LABELS, formatChange, formatParameter, residualSeries, signedPercent } from './calibration-format';
 
 /** How often a queued or running fit is asked for its status, ms. */
-const POLL_INTERVAL_MS = 1_500;
+export const CALIBRATION_POLL_INTERVAL_MS = 1_500;
 
 /**
  * One fit of a profile to logged trips: its parameters with 95 % intervals, the warnings, the
@@ -36,6 +38,7 @@ const POLL_INTERVAL_MS = 1_500;
     DistanceChart,
     QuantityPipe,
     UnitSwitch,
+    LoadStatus,
   ],
   templateUrl: './calibration-detail.html',
   styleUrl: './calibration-detail.scss',
@@ -54,9 +57,39 @@ export default class CalibrationDetail {
   protected readonly labels = FIT_PARAMETER_LABELS;
   protected readonly formatParameter = formatParameter;
   protected readonly formatChange = formatChange;
-  protected readonly calibration = signal<Calibration | null>(null);
-  protected readonly profile = signal<VehicleProfile | null>(null);
-  protected readonly error = signal<string | null>(null);
+  /**
+   * The fit, asked for by id: a new id drops the earlier answer, and a queued or running fit is
+   * asked for again (`reload`) until it settles. Expected failures: unknown id (404), server
+   * unreachable, an answer that fails the shared schema.
+   */
+  protected readonly data = resource({
+    params: () => ({ calibrationId: this.calibrationId() }),
+    loader: ({ params }) => this.api.calibration(params.calibrationId),
+  });
+  protected readonly loadState = loadStateOf(this.data);
+  /**
+   * The last answer for the current id: kept while a poll reloads or fails (the page stays
+   * readable and polling goes on), replaced by the answer to a decision, dropped on a new id.
+   */
+  protected readonly calibration = latestAnswer(this.calibrationId, this.data);
+  /** A poll that failed while the fit is shown (the next poll tries again). */
+  protected readonly pollError = computed(() =>
+    this.data.status() === 'error' && this.calibration() ? describeApiError(this.data.error()) : null,
+  );
+  /** The profile, asked for once the fit is known and again when the fit settles (its version may have moved). */
+  private readonly profileKey = computed(
+    () => {
+      const c = this.calibration();
+      return c ? { vehicleProfileId: c.vehicleProfileId, settled: !isFitting(c) } : undefined;
+    },
+    { equal: (a, b) => a?.vehicleProfileId === b?.vehicleProfileId && a?.settled === b?.settled },
+  );
+  protected readonly profileData = resource({
+    params: () => this.profileKey(),
+    loader: ({ params }) => this.profiles.get(params.vehicleProfileId),
+  });
+  protected readonly profileState = loadStateOf(this.profileData);
+  protected readonly profile = computed(() => (this.profileData.hasValue() ? this.profileData.value() : null));
   protected readonly decisionError = signal<string | null>(null);
   protected readonly isDeciding = signal(false);
 
@@ -80,20 +113,8 @@ export default class CalibrationDetail {
   protected readonly powerUnit = computed(() => unitLabel('power', this.units()));
 
   constructor() {
-    let timer: ReturnType<typeof setTimeout> | undefined;
-    inject(DestroyRef).onDestroy(() => clearTimeout(timer));
-    effect(() => {
-      const id = this.calibrationId();
-      untracked(() => {
-        clearTimeout(timer);
-        const poll = async () => {
-          await this.load(id);
-          const status = this.calibration()?.status;
-          if (status === 'queued' || status === 'running') timer = setTimeout(() => void poll(), POLL_INTERVAL_MS);
-        };
-        void poll();
-      });
-    });
+    // A fit still queued or running is asked for again until it settles.
+    reloadWhileGoing(this.data, this.calibration, isFitting, CALIBRATION_POLL_INTERVAL_MS);
   }
 
   protected async decide(decision: 'accept' | 'reject'): Promise<void> {
@@ -109,7 +130,8 @@ export default class CalibrationDetail {
     this.decisionError.set(null);
     try {
       this.calibration.set(await this.api.decide(c.id, decision));
-      this.profile.set(await this.profiles.get(c.vehicleProfileId));
+      // An accepted fit saved the profile's next version.
+      this.profileData.reload();
     } catch (error: unknown) {
       this.decisionError.set(describeApiError(error));
     } finally {
@@ -121,15 +143,8 @@ export default class CalibrationDetail {
     if (low === null || high === null) return 'not determined';
     return `${formatParameter(key, low, this.units())} – ${formatParameter(key, high, this.units())}`;
   }
+}
 
-  private async load(id: string): Promise<void> {
-    try {
-      const calibration = await this.api.calibration(id);
-      this.calibration.set(calibration);
-      if (!this.profile() || calibration.status === 'done') this.profile.set(await this.profiles.get(calibration.vehicleProfileId));
-      this.error.set(null);
-    } catch (error: unknown) {
-      this.error.set(describeApiError(error));
-    }
-  }
+function isFitting(calibration: Calibration): boolean {
+  return calibration.status === 'queued' || calibration.status === 'running';
 }

@@ -1,6 +1,6 @@
 import { BreakpointObserver } from '@angular/cdk/layout';
 import { DatePipe } from '@angular/common';
-import { ChangeDetectionStrategy, Component, computed, effect, inject, signal, viewChild } from '@angular/core';
+import { ChangeDetectionStrategy, Component, computed, inject, viewChild } from '@angular/core';
 import { toSignal } from '@angular/core/rxjs-interop';
 import { FormControl, FormGroup, ReactiveFormsModule } from '@angular/forms';
 import { MatButtonModule } from '@angular/material/button';
@@ -9,12 +9,11 @@ import { MatIconModule } from '@angular/material/icon';
 import { MatPaginator, MatPaginatorModule } from '@angular/material/paginator';
 import { MatSelectModule } from '@angular/material/select';
 import { MatSort, MatSortModule } from '@angular/material/sort';
-import { MatTableDataSource, MatTableModule } from '@angular/material/table';
+import { MatTableModule } from '@angular/material/table';
 import { ActivatedRoute, Router, RouterLink } from '@angular/router';
 import { map } from 'rxjs';
 import type { RiskLevel } from '@shared/domain/analysis';
 import { REVIEW_STATES, REVIEW_STATE_LABELS, currentRisk, type ReviewItem, type ReviewState } from '@shared/domain/reviews';
-import { describeApiError } from '../core/api-error-message';
 import { Session } from '../core/session';
 import { EngineeringCaution } from '../ui/engineering-caution';
 import { RiskChip } from '../ui/risk-chip';
@@ -22,19 +21,11 @@ import { RISK_ORDER, RISK_STYLES, riskRank } from '@shared/presentation/index';
 import { ReachedTemperaturePipe } from '../units/reached-temperature-pipe';
 import { QuantityPipe } from '../units/quantity-pipe';
 import { UnitPreference } from '../units/unit-preference';
-import {
-  countByState,
-  filterFromQuery,
-  matchesReviewFilter,
-  NO_REVIEW_FILTER,
-  routeOptions,
-  vehicleOptions,
-  type ReviewFilter,
-} from './review-filter';
+import { countByState, filterFromQuery, matchesReviewFilter, NO_REVIEW_FILTER, routeOptions, vehicleOptions } from './review-filter';
 import { DIRECTION_LABELS } from './direction-labels';
 import { ReviewStateChip } from './review-state-chip';
 import { ReviewsApi } from './reviews-api';
-import type { LoadState } from '../ui/load-state';
+import { filterOf, listTable } from '../ui/list-table';
 import { LoadStatus } from '../ui/load-status';
 
 const ALL_COLUMNS = ['risk', 'route', 'vehicle', 'stretch', 'drop', 'grade', 'peakBrakeTemp', 'state', 'updatedAt'];
@@ -97,51 +88,28 @@ export default class ReviewQueue {
     routeId: new FormControl('', { nonNullable: true }),
     vehicleProfileId: new FormControl('', { nonNullable: true }),
   });
-  private readonly filter = toSignal(this.filterForm.valueChanges, {
-    initialValue: NO_REVIEW_FILTER as Partial<ReviewFilter>,
+  private readonly filter = filterOf(this.filterForm, NO_REVIEW_FILTER);
+  protected readonly table = listTable({
+    load: () => this.reviewsApi.list(),
+    filter: this.filter,
+    matches: matchesReviewFilter,
+    sort: this.sort,
+    paginator: this.paginator,
+    sortValue,
   });
-  private readonly fullFilter = computed<ReviewFilter>(() => ({ ...NO_REVIEW_FILTER, ...this.filter() }));
-
-  protected readonly items = signal<ReviewItem[]>([]);
-  protected readonly loadState = signal<LoadState>({ status: 'loading' });
-  protected readonly visibleItems = computed(() => {
-    const filter = this.fullFilter();
-    return this.items().filter((item) => matchesReviewFilter(item, filter));
-  });
-  protected readonly stateCounts = computed(() => countByState(this.items(), this.fullFilter()));
-  protected readonly routes = computed(() => routeOptions(this.items()));
-  protected readonly vehicles = computed(() => vehicleOptions(this.items()));
-  protected readonly dataSource = new MatTableDataSource<ReviewItem>([]);
+  protected readonly stateCounts = computed(() => countByState(this.table.rows(), this.filter()));
+  protected readonly routes = computed(() => routeOptions(this.table.rows()));
+  protected readonly vehicles = computed(() => vehicleOptions(this.table.rows()));
 
   constructor() {
     const initial = filterFromQuery(this.activatedRoute.snapshot.queryParams as Record<string, string>);
     this.filterForm.setValue(initial);
 
-    this.dataSource.sortingDataAccessor = (item, column) => sortValue(item, column);
-    // MatTableDataSource is not signal-based: hand it the sort, the pager and the filtered rows.
-    effect(() => {
-      this.dataSource.sort = this.sort();
-      this.dataSource.paginator = this.paginator();
-      this.dataSource.data = this.visibleItems();
-    });
     this.filterForm.valueChanges.subscribe((filter) => {
-      this.paginator().firstPage();
       // Keep the filter in the address so a filtered queue can be bookmarked or shared.
       const queryParams = Object.fromEntries(Object.entries(filter).map(([key, value]) => [key, value || null]));
       void this.router.navigate([], { queryParams, replaceUrl: true });
     });
-    void this.load();
-  }
-
-  protected async load(): Promise<void> {
-    this.loadState.set({ status: 'loading' });
-    try {
-      this.items.set(await this.reviewsApi.list());
-      this.loadState.set({ status: 'ready' });
-    } catch (error: unknown) {
-      // Expected: server unreachable or an answer that fails the shared schema.
-      this.loadState.set({ status: 'error', message: describeApiError(error) });
-    }
   }
 
   protected showState(state: ReviewState | ''): void {

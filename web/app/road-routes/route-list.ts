@@ -1,5 +1,5 @@
 import { DatePipe } from '@angular/common';
-import { ChangeDetectionStrategy, Component, computed, effect, inject, signal, viewChild } from '@angular/core';
+import { ChangeDetectionStrategy, Component, computed, inject, signal, viewChild } from '@angular/core';
 import { toSignal } from '@angular/core/rxjs-interop';
 import { FormControl, ReactiveFormsModule } from '@angular/forms';
 import { MatButtonModule } from '@angular/material/button';
@@ -11,15 +11,16 @@ import { MatProgressBarModule } from '@angular/material/progress-bar';
 import { MatRadioModule } from '@angular/material/radio';
 import { MatSnackBar } from '@angular/material/snack-bar';
 import { MatSort, MatSortModule } from '@angular/material/sort';
-import { MatTableDataSource, MatTableModule } from '@angular/material/table';
+import { MatTableModule } from '@angular/material/table';
 import { RouterLink } from '@angular/router';
+import { map } from 'rxjs';
 import type { RoadRouteSummary, RouteImportElevations } from '@shared/domain/road-routes';
 import { apiErrorBody, describeApiError } from '../core/api-error-message';
 import { Session } from '../core/session';
 import { QuantityPipe } from '../units/quantity-pipe';
 import { UnitPreference } from '../units/unit-preference';
 import { RoadRoutesApi } from './road-routes-api';
-import type { LoadState } from '../ui/load-state';
+import { listTable } from '../ui/list-table';
 import { LoadStatus } from '../ui/load-status';
 
 const MODE_LABELS: Readonly<Record<RoadRouteSummary['mode'], string>> = { bus: 'Bus', trolleybus: 'Trolleybus', tram: 'Tram' };
@@ -65,9 +66,6 @@ export default class RouteList {
 
   protected readonly units = inject(UnitPreference).system;
   protected readonly columns = ['name', 'mode', 'version', 'lengthM', 'stopCount', 'tripsPerDay', 'scenarioCount', 'updatedAt'];
-  protected readonly dataSource = new MatTableDataSource<RoadRouteSummary>([]);
-  protected readonly loadState = signal<LoadState>({ status: 'loading' });
-  protected readonly routeCount = signal(0);
   protected readonly isUploading = signal(false);
   protected readonly uploadError = signal<string | null>(null);
   /** The route an earlier import of the same file made (409), to open instead. */
@@ -83,21 +81,13 @@ export default class RouteList {
   protected readonly isAnalyst = computed(() => this.session.can('road-network.upload'));
 
   protected readonly search = new FormControl('', { nonNullable: true });
-  private readonly searchText = toSignal(this.search.valueChanges, { initialValue: '' });
-  protected readonly shownCount = signal(0);
-
-  constructor() {
-    this.dataSource.filterPredicate = (route, filter) => route.name.toLowerCase().includes(filter);
-    effect(() => {
-      this.dataSource.sort = this.sort() ?? null;
-      this.dataSource.paginator = this.paginator() ?? null;
-    });
-    effect(() => {
-      this.dataSource.filter = this.searchText().trim().toLowerCase();
-      this.shownCount.set(this.dataSource.filteredData.length);
-    });
-    void this.load();
-  }
+  protected readonly table = listTable({
+    load: () => this.api.list(),
+    filter: toSignal(this.search.valueChanges.pipe(map((text) => text.trim().toLowerCase())), { initialValue: '' }),
+    matches: (route: RoadRouteSummary, text: string) => route.name.toLowerCase().includes(text),
+    sort: this.sort,
+    paginator: this.paginator,
+  });
 
   protected modeLabel(mode: RoadRouteSummary['mode']): string {
     return MODE_LABELS[mode];
@@ -130,7 +120,7 @@ export default class RouteList {
         });
         this.importOpen.set(false);
       }
-      await this.load();
+      this.table.reload();
     } catch (error: unknown) {
       this.uploadError.set(describeApiError(error));
       const details = apiErrorBody(error)?.details as { routeId?: unknown; routeName?: unknown } | undefined;
@@ -160,18 +150,5 @@ export default class RouteList {
 
   protected chooseElevations(value: RouteImportElevations): void {
     this.importElevations.set(value);
-  }
-
-  protected async load(): Promise<void> {
-    this.loadState.set({ status: 'loading' });
-    try {
-      const routes = await this.api.list();
-      this.dataSource.data = routes;
-      this.routeCount.set(routes.length);
-      this.shownCount.set(this.dataSource.filteredData.length);
-      this.loadState.set({ status: 'ready' });
-    } catch (error: unknown) {
-      this.loadState.set({ status: 'error', message: describeApiError(error) });
-    }
   }
 }

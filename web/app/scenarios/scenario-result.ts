@@ -1,5 +1,16 @@
 import { DatePipe, PercentPipe } from '@angular/common';
-import { ChangeDetectionStrategy, Component, DestroyRef, computed, effect, inject, input, signal, untracked } from '@angular/core';
+import {
+  ChangeDetectionStrategy,
+  Component,
+  computed,
+  effect,
+  inject,
+  input,
+  linkedSignal,
+  resource,
+  signal,
+  untracked,
+} from '@angular/core';
 import { MatButtonModule } from '@angular/material/button';
 import { MatDialog } from '@angular/material/dialog';
 import { MatButtonToggleModule } from '@angular/material/button-toggle';
@@ -14,6 +25,9 @@ import { DistanceChart, type ChartSeries } from '../charts/distance-chart';
 import { describeApiError, apiErrorBody } from '../core/api-error-message';
 import { Session } from '../core/session';
 import { confirmDelete } from '../ui/confirm-delete-dialog';
+import { LoadStatus } from '../ui/load-status';
+import { loadStateOf, type LoadState } from '../ui/load-state';
+import { latestAnswer, reloadWhileGoing } from '../ui/polled-resource';
 import { AdviceCautions } from '../ui/advice-cautions';
 import { DescentSafety } from '../descents/descent-safety';
 import { TerrainMap, type MapOverlay, type MapPosition } from '../map/terrain-map';
@@ -86,6 +100,7 @@ const CARD_FIGURES: readonly string[] = [
     TerrainMap,
     QuantityPipe,
     UnitSwitch,
+    LoadStatus,
   ],
   templateUrl: './scenario-result.html',
   styleUrl: './scenario-result.scss',
@@ -109,9 +124,72 @@ export default class ScenarioResultScreen {
   protected readonly endColour = END_COLOUR;
   protected readonly gradeLegend = GRADE_LEGEND;
 
-  protected readonly scenario = signal<Scenario | null>(null);
-  protected readonly loadError = signal<string | null>(null);
-  protected readonly resultState = signal<ResultState>({ status: 'loading' });
+  /**
+   * The scenario, asked for by id: a new id drops the earlier answer, and a queued or running
+   * scenario is asked for again (`reload`) until it settles. Expected failures: unknown id (404),
+   * server unreachable, an answer that fails the shared schema.
+   */
+  protected readonly data = resource({
+    params: () => ({ scenarioId: this.scenarioId() }),
+    loader: ({ params }) => this.api.get(params.scenarioId),
+  });
+  protected readonly loadState = loadStateOf(this.data);
+  /**
+   * The last answer for the current id: kept while a poll reloads or fails, replaced by the
+   * answer to "Run again", dropped on a new id.
+   */
+  protected readonly scenario = latestAnswer(this.scenarioId, this.data);
+  /** Which stored result to show: the scenario's, as of its last computation (none before the first run). */
+  private readonly resultKey = computed(
+    () => {
+      const scenario = this.scenario();
+      return scenario ? { scenarioId: scenario.id, computedAt: scenario.computedAt } : undefined;
+    },
+    { equal: (a, b) => a?.scenarioId === b?.scenarioId && a?.computedAt === b?.computedAt },
+  );
+  /** The stored result, asked for again only when the scenario was computed again; null: none stored. */
+  protected readonly resultData = resource({
+    params: () => this.resultKey(),
+    loader: async ({ params }): Promise<ResultScreenData | null> => {
+      if (params.computedAt === null) return null;
+      try {
+        return await this.api.result(params.scenarioId);
+      } catch (error: unknown) {
+        // Expected when the result went between the two requests (a run failed and cleared it).
+        if (apiErrorBody(error)?.code === 'not_found') return null;
+        throw error;
+      }
+    },
+  });
+  /** The result shown: the newest answer for this scenario, the previous one while a newer loads. */
+  private readonly shownResult = linkedSignal<
+    { id: string; value: ResultScreenData | null | undefined },
+    ResultScreenData | null | undefined
+  >({
+    source: () => ({ id: this.scenarioId(), value: this.resultData.hasValue() ? this.resultData.value() : undefined }),
+    computation: (source, previous) =>
+      source.value !== undefined ? source.value : previous?.source.id === source.id && previous.value ? previous.value : undefined,
+  });
+  protected readonly resultState = computed<ResultState>(() => {
+    const shown = this.shownResult();
+    if (shown) return { status: 'ready', result: shown };
+    if (shown === null) return { status: 'none' };
+    if (this.resultData.status() === 'error') return { status: 'error', message: describeApiError(this.resultData.error()) };
+    return { status: 'loading' };
+  });
+  /** The results' load while none is shown yet, for the load-status line. */
+  protected readonly resultLoadState = computed<LoadState>(() => {
+    const state = this.resultState();
+    return state.status === 'loading' || state.status === 'error' ? state : { status: 'ready' };
+  });
+  /** What failed after the page was shown: an action ("Run again", Delete) or a poll (the next one tries again). */
+  private readonly actionError = signal<string | null>(null);
+  protected readonly loadError = computed(() => {
+    if (this.actionError()) return this.actionError();
+    if (this.scenario() && this.data.status() === 'error') return `${describeApiError(this.data.error())} Still trying.`;
+    if (this.shownResult() && this.resultData.status() === 'error') return describeApiError(this.resultData.error());
+    return null;
+  });
   protected readonly isStarting = signal(false);
   protected readonly directionIndex = signal(0);
   /** Distance under the pointer on any chart, displayed unit. */
@@ -223,16 +301,8 @@ export default class ScenarioResultScreen {
   });
 
   constructor() {
-    const destroyRef = inject(DestroyRef);
-    let pollTimer: ReturnType<typeof setTimeout> | undefined;
-    destroyRef.onDestroy(() => clearTimeout(pollTimer));
-    effect(() => {
-      const scenarioId = this.scenarioId();
-      untracked(() => {
-        clearTimeout(pollTimer);
-        void this.load(scenarioId, (next) => (pollTimer = setTimeout(next, POLL_INTERVAL_MS)));
-      });
-    });
+    // A scenario still queued or running is asked for again until it settles.
+    reloadWhileGoing(this.data, this.scenario, isRunning, POLL_INTERVAL_MS);
     effect(() => {
       const direction = this.direction();
       if (direction) untracked(() => this.fitTo.set(direction.profile.lon.map((lon, i) => [lon, direction.profile.lat[i]!])));
@@ -244,10 +314,11 @@ export default class ScenarioResultScreen {
     if (!scenario) return;
     this.isStarting.set(true);
     try {
+      this.actionError.set(null);
+      // Queued now: the polling follows it until it settles.
       this.scenario.set(await this.api.run(scenario.id));
-      await this.load(scenario.id, (next) => setTimeout(next, POLL_INTERVAL_MS));
     } catch (error: unknown) {
-      this.loadError.set(describeApiError(error));
+      this.actionError.set(describeApiError(error));
     } finally {
       this.isStarting.set(false);
     }
@@ -268,7 +339,7 @@ export default class ScenarioResultScreen {
       await this.router.navigate(['/scenarios']);
     } catch (error: unknown) {
       // Expected: the server refused (the interceptor has shown why) or cannot be reached.
-      this.loadError.set(describeApiError(error));
+      this.actionError.set(describeApiError(error));
     }
   }
 
@@ -330,29 +401,8 @@ export default class ScenarioResultScreen {
     }
     this.hoverX.set(toDisplay('distance', descent.startM, this.units()));
   }
+}
 
-  private async load(scenarioId: string, poll: (next: () => void) => void): Promise<void> {
-    this.loadError.set(null);
-    try {
-      const scenario = await this.api.get(scenarioId);
-      if (scenarioId !== this.scenarioId()) return;
-      this.scenario.set(scenario);
-      if (scenario.status === 'queued' || scenario.status === 'running') {
-        poll(() => void this.load(scenarioId, poll));
-      }
-      if (scenario.computedAt === null) {
-        this.resultState.set({ status: 'none' });
-        return;
-      }
-      if (this.result()?.computedAt === scenario.computedAt) return;
-      this.resultState.set({ status: 'ready', result: await this.api.result(scenarioId) });
-    } catch (error: unknown) {
-      if (apiErrorBody(error)?.code === 'not_found' && this.scenario()) {
-        this.resultState.set({ status: 'none' });
-        return;
-      }
-      this.loadError.set(describeApiError(error));
-      this.resultState.set({ status: 'error', message: describeApiError(error) });
-    }
-  }
+function isRunning(scenario: Scenario): boolean {
+  return scenario.status === 'queued' || scenario.status === 'running';
 }

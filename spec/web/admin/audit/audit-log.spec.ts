@@ -24,6 +24,7 @@ describe('AuditLog (issue 11)', () => {
 
   it('shows who changed what, with the details in words', async () => {
     const fixture = TestBed.createComponent(AuditLog);
+    fixture.detectChanges(); // the list loads once the page is first rendered
     httpTesting.expectOne((request) => request.url === '/api/audit-log').flush({ items: EVENTS, total: 2, page: 1, pageSize: 50 });
     await settle(fixture);
 
@@ -36,6 +37,7 @@ describe('AuditLog (issue 11)', () => {
 
   it('asks the server again, from the first page, when a filter changes', async () => {
     const fixture = TestBed.createComponent(AuditLog);
+    fixture.detectChanges(); // the list loads once the page is first rendered
     httpTesting.expectOne((request) => request.url === '/api/audit-log').flush({ items: EVENTS, total: 2, page: 1, pageSize: 50 });
     await settle(fixture);
     const loader = TestbedHarnessEnvironment.loader(fixture);

@@ -108,6 +108,7 @@ describe('People', () => {
 
   async function renderWith(people: Person[]) {
     const fixture = TestBed.createComponent(People);
+    fixture.detectChanges(); // the list loads once the page is first rendered
     httpTesting.expectOne('/api/people').flush({ items: people });
     await settle(fixture);
     return { fixture, loader: TestbedHarnessEnvironment.loader(fixture) };

@@ -1,5 +1,5 @@
 import { DatePipe } from '@angular/common';
-import { ChangeDetectionStrategy, Component, inject, signal } from '@angular/core';
+import { ChangeDetectionStrategy, Component, computed, inject, linkedSignal, resource } from '@angular/core';
 import { FormControl, FormGroup, ReactiveFormsModule } from '@angular/forms';
 import { MatButtonModule } from '@angular/material/button';
 import { MatFormFieldModule } from '@angular/material/form-field';
@@ -9,7 +9,6 @@ import { MatPaginatorModule, type PageEvent } from '@angular/material/paginator'
 import { MatSelectModule } from '@angular/material/select';
 import { MatTableModule } from '@angular/material/table';
 import { RouterLink } from '@angular/router';
-import { debounceTime } from 'rxjs';
 import {
   AUDIT_ACTIONS,
   AUDIT_ACTION_LABELS,
@@ -17,15 +16,18 @@ import {
   AUDITED_KIND_LABELS,
   type AuditAction,
   type AuditEvent,
+  type AuditLogPage,
   type AuditedKind,
 } from '@shared/domain/audit';
-import { describeApiError } from '../../core/api-error-message';
 import { appLinkOf } from '../../deleted-items/restorers';
 import { AuditApi } from './audit-api';
-import type { LoadState } from '../../ui/load-state';
+import { filterOf } from '../../ui/list-table';
+import { loadStateOf } from '../../ui/load-state';
 import { LoadStatus } from '../../ui/load-status';
 
 const PAGE_SIZE = 50;
+
+const NO_AUDIT_FILTER: { kind: AuditedKind | ''; action: AuditAction | ''; actor: string } = { kind: '', action: '', actor: '' };
 
 /** Administrators' view of every create, change, delete, restore and purge of shared work. */
 @Component({
@@ -62,18 +64,33 @@ export default class AuditLog {
     action: new FormControl<AuditAction | ''>('', { nonNullable: true }),
     actor: new FormControl('', { nonNullable: true }),
   });
-  protected readonly events = signal<AuditEvent[]>([]);
-  protected readonly total = signal(0);
-  protected readonly pageIndex = signal(0);
-  protected readonly loadState = signal<LoadState>({ status: 'loading' });
-
-  constructor() {
-    this.filterForm.valueChanges.pipe(debounceTime(250)).subscribe(() => {
-      this.pageIndex.set(0);
-      void this.load();
-    });
-    void this.load();
-  }
+  /** The filter, once typing pauses for a quarter of a second. */
+  private readonly filter = filterOf(this.filterForm, NO_AUDIT_FILTER, { debounceMs: 250 });
+  /** The page shown; a changed filter starts again from the first. */
+  protected readonly pageIndex = linkedSignal(() => {
+    this.filter();
+    return 0;
+  });
+  /** One page of the log as the server filters it: a new filter or page drops the earlier answer. */
+  protected readonly data = resource({
+    params: () => ({ filter: this.filter(), page: this.pageIndex() + 1 }),
+    loader: ({ params }) =>
+      this.api.page({
+        kind: params.filter.kind || undefined,
+        action: params.filter.action || undefined,
+        actor: params.filter.actor.trim() || undefined,
+        page: params.page,
+        pageSize: PAGE_SIZE,
+      }),
+  });
+  protected readonly loadState = loadStateOf(this.data);
+  /** The page last answered, kept on screen while the next one loads. */
+  private readonly shownPage = linkedSignal<AuditLogPage | undefined, AuditLogPage | undefined>({
+    source: () => (this.data.hasValue() ? this.data.value() : undefined),
+    computation: (page, previous) => page ?? previous?.value,
+  });
+  protected readonly events = computed(() => this.shownPage()?.items ?? []);
+  protected readonly total = computed(() => this.shownPage()?.total ?? 0);
 
   protected kindLabel(event: AuditEvent): string {
     return AUDITED_KIND_LABELS[event.kind];
@@ -100,30 +117,9 @@ export default class AuditLog {
 
   protected changePage(page: PageEvent): void {
     this.pageIndex.set(page.pageIndex);
-    void this.load();
   }
 
   protected clearFilter(): void {
     this.filterForm.reset();
-  }
-
-  protected async load(): Promise<void> {
-    this.loadState.set({ status: 'loading' });
-    const filter = this.filterForm.getRawValue();
-    try {
-      const page = await this.api.page({
-        kind: filter.kind || undefined,
-        action: filter.action || undefined,
-        actor: filter.actor.trim() || undefined,
-        page: this.pageIndex() + 1,
-        pageSize: PAGE_SIZE,
-      });
-      this.events.set(page.items);
-      this.total.set(page.total);
-      this.loadState.set({ status: 'ready' });
-    } catch (error: unknown) {
-      // Expected: server unreachable or an answer that fails the shared schema.
-      this.loadState.set({ status: 'error', message: describeApiError(error) });
-    }
   }
 }

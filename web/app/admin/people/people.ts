@@ -1,6 +1,5 @@
 import { DatePipe } from '@angular/common';
-import { ChangeDetectionStrategy, Component, computed, effect, inject, signal, viewChild } from '@angular/core';
-import { toSignal } from '@angular/core/rxjs-interop';
+import { ChangeDetectionStrategy, Component, computed, inject, viewChild } from '@angular/core';
 import { FormControl, FormGroup, ReactiveFormsModule } from '@angular/forms';
 import { MatButtonModule } from '@angular/material/button';
 import { MatDialog } from '@angular/material/dialog';
@@ -12,15 +11,14 @@ import { MatPaginator, MatPaginatorModule } from '@angular/material/paginator';
 import { MatSelectModule } from '@angular/material/select';
 import { MatSnackBar } from '@angular/material/snack-bar';
 import { MatSort, MatSortModule } from '@angular/material/sort';
-import { MatTableDataSource, MatTableModule } from '@angular/material/table';
+import { MatTableModule } from '@angular/material/table';
 import { PERSON_STATUSES, type Person } from '@shared/domain/people';
 import { ROLES, ROLE_LABELS, type Role } from '@shared/domain/roles';
-import { describeApiError } from '../../core/api-error-message';
 import { Session } from '../../core/session';
 import { InvitePersonDialog } from './invite-person-dialog';
 import { PeopleApi } from './people-api';
-import { NO_PEOPLE_FILTER, matchesPeopleFilter, type PeopleFilter } from './people-filter';
-import type { LoadState } from '../../ui/load-state';
+import { NO_PEOPLE_FILTER, matchesPeopleFilter } from './people-filter';
+import { filterOf, listTable } from '../../ui/list-table';
 import { LoadStatus } from '../../ui/load-status';
 
 const STATUS_LABELS: Readonly<Record<Person['status'], string>> = {
@@ -70,43 +68,17 @@ export default class People {
     role: new FormControl<Role | ''>('', { nonNullable: true }),
     status: new FormControl<Person['status'] | ''>('', { nonNullable: true }),
   });
-  private readonly filter = toSignal(this.filterForm.valueChanges, {
-    initialValue: NO_PEOPLE_FILTER as Partial<PeopleFilter>,
-  });
-
-  protected readonly people = signal<Person[]>([]);
-  protected readonly loadState = signal<LoadState>({ status: 'loading' });
-  protected readonly visiblePeople = computed(() => {
-    const filter = { ...NO_PEOPLE_FILTER, ...this.filter() };
-    return this.people().filter((person) => matchesPeopleFilter(person, filter));
+  protected readonly table = listTable({
+    load: () => this.peopleApi.list(),
+    filter: filterOf(this.filterForm, NO_PEOPLE_FILTER),
+    matches: matchesPeopleFilter,
+    sort: this.sort,
+    paginator: this.paginator,
   });
   protected readonly ownId = computed(() => this.session.user()?.id);
-  protected readonly dataSource = new MatTableDataSource<Person>([]);
-
-  constructor() {
-    // MatTableDataSource is not signal-based: hand it the sort, the pager and the filtered rows.
-    effect(() => {
-      this.dataSource.sort = this.sort();
-      this.dataSource.paginator = this.paginator();
-      this.dataSource.data = this.visiblePeople();
-    });
-    this.filterForm.valueChanges.subscribe(() => this.paginator().firstPage());
-    void this.load();
-  }
 
   protected statusLabel(status: Person['status']): string {
     return STATUS_LABELS[status];
-  }
-
-  protected async load(): Promise<void> {
-    this.loadState.set({ status: 'loading' });
-    try {
-      this.people.set(await this.peopleApi.list());
-      this.loadState.set({ status: 'ready' });
-    } catch (error: unknown) {
-      // Expected: server unreachable or an answer that fails the shared schema.
-      this.loadState.set({ status: 'error', message: describeApiError(error) });
-    }
   }
 
   protected clearFilter(): void {
@@ -119,7 +91,7 @@ export default class People {
       .afterClosed()
       .subscribe((person: Person | undefined) => {
         if (!person) return;
-        this.people.update((people) => [person, ...people.filter((p) => p.id !== person.id)]);
+        this.table.rows.update((people) => [person, ...people.filter((p) => p.id !== person.id)]);
         this.snackBar.open(`Invitation sent to ${person.email}.`, 'OK');
       });
   }
@@ -165,6 +137,6 @@ export default class People {
   }
 
   private replacePerson(person: Person): void {
-    this.people.update((people) => people.map((p) => (p.id === person.id ? { ...person } : p)));
+    this.table.rows.update((people) => people.map((p) => (p.id === person.id ? { ...person } : p)));
   }
 }

@@ -1,0 +1,2 @@
+ALTER TABLE "road_routes" DROP CONSTRAINT "road_routes_importSha256_unique";--> statement-breakpoint
+CREATE UNIQUE INDEX "road_routes_live_import_sha256_key" ON "road_routes" USING btree ("import_sha256") WHERE "road_routes"."deleted_at" IS NULL;
