@@ -6,7 +6,7 @@
 -- Left out: tables no cached answer reads and that change on nearly every request (sign-in
 -- bookkeeping, the audit trail, the mail queue), and PostGIS's own spatial_ref_sys. A table added
 -- later needs the same trigger in its own migration (spec/api/http/answer-cache.spec.ts checks).
-CREATE FUNCTION announce_data_change() RETURNS trigger
+CREATE OR REPLACE FUNCTION announce_data_change() RETURNS trigger
 LANGUAGE plpgsql AS $$
 BEGIN
   PERFORM pg_notify('descentry_data_changes', TG_TABLE_NAME);
@@ -23,6 +23,7 @@ BEGIN
     WHERE schemaname = 'public'
       AND tablename NOT IN ('sessions', 'attempt_throttles', 'audit_log', 'mail_outbox', 'captured_mail', 'spatial_ref_sys')
   LOOP
+    EXECUTE format('DROP TRIGGER IF EXISTS %I ON %I', name || '_announce_data_change', name);
     EXECUTE format(
       'CREATE TRIGGER %I AFTER INSERT OR UPDATE OR DELETE OR TRUNCATE ON %I FOR EACH STATEMENT EXECUTE FUNCTION announce_data_change()',
       name || '_announce_data_change', name);
