@@ -9,7 +9,11 @@
  *   - grid energy = Σ charging events' grid energy + the overnight recharge back to the block's
  *     start SOC, (net energy − energy charged during the day) ÷ the depot charger's efficiency
  *     (a block without a depot charger: the mean efficiency of the day's chargers, 1 without any);
- *   - km = Σ trips' route lengths.
+ *   - km = Σ trips' route lengths;
+ *   - braking energy regenerated and taken by the friction brakes = Σ blocks' trips (null while a
+ *     counted day's stored run predates these figures; the board then says so).
+ * The board's headline figures (recovered, its worth, CO₂ avoided, friction) are this year's when
+ * the basis is service days, so every annual figure on the page rests on the same days.
  * Scenario basis otherwise: the scenario totals the board already shows (route trips per day ×
  * service days per year); grid energy = net energy (charger losses unknown there).
  *
@@ -35,6 +39,9 @@ interface DayFigures {
   infeasibleBlocks: number;
   netWh: number;
   gridWh: number;
+  /** Null when the stored run predates the braking figures (rerunning the day fills them). */
+  regenWh: number | null;
+  frictionWh: number | null;
   km: number;
   chargers: { key: string; name: string; kind: 'depot' | 'terminus'; daytimePeakW: number; overnightPeakW: number | null }[];
 }
@@ -67,6 +74,8 @@ export async function annualBasis(
         'its service days per year. Grid energy is taken as the vehicles’ net energy (charger losses are not known on this basis). ' +
         'Mark service days in service to count whole vehicle days, charging and the seasons instead.',
       netEnergyKWh: scenarioTotals.annualNetKWh,
+      regenEnergyKWh: scenarioTotals.annualRegenKWh,
+      frictionBrakeEnergyKWh: scenarioTotals.annualFrictionBrakeKWh,
       gridEnergyKWh: gridKWh,
       energyCost: gridKWh * tariff,
       co2Kg: co2,
@@ -83,11 +92,15 @@ export async function annualBasis(
   const counts = settings.dayCounts;
   let netWh = 0;
   let gridWh = 0;
+  let regenWh: number | null = 0;
+  let frictionWh: number | null = 0;
   let km = 0;
   for (const day of days) {
     const weight = counts[day.dayType][day.season];
     netWh += day.netWh * weight;
     gridWh += day.gridWh * weight;
+    regenWh = regenWh === null || day.regenWh === null ? null : regenWh + day.regenWh * weight;
+    frictionWh = frictionWh === null || day.frictionWh === null ? null : frictionWh + day.frictionWh * weight;
     km += day.km * weight;
   }
   const notCovered: AnnualBasis['notCovered'] = [];
@@ -138,6 +151,8 @@ export async function annualBasis(
         ? ` Day types and seasons without an in-service day count as zero (${notCovered.reduce((total, entry) => total + entry.daysPerYear, 0)} days of the year).`
         : ''),
     netEnergyKWh: netWh / 1_000,
+    regenEnergyKWh: regenWh === null ? null : regenWh / 1_000,
+    frictionBrakeEnergyKWh: frictionWh === null ? null : frictionWh / 1_000,
     gridEnergyKWh: gridKWh,
     energyCost: gridKWh * tariff,
     co2Kg: co2,
@@ -217,8 +232,13 @@ async function inServiceDayFigures(db: Executor): Promise<DayFigures[]> {
     const meanEfficiency = chargers.length > 0 ? sum(chargers, (charger) => charger.efficiency) / chargers.length : 1;
     let netWh = 0;
     let gridWh = 0;
+    let regenWh: number | null = 0;
+    let frictionWh: number | null = 0;
     let km = 0;
     for (const blockResult of result.result.blocks) {
+      regenWh = regenWh === null || blockResult.regenEnergyWh === undefined ? null : regenWh + blockResult.regenEnergyWh;
+      frictionWh =
+        frictionWh === null || blockResult.frictionBrakeEnergyWh === undefined ? null : frictionWh + blockResult.frictionBrakeEnergyWh;
       const block = blocks.find((candidate) => candidate.blockId === blockResult.blockId);
       const depot = chargers.find((charger) => charger.key === block?.depotChargerKey);
       netWh += blockResult.tripNetEnergyWh;
@@ -245,6 +265,8 @@ async function inServiceDayFigures(db: Executor): Promise<DayFigures[]> {
       infeasibleBlocks: result.result.blocks.filter((block) => !block.feasible).length,
       netWh,
       gridWh,
+      regenWh,
+      frictionWh,
       km,
       chargers: chargers.map((charger) => ({
         key: charger.key,

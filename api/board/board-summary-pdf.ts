@@ -11,7 +11,9 @@ import {
   ADVICE_CAUTIONS_TITLE,
   DIRECTION_LABELS,
   RISK_LABELS,
+  annualBasisInBrief,
   boardFigures,
+  boardYear,
   boardSafetyCounts,
   formatBoardNumber,
   formatDateTime,
@@ -30,12 +32,13 @@ const MAX_CHART_ROUTES = 12;
 /** Renders the summary; resolves with the whole file. */
 export function renderBoardSummaryPdf(summary: BoardSummary): Promise<Buffer> {
   const page = new PdfLayout({ Title: 'Descentry network summary' });
+  const year = boardYear(summary);
 
   page.paragraph('Network summary: braking energy and descent safety', { size: 16, bold: true }, { gapAfter: 2 });
   page.paragraph(
-    `Figures as of ${formatDateTime(summary.generatedAt)}, from the scenarios marked “in service” (one per route, the latest computed).`,
+    `Figures as of ${formatDateTime(summary.generatedAt)}. Year: ${year.basis === 'service-days' ? 'the service days in service' : 'each route’s latest in-service scenario'}.`,
     { size: 9, colour: MUTED },
-    { gapAfter: 10 },
+    { gapAfter: 6 },
   );
 
   // Headline figures, two columns of label, value and (for placeholder factors) the warning.
@@ -71,9 +74,11 @@ export function renderBoardSummaryPdf(summary: BoardSummary): Promise<Buffer> {
     page.y += rowHeight;
   }
   page.paragraph(
-    `Net energy drawn from batteries and overhead lines per year, after regeneration: ${formatBoardNumber(summary.totals.annualNetKWh)} kWh. Distance driven: ${formatBoardNumber(summary.totals.annualKm)} km per year.`,
+    `Net energy from batteries and lines a year, after regeneration: ${formatBoardNumber(year.netKWh)} kWh; ${formatBoardNumber(year.km)} km driven.`,
     { size: 9 },
   );
+  page.heading('How the year is counted', 10, { gapBefore: 0 });
+  page.paragraph(annualBasisInBrief(summary.annual, summary.settings.currency), { size: 8.5 }, { gapAfter: 0 });
 
   routeChart(page, summary);
 
@@ -131,7 +136,7 @@ export function renderBoardSummaryPdf(summary: BoardSummary): Promise<Buffer> {
     size: 7.5,
     colour: MUTED,
   });
-  page.cautionList(ADVICE_CAUTIONS_TITLE, ADVICE_CAUTIONS, { size: 7.5 });
+  page.cautionList(ADVICE_CAUTIONS_TITLE, ADVICE_CAUTIONS, { size: 7 });
 
   return page.end();
 }
@@ -149,7 +154,7 @@ function routeChart(page: PdfLayout, summary: BoardSummary): void {
   const valueWidth = 50;
   const barLeft = page.left + labelWidth;
   const barSpace = page.width - labelWidth - valueWidth;
-  const rowHeight = 22;
+  const rowHeight = 20;
   const largest = Math.max(1, ...routes.flatMap((route) => [route.annualRegenKWh, route.annualFrictionBrakeKWh]));
 
   page.ensureSpace(16 + rowHeight * Math.min(routes.length, 4));

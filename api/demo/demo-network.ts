@@ -181,6 +181,32 @@ const OWN_PROFILES: { key: string; draft: VehicleProfileDraftInput }[] = [
         mild: { ambientC: 8, auxPowerW: 6_000 },
         summer: { ambientC: 24, auxPowerW: 13_000 },
       },
+      // Service days model its cabin: a CO₂ heat pump ordered for the pass, which keeps heating
+      // down to −20 °C (CO₂ bus heat pumps are published as working down to −20 °C, engine README
+      // source 22), with a 24 kW heat output (from memory: the larger units sold for 12 m buses).
+      // The body, ventilation and base load are the 12 m bus defaults (DEFAULT_CLIMATE).
+      climate: { heatPumpHeatW: 24_000, heatPumpMinAmbientC: -20 },
+    },
+  },
+  {
+    key: 'demo-vehicle:standard-bus-12m',
+    draft: {
+      name: 'Highpass 12 m standard bus (2019 order)',
+      description:
+        'The authority’s first battery buses: the 12 m class with the standard 350 kWh pack, heated by resistive heaters only (no heat pump).',
+      vehicleClass: 'battery-bus-12m',
+      vehicle: presetVehicle('battery-bus-12m'),
+      loadsKg: { empty: 0, seated: 30 * 70, 'full-standing': 85 * 70 },
+      passengerMassKg: 70,
+      seasons: {
+        winter: { ambientC: -8, auxPowerW: 22_000 },
+        mild: { ambientC: 8, auxPowerW: 6_000 },
+        summer: { ambientC: 24, auxPowerW: 14_000 },
+      },
+      // Resistive heating only (heat pump output 0), the usual fit of the first battery buses
+      // (common practice); heated to 20 °C rather than 18 °C (the authority's older comfort
+      // setting, invented). Everything else: the 12 m bus defaults.
+      climate: { heatPumpHeatW: 0, heatingSetpointC: 20 },
     },
   },
   {
@@ -196,6 +222,17 @@ const OWN_PROFILES: { key: string; draft: VehicleProfileDraftInput }[] = [
         winter: { ambientC: -8, auxPowerW: 13_000 },
         mild: { ambientC: 8, auxPowerW: 3_500 },
         summer: { ambientC: 24, auxPowerW: 8_000 },
+      },
+      // A smaller body than the 12 m bus: heat loss, fresh air and base load scaled by about the
+      // ratio of cabin size (from memory: a midibus of 8–9 m against a 12 m bus), a 12 kW heat
+      // pump with the default curve.
+      climate: {
+        bodyUaWPerK: 240,
+        freshAirM3PerH: 500,
+        doorAirExchangeM3: 4,
+        baseLoadW: 2_000,
+        heatPumpHeatW: 12_000,
+        cabinHeatCapacityJPerK: 550_000,
       },
     },
   },

@@ -11,9 +11,12 @@ import { demoProfileId } from './demo-network';
  * for summer (in service, so the board's annual figures come from them), and a winter weekday
  * checked at the end of the batteries' life (not in service: a planning check). Blocks of several
  * round trips on the Valley line and the Pass line; a depot charger at Westgate, where the Valley
- * line starts, and a terminus charger at Lindmoor, where it ends. Block P2 (a 12 m bus of the
- * standard 350 kWh pack working two Pass-line round trips with no charger on that line) falls
- * below the reserve in winter at end of life. Each day is run once when it is first loaded.
+ * line starts, and a terminus charger at Lindmoor, where it ends. Every vehicle models its cabin
+ * climate, so winter days draw the heating the cold and the open doors call for. Block P2 (the
+ * 2019 standard bus: a 350 kWh pack and resistive heating only, working two Pass-line round trips
+ * with no charger on that line) falls below the reserve in winter at end of life, while P1 (the
+ * 2025 mountain bus: 450 kWh and a CO₂ heat pump) holds on the same line. Each day is run once
+ * when it is first loaded.
  */
 const H = 3600;
 const M = 60;
@@ -49,14 +52,22 @@ export const WEEKDAY_BLOCKS: DemoBlock[] = [
   },
   {
     blockId: 'V2',
-    vehicle: 'preset:battery-bus-12m',
+    vehicle: 'demo-vehicle:standard-bus-12m',
     route: 'valley',
     pullOutS: 6 * H + 15 * M,
     roundTrips: 4,
     headwayS: 75 * M,
     startSoc: 0.95,
   },
-  { blockId: 'V3', vehicle: 'preset:battery-bus-12m', route: 'valley', pullOutS: 14 * H, roundTrips: 3, headwayS: 75 * M, startSoc: 0.9 },
+  {
+    blockId: 'V3',
+    vehicle: 'demo-vehicle:standard-bus-12m',
+    route: 'valley',
+    pullOutS: 14 * H,
+    roundTrips: 3,
+    headwayS: 75 * M,
+    startSoc: 0.9,
+  },
   {
     blockId: 'P1',
     vehicle: 'demo-vehicle:mountain-bus-12m',
@@ -66,7 +77,15 @@ export const WEEKDAY_BLOCKS: DemoBlock[] = [
     headwayS: 60 * M,
     startSoc: 0.95,
   },
-  { blockId: 'P2', vehicle: 'preset:battery-bus-12m', route: 'pass', pullOutS: 11 * H, roundTrips: 2, headwayS: 60 * M, startSoc: 0.95 },
+  {
+    blockId: 'P2',
+    vehicle: 'demo-vehicle:standard-bus-12m',
+    route: 'pass',
+    pullOutS: 11 * H,
+    roundTrips: 2,
+    headwayS: 60 * M,
+    startSoc: 0.95,
+  },
 ];
 export const SUNDAY_BLOCKS: DemoBlock[] = [
   {

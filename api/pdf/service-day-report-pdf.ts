@@ -18,6 +18,7 @@ import {
   SEASON_LABELS,
   SERVICE_DAY_NOT_COVERED,
   CHARGING_PURPOSE_LABELS,
+  blockVehicleSentence,
   formatDateTime,
   formatQuantity,
   formatServiceTime,
@@ -65,6 +66,8 @@ export function serviceDayReportPdf(day: ServiceDay, result: ServiceDayResult, r
       { gapAfter: 1 },
     );
     for (const problem of block.problems) page.paragraph(`• ${problem}`, { size: 9 }, { indent: 10, gapAfter: 1 });
+    const why = blockVehicleSentence(block, day.batteryAge, UNITS);
+    if (why) page.paragraph(why, { size: 9, colour: MUTED }, { indent: 10, gapAfter: 1 });
     page.y += 3;
   }
 

@@ -1,4 +1,5 @@
 import { and, asc, eq, inArray, isNull, lt, sql } from 'drizzle-orm';
+import { readSafetySettings, type NetworkSafetySettings } from '../board/network-settings';
 import { blockSchema, chargerSchema, type ServiceDay } from '@shared/domain/service-days';
 import { ENGINE_VERSION } from '@shared/engine/constants';
 import * as z from 'zod';
@@ -85,7 +86,18 @@ export async function findResultRows(db: Executor, serviceDayIds: string[]): Pro
 export interface StalenessContext {
   routeVersions: Map<string, number>;
   profileUpdatedAt: Map<string, string>;
+  /** The network's safety settings now (network settings), to compare with those a run used. */
+  safetySettings: NetworkSafetySettings;
 }
+
+/** The safety settings in words, for the reasons a result is out of date. */
+const SAFETY_SETTING_WORDS: Readonly<Record<keyof NetworkSafetySettings, string>> = {
+  worstCaseAmbientC: 'worst-case ambient temperature',
+  fadeMarginK: 'fade margin',
+  maxRoadGradePercent: 'steepest road grade',
+  crawlSpeedKph: 'crawl speed',
+  crawlDistanceM: 'crawl distance',
+};
 
 export async function stalenessContext(db: Executor, rows: Pick<ServiceDayRow, 'blocks'>[]): Promise<StalenessContext> {
   const routeIds = new Set<string>();
@@ -111,6 +123,7 @@ export async function stalenessContext(db: Executor, rows: Pick<ServiceDayRow, '
   return {
     routeVersions: new Map(routeRows.map((row) => [row.id, row.currentVersion])),
     profileUpdatedAt: new Map(profileRows.map((row) => [row.id, row.updatedAt.toISOString()])),
+    safetySettings: await readSafetySettings(db),
   };
 }
 
@@ -134,6 +147,14 @@ export function staleReasons(row: ServiceDayRow, result: ServiceDayResultRow | u
     const current = context.profileUpdatedAt.get(profileId);
     if (current === undefined) reasons.push(`a vehicle profile it uses (${profileId}) was deleted`);
     else if (current !== updatedAt) reasons.push('a vehicle profile it uses changed after the run');
+  }
+  if (provenance.safetySettings) {
+    const changed = (Object.keys(SAFETY_SETTING_WORDS) as (keyof NetworkSafetySettings)[]).filter(
+      (key) => provenance.safetySettings![key] !== undefined && provenance.safetySettings![key] !== context.safetySettings[key],
+    );
+    if (changed.length > 0) {
+      reasons.push(`the network settings' ${changed.map((key) => SAFETY_SETTING_WORDS[key]).join(', ')} changed after the run`);
+    }
   }
   return [...new Set(reasons)];
 }

@@ -359,6 +359,7 @@ export async function prepareEngineInput(
   // One ambient for the day: the coldest of the profiles' in winter, the hottest in summer (the harder case), else the first.
   const ambientC = season === 'winter' ? Math.min(...ambients) : season === 'summer' ? Math.max(...ambients) : ambients[0]!;
   const safety = await readSafetySettings(db);
+  provenance.safetySettings = { ...safety };
   // Descents' worst case with the heaviest of the day's vehicles (a route is prepared once for every vehicle).
   const heaviest = profileList.reduce((best, profile) => (heaviestMassKg(profile) > heaviestMassKg(best) ? profile : best));
   const sampler = withDefaultServices(deps).sampleElevations;

@@ -24,10 +24,10 @@ import {
   DEFAULT_WORST_CASE_AMBIENT_C,
 } from '../engine/constants';
 import { PROFILE_SERIES_NAMES, type ProfileSeriesName } from '../engine/profile-series';
-import { DEFAULT_START_SOC, socSchema } from './limits';
+import { DEFAULT_START_SOC, VEHICLE_LIMITS as L, rangeSchema, socSchema } from './limits';
 
-const efficiency = z.number().gt(0).lte(1);
-const share = z.number().min(0).max(1);
+const efficiency = rangeSchema(L.efficiency);
+const share = rangeSchema(L.share);
 
 /** Friction brake construction; selects the fade bands used for the risk level. */
 export const brakeTypeSchema = z.enum(['disc', 'drum']);
@@ -53,40 +53,40 @@ export type PowerSource = z.infer<typeof powerSourceSchema>;
 export const vehicleSchema = z
   .object({
     /** Mass of the empty vehicle ready for service, kg. */
-    curbMassKg: z.number().positive().max(200_000),
+    curbMassKg: rangeSchema(L.curbMassKg),
     /** Passengers and load, kg. Vehicle mass m = curbMassKg + payloadKg. */
-    payloadKg: z.number().min(0).max(100_000),
-    frontalAreaM2: z.number().positive().max(30),
-    dragCoefficient: z.number().min(0).max(3),
-    rollingResistanceCoefficient: z.number().min(0).max(0.1),
+    payloadKg: rangeSchema(L.payloadKg),
+    frontalAreaM2: rangeSchema(L.frontalAreaM2),
+    dragCoefficient: rangeSchema(L.dragCoefficient),
+    rollingResistanceCoefficient: rangeSchema(L.rollingResistanceCoefficient),
     /** Extra equivalent mass of rotating parts as a share of m: inertia = (1 + factor)·m·a. */
-    rotatingMassFactor: z.number().min(0).max(1),
+    rotatingMassFactor: rangeSchema(L.rotatingMassFactor),
     /** Peak traction power at the wheel, W. */
-    tractionPowerW: z.number().positive().max(5e6),
+    tractionPowerW: rangeSchema(L.tractionPowerW),
     /** Peak regenerative braking power at the wheel, W. 0 means no regeneration at all. */
-    regenPowerW: z.number().min(0).max(5e6),
+    regenPowerW: rangeSchema(L.regenPowerW),
     /** Battery (or line) → wheel efficiency while motoring. */
     drivetrainEfficiency: efficiency,
     /** Wheel → battery (or line) efficiency while regenerating. */
     regenEfficiency: efficiency,
     /** Usable battery energy, Wh. May be 0 for overhead-line vehicles without storage. */
-    batteryCapacityWh: z.number().min(0).max(5e6),
+    batteryCapacityWh: rangeSchema(L.batteryCapacityWh),
     /** Battery charge-power limit below the SOC taper, W. */
-    maxChargePowerW: z.number().min(0).max(5e6),
+    maxChargePowerW: rangeSchema(L.maxChargePowerW),
     /** Auxiliary power (heating, cooling, lighting, compressors), drawn all the time, W. */
-    auxPowerW: z.number().min(0).max(500_000),
+    auxPowerW: rangeSchema(L.auxPowerW),
     /** Tractive force limit at the wheel (motor torque), N. Also caps the regen force. */
-    maxTractionForceN: z.number().positive().max(1e6).default(35_000),
+    maxTractionForceN: rangeSchema(L.maxTractionForceN).default(35_000),
     brakeType: brakeTypeSchema.default('disc'),
     /** Thermal mass of all friction brakes taken together (discs/drums with hubs), J/K. */
-    brakeThermalMassJPerK: z.number().positive().max(1e8).default(92_000),
+    brakeThermalMassJPerK: rangeSchema(L.brakeThermalMassJPerK).default(92_000),
     /** Cooled surface of all friction brakes taken together, m². */
-    brakeCoolingAreaM2: z.number().positive().max(100).default(1.6),
+    brakeCoolingAreaM2: rangeSchema(L.brakeCoolingAreaM2).default(1.6),
     /** Share of friction-brake heat that goes into the discs or drums. */
     brakeHeatShare: share.default(0.95),
     brakeEmissivity: share.default(0.6),
     /** Endurance brake (retarder or braking resistor) power limit at the wheel, W; 0 = none. */
-    retarderPowerW: z.number().min(0).max(5e6).default(0),
+    retarderPowerW: rangeSchema(L.retarderPowerW).default(0),
     /**
      * Kind of endurance brake. Absent: a braking resistor when `retarderPowerW` > 0, else none
      * (a resistor is the cautious reading: it can never brake beyond the motor).
@@ -96,17 +96,17 @@ export const vehicleSchema = z
      * Regenerative braking power the machine can hold indefinitely, W. Absent: the peak rating
      * `regenPowerW` (no derating). Must not exceed `regenPowerW`.
      */
-    regenContinuousPowerW: z.number().min(0).max(5e6).optional(),
+    regenContinuousPowerW: rangeSchema(L.regenContinuousPowerW).optional(),
     /** How long the peak regeneration rating may be held before the continuous rating applies, s. */
-    regenPeakHoldS: z.number().min(0).max(3_600).default(60),
+    regenPeakHoldS: rangeSchema(L.regenPeakHoldS).default(60),
     /** Share of the vehicle's weight on the driven (motored) axles; caps regeneration by adhesion. */
     drivenAxleLoadShare: share.default(0.6),
     /** Share of the friction braking done by the rear brake group. */
     rearBrakeShare: share.default(0.6),
     /** Share of the brakes' thermal mass and cooled surface in the rear group. */
-    rearBrakeThermalMassShare: z.number().gt(0).lt(1).default(0.5),
+    rearBrakeThermalMassShare: rangeSchema(L.rearBrakeThermalMassShare).default(0.5),
     /** Permissible (technically and legally allowed) gross mass, kg. Absent: not stated. */
-    permissibleGrossMassKg: z.number().positive().max(300_000).optional(),
+    permissibleGrossMassKg: rangeSchema(L.permissibleGrossMassKg).optional(),
     runningGear: runningGearSchema.default('road'),
     /** Overhead-line vehicles: share of regenerated power the line can take (receptivity). */
     lineReceptivity: share.default(0.5),
@@ -116,26 +116,22 @@ export const vehicleSchema = z
     /** SOC at which the charge-power limit reaches zero; the battery never charges above it. */
     socCeiling: share.default(0.95),
     /** Speed below which regeneration fades out (linearly, to nothing at standstill) and the friction brakes take over, m/s. */
-    regenMinSpeedMps: z
-      .number()
-      .min(0)
-      .max(10)
-      .default(5 / 3.6),
+    regenMinSpeedMps: rangeSchema(L.regenMinSpeedMps).default(5 / 3.6),
     /**
      * Ambient temperature from which the battery takes its full charge power, °C; below it the
      * charge-power limit falls linearly to `coldChargeShareAtMinus20C` at −20 °C (cells are
      * protected from lithium plating when cold; shared/engine/README.md §3.1).
      */
-    coldChargeFullFromC: z.number().min(-20).max(40).default(10),
+    coldChargeFullFromC: rangeSchema(L.coldChargeFullFromC).default(10),
     /** Share of the charge-power limit left at −20 °C and below; 1 = no derating (a pack kept warm). */
     coldChargeShareAtMinus20C: share.default(1),
     /**
      * Usable capacity left at the end of the battery's life as a share of the new battery's
      * (service-day runs at end of life). Absent: 0.8, the end of life common practice takes.
      */
-    endOfLifeCapacityFraction: z.number().min(0.3).max(1).optional(),
+    endOfLifeCapacityFraction: rangeSchema(L.endOfLifeFraction).optional(),
     /** Charge-power limit left at the end of the battery's life as a share of the new battery's. Absent: 1. */
-    endOfLifeChargePowerFraction: z.number().min(0.3).max(1).optional(),
+    endOfLifeChargePowerFraction: rangeSchema(L.endOfLifeFraction).optional(),
   })
   .superRefine((vehicle, ctx) => {
     if (vehicle.socTaperStart > vehicle.socCeiling) {

@@ -241,6 +241,12 @@ export const annualBasisSchema = z.object({
   basisText: z.string(),
   /** Net battery (or line) energy of all trips and layovers in a year, kWh. */
   netEnergyKWh: z.number(),
+  /**
+   * Braking energy regenerated, and taken by the friction brakes, in a year, kWh. Null on the
+   * service-days basis while a counted day's stored run predates these figures (rerun it).
+   */
+  regenEnergyKWh: z.number().nullable(),
+  frictionBrakeEnergyKWh: z.number().nullable(),
   /** Energy drawn from the grid in a year (charger losses included where known), kWh. */
   gridEnergyKWh: z.number(),
   /** gridEnergyKWh × tariff, in the settings' currency. */

@@ -151,6 +151,25 @@ export const serviceDayDescentSchema = z.object({
   worsenedByDay: z.boolean(),
 });
 
+/** A block's vehicle as the run used it (battery age, heating and cooling). */
+export const blockVehicleSchema = z.object({
+  /** Usable battery energy at the day's battery age, Wh. */
+  usableCapacityWh: z.number(),
+  /** Charge-power limit at the day's battery age, W. */
+  maxChargePowerW: z.number(),
+  /** 'climate': auxiliary power from the profile's cabin climate; 'season': the season's constant. */
+  auxiliarySource: z.enum(['climate', 'season']),
+  /** Auxiliary power over the trips, time-weighted mean and highest trip, W (0 when no trip ran). */
+  tripAuxPowerW: z.object({ mean: z.number(), max: z.number() }),
+  /** Auxiliary power while standing empty with the doors shut (layovers), W. */
+  standingAuxPowerW: z.number(),
+  /** Of the auxiliary power at standstill, what heats the cabin (0 above the heating set point), W. */
+  standingHeatingPowerW: z.number(),
+  /** Energy spent pre-conditioning the cabin before pull-out, Wh. */
+  preconditioningEnergyWh: z.number(),
+});
+export type BlockVehicle = z.infer<typeof blockVehicleSchema>;
+
 export const blockResultSchema = z.object({
   blockId: z.string(),
   minSoc: z.number(),
@@ -162,6 +181,12 @@ export const blockResultSchema = z.object({
    * vehicles (whose on-board storage is not modelled) the net energy drawn from the line.
    */
   tripNetEnergyWh: z.number(),
+  /**
+   * Braking energy of the trips regenerated into the battery or line (at its terminals), and taken
+   * by the friction brakes, Wh. Absent from results stored before they were reported.
+   */
+  regenEnergyWh: z.number().optional(),
+  frictionBrakeEnergyWh: z.number().optional(),
   /** Whether the block can be worked: it never falls below the reserve and every trip can be driven. */
   feasible: z.boolean(),
   /** Why not, in plain words (empty when feasible). */
@@ -169,6 +194,11 @@ export const blockResultSchema = z.object({
   socTrace: z.array(z.object({ timeS: z.number(), soc: z.number() })),
   chargingEvents: z.array(chargingEventSchema),
   descents: z.array(serviceDayDescentSchema),
+  /**
+   * The vehicle as the day used it: its battery at the day's age and its auxiliary power. Absent
+   * from results stored before it was reported.
+   */
+  vehicle: blockVehicleSchema.optional(),
 });
 export type BlockResult = z.infer<typeof blockResultSchema>;
 

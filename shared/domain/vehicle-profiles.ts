@@ -1,5 +1,6 @@
 import * as z from 'zod';
 import { vehicleSchema } from './analysis';
+import { CLIMATE_LIMITS as C, COP_POINTS, VEHICLE_LIMITS as L, rangeSchema } from './limits';
 
 /**
  * Vehicle profiles: the engine's vehicle parameters plus the load and season variants a
@@ -17,9 +18,9 @@ export const seasonSchema = z.enum(SEASONS);
 export type Season = z.infer<typeof seasonSchema>;
 
 export const seasonConditionsSchema = z.object({
-  ambientC: z.number().min(-60).max(60),
+  ambientC: rangeSchema(L.ambientC),
   /** Auxiliary power for this season (heating, cooling, lighting, compressors), W. */
-  auxPowerW: z.number().min(0).max(500_000),
+  auxPowerW: rangeSchema(L.auxPowerW),
 });
 
 /**
@@ -31,33 +32,33 @@ export const seasonConditionsSchema = z.object({
 export const climateSettingsSchema = z
   .object({
     /** Cabin set point while heating, °C. */
-    heatingSetpointC: z.number().min(5).max(30),
+    heatingSetpointC: rangeSchema(C.heatingSetpointC),
     /** Cabin set point while cooling, °C. */
-    coolingSetpointC: z.number().min(15).max(35),
+    coolingSetpointC: rangeSchema(C.coolingSetpointC),
     /** Heat-loss coefficient of the body, W/K. */
-    bodyUaWPerK: z.number().min(0).max(5_000),
+    bodyUaWPerK: rangeSchema(C.bodyUaWPerK),
     /** Fresh air taken in by the ventilation, m³/h. */
-    freshAirM3PerH: z.number().min(0).max(10_000),
+    freshAirM3PerH: rangeSchema(C.freshAirM3PerH),
     /** Air exchanged each time the doors open at a stop, m³. */
-    doorAirExchangeM3: z.number().min(0).max(100),
+    doorAirExchangeM3: rangeSchema(C.doorAirExchangeM3),
     /** Fans, lighting, electronics, compressors: drawn all the time, W. */
-    baseLoadW: z.number().min(0).max(100_000),
+    baseLoadW: rangeSchema(C.baseLoadW),
     /** Rated heat output of the heat pump, W; 0 = no heat pump (resistive heating only). */
-    heatPumpHeatW: z.number().min(0).max(200_000),
+    heatPumpHeatW: rangeSchema(C.heatPumpHeatW),
     /** Heating COP against outdoor temperature (the maker's test points), ascending in ambientC. */
     heatPumpCop: z
-      .array(z.object({ ambientC: z.number().min(-40).max(40), cop: z.number().min(1).max(8) }))
-      .min(1)
-      .max(20)
+      .array(z.object({ ambientC: rangeSchema(C.copAmbientC), cop: rangeSchema(C.cop) }))
+      .min(COP_POINTS.min)
+      .max(COP_POINTS.max)
       .refine((points) => points.every((point, i) => i === 0 || point.ambientC > points[i - 1]!.ambientC), 'ambientC must ascend'),
     /** Lowest ambient at which the heat pump runs, °C; below it the resistive back-up heats alone. */
-    heatPumpMinAmbientC: z.number().min(-40).max(20),
+    heatPumpMinAmbientC: rangeSchema(C.heatPumpMinAmbientC),
     /** Cooling energy efficiency ratio (heat removed ÷ electrical power). */
-    coolingEer: z.number().min(0.5).max(8),
+    coolingEer: rangeSchema(C.coolingEer),
     /** Time the cabin is pre-conditioned at the depot before pull-out, s. */
-    preconditioningS: z.number().min(0).max(7_200),
+    preconditioningS: rangeSchema(C.preconditioningS),
     /** Heat capacity of the cabin's air and fittings, J/K. */
-    cabinHeatCapacityJPerK: z.number().min(0).max(10_000_000),
+    cabinHeatCapacityJPerK: rangeSchema(C.cabinHeatCapacityJPerK),
   })
   .partial();
 export type ClimateSettingsInput = z.infer<typeof climateSettingsSchema>;
@@ -70,9 +71,9 @@ const vehicleProfileDraftShape = z.object({
   /** Engine parameters, SI; `payloadKg` here is ignored in favour of the load case. */
   vehicle: vehicleSchema,
   /** Payload per load case, kg. */
-  loadsKg: z.object({ empty: z.number().min(0), seated: z.number().min(0), 'full-standing': z.number().min(0) }),
+  loadsKg: z.object({ empty: rangeSchema(L.payloadKg), seated: rangeSchema(L.payloadKg), 'full-standing': rangeSchema(L.payloadKg) }),
   /** Mass assumed per passenger, kg, when a scenario gives a passenger count. */
-  passengerMassKg: z.number().min(40).max(120).default(70),
+  passengerMassKg: rangeSchema(L.passengerMassKg).default(70),
   seasons: z.object({ winter: seasonConditionsSchema, mild: seasonConditionsSchema, summer: seasonConditionsSchema }),
   /**
    * Cabin climate for service-day runs; null: the season's constant auxiliary power there too.

@@ -201,20 +201,30 @@ export const AIR_SPECIFIC_HEAT_J_PER_KG_K = 1_005;
  */
 export const PASSENGER_SENSIBLE_HEAT_W = 70;
 
+/** Usable capacity left at end of life when the vehicle does not state it (common practice: end of life at 80 %). */
+export const DEFAULT_END_OF_LIFE_CAPACITY_FRACTION = 0.8;
+
 /**
  * Climate settings of a 12 m single-deck bus, used where a vehicle profile states none of its own
  * (auxiliary-power.ts). Each value and its source:
  * - set points 18 °C heating, 25 °C cooling: from memory (bus and rail-vehicle comfort
  *   guidance puts short-ride winter cabins at about 15–20 °C);
  * - body heat-loss coefficient 350 W/K, fresh air 800 m³/h, 6 m³ of air exchanged per stop,
- *   3 kW base load (fans, lights, electronics, air compressor, steering pump): from memory. With
+ *   3 kW base load (fans, lights, electronics, air compressor, steering pump): from memory, no
+ *   published bus figure found for any of them. The UA and fresh air together (624 W/K) sit just
+ *   above a published bracket: a battery-electric minibus measured at 227 W/K (6.8 kW at −7 °C
+ *   for a 23 °C cabin; Bäuml et al., engine README source 26) times the roughly 2–2.5 times larger
+ *   envelope of a 12 m bus (from memory). With
  *   them the cabin needs 17.5 kW of heat at −10 °C empty with the doors shut, inside the
  *   15–25 kW a 12 m bus needs at −10 °C (from memory), and the resistive total at −15 °C
  *   (23.6 kW) is close to the 12 m battery bus preset's winter constant of 22 kW (vehicle-presets.ts);
  * - heat pump 20 kW heat output, COP at the outdoor-air test temperatures of EN 14511-2
  *   (+7, +2, −7 °C; from memory) plus −10/−20 °C and +15 °C: 2.5 at +7 °C is the "up to 2.5 times
  *   as efficient as resistance heating" a bus heat-pump maker publishes (Thermo King TE Series
- *   announcement, Mass Transit magazine, 2024); the fall towards the cold is from memory;
+ *   announcement, Mass Transit magazine, 2024), and the "up to 60 %" lower HVAC power of a
+ *   heat-pump city bus in a year-round simulation (Widmer et al., arXiv:2303.00571, 2023; engine
+ *   README source 25) is the same COP of 2.5; the fall towards the cold is from memory (no
+ *   published bus heat-pump curve found);
  * - heat-pump lower limit −10 °C: from memory and cautious; CO₂ (R744) bus heat pumps are
  *   published as working down to −20 °C (r744.com, report on bus heat pumps, 2021);
  * - cooling EER 2.0: from memory;

@@ -39,7 +39,15 @@ import { lineStringSchema, optionsSchema, vehicleSchema } from '../domain/analys
 import * as z from 'zod';
 import { blockSchema, chargerSchema, type BatteryAge, type Block, type BlockResult, type Charger } from '../domain/service-days';
 import { prepareRouteModel, minimumTimeSpeeds, withVehicle } from './analyse-route';
-import { DEFAULT_CLIMATE, ENGINE_VERSION, ENGINEERING_CAUTION, JOULES_PER_WH, MAX_RESAMPLED_POINTS, MAX_ROUTE_LENGTH_M } from './constants';
+import {
+  DEFAULT_END_OF_LIFE_CAPACITY_FRACTION,
+  DEFAULT_CLIMATE,
+  ENGINE_VERSION,
+  ENGINEERING_CAUTION,
+  JOULES_PER_WH,
+  MAX_RESAMPLED_POINTS,
+  MAX_ROUTE_LENGTH_M,
+} from './constants';
 import { drivabilityStretches, runWorstCase } from './descent-safety';
 import { brakeRiskLevel, findDescentRanges, type DescentRange } from './descents';
 import { geodesicDistanceM } from './geodesy';
@@ -55,7 +63,7 @@ import {
   type RouteModel,
   type VehicleState,
 } from './route-simulation';
-import { preconditioningEnergyJ, tripAuxiliaryPowerW, type ClimateSettings } from './auxiliary-power';
+import { auxiliaryBreakdown, preconditioningEnergyJ, tripAuxiliaryPowerW, type ClimateSettings } from './auxiliary-power';
 import { assertInRange, EngineInputError, parseOrThrow } from './validation';
 
 /** A charger serves a vehicle whose trip ends within this distance of it, m (engineering judgement: a terminus stand). */
@@ -171,6 +179,8 @@ interface ParsedVehicle {
   climate: ClimateSettings | undefined;
   /** Auxiliary power while standing empty with the doors shut, W. */
   standAuxPowerW: number;
+  /** Of it, the electrical power that heats the cabin, W. */
+  standHeatingPowerW: number;
   /** Usable capacity and charge power at the day's battery age. */
   capacityJ: number;
   maxChargePowerW: number;
@@ -204,13 +214,15 @@ class DayContext {
         maxChargePowerW: vehicle.maxChargePowerW * chargeShare,
       };
       const climate = entry.climate ? { ...DEFAULT_CLIMATE, ...entry.climate } : undefined;
+      const standing = climate
+        ? auxiliaryBreakdown(climate, { ambientC: input.ambientC, passengers: 0, doorOpenings: 0, durationS: 3_600 })
+        : undefined;
       this.vehicles.set(entry.vehicleProfileId, {
         input: entry,
         vehicle: aged,
         climate,
-        standAuxPowerW: climate
-          ? tripAuxiliaryPowerW(climate, { ambientC: input.ambientC, passengers: 0, doorOpenings: 0, durationS: 3_600 })
-          : aged.auxPowerW,
+        standAuxPowerW: standing ? standing.totalW : aged.auxPowerW,
+        standHeatingPowerW: standing ? standing.heatPumpElectricW + standing.resistiveElectricW : 0,
         capacityJ: aged.batteryCapacityWh * JOULES_PER_WH,
         maxChargePowerW: aged.maxChargePowerW,
       });
@@ -347,8 +359,7 @@ class DayContext {
   }
 }
 
-/** Usable capacity left at end of life when the vehicle does not state it (common practice: end of life at 80 %). */
-export const DEFAULT_END_OF_LIFE_CAPACITY_FRACTION = 0.8;
+export { DEFAULT_END_OF_LIFE_CAPACITY_FRACTION };
 
 function peakOver(run: RouteRun, range: DescentRange): number {
   let peak = Number.NEGATIVE_INFINITY;
@@ -373,7 +384,9 @@ export function tripSeries(pointCount: number): TripSeries {
 /**
  * One trip from `state` (updated to the end state), exactly as `runRouteFrom` steps it (the same
  * segment and dwell steps in the same order) but keeping only time, SOC and the governing brake
- * temperature per point. Answers the energy drawn (sourceJ) and the run time.
+ * temperature per point. Answers the energy drawn (sourceJ), the run time, and the braking energy
+ * regenerated (at the battery or line terminals, as the single-trip summary counts it) and taken by
+ * the friction brakes, so the day's figures add up the same way a scenario's do.
  */
 export function runTrip(
   model: RouteModel,
@@ -381,12 +394,14 @@ export function runTrip(
   state: VehicleState,
   out: TripSeries,
   lastPoint = model.pointCount - 1,
-): { sourceJ: number; durationS: number } {
+): { sourceJ: number; durationS: number; regenJ: number; frictionJ: number } {
   const n = lastPoint + 1;
   const segments = lastPoint;
   const result = emptySegmentResult();
   let timeS = 0;
   let sourceJ = 0;
+  let regenJ = 0;
+  let frictionJ = 0;
   for (let i = 0; i < n; i++) {
     out.timeS[i] = timeS;
     out.soc[i] = state.soc;
@@ -401,8 +416,10 @@ export function runTrip(
     advanceSegment(model, i, speedMps[i]!, speedMps[i + 1]!, state, result);
     timeS += result.durationS;
     sourceJ += result.split.sourcePowerW * result.durationS;
+    regenJ += result.split.regenElectricPowerW * result.durationS;
+    frictionJ += result.split.frictionPowerW * result.durationS;
   }
-  return { sourceJ, durationS: timeS };
+  return { sourceJ, durationS: timeS, regenJ, frictionJ };
 }
 
 function seriesPeak(series: TripSeries, range: DescentRange): number {
@@ -426,6 +443,8 @@ function runBlock(context: DayContext, block: Block): BlockResult {
     endSoc: block.startSoc,
     chargedEnergyWh: 0,
     tripNetEnergyWh: 0,
+    regenEnergyWh: 0,
+    frictionBrakeEnergyWh: 0,
     feasible: false,
     problems: [reason],
     socTrace: [{ timeS: block.pullOutS, soc: block.startSoc }],
@@ -439,8 +458,13 @@ function runBlock(context: DayContext, block: Block): BlockResult {
   let timeS = block.pullOutS;
   let netJ = 0;
   let chargedJ = 0;
+  let regenJ = 0;
+  let frictionJ = 0;
   let minSoc = block.startSoc;
   let minSocAtS = timeS;
+  let tripAuxJ = 0;
+  let tripAuxS = 0;
+  let tripAuxMaxW = 0;
   const note = (t: number, soc: number) => {
     const last = socTrace[socTrace.length - 1];
     if (last && last.timeS === t && last.soc === soc) return;
@@ -529,7 +553,7 @@ function runBlock(context: DayContext, block: Block): BlockResult {
     const startState: VehicleState = { ...state, shortfallJ: 0 };
     const run = prepared.series;
     const tripState: VehicleState = { ...startState };
-    const { sourceJ, durationS } = runTrip(prepared.model, prepared.speedMps, tripState, run);
+    const { sourceJ, durationS, regenJ: tripRegenJ, frictionJ: tripFrictionJ } = runTrip(prepared.model, prepared.speedMps, tripState, run);
     const shortfallJ = tripState.shortfallJ;
     const departS = timeS;
     // Trace: trip start, every TRACE_STEP_S inside, and the trip end; the minimum at full resolution.
@@ -546,6 +570,11 @@ function runBlock(context: DayContext, block: Block): BlockResult {
       }
     }
     netJ += sourceJ - shortfallJ;
+    regenJ += tripRegenJ;
+    frictionJ += tripFrictionJ;
+    tripAuxJ += prepared.auxPowerW * durationS;
+    tripAuxS += durationS;
+    tripAuxMaxW = Math.max(tripAuxMaxW, prepared.auxPowerW);
     timeS = departS + durationS;
     if (isBattery && shortfallJ > 0) {
       let emptyAt = 0;
@@ -637,11 +666,22 @@ function runBlock(context: DayContext, block: Block): BlockResult {
     endSoc: state.soc,
     chargedEnergyWh: chargedJ / JOULES_PER_WH,
     tripNetEnergyWh: netJ / JOULES_PER_WH,
+    regenEnergyWh: regenJ / JOULES_PER_WH,
+    frictionBrakeEnergyWh: frictionJ / JOULES_PER_WH,
     feasible: problems.length === 0,
     problems,
     socTrace,
     chargingEvents,
     descents,
+    vehicle: {
+      usableCapacityWh: capacityJ / JOULES_PER_WH,
+      maxChargePowerW: parsed.maxChargePowerW,
+      auxiliarySource: parsed.climate ? 'climate' : 'season',
+      tripAuxPowerW: { mean: tripAuxS > 0 ? tripAuxJ / tripAuxS : 0, max: tripAuxMaxW },
+      standingAuxPowerW: parsed.standAuxPowerW,
+      standingHeatingPowerW: parsed.standHeatingPowerW,
+      preconditioningEnergyWh: preconditionJ / JOULES_PER_WH,
+    },
   };
 }
 

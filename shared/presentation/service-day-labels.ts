@@ -4,6 +4,7 @@
  * write them). The screens, the PDF and the CSV read them from here.
  */
 import type { BatteryAge, BlockResult, ChargerKind, DayType } from '../domain/service-days';
+import { formatQuantity, type UnitSystem } from './units';
 
 export const DAY_TYPE_LABELS: Readonly<Record<DayType, string>> = {
   weekday: 'Weekday',
@@ -92,4 +93,24 @@ export const CHARGING_PURPOSE_LABELS: Readonly<Record<'charging' | 'precondition
 
 export function chargingPurposeLabel(purpose: 'charging' | 'preconditioning' | undefined): string {
   return CHARGING_PURPOSE_LABELS[purpose ?? 'charging'];
+}
+
+/**
+ * Why a block's energy came out as it did, in one sentence: the battery it had at the day's age
+ * and what the auxiliaries drew (from the cabin climate or the season's constant). The result page
+ * and the PDF both print it under a block that cannot be worked. Empty for results stored before
+ * blocks reported their vehicle.
+ */
+export function blockVehicleSentence(block: BlockResult, batteryAge: BatteryAge, system: UnitSystem): string {
+  const vehicle = block.vehicle;
+  if (!vehicle) return '';
+  const battery =
+    `${batteryAge === 'end-of-life' ? 'At the end of its life the battery holds' : 'The new battery holds'} ` +
+    `${formatQuantity('energy', vehicle.usableCapacityWh, system, 0)} usable and charges at up to ${formatQuantity('power', vehicle.maxChargePowerW, system)}.`;
+  const drawn = `Auxiliaries drew ${formatQuantity('power', vehicle.tripAuxPowerW.mean, system, 1)} on the trips`;
+  if (vehicle.auxiliarySource === 'season') return `${battery} ${drawn} (the season's constant auxiliary power).`;
+  return (
+    `${battery} ${drawn} (cabin climate: heating ${formatQuantity('power', vehicle.standingHeatingPowerW, system, 1)} at a stop, ` +
+    `pre-conditioning ${formatQuantity('energy', vehicle.preconditioningEnergyWh, system)}).`
+  );
 }

@@ -29,6 +29,9 @@ describe('network summary: board member', () => {
     assert.match(await page.getByTestId('tariff-source').innerText(), /per kWh \(source: .+\)[\s\S]*kg CO₂ per kWh \(source: .+\)/);
     assert.ok((await page.getByRole('table', { name: 'Energy per route and year' }).getByRole('row').count()) > 2);
     assert.match(await page.locator('article').innerText(), /regeneration/);
+    // The demo has service days in service: the headline year counts them, and the page says so.
+    assert.match(await page.getByTestId('year-source').innerText(), /counted over the service days in service/);
+    assert.match(await page.getByTestId('routes-lead').innerText(), /does not add up to the figures above/);
   });
 
   it('hides the navigation when printed', async () => {

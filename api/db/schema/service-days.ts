@@ -48,6 +48,11 @@ export interface ServiceDayRunProvenance {
   routeVersions: Record<string, number[]>;
   /** Vehicle profile id → its updatedAt when the run read it. */
   vehicleProfiles: Record<string, string>;
+  /**
+   * The network's safety settings the descents' worst case ran with (network settings); absent
+   * for runs stored before they were recorded.
+   */
+  safetySettings?: Record<string, number>;
 }
 
 /** The stored result of a service day: the per-block results and the charging peaks. */

@@ -22,7 +22,7 @@ describe('seedDemoNetwork', () => {
     await seedDemoNetwork(deps);
 
     expect(await counts()).toEqual(first);
-    expect(first).toEqual({ routes: 5, versions: 5, profiles: 7, scenarios: 8, network: 1 });
+    expect(first).toEqual({ routes: 5, versions: 5, profiles: 8, scenarios: 8, network: 1 });
   });
 
   it('computes every scenario, marks several in service, and finds at least one high or critical descent', async () => {

@@ -10,6 +10,7 @@ import { sessionCookies } from '../../support/session-cookie';
 import { truncateAll } from '../../support/test-database';
 import { aRouteDraft, pointNear } from '../../support/road-route-builders';
 import { RAW_VALUE_PATTERNS, readPdfWords, wordsOutsideMargins } from '../../support/pdf-words';
+import { blockVehicleSentence } from '../../../shared/presentation/service-day-labels';
 
 const context = createTestContext();
 const { app, db } = context;
@@ -141,6 +142,14 @@ describe('the service-day report (PDF)', () => {
     expect(text).toContain(`${failing.length} of 2 blocks cannot be worked`);
     for (const problem of failing.flatMap((block) => block.problems)) expect(text).toContain(problem.split(' ').slice(0, 4).join(' '));
     expect(text.indexOf('Block Shuttle 2:')).toBeLessThan(text.indexOf('SOC through the day'));
+    // And why, in the words the result page uses: the battery it had at that age, what the auxiliaries drew.
+    const why = blockVehicleSentence(
+      failing.find((block) => block.blockId === 'Shuttle 2')!,
+      'end-of-life',
+      'metric',
+    );
+    expect(why).toMatch(/^At the end of its life the battery holds \d+ kWh usable/);
+    expect(text).toContain(why.split(' ').slice(0, 12).join(' '));
     expect(text).toContain('Reserve 15 %');
     for (const event of result.blocks.flatMap((block) => block.chargingEvents)) {
       expect(text).toContain(event.chargerKey === 'depot' ? 'Brackenfold depot' : 'Upper Tarn terminus');

@@ -3,7 +3,14 @@ import { afterAll, beforeEach, describe, expect, it } from 'vitest';
 import { boardSummarySchema } from '@shared/domain/board-summary';
 import { serviceDayListSchema, serviceDayResultSchema, serviceDaySchema, type ServiceDayDraftInput } from '@shared/domain/service-days';
 import { ENGINE_VERSION } from '@shared/engine/constants';
-import { SERVICE_DAY_COLUMNS, serviceDayCsvHeader } from '@shared/presentation/index';
+import {
+  SERVICE_DAY_COLUMNS,
+  boardFigures,
+  boardYear,
+  boardYearSource,
+  formatBoardEnergy,
+  serviceDayCsvHeader,
+} from '@shared/presentation/index';
 import { ensureVehiclePresets, presetProfileId } from '../../../api/vehicle-profiles/vehicle-presets-seed';
 import { waitForInlineServiceDayRuns } from '../../../api/service-days/service-days-service';
 import { createTestContext } from '../../support/test-app';
@@ -257,6 +264,56 @@ describe('running a service day', () => {
     expect((await request(app).get(`/api/service-days/${day.id}/result`).set('Cookie', analyst)).status).toBe(200);
   });
 
+  it('follows a change of the network settings: stale after a safety setting it ran with, annual figures recounted with new day counts and tariff', async () => {
+    const route = await aRoute();
+    const admin = await cookieFor('admin');
+    const board = await cookieFor('board');
+    const day = (
+      await request(app)
+        .post('/api/service-days')
+        .set('Cookie', analyst)
+        .send(aDay(route.id, { inService: true }))
+    ).body;
+    await request(app).post(`/api/service-days/${day.id}/run`).set('Cookie', analyst);
+    await waitForInlineServiceDayRuns(context.deps);
+    const read = async () => (await request(app).get(`/api/service-days/${day.id}`).set('Cookie', analyst)).body;
+    const annual = async () => boardSummarySchema.parse((await request(app).get('/api/board/summary').set('Cookie', board)).body).annual;
+    const current = (await request(app).get('/api/settings/network').set('Cookie', admin)).body;
+    const { isPlaceholder: _p, updatedAt: _u, updatedByName: _n, ...settings } = current;
+    expect(await read()).toMatchObject({ isStale: false, staleReasons: [] });
+    const before = await annual();
+
+    // Tariff and day counts: the day's result does not depend on them, so it stays current; the
+    // board's annual figures are counted afresh from the new settings at once.
+    const dayCounts = { ...current.dayCounts, weekday: { ...current.dayCounts.weekday, winter: 72, mild: 115 } };
+    const tariffChanged = await request(app)
+      .put('/api/settings/network')
+      .set('Cookie', admin)
+      .send({ ...settings, energyTariffPerKWh: settings.energyTariffPerKWh * 2, dayCounts });
+    expect(tariffChanged.status).toBe(200);
+    expect(await read()).toMatchObject({ isStale: false, staleReasons: [] });
+    const after = await annual();
+    expect(after.serviceDays[0]!.daysPerYear).toBe(72);
+    expect(after.gridEnergyKWh).toBeCloseTo((before.gridEnergyKWh / 62) * 72, 6);
+    expect(after.energyCost).toBeCloseTo(after.gridEnergyKWh * settings.energyTariffPerKWh * 2, 6);
+
+    // A safety setting the descents' worst case ran with: the stored result is out of date, and says which.
+    const safetyChanged = await request(app)
+      .put('/api/settings/network')
+      .set('Cookie', admin)
+      .send({ ...settings, dayCounts, worstCaseAmbientC: settings.worstCaseAmbientC + 5 });
+    expect(safetyChanged.status).toBe(200);
+    const stale = await read();
+    expect(stale.isStale).toBe(true);
+    expect(stale.staleReasons).toEqual(["the network settings' worst-case ambient temperature changed after the run"]);
+    expect((await annual()).serviceDays[0]!.isStale).toBe(true);
+
+    // Run again: current once more.
+    await request(app).post(`/api/service-days/${day.id}/run`).set('Cookie', analyst);
+    await waitForInlineServiceDayRuns(context.deps);
+    expect(await read()).toMatchObject({ isStale: false, staleReasons: [] });
+  });
+
   it('exports the result as CSV: the caution, the shared header, one row per block, charging event and descent', async () => {
     const route = await aRoute();
     const day = (await request(app).post('/api/service-days').set('Cookie', analyst).send(aDay(route.id))).body;
@@ -326,6 +383,25 @@ describe('the board summary’s annual basis', () => {
     expect(tariffRow.energyCostDelta).toBeCloseTo(0.1 * annual.energyCost, 6);
     // The existing scenario-based fields are still there.
     expect(summary.totals).toMatchObject({ annualKm: 0, annualNetKWh: 0 });
+
+    // The headline figures count the same year: the day's braking energy × its 62 days, not the scenarios.
+    const dayRegenKWh = result.blocks.reduce((total, block) => total + block.regenEnergyWh!, 0) / 1_000;
+    const dayFrictionKWh = result.blocks.reduce((total, block) => total + block.frictionBrakeEnergyWh!, 0) / 1_000;
+    expect(dayRegenKWh).toBeGreaterThan(0);
+    expect(annual.regenEnergyKWh).toBeCloseTo(dayRegenKWh * 62, 6);
+    expect(annual.frictionBrakeEnergyKWh).toBeCloseTo(dayFrictionKWh * 62, 6);
+    const year = boardYear(summary);
+    expect(year).toMatchObject({ basis: 'service-days', netKWh: annual.netEnergyKWh, km: annual.annualKm });
+    expect(year.regenValue).toBeCloseTo(annual.regenEnergyKWh! * summary.settings.energyTariffPerKWh, 6);
+    const figures = boardFigures(summary);
+    expect(figures.find((figure) => figure.key === 'recovered')!.value).toBe(formatBoardEnergy(annual.regenEnergyKWh!));
+    expect(figures.find((figure) => figure.key === 'friction')!.value).toBe(formatBoardEnergy(annual.frictionBrakeEnergyKWh!));
+    expect(boardYearSource(summary)).toContain('service days in service');
+    expect(boardYear(before).basis).toBe('scenarios');
+    // A day run before braking energy was reported: the headline stays on the scenarios and says why.
+    const older = { ...summary, annual: { ...annual, regenEnergyKWh: null, frictionBrakeEnergyKWh: null } };
+    expect(boardYear(older)).toMatchObject({ basis: 'scenarios', regenKWh: summary.totals.annualRegenKWh });
+    expect(boardYearSource(older)).toContain('run it again');
   });
 
   it('refuses day counts that do not make a year with 422, keeping the stored ones', async () => {

@@ -12,6 +12,8 @@ import {
   type ServiceDayEngineInput,
   type ServiceDayRouteInput,
 } from '../../../shared/engine/service-day';
+import { auxiliaryBreakdown } from '../../../shared/engine/auxiliary-power';
+import { DEFAULT_CLIMATE } from '../../../shared/engine/constants';
 import { geodesicDirect } from '../../../shared/engine/geodesy';
 import { analyseRouteDetailed } from '../../../shared/engine/analyse-route';
 import { initialVehicleState } from '../../../shared/engine/route-simulation';
@@ -414,6 +416,25 @@ describe('a block through the day', () => {
     expect((0.9 - old.endSoc) / (0.9 - young.endSoc)).toBeCloseTo(1 / 0.8, 3);
   });
 
+  it('reports the usable energy and charge power the day ran with, and which auxiliary model', () => {
+    const day = (age: 'beginning-of-life' | 'end-of-life') =>
+      runServiceDay(
+        aDay({
+          batteryAge: age,
+          routes,
+          blocks: [{ blockId: 'E', vehicleProfileId: BUS, pullOutS: 0, pullInS: 3_000, startSoc: 0.9, trips: trips(HILL, [0]) }],
+        }),
+      ).blocks[0]!.vehicle!;
+    const young = day('beginning-of-life');
+    const old = day('end-of-life');
+    expect(young.usableCapacityWh).toBeCloseTo(400_000, 6);
+    expect(old.usableCapacityWh).toBeCloseTo(0.8 * 400_000, 6);
+    expect(old.maxChargePowerW).toBeCloseTo(young.maxChargePowerW, 6);
+    expect(old.auxiliarySource).toBe('season');
+    expect(old.standingHeatingPowerW).toBe(0);
+    expect(old.preconditioningEnergyWh).toBe(0);
+  });
+
   it('sums two vehicles charging at one charger at the same time into its peak', () => {
     const block = (blockId: string): Block => ({
       blockId,
@@ -458,6 +479,16 @@ describe('a block through the day', () => {
     const socDrop = fromBattery.blocks[0]!.endSoc - fromDepot.blocks[0]!.endSoc;
     expect(-socDrop * 400_000).toBeCloseTo(event.gridEnergyWh * depot.efficiency, 3);
     expect(fromBattery.blocks[0]!.socTrace[0]).toEqual({ timeS: 6 * 3600 - 1_800, soc: 0.9 });
+    // The result says what the climate drew: heating at a stop (the default climate at −10 °C:
+    // heat pump at its lower limit plus resistive back-up), and the pre-conditioning energy.
+    const standing = auxiliaryBreakdown(DEFAULT_CLIMATE, { ambientC: -10, passengers: 0, doorOpenings: 0, durationS: 3_600 });
+    const vehicle = fromDepot.blocks[0]!.vehicle!;
+    expect(vehicle.auxiliarySource).toBe('climate');
+    expect(vehicle.standingHeatingPowerW).toBeCloseTo(standing.heatPumpElectricW + standing.resistiveElectricW, 6);
+    expect(vehicle.standingAuxPowerW).toBeCloseTo(standing.totalW, 6);
+    expect(vehicle.preconditioningEnergyWh).toBeCloseTo(event.gridEnergyWh * depot.efficiency, 3);
+    expect(vehicle.tripAuxPowerW.mean).toBeGreaterThan(DEFAULT_CLIMATE.baseLoadW);
+    expect(vehicle.tripAuxPowerW.max).toBeCloseTo(vehicle.tripAuxPowerW.mean, 6);
   });
 });
 
@@ -548,7 +579,8 @@ describe('a day\u2019s trip run', () => {
   it('steps exactly as the single-trip run does', async () => {
     const request = {
       route: { type: 'LineString' as const, coordinates: hill },
-      vehicle: aWorkedExampleBus(),
+      // A small regeneration limit, so the descent also needs the friction brakes.
+      vehicle: aWorkedExampleBus({ regenPowerW: 40_000 }),
       conditions: { ambientC: 3, startSoc: 0.7 },
       options: { spacingM: 20, stops: [{ atM: 2_000, dwellS: 30 }] },
     };
@@ -558,6 +590,12 @@ describe('a day\u2019s trip run', () => {
     const lean = runTrip(model, run.speedMps, state, series);
     expect(lean.durationS).toBe(run.durationS);
     expect(lean.sourceJ).toBe(run.sourceJ);
+    // Braking energy adds up as the single-trip summary adds it: regeneration at the terminals, friction.
+    const sum = (values: Float64Array) => values.reduce((total, value) => total + value, 0);
+    expect(lean.regenJ).toBeGreaterThan(0);
+    expect(lean.frictionJ).toBeGreaterThan(0);
+    expect(lean.regenJ).toBeCloseTo(sum(run.segmentRegenJ), 6);
+    expect(lean.frictionJ).toBeCloseTo(sum(run.segmentFrictionJ), 6);
     expect(state.soc).toBe(run.endSoc);
     expect(Array.from(series.soc)).toEqual(Array.from(run.soc));
     expect(Array.from(series.timeS)).toEqual(Array.from(run.timeS));

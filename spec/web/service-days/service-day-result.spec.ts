@@ -73,7 +73,21 @@ describe('ServiceDayResultScreen', () => {
           { chargerKey: 'tarn', startS: h(7, 30), endS: h(7, 40), energyWh: 23_000, gridEnergyWh: 25_000, socBefore: 0.55, socAfter: 0.63 },
         ],
       }),
-      blockResult('B2', { feasible: false, minSoc: 0.09, endSoc: 0.09, problems: ['SOC falls to 9 % at 16:40, below the 15 % reserve.'] }),
+      blockResult('B2', {
+        feasible: false,
+        minSoc: 0.09,
+        endSoc: 0.09,
+        problems: ['SOC falls to 9 % at 16:40, below the 15 % reserve.'],
+        vehicle: {
+          usableCapacityWh: 280_000,
+          maxChargePowerW: 255_000,
+          auxiliarySource: 'climate',
+          tripAuxPowerW: { mean: 14_260, max: 15_000 },
+          standingAuxPowerW: 20_460,
+          standingHeatingPowerW: 17_460,
+          preconditioningEnergyWh: 12_300,
+        },
+      }),
     ]);
     run.peakChargingPowerW = [{ chargerKey: 'tarn', powerW: 150_000 }];
     httpTesting.expectOne(`/api/service-days/${DAY_ID}/result`).flush(run);
@@ -84,6 +98,19 @@ describe('ServiceDayResultScreen', () => {
     expect(element.querySelector('[data-testid="verdict"] li')?.textContent).toBe('SOC falls to 9 % at 16:40, below the 15 % reserve.');
     const firstRow = element.querySelector('[data-testid="block-table"] tbody tr')!;
     expect(firstRow.textContent).toContain('B2');
+    // Why: the battery at the day's age and what the auxiliaries drew, in the block's row and under its verdict.
+    expect(firstRow.querySelector('[data-testid="usable-capacity"]')?.textContent?.trim()).toBe('280.0 kWh');
+    expect(firstRow.querySelector('[data-testid="standing-heating"]')?.textContent?.trim()).toBe('17.5 kW');
+    expect(element.querySelector('[data-testid="block-why"]')?.textContent?.trim()).toBe(
+      'At the end of its life the battery holds 280 kWh usable and charges at up to 255 kW. Auxiliaries drew 14.3 kW on the trips ' +
+        '(cabin climate: heating 17.5 kW at a stop, pre-conditioning 12.3 kWh).',
+    );
+    expect(
+      element
+        .querySelectorAll('[data-testid="block-table"] tbody tr')[1]
+        ?.querySelector('[data-testid="standing-heating"]')
+        ?.textContent?.trim(),
+    ).toBe('season constant');
     expect(firstRow.textContent).toContain('Cannot be worked');
     const charging = element.querySelector('[data-testid="charging-table"] tbody tr')!.textContent!;
     expect(charging).toContain('Upper Tarn terminus');

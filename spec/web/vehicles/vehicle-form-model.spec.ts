@@ -1,7 +1,13 @@
+import { vehicleSchema } from '@shared/domain/analysis';
 import type { VehicleProfileDraftInput } from '@shared/domain/vehicle-profiles';
-import { vehicleProfileDraftSchema } from '@shared/domain/vehicle-profiles';
+import { climateSettingsSchema, vehicleProfileDraftSchema } from '@shared/domain/vehicle-profiles';
+import { DEFAULT_CLIMATE } from '@shared/engine/constants';
 import {
   VEHICLE_FIELDS,
+  copPointsMessage,
+  defaultCopPoints,
+  fieldHint,
+  isClimateField,
   toShownNumber,
   crossFieldMessages,
   fieldMessage,
@@ -73,6 +79,8 @@ describe('vehicle form model', () => {
         'rearBrakeShare',
         'rearBrakeThermalMassShare',
         'permissibleGrossMassKg',
+        'endOfLifeCapacityFraction',
+        'endOfLifeChargePowerFraction',
       ].sort(),
     );
   });
@@ -294,6 +302,134 @@ describe('vehicle form model in imperial units', () => {
     expect(fieldMessage(field('maxTractionForce'), 0, 'imperial')).toBe('Must be more than 0 lbf.');
     expect(fieldMessage(field('curbMass'), 220.46, 'imperial')).toBeNull();
   });
+});
+
+describe('battery ageing and cabin climate in the vehicle form', () => {
+  it('shows the end-of-life fractions in percent, saves them in SI and leaves them unstated when empty', () => {
+    const base = aProfile();
+    const value = toVehicleFormValue(
+      { ...base, vehicle: { ...base.vehicle, endOfLifeCapacityFraction: 0.75, endOfLifeChargePowerFraction: 0.9 } },
+      'metric',
+    );
+
+    expect(value.numbers['endOfLifeCapacity']).toBe(75);
+    expect(value.numbers['endOfLifeChargePower']).toBe(90);
+    const draft = toVehicleDraft(value, 'battery-bus-12m', 'metric');
+    expect(draft.vehicle).toMatchObject({ endOfLifeCapacityFraction: 0.75, endOfLifeChargePowerFraction: 0.9 });
+    const emptied = toVehicleDraft({ ...value, numbers: { ...value.numbers, endOfLifeCapacity: null } }, 'battery-bus-12m', 'metric');
+    expect(emptied.vehicle.endOfLifeCapacityFraction).toBeUndefined();
+    expect(fieldMessage(field('endOfLifeCapacity'), 20, 'metric')).toBe('At least 30 %.');
+  });
+
+  it('states the default an empty optional field stands for, and the range, in the hint', () => {
+    expect(fieldHint(field('endOfLifeCapacity'), 'metric')).toMatch(/Empty: 80 %\. From 30 to 100 %\.$/);
+    expect(fieldHint(field('heatingSetpoint'), 'metric')).toBe(`Empty: ${DEFAULT_CLIMATE.heatingSetpointC} °C. From 5 to 30 °C.`);
+    expect(fieldHint(field('heatingSetpoint'), 'imperial')).toBe('Empty: 64.4 °F. From 41 to 86 °F.');
+    expect(fieldHint(field('rearBrakeThermalMassShare'), 'metric')).toMatch(/Above 0, below 100 %\.$/);
+    expect(fieldHint(field('tractionPower'), 'metric')).toBe('At the wheel. Above 0, up to 5000 kW.');
+  });
+
+  it('saves no climate while it is switched off, and only the stated climate fields when on', () => {
+    const value = toVehicleFormValue(aProfile(), 'metric');
+    expect(value.climateEnabled).toBe(false);
+    expect(toVehicleDraft(value, 'battery-bus-12m', 'metric').climate).toBeNull();
+
+    const on = {
+      ...value,
+      climateEnabled: true,
+      numbers: { ...value.numbers, heatingSetpoint: 16, baseLoad: 2.5, preconditioning: 20, heatPumpHeat: 0 },
+      copPoints: [],
+    };
+    const draft = toVehicleDraft(on, 'battery-bus-12m', 'metric');
+
+    expect(draft.climate).toEqual({ heatingSetpointC: 16, baseLoadW: 2_500, preconditioningS: 1_200, heatPumpHeatW: 0 });
+    expect(vehicleProfileDraftSchema.safeParse(draft).success).toBe(true);
+  });
+
+  it('reads a stored climate with its COP curve back into the form, in °F too, and saves it unchanged', () => {
+    const climate = {
+      heatingSetpointC: 17,
+      bodyUaWPerK: 420,
+      heatPumpCop: [
+        { ambientC: -15, cop: 1.5 },
+        { ambientC: 5, cop: 2.6 },
+      ],
+    };
+    const profile = { ...aProfile(), climate };
+
+    const metric = toVehicleFormValue(profile, 'metric');
+    expect(metric.climateEnabled).toBe(true);
+    expect(metric.numbers['bodyUa']).toBe(420);
+    expect(metric.numbers['freshAir']).toBeNull();
+    expect(metric.copPoints).toEqual([
+      { ambient: -15, cop: 1.5 },
+      { ambient: 5, cop: 2.6 },
+    ]);
+    expect(toVehicleDraft(metric, 'battery-bus-12m', 'metric').climate).toEqual(climate);
+
+    const imperial = toVehicleFormValue(profile, 'imperial');
+    expect(imperial.copPoints.map((point) => point.ambient)).toEqual([5, 41]);
+    expect(toVehicleDraft(imperial, 'battery-bus-12m', 'imperial', profileNumbersBasis(profile, 'imperial')).climate).toEqual(climate);
+  });
+
+  it('names what is wrong with the COP test points', () => {
+    expect(
+      copPointsMessage(
+        [
+          { ambient: -10, cop: 1.8 },
+          { ambient: -10, cop: 2 },
+        ],
+        'metric',
+      ),
+    ).toBe('Test point 2: temperatures must rise from row to row.');
+    expect(copPointsMessage([{ ambient: -10, cop: null }], 'metric')).toBe('Test point 1: enter both the temperature and the COP.');
+    expect(copPointsMessage([{ ambient: -50, cop: 2 }], 'metric')).toBe('Test point 1: the temperature must be -40 to 40 °C.');
+    expect(copPointsMessage([{ ambient: 0, cop: 9 }], 'metric')).toBe('Test point 1: the COP must be 1 to 8.');
+    expect(copPointsMessage(defaultCopPoints('metric'), 'metric')).toBeNull();
+    expect(copPointsMessage(defaultCopPoints('imperial'), 'imperial')).toBeNull();
+  });
+});
+
+describe('one source for the vehicle limits: the form accepts exactly what the contract accepts', () => {
+  const drafts = (key: string, si: number) => {
+    const profile = aProfile();
+    const value = toVehicleFormValue(profile, 'metric');
+    const chosen = field(key);
+    const withValue = {
+      ...value,
+      climateEnabled: isClimateField(chosen),
+      numbers: { ...value.numbers, [key]: si / chosen.factor },
+    };
+    return toVehicleDraft(withValue, 'battery-bus-12m', 'metric');
+  };
+
+  // Every field whose range is its own (cross-field rules aside), checked at and just beyond both bounds.
+  // The permissible gross mass is also tied to the loads; the SOC pair and battery energy to each other.
+  const skip = new Set([
+    'permissibleGrossMass',
+    'socTaperStart',
+    'socCeiling',
+    'regenContinuousPower',
+    'batteryCapacity',
+    'loadSeated',
+    'loadFull',
+    'loadEmpty',
+  ]);
+  for (const candidate of VEHICLE_FIELDS.filter((f) => !skip.has(f.key))) {
+    it(`${candidate.key}: the form's message and the contract agree at ${candidate.min} and ${candidate.max} ${candidate.unit}`, () => {
+      const span = candidate.max - candidate.min;
+      for (const shown of [candidate.min, candidate.max, candidate.min - span * 1e-3, candidate.max + span * 1e-3]) {
+        const formAccepts = fieldMessage(candidate, shown, 'metric') === null;
+        const draft = drafts(candidate.key, shown * candidate.factor);
+        const parsed = isClimateField(candidate)
+          ? climateSettingsSchema.safeParse(draft.climate)
+          : candidate.group === 'Auxiliary loads by season' || candidate.key === 'passengerMass'
+            ? vehicleProfileDraftSchema.safeParse(draft)
+            : vehicleSchema.safeParse(draft.vehicle);
+        expect({ shown, accepted: parsed.success }).toEqual({ shown, accepted: formAccepts });
+      }
+    });
+  }
 });
 
 // Helpers

@@ -15,7 +15,7 @@ import { BoardAnnualBasis } from './board-annual-basis';
 import { BOARD_SUMMARY_PDF_URL, BoardApi } from './board-api';
 import { formatBoardCo2, formatBoardEnergy, formatBoardMoney, formatBoardNumber, formatTariff } from './board-format';
 import { RouteEnergyChart } from './route-energy-chart';
-import { DIRECTION_LABELS, boardFigures, boardSafetyCounts, formatStretch } from '@shared/presentation/index';
+import { DIRECTION_LABELS, boardFigures, boardSafetyCounts, boardYear, boardYearSource, formatStretch } from '@shared/presentation/index';
 
 /** Open safety items, worst first. */
 const OPEN_ITEM_LEVELS: readonly Exclude<RiskLevel, 'low'>[] = ['critical', 'high', 'elevated'];
@@ -61,6 +61,15 @@ export default class BoardSummaryPage {
       acceptedTotal: boardSafetyCounts(state.value).accepted,
       acceptedText: boardSafetyCounts(state.value).acceptedText,
     };
+  });
+  /** Where the headline figures' year comes from, in words; and its basis. */
+  protected readonly yearSource = computed(() => {
+    const state = this.state();
+    return state.status === 'ready' ? boardYearSource(state.value) : '';
+  });
+  protected readonly yearBasis = computed(() => {
+    const state = this.state();
+    return state.status === 'ready' ? boardYear(state.value).basis : null;
   });
   /** The four headline figures, worded as in the PDF; placeholder factors say so beside the value. */
   protected readonly headline = computed(() => {

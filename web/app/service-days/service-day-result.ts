@@ -10,6 +10,7 @@ import { Router, RouterLink } from '@angular/router';
 import type { ServiceDay, ServiceDayResult } from '@shared/domain/service-days';
 import {
   BATTERY_AGE_LABELS,
+  blockVehicleSentence,
   CHARGING_PURPOSE_LABELS,
   DAY_TYPE_LABELS,
   DIRECTION_LABELS,
@@ -134,6 +135,10 @@ export default class ServiceDayResultScreen {
       (routes) => this.routes.set(routes),
       () => undefined, // Only the timeline's route names and estimated arrivals need them.
     );
+  }
+
+  protected vehicleSentence(block: ServiceDayResult['blocks'][number]): string {
+    return blockVehicleSentence(block, this.day()?.batteryAge ?? 'beginning-of-life', this.units());
   }
 
   protected chargerName(key: string): string {

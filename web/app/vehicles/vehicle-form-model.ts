@@ -6,7 +6,9 @@
  * coefficients, percentages) reads the same in both. Pure data and functions, so the mapping and the messages are tested without a browser.
  */
 import type { RetarderType } from '@shared/domain/analysis';
-import type { VehicleProfileDraftInput } from '@shared/domain/vehicle-profiles';
+import { CLIMATE_LIMITS as C, COP_POINTS, VEHICLE_LIMITS as L, type NumberRange } from '@shared/domain/limits';
+import type { ClimateSettingsInput, VehicleProfileDraftInput } from '@shared/domain/vehicle-profiles';
+import { DEFAULT_CLIMATE, DEFAULT_END_OF_LIFE_CAPACITY_FRACTION } from '@shared/engine/constants';
 import { kphToMps } from '@shared/presentation/units';
 import { fromDisplay, toDisplay, unitLabel, type Quantity, type UnitSystem } from '../units/unit-format';
 
@@ -18,6 +20,7 @@ export const VEHICLE_FIELD_GROUPS = [
   'Auxiliary loads by season',
   'Brakes and retarder',
   'Overhead-line receptivity',
+  'Cabin climate (service days)',
 ] as const;
 export type VehicleFieldGroup = (typeof VEHICLE_FIELD_GROUPS)[number];
 
@@ -32,20 +35,57 @@ export interface VehicleField {
   factor: number;
   /** When set, the imperial display converts through unit-format as this kind of quantity. */
   quantity?: Quantity;
-  /** Limits in the metric displayed unit (see `fieldLimits` for the imperial ones). */
+  /**
+   * Limits in the metric displayed unit (see `fieldLimits` for the imperial ones), converted from
+   * the contract's SI ranges in shared/domain/limits.ts so the form accepts what the API accepts.
+   */
   min: number;
   max: number;
   /** Whether the minimum itself is refused (e.g. efficiencies must be above 0). */
   minExclusive?: boolean;
+  /** Whether the maximum itself is refused (e.g. the rear share of brake mass must leave some for the front). */
+  maxExclusive?: boolean;
   step: number;
   hint?: string;
   /** Whether the field may stay empty (the profile then does not state it). */
   optional?: boolean;
+  /** SI value the engine takes when an optional field is left empty (shown in the hint). */
+  defaultSi?: number;
+  /** Cabin-climate fields: the key in the profile's `climate`. */
+  climateKey?: Exclude<keyof ClimateSettingsInput, 'heatPumpCop'>;
   /** Reads the SI value from a profile (null: not stated). */
   read: (profile: VehicleProfileDraftInput) => number | null;
 }
 
 const v = (profile: VehicleProfileDraftInput) => profile.vehicle;
+
+/** A contract range (SI) in the metric displayed unit: SI ÷ factor, rounded off float noise. */
+function shownLimits(range: NumberRange, factor: number): Pick<VehicleField, 'min' | 'max' | 'minExclusive' | 'maxExclusive'> {
+  const shown = (si: number) => roundTo(si / factor, 6);
+  return {
+    min: shown(range.min),
+    max: shown(range.max),
+    ...(range.minExclusive ? { minExclusive: true } : {}),
+    ...(range.maxExclusive ? { maxExclusive: true } : {}),
+  };
+}
+
+/** A cabin-climate field: optional, its default the engine's, read from the profile's `climate`. */
+function climateField(
+  climateKey: NonNullable<VehicleField['climateKey']>,
+  spec: Pick<VehicleField, 'key' | 'label' | 'unit' | 'factor' | 'step' | 'quantity' | 'hint'> & { range: NumberRange },
+): VehicleField {
+  const { range, ...rest } = spec;
+  return {
+    ...rest,
+    group: 'Cabin climate (service days)',
+    ...shownLimits(range, spec.factor),
+    optional: true,
+    defaultSi: DEFAULT_CLIMATE[climateKey],
+    climateKey,
+    read: (p) => p.climate?.[climateKey] ?? null,
+  };
+}
 
 export const VEHICLE_FIELDS: readonly VehicleField[] = [
   {
@@ -55,8 +95,7 @@ export const VEHICLE_FIELDS: readonly VehicleField[] = [
     unit: 't',
     factor: 1_000,
     quantity: 'mass',
-    min: 0.1,
-    max: 200,
+    ...shownLimits(L.curbMassKg, 1_000),
     step: 0.1,
     hint: 'Empty vehicle ready for service.',
     read: (p) => v(p).curbMassKg,
@@ -68,8 +107,7 @@ export const VEHICLE_FIELDS: readonly VehicleField[] = [
     unit: 't',
     factor: 1_000,
     quantity: 'mass',
-    min: 0,
-    max: 100,
+    ...shownLimits(L.payloadKg, 1_000),
     step: 0.1,
     read: (p) => p.loadsKg.empty,
   },
@@ -80,8 +118,7 @@ export const VEHICLE_FIELDS: readonly VehicleField[] = [
     unit: 't',
     factor: 1_000,
     quantity: 'mass',
-    min: 0,
-    max: 100,
+    ...shownLimits(L.payloadKg, 1_000),
     step: 0.1,
     read: (p) => p.loadsKg.seated,
   },
@@ -92,8 +129,7 @@ export const VEHICLE_FIELDS: readonly VehicleField[] = [
     unit: 't',
     factor: 1_000,
     quantity: 'mass',
-    min: 0,
-    max: 100,
+    ...shownLimits(L.payloadKg, 1_000),
     step: 0.1,
     read: (p) => p.loadsKg['full-standing'],
   },
@@ -104,9 +140,7 @@ export const VEHICLE_FIELDS: readonly VehicleField[] = [
     unit: 't',
     factor: 1_000,
     quantity: 'mass',
-    min: 0,
-    max: 300,
-    minExclusive: true,
+    ...shownLimits(L.permissibleGrossMassKg, 1_000),
     step: 0.1,
     optional: true,
     hint: 'From the vehicle maker or registration papers; the worst case uses it. Leave empty if not known.',
@@ -119,8 +153,7 @@ export const VEHICLE_FIELDS: readonly VehicleField[] = [
     unit: 'kg',
     factor: 1,
     quantity: 'lightMass',
-    min: 40,
-    max: 120,
+    ...shownLimits(L.passengerMassKg, 1),
     step: 1,
     hint: 'Used when a scenario gives a passenger count.',
     read: (p) => p.passengerMassKg ?? 70,
@@ -131,8 +164,7 @@ export const VEHICLE_FIELDS: readonly VehicleField[] = [
     label: 'Rotating-mass factor',
     unit: '',
     factor: 1,
-    min: 0,
-    max: 1,
+    ...shownLimits(L.rotatingMassFactor, 1),
     step: 0.01,
     hint: 'Inertia = (1 + factor) · m · a.',
     read: (p) => v(p).rotatingMassFactor,
@@ -145,9 +177,7 @@ export const VEHICLE_FIELDS: readonly VehicleField[] = [
     unit: 'm²',
     factor: 1,
     quantity: 'area',
-    min: 0,
-    max: 30,
-    minExclusive: true,
+    ...shownLimits(L.frontalAreaM2, 1),
     step: 0.1,
     read: (p) => v(p).frontalAreaM2,
   },
@@ -157,8 +187,7 @@ export const VEHICLE_FIELDS: readonly VehicleField[] = [
     label: 'Drag coefficient',
     unit: '',
     factor: 1,
-    min: 0,
-    max: 3,
+    ...shownLimits(L.dragCoefficient, 1),
     step: 0.01,
     read: (p) => v(p).dragCoefficient,
   },
@@ -168,8 +197,7 @@ export const VEHICLE_FIELDS: readonly VehicleField[] = [
     label: 'Rolling resistance coefficient',
     unit: '',
     factor: 1,
-    min: 0,
-    max: 0.1,
+    ...shownLimits(L.rollingResistanceCoefficient, 1),
     step: 0.001,
     read: (p) => v(p).rollingResistanceCoefficient,
   },
@@ -180,9 +208,7 @@ export const VEHICLE_FIELDS: readonly VehicleField[] = [
     label: 'Peak traction power',
     unit: 'kW',
     factor: 1_000,
-    min: 0,
-    max: 5_000,
-    minExclusive: true,
+    ...shownLimits(L.tractionPowerW, 1_000),
     step: 1,
     hint: 'At the wheel.',
     read: (p) => v(p).tractionPowerW,
@@ -193,8 +219,7 @@ export const VEHICLE_FIELDS: readonly VehicleField[] = [
     label: 'Peak regenerative power',
     unit: 'kW',
     factor: 1_000,
-    min: 0,
-    max: 5_000,
+    ...shownLimits(L.regenPowerW, 1_000),
     step: 1,
     hint: '0 means no regeneration at all.',
     read: (p) => v(p).regenPowerW,
@@ -206,9 +231,7 @@ export const VEHICLE_FIELDS: readonly VehicleField[] = [
     unit: 'kN',
     factor: 1_000,
     quantity: 'force',
-    min: 0,
-    max: 1_000,
-    minExclusive: true,
+    ...shownLimits(L.maxTractionForceN, 1_000),
     step: 0.5,
     hint: 'Motor torque at the wheel; also caps the regen force.',
     read: (p) => v(p).maxTractionForceN ?? 35_000,
@@ -219,9 +242,7 @@ export const VEHICLE_FIELDS: readonly VehicleField[] = [
     label: 'Drivetrain efficiency',
     unit: '%',
     factor: 0.01,
-    min: 0,
-    max: 100,
-    minExclusive: true,
+    ...shownLimits(L.efficiency, 0.01),
     step: 0.1,
     hint: 'Battery (or line) → wheel while motoring.',
     read: (p) => v(p).drivetrainEfficiency,
@@ -232,8 +253,7 @@ export const VEHICLE_FIELDS: readonly VehicleField[] = [
     label: 'Continuous regenerative power',
     unit: 'kW',
     factor: 1_000,
-    min: 0,
-    max: 5_000,
+    ...shownLimits(L.regenContinuousPowerW, 1_000),
     step: 1,
     optional: true,
     hint: 'What the machine can hold indefinitely. Empty: the peak power is held.',
@@ -245,8 +265,7 @@ export const VEHICLE_FIELDS: readonly VehicleField[] = [
     label: 'Peak regeneration held for',
     unit: 's',
     factor: 1,
-    min: 0,
-    max: 3_600,
+    ...shownLimits(L.regenPeakHoldS, 1),
     step: 1,
     hint: 'After this the continuous power applies.',
     read: (p) => v(p).regenPeakHoldS ?? 60,
@@ -257,8 +276,7 @@ export const VEHICLE_FIELDS: readonly VehicleField[] = [
     label: 'Weight on the driven axles',
     unit: '%',
     factor: 0.01,
-    min: 0,
-    max: 100,
+    ...shownLimits(L.share, 0.01),
     step: 1,
     hint: 'Grip on these axles caps regeneration.',
     read: (p) => v(p).drivenAxleLoadShare ?? 0.6,
@@ -269,9 +287,7 @@ export const VEHICLE_FIELDS: readonly VehicleField[] = [
     label: 'Regeneration efficiency',
     unit: '%',
     factor: 0.01,
-    min: 0,
-    max: 100,
-    minExclusive: true,
+    ...shownLimits(L.efficiency, 0.01),
     step: 0.1,
     hint: 'Wheel → battery (or line) while braking.',
     read: (p) => v(p).regenEfficiency,
@@ -283,8 +299,7 @@ export const VEHICLE_FIELDS: readonly VehicleField[] = [
     label: 'Usable battery energy',
     unit: 'kWh',
     factor: 1_000,
-    min: 0,
-    max: 5_000,
+    ...shownLimits(L.batteryCapacityWh, 1_000),
     step: 1,
     hint: 'May be 0 for an overhead-line vehicle without storage.',
     read: (p) => v(p).batteryCapacityWh,
@@ -295,8 +310,7 @@ export const VEHICLE_FIELDS: readonly VehicleField[] = [
     label: 'Charge-power limit',
     unit: 'kW',
     factor: 1_000,
-    min: 0,
-    max: 5_000,
+    ...shownLimits(L.maxChargePowerW, 1_000),
     step: 1,
     read: (p) => v(p).maxChargePowerW,
   },
@@ -306,8 +320,7 @@ export const VEHICLE_FIELDS: readonly VehicleField[] = [
     label: 'Charge limit starts falling at',
     unit: '% SOC',
     factor: 0.01,
-    min: 0,
-    max: 100,
+    ...shownLimits(L.share, 0.01),
     step: 1,
     read: (p) => v(p).socTaperStart ?? 0.85,
   },
@@ -317,8 +330,7 @@ export const VEHICLE_FIELDS: readonly VehicleField[] = [
     label: 'No charging above',
     unit: '% SOC',
     factor: 0.01,
-    min: 0,
-    max: 100,
+    ...shownLimits(L.share, 0.01),
     step: 1,
     read: (p) => v(p).socCeiling ?? 0.95,
   },
@@ -329,8 +341,7 @@ export const VEHICLE_FIELDS: readonly VehicleField[] = [
     unit: 'km/h',
     factor: kphToMps(1),
     quantity: 'speed',
-    min: 0,
-    max: 36,
+    ...shownLimits(L.regenMinSpeedMps, kphToMps(1)),
     step: 0.5,
     hint: 'Below this speed regeneration falls linearly to nothing at standstill; the friction brakes take the rest.',
     read: (p) => v(p).regenMinSpeedMps ?? kphToMps(5),
@@ -342,8 +353,7 @@ export const VEHICLE_FIELDS: readonly VehicleField[] = [
     unit: '°C',
     factor: 1,
     quantity: 'temperature',
-    min: -20,
-    max: 40,
+    ...shownLimits(L.coldChargeFullFromC, 1),
     step: 1,
     hint: 'Ambient temperature; below it the charge-power limit falls towards its share at −20 °C.',
     read: (p) => v(p).coldChargeFullFromC ?? 10,
@@ -354,11 +364,36 @@ export const VEHICLE_FIELDS: readonly VehicleField[] = [
     label: 'Charge power left at −20 °C (−4 °F)',
     unit: '%',
     factor: 0.01,
-    min: 0,
-    max: 100,
+    ...shownLimits(L.share, 0.01),
     step: 1,
     hint: "100 for a pack kept warm. Take it from the maker's charging limits for cold cells.",
     read: (p) => v(p).coldChargeShareAtMinus20C ?? 1,
+  },
+  {
+    key: 'endOfLifeCapacity',
+    group: 'Battery and regeneration limits',
+    label: 'Usable energy left at end of life',
+    unit: '%',
+    factor: 0.01,
+    ...shownLimits(L.endOfLifeFraction, 0.01),
+    step: 1,
+    optional: true,
+    defaultSi: DEFAULT_END_OF_LIFE_CAPACITY_FRACTION,
+    hint: "Of the new battery's usable energy; service days checked at end of life use it. Take it from the maker's warranty.",
+    read: (p) => v(p).endOfLifeCapacityFraction ?? null,
+  },
+  {
+    key: 'endOfLifeChargePower',
+    group: 'Battery and regeneration limits',
+    label: 'Charge power left at end of life',
+    unit: '%',
+    factor: 0.01,
+    ...shownLimits(L.endOfLifeFraction, 0.01),
+    step: 1,
+    optional: true,
+    defaultSi: 1,
+    hint: "Of the new battery's charge-power limit, for service days at end of life.",
+    read: (p) => v(p).endOfLifeChargePowerFraction ?? null,
   },
 
   {
@@ -368,8 +403,7 @@ export const VEHICLE_FIELDS: readonly VehicleField[] = [
     unit: '°C',
     factor: 1,
     quantity: 'temperature',
-    min: -60,
-    max: 60,
+    ...shownLimits(L.ambientC, 1),
     step: 1,
     read: (p) => p.seasons.winter.ambientC,
   },
@@ -379,8 +413,7 @@ export const VEHICLE_FIELDS: readonly VehicleField[] = [
     label: 'Winter auxiliary power',
     unit: 'kW',
     factor: 1_000,
-    min: 0,
-    max: 500,
+    ...shownLimits(L.auxPowerW, 1_000),
     step: 0.5,
     read: (p) => p.seasons.winter.auxPowerW,
   },
@@ -391,8 +424,7 @@ export const VEHICLE_FIELDS: readonly VehicleField[] = [
     unit: '°C',
     factor: 1,
     quantity: 'temperature',
-    min: -60,
-    max: 60,
+    ...shownLimits(L.ambientC, 1),
     step: 1,
     read: (p) => p.seasons.mild.ambientC,
   },
@@ -402,8 +434,7 @@ export const VEHICLE_FIELDS: readonly VehicleField[] = [
     label: 'Mild auxiliary power',
     unit: 'kW',
     factor: 1_000,
-    min: 0,
-    max: 500,
+    ...shownLimits(L.auxPowerW, 1_000),
     step: 0.5,
     read: (p) => p.seasons.mild.auxPowerW,
   },
@@ -414,8 +445,7 @@ export const VEHICLE_FIELDS: readonly VehicleField[] = [
     unit: '°C',
     factor: 1,
     quantity: 'temperature',
-    min: -60,
-    max: 60,
+    ...shownLimits(L.ambientC, 1),
     step: 1,
     read: (p) => p.seasons.summer.ambientC,
   },
@@ -425,8 +455,7 @@ export const VEHICLE_FIELDS: readonly VehicleField[] = [
     label: 'Summer auxiliary power',
     unit: 'kW',
     factor: 1_000,
-    min: 0,
-    max: 500,
+    ...shownLimits(L.auxPowerW, 1_000),
     step: 0.5,
     read: (p) => p.seasons.summer.auxPowerW,
   },
@@ -438,9 +467,7 @@ export const VEHICLE_FIELDS: readonly VehicleField[] = [
     unit: 'kJ/K',
     factor: 1_000,
     quantity: 'heatCapacity',
-    min: 0,
-    max: 100_000,
-    minExclusive: true,
+    ...shownLimits(L.brakeThermalMassJPerK, 1_000),
     step: 1,
     hint: 'All discs or drums with hubs together.',
     read: (p) => v(p).brakeThermalMassJPerK ?? 92_000,
@@ -452,9 +479,7 @@ export const VEHICLE_FIELDS: readonly VehicleField[] = [
     unit: 'm²',
     factor: 1,
     quantity: 'area',
-    min: 0,
-    max: 100,
-    minExclusive: true,
+    ...shownLimits(L.brakeCoolingAreaM2, 1),
     step: 0.1,
     read: (p) => v(p).brakeCoolingAreaM2 ?? 1.6,
   },
@@ -464,8 +489,7 @@ export const VEHICLE_FIELDS: readonly VehicleField[] = [
     label: 'Heat into discs or drums',
     unit: '%',
     factor: 0.01,
-    min: 0,
-    max: 100,
+    ...shownLimits(L.share, 0.01),
     step: 1,
     read: (p) => v(p).brakeHeatShare ?? 0.95,
   },
@@ -475,8 +499,7 @@ export const VEHICLE_FIELDS: readonly VehicleField[] = [
     label: 'Brake surface emissivity',
     unit: '',
     factor: 1,
-    min: 0,
-    max: 1,
+    ...shownLimits(L.share, 1),
     step: 0.05,
     read: (p) => v(p).brakeEmissivity ?? 0.6,
   },
@@ -486,8 +509,7 @@ export const VEHICLE_FIELDS: readonly VehicleField[] = [
     label: 'Rear share of braking',
     unit: '%',
     factor: 0.01,
-    min: 0,
-    max: 100,
+    ...shownLimits(L.share, 0.01),
     step: 1,
     hint: 'Share of the friction braking force at the rear; the rest is at the front.',
     read: (p) => v(p).rearBrakeShare ?? 0.6,
@@ -498,9 +520,7 @@ export const VEHICLE_FIELDS: readonly VehicleField[] = [
     label: 'Rear share of brake mass',
     unit: '%',
     factor: 0.01,
-    min: 0,
-    max: 100,
-    minExclusive: true,
+    ...shownLimits(L.rearBrakeThermalMassShare, 0.01),
     step: 1,
     hint: 'Of the brakes’ thermal mass and cooled surface.',
     read: (p) => v(p).rearBrakeThermalMassShare ?? 0.5,
@@ -511,8 +531,7 @@ export const VEHICLE_FIELDS: readonly VehicleField[] = [
     label: 'Retarder or braking-resistor power',
     unit: 'kW',
     factor: 1_000,
-    min: 0,
-    max: 5_000,
+    ...shownLimits(L.retarderPowerW, 1_000),
     step: 1,
     hint: '0 when the vehicle has none.',
     read: (p) => v(p).retarderPowerW ?? 0,
@@ -524,12 +543,113 @@ export const VEHICLE_FIELDS: readonly VehicleField[] = [
     label: 'Line receptivity',
     unit: '%',
     factor: 0.01,
-    min: 0,
-    max: 100,
+    ...shownLimits(L.share, 0.01),
     step: 1,
     hint: 'Share of regenerated power another vehicle on the line can take.',
     read: (p) => v(p).lineReceptivity ?? 0.5,
   },
+
+  climateField('heatingSetpointC', {
+    key: 'heatingSetpoint',
+    label: 'Cabin heated to',
+    unit: '°C',
+    factor: 1,
+    quantity: 'temperature',
+    range: C.heatingSetpointC,
+    step: 0.5,
+  }),
+  climateField('coolingSetpointC', {
+    key: 'coolingSetpoint',
+    label: 'Cabin cooled to',
+    unit: '°C',
+    factor: 1,
+    quantity: 'temperature',
+    range: C.coolingSetpointC,
+    step: 0.5,
+  }),
+  climateField('bodyUaWPerK', {
+    key: 'bodyUa',
+    label: 'Body heat loss',
+    unit: 'W/K',
+    factor: 1,
+    range: C.bodyUaWPerK,
+    step: 10,
+    hint: 'Through walls, roof, floor and glazing per kelvin between cabin and outside.',
+  }),
+  climateField('freshAirM3PerH', {
+    key: 'freshAir',
+    label: 'Fresh air',
+    unit: 'm³/h',
+    factor: 1,
+    range: C.freshAirM3PerH,
+    step: 10,
+    hint: 'Outside air the ventilation takes in; it is heated or cooled to the cabin temperature.',
+  }),
+  climateField('doorAirExchangeM3', {
+    key: 'doorAirExchange',
+    label: 'Door air exchange',
+    unit: 'm³',
+    factor: 1,
+    range: C.doorAirExchangeM3,
+    step: 0.5,
+    hint: 'Air swapped at each stop with all doors open.',
+  }),
+  climateField('baseLoadW', {
+    key: 'baseLoad',
+    label: 'Base load',
+    unit: 'kW',
+    factor: 1_000,
+    range: C.baseLoadW,
+    step: 0.1,
+    hint: 'Fans, lighting, electronics, compressors: drawn all the time.',
+  }),
+  climateField('heatPumpHeatW', {
+    key: 'heatPumpHeat',
+    label: 'Heat-pump heat output',
+    unit: 'kW',
+    factor: 1_000,
+    range: C.heatPumpHeatW,
+    step: 0.5,
+    hint: '0: no heat pump, resistive heating only.',
+  }),
+  climateField('heatPumpMinAmbientC', {
+    key: 'heatPumpMinAmbient',
+    label: 'Heat pump runs down to',
+    unit: '°C',
+    factor: 1,
+    quantity: 'temperature',
+    range: C.heatPumpMinAmbientC,
+    step: 1,
+    hint: 'Ambient; below it the resistive back-up heats alone.',
+  }),
+  climateField('coolingEer', {
+    key: 'coolingEer',
+    label: 'Cooling EER',
+    unit: '',
+    factor: 1,
+    range: C.coolingEer,
+    step: 0.1,
+    hint: 'Cooling efficiency: heat removed ÷ electrical power.',
+  }),
+  climateField('preconditioningS', {
+    key: 'preconditioning',
+    label: 'Pre-conditioning',
+    unit: 'min',
+    factor: 60,
+    range: C.preconditioningS,
+    step: 1,
+    hint: 'At the depot before pull-out, on depot power.',
+  }),
+  climateField('cabinHeatCapacityJPerK', {
+    key: 'cabinHeatCapacity',
+    label: 'Cabin heat mass',
+    unit: 'kJ/K',
+    factor: 1_000,
+    quantity: 'heatCapacity',
+    range: C.cabinHeatCapacityJPerK,
+    step: 10,
+    hint: 'Heat capacity of the air and fittings warmed by pre-conditioning.',
+  }),
 ];
 
 export type VehicleNumbers = Record<string, number | null>;
@@ -541,6 +661,21 @@ export interface VehicleFormValue {
   brakeType: 'disc' | 'drum';
   retarderType: RetarderType;
   numbers: VehicleNumbers;
+  /** Whether service days model the cabin climate (off: the season's constant auxiliary power). */
+  climateEnabled: boolean;
+  /** The heat pump's COP test points as shown (ambient in the chosen temperature unit); none: the engine's curve. */
+  copPoints: CopPoint[];
+}
+
+/** One test point of the heat pump's COP curve as the form shows it. */
+export interface CopPoint {
+  ambient: number | null;
+  cop: number | null;
+}
+
+/** Whether a field is one of the cabin-climate fields (only read while the climate is modelled). */
+export function isClimateField(field: VehicleField): boolean {
+  return field.climateKey !== undefined;
 }
 
 /** Words for each kind of endurance brake. */
@@ -624,7 +759,70 @@ export function toVehicleFormValue(profile: VehicleProfileDraftInput, system: Un
     // An unstated kind reads as the engine reads it: a braking resistor when there is retarder power.
     retarderType: profile.vehicle.retarderType ?? ((profile.vehicle.retarderPowerW ?? 0) > 0 ? 'braking-resistor' : 'none'),
     numbers: profileNumbersBasis(profile, system).shown,
+    climateEnabled: profile.climate !== null && profile.climate !== undefined,
+    copPoints: (profile.climate?.heatPumpCop ?? []).map((point) => ({
+      ambient: toShownTemperature(point.ambientC, system),
+      cop: point.cop,
+    })),
   };
+}
+
+/** An ambient temperature (°C) as a COP row shows it. */
+export function toShownTemperature(celsius: number, system: UnitSystem): number {
+  return roundTo(toDisplay('temperature', celsius, system), 2);
+}
+
+/** A COP row's shown temperature in °C. */
+export function toCelsius(shown: number, system: UnitSystem): number {
+  return roundTo(fromDisplay('temperature', shown, system), 2);
+}
+
+/** The engine's COP curve when a profile states none, as the form lists it. */
+export function defaultCopPoints(system: UnitSystem): CopPoint[] {
+  return DEFAULT_CLIMATE.heatPumpCop.map((point) => ({ ambient: toShownTemperature(point.ambientC, system), cop: point.cop }));
+}
+
+/**
+ * What is wrong with the COP rows, or null: each row needs a temperature and a COP within the
+ * contract's ranges, the temperatures must ascend, and there may be at most the contract's count.
+ */
+export function copPointsMessage(points: readonly CopPoint[], system: UnitSystem): string | null {
+  if (points.length > COP_POINTS.max) return `At most ${COP_POINTS.max} test points.`;
+  const unit = unitLabel('temperature', system);
+  const low = Math.ceil(toDisplay('temperature', C.copAmbientC.min, system) - 1e-9);
+  const high = Math.floor(toDisplay('temperature', C.copAmbientC.max, system) + 1e-9);
+  for (const [index, point] of points.entries()) {
+    const row = `Test point ${index + 1}`;
+    if (point.ambient === null || Number.isNaN(point.ambient) || point.cop === null || Number.isNaN(point.cop)) {
+      return `${row}: enter both the temperature and the COP.`;
+    }
+    if (point.ambient < low || point.ambient > high) return `${row}: the temperature must be ${low} to ${high} ${unit}.`;
+    if (point.cop < C.cop.min || point.cop > C.cop.max) return `${row}: the COP must be ${C.cop.min} to ${C.cop.max}.`;
+    const before = points[index - 1];
+    if (before && before.ambient !== null && point.ambient <= before.ambient) {
+      return `${row}: temperatures must rise from row to row.`;
+    }
+  }
+  return null;
+}
+
+/** The hint under a field: what it means, what an empty optional field stands for, and its range. */
+export function fieldHint(field: VehicleField, system: UnitSystem): string {
+  const unit = fieldUnit(field, system);
+  const suffix = unit ? ` ${unit}` : '';
+  const parts: string[] = [];
+  if (field.hint) parts.push(field.hint);
+  if (field.optional && field.defaultSi !== undefined) parts.push(`Empty: ${toShownNumber(field, field.defaultSi, system)}${suffix}.`);
+  const { min, max } = fieldLimits(field, system);
+  const upper = field.maxExclusive ? `below ${max}` : `up to ${max}`;
+  parts.push(
+    field.minExclusive
+      ? `Above ${min}, ${upper}${suffix}.`
+      : field.maxExclusive
+        ? `From ${min}, ${upper}${suffix}.`
+        : `From ${min} to ${max}${suffix}.`,
+  );
+  return parts.join(' ');
 }
 
 /**
@@ -683,6 +881,16 @@ export function toVehicleDraft(
     summer: { ambientC: si('summerAmbient'), auxPowerW: si('summerAux') },
   };
   const loadsKg = { empty: si('loadEmpty'), seated: si('loadSeated'), 'full-standing': si('loadFull') };
+  let climate: ClimateSettingsInput | null = null;
+  if (value.climateEnabled) {
+    climate = {};
+    for (const field of VEHICLE_FIELDS) {
+      const stated = numbers[field.key];
+      if (field.climateKey && stated !== null && stated !== undefined) climate[field.climateKey] = stated;
+    }
+    const points = value.copPoints.filter((point) => point.ambient !== null && point.cop !== null);
+    if (points.length > 0) climate.heatPumpCop = points.map((point) => ({ ambientC: toCelsius(point.ambient!, system), cop: point.cop! }));
+  }
   return {
     name: value.name.trim(),
     description: value.description.trim(),
@@ -690,6 +898,7 @@ export function toVehicleDraft(
     passengerMassKg: si('passengerMass'),
     loadsKg,
     seasons,
+    climate,
     vehicle: {
       curbMassKg: si('curbMass'),
       // The scenario's load case and season replace these two; the seated, mild values are the reference.
@@ -726,6 +935,8 @@ export function toVehicleDraft(
       permissibleGrossMassKg: stated('permissibleGrossMass'),
       lineReceptivity: si('lineReceptivity'),
       powerSource: value.powerSource,
+      endOfLifeCapacityFraction: stated('endOfLifeCapacity'),
+      endOfLifeChargePowerFraction: stated('endOfLifeChargePower'),
     },
   };
 }
@@ -739,7 +950,9 @@ export function fieldMessage(field: VehicleField, shown: number | null | undefin
   if (field.minExclusive ? shown <= min : shown < min) {
     return field.minExclusive ? `Must be more than ${min}${unit ? ' ' + unit : ''}.` : `At least ${min}${unit ? ' ' + unit : ''}.`;
   }
-  if (shown > max) return `At most ${max}${unit ? ' ' + unit : ''}.`;
+  if (field.maxExclusive ? shown >= max : shown > max) {
+    return field.maxExclusive ? `Must be less than ${max}${unit ? ' ' + unit : ''}.` : `At most ${max}${unit ? ' ' + unit : ''}.`;
+  }
   return null;
 }
 

@@ -1,7 +1,8 @@
 import { DatePipe } from '@angular/common';
 import { ChangeDetectionStrategy, Component, computed, effect, inject, input, signal, untracked } from '@angular/core';
 import { toSignal } from '@angular/core/rxjs-interop';
-import { FormControl, FormGroup, ReactiveFormsModule, Validators } from '@angular/forms';
+import { FormArray, FormControl, FormGroup, ReactiveFormsModule, Validators } from '@angular/forms';
+import { MatCheckboxModule } from '@angular/material/checkbox';
 import type { RetarderType } from '@shared/domain/analysis';
 import { MatButtonModule } from '@angular/material/button';
 import { MatDialog } from '@angular/material/dialog';
@@ -24,8 +25,15 @@ import { CapabilityChart } from './capability-chart';
 import {
   VEHICLE_FIELDS,
   VEHICLE_FIELD_GROUPS,
+  copPointsMessage,
   crossFieldMessages,
+  defaultCopPoints,
+  fieldHint,
   fieldMessage,
+  isClimateField,
+  toCelsius,
+  toShownTemperature,
+  type CopPoint,
   fieldUnit,
   profileNumbersBasis,
   switchUnits,
@@ -39,6 +47,7 @@ import {
 import { VehicleProfilesApi } from './vehicle-profiles-api';
 
 type NumberControls = Record<string, FormControl<number | null>>;
+type CopRow = FormGroup<{ ambient: FormControl<number | null>; cop: FormControl<number | null> }>;
 
 /** One vehicle profile: every engine parameter, grouped; analysts edit their own, copy presets. */
 @Component({
@@ -49,6 +58,7 @@ type NumberControls = Record<string, FormControl<number | null>>;
     RouterLink,
     MatButtonModule,
     MatButtonToggleModule,
+    MatCheckboxModule,
     MatFormFieldModule,
     MatIconModule,
     MatInputModule,
@@ -117,12 +127,23 @@ export default class VehicleProfileEditor {
     brakeType: new FormControl<'disc' | 'drum'>('disc', { nonNullable: true }),
     retarderType: new FormControl<RetarderType>('none', { nonNullable: true }),
     numbers: this.numbers,
+    climateEnabled: new FormControl(false, { nonNullable: true }),
+    copPoints: new FormArray<CopRow>([]),
   });
+  protected readonly climateGroup = 'Cabin climate (service days)';
 
   private readonly formValue = toSignal(this.form.valueChanges, { initialValue: this.form.getRawValue() });
   protected readonly crossMessages = computed(() => {
     this.formValue();
     return crossFieldMessages(this.form.getRawValue() as VehicleFormValue);
+  });
+  protected readonly climateEnabled = computed(() => {
+    this.formValue();
+    return this.form.controls.climateEnabled.value;
+  });
+  protected readonly copMessage = computed(() => {
+    this.formValue();
+    return this.climateEnabled() ? copPointsMessage(this.form.controls.copPoints.getRawValue(), this.shownUnits()) : null;
   });
 
   constructor() {
@@ -134,7 +155,10 @@ export default class VehicleProfileEditor {
     effect(() => {
       if (this.canEdit()) this.form.enable({ emitEvent: false });
       else this.form.disable({ emitEvent: false });
+      untracked(() => this.applyClimateState());
     });
+    // Climate fields count (and can block a save) only while the climate is modelled.
+    this.form.controls.climateEnabled.valueChanges.subscribe(() => this.applyClimateState());
     effect(() => {
       const id = this.vehicleProfileId() ?? this.copyOf();
       const load = this.capabilityLoad();
@@ -144,6 +168,29 @@ export default class VehicleProfileEditor {
       const system = this.units();
       untracked(() => this.showNumbersIn(system));
     });
+  }
+
+  protected hint(field: VehicleField): string {
+    return fieldHint(field, this.shownUnits());
+  }
+
+  protected temperatureUnit(): string {
+    return this.shownUnits() === 'imperial' ? '°F' : '°C';
+  }
+
+  protected addCopPoint(): void {
+    this.form.controls.copPoints.push(copRow({ ambient: null, cop: null }));
+  }
+
+  protected removeCopPoint(index: number): void {
+    this.form.controls.copPoints.removeAt(index);
+    this.form.controls.copPoints.markAsDirty();
+  }
+
+  /** Fills the rows with the engine's default curve, as a starting point to edit. */
+  protected useDefaultCop(): void {
+    this.setCopRows(defaultCopPoints(this.shownUnits()));
+    this.form.controls.copPoints.markAsDirty();
   }
 
   protected unit(field: VehicleField): string {
@@ -169,7 +216,7 @@ export default class VehicleProfileEditor {
   protected async save(): Promise<void> {
     this.form.markAllAsTouched();
     const cross = crossFieldMessages(this.form.getRawValue() as VehicleFormValue);
-    if (this.form.invalid || Object.keys(cross).length > 0) {
+    if (this.form.invalid || Object.keys(cross).length > 0 || this.copMessage() !== null) {
       this.error.set('Some values need attention; see the messages under the fields.');
       return;
     }
@@ -220,7 +267,7 @@ export default class VehicleProfileEditor {
         this.profile.set(null);
         this.shownUnits.set(this.units());
         this.basis = profileNumbersBasis(source, this.shownUnits());
-        this.form.setValue({ ...toVehicleFormValue(source, this.shownUnits()), name: `${source.name} (copy)` });
+        this.fill({ ...toVehicleFormValue(source, this.shownUnits()), name: `${source.name} (copy)` });
       }
     } catch (error: unknown) {
       this.error.set(describeApiError(error));
@@ -233,7 +280,7 @@ export default class VehicleProfileEditor {
     this.profile.set(profile);
     this.shownUnits.set(this.units());
     this.basis = profileNumbersBasis(profile, this.shownUnits());
-    this.form.setValue(toVehicleFormValue(profile, this.shownUnits()));
+    this.fill(toVehicleFormValue(profile, this.shownUnits()));
     this.form.markAsPristine();
     this.form.markAsUntouched();
   }
@@ -243,8 +290,38 @@ export default class VehicleProfileEditor {
     const from = this.shownUnits();
     if (system === from) return;
     this.basis = switchUnits(this.numbers.getRawValue(), from, system, this.basis);
+    const rows = this.form.controls.copPoints.getRawValue().map((point) => ({
+      ambient: point.ambient === null ? null : toShownTemperature(toCelsius(point.ambient, from), system),
+      cop: point.cop,
+    }));
     this.shownUnits.set(system);
     this.numbers.setValue(this.basis.shown);
+    this.setCopRows(rows);
+  }
+
+  /** Puts a form value in place, with as many COP rows as it has. */
+  private fill(value: VehicleFormValue): void {
+    this.setCopRows(value.copPoints, false);
+    this.form.setValue(value);
+    this.applyClimateState();
+  }
+
+  private setCopRows(points: readonly CopPoint[], emit = true): void {
+    const rows = this.form.controls.copPoints;
+    rows.clear({ emitEvent: false });
+    for (const point of points) rows.push(copRow(point), { emitEvent: false });
+    if (emit) rows.updateValueAndValidity();
+  }
+
+  private applyClimateState(): void {
+    const on = this.canEdit() && this.form.controls.climateEnabled.value;
+    for (const field of VEHICLE_FIELDS.filter(isClimateField)) {
+      const control = this.control(field);
+      if (on && control.disabled) control.enable({ emitEvent: false });
+      else if (!on && control.enabled) control.disable({ emitEvent: false });
+    }
+    if (on) this.form.controls.copPoints.enable({ emitEvent: false });
+    else this.form.controls.copPoints.disable({ emitEvent: false });
   }
 
   private async loadCapability(id: string, load: LoadCase): Promise<void> {
@@ -260,4 +337,8 @@ export default class VehicleProfileEditor {
 
 function rangeValidator(field: VehicleField, system: () => UnitSystem) {
   return (control: { value: number | null }) => (fieldMessage(field, control.value, system()) ? { range: true } : null);
+}
+
+function copRow(point: CopPoint): CopRow {
+  return new FormGroup({ ambient: new FormControl<number | null>(point.ambient), cop: new FormControl<number | null>(point.cop) });
 }
