@@ -63,6 +63,22 @@ export default tseslint.config(
     },
   },
   {
+    // What the browser loads: `import { z } from 'zod'` hands the bundler zod's whole namespace
+    // as one value, and with it every locale's error messages (about 260 kB of script, 45 kB on
+    // the wire, on every first visit). `import * as z from 'zod'` lets it keep only what is used.
+    files: ['web/**/*.ts', 'shared/**/*.ts'],
+    rules: {
+      'no-restricted-syntax': [
+        'error',
+        {
+          selector:
+            "ImportDeclaration[source.value='zod'][importKind!='type'] > :matches(ImportSpecifier[imported.name=/^(z|default|locales)$/][importKind!='type'], ImportDefaultSpecifier)",
+          message: "Write `import * as z from 'zod'`: importing the namespace as a value bundles every zod locale into the web app.",
+        },
+      ],
+    },
+  },
+  {
     files: ['web/**/*.html'],
     extends: [...angular.configs.templateRecommended, ...angular.configs.templateAccessibility],
   },

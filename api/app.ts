@@ -8,6 +8,7 @@ import type { AppDeps } from './app-deps';
 import { authenticate } from './auth/authenticate';
 import { requireSameOrigin } from './auth/same-origin';
 import { allEndpoints } from './endpoints';
+import { answerCacheFor } from './http/answer-cache';
 import { mountEndpoint } from './http/endpoint';
 import { HeavyRequestLimiter } from './http/heavy-requests';
 import { WebIndex, cspNonce, securityHeaders } from './http/security-headers';
@@ -44,6 +45,10 @@ export function createApp(givenDeps: AppDeps): Express {
   // Only /api passes through JSON and cookie parsing, the origin check, the session lookup and
   // no-store: the web app's files are served beside it (webApp) without any of that.
   const api = Router();
+  // Every write empties the cache of list answers, in this process at once and in the others
+  // through the database's announcements (api/http/answer-cache.ts).
+  const answerCache = answerCacheFor(deps.db);
+  api.use(answerCache.trackWrites());
   // Answers above 1 KiB (the middleware's default) are compressed when the client accepts it;
   // images and other compressed formats are left alone (compressible types only). The fastest
   // levels: on the fly, CPU time matters more than the last few per cent (a 20 km preview's
@@ -67,7 +72,7 @@ export function createApp(givenDeps: AppDeps): Express {
     res.json(openApiDocument);
   });
   const heavyRequests = new HeavyRequestLimiter(deps.config.HEAVY_REQUESTS_PER_PERSON);
-  for (const definition of endpoints) mountEndpoint(api, definition, { heavyRequests, mountedAt: API_PREFIX });
+  for (const definition of endpoints) mountEndpoint(api, definition, { heavyRequests, answerCache, mountedAt: API_PREFIX });
   api.use(apiNotFound);
   app.use(API_PREFIX, api);
 

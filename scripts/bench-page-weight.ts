@@ -12,6 +12,9 @@
  * requests count everything the page asked for, those answered from the browser cache included;
  * LCP is the largest contentful paint the page reports. `runs` (default 3) of each; the table
  * gives the range. Loopback, so the figures are the server's and the browser's, not a network's.
+ *
+ * BENCH_FILES=1 also prints, for each page's first first visit, every file it transferred with
+ * its size on the wire, largest first: where the bytes go.
  */
 import { mkdtempSync, rmSync } from 'node:fs';
 import { cpus, loadavg, tmpdir } from 'node:os';
@@ -21,6 +24,7 @@ import { DEMO_PASSWORD, DEMO_PEOPLE } from '../api/demo/demo-people';
 import { loadDemo, startScratchInstance } from './scratch-instance';
 
 const RUNS = Number(process.argv[2] ?? 3);
+const LIST_FILES = process.env['BENCH_FILES'] === '1';
 const CHROMIUM_ARGS = [
   '--no-sandbox',
   '--disable-gpu',
@@ -40,6 +44,8 @@ interface Visit {
   requests: number;
   fromCache: number;
   lcpMs: number;
+  /** Bytes on the wire per path (query left out), for BENCH_FILES. */
+  files: Map<string, number>;
 }
 
 const instance = await startScratchInstance('descentry_bench_pages', { WEB_DIR: resolve('dist/web/browser') });
@@ -76,6 +82,7 @@ try {
           await context.addCookies([{ name, value, url: instance.baseUrl, httpOnly: true, sameSite: 'Strict' }]);
         }
         first.push(await visit(context, `${instance.baseUrl}${page.path}`));
+        if (LIST_FILES && run === 0) printFiles(page.name, first[0]!.files);
         repeat.push(await visit(context, `${instance.baseUrl}${page.path}`));
       } finally {
         await context.close();
@@ -134,7 +141,11 @@ async function visit(context: BrowserContext, url: string): Promise<Visit> {
   await cdp.send('Network.setCacheDisabled', { cacheDisabled: false });
   const totals = { bytes: 0, appBytes: 0, apiBytes: 0, tileBytes: 0, requests: 0, fromCache: 0 };
   const urls = new Map<string, string>();
+  const files = new Map<string, number>();
+  const inFlight = new Set<string>();
+  cdp.on('Network.loadingFailed', (event: { requestId: string }) => inFlight.delete(event.requestId));
   cdp.on('Network.requestWillBeSent', (event: { requestId: string; request: { url: string } }) => {
+    inFlight.add(event.requestId);
     totals.requests += 1;
     urls.set(event.requestId, new URL(event.request.url).pathname);
   });
@@ -143,13 +154,24 @@ async function visit(context: BrowserContext, url: string): Promise<Visit> {
     if (event.response.fromDiskCache) totals.fromCache += 1;
   });
   cdp.on('Network.loadingFinished', (event: { requestId: string; encodedDataLength: number }) => {
+    inFlight.delete(event.requestId);
     const path = urls.get(event.requestId) ?? '';
     totals.bytes += event.encodedDataLength;
+    files.set(path, (files.get(path) ?? 0) + event.encodedDataLength);
     if (path.startsWith('/api/tiles/')) totals.tileBytes += event.encodedDataLength;
     else if (path.startsWith('/api/')) totals.apiBytes += event.encodedDataLength;
     else totals.appBytes += event.encodedDataLength;
   });
   await page.goto(url, { waitUntil: 'networkidle' });
+  // The map and the result's charts are deferred: they load right after the first paint. The
+  // visit counts them, and what they fetch (tiles), so wait until they have replaced their
+  // placeholders and the network has been quiet for half a second. (A deferred part below the
+  // fold, such as the route editor's profile chart at this window size, loads only when scrolled
+  // to, and is not counted.)
+  await page
+    .waitForFunction(() => !document.querySelector('.map-placeholder, .charts-placeholder'), undefined, { timeout: 15_000 })
+    .catch(() => undefined);
+  await quiet(() => inFlight.size, 500);
   const lcpMs = await page.evaluate(
     () =>
       new Promise<number>((done) => {
@@ -161,7 +183,25 @@ async function visit(context: BrowserContext, url: string): Promise<Visit> {
       }),
   );
   await page.close();
-  return { ...totals, lcpMs };
+  return { ...totals, lcpMs, files };
+}
+
+/** Resolves once nothing has been in flight for `quietMs` (at most 15 s). */
+async function quiet(inFlight: () => number, quietMs: number): Promise<void> {
+  const end = Date.now() + 15_000;
+  let quietSince = Date.now();
+  while (Date.now() < end) {
+    if (inFlight() > 0) quietSince = Date.now();
+    else if (Date.now() - quietSince >= quietMs) return;
+    await new Promise((resolve) => setTimeout(resolve, 50));
+  }
+}
+
+function printFiles(pageName: string, files: Map<string, number>): void {
+  const sorted = [...files].sort((a, b) => b[1] - a[1]);
+  const total = sorted.reduce((sum, [, bytes]) => sum + bytes, 0);
+  console.log(`\n${pageName}, first visit: ${(total / 1024).toFixed(1)} kB in ${sorted.length} files`);
+  for (const [path, bytes] of sorted) console.log(`  ${(bytes / 1024).toFixed(1).padStart(7)} kB  ${path}`);
 }
 
 async function signIn(baseUrl: string, email: string): Promise<string> {

@@ -49,6 +49,12 @@ export interface Endpoint<TBody = unknown, TQuery = unknown, TParams = unknown> 
    * person may have only a few such requests in flight at once (HEAVY_REQUESTS_PER_PERSON).
    */
   heavy?: boolean;
+  /**
+   * The answer may be kept in the process's answer cache (api/http/answer-cache.ts) until a write
+   * anywhere changes the data: only for reads whose answer depends on nothing but the address and
+   * the caller's role (the busy lists).
+   */
+  cachedAnswer?: boolean;
   handler: (input: EndpointInput<TBody, TQuery, TParams>) => Promise<void> | void;
 }
 
@@ -68,6 +74,8 @@ export interface MountOptions {
   heavyRequests?: { middleware(): RequestHandler };
   /** The path the router is mounted at (e.g. `/api`): cut from the endpoint's documented path. */
   mountedAt?: string;
+  /** Answers endpoints marked `cachedAnswer` from memory while nothing has changed. */
+  answerCache?: { serve(): RequestHandler };
 }
 
 export function mountEndpoint(router: Router, definition: AnyEndpoint, options: MountOptions = {}): void {
@@ -88,6 +96,7 @@ export function mountEndpoint(router: Router, definition: AnyEndpoint, options: 
     definition.path.slice(prefix.length),
     requireRole(definition.access),
     ...(definition.heavy && options.heavyRequests ? [options.heavyRequests.middleware()] : []),
+    ...(definition.cachedAnswer && definition.method === 'get' && options.answerCache ? [options.answerCache.serve()] : []),
     ...(definition.middleware ?? []),
     handler,
   );

@@ -47,6 +47,7 @@ export function roadRouteEndpoints(deps: AppDeps) {
       tag: TAG,
       access: 'signed-in',
       query: routeListQuerySchema,
+      cachedAnswer: true,
       responses: { 200: { description: 'Routes', schema: roadRoutePageSchema } },
       handler: async ({ query, res }) => {
         const { items, total } = await repository.listRoutes(deps.db, query);

@@ -34,6 +34,7 @@ export function scenarioEndpoints(deps: AppDeps) {
       tag: TAG,
       access: 'signed-in',
       query: scenarioListQuerySchema,
+      cachedAnswer: true,
       responses: { 200: { description: 'Scenarios', schema: scenarioListSchema } },
       handler: async ({ query, res }) => {
         res.json({ items: (await repository.listScenarios(deps.db, query)).map(repository.toScenario) });

@@ -24,6 +24,7 @@ export function vehicleProfileEndpoints(deps: AppDeps) {
       tag: TAG,
       access: 'signed-in',
       responses: { 200: { description: 'Profiles, presets first', schema: vehicleProfileListSchema } },
+      cachedAnswer: true,
       handler: async ({ res }) => {
         res.json({ items: (await repository.listProfiles(deps.db)).map(repository.toVehicleProfile) });
       },

@@ -372,8 +372,9 @@ export type ProfileSubset = z.infer<typeof profileSubsetSchema>;
 /**
  * Query options of the endpoints that answer a per-point profile (preview, scenario result):
  * `profileStepM` keeps about one point per that many metres (each step's first, hottest and
- * fastest points, and the last point); `series` keeps only the named series (comma-separated).
- * Without them the answer is the full profile, as before.
+ * fastest points, and the last point, each value rounded to the CSV export's precision);
+ * `series` keeps only the named series (comma-separated). Without them the answer is the full
+ * profile, as before.
  */
 export const profileViewQuerySchema = z.object({
   profileStepM: z.coerce
@@ -381,7 +382,10 @@ export const profileViewQuerySchema = z.object({
     .min(1, 'profileStepM must be at least 1 m')
     .max(10_000, 'profileStepM must be at most 10 000 m')
     .optional()
-    .meta({ description: 'Keep about one point per this many metres (1–10 000); the hottest and fastest point of each step stay in' }),
+    .meta({
+      description:
+        'Keep about one point per this many metres (1–10 000); the hottest and fastest point of each step stay in; values are rounded to the precision of the CSV export',
+    }),
   series: z
     .string()
     .transform((text) =>

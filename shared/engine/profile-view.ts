@@ -1,4 +1,5 @@
 import type { Profile, ProfileSeries, ProfileSubset, ProfileView } from '../domain/analysis';
+import { PROFILE_SERIES } from './profile-series';
 
 /**
  * The per-point profile as a client asked for it: a chart a few hundred pixels wide needs
@@ -6,8 +7,12 @@ import type { Profile, ProfileSeries, ProfileSubset, ProfileView } from '../doma
  * distance, the step's first point and its hottest (brake temperature, both models) and fastest
  * points, plus the route's last point, so no peak a chart or a reader looks for disappears from
  * the thinned line (a plain "every n-th point" would cut the tops off short temperature peaks).
- * The summary and the descents are computed on the full profile and are never affected.
- * Without options the profile is returned as it is.
+ * A thinned profile is for drawing, so its values are also rounded to the precision the CSV
+ * export gives each series (in SI units: 0.01 m of elevation, 1 W, 0.001 m/s, 1e-7° of longitude;
+ * forces the CSV leaves out to 4 significant digits), far below a pixel of any chart, which makes
+ * the answer about half as long. The summary and the descents are computed on the full profile
+ * and are never affected. Without options the profile is returned as it is; with only `series`,
+ * the values are not rounded.
  */
 export function viewProfile(profile: Profile, view: ProfileView): ProfileSubset {
   if (view.profileStepM === undefined && view.series === undefined) return profile;
@@ -17,7 +22,8 @@ export function viewProfile(profile: Profile, view: ProfileView): ProfileSubset 
   const subset: Partial<Profile> = {};
   for (const name of names) {
     const values = profile[name];
-    subset[name] = kept ? kept.map((index) => values[index]!) : values;
+    const round = ROUNDING.get(name)!;
+    subset[name] = kept ? kept.map((index) => round(values[index]!)) : values;
   }
   return subset as ProfileSubset;
 }
@@ -48,3 +54,14 @@ function argMax(values: number[], from: number, to: number): number {
   for (let i = from + 1; i < to; i++) if (values[i]! > values[best]!) best = i;
   return best;
 }
+
+/** How a thinned profile rounds each series: to the CSV export's decimals, converted to SI. */
+const ROUNDING = new Map<string, (value: number) => number>(
+  PROFILE_SERIES.map((series) => {
+    if (!series.csv) return [series.name, (value: number) => Number(value.toPrecision(4))];
+    // CSV decimals in the CSV's unit, as decimals of the SI value (km/h → m/s, kW → W, % → 1).
+    const decimals = Math.max(0, series.csv.decimals + Math.ceil(Math.log10(series.csv.toCsv(1))));
+    const scale = 10 ** decimals;
+    return [series.name, (value: number) => Math.round(value * scale) / scale];
+  }),
+);

@@ -58,4 +58,28 @@ describe('viewProfile', () => {
 
     expect(view).toEqual({ distanceM: [], speedMps: [] });
   });
+
+  it('rounds a thinned profile to the precision of the CSV export in SI units, and leaves an unthinned one exact', () => {
+    const profile = aProfile(3, 1);
+    profile.lat = [46.123456789, 46.12345678, 46.1234567];
+    profile.elevationM = [1234.56789, 1000.004, 999.995];
+    profile.speedMps = [13.88888, 0.0004, 2];
+    profile.batteryPowerW = [-123456.7, 0.4, 99.5];
+    profile.soc = [0.876543219, 0.5, 0.1];
+    profile.rollingN = [1234.5678, 0.0012346, 98765];
+
+    const thinned = viewProfile(profile, { profileStepM: 1 });
+    const named = viewProfile(profile, { series: ['lat', 'elevationM'] });
+
+    // lat/lon 7 decimals (about 1 cm), elevation 0.01 m, speed 0.01 km/h ≈ 0.003 m/s, power 0.001 kW = 1 W,
+    // SOC 0.001 % = 1e-5; forces (not in the CSV) 4 significant digits.
+    expect(thinned.lat).toEqual([46.1234568, 46.1234568, 46.1234567]);
+    expect(thinned.elevationM).toEqual([1234.57, 1000, 1000]);
+    expect(thinned.speedMps).toEqual([13.889, 0, 2]);
+    expect(thinned.batteryPowerW).toEqual([-123457, 0, 100]);
+    expect(thinned.soc).toEqual([0.87654, 0.5, 0.1]);
+    expect(thinned.rollingN).toEqual([1235, 0.001235, 98770]);
+    expect(named.lat).toBe(profile.lat);
+    expect(named.elevationM).toBe(profile.elevationM);
+  });
 });

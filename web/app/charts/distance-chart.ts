@@ -2,6 +2,7 @@ import { ChangeDetectionStrategy, Component, computed, effect, input, output, un
 import type { ChartConfiguration, ChartDataset, Plugin, ScriptableLineSegmentContext } from 'chart.js';
 import { BaseChartDirective, provideCharts } from 'ng2-charts';
 import { CHART_PARTS } from './chart-parts';
+import { withAlpha } from './chart-colour';
 
 /** One line on a chart along the route; x values in the displayed distance unit. */
 export interface ChartSeries {
@@ -244,14 +245,6 @@ function toDataset(line: ChartSeries): ChartDataset<'line'> {
       ? { backgroundColor: (ctx: ScriptableLineSegmentContext) => fills[ctx.p0DataIndex] ?? 'transparent' }
       : undefined,
   };
-}
-
-/** `#rrggbb` → `rgba(r, g, b, alpha)`. */
-export function withAlpha(hexColor: string, alpha: number): string {
-  const match = /^#([0-9a-f]{2})([0-9a-f]{2})([0-9a-f]{2})$/i.exec(hexColor);
-  if (!match) return hexColor;
-  const [r, g, b] = match.slice(1).map((part) => Number.parseInt(part, 16));
-  return `rgba(${r}, ${g}, ${b}, ${alpha})`;
 }
 
 function formatTick(value: number): string {

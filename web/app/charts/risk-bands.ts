@@ -1,6 +1,7 @@
 import { BRAKE_RISK_BANDS_C } from '@shared/engine/descents';
 import { RISK_STYLES, toDisplay, type UnitSystem } from '@shared/presentation/index';
-import { withAlpha, type ChartBand } from './distance-chart';
+import { withAlpha } from './chart-colour';
+import type { ChartBand } from './distance-chart';
 
 /**
  * Shaded brake-temperature risk bands for a temperature chart, in the shared risk colours. The

@@ -138,7 +138,9 @@ export default class RouteEditor {
   protected readonly canRedo = this.store.canRedo;
   protected readonly tool = signal<EditorTool>('draw');
   protected readonly selectedVertex = signal<number | null>(null);
-  private readonly terrainMap = viewChild(TerrainMap);
+  // By template reference, not by class: the map is deferred (@defer), so its class must not be
+  // needed before it loads.
+  private readonly terrainMap = viewChild<TerrainMap>('terrainMap');
   /** Whether new and moved vertices follow the roads (on by default wherever there are roads). */
   protected readonly snapToNetwork = signal(true);
   private readonly basemap = inject(BasemapTilesVersion);

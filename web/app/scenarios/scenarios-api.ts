@@ -12,7 +12,7 @@ import {
   type ScenarioDraftInput,
 } from '@shared/domain/scenarios';
 import { firstValueFrom } from 'rxjs';
-import { z } from 'zod';
+import * as z from 'zod';
 import { ERRORS_SHOWN_INLINE } from '../core/api-error-message';
 
 export type ScenarioExportKind = 'csv' | 'geojson' | 'pdf';

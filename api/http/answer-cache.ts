@@ -1,0 +1,261 @@
+import { randomUUID } from 'node:crypto';
+import { brotliCompressSync, constants as zlibConstants, gzipSync } from 'node:zlib';
+import type { Request, RequestHandler, Response } from 'express';
+import type { Sql } from 'postgres';
+import type { User } from '@shared/domain/auth';
+import type { Database } from '../db/client';
+
+/**
+ * PostgreSQL channel on which the database announces, at commit, every statement that changed one
+ * of the application's tables (statement-level triggers, migration 0019): the table's name.
+ * Heartbeats of the processes use it too (`p:<process>:<sequence>`).
+ */
+export const DATA_CHANGES_CHANNEL = 'descentry_data_changes';
+
+/**
+ * Tables whose changes no cached answer depends on, so they carry no announcing trigger: sign-in
+ * bookkeeping, the append-only audit trail and the mail queue change on nearly every request and
+ * would empty the cache for nothing. (Sessions and accounts have their own channel, for the
+ * session cache.) spec/api/http/answer-cache.spec.ts fails when any other table lacks the trigger.
+ */
+export const UNANNOUNCED_TABLES = ['sessions', 'attempt_throttles', 'audit_log', 'mail_outbox', 'captured_mail'] as const;
+
+/** The longest an answer is served from memory, ms, even when nothing announced a change. */
+const ENTRY_TTL_MS = 60_000;
+/** How often each process checks its own announcement line, ms. */
+const HEARTBEAT_MS = 1_000;
+/**
+ * Answers are served from memory only while this process heard its own heartbeat sent within this
+ * window, ms: PostgreSQL delivers notifications in commit order, so a heard heartbeat sent at T
+ * proves that every change committed before T has been heard (and the cache emptied) too.
+ */
+const TRUST_WINDOW_MS = 3 * HEARTBEAT_MS;
+/** Answers kept at most; the oldest are dropped first. */
+const MAX_ENTRIES = 500;
+/** Answers below this many bytes go out uncompressed (as the API's compression middleware does). */
+const COMPRESS_FROM_BYTES = 1024;
+
+interface Entry {
+  json: Buffer;
+  gzip?: Buffer;
+  br?: Buffer;
+  storedAtMs: number;
+}
+
+/**
+ * Whole answers of the busiest read endpoints (the lists: routes, scenarios, vehicle profiles),
+ * kept in memory as JSON and compressed once, so a repeated read costs no query, no row mapping,
+ * no serialisation and no compression. Authorization is untouched: an answer is looked up only
+ * after `requireRole` let the caller in, and it is keyed by the caller's role and the full
+ * address (path and query), so two callers share an answer only when they would be given the
+ * same one. (Mark only endpoints whose answer depends on nothing else, `cachedAnswer: true`.)
+ *
+ * A change is seen on the very next read:
+ * - in this process, every API write (any method but GET, HEAD, OPTIONS) empties the cache when it
+ *   starts and again when its answer is done, and nothing read while a write is in flight, or
+ *   begun before a change was heard, is stored;
+ * - from any process or from the database itself (a job, a script, a hand-written query), the
+ *   tables' triggers announce the change on DATA_CHANGES_CHANNEL at commit and every listening
+ *   process empties its cache on hearing it; the cache answers only while that line is proven
+ *   alive (TRUST_WINDOW_MS), otherwise every request is answered from the database.
+ */
+export class AnswerCache {
+  private readonly entries = new Map<string, Entry>();
+  private generationCounter = 0;
+  private writesInFlight = 0;
+  private readonly processTag = randomUUID().slice(0, 8);
+  private sequence = 0;
+  private readonly sentAtMs = new Map<number, number>();
+  private confirmedUpToMs = -Infinity;
+  private listening: Promise<void> | null = null;
+  private unlisten: (() => Promise<void>) | null = null;
+  private timer: NodeJS.Timeout | null = null;
+  private stopped = false;
+  /** Counters for the tests and the benchmark. */
+  readonly stats = { hits: 0, misses: 0, stored: 0, emptied: 0 };
+
+  constructor(private readonly sql: Sql) {}
+
+  start(): void {
+    if (this.stopped || this.timer) return;
+    this.listen();
+    this.timer = setInterval(() => this.beat(), HEARTBEAT_MS);
+    this.timer.unref();
+    this.beat();
+  }
+
+  stop(): void {
+    this.stopped = true;
+    if (this.timer) clearInterval(this.timer);
+    this.timer = null;
+    this.entries.clear();
+    void this.unlisten?.().catch(() => undefined);
+  }
+
+  /** Whether answers may be served from memory now (the announcement line is proven alive). */
+  get trusted(): boolean {
+    return !this.stopped && Date.now() - this.confirmedUpToMs <= TRUST_WINDOW_MS;
+  }
+
+  get size(): number {
+    return this.entries.size;
+  }
+
+  /** Forgets every answer: something they may depend on changed. */
+  empty(): void {
+    this.generationCounter += 1;
+    if (this.entries.size > 0) this.stats.emptied += 1;
+    this.entries.clear();
+  }
+
+  /**
+   * Middleware for the whole API router, before anything else: a write empties the cache when it
+   * starts and when it ends, and holds storing off while it runs.
+   */
+  trackWrites(): RequestHandler {
+    return (req, res, next) => {
+      if (req.method === 'GET' || req.method === 'HEAD' || req.method === 'OPTIONS') return next();
+      this.writesInFlight += 1;
+      this.empty();
+      res.once('close', () => {
+        this.writesInFlight -= 1;
+        this.empty();
+      });
+      next();
+    };
+  }
+
+  /**
+   * Middleware for one endpoint, after its access check: answers from memory when it can;
+   * otherwise lets the handler run and keeps what it sends with `res.json` and status 200.
+   */
+  serve(): RequestHandler {
+    return (req, res, next) => {
+      const user = res.locals['user'] as User | undefined;
+      const key = `${user?.role ?? 'public'} ${req.originalUrl}`;
+      const entry = this.lookup(key);
+      if (entry) {
+        this.stats.hits += 1;
+        send(req, res, entry);
+        return;
+      }
+      this.stats.misses += 1;
+      const generation = this.generationCounter;
+      const json = res.json.bind(res);
+      res.json = (body: unknown) => {
+        if (res.statusCode !== 200) return json(body);
+        const fresh: Entry = { json: Buffer.from(JSON.stringify(body) ?? 'null'), storedAtMs: Date.now() };
+        this.store(key, fresh, generation);
+        send(req, res, fresh);
+        return res;
+      };
+      next();
+    };
+  }
+
+  private lookup(key: string): Entry | undefined {
+    const entry = this.entries.get(key);
+    if (!entry) return undefined;
+    if (!this.trusted || Date.now() - entry.storedAtMs > ENTRY_TTL_MS) {
+      this.entries.delete(key);
+      return undefined;
+    }
+    return entry;
+  }
+
+  private store(key: string, entry: Entry, generationAtRead: number): void {
+    if (!this.trusted || this.writesInFlight > 0 || generationAtRead !== this.generationCounter) return;
+    if (this.entries.size >= MAX_ENTRIES) this.entries.delete(this.entries.keys().next().value!);
+    this.entries.set(key, entry);
+    this.stats.stored += 1;
+  }
+
+  private listen(): void {
+    if (this.listening || this.stopped) return;
+    this.listening = this.sql
+      .listen(
+        DATA_CHANGES_CHANNEL,
+        (payload) => this.heard(payload),
+        // (Re)connected: whatever was announced while the line was down is unknown.
+        () => this.empty(),
+      )
+      .then(
+        (handle) => {
+          this.unlisten = handle.unlisten;
+          if (this.stopped) void handle.unlisten().catch(() => undefined);
+        },
+        () => {
+          this.listening = null;
+        },
+      );
+  }
+
+  private heard(payload: string): void {
+    const [kind, tag, sequence] = payload.split(':');
+    if (kind !== 'p') {
+      this.empty();
+      return;
+    }
+    if (tag !== this.processTag) return;
+    const sentAtMs = this.sentAtMs.get(Number(sequence));
+    if (sentAtMs !== undefined) this.confirmedUpToMs = Math.max(this.confirmedUpToMs, sentAtMs);
+    for (const key of this.sentAtMs.keys()) if (key <= Number(sequence)) this.sentAtMs.delete(key);
+  }
+
+  private beat(): void {
+    if (this.stopped) return;
+    // A heartbeat long unheard: the driver may have given up re-listening after an outage.
+    if (Date.now() - this.confirmedUpToMs > 5 * TRUST_WINDOW_MS && this.listening) {
+      const unlisten = this.unlisten;
+      this.listening = null;
+      this.unlisten = null;
+      void unlisten?.().catch(() => undefined);
+    }
+    this.listen();
+    const sequence = ++this.sequence;
+    this.sentAtMs.set(sequence, Date.now());
+    if (this.sentAtMs.size > 100) this.sentAtMs.delete(this.sentAtMs.keys().next().value!);
+    this.sql.notify(DATA_CHANGES_CHANNEL, `p:${this.processTag}:${sequence}`).catch((error: unknown) => {
+      if ((error as { code?: string }).code === 'CONNECTION_ENDED') this.stop();
+    });
+  }
+}
+
+/** Sends a kept answer, compressed as the client accepts (each encoding made once, when first asked for). */
+function send(req: Request, res: Response, entry: Entry): void {
+  let body = entry.json;
+  let encoding: 'br' | 'gzip' | undefined;
+  if (entry.json.length >= COMPRESS_FROM_BYTES) {
+    const accepted = req.acceptsEncodings('br', 'gzip', 'identity');
+    if (accepted === 'br') {
+      entry.br ??= brotliCompressSync(entry.json, {
+        params: { [zlibConstants.BROTLI_PARAM_QUALITY]: 5, [zlibConstants.BROTLI_PARAM_SIZE_HINT]: entry.json.length },
+      });
+      body = entry.br;
+      encoding = 'br';
+    } else if (accepted === 'gzip') {
+      entry.gzip ??= gzipSync(entry.json, { level: 6 });
+      body = entry.gzip;
+      encoding = 'gzip';
+    }
+    res.vary('Accept-Encoding');
+  }
+  res.status(200);
+  res.setHeader('Content-Type', 'application/json; charset=utf-8');
+  if (encoding) res.setHeader('Content-Encoding', encoding);
+  res.setHeader('Content-Length', body.length);
+  res.end(body);
+}
+
+const caches = new WeakMap<Database, AnswerCache>();
+
+/** The one answer cache of a database handle (each API process has one handle). */
+export function answerCacheFor(db: Database): AnswerCache {
+  let cache = caches.get(db);
+  if (!cache) {
+    cache = new AnswerCache(db.$client);
+    caches.set(db, cache);
+    cache.start();
+  }
+  return cache;
+}
