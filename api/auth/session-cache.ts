@@ -1,6 +1,6 @@
-import { randomUUID } from 'node:crypto';
 import type { Sql } from 'postgres';
 import type { Role } from '@shared/domain/roles';
+import { AnnouncementLine } from '../db/announcement-line';
 import type { Database } from '../db/client';
 
 /**
@@ -12,16 +12,6 @@ export const SESSION_CHANGES_CHANNEL = 'descentry_session_changes';
 
 /** The longest a looked-up session is answered from memory, ms, even when nothing announced a change. */
 const ENTRY_TTL_MS = 60_000;
-/** How often each process checks its own announcement line, ms. */
-const HEARTBEAT_MS = 1_000;
-/**
- * The cache is used only while this process heard its own heartbeat sent within this window, ms:
- * PostgreSQL delivers notifications to a listener in commit order, so hearing a heartbeat sent at
- * T proves that every change committed before T has been heard (and forgotten) too. A lost or
- * stuck listening connection therefore switches the cache off after at most this long, and every
- * request goes to the database again until the line is back.
- */
-const TRUST_WINDOW_MS = 3 * HEARTBEAT_MS;
 /** Entries kept at most; the oldest are dropped first. */
 const MAX_ENTRIES = 10_000;
 
@@ -43,46 +33,40 @@ interface Entry {
  * a disabled or deleted account change rows of `sessions` or `users`, and the database's triggers
  * announce each change on SESSION_CHANGES_CHANNEL to every API process at commit, which forgets
  * the session (or all of the account's) at once. The cache answers only while the announcement
- * line is proven alive (TRUST_WINDOW_MS); otherwise the caller asks the database.
+ * line is proven alive (TRUST_WINDOW_MS in api/db/announcement-line.ts); otherwise the caller asks the database.
  */
 export class SessionCache {
   private readonly entries = new Map<string, Entry>();
   /** Bumped by every forget: a lookup that started before a change must not be stored after it. */
   private generationCounter = 0;
-  private readonly processTag = randomUUID().slice(0, 8);
-  private sequence = 0;
-  private readonly sentAtMs = new Map<number, number>();
-  /** When the newest heartbeat this process heard had been sent (its own clock), ms. */
-  private confirmedUpToMs = -Infinity;
-  private listening: Promise<void> | null = null;
-  private unlisten: (() => Promise<void>) | null = null;
-  private timer: NodeJS.Timeout | null = null;
-  private stopped = false;
+  private readonly line: AnnouncementLine;
   /** Counters for the tests and the benchmark. */
   readonly stats = { hits: 0, misses: 0, forgotten: 0 };
 
-  constructor(private readonly sql: Sql) {}
+  constructor(sql: Sql) {
+    this.line = new AnnouncementLine(sql, SESSION_CHANGES_CHANNEL, {
+      changed: (payload) => this.heard(payload),
+      reconnected: () => this.forgetAll(),
+    });
+  }
 
   /** Starts listening and the heartbeat; safe to call more than once. */
   start(): void {
-    if (this.stopped || this.timer) return;
-    this.listen();
-    this.timer = setInterval(() => this.beat(), HEARTBEAT_MS);
-    this.timer.unref();
-    this.beat();
+    this.line.start();
   }
 
   stop(): void {
-    this.stopped = true;
-    if (this.timer) clearInterval(this.timer);
-    this.timer = null;
+    this.line.stop();
     this.entries.clear();
-    void this.unlisten?.().catch(() => undefined);
   }
 
-  /** Whether cached answers may be used right now (the announcement line is proven alive). */
+  /**
+   * Whether cached answers may be used right now: the announcement line is proven alive, so a
+   * lost or stuck listening connection switches the cache off and every request goes to the
+   * database again until the line is back (api/db/announcement-line.ts).
+   */
   get trusted(): boolean {
-    return !this.stopped && Date.now() - this.confirmedUpToMs <= TRUST_WINDOW_MS;
+    return this.line.trusted;
   }
 
   get generation(): number {
@@ -139,57 +123,11 @@ export class SessionCache {
     this.entries.clear();
   }
 
-  private listen(): void {
-    if (this.listening || this.stopped) return;
-    this.listening = this.sql
-      .listen(
-        SESSION_CHANGES_CHANNEL,
-        (payload) => this.heard(payload),
-        () => {
-          // (Re)connected: whatever was announced while the line was down is unknown.
-          this.forgetAll();
-        },
-      )
-      .then(
-        (handle) => {
-          this.unlisten = handle.unlisten;
-          if (this.stopped) void handle.unlisten().catch(() => undefined);
-        },
-        () => {
-          this.listening = null;
-        },
-      );
-  }
-
   private heard(payload: string): void {
-    const [kind, id, sequence] = payload.split(':');
+    const [kind, id] = payload.split(':');
     if (kind === 's' && id) this.forgetSession(id);
     else if (kind === 'u' && id) this.forgetUser(id);
-    else if (kind === 'p' && id === this.processTag) {
-      const sentAtMs = this.sentAtMs.get(Number(sequence));
-      if (sentAtMs !== undefined) this.confirmedUpToMs = Math.max(this.confirmedUpToMs, sentAtMs);
-      for (const key of this.sentAtMs.keys()) if (key <= Number(sequence)) this.sentAtMs.delete(key);
-    } else if (kind !== 'p') this.forgetAll();
-  }
-
-  private beat(): void {
-    if (this.stopped) return;
-    // A heartbeat long unheard: the driver may have given up re-listening after an outage, so
-    // listen again (the cache stays off meanwhile, see `trusted`).
-    if (Date.now() - this.confirmedUpToMs > 5 * TRUST_WINDOW_MS && this.listening) {
-      const unlisten = this.unlisten;
-      this.listening = null;
-      this.unlisten = null;
-      void unlisten?.().catch(() => undefined);
-    }
-    this.listen();
-    const sequence = ++this.sequence;
-    this.sentAtMs.set(sequence, Date.now());
-    if (this.sentAtMs.size > 100) this.sentAtMs.delete(this.sentAtMs.keys().next().value!);
-    this.sql.notify(SESSION_CHANGES_CHANNEL, `p:${this.processTag}:${sequence}`).catch((error: unknown) => {
-      // The pool was closed (the app is shutting down or a test ended): stop beating.
-      if ((error as { code?: string }).code === 'CONNECTION_ENDED') this.stop();
-    });
+    else this.forgetAll();
   }
 }
 

@@ -1,8 +1,8 @@
-import { randomUUID } from 'node:crypto';
 import { brotliCompressSync, constants as zlibConstants, gzipSync } from 'node:zlib';
 import type { Request, RequestHandler, Response } from 'express';
 import type { Sql } from 'postgres';
 import type { User } from '@shared/domain/auth';
+import { AnnouncementLine } from '../db/announcement-line';
 import type { Database } from '../db/client';
 
 /**
@@ -22,14 +22,6 @@ export const UNANNOUNCED_TABLES = ['sessions', 'attempt_throttles', 'audit_log',
 
 /** The longest an answer is served from memory, ms, even when nothing announced a change. */
 const ENTRY_TTL_MS = 60_000;
-/** How often each process checks its own announcement line, ms. */
-const HEARTBEAT_MS = 1_000;
-/**
- * Answers are served from memory only while this process heard its own heartbeat sent within this
- * window, ms: PostgreSQL delivers notifications in commit order, so a heard heartbeat sent at T
- * proves that every change committed before T has been heard (and the cache emptied) too.
- */
-const TRUST_WINDOW_MS = 3 * HEARTBEAT_MS;
 /** Answers kept at most; the oldest are dropped first. */
 const MAX_ENTRIES = 500;
 /** Answers below this many bytes go out uncompressed (as the API's compression middleware does). */
@@ -57,44 +49,33 @@ interface Entry {
  * - from any process or from the database itself (a job, a script, a hand-written query), the
  *   tables' triggers announce the change on DATA_CHANGES_CHANNEL at commit and every listening
  *   process empties its cache on hearing it; the cache answers only while that line is proven
- *   alive (TRUST_WINDOW_MS), otherwise every request is answered from the database.
+ *   alive (TRUST_WINDOW_MS in api/db/announcement-line.ts), otherwise every request is answered from the database.
  */
 export class AnswerCache {
   private readonly entries = new Map<string, Entry>();
   private generationCounter = 0;
   private writesInFlight = 0;
-  private readonly processTag = randomUUID().slice(0, 8);
-  private sequence = 0;
-  private readonly sentAtMs = new Map<number, number>();
-  private confirmedUpToMs = -Infinity;
-  private listening: Promise<void> | null = null;
-  private unlisten: (() => Promise<void>) | null = null;
-  private timer: NodeJS.Timeout | null = null;
-  private stopped = false;
+  private readonly line: AnnouncementLine;
   /** Counters for the tests and the benchmark. */
   readonly stats = { hits: 0, misses: 0, stored: 0, emptied: 0 };
 
-  constructor(private readonly sql: Sql) {}
+  constructor(sql: Sql) {
+    // Any announced change, and a (re)connection (what was announced meanwhile is unknown), empties it.
+    this.line = new AnnouncementLine(sql, DATA_CHANGES_CHANNEL, { changed: () => this.empty(), reconnected: () => this.empty() });
+  }
 
   start(): void {
-    if (this.stopped || this.timer) return;
-    this.listen();
-    this.timer = setInterval(() => this.beat(), HEARTBEAT_MS);
-    this.timer.unref();
-    this.beat();
+    this.line.start();
   }
 
   stop(): void {
-    this.stopped = true;
-    if (this.timer) clearInterval(this.timer);
-    this.timer = null;
+    this.line.stop();
     this.entries.clear();
-    void this.unlisten?.().catch(() => undefined);
   }
 
   /** Whether answers may be served from memory now (the announcement line is proven alive). */
   get trusted(): boolean {
-    return !this.stopped && Date.now() - this.confirmedUpToMs <= TRUST_WINDOW_MS;
+    return this.line.trusted;
   }
 
   get size(): number {
@@ -168,56 +149,6 @@ export class AnswerCache {
     if (this.entries.size >= MAX_ENTRIES) this.entries.delete(this.entries.keys().next().value!);
     this.entries.set(key, entry);
     this.stats.stored += 1;
-  }
-
-  private listen(): void {
-    if (this.listening || this.stopped) return;
-    this.listening = this.sql
-      .listen(
-        DATA_CHANGES_CHANNEL,
-        (payload) => this.heard(payload),
-        // (Re)connected: whatever was announced while the line was down is unknown.
-        () => this.empty(),
-      )
-      .then(
-        (handle) => {
-          this.unlisten = handle.unlisten;
-          if (this.stopped) void handle.unlisten().catch(() => undefined);
-        },
-        () => {
-          this.listening = null;
-        },
-      );
-  }
-
-  private heard(payload: string): void {
-    const [kind, tag, sequence] = payload.split(':');
-    if (kind !== 'p') {
-      this.empty();
-      return;
-    }
-    if (tag !== this.processTag) return;
-    const sentAtMs = this.sentAtMs.get(Number(sequence));
-    if (sentAtMs !== undefined) this.confirmedUpToMs = Math.max(this.confirmedUpToMs, sentAtMs);
-    for (const key of this.sentAtMs.keys()) if (key <= Number(sequence)) this.sentAtMs.delete(key);
-  }
-
-  private beat(): void {
-    if (this.stopped) return;
-    // A heartbeat long unheard: the driver may have given up re-listening after an outage.
-    if (Date.now() - this.confirmedUpToMs > 5 * TRUST_WINDOW_MS && this.listening) {
-      const unlisten = this.unlisten;
-      this.listening = null;
-      this.unlisten = null;
-      void unlisten?.().catch(() => undefined);
-    }
-    this.listen();
-    const sequence = ++this.sequence;
-    this.sentAtMs.set(sequence, Date.now());
-    if (this.sentAtMs.size > 100) this.sentAtMs.delete(this.sentAtMs.keys().next().value!);
-    this.sql.notify(DATA_CHANGES_CHANNEL, `p:${this.processTag}:${sequence}`).catch((error: unknown) => {
-      if ((error as { code?: string }).code === 'CONNECTION_ENDED') this.stop();
-    });
   }
 }
 
