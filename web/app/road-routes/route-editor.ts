@@ -325,8 +325,11 @@ export default class RouteEditor {
       return;
     }
     this.store.enqueue(() => {
-      if (kind === 'route' || kind === 'vertex') this.placeOnLine(event.at, tool);
-      else if (kind === 'mid') this.edit((state) => insertVertex(state, index, segmentMidpoints(state.vertices)[index]!));
+      // A midpoint handle inserts a vertex only with the draw tool. The handles are drawn for that
+      // tool alone, but a click can reach one still on screen right after another tool was chosen:
+      // then it is a click on the line like any other.
+      if (kind === 'mid' && tool === 'draw') this.edit((state) => insertVertex(state, index, segmentMidpoints(state.vertices)[index]!));
+      else if (kind === 'route' || kind === 'vertex' || kind === 'mid') this.placeOnLine(event.at, tool);
     });
   }
 
