@@ -1,6 +1,7 @@
 import type { User } from '@shared/domain/auth';
 import type { RoadRoute, RoadRouteDraft } from '@shared/domain/road-routes';
 import type { Database, Executor } from '../db/client';
+import { isUniqueViolation } from '../db/errors';
 import { BadRequestError, ConflictError, NotFoundError } from '../http/http-error';
 import { recordAudit } from '../audit/audit-log';
 import * as repository from './road-routes-repository';
@@ -150,23 +151,38 @@ export async function deleteRoute(db: Database, actor: Author, routeId: string):
 
 /** Brings a deleted route back as it was. */
 export async function restoreRoute(db: Database, actor: Author, routeId: string): Promise<RoadRoute> {
-  await db.transaction(async (tx) => {
-    const route = await repository.lockRoute(tx, routeId, true);
-    if (!route?.deletedAt) throw new NotFoundError('A deleted route with that id');
-    const current = await repository.findVersion(tx, routeId, route.currentVersion);
-    if (route.importSha256) {
-      // Its file was imported again while it was deleted: two live routes from one file would be a silent duplicate.
-      const copy = await repository.findRouteByImportSha256(tx, route.importSha256);
-      if (copy) {
-        throw new ConflictError(
-          `The route was imported again from the same file while it was deleted, as the route “${copy.name}”: open that route, or delete it first to restore this one`,
-          'already_imported',
-          { routeId: copy.id, routeName: copy.name },
-        );
+  let importSha256 = null as string | null;
+  try {
+    await db.transaction(async (tx) => {
+      const route = await repository.lockRoute(tx, routeId, true);
+      if (!route?.deletedAt) throw new NotFoundError('A deleted route with that id');
+      importSha256 = route.importSha256;
+      const current = await repository.findVersion(tx, routeId, route.currentVersion);
+      if (route.importSha256) {
+        // Its file was imported again while it was deleted: two live routes from one file would be a silent duplicate.
+        const copy = await repository.findRouteByImportSha256(tx, route.importSha256);
+        if (copy) throw importedAgain(copy);
       }
+      await repository.markRouteRestored(tx, routeId);
+      await recordAudit(tx, actor, { action: 'restore', kind: 'route', entityId: routeId, entityName: current?.name ?? routeId });
+    });
+  } catch (error) {
+    // The same file imported (or another copy restored) between the check above and the write:
+    // the partial unique index on import_sha256 refused the second live copy. Once that copy is
+    // committed it is visible, so the answer is the same 409 as without the race.
+    if (importSha256 && isUniqueViolation(error)) {
+      const copy = await repository.findRouteByImportSha256(db, importSha256);
+      if (copy) throw importedAgain(copy);
     }
-    await repository.markRouteRestored(tx, routeId);
-    await recordAudit(tx, actor, { action: 'restore', kind: 'route', entityId: routeId, entityName: current?.name ?? routeId });
-  });
+    throw error;
+  }
   return getRoute(db, routeId);
+}
+
+function importedAgain(copy: { id: string; name: string }): ConflictError {
+  return new ConflictError(
+    `The route was imported again from the same file while it was deleted, as the route “${copy.name}”: open that route, or delete it first to restore this one`,
+    'already_imported',
+    { routeId: copy.id, routeName: copy.name },
+  );
 }

@@ -8,6 +8,7 @@ import {
   type RouteImportResult,
 } from '@shared/domain/road-routes';
 import type { Database } from '../db/client';
+import { isUniqueViolation } from '../db/errors';
 import { BadRequestError, ConflictError } from '../http/http-error';
 import { findRouteByImportSha256 } from './road-routes-repository';
 import { gtfsToDrafts } from './gtfs-import';
@@ -55,9 +56,13 @@ export async function importRouteFile(
     const [route] = await createRoutes(db, author, [draft], { importSha256 });
     return { route: route!, elevationSource, fileHasElevations };
   } catch (error) {
-    // Expected when the same file is imported twice at the same moment: the unique hash decides.
-    const again = await findRouteByImportSha256(db, importSha256);
-    if (again) throw alreadyImported(fileName, again);
+    // The same file imported twice at the same moment, or a deleted route from it restored
+    // meanwhile: the partial unique index on the hash refused this copy, and the one it kept is
+    // committed and visible now.
+    if (isUniqueViolation(error)) {
+      const again = await findRouteByImportSha256(db, importSha256);
+      if (again) throw alreadyImported(fileName, again);
+    }
     throw error;
   }
 }

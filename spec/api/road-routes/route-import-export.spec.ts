@@ -1,4 +1,5 @@
 import JSZip from 'jszip';
+import type { TransactionSql } from 'postgres';
 import request from 'supertest';
 import { afterAll, beforeEach, describe, expect, it } from 'vitest';
 import { roadRouteSchema } from '@shared/domain/road-routes';
@@ -160,6 +161,43 @@ describe('GET /api/routes/:routeId/export and POST /api/routes/import', () => {
     expect(restore.status).toBe(200);
     expect(again.status).toBe(409);
     expect(again.body.error.details).toMatchObject({ routeId: first.body.route.id });
+  });
+
+  it('answers the restore that loses a race with a restored copy 409 naming that copy, and keeps one live route', async () => {
+    const first = await upload('/api/routes/import', aGpxTrack(), 'recorded.gpx');
+    await request(app).delete(`/api/routes/${first.body.route.id}`).set('Cookie', planner);
+    const copy = await upload('/api/routes/import', aGpxTrack(), 'recorded.gpx');
+    await request(app).delete(`/api/routes/${copy.body.route.id}`).set('Cookie', planner);
+
+    // The copy comes back in a transaction that commits only once the restore has passed its check
+    // and waits on the unique index: the write lands between the restore's check and its own.
+    const restore = await whileUncommitted(
+      (sql) => sql`UPDATE road_routes SET deleted_at = NULL, deleted_by_id = NULL, deleted_by_name = NULL WHERE id = ${copy.body.route.id}`,
+      () => request(app).post(`/api/routes/${first.body.route.id}/restore`).set('Cookie', planner),
+    );
+
+    expect(restore.status).toBe(409);
+    expect(restore.body.error).toMatchObject({
+      code: 'already_imported',
+      details: { routeId: copy.body.route.id, routeName: 'Recorded run' },
+    });
+    const list = await request(app).get('/api/routes').set('Cookie', planner);
+    expect(list.body.items.map((route: { id: string }) => route.id)).toEqual([copy.body.route.id]);
+  });
+
+  it('answers the import that loses a race with a restore 409 naming the restored route, and creates nothing', async () => {
+    const first = await upload('/api/routes/import', aGpxTrack(), 'recorded.gpx');
+    await request(app).delete(`/api/routes/${first.body.route.id}`).set('Cookie', planner);
+
+    const again = await whileUncommitted(
+      (sql) =>
+        sql`UPDATE road_routes SET deleted_at = NULL, deleted_by_id = NULL, deleted_by_name = NULL WHERE id = ${first.body.route.id}`,
+      () => upload('/api/routes/import', aGpxTrack(), 'recorded.gpx'),
+    );
+
+    expect(again.status).toBe(409);
+    expect(again.body.error).toMatchObject({ code: 'already_imported', details: { routeId: first.body.route.id } });
+    expect(await countRows(db, 'road_routes')).toBe(1);
   });
 
   it('imports a changed file again', async () => {
@@ -490,4 +528,28 @@ async function aGtfsFeed(overrides: Record<string, string | null> = {}): Promise
   const zip = new JSZip();
   for (const [name, text] of Object.entries(files)) if (text !== null) zip.file(name, text);
   return zip.generateAsync({ type: 'nodebuffer' });
+}
+
+/**
+ * Runs `write` in a transaction of its own, sends `send` and commits the write only once the
+ * request waits on a lock that transaction holds (so the request checked before the write
+ * committed and writes after it); answers the request's response.
+ */
+async function whileUncommitted(
+  write: (sql: TransactionSql) => Promise<unknown>,
+  send: () => PromiseLike<request.Response>,
+): Promise<request.Response> {
+  let response: Promise<request.Response> | undefined;
+  await db.$client.begin(async (sql) => {
+    await write(sql);
+    response = Promise.resolve(send());
+    for (let attempt = 0; ; attempt++) {
+      const [row] = await db.$client<{ waiting: number }[]>`
+        SELECT count(*)::int AS waiting FROM pg_stat_activity WHERE datname = current_database() AND wait_event_type = 'Lock'`;
+      if (row!.waiting > 0) break;
+      if (attempt > 500) throw new Error('the request never waited on the uncommitted write');
+      await new Promise((resolve) => setTimeout(resolve, 10));
+    }
+  });
+  return response!;
 }
