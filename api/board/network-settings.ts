@@ -112,6 +112,32 @@ export type NetworkSafetySettings = Pick<
   'worstCaseAmbientC' | 'fadeMarginK' | 'maxRoadGradePercent' | 'crawlSpeedKph' | 'crawlDistanceM'
 >;
 
+/** The safety settings in words, for the reasons a stored result is out of date. */
+const SAFETY_SETTING_WORDS: Readonly<Record<keyof NetworkSafetySettings, string>> = {
+  worstCaseAmbientC: 'worst-case ambient temperature',
+  fadeMarginK: 'fade margin',
+  maxRoadGradePercent: 'steepest road grade',
+  crawlSpeedKph: 'crawl speed',
+  crawlDistanceM: 'crawl distance',
+};
+
+/**
+ * Why a result computed with the safety settings `used` is out of date now, in plain words
+ * ("the network settings' fade margin changed after the run"), or undefined when none of them
+ * changed. A result stored before runs recorded their settings (`used` absent) is not marked.
+ */
+export function safetySettingsChangedReason(
+  used: Partial<Record<keyof NetworkSafetySettings, number>> | undefined,
+  now: NetworkSafetySettings,
+): string | undefined {
+  if (!used) return undefined;
+  const changed = (Object.keys(SAFETY_SETTING_WORDS) as (keyof NetworkSafetySettings)[]).filter(
+    (key) => used[key] !== undefined && used[key] !== now[key],
+  );
+  if (changed.length === 0) return undefined;
+  return `the network settings' ${changed.map((key) => SAFETY_SETTING_WORDS[key]).join(', ')} changed after the run`;
+}
+
 /** Puts the placeholders in place when no row exists (demo seed); never overwrites an admin's figures. */
 export async function ensureNetworkSettings(db: Executor): Promise<void> {
   await db

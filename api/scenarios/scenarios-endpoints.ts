@@ -16,7 +16,6 @@ import type { AppDeps } from '../app-deps';
 import { endpoint } from '../http/endpoint';
 import { sendAttachment } from '../http/attachment';
 import * as profiles from '../vehicle-profiles/vehicle-profiles-repository';
-import * as repository from './scenarios-repository';
 import { scenarioCsv, scenarioGeoJson } from './scenario-exports';
 import { scenarioReportPdf } from './scenario-report-pdf';
 import { cardDescentsOf, descentCardsPdf } from './descent-card-pdf';
@@ -37,7 +36,7 @@ export function scenarioEndpoints(deps: AppDeps) {
       cachedAnswer: true,
       responses: { 200: { description: 'Scenarios', schema: scenarioListSchema } },
       handler: async ({ query, res }) => {
-        res.json({ items: (await repository.listScenarios(deps.db, query)).map(repository.toScenario) });
+        res.json({ items: await service.listScenarios(deps.db, query) });
       },
     }),
     endpoint({

@@ -1,6 +1,7 @@
 import { and, asc, eq, getTableColumns, inArray, isNull, lt, sql, type SQL } from 'drizzle-orm';
 import type { Scenario, ScenarioListQuery } from '@shared/domain/scenarios';
 import { ENGINE_VERSION } from '@shared/engine/constants';
+import { safetySettingsChangedReason, type NetworkSafetySettings } from '../board/network-settings';
 import type { Executor } from '../db/client';
 import { roadRoutes, roadRouteVersions, scenarios, vehicleProfiles, type ScenarioRow } from '../db/schema/index';
 import { readStoredScenarioResult, type StoredScenarioResult } from '../results/stored-result';
@@ -173,8 +174,11 @@ export async function purgeScenario(db: Executor, id: string) {
   await db.delete(scenarios).where(eq(scenarios.id, id));
 }
 
-/** What changed since the stored result was computed, in plain words. */
-export function staleReasons(row: ScenarioWithContext): string[] {
+/**
+ * What changed since the stored result was computed, in plain words: the engine, the route (when
+ * not pinned), the vehicle profile, or one of the network's safety settings (`safety`, now).
+ */
+export function staleReasons(row: ScenarioWithContext, safety: NetworkSafetySettings): string[] {
   const provenance = row.scenario.inputs?.provenance;
   if (!provenance) return [];
   const reasons: string[] = [];
@@ -187,12 +191,15 @@ export function staleReasons(row: ScenarioWithContext): string[] {
   if (provenance.vehicleProfileUpdatedAt !== row.vehicleProfileUpdatedAt.toISOString()) {
     reasons.push('the vehicle profile changed after the run');
   }
+  const safetyReason = safetySettingsChangedReason(provenance.safetySettings, safety);
+  if (safetyReason) reasons.push(safetyReason);
   return reasons;
 }
 
-export function toScenario(row: ScenarioWithContext): Scenario {
+/** The scenario as the API answers it; `safety` is the network's safety settings now (for staleness). */
+export function toScenario(row: ScenarioWithContext, safety: NetworkSafetySettings): Scenario {
   const s = row.scenario;
-  const reasons = staleReasons(row);
+  const reasons = staleReasons(row, safety);
   return {
     id: s.id,
     name: s.name,

@@ -1,6 +1,6 @@
 import type { User } from '@shared/domain/auth';
 import type { RiskLevel } from '@shared/domain/analysis';
-import type { Scenario, ScenarioDraft, ScenarioResult } from '@shared/domain/scenarios';
+import type { Scenario, ScenarioDraft, ScenarioListQuery, ScenarioResult } from '@shared/domain/scenarios';
 import type { VehicleProfile } from '@shared/domain/vehicle-profiles';
 import { ENGINEERING_CAUTION } from '@shared/engine/constants';
 import type { AppDeps } from '../app-deps';
@@ -60,15 +60,18 @@ async function computeAndStore(deps: AppDeps, scenarioId: string): Promise<void>
   if (!routeVersion || !profileRow) throw new NotFoundError('The scenario’s route version or vehicle profile');
   const profile = profiles.toVehicleProfile(profileRow);
   await repository.updateScenario(db, scenarioId, { status: 'running', failureReason: null });
+  const safety = await readSafetySettings(db);
   const provenance = {
     routeVersion: routeVersion.version,
     routeVersionId: routeVersion.id,
     vehicleProfileUpdatedAt: profileRow.updatedAt.toISOString(),
     engineVersion: '',
+    // Recorded so a later change of these settings marks the result out of date.
+    safetySettings: { ...safety },
   };
   let outcome;
   try {
-    outcome = await runScenario(routeVersion, profile, row, analyserOf(deps), await readSafetySettings(db));
+    outcome = await runScenario(routeVersion, profile, row, analyserOf(deps), safety);
   } catch (error) {
     // Busy analysis threads: the run did not happen; say so and keep the last good result.
     if (error instanceof HttpError && error.status === 503) {
@@ -113,10 +116,16 @@ async function computeAndStore(deps: AppDeps, scenarioId: string): Promise<void>
   });
 }
 
+/** The scenarios the query asks for, each marked out of date against the current route, profile, engine and safety settings. */
+export async function listScenarios(db: Database, query: ScenarioListQuery): Promise<Scenario[]> {
+  const [rows, safety] = await Promise.all([repository.listScenarios(db, query), readSafetySettings(db)]);
+  return rows.map((row) => repository.toScenario(row, safety));
+}
+
 export async function getScenario(db: Database, id: string): Promise<Scenario> {
   const row = await repository.findScenarioWithContext(db, id);
   if (!row) throw new NotFoundError('The scenario');
-  return repository.toScenario(row);
+  return repository.toScenario(row, await readSafetySettings(db));
 }
 
 export async function createScenario(
@@ -247,12 +256,13 @@ export async function compareScenarios(db: Database, ids: string[]) {
   const rows = await repository.findScenariosWithContext(db, unique);
   const missing = unique.filter((id) => !rows.some((row) => row.scenario.id === id));
   if (missing.length > 0) throw new HttpError(404, 'not_found', `No scenario ${missing.join(', ')}`, { missing });
+  const safety = await readSafetySettings(db);
   const items = [];
   for (const id of unique) {
     const row = rows.find((candidate) => candidate.scenario.id === id)!;
     let result: ScenarioResult | null = null;
     if (row.scenario.summary) result = await getResult(db, id);
-    items.push({ scenario: repository.toScenario(row), result });
+    items.push({ scenario: repository.toScenario(row, safety), result });
   }
   return { items, caution: ENGINEERING_CAUTION };
 }

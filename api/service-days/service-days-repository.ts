@@ -1,5 +1,5 @@
 import { and, asc, eq, inArray, isNull, lt, sql } from 'drizzle-orm';
-import { readSafetySettings, type NetworkSafetySettings } from '../board/network-settings';
+import { readSafetySettings, safetySettingsChangedReason, type NetworkSafetySettings } from '../board/network-settings';
 import { blockSchema, chargerSchema, type ServiceDay } from '@shared/domain/service-days';
 import { ENGINE_VERSION } from '@shared/engine/constants';
 import * as z from 'zod';
@@ -90,15 +90,6 @@ export interface StalenessContext {
   safetySettings: NetworkSafetySettings;
 }
 
-/** The safety settings in words, for the reasons a result is out of date. */
-const SAFETY_SETTING_WORDS: Readonly<Record<keyof NetworkSafetySettings, string>> = {
-  worstCaseAmbientC: 'worst-case ambient temperature',
-  fadeMarginK: 'fade margin',
-  maxRoadGradePercent: 'steepest road grade',
-  crawlSpeedKph: 'crawl speed',
-  crawlDistanceM: 'crawl distance',
-};
-
 export async function stalenessContext(db: Executor, rows: Pick<ServiceDayRow, 'blocks'>[]): Promise<StalenessContext> {
   const routeIds = new Set<string>();
   const profileIds = new Set<string>();
@@ -148,14 +139,8 @@ export function staleReasons(row: ServiceDayRow, result: ServiceDayResultRow | u
     if (current === undefined) reasons.push(`a vehicle profile it uses (${profileId}) was deleted`);
     else if (current !== updatedAt) reasons.push('a vehicle profile it uses changed after the run');
   }
-  if (provenance.safetySettings) {
-    const changed = (Object.keys(SAFETY_SETTING_WORDS) as (keyof NetworkSafetySettings)[]).filter(
-      (key) => provenance.safetySettings![key] !== undefined && provenance.safetySettings![key] !== context.safetySettings[key],
-    );
-    if (changed.length > 0) {
-      reasons.push(`the network settings' ${changed.map((key) => SAFETY_SETTING_WORDS[key]).join(', ')} changed after the run`);
-    }
-  }
+  const safety = safetySettingsChangedReason(provenance.safetySettings, context.safetySettings);
+  if (safety) reasons.push(safety);
   return [...new Set(reasons)];
 }
 

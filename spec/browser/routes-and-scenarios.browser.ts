@@ -159,6 +159,62 @@ describe('routes and scenarios', () => {
   });
 });
 
+describe('scenario results and the network safety settings', () => {
+  const planner = signedInBrowser('planner', { width: 1366, height: 900 });
+  const admin = signedInBrowser('admin');
+
+  /** Sets the network's margin below fade on the admin's settings screen; answers the value it had. */
+  async function setFadeMargin(value: (was: number) => number): Promise<number> {
+    const { page } = admin;
+    await page.goto(`${BASE_URL}/admin/network`);
+    const field = page.getByLabel('Margin below fade');
+    await page.waitForFunction(() => (document.querySelector('[formcontrolname="fadeMarginK"]') as HTMLInputElement | null)?.value);
+    const was = Number(await field.inputValue());
+    await field.fill(String(value(was)));
+    await page.getByRole('button', { name: 'Save settings' }).click();
+    await page.getByText('Network settings saved.').waitFor();
+    return was;
+  }
+
+  it('marks a scenario out of date naming the changed fade margin, on its result and in the list, until it is run again', async () => {
+    const { page } = planner;
+    await page.goto(`${BASE_URL}/scenarios`);
+    const firstLink = page.locator('table a[href^="/scenarios/"]').first();
+    const href = (await firstLink.getAttribute('href'))!;
+    const name = (await firstLink.innerText()).trim();
+    await page.goto(`${BASE_URL}${href}`);
+    await page.getByRole('heading', { level: 1, name }).waitFor();
+    // Current to begin with (a scenario that is already out of date is run again first).
+    if (await page.getByTestId('stale').isVisible()) {
+      await page.getByTestId('stale').getByRole('button', { name: 'Run again' }).click();
+      await page.getByTestId('stale').waitFor({ state: 'detached', timeout: 60_000 });
+    }
+
+    const was = await setFadeMargin((margin) => margin + 5);
+    try {
+      await page.reload();
+      const banner = page.getByTestId('stale');
+      await banner.waitFor();
+      assert.match(await banner.innerText(), /out of date[\s\S]*fade margin changed after the run/);
+      await screenshot(page, 'scenario-stale-safety-settings');
+
+      await page.goto(`${BASE_URL}/scenarios`);
+      const row = page.getByRole('row').filter({ has: page.getByRole('link', { name, exact: true }) });
+      await row.getByTestId('stale-note').waitFor();
+      assert.match(await row.innerText(), /out of date[\s\S]*fade margin changed after the run/);
+      await screenshot(page, 'scenario-list-stale');
+
+      await page.goto(`${BASE_URL}${href}`);
+      await page.getByTestId('stale').getByRole('button', { name: 'Run again' }).click();
+      await page.getByTestId('stale').waitFor({ state: 'detached', timeout: 60_000 });
+      await page.getByRole('img', { name: /Brake temperature and fade bands/ }).waitFor({ timeout: 60_000 });
+    } finally {
+      // The demo's own margin back, so the other scenarios stay current.
+      await setFadeMargin(() => was);
+    }
+  });
+});
+
 describe('vehicle profiles', () => {
   const browser = signedInBrowser('analyst');
 

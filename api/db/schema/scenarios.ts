@@ -19,6 +19,11 @@ export interface ScenarioRunProvenance {
   routeVersionId: string;
   vehicleProfileUpdatedAt: string;
   engineVersion: string;
+  /**
+   * The network's safety settings the run used (worst-case ambient, fade margin, steepest grade,
+   * crawl speed and distance); absent on results stored before runs recorded them.
+   */
+  safetySettings?: Record<string, number>;
 }
 
 /**

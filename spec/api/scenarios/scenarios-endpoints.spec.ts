@@ -279,6 +279,68 @@ describe('versions and staleness', () => {
   });
 });
 
+describe('staleness on the network safety settings', () => {
+  it('marks the result out of date naming a changed safety setting, in the scenario and the list, and a re-run clears it', async () => {
+    const admin = await cookieFor('admin');
+    const route = await aRoute();
+    const scenario = (await request(app).post('/api/scenarios').set('Cookie', planner).send(aScenarioDraft(route.id))).body;
+    const read = async () => (await request(app).get(`/api/scenarios/${scenario.id}`).set('Cookie', planner)).body;
+    const listed = async () =>
+      (await request(app).get('/api/scenarios').set('Cookie', planner)).body.items.find((item: { id: string }) => item.id === scenario.id);
+    const current = (await request(app).get('/api/settings/network').set('Cookie', admin)).body;
+    const { isPlaceholder: _p, updatedAt: _u, updatedByName: _n, ...settings } = current;
+    const result = (await request(app).get(`/api/scenarios/${scenario.id}/result`).set('Cookie', planner)).body;
+    expect(result.inputs.provenance.safetySettings).toEqual({
+      worstCaseAmbientC: settings.worstCaseAmbientC,
+      fadeMarginK: settings.fadeMarginK,
+      maxRoadGradePercent: settings.maxRoadGradePercent,
+      crawlSpeedKph: settings.crawlSpeedKph,
+      crawlDistanceM: settings.crawlDistanceM,
+    });
+    expect(await listed()).toMatchObject({ isStale: false, staleReasons: [] });
+
+    // The tariff does not enter a scenario's result: still current.
+    const tariff = await request(app)
+      .put('/api/settings/network')
+      .set('Cookie', admin)
+      .send({ ...settings, energyTariffPerKWh: settings.energyTariffPerKWh * 2 });
+    expect(tariff.status).toBe(200);
+    expect(await read()).toMatchObject({ isStale: false, staleReasons: [] });
+
+    // The fade margin and the crawl speed enter the descents' advice: out of date, naming both.
+    const safety = await request(app)
+      .put('/api/settings/network')
+      .set('Cookie', admin)
+      .send({ ...settings, fadeMarginK: settings.fadeMarginK + 10, crawlSpeedKph: settings.crawlSpeedKph + 1 });
+    expect(safety.status).toBe(200);
+    const reason = "the network settings' fade margin, crawl speed changed after the run";
+    expect(await read()).toMatchObject({ isStale: true, staleReasons: [reason] });
+    expect(await listed()).toMatchObject({ isStale: true, staleReasons: [reason] });
+
+    const rerun = await request(app).post(`/api/scenarios/${scenario.id}/run`).set('Cookie', planner);
+    expect(rerun.body).toMatchObject({ status: 'done', isStale: false, staleReasons: [] });
+    expect(await listed()).toMatchObject({ isStale: false, staleReasons: [] });
+    const rerunResult = (await request(app).get(`/api/scenarios/${scenario.id}/result`).set('Cookie', planner)).body;
+    expect(rerunResult.inputs.provenance.safetySettings).toMatchObject({ fadeMarginK: settings.fadeMarginK + 10 });
+  });
+
+  it('does not mark a result stored before runs recorded their safety settings', async () => {
+    const admin = await cookieFor('admin');
+    const route = await aRoute();
+    const scenario = (await request(app).post('/api/scenarios').set('Cookie', planner).send(aScenarioDraft(route.id))).body;
+    await db.$client`UPDATE scenarios SET inputs = inputs #- '{provenance,safetySettings}' WHERE id = ${scenario.id}`;
+    const current = (await request(app).get('/api/settings/network').set('Cookie', admin)).body;
+    const { isPlaceholder: _p, updatedAt: _u, updatedByName: _n, ...settings } = current;
+
+    await request(app)
+      .put('/api/settings/network')
+      .set('Cookie', admin)
+      .send({ ...settings, fadeMarginK: settings.fadeMarginK + 10 });
+
+    expect((await request(app).get(`/api/scenarios/${scenario.id}`).set('Cookie', planner)).body).toMatchObject({ isStale: false });
+  });
+});
+
 describe('round trips and inbound runs', () => {
   it('combines both directions: round-trip energies are the sums of outbound and inbound', async () => {
     const route = await aRoute();
