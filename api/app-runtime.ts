@@ -1,25 +1,99 @@
 import type { AppDeps } from './app-deps';
+import { AnalysisPool, analysisPoolOptions } from './analysis/analysis-pool';
+import { SessionCache } from './auth/session-cache';
+import { ActiveBasemapReader } from './basemap/active-basemap';
+import { BasemapStorage } from './basemap/basemap-storage';
 import type { Config } from './config';
 import type { Database } from './db/client';
+import { AnswerCache } from './http/answer-cache';
 import { createInlineJobQueue, type InlineJobQueue, type JobQueue } from './jobs/job-queue';
 import { TerrainRuntime } from './terrain/terrain-runtime';
 
 /**
- * What a process keeps for as long as its dependencies live: the terrain runtime (ready
- * catalogue, decoded-block cache with its decoder threads, file locations), the shared job queue
- * once one is started, and, where none runs (tests, command-line tools), an in-process job queue
- * per feature with that feature's workers on it.
+ * What a process keeps for as long as its dependencies live, each part made on first use:
+ * - the terrain runtime (ready catalogue, decoded-block cache with its decoder threads, file
+ *   locations);
+ * - the session cache and the answer cache of the lists, each listening on its announcement line
+ *   (api/auth/session-cache.ts, api/http/answer-cache.ts);
+ * - the analysis threads (api/analysis/analysis-pool.ts);
+ * - the base-map storage on disk and the active import as this process knows it (api/basemap/);
+ * - the shared job queue once one is started, and, where none runs (tests, command-line tools),
+ *   an in-process job queue per feature with that feature's workers on it.
  *
  * It travels in `AppDeps.runtime` by reference, so every copy of the dependencies (createApp and
- * withDefaultServices spread them) shares one runtime, as one process would.
+ * withDefaultServices spread them) shares one runtime, as one process would. `close` stops what
+ * holds threads or connections (shutdown, the end of a test file); a part used after that is made
+ * afresh.
  */
 export class AppRuntime {
   /** The shared job queue (pg-boss) of this process, once `attachJobQueue` gave it one. */
   jobQueue: JobQueue | undefined;
   private terrainRuntime: TerrainRuntime | null = null;
+  private sessions: SessionCache | null = null;
+  private answers: AnswerCache | null = null;
+  private pool: AnalysisPool | null = null;
+  private storage: BasemapStorage | null = null;
+  private basemapReader: ActiveBasemapReader | null = null;
   private readonly inlineQueues = new Map<string, Promise<InlineJobQueue>>();
 
   constructor(private readonly base: { db: Database; config: Config }) {}
+
+  /** The process's memory of live sessions, listening for changes from its first use. */
+  get sessionCache(): SessionCache {
+    if (!this.sessions) {
+      this.sessions = new SessionCache(this.base.db.$client);
+      this.sessions.start();
+    }
+    return this.sessions;
+  }
+
+  /** The process's answers of the busiest lists, listening for changes from its first use. */
+  get answerCache(): AnswerCache {
+    if (!this.answers) {
+      this.answers = new AnswerCache(this.base.db.$client);
+      this.answers.start();
+    }
+    return this.answers;
+  }
+
+  /** The analysis threads (started lazily by the pool itself). */
+  get analysisPool(): AnalysisPool {
+    this.pool ??= new AnalysisPool(analysisPoolOptions(this.base.config));
+    return this.pool;
+  }
+
+  /** Uploaded and waiting extracts under DATA_DIR. */
+  get basemapStorage(): BasemapStorage {
+    this.storage ??= new BasemapStorage(this.base.config.DATA_DIR);
+    return this.storage;
+  }
+
+  /** The active base-map import as this process knows it. */
+  get activeBasemap(): ActiveBasemapReader {
+    this.basemapReader ??= new ActiveBasemapReader(this.base.db);
+    return this.basemapReader;
+  }
+
+  /** Stops the analysis threads; the next analysis starts a fresh pool. */
+  async closeAnalysisPool(): Promise<void> {
+    const pool = this.pool;
+    this.pool = null;
+    await pool?.close();
+  }
+
+  /**
+   * Stops everything that holds threads or database connections: the caches' listening lines,
+   * the analysis threads and the terrain runtime. Call it before closing the database.
+   */
+  async close(): Promise<void> {
+    this.sessions?.stop();
+    this.sessions = null;
+    this.answers?.stop();
+    this.answers = null;
+    this.basemapReader = null;
+    await this.closeAnalysisPool();
+    await this.closeTerrain();
+  }
 
   /** Terrain's per-process state, started on first use. */
   get terrain(): TerrainRuntime {

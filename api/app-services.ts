@@ -1,6 +1,6 @@
 import type { AppDeps } from './app-deps';
 import { runtimeOf } from './app-runtime';
-import { analysisPoolFor, type RouteAnalyser } from './analysis/analysis-pool';
+import type { RouteAnalyser } from './analysis/analysis-pool';
 import { elevationSamplerFor } from './terrain/raster/elevation-sampler';
 
 /**
@@ -13,7 +13,7 @@ export function withDefaultServices(deps: AppDeps): AppDeps {
   // Made on the caller's object first, so the caller and every copy share one runtime.
   const runtime = runtimeOf(deps);
   const sampleElevations = deps.sampleElevations ?? elevationSamplerFor(deps);
-  const analyse = deps.analyse ?? ((request) => analysisPoolFor(deps).analyse(request, sampleElevations));
+  const analyse = deps.analyse ?? ((request) => runtime.analysisPool.analyse(request, sampleElevations));
   return { ...deps, runtime, sampleElevations, analyse };
 }
 

@@ -8,7 +8,6 @@ import type { AppDeps } from './app-deps';
 import { authenticate } from './auth/authenticate';
 import { requireSameOrigin } from './auth/same-origin';
 import { allEndpoints } from './endpoints';
-import { answerCacheFor } from './http/answer-cache';
 import { mountEndpoint } from './http/endpoint';
 import { HeavyRequestLimiter } from './http/heavy-requests';
 import { WebIndex, cspNonce, securityHeaders } from './http/security-headers';
@@ -16,6 +15,7 @@ import { apiNotFound, errorHandler } from './http/error-handler';
 import { webApp } from './http/web-app';
 import { buildOpenApiDocument } from './openapi/openapi-document';
 import { withDefaultServices } from './app-services';
+import { runtimeOf } from './app-runtime';
 
 /** Where the API router is mounted; every endpoint's documented path starts with it. */
 const API_PREFIX = '/api';
@@ -47,7 +47,7 @@ export function createApp(givenDeps: AppDeps): Express {
   const api = Router();
   // Every write empties the cache of list answers, in this process at once and in the others
   // through the database's announcements (api/http/answer-cache.ts).
-  const answerCache = answerCacheFor(deps.db);
+  const answerCache = runtimeOf(deps).answerCache;
   api.use(answerCache.trackWrites());
   // Answers above 1 KiB (the middleware's default) are compressed when the client accepts it;
   // images and other compressed formats are left alone (compressible types only). The fastest

@@ -4,7 +4,6 @@ import { createDatabase } from './db/client';
 import { migrateDatabase } from './db/migrate';
 import { createApp } from './app';
 import { withDefaultServices } from './app-services';
-import { closeAnalysisPool } from './analysis/analysis-pool';
 import { startBatchRunWorkers } from './batch-runs/batch-runs-service';
 import { startMaintenance } from './jobs/maintenance';
 import { startCalibrationWorkers } from './calibrations/calibrations-service';
@@ -37,7 +36,6 @@ if (config.RUN_WORKERS) {
   stoppers.push(worker.stop);
 }
 stoppers.push(await startTerrain(deps));
-stoppers.push(() => closeAnalysisPool(deps));
 await startBasemap(deps);
 await startBatchRunWorkers(deps);
 await startCalibrationWorkers(deps);
@@ -54,6 +52,8 @@ async function shutdown(signal: string) {
   console.log(`[api] ${signal}: shutting down`);
   server.close();
   for (const stop of stoppers) await stop();
+  // The caches' listening lines, the analysis threads and the terrain runtime (api/app-runtime.ts).
+  await deps.runtime!.close();
   await close();
   process.exit(0);
 }

@@ -9,7 +9,6 @@
  * Each job is handed to one process at a time; the mail outbox is shared with SKIP LOCKED.
  */
 import { withDefaultServices } from './app-services';
-import { closeAnalysisPool } from './analysis/analysis-pool';
 import { startBatchRunWorkers } from './batch-runs/batch-runs-service';
 import { startMaintenance } from './jobs/maintenance';
 import { startCalibrationWorkers } from './calibrations/calibrations-service';
@@ -44,7 +43,7 @@ async function shutdown(signal: string) {
   await stopMaintenance();
   await mail.stop();
   await stopTerrain();
-  await closeAnalysisPool(deps);
+  await deps.runtime!.close();
   await close();
   process.exit(0);
 }

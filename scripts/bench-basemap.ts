@@ -25,9 +25,9 @@ import { createDatabase } from '../api/db/client';
 import { migrateDatabase } from '../api/db/migrate';
 import { users } from '../api/db/schema/index';
 import { acceptBasemapUpload, waitForInlineBasemapJobs } from '../api/basemap/basemap-service';
-import { activeBasemap, forgetActiveBasemap } from '../api/basemap/active-basemap';
 import { BaseTileCache, renderBaseTile } from '../api/basemap/base-tiles';
 import { findRoadPath } from '../api/road-graph/road-graph-path';
+import { runtimeOf } from '../api/app-runtime';
 import { demoOsmExtractXml } from '../api/demo/demo-osm-extract';
 
 const parts = process.argv.slice(2).length ? process.argv.slice(2) : ['import', 'tiles', 'paths'];
@@ -58,6 +58,7 @@ async function main() {
   if (parts.includes('import')) await benchImports();
   if (parts.includes('tiles')) await benchTiles();
   if (parts.includes('paths')) await benchPaths();
+  await runtimeOf(deps).close();
   await close();
 }
 
@@ -207,8 +208,8 @@ async function writeGridExtract(blocks: number): Promise<{ path: string; nodes: 
 // ---------------------------------------------------------------- tiles
 
 async function benchTiles() {
-  forgetActiveBasemap(db);
-  const active = await activeBasemap(db);
+  runtimeOf(deps).activeBasemap.forget();
+  const active = await runtimeOf(deps).activeBasemap.current();
   if (!active) throw new Error('Run the import part first: no active extract');
   const [extent] = await db.execute<{ w: number; s: number; e: number; n: number }>(
     sql`SELECT bbox_west AS w, bbox_south AS s, bbox_east AS e, bbox_north AS n FROM basemap_imports WHERE is_active`,
@@ -309,8 +310,8 @@ async function benchPaths() {
 
 /** `near`: the two points of a pair lie 300 m to 2 km apart (clicks in the route editor); `any`: anywhere. */
 async function pathRun(label: string, queries: number, spread: 'near' | 'any') {
-  forgetActiveBasemap(db);
-  const active = (await activeBasemap(db))!;
+  runtimeOf(deps).activeBasemap.forget();
+  const active = (await runtimeOf(deps).activeBasemap.current())!;
   const s = sql.raw(`"${active.schemaName}"`);
   const [{ n } = { n: 0 }] = await db.execute<{ n: number }>(sql`SELECT count(*)::int AS n FROM ${s}.graph_edges`);
   // Points on the roads: the midpoints of up to 2 000 edges; pairs drawn from them by a fixed
@@ -336,7 +337,7 @@ async function pathRun(label: string, queries: number, spread: 'near' | 'any') {
   for (const [from, to] of pairs) {
     const t = performance.now();
     try {
-      await findRoadPath(db, { from, to });
+      await findRoadPath(deps, { from, to });
       found++;
     } catch {
       // Expected now and then: one-way streets leave no path between two points.

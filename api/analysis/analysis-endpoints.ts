@@ -10,7 +10,7 @@ import { RouteTooLargeError, UncoveredTerrainError } from '@shared/engine/valida
 import type { AppDeps } from '../app-deps';
 import { endpoint } from '../http/endpoint';
 import { HttpError } from '../http/http-error';
-import { analysisPoolFor } from './analysis-pool';
+import { runtimeOf } from '../app-runtime';
 
 export function analysisEndpoints(deps: AppDeps) {
   return [
@@ -52,7 +52,7 @@ export function analysisEndpoints(deps: AppDeps) {
       handler: async ({ body, query, res }) => {
         let json: Buffer;
         try {
-          json = await analysisPoolFor(deps).analyseToJson(body, deps.sampleElevations, query);
+          json = await runtimeOf(deps).analysisPool.analyseToJson(body, deps.sampleElevations, query);
         } catch (error) {
           throw asAnalysisRefusal(error);
         }

@@ -197,31 +197,14 @@ function analysisWorkerPath(): string {
   return join(process.cwd(), 'api', 'analysis', 'analysis-worker.mjs');
 }
 
-const pools = new WeakMap<object, AnalysisPool>();
-
-/** The process's analysis pool for these dependencies (one per database handle, as terrain's runtime). */
-export function analysisPoolFor(deps: { db: object; config: AnalysisPoolConfig }): AnalysisPool {
-  let pool = pools.get(deps.db);
-  if (!pool) {
-    pool = new AnalysisPool({
-      threads: deps.config.ANALYSIS_THREADS,
-      maxQueue: deps.config.ANALYSIS_MAX_QUEUE,
-      workerHeapMb: deps.config.ANALYSIS_WORKER_HEAP_MB,
-    });
-    pools.set(deps.db, pool);
-  }
-  return pool;
-}
-
-/** Stops the analysis threads (shutdown, end of a test file). */
-export async function closeAnalysisPool(deps: { db: object }): Promise<void> {
-  const pool = pools.get(deps.db);
-  pools.delete(deps.db);
-  await pool?.close();
-}
-
-interface AnalysisPoolConfig {
+/** The configuration an analysis pool is built from (`AppRuntime.analysisPool`). */
+export interface AnalysisPoolConfig {
   ANALYSIS_THREADS: number;
   ANALYSIS_MAX_QUEUE: number;
   ANALYSIS_WORKER_HEAP_MB: number;
+}
+
+/** The pool's options from the process's configuration. */
+export function analysisPoolOptions(config: AnalysisPoolConfig): ConstructorParameters<typeof AnalysisPool>[0] {
+  return { threads: config.ANALYSIS_THREADS, maxQueue: config.ANALYSIS_MAX_QUEUE, workerHeapMb: config.ANALYSIS_WORKER_HEAP_MB };
 }

@@ -16,7 +16,7 @@ import * as authService from './auth-service';
 import { issueSessionCookie, sessionCookieOptions } from './authenticate';
 import { knownDevice, rememberDevice } from './device-cookie';
 import { SESSION_COOKIE } from './session-tokens';
-import { sessionCacheFor } from './session-cache';
+import { runtimeOf } from '../app-runtime';
 
 export function authEndpoints(deps: AppDeps) {
   const { db, config } = deps;
@@ -57,7 +57,7 @@ export function authEndpoints(deps: AppDeps) {
         await revokeSession(db, sessionId);
         // This process forgets at once (the replay of this cookie on the next request must fail);
         // the others hear it from the database's notification.
-        sessionCacheFor(db).forgetSession(sessionId);
+        runtimeOf(deps).sessionCache.forgetSession(sessionId);
         res.clearCookie(SESSION_COOKIE, { ...sessionCookieOptions(req, config.SESSION_TTL_MINUTES), maxAge: undefined });
         res.status(204).end();
       },

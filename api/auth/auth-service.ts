@@ -21,7 +21,7 @@ import {
 import type { KnownDevice } from './device-cookie';
 import * as repository from './auth-repository';
 import { dummyPasswordHash, hashPassword, verifyPassword } from './passwords';
-import { sessionCacheFor } from './session-cache';
+import { runtimeOf } from '../app-runtime';
 
 /** Who is signing in, as far as throttling is concerned. */
 export interface SignInClient {
@@ -61,7 +61,8 @@ export async function signIn({ db, config }: AppDeps, credentials: { email: stri
   return { session, user: toUser(user) };
 }
 
-export async function changePassword({ db }: AppDeps, userId: string, change: { currentPassword: string; newPassword: string }) {
+export async function changePassword(deps: AppDeps, userId: string, change: { currentPassword: string; newPassword: string }) {
+  const { db } = deps;
   const user = await repository.findUserById(db, userId);
   if (!user?.passwordHash || !(await verifyPassword(user.passwordHash, change.currentPassword))) {
     throw new HttpError(400, 'wrong_password', 'The current password is wrong');
@@ -73,7 +74,7 @@ export async function changePassword({ db }: AppDeps, userId: string, change: { 
     await repository.revokeAllSessions(tx, userId);
   });
   // This process forgets at once; the others hear it from the database's notification.
-  sessionCacheFor(db).forgetUser(userId);
+  runtimeOf(deps).sessionCache.forgetUser(userId);
 }
 
 /** Looks a token up without using it, so the page can greet the person. */
@@ -101,7 +102,7 @@ export async function setPasswordWithToken(deps: AppDeps, kind: 'invite' | 'rese
     await repository.setPassword(tx, user.id, passwordHash);
     await repository.revokeAllSessions(tx, user.id);
   });
-  sessionCacheFor(deps.db).forgetUser(user.id);
+  runtimeOf(deps).sessionCache.forgetUser(user.id);
 }
 
 /**

@@ -2,7 +2,8 @@ import type { Request, RequestHandler, Response } from 'express';
 import type { User } from '@shared/domain/auth';
 import type { AppDeps } from '../app-deps';
 import { extendSession, findLiveSessionUser } from './auth-repository';
-import { sessionCacheFor, type LiveSession } from './session-cache';
+import { runtimeOf } from '../app-runtime';
+import type { LiveSession } from './session-cache';
 import { SESSION_COOKIE, signSessionToken, verifySessionToken } from './session-tokens';
 
 /** Renew the cookie when it is older than this share of its lifetime (sliding expiry). */
@@ -37,7 +38,7 @@ export async function issueSessionCookie({ config }: AppDeps, req: Request, res:
  */
 export function authenticate(deps: AppDeps): RequestHandler {
   const { db, config } = deps;
-  const cache = sessionCacheFor(db);
+  const cache = runtimeOf(deps).sessionCache;
   return async (req, res, next) => {
     const token = (req.cookies as Record<string, string | undefined>)[SESSION_COOKIE];
     if (!token) return next();

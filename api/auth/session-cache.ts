@@ -1,7 +1,6 @@
 import type { Sql } from 'postgres';
 import type { Role } from '@shared/domain/roles';
 import { AnnouncementLine } from '../db/announcement-line';
-import type { Database } from '../db/client';
 
 /**
  * PostgreSQL channel on which the database announces every change to a session or an account
@@ -34,6 +33,9 @@ interface Entry {
  * announce each change on SESSION_CHANGES_CHANNEL to every API process at commit, which forgets
  * the session (or all of the account's) at once. The cache answers only while the announcement
  * line is proven alive (TRUST_WINDOW_MS in api/db/announcement-line.ts); otherwise the caller asks the database.
+ *
+ * One per process, made and started by the process's runtime (`runtimeOf(deps).sessionCache`,
+ * api/app-runtime.ts) and stopped when the runtime closes.
  */
 export class SessionCache {
   private readonly entries = new Map<string, Entry>();
@@ -129,17 +131,4 @@ export class SessionCache {
     else if (kind === 'u' && id) this.forgetUser(id);
     else this.forgetAll();
   }
-}
-
-const caches = new WeakMap<Database, SessionCache>();
-
-/** The one session cache of a database handle (each API process has one handle). */
-export function sessionCacheFor(db: Database): SessionCache {
-  let cache = caches.get(db);
-  if (!cache) {
-    cache = new SessionCache(db.$client);
-    caches.set(db, cache);
-    cache.start();
-  }
-  return cache;
 }

@@ -14,30 +14,42 @@ export interface ActiveBasemap {
 /** How long a process trusts its copy; an activation in another process shows after this. */
 const ACTIVE_TTL_MS = 2_000;
 
-const cached = new WeakMap<object, { value: Promise<ActiveBasemap | null>; loadedAt: number }>();
+/**
+ * The active import as this process knows it: read at most every two seconds, forgotten at once
+ * when this process changes which import is active. One per process, kept by the process's
+ * runtime (`runtimeOf(deps).activeBasemap`, api/app-runtime.ts).
+ */
+export class ActiveBasemapReader {
+  private cached: { value: Promise<ActiveBasemap | null>; loadedAt: number } | null = null;
 
-/** The active import (null when none), read at most every two seconds per process. */
-export function activeBasemap(db: Database): Promise<ActiveBasemap | null> {
-  const entry = cached.get(db);
-  if (entry && Date.now() - entry.loadedAt <= ACTIVE_TTL_MS) return entry.value;
-  const value = db
-    .select({ id: basemapImports.id, schemaName: basemapImports.schemaName, attribution: basemapImports.attribution })
-    .from(basemapImports)
-    .where(eq(basemapImports.isActive, true))
-    .limit(1)
-    .then(([row]) =>
-      row
-        ? { importId: row.id, schemaName: row.schemaName, version: row.id.replaceAll('-', '').slice(0, 16), attribution: row.attribution }
-        : null,
-    );
-  cached.set(db, { value, loadedAt: Date.now() });
-  value.catch(() => cached.delete(db));
-  return value;
-}
+  constructor(private readonly db: Database) {}
 
-/** Call after this process changed which import is active. */
-export function forgetActiveBasemap(db: Database): void {
-  cached.delete(db);
+  /** The active import (null when none). */
+  current(): Promise<ActiveBasemap | null> {
+    const entry = this.cached;
+    if (entry && Date.now() - entry.loadedAt <= ACTIVE_TTL_MS) return entry.value;
+    const value = this.db
+      .select({ id: basemapImports.id, schemaName: basemapImports.schemaName, attribution: basemapImports.attribution })
+      .from(basemapImports)
+      .where(eq(basemapImports.isActive, true))
+      .limit(1)
+      .then(([row]) =>
+        row
+          ? { importId: row.id, schemaName: row.schemaName, version: row.id.replaceAll('-', '').slice(0, 16), attribution: row.attribution }
+          : null,
+      );
+    const fresh = { value, loadedAt: Date.now() };
+    this.cached = fresh;
+    value.catch(() => {
+      if (this.cached === fresh) this.cached = null;
+    });
+    return value;
+  }
+
+  /** Call after this process changed which import is active. */
+  forget(): void {
+    this.cached = null;
+  }
 }
 
 /**

@@ -12,10 +12,10 @@ import { tileParamsSchema, tileQuerySchema } from '@shared/domain/terrain';
 import type { AppDeps } from '../app-deps';
 import { endpoint } from '../http/endpoint';
 import { BadRequestError, HttpError } from '../http/http-error';
-import { activeBasemap, forgetActiveBasemap, isMissingRelation } from './active-basemap';
+import { isMissingRelation } from './active-basemap';
 import { acceptBasemapUpload, listBasemaps } from './basemap-service';
-import { basemapStorage } from './basemap-storage';
 import { BaseTileCache, renderBaseTile } from './base-tiles';
+import { runtimeOf } from '../app-runtime';
 
 const TAG = 'Base map';
 const MVT = 'application/vnd.mapbox-vector-tile';
@@ -82,7 +82,7 @@ export function basemapEndpoints(deps: AppDeps) {
         const { z: zoom, x, y } = params;
         const limit = 2 ** zoom;
         if (x >= limit || y >= limit) throw new HttpError(404, 'not_found', `Tile ${zoom}/${x}/${y} is outside the map`);
-        let active = await activeBasemap(deps.db);
+        let active = await runtimeOf(deps).activeBasemap.current();
         const version = active?.version ?? 'none';
         const etag = `"base-${version}-${zoom}-${x}-${y}"`;
         // As for terrain tiles: a URL naming the current version never changes its content.
@@ -108,8 +108,8 @@ export function basemapEndpoints(deps: AppDeps) {
             // Expected only in the moment after another import became active and the old one's
             // tables were dropped: read the active import again and render from it.
             if (!isMissingRelation(error)) throw error;
-            forgetActiveBasemap(deps.db);
-            active = await activeBasemap(deps.db);
+            runtimeOf(deps).activeBasemap.forget();
+            active = await runtimeOf(deps).activeBasemap.current();
             if (!active) {
               res.send(Buffer.alloc(0));
               return;
@@ -127,7 +127,7 @@ export function basemapEndpoints(deps: AppDeps) {
 /** multer writing to disk with the configured size limit; its errors become API errors. */
 function extractUpload(deps: AppDeps): RequestHandler {
   const upload = multer({
-    storage: basemapStorage(deps).multerStorage(),
+    storage: runtimeOf(deps).basemapStorage.multerStorage(),
     limits: { fileSize: deps.config.BASEMAP_MAX_UPLOAD_BYTES, files: 1, fields: 5 },
   }).single('file');
   return (req, res, next) => {

@@ -29,10 +29,9 @@ import { basemapImports } from '../db/schema/index';
 import { buildImportedGraph, rebuildOverlay, schemaIdentifier } from '../road-graph/road-graph-build';
 import { sampleEdgeElevations } from '../road-graph/road-graph-grades';
 import { ROAD_GRAPH_LOCK } from '../road-graph/road-graph-lock';
-import { forgetActiveBasemap } from './active-basemap';
 import { claimBasemapImport, listRetiredSchemas, updateBasemapImport } from './basemap-repository';
-import { basemapStorage } from './basemap-storage';
 import type { OsmFileFormat } from './osm-file';
+import { runtimeOf } from '../app-runtime';
 
 export const BASEMAP_IMPORT_JOB = 'basemap-import';
 export interface BasemapImportJob {
@@ -66,7 +65,7 @@ const LOW_ZOOM_TOLERANCE_M = 40;
 export async function runBasemapImport(deps: AppDeps, importId: string): Promise<void> {
   const row = await claimBasemapImport(deps.db, importId);
   if (!row) return;
-  const storage = basemapStorage(deps);
+  const storage = runtimeOf(deps).basemapStorage;
   const schemaName = row.schemaName;
   const s = schemaIdentifier(schemaName);
   let lastWrite = 0;
@@ -115,7 +114,7 @@ export async function runBasemapImport(deps: AppDeps, importId: string): Promise
         })
         .where(eq(basemapImports.id, importId));
     });
-    forgetActiveBasemap(deps.db);
+    runtimeOf(deps).activeBasemap.forget();
     await sampleEdgeElevations(deps, { kind: 'overlay', baseImportId: importId });
     // Requests already reading the old tables finish first (DROP waits for their locks); a process
     // whose copy of the active import is older retries once on the new one (isMissingRelation).

@@ -6,7 +6,6 @@ import type { AppDeps } from '../app-deps';
 import { HttpError } from '../http/http-error';
 import { runtimeOf } from '../app-runtime';
 import { type JobPolicy, type JobQueue } from '../jobs/job-queue';
-import { activeBasemap } from './active-basemap';
 import { BASEMAP_IMPORT_JOB, retireOldImports, runBasemapImport, type BasemapImportJob } from './basemap-import';
 import {
   insertBasemapImport,
@@ -17,7 +16,6 @@ import {
   toBasemapImport,
   updateBasemapImport,
 } from './basemap-repository';
-import { basemapStorage } from './basemap-storage';
 import { detectOsmFormat } from './osm-file';
 import { schemaIdentifier } from '../road-graph/road-graph-build';
 import { sql } from 'drizzle-orm';
@@ -35,7 +33,7 @@ export interface BasemapUpload {
  * "queued" and queues its import. A refused file leaves nothing behind.
  */
 export async function acceptBasemapUpload(deps: AppDeps, user: User, upload: BasemapUpload): Promise<BasemapUploadAccepted> {
-  const storage = basemapStorage(deps);
+  const storage = runtimeOf(deps).basemapStorage;
   const format = await detectOsmFormat(upload.path).catch(() => null);
   if (!format) {
     await unlink(upload.path).catch(() => undefined);
@@ -73,7 +71,7 @@ export async function acceptBasemapUpload(deps: AppDeps, user: User, upload: Bas
 }
 
 export async function listBasemaps(deps: AppDeps): Promise<BasemapList> {
-  const [rows, active] = await Promise.all([listBasemapImports(deps.db), activeBasemap(deps.db)]);
+  const [rows, active] = await Promise.all([listBasemapImports(deps.db), runtimeOf(deps).activeBasemap.current()]);
   return { items: rows.map(toBasemapImport), tilesVersion: active?.version ?? null, attribution: active?.attribution ?? null };
 }
 
@@ -87,7 +85,7 @@ const STALE_IMPORT_MS = 10 * 60 * 1000;
 export async function recoverBasemaps(deps: AppDeps): Promise<{ requeued: number }> {
   await requeueStaleImports(deps.db, new Date(Date.now() - STALE_IMPORT_MS));
   const queued = await listQueuedImports(deps.db);
-  await basemapStorage(deps).sweep(new Set(queued.map((row) => row.id)));
+  await runtimeOf(deps).basemapStorage.sweep(new Set(queued.map((row) => row.id)));
   await retireOldImports(deps);
   for (const schemaName of await listOrphanSchemas(deps.db)) {
     await deps.db.execute(sql`DROP SCHEMA IF EXISTS ${schemaIdentifier(schemaName)} CASCADE`);

@@ -2,13 +2,14 @@ import { randomUUID } from 'node:crypto';
 import { mkdir, readdir, rm } from 'node:fs/promises';
 import { join, resolve } from 'node:path';
 import multer from 'multer';
-import type { AppDeps } from '../app-deps';
 
 /**
  * Uploaded extracts on disk, under DATA_DIR:
  *
  *   basemap/uploads/<uuid>.part   an upload being received
  *   basemap/<import id>.osm       an accepted extract waiting for (or in) its import; removed after
+ *
+ * The process's one is `runtimeOf(deps).basemapStorage` (api/app-runtime.ts).
  */
 export class BasemapStorage {
   readonly root: string;
@@ -59,15 +60,4 @@ export class BasemapStorage {
       if (match && !waitingIds.has(match[1]!)) await rm(join(this.dir, name), { force: true });
     }
   }
-}
-
-const storages = new WeakMap<object, BasemapStorage>();
-
-export function basemapStorage(deps: AppDeps): BasemapStorage {
-  let storage = storages.get(deps.db);
-  if (!storage) {
-    storage = new BasemapStorage(deps.config.DATA_DIR);
-    storages.set(deps.db, storage);
-  }
-  return storage;
 }

@@ -5,7 +5,7 @@ import { eq } from 'drizzle-orm';
 import type { AppDeps } from '../app-deps';
 import { basemapImports, users } from '../db/schema/index';
 import { acceptBasemapUpload, waitForInlineBasemapJobs } from '../basemap/basemap-service';
-import { basemapStorage } from '../basemap/basemap-storage';
+import { runtimeOf } from '../app-runtime';
 import { demoOsmExtractXml } from './demo-osm-extract';
 
 /** File name the demo extract is imported under. */
@@ -24,7 +24,7 @@ export async function seedDemoBasemap(deps: AppDeps): Promise<void> {
   const [analyst] = await deps.db.select().from(users).where(eq(users.role, 'analyst')).limit(1);
   if (!analyst) throw new Error('Seed the demo people before the demo base map');
   const xml = Buffer.from(demoOsmExtractXml(), 'utf8');
-  const storage = basemapStorage(deps);
+  const storage = runtimeOf(deps).basemapStorage;
   await storage.ensureFolders();
   const path = join(storage.uploadsDir, `demo-extract-${createHash('sha256').update(xml).digest('hex').slice(0, 12)}.part`);
   await writeFile(path, xml);

@@ -3,7 +3,6 @@ import type { Request, RequestHandler, Response } from 'express';
 import type { Sql } from 'postgres';
 import type { User } from '@shared/domain/auth';
 import { AnnouncementLine } from '../db/announcement-line';
-import type { Database } from '../db/client';
 
 /**
  * PostgreSQL channel on which the database announces, at commit, every statement that changed one
@@ -50,6 +49,9 @@ interface Entry {
  *   tables' triggers announce the change on DATA_CHANGES_CHANNEL at commit and every listening
  *   process empties its cache on hearing it; the cache answers only while that line is proven
  *   alive (TRUST_WINDOW_MS in api/db/announcement-line.ts), otherwise every request is answered from the database.
+ *
+ * One per process, made and started by the process's runtime (`runtimeOf(deps).answerCache`,
+ * api/app-runtime.ts) and stopped when the runtime closes.
  */
 export class AnswerCache {
   private readonly entries = new Map<string, Entry>();
@@ -176,17 +178,4 @@ function send(req: Request, res: Response, entry: Entry): void {
   if (encoding) res.setHeader('Content-Encoding', encoding);
   res.setHeader('Content-Length', body.length);
   res.end(body);
-}
-
-const caches = new WeakMap<Database, AnswerCache>();
-
-/** The one answer cache of a database handle (each API process has one handle). */
-export function answerCacheFor(db: Database): AnswerCache {
-  let cache = caches.get(db);
-  if (!cache) {
-    cache = new AnswerCache(db.$client);
-    caches.set(db, cache);
-    cache.start();
-  }
-  return cache;
 }

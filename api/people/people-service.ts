@@ -13,7 +13,7 @@ import type { Executor } from '../db/client';
 import type { UserRow } from '../db/schema/index';
 import { accountSignInStates, clearAccount } from '../auth/attempt-throttle';
 import { isUniqueViolation } from '../db/errors';
-import { sessionCacheFor } from '../auth/session-cache';
+import { runtimeOf } from '../app-runtime';
 
 /** Everyone with an account, with their sign-in slow-down if any. */
 export async function listPeople({ db }: AppDeps): Promise<Person[]> {
@@ -73,7 +73,8 @@ export async function invitePerson({ db, config }: AppDeps, invitedBy: { name: s
   return personWithState(db, row);
 }
 
-export async function updatePerson({ db }: AppDeps, actorId: string, personId: string, update: UpdatePersonRequest) {
+export async function updatePerson(deps: AppDeps, actorId: string, personId: string, update: UpdatePersonRequest) {
+  const { db } = deps;
   if (personId === actorId && (update.status === 'disabled' || (update.role && update.role !== 'admin'))) {
     throw new HttpError(409, 'own_account', 'You cannot disable your own account or remove your own admin role');
   }
@@ -91,7 +92,7 @@ export async function updatePerson({ db }: AppDeps, actorId: string, personId: s
     return updated!;
   });
   // This process forgets at once; the others hear it from the database's notification.
-  sessionCacheFor(db).forgetUser(personId);
+  runtimeOf(deps).sessionCache.forgetUser(personId);
   return personWithState(db, row);
 }
 

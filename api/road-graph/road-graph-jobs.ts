@@ -1,6 +1,5 @@
 import { sql } from 'drizzle-orm';
 import type { AppDeps } from '../app-deps';
-import { activeBasemap, forgetActiveBasemap } from '../basemap/active-basemap';
 import { runtimeOf } from '../app-runtime';
 import { type JobPolicy, type JobQueue } from '../jobs/job-queue';
 import { sampleEdgeElevations } from './road-graph-grades';
@@ -9,8 +8,9 @@ import { sampleEdgeElevations } from './road-graph-grades';
 export const ROAD_GRAPH_GRADES_JOB = 'road-graph-grades';
 
 export async function regradeRoadGraph(deps: AppDeps): Promise<void> {
-  forgetActiveBasemap(deps.db);
-  const base = await activeBasemap(deps.db);
+  const active = runtimeOf(deps).activeBasemap;
+  active.forget();
+  const base = await active.current();
   if (base) await sampleEdgeElevations(deps, { kind: 'imported', schemaName: base.schemaName });
   await sampleEdgeElevations(deps, { kind: 'overlay', baseImportId: base?.importId ?? null });
 }
@@ -23,8 +23,9 @@ const ROAD_GRAPH_GRADES_POLICY: JobPolicy = { expireInSeconds: 60 * 60, retryLim
 
 /** Queues a re-sampling of the graph's elevations when there is a graph (in-process where no shared queue runs). */
 export async function requestRoadGraphRegrade(deps: AppDeps): Promise<void> {
-  forgetActiveBasemap(deps.db);
-  const base = await activeBasemap(deps.db);
+  const active = runtimeOf(deps).activeBasemap;
+  active.forget();
+  const base = await active.current();
   const [overlay] = await deps.db.execute<{ found: boolean }>(sql`SELECT EXISTS (SELECT 1 FROM road_graph_overlay_edges) AS found`);
   if (!base && !overlay?.found) return;
   const queue = await runtimeOf(deps).jobsFor('road-graph', (inline) => registerRoadGraphWorkers(deps, inline));

@@ -7,8 +7,10 @@
 import { sql, type SQL } from 'drizzle-orm';
 import { PgDialect } from 'drizzle-orm/pg-core';
 import { PATH_MAX_SNAP_DISTANCE_M, type RoadNetworkPath } from '@shared/domain/road-routes';
+import type { AppDeps } from '../app-deps';
+import { runtimeOf } from '../app-runtime';
 import type { Database } from '../db/client';
-import { activeBasemap, forgetActiveBasemap, isMissingRelation, type ActiveBasemap } from '../basemap/active-basemap';
+import { isMissingRelation, type ActiveBasemap, type ActiveBasemapReader } from '../basemap/active-basemap';
 import { HttpError, NotFoundError } from '../http/http-error';
 import { schemaIdentifier } from './road-graph-build';
 
@@ -42,20 +44,25 @@ const SEARCH_MARGIN_SHARE = 0.5;
 const dialect = new PgDialect();
 
 /** Shortest path from `from` through each `via` to `to`; 422 when a point is too far or no path exists. */
-export async function findRoadPath(db: Database, request: { from: Position; to: Position; via?: Position[] }): Promise<RoadNetworkPath> {
+export async function findRoadPath(deps: AppDeps, request: { from: Position; to: Position; via?: Position[] }): Promise<RoadNetworkPath> {
+  const active = runtimeOf(deps).activeBasemap;
   try {
-    return await pathOnActiveGraph(db, request);
+    return await pathOnActiveGraph(deps.db, active, request);
   } catch (error) {
     // Expected only right after another process switched to a new extract and dropped the old
     // one: read the active extract again and answer from it.
     if (!isMissingRelation(error)) throw error;
-    forgetActiveBasemap(db);
-    return pathOnActiveGraph(db, request);
+    active.forget();
+    return pathOnActiveGraph(deps.db, active, request);
   }
 }
 
-async function pathOnActiveGraph(db: Database, request: { from: Position; to: Position; via?: Position[] }): Promise<RoadNetworkPath> {
-  const base = await activeBasemap(db);
+async function pathOnActiveGraph(
+  db: Database,
+  active: ActiveBasemapReader,
+  request: { from: Position; to: Position; via?: Position[] },
+): Promise<RoadNetworkPath> {
+  const base = await active.current();
   if (!(await graphHasEdges(db, base))) {
     throw new NotFoundError('A road network (import an OpenStreetMap extract or upload a reference network)');
   }

@@ -11,7 +11,7 @@ import type { AppDeps } from '../app-deps';
 import type { Database } from '../db/client';
 import { roadNetworkLines } from '../db/schema/index';
 import { BadRequestError } from '../http/http-error';
-import { activeBasemap } from '../basemap/active-basemap';
+import { runtimeOf } from '../app-runtime';
 import { rebuildOverlay } from '../road-graph/road-graph-build';
 import { sampleEdgeElevations } from '../road-graph/road-graph-grades';
 import { ROAD_GRAPH_LOCK } from '../road-graph/road-graph-lock';
@@ -68,7 +68,7 @@ export function parseRoadNetwork(document: unknown, fileName?: string): ParsedLi
 }
 
 export async function replaceRoadNetwork(deps: AppDeps, uploadedById: string | null, lines: ParsedLine[]) {
-  const base = await activeBasemap(deps.db);
+  const base = await runtimeOf(deps).activeBasemap.current();
   await deps.db.transaction(async (tx) => {
     await tx.execute(sql`SELECT pg_advisory_xact_lock(${ROAD_GRAPH_LOCK})`);
     await tx.delete(roadNetworkLines);

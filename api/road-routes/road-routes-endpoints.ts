@@ -286,7 +286,7 @@ export function roadRouteEndpoints(deps: AppDeps) {
         },
       },
       handler: async ({ body, res }) => {
-        res.json(await findRoadPath(deps.db, body));
+        res.json(await findRoadPath(deps, body));
       },
     }),
   ];

@@ -19,7 +19,6 @@ import type { ServiceDayEngineInput, ServiceDayRouteInput, ServiceDayVehicleInpu
 import { EngineInputError } from '@shared/engine/validation';
 import type { AppDeps } from '../app-deps';
 import { withDefaultServices } from '../app-services';
-import { analysisPoolFor } from '../analysis/analysis-pool';
 import { type Actor, recordAudit } from '../audit/audit-log';
 import { readSafetySettings } from '../board/network-settings';
 import type { Database, Executor } from '../db/client';
@@ -319,7 +318,7 @@ export async function computeServiceDay(deps: AppDeps, row: repository.ServiceDa
   const prepared = await prepareEngineInput(deps, row);
   if (!prepared.ok) return prepared;
   try {
-    const result = await analysisPoolFor(deps).runServiceDay(prepared.input);
+    const result = await runtimeOf(deps).analysisPool.runServiceDay(prepared.input);
     return {
       ok: true,
       engineVersion: result.engineVersion,

@@ -1,10 +1,10 @@
-import { describe, expect, it } from 'vitest';
+import { afterAll, describe, expect, it } from 'vitest';
 import type { AppDeps } from '../../api/app-deps';
 import { attachJobQueue, jobQueueOf, runtimeOf } from '../../api/app-runtime';
 import { withDefaultServices } from '../../api/app-services';
 import { createInlineJobQueue, type JobPolicy, type JobQueue } from '../../api/jobs/job-queue';
 import { terrainRuntimeFor } from '../../api/terrain/terrain-runtime';
-import { testConfig } from '../support/test-app';
+import { createTestContext, testConfig } from '../support/test-app';
 
 const COUNT_POLICY: JobPolicy = { retryLimit: 0, expireInSeconds: 60 };
 
@@ -64,5 +64,48 @@ describe('AppRuntime in AppDeps', () => {
     expect(other).not.toBe(first);
     expect(registrations).toBe(1);
     expect(handled.sort()).toEqual(['count 1', 'count 2']);
+  });
+});
+
+describe('AppRuntime lifecycle', () => {
+  const context = createTestContext();
+  const other = createTestContext();
+  afterAll(async () => {
+    await context.close();
+    await other.close();
+  });
+
+  it('keeps one session cache, answer cache, analysis pool and base-map reader per runtime, shared by every copy', () => {
+    const runtime = runtimeOf(context.deps);
+    const copy = withDefaultServices({ ...context.deps });
+
+    expect(runtimeOf(copy).sessionCache).toBe(runtime.sessionCache);
+    expect(runtimeOf(copy).answerCache).toBe(runtime.answerCache);
+    expect(runtimeOf(copy).analysisPool).toBe(runtime.analysisPool);
+    expect(runtimeOf(copy).basemapStorage).toBe(runtime.basemapStorage);
+    expect(runtimeOf(copy).activeBasemap).toBe(runtime.activeBasemap);
+    // Another test context is another process: nothing of the first is shared with it.
+    expect(runtimeOf(other.deps).sessionCache).not.toBe(runtime.sessionCache);
+    expect(runtimeOf(other.deps).answerCache).not.toBe(runtime.answerCache);
+    expect(runtimeOf(other.deps).analysisPool).not.toBe(runtime.analysisPool);
+  });
+
+  it('stops the caches’ announcement lines on close, and makes fresh parts when used again', async () => {
+    const runtime = runtimeOf(other.deps);
+    const sessions = runtime.sessionCache;
+    const answers = runtime.answerCache;
+    const pool = runtime.analysisPool;
+    for (let waited = 0; !(sessions.trusted && answers.trusted); waited += 50) {
+      if (waited > 20_000) throw new Error('the caches never heard their own heartbeat');
+      await new Promise((resolve) => setTimeout(resolve, 50));
+    }
+
+    await runtime.close();
+
+    expect(sessions.trusted).toBe(false);
+    expect(answers.trusted).toBe(false);
+    expect(runtime.sessionCache).not.toBe(sessions);
+    expect(runtime.answerCache).not.toBe(answers);
+    expect(runtime.analysisPool).not.toBe(pool);
   });
 });

@@ -35,7 +35,11 @@ export interface TestContext {
   close: () => Promise<void>;
 }
 
-/** The real app on the real test database; call `close` in afterAll. */
+/**
+ * The real app on the real test database, with a runtime of its own (its caches, analysis threads
+ * and terrain runtime, as one API process has); call `close` in afterAll: it closes the runtime,
+ * then the database.
+ */
 export function createTestContext(overrides: Partial<Record<keyof Config, string>> = {}): TestContext {
   const config = testConfig(overrides);
   const { db, close } = createDatabase(config.DATABASE_URL, {
@@ -44,8 +48,17 @@ export function createTestContext(overrides: Partial<Record<keyof Config, string
     statementTimeoutMs: config.DB_STATEMENT_TIMEOUT_MS,
   });
   // The runtime is made now, so every app or copy built from these deps shares it (runtimeOf).
-  const deps: AppDeps = { db, config, runtime: new AppRuntime({ db, config }) };
-  return { app: createApp(deps), db, deps, close };
+  const runtime = new AppRuntime({ db, config });
+  const deps: AppDeps = { db, config, runtime };
+  return {
+    app: createApp(deps),
+    db,
+    deps,
+    close: async () => {
+      await runtime.close();
+      await close();
+    },
+  };
 }
 
 let passwordHash: Promise<string> | undefined;

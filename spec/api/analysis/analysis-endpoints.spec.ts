@@ -2,7 +2,7 @@ import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { previewResponseSchema } from '@shared/domain/analysis';
 import { MAX_RESAMPLED_POINTS, MAX_ROUTE_LENGTH_M } from '@shared/engine/constants';
-import { analysisPoolFor, closeAnalysisPool } from '../../../api/analysis/analysis-pool';
+import { runtimeOf } from '../../../api/app-runtime';
 import { createTestContext } from '../../support/test-app';
 import { sessionCookies } from '../../support/session-cookie';
 import { truncateAll } from '../../support/test-database';
@@ -19,10 +19,7 @@ beforeAll(async () => {
   await truncateAll(db);
   cookie = await sessionCookies(db, context.deps.config)('planner');
 });
-afterAll(async () => {
-  await closeAnalysisPool(context.deps);
-  await context.close();
-});
+afterAll(() => context.close());
 
 describe('POST /api/analysis/road-load', () => {
   it('matches the worked 6 % climb at 30 km/h and 1000 m (engine README §1.4 a, hand-computed)', async () => {
@@ -127,7 +124,7 @@ describe('POST /api/analysis/preview', () => {
   });
 
   it('keeps answering other requests while an analysis runs on a worker thread (issue 11)', async () => {
-    const pool = analysisPoolFor(context.deps);
+    const pool = runtimeOf(context.deps).analysisPool;
     await request(app)
       .post('/api/analysis/preview')
       .set('Cookie', cookie)

@@ -1,7 +1,8 @@
 import { eq, sql } from 'drizzle-orm';
 import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { sessionCacheFor, type SessionCache } from '../../../api/auth/session-cache';
+import { runtimeOf } from '../../../api/app-runtime';
+import type { SessionCache } from '../../../api/auth/session-cache';
 import { sessions } from '../../../api/db/schema/index';
 import { aPerson, createTestContext, TEST_PASSWORD, type TestContext } from '../../support/test-app';
 
@@ -26,8 +27,7 @@ describe('session cache across two API instances', () => {
   beforeAll(async () => {
     first = createTestContext();
     second = createTestContext();
-    secondCache = sessionCacheFor(second.db);
-    sessionCacheFor(first.db);
+    secondCache = runtimeOf(second.deps).sessionCache;
     await until(() => secondCache.trusted, 'the second instance hears its own heartbeat');
   });
 
@@ -143,7 +143,7 @@ describe('session cache across two API instances', () => {
 
   it('asks the database on every request while its announcement line is not proven alive', async () => {
     const third = createTestContext();
-    const cache = sessionCacheFor(third.db);
+    const cache = runtimeOf(third.deps).sessionCache;
     try {
       await until(() => cache.trusted, 'the third instance hears its own heartbeat');
       const { cookie, person } = await signedInOnFirst();

@@ -2,7 +2,8 @@ import { getTableName, is, sql } from 'drizzle-orm';
 import { PgTable } from 'drizzle-orm/pg-core';
 import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { answerCacheFor, UNANNOUNCED_TABLES, type AnswerCache } from '../../../api/http/answer-cache';
+import { runtimeOf } from '../../../api/app-runtime';
+import { UNANNOUNCED_TABLES, type AnswerCache } from '../../../api/http/answer-cache';
 import * as schema from '../../../api/db/schema/index';
 import { aRouteDraft } from '../../support/road-route-builders';
 import { aPerson, createTestContext, TEST_PASSWORD, type TestContext } from '../../support/test-app';
@@ -55,8 +56,8 @@ describe('answer cache of the list endpoints', () => {
   beforeAll(async () => {
     first = createTestContext();
     second = createTestContext();
-    firstCache = answerCacheFor(first.db);
-    secondCache = answerCacheFor(second.db);
+    firstCache = runtimeOf(first.deps).answerCache;
+    secondCache = runtimeOf(second.deps).answerCache;
     await until(() => firstCache.trusted && secondCache.trusted, 'both instances hear their own heartbeat');
     onFirst = await signedIn(first, 'planner');
     onSecond = await signedIn(first, 'planner', second.app);
@@ -169,7 +170,7 @@ describe('answer cache of the list endpoints', () => {
 
   it('answers from the database on every request while its announcement line is not proven alive', async () => {
     const third = createTestContext();
-    const cache = answerCacheFor(third.db);
+    const cache = runtimeOf(third.deps).answerCache;
     try {
       await until(() => cache.trusted, 'the third instance hears its own heartbeat');
       const agent = await signedIn(third, 'planner');
