@@ -7,7 +7,6 @@ import { TerrainMap } from '../../../web/app/map/terrain-map';
 import { RoadRoutesApi } from '../../../web/app/road-routes/road-routes-api';
 import ServiceDayEditor from '../../../web/app/service-days/service-day-editor';
 import { VehicleProfilesApi } from '../../../web/app/vehicles/vehicle-profiles-api';
-import { settle } from '../support/settle';
 import { ROUTES, ROUTE_A, VEHICLE } from './fixtures';
 import { MapStub } from './stubs';
 
@@ -122,3 +121,14 @@ describe('ServiceDayEditor', () => {
     expect(element.querySelector('[data-testid="save-error"]')?.textContent).toContain('need attention');
   });
 });
+
+/**
+ * Lets the answers flushed so far reach the page and renders it. Not `whenStable`: a resource
+ * whose request is still open holds the application unstable until the test answers it.
+ */
+async function settle(fixture: ComponentFixture<unknown>): Promise<void> {
+  for (let round = 0; round < 3; round++) {
+    await new Promise((resolve) => setTimeout(resolve, 0));
+    fixture.detectChanges();
+  }
+}

@@ -1,13 +1,12 @@
 import { provideHttpClient, withInterceptors } from '@angular/common/http';
 import { HttpTestingController, provideHttpClientTesting } from '@angular/common/http/testing';
-import { TestBed } from '@angular/core/testing';
+import { TestBed, type ComponentFixture } from '@angular/core/testing';
 import { provideRouter } from '@angular/router';
 import type { ServiceDay } from '@shared/domain/service-days';
 import { DistanceChart } from '../../../web/app/charts/distance-chart';
 import { apiErrorInterceptor } from '../../../web/app/core/api-error-interceptor';
 import { RoadRoutesApi } from '../../../web/app/road-routes/road-routes-api';
 import ServiceDayResultScreen from '../../../web/app/service-days/service-day-result';
-import { settle } from '../support/settle';
 import { DAY_ID, ROUTES, ROUTE_A, block, blockResult, result } from './fixtures';
 import { ChartStub } from './stubs';
 
@@ -128,3 +127,14 @@ describe('ServiceDayResultScreen', () => {
     ]);
   });
 });
+
+/**
+ * Lets the answers flushed so far reach the page and renders it. Not `whenStable`: a resource
+ * whose request is still open holds the application unstable until the test answers it.
+ */
+async function settle(fixture: ComponentFixture<unknown>): Promise<void> {
+  for (let round = 0; round < 3; round++) {
+    await new Promise((resolve) => setTimeout(resolve, 0));
+    fixture.detectChanges();
+  }
+}

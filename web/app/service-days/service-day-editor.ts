@@ -1,4 +1,15 @@
-import { ChangeDetectionStrategy, Component, computed, effect, inject, input, signal, untracked } from '@angular/core';
+import {
+  ChangeDetectionStrategy,
+  Component,
+  computed,
+  inject,
+  input,
+  linkedSignal,
+  resource,
+  signal,
+  type ResourceRef,
+  type WritableSignal,
+} from '@angular/core';
 import { FormsModule } from '@angular/forms';
 import { MatButtonModule } from '@angular/material/button';
 import { MatButtonToggleModule } from '@angular/material/button-toggle';
@@ -9,6 +20,8 @@ import { MatProgressBarModule } from '@angular/material/progress-bar';
 import { MatSelectModule } from '@angular/material/select';
 import { MatSlideToggleModule } from '@angular/material/slide-toggle';
 import { Router, RouterLink } from '@angular/router';
+import { LoadStatus } from '../ui/load-status';
+import { loadStateOf } from '../ui/load-state';
 import type { RoadRoute, RoadRouteSummary } from '@shared/domain/road-routes';
 import { LOAD_CASES, SEASONS, type LoadCase, type VehicleProfile } from '@shared/domain/vehicle-profiles';
 import {
@@ -60,6 +73,7 @@ const ROUTE_COLOUR = '#0b5567';
     MatFormFieldModule,
     MatIconModule,
     MatInputModule,
+    LoadStatus,
     MatProgressBarModule,
     MatSelectModule,
     MatSlideToggleModule,
@@ -95,10 +109,69 @@ export default class ServiceDayEditor {
   protected readonly draft = signal<ServiceDayDraft>(emptyDraft());
   protected readonly routes = signal<RoadRouteSummary[]>([]);
   protected readonly profiles = signal<VehicleProfile[]>([]);
-  protected readonly routeShapes = signal<ReadonlyMap<string, RoadRoute>>(new Map());
-  protected readonly isLoading = signal(true);
+  /**
+   * The routes, the vehicle profiles and (when editing) the service day, asked for by id: a new id
+   * starts a new load and an answer for an earlier one is never used. The draft is filled in the
+   * loader, once per answer, so nothing the person typed since is overwritten.
+   */
+  protected readonly data = resource({
+    params: () => ({ serviceDayId: this.serviceDayId() ?? null }),
+    loader: async ({ params, abortSignal }) => {
+      const [routes, profiles, day] = await Promise.all([
+        this.routesApi.list(),
+        this.vehiclesApi.list(),
+        params.serviceDayId ? this.api.get(params.serviceDayId) : Promise.resolve(null),
+      ]);
+      if (!abortSignal.aborted) {
+        this.routes.set(routes);
+        this.profiles.set(profiles);
+        this.tripRouteId.set(routes[0]?.id ?? null);
+        if (day) {
+          this.draft.set(draftOf(day));
+          const positions = day.chargers.map((charger) => charger.position);
+          if (positions.length > 0) this.fitTo.set(positions);
+        }
+      }
+      return { routes, profiles, day };
+    },
+  });
+  protected readonly loadState = loadStateOf(this.data);
+  protected readonly isLoading = computed(() => this.loadState().status !== 'ready');
+  /** Every route the blocks run and the one chosen for the next trip, sorted; a new array only when the set changes. */
+  private readonly usedRouteIds = computed(
+    () => {
+      const used = new Set(this.draft().blocks.flatMap((block) => block.trips.map((trip) => trip.routeId)));
+      const chosen = this.tripRouteId();
+      if (chosen) used.add(chosen);
+      return [...used].sort();
+    },
+    { equal: (a, b) => a.join() === b.join() },
+  );
+  /** The lines of every route the blocks run (and the one chosen for the next trip), so chargers can be placed at its ends. */
+  private readonly shapesData: ResourceRef<ReadonlyMap<string, RoadRoute> | undefined> = resource({
+    params: () => ({ routeIds: this.usedRouteIds() }),
+    loader: async ({ params }): Promise<ReadonlyMap<string, RoadRoute>> => {
+      const known: ReadonlyMap<string, RoadRoute> = this.routeShapes();
+      const missing = params.routeIds.filter((id) => !known.has(id));
+      if (missing.length === 0) return known;
+      const loaded = await Promise.all(missing.map((id) => this.routesApi.get(id)));
+      const next = new Map<string, RoadRoute>(known);
+      for (const route of loaded) next.set(route.id, route);
+      if (this.draft().chargers.length === 0 || !this.fitTo()) {
+        this.fitTo.set([...next.values()].flatMap((route) => route.geometry.coordinates.map(([lon, lat]) => [lon, lat] as MapPosition)));
+      }
+      return next;
+    },
+  });
+  /** The route lines drawn: every line loaded so far (a failed load leaves a line out; the editor still works). */
+  protected readonly routeShapes: WritableSignal<ReadonlyMap<string, RoadRoute>> = linkedSignal<
+    ReadonlyMap<string, RoadRoute> | undefined,
+    ReadonlyMap<string, RoadRoute>
+  >({
+    source: () => (this.shapesData.hasValue() ? this.shapesData.value() : undefined),
+    computation: (shapes, previous) => shapes ?? previous?.value ?? new Map(),
+  });
   protected readonly isSaving = signal(false);
-  protected readonly loadError = signal<string | null>(null);
   protected readonly saveError = signal<string | null>(null);
   /** Problems by field path (`blocks.0.trips.1.departureS`), from the last check or refused save. */
   protected readonly errors = signal<ReadonlyMap<string, string>>(new Map());
@@ -155,20 +228,6 @@ export default class ServiceDayEditor {
     });
     return overlays;
   });
-
-  constructor() {
-    effect(() => {
-      const serviceDayId = this.serviceDayId();
-      untracked(() => void this.load(serviceDayId));
-    });
-    // Draw every route the blocks run, so chargers can be placed at its ends.
-    effect(() => {
-      const used = new Set(this.draft().blocks.flatMap((block) => block.trips.map((trip) => trip.routeId)));
-      const chosen = this.tripRouteId();
-      if (chosen) used.add(chosen);
-      untracked(() => void this.loadShapes([...used]));
-    });
-  }
 
   protected routeName(routeId: string): string {
     return this.routes().find((route) => route.id === routeId)?.name ?? 'Unknown route';
@@ -493,46 +552,6 @@ export default class ServiceDayEditor {
         next.delete(path);
         return next;
       });
-    }
-  }
-
-  private async load(serviceDayId: string | undefined): Promise<void> {
-    this.isLoading.set(true);
-    this.loadError.set(null);
-    try {
-      const [routes, profiles, day] = await Promise.all([
-        this.routesApi.list(),
-        this.vehiclesApi.list(),
-        serviceDayId ? this.api.get(serviceDayId) : Promise.resolve(null),
-      ]);
-      this.routes.set(routes);
-      this.profiles.set(profiles);
-      this.tripRouteId.set(routes[0]?.id ?? null);
-      if (day) {
-        this.draft.set(draftOf(day));
-        const positions = day.chargers.map((charger) => charger.position);
-        if (positions.length > 0) this.fitTo.set(positions);
-      }
-    } catch (error: unknown) {
-      this.loadError.set(describeApiError(error));
-    } finally {
-      this.isLoading.set(false);
-    }
-  }
-
-  private async loadShapes(routeIds: string[]): Promise<void> {
-    const missing = routeIds.filter((id) => !this.routeShapes().has(id));
-    if (missing.length === 0) return;
-    try {
-      const loaded = await Promise.all(missing.map((id) => this.routesApi.get(id)));
-      const next = new Map(this.routeShapes());
-      for (const route of loaded) next.set(route.id, route);
-      this.routeShapes.set(next);
-      if (this.draft().chargers.length === 0 || !this.fitTo()) {
-        this.fitTo.set([...next.values()].flatMap((route) => route.geometry.coordinates.map(([lon, lat]) => [lon, lat] as MapPosition)));
-      }
-    } catch {
-      // The map then lacks a route line; the editor itself still works.
     }
   }
 }

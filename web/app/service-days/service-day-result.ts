@@ -1,6 +1,6 @@
 import { DatePipe, PercentPipe } from '@angular/common';
 import { HttpErrorResponse } from '@angular/common/http';
-import { ChangeDetectionStrategy, Component, DestroyRef, computed, effect, inject, input, signal, untracked } from '@angular/core';
+import { ChangeDetectionStrategy, Component, computed, inject, input, linkedSignal, resource, signal } from '@angular/core';
 import { MatButtonModule } from '@angular/material/button';
 import { MatDialog } from '@angular/material/dialog';
 import { MatIconModule } from '@angular/material/icon';
@@ -25,6 +25,9 @@ import { DistanceChart } from '../charts/distance-chart';
 import { apiErrorBody, describeApiError } from '../core/api-error-message';
 import { Session } from '../core/session';
 import { AdviceCautions } from '../ui/advice-cautions';
+import { LoadStatus } from '../ui/load-status';
+import { loadStateOf, type LoadState } from '../ui/load-state';
+import { latestAnswer, reloadWhileGoing } from '../ui/polled-resource';
 import { confirmDelete } from '../ui/confirm-delete-dialog';
 import { RiskChip } from '../ui/risk-chip';
 import { QuantityPipe } from '../units/quantity-pipe';
@@ -43,6 +46,8 @@ type ResultState =
 /** How often a queued or running service day is asked for its status, ms. */
 const POLL_INTERVAL_MS = 1_500;
 
+const isGoing = (day: ServiceDay) => day.status === 'queued' || day.status === 'running';
+
 /**
  * One service day's run: SOC through the day for every block on one chart with the reserve,
  * the blocks that cannot be worked first with their reasons, charging per block, the descents
@@ -60,6 +65,7 @@ const POLL_INTERVAL_MS = 1_500;
     MatMenuModule,
     MatProgressBarModule,
     DistanceChart,
+    LoadStatus,
     QuantityPipe,
     RiskChip,
     ServiceDayTimeline,
@@ -88,10 +94,76 @@ export default class ServiceDayResultScreen {
   protected readonly directionLabels = DIRECTION_LABELS;
   protected readonly notCovered = SERVICE_DAY_NOT_COVERED;
 
-  protected readonly day = signal<ServiceDay | null>(null);
+  /**
+   * The service day, asked for by id: a new id drops the earlier answer, and a queued or running
+   * day is asked for again (`reload`) until it settles. Expected failures: unknown id (404), server
+   * unreachable, an answer that fails the shared schema.
+   */
+  protected readonly data = resource({
+    params: () => ({ serviceDayId: this.serviceDayId() }),
+    loader: ({ params }) => this.api.get(params.serviceDayId),
+  });
+  protected readonly loadState = loadStateOf(this.data);
+  /** The last answer for the current id: kept while a poll reloads or fails, replaced by the answer to "Run", dropped on a new id. */
+  protected readonly day = latestAnswer(this.serviceDayId, this.data);
+  /** Which stored result to show: the day's, as of its last computation (none before the first run). */
+  private readonly resultKey = computed(
+    () => {
+      const day = this.day();
+      return day ? { serviceDayId: day.id, computedAt: day.computedAt } : undefined;
+    },
+    { equal: (a, b) => a?.serviceDayId === b?.serviceDayId && a?.computedAt === b?.computedAt },
+  );
+  /** The stored result, asked for again only when the day was computed again; null: none stored. */
+  protected readonly resultData = resource({
+    params: () => this.resultKey(),
+    loader: async ({ params }): Promise<ServiceDayResult | null> => {
+      if (params.computedAt === null) return null;
+      try {
+        return await this.api.result(params.serviceDayId);
+      } catch (error: unknown) {
+        // Not stored (404) or its first run still going (409): the page says so without an error.
+        // An unknown day (`not_found`) is an error.
+        if (
+          error instanceof HttpErrorResponse &&
+          (error.status === 404 || error.status === 409) &&
+          apiErrorBody(error)?.code !== 'not_found'
+        ) {
+          return null;
+        }
+        throw error;
+      }
+    },
+  });
+  /** The result shown: the newest answer for this day, the previous one while a newer loads. */
+  private readonly shownResult = linkedSignal<
+    { id: string; value: ServiceDayResult | null | undefined },
+    ServiceDayResult | null | undefined
+  >({
+    source: () => ({ id: this.serviceDayId(), value: this.resultData.hasValue() ? this.resultData.value() : undefined }),
+    computation: (source, previous) =>
+      source.value !== undefined ? source.value : previous?.source.id === source.id && previous.value ? previous.value : undefined,
+  });
+  protected readonly resultState = computed<ResultState>(() => {
+    const shown = this.shownResult();
+    if (shown) return { status: 'ready', result: shown };
+    if (shown === null) return { status: 'none' };
+    if (this.resultData.status() === 'error') return { status: 'error', message: describeApiError(this.resultData.error()) };
+    return { status: 'loading' };
+  });
+  /** The results' load while none is shown yet, for the load-status line. */
+  protected readonly resultLoadState = computed<LoadState>(() => {
+    const state = this.resultState();
+    return state.status === 'loading' || state.status === 'error' ? state : { status: 'ready' };
+  });
+  /** What failed after the page was shown: an action (Run, Delete) or a poll (the next one tries again). */
+  private readonly actionError = signal<string | null>(null);
+  protected readonly loadError = computed(() => {
+    if (this.actionError()) return this.actionError();
+    if (this.day() && this.data.status() === 'error') return `${describeApiError(this.data.error())} Still trying.`;
+    return null;
+  });
   protected readonly routes = signal<RoadRouteSummary[]>([]);
-  protected readonly loadError = signal<string | null>(null);
-  protected readonly resultState = signal<ResultState>({ status: 'loading' });
   protected readonly isStarting = signal(false);
 
   protected readonly canEdit = computed(() => this.session.can('service-days.edit'));
@@ -118,19 +190,14 @@ export default class ServiceDayResultScreen {
       .sort((a, b) => b.powerW - a.powerW)
       .map((peak) => ({ ...peak, name: this.chargerName(peak.chargerKey) })),
   );
-  protected readonly isRunning = computed(() => this.day()?.status === 'queued' || this.day()?.status === 'running');
+  protected readonly isRunning = computed(() => {
+    const day = this.day();
+    return day !== null && isGoing(day);
+  });
 
   constructor() {
-    const destroyRef = inject(DestroyRef);
-    let pollTimer: ReturnType<typeof setTimeout> | undefined;
-    destroyRef.onDestroy(() => clearTimeout(pollTimer));
-    effect(() => {
-      const id = this.serviceDayId();
-      untracked(() => {
-        clearTimeout(pollTimer);
-        void this.load(id, (next) => (pollTimer = setTimeout(next, POLL_INTERVAL_MS)));
-      });
-    });
+    // A day still queued or running is asked for again until it settles.
+    reloadWhileGoing(this.data, this.day, isGoing, POLL_INTERVAL_MS);
     void this.routesApi.list().then(
       (routes) => this.routes.set(routes),
       () => undefined, // Only the timeline's route names and estimated arrivals need them.
@@ -165,12 +232,12 @@ export default class ServiceDayResultScreen {
     const day = this.day();
     if (!day) return;
     this.isStarting.set(true);
-    this.loadError.set(null);
+    this.actionError.set(null);
     try {
+      // Queued now: the polling follows it until it settles.
       this.day.set(await this.api.run(day.id));
-      await this.load(day.id, (next) => setTimeout(next, POLL_INTERVAL_MS));
     } catch (error: unknown) {
-      this.loadError.set(describeApiError(error));
+      this.actionError.set(describeApiError(error));
     } finally {
       this.isStarting.set(false);
     }
@@ -190,35 +257,7 @@ export default class ServiceDayResultScreen {
       await this.api.remove(day.id);
       await this.router.navigate(['/service-days']);
     } catch (error: unknown) {
-      this.loadError.set(describeApiError(error));
-    }
-  }
-
-  private async load(id: string, poll: (next: () => void) => void): Promise<void> {
-    try {
-      const day = await this.api.get(id);
-      if (id !== this.serviceDayId()) return;
-      this.day.set(day);
-      if (day.status === 'queued' || day.status === 'running') poll(() => void this.load(id, poll));
-      if (day.computedAt === null) {
-        this.resultState.set({ status: 'none' });
-        return;
-      }
-      if (this.result()?.computedAt === day.computedAt) return;
-      this.resultState.set({ status: 'ready', result: await this.api.result(id) });
-    } catch (error: unknown) {
-      // Not run yet (404) or its first run still going (409): the page says so without an error.
-      if (
-        this.day() &&
-        error instanceof HttpErrorResponse &&
-        (error.status === 404 || error.status === 409) &&
-        apiErrorBody(error)?.code !== 'not_found'
-      ) {
-        this.resultState.set({ status: 'none' });
-        return;
-      }
-      this.loadError.set(describeApiError(error));
-      this.resultState.set({ status: 'error', message: describeApiError(error) });
+      this.actionError.set(describeApiError(error));
     }
   }
 }

@@ -1,5 +1,16 @@
 import { DatePipe } from '@angular/common';
-import { ChangeDetectionStrategy, Component, computed, effect, inject, input, signal, untracked } from '@angular/core';
+import {
+  ChangeDetectionStrategy,
+  Component,
+  computed,
+  effect,
+  inject,
+  input,
+  linkedSignal,
+  resource,
+  signal,
+  untracked,
+} from '@angular/core';
 import { toSignal } from '@angular/core/rxjs-interop';
 import { FormArray, FormControl, FormGroup, ReactiveFormsModule, Validators } from '@angular/forms';
 import { MatCheckboxModule } from '@angular/material/checkbox';
@@ -10,13 +21,14 @@ import { MatButtonToggleModule } from '@angular/material/button-toggle';
 import { MatFormFieldModule } from '@angular/material/form-field';
 import { MatIconModule } from '@angular/material/icon';
 import { MatInputModule } from '@angular/material/input';
-import { MatProgressBarModule } from '@angular/material/progress-bar';
 import { MatSelectModule } from '@angular/material/select';
 import { MatSnackBar } from '@angular/material/snack-bar';
 import { Router, RouterLink } from '@angular/router';
 import type { CapabilityCurvesResponse, LoadCase, VehicleProfile } from '@shared/domain/vehicle-profiles';
 import { describeApiError } from '../core/api-error-message';
 import { confirmDelete } from '../ui/confirm-delete-dialog';
+import { LoadStatus } from '../ui/load-status';
+import { LOADED, loadStateOf, type LoadState } from '../ui/load-state';
 import { Session } from '../core/session';
 import type { UnitSystem } from '../units/unit-format';
 import { UnitPreference } from '../units/unit-preference';
@@ -62,10 +74,10 @@ type CopRow = FormGroup<{ ambient: FormControl<number | null>; cop: FormControl<
     MatFormFieldModule,
     MatIconModule,
     MatInputModule,
-    MatProgressBarModule,
     MatSelectModule,
     UnitSwitch,
     CapabilityChart,
+    LoadStatus,
   ],
   templateUrl: './vehicle-profile-editor.html',
   styleUrl: './vehicle-profile-editor.scss',
@@ -94,14 +106,57 @@ export default class VehicleProfileEditor {
   }));
   protected readonly retarderTypes = Object.entries(RETARDER_TYPE_LABELS) as [RetarderType, string][];
 
-  protected readonly profile = signal<VehicleProfile | null>(null);
-  protected readonly source = signal<VehicleProfile | null>(null);
-  protected readonly isLoading = signal(true);
+  /**
+   * The profile shown (`vehicles/:id`) or copied (`vehicles/new?copyOf=`), asked for by id: a new
+   * id drops the earlier answer and an answer for an earlier id is never used. The form is filled
+   * in the loader, once per answer, so a later reload of something else never overwrites what the
+   * person typed. Nothing to load for a blank new profile.
+   */
+  protected readonly data = resource({
+    params: () => {
+      const id = this.vehicleProfileId();
+      const copyOf = this.copyOf();
+      if (id) return { id, copy: false };
+      return copyOf ? { id: copyOf, copy: true } : undefined;
+    },
+    loader: async ({ params, abortSignal }) => {
+      const profile = await this.api.get(params.id);
+      if (!abortSignal.aborted) {
+        if (params.copy) this.fillFrom(profile, `${profile.name} (copy)`);
+        else this.fillFrom(profile);
+      }
+      return profile;
+    },
+  });
+  private readonly dataState = loadStateOf(this.data);
+  /** Ready at once for a blank new profile; otherwise the profile's load. */
+  protected readonly loadState = computed<LoadState>(() => (this.data.status() === 'idle' ? LOADED : this.dataState()));
+  /** The saved profile being edited: the loaded one, then the answer to each save. */
+  protected readonly profile = linkedSignal<VehicleProfile | null>(() =>
+    this.vehicleProfileId() && this.data.hasValue() ? (this.data.value() ?? null) : null,
+  );
+  /** The profile a new one was copied from. */
+  protected readonly source = computed(() => (!this.vehicleProfileId() && this.data.hasValue() ? (this.data.value() ?? null) : null));
   protected readonly isSaving = signal(false);
+  /** Why the last save failed, or that some values need attention. */
   protected readonly error = signal<string | null>(null);
-  protected readonly capability = signal<CapabilityCurvesResponse | null>(null);
   protected readonly capabilityLoad = signal<LoadCase>('seated');
-  protected readonly capabilityError = signal<string | null>(null);
+  /** The capability curves of the saved profile (or the one copied), for the load chosen. */
+  protected readonly capabilityData = resource({
+    params: () => {
+      const id = this.vehicleProfileId() ?? this.copyOf();
+      return id ? { id, load: this.capabilityLoad() } : undefined;
+    },
+    loader: ({ params }) => this.api.capability(params.id, params.load),
+  });
+  /** The curves drawn: the newest answer, the previous chart while another load case is asked for. */
+  protected readonly capability = linkedSignal<CapabilityCurvesResponse | undefined, CapabilityCurvesResponse | null>({
+    source: () => (this.capabilityData.hasValue() ? this.capabilityData.value() : undefined),
+    computation: (curves, previous) => curves ?? (this.capabilityData.status() === 'error' ? null : (previous?.value ?? null)),
+  });
+  protected readonly capabilityError = computed(() =>
+    this.capabilityData.status() === 'error' ? describeApiError(this.capabilityData.error()) : null,
+  );
 
   protected readonly isNew = computed(() => !this.vehicleProfileId());
   protected readonly canEdit = computed(() => this.session.can('vehicles.edit') && (this.isNew() || this.profile()?.isPreset === false));
@@ -148,22 +203,12 @@ export default class VehicleProfileEditor {
 
   constructor() {
     effect(() => {
-      const id = this.vehicleProfileId();
-      const copyOf = this.copyOf();
-      untracked(() => void this.load(id, copyOf));
-    });
-    effect(() => {
       if (this.canEdit()) this.form.enable({ emitEvent: false });
       else this.form.disable({ emitEvent: false });
       untracked(() => this.applyClimateState());
     });
     // Climate fields count (and can block a save) only while the climate is modelled.
     this.form.controls.climateEnabled.valueChanges.subscribe(() => this.applyClimateState());
-    effect(() => {
-      const id = this.vehicleProfileId() ?? this.copyOf();
-      const load = this.capabilityLoad();
-      if (id) untracked(() => void this.loadCapability(id, load));
-    });
     effect(() => {
       const system = this.units();
       untracked(() => this.showNumbersIn(system));
@@ -255,32 +300,18 @@ export default class VehicleProfileEditor {
     }
   }
 
-  private async load(id: string | undefined, copyOf: string | undefined): Promise<void> {
-    this.isLoading.set(true);
-    this.error.set(null);
-    try {
-      if (id) {
-        this.show(await this.api.get(id));
-      } else if (copyOf) {
-        const source = await this.api.get(copyOf);
-        this.source.set(source);
-        this.profile.set(null);
-        this.shownUnits.set(this.units());
-        this.basis = profileNumbersBasis(source, this.shownUnits());
-        this.fill({ ...toVehicleFormValue(source, this.shownUnits()), name: `${source.name} (copy)` });
-      }
-    } catch (error: unknown) {
-      this.error.set(describeApiError(error));
-    } finally {
-      this.isLoading.set(false);
-    }
-  }
-
   private show(profile: VehicleProfile): void {
     this.profile.set(profile);
-    this.shownUnits.set(this.units());
+    this.fillFrom(profile);
+  }
+
+  /** Puts a loaded or saved profile in the form, in the units chosen now (`name` for a copy). */
+  private fillFrom(profile: VehicleProfile, name?: string): void {
+    this.error.set(null);
+    this.shownUnits.set(untracked(this.units));
     this.basis = profileNumbersBasis(profile, this.shownUnits());
-    this.fill(toVehicleFormValue(profile, this.shownUnits()));
+    const value = toVehicleFormValue(profile, this.shownUnits());
+    this.fill(name === undefined ? value : { ...value, name });
     this.form.markAsPristine();
     this.form.markAsUntouched();
   }
@@ -322,16 +353,6 @@ export default class VehicleProfileEditor {
     }
     if (on) this.form.controls.copPoints.enable({ emitEvent: false });
     else this.form.controls.copPoints.disable({ emitEvent: false });
-  }
-
-  private async loadCapability(id: string, load: LoadCase): Promise<void> {
-    this.capabilityError.set(null);
-    try {
-      this.capability.set(await this.api.capability(id, load));
-    } catch (error: unknown) {
-      this.capability.set(null);
-      this.capabilityError.set(describeApiError(error));
-    }
   }
 }
 
