@@ -1,7 +1,8 @@
-import express from 'express';
+import express, { Router } from 'express';
 import request from 'supertest';
 import { describe, expect, it } from 'vitest';
 import { answerEtag, ifNoneMatchHolds, revalidatedAnswer } from '../../../api/http/answer-validator';
+import { endpoint, mountEndpoint } from '../../../api/http/endpoint';
 
 /** An app whose one read answers differently per role (from a header, standing in for the session), as a role-dependent field would. */
 function appWithRoleDependentRead() {
@@ -70,5 +71,22 @@ describe('revalidated answers', () => {
     expect(ifNoneMatchHolds('*', etag)).toBe(true);
     expect(ifNoneMatchHolds(undefined, etag)).toBe(false);
     expect(ifNoneMatchHolds(answerEtag('{"a":2}'), etag)).toBe(false);
+  });
+
+  it('refuses to mount an endpoint that is both revalidated and kept in the answer cache, or a revalidated write', () => {
+    const read = {
+      path: '/api/things',
+      summary: 'Things',
+      tag: 'Spec',
+      access: 'signed-in' as const,
+      responses: {},
+      handler: () => undefined,
+    };
+
+    expect(() => mountEndpoint(Router(), endpoint({ ...read, method: 'get', revalidated: true, cachedAnswer: true }))).toThrow(
+      /cannot be combined/,
+    );
+    expect(() => mountEndpoint(Router(), endpoint({ ...read, method: 'post', revalidated: true }))).toThrow(/only reads/);
+    expect(() => mountEndpoint(Router(), endpoint({ ...read, method: 'get', revalidated: true }))).not.toThrow();
   });
 });
