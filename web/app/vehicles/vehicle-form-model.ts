@@ -340,35 +340,31 @@ export const VEHICLE_FIELDS: readonly VehicleField[] = [
       read: (p) => v(p).endOfLifeChargePowerFraction ?? null,
     },
   ]),
-  ...fieldGroup('Auxiliary loads by season', [
-    { key: 'winterAmbient', label: 'Winter ambient', shown: CELSIUS, range: L.ambientC, step: 1, read: (p) => p.seasons.winter.ambientC },
-    {
-      key: 'winterAux',
-      label: 'Winter auxiliary power',
-      shown: KILOWATTS,
-      range: L.auxPowerW,
-      step: 0.5,
-      read: (p) => p.seasons.winter.auxPowerW,
-    },
-    { key: 'mildAmbient', label: 'Mild ambient', shown: CELSIUS, range: L.ambientC, step: 1, read: (p) => p.seasons.mild.ambientC },
-    {
-      key: 'mildAux',
-      label: 'Mild auxiliary power',
-      shown: KILOWATTS,
-      range: L.auxPowerW,
-      step: 0.5,
-      read: (p) => p.seasons.mild.auxPowerW,
-    },
-    { key: 'summerAmbient', label: 'Summer ambient', shown: CELSIUS, range: L.ambientC, step: 1, read: (p) => p.seasons.summer.ambientC },
-    {
-      key: 'summerAux',
-      label: 'Summer auxiliary power',
-      shown: KILOWATTS,
-      range: L.auxPowerW,
-      step: 0.5,
-      read: (p) => p.seasons.summer.auxPowerW,
-    },
-  ]),
+  ...fieldGroup(
+    'Auxiliary loads by season',
+    (['winter', 'mild', 'summer'] as const).flatMap((season): FieldSpec[] => {
+      const name = season.charAt(0).toUpperCase() + season.slice(1);
+      const seasonOf = (p: VehicleProfileDraftInput) => p.seasons[season];
+      return [
+        {
+          key: `${season}Ambient`,
+          label: `${name} ambient`,
+          shown: CELSIUS,
+          range: L.ambientC,
+          step: 1,
+          read: (p) => seasonOf(p).ambientC,
+        },
+        {
+          key: `${season}Aux`,
+          label: `${name} auxiliary power`,
+          shown: KILOWATTS,
+          range: L.auxPowerW,
+          step: 0.5,
+          read: (p) => seasonOf(p).auxPowerW,
+        },
+      ];
+    }),
+  ),
   ...fieldGroup('Brakes and retarder', [
     {
       key: 'brakeThermalMass',
