@@ -3,6 +3,7 @@
  * the draft (vertices, stops, speed-limit stretches), the edits a planner makes on the map and in
  * the tables, and undo/redo over them. Positions are GeoJSON order, [lon, lat].
  */
+import { LATITUDE_DEG, LONGITUDE_DEG, STOP_DWELL_S } from '@shared/domain/limits';
 import { metresPerDegree } from '@shared/engine/geodesy';
 import { clipRanges, lineLengthM, pointAlongLine, projectOnLine, roundAlongM } from '@shared/geometry/route-line';
 
@@ -52,8 +53,8 @@ export function dropRecordedElevations(state: RouteDraftState): RouteDraftState 
   return { ...state, vertices: state.vertices.map(([lon, lat]) => [lon, lat] as const) };
 }
 
-/** Default dwell of a new stop, s (from memory: 15–30 s at an urban stop). */
-export const DEFAULT_DWELL_S = 20;
+/** Default dwell of a new stop, s (shared/domain/limits.ts). */
+export const DEFAULT_DWELL_S = STOP_DWELL_S.default;
 
 /** Length of a polyline along the ellipsoid, m. */
 export function polylineLengthM(vertices: readonly LonLat[]): number {
@@ -107,8 +108,8 @@ export function roundDegrees(value: number): number {
 export function parseCoordinate(text: string, axis: 'lon' | 'lat'): number | null {
   if (text.trim() === '') return null;
   const value = Number(text);
-  const limit = axis === 'lon' ? 180 : 90;
-  return Number.isFinite(value) && Math.abs(value) <= limit ? roundDegrees(value) : null;
+  const range = axis === 'lon' ? LONGITUDE_DEG : LATITUDE_DEG;
+  return Number.isFinite(value) && value >= range.min && value <= range.max ? roundDegrees(value) : null;
 }
 
 /**
@@ -166,7 +167,8 @@ export function insertVertexAfter(state: RouteDraftState, index: number): RouteD
  */
 export function setVertexCoordinate(state: RouteDraftState, index: number, axis: 'lon' | 'lat', degrees: number): RouteDraftState {
   assertIndex(state, index);
-  if (!(Math.abs(degrees) <= (axis === 'lon' ? 180 : 90))) {
+  const range = axis === 'lon' ? LONGITUDE_DEG : LATITUDE_DEG;
+  if (!(degrees >= range.min && degrees <= range.max)) {
     throw new RangeError(`A ${axis === 'lon' ? 'longitude' : 'latitude'} of ${degrees}° is outside WGS 84`);
   }
   const [lon, lat] = state.vertices[index]!;
