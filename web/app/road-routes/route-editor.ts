@@ -27,14 +27,7 @@ import { QuantityPipe } from '../units/quantity-pipe';
 import { formatQuantity, fromDisplay, toDisplay, unitLabel } from '../units/unit-format';
 import { speedLimitValidator } from '../units/speed-limit-validator';
 import { DEFAULT_SPEED_LIMIT_KPH, SERVICE_DAYS_PER_YEAR, TRIPS_PER_DAY } from '@shared/domain/limits';
-import {
-  SERVICE_DAYS_RANGE,
-  TRIPS_PER_DAY_RANGE,
-  displayToKph,
-  isSpeedLimitKphAllowed,
-  kphToDisplay,
-  speedLimitRange,
-} from '@shared/presentation/index';
+import { SERVICE_DAYS_RANGE, TRIPS_PER_DAY_RANGE, kphToDisplay, speedLimitKphOf, speedLimitRange } from '@shared/presentation/index';
 import { UnitPreference } from '../units/unit-preference';
 import { UnitSwitch } from '../units/unit-switch';
 import { LOADING, loadFailed, loadStateOf } from '../ui/load-state';
@@ -42,7 +35,7 @@ import { LoadStatus } from '../ui/load-status';
 import { RouteElevationBanners, RouteVersionBanner, type RouteProfileState } from './route-banners';
 import { RoadRoutesApi, type RoadNetwork, type RouteVersionInfo } from './road-routes-api';
 import { RouteDraftStore } from './route-draft-store';
-import { RouteVertexTable, type CoordinateTyped } from './tables/route-vertex-table';
+import { RouteVertexTable, type CoordinateChange } from './tables/route-vertex-table';
 import { RouteStopTable, type StopChange } from './tables/route-stop-table';
 import { RouteLimitTable, type LimitChange } from './tables/route-limit-table';
 import { ROUTE_COLOR, lonLatOf, pointAt, routeOverlays, type EditorTool } from './route-overlays';
@@ -56,7 +49,6 @@ import {
   insertVertexAfter,
   moveStopTo,
   moveVertex,
-  parseCoordinate,
   replaceVertex,
   roundDegrees,
   polylineLengthM,
@@ -483,18 +475,10 @@ export default class RouteEditor {
 
   // ---- Tables ----
 
-  /** A coordinate typed in the vertex table; a value out of range is refused and the field shows the vertex again. */
-  protected setVertexCoordinate({ index, axis, text, restore }: CoordinateTyped): void {
-    const degrees = parseCoordinate(text, axis);
-    if (degrees === null) {
-      this.snackBar.open(
-        axis === 'lon' ? 'A longitude is between −180 and 180 degrees.' : 'A latitude is between −90 and 90 degrees.',
-        'Dismiss',
-      );
-    } else {
-      this.edit((state) => setVertexCoordinate(state, index, axis, degrees));
-    }
-    restore();
+  /** A coordinate typed in the vertex table (checked there): one undoable step. */
+  protected setVertexCoordinate({ index, axis, degrees }: CoordinateChange): void {
+    if (index >= this.draft().vertices.length) return;
+    this.edit((state) => setVertexCoordinate(state, index, axis, degrees));
   }
 
   protected insertVertexAfter(index: number): void {
@@ -507,44 +491,23 @@ export default class RouteEditor {
     this.selectedVertex.set(null);
   }
 
-  /** A stop's name, position or dwell typed in the stops table; values out of range are ignored. */
+  /** A stop's name, position or dwell typed in the stops table (checked there): one undoable step. */
   protected changeStop(change: StopChange): void {
-    if (change.field === 'name') this.renameStop(change.index, change.text);
-    else if (change.field === 'position') this.setStopPosition(change.index, change.text);
-    else this.setStopDwell(change.index, change.text);
-  }
-
-  private renameStop(index: number, name: string): void {
-    if (name.trim()) this.edit((state) => updateStop(state, index, { name: name.trim() }));
-  }
-
-  private setStopDwell(index: number, text: string): void {
-    const dwellS = Number(text);
-    if (Number.isFinite(dwellS) && dwellS >= 0 && dwellS <= 3600) this.edit((state) => updateStop(state, index, { dwellS }));
-  }
-
-  private setStopPosition(index: number, text: string): void {
-    const shown = Number(text);
-    if (Number.isFinite(shown) && shown >= 0) this.edit((state) => moveStopTo(state, index, fromDisplay('distance', shown, this.units())));
+    const { index } = change;
+    if (index >= this.draft().stops.length) return;
+    if (change.field === 'name') this.edit((state) => updateStop(state, index, { name: change.name }));
+    else if (change.field === 'dwell') this.edit((state) => updateStop(state, index, { dwellS: change.dwellS }));
+    else this.edit((state) => moveStopTo(state, index, change.atM));
   }
 
   protected removeStop(index: number): void {
     this.edit((state) => removeStop(state, index));
   }
 
-  /** One end or the limit of a stretch typed in the limits table. */
-  protected changeLimit({ index, field, text }: LimitChange): void {
-    const shown = Number(text);
-    if (!Number.isFinite(shown) || shown < 0) return;
-    const value = field === 'speedKph' ? this.speedKphFromDisplay(shown) : Math.round(fromDisplay('distance', shown, this.units()));
-    const current = this.draft().speedLimits[index];
-    if (!current) return;
-    const next = { ...current, [field]: value };
-    if (next.toM <= next.fromM || !isSpeedLimitKphAllowed(next.speedKph)) {
-      this.snackBar.open(`A stretch must end after it starts, at ${this.speedRange().span}.`, 'Dismiss');
-      return;
-    }
-    this.edit((state) => updateSpeedLimit(state, index, { [field]: value }));
+  /** The ends or the limit of a stretch typed in the limits table (checked there): one undoable step. */
+  protected changeLimit({ index, change }: LimitChange): void {
+    if (index >= this.draft().speedLimits.length) return;
+    this.edit((state) => updateSpeedLimit(state, index, change));
   }
 
   protected addLimitFromTable(): void {
@@ -569,7 +532,7 @@ export default class RouteEditor {
   }
 
   private speedKphFromDisplay(shown: number): number {
-    return Math.round(displayToKph(shown, this.units()) * 10) / 10;
+    return speedLimitKphOf(shown, this.units());
   }
 
   // ---- Loading and saving ----
