@@ -4,6 +4,7 @@
  * the tables, and undo/redo over them. Positions are GeoJSON order, [lon, lat].
  */
 import { LATITUDE_DEG, LONGITUDE_DEG, STOP_DWELL_S } from '@shared/domain/limits';
+import type { RoadRoute } from '@shared/domain/road-routes';
 import { metresPerDegree } from '@shared/engine/geodesy';
 import { clipRanges, lineLengthM, pointAlongLine, projectOnLine, roundAlongM } from '@shared/geometry/route-line';
 
@@ -41,6 +42,22 @@ export interface RouteDraftState {
 }
 
 export const EMPTY_DRAFT: RouteDraftState = { vertices: [], stops: [], speedLimits: [] };
+
+/** A saved route (or an older version of it) as a draft: its line, its stops with the server's `atM`, its stretches. */
+export function draftOfRoute(route: RoadRoute): RouteDraftState {
+  return {
+    vertices: route.geometry.coordinates.map(([lon, lat, elevationM]) =>
+      elevationM === undefined ? ([lon!, lat!] as const) : ([lon!, lat!, elevationM] as const),
+    ),
+    stops: route.stops.map((stop) => ({ name: stop.name, lon: stop.lon, lat: stop.lat, dwellS: stop.dwellS, atM: stop.atM })),
+    speedLimits: route.speedLimits.map((stretch) => ({ ...stretch })),
+  };
+}
+
+/** A vertex as a GeoJSON position, with its recorded elevation when it has one. */
+export function positionOf(vertex: LonLat): [number, number] | [number, number, number] {
+  return vertex.length === 3 ? [vertex[0], vertex[1], vertex[2]] : [vertex[0], vertex[1]];
+}
 
 /** How many vertices carry a recorded elevation, of how many. */
 export function recordedElevations(state: RouteDraftState): { recorded: number; total: number } {

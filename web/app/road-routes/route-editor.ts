@@ -27,7 +27,7 @@ import { QuantityPipe } from '../units/quantity-pipe';
 import { formatQuantity, fromDisplay, toDisplay, unitLabel } from '../units/unit-format';
 import { speedLimitValidator } from '../units/speed-limit-validator';
 import { DEFAULT_SPEED_LIMIT_KPH, SERVICE_DAYS_PER_YEAR, TRIPS_PER_DAY } from '@shared/domain/limits';
-import { SERVICE_DAYS_RANGE, TRIPS_PER_DAY_RANGE, kphToDisplay, speedLimitKphOf, speedLimitRange } from '@shared/presentation/index';
+import { SERVICE_DAYS_RANGE, TRIPS_PER_DAY_RANGE, speedLimitKphOf, speedLimitRange } from '@shared/presentation/index';
 import { UnitPreference } from '../units/unit-preference';
 import { UnitSwitch } from '../units/unit-switch';
 import { LOADING, loadFailed, loadStateOf } from '../ui/load-state';
@@ -38,6 +38,7 @@ import { RouteDraftStore } from './route-draft-store';
 import { RouteVertexTable, type CoordinateChange } from './tables/route-vertex-table';
 import { RouteStopTable, type StopChange } from './tables/route-stop-table';
 import { RouteLimitTable, type LimitChange } from './tables/route-limit-table';
+import { speedShown } from './tables/cell-format';
 import { ROUTE_COLOR, lonLatOf, pointAt, routeOverlays, type EditorTool } from './route-overlays';
 import {
   EMPTY_DRAFT,
@@ -57,11 +58,12 @@ import {
   removeStop,
   segmentMidpoints,
   dropRecordedElevations,
+  draftOfRoute,
+  positionOf,
   recordedElevations,
   setVertexCoordinate,
   updateSpeedLimit,
   updateStop,
-  type LonLat,
   type RouteDraftState,
 } from './route-draft';
 
@@ -264,7 +266,7 @@ export default class RouteEditor {
   protected readonly overlays = computed<MapOverlay[]>(() => {
     const older = this.olderVersion();
     return routeOverlays({
-      draft: older ? toDraft(older) : this.draft(),
+      draft: older ? draftOfRoute(older) : this.draft(),
       network: this.network(),
       editing: this.canEdit(),
       tool: this.tool(),
@@ -523,10 +525,6 @@ export default class RouteEditor {
     this.edit((state) => removeSpeedLimit(state, index));
   }
 
-  private speedShown(speedKph: number): string {
-    return String(Math.round(kphToDisplay(speedKph, this.units())));
-  }
-
   protected unit(quantity: 'distance' | 'speed'): string {
     return unitLabel(quantity, this.units());
   }
@@ -637,13 +635,13 @@ export default class RouteEditor {
   private showSaved(route: RoadRoute, fit: boolean): void {
     this.saved.set(route);
     this.olderVersion.set(null);
-    const state = toDraft(route);
+    const state = draftOfRoute(route);
     this.store.reset(state);
     this.details.setValue({
       name: route.name,
       mode: route.mode,
       description: route.description,
-      defaultSpeedLimit: Number(this.speedShown(route.defaultSpeedLimitKph)),
+      defaultSpeedLimit: Number(speedShown(route.defaultSpeedLimitKph, this.units())),
       tripsPerDay: route.tripsPerDay,
       serviceDaysPerYear: route.serviceDaysPerYear,
     });
@@ -667,19 +665,4 @@ export default class RouteEditor {
     const positions = network?.features.flatMap((feature) => feature.geometry.coordinates.map(lonLatOf)) ?? [];
     if (positions.length > 0 && this.draft().vertices.length === 0) this.fitTo.set(positions);
   }
-}
-
-function toDraft(route: RoadRoute): RouteDraftState {
-  return {
-    vertices: route.geometry.coordinates.map((position) =>
-      position.length >= 3 ? ([position[0]!, position[1]!, position[2]!] as const) : lonLatOf(position),
-    ),
-    stops: route.stops.map((stop) => ({ name: stop.name, lon: stop.lon, lat: stop.lat, dwellS: stop.dwellS, atM: stop.atM })),
-    speedLimits: route.speedLimits.map((stretch) => ({ ...stretch })),
-  };
-}
-
-/** A vertex as GeoJSON, with its recorded elevation when it has one. */
-function positionOf(vertex: LonLat): [number, number] | [number, number, number] {
-  return vertex.length === 3 ? [vertex[0], vertex[1], vertex[2]] : [vertex[0], vertex[1]];
 }

@@ -3,17 +3,10 @@ import { FormArray, FormGroup, ReactiveFormsModule, type AbstractControl, type V
 import { MatButtonModule } from '@angular/material/button';
 import { MatFormFieldModule } from '@angular/material/form-field';
 import { MatIconModule } from '@angular/material/icon';
-import {
-  fromDisplay,
-  kphToDisplay,
-  speedLimitKphOf,
-  toDisplay,
-  unitLabel,
-  type ShownRange,
-  type UnitSystem,
-} from '@shared/presentation/index';
+import { fromDisplay, speedLimitKphOf, unitLabel, type ShownRange, type UnitSystem } from '@shared/presentation/index';
 import type { DraftSpeedLimit } from '../route-draft';
 import { CellText } from './cell-text';
+import { distanceShown, speedShown } from './cell-format';
 import { cell, commitCell, numberIn, numberWithin, showRow, syncRows, type RowForm } from './table-rows';
 
 const LIMIT_COLUMNS = ['fromM', 'toM', 'speedKph'] as const;
@@ -69,9 +62,7 @@ export class RouteLimitTable {
 
   /** A distance in metres in the shown unit, to the metre, without trailing zeros. */
   protected distanceShown(valueM: number): string {
-    return toDisplay('distance', valueM, this.units())
-      .toFixed(3)
-      .replace(/\.?0+$/, '');
+    return distanceShown(valueM, this.units());
   }
 
   protected speedUnit(): string {
@@ -79,7 +70,7 @@ export class RouteLimitTable {
   }
 
   protected speedShown(speedKph: number): string {
-    return String(Math.round(kphToDisplay(speedKph, this.units())));
+    return speedShown(speedKph, this.units());
   }
 
   /** What is wrong with a cell, in the words its message shows; null when nothing is. */
@@ -92,7 +83,7 @@ export class RouteLimitTable {
   }
 
   /** A cell committed (Enter or leaving it): a valid value goes to the route, an invalid one shows why. */
-  protected commit(index: number, column: LimitColumn): void {
+  protected cellCommitted(index: number, column: LimitColumn): void {
     const row = this.rows.at(index);
     const control = row?.controls[column];
     const applied = commitCell(control, () => {

@@ -4,9 +4,10 @@ import { MatButtonModule } from '@angular/material/button';
 import { MatFormFieldModule } from '@angular/material/form-field';
 import { MatIconModule } from '@angular/material/icon';
 import { NAME_MAX_LENGTH } from '@shared/domain/limits';
-import { DWELL_RANGE, fromDisplay, toDisplay, unitLabel, type UnitSystem } from '@shared/presentation/index';
+import { DWELL_RANGE, fromDisplay, unitLabel, type UnitSystem } from '@shared/presentation/index';
 import type { DraftStop } from '../route-draft';
 import { CellText } from './cell-text';
+import { distanceShown } from './cell-format';
 import { cell, commitCell, numberIn, numberWithin, showRow, syncRows, type RowForm } from './table-rows';
 
 type StopColumn = 'name' | 'position' | 'dwell';
@@ -50,9 +51,7 @@ export class RouteStopTable {
 
   /** A distance in metres in the shown unit, to the metre, without trailing zeros. */
   protected distanceShown(valueM: number): string {
-    return toDisplay('distance', valueM, this.units())
-      .toFixed(3)
-      .replace(/\.?0+$/, '');
+    return distanceShown(valueM, this.units());
   }
 
   /** What is wrong with a cell, in the words its message shows. */
@@ -63,7 +62,7 @@ export class RouteStopTable {
   }
 
   /** A field committed (Enter or leaving it): a valid value goes to the route, an invalid one shows why. */
-  protected commit(index: number, column: StopColumn): void {
+  protected cellCommitted(index: number, column: StopColumn): void {
     const row = this.rows.at(index);
     commitCell(row?.controls[column], () => {
       const text = row!.controls[column].value;

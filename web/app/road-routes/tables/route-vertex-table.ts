@@ -4,7 +4,8 @@ import { MatButtonModule } from '@angular/material/button';
 import { MatFormFieldModule } from '@angular/material/form-field';
 import { MatIconModule } from '@angular/material/icon';
 import { coordinateRange } from '@shared/presentation/index';
-import { COORDINATE_DECIMALS, parseCoordinate, type LonLat } from '../route-draft';
+import { parseCoordinate, type LonLat } from '../route-draft';
+import { degreesShown } from './cell-format';
 import { CellText } from './cell-text';
 import { cell, commitCell, showRow, syncRows, type RowForm } from './table-rows';
 
@@ -46,12 +47,10 @@ export class RouteVertexTable {
     });
   }
 
-  protected degreesShown(degrees: number): string {
-    return degrees.toFixed(COORDINATE_DECIMALS);
-  }
+  protected readonly degreesShown = degreesShown;
 
   /** A coordinate committed (Enter or leaving the field): a valid one goes to the route, one out of range shows why. */
-  protected commit(index: number, axis: Axis): void {
+  protected cellCommitted(index: number, axis: Axis): void {
     const row = this.rows.at(index);
     commitCell(row?.controls[axis], () => {
       const degrees = parseCoordinate(row!.controls[axis].value, axis)!;
@@ -70,7 +69,7 @@ export class RouteVertexTable {
   }
 
   private texts(vertex: LonLat): Record<Axis, string> {
-    return { lon: this.degreesShown(vertex[0]), lat: this.degreesShown(vertex[1]) };
+    return { lon: degreesShown(vertex[0]), lat: degreesShown(vertex[1]) };
   }
 
   /** The cell the person is typing in, if any. */
