@@ -61,6 +61,7 @@ export function basemapEndpoints(deps: AppDeps) {
       summary: 'Imported OpenStreetMap extracts, newest first, with the tile version of the active one',
       tag: TAG,
       access: 'signed-in',
+      revalidated: true,
       responses: { 200: { description: 'Imports in every status', schema: basemapListSchema } },
       handler: async ({ res }) => {
         res.json(await listBasemaps(deps));

@@ -3,6 +3,7 @@ import type { z } from 'zod';
 import type { Role } from '@shared/domain/roles';
 import type { User } from '@shared/domain/auth';
 import { requireRole, type Access } from '../auth/require-role';
+import { revalidatedAnswer } from './answer-validator';
 
 type HttpMethod = 'get' | 'post' | 'put' | 'patch' | 'delete';
 
@@ -55,6 +56,13 @@ export interface Endpoint<TBody = unknown, TQuery = unknown, TParams = unknown> 
    * the caller's role (the busy lists).
    */
   cachedAnswer?: boolean;
+  /**
+   * The browser may keep the answer and must ask before each use (api/http/answer-validator.ts):
+   * an ETag made from the answer's JSON, `private, no-cache`, and 304 without a body while the
+   * answer is unchanged. For reads a page makes on every visit whose answer changes rarely (a
+   * stored result, a route, the catalogues behind the map); not together with `cachedAnswer`.
+   */
+  revalidated?: boolean;
   handler: (input: EndpointInput<TBody, TQuery, TParams>) => Promise<void> | void;
 }
 
@@ -92,11 +100,16 @@ export function mountEndpoint(router: Router, definition: AnyEndpoint, options: 
   };
   const prefix = options.mountedAt ?? '';
   if (!definition.path.startsWith(`${prefix}/`)) throw new Error(`Endpoint ${definition.path} lies outside ${prefix}`);
+  // The answer cache sends what it kept itself, past the validator: the two do not combine.
+  if (definition.revalidated && definition.cachedAnswer)
+    throw new Error(`Endpoint ${definition.path}: revalidated and cachedAnswer cannot be combined`);
+  if (definition.revalidated && definition.method !== 'get') throw new Error(`Endpoint ${definition.path}: only reads are revalidated`);
   router[definition.method](
     definition.path.slice(prefix.length),
     requireRole(definition.access),
     ...(definition.heavy && options.heavyRequests ? [options.heavyRequests.middleware()] : []),
     ...(definition.cachedAnswer && definition.method === 'get' && options.answerCache ? [options.answerCache.serve()] : []),
+    ...(definition.revalidated ? [revalidatedAnswer()] : []),
     ...(definition.middleware ?? []),
     handler,
   );

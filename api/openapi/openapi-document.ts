@@ -28,6 +28,7 @@ export function buildOpenApiDocument(endpoints: readonly AnyEndpoint[]) {
             : {}),
       };
     }
+    if (definition.revalidated) responses['304'] ??= { description: 'Unchanged since the ETag named in If-None-Match (no body)' };
     responses['4XX'] = {
       description: 'Error: `{ error: { code, message, details? } }`',
       content: { 'application/json': { schema: apiErrorSchema } },

@@ -21,6 +21,7 @@
 import type { Readable } from 'node:stream';
 import Papa from 'papaparse';
 import yauzl, { type Entry, type ZipFile } from 'yauzl';
+import { STOP_DWELL_S } from '@shared/domain/limits';
 import type { RoadRouteDraftInput } from '@shared/domain/road-routes';
 import { HttpError } from '../http/http-error';
 import { ImportError } from './import-error';
@@ -28,8 +29,8 @@ import { ImportError } from './import-error';
 type Row = Record<string, string>;
 
 const WEEKDAYS = ['monday', 'tuesday', 'wednesday', 'thursday', 'friday', 'saturday', 'sunday'] as const;
-/** Dwell where the feed gives none, s (from memory: 15–30 s at an urban stop). */
-const DEFAULT_DWELL_S = 20;
+/** Dwell where the feed gives none, s: the stops' default (shared/domain/limits.ts). */
+const DEFAULT_DWELL_S = STOP_DWELL_S.default;
 
 const MIB = 1024 * 1024;
 

@@ -133,6 +133,7 @@ export function roadRouteEndpoints(deps: AppDeps) {
       summary: 'A route, latest version',
       tag: TAG,
       access: 'signed-in',
+      revalidated: true,
       params: routeIdParamsSchema,
       responses: { 200: { description: 'The route', schema: roadRouteSchema } },
       handler: async ({ params, res }) => {
@@ -186,6 +187,7 @@ export function roadRouteEndpoints(deps: AppDeps) {
       summary: 'Every saved version of a route, newest first',
       tag: TAG,
       access: 'signed-in',
+      revalidated: true,
       params: routeIdParamsSchema,
       responses: { 200: { description: 'Versions', schema: roadRouteVersionListSchema } },
       handler: async ({ params, res }) => {
@@ -200,6 +202,7 @@ export function roadRouteEndpoints(deps: AppDeps) {
       summary: 'One saved version of a route',
       tag: TAG,
       access: 'signed-in',
+      revalidated: true,
       params: routeVersionParamsSchema,
       responses: { 200: { description: 'The version', schema: roadRouteSchema } },
       handler: async ({ params, res }) => {
@@ -264,6 +267,7 @@ export function roadRouteEndpoints(deps: AppDeps) {
       summary: 'The reference road network as a GeoJSON FeatureCollection',
       tag: TAG,
       access: 'signed-in',
+      revalidated: true,
       responses: { 200: { description: 'Road lines', schema: roadNetworkSchema } },
       handler: async ({ res }) => {
         res.json(await getRoadNetwork(deps.db));

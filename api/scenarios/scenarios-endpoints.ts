@@ -74,6 +74,7 @@ export function scenarioEndpoints(deps: AppDeps) {
       summary: 'One scenario with its headline figures and staleness',
       tag: TAG,
       access: 'signed-in',
+      revalidated: true,
       params: scenarioIdParamsSchema,
       responses: { 200: { description: 'The scenario', schema: scenarioSchema } },
       handler: async ({ params, res }) => {
@@ -142,6 +143,7 @@ export function scenarioEndpoints(deps: AppDeps) {
       summary: 'The stored result: inputs, totals, per-direction profiles and descents, with the caution',
       tag: TAG,
       access: 'signed-in',
+      revalidated: true,
       params: scenarioIdParamsSchema,
       query: profileViewQuerySchema,
       responses: {

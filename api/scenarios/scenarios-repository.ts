@@ -1,6 +1,7 @@
 import { and, asc, eq, getTableColumns, inArray, isNull, lt, sql, type SQL } from 'drizzle-orm';
 import type { Scenario, ScenarioListQuery } from '@shared/domain/scenarios';
 import { ENGINE_VERSION } from '@shared/engine/constants';
+import type { SelectedFieldsFlat } from 'drizzle-orm/pg-core';
 import { safetySettingsChangedReason, type NetworkSafetySettings } from '../board/network-settings';
 import type { Executor } from '../db/client';
 import { roadRoutes, roadRouteVersions, scenarios, vehicleProfiles, type ScenarioRow } from '../db/schema/index';
@@ -19,10 +20,11 @@ export interface ScenarioWithContext {
   vehicleProfileUpdatedAt: Date;
 }
 
-function selectWithContext(db: Executor) {
+/** Scenarios with their route's and profile's names; `scenario` picks the scenario's own columns. */
+function selectWithContext<Columns extends SelectedFieldsFlat>(db: Executor, scenario: Columns) {
   return db
     .select({
-      scenario: scenarioColumns,
+      scenario,
       routeName: roadRouteVersions.name,
       latestRouteVersion: roadRoutes.currentVersion,
       vehicleProfileName: vehicleProfiles.name,
@@ -51,32 +53,20 @@ export async function listScenarios(db: Executor, query: ScenarioListQuery): Pro
   if (query.routeId) conditions.push(eq(scenarios.routeId, query.routeId));
   if (query.vehicleProfileId) conditions.push(eq(scenarios.vehicleProfileId, query.vehicleProfileId));
   if (query.inService !== undefined) conditions.push(eq(scenarios.inService, query.inService));
-  return (await db
-    .select({
-      scenario: { ...scenarioListColumns, inputs: provenanceOnly },
-      routeName: roadRouteVersions.name,
-      latestRouteVersion: roadRoutes.currentVersion,
-      vehicleProfileName: vehicleProfiles.name,
-      vehicleProfileUpdatedAt: vehicleProfiles.updatedAt,
-    })
-    .from(scenarios)
-    .innerJoin(roadRoutes, eq(roadRoutes.id, scenarios.routeId))
-    .innerJoin(
-      roadRouteVersions,
-      and(eq(roadRouteVersions.routeId, scenarios.routeId), eq(roadRouteVersions.version, scenarios.routeVersion)),
-    )
-    .innerJoin(vehicleProfiles, eq(vehicleProfiles.id, scenarios.vehicleProfileId))
+  return (await selectWithContext(db, { ...scenarioListColumns, inputs: provenanceOnly })
     .where(and(...conditions))
     .orderBy(asc(scenarios.name), asc(scenarios.id))) as ScenarioWithContext[];
 }
 
 export async function findScenarioWithContext(db: Executor, id: string): Promise<ScenarioWithContext | undefined> {
-  const [row] = await selectWithContext(db).where(and(eq(scenarios.id, id), isNull(scenarios.deletedAt)));
+  const [row] = await selectWithContext(db, scenarioColumns).where(and(eq(scenarios.id, id), isNull(scenarios.deletedAt)));
   return row as ScenarioWithContext | undefined;
 }
 
 export async function findScenariosWithContext(db: Executor, ids: string[]): Promise<ScenarioWithContext[]> {
-  return (await selectWithContext(db).where(and(inArray(scenarios.id, ids), isNull(scenarios.deletedAt)))) as ScenarioWithContext[];
+  return (await selectWithContext(db, scenarioColumns).where(
+    and(inArray(scenarios.id, ids), isNull(scenarios.deletedAt)),
+  )) as ScenarioWithContext[];
 }
 
 /** Id and name of every scenario (not deleted) on a vehicle profile, by name (for re-running them all). */

@@ -73,6 +73,7 @@ export function terrainEndpoints(deps: AppDeps) {
       summary: 'The terrain catalogue',
       tag: TAG,
       access: 'signed-in',
+      revalidated: true,
       responses: { 200: { description: 'Every terrain model, in every status', schema: terrainListSchema } },
       handler: async ({ res }) => {
         res.json(await listTerrain(deps));

@@ -5,6 +5,7 @@ import { BlockStore, type TerrainSource } from './raster/block-store';
 import { lookupEpsg } from './raster/crs-registry';
 import { listReadyTerrainRows, type TerrainRowWithExtras } from './terrain-repository';
 import { TerrainStorage } from './terrain-storage';
+import { TILE_ENCODING } from './tiles/tile-kernel.mjs';
 
 /** A ready model with its outline's bounding box in WGS 84, for quick coverage tests. */
 export interface ReadyTerrain extends TerrainSource {
@@ -16,7 +17,11 @@ export interface ReadyTerrain extends TerrainSource {
 export interface ReadyCatalogue {
   /** Finest resolution first: the order in which models are asked for a value. */
   models: ReadyTerrain[];
-  /** Hash of the ready models and their versions: the tile cache's folder name. */
+  /**
+   * Hash of the ready models, their versions and the tiles' encoding: the tile cache's folder
+   * name and part of every tile's address and ETag, so a new encoding is never answered with a
+   * tile of the old one (from the disk or from a browser's cache).
+   */
   version: string;
 }
 
@@ -87,12 +92,19 @@ export class TerrainRuntime {
 
   private toCatalogue(rows: TerrainRowWithExtras[]): ReadyCatalogue {
     const models = rows.map((row) => ({ ...this.sourceFromRow(row), name: row.name, bbox: bboxOf(row.footprintGeoJson) }));
-    const version = createHash('sha256')
-      .update(models.map((model) => `${model.id}:${model.version}`).join(','))
-      .digest('hex')
-      .slice(0, 16);
-    return { models, version };
+    return { models, version: catalogueVersion(models) };
   }
+}
+
+/**
+ * The version of a ready catalogue: a hash of the tiles' encoding and of each model's id and
+ * version in order, so it changes when a model comes or goes and when tiles are encoded anew.
+ */
+export function catalogueVersion(models: readonly { id: string; version: string }[], encoding: string = TILE_ENCODING): string {
+  return createHash('sha256')
+    .update(`${encoding};${models.map((model) => `${model.id}:${model.version}`).join(',')}`)
+    .digest('hex')
+    .slice(0, 16);
 }
 
 /** The terrain runtime of these dependencies (created on first use, kept in their AppRuntime). */

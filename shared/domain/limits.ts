@@ -35,6 +35,20 @@ export const SOC = { min: 0, max: 1 } as const;
 /** Start SOC of a run when none is given: a bus leaving the depot after a part charge. */
 export const DEFAULT_START_SOC = 0.8;
 
+/** WGS 84 longitude and latitude, degrees (the ranges of the coordinate system itself). */
+export const LONGITUDE_DEG = { min: -180, max: 180 } as const;
+export const LATITUDE_DEG = { min: -90, max: 90 } as const;
+
+/**
+ * Dwell time at a stop, s. Up to an hour: a longer stand is a layover, which a trip plan states
+ * on its own. 20 s is the default of a stop placed on the map or read from a timetable without
+ * times (from memory: 15–30 s at a busy urban stop).
+ */
+export const STOP_DWELL_S = { min: 0, max: 3_600, default: 20 } as const;
+
+/** Longest name of a route or of a stop on it, characters. */
+export const NAME_MAX_LENGTH = 120;
+
 export const tripsPerDaySchema = z.number().min(TRIPS_PER_DAY.min).max(TRIPS_PER_DAY.max);
 export const serviceDaysPerYearSchema = z.number().int().min(SERVICE_DAYS_PER_YEAR.min).max(SERVICE_DAYS_PER_YEAR.max);
 /** A state of charge within `SOC`. */

@@ -2,7 +2,11 @@ import * as z from 'zod';
 import { lineStringSchema } from './analysis';
 import {
   DEFAULT_SPEED_LIMIT_KPH,
+  LATITUDE_DEG,
+  LONGITUDE_DEG,
+  NAME_MAX_LENGTH,
   SERVICE_DAYS_PER_YEAR,
+  STOP_DWELL_S,
   TRIPS_PER_DAY,
   serviceDaysPerYearSchema,
   speedLimitKphSchema,
@@ -18,13 +22,13 @@ export const routeIdParamsSchema = z.object({ routeId: z.uuid() });
 
 /** A stop placed on the route. `atM` is its distance along the route, recomputed from lon/lat. */
 export const routeStopSchema = z.object({
-  name: z.string().trim().min(1).max(120),
-  lon: z.number().min(-180).max(180),
-  lat: z.number().min(-90).max(90),
+  name: z.string().trim().min(1).max(NAME_MAX_LENGTH),
+  lon: z.number().min(LONGITUDE_DEG.min).max(LONGITUDE_DEG.max),
+  lat: z.number().min(LATITUDE_DEG.min).max(LATITUDE_DEG.max),
   /** Distance along the route, m (computed by the server by projecting lon/lat on the line). */
   atM: z.number().min(0).optional(),
   /** Dwell time, s. */
-  dwellS: z.number().min(0).max(3_600).default(20),
+  dwellS: z.number().min(STOP_DWELL_S.min).max(STOP_DWELL_S.max).default(STOP_DWELL_S.default),
 });
 export type RouteStop = z.infer<typeof routeStopSchema>;
 
@@ -42,7 +46,7 @@ export const ROUTE_MODES = ['bus', 'trolleybus', 'tram'] as const;
 
 /** What a planner sends to create a route or save a new version of it. */
 export const roadRouteDraftSchema = z.object({
-  name: z.string().trim().min(1).max(120),
+  name: z.string().trim().min(1).max(NAME_MAX_LENGTH),
   description: z.string().trim().max(2_000).default(''),
   mode: z.enum(ROUTE_MODES).default('bus'),
   /** Outbound direction; inbound runs it backwards. Positions may carry elevation. */

@@ -1,7 +1,9 @@
 /**
  * Physical constants and engine-wide defaults. Every value carries its source; "from memory"
  * marks an engineering default still to be confirmed against a maker's data or a standard.
+ * Nothing is imported at run time; the one import is a type, erased when compiled.
  */
+import type { ClimateSettings } from './auxiliary-power';
 
 /** Version of the calculation engine; stored with saved results so they can be re-run. */
 export const ENGINE_VERSION = '1.2.0';
@@ -251,20 +253,4 @@ export const DEFAULT_CLIMATE = {
   coolingEer: 2.0,
   preconditioningS: 1_800,
   cabinHeatCapacityJPerK: 800_000,
-} as const satisfies ClimateSettingsShape;
-
-/** Shape of `DEFAULT_CLIMATE` (auxiliary-power.ts `ClimateSettings`, declared here to keep constants free of imports). */
-interface ClimateSettingsShape {
-  heatingSetpointC: number;
-  coolingSetpointC: number;
-  bodyUaWPerK: number;
-  freshAirM3PerH: number;
-  doorAirExchangeM3: number;
-  baseLoadW: number;
-  heatPumpHeatW: number;
-  heatPumpCop: readonly { ambientC: number; cop: number }[];
-  heatPumpMinAmbientC: number;
-  coolingEer: number;
-  preconditioningS: number;
-  cabinHeatCapacityJPerK: number;
-}
+} as const satisfies ClimateSettings;

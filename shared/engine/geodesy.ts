@@ -14,6 +14,40 @@ const DEG = Math.PI / 180;
 const MAX_ITERATIONS = 200;
 const CONVERGENCE_RAD = 1e-12;
 
+/** Vincenty's series coefficients A and B for u² = cos²α · (a² − b²) / b². */
+function seriesCoefficients(cosSqAlpha: number): { bigA: number; bigB: number } {
+  const uSq = (cosSqAlpha * (A * A - B * B)) / (B * B);
+  return {
+    bigA: 1 + (uSq / 16384) * (4096 + uSq * (-768 + uSq * (320 - 175 * uSq))),
+    bigB: (uSq / 1024) * (256 + uSq * (-128 + uSq * (74 - 47 * uSq))),
+  };
+}
+
+/** Vincenty's Δσ: the difference between the arc on the auxiliary sphere and s / (b·A). */
+function deltaSigmaOf(bigB: number, sinSigma: number, cosSigma: number, cos2SigmaM: number): number {
+  return (
+    bigB *
+    sinSigma *
+    (cos2SigmaM +
+      (bigB / 4) *
+        (cosSigma * (-1 + 2 * cos2SigmaM * cos2SigmaM) -
+          (bigB / 6) * cos2SigmaM * (-3 + 4 * sinSigma * sinSigma) * (-3 + 4 * cos2SigmaM * cos2SigmaM)))
+  );
+}
+
+/** Vincenty's λ − L: longitude on the auxiliary sphere minus longitude on the ellipsoid. */
+function longitudeDifferenceOf(
+  cosSqAlpha: number,
+  sinAlpha: number,
+  sigma: number,
+  sinSigma: number,
+  cosSigma: number,
+  cos2SigmaM: number,
+): number {
+  const C = (F / 16) * cosSqAlpha * (4 + F * (4 - 3 * cosSqAlpha));
+  return (1 - C) * F * sinAlpha * (sigma + C * sinSigma * (cos2SigmaM + C * cosSigma * (-1 + 2 * cos2SigmaM * cos2SigmaM)));
+}
+
 export interface GeodesicInverse {
   distanceM: number;
   /** Forward azimuth at the first point, radians clockwise from north. */
@@ -52,9 +86,8 @@ export function geodesicInverse(lon1: number, lat1: number, lon2: number, lat2: 
     cosSqAlpha = 1 - sinAlpha * sinAlpha;
     // On the equator line cos²α = 0 and the term vanishes (Vincenty 1975).
     cos2SigmaM = cosSqAlpha !== 0 ? cosSigma - (2 * sinU1 * sinU2) / cosSqAlpha : 0;
-    const C = (F / 16) * cosSqAlpha * (4 + F * (4 - 3 * cosSqAlpha));
     const previous = lambda;
-    lambda = L + (1 - C) * F * sinAlpha * (sigma + C * sinSigma * (cos2SigmaM + C * cosSigma * (-1 + 2 * cos2SigmaM * cos2SigmaM)));
+    lambda = L + longitudeDifferenceOf(cosSqAlpha, sinAlpha, sigma, sinSigma, cosSigma, cos2SigmaM);
     if (Math.abs(lambda - previous) < CONVERGENCE_RAD) {
       converged = true;
       break;
@@ -63,17 +96,8 @@ export function geodesicInverse(lon1: number, lat1: number, lon2: number, lat2: 
   if (!converged) {
     throw new EngineInputError('route.coordinates', 'two consecutive points are nearly antipodal');
   }
-  const uSq = (cosSqAlpha * (A * A - B * B)) / (B * B);
-  const bigA = 1 + (uSq / 16384) * (4096 + uSq * (-768 + uSq * (320 - 175 * uSq)));
-  const bigB = (uSq / 1024) * (256 + uSq * (-128 + uSq * (74 - 47 * uSq)));
-  const deltaSigma =
-    bigB *
-    sinSigma *
-    (cos2SigmaM +
-      (bigB / 4) *
-        (cosSigma * (-1 + 2 * cos2SigmaM * cos2SigmaM) -
-          (bigB / 6) * cos2SigmaM * (-3 + 4 * sinSigma * sinSigma) * (-3 + 4 * cos2SigmaM * cos2SigmaM)));
-  const distanceM = B * bigA * (sigma - deltaSigma);
+  const { bigA, bigB } = seriesCoefficients(cosSqAlpha);
+  const distanceM = B * bigA * (sigma - deltaSigmaOf(bigB, sinSigma, cosSigma, cos2SigmaM));
   const azimuthRad = Math.atan2(cosU2 * sinLambda, cosU1 * sinU2 - sinU1 * cosU2 * cosLambda);
   return { distanceM, azimuthRad };
 }
@@ -96,9 +120,7 @@ export function geodesicDirect(lon1: number, lat1: number, azimuthRad: number, d
   const sigma1 = Math.atan2(tanU1, cosAlpha1);
   const sinAlpha = cosU1 * sinAlpha1;
   const cosSqAlpha = 1 - sinAlpha * sinAlpha;
-  const uSq = (cosSqAlpha * (A * A - B * B)) / (B * B);
-  const bigA = 1 + (uSq / 16384) * (4096 + uSq * (-768 + uSq * (320 - 175 * uSq)));
-  const bigB = (uSq / 1024) * (256 + uSq * (-128 + uSq * (74 - 47 * uSq)));
+  const { bigA, bigB } = seriesCoefficients(cosSqAlpha);
 
   let sigma = distanceM / (B * bigA);
   let sinSigma = 0;
@@ -108,15 +130,8 @@ export function geodesicDirect(lon1: number, lat1: number, azimuthRad: number, d
     cos2SigmaM = Math.cos(2 * sigma1 + sigma);
     sinSigma = Math.sin(sigma);
     cosSigma = Math.cos(sigma);
-    const deltaSigma =
-      bigB *
-      sinSigma *
-      (cos2SigmaM +
-        (bigB / 4) *
-          (cosSigma * (-1 + 2 * cos2SigmaM * cos2SigmaM) -
-            (bigB / 6) * cos2SigmaM * (-3 + 4 * sinSigma * sinSigma) * (-3 + 4 * cos2SigmaM * cos2SigmaM)));
     const previous = sigma;
-    sigma = distanceM / (B * bigA) + deltaSigma;
+    sigma = distanceM / (B * bigA) + deltaSigmaOf(bigB, sinSigma, cosSigma, cos2SigmaM);
     if (Math.abs(sigma - previous) < CONVERGENCE_RAD) break;
   }
   sinSigma = Math.sin(sigma);
@@ -125,8 +140,7 @@ export function geodesicDirect(lon1: number, lat1: number, azimuthRad: number, d
   const tmp = sinU1 * sinSigma - cosU1 * cosSigma * cosAlpha1;
   const lat2 = Math.atan2(sinU1 * cosSigma + cosU1 * sinSigma * cosAlpha1, (1 - F) * Math.sqrt(sinAlpha * sinAlpha + tmp * tmp));
   const lambda = Math.atan2(sinSigma * sinAlpha1, cosU1 * cosSigma - sinU1 * sinSigma * cosAlpha1);
-  const C = (F / 16) * cosSqAlpha * (4 + F * (4 - 3 * cosSqAlpha));
-  const L = lambda - (1 - C) * F * sinAlpha * (sigma + C * sinSigma * (cos2SigmaM + C * cosSigma * (-1 + 2 * cos2SigmaM * cos2SigmaM)));
+  const L = lambda - longitudeDifferenceOf(cosSqAlpha, sinAlpha, sigma, sinSigma, cosSigma, cos2SigmaM);
   let lon2 = lon1 + L / DEG;
   if (lon2 > 180) lon2 -= 360;
   else if (lon2 < -180) lon2 += 360;

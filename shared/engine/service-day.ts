@@ -507,6 +507,25 @@ function runBlock(context: DayContext, block: Block): BlockResult {
 
   let previous: PreparedTrip | undefined;
   let stopped = false;
+  // A stand (after pull-out, a layover, the wait for pull-in) until `endS`, where the previous trip ended.
+  const standUntil = (endS: number) => {
+    const stand = stand_(
+      context,
+      parsed,
+      state,
+      previous?.model,
+      parsed.standAuxPowerW,
+      timeS,
+      endS,
+      previous?.chargerAtEnd,
+      isBattery,
+      note,
+    );
+    netJ += stand.netJ;
+    chargedJ += stand.chargedJ;
+    if (stand.event) chargingEvents.push(stand.event);
+    timeS = endS;
+  };
   for (let index = 0; index < block.trips.length && !stopped; index++) {
     const trip = block.trips[index]!;
     const label = `trip ${index + 1}`;
@@ -518,23 +537,7 @@ function runBlock(context: DayContext, block: Block): BlockResult {
           : `${label} leaves at ${clock(trip.departureS)}, before trip ${index} arrives at ${clock(timeS)}`,
       );
     } else if (trip.departureS > timeS) {
-      const standModel = previous?.model;
-      const stand = stand_(
-        context,
-        parsed,
-        state,
-        standModel,
-        parsed.standAuxPowerW,
-        timeS,
-        trip.departureS,
-        previous?.chargerAtEnd,
-        isBattery,
-        note,
-      );
-      netJ += stand.netJ;
-      chargedJ += stand.chargedJ;
-      if (stand.event) chargingEvents.push(stand.event);
-      timeS = trip.departureS;
+      standUntil(trip.departureS);
     }
     const route = context.routeFor(trip);
     if (!route) {
@@ -638,22 +641,7 @@ function runBlock(context: DayContext, block: Block): BlockResult {
     if (block.pullInS < timeS) {
       problems.push(`the pull-in at ${clock(block.pullInS)} is before the last trip arrives at ${clock(timeS)}`);
     } else if (block.pullInS > timeS) {
-      const stand = stand_(
-        context,
-        parsed,
-        state,
-        previous?.model,
-        parsed.standAuxPowerW,
-        timeS,
-        block.pullInS,
-        previous?.chargerAtEnd,
-        isBattery,
-        note,
-      );
-      netJ += stand.netJ;
-      chargedJ += stand.chargedJ;
-      if (stand.event) chargingEvents.push(stand.event);
-      timeS = block.pullInS;
+      standUntil(block.pullInS);
     }
   }
   note(timeS, state.soc);

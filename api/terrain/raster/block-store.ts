@@ -6,7 +6,7 @@ import { LRUCache } from 'lru-cache';
 import { Piscina } from 'piscina';
 import type { TerrainOverviewLevel } from '../../db/schema/terrain';
 import { decodeWindow, forgetFile, type DecodeWindowTask } from './raster-decode.mjs';
-import { pngFromParts, renderTileRows, TILE_PX, warmUpKernel, type TilePart, type TileTask } from '../tiles/tile-kernel.mjs';
+import { joinParts, renderTileRows, TILE_PX, warmUpKernel, type TileTask } from '../tiles/tile-kernel.mjs';
 
 /** A ready terrain model as sampling and rendering see it. */
 export interface TerrainSource {
@@ -181,14 +181,15 @@ export class BlockStore {
   }
 
   /**
-   * Renders one map tile (sampling, hillshade, tint, PNG) in the worker threads, so the event loop
-   * stays free for other requests. When the pool has nothing else to do, the tile is split in
-   * two at `splitRow` (where the work halves: a tile half without data splits off centre): a
-   * worker renders the top part while this thread renders the bottom one, and their deflate
-   * streams are joined (the same pixels). With two cores that keeps both busy; handing the second
-   * part to a second worker instead waits for this thread to go idle before that worker can run,
-   * and the event loop is held for one part of one tile only when no other terrain work is
-   * waiting. Otherwise one worker renders it all. Windows in shared memory are read in place,
+   * Renders one map tile (sampling, hillshade, tint, palette PNG) in the worker threads, so the
+   * event loop stays free for other requests. When the pool has nothing else to do, the tile is
+   * split in two at `splitRow` (where the work halves: a tile half without data splits off
+   * centre): a worker renders the top part while this thread renders the bottom one, and a worker
+   * encodes the joined pixels (the quantiser needs the whole tile, and it is the larger share of
+   * the work, so it stays off the event loop). With two cores that keeps both busy; handing the
+   * second part to a second worker instead waits for this thread to go idle before that worker
+   * can run, and the event loop is held for one part of one tile only when no other terrain work
+   * is waiting. Otherwise one worker renders it all. Windows in shared memory are read in place,
    * others are handed over, not copied: the caller must not use them afterwards.
    */
   async renderTile(task: TileTask, splitRow = TILE_PX / 2): Promise<Buffer> {
@@ -197,18 +198,18 @@ export class BlockStore {
       // The worker reads the windows from shared memory: copied once, not serialised.
       const layers = task.layers.map((layer) => ({ ...layer, window: sharedCopy(layer.window) }));
       const top = this.runTask(
-        { task: { ...task, layers }, firstRow: 0, endRow: split, final: false },
+        { task: { ...task, layers }, firstRow: 0, endRow: split },
         { name: 'renderTileRows' },
-      ) as Promise<TilePart>;
-      let bottom: TilePart;
+      ) as Promise<Uint8Array>;
+      let bottom: Uint8Array;
       try {
-        bottom = renderTileRows(task, split, TILE_PX, true);
+        bottom = renderTileRows(task, split, TILE_PX);
       } finally {
         // The worker's part settles either way (no unhandled rejection when this one throws).
         void top.catch(() => undefined);
       }
-      const topPart = await top;
-      const png = pngFromParts([topPart, bottom]);
+      const pixels = joinParts([await top, bottom]);
+      const png = (await this.runTask({ pixels }, { name: 'encodeTile', transferList: [pixels.buffer as ArrayBuffer] })) as Uint8Array;
       return Buffer.from(png.buffer, png.byteOffset, png.byteLength);
     }
     // Windows in shared memory are read in place; others are handed over.

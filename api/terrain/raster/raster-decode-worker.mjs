@@ -6,10 +6,11 @@
 // Decode task: { path, window: [x0, y0, x1, y1], nodata, verticalScaleToM, wide, into? }; the
 // result (see raster-decode.mjs) goes back transferred.
 // renderTile task: a TileTask (tile-kernel.d.mts); result: the PNG bytes (Uint8Array).
-// renderTileRows task: { task, firstRow, endRow, final }; result: a TilePart (tile-kernel.d.mts).
+// renderTileRows task: { task, firstRow, endRow }; result: those rows' RGB pixels (Uint8Array).
+// encodeTile task: { pixels } (a whole tile's RGB, transferred); result: the PNG bytes.
 import Piscina from 'piscina';
 import { decodeWindow as decode, forgetFile } from './raster-decode.mjs';
-import { renderTilePng, renderTileRows as renderTileRowsOf, warmUpKernel } from '../tiles/tile-kernel.mjs';
+import { encodePalettePng, renderTilePng, renderTileRows as renderTileRowsOf, TILE_PX, warmUpKernel } from '../tiles/tile-kernel.mjs';
 
 warmUpKernel();
 
@@ -22,9 +23,14 @@ export function renderTile(task) {
   return Piscina.move(renderTilePng(task));
 }
 
-/** Some rows of a map tile (a tile split over threads): { task, firstRow, endRow, final }. */
-export function renderTileRows({ task, firstRow, endRow, final }) {
-  return renderTileRowsOf(task, firstRow, endRow, final);
+/** Some rows of a map tile (a tile split over threads): { task, firstRow, endRow }; the pixels go back transferred. */
+export function renderTileRows({ task, firstRow, endRow }) {
+  return Piscina.move(renderTileRowsOf(task, firstRow, endRow));
+}
+
+/** The PNG of a tile whose rows were rendered in parts: { pixels }, the joined RGB. */
+export function encodeTile({ pixels }) {
+  return Piscina.move(encodePalettePng(pixels, TILE_PX, TILE_PX));
 }
 
 /** Drops cached file handles (after a model is deleted and its file removed). */

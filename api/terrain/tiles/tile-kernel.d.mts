@@ -2,6 +2,8 @@
 
 export declare const TILE_PX: number;
 export declare const SAMPLES_PX: number;
+/** How tiles are encoded: part of the tile catalogue's version. */
+export declare const TILE_ENCODING: string;
 
 /** One model's share of a tile: a window of its grid and where the tile's pixels fall on it. */
 export interface TileLayer {
@@ -39,9 +41,6 @@ export interface TileTask {
   stops: Float64Array;
   shadowFloor: number;
   shadeGain: number;
-  deflateLevel: number;
-  /** Whether the tile is finer than the grids under it (smooth: deflate by runs); detailed tiles are Huffman-coded. Default true. */
-  magnified?: boolean;
 }
 
 /** Only sample rows [rowStart, rowEnd) are filled when given; `into` (SAMPLES_PX² values) is filled instead of a new array. */
@@ -63,23 +62,14 @@ export declare function shadeAndTint(
   /** Written into (a view of its start is returned) instead of a new array. */
   into?: Uint8Array | null,
 ): Uint8Array;
-/** RGB with black transparent (tRNS). */
-export declare function encodePng(
-  scanlines: Uint8Array,
-  width: number,
-  height: number,
-  deflateLevel?: number,
-  magnified?: boolean,
-): Uint8Array;
+/** Palette PNG (at most 256 colours, entry 0 transparent) of RGB pixels, black transparent. */
+export declare function encodePalettePng(rgb: Uint8Array, width: number, height: number): Uint8Array;
 export declare function renderTilePng(task: TileTask): Uint8Array;
-/** Rows [firstRow, endRow) of a tile, deflated to join the other parts' (see renderTileRows in tile-kernel.mjs). */
-export interface TilePart {
-  data: Uint8Array;
-  adler: number;
-  length: number;
-}
-export declare function renderTileRows(task: TileTask, firstRow: number, endRow: number, final: boolean): TilePart;
+/** RGB pixels of rows [firstRow, endRow) of a tile (black where there is no data), for rendering a tile in parts. */
+export declare function renderTileRows(task: TileTask, firstRow: number, endRow: number): Uint8Array;
+/** A whole tile's RGB pixels from its row parts in order. */
+export declare function joinParts(parts: readonly Uint8Array[]): Uint8Array;
 /** The tile's PNG from its parts in order. */
-export declare function pngFromParts(parts: readonly TilePart[]): Uint8Array;
+export declare function pngFromParts(parts: readonly Uint8Array[]): Uint8Array;
 /** Compiles the kernel ahead of real tiles (a worker thread calls it when it starts). */
 export declare function warmUpKernel(rounds?: number): void;

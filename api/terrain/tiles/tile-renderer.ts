@@ -1,10 +1,9 @@
-import { PNG } from 'pngjs';
 import type { Block, BlockStore } from '../raster/block-store';
 import { projectorFor } from '../raster/crs-registry';
 import { ELEVATION_TINT_STOPS } from './elevation-tint';
 import { sunTerms, type SunTerms } from './hillshade';
 import type { ReadyTerrain } from '../terrain-runtime';
-import { SAMPLES_PX, type TileLayer } from './tile-kernel.mjs';
+import { encodePalettePng, SAMPLES_PX, type TileLayer } from './tile-kernel.mjs';
 
 export const TILE_SIZE_PX = 256;
 /** WGS 84 / Web Mercator sphere radius (EPSG:3857), m. */
@@ -17,8 +16,6 @@ const SHADOW_FLOOR = 0.3;
 const SHADE_GAIN = (1 - SHADOW_FLOOR) * 1.15;
 const SUN: SunTerms = sunTerms();
 const TINT_STOPS = Float64Array.from(ELEVATION_TINT_STOPS.flatMap((stop) => [stop.elevationM, ...stop.rgb]));
-/** zlib level 1 (the kernel matches runs only, or none: see deflateOptions in tile-kernel.mjs). */
-const DEFLATE_LEVEL = 1;
 /** Largest window gathered for one model and tile (4 MB of Float32). */
 const MAX_WINDOW_PX = 1024 * 1024;
 
@@ -36,7 +33,8 @@ function tileLatitude(y: number, n: number): number {
  * Renders one 256 × 256 tile: elevations sampled bilinearly from the ready models (finest with
  * data wins, the pyramid level matched to the tile's ground resolution), hillshade by Horn's
  * method with the sun at 315° / 45°, blended with our elevation tint; transparent where no model
- * has data. Null when no model touches the tile.
+ * has data; a palette PNG of at most 256 colours (tile-kernel.mjs). Null when no model touches
+ * the tile.
  *
  * This thread only reprojects a coarse lattice (proj4, every 16 pixels), gathers the decoded
  * blocks under the tile into one window per model and hands the rest to a worker thread
@@ -71,8 +69,6 @@ export async function renderTerrainTile(
       stops: TINT_STOPS,
       shadowFloor: SHADOW_FLOOR,
       shadeGain: SHADE_GAIN,
-      deflateLevel: DEFLATE_LEVEL,
-      magnified: Math.min(...touching.map((model) => model.resolutionM)) > groundPxM,
     },
     balancedSplitRow(layers),
   );
@@ -250,8 +246,11 @@ async function gatherWindow(
 }
 
 let transparent: Buffer | null = null;
-/** A fully transparent tile (where no model covers). */
+/** A fully transparent tile (where no model covers): a palette PNG of one entry, about a hundred bytes. */
 export function transparentTile(): Buffer {
-  transparent ??= PNG.sync.write(new PNG({ width: TILE_SIZE_PX, height: TILE_SIZE_PX, colorType: 6 }), { colorType: 6 });
+  if (!transparent) {
+    const png = encodePalettePng(new Uint8Array(TILE_SIZE_PX * TILE_SIZE_PX * 3), TILE_SIZE_PX, TILE_SIZE_PX);
+    transparent = Buffer.from(png.buffer, png.byteOffset, png.byteLength);
+  }
   return transparent;
 }

@@ -205,3 +205,51 @@ describe('POST /api/routes/profile', () => {
     expect(response.body.elevationM.every((z: number | null) => z === null)).toBe(true);
   });
 });
+
+describe('revalidation of the route editor’s reads', () => {
+  it('answers a repeat read of a route and its versions with 304 until a new version is saved', async () => {
+    const route = roadRouteSchema.parse((await request(app).post('/api/routes').set('Cookie', planner).send(aRouteDraft())).body);
+    const first = await request(app).get(`/api/routes/${route.id}`).set('Cookie', planner);
+    const versions = await request(app).get(`/api/routes/${route.id}/versions`).set('Cookie', planner);
+
+    const again = await request(app).get(`/api/routes/${route.id}`).set('Cookie', planner).set('If-None-Match', first.headers['etag']!);
+    const versionsAgain = await request(app)
+      .get(`/api/routes/${route.id}/versions`)
+      .set('Cookie', planner)
+      .set('If-None-Match', versions.headers['etag']!);
+    const saved = await request(app)
+      .put(`/api/routes/${route.id}`)
+      .set('Cookie', planner)
+      .send(aRouteDraft({ name: 'Spec line renamed' }));
+    const afterSave = await request(app).get(`/api/routes/${route.id}`).set('Cookie', planner).set('If-None-Match', first.headers['etag']!);
+    const versionsAfterSave = await request(app)
+      .get(`/api/routes/${route.id}/versions`)
+      .set('Cookie', planner)
+      .set('If-None-Match', versions.headers['etag']!);
+    const firstVersion = await request(app)
+      .get(`/api/routes/${route.id}/versions/1`)
+      .set('Cookie', planner)
+      .set('If-None-Match', first.headers['etag']!);
+
+    expect(first.headers['cache-control']).toBe('private, no-cache');
+    expect([again.status, versionsAgain.status]).toEqual([304, 304]);
+    expect(saved.status).toBe(200);
+    expect(afterSave.status).toBe(200);
+    expect(afterSave.body.name).toBe('Spec line renamed');
+    expect(afterSave.headers['etag']).not.toBe(first.headers['etag']);
+    expect(versionsAfterSave.status).toBe(200);
+    expect(versionsAfterSave.body.items).toHaveLength(2);
+    // Version 1 as stored is what the first read showed.
+    expect(firstVersion.status).toBe(304);
+  });
+
+  it('revalidates the road network, the terrain catalogue and the base-map list the map reads', async () => {
+    for (const path of ['/api/road-network', '/api/terrain', '/api/basemap']) {
+      const first = await request(app).get(path).set('Cookie', planner);
+      const again = await request(app).get(path).set('Cookie', planner).set('If-None-Match', first.headers['etag']!);
+
+      expect([path, first.status, first.headers['cache-control']]).toEqual([path, 200, 'private, no-cache']);
+      expect([path, again.status]).toEqual([path, 304]);
+    }
+  });
+});

@@ -186,6 +186,77 @@ describe('POST /api/scenarios', () => {
   });
 });
 
+describe('revalidation of the stored result', () => {
+  it('answers a repeat read with 304 until a re-run changes the result, then 200 with a new ETag', async () => {
+    const route = await aRoute();
+    const scenario = (await request(app).post('/api/scenarios').set('Cookie', planner).send(aScenarioDraft(route.id))).body;
+    const resultPath = `/api/scenarios/${scenario.id}/result`;
+
+    const first = await request(app).get(resultPath).set('Cookie', planner);
+    const etag = first.headers['etag']!;
+    const again = await request(app).get(resultPath).set('Cookie', planner).set('If-None-Match', etag);
+    const thinned = await request(app).get(`${resultPath}?profileStepM=100`).set('Cookie', planner).set('If-None-Match', etag);
+    const anonymous = await request(app).get(resultPath).set('If-None-Match', etag);
+    const headline = await request(app).get(`/api/scenarios/${scenario.id}`).set('Cookie', planner);
+    await new Promise((resolve) => setTimeout(resolve, 5));
+    const rerun = await request(app).post(`/api/scenarios/${scenario.id}/run`).set('Cookie', planner);
+    const afterRun = await request(app).get(resultPath).set('Cookie', planner).set('If-None-Match', etag);
+    const headlineAfterRun = await request(app)
+      .get(`/api/scenarios/${scenario.id}`)
+      .set('Cookie', planner)
+      .set('If-None-Match', headline.headers['etag']!);
+
+    expect(first.status).toBe(200);
+    expect(first.headers['cache-control']).toBe('private, no-cache');
+    expect(etag).toMatch(/^W\/"/);
+    expect(again.status).toBe(304);
+    expect(again.text).toBe('');
+    // Another view of the same result is another answer.
+    expect(thinned.status).toBe(200);
+    expect(thinned.headers['etag']).not.toBe(etag);
+    // The access check comes first: no 304 for someone signed out.
+    expect(anonymous.status).toBe(401);
+    expect(rerun.status).toBe(200);
+    expect(afterRun.status).toBe(200);
+    expect(afterRun.body.computedAt).toBe(rerun.body.computedAt);
+    expect(afterRun.body.computedAt).not.toBe(first.body.computedAt);
+    expect(afterRun.headers['etag']).not.toBe(etag);
+    expect(headlineAfterRun.status).toBe(200);
+    expect(headlineAfterRun.headers['etag']).not.toBe(headline.headers['etag']);
+  });
+
+  it('gives every role the same stored result and the same ETag (nothing in it depends on the role)', async () => {
+    const route = await aRoute();
+    const scenario = (await request(app).post('/api/scenarios').set('Cookie', planner).send(aScenarioDraft(route.id))).body;
+    const resultPath = `/api/scenarios/${scenario.id}/result`;
+    const planners = await request(app).get(resultPath).set('Cookie', planner);
+
+    const boards = await request(app)
+      .get(resultPath)
+      .set('Cookie', await cookieFor('board'));
+    const safetys = await request(app)
+      .get(resultPath)
+      .set('Cookie', await cookieFor('safety'))
+      .set('If-None-Match', planners.headers['etag']!);
+
+    expect(boards.status).toBe(200);
+    expect(boards.body).toEqual(planners.body);
+    expect(boards.headers['etag']).toBe(planners.headers['etag']);
+    expect(safetys.status).toBe(304);
+  });
+
+  it('keeps no-store on a missing result', async () => {
+    const missing = await request(app)
+      .get('/api/scenarios/00000000-0000-4000-8000-000000000000/result')
+      .set('Cookie', planner)
+      .set('If-None-Match', '*');
+
+    expect(missing.status).toBe(404);
+    expect(missing.headers['cache-control']).toBe('no-store');
+    expect(missing.headers['etag']).toBeUndefined();
+  });
+});
+
 describe('versions and staleness', () => {
   it('keeps version 1’s geometry after a route edit, marks the scenario stale, and a re-run moves it to version 2', async () => {
     const route = await aRoute();

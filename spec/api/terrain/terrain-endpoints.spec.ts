@@ -4,7 +4,8 @@ import { PNG } from 'pngjs';
 import request from 'supertest';
 import { afterAll, beforeAll, beforeEach, describe, expect, it } from 'vitest';
 import { addTerrainDependent } from '../../../api/terrain/terrain-repository';
-import { closeTerrainRuntime } from '../../../api/terrain/terrain-runtime';
+import { catalogueVersion, closeTerrainRuntime } from '../../../api/terrain/terrain-runtime';
+import { TILE_ENCODING } from '../../../api/terrain/tiles/tile-kernel.mjs';
 import { recoverTerrain } from '../../../api/terrain/terrain-service';
 import { terrainModels } from '../../../api/db/schema/index';
 import { createTestContext, signedInAgent, type TestContext } from '../../support/test-app';
@@ -345,6 +346,17 @@ print('{}')`,
   });
 
   describe('GET /api/tiles/terrain/:z/:x/:y.png', () => {
+    it('keys cached tiles by their encoding as well as by the models, so no tile of an earlier encoding is served', () => {
+      const models = [
+        { id: 'a', version: '1' },
+        { id: 'b', version: '2' },
+      ];
+
+      expect(catalogueVersion(models)).toBe(catalogueVersion(models, TILE_ENCODING));
+      expect(catalogueVersion(models, 'an-earlier-encoding')).not.toBe(catalogueVersion(models));
+      expect(catalogueVersion([models[0]!])).not.toBe(catalogueVersion(models));
+    });
+
     it('renders hillshade and tint over the model, transparent outside, with ETag revalidation', async () => {
       const { body } = await uploadTerrain(analyst, good, 'Tiled');
       await waitUntilIngested(analyst, body.id);
@@ -362,6 +374,12 @@ print('{}')`,
       expect(tile.headers['cache-control']).toMatch(/max-age/);
       const png = PNG.sync.read(tile.body as Buffer);
       expect([png.width, png.height]).toEqual([256, 256]);
+      // A palette PNG (colour type 3), at most 256 entries, and far smaller than RGB.
+      const bytes = tile.body as Buffer;
+      expect(bytes[25]).toBe(3);
+      expect(bytes.toString('latin1', 37, 41)).toBe('PLTE');
+      expect(bytes.readUInt32BE(33) / 3).toBeLessThanOrEqual(256);
+      expect((empty.body as Buffer).length).toBeLessThan(200);
       expect(opaqueShare(png)).toBeGreaterThan(0.5);
       expect(distinctGreys(png)).toBeGreaterThan(20);
       expect(again.status).toBe(304);

@@ -1,14 +1,25 @@
 import { describe, expect, it } from 'vitest';
 import { conditionsSchema } from '@shared/domain/analysis';
-import { DEFAULT_START_SOC, SERVICE_DAYS_PER_YEAR, SPEED_LIMIT_KPH, TRIPS_PER_DAY, speedLimitKphSchema } from '@shared/domain/limits';
-import { roadRouteDraftSchema } from '@shared/domain/road-routes';
 import {
+  DEFAULT_START_SOC,
+  NAME_MAX_LENGTH,
+  SERVICE_DAYS_PER_YEAR,
+  SPEED_LIMIT_KPH,
+  STOP_DWELL_S,
+  TRIPS_PER_DAY,
+  speedLimitKphSchema,
+} from '@shared/domain/limits';
+import { roadRouteDraftSchema, routeStopSchema } from '@shared/domain/road-routes';
+import {
+  DWELL_RANGE,
   SERVICE_DAYS_RANGE,
   SOC_PERCENT_RANGE,
   TRIPS_PER_DAY_RANGE,
+  coordinateRange,
   displayToKph,
   isSpeedLimitKphAllowed,
   kphToDisplay,
+  speedLimitKphOf,
   speedLimitRange,
 } from '@shared/presentation/index';
 
@@ -29,6 +40,13 @@ describe('the speed-limit range', () => {
     for (const kph of [SPEED_LIMIT_KPH.min - 0.1, SPEED_LIMIT_KPH.min, SPEED_LIMIT_KPH.max, SPEED_LIMIT_KPH.max + 0.1]) {
       expect(isSpeedLimitKphAllowed(kph)).toBe(speedLimitKphSchema.safeParse(kph).success);
     }
+  });
+});
+
+describe('a speed limit typed in the displayed unit', () => {
+  it('is stored in km/h to 0.1: 30 mph is 48.3 km/h (48.28032), 50 km/h stays 50', () => {
+    expect(speedLimitKphOf(30, 'imperial')).toBe(48.3);
+    expect(speedLimitKphOf(50, 'metric')).toBe(50);
   });
 });
 
@@ -76,5 +94,29 @@ describe('route and run limits shared by the schemas and the forms', () => {
     expect(conditionsSchema.safeParse({ startSoc: SOC_PERCENT_RANGE.max / 100 }).success).toBe(true);
     expect(conditionsSchema.safeParse({ startSoc: 1.01 }).success).toBe(false);
     expect(conditionsSchema.parse({}).startSoc).toBe(DEFAULT_START_SOC);
+  });
+});
+
+describe('stop and coordinate limits shared by the route schema and the editor tables', () => {
+  const stop = (change: object) => routeStopSchema.safeParse({ name: 'Upper square', lon: 10.85, lat: 46.55, ...change });
+
+  it('states the WGS 84 ranges and the dwell range as the tables show them', () => {
+    expect(coordinateRange('lon')).toMatchObject({ min: -180, max: 180, message: 'A longitude is between \u2212180 and 180 degrees.' });
+    expect(coordinateRange('lat')).toMatchObject({ min: -90, max: 90, span: '\u221290 to 90°' });
+    expect(DWELL_RANGE).toMatchObject({ min: 0, max: 3600, message: 'Between 0 and 3600 s.' });
+  });
+
+  it('is what the stop schema takes and refuses at both ends, with the default dwell', () => {
+    const lat = coordinateRange('lat');
+    const lon = coordinateRange('lon');
+    expect(stop({ lat: lat.max, lon: lon.min, dwellS: DWELL_RANGE.max }).success).toBe(true);
+    expect(stop({ lat: lat.max + 0.000001 }).success).toBe(false);
+    expect(stop({ lon: lon.min - 0.000001 }).success).toBe(false);
+    expect(stop({ dwellS: DWELL_RANGE.max + 1 }).success).toBe(false);
+    expect(stop({ dwellS: DWELL_RANGE.min - 1 }).success).toBe(false);
+    expect(stop({ name: 'x'.repeat(NAME_MAX_LENGTH) }).success).toBe(true);
+    expect(stop({ name: 'x'.repeat(NAME_MAX_LENGTH + 1) }).success).toBe(false);
+    const defaults = stop({});
+    expect(defaults.success && defaults.data.dwellS).toBe(STOP_DWELL_S.default);
   });
 });

@@ -147,13 +147,15 @@ export default class ReviewDetailPage {
   });
 
   protected readonly distanceLabel = computed(() => `Distance along the route (${unitLabel('distance', this.units())})`);
+  protected readonly elevationLabel = computed(() => `Elevation (${unitLabel('elevation', this.units())})`);
+  protected readonly temperatureLabel = computed(() => `Temperature (${unitLabel('temperature', this.units())})`);
   protected readonly elevationSeries = computed<ChartSeries[]>(() => {
     const profile = this.detail()?.profile;
     if (!profile) return [];
     const units = this.units();
     return [
       {
-        label: `Elevation (${unitLabel('elevation', units)})`,
+        label: this.elevationLabel(),
         x: profile.distanceM.map((m) => toDisplay('distance', m, units)),
         y: profile.elevationM.map((m) => toDisplay('elevation', m, units)),
         color: '#0b5567',

@@ -3,6 +3,8 @@
  * the draft (vertices, stops, speed-limit stretches), the edits a planner makes on the map and in
  * the tables, and undo/redo over them. Positions are GeoJSON order, [lon, lat].
  */
+import { LATITUDE_DEG, LONGITUDE_DEG, STOP_DWELL_S } from '@shared/domain/limits';
+import type { RoadRoute } from '@shared/domain/road-routes';
 import { metresPerDegree } from '@shared/engine/geodesy';
 import { clipRanges, lineLengthM, pointAlongLine, projectOnLine, roundAlongM } from '@shared/geometry/route-line';
 
@@ -41,6 +43,22 @@ export interface RouteDraftState {
 
 export const EMPTY_DRAFT: RouteDraftState = { vertices: [], stops: [], speedLimits: [] };
 
+/** A saved route (or an older version of it) as a draft: its line, its stops with the server's `atM`, its stretches. */
+export function draftOfRoute(route: RoadRoute): RouteDraftState {
+  return {
+    vertices: route.geometry.coordinates.map(([lon, lat, elevationM]) =>
+      elevationM === undefined ? ([lon!, lat!] as const) : ([lon!, lat!, elevationM] as const),
+    ),
+    stops: route.stops.map((stop) => ({ name: stop.name, lon: stop.lon, lat: stop.lat, dwellS: stop.dwellS, atM: stop.atM })),
+    speedLimits: route.speedLimits.map((stretch) => ({ ...stretch })),
+  };
+}
+
+/** A vertex as a GeoJSON position, with its recorded elevation when it has one. */
+export function positionOf(vertex: LonLat): [number, number] | [number, number, number] {
+  return vertex.length === 3 ? [vertex[0], vertex[1], vertex[2]] : [vertex[0], vertex[1]];
+}
+
 /** How many vertices carry a recorded elevation, of how many. */
 export function recordedElevations(state: RouteDraftState): { recorded: number; total: number } {
   return { recorded: state.vertices.filter((vertex) => vertex.length === 3).length, total: state.vertices.length };
@@ -52,8 +70,8 @@ export function dropRecordedElevations(state: RouteDraftState): RouteDraftState 
   return { ...state, vertices: state.vertices.map(([lon, lat]) => [lon, lat] as const) };
 }
 
-/** Default dwell of a new stop, s (from memory: 15–30 s at an urban stop). */
-export const DEFAULT_DWELL_S = 20;
+/** Default dwell of a new stop, s (shared/domain/limits.ts). */
+export const DEFAULT_DWELL_S = STOP_DWELL_S.default;
 
 /** Length of a polyline along the ellipsoid, m. */
 export function polylineLengthM(vertices: readonly LonLat[]): number {
@@ -107,8 +125,8 @@ export function roundDegrees(value: number): number {
 export function parseCoordinate(text: string, axis: 'lon' | 'lat'): number | null {
   if (text.trim() === '') return null;
   const value = Number(text);
-  const limit = axis === 'lon' ? 180 : 90;
-  return Number.isFinite(value) && Math.abs(value) <= limit ? roundDegrees(value) : null;
+  const range = axis === 'lon' ? LONGITUDE_DEG : LATITUDE_DEG;
+  return Number.isFinite(value) && value >= range.min && value <= range.max ? roundDegrees(value) : null;
 }
 
 /**
@@ -166,7 +184,8 @@ export function insertVertexAfter(state: RouteDraftState, index: number): RouteD
  */
 export function setVertexCoordinate(state: RouteDraftState, index: number, axis: 'lon' | 'lat', degrees: number): RouteDraftState {
   assertIndex(state, index);
-  if (!(Math.abs(degrees) <= (axis === 'lon' ? 180 : 90))) {
+  const range = axis === 'lon' ? LONGITUDE_DEG : LATITUDE_DEG;
+  if (!(degrees >= range.min && degrees <= range.max)) {
     throw new RangeError(`A ${axis === 'lon' ? 'longitude' : 'latitude'} of ${degrees}° is outside WGS 84`);
   }
   const [lon, lat] = state.vertices[index]!;

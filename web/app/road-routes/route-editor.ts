@@ -27,14 +27,7 @@ import { QuantityPipe } from '../units/quantity-pipe';
 import { formatQuantity, fromDisplay, toDisplay, unitLabel } from '../units/unit-format';
 import { speedLimitValidator } from '../units/speed-limit-validator';
 import { DEFAULT_SPEED_LIMIT_KPH, SERVICE_DAYS_PER_YEAR, TRIPS_PER_DAY } from '@shared/domain/limits';
-import {
-  SERVICE_DAYS_RANGE,
-  TRIPS_PER_DAY_RANGE,
-  displayToKph,
-  isSpeedLimitKphAllowed,
-  kphToDisplay,
-  speedLimitRange,
-} from '@shared/presentation/index';
+import { SERVICE_DAYS_RANGE, TRIPS_PER_DAY_RANGE, speedLimitKphOf, speedLimitRange } from '@shared/presentation/index';
 import { UnitPreference } from '../units/unit-preference';
 import { UnitSwitch } from '../units/unit-switch';
 import { LOADING, loadFailed, loadStateOf } from '../ui/load-state';
@@ -42,9 +35,10 @@ import { LoadStatus } from '../ui/load-status';
 import { RouteElevationBanners, RouteVersionBanner, type RouteProfileState } from './route-banners';
 import { RoadRoutesApi, type RoadNetwork, type RouteVersionInfo } from './road-routes-api';
 import { RouteDraftStore } from './route-draft-store';
-import { RouteVertexTable, type CoordinateTyped } from './tables/route-vertex-table';
+import { RouteVertexTable, type CoordinateChange } from './tables/route-vertex-table';
 import { RouteStopTable, type StopChange } from './tables/route-stop-table';
 import { RouteLimitTable, type LimitChange } from './tables/route-limit-table';
+import { speedShown } from './tables/cell-format';
 import { ROUTE_COLOR, lonLatOf, pointAt, routeOverlays, type EditorTool } from './route-overlays';
 import {
   EMPTY_DRAFT,
@@ -56,7 +50,6 @@ import {
   insertVertexAfter,
   moveStopTo,
   moveVertex,
-  parseCoordinate,
   replaceVertex,
   roundDegrees,
   polylineLengthM,
@@ -65,11 +58,12 @@ import {
   removeStop,
   segmentMidpoints,
   dropRecordedElevations,
+  draftOfRoute,
+  positionOf,
   recordedElevations,
   setVertexCoordinate,
   updateSpeedLimit,
   updateStop,
-  type LonLat,
   type RouteDraftState,
 } from './route-draft';
 
@@ -272,7 +266,7 @@ export default class RouteEditor {
   protected readonly overlays = computed<MapOverlay[]>(() => {
     const older = this.olderVersion();
     return routeOverlays({
-      draft: older ? toDraft(older) : this.draft(),
+      draft: older ? draftOfRoute(older) : this.draft(),
       network: this.network(),
       editing: this.canEdit(),
       tool: this.tool(),
@@ -483,18 +477,10 @@ export default class RouteEditor {
 
   // ---- Tables ----
 
-  /** A coordinate typed in the vertex table; a value out of range is refused and the field shows the vertex again. */
-  protected setVertexCoordinate({ index, axis, text, restore }: CoordinateTyped): void {
-    const degrees = parseCoordinate(text, axis);
-    if (degrees === null) {
-      this.snackBar.open(
-        axis === 'lon' ? 'A longitude is between −180 and 180 degrees.' : 'A latitude is between −90 and 90 degrees.',
-        'Dismiss',
-      );
-    } else {
-      this.edit((state) => setVertexCoordinate(state, index, axis, degrees));
-    }
-    restore();
+  /** A coordinate typed in the vertex table (checked there): one undoable step. */
+  protected setVertexCoordinate({ index, axis, degrees }: CoordinateChange): void {
+    if (index >= this.draft().vertices.length) return;
+    this.edit((state) => setVertexCoordinate(state, index, axis, degrees));
   }
 
   protected insertVertexAfter(index: number): void {
@@ -507,44 +493,23 @@ export default class RouteEditor {
     this.selectedVertex.set(null);
   }
 
-  /** A stop's name, position or dwell typed in the stops table; values out of range are ignored. */
+  /** A stop's name, position or dwell typed in the stops table (checked there): one undoable step. */
   protected changeStop(change: StopChange): void {
-    if (change.field === 'name') this.renameStop(change.index, change.text);
-    else if (change.field === 'position') this.setStopPosition(change.index, change.text);
-    else this.setStopDwell(change.index, change.text);
-  }
-
-  private renameStop(index: number, name: string): void {
-    if (name.trim()) this.edit((state) => updateStop(state, index, { name: name.trim() }));
-  }
-
-  private setStopDwell(index: number, text: string): void {
-    const dwellS = Number(text);
-    if (Number.isFinite(dwellS) && dwellS >= 0 && dwellS <= 3600) this.edit((state) => updateStop(state, index, { dwellS }));
-  }
-
-  private setStopPosition(index: number, text: string): void {
-    const shown = Number(text);
-    if (Number.isFinite(shown) && shown >= 0) this.edit((state) => moveStopTo(state, index, fromDisplay('distance', shown, this.units())));
+    const { index } = change;
+    if (index >= this.draft().stops.length) return;
+    if (change.field === 'name') this.edit((state) => updateStop(state, index, { name: change.name }));
+    else if (change.field === 'dwell') this.edit((state) => updateStop(state, index, { dwellS: change.dwellS }));
+    else this.edit((state) => moveStopTo(state, index, change.atM));
   }
 
   protected removeStop(index: number): void {
     this.edit((state) => removeStop(state, index));
   }
 
-  /** One end or the limit of a stretch typed in the limits table. */
-  protected changeLimit({ index, field, text }: LimitChange): void {
-    const shown = Number(text);
-    if (!Number.isFinite(shown) || shown < 0) return;
-    const value = field === 'speedKph' ? this.speedKphFromDisplay(shown) : Math.round(fromDisplay('distance', shown, this.units()));
-    const current = this.draft().speedLimits[index];
-    if (!current) return;
-    const next = { ...current, [field]: value };
-    if (next.toM <= next.fromM || !isSpeedLimitKphAllowed(next.speedKph)) {
-      this.snackBar.open(`A stretch must end after it starts, at ${this.speedRange().span}.`, 'Dismiss');
-      return;
-    }
-    this.edit((state) => updateSpeedLimit(state, index, { [field]: value }));
+  /** The ends or the limit of a stretch typed in the limits table (checked there): one undoable step. */
+  protected changeLimit({ index, change }: LimitChange): void {
+    if (index >= this.draft().speedLimits.length) return;
+    this.edit((state) => updateSpeedLimit(state, index, change));
   }
 
   protected addLimitFromTable(): void {
@@ -560,16 +525,12 @@ export default class RouteEditor {
     this.edit((state) => removeSpeedLimit(state, index));
   }
 
-  private speedShown(speedKph: number): string {
-    return String(Math.round(kphToDisplay(speedKph, this.units())));
-  }
-
   protected unit(quantity: 'distance' | 'speed'): string {
     return unitLabel(quantity, this.units());
   }
 
   private speedKphFromDisplay(shown: number): number {
-    return Math.round(displayToKph(shown, this.units()) * 10) / 10;
+    return speedLimitKphOf(shown, this.units());
   }
 
   // ---- Loading and saving ----
@@ -674,13 +635,13 @@ export default class RouteEditor {
   private showSaved(route: RoadRoute, fit: boolean): void {
     this.saved.set(route);
     this.olderVersion.set(null);
-    const state = toDraft(route);
+    const state = draftOfRoute(route);
     this.store.reset(state);
     this.details.setValue({
       name: route.name,
       mode: route.mode,
       description: route.description,
-      defaultSpeedLimit: Number(this.speedShown(route.defaultSpeedLimitKph)),
+      defaultSpeedLimit: Number(speedShown(route.defaultSpeedLimitKph, this.units())),
       tripsPerDay: route.tripsPerDay,
       serviceDaysPerYear: route.serviceDaysPerYear,
     });
@@ -704,19 +665,4 @@ export default class RouteEditor {
     const positions = network?.features.flatMap((feature) => feature.geometry.coordinates.map(lonLatOf)) ?? [];
     if (positions.length > 0 && this.draft().vertices.length === 0) this.fitTo.set(positions);
   }
-}
-
-function toDraft(route: RoadRoute): RouteDraftState {
-  return {
-    vertices: route.geometry.coordinates.map((position) =>
-      position.length >= 3 ? ([position[0]!, position[1]!, position[2]!] as const) : lonLatOf(position),
-    ),
-    stops: route.stops.map((stop) => ({ name: stop.name, lon: stop.lon, lat: stop.lat, dwellS: stop.dwellS, atM: stop.atM })),
-    speedLimits: route.speedLimits.map((stretch) => ({ ...stretch })),
-  };
-}
-
-/** A vertex as GeoJSON, with its recorded elevation when it has one. */
-function positionOf(vertex: LonLat): [number, number] | [number, number, number] {
-  return vertex.length === 3 ? [vertex[0], vertex[1], vertex[2]] : [vertex[0], vertex[1]];
 }

@@ -11,10 +11,11 @@ import type { Scenario } from '@shared/domain/scenarios';
 import { Session } from '../core/session';
 import { QuantityPipe } from '../units/quantity-pipe';
 import { UnitPreference } from '../units/unit-preference';
-import { RISK_ORDER, RISK_STYLES } from '@shared/presentation/index';
+import { RISK_ORDER } from '@shared/presentation/index';
 import { DIRECTION_LABELS, SCENARIO_STATUS_LABELS, describeLoad, describeSeason } from '@shared/presentation/index';
 import { loadStateOf } from '../ui/load-state';
 import { LoadStatus } from '../ui/load-status';
+import { RiskTag } from '../ui/risk-tag';
 import { ScenariosApi } from './scenarios-api';
 
 /** Most scenarios compared side by side. */
@@ -33,6 +34,7 @@ export const MAX_COMPARED = 4;
     MatIconModule,
     QuantityPipe,
     LoadStatus,
+    RiskTag,
   ],
   templateUrl: './scenario-list.html',
   styleUrl: './scenario-list.scss',
@@ -50,7 +52,6 @@ export default class ScenarioList {
   private readonly paginator = viewChild(MatPaginator);
 
   protected readonly units = inject(UnitPreference).system;
-  protected readonly riskStyles = RISK_STYLES;
   protected readonly describeLoad = describeLoad;
   protected readonly describeSeason = describeSeason;
   protected readonly columns = ['select', 'name', 'route', 'vehicle', 'conditions', 'status', 'net', 'regen', 'risk'];

@@ -56,6 +56,7 @@ import {
 } from './result-series';
 import { brakeRiskBands } from '../charts/risk-bands';
 import { DIRECTION_LABELS, SCENARIO_STATUS_LABELS, describeLoad, describeSeason, riskRank } from '@shared/presentation/index';
+import { RiskTag } from '../ui/risk-tag';
 import { ScenariosApi, descentCardsUrl, type ResultScreenData, type ResultScreenDirection } from './scenarios-api';
 
 type ResultState =
@@ -86,6 +87,7 @@ const CARD_FIGURES: readonly string[] = [
   selector: 'app-scenario-result',
   imports: [
     AdviceCautions,
+    RiskTag,
     DescentSafety,
     DatePipe,
     PercentPipe,
