@@ -2,7 +2,7 @@
 // `npm test`: every test, on a fresh machine too. Installs what is missing (npm packages,
 // PostgreSQL + PostGIS + pgRouting, osm2pgsql, Chromium, GDAL, poppler-utils, the OpenStreetMap
 // reference data and networkx), starts the private PostgreSQL, recreates the test
-// databases, then runs: ESLint (must report no problem), the Node tests (engine + API, vitest), the Angular unit tests (ng test),
+// databases, then runs: ESLint (must report no problem), Prettier's check, the type check, the Node tests (engine + API, vitest), the Angular unit tests (ng test),
 // and the browser tests against a freshly built and seeded server. Prints one summary line.
 import { databaseUrl, ensureDatabase, startDatabase, stopDatabase, pgSettings } from './db.mjs';
 import { spawnSync } from 'node:child_process';
@@ -41,6 +41,9 @@ recordLint(await runStep('npx', ['eslint', '.', '--max-warnings', '0'], { captur
 
 step('Formatting (Prettier, .prettierrc.json)');
 recordFormat(await runStep('npx', ['prettier', '--check', '.'], { capture: true }));
+
+step('Type check (the API and every test file: npm run typecheck)');
+recordTypes(await runStep('npm', ['run', 'typecheck'], { capture: true }));
 
 step('Node tests: calculation engine and API (vitest)');
 record('node', await runStep('npx', ['vitest', 'run', '--config', 'spec/vitest.config.ts'], { env: testEnv, capture: true }));
@@ -107,6 +110,13 @@ function recordLint({ status, output }) {
 function recordFormat({ status, output }) {
   const unformatted = output.split('\n').filter((line) => line.startsWith('[warn] ') && !line.includes('Code style issues')).length;
   results.push({ name: 'format', status, passed: status === 0 ? 1 : 0, failed: status === 0 ? 0 : Math.max(1, unformatted) });
+}
+
+// vitest and the browser tests strip types without checking them, so a test file's type error
+// would otherwise pass unseen.
+function recordTypes({ status, output }) {
+  const errors = output.split('\n').filter((line) => /error TS\d+:/.test(line)).length;
+  results.push({ name: 'types', status, passed: status === 0 ? 1 : 0, failed: status === 0 ? 0 : Math.max(1, errors) });
 }
 
 function recreateDatabase(database) {

@@ -190,7 +190,7 @@ describe('answer cache of the list endpoints', () => {
   });
 
   it('every table of the schema announces its changes, but the few no kept answer reads', async () => {
-    const tables = Object.values(schema)
+    const tables = (Object.values(schema) as unknown[])
       .filter((value): value is PgTable => is(value, PgTable))
       .map((table) => getTableName(table));
     const rows = await first.db.execute<{ table_name: string }>(sql`
