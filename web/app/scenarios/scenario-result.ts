@@ -1,16 +1,5 @@
 import { DatePipe, PercentPipe } from '@angular/common';
-import {
-  ChangeDetectionStrategy,
-  Component,
-  computed,
-  effect,
-  inject,
-  input,
-  linkedSignal,
-  resource,
-  signal,
-  untracked,
-} from '@angular/core';
+import { ChangeDetectionStrategy, Component, computed, effect, inject, input, resource, signal, untracked } from '@angular/core';
 import { MatButtonModule } from '@angular/material/button';
 import { MatDialog } from '@angular/material/dialog';
 import { MatButtonToggleModule } from '@angular/material/button-toggle';
@@ -26,8 +15,8 @@ import { describeApiError, apiErrorBody } from '../core/api-error-message';
 import { Session } from '../core/session';
 import { confirmDelete } from '../ui/confirm-delete-dialog';
 import { LoadStatus } from '../ui/load-status';
-import { loadStateOf, type LoadState } from '../ui/load-state';
-import { latestAnswer, reloadWhileGoing } from '../ui/polled-resource';
+import { loadStateOf } from '../ui/load-state';
+import { latestAnswer, reloadWhileGoing, storedResult } from '../ui/polled-resource';
 import { AdviceCautions } from '../ui/advice-cautions';
 import { DescentSafety } from '../descents/descent-safety';
 import { TerrainMap, type MapOverlay, type MapPosition } from '../map/terrain-map';
@@ -58,9 +47,6 @@ import { brakeRiskBands } from '../charts/risk-bands';
 import { DIRECTION_LABELS, SCENARIO_STATUS_LABELS, describeLoad, describeSeason, riskRank } from '@shared/presentation/index';
 import { RiskTag } from '../ui/risk-tag';
 import { ScenariosApi, descentCardsUrl, type ResultScreenData, type ResultScreenDirection } from './scenarios-api';
-
-type ResultState =
-  { status: 'loading' } | { status: 'none' } | { status: 'ready'; result: ResultScreenData } | { status: 'error'; message: string };
 
 /** How often a queued or running scenario is asked for its status, ms. */
 const POLL_INTERVAL_MS = 1_500;
@@ -163,27 +149,11 @@ export default class ScenarioResultScreen {
       }
     },
   });
-  /** The result shown: the newest answer for this scenario, the previous one while a newer loads. */
-  private readonly shownResult = linkedSignal<
-    { id: string; value: ResultScreenData | null | undefined },
-    ResultScreenData | null | undefined
-  >({
-    source: () => ({ id: this.scenarioId(), value: this.resultData.hasValue() ? this.resultData.value() : undefined }),
-    computation: (source, previous) =>
-      source.value !== undefined ? source.value : previous?.source.id === source.id && previous.value ? previous.value : undefined,
-  });
-  protected readonly resultState = computed<ResultState>(() => {
-    const shown = this.shownResult();
-    if (shown) return { status: 'ready', result: shown };
-    if (shown === null) return { status: 'none' };
-    if (this.resultData.status() === 'error') return { status: 'error', message: describeApiError(this.resultData.error()) };
-    return { status: 'loading' };
-  });
-  /** The results' load while none is shown yet, for the load-status line. */
-  protected readonly resultLoadState = computed<LoadState>(() => {
-    const state = this.resultState();
-    return state.status === 'loading' || state.status === 'error' ? state : { status: 'ready' };
-  });
+  /** The result shown (the newest answer for this scenario, the previous one while a newer loads) and its state. */
+  private readonly stored = storedResult(this.scenarioId, this.resultData);
+  private readonly shownResult = this.stored.shown;
+  protected readonly resultState = this.stored.state;
+  protected readonly resultLoadState = this.stored.loadState;
   /** What failed after the page was shown: an action ("Run again", Delete) or a poll (the next one tries again). */
   private readonly actionError = signal<string | null>(null);
   protected readonly loadError = computed(() => {

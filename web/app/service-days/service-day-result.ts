@@ -1,6 +1,6 @@
 import { DatePipe, PercentPipe } from '@angular/common';
 import { HttpErrorResponse } from '@angular/common/http';
-import { ChangeDetectionStrategy, Component, computed, inject, input, linkedSignal, resource, signal } from '@angular/core';
+import { ChangeDetectionStrategy, Component, computed, inject, input, resource, signal } from '@angular/core';
 import { MatButtonModule } from '@angular/material/button';
 import { MatDialog } from '@angular/material/dialog';
 import { MatIconModule } from '@angular/material/icon';
@@ -26,8 +26,8 @@ import { apiErrorBody, describeApiError } from '../core/api-error-message';
 import { Session } from '../core/session';
 import { AdviceCautions } from '../ui/advice-cautions';
 import { LoadStatus } from '../ui/load-status';
-import { loadStateOf, type LoadState } from '../ui/load-state';
-import { latestAnswer, reloadWhileGoing } from '../ui/polled-resource';
+import { loadStateOf } from '../ui/load-state';
+import { latestAnswer, reloadWhileGoing, storedResult } from '../ui/polled-resource';
 import { confirmDelete } from '../ui/confirm-delete-dialog';
 import { RiskChip } from '../ui/risk-chip';
 import { QuantityPipe } from '../units/quantity-pipe';
@@ -39,9 +39,6 @@ import { timelineRows } from './service-day-timeline-model';
 import { ServiceDaysApi, type ServiceDayExportKind } from './service-days-api';
 import { RoadRoutesApi } from '../road-routes/road-routes-api';
 import type { RoadRouteSummary } from '@shared/domain/road-routes';
-
-type ResultState =
-  { status: 'loading' } | { status: 'none' } | { status: 'ready'; result: ServiceDayResult } | { status: 'error'; message: string };
 
 /** How often a queued or running service day is asked for its status, ms. */
 const POLL_INTERVAL_MS = 1_500;
@@ -135,27 +132,11 @@ export default class ServiceDayResultScreen {
       }
     },
   });
-  /** The result shown: the newest answer for this day, the previous one while a newer loads. */
-  private readonly shownResult = linkedSignal<
-    { id: string; value: ServiceDayResult | null | undefined },
-    ServiceDayResult | null | undefined
-  >({
-    source: () => ({ id: this.serviceDayId(), value: this.resultData.hasValue() ? this.resultData.value() : undefined }),
-    computation: (source, previous) =>
-      source.value !== undefined ? source.value : previous?.source.id === source.id && previous.value ? previous.value : undefined,
-  });
-  protected readonly resultState = computed<ResultState>(() => {
-    const shown = this.shownResult();
-    if (shown) return { status: 'ready', result: shown };
-    if (shown === null) return { status: 'none' };
-    if (this.resultData.status() === 'error') return { status: 'error', message: describeApiError(this.resultData.error()) };
-    return { status: 'loading' };
-  });
-  /** The results' load while none is shown yet, for the load-status line. */
-  protected readonly resultLoadState = computed<LoadState>(() => {
-    const state = this.resultState();
-    return state.status === 'loading' || state.status === 'error' ? state : { status: 'ready' };
-  });
+  /** The result shown (the newest answer for this day, the previous one while a newer loads) and its state. */
+  private readonly stored = storedResult(this.serviceDayId, this.resultData);
+  private readonly shownResult = this.stored.shown;
+  protected readonly resultState = this.stored.state;
+  protected readonly resultLoadState = this.stored.loadState;
   /** What failed after the page was shown: an action (Run, Delete) or a poll (the next one tries again). */
   private readonly actionError = signal<string | null>(null);
   protected readonly loadError = computed(() => {

@@ -1,4 +1,6 @@
-import { effect, linkedSignal, type ResourceRef, type Signal, type WritableSignal } from '@angular/core';
+import { computed, effect, linkedSignal, type ResourceRef, type Signal, type WritableSignal } from '@angular/core';
+import { describeApiError } from '../core/api-error-message';
+import type { LoadState } from './load-state';
 
 /**
  * The last answer of `source` for the current `id`: kept while the resource reloads or a reload
@@ -31,4 +33,37 @@ export function reloadWhileGoing<T>(
     const timer = setTimeout(() => source.reload(), intervalMs);
     onCleanup(() => clearTimeout(timer));
   });
+}
+
+/** A job's stored result on its page: loading, none stored, shown, or failed with a message. */
+export type StoredResultState<R> =
+  { status: 'loading' } | { status: 'none' } | { status: 'ready'; result: R } | { status: 'error'; message: string };
+
+/**
+ * A job's stored result as its page shows it, from `source` (whose value is null when none is
+ * stored): `shown` is the newest answer for the current `id`, the previous one while a newer loads
+ * (never one for an earlier id); `state` says what the page has; `loadState` is the load while
+ * nothing is shown, for `<app-load-status>`. Call in an injection context.
+ */
+export function storedResult<R>(
+  id: Signal<string>,
+  source: ResourceRef<R | null | undefined>,
+): { shown: Signal<R | null | undefined>; state: Signal<StoredResultState<R>>; loadState: Signal<LoadState> } {
+  const shown = linkedSignal<{ id: string; value: R | null | undefined }, R | null | undefined>({
+    source: () => ({ id: id(), value: source.hasValue() ? source.value() : undefined }),
+    computation: (current, previous) =>
+      current.value !== undefined ? current.value : previous?.source.id === current.id && previous.value ? previous.value : undefined,
+  });
+  const state = computed<StoredResultState<R>>(() => {
+    const result = shown();
+    if (result) return { status: 'ready', result };
+    if (result === null) return { status: 'none' };
+    if (source.status() === 'error') return { status: 'error', message: describeApiError(source.error()) };
+    return { status: 'loading' };
+  });
+  const loadState = computed<LoadState>(() => {
+    const current = state();
+    return current.status === 'loading' || current.status === 'error' ? current : { status: 'ready' };
+  });
+  return { shown, state, loadState };
 }
