@@ -127,30 +127,17 @@ export default class ScenarioResultScreen {
    * answer to "Run again", dropped on a new id.
    */
   protected readonly scenario = latestAnswer(this.scenarioId, this.data);
-  /** Which stored result to show: the scenario's, as of its last computation (none before the first run). */
-  private readonly resultKey = computed(
-    () => {
-      const scenario = this.scenario();
-      return scenario ? { scenarioId: scenario.id, computedAt: scenario.computedAt } : undefined;
-    },
-    { equal: (a, b) => a?.scenarioId === b?.scenarioId && a?.computedAt === b?.computedAt },
-  );
   /** The stored result, asked for again only when the scenario was computed again; null: none stored. */
-  protected readonly resultData = resource({
-    params: () => this.resultKey(),
-    loader: async ({ params }): Promise<ResultScreenData | null> => {
-      if (params.computedAt === null) return null;
-      try {
-        return await this.api.result(params.scenarioId);
-      } catch (error: unknown) {
-        // Expected when the result went between the two requests (a run failed and cleared it).
-        if (apiErrorBody(error)?.code === 'not_found') return null;
-        throw error;
-      }
-    },
+  private readonly stored = storedResult(this.scenarioId, this.scenario, async (jobId): Promise<ResultScreenData | null> => {
+    try {
+      return await this.api.result(jobId);
+    } catch (error: unknown) {
+      // Expected when the result went between the two requests (a run failed and cleared it).
+      if (apiErrorBody(error)?.code === 'not_found') return null;
+      throw error;
+    }
   });
-  /** The result shown (the newest answer for this scenario, the previous one while a newer loads) and its state. */
-  private readonly stored = storedResult(this.scenarioId, this.resultData);
+  protected readonly resultData = this.stored.data;
   private readonly shownResult = this.stored.shown;
   protected readonly resultState = this.stored.state;
   protected readonly resultLoadState = this.stored.loadState;

@@ -103,37 +103,24 @@ export default class ServiceDayResultScreen {
   protected readonly loadState = loadStateOf(this.data);
   /** The last answer for the current id: kept while a poll reloads or fails, replaced by the answer to "Run", dropped on a new id. */
   protected readonly day = latestAnswer(this.serviceDayId, this.data);
-  /** Which stored result to show: the day's, as of its last computation (none before the first run). */
-  private readonly resultKey = computed(
-    () => {
-      const day = this.day();
-      return day ? { serviceDayId: day.id, computedAt: day.computedAt } : undefined;
-    },
-    { equal: (a, b) => a?.serviceDayId === b?.serviceDayId && a?.computedAt === b?.computedAt },
-  );
   /** The stored result, asked for again only when the day was computed again; null: none stored. */
-  protected readonly resultData = resource({
-    params: () => this.resultKey(),
-    loader: async ({ params }): Promise<ServiceDayResult | null> => {
-      if (params.computedAt === null) return null;
-      try {
-        return await this.api.result(params.serviceDayId);
-      } catch (error: unknown) {
-        // Not stored (404) or its first run still going (409): the page says so without an error.
-        // An unknown day (`not_found`) is an error.
-        if (
-          error instanceof HttpErrorResponse &&
-          (error.status === 404 || error.status === 409) &&
-          apiErrorBody(error)?.code !== 'not_found'
-        ) {
-          return null;
-        }
-        throw error;
+  private readonly stored = storedResult(this.serviceDayId, this.day, async (jobId): Promise<ServiceDayResult | null> => {
+    try {
+      return await this.api.result(jobId);
+    } catch (error: unknown) {
+      // Not stored (404) or its first run still going (409): the page says so without an error.
+      // An unknown day (`not_found`) is an error.
+      if (
+        error instanceof HttpErrorResponse &&
+        (error.status === 404 || error.status === 409) &&
+        apiErrorBody(error)?.code !== 'not_found'
+      ) {
+        return null;
       }
-    },
+      throw error;
+    }
   });
-  /** The result shown (the newest answer for this day, the previous one while a newer loads) and its state. */
-  private readonly stored = storedResult(this.serviceDayId, this.resultData);
+  protected readonly resultData = this.stored.data;
   private readonly shownResult = this.stored.shown;
   protected readonly resultState = this.stored.state;
   protected readonly resultLoadState = this.stored.loadState;

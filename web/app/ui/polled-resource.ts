@@ -1,4 +1,4 @@
-import { computed, effect, linkedSignal, type ResourceRef, type Signal, type WritableSignal } from '@angular/core';
+import { computed, effect, linkedSignal, resource, type ResourceRef, type Signal, type WritableSignal } from '@angular/core';
 import { describeApiError } from '../core/api-error-message';
 import type { LoadState } from './load-state';
 
@@ -40,17 +40,37 @@ export type StoredResultState<R> =
   { status: 'loading' } | { status: 'none' } | { status: 'ready'; result: R } | { status: 'error'; message: string };
 
 /**
- * A job's stored result as its page shows it, from `source` (whose value is null when none is
- * stored): `shown` is the newest answer for the current `id`, the previous one while a newer loads
- * (never one for an earlier id); `state` says what the page has; `loadState` is the load while
- * nothing is shown, for `<app-load-status>`. Call in an injection context.
+ * A job's stored result as its page shows it. `job` is the page's latest answer for the job (a
+ * scenario, a service day); its result is asked for with `load` again only when the job was
+ * computed again (`computedAt` changed), and is null while the job has never been computed or when
+ * `load` says none is stored. `data` is the result's resource (for "Try again"); `shown` is the
+ * newest answer for the current `id`, the previous one while a newer loads (never one for an
+ * earlier id); `state` says what the page has; `loadState` is the load while nothing is shown, for
+ * `<app-load-status>`. Call in an injection context.
  */
 export function storedResult<R>(
   id: Signal<string>,
-  source: ResourceRef<R | null | undefined>,
-): { shown: Signal<R | null | undefined>; state: Signal<StoredResultState<R>>; loadState: Signal<LoadState> } {
+  job: Signal<{ id: string; computedAt: string | null } | null>,
+  load: (jobId: string) => Promise<R | null>,
+): {
+  data: ResourceRef<R | null | undefined>;
+  shown: Signal<R | null | undefined>;
+  state: Signal<StoredResultState<R>>;
+  loadState: Signal<LoadState>;
+} {
+  const key = computed(
+    () => {
+      const current = job();
+      return current ? { jobId: current.id, computedAt: current.computedAt } : undefined;
+    },
+    { equal: (a, b) => a?.jobId === b?.jobId && a?.computedAt === b?.computedAt },
+  );
+  const data = resource({
+    params: () => key(),
+    loader: ({ params }) => (params.computedAt === null ? Promise.resolve(null) : load(params.jobId)),
+  });
   const shown = linkedSignal<{ id: string; value: R | null | undefined }, R | null | undefined>({
-    source: () => ({ id: id(), value: source.hasValue() ? source.value() : undefined }),
+    source: () => ({ id: id(), value: data.hasValue() ? data.value() : undefined }),
     computation: (current, previous) =>
       current.value !== undefined ? current.value : previous?.source.id === current.id && previous.value ? previous.value : undefined,
   });
@@ -58,12 +78,12 @@ export function storedResult<R>(
     const result = shown();
     if (result) return { status: 'ready', result };
     if (result === null) return { status: 'none' };
-    if (source.status() === 'error') return { status: 'error', message: describeApiError(source.error()) };
+    if (data.status() === 'error') return { status: 'error', message: describeApiError(data.error()) };
     return { status: 'loading' };
   });
   const loadState = computed<LoadState>(() => {
     const current = state();
     return current.status === 'loading' || current.status === 'error' ? current : { status: 'ready' };
   });
-  return { shown, state, loadState };
+  return { data, shown, state, loadState };
 }
