@@ -71,6 +71,21 @@ export function rangeSchema(range: NumberRange): z.ZodNumber {
   return range.maxExclusive ? low.lt(range.max) : low.max(range.max);
 }
 
+/**
+ * A service day's chargers and SOC settings, SI (power in W, shares 0–1). The contract
+ * (shared/domain/service-days.ts) and the service-day editor both read these. A charger from
+ * 1 kW (a slow depot socket) to 1 MW (a pantograph at a terminus, common practice); an efficiency
+ * from grid to battery of at least 50 % catches a typing error; a charger stopping below 10 % SOC
+ * would never help; a reserve above half the battery is not a reserve.
+ */
+export const SERVICE_DAY_LIMITS = {
+  chargerPowerW: { min: 1_000, max: 1_000_000 },
+  chargerEfficiency: { min: 0.5, max: 1 },
+  chargerTargetSoc: { min: 0.1, max: 1 },
+  reserveSoc: { min: 0, max: 0.5 },
+  startSoc: { min: 0, max: 1 },
+} as const satisfies Record<string, NumberRange>;
+
 const SHARE = { min: 0, max: 1 } as const;
 const POWER_W = { min: 0, max: 5_000_000 } as const;
 

@@ -1,5 +1,6 @@
 import * as z from 'zod';
 import { riskLevelSchema } from './analysis';
+import { rangeSchema, SERVICE_DAY_LIMITS } from './limits';
 import { runStatusSchema, scenarioLoadSchema } from './scenarios';
 import { seasonSchema } from './vehicle-profiles';
 
@@ -26,6 +27,9 @@ export const serviceTimeSSchema = z
   .max(36 * 3600);
 
 export const CHARGER_KINDS = ['depot', 'terminus'] as const;
+/** A trip runs a route one way; a block's round trips are two trips. */
+export const TRIP_DIRECTIONS = ['outbound', 'inbound'] as const;
+
 export const chargerKindSchema = z.enum(CHARGER_KINDS);
 export type ChargerKind = z.infer<typeof chargerKindSchema>;
 
@@ -37,11 +41,11 @@ export const chargerSchema = z.object({
   /** Where it stands, [longitude, latitude] (WGS 84). */
   position: z.tuple([z.number().min(-180).max(180), z.number().min(-90).max(90)]),
   /** Grid-side power the charger delivers, W. */
-  powerW: z.number().min(1_000).max(1_000_000),
+  powerW: rangeSchema(SERVICE_DAY_LIMITS.chargerPowerW),
   /** Share of grid energy that reaches the battery (charger and battery losses together), 0–1. */
-  efficiency: z.number().min(0.5).max(1),
+  efficiency: rangeSchema(SERVICE_DAY_LIMITS.chargerEfficiency),
   /** The charger stops at this SOC, 0–1. */
-  targetSoc: z.number().min(0.1).max(1),
+  targetSoc: rangeSchema(SERVICE_DAY_LIMITS.chargerTargetSoc),
   /** Time lost at each stop to connect and disconnect, s. */
   connectS: z.number().min(0).max(600).default(30),
 });
@@ -51,7 +55,7 @@ export type Charger = z.infer<typeof chargerSchema>;
 export const blockTripSchema = z.object({
   routeId: z.uuid(),
   routeVersion: z.number().int().min(1).optional(),
-  direction: z.enum(['outbound', 'inbound']),
+  direction: z.enum(TRIP_DIRECTIONS),
   departureS: serviceTimeSSchema,
   load: scenarioLoadSchema.default({ kind: 'case', case: 'seated' }),
   /** GTFS trip_id when the trip came from a feed. */
@@ -68,7 +72,7 @@ export const blockSchema = z.object({
   pullOutS: serviceTimeSSchema,
   pullInS: serviceTimeSSchema,
   /** SOC when the vehicle leaves the depot, 0–1. */
-  startSoc: z.number().min(0).max(1).default(0.95),
+  startSoc: rangeSchema(SERVICE_DAY_LIMITS.startSoc).default(0.95),
   /** Trips in time order; layovers are the gaps between one trip's arrival and the next departure. */
   trips: z.array(blockTripSchema).min(1).max(60),
 });
@@ -85,7 +89,7 @@ export const serviceDayDraftSchema = z.object({
   /** Which point of the battery's life to check the day at. */
   batteryAge: batteryAgeSchema.default('beginning-of-life'),
   /** Lowest SOC a block may reach and still count as worked, 0–1. */
-  reserveSoc: z.number().min(0).max(0.5).default(0.15),
+  reserveSoc: rangeSchema(SERVICE_DAY_LIMITS.reserveSoc).default(0.15),
   /** Counted in the board's annual network figures. */
   inService: z.boolean().default(false),
   chargers: z.array(chargerSchema).max(200).default([]),
@@ -134,7 +138,7 @@ export const chargingEventSchema = z.object({
 export const serviceDayDescentSchema = z.object({
   tripIndex: z.number().int(),
   routeId: z.uuid(),
-  direction: z.enum(['outbound', 'inbound']),
+  direction: z.enum(TRIP_DIRECTIONS),
   startM: z.number(),
   endM: z.number(),
   dropM: z.number(),

@@ -20,6 +20,7 @@ import { MatProgressBarModule } from '@angular/material/progress-bar';
 import { MatSelectModule } from '@angular/material/select';
 import { MatSlideToggleModule } from '@angular/material/slide-toggle';
 import { Router, RouterLink } from '@angular/router';
+import { SERVICE_DAY_LIMITS, type NumberRange } from '@shared/domain/limits';
 import { LoadStatus } from '../ui/load-status';
 import { loadStateOf } from '../ui/load-state';
 import type { RoadRoute, RoadRouteSummary } from '@shared/domain/road-routes';
@@ -27,6 +28,7 @@ import { LOAD_CASES, SEASONS, type LoadCase, type VehicleProfile } from '@shared
 import {
   BATTERY_AGES,
   CHARGER_KINDS,
+  TRIP_DIRECTIONS,
   DAY_TYPES,
   type Block,
   type BlockTrip,
@@ -63,6 +65,20 @@ const ROUTE_COLOUR = '#0b5567';
  * The draft lives in this page until it is saved: a refused save keeps every entry and shows
  * each problem beside the field it concerns.
  */
+/** A share's range (0–1) in percent, as the editor's fields show it. */
+function percentRange(range: NumberRange): { min: number; max: number } {
+  return { min: Math.round(range.min * 100), max: Math.round(range.max * 100) };
+}
+
+/** The editor's number fields in the units they show, from the contract's limits. */
+const FIELD_RANGES = {
+  chargerPowerKw: { min: SERVICE_DAY_LIMITS.chargerPowerW.min / 1000, max: SERVICE_DAY_LIMITS.chargerPowerW.max / 1000 },
+  chargerEfficiencyPercent: percentRange(SERVICE_DAY_LIMITS.chargerEfficiency),
+  chargerTargetSocPercent: percentRange(SERVICE_DAY_LIMITS.chargerTargetSoc),
+  reservePercent: percentRange(SERVICE_DAY_LIMITS.reserveSoc),
+  startSocPercent: percentRange(SERVICE_DAY_LIMITS.startSoc),
+} as const;
+
 @Component({
   selector: 'app-service-day-editor',
   imports: [
@@ -93,6 +109,7 @@ export default class ServiceDayEditor {
   /** From `service-days/:serviceDayId/edit`; absent for a new one. */
   readonly serviceDayId = input<string | undefined>();
 
+  protected readonly ranges = FIELD_RANGES;
   protected readonly dayTypes = DAY_TYPES;
   protected readonly seasons = SEASONS;
   protected readonly batteryAges = BATTERY_AGES;
@@ -257,7 +274,9 @@ export default class ServiceDayEditor {
   }
 
   protected setReserve(text: string): void {
-    this.setFraction(text, 'reserveSoc', 0, 50, (fraction) => this.draft.update((draft) => ({ ...draft, reserveSoc: fraction })));
+    this.setFraction(text, 'reserveSoc', SERVICE_DAY_LIMITS.reserveSoc, (fraction) =>
+      this.draft.update((draft) => ({ ...draft, reserveSoc: fraction })),
+    );
   }
 
   // Chargers
@@ -282,6 +301,11 @@ export default class ServiceDayEditor {
     );
   }
 
+  protected setChargerKind(index: number, text: string): void {
+    const kind = CHARGER_KINDS.find((known) => known === text);
+    if (kind) this.updateCharger(index, { kind });
+  }
+
   protected updateCharger(index: number, change: Partial<Charger>): void {
     if (index < 0) return;
     this.draft.update((draft) => ({
@@ -294,12 +318,13 @@ export default class ServiceDayEditor {
     const path = `chargers.${index}.${field}`;
     if (field === 'powerW') {
       const kw = Number(text);
-      if (text.trim() === '' || !Number.isFinite(kw) || kw < 1 || kw > 1000) return this.setError(path, 'Power from 1 to 1000 kW.');
+      const { min, max } = FIELD_RANGES.chargerPowerKw;
+      if (text.trim() === '' || !Number.isFinite(kw) || kw < min || kw > max) return this.setError(path, `Power from ${min} to ${max} kW.`);
       this.clearError(path);
       return this.updateCharger(index, { powerW: kw * 1000 });
     }
-    const [min, max] = field === 'efficiency' ? [50, 100] : [10, 100];
-    this.setFraction(text, path, min, max, (fraction) => this.updateCharger(index, { [field]: fraction }));
+    const range = field === 'efficiency' ? SERVICE_DAY_LIMITS.chargerEfficiency : SERVICE_DAY_LIMITS.chargerTargetSoc;
+    this.setFraction(text, path, range, (fraction) => this.updateCharger(index, { [field]: fraction }));
   }
 
   protected removeCharger(index: number): void {
@@ -439,7 +464,9 @@ export default class ServiceDayEditor {
   }
 
   protected setStartSoc(text: string): void {
-    this.setFraction(text, `blocks.${this.selectedBlockIndex()}.startSoc`, 0, 100, (fraction) => this.updateBlock({ startSoc: fraction }));
+    this.setFraction(text, `blocks.${this.selectedBlockIndex()}.startSoc`, SERVICE_DAY_LIMITS.startSoc, (fraction) =>
+      this.updateBlock({ startSoc: fraction }),
+    );
   }
 
   protected addTrip(): void {
@@ -473,8 +500,14 @@ export default class ServiceDayEditor {
     this.updateTrip(tripIndex, { departureS: timeS });
   }
 
-  protected setTripLoad(tripIndex: number, loadCase: LoadCase): void {
-    this.updateTrip(tripIndex, { load: { kind: 'case', case: loadCase } });
+  protected setTripLoad(tripIndex: number, text: string): void {
+    const loadCase = LOAD_CASES.find((known) => known === text);
+    if (loadCase) this.updateTrip(tripIndex, { load: { kind: 'case', case: loadCase } });
+  }
+
+  protected setTripDirection(tripIndex: number, text: string): void {
+    const direction = TRIP_DIRECTIONS.find((known) => known === text);
+    if (direction) this.updateTrip(tripIndex, { direction });
   }
 
   protected tripLoadCase(trip: BlockTrip): LoadCase | null {
@@ -529,7 +562,9 @@ export default class ServiceDayEditor {
     }
   }
 
-  private setFraction(text: string, path: string, min: number, max: number, apply: (fraction: number) => void): void {
+  /** A percentage typed for a share in `range` (0–1): applied as a fraction, or refused with the range in %. */
+  private setFraction(text: string, path: string, range: NumberRange, apply: (fraction: number) => void): void {
+    const { min, max } = percentRange(range);
     const value = Number(text);
     if (text.trim() === '' || !Number.isFinite(value) || value < min || value > max) {
       this.setError(path, `${min} to ${max} %.`);
