@@ -8,7 +8,7 @@ import { PageWatch } from './support/page-watch';
 describe('deep links', () => {
   const browser = signedInBrowser('board');
 
-  it('explains who may create, instead of asking the API for an item called "new"', async () => {
+  it('explains who may create or change, instead of asking the API for an item called "new" or showing "Page not found"', async () => {
     const { page } = browser;
     const watch = new PageWatch(page);
     try {
@@ -16,6 +16,16 @@ describe('deep links', () => {
         ['/vehicles/new', 'New vehicle profile', /Only energy & terrain analysts can create vehicle profiles/],
         ['/routes/new', 'New route', /Only transit planners can draw new routes/],
         ['/scenarios/new', 'New scenario', /Only transit planners and energy & terrain analysts can create scenarios/],
+        [
+          '/scenarios/3a5d4046-48a5-4a78-ac98-8552c9ff0ac7/edit',
+          'Edit scenario',
+          /Only transit planners and energy & terrain analysts can change scenarios/,
+        ],
+        [
+          '/service-days/3a5d4046-48a5-4a78-ac98-8552c9ff0ac7/edit',
+          'Edit service day',
+          /Only energy & terrain analysts and administrators can change service days/,
+        ],
       ] as const) {
         await page.goto(`${BASE_URL}${path}`);
         await page.getByRole('heading', { level: 1, name: heading, exact: true }).waitFor();

@@ -27,6 +27,14 @@ export const SCENARIOS_ROUTES: Routes = [
     canMatch: [uuidParams, allowRoles(EDITORS)],
     loadComponent: () => import('./scenario-form'),
   },
+  {
+    // Every other role that bookmarked or typed the address: say who may change scenarios.
+    path: ':scenarioId/edit',
+    title: 'Edit scenario · Descentry',
+    canMatch: [uuidParams],
+    data: { title: 'Edit scenario', action: 'change scenarios', roles: EDITORS, back: '/scenarios', backLabel: 'Scenarios' },
+    loadComponent: () => import('../shell/role-required'),
+  },
   { path: ':scenarioId', title: 'Scenario results · Descentry', canMatch: [uuidParams], loadComponent: () => import('./scenario-result') },
 ];
 export default SCENARIOS_ROUTES;

@@ -28,6 +28,14 @@ export const SERVICE_DAYS_ROUTES: Routes = [
     loadComponent: () => import('./service-day-editor'),
   },
   {
+    // Every other role that bookmarked or typed the address: say who may change service days.
+    path: ':serviceDayId/edit',
+    title: 'Edit service day · Descentry',
+    canMatch: [uuidParams],
+    data: { title: 'Edit service day', action: 'change service days', roles: EDITORS, back: '/service-days', backLabel: 'Service days' },
+    loadComponent: () => import('../shell/role-required'),
+  },
+  {
     path: ':serviceDayId',
     title: 'Service day results · Descentry',
     canMatch: [uuidParams],
