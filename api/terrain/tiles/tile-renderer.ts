@@ -264,7 +264,7 @@ async function gatherWindow(
 }
 
 let transparent: Buffer | null = null;
-/** A fully transparent tile (where no model covers): a palette PNG of one entry, about a hundred bytes. */
+/** A fully transparent tile (where no model covers): a palette PNG of one entry, 169 bytes. */
 export function transparentTile(): Buffer {
   if (!transparent) {
     const png = encodeTileCodes(new Uint32Array(TILE_SIZE_PX * TILE_SIZE_PX).fill(NO_DATA_CODE), TILE_SIZE_PX, TILE_SIZE_PX, {
