@@ -63,6 +63,14 @@ export class RoadRoutesApi {
     await firstValueFrom(this.http.delete(routePath(routeId)));
   }
 
+  /**
+   * Length and elevation along a saved version's line: the same answer as `profile` for that
+   * line, but a GET the browser keeps and revalidates, so an unchanged profile costs no body.
+   */
+  savedProfile(routeId: string, version: number): Observable<RouteProfile> {
+    return this.http.get(`${routePath(routeId)}/versions/${version}/profile`, inline()).pipe(map((body) => routeProfileSchema.parse(body)));
+  }
+
   /** Length and elevation along a geometry being edited (not stored). Cancel by unsubscribing. */
   profile(geometry: LineString): Observable<RouteProfile> {
     return this.http.post('/api/routes/profile', { geometry }, inline()).pipe(map((body) => routeProfileSchema.parse(body)));
