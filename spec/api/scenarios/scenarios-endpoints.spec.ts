@@ -277,6 +277,37 @@ describe('revalidation of the stored result', () => {
     expect(first.body.summary.lengthM).toBeGreaterThan(1);
   });
 
+  it('sends the scenario anew when a safety setting makes it out of date, while the result, which does not show it, still holds', async () => {
+    const admin = await cookieFor('admin');
+    const route = await aRoute();
+    const scenario = (await request(app).post('/api/scenarios').set('Cookie', planner).send(aScenarioDraft(route.id))).body;
+    const scenarioPath = `/api/scenarios/${scenario.id}`;
+    const resultPath = `${scenarioPath}/result?profileStepM=25`;
+    const headline = await request(app).get(scenarioPath).set('Cookie', planner);
+    const result = await request(app).get(resultPath).set('Cookie', planner);
+    const {
+      isPlaceholder: _p,
+      updatedAt: _u,
+      updatedByName: _n,
+      ...settings
+    } = (await request(app).get('/api/settings/network').set('Cookie', admin)).body;
+
+    const changed = await request(app)
+      .put('/api/settings/network')
+      .set('Cookie', admin)
+      .send({ ...settings, fadeMarginK: settings.fadeMarginK + 10 });
+    const headlineAfter = await request(app).get(scenarioPath).set('Cookie', planner).set('If-None-Match', headline.headers['etag']!);
+    const resultAfter = await request(app).get(resultPath).set('Cookie', planner).set('If-None-Match', result.headers['etag']!);
+
+    expect(headline.body.isStale).toBe(false);
+    expect(changed.status).toBe(200);
+    expect(headlineAfter.status).toBe(200);
+    expect(headlineAfter.body.staleReasons).toEqual(["the network settings' fade margin changed after the run"]);
+    expect(headlineAfter.headers['etag']).not.toBe(headline.headers['etag']);
+    expect(result.body).not.toHaveProperty('staleReasons');
+    expect(resultAfter.status).toBe(304);
+  });
+
   it('keeps no-store on a missing result', async () => {
     const missing = await request(app)
       .get('/api/scenarios/00000000-0000-4000-8000-000000000000/result')
