@@ -4,6 +4,10 @@ import { ROLES } from '@shared/domain/roles';
 import { areaData } from './core/areas';
 import { allowRoles, areaRoleGuard, signedInGuard } from './core/role-guard';
 import { uuidParams } from './core/uuid-params';
+import { ROAD_ROUTES_ROUTES } from './road-routes/road-routes.routes';
+import { SCENARIOS_ROUTES } from './scenarios/scenarios.routes';
+import { SERVICE_DAYS_ROUTES } from './service-days/service-days.routes';
+import { VEHICLES_ROUTES } from './vehicles/vehicles.routes';
 
 /**
  * The router table. Pages outside the shell are public (sign-in and the e-mailed links).
@@ -54,7 +58,7 @@ export const routes: Routes = [
           summary: 'Draw and edit routes on the terrain map, with stops, speed limits and versions; import and export them.',
           roles: ROLES,
         }),
-        loadChildren: () => import('./road-routes/road-routes.routes'),
+        children: ROAD_ROUTES_ROUTES,
       },
       {
         path: 'reviews',
@@ -114,7 +118,7 @@ export const routes: Routes = [
             'Run a route with a vehicle, load and season; see energy, regeneration, brake heat and risky descents; compare variants.',
           roles: ROLES,
         }),
-        loadChildren: () => import('./scenarios/scenarios.routes'),
+        children: SCENARIOS_ROUTES,
       },
       {
         path: 'service-days',
@@ -126,7 +130,7 @@ export const routes: Routes = [
             'A vehicle’s whole day: blocks of trips with layovers, chargers at the depot and route ends, SOC through the day and which blocks cannot be worked.',
           roles: ROLES,
         }),
-        loadChildren: () => import('./service-days/service-days.routes'),
+        children: SERVICE_DAYS_ROUTES,
       },
       {
         path: 'vehicles',
@@ -137,7 +141,7 @@ export const routes: Routes = [
           summary: 'The vehicle classes and the authority’s own profiles, with every engine parameter and the capability chart.',
           roles: ROLES,
         }),
-        loadChildren: () => import('./vehicles/vehicles.routes'),
+        children: VEHICLES_ROUTES,
       },
       {
         // Everyone signed in may open the catalogue; the navigation lists it for the roles that

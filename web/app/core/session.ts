@@ -5,6 +5,7 @@ import { can, type Permission } from '@shared/domain/permissions';
 import { ROLE_LABELS, type Role } from '@shared/domain/roles';
 import { firstValueFrom } from 'rxjs';
 import { ERRORS_SHOWN_INLINE } from './api-error-message';
+import { SESSION_PATH } from './early-reads';
 
 /** Whether the first `GET /api/auth/session` has answered yet. */
 export type SessionStatus = 'unknown' | 'signed-in' | 'signed-out';
@@ -79,7 +80,7 @@ export class Session {
 
   private async fetchCurrentUser(): Promise<void> {
     try {
-      const body = await firstValueFrom(this.http.get('/api/auth/session'));
+      const body = await firstValueFrom(this.http.get(SESSION_PATH));
       const { user } = sessionResponseSchema.parse(body);
       if (user) this.setUser(user);
       else this.clear();

@@ -2,6 +2,7 @@ import { HttpClient } from '@angular/common/http';
 import { Injectable, inject, signal } from '@angular/core';
 import { firstValueFrom } from 'rxjs';
 import { basemapListSchema } from '@shared/domain/basemap';
+import { BASEMAP_LIST_PATH } from './map-paths';
 
 /**
  * Which base map the server serves: its tile version (tile URLs carry it, so browsers keep tiles
@@ -18,7 +19,7 @@ export class BasemapTilesVersion {
 
   ensureLoaded(): void {
     if (this._state() !== null || this.loading) return;
-    this.loading = firstValueFrom(this.http.get('/api/basemap'))
+    this.loading = firstValueFrom(this.http.get(BASEMAP_LIST_PATH))
       .then((body) => {
         const list = basemapListSchema.parse(body);
         this._state.set({ version: list.tilesVersion, attribution: list.attribution });

@@ -2,6 +2,7 @@ import { HttpClient } from '@angular/common/http';
 import { Injectable, inject, signal } from '@angular/core';
 import { firstValueFrom } from 'rxjs';
 import { terrainListSchema } from '@shared/domain/terrain';
+import { TERRAIN_CATALOGUE_PATH } from './map-paths';
 
 /**
  * The terrain catalogue's version, which tile URLs carry so that browsers may keep tiles for a
@@ -25,7 +26,7 @@ export class TerrainTilesVersion {
   /** Asks the server for the version unless it is already known or being asked for. */
   ensureLoaded(): void {
     if (this._version() !== null || this.loading) return;
-    this.loading = firstValueFrom(this.http.get('/api/terrain'))
+    this.loading = firstValueFrom(this.http.get(TERRAIN_CATALOGUE_PATH))
       .then((body) => this._version.set(terrainListSchema.parse(body).tilesVersion))
       // Without a version the map keeps unversioned tile URLs, which still revalidate; nothing to report.
       .catch(() => undefined)

@@ -23,6 +23,7 @@ import {
 import { firstValueFrom, map, type Observable } from 'rxjs';
 import * as z from 'zod';
 import { ERRORS_SHOWN_INLINE } from '../core/api-error-message';
+import { ROAD_NETWORK_PATH, routePath, routeVersionsPath } from './route-paths';
 
 export type RouteExportFormat = 'geojson' | 'gpx';
 export type RouteVersionInfo = z.infer<typeof roadRouteVersionListSchema>['items'][number];
@@ -56,7 +57,7 @@ export class RoadRoutesApi {
 
   /** Every saved version of the route, newest first. */
   async versions(routeId: string): Promise<RouteVersionInfo[]> {
-    return roadRouteVersionListSchema.parse(await firstValueFrom(this.http.get(`${routePath(routeId)}/versions`))).items;
+    return roadRouteVersionListSchema.parse(await firstValueFrom(this.http.get(routeVersionsPath(routeId)))).items;
   }
 
   async remove(routeId: string): Promise<void> {
@@ -97,7 +98,7 @@ export class RoadRoutesApi {
   }
 
   async roadNetwork(): Promise<RoadNetwork | null> {
-    const body = await firstValueFrom(this.http.get('/api/road-network', inline()));
+    const body = await firstValueFrom(this.http.get(ROAD_NETWORK_PATH, inline()));
     const network = roadNetworkSchema.parse(body);
     return network.features.length > 0 ? network : null;
   }
@@ -106,7 +107,7 @@ export class RoadRoutesApi {
   async uploadRoadNetwork(file: File): Promise<{ featureCount: number; lineCount: number }> {
     const form = new FormData();
     form.append('file', file, file.name);
-    return roadNetworkUploadResultSchema.parse(await firstValueFrom(this.http.post('/api/road-network', form, inline())));
+    return roadNetworkUploadResultSchema.parse(await firstValueFrom(this.http.post(ROAD_NETWORK_PATH, form, inline())));
   }
 
   /** The path along the reference network between two points, for snapping a new vertex. */
@@ -122,8 +123,4 @@ export class RoadRoutesApi {
       .post('/api/road-network/path', { from: lngLat(from), to: lngLat(to), via: via.map(lngLat) }, inline())
       .pipe(map((body) => roadNetworkPathSchema.parse(body)));
   }
-}
-
-function routePath(routeId: string): string {
-  return `/api/routes/${encodeURIComponent(routeId)}`;
 }

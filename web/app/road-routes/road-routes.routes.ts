@@ -1,6 +1,7 @@
 import type { Routes } from '@angular/router';
 import { allowRoles } from '../core/role-guard';
 import { uuidParams } from '../core/uuid-params';
+import { routeEditorFirstReads } from './route-paths';
 
 /** Routes area: the list, a new route (planners) and one route (everyone reads). */
 export const ROAD_ROUTES_ROUTES: Routes = [
@@ -18,6 +19,12 @@ export const ROAD_ROUTES_ROUTES: Routes = [
     data: { title: 'New route', action: 'draw new routes', roles: ['planner'], back: '/routes', backLabel: 'Routes' },
     loadComponent: () => import('../shell/role-required'),
   },
-  { path: ':routeId', title: 'Route · Descentry', canMatch: [uuidParams], loadComponent: () => import('./route-editor') },
+  {
+    path: ':routeId',
+    title: 'Route · Descentry',
+    canMatch: [uuidParams],
+    data: { firstReads: routeEditorFirstReads },
+    loadComponent: () => import('./route-editor'),
+  },
 ];
 export default ROAD_ROUTES_ROUTES;

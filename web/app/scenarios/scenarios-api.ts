@@ -14,30 +14,9 @@ import {
 import { firstValueFrom } from 'rxjs';
 import * as z from 'zod';
 import { ERRORS_SHOWN_INLINE } from '../core/api-error-message';
+import { RESULT_SCREEN_SERIES, scenarioPath, scenarioResultScreenPath } from './scenario-paths';
 
 export type ScenarioExportKind = 'csv' | 'geojson' | 'pdf';
-
-/**
- * The per-point series the result screen draws (its charts and the route on the map) and the
- * step it asks for them at: one point per 25 m, with each step's hottest and fastest points kept,
- * is finer than a chart a screen wide can show. The summary and the descents come whole; the
- * exports (CSV, GeoJSON, PDF) still carry every point.
- */
-export const RESULT_SCREEN_SERIES = [
-  'lon',
-  'lat',
-  'elevationM',
-  'gradePercent',
-  'speedMps',
-  'rollingN',
-  'aeroN',
-  'gradeN',
-  'inertiaN',
-  'batteryPowerW',
-  'soc',
-  'brakeTempC',
-] as const;
-export const RESULT_SCREEN_STEP_M = 25;
 
 const resultScreenSchema = scenarioResultSchema.extend({
   directions: z
@@ -92,8 +71,7 @@ export class ScenariosApi {
 
   /** The stored result with the per-point series the result screen draws, thinned for its charts. */
   async result(scenarioId: string): Promise<ResultScreenData> {
-    const params = { profileStepM: RESULT_SCREEN_STEP_M, series: RESULT_SCREEN_SERIES.join(',') };
-    return resultScreenSchema.parse(await firstValueFrom(this.http.get(`${scenarioPath(scenarioId)}/result`, { ...inline(), params })));
+    return resultScreenSchema.parse(await firstValueFrom(this.http.get(scenarioResultScreenPath(scenarioId), inline())));
   }
 
   async compare(scenarioIds: readonly string[]): Promise<ScenarioComparison> {
@@ -115,8 +93,4 @@ export class ScenariosApi {
 export function descentCardsUrl(scenarioId: string, at?: { direction: 'outbound' | 'inbound'; atM: number }): string {
   const base = `${scenarioPath(scenarioId)}/descent-cards.pdf`;
   return at ? `${base}?direction=${at.direction}&atM=${Math.round(at.atM)}` : base;
-}
-
-function scenarioPath(scenarioId: string): string {
-  return `/api/scenarios/${encodeURIComponent(scenarioId)}`;
 }

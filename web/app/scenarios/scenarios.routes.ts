@@ -1,6 +1,7 @@
 import type { Routes } from '@angular/router';
 import { allowRoles } from '../core/role-guard';
 import { uuidParams } from '../core/uuid-params';
+import { scenarioResultFirstReads } from './scenario-paths';
 
 const EDITORS = ['planner', 'analyst'] as const;
 
@@ -35,6 +36,12 @@ export const SCENARIOS_ROUTES: Routes = [
     data: { title: 'Edit scenario', action: 'change scenarios', roles: EDITORS, back: '/scenarios', backLabel: 'Scenarios' },
     loadComponent: () => import('../shell/role-required'),
   },
-  { path: ':scenarioId', title: 'Scenario results · Descentry', canMatch: [uuidParams], loadComponent: () => import('./scenario-result') },
+  {
+    path: ':scenarioId',
+    title: 'Scenario results · Descentry',
+    canMatch: [uuidParams],
+    data: { firstReads: scenarioResultFirstReads },
+    loadComponent: () => import('./scenario-result'),
+  },
 ];
 export default SCENARIOS_ROUTES;
