@@ -23,7 +23,7 @@ import {
 import { firstValueFrom, map, type Observable } from 'rxjs';
 import * as z from 'zod';
 import { ERRORS_SHOWN_INLINE } from '../core/api-error-message';
-import { ROAD_NETWORK_PATH, routePath, routeVersionsPath } from './route-paths';
+import { ROAD_NETWORK_PATH, routePath, routeVersionProfilePath, routeVersionsPath } from './route-paths';
 
 export type RouteExportFormat = 'geojson' | 'gpx';
 export type RouteVersionInfo = z.infer<typeof roadRouteVersionListSchema>['items'][number];
@@ -69,7 +69,7 @@ export class RoadRoutesApi {
    * line, but a GET the browser keeps and revalidates, so an unchanged profile costs no body.
    */
   savedProfile(routeId: string, version: number): Observable<RouteProfile> {
-    return this.http.get(`${routePath(routeId)}/versions/${version}/profile`, inline()).pipe(map((body) => routeProfileSchema.parse(body)));
+    return this.http.get(routeVersionProfilePath(routeId, version), inline()).pipe(map((body) => routeProfileSchema.parse(body)));
   }
 
   /** Length and elevation along a geometry being edited (not stored). Cancel by unsubscribing. */
