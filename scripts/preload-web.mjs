@@ -43,6 +43,7 @@ export function addPreloads(root) {
   // What main loads dynamically (the application), and everything that imports statically.
   const added = [];
   const seen = new Set([mainName, ...links.map((match) => match[1])]);
+  if (links.some((match) => match[1] === mainName)) return [];
   const queue = [...fromMain];
   while (queue.length > 0) {
     const name = queue.shift();
@@ -52,10 +53,15 @@ export function addPreloads(root) {
     queue.push(...staticImports(read(name)));
   }
   if (added.length === 0) return added;
+  // main itself first: the loader script at the end of the page asks for it last, and over
+  // HTTP/1.1 (six connections) it then waits behind every preload, while it is the script that
+  // starts the session read and the application's import. Then main's own imports, then the rest.
+  const first = links[0];
   const last = links.at(-1);
   const at = last.index + last[0].length;
   const extra = added.map((name) => `<link rel="modulepreload" href="${name}">`).join('');
-  writeFileSync(indexPath, html.slice(0, at) + extra + html.slice(at));
+  const withMain = `<link rel="modulepreload" href="${mainName}">`;
+  writeFileSync(indexPath, html.slice(0, first.index) + withMain + html.slice(first.index, at) + extra + html.slice(at));
   return added;
 }
 

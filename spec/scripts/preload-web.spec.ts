@@ -34,12 +34,12 @@ describe('preload links for the scripts the first page needs', () => {
     expect(dynamicImports(code)).toEqual(['chunk-PAGE.js']);
   });
 
-  it('adds what main loads at once and all its static imports, after the existing links, not the lazy pages', () => {
+  it('preloads main first, then its own imports, then what it loads at once with all their static imports, not the lazy pages', () => {
     const root = builtApp();
     expect(addPreloads(root)).toEqual(['chunk-START.js', 'chunk-CORE.js', 'chunk-STYLE.js', 'chunk-RX.js']);
     const html = readFileSync(join(root, 'index.html'), 'utf8');
     const links = [...html.matchAll(/<link rel="modulepreload" href="([^"]+)">/g)].map((match) => match[1]);
-    expect(links).toEqual(['chunk-ZOD.js', 'chunk-START.js', 'chunk-CORE.js', 'chunk-STYLE.js', 'chunk-RX.js']);
+    expect(links).toEqual(['main-AAA.js', 'chunk-ZOD.js', 'chunk-START.js', 'chunk-CORE.js', 'chunk-STYLE.js', 'chunk-RX.js']);
     expect(html).not.toContain('chunk-PAGE.js');
     expect(html).not.toContain('chunk-FORM.js');
     // The loader script is left as it was (the server's CSP hashes it).

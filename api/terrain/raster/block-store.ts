@@ -185,8 +185,7 @@ export class BlockStore {
    * event loop stays free for other requests. When the pool has nothing else to do, the tile is
    * split in two at `splitRow` (where the work halves: a tile half without data splits off
    * centre): a worker renders the top part while this thread renders the bottom one, and a worker
-   * encodes the joined pixels (the quantiser needs the whole tile, and it is the larger share of
-   * the work, so it stays off the event loop). With two cores that keeps both busy; handing the
+   * encodes the joined pixel codes (the palette depends on the tint metres of the whole tile). With two cores that keeps both busy; handing the
    * second part to a second worker instead waits for this thread to go idle before that worker
    * can run, and the event loop is held for one part of one tile only when no other terrain work
    * is waiting. Otherwise one worker renders it all. Windows in shared memory are read in place,
@@ -200,16 +199,20 @@ export class BlockStore {
       const top = this.runTask(
         { task: { ...task, layers }, firstRow: 0, endRow: split },
         { name: 'renderTileRows' },
-      ) as Promise<Uint8Array>;
-      let bottom: Uint8Array;
+      ) as Promise<Uint32Array>;
+      let bottom: Uint32Array;
       try {
         bottom = renderTileRows(task, split, TILE_PX);
       } finally {
         // The worker's part settles either way (no unhandled rejection when this one throws).
         void top.catch(() => undefined);
       }
-      const pixels = joinParts([await top, bottom]);
-      const png = (await this.runTask({ pixels }, { name: 'encodeTile', transferList: [pixels.buffer as ArrayBuffer] })) as Uint8Array;
+      const codes = joinParts([await top, bottom]);
+      const { stops, shadowFloor, shadeGain } = task;
+      const png = (await this.runTask(
+        { codes, colours: { stops, shadowFloor, shadeGain } },
+        { name: 'encodeTile', transferList: [codes.buffer as ArrayBuffer] },
+      )) as Uint8Array;
       return Buffer.from(png.buffer, png.byteOffset, png.byteLength);
     }
     // Windows in shared memory are read in place; others are handed over.

@@ -6,11 +6,12 @@
 // Decode task: { path, window: [x0, y0, x1, y1], nodata, verticalScaleToM, wide, into? }; the
 // result (see raster-decode.mjs) goes back transferred.
 // renderTile task: a TileTask (tile-kernel.d.mts); result: the PNG bytes (Uint8Array).
-// renderTileRows task: { task, firstRow, endRow }; result: those rows' RGB pixels (Uint8Array).
-// encodeTile task: { pixels } (a whole tile's RGB, transferred); result: the PNG bytes.
+// renderTileRows task: { task, firstRow, endRow }; result: those rows' pixel codes (Uint32Array).
+// encodeTile task: { codes, colours } (a whole tile's pixel codes, transferred, and the task's
+// stops, shadowFloor and shadeGain); result: the PNG bytes.
 import Piscina from 'piscina';
 import { decodeWindow as decode, forgetFile } from './raster-decode.mjs';
-import { encodePalettePng, renderTilePng, renderTileRows as renderTileRowsOf, TILE_PX, warmUpKernel } from '../tiles/tile-kernel.mjs';
+import { encodeTileCodes, renderTilePng, renderTileRows as renderTileRowsOf, TILE_PX, warmUpKernel } from '../tiles/tile-kernel.mjs';
 
 warmUpKernel();
 
@@ -23,14 +24,14 @@ export function renderTile(task) {
   return Piscina.move(renderTilePng(task));
 }
 
-/** Some rows of a map tile (a tile split over threads): { task, firstRow, endRow }; the pixels go back transferred. */
+/** Some rows of a map tile (a tile split over threads): { task, firstRow, endRow }; the pixel codes go back transferred. */
 export function renderTileRows({ task, firstRow, endRow }) {
   return Piscina.move(renderTileRowsOf(task, firstRow, endRow));
 }
 
-/** The PNG of a tile whose rows were rendered in parts: { pixels }, the joined RGB. */
-export function encodeTile({ pixels }) {
-  return Piscina.move(encodePalettePng(pixels, TILE_PX, TILE_PX));
+/** The PNG of a tile whose rows were rendered in parts: { codes, colours }, the joined pixel codes. */
+export function encodeTile({ codes, colours }) {
+  return Piscina.move(encodeTileCodes(codes, TILE_PX, TILE_PX, colours));
 }
 
 /** Drops cached file handles (after a model is deleted and its file removed). */

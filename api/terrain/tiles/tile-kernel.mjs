@@ -6,29 +6,47 @@
 // The API thread prepares a task (tile-renderer.ts): for each model, in the order "finest first",
 // a window of its grid (decoded blocks copied side by side, NaN where the grid has no data or
 // ends) and a coarse lattice of grid coordinates of the tile's pixels, exact at the nodes.
+//
+// How a tile's colours are encoded: every pixel's colour is its elevation's tint (a per-metre
+// table) times its hillshade light. Rather than reduce the tile's RGB colours to a palette and
+// search the palette for each colour, the kernel keeps per pixel its tint metre and its
+// illumination (a "code") and builds the palette from those two scales (encodeTileCodes): the
+// tint metres present in the tile are grouped into at most TINT_CLASSES tint classes, each
+// class's illuminations into shade levels, and a pixel's palette index is two table lookups.
 import { crc32, deflateSync } from 'node:zlib';
-import UPNG from 'upng-js';
 
 export const TILE_PX = 256;
 /** Samples per side: the tile's pixels plus a one-pixel border for the 3 × 3 Horn window. */
 export const SAMPLES_PX = TILE_PX + 2;
 /** Bytes per row of a tile's pixels (RGB). */
 const TILE_STRIDE = TILE_PX * 3;
+/** Opaque palette entries: PNG allows 256 in all, and entry 0 is the transparent one. */
+const OPAQUE_ENTRIES = 255;
+/**
+ * Most tint classes in a tile; the 255 opaque entries are shared among the classes present as
+ * shade levels (10–11 each when all 24 are, more on a tile of few elevations). On the demo's
+ * tiles 24 gave the smallest colour error of 15, 20, 24 and 32 (1.72 levels of 255 per channel).
+ */
+export const TINT_CLASSES = 24;
+/** Illumination is kept per pixel in 8 bits (⌊256 · illumination⌋, capped), the shade levels group these. */
+const ILLUMINATION_STEPS = 256;
+/** Rounds of Lloyd's algorithm for the tint classes and the shade levels (the error settles after about eight). */
+const LLOYD_ROUNDS = 8;
+/**
+ * 4 × 4 ordered-dither thresholds (Bayer's matrix, scaled to 8–248): where a metre's tint lies
+ * between two class tints, that share of its pixels, spread evenly, takes the other class.
+ */
+const DITHER = Uint8Array.from([0, 8, 2, 10, 12, 4, 14, 6, 3, 11, 1, 9, 15, 7, 13, 5], (v) => v * 16 + 8);
+/** zlib level 1 on Sub-filtered indices: see encodeTileCodes. */
+const DEFLATE_OPTIONS = { level: 1, memLevel: 9 };
+/** A pixel's code where no model has data (transparent). Otherwise (tint metre << 8) | illumination byte. */
+export const NO_DATA_CODE = 0xffffffff;
 /**
  * Names how tiles are encoded; part of the tile catalogue's version (terrain-runtime.ts), so
- * tiles cached on disk or in browsers in an earlier encoding are never served again.
+ * tiles cached on disk or in browsers in an earlier encoding are never served again. Change it
+ * whenever the kernel's output changes.
  */
-export const TILE_ENCODING = 'palette-256';
-/** Colours of a tile's palette besides the transparent entry (PNG allows 256 entries in all). */
-const OPAQUE_COLOURS = 255;
-/**
- * The palette is made from every 4th opaque pixel (every pixel is then mapped to it): on the
- * demo's tiles a third less work than from all of them, 7 % smaller, for a mean error of 0.76
- * instead of 0.73 levels.
- */
-const PALETTE_SAMPLE_STEP = 4;
-/** zlib's default level: on palette indices level 9 saves under 1 % for twice the time. */
-const DEFLATE_LEVEL = 6;
+export const TILE_ENCODING = `tint${TINT_CLASSES}-shade-dither4-sub-deflate1`;
 
 /**
  * Elevations at the centres of the SAMPLES_PX² sample points, row-major, NaN where no layer has
@@ -211,6 +229,49 @@ function shadeRow(elevations, rowStart, raw, out, s) {
   }
 }
 
+/**
+ * The codes of the tile's pixels (or of its rows [firstRow, endRow)), row by row, written into
+ * `into` when given: (tint metre << 8) | illumination byte, where the tint metre indexes the
+ * per-metre tint table (the same metre shadeAndTint colours the pixel with) and the illumination
+ * byte is ⌊256 · illumination⌋ capped at 255 (the same Horn illumination); NO_DATA_CODE where
+ * the elevation is NaN.
+ */
+export function shadeCodes(elevations, cellSizeM, sun, stops, firstRow = 0, endRow = TILE_PX, into = null) {
+  const length = (endRow - firstRow) * TILE_PX;
+  const codes = into === null ? new Uint32Array(length) : into.subarray(0, length);
+  const { base, top } = tintTable(stops);
+  const shading = {
+    scale: sun.zFactor / (8 * cellSizeM),
+    cosZenith: sun.cosZenith,
+    sinZenith: sun.sinZenith,
+    cosAzimuth: sun.cosAzimuth,
+    sinAzimuth: sun.sinAzimuth,
+    tintBase: base,
+    tintTop: top,
+  };
+  for (let j = firstRow; j < endRow; j++) {
+    codeRow(elevations, (j + 1) * SAMPLES_PX + 1, codes, (j - firstRow) * TILE_PX, shading);
+  }
+  return codes;
+}
+
+function codeRow(elevations, rowStart, codes, out, s) {
+  const { tintBase, tintTop } = s;
+  const rowEnd = rowStart + TILE_PX;
+  for (let centre = rowStart; centre < rowEnd; centre++) {
+    const e = elevations[centre];
+    let code = NO_DATA_CODE;
+    if (e === e) {
+      const illumination = illuminationAt(elevations, centre, e, s);
+      const above = e - tintBase;
+      const metre = above <= 0 ? 0 : above >= tintTop ? tintTop : above | 0;
+      const byte = illumination >= 1 ? ILLUMINATION_STEPS - 1 : (illumination * ILLUMINATION_STEPS) | 0;
+      code = (metre << 8) | byte;
+    }
+    codes[out++] = code;
+  }
+}
+
 let lastStops = null;
 let lastTable = null;
 
@@ -244,119 +305,247 @@ function tintTable(stops) {
 const PNG_SIGNATURE = [0x89, 0x50, 0x4e, 0x47, 0x0d, 0x0a, 0x1a, 0x0a];
 
 /**
- * A palette PNG (colour type 3, 8-bit indices) of `width` × `height` RGB pixels, black
- * transparent. Index 0 is the transparent entry; the opaque pixels are reduced to at most 255
- * colours by upng-js's quantiser (principal-axis splits of the colour cloud) and each distinct
- * colour then takes its nearest palette entry (squared RGB distance), so no pixel lands further
- * from its colour than the palette allows. Rows are not filtered: for indexed colour, filter type 0
- * is usually the most effective (PNG specification, W3C, §12.8 "Filter selection"). Four to five
- * times smaller than the RGB tile it replaces, with a mean error under one level per channel on
- * the demo's relief. The result owns its whole ArrayBuffer, so a worker can hand it over without
- * a copy.
+ * A palette PNG (colour type 3, 8-bit indices) of `width` × `height` pixel codes (shadeCodes),
+ * index 0 transparent (NO_DATA_CODE). The palette comes from the codes' two scales, never from
+ * the colours:
+ *
+ * - the tint metres present are grouped into at most TINT_CLASSES classes (tintClasses), each
+ *   with the mean tint of its pixels; a metre between two class tints sends a matching share of
+ *   its pixels to the other class in a 4 × 4 ordered-dither pattern, so gentle slopes of a few
+ *   classes show no contour-like bands;
+ * - each class's pixels' illumination bytes are grouped into that class's share of the 255
+ *   entries (shadeLevels), each level with the light of its mean illumination;
+ * - entry (class, level) is the class tint times the level's light (capped at 255), the same
+ *   arithmetic as shadeAndTint; a pixel's index is two lookups: its class, then its class's level
+ *   of its illumination byte.
+ *
+ * Entries run class by class, levels from dark to light, so neighbouring pixels have nearby
+ * indices: rows are filtered with Sub (PNG filter type 1), which halves the bytes here where
+ * palette PNGs usually take filter 0 (PNG specification, W3C, §12.8, for palettes whose order
+ * means nothing). The result owns its whole ArrayBuffer, so a worker can hand it over without a
+ * copy.
  */
-export function encodePalettePng(rgb, width, height) {
+export function encodeTileCodes(codes, width, height, colours) {
   const count = width * height;
-  let opaque = 0;
-  for (let k = 0, p = 0; k < count; k++, p += 3) if ((rgb[p] | rgb[p + 1] | rgb[p + 2]) !== 0) opaque++;
-  const indices = new Uint8Array(count);
-  let palette = new Uint32Array(0);
-  if (opaque > 0) {
-    // RGBA (little-endian 0xAABBGGRR words) of the opaque pixels, every PALETTE_SAMPLE_STEP-th
-    // one, for the quantiser.
-    const words = new Uint32Array(Math.ceil(opaque / PALETTE_SAMPLE_STEP));
-    for (let k = 0, p = 0, seen = 0, o = 0; k < count; k++, p += 3) {
-      const r = rgb[p];
-      const g = rgb[p + 1];
-      const b = rgb[p + 2];
-      if ((r | g | b) !== 0 && seen++ % PALETTE_SAMPLE_STEP === 0) words[o++] = (0xff000000 | (b << 16) | (g << 8) | r) >>> 0;
-    }
-    palette = Uint32Array.from(UPNG.quantize([words.buffer], OPAQUE_COLOURS).plte, (leaf) => leaf.est.rgba);
-    mapToPalette(rgb, count, palette, indices);
+  const { table, top } = tintTable(colours.stops);
+  // How many pixels have each tint metre.
+  const metres = new Uint32Array(top + 1);
+  let low = Infinity;
+  let high = -1;
+  for (let k = 0; k < count; k++) {
+    const code = codes[k];
+    if (code === NO_DATA_CODE) continue;
+    const metre = code >>> 8;
+    metres[metre]++;
+    if (metre < low) low = metre;
+    if (metre > high) high = metre;
   }
-  return palettePng(indices, palette, width, height);
+  const scanlines = new Uint8Array((width + 1) * height);
+  // No data at all: zlib's best level, once per process (tile-renderer.ts keeps the tile).
+  if (high < 0) return palettePng(scanlines, new Uint8Array(3), width, height, { level: 9 });
+  const { classOf, otherOf, shareOf, tints, classes } = tintClasses(table, metres, low, high);
+  // Each pixel's class (dithered) and how many pixels of each class have each illumination byte.
+  const pixelClass = new Uint8Array(count);
+  const illuminations = new Uint32Array(classes * ILLUMINATION_STEPS);
+  for (let row = 0, k = 0; row < height; row++) {
+    const dither = (row & 3) << 2;
+    for (let col = 0; col < width; col++, k++) {
+      const code = codes[k];
+      if (code === NO_DATA_CODE) continue;
+      const m = (code >>> 8) - low;
+      const c = shareOf[m] > DITHER[dither | (col & 3)] ? otherOf[m] : classOf[m];
+      pixelClass[k] = c;
+      illuminations[(c << 8) | (code & 0xff)]++;
+    }
+  }
+  // Each class's share of the opaque entries, its shade levels and its palette entries.
+  const indexOf = new Uint8Array(classes * ILLUMINATION_STEPS);
+  const palette = new Uint8Array(3 * (1 + OPAQUE_ENTRIES));
+  let next = 1;
+  for (let c = 0; c < classes; c++) {
+    const share = Math.floor(OPAQUE_ENTRIES / classes) + (c < OPAQUE_ENTRIES % classes ? 1 : 0);
+    const { levelOf, lights, used } = shadeLevels(
+      illuminations.subarray(c << 8, (c + 1) << 8),
+      share,
+      colours.shadowFloor,
+      colours.shadeGain,
+    );
+    for (let b = 0; b < ILLUMINATION_STEPS; b++) indexOf[(c << 8) | b] = next + levelOf[b];
+    for (let level = 0; level < used; level++) {
+      for (let ch = 0; ch < 3; ch++) {
+        const value = tints[3 * c + ch] * lights[level];
+        palette[3 * (next + level) + ch] = value >= 255 ? 255 : value | 0;
+      }
+    }
+    next += used;
+  }
+  for (let row = 0, k = 0; row < height; row++) {
+    let at = row * (width + 1);
+    scanlines[at++] = 0;
+    for (let end = k + width; k < end; k++) {
+      const code = codes[k];
+      scanlines[at++] = code === NO_DATA_CODE ? 0 : indexOf[(pixelClass[k] << 8) | (code & 0xff)];
+    }
+  }
+  filterSub(scanlines, width, height);
+  return palettePng(scanlines, palette.subarray(0, 3 * next), width, height);
 }
 
 /**
- * Each pixel's palette index (index 0 transparent, entry k at index k + 1): the nearest entry per
- * distinct colour. The entries are searched in order of green outward from the colour's own
- * green, stopping once the green difference alone is further than the best entry found: the
- * same answer as trying every entry, in a fraction of the time.
+ * Lloyd's algorithm in one dimension, on a histogram: `values` ascending with `weights` (pixel
+ * counts), `groupOf` each value's group to start from (ascending, fewer than `groups`), refined
+ * LLOYD_ROUNDS times: each group's weighted mean is computed, each value goes to the nearest
+ * mean. Groups stay runs of neighbouring values (numbered afresh in order after the first
+ * round; a group left empty disappears). Refines `groupOf` in place and returns it.
  */
-function mapToPalette(rgb, count, palette, indices) {
-  const entries = palette.length;
-  const order = Array.from({ length: entries }, (_, k) => k).sort((a, b) => ((palette[a] >>> 8) & 0xff) - ((palette[b] >>> 8) & 0xff));
-  const reds = new Int32Array(entries);
-  const greens = new Int32Array(entries);
-  const blues = new Int32Array(entries);
-  const indexOf = new Uint8Array(entries);
-  for (let k = 0; k < entries; k++) {
-    const colour = palette[order[k]];
-    reds[k] = colour & 0xff;
-    greens[k] = (colour >>> 8) & 0xff;
-    blues[k] = (colour >>> 16) & 0xff;
-    indexOf[k] = order[k] + 1;
-  }
-  // First sorted entry with at least each green.
-  const fromGreen = new Int32Array(256);
-  for (let g = 0, k = 0; g < 256; g++) {
-    while (k < entries && greens[k] < g) k++;
-    fromGreen[g] = k;
-  }
-  const nearest = new Map();
-  for (let k = 0, p = 0; k < count; k++, p += 3) {
-    const r = rgb[p];
-    const g = rgb[p + 1];
-    const b = rgb[p + 2];
-    const key = (r << 16) | (g << 8) | b;
-    if (key === 0) continue;
-    let index = nearest.get(key);
-    if (index === undefined) {
-      let best = Infinity;
-      let up = fromGreen[g];
-      let down = up - 1;
-      while (up < entries || down >= 0) {
-        if (up < entries) {
-          const dg = greens[up] - g;
-          if (dg * dg >= best) up = entries;
-          else {
-            const dr = r - reds[up];
-            const db = b - blues[up];
-            const distance = dr * dr + dg * dg + db * db;
-            if (distance < best) {
-              best = distance;
-              index = indexOf[up];
-            }
-            up++;
-          }
-        }
-        if (down >= 0) {
-          const dg = g - greens[down];
-          if (dg * dg >= best) down = -1;
-          else {
-            const dr = r - reds[down];
-            const db = b - blues[down];
-            const distance = dr * dr + dg * dg + db * db;
-            if (distance < best) {
-              best = distance;
-              index = indexOf[down];
-            }
-            down--;
-          }
-        }
-      }
-      nearest.set(key, index);
+function lloyd1d(values, weights, groupOf, groups) {
+  const n = values.length;
+  const sums = new Float64Array(groups);
+  const totals = new Float64Array(groups);
+  const centres = new Float64Array(groups);
+  for (let round = 0; round < LLOYD_ROUNDS; round++) {
+    sums.fill(0);
+    totals.fill(0);
+    for (let i = 0; i < n; i++) {
+      sums[groupOf[i]] += values[i] * weights[i];
+      totals[groupOf[i]] += weights[i];
     }
-    indices[k] = index;
+    let known = 0;
+    for (let g = 0; g < groups; g++) {
+      if (totals[g] > 0) centres[known++] = sums[g] / totals[g];
+    }
+    if (known < 2) return groupOf;
+    // Each value to its nearest centre (centres ascend, so a forward scan finds it).
+    let g = 0;
+    for (let i = 0; i < n; i++) {
+      while (g + 1 < known && Math.abs(centres[g + 1] - values[i]) <= Math.abs(centres[g] - values[i])) g++;
+      groupOf[i] = g;
+    }
+  }
+  return groupOf;
+}
+
+/**
+ * At most `levels` shade levels for one tint class's pixels (`illuminations`: pixels per
+ * illumination byte): the bytes present split into equal steps between the lowest and the
+ * highest, then refined by Lloyd's algorithm on the pixel counts, so the levels lie closer
+ * together where the class's slopes are. `levelOf[byte]` is a byte's level (0 for bytes absent,
+ * never looked up), `lights[level]` the light of the level's mean illumination, `used` how many
+ * levels remain.
+ */
+function shadeLevels(illuminations, levels, shadowFloor, shadeGain) {
+  const present = [];
+  for (let b = 0; b < ILLUMINATION_STEPS; b++) if (illuminations[b] > 0) present.push(b);
+  const levelOf = new Uint8Array(ILLUMINATION_STEPS);
+  if (present.length === 0) return { levelOf, lights: new Float64Array(0), used: 0 };
+  const first = present[0];
+  const span = present[present.length - 1] + 1 - first;
+  const values = Float64Array.from(present, (b) => b + 0.5);
+  const weights = Float64Array.from(present, (b) => illuminations[b]);
+  const groupOf = Uint8Array.from(present, (b) => Math.min(levels - 1, Math.floor(((b - first) * levels) / span)));
+  lloyd1d(values, weights, groupOf, levels);
+  // Renumber the levels present 0, 1, … in order; each level's light is that of its mean illumination.
+  const slots = new Int16Array(levels).fill(-1);
+  let used = 0;
+  for (let i = 0; i < present.length; i++) if (slots[groupOf[i]] < 0) slots[groupOf[i]] = used++;
+  const sums = new Float64Array(used);
+  const totals = new Float64Array(used);
+  for (let i = 0; i < present.length; i++) {
+    const level = slots[groupOf[i]];
+    sums[level] += values[i] * weights[i];
+    totals[level] += weights[i];
+    levelOf[present[i]] = level;
+  }
+  const lights = new Float64Array(used);
+  for (let level = 0; level < used; level++) lights[level] = shadowFloor + (shadeGain * sums[level]) / totals[level] / ILLUMINATION_STEPS;
+  return { levelOf, lights, used };
+}
+
+/**
+ * The tint classes of a tile's tint metres (`metres`: pixels per metre of the tint table, the
+ * lowest present `low`, the highest `high`). The metres present are placed along the tint
+ * table by colour change (from one metre present to the next: the largest channel difference
+ * of their tints), split into TINT_CLASSES parts of equal colour change (a class spans many
+ * metres where the tint changes slowly, few across a sharp change), then refined by Lloyd's
+ * algorithm on their pixel counts. A class's tint is the mean of its pixels' tints. Per metre
+ * m (at m − low): `classOf` its class, `otherOf` the neighbouring class on the side it leans
+ * to and `shareOf` how far it lies towards that class's centre (0–255 for 0–1, for the dither);
+ * `tints` RGB per class, `classes` how many.
+ */
+function tintClasses(table, metres, low, high) {
+  const present = [];
+  const along = [];
+  let position = 0;
+  let previous = -1;
+  for (let m = low; m <= high; m++) {
+    if (metres[m] === 0) continue;
+    if (previous >= 0) {
+      const p = 3 * m;
+      const q = 3 * previous;
+      position += Math.max(Math.abs(table[p] - table[q]), Math.abs(table[p + 1] - table[q + 1]), Math.abs(table[p + 2] - table[q + 2]));
+    }
+    present.push(m);
+    along.push(position);
+    previous = m;
+  }
+  const total = position;
+  const values = Float64Array.from(along);
+  const weights = Float64Array.from(present, (m) => metres[m]);
+  const groupOf = Uint8Array.from(along, (a) => (total === 0 ? 0 : Math.min(TINT_CLASSES - 1, Math.floor((a / total) * TINT_CLASSES))));
+  lloyd1d(values, weights, groupOf, TINT_CLASSES);
+  // Renumber the classes present 0, 1, … in order.
+  const slots = new Int16Array(TINT_CLASSES).fill(-1);
+  let classes = 0;
+  for (let i = 0; i < present.length; i++) if (slots[groupOf[i]] < 0) slots[groupOf[i]] = classes++;
+  const tints = new Float64Array(3 * classes);
+  const counts = new Float64Array(classes);
+  const classOf = new Uint8Array(high - low + 1);
+  for (let i = 0; i < present.length; i++) {
+    const c = slots[groupOf[i]];
+    const w = weights[i];
+    classOf[present[i] - low] = c;
+    counts[c] += w;
+    for (let ch = 0; ch < 3; ch++) tints[3 * c + ch] += table[3 * present[i] + ch] * w;
+  }
+  for (let c = 0; c < classes; c++) for (let ch = 0; ch < 3; ch++) tints[3 * c + ch] /= counts[c];
+  // Where each metre lies between its class's centre and the nearest other class's centre.
+  const centres = new Float64Array(classes);
+  for (let i = 0; i < present.length; i++) centres[slots[groupOf[i]]] += values[i] * weights[i];
+  for (let c = 0; c < classes; c++) centres[c] /= counts[c];
+  const otherOf = new Uint8Array(high - low + 1);
+  const shareOf = new Uint8Array(high - low + 1);
+  for (let i = 0; i < present.length; i++) {
+    const c = slots[groupOf[i]];
+    const a = values[i];
+    let other = c;
+    let share = 0;
+    if (a > centres[c] && c + 1 < classes) {
+      other = c + 1;
+      share = (a - centres[c]) / (centres[c + 1] - centres[c]);
+    } else if (a < centres[c] && c > 0) {
+      other = c - 1;
+      share = (centres[c] - a) / (centres[c] - centres[c - 1]);
+    }
+    otherOf[present[i] - low] = other;
+    shareOf[present[i] - low] = Math.min(255, Math.round(share * 256));
+  }
+  return { classOf, otherOf, shareOf, tints, classes };
+}
+
+/** PNG filter type 1 (Sub) on unfiltered scanlines (filter bytes 0), in place: each index minus its left neighbour's. */
+function filterSub(scanlines, width, height) {
+  const stride = width + 1;
+  for (let row = 0; row < height; row++) {
+    const at = row * stride;
+    scanlines[at] = 1;
+    for (let k = width; k >= 2; k--) scanlines[at + k] = (scanlines[at + k] - scanlines[at + k - 1]) & 0xff;
   }
 }
 
-/** Signature, IHDR, PLTE, tRNS (entry 0 transparent), one IDAT of unfiltered index rows, IEND. */
-function palettePng(indices, palette, width, height) {
-  const scanlines = new Uint8Array((width + 1) * height);
-  for (let row = 0; row < height; row++) scanlines.set(indices.subarray(row * width, (row + 1) * width), row * (width + 1) + 1);
-  const idat = deflateSync(scanlines, { level: DEFLATE_LEVEL, memLevel: 9 });
-  const entries = palette.length + 1;
-  const total = PNG_SIGNATURE.length + (12 + 13) + (12 + 3 * entries) + (12 + 1) + (12 + idat.length) + 12;
+/** Signature, IHDR, PLTE (`palette`, RGB), tRNS (entry 0 transparent), one IDAT of the filtered scanlines, IEND. */
+function palettePng(scanlines, palette, width, height, deflateOptions = DEFLATE_OPTIONS) {
+  const idat = deflateSync(scanlines, deflateOptions);
+  const total = PNG_SIGNATURE.length + (12 + 13) + (12 + palette.length) + (12 + 1) + (12 + idat.length) + 12;
   const png = new Uint8Array(total);
   const view = new DataView(png.buffer);
   png.set(PNG_SIGNATURE, 0);
@@ -374,17 +563,11 @@ function palettePng(indices, palette, width, height) {
     png[at + 8] = 8; // bit depth
     png[at + 9] = 3; // colour type: indexed
     png[at + 10] = 0; // deflate
-    png[at + 11] = 0; // adaptive filtering (every row filter type 0)
+    png[at + 11] = 0; // adaptive filtering (a filter type per row)
     png[at + 12] = 0; // no interlace
   });
   // Entry 0 is the transparent one (its colour, black, is never shown).
-  chunk('PLTE', 3 * entries, (at) => {
-    for (let k = 0; k < palette.length; k++) {
-      png[at + 3 * (k + 1)] = palette[k] & 0xff;
-      png[at + 3 * (k + 1) + 1] = (palette[k] >>> 8) & 0xff;
-      png[at + 3 * (k + 1) + 2] = (palette[k] >>> 16) & 0xff;
-    }
-  });
+  chunk('PLTE', palette.length, (at) => png.set(palette, at));
   // Alpha of the first entry only: the entries after it are opaque.
   chunk('tRNS', 1, () => undefined);
   chunk('IDAT', idat.length, (at) => png.set(idat, at));
@@ -394,30 +577,30 @@ function palettePng(indices, palette, width, height) {
 
 /**
  * Tile rows [firstRow, endRow) on their own, for rendering a tile's parts on several threads:
- * their RGB pixels (a new array, black where there is no data). `pngFromParts` joins them.
+ * their pixel codes (a new array, NO_DATA_CODE where there is no data). `pngFromParts` joins them.
  */
 export function renderTileRows(task, firstRow, endRow) {
   task = uniformTask(task);
   const { elevations: scratchElevations } = scratch();
   const elevations = sampleTileElevations(task.layers, firstRow, endRow + 2, scratchElevations);
-  return shadeAndTint(elevations, task.cellSizeM, task.sun, task.stops, task.shadowFloor, task.shadeGain, firstRow, endRow);
+  return shadeCodes(elevations, task.cellSizeM, task.sun, task.stops, firstRow, endRow);
 }
 
-/** The whole tile's RGB pixels from its row parts in order (renderTileRows). */
+/** The whole tile's pixel codes from its row parts in order (renderTileRows). */
 export function joinParts(parts) {
-  const rgb = new Uint8Array(TILE_PX * TILE_STRIDE);
+  const codes = new Uint32Array(TILE_PX * TILE_PX);
   let offset = 0;
   for (const part of parts) {
-    rgb.set(part, offset);
+    codes.set(part, offset);
     offset += part.length;
   }
-  if (offset !== rgb.length) throw new Error(`Tile parts cover ${offset / TILE_STRIDE} of ${TILE_PX} rows`);
-  return rgb;
+  if (offset !== codes.length) throw new Error(`Tile parts cover ${offset / TILE_PX} of ${TILE_PX} rows`);
+  return codes;
 }
 
-/** The PNG of a whole tile from its row parts in order (renderTileRows). */
-export function pngFromParts(parts) {
-  return encodePalettePng(joinParts(parts), TILE_PX, TILE_PX);
+/** The PNG of a whole tile from its row parts in order (renderTileRows) and its task's colours. */
+export function pngFromParts(parts, task) {
+  return encodeTileCodes(joinParts(parts), TILE_PX, TILE_PX, task);
 }
 
 /**
@@ -458,32 +641,22 @@ function uniformTask(task) {
 let scratchArrays = null;
 
 /**
- * This thread's working arrays for a tile (its elevations and its pixels), reused from tile to
- * tile: fresh ones for every tile, three quarters of a megabyte, kept the garbage collector busy
- * with pauses of several milliseconds. The pixels are consumed (encoded) before the next tile.
+ * This thread's working arrays for a tile (its elevations and its pixel codes), reused from tile
+ * to tile: fresh ones for every tile, three quarters of a megabyte, kept the garbage collector
+ * busy with pauses of several milliseconds. The codes are consumed (encoded) before the next tile.
  */
 function scratch() {
-  scratchArrays ??= { elevations: new Float64Array(SAMPLES_PX * SAMPLES_PX), pixels: new Uint8Array(TILE_PX * TILE_STRIDE) };
+  scratchArrays ??= { elevations: new Float64Array(SAMPLES_PX * SAMPLES_PX), codes: new Uint32Array(TILE_PX * TILE_PX) };
   return scratchArrays;
 }
 
 /** The whole tile: sampling, hillshade and tint, PNG. */
 export function renderTilePng(task) {
   task = uniformTask(task);
-  const { elevations: scratchElevations, pixels: scratchPixels } = scratch();
+  const { elevations: scratchElevations, codes: scratchCodes } = scratch();
   const elevations = sampleTileElevations(task.layers, 0, SAMPLES_PX, scratchElevations);
-  const pixels = shadeAndTint(
-    elevations,
-    task.cellSizeM,
-    task.sun,
-    task.stops,
-    task.shadowFloor,
-    task.shadeGain,
-    0,
-    TILE_PX,
-    scratchPixels,
-  );
-  return encodePalettePng(pixels, TILE_PX, TILE_PX);
+  const codes = shadeCodes(elevations, task.cellSizeM, task.sun, task.stops, 0, TILE_PX, scratchCodes);
+  return encodeTileCodes(codes, TILE_PX, TILE_PX, task);
 }
 
 /**
@@ -542,6 +715,6 @@ export function warmUpKernel(rounds = 12) {
     renderTilePng(task);
     // A tile split over two threads: both halves, reading shared memory as the pool's threads do.
     const split = { ...task, layers: [{ ...layer, window: partial ? sharedHoled : sharedWindow }] };
-    joinParts([renderTileRows(split, 0, TILE_PX / 2), renderTileRows(split, TILE_PX / 2, TILE_PX)]);
+    pngFromParts([renderTileRows(split, 0, TILE_PX / 2), renderTileRows(split, TILE_PX / 2, TILE_PX)], split);
   }
 }

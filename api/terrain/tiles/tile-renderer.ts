@@ -3,7 +3,7 @@ import { projectorFor } from '../raster/crs-registry';
 import { ELEVATION_TINT_STOPS } from './elevation-tint';
 import { sunTerms, type SunTerms } from './hillshade';
 import type { ReadyTerrain } from '../terrain-runtime';
-import { encodePalettePng, SAMPLES_PX, type TileLayer } from './tile-kernel.mjs';
+import { encodeTileCodes, NO_DATA_CODE, SAMPLES_PX, type TileLayer, type TileTask } from './tile-kernel.mjs';
 
 export const TILE_SIZE_PX = 256;
 /** WGS 84 / Web Mercator sphere radius (EPSG:3857), m. */
@@ -33,7 +33,7 @@ function tileLatitude(y: number, n: number): number {
  * Renders one 256 × 256 tile: elevations sampled bilinearly from the ready models (finest with
  * data wins, the pyramid level matched to the tile's ground resolution), hillshade by Horn's
  * method with the sun at 315° / 45°, blended with our elevation tint; transparent where no model
- * has data; a palette PNG of at most 256 colours (tile-kernel.mjs). Null when no model touches
+ * has data; a palette PNG of tint classes × shade levels (tile-kernel.mjs). Null when no model touches
  * the tile.
  *
  * This thread only reprojects a coarse lattice (proj4, every 16 pixels), gathers the decoded
@@ -47,6 +47,24 @@ export async function renderTerrainTile(
   x: number,
   y: number,
 ): Promise<Buffer | null> {
+  const prepared = await terrainTileTask(blocks, models, z, x, y);
+  if (prepared === null) return null;
+  if (prepared === 'empty') return transparentTile();
+  return blocks.renderTile(prepared.task, prepared.splitRow);
+}
+
+/**
+ * What a worker thread needs to render tile z/x/y (the windows gathered, the lattice
+ * reprojected) and the row where splitting it halves the work; null when no model touches the
+ * tile, 'empty' when models touch it but none has data under it.
+ */
+export async function terrainTileTask(
+  blocks: BlockStore,
+  models: readonly ReadyTerrain[],
+  z: number,
+  x: number,
+  y: number,
+): Promise<{ task: TileTask; splitRow: number } | 'empty' | null> {
   const [west, south, east, north] = tileBounds(z, x, y);
   const touching = models.filter((m) => m.bbox[0] <= east && m.bbox[2] >= west && m.bbox[1] <= north && m.bbox[3] >= south);
   if (touching.length === 0) return null;
@@ -60,9 +78,9 @@ export async function renderTerrainTile(
     const layer = await layerFor(blocks, model, x, y, worldPx, groundPxM);
     if (layer) layers.push(layer);
   }
-  if (layers.length === 0) return transparentTile();
-  return blocks.renderTile(
-    {
+  if (layers.length === 0) return 'empty';
+  return {
+    task: {
       layers,
       cellSizeM: groundPxM,
       sun: SUN,
@@ -70,8 +88,8 @@ export async function renderTerrainTile(
       shadowFloor: SHADOW_FLOOR,
       shadeGain: SHADE_GAIN,
     },
-    balancedSplitRow(layers),
-  );
+    splitRow: balancedSplitRow(layers),
+  };
 }
 
 /**
@@ -246,10 +264,14 @@ async function gatherWindow(
 }
 
 let transparent: Buffer | null = null;
-/** A fully transparent tile (where no model covers): a palette PNG of one entry, about a hundred bytes. */
+/** A fully transparent tile (where no model covers): a palette PNG of one entry, 169 bytes. */
 export function transparentTile(): Buffer {
   if (!transparent) {
-    const png = encodePalettePng(new Uint8Array(TILE_SIZE_PX * TILE_SIZE_PX * 3), TILE_SIZE_PX, TILE_SIZE_PX);
+    const png = encodeTileCodes(new Uint32Array(TILE_SIZE_PX * TILE_SIZE_PX).fill(NO_DATA_CODE), TILE_SIZE_PX, TILE_SIZE_PX, {
+      stops: TINT_STOPS,
+      shadowFloor: SHADOW_FLOOR,
+      shadeGain: SHADE_GAIN,
+    });
     transparent = Buffer.from(png.buffer, png.byteOffset, png.byteLength);
   }
   return transparent;

@@ -354,6 +354,9 @@ print('{}')`,
 
       expect(catalogueVersion(models)).toBe(catalogueVersion(models, TILE_ENCODING));
       expect(catalogueVersion(models, 'an-earlier-encoding')).not.toBe(catalogueVersion(models));
+      // The palette each tile quantised for itself, until tiles took their palette from tint and shade.
+      expect(TILE_ENCODING).not.toBe('palette-256');
+      expect(catalogueVersion(models, 'palette-256')).not.toBe(catalogueVersion(models));
       expect(catalogueVersion([models[0]!])).not.toBe(catalogueVersion(models));
     });
 

@@ -206,12 +206,7 @@ export class TerrainMap {
     effect(() => {
       const map = this.map();
       const positions = this.fitTo();
-      if (!map || !positions || positions.length === 0) return;
-      if (positions.length === 1) {
-        map.setView(toLatLng(positions[0]!), Math.max(map.getZoom(), 14));
-      } else {
-        map.fitBounds(L.latLngBounds(positions.map(toLatLng)), { padding: [24, 24], maxZoom: 16 });
-      }
+      if (map && positions) fitView(map, positions);
     });
 
     effect(() => {
@@ -230,7 +225,11 @@ export class TerrainMap {
 
   private createMap(): void {
     const element = this.host.nativeElement;
-    const map = L.map(element, { center: FALLBACK_VIEW.center, zoom: FALLBACK_VIEW.zoom, zoomControl: true });
+    const map = L.map(element, { zoomControl: true });
+    // The first view is where the map is to look if that is known already (the page had its data
+    // before the map's code arrived), so no tiles are fetched for a view that is left at once.
+    const positions = untracked(this.fitTo);
+    if (!positions || !fitView(map, positions)) map.setView(FALLBACK_VIEW.center, FALLBACK_VIEW.zoom);
     // Base map below the terrain's tile pane (200), its labels above the terrain and below the overlays (400).
     map.createPane('app-basemap').style.zIndex = '150';
     map.createPane('app-basemap-labels').style.zIndex = '350';
@@ -394,4 +393,18 @@ function pinDot(color: string): HTMLElement {
   const dot = document.createElement('span');
   dot.style.background = color;
   return dot;
+}
+
+/**
+ * Shows `positions`: one at (at least) street zoom, several with all of them in view. False when
+ * there is nothing to show.
+ */
+function fitView(map: L.Map, positions: readonly MapPosition[]): boolean {
+  if (positions.length === 0) return false;
+  if (positions.length === 1) {
+    map.setView(toLatLng(positions[0]!), Math.max(map.getZoom() || 0, 14));
+  } else {
+    map.fitBounds(L.latLngBounds(positions.map(toLatLng)), { padding: [24, 24], maxZoom: 16 });
+  }
+  return true;
 }

@@ -3,6 +3,16 @@ import { allowRoles } from '../core/role-guard';
 import { uuidParams } from '../core/uuid-params';
 import { routeEditorFirstReads } from './route-paths';
 
+/**
+ * The editor's map is most of what it shows: its code (Leaflet and the base-map renderer) starts
+ * loading with the editor's own instead of after the editor's first paint, when the deferred block
+ * would ask for it (the browser loads the module once; a failure is left to that block).
+ */
+function loadRouteEditor() {
+  import('../map/terrain-map').catch(() => undefined);
+  return import('./route-editor');
+}
+
 /** Routes area: the list, a new route (planners) and one route (everyone reads). */
 export const ROAD_ROUTES_ROUTES: Routes = [
   { path: '', title: 'Routes · Descentry', loadComponent: () => import('./route-list') },
@@ -10,7 +20,7 @@ export const ROAD_ROUTES_ROUTES: Routes = [
     path: 'new',
     title: 'New route · Descentry',
     canMatch: [allowRoles(['planner'])],
-    loadComponent: () => import('./route-editor'),
+    loadComponent: loadRouteEditor,
   },
   {
     // Every other role that bookmarked or typed the address: say who may draw routes.
@@ -24,7 +34,7 @@ export const ROAD_ROUTES_ROUTES: Routes = [
     title: 'Route · Descentry',
     canMatch: [uuidParams],
     data: { firstReads: routeEditorFirstReads },
-    loadComponent: () => import('./route-editor'),
+    loadComponent: loadRouteEditor,
   },
 ];
 export default ROAD_ROUTES_ROUTES;

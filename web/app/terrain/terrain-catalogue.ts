@@ -92,11 +92,20 @@ export default class TerrainCatalogue {
     void this.load();
   }
 
+  /** Counts the list's loads: only the newest one's answer is shown (see `load`). */
+  private listRequest = 0;
+
+  /**
+   * Loads the catalogue. An answer that arrives after a newer load was started (say a refresh
+   * still under way when a model was deleted) is dropped, so a deleted model never comes back.
+   */
   protected async load(): Promise<void> {
     if (this.models().length === 0) this.loadState.set({ status: 'loading' });
     this.clearRefresh();
+    const request = ++this.listRequest;
     try {
       const { items } = await this.terrainApi.list();
+      if (request !== this.listRequest) return;
       this.models.set(items);
       this.loadState.set({ status: 'ready' });
       if (this.fitTo() === null && items.some((m) => m.footprint)) this.fitTo.set(items.flatMap(outline));
@@ -105,6 +114,7 @@ export default class TerrainCatalogue {
       }
     } catch (error: unknown) {
       // Expected: server unreachable or an answer that fails the shared schema.
+      if (request !== this.listRequest) return;
       this.loadState.set({ status: 'error', message: describeApiError(error) });
     }
   }
@@ -149,6 +159,8 @@ export default class TerrainCatalogue {
       await this.terrainApi.delete(model.id, force);
       this.models.update((models) => models.filter((m) => m.id !== model.id));
       if (this.selectedId() === model.id) this.selectedId.set(null);
+      // Supersedes a refresh that was under way (its answer may still list the model).
+      void this.load();
       this.snackBar.open(`“${model.name}” was deleted; restore it under Recently deleted if that was a mistake.`, 'OK');
     } catch (error: unknown) {
       // Expected: 409 while saved scenarios use the model; administrators may force it.

@@ -1,17 +1,22 @@
+import { createHash } from 'node:crypto';
 import { join } from 'node:path';
+import { inflateSync } from 'node:zlib';
 import { PNG } from 'pngjs';
 import { afterAll, describe, expect, it } from 'vitest';
 import { ELEVATION_TINT_STOPS, tintInto } from '../../../../api/terrain/tiles/elevation-tint';
 import { hornGradient, shade, sunTerms } from '../../../../api/terrain/tiles/hillshade';
 import { bilinearValue, guardedLookup } from '../../../../api/terrain/raster/terrain-grid';
 import {
-  encodePalettePng,
+  encodeTileCodes,
+  NO_DATA_CODE,
   pngFromParts,
   renderTilePng,
   renderTileRows,
   sampleTileElevations,
   SAMPLES_PX,
   shadeAndTint,
+  shadeCodes,
+  TILE_ENCODING,
   type TileLayer,
   type TileTask,
 } from '../../../../api/terrain/tiles/tile-kernel.mjs';
@@ -123,21 +128,23 @@ describe('tile kernel', () => {
         [0, 1, 100, 255, 256],
       ]) {
         const parts = cuts.slice(1).map((end, k) => renderTileRows(task, cuts[k]!, end));
-        expect(Buffer.from(pngFromParts(parts)).equals(wholeBytes)).toBe(true);
+        expect(Buffer.from(pngFromParts(parts, task)).equals(wholeBytes)).toBe(true);
       }
     }
   });
 
-  it('keeps a shaded pixel that would come out black visible (black is the transparent colour)', () => {
+  it('keeps a pixel whose colour is black opaque: only pixels without data take the transparent entry', () => {
     const elevations = Float64Array.from(relief(SAMPLES_PX, SAMPLES_PX, [10, 10, 20, 20]));
     const black = Float64Array.from([0, 0, 0, 0]);
 
     const rgb = shadeAndTint(elevations, 10, SUN, black, 0.3, 0.8);
-    const png = PNG.sync.read(Buffer.from(encodePalettePng(rgb, 256, 256)));
+    const codes = shadeCodes(elevations, 10, SUN, black);
+    const png = PNG.sync.read(Buffer.from(encodeTileCodes(codes, 256, 256, { stops: black, shadowFloor: 0.3, shadeGain: 0.8 })));
 
     const pixel = (i: number, j: number) => [...png.data.subarray((j * 256 + i) * 4, (j * 256 + i) * 4 + 4)];
+    // The RGB rendering marks no data with black, so a black pixel with data becomes (0, 0, 1) there.
     expect([...rgb.subarray((100 * 256 + 100) * 3, (100 * 256 + 100) * 3 + 3)]).toEqual([0, 0, 1]);
-    expect(pixel(100, 100)).toEqual([0, 0, 1, 255]);
+    expect(pixel(100, 100)).toEqual([0, 0, 0, 255]);
     expect(pixel(12, 12)).toEqual([0, 0, 0, 0]);
   });
 
@@ -170,12 +177,11 @@ describe('tile kernel', () => {
   it('encodes a tile as a palette PNG of at most 256 colours, close to its pixels and transparent exactly where there is no data', () => {
     // Relief with a hole and a grid edge, tinted with the map's stops: tens of thousands of colours.
     const elevations = Float64Array.from(relief(SAMPLES_PX, SAMPLES_PX, [100, 120, 140, 150]));
-    const stops = Float64Array.from(ELEVATION_TINT_STOPS.flatMap((stop) => [stop.elevationM, ...stop.rgb]));
-    const rgb = shadeAndTint(elevations, 7.5, SUN, stops, 0.3, 0.7 * 1.15);
+    const rgb = shadeAndTint(elevations, 7.5, SUN, MAP_STOPS, 0.3, 0.7 * 1.15);
     const colours = new Set<number>();
     for (let p = 0; p < rgb.length; p += 3) colours.add((rgb[p]! << 16) | (rgb[p + 1]! << 8) | rgb[p + 2]!);
 
-    const bytes = Buffer.from(encodePalettePng(rgb, 256, 256));
+    const bytes = Buffer.from(encodeTileCodes(shadeCodes(elevations, 7.5, SUN, MAP_STOPS), 256, 256, MAP_COLOURS));
     // pngjs (npm) decodes it independently: CRCs, chunk order, palette and tRNS all have to be right.
     const png = PNG.sync.read(bytes);
 
@@ -184,43 +190,151 @@ describe('tile kernel', () => {
     const plteLength = bytes.readUInt32BE(33 + 0);
     expect(bytes.toString('latin1', 37, 41)).toBe('PLTE');
     expect(plteLength / 3).toBeLessThanOrEqual(256);
-    let worst = 0;
-    let sum = 0;
-    let opaque = 0;
-    let wrongAlpha = 0;
-    for (let k = 0; k < 256 * 256; k++) {
-      const empty = rgb[3 * k] === 0 && rgb[3 * k + 1] === 0 && rgb[3 * k + 2] === 0;
-      if (png.data[4 * k + 3] !== (empty ? 0 : 255)) wrongAlpha++;
-      if (empty) continue;
-      opaque++;
-      for (let c = 0; c < 3; c++) {
-        const error = Math.abs(png.data[4 * k + c]! - rgb[3 * k + c]!);
-        worst = Math.max(worst, error);
-        sum += error;
+    const error = colourError(rgb, png.data);
+    expect(error.wrongAlpha).toBe(0);
+    expect(error.opaque).toBe(256 * 256 - 40 * 30);
+    // On this steep relief spanning 1 400 m (the demo's tiles: 1.7 on average, 0.7–2.4 per tile):
+    // a mean error under 2.5 levels of 255 per channel; the worst pixel is one the dither sent to
+    // the neighbouring tint class (the demo's: 28).
+    expect(error.mean).toBeLessThan(2.5);
+    expect(error.worst).toBeLessThanOrEqual(32);
+  });
+
+  it('decodes pixels of known elevations to their tint times their light', () => {
+    // Flat ground, left half at 1 000 m, right half at 1 800 m (two tint stops).
+    const elevations = new Float64Array(SAMPLES_PX * SAMPLES_PX);
+    for (let j = 0; j < SAMPLES_PX; j++) for (let i = 0; i < SAMPLES_PX; i++) elevations[j * SAMPLES_PX + i] = i < 129 ? 1000 : 1800;
+
+    const png = PNG.sync.read(Buffer.from(encodeTileCodes(shadeCodes(elevations, 10, SUN, MAP_STOPS), 256, 256, MAP_COLOURS)));
+
+    // Flat ground takes cos 45° of the sun's light, 0.3 + 0.805 · 0.7071 = 0.869 of the tint:
+    // 0.869 × (178, 186, 118) (the 1 000 m stop) and 0.869 × (196, 150, 108) (the 1 800 m stop),
+    // within the one level that keeping the illumination in 8 bits allows.
+    const within = (actual: number[], wanted: number[]) => actual.every((v, k) => Math.abs(v - wanted[k]!) <= 1);
+    expect(within(rgbAt(png.data, 40, 100), [154, 161, 102])).toBe(true);
+    expect(within(rgbAt(png.data, 200, 100), [170, 130, 93])).toBe(true);
+    expect(within(rgbAt(png.data, 200, 100), [154, 161, 102])).toBe(false);
+  });
+
+  it('decodes pixels of known slopes to their light: sunlit slopes brighter, slopes facing away darker', () => {
+    // One tint throughout (a single stop), so the palette is all shade levels. Rows 0–99 face
+    // west (rising 3 m per 10 m pixel eastwards), rows 100–199 are flat, rows 200–255 face east.
+    const stops = Float64Array.from([0, 200, 160, 120]);
+    const elevations = new Float64Array(SAMPLES_PX * SAMPLES_PX);
+    for (let j = 0; j < SAMPLES_PX; j++) {
+      const rise = j <= 100 ? 3 : j <= 200 ? 0 : -3;
+      for (let i = 0; i < SAMPLES_PX; i++) elevations[j * SAMPLES_PX + i] = 1500 + rise * i;
+    }
+
+    const png = PNG.sync.read(Buffer.from(encodeTileCodes(shadeCodes(elevations, 10, SUN, stops), 256, 256, { ...MAP_COLOURS, stops })));
+
+    const colour = (dzdx: number) => {
+      const light = 0.3 + 0.7 * 1.15 * shade({ dzdx, dzdy: 0 }, SUN);
+      return [200, 160, 120].map((v) => Math.trunc(Math.min(255, v * light)));
+    };
+    const within = (actual: number[], wanted: number[]) => actual.every((v, k) => Math.abs(v - wanted[k]!) <= 1);
+    expect(within(rgbAt(png.data, 128, 50), colour(0.3))).toBe(true);
+    expect(within(rgbAt(png.data, 128, 150), colour(0))).toBe(true);
+    expect(within(rgbAt(png.data, 128, 230), colour(-0.3))).toBe(true);
+    expect(rgbAt(png.data, 128, 50)[0]).toBeGreaterThan(rgbAt(png.data, 128, 150)[0]! + 15);
+    expect(rgbAt(png.data, 128, 230)[0]).toBeLessThan(rgbAt(png.data, 128, 150)[0]! - 15);
+  });
+
+  it('dithers a long gentle slope between its tint classes, so 4 × 4 blocks keep their mean colour (no contour bands)', () => {
+    // 0 to 3 100 m from west to east in flat light: 24 tint classes at most across eight tint
+    // stops, some 13 levels of colour each, and the pixels in between dithered.
+    const elevations = new Float64Array(SAMPLES_PX * SAMPLES_PX);
+    for (let j = 0; j < SAMPLES_PX; j++) for (let i = 0; i < SAMPLES_PX; i++) elevations[j * SAMPLES_PX + i] = 12 * i;
+    const flatLight = { ...SUN, zFactor: 0 };
+    const rgb = shadeAndTint(elevations, 10, flatLight, MAP_STOPS, 0.3, 0.805);
+    const png = PNG.sync.read(Buffer.from(encodeTileCodes(shadeCodes(elevations, 10, flatLight, MAP_STOPS), 256, 256, MAP_COLOURS)));
+
+    let blockError = 0;
+    let blocks = 0;
+    for (let by = 0; by < 256; by += 4) {
+      for (let bx = 0; bx < 256; bx += 4) {
+        for (let c = 0; c < 3; c++) {
+          let difference = 0;
+          for (let j = by; j < by + 4; j++)
+            for (let i = bx; i < bx + 4; i++) difference += png.data[(j * 256 + i) * 4 + c]! - rgb[(j * 256 + i) * 3 + c]!;
+          blockError += Math.abs(difference) / 16;
+          blocks++;
+        }
       }
     }
-    expect(wrongAlpha).toBe(0);
-    expect(opaque).toBe(256 * 256 - 40 * 30);
-    // Invisible on a hillshade: about one level per channel on average on this steep, many-coloured
-    // relief (the demo's tiles: 0.2–1.1), 14 levels of 255 at worst here (the demo's: 16).
-    expect(sum / (3 * opaque)).toBeLessThan(1.5);
-    expect(worst).toBeLessThanOrEqual(16);
+    // Single pixels are up to a class's step off (the dither); the blocks' means 0.67 levels on
+    // average (1.2 without the dither, each pixel its nearest class).
+    expect(colourError(rgb, png.data).worst).toBeGreaterThan(5);
+    expect(blockError / blocks).toBeLessThan(0.8);
   });
 
   it('encodes a tile without data as a small, fully transparent PNG', () => {
-    const bytes = Buffer.from(encodePalettePng(new Uint8Array(256 * 256 * 3), 256, 256));
+    const codes = new Uint32Array(256 * 256).fill(NO_DATA_CODE);
+    const bytes = Buffer.from(encodeTileCodes(codes, 256, 256, MAP_COLOURS));
     const png = PNG.sync.read(bytes);
 
     expect(bytes.length).toBeLessThan(200);
     expect(png.data.every((value, k) => k % 4 !== 3 || value === 0)).toBe(true);
   });
+
+  it('names its encoding: a change in the palette or the indices of a tile needs a new TILE_ENCODING', () => {
+    // The decoded palette and indices of a fixed tile (not the deflated bytes, which depend on
+    // zlib's version), pinned together with the encoding's name: if this fails because the
+    // kernel's output changed on purpose, give TILE_ENCODING a new name (so no disk cache or
+    // browser serves a tile of the old encoding) and pin the new digest here.
+    const elevations = Float64Array.from(relief(SAMPLES_PX, SAMPLES_PX, [100, 120, 140, 150]));
+    const bytes = Buffer.from(encodeTileCodes(shadeCodes(elevations, 7.5, SUN, MAP_STOPS), 256, 256, MAP_COLOURS));
+    const digest = createHash('sha256')
+      .update(chunkData(bytes, 'PLTE'))
+      .update(inflateSync(chunkData(bytes, 'IDAT')))
+      .digest('hex');
+
+    expect({ encoding: TILE_ENCODING, digest: digest.slice(0, 16) }).toEqual({
+      encoding: 'tint24-shade-dither4-sub-deflate1',
+      digest: '5f1074a9dc6dd225',
+    });
+  });
 });
 
-/**
- * The kernel's hillshade against `gdaldem hillshade` (sun 315°, 45°) on a 20 m UTM grid: with a
- * flat tint of 254 and no shadow floor, a pixel's red is ⌊254 · illumination⌋, and gdaldem writes
- * 1 + 254 · illumination. Interior pixels, within one grey level as in hillshade.spec.ts.
- */
+const MAP_STOPS = Float64Array.from(ELEVATION_TINT_STOPS.flatMap((stop) => [stop.elevationM, ...stop.rgb]));
+const MAP_COLOURS = { stops: MAP_STOPS, shadowFloor: 0.3, shadeGain: 0.7 * 1.15 };
+
+/** Mean and worst difference per channel (levels of 255) over the opaque pixels of `rgb`, and pixels of the wrong transparency. */
+function colourError(rgb: Uint8Array, rgba: Uint8Array): { mean: number; worst: number; opaque: number; wrongAlpha: number } {
+  let worst = 0;
+  let sum = 0;
+  let opaque = 0;
+  let wrongAlpha = 0;
+  for (let k = 0; k < 256 * 256; k++) {
+    const empty = rgb[3 * k] === 0 && rgb[3 * k + 1] === 0 && rgb[3 * k + 2] === 0;
+    if (rgba[4 * k + 3] !== (empty ? 0 : 255)) wrongAlpha++;
+    if (empty) continue;
+    opaque++;
+    for (let c = 0; c < 3; c++) {
+      const error = Math.abs(rgba[4 * k + c]! - rgb[3 * k + c]!);
+      worst = Math.max(worst, error);
+      sum += error;
+    }
+  }
+  return { mean: sum / (3 * opaque), worst, opaque, wrongAlpha };
+}
+
+/** RGB of pixel (i, j) of decoded RGBA. */
+function rgbAt(rgba: Uint8Array, i: number, j: number): number[] {
+  return [...rgba.subarray((j * 256 + i) * 4, (j * 256 + i) * 4 + 3)];
+}
+
+/** The data of a PNG's chunks of one type, joined. */
+function chunkData(png: Buffer, type: string): Buffer {
+  const parts: Buffer[] = [];
+  for (let offset = 8; offset < png.length;) {
+    const length = png.readUInt32BE(offset);
+    if (png.toString('latin1', offset + 4, offset + 8) === type) parts.push(png.subarray(offset + 8, offset + 8 + length));
+    offset += 12 + length;
+  }
+  return Buffer.concat(parts);
+}
+
 describe.skipIf(!hasGdal)('tile kernel hillshade against gdaldem', () => {
   const temp = tempDir();
   const path = join(temp.dir, 'relief.tif');
