@@ -14,6 +14,7 @@ import { DistanceChart, type ChartSeries } from '../charts/distance-chart';
 import { describeApiError, apiErrorBody } from '../core/api-error-message';
 import { Session } from '../core/session';
 import { confirmDelete } from '../ui/confirm-delete-dialog';
+import { staleSentence } from '../ui/stale-reasons';
 import { LoadStatus } from '../ui/load-status';
 import { loadStateOf } from '../ui/load-state';
 import { latestAnswer, reloadWhileGoing, storedResult } from '../ui/polled-resource';
@@ -108,6 +109,7 @@ export default class ScenarioResultScreen {
   protected readonly statusLabels = SCENARIO_STATUS_LABELS;
   protected readonly riskStyles = RISK_STYLES;
   protected readonly riskOrder = RISK_ORDER;
+  protected readonly staleSentence = staleSentence;
   protected readonly startColour = START_COLOUR;
   protected readonly endColour = END_COLOUR;
   protected readonly gradeLegend = GRADE_LEGEND;

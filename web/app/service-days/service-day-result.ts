@@ -25,6 +25,7 @@ import { DistanceChart } from '../charts/distance-chart';
 import { apiErrorBody, describeApiError } from '../core/api-error-message';
 import { Session } from '../core/session';
 import { AdviceCautions } from '../ui/advice-cautions';
+import { staleSentence } from '../ui/stale-reasons';
 import { LoadStatus } from '../ui/load-status';
 import { loadStateOf } from '../ui/load-state';
 import { latestAnswer, reloadWhileGoing, storedResult } from '../ui/polled-resource';
@@ -83,6 +84,7 @@ export default class ServiceDayResultScreen {
   readonly serviceDayId = input.required<string>();
 
   protected readonly units = inject(UnitPreference).system;
+  protected readonly staleSentence = staleSentence;
   protected readonly dayTypeLabels = DAY_TYPE_LABELS;
   protected readonly seasonLabels = SEASON_LABELS;
   protected readonly batteryAgeLabels = BATTERY_AGE_LABELS;
