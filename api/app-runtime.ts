@@ -6,6 +6,7 @@ import { BasemapStorage } from './basemap/basemap-storage';
 import type { Config } from './config';
 import type { Database } from './db/client';
 import { AnswerCache } from './http/answer-cache';
+import { BuiltAnswers } from './http/built-answers';
 import { createInlineJobQueue, type InlineJobQueue, type JobQueue } from './jobs/job-queue';
 import { TerrainRuntime } from './terrain/terrain-runtime';
 
@@ -15,6 +16,8 @@ import { TerrainRuntime } from './terrain/terrain-runtime';
  *   locations);
  * - the session cache and the answer cache of the lists, each listening on its announcement line
  *   (api/auth/session-cache.ts, api/http/answer-cache.ts);
+ * - the built answers of the reads whose ETag is made from their identity, kept by it
+ *   (api/http/built-answers.ts);
  * - the analysis threads (api/analysis/analysis-pool.ts);
  * - the base-map storage on disk and the active import as this process knows it (api/basemap/);
  * - the shared job queue once one is started, and, where none runs (tests, command-line tools),
@@ -31,6 +34,7 @@ export class AppRuntime {
   private terrainRuntime: TerrainRuntime | null = null;
   private sessions: SessionCache | null = null;
   private answers: AnswerCache | null = null;
+  private built: BuiltAnswers | null = null;
   private pool: AnalysisPool | null = null;
   private storage: BasemapStorage | null = null;
   private basemapReader: ActiveBasemapReader | null = null;
@@ -54,6 +58,12 @@ export class AppRuntime {
       this.answers.start();
     }
     return this.answers;
+  }
+
+  /** Built answers kept by their identity-made ETag (nothing to invalidate: a change makes a new key). */
+  get builtAnswers(): BuiltAnswers {
+    this.built ??= new BuiltAnswers();
+    return this.built;
   }
 
   /** The analysis threads (started lazily by the pool itself). */
@@ -90,6 +100,8 @@ export class AppRuntime {
     this.sessions = null;
     this.answers?.stop();
     this.answers = null;
+    this.built?.clear();
+    this.built = null;
     this.basemapReader = null;
     await this.closeAnalysisPool();
     await this.closeTerrain();

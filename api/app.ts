@@ -72,7 +72,8 @@ export function createApp(givenDeps: AppDeps): Express {
     res.json(openApiDocument);
   });
   const heavyRequests = new HeavyRequestLimiter(deps.config.HEAVY_REQUESTS_PER_PERSON);
-  for (const definition of endpoints) mountEndpoint(api, definition, { heavyRequests, answerCache, mountedAt: API_PREFIX });
+  const builtAnswers = runtimeOf(deps).builtAnswers;
+  for (const definition of endpoints) mountEndpoint(api, definition, { heavyRequests, answerCache, builtAnswers, mountedAt: API_PREFIX });
   api.use(apiNotFound);
   app.use(API_PREFIX, api);
 

@@ -26,10 +26,14 @@ const MAX_ENTRIES = 500;
 /** Answers below this many bytes go out uncompressed (as the API's compression middleware does). */
 const COMPRESS_FROM_BYTES = 1024;
 
-interface Entry {
+/** An answer kept in memory: its JSON and, once asked for, its compressed copies. */
+export interface KeptAnswer {
   json: Buffer;
   gzip?: Buffer;
   br?: Buffer;
+}
+
+interface Entry extends KeptAnswer {
   storedAtMs: number;
 }
 
@@ -119,7 +123,7 @@ export class AnswerCache {
       const entry = this.lookup(key);
       if (entry) {
         this.stats.hits += 1;
-        send(req, res, entry);
+        sendKeptAnswer(req, res, entry);
         return;
       }
       this.stats.misses += 1;
@@ -129,7 +133,7 @@ export class AnswerCache {
         if (res.statusCode !== 200) return json(body);
         const fresh: Entry = { json: Buffer.from(JSON.stringify(body) ?? 'null'), storedAtMs: Date.now() };
         this.store(key, fresh, generation);
-        send(req, res, fresh);
+        sendKeptAnswer(req, res, fresh);
         return res;
       };
       next();
@@ -154,8 +158,12 @@ export class AnswerCache {
   }
 }
 
-/** Sends a kept answer, compressed as the client accepts (each encoding made once, when first asked for). */
-function send(req: Request, res: Response, entry: Entry): void {
+/**
+ * Sends a kept answer with status 200, compressed as the client accepts (each encoding made once,
+ * when first asked for, and kept with it). The API's compression middleware leaves it alone: it
+ * carries its Content-Encoding already.
+ */
+export function sendKeptAnswer(req: Request, res: Response, entry: KeptAnswer): void {
   let body = entry.json;
   let encoding: 'br' | 'gzip' | undefined;
   if (entry.json.length >= COMPRESS_FROM_BYTES) {

@@ -3,7 +3,8 @@ import type { z } from 'zod';
 import type { Role } from '@shared/domain/roles';
 import type { User } from '@shared/domain/auth';
 import { requireRole, type Access } from '../auth/require-role';
-import { revalidatedAnswer } from './answer-validator';
+import { answerByIdentity, revalidatedAnswer, type AnswerIdentity } from './answer-validator';
+import type { BuiltAnswers } from './built-answers';
 
 type HttpMethod = 'get' | 'post' | 'put' | 'patch' | 'delete';
 
@@ -63,6 +64,21 @@ export interface Endpoint<TBody = unknown, TQuery = unknown, TParams = unknown> 
    * stored result, a route, the catalogues behind the map); not together with `cachedAnswer`.
    */
   revalidated?: boolean;
+  /**
+   * With `revalidated`, for answers that cost real work to build (a stored result): what the
+   * answer depends on, read without building it (the rows' versions, the query's choices);
+   * undefined when there is no such item. The ETag is then made from it (with the endpoint, the
+   * caller's role and the server's code version) instead of from the built answer, so a 304 costs
+   * this lookup only, and the built answer is kept in the process's BuiltAnswers under its ETag
+   * (api/http/answer-validator.ts, `answerByIdentity`). The identity must change with everything
+   * the answer shows for a role; an answer that differs per person cannot have one.
+   */
+  answerIdentity?: (input: EndpointInput<TBody, TQuery, TParams>) => Promise<AnswerIdentity | undefined>;
+  /**
+   * With `answerIdentity`: every role is shown the very same answer, so the caller's role is left
+   * out of the ETag. By default it is part of it.
+   */
+  answerSameForEveryRole?: boolean;
   handler: (input: EndpointInput<TBody, TQuery, TParams>) => Promise<void> | void;
 }
 
@@ -84,6 +100,8 @@ export interface MountOptions {
   mountedAt?: string;
   /** Answers endpoints marked `cachedAnswer` from memory while nothing has changed. */
   answerCache?: { serve(): RequestHandler };
+  /** Keeps the built answers of endpoints with an `answerIdentity`. */
+  builtAnswers?: BuiltAnswers;
 }
 
 export function mountEndpoint(router: Router, definition: AnyEndpoint, options: MountOptions = {}): void {
@@ -96,7 +114,18 @@ export function mountEndpoint(router: Router, definition: AnyEndpoint, options: 
       req,
       res,
     };
-    await definition.handler(input);
+    const { answerIdentity } = definition;
+    if (!answerIdentity) {
+      await definition.handler(input);
+      return;
+    }
+    await answerByIdentity(req, res, {
+      endpointPath: definition.path,
+      identity: () => answerIdentity(input),
+      build: () => definition.handler(input),
+      kept: options.builtAnswers,
+      sameForEveryRole: definition.answerSameForEveryRole,
+    });
   };
   const prefix = options.mountedAt ?? '';
   if (!definition.path.startsWith(`${prefix}/`)) throw new Error(`Endpoint ${definition.path} lies outside ${prefix}`);
@@ -104,12 +133,15 @@ export function mountEndpoint(router: Router, definition: AnyEndpoint, options: 
   if (definition.revalidated && definition.cachedAnswer)
     throw new Error(`Endpoint ${definition.path}: revalidated and cachedAnswer cannot be combined`);
   if (definition.revalidated && definition.method !== 'get') throw new Error(`Endpoint ${definition.path}: only reads are revalidated`);
+  if (definition.answerIdentity && !definition.revalidated)
+    throw new Error(`Endpoint ${definition.path}: an answerIdentity makes the ETag of a revalidated read; mark it revalidated`);
   router[definition.method](
     definition.path.slice(prefix.length),
     requireRole(definition.access),
     ...(definition.heavy && options.heavyRequests ? [options.heavyRequests.middleware()] : []),
     ...(definition.cachedAnswer && definition.method === 'get' && options.answerCache ? [options.answerCache.serve()] : []),
-    ...(definition.revalidated ? [revalidatedAnswer()] : []),
+    // With an identity, the handler itself answers 304 or the kept answer (answerByIdentity).
+    ...(definition.revalidated && !definition.answerIdentity ? [revalidatedAnswer()] : []),
     ...(definition.middleware ?? []),
     handler,
   );

@@ -34,6 +34,7 @@ import { routeToGeoJson } from './route-geojson';
 import { routeToGpx } from './route-gpx';
 import { importGtfsFeed, importRouteFile } from './route-import';
 import { routeProfile } from './route-profile';
+import { terrainRuntimeFor } from '../terrain/terrain-runtime';
 import { requireFile, singleFileUpload } from './route-upload';
 
 const TAG = 'Routes';
@@ -207,6 +208,32 @@ export function roadRouteEndpoints(deps: AppDeps) {
       responses: { 200: { description: 'The version', schema: roadRouteSchema } },
       handler: async ({ params, res }) => {
         res.json(await service.getRoute(deps.db, params.routeId, params.version));
+      },
+    }),
+    endpoint({
+      method: 'get',
+      path: '/api/routes/:routeId/versions/:version/profile',
+      summary:
+        'Elevation profile of a saved version for the route editor: the same answer as POST /api/routes/profile with its line, ' +
+        'revalidated (ETag) until the version or the terrain catalogue changes',
+      tag: TAG,
+      access: 'signed-in',
+      revalidated: true,
+      params: routeVersionParamsSchema,
+      answerSameForEveryRole: true,
+      // The version's line never changes; its elevations come from its positions or from the
+      // ready terrain, whose catalogue version names every model and its file.
+      answerIdentity: async ({ params }) => {
+        const identity = await repository.findVersionIdentity(deps.db, params.routeId, params.version);
+        return identity && [...identity, (await terrainRuntimeFor(deps).readyCatalogue()).version];
+      },
+      responses: {
+        200: { description: 'Distances (m), elevations (m or null), length, ascent, descent', schema: routeProfileSchema },
+        404: { description: 'No such route or version' },
+      },
+      handler: async ({ params, res }) => {
+        const route = await service.getRoute(deps.db, params.routeId, params.version);
+        res.json(await routeProfile(route.geometry, deps.sampleElevations));
       },
     }),
     endpoint({

@@ -108,6 +108,20 @@ export async function findVersion(db: Executor, routeId: string, version: number
   return row;
 }
 
+/**
+ * What a saved version's elevation profile depends on besides the terrain, read without its
+ * positions: the version row's id and row version (PostgreSQL's `xmin`, new with any change of
+ * the row). Undefined when the route is deleted or has no such version.
+ */
+export async function findVersionIdentity(db: Executor, routeId: string, version: number) {
+  const [row] = await db
+    .select({ id: roadRouteVersions.id, rowVersion: sql<string>`${roadRouteVersions}.xmin::text` })
+    .from(roadRouteVersions)
+    .innerJoin(roadRoutes, eq(roadRoutes.id, roadRouteVersions.routeId))
+    .where(and(eq(roadRouteVersions.routeId, routeId), eq(roadRouteVersions.version, version), isNull(roadRoutes.deletedAt)));
+  return row && ([row.id, row.rowVersion] as const);
+}
+
 export function listVersions(db: Executor, routeId: string) {
   return db
     .select({

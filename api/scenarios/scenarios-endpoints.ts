@@ -20,6 +20,7 @@ import { scenarioCsv, scenarioGeoJson } from './scenario-exports';
 import { scenarioReportPdf } from './scenario-report-pdf';
 import { cardDescentsOf, descentCardsPdf } from './descent-card-pdf';
 import { NotFoundError } from '../http/http-error';
+import * as scenarios from './scenarios-repository';
 import * as service from './scenarios-service';
 
 const TAG = 'Scenarios';
@@ -146,6 +147,13 @@ export function scenarioEndpoints(deps: AppDeps) {
       revalidated: true,
       params: scenarioIdParamsSchema,
       query: profileViewQuerySchema,
+      answerSameForEveryRole: true,
+      // Reading and checking a stored result takes most of a visit's time: the ETag comes from the
+      // row's version and the query's choices, so a repeat visit costs this lookup only.
+      answerIdentity: async ({ params, query }) => {
+        const identity = await scenarios.findResultIdentity(deps.db, params.scenarioId);
+        return identity && [...identity, query.profileStepM ?? null, query.series ?? null];
+      },
       responses: {
         200: {
           description: 'The result; each direction’s profile whole unless profileStepM or series ask for less',

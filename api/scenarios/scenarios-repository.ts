@@ -110,6 +110,28 @@ export async function insertScenario(db: Executor, values: typeof scenarios.$inf
 }
 
 /**
+ * What a scenario's stored result answer depends on, read without the result itself: the row's
+ * version (PostgreSQL's `xmin`, new with every change of the row, whoever makes it: a run, an
+ * edit, a restore, a query by hand), its last change and its run (`updatedAt`, `computedAt`), the
+ * engine and the stored result's schema version. Undefined for a scenario that does not exist,
+ * is deleted or has no result.
+ */
+export async function findResultIdentity(db: Executor, id: string) {
+  const [row] = await db
+    .select({
+      rowVersion: sql<string>`xmin::text`,
+      updatedAt: scenarios.updatedAt,
+      computedAt: scenarios.computedAt,
+      engineVersion: scenarios.engineVersion,
+      resultVersion: scenarios.resultVersion,
+    })
+    .from(scenarios)
+    .where(and(eq(scenarios.id, id), isNull(scenarios.deletedAt)));
+  if (!row?.computedAt || !row.engineVersion) return undefined;
+  return [id, row.rowVersion, row.updatedAt.toISOString(), row.computedAt.toISOString(), row.engineVersion, row.resultVersion] as const;
+}
+
+/**
  * The scenario's stored result, upgraded from its schema version to the current shape and parsed
  * (api/results/stored-result.ts); null when the scenario has none. Every read of a stored result
  * goes through here.

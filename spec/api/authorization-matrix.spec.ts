@@ -48,6 +48,7 @@ const EXPECTED_ACCESS: Record<string, 'public' | 'signed-in' | readonly Role[]> 
   'POST /api/routes/{routeId}/restore': ['planner'],
   'GET /api/routes/{routeId}/versions': 'signed-in',
   'GET /api/routes/{routeId}/versions/{version}': 'signed-in',
+  'GET /api/routes/{routeId}/versions/{version}/profile': 'signed-in',
   'GET /api/routes/{routeId}/export': 'signed-in',
   'POST /api/road-network': ['analyst'],
   'GET /api/road-network': 'signed-in',

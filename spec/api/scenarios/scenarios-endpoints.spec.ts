@@ -2,7 +2,9 @@ import request from 'supertest';
 import { afterAll, beforeEach, describe, expect, it } from 'vitest';
 import { scenarioResultSchema, scenarioSchema, type ScenarioDraftInput } from '@shared/domain/scenarios';
 import { ENGINE_VERSION, ENGINEERING_CAUTION } from '@shared/engine/constants';
+import { sql } from 'drizzle-orm';
 import { createApp } from '../../../api/app';
+import { runtimeOf } from '../../../api/app-runtime';
 import { ensureVehiclePresets, presetProfileId } from '../../../api/vehicle-profiles/vehicle-presets-seed';
 import { createTestContext } from '../../support/test-app';
 import { sessionCookies } from '../../support/session-cookie';
@@ -243,6 +245,67 @@ describe('revalidation of the stored result', () => {
     expect(boards.body).toEqual(planners.body);
     expect(boards.headers['etag']).toBe(planners.headers['etag']);
     expect(safetys.status).toBe(304);
+  });
+
+  it('builds the result answer once per change: repeat visits cost a lookup, a change of the row by any means a new answer', async () => {
+    const route = await aRoute();
+    const scenario = (await request(app).post('/api/scenarios').set('Cookie', planner).send(aScenarioDraft(route.id))).body;
+    const resultPath = `/api/scenarios/${scenario.id}/result?profileStepM=25&series=elevationM,brakeTempC`;
+    const kept = runtimeOf(context.deps).builtAnswers;
+    const before = { ...kept.stats };
+
+    const first = await request(app).get(resultPath).set('Cookie', planner);
+    const repeat = await request(app).get(resultPath).set('Cookie', planner).set('If-None-Match', first.headers['etag']!);
+    const newVisit = await request(app).get(resultPath).set('Cookie', planner).set('Accept-Encoding', 'br');
+    const afterVisits = { ...kept.stats };
+    // A change no API write made (a script, a query by hand) is seen as well: the row's version changed.
+    await db.execute(sql`update scenarios set summary = jsonb_set(summary, '{lengthM}', '1') where id = ${scenario.id}`);
+    const afterChange = await request(app).get(resultPath).set('Cookie', planner).set('If-None-Match', first.headers['etag']!);
+
+    expect(first.status).toBe(200);
+    expect(Object.keys(first.body.directions[0].profile).sort()).toEqual(['brakeTempC', 'distanceM', 'elevationM']);
+    expect(repeat.status).toBe(304);
+    expect(newVisit.status).toBe(200);
+    expect(newVisit.headers['content-encoding']).toBe('br');
+    expect(newVisit.headers['etag']).toBe(first.headers['etag']);
+    expect(newVisit.body).toEqual(first.body);
+    expect(afterVisits.stored - before.stored).toBe(1);
+    expect(afterVisits.hits - before.hits).toBe(1);
+    expect(afterChange.status).toBe(200);
+    expect(afterChange.headers['etag']).not.toBe(first.headers['etag']);
+    expect(afterChange.body.summary.lengthM).toBe(1);
+    expect(first.body.summary.lengthM).toBeGreaterThan(1);
+  });
+
+  it('sends the scenario anew when a safety setting makes it out of date, while the result, which does not show it, still holds', async () => {
+    const admin = await cookieFor('admin');
+    const route = await aRoute();
+    const scenario = (await request(app).post('/api/scenarios').set('Cookie', planner).send(aScenarioDraft(route.id))).body;
+    const scenarioPath = `/api/scenarios/${scenario.id}`;
+    const resultPath = `${scenarioPath}/result?profileStepM=25`;
+    const headline = await request(app).get(scenarioPath).set('Cookie', planner);
+    const result = await request(app).get(resultPath).set('Cookie', planner);
+    const {
+      isPlaceholder: _p,
+      updatedAt: _u,
+      updatedByName: _n,
+      ...settings
+    } = (await request(app).get('/api/settings/network').set('Cookie', admin)).body;
+
+    const changed = await request(app)
+      .put('/api/settings/network')
+      .set('Cookie', admin)
+      .send({ ...settings, fadeMarginK: settings.fadeMarginK + 10 });
+    const headlineAfter = await request(app).get(scenarioPath).set('Cookie', planner).set('If-None-Match', headline.headers['etag']!);
+    const resultAfter = await request(app).get(resultPath).set('Cookie', planner).set('If-None-Match', result.headers['etag']!);
+
+    expect(headline.body.isStale).toBe(false);
+    expect(changed.status).toBe(200);
+    expect(headlineAfter.status).toBe(200);
+    expect(headlineAfter.body.staleReasons).toEqual(["the network settings' fade margin changed after the run"]);
+    expect(headlineAfter.headers['etag']).not.toBe(headline.headers['etag']);
+    expect(result.body).not.toHaveProperty('staleReasons');
+    expect(resultAfter.status).toBe(304);
   });
 
   it('keeps no-store on a missing result', async () => {

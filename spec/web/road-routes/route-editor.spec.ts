@@ -46,8 +46,12 @@ const ROUTE: RoadRoute = {
   updatedAt: '2026-11-20T08:00:00.000Z',
 };
 
+/** Which profile the editor asked for, in order: the saved version's GET or the edited line's POST. */
+let profileRequests: string[];
+
 describe('RouteEditor', () => {
   beforeEach(async () => {
+    profileRequests = [];
     TestBed.configureTestingModule({
       providers: [
         provideRouter([]),
@@ -60,7 +64,14 @@ describe('RouteEditor', () => {
             versions: async () => [],
             // No reference network and no base map: vertices go where they are clicked.
             roadNetwork: async () => null,
-            profile: () => NEVER,
+            profile: (geometry: RoadRoute['geometry']) => {
+              profileRequests.push(`POST ${JSON.stringify(geometry.coordinates)}`);
+              return NEVER;
+            },
+            savedProfile: (routeId: string, version: number) => {
+              profileRequests.push(`GET ${routeId} version ${version}`);
+              return NEVER;
+            },
             exportUrl: (routeId: string, format: string) => `/api/routes/${routeId}/export.${format}`,
           },
         },
@@ -230,6 +241,24 @@ describe('RouteEditor', () => {
     expect(field(element, 'Longitude of vertex 3').value).toBe('10.870000');
     expect(store.canUndo()).toBe(false);
     expect(store.canRedo()).toBe(true);
+  });
+
+  it('asks for the saved version’s profile on opening, for the edited line’s after an edit, and the saved one again after Undo', async () => {
+    const { fixture, element } = await open();
+    const opened = [...profileRequests];
+
+    await type(fixture, field(element, 'Longitude of vertex 3'), '10.875');
+    await new Promise((resolve) => setTimeout(resolve, 350));
+    await settle(fixture);
+    const edited = [...profileRequests];
+    button(element, 'Undo (Ctrl+Z)').click();
+    await settle(fixture);
+    await new Promise((resolve) => setTimeout(resolve, 50));
+    await settle(fixture);
+
+    expect(opened).toEqual([`GET ${ROUTE_ID} version 3`]);
+    expect(edited).toEqual([...opened, 'POST [[10.85,46.55],[10.86,46.56],[10.875,46.55]]']);
+    expect(profileRequests).toEqual([...edited, `GET ${ROUTE_ID} version 3`]);
   });
 
   it('keeps the text being typed in a field while a map edit changes the route', async () => {

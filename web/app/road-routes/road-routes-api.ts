@@ -23,7 +23,7 @@ import {
 import { firstValueFrom, map, type Observable } from 'rxjs';
 import * as z from 'zod';
 import { ERRORS_SHOWN_INLINE } from '../core/api-error-message';
-import { ROAD_NETWORK_PATH, routePath, routeVersionsPath } from './route-paths';
+import { ROAD_NETWORK_PATH, routePath, routeVersionProfilePath, routeVersionsPath } from './route-paths';
 
 export type RouteExportFormat = 'geojson' | 'gpx';
 export type RouteVersionInfo = z.infer<typeof roadRouteVersionListSchema>['items'][number];
@@ -62,6 +62,14 @@ export class RoadRoutesApi {
 
   async remove(routeId: string): Promise<void> {
     await firstValueFrom(this.http.delete(routePath(routeId)));
+  }
+
+  /**
+   * Length and elevation along a saved version's line: the same answer as `profile` for that
+   * line, but a GET the browser keeps and revalidates, so an unchanged profile costs no body.
+   */
+  savedProfile(routeId: string, version: number): Observable<RouteProfile> {
+    return this.http.get(routeVersionProfilePath(routeId, version), inline()).pipe(map((body) => routeProfileSchema.parse(body)));
   }
 
   /** Length and elevation along a geometry being edited (not stored). Cancel by unsubscribing. */

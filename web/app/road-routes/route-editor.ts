@@ -16,7 +16,7 @@ import { MatSnackBar } from '@angular/material/snack-bar';
 import { MatTooltipModule } from '@angular/material/tooltip';
 import { Router, RouterLink } from '@angular/router';
 import { ROUTE_MODES, type RoadRoute, type RoadRouteDraftInput } from '@shared/domain/road-routes';
-import { catchError, debounceTime, firstValueFrom, map, of, startWith, switchMap } from 'rxjs';
+import { catchError, debounce, firstValueFrom, map, of, startWith, switchMap, timer } from 'rxjs';
 import { describeApiError } from '../core/api-error-message';
 import { confirmDelete } from '../ui/confirm-delete-dialog';
 import { Session } from '../core/session';
@@ -159,6 +159,7 @@ export default class RouteEditor {
       this.olderVersion.set(null);
       if (!routeId) {
         this.saved.set(null);
+        this.savedLine.set(null);
         this.store.reset(EMPTY_DRAFT);
         void this.fitToTerrain();
         return null;
@@ -220,13 +221,29 @@ export default class RouteEditor {
     this.edit((state) => dropRecordedElevations(state));
   }
 
-  /** Live elevation profile: settles 300 ms after the last change; a newer path cancels the request. */
+  /**
+   * The saved version whose line is in the draft as the server answered it (set on opening and
+   * after a save), or null for a new route. While the draft's vertices are still that very list,
+   * the profile is the saved version's.
+   */
+  private readonly savedLine = signal<{ routeId: string; version: number; vertices: RouteDraftState['vertices'] } | null>(null);
+
+  /**
+   * Live elevation profile: settles 300 ms after the last change; a newer path cancels the
+   * request. The line of a saved version, unedited (as on opening), is asked for at once with
+   * the version's GET, which the browser revalidates; an edited line with the POST.
+   */
   protected readonly profile = toSignal(
     toObservable(this.vertices).pipe(
-      debounceTime(300),
+      debounce((vertices) => timer(this.savedLine()?.vertices === vertices ? 0 : 300)),
       switchMap((vertices) => {
         if (vertices.length < 2) return of<ProfileState>({ status: 'idle' });
-        return this.api.profile({ type: 'LineString', coordinates: vertices.map(positionOf) }).pipe(
+        const saved = untracked(this.savedLine);
+        const request =
+          saved?.vertices === vertices
+            ? this.api.savedProfile(saved.routeId, saved.version)
+            : this.api.profile({ type: 'LineString', coordinates: vertices.map(positionOf) });
+        return request.pipe(
           map((profile): ProfileState => ({ status: 'ready', value: profile })),
           startWith<ProfileState>(LOADING),
           catchError((error: unknown) => of<ProfileState>(loadFailed(error))),
@@ -637,6 +654,7 @@ export default class RouteEditor {
     this.olderVersion.set(null);
     const state = draftOfRoute(route);
     this.store.reset(state);
+    this.savedLine.set({ routeId: route.id, version: route.version, vertices: state.vertices });
     this.details.setValue({
       name: route.name,
       mode: route.mode,

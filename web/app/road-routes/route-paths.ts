@@ -11,13 +11,25 @@ export function routeVersionsPath(routeId: string): string {
   return `${routePath(routeId)}/versions`;
 }
 
+/** The elevation profile of a saved version (the editor's profile while the line is unedited). */
+export function routeVersionProfilePath(routeId: string, version: number): string {
+  return `${routeVersionsPath(routeId)}/${version}/profile`;
+}
+
 export const ROAD_NETWORK_PATH = '/api/road-network';
 
-/** What the route editor reads as it opens a saved route: the route, its versions, the road network, the map's catalogues. */
-export const routeEditorFirstReads: FirstReads = ({ routeId }, read) => {
+/**
+ * What the route editor reads as it opens a saved route: the route, its versions, the road
+ * network, the map's catalogues and, once the route names its current version, that version's
+ * elevation profile.
+ */
+export const routeEditorFirstReads: FirstReads = async ({ routeId }, read) => {
   if (!routeId || !isUuid(routeId)) return;
-  void read(routePath(routeId));
+  const route = read(routePath(routeId));
   void read(routeVersionsPath(routeId));
   void read(ROAD_NETWORK_PATH);
   readMapCatalogues(read);
+  const answer = await route;
+  const version = typeof answer === 'object' && answer !== null && 'version' in answer ? answer.version : null;
+  if (typeof version === 'number') void read(routeVersionProfilePath(routeId, version));
 };
