@@ -278,16 +278,23 @@ async function demoIds(): Promise<Ids> {
 }
 
 /**
- * The paths the router defines, read from its route files: the top table and each lazily loaded
- * feature table, joined with the path that loads it.
+ * The paths the router defines, read from its route files: the top table and each area's table
+ * (a `*_ROUTES` constant imported from its `.routes.ts` file and given as `children`), joined with
+ * the area's path.
  */
 function routerPaths(): Set<string> {
   const webApp = join(import.meta.dirname, '..', '..', 'web', 'app');
   const top = readFileSync(join(webApp, 'app.routes.ts'), 'utf8');
+  const areaFiles = new Map(
+    [...top.matchAll(/import \{ (\w+_ROUTES) \} from '\.\/([^']+\.routes)';/g)].map(([, name, file]) => [name!, file!]),
+  );
+  assert.ok(areaFiles.size > 0, 'app.routes.ts imports no area tables: has the router table changed shape?');
   const paths = new Set<string>();
-  const entries = [...top.matchAll(/path: '([^']*)'[\s\S]*?(?:loadChildren: \(\) => import\('\.\/([^']+)'\)|loadComponent|redirectTo)/g)];
-  for (const [, path, children] of entries) {
-    if (children) {
+  const entries = [...top.matchAll(/path: '([^']*)'[\s\S]*?(?:children: (\w+_ROUTES)|loadComponent|redirectTo)/g)];
+  for (const [, path, table] of entries) {
+    if (table) {
+      const children = areaFiles.get(table);
+      assert.ok(children, `${table} is not imported from a .routes.ts file`);
       const feature = readFileSync(join(webApp, `${children}.ts`), 'utf8');
       for (const [, child] of feature.matchAll(/path: '([^']*)'/g)) paths.add(child ? `${path}/${child}` : path!);
     } else {
