@@ -24,7 +24,7 @@ import { cpus, loadavg, tmpdir } from 'node:os';
 import { join, resolve } from 'node:path';
 import { chromium, type BrowserContext } from 'playwright-core';
 import { DEMO_PASSWORD, DEMO_PEOPLE } from '../api/demo/demo-people';
-import { loadDemo, startScratchInstance } from './scratch-instance';
+import { loadDemo, signIn, startScratchInstance } from './scratch-instance';
 
 const RUNS = Number(process.argv[2] ?? 3);
 const LIST_FILES = process.env['BENCH_FILES'] === '1';
@@ -56,7 +56,7 @@ try {
   console.log('loading the demo into the scratch instance…');
   await loadDemo(instance);
   const planner = DEMO_PEOPLE.find((person) => person.role === 'planner')!;
-  const cookie = await signIn(instance.baseUrl, planner.email);
+  const cookie = sessionCookie(await signIn(instance, planner.email, DEMO_PASSWORD));
   const routes = (await getJson(instance.baseUrl, '/api/routes', cookie)) as { items: { id: string }[] };
   const scenarios = (await getJson(instance.baseUrl, '/api/scenarios', cookie)) as { items: { id: string; status: string }[] };
   const scenario = scenarios.items.find((item) => item.status === 'done');
@@ -67,11 +67,8 @@ try {
     { name: 'scenario result', path: `/scenarios/${scenario.id}`, signedIn: true },
   ];
 
-  // The server shows each page once before the measured visits, in a browser profile of its own
-  // that is then thrown away: its disk tile cache then holds the map tiles, as on any server in
-  // use (tiles are rendered once per terrain catalogue version; the tiles benchmark measures that
-  // rendering). "First visit" below is the browser's first visit, not the server's.
-  for (const page of pages) {
+  /** Runs `use` in a new browser profile (empty cache), signed in as the planner or not, then deletes the profile. */
+  async function inFreshBrowser(signedIn: boolean, use: (context: BrowserContext) => Promise<unknown>): Promise<void> {
     const profile = mkdtempSync(join(tmpdir(), 'descentry-bench-browser-'));
     const context = await chromium.launchPersistentContext(profile, {
       executablePath: '/usr/bin/chromium',
@@ -79,16 +76,22 @@ try {
       args: CHROMIUM_ARGS,
     });
     try {
-      if (page.signedIn) {
+      if (signedIn) {
         const [name, value] = cookie.split('=') as [string, string];
         await context.addCookies([{ name, value, url: instance.baseUrl, httpOnly: true, sameSite: 'Strict' }]);
       }
-      await visit(context, `${instance.baseUrl}${page.path}`);
+      await use(context);
     } finally {
       await context.close();
       rmSync(profile, { recursive: true, force: true });
     }
   }
+
+  // The server shows each page once before the measured visits, in a browser profile of its own
+  // that is then thrown away: its disk tile cache then holds the map tiles, as on any server in
+  // use (tiles are rendered once per terrain catalogue version; the tiles benchmark measures that
+  // rendering). "First visit" below is the browser's first visit, not the server's.
+  for (const page of pages) await inFreshBrowser(page.signedIn, (context) => visit(context, `${instance.baseUrl}${page.path}`));
 
   const rows: string[] = [];
   const load = loadavg()[0]!;
@@ -96,24 +99,11 @@ try {
     const first: Visit[] = [];
     const repeat: Visit[] = [];
     for (let run = 0; run < RUNS; run++) {
-      const profile = mkdtempSync(join(tmpdir(), 'descentry-bench-browser-'));
-      const context = await chromium.launchPersistentContext(profile, {
-        executablePath: '/usr/bin/chromium',
-        headless: true,
-        args: CHROMIUM_ARGS,
-      });
-      try {
-        if (page.signedIn) {
-          const [name, value] = cookie.split('=') as [string, string];
-          await context.addCookies([{ name, value, url: instance.baseUrl, httpOnly: true, sameSite: 'Strict' }]);
-        }
+      await inFreshBrowser(page.signedIn, async (context) => {
         first.push(await visit(context, `${instance.baseUrl}${page.path}`));
         if (LIST_FILES && run === 0) printFiles(page.name, first[0]!.files);
         repeat.push(await visit(context, `${instance.baseUrl}${page.path}`));
-      } finally {
-        await context.close();
-        rmSync(profile, { recursive: true, force: true });
-      }
+      });
     }
     for (const [kind, visits] of [
       ['first', first],
@@ -230,17 +220,9 @@ function printFiles(pageName: string, files: Map<string, number>): void {
   for (const [path, bytes] of sorted) console.log(`  ${(bytes / 1024).toFixed(1).padStart(7)} kB  ${path}`);
 }
 
-async function signIn(baseUrl: string, email: string): Promise<string> {
-  const response = await fetch(`${baseUrl}/api/auth/login`, {
-    method: 'POST',
-    headers: { 'Content-Type': 'application/json' },
-    body: JSON.stringify({ email, password: DEMO_PASSWORD }),
-  });
-  if (!response.ok) throw new Error(`sign-in as ${email}: ${response.status}`);
-  const session = response.headers
-    .getSetCookie()
-    .map((c) => c.split(';')[0]!)
-    .find((c) => c.startsWith('descentry_session='));
+/** The session cookie (`name=value`) of a Cookie header that may carry others too. */
+function sessionCookie(header: string): string {
+  const session = header.split('; ').find((c) => c.startsWith('descentry_session='));
   if (!session) throw new Error('no session cookie');
   return session;
 }

@@ -26,25 +26,10 @@ import { viewProfile } from '../shared/engine/profile-view';
 import { DEMO_PASSWORD, DEMO_PEOPLE } from '../api/demo/demo-people';
 import { createDatabase } from '../api/db/client';
 import * as scenarios from '../api/scenarios/scenarios-repository';
-import { loadDemo, startScratchInstance } from './scratch-instance';
+import { RESULT_SCREEN_SERIES, RESULT_SCREEN_STEP_M, scenarioResultScreenPath } from '../web/app/scenarios/scenario-paths';
+import { loadDemo, signIn, startScratchInstance } from './scratch-instance';
 
 const REQUESTS = Number(process.argv[2] ?? 20);
-/** What the result page asks for (RESULT_SCREEN_STEP_M and RESULT_SCREEN_SERIES in web/app/scenarios/scenarios-api.ts). */
-const RESULT_SCREEN_STEP_M = 25;
-const RESULT_SCREEN_SERIES = [
-  'lon',
-  'lat',
-  'elevationM',
-  'gradePercent',
-  'speedMps',
-  'rollingN',
-  'aeroN',
-  'gradeN',
-  'inertiaN',
-  'batteryPowerW',
-  'soc',
-  'brakeTempC',
-] as const;
 const WARM_UP = 3;
 
 interface Timed {
@@ -58,7 +43,7 @@ try {
   console.log('loading the demo into the scratch instance…');
   await loadDemo(instance);
   const planner = DEMO_PEOPLE.find((person) => person.role === 'planner')!;
-  const cookie = await signIn(instance.baseUrl, planner.email);
+  const cookie = await signIn(instance, planner.email, DEMO_PASSWORD);
   const routes = (await getJson('/api/routes')) as { items: { id: string; currentVersion?: number; version?: number }[] };
   const list = (await getJson('/api/scenarios')) as { items: { id: string; status: string }[] };
   const scenario = list.items.find((item) => item.status === 'done');
@@ -66,8 +51,7 @@ try {
   if (!route || !scenario) throw new Error('the demo has no route or no computed scenario');
   const saved = (await getJson(`/api/routes/${route.id}`)) as { version: number; geometry: unknown };
 
-  const resultPath =
-    `/api/scenarios/${scenario.id}/result?profileStepM=${RESULT_SCREEN_STEP_M}` + `&series=${RESULT_SCREEN_SERIES.join(',')}`;
+  const resultPath = scenarioResultScreenPath(scenario.id);
   const profilePath = `/api/routes/${route.id}/versions/${saved.version}/profile`;
   const load = loadavg().map((value) => value.toFixed(1));
   console.log(`\n${new Date().toISOString()}, load average ${load.join(' ')}, ${REQUESTS} requests each (median, fastest–slowest)\n`);
@@ -176,19 +160,4 @@ function median(values: number[]): number {
   const sorted = [...values].sort((a, b) => a - b);
   const middle = Math.floor(sorted.length / 2);
   return sorted.length % 2 === 1 ? sorted[middle]! : (sorted[middle - 1]! + sorted[middle]!) / 2;
-}
-
-async function signIn(baseUrl: string, email: string): Promise<string> {
-  const response = await fetch(`${baseUrl}/api/auth/login`, {
-    method: 'POST',
-    headers: { 'Content-Type': 'application/json' },
-    body: JSON.stringify({ email, password: DEMO_PASSWORD }),
-  });
-  if (!response.ok) throw new Error(`sign-in as ${email}: ${response.status}`);
-  const session = response.headers
-    .getSetCookie()
-    .map((c) => c.split(';')[0]!)
-    .find((c) => c.startsWith('descentry_session='));
-  if (!session) throw new Error('no session cookie');
-  return session;
 }

@@ -114,12 +114,12 @@ export async function addPeople(instance: ScratchInstance, role: string, count: 
   return emails;
 }
 
-/** Signs in through the API; returns the Cookie header value. */
-export async function signIn(instance: ScratchInstance, email: string): Promise<string> {
+/** Signs in through the API (as someone `addPeople` made, or with `password`); returns the Cookie header value. */
+export async function signIn(instance: ScratchInstance, email: string, password = SCRATCH_PASSWORD): Promise<string> {
   const response = await fetch(`${instance.baseUrl}/api/auth/login`, {
     method: 'POST',
     headers: { 'Content-Type': 'application/json' },
-    body: JSON.stringify({ email, password: SCRATCH_PASSWORD }),
+    body: JSON.stringify({ email, password }),
   });
   if (!response.ok) throw new Error(`sign-in as ${email}: ${response.status} ${await response.text()}`);
   return response.headers

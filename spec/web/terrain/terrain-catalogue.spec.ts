@@ -8,6 +8,7 @@ import TerrainCatalogue from '../../../web/app/terrain/terrain-catalogue';
 import { TerrainApi } from '../../../web/app/terrain/terrain-api';
 import { TerrainUpload } from '../../../web/app/terrain/terrain-upload';
 import { settle } from '../support/settle';
+import { terrainModel } from '../support/terrain-model';
 
 /** A catalogue API whose list answers wait until the test gives them. */
 class HeldTerrainApi {
@@ -69,31 +70,12 @@ function list(items: TerrainModel[]): TerrainList {
 }
 
 function model(name: string, status: TerrainModel['status'], id = '2b0f2d4e-8a57-4a55-9f7c-3a1d2c3b4a5e'): TerrainModel {
-  return {
+  return terrainModel({
     id,
     name,
     status,
-    failureReason: null,
-    crs: 'EPSG:32632',
-    crsName: 'WGS 84 / UTM zone 32N',
-    widthPx: 800,
-    heightPx: 600,
-    resolutionM: 20,
-    pixelSize: { x: 20, y: 20, unit: 'metre' },
-    nodata: -9999,
-    dataType: 'Float32',
-    pixelType: 'area',
-    verticalUnit: 'metre',
-    fileSizeBytes: 927_172,
-    sha256: 'a'.repeat(64),
-    minElevationM: 684.7,
-    maxElevationM: 2858.7,
-    nodataShare: 0,
-    spikeCount: 0,
     qualityNotes: [],
     footprint: null,
-    uploadedBy: null,
-    createdAt: '2026-06-01T08:00:00.000Z',
     readyAt: status === 'ready' ? '2026-06-01T08:00:05.000Z' : null,
-  };
+  });
 }
