@@ -12,7 +12,7 @@ const IMMUTABLE_MAX_AGE_S = 31_536_000;
  * Files the Angular build names after their content (`main-ABCD1234.js`, `chunk-…`, `styles-…`,
  * `media/…-ABCD1234.woff2`): their bytes never change under that name, so browsers keep them.
  */
-const HASHED_NAME = /-[A-Z0-9]{8}\.[a-z0-9]+$/;
+export const HASHED_NAME = /-[A-Z0-9]{8}\.[a-z0-9]+$/;
 /** Extensions that are files, never pages of the app: a missing one is a 404, not index.html. */
 const ASSET_EXTENSIONS = new Set([
   '.js',

@@ -5,6 +5,7 @@ import { join } from 'node:path';
 import request from 'supertest';
 import { afterAll, describe, expect, it } from 'vitest';
 import { createApp } from '../../../api/app';
+import { isSubresourcePath } from '../../../api/http/security-headers';
 import { createTestContext, testConfig } from '../../support/test-app';
 
 const LOADER = "\n  var scripts = [['main.js', 'module', false, false]];\n";
@@ -15,6 +16,8 @@ writeFileSync(
   `<!doctype html><html><head><style>${CRITICAL_CSS}</style></head><body><app-root></app-root><script>${LOADER}</script></body></html>`,
 );
 writeFileSync(join(webDir, 'main.js'), 'console.log("app")');
+const HASHED_SCRIPT = 'chunk-ABCD1234.js';
+writeFileSync(join(webDir, HASHED_SCRIPT), 'console.log("chunk")');
 const context = createTestContext({ WEB_DIR: webDir });
 
 afterAll(async () => {
@@ -49,13 +52,49 @@ describe('security headers (issue 11)', () => {
     expect(direct.text).toMatch(/<app-root ngCspNonce="[^"]+">/);
   });
 
-  it('puts the same headers on API answers and static files', async () => {
+  it('puts the whole set on API answers and on files that are not content-hashed', async () => {
     const api = await request(context.app).get('/api/health');
     const asset = await request(context.app).get('/main.js');
 
     for (const response of [api, asset]) {
       expect(response.headers['content-security-policy']).toMatch(/frame-ancestors 'none'/);
       expect(response.headers['x-content-type-options']).toBe('nosniff');
+    }
+  });
+
+  it('gives content-hashed build files only the headers that act on a subresource', async () => {
+    const hashed = await request(context.app).get(`/${HASHED_SCRIPT}`);
+
+    expect(hashed.status).toBe(200);
+    expect(hashed.headers['x-content-type-options']).toBe('nosniff');
+    expect(hashed.headers['cross-origin-resource-policy']).toBe('same-origin');
+    for (const documentOnly of ['content-security-policy', 'x-frame-options', 'referrer-policy', 'cross-origin-opener-policy']) {
+      expect(hashed.headers[documentOnly], documentOnly).toBeUndefined();
+    }
+  });
+
+  it('counts hashed scripts, styles and fonts and map tiles as subresources, and nothing a browser could open as a page', () => {
+    for (const path of [
+      '/chunk-5ZW2BL6G.js',
+      '/styles-SNL377KO.css',
+      '/media/noto-sans-latin-400-normal-DUBPJEHV.woff2',
+      '/api/tiles/terrain/12/2168/1446.png',
+      '/api/tiles/base/10/542/361.pbf',
+    ]) {
+      expect(isSubresourcePath(path), path).toBe(true);
+    }
+    for (const path of [
+      '/',
+      '/routes/new',
+      '/index.html',
+      '/favicon.svg',
+      '/media/logo-ABCD1234.svg',
+      '/main.js',
+      '/api/health',
+      '/api/tiles/terrain/12/2168/1446.json',
+      '/api/routes/x-ABCD1234.js',
+    ]) {
+      expect(isSubresourcePath(path), path).toBe(false);
     }
   });
 
