@@ -156,27 +156,33 @@ export function shadeAndTint(elevations, cellSizeM, sun, stops, shadowFloor, sha
   const length = (endRow - firstRow) * TILE_STRIDE;
   const raw = into === null ? new Uint8Array(length) : into.subarray(0, length);
   const { table, base, top } = tintTable(stops);
-  const shading = {
+  const terms = sunTerms(sun, cellSizeM);
+  const shading = { shadowFloor, shadeGain, tint: table, tintBase: base, tintTop: top };
+  // One call per row: a small function that the JIT compiles whole, rather than one long loop
+  // compiled mid-run.
+  for (let j = firstRow; j < endRow; j++) {
+    shadeRow(elevations, (j + 1) * SAMPLES_PX + 1, raw, (j - firstRow) * TILE_STRIDE, terms, shading);
+  }
+  return raw;
+}
+
+/**
+ * What the Horn illumination needs of the sun and the grid, worked out once per tile: the
+ * gradient's scale (z-factor over eight cell sizes: the Horn weights of each side sum to 4, over
+ * a span of two cells) and the sun's zenith and azimuth cosines and sines. shadeAndTint and
+ * shadeCodes both pass this one object to illuminationAt, so it always sees the same shape.
+ */
+function sunTerms(sun, cellSizeM) {
+  return {
     scale: sun.zFactor / (8 * cellSizeM),
     cosZenith: sun.cosZenith,
     sinZenith: sun.sinZenith,
     cosAzimuth: sun.cosAzimuth,
     sinAzimuth: sun.sinAzimuth,
-    shadowFloor,
-    shadeGain,
-    tint: table,
-    tintBase: base,
-    tintTop: top,
   };
-  // One call per row: a small function that the JIT compiles whole, rather than one long loop
-  // compiled mid-run.
-  for (let j = firstRow; j < endRow; j++) {
-    shadeRow(elevations, (j + 1) * SAMPLES_PX + 1, raw, (j - firstRow) * TILE_STRIDE, shading);
-  }
-  return raw;
 }
 
-/** Horn illumination (0–1) at `centre`; a NaN neighbour takes the centre value e. */
+/** Horn illumination (0–1) at `centre` under the sunTerms `s`; a NaN neighbour takes the centre value e. */
 function illuminationAt(elevations, centre, e, s) {
   const size = SAMPLES_PX;
   let av = elevations[centre - size - 1];
@@ -201,7 +207,7 @@ function illuminationAt(elevations, centre, e, s) {
   return illumination > 0 ? illumination : 0;
 }
 
-function shadeRow(elevations, rowStart, raw, out, s) {
+function shadeRow(elevations, rowStart, raw, out, terms, s) {
   const { tint, tintBase, tintTop, shadowFloor, shadeGain } = s;
   const rowEnd = rowStart + TILE_PX;
   for (let centre = rowStart; centre < rowEnd; centre++) {
@@ -210,7 +216,7 @@ function shadeRow(elevations, rowStart, raw, out, s) {
     let g = 0;
     let b = 0;
     if (e === e) {
-      const light = shadowFloor + shadeGain * illuminationAt(elevations, centre, e, s);
+      const light = shadowFloor + shadeGain * illuminationAt(elevations, centre, e, terms);
       const above = e - tintBase;
       const m = 3 * (above <= 0 ? 0 : above >= tintTop ? tintTop : above | 0);
       const vr = tint[m] * light;
@@ -240,29 +246,20 @@ export function shadeCodes(elevations, cellSizeM, sun, stops, firstRow = 0, endR
   const length = (endRow - firstRow) * TILE_PX;
   const codes = into === null ? new Uint32Array(length) : into.subarray(0, length);
   const { base, top } = tintTable(stops);
-  const shading = {
-    scale: sun.zFactor / (8 * cellSizeM),
-    cosZenith: sun.cosZenith,
-    sinZenith: sun.sinZenith,
-    cosAzimuth: sun.cosAzimuth,
-    sinAzimuth: sun.sinAzimuth,
-    tintBase: base,
-    tintTop: top,
-  };
+  const terms = sunTerms(sun, cellSizeM);
   for (let j = firstRow; j < endRow; j++) {
-    codeRow(elevations, (j + 1) * SAMPLES_PX + 1, codes, (j - firstRow) * TILE_PX, shading);
+    codeRow(elevations, (j + 1) * SAMPLES_PX + 1, codes, (j - firstRow) * TILE_PX, terms, base, top);
   }
   return codes;
 }
 
-function codeRow(elevations, rowStart, codes, out, s) {
-  const { tintBase, tintTop } = s;
+function codeRow(elevations, rowStart, codes, out, terms, tintBase, tintTop) {
   const rowEnd = rowStart + TILE_PX;
   for (let centre = rowStart; centre < rowEnd; centre++) {
     const e = elevations[centre];
     let code = NO_DATA_CODE;
     if (e === e) {
-      const illumination = illuminationAt(elevations, centre, e, s);
+      const illumination = illuminationAt(elevations, centre, e, terms);
       const above = e - tintBase;
       const metre = above <= 0 ? 0 : above >= tintTop ? tintTop : above | 0;
       const byte = illumination >= 1 ? ILLUMINATION_STEPS - 1 : (illumination * ILLUMINATION_STEPS) | 0;
