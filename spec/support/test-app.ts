@@ -8,6 +8,7 @@ import { hashPassword } from '../../api/auth/passwords';
 import { loadConfig, type Config } from '../../api/config';
 import { createDatabase, type Database } from '../../api/db/client';
 import { users } from '../../api/db/schema/index';
+import { truncateAll } from './test-database';
 
 export const TEST_PASSWORD = 'test-password-for-specs';
 /** The SESSION_SECRET of the specs' configuration (mail links are sealed with it). */
@@ -59,6 +60,21 @@ export function createTestContext(overrides: Partial<Record<keyof Config, string
       await close();
     },
   };
+}
+
+/**
+ * The afterAll of a spec file that wrote terrain, base maps or other files into a temporary
+ * folder of its own: empties every table (the next file starts from nothing), closes the context
+ * (its runtime, terrain decoder and tile threads included, then the database) and then removes
+ * the folder, once no thread holds its files open. The folder goes even when closing fails.
+ */
+export async function emptyAndCloseTestContext(context: TestContext, folder: { remove: () => void }): Promise<void> {
+  try {
+    await truncateAll(context.db);
+    await context.close();
+  } finally {
+    folder.remove();
+  }
 }
 
 let passwordHash: Promise<string> | undefined;

@@ -6,11 +6,10 @@ import proj4 from 'proj4';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { writeFloat32GeoTiff } from '../../../api/terrain/raster/geotiff-writer';
 import { waitForInlineRoadGraphJobs } from '../../../api/road-graph/road-graph-jobs';
-import { closeTerrainRuntime } from '../../../api/terrain/terrain-runtime';
 import { waitForInlineTerrainJobs } from '../../../api/terrain/terrain-service';
 import { PYTHON, importExtract, westOaklandXml } from '../basemap/support/osm-extracts';
 import { uploadTerrain, waitUntilIngested } from '../terrain/support/terrain-fixtures';
-import { createTestContext, signedInAgent, type TestContext } from '../../support/test-app';
+import { createTestContext, emptyAndCloseTestContext, signedInAgent, type TestContext } from '../../support/test-app';
 import { truncateAll } from '../../support/test-database';
 
 type Position = [number, number];
@@ -45,12 +44,7 @@ describe('POST /api/road-network/path (pgRouting on the imported roads)', () => 
     await importExtract(agent, context.deps, scratch.path, 'west-oakland.osm');
     longest = networkx(scratch.path);
   }, 120_000);
-  afterAll(async () => {
-    scratch.remove();
-    await truncateAll(context.db);
-    await closeTerrainRuntime(context.deps);
-    await context.close();
-  });
+  afterAll(() => emptyAndCloseTestContext(context, scratch));
 
   it('finds the same shortest path as networkx between the two junctions farthest apart', async () => {
     const response = await agent.post('/api/road-network/path').send({ from: longest.from, to: longest.to });

@@ -5,8 +5,7 @@ import { roadRouteSchema, routeProfileSchema } from '@shared/domain/road-routes'
 import { seedDemoPeople } from '../../../api/demo/demo-people';
 import { DEMO_ROADS, seedDemoTerrain } from '../../../api/demo/demo-terrain';
 import { runtimeOf } from '../../../api/app-runtime';
-import { closeTerrainRuntime } from '../../../api/terrain/terrain-runtime';
-import { createTestContext, type TestContext } from '../../support/test-app';
+import { createTestContext, emptyAndCloseTestContext, type TestContext } from '../../support/test-app';
 import { sessionCookies } from '../../support/session-cookie';
 import { truncateAll } from '../../support/test-database';
 import { aRouteDraft, eastwardLine } from '../../support/road-route-builders';
@@ -28,12 +27,7 @@ describe('the elevation profile of a saved route version', () => {
     planner = await cookieFor('planner');
   }, 120_000);
 
-  afterAll(async () => {
-    await truncateAll(context.db);
-    await closeTerrainRuntime(context.deps);
-    await context.close();
-    temp.remove();
-  });
+  afterAll(() => emptyAndCloseTestContext(context, temp));
 
   async function aRoute(geometry = eastwardLine({ lengthM: 3_000, dropM: 240, topM: 1_500 })) {
     const created = await request(context.app)

@@ -6,9 +6,8 @@ import { seedDemoPeople } from '../../../api/demo/demo-people';
 import { DEMO_ROADS, seedDemoTerrain } from '../../../api/demo/demo-terrain';
 import { terrainDependents } from '../../../api/db/schema/index';
 import { countScenariosUsingTerrain } from '../../../api/terrain/terrain-repository';
-import { closeTerrainRuntime } from '../../../api/terrain/terrain-runtime';
 import { ensureVehiclePresets } from '../../../api/vehicle-profiles/vehicle-presets-seed';
-import { createTestContext, type TestContext } from '../../support/test-app';
+import { createTestContext, emptyAndCloseTestContext, type TestContext } from '../../support/test-app';
 import { sessionCookies } from '../../support/session-cookie';
 import { truncateAll } from '../../support/test-database';
 import { tempDir } from '../terrain/support/gdal';
@@ -32,12 +31,7 @@ describe('scenarios computed on uploaded terrain', () => {
     terrainId = models.body.items[0].id;
   }, 120_000);
 
-  afterAll(async () => {
-    await truncateAll(context.db);
-    await closeTerrainRuntime(context.deps);
-    await context.close();
-    temp.remove();
-  });
+  afterAll(() => emptyAndCloseTestContext(context, temp));
 
   it('keeps the terrain from being deleted while a scenario computed on it exists, then releases it', async () => {
     const planner = await cookieFor('planner');

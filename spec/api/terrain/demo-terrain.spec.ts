@@ -3,8 +3,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { DEMO_ROADS, DEMO_TERRAIN_NAME, makeDemoTerrainTiff, seedDemoTerrain } from '../../../api/demo/demo-terrain';
 import { seedDemoPeople } from '../../../api/demo/demo-people';
 import { sampleElevations } from '../../../api/terrain/raster/elevation-sampler';
-import { closeTerrainRuntime } from '../../../api/terrain/terrain-runtime';
-import { createTestContext, type TestContext } from '../../support/test-app';
+import { createTestContext, emptyAndCloseTestContext, type TestContext } from '../../support/test-app';
 import { countRows, truncateAll } from '../../support/test-database';
 import { gdalInfo, hasGdal, tempDir } from './support/gdal';
 
@@ -18,12 +17,7 @@ describe('demo terrain (Korvel valley)', () => {
     await seedDemoPeople(context.db);
   });
 
-  afterAll(async () => {
-    await truncateAll(context.db);
-    await closeTerrainRuntime(context.deps);
-    await context.close();
-    temp.remove();
-  });
+  afterAll(() => emptyAndCloseTestContext(context, temp));
 
   it('is the same file every time (deterministic generator)', () => {
     expect(makeDemoTerrainTiff().equals(makeDemoTerrainTiff())).toBe(true);

@@ -4,11 +4,11 @@ import { PNG } from 'pngjs';
 import request from 'supertest';
 import { afterAll, beforeAll, beforeEach, describe, expect, it } from 'vitest';
 import { addTerrainDependent } from '../../../api/terrain/terrain-repository';
-import { catalogueVersion, closeTerrainRuntime } from '../../../api/terrain/terrain-runtime';
+import { catalogueVersion } from '../../../api/terrain/terrain-runtime';
 import { TILE_ENCODING } from '../../../api/terrain/tiles/tile-kernel.mjs';
 import { recoverTerrain } from '../../../api/terrain/terrain-service';
 import { terrainModels } from '../../../api/db/schema/index';
-import { createTestContext, signedInAgent, type TestContext } from '../../support/test-app';
+import { createTestContext, emptyAndCloseTestContext, signedInAgent, type TestContext } from '../../support/test-app';
 import { countRows, truncateAll } from '../../support/test-database';
 import { hasGdal, python, tempDir, writeSyntheticGrid } from './support/gdal';
 import { filesUnder, uploadTerrain, waitUntilIngested, type Agent } from './support/terrain-fixtures';
@@ -42,12 +42,7 @@ describe.skipIf(!hasGdal)('terrain endpoints', () => {
     ({ agent: admin } = await signedInAgent(context.app, context.db, 'admin'));
   });
 
-  afterAll(async () => {
-    await truncateAll(context.db);
-    await closeTerrainRuntime(context.deps);
-    await context.close();
-    temp.remove();
-  });
+  afterAll(() => emptyAndCloseTestContext(context, temp));
 
   describe('POST /api/terrain', () => {
     it('accepts a GeoTIFF with 201 and ingests it to "ready" with statistics and quality notes', async () => {

@@ -1,8 +1,7 @@
 import { execFileSync } from 'node:child_process';
 import { join } from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { closeTerrainRuntime } from '../../../../api/terrain/terrain-runtime';
-import { createTestContext, signedInAgent, type TestContext } from '../../../support/test-app';
+import { createTestContext, emptyAndCloseTestContext, signedInAgent, type TestContext } from '../../../support/test-app';
 import { truncateAll } from '../../../support/test-database';
 import {
   gdalBilinearReference,
@@ -82,12 +81,7 @@ describe.skipIf(!hasGdal)('elevation sampling against GDAL', () => {
     }
   }, 120_000);
 
-  afterAll(async () => {
-    await truncateAll(context.db);
-    await closeTerrainRuntime(context.deps);
-    await context.close();
-    temp.remove();
-  });
+  afterAll(() => emptyAndCloseTestContext(context, temp));
 
   for (const label of Object.keys(GRIDS)) {
     describe(label, () => {
