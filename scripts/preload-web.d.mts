@@ -2,3 +2,5 @@
 export function staticImports(code: string): string[];
 export function dynamicImports(code: string): string[];
 export function addPreloads(root: string): string[];
+export function textFonts(css: string, family?: string): string[];
+export function addFontPreloads(root: string): string[];

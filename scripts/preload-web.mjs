@@ -65,8 +65,51 @@ export function addPreloads(root) {
   return added;
 }
 
+const FONT_PRELOAD = /<link rel="preload" as="font"/;
+
+/**
+ * The text fonts every page draws with: the woff2 files of the global stylesheet's `@font-face`
+ * rules for `family` that have no `unicode-range` (the Latin sets, one per weight; the extended
+ * sets are only fetched for a character outside Latin).
+ */
+export function textFonts(css, family = 'Noto Sans') {
+  return [...css.matchAll(/@font-face\s*\{([^}]*)\}/g)]
+    .map((match) => match[1])
+    .filter((rule) => new RegExp(`font-family:\\s*["']?${family}["']?\\s*;`).test(rule) && !/unicode-range/.test(rule))
+    .map((rule) => /url\(["']?\.?\/?([^"')]+\.woff2)["']?\)/.exec(rule)?.[1])
+    .filter((name) => name !== undefined);
+}
+
+/**
+ * Adds `<link rel="preload" as="font">` for the text fonts to `root`/index.html, after the
+ * script preloads; returns the files added (none when they are there already).
+ *
+ * Why: a font is asked for only once a text in its weight has been laid out, that is once
+ * Angular has rendered the page; the text then waits for it (font-display: swap still holds the
+ * paint for a short block period) and is laid out again when it comes. Asked for with the
+ * scripts, the three weights are there before the first render.
+ */
+export function addFontPreloads(root) {
+  const indexPath = join(root, 'index.html');
+  const html = readFileSync(indexPath, 'utf8');
+  if (FONT_PRELOAD.test(html)) return [];
+  const stylesName = readdirSync(root).find((name) => /^styles-[A-Z0-9]+\.css$/.test(name));
+  if (!stylesName) throw new Error(`no styles-*.css in ${root}`);
+  const fonts = textFonts(readFileSync(join(root, stylesName), 'utf8'));
+  if (fonts.length === 0) throw new Error(`${stylesName} declares no text font: has the font package changed?`);
+  const links = [...html.matchAll(PRELOAD)];
+  const last = links.at(-1);
+  if (!last) throw new Error('index.html has no modulepreload links to add to: has the Angular build changed?');
+  const at = last.index + last[0].length;
+  const extra = fonts.map((name) => `<link rel="preload" as="font" type="font/woff2" href="${name}" crossorigin>`).join('');
+  writeFileSync(indexPath, html.slice(0, at) + extra + html.slice(at));
+  return fonts;
+}
+
 if (import.meta.url === pathToFileURL(process.argv[1] ?? '').href) {
   const root = resolve(process.argv[2] ?? 'dist/web/browser');
   const added = addPreloads(root);
   console.log(`index.html: ${added.length} more scripts preloaded (the static imports of what main loads at once)`);
+  const fonts = addFontPreloads(root);
+  console.log(`index.html: ${fonts.length} text fonts preloaded (${fonts.join(', ')})`);
 }

@@ -2,7 +2,7 @@ import { mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { afterEach, describe, expect, it } from 'vitest';
-import { addPreloads, dynamicImports, staticImports } from '../../scripts/preload-web.mjs';
+import { addFontPreloads, addPreloads, dynamicImports, staticImports, textFonts } from '../../scripts/preload-web.mjs';
 
 let dir = '';
 afterEach(() => rmSync(dir, { recursive: true, force: true }));
@@ -58,5 +58,41 @@ describe('preload links for the scripts the first page needs', () => {
     const root = builtApp();
     writeFileSync(join(root, 'main-AAA.js'), 'import"./chunk-ZOD.js";start();');
     expect(() => addPreloads(root)).toThrow(/imports nothing dynamically/);
+  });
+});
+
+/** The global stylesheet's font rules as the build writes them (fontsource's Latin and extended sets, the icon font). */
+const STYLES =
+  '@font-face{font-family:Noto Sans;font-style:normal;font-display:swap;font-weight:400;src:url("./media/noto-sans-latin-400-normal-AAAAAAAA.woff2") format("woff2"),url("./media/noto-sans-latin-400-normal-BBBBBBBB.woff") format("woff")}' +
+  '@font-face{font-family:Noto Sans;font-style:normal;font-display:swap;font-weight:700;src:url("./media/noto-sans-latin-700-normal-CCCCCCCC.woff2") format("woff2")}' +
+  '@font-face{font-family:Noto Sans;font-style:normal;font-display:swap;font-weight:400;src:url("./media/noto-sans-latin-ext-400-normal-DDDDDDDD.woff2") format("woff2");unicode-range:U+0100-02BA}' +
+  '@font-face{font-family:Material Symbols Outlined;font-style:normal;font-display:block;font-weight:400;src:url("./media/material-symbols-outlined-app-EEEEEEEE.woff2") format("woff2")}' +
+  'body{font-family:Noto Sans,sans-serif}';
+
+describe('preload links for the text fonts', () => {
+  it('names the Latin woff2 file of each text weight, not the extended sets, the woff fallbacks or the icon font', () => {
+    expect(textFonts(STYLES)).toEqual([
+      'media/noto-sans-latin-400-normal-AAAAAAAA.woff2',
+      'media/noto-sans-latin-700-normal-CCCCCCCC.woff2',
+    ]);
+  });
+
+  it('adds them after the script preloads, as fonts fetched the way the stylesheet will ask for them, once', () => {
+    const root = builtApp();
+    writeFileSync(join(root, 'styles-ABCDEFGH.css'), STYLES);
+    addPreloads(root);
+    expect(addFontPreloads(root)).toHaveLength(2);
+    const html = readFileSync(join(root, 'index.html'), 'utf8');
+    expect(html).toContain(
+      '<link rel="modulepreload" href="chunk-RX.js"><link rel="preload" as="font" type="font/woff2" href="media/noto-sans-latin-400-normal-AAAAAAAA.woff2" crossorigin><link rel="preload" as="font" type="font/woff2" href="media/noto-sans-latin-700-normal-CCCCCCCC.woff2" crossorigin>',
+    );
+    expect(addFontPreloads(root)).toEqual([]);
+    expect(readFileSync(join(root, 'index.html'), 'utf8')).toBe(html);
+  });
+
+  it('refuses a stylesheet without the text font rather than writing a page without them', () => {
+    const root = builtApp();
+    writeFileSync(join(root, 'styles-ABCDEFGH.css'), 'body{font-family:sans-serif}');
+    expect(() => addFontPreloads(root)).toThrow(/declares no text font/);
   });
 });
