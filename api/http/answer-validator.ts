@@ -179,7 +179,8 @@ export async function answerByIdentity(req: Request, res: Response, options: Ide
 function sendWithEtag(req: Request, res: Response, etag: string, answer: KeptAnswer, kept: BuiltAnswers | undefined): void {
   res.setHeader('Cache-Control', REVALIDATED_CACHE_CONTROL);
   res.setHeader('ETag', etag);
+  const grew = (before: number) => kept?.grew(etag, before, answer);
   const before = sizeOf(answer);
-  sendKeptAnswer(req, res, answer);
-  kept?.grew(etag, before);
+  sendKeptAnswer(req, res, answer, grew);
+  grew(before);
 }

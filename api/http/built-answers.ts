@@ -54,10 +54,14 @@ export class BuiltAnswers {
     this.trim();
   }
 
-  /** Counts compressed copies made after the answer was kept (sendKeptAnswer adds them to the entry). */
-  grew(etag: string, before: number): void {
+  /**
+   * Counts compressed copies made after the answer was kept (sendKeptAnswer adds them to the
+   * entry, some later, off the event loop): `before` is the size of `changed` before, and nothing
+   * is counted when the entry kept under `etag` is no longer that one.
+   */
+  grew(etag: string, before: number, changed: KeptAnswer): void {
     const entry = this.entries.get(etag);
-    if (!entry) return;
+    if (!entry || entry !== changed) return;
     this.bytes += sizeOf(entry) - before;
     this.trim();
   }

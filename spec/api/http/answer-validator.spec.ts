@@ -1,6 +1,7 @@
 import express, { Router } from 'express';
 import request from 'supertest';
-import { describe, expect, it } from 'vitest';
+import { describe, expect, it, vi } from 'vitest';
+import { BEST_BROTLI_FROM_BYTES } from '../../../api/http/answer-cache';
 import { answerEtag, identityEtag, ifNoneMatchHolds, revalidatedAnswer, serverCodeVersion } from '../../../api/http/answer-validator';
 import { BuiltAnswers } from '../../../api/http/built-answers';
 import { endpoint, mountEndpoint } from '../../../api/http/endpoint';
@@ -259,6 +260,50 @@ describe('revalidated answers with an ETag from what they depend on', () => {
     expect(identityEtag('/api/items/:id', 'planner', ['item', '1'])).not.toBe(etag);
     // Run from the sources, each process counts as new code.
     expect(serverCodeVersion()).toMatch(/^sources-/);
+  });
+
+  it('sends a large kept answer at a quick brotli quality first and at the best one, made in the background, to later visits', async () => {
+    const spec = appWithIdentifiedRead();
+    // A profile-like series: numbers along a smooth line, as a stored result's are.
+    spec.item.name = Array.from({ length: 12_000 }, (_, i) => (700 + Math.sin(i / 50) * 120 + ((i * 7919) % 13) / 10).toFixed(2)).join(',');
+    // supertest decodes the body; Content-Length is the size on the wire.
+    const visit = () => request(spec.app).get('/api/items/1').set('x-role', 'planner').set('Accept-Encoding', 'br');
+    const wireBytes = (response: { headers: Record<string, string> }) => Number(response.headers['content-length']);
+
+    const first = await visit();
+    expect(first.headers['content-encoding']).toBe('br');
+    expect(JSON.stringify(first.body).length).toBeGreaterThan(BEST_BROTLI_FROM_BYTES);
+    let later = first;
+    await vi.waitFor(
+      async () => {
+        later = await visit();
+        expect(wireBytes(later)).toBeLessThan(0.8 * wireBytes(first));
+      },
+      { timeout: 10_000, interval: 50 },
+    );
+
+    expect(later.headers['content-encoding']).toBe('br');
+    expect(later.body).toEqual(first.body);
+    expect(later.body).toEqual({ name: spec.item.name, version: 1 });
+    expect(later.headers['etag']).toBe(first.headers['etag']);
+    expect(spec.counts.built).toBe(1);
+  });
+
+  it('counts a compressed copy made later only while the same answer is kept', () => {
+    const kept = new BuiltAnswers(10_000);
+    const answer = { json: Buffer.alloc(1_000) };
+    kept.set('a', answer);
+    const before = 1_000;
+    answer.br = Buffer.alloc(9_500);
+    kept.grew('a', before, answer);
+    // 10 500 bytes kept in a room of 10 000: the answer leaves.
+    expect(kept.get('a')).toBeUndefined();
+
+    const replaced = { json: Buffer.alloc(1_000) };
+    kept.set('b', { json: Buffer.alloc(1_000) });
+    replaced.br = Buffer.alloc(9_500);
+    kept.grew('b', before, replaced);
+    expect(kept.get('b')).toBeDefined();
   });
 
   it('keeps built answers within its room, dropping the least recently used first', () => {
