@@ -121,6 +121,21 @@ describe('RouteEditor', () => {
     return found;
   }
 
+  it('holds the map back from asking for tiles while the route is read, then gives it the route to fit', async () => {
+    const fixture = TestBed.createComponent(RouteEditor);
+    fixture.componentRef.setInput('routeId', ROUTE_ID);
+    fixture.detectChanges();
+    const map = fixture.debugElement.query(By.directive(MapStub)).componentInstance as MapStub;
+    expect(map.placing()).toBe(true);
+    expect(map.fitTo()).toBeNull();
+
+    await settle(fixture);
+    await settle(fixture);
+
+    expect(map.placing()).toBe(false);
+    expect(map.fitTo()).toEqual(ROUTE.geometry.coordinates.map(([lon, lat]) => [lon, lat]));
+  });
+
   it('shows the loaded route in the tables as before: six decimals of a degree, km to the metre, whole seconds and km/h', async () => {
     const { element } = await open();
 

@@ -14,6 +14,7 @@ export class MapStub {
   readonly overlays = input<readonly MapOverlay[]>([]);
   readonly fitTo = input<readonly MapPosition[] | null>(null);
   readonly cursor = input('');
+  readonly placing = input(false);
   readonly highlight = input<MapPosition | null>(null);
   readonly mapClicked = output<MapPosition>();
   readonly overlayMoved = output<MapOverlayEvent>();

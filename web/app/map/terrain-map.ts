@@ -99,6 +99,12 @@ export class TerrainMap {
   readonly fitTo = input<readonly MapPosition[] | null>(null);
   /** Map cursor, e.g. 'crosshair' while drawing. */
   readonly cursor = input<string>('');
+  /**
+   * Whether the page is still finding out where the map is to look (e.g. the route is being
+   * read): no tiles are asked for until then, so none are fetched or shown for a view that is
+   * left at once.
+   */
+  readonly placing = input(false);
 
   /** Emits where a person clicked on the map (not on an interactive overlay). */
   readonly mapClicked = output<MapPosition>();
@@ -123,54 +129,34 @@ export class TerrainMap {
     this.basemapVersion.ensureLoaded();
     afterNextRender(() => this.createMap());
 
-    // The base map's layers follow the active extract (a new one changes the tile version) and
-    // the layer switch.
-    let baseLayers: L.Layer[] = [];
-    let shownVersion: string | null = null;
+    // The view first: when the page's place and the layers' versions arrive together, the tiles are
+    // asked for where the map is to look.
     effect(() => {
       const map = this.map();
-      const state = this.basemapVersion.state();
-      const layers = this.layers();
-      if (!map) return;
-      untracked(() => {
-        const version = state?.version ?? null;
-        if (version !== shownVersion) {
-          for (const layer of baseLayers) layer.remove();
-          baseLayers = version ? createBaseLayers(version, state?.attribution ?? null) : [];
-          shownVersion = version;
-        }
-        const showBase = version !== null && layers !== 'terrain';
-        const showTerrain = version === null || layers !== 'base';
-        for (const layer of baseLayers) {
-          if (showBase && !map.hasLayer(layer)) layer.addTo(map);
-          if (!showBase) layer.remove();
-        }
-        map.getContainer().classList.toggle('app-map-blended', showBase && showTerrain);
-        this.layerControl?.update(version !== null, layers);
-      });
+      const positions = this.fitTo();
+      // Until tiles are on show there is nothing to animate: the view jumps to its place, and the
+      // first tiles are asked for there rather than at the end of a zoom animation.
+      if (map && positions) fitView(map, positions, this.hasTiles(map));
     });
-    // The terrain layer: on the map when the layer switch wants it, and only once the catalogue
-    // version is known, with it in the tile URL; new or removed terrain models change the version
-    // and the tiles on show are fetched again.
-    let shownTerrainUrl: string | null = null;
+    // The layers follow the catalogues' versions (new terrain models or another active extract
+    // change the tile addresses) and the layer switch. The terrain's effect comes first: when both
+    // versions arrive together its tiles are asked for before the base map's, so the relief (the
+    // biggest thing the map paints) does not queue behind the base tiles for a connection.
     effect(() => {
       const map = this.map();
-      const settled = this.tilesVersion.settled();
-      const url = terrainTileUrl(this.tilesVersion.version());
-      const showTerrain = (this.basemapVersion.state()?.version ?? null) === null || this.layers() !== 'base';
-      if (!map || !settled) return;
-      untracked(() => {
-        if (!showTerrain) {
-          this.tileLayer.remove();
-          return;
-        }
-        const onMap = map.hasLayer(this.tileLayer);
-        if (url !== shownTerrainUrl) {
-          this.tileLayer.setUrl(url, !onMap);
-          shownTerrainUrl = url;
-        }
-        if (!onMap) this.tileLayer.addTo(map);
-      });
+      this.tilesVersion.settled();
+      this.tilesVersion.version();
+      this.basemapVersion.state();
+      this.layers();
+      this.placing();
+      if (map) untracked(() => this.showTerrain(map));
+    });
+    effect(() => {
+      const map = this.map();
+      this.basemapVersion.state();
+      this.layers();
+      this.placing();
+      if (map) untracked(() => this.showBase(map));
     });
     inject(DestroyRef).onDestroy(() => this.map()?.remove());
 
@@ -205,12 +191,6 @@ export class TerrainMap {
 
     effect(() => {
       const map = this.map();
-      const positions = this.fitTo();
-      if (map && positions) fitView(map, positions);
-    });
-
-    effect(() => {
-      const map = this.map();
       if (map) map.getContainer().style.cursor = this.cursor();
     });
   }
@@ -222,6 +202,59 @@ export class TerrainMap {
   }
 
   private layerControl: LayerSwitch | null = null;
+  /** Whether the element's size has been reported once (no tiles before, see `createMap`). */
+  private sized = false;
+  private baseLayers: L.Layer[] = [];
+  private shownBaseVersion: string | null = null;
+  private shownTerrainUrl: string | null = null;
+
+  /**
+   * The terrain layer: on the map when the layer switch wants it, and only once the catalogue
+   * version is known, with it in the tile URL (so a first batch is never fetched unversioned and
+   * then again); new or removed terrain models change the version and the tiles on show are
+   * fetched again.
+   */
+  private showTerrain(map: L.Map): void {
+    if (!this.sized || !this.tilesVersion.settled() || this.placing()) return;
+    const url = terrainTileUrl(this.tilesVersion.version());
+    const showTerrain = (this.basemapVersion.state()?.version ?? null) === null || this.layers() !== 'base';
+    if (!showTerrain) {
+      this.tileLayer.remove();
+      return;
+    }
+    const onMap = map.hasLayer(this.tileLayer);
+    if (url !== this.shownTerrainUrl) {
+      this.tileLayer.setUrl(url, !onMap);
+      this.shownTerrainUrl = url;
+    }
+    if (!onMap) this.tileLayer.addTo(map);
+  }
+
+  /** Whether any tiles are on the map (a change of view is then animated). */
+  private hasTiles(map: L.Map): boolean {
+    return map.hasLayer(this.tileLayer) || this.baseLayers.some((layer) => map.hasLayer(layer));
+  }
+
+  /** The base map's two layers, for the active extract (its version is in the tile URL) and the layer switch. */
+  private showBase(map: L.Map): void {
+    if (!this.sized || this.placing()) return;
+    const state = this.basemapVersion.state();
+    const layers = this.layers();
+    const version = state?.version ?? null;
+    if (version !== this.shownBaseVersion) {
+      for (const layer of this.baseLayers) layer.remove();
+      this.baseLayers = version ? createBaseLayers(version, state?.attribution ?? null) : [];
+      this.shownBaseVersion = version;
+    }
+    const showBase = version !== null && layers !== 'terrain';
+    const showTerrain = version === null || layers !== 'base';
+    for (const layer of this.baseLayers) {
+      if (showBase && !map.hasLayer(layer)) layer.addTo(map);
+      if (!showBase) layer.remove();
+    }
+    map.getContainer().classList.toggle('app-map-blended', showBase && showTerrain);
+    this.layerControl?.update(version !== null, layers);
+  }
 
   private createMap(): void {
     const element = this.host.nativeElement;
@@ -229,7 +262,7 @@ export class TerrainMap {
     // The first view is where the map is to look if that is known already (the page had its data
     // before the map's code arrived), so no tiles are fetched for a view that is left at once.
     const positions = untracked(this.fitTo);
-    if (!positions || !fitView(map, positions)) map.setView(FALLBACK_VIEW.center, FALLBACK_VIEW.zoom);
+    if (!positions || !fitView(map, positions, false)) map.setView(FALLBACK_VIEW.center, FALLBACK_VIEW.zoom);
     // Base map below the terrain's tile pane (200), its labels above the terrain and below the overlays (400).
     map.createPane('app-basemap').style.zIndex = '150';
     map.createPane('app-basemap-labels').style.zIndex = '350';
@@ -238,8 +271,21 @@ export class TerrainMap {
     this.layerControl = new LayerSwitch((layers) => this.layerPreference.set(layers));
     this.layerControl.addTo(map);
     map.on('click', (event: L.LeafletMouseEvent) => this.mapClicked.emit(fromLatLng(event.latlng)));
-    // The element may be sized by a grid that settles after the first frame.
-    const resizeObserver = new ResizeObserver(() => map.invalidateSize());
+    // The element may be sized by a layout that settles after the first frame (the page's shell
+    // and grid). Tiles are asked for from the observer's first report on, when the size is the
+    // element's own: the first view is fitted again at that size, then the layers go on at once,
+    // terrain first, instead of a change detection later.
+    const resizeObserver = new ResizeObserver(() => {
+      map.invalidateSize();
+      if (this.sized) return;
+      this.sized = true;
+      untracked(() => {
+        const first = this.fitTo();
+        if (first) fitView(map, first, false);
+        this.showTerrain(map);
+        this.showBase(map);
+      });
+    });
     resizeObserver.observe(element);
     map.on('unload', () => resizeObserver.disconnect());
     this.map.set(map);
@@ -325,7 +371,14 @@ function createBaseLayers(version: string, attribution: string | null): L.Layer[
   }) as unknown as L.Layer;
   // A label tile of another zoom, stretched while the new ones are drawn, shows letters many
   // times their size: the labels layer keeps no tiles of other zooms (Leaflet's GridLayer hooks).
-  Object.assign(labels, { _retainParent: () => false, _retainChildren: () => undefined });
+  // Both layers draw the same vector tiles: the labels read them through the painted layer's tile
+  // cache (`views`, which merges requests in flight and keeps the parsed tiles), so each tile is
+  // fetched and parsed once instead of once per layer.
+  Object.assign(labels, {
+    _retainParent: () => false,
+    _retainChildren: () => undefined,
+    views: (painted as unknown as { views: unknown }).views,
+  });
   return [painted, labels];
 }
 
@@ -396,15 +449,15 @@ function pinDot(color: string): HTMLElement {
 }
 
 /**
- * Shows `positions`: one at (at least) street zoom, several with all of them in view. False when
- * there is nothing to show.
+ * Shows `positions`: one at (at least) street zoom, several with all of them in view, animated
+ * or not. False when there is nothing to show.
  */
-function fitView(map: L.Map, positions: readonly MapPosition[]): boolean {
+function fitView(map: L.Map, positions: readonly MapPosition[], animate: boolean): boolean {
   if (positions.length === 0) return false;
   if (positions.length === 1) {
-    map.setView(toLatLng(positions[0]!), Math.max(map.getZoom() || 0, 14));
+    map.setView(toLatLng(positions[0]!), Math.max(map.getZoom() || 0, 14), { animate });
   } else {
-    map.fitBounds(L.latLngBounds(positions.map(toLatLng)), { padding: [24, 24], maxZoom: 16 });
+    map.fitBounds(L.latLngBounds(positions.map(toLatLng)), { padding: [24, 24], maxZoom: 16, animate });
   }
   return true;
 }

@@ -4,9 +4,10 @@ import { uuidParams } from '../core/uuid-params';
 import { routeEditorFirstReads } from './route-paths';
 
 /**
- * The editor's map is most of what it shows: its code (Leaflet and the base-map renderer) starts
- * loading with the editor's own instead of after the editor's first paint, when the deferred block
- * would ask for it (the browser loads the module once; a failure is left to that block).
+ * The editor's map is most of what it shows and is made with the editor's first render: its code
+ * (Leaflet and the base-map renderer, a chunk of its own that the editor imports) starts loading
+ * with the editor's own instead of only once the browser has read the editor's chunk and found
+ * the import (the browser loads the module once; a failure is left to the editor's import).
  */
 function loadRouteEditor() {
   import('../map/terrain-map').catch(() => undefined);

@@ -132,8 +132,6 @@ export default class RouteEditor {
   protected readonly canRedo = this.store.canRedo;
   protected readonly tool = signal<EditorTool>('draw');
   protected readonly selectedVertex = signal<number | null>(null);
-  // By template reference, not by class: the map is deferred (@defer), so its class must not be
-  // needed before it loads.
   private readonly terrainMap = viewChild<TerrainMap>('terrainMap');
   /** Whether new and moved vertices follow the roads (on by default wherever there are roads). */
   protected readonly snapToNetwork = signal(true);
@@ -178,6 +176,13 @@ export default class RouteEditor {
   /** First end of a speed-limit stretch placed on the map, m along the route. */
   protected readonly pendingLimitFromM = signal<number | null>(null);
   protected readonly fitTo = signal<MapPosition[] | null>(null);
+  /**
+   * Whether the map waits for the route's place before it asks for tiles: while a saved route is
+   * being read (a failed read leaves the map where it is, with its tiles).
+   */
+  protected readonly mapPlacing = computed(
+    () => this.routeId() !== undefined && this.fitTo() === null && this.loadState().status !== 'error',
+  );
   protected readonly hoverX = signal<number | null>(null);
 
   protected readonly isPlanner = computed(() => this.session.can('routes.edit'));
