@@ -1,7 +1,7 @@
 import express, { Router } from 'express';
 import request from 'supertest';
 import { describe, expect, it, vi } from 'vitest';
-import { BEST_BROTLI_FROM_BYTES } from '../../../api/http/answer-cache';
+import { BEST_BROTLI_FROM_BYTES, type KeptAnswer } from '../../../api/http/answer-cache';
 import { answerEtag, identityEtag, ifNoneMatchHolds, revalidatedAnswer, serverCodeVersion } from '../../../api/http/answer-validator';
 import { BuiltAnswers } from '../../../api/http/built-answers';
 import { endpoint, mountEndpoint } from '../../../api/http/endpoint';
@@ -291,7 +291,7 @@ describe('revalidated answers with an ETag from what they depend on', () => {
 
   it('counts a compressed copy made later only while the same answer is kept', () => {
     const kept = new BuiltAnswers(10_000);
-    const answer = { json: Buffer.alloc(1_000) };
+    const answer: KeptAnswer = { json: Buffer.alloc(1_000) };
     kept.set('a', answer);
     const before = 1_000;
     answer.br = Buffer.alloc(9_500);
@@ -299,7 +299,7 @@ describe('revalidated answers with an ETag from what they depend on', () => {
     // 10 500 bytes kept in a room of 10 000: the answer leaves.
     expect(kept.get('a')).toBeUndefined();
 
-    const replaced = { json: Buffer.alloc(1_000) };
+    const replaced: KeptAnswer = { json: Buffer.alloc(1_000) };
     kept.set('b', { json: Buffer.alloc(1_000) });
     replaced.br = Buffer.alloc(9_500);
     kept.grew('b', before, replaced);
