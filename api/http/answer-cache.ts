@@ -1,5 +1,6 @@
 import { brotliCompress, brotliCompressSync, constants as zlibConstants, gzipSync } from 'node:zlib';
 import type { Request, RequestHandler, Response } from 'express';
+import Negotiator from 'negotiator';
 import type { Sql } from 'postgres';
 import type { User } from '@shared/domain/auth';
 import { AnnouncementLine } from '../db/announcement-line';
@@ -181,7 +182,9 @@ export function sendKeptAnswer(req: Request, res: Response, entry: KeptAnswer, g
   let body = entry.json;
   let encoding: 'br' | 'gzip' | undefined;
   if (entry.json.length >= COMPRESS_FROM_BYTES) {
-    const accepted = req.acceptsEncodings('br', 'gzip', 'identity');
+    // Browsers send `gzip, deflate, br, zstd` without weights: among encodings rated alike brotli
+    // wins (as in the compression middleware), not the first the client lists.
+    const accepted = new Negotiator(req).encoding(['br', 'gzip', 'identity'], { preferred: ['br', 'gzip'] });
     if (accepted === 'br') {
       if (!entry.br) {
         entry.br = brotliCompressSync(entry.json, {

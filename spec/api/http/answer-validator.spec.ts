@@ -289,6 +289,22 @@ describe('revalidated answers with an ETag from what they depend on', () => {
     expect(spec.counts.built).toBe(1);
   });
 
+  it('sends a kept answer as brotli to a browser that lists gzip first without weights, and as the client rates it otherwise', async () => {
+    const spec = appWithIdentifiedRead();
+    spec.item.name = 'Pass descent, '.repeat(200);
+    const visit = (acceptEncoding: string) =>
+      request(spec.app).get('/api/items/1').set('x-role', 'planner').set('Accept-Encoding', acceptEncoding).expect(200);
+
+    // What Chromium and Firefox send.
+    const browser = await visit('gzip, deflate, br, zstd');
+    expect(browser.headers['content-encoding']).toBe('br');
+    expect(browser.body).toEqual({ name: spec.item.name, version: 1 });
+    expect((await visit('gzip;q=1, br;q=0.5')).headers['content-encoding']).toBe('gzip');
+    expect((await visit('gzip, deflate')).headers['content-encoding']).toBe('gzip');
+    expect((await visit('identity')).headers['content-encoding']).toBeUndefined();
+    expect(spec.counts.built).toBe(1);
+  });
+
   it('counts a compressed copy made later only while the same answer is kept', () => {
     const kept = new BuiltAnswers(10_000);
     const answer: KeptAnswer = { json: Buffer.alloc(1_000) };
