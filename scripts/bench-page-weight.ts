@@ -7,7 +7,10 @@
  * demo's first computed scenario), signed in as the demo planner where the page needs it:
  * - first visit: a fresh browser profile (empty cache) opens the page;
  * - repeat visit: a new tab of the same profile opens it again later (as after a restart of the
- *   browser: nothing in the memory cache of the tab, the disk cache as the first visit left it).
+ *   browser: nothing in the memory cache of the tab, the disk cache as the first visit left it);
+ * - after sign-in (pages that need a session): a fresh profile opens the sign-in page, then, signed
+ *   in, the page in a new tab: a person's first visit of it, with what the sign-in page loaded
+ *   (fonts, Angular's own scripts) in the browser's cache.
  * Bytes are what came over the wire (Chromium's encodedDataLength: headers and compressed bodies);
  * requests count everything the page asked for, those answered from the browser cache included;
  * LCP is the largest contentful paint the page reports. `runs` (default 3) of each; the table
@@ -67,6 +70,11 @@ try {
     { name: 'scenario result', path: `/scenarios/${scenario.id}`, signedIn: true },
   ];
 
+  async function addSessionCookie(context: BrowserContext): Promise<void> {
+    const [name, value] = cookie.split('=') as [string, string];
+    await context.addCookies([{ name, value, url: instance.baseUrl, httpOnly: true, sameSite: 'Strict' }]);
+  }
+
   /** Runs `use` in a new browser profile (empty cache), signed in as the planner or not, then deletes the profile. */
   async function inFreshBrowser(signedIn: boolean, use: (context: BrowserContext) => Promise<unknown>): Promise<void> {
     const profile = mkdtempSync(join(tmpdir(), 'descentry-bench-browser-'));
@@ -76,10 +84,7 @@ try {
       args: CHROMIUM_ARGS,
     });
     try {
-      if (signedIn) {
-        const [name, value] = cookie.split('=') as [string, string];
-        await context.addCookies([{ name, value, url: instance.baseUrl, httpOnly: true, sameSite: 'Strict' }]);
-      }
+      if (signedIn) await addSessionCookie(context);
       await use(context);
     } finally {
       await context.close();
@@ -95,48 +100,34 @@ try {
 
   const rows: string[] = [];
   const load = loadavg()[0]!;
+  const signInPath = pages[0]!.path;
   for (const page of pages) {
     const first: Visit[] = [];
     const repeat: Visit[] = [];
+    const afterSignIn: Visit[] = [];
     for (let run = 0; run < RUNS; run++) {
       await inFreshBrowser(page.signedIn, async (context) => {
         first.push(await visit(context, `${instance.baseUrl}${page.path}`));
         if (LIST_FILES && run === 0) printFiles(page.name, first[0]!.files);
         repeat.push(await visit(context, `${instance.baseUrl}${page.path}`));
       });
+      // As a person comes to it: the sign-in page first (its files, fonts and Angular's own
+      // scripts then in the browser's cache), then the page in a new tab once signed in.
+      if (page.signedIn) {
+        await inFreshBrowser(false, async (context) => {
+          await visit(context, `${instance.baseUrl}${signInPath}`);
+          await addSessionCookie(context);
+          afterSignIn.push(await visit(context, `${instance.baseUrl}${page.path}`));
+        });
+      }
     }
     for (const [kind, visits] of [
       ['first', first],
       ['repeat', repeat],
+      ['after sign-in', afterSignIn],
     ] as const) {
-      rows.push(
-        `| ${page.name} | ${kind} | ${range(
-          visits.map((v) => v.bytes / 1024),
-          1,
-        )} kB | ${range(
-          visits.map((v) => v.requests),
-          0,
-        )} ` +
-          `(${range(
-            visits.map((v) => v.fromCache),
-            0,
-          )} from cache) | ${range(
-            visits.map((v) => v.appBytes / 1024),
-            1,
-          )} kB | ` +
-          `${range(
-            visits.map((v) => v.apiBytes / 1024),
-            1,
-          )} kB | ${range(
-            visits.map((v) => v.tileBytes / 1024),
-            1,
-          )} kB | ` +
-          `${range(
-            visits.map((v) => v.lcpMs),
-            0,
-          )} ms |`,
-      );
-      console.log(rows.at(-1));
+      if (visits.length > 0) rows.push(tableRow(page.name, kind, visits));
+      if (visits.length > 0) console.log(rows.at(-1));
     }
   }
   console.log(
@@ -200,6 +191,20 @@ async function visit(context: BrowserContext, url: string): Promise<Visit> {
   );
   await page.close();
   return { ...totals, lcpMs, files };
+}
+
+/** One row of the table: the ranges over `visits` of one page and kind of visit. */
+function tableRow(pageName: string, kind: string, visits: Visit[]): string {
+  const kB = (pick: (visit: Visit) => number) =>
+    range(
+      visits.map((visit) => pick(visit) / 1024),
+      1,
+    );
+  const count = (pick: (visit: Visit) => number) => range(visits.map(pick), 0);
+  return (
+    `| ${pageName} | ${kind} | ${kB((v) => v.bytes)} kB | ${count((v) => v.requests)} (${count((v) => v.fromCache)} from cache) | ` +
+    `${kB((v) => v.appBytes)} kB | ${kB((v) => v.apiBytes)} kB | ${kB((v) => v.tileBytes)} kB | ${count((v) => v.lcpMs)} ms |`
+  );
 }
 
 /** Resolves once nothing has been in flight for `quietMs` (at most 15 s). */
