@@ -33,17 +33,25 @@ describe('base map and snapped routes', () => {
     const { page } = browser;
     const baseTiles: Response[] = [];
     const outside: string[] = [];
+    /** Which layer's tiles were asked for, in order. */
+    const tilesAsked: ('terrain' | 'base')[] = [];
     page.on('response', (response) => {
       if (response.url().includes('/api/tiles/base/')) baseTiles.push(response);
     });
     page.on('request', (request) => {
       if (!request.url().startsWith(BASE_URL) && !request.url().startsWith('data:') && !request.url().startsWith('blob:'))
         outside.push(request.url());
+      if (request.url().includes('/api/tiles/terrain/')) tilesAsked.push('terrain');
+      if (request.url().includes('/api/tiles/base/')) tilesAsked.push('base');
     });
     await page.goto(`${BASE_URL}/routes/new`);
     await page.getByRole('heading', { level: 1, name: 'New route' }).waitFor();
     await page.locator('.leaflet-tile-loaded').first().waitFor();
     assert.equal(await page.getByRole('radio', { name: 'Base map and terrain' }).isChecked(), true);
+    // The relief, the largest thing the map paints, is asked for first; the base map follows.
+    await waitForCount(page.locator('.leaflet-app-basemap-pane canvas'), (count) => count > 0);
+    assert.equal(tilesAsked[0], 'terrain', `the terrain's tiles are asked for first (${tilesAsked.slice(0, 6).join(', ')})`);
+    assert.ok(tilesAsked.includes('base'));
     // Snapping is on by default where there are roads.
     assert.equal(await page.getByRole('switch', { name: 'Snap to roads' }).isChecked(), true);
 

@@ -26,6 +26,9 @@ export type MapPosition = readonly [number, number];
 /** Our own self-hosted terrain tiles (hillshade with elevation tint); nothing external. */
 export const TERRAIN_TILE_URL = terrainTileUrl(null);
 
+/** How long the base map waits, at most, for the terrain's first tiles (see `holdBaseForTerrain`). */
+const BASE_WAITS_FOR_TERRAIN_MS = 400;
+
 /** Where the map looks before it has anything to show (overridden by `fitTo`). */
 const FALLBACK_VIEW = { center: L.latLng(46.6, 10.4), zoom: 10 };
 
@@ -154,11 +157,15 @@ export class TerrainMap {
     effect(() => {
       const map = this.map();
       this.basemapVersion.state();
+      this.tilesVersion.settled();
       this.layers();
       this.placing();
       if (map) untracked(() => this.showBase(map));
     });
-    inject(DestroyRef).onDestroy(() => this.map()?.remove());
+    inject(DestroyRef).onDestroy(() => {
+      this.destroyed = true;
+      this.map()?.remove();
+    });
 
     const overlayLayer = L.layerGroup();
     effect(() => {
@@ -204,6 +211,11 @@ export class TerrainMap {
   private layerControl: LayerSwitch | null = null;
   /** Whether the element's size has been reported once (no tiles before, see `createMap`). */
   private sized = false;
+  /** Whether the terrain has been on the map (the base map waits for it the first time only). */
+  private terrainShownOnce = false;
+  /** Whether the base map waits for the terrain's first tiles (see `holdBaseForTerrain`). */
+  private baseHeld = false;
+  private destroyed = false;
   private baseLayers: L.Layer[] = [];
   private shownBaseVersion: string | null = null;
   private shownTerrainUrl: string | null = null;
@@ -227,7 +239,30 @@ export class TerrainMap {
       this.tileLayer.setUrl(url, !onMap);
       this.shownTerrainUrl = url;
     }
-    if (!onMap) this.tileLayer.addTo(map);
+    if (!onMap) {
+      this.tileLayer.addTo(map);
+      if (!this.terrainShownOnce) this.holdBaseForTerrain(map);
+    }
+  }
+
+  /**
+   * The first time the terrain goes on, the base map waits until its tiles have loaded (at most
+   * `BASE_WAITS_FOR_TERRAIN_MS`): drawing the vector tiles is main-thread work that would
+   * otherwise delay the painting of the relief, the largest thing on the map.
+   */
+  private holdBaseForTerrain(map: L.Map): void {
+    this.terrainShownOnce = true;
+    if (!this.tileLayer.isLoading()) return;
+    this.baseHeld = true;
+    const release = () => {
+      clearTimeout(timer);
+      this.tileLayer.off('load', release);
+      if (!this.baseHeld) return;
+      this.baseHeld = false;
+      if (!this.destroyed) untracked(() => this.showBase(map));
+    };
+    const timer = setTimeout(release, BASE_WAITS_FOR_TERRAIN_MS);
+    this.tileLayer.on('load', release);
   }
 
   /** Whether any tiles are on the map (a change of view is then animated). */
@@ -235,25 +270,33 @@ export class TerrainMap {
     return map.hasLayer(this.tileLayer) || this.baseLayers.some((layer) => map.hasLayer(layer));
   }
 
-  /** The base map's two layers, for the active extract (its version is in the tile URL) and the layer switch. */
+  /**
+   * The base map's two layers, for the active extract (its version is in the tile URL) and the layer
+   * switch. The first time, the layers wait for the terrain when it is to be shown: its catalogue
+   * (so its tiles are asked for before the base map's), then its first tiles
+   * (`holdBaseForTerrain`). The switch and the blending follow the choice at once meanwhile, so the
+   * relief does not change its look when the base map comes in under it.
+   */
   private showBase(map: L.Map): void {
     if (!this.sized || this.placing()) return;
     const state = this.basemapVersion.state();
     const layers = this.layers();
     const version = state?.version ?? null;
+    const showBase = version !== null && layers !== 'terrain';
+    const showTerrain = version === null || layers !== 'base';
+    map.getContainer().classList.toggle('app-map-blended', showBase && showTerrain);
+    this.layerControl?.update(version !== null, layers);
+    // Only while the terrain is to be shown: a switch to the base map alone shows it at once.
+    if (showTerrain && (this.baseHeld || (!this.terrainShownOnce && !this.tilesVersion.settled()))) return;
     if (version !== this.shownBaseVersion) {
       for (const layer of this.baseLayers) layer.remove();
       this.baseLayers = version ? createBaseLayers(version, state?.attribution ?? null) : [];
       this.shownBaseVersion = version;
     }
-    const showBase = version !== null && layers !== 'terrain';
-    const showTerrain = version === null || layers !== 'base';
     for (const layer of this.baseLayers) {
       if (showBase && !map.hasLayer(layer)) layer.addTo(map);
       if (!showBase) layer.remove();
     }
-    map.getContainer().classList.toggle('app-map-blended', showBase && showTerrain);
-    this.layerControl?.update(version !== null, layers);
   }
 
   private createMap(): void {
