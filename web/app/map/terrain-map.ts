@@ -229,8 +229,7 @@ export class TerrainMap {
   private showTerrain(map: L.Map): void {
     if (!this.sized || !this.tilesVersion.settled() || this.placing()) return;
     const url = terrainTileUrl(this.tilesVersion.version());
-    const showTerrain = (this.basemapVersion.state()?.version ?? null) === null || this.layers() !== 'base';
-    if (!showTerrain) {
+    if (!this.layersShown().terrain) {
       this.tileLayer.remove();
       return;
     }
@@ -265,6 +264,16 @@ export class TerrainMap {
     this.tileLayer.on('load', release);
   }
 
+  /**
+   * Which layers the map shows: the layer switch's choice where there is a base map (an active
+   * extract), the terrain alone where there is none.
+   */
+  private layersShown(): { base: boolean; terrain: boolean } {
+    const hasBaseMap = (this.basemapVersion.state()?.version ?? null) !== null;
+    const layers = this.layers();
+    return { base: hasBaseMap && layers !== 'terrain', terrain: !hasBaseMap || layers !== 'base' };
+  }
+
   /** Whether any tiles are on the map (a change of view is then animated). */
   private hasTiles(map: L.Map): boolean {
     return map.hasLayer(this.tileLayer) || this.baseLayers.some((layer) => map.hasLayer(layer));
@@ -280,12 +289,10 @@ export class TerrainMap {
   private showBase(map: L.Map): void {
     if (!this.sized || this.placing()) return;
     const state = this.basemapVersion.state();
-    const layers = this.layers();
     const version = state?.version ?? null;
-    const showBase = version !== null && layers !== 'terrain';
-    const showTerrain = version === null || layers !== 'base';
+    const { base: showBase, terrain: showTerrain } = this.layersShown();
     map.getContainer().classList.toggle('app-map-blended', showBase && showTerrain);
-    this.layerControl?.update(version !== null, layers);
+    this.layerControl?.update(version !== null, this.layers());
     // Only while the terrain is to be shown: a switch to the base map alone shows it at once.
     if (showTerrain && (this.baseHeld || (!this.terrainShownOnce && !this.tilesVersion.settled()))) return;
     if (version !== this.shownBaseVersion) {
