@@ -19,18 +19,23 @@
  * Before the measured visits the server shows each page once to a browser profile that is then
  * thrown away, so its tile cache is warm as on a server in use: "first visit" is the browser's.
  *
+ * BENCH_BUSY=1 adds a column: how long the tab's main thread was busy (Chromium's tasks on the
+ * renderer's main thread, from a trace of the visit) between the navigation and the largest
+ * contentful paint. Traced visits are a little slower, so the default table is taken untraced.
+ *
  * BENCH_FILES=1 also prints, for each page's first first visit, every file it transferred with
  * its size on the wire, largest first: where the bytes go.
  */
 import { mkdtempSync, rmSync } from 'node:fs';
 import { cpus, loadavg, tmpdir } from 'node:os';
 import { join, resolve } from 'node:path';
-import { chromium, type BrowserContext } from 'playwright-core';
+import { chromium, type BrowserContext, type CDPSession } from 'playwright-core';
 import { DEMO_PASSWORD, DEMO_PEOPLE } from '../api/demo/demo-people';
 import { loadDemo, signIn, startScratchInstance } from './scratch-instance';
 
 const RUNS = Number(process.argv[2] ?? 3);
 const LIST_FILES = process.env['BENCH_FILES'] === '1';
+const TRACE_BUSY = process.env['BENCH_BUSY'] === '1';
 const CHROMIUM_ARGS = [
   '--no-sandbox',
   '--disable-gpu',
@@ -50,6 +55,8 @@ interface Visit {
   requests: number;
   fromCache: number;
   lcpMs: number;
+  /** Milliseconds the renderer's main thread ran tasks before the largest contentful paint (BENCH_BUSY). */
+  busyMs: number;
   /** Bytes on the wire per path (query left out), for BENCH_FILES. */
   files: Map<string, number>;
 }
@@ -133,8 +140,11 @@ try {
   console.log(
     `\n${RUNS} runs each; headless Chromium on loopback; this machine: ${cpus().length} cores, load average ${load.toFixed(1)} at the start, ${loadavg()[0]!.toFixed(1)} at the end`,
   );
-  console.log('| page | visit | transferred | requests | of which app files | API answers | map tiles | largest contentful paint |');
-  console.log('| --- | --- | ---: | ---: | ---: | ---: | ---: | ---: |');
+  console.log(
+    '| page | visit | transferred | requests | of which app files | API answers | map tiles | largest contentful paint |' +
+      (TRACE_BUSY ? ' main thread busy before it |' : ''),
+  );
+  console.log('| --- | --- | ---: | ---: | ---: | ---: | ---: | ---: |' + (TRACE_BUSY ? ' ---: |' : ''));
   for (const row of rows) console.log(row);
 } finally {
   await instance.stop();
@@ -169,6 +179,7 @@ async function visit(context: BrowserContext, url: string): Promise<Visit> {
     else if (path.startsWith('/api/')) totals.apiBytes += event.encodedDataLength;
     else totals.appBytes += event.encodedDataLength;
   });
+  const trace = TRACE_BUSY ? await startTrace(cdp) : null;
   await page.goto(url, { waitUntil: 'networkidle' });
   // The map and the result's charts are deferred: they load right after the first paint. The
   // visit counts them, and what they fetch (tiles), so wait until they have replaced their
@@ -189,8 +200,9 @@ async function visit(context: BrowserContext, url: string): Promise<Visit> {
         setTimeout(() => done(Number.NaN), 3_000);
       }),
   );
+  const busyMs = trace ? await trace.busyBeforeLcp() : Number.NaN;
   await page.close();
-  return { ...totals, lcpMs, files };
+  return { ...totals, lcpMs, busyMs, files };
 }
 
 /** One row of the table: the ranges over `visits` of one page and kind of visit. */
@@ -203,8 +215,54 @@ function tableRow(pageName: string, kind: string, visits: Visit[]): string {
   const count = (pick: (visit: Visit) => number) => range(visits.map(pick), 0);
   return (
     `| ${pageName} | ${kind} | ${kB((v) => v.bytes)} kB | ${count((v) => v.requests)} (${count((v) => v.fromCache)} from cache) | ` +
-    `${kB((v) => v.appBytes)} kB | ${kB((v) => v.apiBytes)} kB | ${kB((v) => v.tileBytes)} kB | ${count((v) => v.lcpMs)} ms |`
+    `${kB((v) => v.appBytes)} kB | ${kB((v) => v.apiBytes)} kB | ${kB((v) => v.tileBytes)} kB | ${count((v) => v.lcpMs)} ms |` +
+    (TRACE_BUSY ? ` ${count((v) => v.busyMs)} ms |` : '')
   );
+}
+
+interface TraceEvent {
+  name: string;
+  ph: string;
+  pid: number;
+  tid: number;
+  ts: number;
+  dur?: number;
+}
+
+/**
+ * Traces the tab from here on. `busyBeforeLcp` ends the trace and sums the tasks the page's main
+ * thread ran from the navigation's start to the last largest contentful paint candidate: the
+ * part of the LCP that no faster network or server could take away.
+ */
+async function startTrace(cdp: CDPSession): Promise<{ busyBeforeLcp: () => Promise<number> }> {
+  const events: TraceEvent[] = [];
+  cdp.on('Tracing.dataCollected', (event) => {
+    events.push(...(event.value as unknown as TraceEvent[]));
+  });
+  await cdp.send('Tracing.start', {
+    categories: 'devtools.timeline,disabled-by-default-devtools.timeline,blink.user_timing,loading',
+    transferMode: 'ReportEvents',
+  });
+  return {
+    async busyBeforeLcp() {
+      const complete = new Promise((resolve) => cdp.once('Tracing.tracingComplete', resolve));
+      await cdp.send('Tracing.end');
+      await complete;
+      const lcp = events.filter((event) => event.name === 'largestContentfulPaint::Candidate').at(-1);
+      // The navigation of that paint (the last one started before it) and the page's main thread:
+      // the one that ran the most tasks in between (the tab may have changed renderer process).
+      const navigation = events.filter((event) => event.name === 'navigationStart' && lcp !== undefined && event.ts < lcp.ts).at(-1);
+      if (!navigation || !lcp) return Number.NaN;
+      const tasks = events.filter((event) => event.name === 'RunTask' && event.ts + (event.dur ?? 0) > navigation.ts && event.ts < lcp.ts);
+      const perThread = new Map<string, number>();
+      for (const task of tasks) perThread.set(`${task.pid}:${task.tid}`, (perThread.get(`${task.pid}:${task.tid}`) ?? 0) + (task.dur ?? 0));
+      const main = [...perThread].sort((a, b) => b[1] - a[1])[0]?.[0];
+      const busyMicros = tasks
+        .filter((event) => `${event.pid}:${event.tid}` === main)
+        .reduce((sum, event) => sum + Math.min(event.ts + (event.dur ?? 0), lcp.ts) - Math.max(event.ts, navigation.ts), 0);
+      return busyMicros / 1000;
+    },
+  };
 }
 
 /** Resolves once nothing has been in flight for `quietMs` (at most 15 s). */
