@@ -222,7 +222,6 @@ function tableRow(pageName: string, kind: string, visits: Visit[]): string {
 
 interface TraceEvent {
   name: string;
-  ph: string;
   pid: number;
   tid: number;
   ts: number;

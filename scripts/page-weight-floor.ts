@@ -17,7 +17,7 @@ import { spawnSync } from 'node:child_process';
 import { mkdtempSync, readFileSync, readdirSync, rmSync, statSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
-import { brotliCompressSync, constants } from 'node:zlib';
+import { brotliForWeb } from './precompress-web.mjs';
 
 interface MetafileOutput {
   bytes: number;
@@ -120,13 +120,7 @@ function missing(entry: string): never {
 }
 
 function brotli(content: Buffer): number {
-  return brotliCompressSync(content, {
-    params: {
-      [constants.BROTLI_PARAM_QUALITY]: constants.BROTLI_MAX_QUALITY,
-      [constants.BROTLI_PARAM_MODE]: constants.BROTLI_MODE_TEXT,
-      [constants.BROTLI_PARAM_SIZE_HINT]: content.length,
-    },
-  }).length;
+  return brotliForWeb(content).length;
 }
 
 function kb(bytes: number): string {

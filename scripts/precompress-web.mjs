@@ -5,6 +5,7 @@
 // A copy is kept only when it is smaller than the file itself.
 import { readdirSync, readFileSync, statSync, writeFileSync } from 'node:fs';
 import { extname, join, relative, resolve } from 'node:path';
+import { pathToFileURL } from 'node:url';
 import { brotliCompressSync, constants, gzipSync } from 'node:zlib';
 
 /** Text formats worth compressing; fonts (woff2) and images (png) are compressed already. */
@@ -12,31 +13,37 @@ const COMPRESSIBLE = new Set(['.js', '.mjs', '.css', '.svg', '.json', '.txt', '.
 /** Below this a compressed copy saves less than the headers cost (the compression middleware's default threshold). */
 const MIN_BYTES = 1024;
 
-const root = resolve(process.argv[2] ?? 'dist/web/browser');
-let files = 0;
-let before = 0;
-let afterBrotli = 0;
-for (const path of walk(root)) {
-  const name = relative(root, path);
-  if (name === 'index.html' || !COMPRESSIBLE.has(extname(path))) continue;
-  const content = readFileSync(path);
-  if (content.length < MIN_BYTES) continue;
-  // Quality 11 and level 9: the slowest and smallest settings, paid once at build time.
-  const brotli = brotliCompressSync(content, {
+/** The brotli copy of `content` as the server hands it out: quality 11, text mode (paid once at build time). */
+export function brotliForWeb(content) {
+  return brotliCompressSync(content, {
     params: {
       [constants.BROTLI_PARAM_QUALITY]: constants.BROTLI_MAX_QUALITY,
       [constants.BROTLI_PARAM_MODE]: constants.BROTLI_MODE_TEXT,
       [constants.BROTLI_PARAM_SIZE_HINT]: content.length,
     },
   });
-  const gzip = gzipSync(content, { level: 9 });
-  if (brotli.length < content.length) writeFileSync(`${path}.br`, brotli);
-  if (gzip.length < content.length) writeFileSync(`${path}.gz`, gzip);
-  files += 1;
-  before += content.length;
-  afterBrotli += Math.min(brotli.length, content.length);
 }
-console.log(`precompressed ${files} files in ${root}: ${kb(before)} → ${kb(afterBrotli)} with brotli`);
+
+if (import.meta.url === pathToFileURL(process.argv[1] ?? '').href) {
+  const root = resolve(process.argv[2] ?? 'dist/web/browser');
+  let files = 0;
+  let before = 0;
+  let afterBrotli = 0;
+  for (const path of walk(root)) {
+    const name = relative(root, path);
+    if (name === 'index.html' || !COMPRESSIBLE.has(extname(path))) continue;
+    const content = readFileSync(path);
+    if (content.length < MIN_BYTES) continue;
+    const brotli = brotliForWeb(content);
+    const gzip = gzipSync(content, { level: 9 });
+    if (brotli.length < content.length) writeFileSync(`${path}.br`, brotli);
+    if (gzip.length < content.length) writeFileSync(`${path}.gz`, gzip);
+    files += 1;
+    before += content.length;
+    afterBrotli += Math.min(brotli.length, content.length);
+  }
+  console.log(`precompressed ${files} files in ${root}: ${kb(before)} → ${kb(afterBrotli)} with brotli`);
+}
 
 function* walk(folder) {
   for (const entry of readdirSync(folder)) {
